@@ -1,0 +1,721 @@
+/**
+ * Interval data → an hourly usage profile on the typical year's 8760-hour grid.
+ *
+ * Inputs:
+ * - Green Button XML: the NAESB ESPI standard (REQ.21, Energy Services Provider Interface), an
+ *   Atom feed whose entries hold LocalTimeParameters, MeterReading, ReadingType and
+ *   IntervalBlock resources. An IntervalBlock holds IntervalReadings, each a timePeriod
+ *   (start: seconds since 1970-01-01 UTC; duration: seconds) and a value. The ReadingType
+ *   linked to the MeterReading gives the unit: value × 10^powerOfTenMultiplier in `uom`
+ *   (72 = Wh; codes from the ESPI/IEC 61968-9 UnitSymbolKind list), the flow direction
+ *   (1 = forward, delivered to the customer; 19 = reverse, received from the customer) and the
+ *   accumulation behaviour (4 = deltaData, energy per interval). Codes named from memory of
+ *   the ESPI schema.
+ * - CSV: a `timestamp` column (interval start, ISO 8601) and a `kWh` column; or separate date
+ *   and start-time columns with a usage column (and an optional units column), as utilities'
+ *   interval downloads often have; header lines before the column row are skipped.
+ *
+ * Time: the grid is local standard time with no daylight saving (year-calendar.ts). ESPI
+ * times are UTC and LocalTimeParameters.tzOffset gives the standard offset, so local standard
+ * time = UTC + tzOffset; daylight saving is ignored on purpose. CSV timestamps with an offset
+ * are converted with the site's standard offset; timestamps without one are read as local
+ * standard time (a note says so: a meter clock that follows daylight saving shifts summer
+ * hours by one).
+ *
+ * Aggregation: each reading is split over the clock hours it overlaps in proportion to the
+ * overlap. An hour is measured when readings cover at least half of it; its kWh is then scaled
+ * to the full hour (kWh × 3600 / covered seconds), which also averages duplicate readings.
+ * Hours of several years fall on the same grid hour (29 February is dropped) and are averaged.
+ *
+ * Gaps: a missing hour takes the mean of the measured hours at the same hour of day in the same
+ * calendar month; where that month has none at that hour, the reference residential load
+ * (load-shape.ts) scaled to the measured hours. Every filled hour is counted as estimated.
+ */
+import { z } from "zod";
+import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
+import { REFERENCE_LOAD_HOURLY_KWH } from "./data/reference-load-8760";
+import { HOURS_PER_YEAR, HOUR_MONTH, MONTH_DAYS, MONTH_START_DAY } from "./year-calendar";
+
+/** ESPI UnitSymbolKind for watt-hours. */
+export const ESPI_UOM_WH = 72;
+/** ESPI FlowDirectionKind: forward (delivered to the customer) and reverse (received from the customer). */
+export const ESPI_FLOW_FORWARD = 1;
+export const ESPI_FLOW_REVERSE = 19;
+/** ESPI AccumulationKind for energy per interval; bulkQuantity (1) and cumulative (3) are running register totals. */
+export const ESPI_ACCUMULATION_DELTA = 4;
+const ESPI_ACCUMULATION_RUNNING = new Set([1, 3]);
+/** An hour counts as measured when readings cover at least this share of it. */
+export const MIN_HOUR_COVERAGE = 0.5;
+/** A month whose hours are at least this share measured is reported as measured. */
+export const MEASURED_MONTH_COVERAGE = 0.9;
+/** Longest reading accepted, seconds (a monthly register read is a bill, not interval data). */
+export const MAX_READING_SECONDS = 7 * 86_400;
+const MAX_REPORTED_GAPS = 50;
+const MAX_ISSUES = 50;
+
+// ---------------------------------------------------------------------------------------------
+// A small XML reader: elements, attributes, text, CDATA, comments and processing instructions.
+// No DTDs or external entities (a DOCTYPE is refused), which also keeps entity expansion out.
+// ---------------------------------------------------------------------------------------------
+
+export type XmlElement = {
+  /** Local name, namespace prefix removed ("espi:IntervalBlock" → "IntervalBlock"). */
+  name: string;
+  attributes: Record<string, string>;
+  children: XmlElement[];
+  text: string;
+  line: number;
+};
+
+const ENTITIES: Record<string, string> = { amp: "&", lt: "<", gt: ">", quot: '"', apos: "'" };
+
+function decodeEntities(s: string, line: number): string {
+  return s.replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-zA-Z]+);/g, (_, ref: string) => {
+    if (ref.startsWith("#x")) return String.fromCodePoint(parseInt(ref.slice(2), 16));
+    if (ref.startsWith("#")) return String.fromCodePoint(parseInt(ref.slice(1), 10));
+    const value = ENTITIES[ref];
+    if (value === undefined) throw new EngineInputError([{ path: `line ${line}`, message: `unknown XML entity &${ref};` }], "Green Button XML");
+    return value;
+  });
+}
+
+const localName = (qname: string) => qname.slice(qname.indexOf(":") + 1);
+
+/** Parse an XML document into its root element. Throws EngineInputError with the line of the problem. */
+export function parseXml(text: string): XmlElement {
+  const fail = (pos: number, message: string): never => {
+    const line = text.slice(0, pos).split("\n").length;
+    throw new EngineInputError([{ path: `line ${line}`, message }], "Green Button XML");
+  };
+  let line = 1;
+  let lastPos = 0;
+  const lineAt = (pos: number) => {
+    for (let i = lastPos; i < pos; i++) if (text.charCodeAt(i) === 10) line++;
+    lastPos = pos;
+    return line;
+  };
+  const stack: XmlElement[] = [];
+  let root: XmlElement | null = null;
+  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  while (pos < text.length) {
+    const lt = text.indexOf("<", pos);
+    const textEnd = lt === -1 ? text.length : lt;
+    if (textEnd > pos) {
+      const chunk = text.slice(pos, textEnd);
+      if (stack.length > 0) stack[stack.length - 1].text += decodeEntities(chunk, lineAt(pos));
+      else if (chunk.trim() !== "") fail(pos, "text outside the root element");
+    }
+    if (lt === -1) break;
+    if (text.startsWith("<!--", lt)) {
+      const end = text.indexOf("-->", lt + 4);
+      if (end === -1) fail(lt, "unclosed comment");
+      pos = end + 3;
+    } else if (text.startsWith("<![CDATA[", lt)) {
+      const end = text.indexOf("]]>", lt + 9);
+      if (end === -1) fail(lt, "unclosed CDATA section");
+      if (stack.length > 0) stack[stack.length - 1].text += text.slice(lt + 9, end);
+      pos = end + 3;
+    } else if (text.startsWith("<?", lt)) {
+      const end = text.indexOf("?>", lt + 2);
+      if (end === -1) fail(lt, "unclosed processing instruction");
+      pos = end + 2;
+    } else if (text.startsWith("<!", lt)) {
+      fail(lt, "DOCTYPE and DTD declarations are not accepted");
+    } else if (text.startsWith("</", lt)) {
+      const end = text.indexOf(">", lt);
+      if (end === -1) fail(lt, "unclosed end tag");
+      const name = localName(text.slice(lt + 2, end).trim());
+      const open = stack.pop();
+      if (!open || open.name !== name) fail(lt, `end tag </${name}> does not match ${open ? `<${open.name}> opened on line ${open.line}` : "any open element"}`);
+      pos = end + 1;
+    } else {
+      const end = findTagEnd(text, lt);
+      if (end === -1) fail(lt, "unclosed tag");
+      const selfClosing = text.charCodeAt(end - 1) === 47; // "/"
+      const body = text.slice(lt + 1, selfClosing ? end - 1 : end);
+      const m = /^([A-Za-z_][\w.:-]*)/.exec(body);
+      if (!m) fail(lt, "malformed tag");
+      const element: XmlElement = { name: localName(m![1]), attributes: {}, children: [], text: "", line: lineAt(lt) };
+      const attrRe = /([A-Za-z_][\w.:-]*)\s*=\s*("([^"]*)"|'([^']*)')/g;
+      const rest = body.slice(m![1].length);
+      let a: RegExpExecArray | null;
+      while ((a = attrRe.exec(rest)) !== null) element.attributes[localName(a[1])] = decodeEntities(a[3] ?? a[4] ?? "", element.line);
+      if (stack.length > 0) stack[stack.length - 1].children.push(element);
+      else if (root) fail(lt, "a second root element");
+      else root = element;
+      if (!selfClosing) stack.push(element);
+      pos = end + 1;
+    }
+  }
+  if (stack.length > 0) fail(text.length, `<${stack[stack.length - 1].name}> opened on line ${stack[stack.length - 1].line} is never closed`);
+  if (!root) return fail(0, "no XML element found");
+  return root;
+}
+
+/** Index of the ">" closing a start tag, skipping ">" inside quoted attribute values. */
+function findTagEnd(text: string, from: number): number {
+  let quote = 0;
+  for (let i = from + 1; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (quote) {
+      if (c === quote) quote = 0;
+    } else if (c === 34 || c === 39) quote = c;
+    else if (c === 62) return i;
+  }
+  return -1;
+}
+
+function* descendants(el: XmlElement, name: string): Generator<XmlElement> {
+  for (const child of el.children) {
+    if (child.name === name) yield child;
+    else yield* descendants(child, name);
+  }
+}
+const child = (el: XmlElement, name: string) => el.children.find((c) => c.name === name);
+const childText = (el: XmlElement, name: string) => child(el, name)?.text.trim();
+
+// ---------------------------------------------------------------------------------------------
+// Readings
+// ---------------------------------------------------------------------------------------------
+
+/** One interval, with its start in "local standard seconds" (seconds since 1970-01-01 00:00 of the local standard clock). */
+export type IntervalReading = { startSec: number; durationSec: number; kwh: number };
+
+type ReadingTypeInfo = { uom: number | null; powerOfTen: number; flowDirection: number | null; accumulation: number | null; line: number };
+
+export type EspiParse = {
+  readings: IntervalReading[];
+  tzOffsetHours: number;
+  /** kWh received from the customer (flowDirection 19), if the feed has that channel. */
+  receivedKwh: number | null;
+  notes: string[];
+};
+
+function intOf(el: XmlElement, name: string, issues: EngineIssue[]): number | null {
+  const raw = childText(el, name);
+  if (raw === undefined || raw === "") return null;
+  const v = Number(raw);
+  if (!Number.isFinite(v)) {
+    issues.push({ path: `line ${child(el, name)?.line ?? el.line}`, message: `${name} "${raw}" is not a number` });
+    return null;
+  }
+  return v;
+}
+
+/** Read the delivered-energy interval readings of an ESPI (Green Button) XML document. */
+export function parseEspiXml(text: string, options: { utcOffsetHours?: number } = {}): EspiParse {
+  const root = parseXml(text);
+  const issues: EngineIssue[] = [];
+  const notes: string[] = [];
+
+  // Time zone: LocalTimeParameters.tzOffset (seconds), else the caller's site offset.
+  let tzOffsetSec: number | null = null;
+  for (const ltp of descendants(root, "LocalTimeParameters")) tzOffsetSec = intOf(ltp, "tzOffset", issues);
+  if (tzOffsetSec === null && root.name === "LocalTimeParameters") tzOffsetSec = intOf(root, "tzOffset", issues);
+  if (tzOffsetSec === null) {
+    if (options.utcOffsetHours === undefined) {
+      issues.push({ path: "utcOffsetHours", message: "the file has no LocalTimeParameters.tzOffset; give the site's UTC offset" });
+    } else {
+      tzOffsetSec = options.utcOffsetHours * 3600;
+      notes.push(`No LocalTimeParameters in the file: used the site's UTC offset (${options.utcOffsetHours} h).`);
+    }
+  } else if (options.utcOffsetHours !== undefined && Math.abs(options.utcOffsetHours * 3600 - tzOffsetSec) > 1) {
+    notes.push(`The file's time zone (UTC${tzOffsetSec >= 0 ? "+" : ""}${tzOffsetSec / 3600}) differs from the site's (${options.utcOffsetHours} h); the file's was used.`);
+  }
+
+  // ReadingTypes by their self link; MeterReadings' links to ReadingTypes.
+  const readingTypes = new Map<string, ReadingTypeInfo>();
+  const allTypes: ReadingTypeInfo[] = [];
+  const meterReadingType = new Map<string, string[]>();
+  const entries = root.name === "entry" ? [root] : [...descendants(root, "entry")];
+  const linksOf = (entry: XmlElement) => entry.children.filter((c) => c.name === "link").map((l) => ({ rel: l.attributes.rel ?? "", href: l.attributes.href ?? "" }));
+  const readType = (rt: XmlElement): ReadingTypeInfo => ({
+    uom: intOf(rt, "uom", issues),
+    powerOfTen: intOf(rt, "powerOfTenMultiplier", issues) ?? 0,
+    flowDirection: intOf(rt, "flowDirection", issues),
+    accumulation: intOf(rt, "accumulationBehaviour", issues),
+    line: rt.line,
+  });
+  for (const entry of entries) {
+    const content = child(entry, "content");
+    const self = linksOf(entry).find((l) => l.rel === "self")?.href;
+    const rt = content && child(content, "ReadingType");
+    if (rt) {
+      const info = readType(rt);
+      allTypes.push(info);
+      if (self) readingTypes.set(self, info);
+    }
+    if (content && child(content, "MeterReading") && self) {
+      meterReadingType.set(self, linksOf(entry).filter((l) => l.rel === "related").map((l) => l.href));
+    }
+  }
+  if (entries.length === 0) for (const rt of descendants(root, "ReadingType")) allTypes.push(readType(rt));
+
+  const typeForBlock = (entry: XmlElement | null): ReadingTypeInfo | null => {
+    if (entry) {
+      const hrefs = linksOf(entry).filter((l) => l.rel === "self" || l.rel === "up").map((l) => l.href);
+      for (const [meterHref, related] of meterReadingType) {
+        if (hrefs.some((h) => h.startsWith(`${meterHref}/`))) {
+          for (const r of related) {
+            const t = readingTypes.get(r);
+            if (t) return t;
+          }
+        }
+      }
+    }
+    return allTypes.length === 1 ? allTypes[0] : null;
+  };
+
+  const readings: IntervalReading[] = [];
+  let receivedKwh: number | null = null;
+  const blocks: { block: XmlElement; entry: XmlElement | null }[] = [];
+  if (entries.length > 0) {
+    for (const entry of entries) {
+      const content = child(entry, "content");
+      if (content) for (const block of descendants(content, "IntervalBlock")) blocks.push({ block, entry });
+    }
+  } else {
+    for (const block of root.name === "IntervalBlock" ? [root] : descendants(root, "IntervalBlock")) blocks.push({ block, entry: null });
+  }
+  if (blocks.length === 0) issues.push({ path: "IntervalBlock", message: "the file holds no IntervalBlock" });
+
+  const offset = tzOffsetSec ?? 0;
+  let skippedOther = 0;
+  for (const { block, entry } of blocks) {
+    const type = typeForBlock(entry);
+    if (!type) {
+      issues.push({ path: `line ${block.line}`, message: "cannot tell which ReadingType (unit) this IntervalBlock uses" });
+      continue;
+    }
+    if (type.uom !== null && type.uom !== ESPI_UOM_WH) {
+      issues.push({ path: `line ${type.line}`, message: `ReadingType uom ${type.uom} is not energy in Wh (${ESPI_UOM_WH}); only Wh readings are accepted` });
+      continue;
+    }
+    if (type.accumulation !== null && ESPI_ACCUMULATION_RUNNING.has(type.accumulation)) {
+      issues.push({ path: `line ${type.line}`, message: `accumulationBehaviour ${type.accumulation} is a running register total; interval energy (deltaData, ${ESPI_ACCUMULATION_DELTA}) is needed` });
+      continue;
+    }
+    const reverse = type.flowDirection === ESPI_FLOW_REVERSE;
+    if (type.flowDirection !== null && type.flowDirection !== ESPI_FLOW_FORWARD && !reverse) {
+      skippedOther++;
+      continue;
+    }
+    const kwhPerUnit = Math.pow(10, type.powerOfTen) / 1000;
+    for (const ir of block.children) {
+      if (ir.name !== "IntervalReading") continue;
+      const period = child(ir, "timePeriod");
+      const start = period ? intOf(period, "start", issues) : null;
+      const duration = period ? intOf(period, "duration", issues) : null;
+      const value = intOf(ir, "value", issues);
+      if (start === null || duration === null || value === null) {
+        if (issues.length < MAX_ISSUES) issues.push({ path: `line ${ir.line}`, message: "IntervalReading needs timePeriod start, duration and value" });
+        continue;
+      }
+      if (duration <= 0 || duration > MAX_READING_SECONDS) {
+        issues.push({ path: `line ${ir.line}`, message: `duration ${duration} s is outside 1 s … ${MAX_READING_SECONDS} s` });
+        continue;
+      }
+      const kwh = value * kwhPerUnit;
+      if (reverse) receivedKwh = (receivedKwh ?? 0) + kwh;
+      else readings.push({ startSec: start + offset, durationSec: duration, kwh });
+    }
+    if (issues.length >= MAX_ISSUES) break;
+  }
+  if (receivedKwh !== null) notes.push(`The feed also has ${round1(receivedKwh)} kWh received from the customer (flowDirection 19); it is not counted as usage.`);
+  if (skippedOther > 0) notes.push(`${skippedOther} IntervalBlock(s) with another flow direction (e.g. net) were left out.`);
+  if (issues.length > 0) throw new EngineInputError(issues.slice(0, MAX_ISSUES), "Green Button XML");
+  if (readings.length === 0) throw new EngineInputError([{ path: "IntervalReading", message: "no delivered-energy readings found" }], "Green Button XML");
+  return { readings, tzOffsetHours: offset / 3600, receivedKwh, notes };
+}
+
+// ---------------------------------------------------------------------------------------------
+// CSV
+// ---------------------------------------------------------------------------------------------
+
+const TIMESTAMP_HEADERS = ["timestamp", "datetime", "date_time", "date time", "start", "start_time_utc", "interval start", "interval_start"];
+const DATE_HEADERS = ["date"];
+const START_TIME_HEADERS = ["start time", "start_time", "time"];
+const END_TIME_HEADERS = ["end time", "end_time"];
+const ENERGY_HEADERS = ["kwh", "usage", "usage (kwh)", "value", "consumption", "energy", "import (kwh)"];
+const UNIT_HEADERS = ["units", "unit"];
+
+function splitCsv(line: string): string[] {
+  const out: string[] = [];
+  let cur = "";
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line[i];
+    if (quoted) {
+      if (c === '"' && line[i + 1] === '"') {
+        cur += '"';
+        i++;
+      } else if (c === '"') quoted = false;
+      else cur += c;
+    } else if (c === '"') quoted = true;
+    else if (c === ",") {
+      out.push(cur.trim());
+      cur = "";
+    } else cur += c;
+  }
+  out.push(cur.trim());
+  return out;
+}
+
+const ISO_RE = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{1,2}):(\d{2})(?::(\d{2})(?:\.\d+)?)?)?\s*(Z|[+-]\d{2}:?\d{2})?$/;
+
+/** Parse an ISO-like timestamp to seconds; `offsetSec` is null when the text carries no offset. */
+function parseTimestamp(s: string): { sec: number; offsetSec: number | null } | null {
+  const m = ISO_RE.exec(s.trim());
+  if (!m) return null;
+  const [y, mo, d, h, mi, se] = [m[1], m[2], m[3], m[4] ?? "0", m[5] ?? "0", m[6] ?? "0"].map(Number);
+  if (mo < 1 || mo > 12 || d < 1 || d > 31 || h > 24 || mi > 59 || se > 60) return null;
+  const t = Date.UTC(y, mo - 1, d, h, mi, se);
+  const check = new Date(Date.UTC(y, mo - 1, d));
+  if (check.getUTCDate() !== d) return null;
+  let offsetSec: number | null = null;
+  if (m[7]) {
+    if (m[7] === "Z") offsetSec = 0;
+    else {
+      const sign = m[7][0] === "-" ? -1 : 1;
+      const digits = m[7].slice(1).replace(":", "");
+      offsetSec = sign * (Number(digits.slice(0, 2)) * 3600 + Number(digits.slice(2)) * 60);
+    }
+  }
+  return { sec: t / 1000, offsetSec };
+}
+
+/** A date as YYYY-MM-DD or M/D/YYYY. */
+function normaliseDate(s: string): string | null {
+  const us = /^(\d{1,2})\/(\d{1,2})\/(\d{4})$/.exec(s.trim());
+  if (us) return `${us[3]}-${us[1].padStart(2, "0")}-${us[2].padStart(2, "0")}`;
+  return /^\d{4}-\d{2}-\d{2}$/.test(s.trim()) ? s.trim() : null;
+}
+
+/**
+ * Read interval CSV: timestamp + kWh columns, or date + start time (+ end time, units) + usage.
+ * Each row is an interval starting at its timestamp; its length comes from the end-time column
+ * or from the most common step between consecutive timestamps.
+ */
+export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number } = {}): { readings: IntervalReading[]; notes: string[] } {
+  const lines = text.replace(/^\uFEFF/, "").split(/\r?\n/);
+  const norm = (s: string) => s.trim().toLowerCase().replace(/^"|"$/g, "");
+  let headerIdx = -1;
+  let cols: string[] = [];
+  for (let i = 0; i < Math.min(lines.length, 50); i++) {
+    const c = splitCsv(lines[i]).map(norm);
+    const hasTime = c.some((x) => TIMESTAMP_HEADERS.includes(x)) || (c.some((x) => DATE_HEADERS.includes(x)) && c.some((x) => START_TIME_HEADERS.includes(x)));
+    if (hasTime && c.some((x) => ENERGY_HEADERS.includes(x))) {
+      headerIdx = i;
+      cols = c;
+      break;
+    }
+  }
+  if (headerIdx === -1) {
+    throw new EngineInputError(
+      [{ path: "line 1", message: "no header row with a timestamp (or date and start time) column and a kWh (or usage) column in the first 50 lines" }],
+      "interval CSV",
+    );
+  }
+  const find = (names: string[]) => cols.findIndex((c) => names.includes(c));
+  const tsCol = find(TIMESTAMP_HEADERS);
+  const dateCol = find(DATE_HEADERS);
+  const startCol = find(START_TIME_HEADERS);
+  const endCol = find(END_TIME_HEADERS);
+  const kwhCol = find(ENERGY_HEADERS);
+  const unitCol = find(UNIT_HEADERS);
+
+  const issues: EngineIssue[] = [];
+  const notes: string[] = [];
+  const rows: { sec: number; endSec: number | null; kwh: number }[] = [];
+  let withOffset = 0;
+  let withoutOffset = 0;
+  for (let i = headerIdx + 1; i < lines.length && issues.length < MAX_ISSUES; i++) {
+    if (lines[i].trim() === "") continue;
+    const f = splitCsv(lines[i]);
+    const lineNo = `line ${i + 1}`;
+    let stamp: string;
+    if (tsCol >= 0) stamp = f[tsCol] ?? "";
+    else {
+      const date = normaliseDate(f[dateCol] ?? "");
+      if (!date) {
+        issues.push({ path: lineNo, message: `date "${f[dateCol] ?? ""}" is not YYYY-MM-DD or M/D/YYYY` });
+        continue;
+      }
+      stamp = `${date}T${(f[startCol] ?? "").padStart(5, "0")}`;
+    }
+    const ts = parseTimestamp(stamp);
+    if (!ts) {
+      issues.push({ path: lineNo, message: `timestamp "${stamp}" is not an ISO 8601 date and time` });
+      continue;
+    }
+    const raw = (f[kwhCol] ?? "").replace(/,/g, "");
+    let kwh = Number(raw);
+    if (raw === "" || !Number.isFinite(kwh) || kwh < 0) {
+      issues.push({ path: lineNo, message: `kWh "${f[kwhCol] ?? ""}" must be a number ≥ 0` });
+      continue;
+    }
+    if (unitCol >= 0) {
+      const unit = (f[unitCol] ?? "").trim().toLowerCase();
+      if (unit === "wh") kwh /= 1000;
+      else if (unit !== "kwh" && unit !== "") {
+        issues.push({ path: lineNo, message: `unit "${f[unitCol]}" is not kWh or Wh` });
+        continue;
+      }
+    }
+    let sec = ts.sec;
+    if (ts.offsetSec !== null) {
+      withOffset++;
+      if (options.utcOffsetHours === undefined) {
+        issues.push({ path: "utcOffsetHours", message: "timestamps carry a UTC offset; give the site's standard UTC offset to place them in local standard time" });
+        break;
+      }
+      sec = ts.sec - ts.offsetSec + options.utcOffsetHours * 3600;
+    } else withoutOffset++;
+    let endSec: number | null = null;
+    if (endCol >= 0 && tsCol < 0 && f[endCol]) {
+      const end = parseTimestamp(`${stamp.slice(0, 10)}T${f[endCol].padStart(5, "0")}`);
+      if (end) {
+        // "00:59" style end times name the last minute of the interval.
+        endSec = end.sec + (end.sec % 3600 === 3540 || end.sec % 900 === 840 ? 60 : 0);
+        if (endSec <= ts.sec) endSec += 86_400; // an interval ending after midnight
+        endSec = sec + (endSec - ts.sec);
+      }
+    }
+    rows.push({ sec, endSec, kwh });
+  }
+  if (issues.length > 0) throw new EngineInputError(issues, "interval CSV");
+  if (rows.length === 0) throw new EngineInputError([{ path: `line ${headerIdx + 2}`, message: "no data rows" }], "interval CSV");
+  if (withoutOffset > 0) notes.push("Timestamps without a UTC offset were read as local standard time.");
+  if (withOffset > 0 && withoutOffset > 0) notes.push("Some timestamps carry a UTC offset and some do not.");
+
+  rows.sort((a, b) => a.sec - b.sec);
+  // Interval length: the most common step between consecutive starts (rows without an end time).
+  const steps = new Map<number, number>();
+  for (let i = 1; i < rows.length; i++) {
+    const step = rows[i].sec - rows[i - 1].sec;
+    if (step > 0) steps.set(step, (steps.get(step) ?? 0) + 1);
+  }
+  let commonStep = 3600;
+  let bestCount = 0;
+  for (const [step, count] of steps) if (count > bestCount || (count === bestCount && step < commonStep)) [commonStep, bestCount] = [step, count];
+  const readings = rows.map((r, i) => {
+    let duration = r.endSec !== null ? r.endSec - r.sec : commonStep;
+    // A row followed sooner than the common step (e.g. 15-minute rows inside hourly data) ends at the next row.
+    if (r.endSec === null && i + 1 < rows.length) {
+      const gap = rows[i + 1].sec - r.sec;
+      if (gap > 0 && gap < duration) duration = gap;
+    }
+    return { startSec: r.sec, durationSec: Math.min(Math.max(duration, 1), MAX_READING_SECONDS), kwh: r.kwh };
+  });
+  return { readings, notes };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Onto the 8760-hour grid
+// ---------------------------------------------------------------------------------------------
+
+export type IntervalMonth = {
+  month: number;
+  kwh: number;
+  measuredHours: number;
+  hours: number;
+  coverage: number;
+  status: "measured" | "partly estimated" | "estimated";
+};
+
+export type IntervalProfile = {
+  /** 8760 hourly kWh, hour 0 = 1 January 00:00 local standard time; gaps filled (see `measured`). */
+  hourlyKwh: number[];
+  /** 1 where the hour was measured, 0 where it was filled. */
+  measured: Uint8Array;
+  measuredHours: number;
+  /** Measured hours ÷ 8760. */
+  coverage: number;
+  monthlyKwh: number[];
+  annualKwh: number;
+  months: IntervalMonth[];
+  /** Runs of unmeasured grid hours, as typical-year dates ("MM-DD HH:00", local standard time). */
+  gaps: { from: string; to: string; hours: number }[];
+  gapCount: number;
+  readings: number;
+  /** First and last reading start, local standard time. */
+  firstReading: string;
+  lastReading: string;
+  receivedKwh: number | null;
+  notes: string[];
+};
+
+const round1 = (x: number) => Math.round(x * 10) / 10;
+const pad2 = (n: number) => String(n).padStart(2, "0");
+const localIso = (sec: number) => new Date(sec * 1000).toISOString().slice(0, 16).replace("T", " ");
+
+function gridLabel(h: number): string {
+  const day = Math.floor(h / 24);
+  const m = HOUR_MONTH[h];
+  return `${pad2(m + 1)}-${pad2(day - MONTH_START_DAY[m] + 1)} ${pad2(h % 24)}:00`;
+}
+
+/** Put interval readings (local standard seconds) onto the typical-year grid and fill the gaps. */
+export function readingsToProfile(readings: readonly IntervalReading[], notesIn: string[] = [], receivedKwh: number | null = null): IntervalProfile {
+  const notes = [...notesIn];
+  // Split each reading over the clock hours it touches.
+  const kwhByHour = new Map<number, number>();
+  const secByHour = new Map<number, number>();
+  let first = Infinity;
+  let last = -Infinity;
+  let longReadings = 0;
+  for (const r of readings) {
+    if (!(Number.isFinite(r.startSec) && r.durationSec > 0 && Number.isFinite(r.kwh) && r.kwh >= 0)) {
+      throw new EngineInputError([{ path: "readings", message: `reading at ${r.startSec} s is not a finite, non-negative interval` }], "interval data");
+    }
+    first = Math.min(first, r.startSec);
+    last = Math.max(last, r.startSec);
+    if (r.durationSec > 3600) longReadings++;
+    const end = r.startSec + r.durationSec;
+    for (let hourStart = Math.floor(r.startSec / 3600) * 3600; hourStart < end; hourStart += 3600) {
+      const overlap = Math.min(end, hourStart + 3600) - Math.max(r.startSec, hourStart);
+      if (overlap <= 0) continue;
+      const key = hourStart / 3600;
+      kwhByHour.set(key, (kwhByHour.get(key) ?? 0) + (r.kwh * overlap) / r.durationSec);
+      secByHour.set(key, (secByHour.get(key) ?? 0) + overlap);
+    }
+  }
+  if (longReadings > 0) notes.push(`${longReadings} reading(s) longer than an hour were spread evenly over their hours.`);
+
+  const sum = new Float64Array(HOURS_PER_YEAR);
+  const count = new Uint16Array(HOURS_PER_YEAR);
+  let duplicates = 0;
+  let leapDayHours = 0;
+  const years = new Set<number>();
+  for (const [key, kwh] of kwhByHour) {
+    const covered = secByHour.get(key) ?? 0;
+    if (covered < MIN_HOUR_COVERAGE * 3600) continue;
+    if (covered > 3600 + 1) duplicates++;
+    const date = new Date(key * 3_600_000);
+    const m = date.getUTCMonth();
+    const d = date.getUTCDate();
+    if (m === 1 && d === 29) {
+      leapDayHours++;
+      continue;
+    }
+    years.add(date.getUTCFullYear());
+    const h = (MONTH_START_DAY[m] + d - 1) * 24 + date.getUTCHours();
+    sum[h] += (kwh * 3600) / covered;
+    count[h]++;
+  }
+  if (duplicates > 0) notes.push(`${duplicates} hour(s) had overlapping readings; they were averaged.`);
+  if (leapDayHours > 0) notes.push(`${leapDayHours} hour(s) of 29 February were left out (the typical year has 365 days).`);
+  if (years.size > 1) notes.push(`Readings span ${years.size} calendar years; the same hour of different years was averaged.`);
+
+  const measured = new Uint8Array(HOURS_PER_YEAR);
+  const hourly = new Array<number>(HOURS_PER_YEAR).fill(0);
+  let measuredHours = 0;
+  for (let h = 0; h < HOURS_PER_YEAR; h++) {
+    if (count[h] > 0) {
+      measured[h] = 1;
+      hourly[h] = sum[h] / count[h];
+      measuredHours++;
+    }
+  }
+  if (measuredHours === 0) {
+    throw new EngineInputError([{ path: "readings", message: "no hour is at least half covered by readings" }], "interval data");
+  }
+
+  // Fill: same month, same hour of day; else the reference load scaled to the measured hours.
+  const slotSum = new Float64Array(12 * 24);
+  const slotCount = new Uint16Array(12 * 24);
+  let measuredKwh = 0;
+  let measuredRef = 0;
+  for (let h = 0; h < HOURS_PER_YEAR; h++) {
+    if (!measured[h]) continue;
+    const slot = HOUR_MONTH[h] * 24 + (h % 24);
+    slotSum[slot] += hourly[h];
+    slotCount[slot]++;
+    measuredKwh += hourly[h];
+    measuredRef += REFERENCE_LOAD_HOURLY_KWH[h];
+  }
+  const refScale = measuredRef > 0 ? measuredKwh / measuredRef : 0;
+  let fromReference = 0;
+  for (let h = 0; h < HOURS_PER_YEAR; h++) {
+    if (measured[h]) continue;
+    const slot = HOUR_MONTH[h] * 24 + (h % 24);
+    if (slotCount[slot] > 0) hourly[h] = slotSum[slot] / slotCount[slot];
+    else {
+      hourly[h] = REFERENCE_LOAD_HOURLY_KWH[h] * refScale;
+      fromReference++;
+    }
+  }
+  if (measuredHours < HOURS_PER_YEAR) {
+    notes.push(
+      `${HOURS_PER_YEAR - measuredHours} of ${HOURS_PER_YEAR} hours were estimated: ${HOURS_PER_YEAR - measuredHours - fromReference} from the same month and hour of day, ${fromReference} from the reference load scaled to the measured hours.`,
+    );
+  }
+
+  const gaps: IntervalProfile["gaps"] = [];
+  let gapCount = 0;
+  for (let h = 0; h < HOURS_PER_YEAR; ) {
+    if (measured[h]) {
+      h++;
+      continue;
+    }
+    const start = h;
+    while (h < HOURS_PER_YEAR && !measured[h]) h++;
+    gapCount++;
+    if (gaps.length < MAX_REPORTED_GAPS) gaps.push({ from: gridLabel(start), to: gridLabel(h - 1), hours: h - start });
+  }
+
+  const months: IntervalMonth[] = MONTH_DAYS.map((days, m) => {
+    let kwh = 0;
+    let mh = 0;
+    for (let h = MONTH_START_DAY[m] * 24; h < (MONTH_START_DAY[m] + days) * 24; h++) {
+      kwh += hourly[h];
+      mh += measured[h];
+    }
+    const coverage = mh / (days * 24);
+    return {
+      month: m + 1,
+      kwh,
+      measuredHours: mh,
+      hours: days * 24,
+      coverage,
+      status: coverage >= MEASURED_MONTH_COVERAGE ? "measured" : mh > 0 ? "partly estimated" : "estimated",
+    };
+  });
+  const monthlyKwh = months.map((m) => m.kwh);
+  return {
+    hourlyKwh: hourly,
+    measured,
+    measuredHours,
+    coverage: measuredHours / HOURS_PER_YEAR,
+    monthlyKwh,
+    annualKwh: monthlyKwh.reduce((a, b) => a + b, 0),
+    months,
+    gaps,
+    gapCount,
+    readings: readings.length,
+    firstReading: localIso(first),
+    lastReading: localIso(last),
+    receivedKwh,
+    notes,
+  };
+}
+
+export const intervalImportOptionsSchema = z.object({
+  format: z.enum(["auto", "espi-xml", "csv"]).default("auto"),
+  /** The site's standard UTC offset, hours (e.g. −5); used when the file does not give one. */
+  utcOffsetHours: z.number().finite().min(-12).max(14).optional(),
+});
+export type IntervalImportOptions = z.input<typeof intervalImportOptionsSchema>;
+
+/** Green Button XML or interval CSV text → hourly profile with coverage and gaps. */
+export function importIntervalData(text: string, options: IntervalImportOptions = {}): IntervalProfile {
+  const opts = parseOrThrow(intervalImportOptionsSchema, options, "interval data");
+  if (typeof text !== "string" || text.trim() === "") throw new EngineInputError([{ path: "file", message: "is empty" }], "interval data");
+  const format = opts.format === "auto" ? (text.trimStart().replace(/^\uFEFF/, "").startsWith("<") ? "espi-xml" : "csv") : opts.format;
+  if (format === "espi-xml") {
+    const parsed = parseEspiXml(text, { utcOffsetHours: opts.utcOffsetHours });
+    return readingsToProfile(parsed.readings, parsed.notes, parsed.receivedKwh);
+  }
+  const parsed = parseIntervalCsv(text, { utcOffsetHours: opts.utcOffsetHours });
+  return readingsToProfile(parsed.readings, parsed.notes);
+}
