@@ -2,7 +2,7 @@
 // with a message naming it (documented in .env.example).
 import { z } from "zod";
 
-const envSchema = z.object({
+export const envSchema = z.object({
   APP_MODE: z.enum(["demo", "test", "production"]),
   APP_URL: z.url().transform((u) => u.replace(/\/$/, "")),
   DATABASE_URL: z
@@ -20,8 +20,9 @@ const envSchema = z.object({
 
 export type Env = z.infer<typeof envSchema>;
 
-function parseEnv(): Env {
-  const parsed = envSchema.safeParse(process.env);
+/** Validates a set of variables; throws one message naming every bad variable. */
+export function parseEnv(source: Record<string, string | undefined> = process.env): Env {
+  const parsed = envSchema.safeParse(source);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
     throw new Error(`Kilowright cannot start: invalid configuration\n${lines.join("\n")}\nSee .env.example.`);

@@ -48,6 +48,7 @@ innodb_flush_log_at_trx_commit=1
 sync_binlog=1
 innodb_buffer_pool_size=128M
 max_connections=300
+default-time-zone=+00:00
 
 [mariadb-install-db]
 ${userLine}`,
