@@ -1,0 +1,45 @@
+// The one permission table (PRODUCT.md, "The people and what each must get done").
+// Every server action and route handler names one of these; pages use the same table to
+// decide which sections to show. Shared by server and browser, so no server imports here.
+import type { Role } from "@/db/schema";
+
+export const ROLE_LABELS: Record<Role, string> = {
+  owner: "Owner",
+  admin: "Admin",
+  office_manager: "Office manager",
+  sales_rep: "Sales rep",
+  crew: "Installer crew",
+};
+
+const STAFF_ADMINS: readonly Role[] = ["owner", "admin"];
+const OFFICE: readonly Role[] = ["owner", "admin", "office_manager"];
+const SELLERS: readonly Role[] = ["owner", "admin", "office_manager", "sales_rep"];
+
+export const PERMISSIONS = {
+  /** See every deal of the company. */
+  "deals:read-all": OFFICE,
+  /** See the deals one owns (reps); office roles see all through deals:read-all. */
+  "deals:read-own": SELLERS,
+  "deals:write": SELLERS,
+  "households:read": SELLERS,
+  /** Settings → People: list, invite, change roles, deactivate. */
+  "people:read": STAFF_ADMINS,
+  "people:manage": STAFF_ADMINS,
+  "company:manage": STAFF_ADMINS,
+  /** The dev outbox page (demo and test instances only). */
+  "outbox:read": STAFF_ADMINS,
+  /** Everyone signed in can see their own Today. */
+  "today:read": ["owner", "admin", "office_manager", "sales_rep", "crew"],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof PERMISSIONS;
+
+export function can(role: Role, permission: Permission): boolean {
+  return (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}
+
+/** Roles an inviter may hand out: only an owner makes another owner. */
+export function assignableRoles(inviter: Role): Role[] {
+  const all: Role[] = ["owner", "admin", "office_manager", "sales_rep", "crew"];
+  return inviter === "owner" ? all : all.filter((r) => r !== "owner");
+}

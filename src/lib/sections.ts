@@ -1,0 +1,17 @@
+// The app's sections (PRODUCT.md, "Names"), each behind a permission. Only sections that
+// work are listed; later issues add Board, Jobs, Catalog, Price book, Rate plans, Weather.
+import type { Role } from "@/db/schema";
+import { can, type Permission } from "@/lib/permissions";
+
+export type Section = { href: string; label: string; permission: Permission; devOnly?: boolean };
+
+export const SECTIONS: readonly Section[] = [
+  { href: "/today", label: "Today", permission: "today:read" },
+  { href: "/deals", label: "Deals", permission: "deals:read-own" },
+  { href: "/settings/people", label: "Settings", permission: "people:read" },
+  { href: "/dev/outbox", label: "Dev outbox", permission: "outbox:read", devOnly: true },
+];
+
+export function sectionsFor(role: Role, devTools: boolean): Section[] {
+  return SECTIONS.filter((s) => can(role, s.permission) && (!s.devOnly || devTools));
+}

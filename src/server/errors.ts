@@ -1,0 +1,34 @@
+import "server-only";
+
+/** An error with an HTTP status and a stable code, shown to the person as its message. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string[]>,
+  ) {
+    super(message);
+    this.name = "HttpError";
+  }
+}
+
+export const unauthorized = () => new HttpError(401, "unauthorized", "Sign in to continue.");
+export const forbidden = (what = "this") =>
+  new HttpError(403, "forbidden", `Your role does not allow ${what}. Ask your company's owner or admin.`);
+/** Also used for records of another company: they simply do not exist for this person. */
+export const notFound = (what = "Record") => new HttpError(404, "not_found", `${what} not found.`);
+
+/** True for errors meaning the database cannot be reached right now (so: 503, retry). */
+export function isDatabaseDown(err: unknown): boolean {
+  const codes = new Set(["ECONNREFUSED", "ECONNRESET", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "EPIPE", "ER_CON_COUNT_ERROR"]);
+  for (let e: unknown = err, depth = 0; e && depth < 5; depth++) {
+    if (typeof e === "object" && e !== null) {
+      const code = (e as { code?: unknown }).code;
+      if (typeof code === "string" && codes.has(code)) return true;
+      if ((e as { fatal?: unknown }).fatal === true) return true;
+      e = (e as { cause?: unknown }).cause;
+    } else break;
+  }
+  return false;
+}

@@ -1,0 +1,68 @@
+import "server-only";
+import { NextResponse, type NextRequest } from "next/server";
+import { z } from "zod";
+import type { Permission } from "@/lib/permissions";
+import { HttpError, isDatabaseDown } from "@/server/errors";
+import { requireMember, type Member } from "@/server/session";
+
+export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
+
+export function errorResponse(status: number, code: string, message: string, fields?: Record<string, string[]>) {
+  const body: ErrorBody = { error: { code, message, ...(fields ? { fields } : {}) } };
+  return NextResponse.json(body, { status });
+}
+
+/** Turns any thrown error into the JSON error body; unexpected ones are logged, not leaked. */
+export function toErrorResponse(err: unknown): NextResponse {
+  if (err instanceof HttpError) return errorResponse(err.status, err.code, err.message, err.fields);
+  if (isDatabaseDown(err)) {
+    return errorResponse(503, "database_unavailable", "The database cannot be reached right now. Try again shortly.");
+  }
+  console.error(err);
+  return errorResponse(500, "internal_error", "Something went wrong on our side. It has been logged.");
+}
+
+type RouteContext<P> = { params: Promise<P> };
+type Handler<P> = (args: { req: NextRequest; member: Member; params: P }) => Promise<Response>;
+
+/**
+ * The one wrapper for route handlers: loads the person, their company and role, checks
+ * the named permission (401/403 with a JSON body), then runs the handler.
+ */
+export function withMember<P = Record<string, never>>(permission: Permission, handler: Handler<P>) {
+  return async (req: NextRequest, ctx: RouteContext<P>): Promise<Response> => {
+    try {
+      const member = await requireMember(permission);
+      return await handler({ req, member, params: await ctx.params });
+    } catch (err) {
+      return toErrorResponse(err);
+    }
+  };
+}
+
+/** Reads a JSON body and validates it: 400 for malformed JSON, 422 naming each bad field. */
+export async function readJson<S extends z.ZodType>(req: Request, schema: S): Promise<z.output<S>> {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(await req.text());
+  } catch {
+    throw new HttpError(400, "invalid_json", "The request body is not valid JSON.");
+  }
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) throw validationError(parsed.error);
+  return parsed.data;
+}
+
+export function validationError(error: z.ZodError): HttpError {
+  const fields: Record<string, string[]> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.join(".") || "_";
+    (fields[key] ??= []).push(issue.message);
+  }
+  const first = Object.entries(fields)[0];
+  const message = first ? `${first[0] === "_" ? "Input" : first[0]}: ${first[1][0]}` : "Invalid input.";
+  return new HttpError(422, "validation_failed", message, fields);
+}
+
+/** Path ids are validated like every other input (a malformed id is simply not found). */
+export const idSchema = z.string().uuid();
