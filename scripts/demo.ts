@@ -1,0 +1,51 @@
+// `npm run demo`: MariaDB and the dev outbox on loopback, migrations, the demo company,
+// a production build, and the app on http://localhost:3000. Ctrl-C stops all of it.
+import path from "node:path";
+import { instance } from "./lib/instance";
+import { startMariaDb, stopMariaDb } from "./lib/mariadb";
+import { applyMigrations } from "./lib/migrate";
+import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "./lib/seed-demo";
+import { buildIfStale, startApp, startMailFake, stopServices, waitForHttp } from "./lib/services";
+import { ROLE_LABELS } from "../src/lib/permissions";
+
+const inst = instance("demo");
+let stopping = false;
+
+async function shutdown(code: number) {
+  if (stopping) return;
+  stopping = true;
+  console.log("\n· stopping the app, the dev outbox and MariaDB…");
+  await stopServices();
+  await stopMariaDb(inst.db).catch((err) => console.error(err));
+  process.exit(code);
+}
+process.on("SIGINT", () => void shutdown(0));
+process.on("SIGTERM", () => void shutdown(0));
+
+try {
+  console.log(`· MariaDB on 127.0.0.1:${inst.ports.db} (data in ${path.relative(process.cwd(), inst.db.dir)})`);
+  await startMariaDb(inst.db);
+  await applyMigrations(inst.appEnv.DATABASE_URL);
+  const seeded = await seedDemo(inst.appEnv.DATABASE_URL);
+  console.log(seeded.created ? "· demo company created" : "· demo company already there");
+  startMailFake(inst);
+  await waitForHttp(`${inst.mailUrl}/health`, "The dev outbox");
+  buildIfStale();
+  startApp(inst);
+  await waitForHttp(`${inst.appUrl}/api/health`, "Kilowright", 90_000);
+
+  const width = Math.max(...DEMO_PEOPLE.map((p) => p.email.length));
+  console.log(`
+Kilowright is running: ${inst.appUrl}
+
+Demo company: Tallgrass Bright Energy (invented). Every demo account uses the password
+  ${DEMO_PASSWORD}
+
+${DEMO_PEOPLE.map((p) => `  ${p.email.padEnd(width)}  ${ROLE_LABELS[p.role]} (${p.name})`).join("\n")}
+
+Mail goes to the dev outbox: sign in as owner or admin and open "Dev outbox".
+Logs: ${path.relative(process.cwd(), path.join(inst.dir, "logs"))}/  ·  Ctrl-C stops everything.`);
+} catch (err) {
+  console.error(`\nThe demo could not start: ${err instanceof Error ? err.message : String(err)}`);
+  await shutdown(1);
+}

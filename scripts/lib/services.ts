@@ -1,0 +1,109 @@
+// Starting and stopping the local services (mail fake, app) as child processes, waiting
+// until they answer, and building the app when its sources changed.
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { existsSync, mkdirSync, openSync, readdirSync, statSync } from "node:fs";
+import path from "node:path";
+import { projectRoot, type Instance } from "./instance";
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+const children: { name: string; child: ChildProcess }[] = [];
+
+export function startService(name: string, command: string, args: string[], env: Record<string, string>, logDir: string): ChildProcess {
+  mkdirSync(logDir, { recursive: true });
+  const log = openSync(path.join(logDir, `${name}.log`), "a");
+  const child = spawn(command, args, {
+    cwd: projectRoot,
+    env: { ...process.env, ...env },
+    stdio: ["ignore", log, log],
+    detached: true, // its own process group, so stopping it stops what it started
+  });
+  children.push({ name, child });
+  return child;
+}
+
+export async function waitForHttp(url: string, what: string, timeoutMs = 60_000, okStatuses = [200]): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  let last = "";
+  while (Date.now() < deadline) {
+    try {
+      const res = await fetch(url, { signal: AbortSignal.timeout(2_000) });
+      if (okStatuses.includes(res.status)) return;
+      last = `HTTP ${res.status}`;
+    } catch (err) {
+      last = err instanceof Error ? err.message : String(err);
+    }
+    await sleep(250);
+  }
+  throw new Error(`${what} did not answer at ${url} within ${timeoutMs / 1000} s (${last}).`);
+}
+
+export async function stopServices(): Promise<void> {
+  for (const { child } of children.reverse()) {
+    if (child.exitCode !== null || child.pid === undefined) continue;
+    try {
+      process.kill(-child.pid, "SIGTERM");
+    } catch {
+      /* already gone */
+    }
+  }
+  const deadline = Date.now() + 10_000;
+  while (children.some(({ child }) => child.exitCode === null && child.signalCode === null) && Date.now() < deadline) await sleep(100);
+  for (const { child } of children) {
+    if (child.exitCode === null && child.signalCode === null && child.pid !== undefined) {
+      try {
+        process.kill(-child.pid, "SIGKILL");
+      } catch {
+        /* gone */
+      }
+    }
+  }
+  children.length = 0;
+}
+
+export function startMailFake(inst: Instance): ChildProcess {
+  return startService(
+    "mail",
+    process.execPath,
+    [path.join(projectRoot, "node_modules/tsx/dist/cli.mjs"), "scripts/fakes/mail.ts"],
+    { MAIL_FAKE_PORT: String(inst.ports.mail), MAIL_FAKE_DIR: inst.mailDir, MAIL_FAKE_API_KEY: inst.secrets.resendKey },
+    path.join(inst.dir, "logs"),
+  );
+}
+
+export function startApp(inst: Instance): ChildProcess {
+  return startService(
+    "app",
+    process.execPath,
+    [path.join(projectRoot, "node_modules/next/dist/bin/next"), "start", "-H", "127.0.0.1", "-p", String(inst.ports.app)],
+    { ...inst.appEnv, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
+    path.join(inst.dir, "logs"),
+  );
+}
+
+const BUILD_INPUTS = ["src", "emails", "drizzle", "public", "package-lock.json", "tailwind.config.ts", "tsconfig.json", ".postcssrc.json"];
+
+function newestMtime(p: string): number {
+  if (!existsSync(p)) return 0;
+  const st = statSync(p);
+  if (!st.isDirectory()) return st.mtimeMs;
+  let newest = st.mtimeMs;
+  for (const entry of readdirSync(p)) newest = Math.max(newest, newestMtime(path.join(p, entry)));
+  return newest;
+}
+
+/** Builds for production unless .next is newer than every source (a re-run is then quick). */
+export function buildIfStale(): void {
+  const buildId = path.join(projectRoot, ".next", "BUILD_ID");
+  const sources = Math.max(...BUILD_INPUTS.map((p) => newestMtime(path.join(projectRoot, p))));
+  if (existsSync(buildId) && statSync(buildId).mtimeMs > sources) {
+    console.log("· the production build is up to date");
+    return;
+  }
+  console.log("· building for production (next build)…");
+  const r = spawnSync(process.execPath, [path.join(projectRoot, "node_modules/next/dist/bin/next"), "build"], {
+    cwd: projectRoot,
+    stdio: "inherit",
+    env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", NODE_ENV: "production" },
+  });
+  if (r.status !== 0) throw new Error("next build failed (see above).");
+}

@@ -1,0 +1,65 @@
+// `npm test`: the demo's set-up on the test profile's own ports and data (a fresh database
+// each run), then every layer: unit, integration (real MariaDB, the dev outbox) and browser
+// (Playwright driving Debian's chromium against a production build).
+import { spawnSync } from "node:child_process";
+import { rmSync } from "node:fs";
+import path from "node:path";
+import { instance, projectRoot } from "./lib/instance";
+import { resetDatabase, startMariaDb, stopMariaDb } from "./lib/mariadb";
+import { applyMigrations } from "./lib/migrate";
+import { seedDemo } from "./lib/seed-demo";
+import { buildIfStale, startApp, startMailFake, stopServices, waitForHttp } from "./lib/services";
+
+const inst = instance("test");
+const only = process.argv.slice(2).filter((a) => ["unit", "integration", "browser"].includes(a));
+const layers = only.length > 0 ? only : ["unit", "integration", "browser"];
+const started = Date.now();
+
+function run(label: string, args: string[], env: Record<string, string> = {}): boolean {
+  console.log(`\n━━ ${label} ━━`);
+  const r = spawnSync(process.execPath, args, { cwd: projectRoot, stdio: "inherit", env: { ...process.env, ...env } });
+  return r.status === 0;
+}
+
+const bin = (p: string) => path.join(projectRoot, "node_modules", p);
+const testEnv = { ...inst.appEnv, KW_TEST_MAIL_URL: inst.mailUrl };
+
+async function main(): Promise<boolean> {
+  const results: [string, boolean][] = [];
+  if (layers.includes("unit")) results.push(["unit", run("unit tests", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "unit"])]);
+
+  if (layers.includes("integration") || layers.includes("browser")) {
+    console.log(`\n· MariaDB (test) on 127.0.0.1:${inst.ports.db}, a fresh database`);
+    await startMariaDb(inst.db);
+    resetDatabase(inst.db);
+    await applyMigrations(inst.appEnv.DATABASE_URL);
+    await seedDemo(inst.appEnv.DATABASE_URL);
+    rmSync(inst.mailDir, { recursive: true, force: true });
+    rmSync(inst.appEnv.STORAGE_DIR, { recursive: true, force: true });
+    startMailFake(inst);
+    await waitForHttp(`${inst.mailUrl}/health`, "The dev outbox");
+  }
+  if (layers.includes("integration")) {
+    results.push(["integration", run("integration tests (real MariaDB)", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "integration"], testEnv)]);
+  }
+  if (layers.includes("browser")) {
+    buildIfStale();
+    startApp(inst);
+    await waitForHttp(`${inst.appUrl}/api/health`, "Kilowright (test)", 90_000);
+    results.push(["browser", run("browser tests (Playwright + chromium)", [bin("@playwright/test/cli.js"), "test", "-c", "tests/playwright.config.ts"], testEnv)]);
+  }
+  const minutes = ((Date.now() - started) / 60_000).toFixed(1);
+  console.log(`\n${results.map(([name, ok]) => `${ok ? "✓" : "✗"} ${name}`).join("   ")}   (${minutes} min)`);
+  return results.every(([, ok]) => ok);
+}
+
+let ok = false;
+try {
+  ok = await main();
+} catch (err) {
+  console.error(err instanceof Error ? err.message : err);
+} finally {
+  await stopServices();
+  await stopMariaDb(inst.db).catch((err) => console.error(err));
+}
+process.exit(ok ? 0 : 1);
