@@ -1,0 +1,89 @@
+// Shared helpers for the browser tests: the dev outbox, direct database access for set-up,
+// and signing in. The app under test is the production build started by `npm test`.
+import { expect, type APIRequestContext, type Page } from "@playwright/test";
+import { hashPassword } from "better-auth/crypto";
+import mysql from "mysql2/promise";
+import { z } from "zod";
+
+export const DEMO_PASSWORD = "tallgrass-demo-2026";
+export const APP_URL = process.env.APP_URL ?? "";
+
+const messageSchema = z.object({
+  id: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  html: z.string().nullable().optional(),
+  createdAt: z.string(),
+});
+export type OutboxMessage = z.infer<typeof messageSchema>;
+
+/** Waits for the newest message to `to` (optionally matching the subject) in the dev outbox. */
+export async function waitForMail(to: string, subject?: RegExp, timeoutMs = 15_000): Promise<OutboxMessage> {
+  const url = `${process.env.KW_TEST_MAIL_URL}/dev/messages?to=${encodeURIComponent(to)}&limit=20`;
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    const res = await fetch(url, { headers: { Authorization: `Bearer ${process.env.RESEND_API_KEY}` } });
+    if (res.ok) {
+      const { data } = z.object({ data: z.array(messageSchema) }).parse(await res.json());
+      const found = data.find((m) => !subject || subject.test(m.subject));
+      if (found) return found;
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`No e-mail to ${to}${subject ? ` matching ${subject}` : ""} reached the dev outbox`);
+}
+
+/** The first link in a message whose address contains `part`. */
+export function linkIn(message: OutboxMessage, part: string): string {
+  const hrefs = [...(message.html ?? "").matchAll(/href="([^"]+)"/g)].map((m) => m[1].replaceAll("&amp;", "&"));
+  const link = hrefs.find((h) => h.includes(part));
+  if (!link) throw new Error(`No link containing ${part} in "${message.subject}": ${hrefs.join(", ")}`);
+  return link;
+}
+
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(/\/today$/);
+}
+
+/** Signs an API client in through better-auth's endpoint (its cookie stays in the context). */
+export async function apiSignIn(request: APIRequestContext, email: string, password = DEMO_PASSWORD): Promise<void> {
+  const res = await request.post("/api/auth/sign-in/email", {
+    data: { email, password },
+    headers: { Origin: APP_URL },
+  });
+  expect(res.status(), await res.text()).toBe(200);
+}
+
+export async function withDb<T>(fn: (conn: mysql.Connection) => Promise<T>): Promise<T> {
+  const conn = await mysql.createConnection({ uri: process.env.DATABASE_URL, timezone: "Z" });
+  try {
+    return await fn(conn);
+  } finally {
+    await conn.end();
+  }
+}
+
+export const unique = (prefix: string) => `${prefix}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}`;
+
+/** A second company with a verified owner, written straight to the database for set-up. */
+export async function createCompany(name: string): Promise<{ companyId: string; email: string; password: string }> {
+  const companyId = crypto.randomUUID();
+  const userId = crypto.randomUUID();
+  const email = `${unique("owner")}@othercompany.example`;
+  const password = "other-company-pass-1";
+  const hash = await hashPassword(password);
+  await withDb(async (conn) => {
+    await conn.query("INSERT INTO company (id, name) VALUES (?, ?)", [companyId, name]);
+    await conn.query("INSERT INTO user (id, name, email, email_verified) VALUES (?, ?, ?, 1)", [userId, "Other Owner", email]);
+    await conn.query("INSERT INTO account (id, account_id, provider_id, user_id, password) VALUES (?, ?, 'credential', ?, ?)", [crypto.randomUUID(), userId, userId, hash]);
+    await conn.query("INSERT INTO membership (id, company_id, user_id, role) VALUES (?, ?, ?, 'owner')", [crypto.randomUUID(), companyId, userId]);
+  });
+  return { companyId, email, password };
+}
+
+/** The page's own alerts (Next.js adds an empty route announcer with role="alert"). */
+export const alertOf = (page: Page) => page.locator('[role="alert"]:not(#__next-route-announcer__)');

@@ -1,0 +1,60 @@
+import { expect, test } from "@playwright/test";
+import { apiSignIn, createCompany, withDb } from "./support";
+
+const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
+
+/**
+ * How each company-owned table is read by id over HTTP. The test walks every table that
+ * has a company_id column: a new table without an entry here fails it, so new entities are
+ * covered as they arrive.
+ */
+const READ_BY_ID: Record<string, (id: string) => string> = {
+  membership: (id) => `/api/people/${id}`,
+  invitation: (id) => `/api/invitations/${id}`,
+  household: (id) => `/api/households/${id}`,
+  deal: (id) => `/api/deals/${id}`,
+};
+
+test("company B asking for company A's records by id gets 404, for every table", async ({ playwright, request }) => {
+  // Company A (the demo company) needs at least one row in every table: add an invitation.
+  await apiSignIn(request, "admin@tallgrass.example");
+  const invited = await request.post("/api/people", { data: { email: `tenancy-${Date.now()}@tallgrass.example`, role: "crew" } });
+  expect(invited.status()).toBe(201);
+
+  const tables = await withDb(async (conn) => {
+    const [rows] = await conn.query(
+      "SELECT table_name AS name FROM information_schema.columns WHERE table_schema = DATABASE() AND column_name = 'company_id' ORDER BY table_name",
+    );
+    return (rows as { name: string }[]).map((r) => r.name);
+  });
+  expect(tables.length).toBeGreaterThanOrEqual(4);
+  expect(tables.filter((t) => !READ_BY_ID[t]), "tables with company_id but no read-by-id route in this test").toEqual([]);
+
+  const other = await createCompany("Riverbend Rooftop Power");
+  const companyB = await playwright.request.newContext({ baseURL: process.env.APP_URL });
+  await apiSignIn(companyB, other.email, other.password);
+
+  for (const table of tables) {
+    const ids = await withDb(async (conn) => {
+      const [rows] = await conn.query(`SELECT id FROM \`${table}\` WHERE company_id = ? LIMIT 3`, [DEMO_COMPANY_ID]);
+      return (rows as { id: string }[]).map((r) => r.id);
+    });
+    expect(ids.length, `company A has no ${table} row to test with`).toBeGreaterThan(0);
+    for (const id of ids) {
+      const url = READ_BY_ID[table](id);
+      const own = await request.get(url);
+      expect(own.status(), `${url} as company A`).toBe(200);
+      const foreign = await companyB.get(url);
+      expect(foreign.status(), `${url} as company B`).toBe(404);
+      expect((await foreign.json()).error.code).toBe("not_found");
+    }
+  }
+  // Writes are scoped the same way.
+  const [membershipId] = await withDb(async (conn) => {
+    const [rows] = await conn.query("SELECT id FROM membership WHERE company_id = ? AND role = 'sales_rep' LIMIT 1", [DEMO_COMPANY_ID]);
+    return (rows as { id: string }[]).map((r) => r.id);
+  });
+  const patch = await companyB.patch(`/api/people/${membershipId}`, { data: { status: "deactivated" } });
+  expect(patch.status()).toBe(404);
+  await companyB.dispose();
+});

@@ -1,0 +1,34 @@
+// Set-up helpers for integration tests: real MariaDB (the test profile's, started by
+// `npm test`), records written through the app's own modules where they exist.
+import { eq } from "drizzle-orm";
+import { company, membership, user, type Role } from "@/db/schema";
+import { db } from "@/server/db";
+import { createCompanyForOwner } from "@/server/people";
+import type { Member } from "@/server/session";
+
+export const uniqueEmail = (prefix: string) => `${prefix}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}@integration.example`;
+
+async function insertUser(name: string, email: string): Promise<string> {
+  const id = crypto.randomUUID();
+  await db().insert(user).values({ id, name, email, emailVerified: true });
+  return id;
+}
+
+/** A fresh company with its owner, returned as the Member the server modules take. */
+export async function newCompany(name = "Integration Solar Co"): Promise<Member> {
+  const email = uniqueEmail("owner");
+  const userId = await insertUser("Olive Owner", email);
+  const companyId = await createCompanyForOwner(userId, name);
+  const [m] = await db().select().from(membership).where(eq(membership.userId, userId));
+  return { userId, name: "Olive Owner", email, membershipId: m.id, companyId, companyName: name, role: "owner" };
+}
+
+/** Adds a person with a role to a company. */
+export async function addMember(owner: Member, role: Role, name = "Sam Member"): Promise<Member> {
+  const email = uniqueEmail(role);
+  const userId = await insertUser(name, email);
+  const membershipId = crypto.randomUUID();
+  await db().insert(membership).values({ id: membershipId, companyId: owner.companyId, userId, role });
+  const [c] = await db().select().from(company).where(eq(company.id, owner.companyId));
+  return { userId, name, email, membershipId, companyId: owner.companyId, companyName: c.name, role };
+}
