@@ -162,8 +162,8 @@ export function buildCashflow(input: CashflowInput): CashflowResult {
       incentivesCents: upfront,
       systemPaymentCents: yearZeroOutlay + (v.payment.kind === "cash" ? upfront : 0),
       omCents: 0,
-      cashFlowCents: -yearZeroOutlay,
-      cumulativeCents: -yearZeroOutlay,
+      cashFlowCents: 0 - yearZeroOutlay, // not -x: a zero outlay must print as 0, not −0
+      cumulativeCents: 0 - yearZeroOutlay,
     },
   ];
   // Year 0 shows the gross outlay beside the incentive; the cash flow is the net of both (cash)
@@ -172,7 +172,7 @@ export function buildCashflow(input: CashflowInput): CashflowResult {
   if (v.payment.kind === "loan") rows[0].incentivesCents = 0;
 
   const year1Savings = v.billWithoutSolarCents - (Array.isArray(v.billWithSolarCents) ? v.billWithSolarCents[0] : v.billWithSolarCents);
-  let cumulative = -yearZeroOutlay;
+  let cumulative = 0 - yearZeroOutlay;
   let lifetimeSavings = 0;
   let lifetimeKwh = 0;
   for (let n = 1; n <= v.years; n++) {

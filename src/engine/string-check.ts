@@ -207,7 +207,7 @@ export function checkString(input: StringCheckInput): StringCheckResult {
 
   const checks: CheckLine[] = [];
   const volts = (x: number) => `${round(x, 2)} V`;
-  const factorText = method === "coefficient" ? `1 + (${v.lowestTempC} − 25) × ${mod.vocCoeffPctPerC} % = ${round(factor, 5)}` : `Table 690.7(A) factor ${factor}`;
+  const factorText = method === "coefficient" ? `(1 + (${v.lowestTempC} − 25) × ${mod.vocCoeffPctPerC} %) = ${round(factor, 5)} →` : `Table 690.7(A) factor ${factor} →`;
   checks.push({
     id: "max-voltage",
     status: stringVocMax <= inv.maxDcInputV ? "pass" : "fail",
@@ -215,7 +215,7 @@ export function checkString(input: StringCheckInput): StringCheckResult {
     limit: inv.maxDcInputV,
     unit: "V",
     rule: "NEC 690.7(A); inverter maximum DC input voltage",
-    detail: `${n} × ${mod.vocV} V × ${factorText} = ${volts(stringVocMax)} against the inverter's ${inv.maxDcInputV} V`,
+    detail: `${n} × ${mod.vocV} V × ${factorText} ${volts(stringVocMax)} against the inverter's ${inv.maxDcInputV} V`,
   });
   checks.push({
     id: "code-voltage-limit",
