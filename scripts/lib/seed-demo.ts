@@ -1,6 +1,9 @@
 // The invented demo company of PRODUCT.md: Tallgrass Bright Energy, one person per role
 // (and the second rep and crew the brief describes), and a dozen households at every stage.
 // Places and people are made up. Idempotent: fixed ids, inserted only when missing.
+import { readdirSync } from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
 import { hashPassword } from "better-auth/crypto";
 import { eq } from "drizzle-orm";
 import { drizzle } from "drizzle-orm/mysql2";
@@ -58,6 +61,29 @@ const HOUSEHOLDS: DemoHousehold[] = [
   { name: "Nakamura household", street: "7 Glassmere Court", city: "Greensboro", postalCode: "27455", latitude: 36.1521, longitude: -79.8347, stage: "lost", rep: 105, source: "Door to door", dcWatts: 6_000, contractCents: 1_740_000, daysInStage: 40 },
 ];
 
+/** What each area's seed module (scripts/lib/seed/<area>.ts) receives. */
+export type SeedContext = {
+  companyId: string;
+  people: DemoPerson[];
+  /** Deal ids in the order of HOUSEHOLDS (uid(301 + i)). */
+  dealIds: string[];
+  tx: Parameters<Parameters<ReturnType<typeof drizzle<typeof schema>>["transaction"]>[0]>[0];
+};
+export type SeedModule = { order: number; seed: (ctx: SeedContext) => Promise<void> };
+
+/** Each area of the product seeds its own demo rows from scripts/lib/seed/*.ts, in `order`. */
+async function areaSeeds(): Promise<SeedModule[]> {
+  const dir = path.join(path.dirname(fileURLToPath(import.meta.url)), "seed");
+  let files: string[] = [];
+  try {
+    files = readdirSync(dir).filter((f) => f.endsWith(".ts") && !f.endsWith(".test.ts"));
+  } catch {
+    return [];
+  }
+  const modules = await Promise.all(files.sort().map(async (f) => (await import(path.join(dir, f))) as SeedModule));
+  return modules.sort((a, b) => a.order - b.order);
+}
+
 export async function seedDemo(databaseUrl: string): Promise<{ created: boolean }> {
   const connection = await mysql.createConnection({ uri: databaseUrl, timezone: "Z" });
   const db = drizzle(connection, { schema, mode: "default" });
@@ -65,6 +91,7 @@ export async function seedDemo(databaseUrl: string): Promise<{ created: boolean 
     const [existing] = await db.select({ id: company.id }).from(company).where(eq(company.id, DEMO_COMPANY_ID)).limit(1);
     if (existing) return { created: false };
     const passwordHash = await hashPassword(DEMO_PASSWORD);
+    const areas = await areaSeeds();
     await db.transaction(async (tx) => {
       await tx.insert(company).values({ id: DEMO_COMPANY_ID, name: "Tallgrass Bright Energy", licenseNumber: "NC-DEMO-00417" });
       for (const p of DEMO_PEOPLE) {
@@ -101,6 +128,8 @@ export async function seedDemo(databaseUrl: string): Promise<{ created: boolean 
           contractCents: h.contractCents,
         });
       }
+      const ctx: SeedContext = { companyId: DEMO_COMPANY_ID, people: DEMO_PEOPLE, dealIds: HOUSEHOLDS.map((_, i) => uid(301 + i)), tx };
+      for (const area of areas) await area.seed(ctx);
     });
     return { created: true };
   } finally {

@@ -4,7 +4,10 @@
 import { sql } from "drizzle-orm";
 import {
   boolean,
+  date,
   datetime,
+  double,
+  json,
   decimal,
   index,
   int,
@@ -181,8 +184,13 @@ export const household = mysqlTable(
       .notNull()
       .references(() => company.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 200 }).notNull(),
+    /** The person the rep deals with; a second adult can be added as the co-signer. */
+    contactName: varchar("contact_name", { length: 200 }),
     email: varchar("email", { length: 320 }),
     phone: varchar("phone", { length: 40 }),
+    secondContactName: varchar("second_contact_name", { length: 200 }),
+    secondContactEmail: varchar("second_contact_email", { length: 320 }),
+    secondContactPhone: varchar("second_contact_phone", { length: 40 }),
     street: varchar("street", { length: 200 }).notNull(),
     city: varchar("city", { length: 100 }).notNull(),
     region: varchar("region", { length: 50 }).notNull(),
@@ -209,6 +217,8 @@ export const deal = mysqlTable(
     stage: mysqlEnum("stage", STAGES).notNull().default("lead"),
     stageChangedAt: timestamp("stage_changed_at", { fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
     source: varchar("source", { length: 100 }),
+    utilityName: varchar("utility_name", { length: 200 }),
+    ratePlanId: id("rate_plan_id"),
     /** Contract value in integer cents, once priced. */
     contractCents: int("contract_cents"),
     systemDcWatts: int("system_dc_watts"),
@@ -218,4 +228,310 @@ export const deal = mysqlTable(
   (t) => [index("deal_company_stage_idx").on(t.companyId, t.stage), index("deal_owner_idx").on(t.companyId, t.ownerUserId)],
 );
 
-export const schema = { user, session, account, verification, company, membership, invitation, signInFailure, household, deal };
+// ── The rep's workspace: energy, catalog, price book, rate plans, weather, design, offers ──
+
+/** A file a person uploaded (bill PDF or photo, interval data, weather file). Bytes live in storage. */
+export const upload = mysqlTable(
+  "upload",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id").references(() => deal.id, { onDelete: "cascade" }),
+    purpose: mysqlEnum("purpose", ["bill", "interval_data", "weather", "site_photo"]).notNull(),
+    fileName: varchar("file_name", { length: 255 }).notNull(),
+    /** Detected from the content (file-type), never from the name. */
+    mimeType: varchar("mime_type", { length: 100 }).notNull(),
+    sizeBytes: int("size_bytes").notNull(),
+    sha256: varchar("sha256", { length: 64 }).notNull(),
+    storageKey: varchar("storage_key", { length: 255 }).notNull(),
+    /** Text found in a PDF, or null for a scan or a photo. */
+    extractedText: text("extracted_text"),
+    uploadedByUserId: id("uploaded_by_user_id").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("upload_deal_idx").on(t.companyId, t.dealId)],
+);
+
+/** One utility bill: its billing period, kWh and amount, typed or confirmed from an upload. */
+export const bill = mysqlTable(
+  "bill",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    periodStart: date("period_start", { mode: "string" }).notNull(),
+    periodEnd: date("period_end", { mode: "string" }).notNull(),
+    kwh: double("kwh").notNull(),
+    costCents: int("cost_cents"),
+    uploadId: id("upload_id").references(() => upload.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index("bill_deal_idx").on(t.companyId, t.dealId, t.periodStart)],
+);
+
+/** Hourly consumption from Green Button or CSV interval data, on the 8760-hour grid. */
+export const intervalProfile = mysqlTable(
+  "interval_profile",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    uploadId: id("upload_id").references(() => upload.id, { onDelete: "set null" }),
+    hourlyKwh: json("hourly_kwh").$type<number[]>().notNull(),
+    annualKwh: double("annual_kwh").notNull(),
+    coveragePct: double("coverage_pct").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("interval_profile_deal_idx").on(t.companyId, t.dealId)],
+);
+
+/** A typical-year weather file for a place (EPW, TMY3 or generic CSV), uploaded by an admin. */
+export const weatherStation = mysqlTable(
+  "weather_station",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    name: varchar("name", { length: 200 }).notNull(),
+    format: mysqlEnum("format", ["epw", "tmy3", "csv"]).notNull(),
+    latitude: double("latitude").notNull(),
+    longitude: double("longitude").notNull(),
+    elevationM: double("elevation_m").notNull(),
+    utcOffsetHours: double("utc_offset_hours").notNull(),
+    /** Where the data comes from, shown beside every estimate that uses it. */
+    attribution: text("attribution").notNull(),
+    annualGhiKwhPerM2: double("annual_ghi_kwh_per_m2").notNull(),
+    uploadId: id("upload_id")
+      .notNull()
+      .references(() => upload.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index("weather_station_company_idx").on(t.companyId)],
+);
+
+export const CELL_TECHNOLOGIES = ["mono_perc", "topcon", "heterojunction", "back_contact", "polycrystalline", "thin_film_cdte", "thin_film_cigs"] as const;
+
+/** A PV module in the company's catalog (datasheet values at STC). */
+export const moduleModel = mysqlTable(
+  "module_model",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    manufacturer: varchar("manufacturer", { length: 100 }).notNull(),
+    model: varchar("model", { length: 100 }).notNull(),
+    stcWatts: double("stc_watts").notNull(),
+    vocV: double("voc_v").notNull(),
+    iscA: double("isc_a").notNull(),
+    vmpV: double("vmp_v").notNull(),
+    impA: double("imp_a").notNull(),
+    gammaPmaxPctPerC: double("gamma_pmax_pct_per_c").notNull(),
+    betaVocPctPerC: double("beta_voc_pct_per_c").notNull(),
+    lengthMm: int("length_mm").notNull(),
+    widthMm: int("width_mm").notNull(),
+    cellTechnology: mysqlEnum("cell_technology", CELL_TECHNOLOGIES).notNull(),
+    construction: mysqlEnum("construction", ["glass_glass", "glass_backsheet"]).notNull(),
+    encapsulant: varchar("encapsulant", { length: 50 }),
+    active: boolean("active").notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("module_model_uq").on(t.companyId, t.manufacturer, t.model)],
+);
+
+/** A string inverter or a microinverter in the company's catalog. */
+export const inverterModel = mysqlTable(
+  "inverter_model",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    manufacturer: varchar("manufacturer", { length: 100 }).notNull(),
+    model: varchar("model", { length: 100 }).notNull(),
+    kind: mysqlEnum("kind", ["string", "micro"]).notNull(),
+    acWatts: double("ac_watts").notNull(),
+    efficiencyPct: double("efficiency_pct").notNull(),
+    /** String inverters: max DC input voltage, MPPT window, max input current per MPPT. */
+    maxDcVoltageV: double("max_dc_voltage_v"),
+    mpptMinV: double("mppt_min_v"),
+    mpptMaxV: double("mppt_max_v"),
+    maxInputCurrentA: double("max_input_current_a"),
+    mpptCount: int("mppt_count"),
+    /** Microinverters: the DC input range and how many modules one unit takes. */
+    dcInputMinV: double("dc_input_min_v"),
+    dcInputMaxV: double("dc_input_max_v"),
+    modulesPerUnit: int("modules_per_unit"),
+    active: boolean("active").notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("inverter_model_uq").on(t.companyId, t.manufacturer, t.model)],
+);
+
+/**
+ * The company's price book and selling policies as one validated document (bands, adders,
+ * line items, discount limits per role, incentive rules, deposit policy). Schema:
+ * src/lib/schemas/price-book.ts. One row per company.
+ */
+export const priceBook = mysqlTable(
+  "price_book",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    document: json("document").notNull(),
+    updatedByUserId: id("updated_by_user_id").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("price_book_company_uq").on(t.companyId)],
+);
+
+/** A utility rate plan; `plan` is the engine's rate plan input (src/engine/rates.ts). */
+export const ratePlan = mysqlTable(
+  "rate_plan",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    name: varchar("name", { length: 200 }).notNull(),
+    utilityName: varchar("utility_name", { length: 200 }).notNull(),
+    plan: json("plan").notNull(),
+    active: boolean("active").notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index("rate_plan_company_idx").on(t.companyId)],
+);
+
+/** The deal's working design: equipment, roof faces and module counts (schema: src/lib/schemas/design.ts). */
+export const design = mysqlTable(
+  "design",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    document: json("document").notNull(),
+    /** The station chosen by the rep; null means the nearest one. */
+    weatherStationId: id("weather_station_id").references(() => weatherStation.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("design_deal_uq").on(t.companyId, t.dealId)],
+);
+
+/** One of 1–3 priced offers of a deal: its own system, adders, discount and payment. */
+export const offer = mysqlTable(
+  "offer",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    position: int("position").notNull(),
+    name: varchar("name", { length: 100 }).notNull(),
+    /** Inputs (system, adders, discount, payment) as the rep set them: src/lib/schemas/offer.ts. */
+    inputs: json("inputs").notNull(),
+    /** The engine's figures for those inputs, recomputed on every save. */
+    results: json("results").notNull(),
+    discountCents: int("discount_cents").notNull().default(0),
+    discountStatus: mysqlEnum("discount_status", ["none", "within_limit", "pending", "approved", "declined"]).notNull().default("none"),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("offer_position_uq").on(t.companyId, t.dealId, t.position)],
+);
+
+/** A discount beyond the rep's limit, waiting for the office manager. */
+export const discountRequest = mysqlTable(
+  "discount_request",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    offerId: id("offer_id")
+      .notNull()
+      .references(() => offer.id, { onDelete: "cascade" }),
+    amountCents: int("amount_cents").notNull(),
+    reason: text("reason").notNull(),
+    status: mysqlEnum("status", ["pending", "approved", "declined"]).notNull().default("pending"),
+    requestedByUserId: id("requested_by_user_id").references(() => user.id, { onDelete: "set null" }),
+    decidedByUserId: id("decided_by_user_id").references(() => user.id, { onDelete: "set null" }),
+    decidedAt: timestamp("decided_at", { fsp: 3 }),
+    decisionNote: text("decision_note"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("discount_request_company_idx").on(t.companyId, t.status)],
+);
+
+/** What happened to a deal, newest last: stage moves, uploads, offers, approvals. */
+export const timelineEvent = mysqlTable(
+  "timeline_event",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    kind: varchar("kind", { length: 50 }).notNull(),
+    summary: varchar("summary", { length: 500 }).notNull(),
+    data: json("data"),
+    actorUserId: id("actor_user_id").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("timeline_event_deal_idx").on(t.companyId, t.dealId, t.createdAt)],
+);
+
+export const schema = {
+  user,
+  session,
+  account,
+  verification,
+  company,
+  membership,
+  invitation,
+  signInFailure,
+  household,
+  deal,
+  upload,
+  bill,
+  intervalProfile,
+  weatherStation,
+  moduleModel,
+  inverterModel,
+  priceBook,
+  ratePlan,
+  design,
+  offer,
+  discountRequest,
+  timelineEvent,
+};

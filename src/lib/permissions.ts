@@ -28,6 +28,18 @@ export const PERMISSIONS = {
   "company:manage": STAFF_ADMINS,
   /** The dev outbox page (demo and test instances only). */
   "outbox:read": STAFF_ADMINS,
+  /** Equipment catalog: reps pick from it, admins keep it. */
+  "catalog:read": SELLERS,
+  "catalog:manage": STAFF_ADMINS,
+  /** Price book and selling policies (bands, adders, discount limits, incentives, deposit). */
+  "pricebook:read": SELLERS,
+  "pricebook:manage": STAFF_ADMINS,
+  "rates:read": SELLERS,
+  "rates:manage": STAFF_ADMINS,
+  "weather:read": SELLERS,
+  "weather:manage": STAFF_ADMINS,
+  /** Grant or decline a discount beyond a rep's limit. */
+  "discounts:approve": OFFICE,
   /** Everyone signed in can see their own Today. */
   "today:read": ["owner", "admin", "office_manager", "sales_rep", "crew"],
 } as const satisfies Record<string, readonly Role[]>;
