@@ -26,6 +26,7 @@ try {
   console.log(`· MariaDB on 127.0.0.1:${inst.ports.db} (data in ${path.relative(process.cwd(), inst.db.dir)})`);
   await startMariaDb(inst.db);
   await applyMigrations(inst.appEnv.DATABASE_URL);
+  process.env.STORAGE_DIR = inst.appEnv.STORAGE_DIR; // seeds store demo files (weather) there
   const seeded = await seedDemo(inst.appEnv.DATABASE_URL);
   console.log(seeded.created ? "· demo company created" : "· demo company already there");
   startMailFake(inst);

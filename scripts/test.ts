@@ -32,10 +32,11 @@ async function main(): Promise<boolean> {
     console.log(`\n· MariaDB (test) on 127.0.0.1:${inst.ports.db}, a fresh database`);
     await startMariaDb(inst.db);
     resetDatabase(inst.db);
-    await applyMigrations(inst.appEnv.DATABASE_URL);
-    await seedDemo(inst.appEnv.DATABASE_URL);
     rmSync(inst.mailDir, { recursive: true, force: true });
     rmSync(inst.appEnv.STORAGE_DIR, { recursive: true, force: true });
+    await applyMigrations(inst.appEnv.DATABASE_URL);
+    process.env.STORAGE_DIR = inst.appEnv.STORAGE_DIR; // seeds store demo files (weather) there
+    await seedDemo(inst.appEnv.DATABASE_URL);
     startMailFake(inst);
     await waitForHttp(`${inst.mailUrl}/health`, "The dev outbox");
   }
