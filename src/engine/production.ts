@@ -9,7 +9,7 @@
  */
 import { z } from "zod";
 import { EngineInputError, parseOrThrow } from "./errors";
-import { planeOfArray, prepareSky, type SkyYear, type TranspositionModel } from "./irradiance";
+import { allocateColumns, planeOfArray, prepareSky, type SkyYear, type TranspositionModel } from "./irradiance";
 import {
   DEFAULT_LOSSES_PCT,
   MODULE_GAMMA_PER_C,
@@ -166,18 +166,28 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
   const sky = skyForWeather(weather, sys.transposition);
   const n = HOURS_PER_YEAR;
 
-  const hourlyDcW = new Float64Array(n);
+  // All hourly columns of this estimate come from one buffer (see allocateColumns).
+  const PER_FACE = 7; // poa, poaTransmitted, beam, skyDiffuse, ground, cellTempC, dcW
+  const cols = allocateColumns(2 + PER_FACE * sys.faces.length, n);
+  const hourlyDcW = cols[0];
+  const hourlyAcW = cols[1];
   const faces: FaceResult[] = [];
   let dcKw = 0;
   let weightedPoa = 0;
   const micro = sys.inverter.kind === "micro" ? sys.inverter : null;
-  const microAcW = new Float64Array(micro ? n : 0);
 
   sys.faces.forEach((face, k) => {
     const faceDcW0 = face.moduleCount * face.moduleWatts;
     dcKw += faceDcW0 / 1000;
     const gamma = face.gammaPctPerC !== undefined ? face.gammaPctPerC / 100 : MODULE_GAMMA_PER_C[face.moduleType];
-    const plane = planeOfArray(sky, face.tiltDeg, face.azimuthDeg, sys.albedo);
+    const c = 2 + PER_FACE * k;
+    const plane = planeOfArray(sky, face.tiltDeg, face.azimuthDeg, sys.albedo, {
+      poa: cols[c],
+      poaTransmitted: cols[c + 1],
+      beam: cols[c + 2],
+      skyDiffuse: cols[c + 3],
+      ground: cols[c + 4],
+    });
     const access = face.solarAccessPct;
     const poa = plane.poa;
     const tr = plane.poaTransmitted;
@@ -196,8 +206,8 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
         tr[i] *= f;
       }
     }
-    const cellTempC = fuentesCellTemperature(poa, weather.tempAirC, weather.windSpeedMs, MOUNT_INOCT_C[face.mount]);
-    const dcW = new Float64Array(n);
+    const cellTempC = fuentesCellTemperature(poa, weather.tempAirC, weather.windSpeedMs, MOUNT_INOCT_C[face.mount], cols[c + 5]);
+    const dcW = cols[c + 6];
     let poaSum = 0;
     let dcSum = 0;
     const scale = (faceDcW0 / 1000) * keep;
@@ -215,7 +225,7 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
       const eta = micro.efficiencyPct / 100;
       const pdc0 = micro.acWattsPerModule / eta;
       const m = face.moduleCount;
-      for (let i = 0; i < n; i++) if (dcW[i] > 0) microAcW[i] += m * pvwattsInverter(dcW[i] / m, pdc0, eta, PVWATTS_ETA_REFERENCE);
+      for (let i = 0; i < n; i++) if (dcW[i] > 0) hourlyAcW[i] += m * pvwattsInverter(dcW[i] / m, pdc0, eta, PVWATTS_ETA_REFERENCE);
     }
     weightedPoa += (poaSum / 1000) * faceDcW0;
     faces.push({
@@ -229,11 +239,9 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
     });
   });
 
-  let hourlyAcW: Float64Array;
   let acKw: number;
   let clippedWh = 0;
   if (micro) {
-    hourlyAcW = microAcW;
     acKw = (micro.acWattsPerModule * sys.faces.reduce((s, f) => s + f.moduleCount, 0)) / 1000;
   } else {
     const inv = sys.inverter.kind === "string" ? sys.inverter : null;
@@ -241,7 +249,6 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
     acKw = inv?.acKw ?? dcKw / (inv?.dcAcRatio ?? 1.2);
     const pac0 = acKw * 1000;
     const pdc0 = pac0 / eta;
-    hourlyAcW = new Float64Array(n);
     for (let i = 0; i < n; i++) {
       const dc = hourlyDcW[i];
       if (dc <= 0) continue;

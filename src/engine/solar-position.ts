@@ -497,12 +497,15 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
   );
 
   const n = HOURS_PER_YEAR;
+  // one buffer for the five columns: a single large allocation is much cheaper than five in V8
+  const buf = new Float64Array(5 * n);
+  const col = (k: number) => buf.subarray(k * n, (k + 1) * n);
   const out: SunPositionsYear = {
-    zenithDeg: new Float64Array(n),
-    airlessZenithDeg: new Float64Array(n),
-    azimuthDeg: new Float64Array(n),
-    earthSunDistanceAu: new Float64Array(n),
-    evaluatedAtLocalHour: new Float64Array(n),
+    zenithDeg: col(0),
+    airlessZenithDeg: col(1),
+    azimuthDeg: col(2),
+    earthSunDistanceAu: col(3),
+    evaluatedAtLocalHour: col(4),
     year,
   };
   const a: SunAngles = { zenithDeg: 0, airlessZenithDeg: 0, azimuthDeg: 0, elevationDeg: 0, earthSunDistanceAu: 1 };
