@@ -27,6 +27,8 @@ export const DEMO_PEOPLE: DemoPerson[] = [
   { id: uid(107), name: "Rosa Quintero", email: "crew2@tallgrass.example", role: "crew" },
 ];
 
+const CONTACT_FIRST_NAMES = ["Hollis", "Margit", "Desmond", "Anouk", "Bertram", "Liesl", "Caspian", "Odalys", "Fintan", "Saoirse", "Ruben", "Tamsin", "Ezra", "Noor"];
+
 type DemoHousehold = {
   name: string;
   street: string;
@@ -107,6 +109,7 @@ export async function seedDemo(databaseUrl: string): Promise<{ created: boolean 
           id: householdId,
           companyId: DEMO_COMPANY_ID,
           name: h.name,
+          contactName: `${CONTACT_FIRST_NAMES[i % CONTACT_FIRST_NAMES.length]} ${surname}`,
           email: `${surname.toLowerCase()}@homeowner.example`,
           phone: `336-555-01${String(10 + i).padStart(2, "0")}`,
           street: h.street,

@@ -1,10 +1,13 @@
 import "server-only";
-import { and, desc, eq, type SQL } from "drizzle-orm";
-import { deal, household, STAGES, user, type Stage } from "@/db/schema";
+import { and, desc, eq, like, or, type SQL } from "drizzle-orm";
+import type { z } from "zod";
+import { deal, household, ratePlan, STAGES, user, type Stage } from "@/db/schema";
+import type { householdSchema, leadSchema } from "@/lib/schemas/deal";
 import { can } from "@/lib/permissions";
 import { db } from "@/server/db";
-import { notFound } from "@/server/errors";
+import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
+import { recordEvent } from "@/server/timeline";
 
 export type DealRow = {
   id: string;
@@ -41,13 +44,19 @@ const dealColumns = {
   createdAt: deal.createdAt,
 };
 
-export async function listDeals(member: Member): Promise<DealRow[]> {
+/** The deals a person may see, optionally matching a search on household, contact, street or city. */
+export async function listDeals(member: Member, query?: string): Promise<DealRow[]> {
+  const q = query?.trim();
+  const pattern = q ? `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` : null;
+  const search = pattern
+    ? or(like(household.name, pattern), like(household.contactName, pattern), like(household.street, pattern), like(household.city, pattern))
+    : undefined;
   return db()
     .select(dealColumns)
     .from(deal)
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
     .leftJoin(user, eq(user.id, deal.ownerUserId))
-    .where(visibleTo(member))
+    .where(search ? and(visibleTo(member), search) : visibleTo(member))
     .orderBy(desc(deal.stageChangedAt));
 }
 
@@ -86,4 +95,93 @@ export async function getHouseholdOrThrow(member: Member, householdId: string) {
     if (!owned) throw notFound("Household");
   }
   return row;
+}
+
+/** A new lead: the household and its deal, owned by the rep who created it. */
+export async function createLead(member: Member, input: z.output<typeof leadSchema>): Promise<{ dealId: string; householdId: string }> {
+  if (input.ratePlanId) {
+    const [plan] = await db()
+      .select({ id: ratePlan.id })
+      .from(ratePlan)
+      .where(and(eq(ratePlan.id, input.ratePlanId), eq(ratePlan.companyId, member.companyId)))
+      .limit(1);
+    if (!plan) throw new HttpError(422, "validation_failed", "ratePlanId: Pick a rate plan from the list", { ratePlanId: ["Pick a rate plan from the list"] });
+  }
+  const householdId = crypto.randomUUID();
+  const dealId = crypto.randomUUID();
+  const { utilityName, ratePlanId, source, ...home } = input;
+  await db().transaction(async (tx) => {
+    await tx.insert(household).values({ id: householdId, companyId: member.companyId, ...home });
+    await tx.insert(deal).values({
+      id: dealId,
+      companyId: member.companyId,
+      householdId,
+      ownerUserId: member.userId,
+      stage: "lead",
+      source,
+      utilityName: utilityName ?? null,
+      ratePlanId: ratePlanId ?? null,
+    });
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId,
+      kind: "deal.created",
+      summary: `Lead created by ${member.name} (source: ${source})`,
+      actorUserId: member.userId,
+    });
+  });
+  return { dealId, householdId };
+}
+
+export async function updateHousehold(member: Member, dealId: string, input: z.output<typeof householdSchema>) {
+  const found = await getDealOrThrow(member, dealId);
+  await db().transaction(async (tx) => {
+    await tx.update(household).set(input).where(and(eq(household.id, found.householdId), eq(household.companyId, member.companyId)));
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId,
+      kind: "household.updated",
+      summary: `Household details updated by ${member.name}`,
+      actorUserId: member.userId,
+    });
+  });
+}
+
+/** The deal with its household and settings, for the deal room. */
+export async function getDealRoom(member: Member, dealId: string) {
+  const row = await getDealOrThrow(member, dealId);
+  const home = await getHouseholdOrThrow(member, row.householdId);
+  const [extra] = await db()
+    .select({ utilityName: deal.utilityName, ratePlanId: deal.ratePlanId })
+    .from(deal)
+    .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)))
+    .limit(1);
+  return { deal: { ...row, ...extra }, household: home };
+}
+
+/** Recently used sites of the company, to pick coordinates from (no map service is reachable). */
+export async function recentSites(member: Member, limit = 12) {
+  return db()
+    .select({
+      name: household.name,
+      street: household.street,
+      city: household.city,
+      region: household.region,
+      postalCode: household.postalCode,
+      latitude: household.latitude,
+      longitude: household.longitude,
+    })
+    .from(household)
+    .where(eq(household.companyId, member.companyId))
+    .orderBy(desc(household.createdAt))
+    .limit(limit);
+}
+
+/** Rate plans to pick from on the new-lead form. */
+export async function listRatePlanOptions(member: Member) {
+  return db()
+    .select({ id: ratePlan.id, name: ratePlan.name, utilityName: ratePlan.utilityName })
+    .from(ratePlan)
+    .where(and(eq(ratePlan.companyId, member.companyId), eq(ratePlan.active, true)))
+    .orderBy(ratePlan.utilityName, ratePlan.name);
 }

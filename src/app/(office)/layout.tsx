@@ -6,6 +6,7 @@ import { ROLE_LABELS } from "@/lib/permissions";
 import { sectionsFor } from "@/lib/sections";
 import { getMember } from "@/server/session";
 import { NavLinks } from "./nav-links";
+import { Providers } from "./providers";
 import { SignOutButton } from "./sign-out-button";
 
 export default async function OfficeLayout({ children }: { children: ReactNode }) {
@@ -39,7 +40,9 @@ export default async function OfficeLayout({ children }: { children: ReactNode }
           </span>
           <SignOutButton />
         </div>
-        <main className="mx-auto max-w-6xl px-4 py-6 md:px-8">{children}</main>
+        <main className="mx-auto max-w-6xl px-4 py-6 md:px-8">
+          <Providers>{children}</Providers>
+        </main>
       </div>
     </div>
   );

@@ -1,25 +1,48 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { NoAccess } from "@/components/no-access";
 import { can } from "@/lib/permissions";
 import { daysSince, formatCents, formatKwFromWatts } from "@/lib/format";
+import { dealSearchSchema } from "@/lib/schemas/deal";
 import { STAGE_LABELS } from "@/lib/stages";
 import { listDeals } from "@/server/deals";
 import { getMember } from "@/server/session";
 
 export const metadata: Metadata = { title: "Deals" };
 
-export default async function DealsPage() {
+export default async function DealsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "deals:read-own")) return <NoAccess section="Deals" />;
-  const deals = await listDeals(member);
+  const parsed = dealSearchSchema.safeParse(await searchParams);
+  const q = parsed.success ? (parsed.data.q ?? "") : "";
+  const deals = await listDeals(member, q);
   const mine = !can(member.role, "deals:read-all");
   return (
     <>
-      <h1 className="text-2xl font-semibold">{mine ? "Your deals" : "Deals"}</h1>
-      <p className="mt-1 text-graphite-soft">
-        <span className="figure">{deals.length}</span> deal{deals.length === 1 ? "" : "s"}, most recently moved first.
-      </p>
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h1 className="text-2xl font-semibold">{mine ? "Your deals" : "Deals"}</h1>
+          <p className="mt-1 text-graphite-soft">
+            <span className="figure">{deals.length}</span> deal{deals.length === 1 ? "" : "s"}
+            {q ? ` matching “${q}”` : ""}, most recently moved first.
+          </p>
+        </div>
+        {can(member.role, "deals:write") ? (
+          <Link href="/deals/new" className="btn-primary">
+            New lead
+          </Link>
+        ) : null}
+      </div>
+      <form role="search" className="mt-4 flex gap-2" action="/deals">
+        <label htmlFor="deal-search" className="sr-only">
+          Search deals
+        </label>
+        <input id="deal-search" name="q" defaultValue={q} placeholder="Household, contact, street or city" className="field-input max-w-md" />
+        <button type="submit" className="btn-quiet">
+          Search
+        </button>
+      </form>
       <div className="mt-4 overflow-x-auto rounded-card border border-paper-line bg-white">
         <table className="w-full min-w-[640px] text-left text-sm">
           <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
@@ -35,9 +58,11 @@ export default async function DealsPage() {
           </thead>
           <tbody className="divide-y divide-paper-line">
             {deals.map((d) => (
-              <tr key={d.id}>
+              <tr key={d.id} className="hover:bg-paper">
                 <td className="px-4 py-3">
-                  <span className="font-medium">{d.householdName}</span>
+                  <Link href={`/deals/${d.id}`} className="font-medium text-graphite underline-offset-2 hover:text-copper hover:underline">
+                    {d.householdName}
+                  </Link>
                   <span className="block text-xs text-graphite-soft">{d.city}</span>
                 </td>
                 <td className="px-4 py-3">{STAGE_LABELS[d.stage]}</td>
@@ -50,7 +75,7 @@ export default async function DealsPage() {
             ))}
           </tbody>
         </table>
-        {deals.length === 0 ? <p className="px-4 py-6 text-graphite-soft">No deals yet.</p> : null}
+        {deals.length === 0 ? <p className="px-4 py-6 text-graphite-soft">{q ? "No deal matches this search." : "No deals yet."}</p> : null}
       </div>
     </>
   );

@@ -1,0 +1,52 @@
+import type { Metadata } from "next";
+import { can } from "@/lib/permissions";
+import { getDealRoom } from "@/server/deals";
+import { getMember } from "@/server/session";
+import { HouseholdForm } from "./household-form";
+
+export const metadata: Metadata = { title: "Household" };
+
+export default async function HouseholdTab({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const member = await getMember();
+  if (!member) return null;
+  const { household, deal } = await getDealRoom(member, id);
+  return (
+    <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
+      <HouseholdForm
+        dealId={id}
+        readOnly={!can(member.role, "deals:write")}
+        defaults={{
+          name: household.name,
+          contactName: household.contactName ?? "",
+          email: household.email ?? "",
+          phone: household.phone ?? "",
+          secondContactName: household.secondContactName ?? "",
+          secondContactEmail: household.secondContactEmail ?? "",
+          secondContactPhone: household.secondContactPhone ?? "",
+          street: household.street,
+          city: household.city,
+          region: household.region,
+          postalCode: household.postalCode,
+          latitude: household.latitude,
+          longitude: household.longitude,
+        }}
+      />
+      <aside className="card h-fit p-5 text-sm">
+        <h2 className="font-semibold">Deal</h2>
+        <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1">
+          <dt className="text-graphite-soft">Owner</dt>
+          <dd>{deal.ownerName ?? "—"}</dd>
+          <dt className="text-graphite-soft">Source</dt>
+          <dd>{deal.source ?? "—"}</dd>
+          <dt className="text-graphite-soft">Utility</dt>
+          <dd>{deal.utilityName ?? "—"}</dd>
+          <dt className="text-graphite-soft">Coordinates</dt>
+          <dd className="figure">
+            {household.latitude.toFixed(4)}, {household.longitude.toFixed(4)}
+          </dd>
+        </dl>
+      </aside>
+    </div>
+  );
+}
