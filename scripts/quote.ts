@@ -94,6 +94,7 @@ function main(): void {
       hourlyTempC: weather.tempAirC,
       intervalText,
       weatherLabel: `${weather.sourceLabel} (${weatherRef})`,
+      weatherUtcOffsetHours: weather.site.utcOffsetHours,
     });
     if (json) console.log(JSON.stringify(quote, null, 2));
     else printText(quote);

@@ -13,6 +13,7 @@ import { spreadMonthlyToHourly } from "../../src/engine/load-shape";
 import { buildQuote, type ProduceFn, type QuoteCaseInput } from "../../src/engine/quote";
 import { parseWeather, type WeatherYear } from "../../src/engine/weather";
 import { estimateProduction } from "../../src/engine/production";
+import { importIntervalData } from "../../src/engine/green-button";
 
 const root = new URL("../../", import.meta.url);
 
@@ -52,6 +53,22 @@ const produce: ProduceFn<WeatherYear> = (design, w) => {
   return { hourlyAcKwh: Array.from(r.hourlyAcW, (x) => x / 1000), dcKw: r.dcKw, acKw: r.acKw };
 };
 
+/** One invented year of 15-minute Green Button readings (35,040), as ESPI XML. */
+function inventedEspiYear(): string {
+  const start = Date.UTC(2024, 0, 1, 5) / 1000; // 1 Jan 2024 00:00 at UTC−5
+  const readings: string[] = [];
+  for (let i = 0; i < 365 * 96; i++) {
+    const hour = Math.floor(i / 4) % 24;
+    const wh = 80 + 40 * Math.sin((Math.PI * hour) / 24) + (i % 7);
+    readings.push(`<espi:IntervalReading><espi:timePeriod><espi:duration>900</espi:duration><espi:start>${start + i * 900}</espi:start></espi:timePeriod><espi:value>${Math.round(wh)}</espi:value></espi:IntervalReading>`);
+  }
+  return `<?xml version="1.0"?><feed xmlns="http://www.w3.org/2005/Atom" xmlns:espi="http://naesb.org/espi">
+<entry><content><espi:LocalTimeParameters><espi:tzOffset>-18000</espi:tzOffset></espi:LocalTimeParameters></content></entry>
+<entry><content><espi:ReadingType><espi:accumulationBehaviour>4</espi:accumulationBehaviour><espi:flowDirection>1</espi:flowDirection><espi:powerOfTenMultiplier>0</espi:powerOfTenMultiplier><espi:uom>72</espi:uom></espi:ReadingType></content></entry>
+<entry><content><espi:IntervalBlock>${readings.join("\n")}</espi:IntervalBlock></content></entry></feed>`;
+}
+let espiYear = "";
+
 export const cases: BenchCase[] = [
   {
     name: "money: sizing search, 12 faces, target 95 %",
@@ -87,6 +104,15 @@ export const cases: BenchCase[] = [
       }
       return total;
     },
+  },
+  {
+    name: "usage: Green Button XML, one year of 15-minute readings (35,040) → 8760 h",
+    goal: "≤ 400 ms median",
+    goalMedianMs: 400,
+    setup: () => {
+      espiYear = inventedEspiYear();
+    },
+    run: () => importIntervalData(espiYear),
   },
   {
     name: "money: whole example quote (sizing probes + production + 25 bills + table)",

@@ -90,6 +90,35 @@ describe("buildCashflow — loan", () => {
   });
 });
 
+describe("loan payments agree with the npm `financial` package (property test)", () => {
+  it("each full year of the table pays 12 × round(−pmt(APR/12, n, financed))", () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 100_000, max: 10_000_000 }),
+        fc.double({ min: 0.5, max: 25, noNaN: true }),
+        fc.constantFrom(60, 120, 180, 240, 300),
+        fc.double({ min: 0, max: 30, noNaN: true }),
+        (price, apr, term, fee) => {
+          const { rows, summary } = buildCashflow({
+            ...flatCase,
+            grossPriceCents: price,
+            payment: { kind: "loan", aprPct: apr, termMonths: term, dealerFeePct: fee, dealerFeeMode: "added" },
+          });
+          const financed = summary.loan!.financedCents;
+          expect(financed).toBe(Math.round(price / (1 - fee / 100)));
+          const level = Math.round(-financial.pmt(apr / 100 / 12, term, financed));
+          expect(Math.abs(summary.loan!.monthlyPaymentCents - level)).toBeLessThanOrEqual(1);
+          // Every year before the last pays 12 level payments; the last month absorbs rounding.
+          for (let y = 1; y < term / 12; y++) expect(rows[y].systemPaymentCents).toBe(12 * summary.loan!.monthlyPaymentCents);
+          const paid = rows.reduce((a, r) => a + (r.year > 0 ? r.systemPaymentCents : 0), 0);
+          expect(paid).toBe(financed + summary.loan!.totalInterestCents);
+        },
+      ),
+      { numRuns: 100 },
+    );
+  });
+});
+
 describe("summary figures agree with the npm `financial` package (property test)", () => {
   it("NPV and IRR of the table's cash flows; every figure finite", () => {
     fc.assert(

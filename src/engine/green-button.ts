@@ -61,7 +61,7 @@ const MAX_ISSUES = 50;
 export type XmlElement = {
   /** Local name, namespace prefix removed ("espi:IntervalBlock" → "IntervalBlock"). */
   name: string;
-  attributes: Record<string, string>;
+  attributes: Readonly<Record<string, string>>;
   children: XmlElement[];
   text: string;
   line: number;
@@ -80,6 +80,8 @@ function decodeEntities(s: string, line: number): string {
 }
 
 const localName = (qname: string) => qname.slice(qname.indexOf(":") + 1);
+/** Shared by every element without attributes (most of them), so none allocates its own. */
+const NO_ATTRIBUTES: Readonly<Record<string, string>> = Object.freeze({});
 
 /** Parse an XML document into its root element. Throws EngineInputError with the line of the problem. */
 export function parseXml(text: string): XmlElement {
@@ -89,9 +91,12 @@ export function parseXml(text: string): XmlElement {
   };
   let line = 1;
   let lastPos = 0;
+  // Line numbers for messages, counted incrementally with indexOf (fast on large files).
   const lineAt = (pos: number) => {
-    for (let i = lastPos; i < pos; i++) if (text.charCodeAt(i) === 10) line++;
-    lastPos = pos;
+    for (let nl = text.indexOf("\n", lastPos); nl !== -1 && nl < pos; nl = text.indexOf("\n", nl + 1)) {
+      line++;
+      lastPos = nl + 1;
+    }
     return line;
   };
   const stack: XmlElement[] = [];
@@ -102,8 +107,11 @@ export function parseXml(text: string): XmlElement {
     const textEnd = lt === -1 ? text.length : lt;
     if (textEnd > pos) {
       const chunk = text.slice(pos, textEnd);
-      if (stack.length > 0) stack[stack.length - 1].text += decodeEntities(chunk, lineAt(pos));
-      else if (chunk.trim() !== "") fail(pos, "text outside the root element");
+      if (stack.length > 0) {
+        const top = stack[stack.length - 1];
+        // Whitespace between child elements carries nothing in data XML; skip it (and the work).
+        if (!(top.children.length > 0 && chunk.trim() === "")) top.text += chunk.includes("&") ? decodeEntities(chunk, lineAt(pos)) : chunk;
+      } else if (chunk.trim() !== "") fail(pos, "text outside the root element");
     }
     if (lt === -1) break;
     if (text.startsWith("<!--", lt)) {
@@ -132,14 +140,22 @@ export function parseXml(text: string): XmlElement {
       const end = findTagEnd(text, lt);
       if (end === -1) fail(lt, "unclosed tag");
       const selfClosing = text.charCodeAt(end - 1) === 47; // "/"
-      const body = text.slice(lt + 1, selfClosing ? end - 1 : end);
-      const m = /^([A-Za-z_][\w.:-]*)/.exec(body);
-      if (!m) fail(lt, "malformed tag");
-      const element: XmlElement = { name: localName(m![1]), attributes: {}, children: [], text: "", line: lineAt(lt) };
-      const attrRe = /([A-Za-z_][\w.:-]*)\s*=\s*("([^"]*)"|'([^']*)')/g;
-      const rest = body.slice(m![1].length);
-      let a: RegExpExecArray | null;
-      while ((a = attrRe.exec(rest)) !== null) element.attributes[localName(a[1])] = decodeEntities(a[3] ?? a[4] ?? "", element.line);
+      const bodyEnd = selfClosing ? end - 1 : end;
+      // The tag name runs to the first whitespace (a hand scan: this loop is the parser's hot path).
+      let nameEnd = lt + 1;
+      while (nameEnd < bodyEnd && text.charCodeAt(nameEnd) > 32) nameEnd++;
+      const qname = text.slice(lt + 1, nameEnd);
+      const c0 = qname.charCodeAt(0);
+      if (!((c0 >= 65 && c0 <= 90) || (c0 >= 97 && c0 <= 122) || c0 === 95)) fail(lt, "malformed tag");
+      const element: XmlElement = { name: localName(qname), attributes: NO_ATTRIBUTES, children: [], text: "", line: lineAt(lt) };
+      if (nameEnd < bodyEnd) {
+        const rest = text.slice(nameEnd, bodyEnd);
+        const attrRe = /([A-Za-z_][\w.:-]*)\s*=\s*("([^"]*)"|'([^']*)')/g;
+        let a: RegExpExecArray | null;
+        const attributes: Record<string, string> = {};
+        while ((a = attrRe.exec(rest)) !== null) attributes[localName(a[1])] = decodeEntities(a[3] ?? a[4] ?? "", element.line);
+        element.attributes = attributes;
+      }
       if (stack.length > 0) stack[stack.length - 1].children.push(element);
       else if (root) fail(lt, "a second root element");
       else root = element;

@@ -93,6 +93,16 @@ describe("buildQuote with a stand-in production model (hand-worked)", () => {
     expect(q.summary.annualProductionKwh).toBeCloseTo(6022.5, 6);
   });
 
+  it("takes usage from Green Button interval data (invented fixture)", () => {
+    const xml = readFileSync(fileURLToPath(new URL("../../tests/fixtures/green-button/espi-two-days-invented.xml", import.meta.url)), "utf8");
+    const q = buildQuote({ ...baseCase, usage: { kind: "interval", file: "meter.xml" } }, { weather: null, produce: standIn, intervalText: xml });
+    // 46 of 8760 hours measured (see green-button.test.ts); January 376.96 kWh, hand-worked there.
+    expect(q.usage.source).toContain("46 readings");
+    expect(q.usage.monthlyKwh[0]).toBeCloseTo(377, 0);
+    expect(q.usage.estimated).toBe(true);
+    expect(() => buildQuote({ ...baseCase, usage: { kind: "interval", file: "meter.xml" } }, { weather: null, produce: standIn })).toThrow(/interval file/);
+  });
+
   it("names bad case fields", () => {
     try {
       buildQuote(

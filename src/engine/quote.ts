@@ -131,6 +131,8 @@ export type QuoteContext<W> = {
   intervalText?: string;
   /** Where the weather came from, for the report. */
   weatherLabel?: string;
+  /** The weather file's standard UTC offset, used for interval data when neither the file nor the case gives one. */
+  weatherUtcOffsetHours?: number;
 };
 
 type MonthlyBillSummary = { month: number; withoutSolarCents: number; withSolarCents: number; importKwh: number; exportKwh: number };
@@ -213,7 +215,7 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
     usageEstimated = true;
   } else {
     if (ctx.intervalText === undefined) throw new EngineInputError([{ path: "usage.file", message: "the interval file's text was not supplied" }], "quote");
-    const profile = importIntervalData(ctx.intervalText, { utcOffsetHours: c.site.utcOffsetHours });
+    const profile = importIntervalData(ctx.intervalText, { utcOffsetHours: c.site.utcOffsetHours ?? ctx.weatherUtcOffsetHours });
     usageHourly = profile.hourlyKwh;
     usageSource = `interval data: ${profile.readings} readings, ${round(profile.coverage * 100)} % of hours measured`;
     usageEstimated = profile.coverage < 1;
