@@ -1,0 +1,57 @@
+import { NextResponse } from "next/server";
+import { stationFieldsSchema, WEATHER_FILE_MAX_BYTES, WEATHER_FILE_MAX_LABEL } from "@/lib/schemas/weather";
+import { HttpError } from "@/server/errors";
+import { validationError, withMember } from "@/server/route";
+import { createStation, listStations } from "@/server/weather-stations";
+
+/** The company's weather stations with the sites that use them. */
+export const GET = withMember("weather:read", async ({ member }) => {
+  return NextResponse.json({ data: await listStations(member) });
+});
+
+/** Room for the form's text fields and the multipart boundaries around the file. */
+const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
+
+/**
+ * Adds a station from an uploaded weather file (multipart/form-data: `file` plus the typed
+ * fields of stationFieldsSchema). Nothing is stored unless the whole file parses.
+ */
+export const POST = withMember("weather:manage", async ({ req, member }) => {
+  if (!(req.headers.get("content-type") ?? "").toLowerCase().startsWith("multipart/form-data")) {
+    throw new HttpError(415, "unsupported_media_type", "Send the weather file as multipart/form-data with a field named file.");
+  }
+  const declared = Number(req.headers.get("content-length") ?? "0");
+  if (declared > WEATHER_FILE_MAX_BYTES + MULTIPART_OVERHEAD_BYTES) {
+    throw new HttpError(413, "file_too_large", `The file is larger than ${WEATHER_FILE_MAX_LABEL}.`, { file: [`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`] });
+  }
+  let form: FormData;
+  try {
+    form = await req.formData();
+  } catch {
+    throw new HttpError(400, "invalid_form", "The upload could not be read as multipart form data.");
+  }
+  const file = form.get("file");
+  if (!(file instanceof File)) {
+    throw new HttpError(422, "validation_failed", "file: Choose a weather file to upload.", { file: ["Choose a weather file to upload"] });
+  }
+  const text = (name: string) => {
+    const v = form.get(name);
+    return typeof v === "string" ? v : undefined;
+  };
+  const parsed = stationFieldsSchema.safeParse({
+    name: text("name"),
+    format: text("format") || undefined,
+    latitude: text("latitude"),
+    longitude: text("longitude"),
+    elevationM: text("elevationM"),
+    utcOffsetHours: text("utcOffsetHours"),
+    attribution: text("attribution"),
+  });
+  if (!parsed.success) throw validationError(parsed.error);
+  if (file.size > WEATHER_FILE_MAX_BYTES) {
+    throw new HttpError(413, "file_too_large", `The file is larger than ${WEATHER_FILE_MAX_LABEL}.`, { file: [`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`] });
+  }
+  const bytes = new Uint8Array(await file.arrayBuffer());
+  const station = await createStation(member, { bytes, fileName: file.name }, parsed.data);
+  return NextResponse.json({ data: station }, { status: 201 });
+});
