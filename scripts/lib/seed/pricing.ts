@@ -1,0 +1,133 @@
+// Demo price book and rate plans of Tallgrass Bright Energy. The utility, its plans and the
+// incentives are invented; the figures are of a realistic U.S. size. Validated by the same
+// schemas the app uses, so a bad edit here fails the seed instead of the page.
+import { priceBook, ratePlan } from "../../../src/db/schema";
+import { priceBookSchema, type PriceBookInput } from "../../../src/lib/schemas/price-book";
+import { ratePlanRecordSchema, type RatePlanRecordInput } from "../../../src/lib/schemas/rate-plan";
+import type { SeedContext } from "../seed-demo";
+
+export const order = 20;
+
+const uid = (n: number) => `7a11a55e-0000-4000-8000-${String(n).padStart(12, "0")}`;
+export const DEMO_PRICE_BOOK_ID = uid(2001);
+export const DEMO_RATE_PLAN_IDS = { residential: uid(2011), timeOfUse: uid(2012) } as const;
+
+const UTILITY = "Piedmont Electric Cooperative";
+
+const PRICE_BOOK: PriceBookInput = {
+  version: 1,
+  bands: [
+    { minWatts: 0, maxWatts: 6_000, centsPerWattDc: 310 },
+    { minWatts: 6_000, maxWatts: 10_000, centsPerWattDc: 285 },
+    { minWatts: 10_000, maxWatts: null, centsPerWattDc: 265 },
+  ],
+  adders: [
+    { id: "tile-roof", name: "Tile roof", kind: "per_watt", centsPerWattDc: 30 },
+    { id: "steep-roof", name: "Steep roof (over 8/12 pitch)", kind: "per_watt", centsPerWattDc: 12 },
+    { id: "optimizers", name: "Module-level optimizers", kind: "per_module", centsPerModule: 5_500 },
+    { id: "main-panel-upgrade", name: "Main panel upgrade (200 A)", kind: "fixed", amountCents: 240_000 },
+    { id: "trenching", name: "Trenching, ground run up to 50 ft", kind: "fixed", amountCents: 180_000 },
+  ],
+  lineItems: [
+    { id: "critter-guard", name: "Critter guard", amountCents: 65_000 },
+    { id: "surge-protection", name: "Whole-home surge protection", amountCents: 18_000 },
+  ],
+  discountLimits: {
+    sales_rep: { maxCents: 100_000, maxPct: 3 },
+    office_manager: { maxCents: 300_000, maxPct: 8 },
+  },
+  incentives: [
+    {
+      id: "piedmont-coop-rebate",
+      name: "Piedmont Cooperative solar rebate",
+      source: "utility",
+      amount: { kind: "per-watt", centsPerWattDc: 20, capCents: 150_000 },
+      startDate: "2026-01-01",
+      endDate: "2027-12-31",
+      timing: "upfront",
+      eligibility: {},
+    },
+    {
+      // Already ended: it shows in the price book but never in an offer.
+      id: "piedmont-coop-early-bonus",
+      name: "Piedmont Cooperative early-adopter bonus",
+      source: "utility",
+      amount: { kind: "fixed", amountCents: 25_000 },
+      startDate: "2025-01-01",
+      endDate: "2025-12-31",
+      timing: "upfront",
+      eligibility: {},
+    },
+  ],
+  deposit: { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 },
+};
+
+const RATE_PLANS: { id: string; record: RatePlanRecordInput }[] = [
+  {
+    id: DEMO_RATE_PLAN_IDS.residential,
+    record: {
+      utilityName: UTILITY,
+      active: true,
+      plan: {
+        name: "Residential Service RS-1",
+        fixedMonthlyCents: 1_400,
+        minimumBillCents: 2_000,
+        energy: {
+          kind: "tiered",
+          tiers: [
+            { upToKwh: 800, centsPerKwh: 12.6 },
+            { upToKwh: null, centsPerKwh: 14.4 },
+          ],
+        },
+        compensation: { kind: "net-metering", trueUpMonth: 5, surplusCentsPerKwh: 3.2 },
+      },
+    },
+  },
+  {
+    id: DEMO_RATE_PLAN_IDS.timeOfUse,
+    record: {
+      utilityName: UTILITY,
+      active: true,
+      plan: {
+        name: "Residential Time-of-Use RT-2",
+        fixedMonthlyCents: 1_450,
+        minimumBillCents: 0,
+        energy: {
+          kind: "tou",
+          periods: [
+            { id: "on-peak", label: "On-peak", centsPerKwh: 17.8 },
+            { id: "off-peak", label: "Off-peak", centsPerKwh: 11.3 },
+          ],
+          seasons: [
+            { name: "Summer", months: [6, 7, 8, 9], otherHoursPeriodId: "off-peak", weekday: [{ startHour: 14, endHour: 19, periodId: "on-peak" }], weekend: [] },
+            {
+              name: "Winter",
+              months: [1, 2, 3, 4, 5, 10, 11, 12],
+              otherHoursPeriodId: "off-peak",
+              weekday: [
+                { startHour: 6, endHour: 9, periodId: "on-peak" },
+                { startHour: 17, endHour: 20, periodId: "on-peak" },
+              ],
+              weekend: [],
+            },
+          ],
+        },
+        compensation: { kind: "net-billing", exportCentsPerKwh: 6.1, trueUpMonth: 12 },
+      },
+    },
+  },
+];
+
+export async function seed(ctx: SeedContext): Promise<void> {
+  const owner = ctx.people.find((p) => p.role === "owner");
+  await ctx.tx.insert(priceBook).values({
+    id: DEMO_PRICE_BOOK_ID,
+    companyId: ctx.companyId,
+    document: priceBookSchema.parse(PRICE_BOOK),
+    updatedByUserId: owner?.id ?? null,
+  });
+  for (const { id, record } of RATE_PLANS) {
+    const r = ratePlanRecordSchema.parse(record);
+    await ctx.tx.insert(ratePlan).values({ id, companyId: ctx.companyId, name: r.plan.name, utilityName: r.utilityName, plan: r.plan, active: r.active });
+  }
+}

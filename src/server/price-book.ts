@@ -1,0 +1,75 @@
+import "server-only";
+import { and, eq, sql } from "drizzle-orm";
+import { priceBook, user } from "@/db/schema";
+import { can } from "@/lib/permissions";
+import { emptyPriceBook, priceBookSchema, type PriceBook } from "@/lib/schemas/price-book";
+import { db } from "@/server/db";
+import { forbidden, HttpError, notFound } from "@/server/errors";
+import { validationError } from "@/server/route";
+import type { Member } from "@/server/session";
+
+export type PriceBookRecord = {
+  id: string;
+  document: PriceBook;
+  updatedAt: Date;
+  updatedByName: string | null;
+};
+
+/** MariaDB keeps JSON as text, so the driver may hand back a string. */
+function jsonValue(raw: unknown): unknown {
+  return typeof raw === "string" ? JSON.parse(raw) : raw;
+}
+
+function parseStored(raw: unknown): PriceBook {
+  const parsed = priceBookSchema.safeParse(jsonValue(raw));
+  if (!parsed.success) {
+    throw new HttpError(500, "price_book_unreadable", "The saved price book does not match the current format. An admin must save it again.");
+  }
+  return parsed.data;
+}
+
+const recordColumns = { id: priceBook.id, document: priceBook.document, updatedAt: priceBook.updatedAt, updatedByName: user.name };
+
+/** The company's saved price book with who changed it last, or null before the first save. */
+export async function getPriceBookRecord(companyId: string): Promise<PriceBookRecord | null> {
+  const [row] = await db()
+    .select(recordColumns)
+    .from(priceBook)
+    .leftJoin(user, eq(user.id, priceBook.updatedByUserId))
+    .where(eq(priceBook.companyId, companyId))
+    .limit(1);
+  return row ? { ...row, document: parseStored(row.document) } : null;
+}
+
+/** The company's price book document; a company that never saved one gets the empty book. */
+export async function getPriceBook(companyId: string): Promise<PriceBook> {
+  return (await getPriceBookRecord(companyId))?.document ?? emptyPriceBook();
+}
+
+export async function getPriceBookOrThrow(companyId: string, id: string): Promise<PriceBookRecord> {
+  const [row] = await db()
+    .select(recordColumns)
+    .from(priceBook)
+    .leftJoin(user, eq(user.id, priceBook.updatedByUserId))
+    .where(and(eq(priceBook.id, id), eq(priceBook.companyId, companyId)))
+    .limit(1);
+  if (!row) throw notFound("Price book");
+  return { ...row, document: parseStored(row.document) };
+}
+
+/**
+ * Replaces the company's price book with a validated document (422 naming each bad field;
+ * nothing is written then). One row per company: the first save creates it.
+ */
+export async function savePriceBook(member: Member, doc: unknown): Promise<PriceBookRecord> {
+  if (!can(member.role, "pricebook:manage")) throw forbidden("changing the price book");
+  const parsed = priceBookSchema.safeParse(doc);
+  if (!parsed.success) throw validationError(parsed.error);
+  await db()
+    .insert(priceBook)
+    .values({ id: crypto.randomUUID(), companyId: member.companyId, document: parsed.data, updatedByUserId: member.userId })
+    .onDuplicateKeyUpdate({ set: { document: parsed.data, updatedByUserId: member.userId, updatedAt: sql`CURRENT_TIMESTAMP(3)` } });
+  const saved = await getPriceBookRecord(member.companyId);
+  if (!saved) throw new Error("price book vanished right after saving");
+  return saved;
+}

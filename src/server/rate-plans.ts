@@ -1,0 +1,84 @@
+import "server-only";
+import { and, asc, desc, eq } from "drizzle-orm";
+import { ratePlan } from "@/db/schema";
+import { ratePlanSchema, type RatePlan } from "@/engine/rates";
+import { can } from "@/lib/permissions";
+import { ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
+import { db } from "@/server/db";
+import { forbidden, HttpError, notFound } from "@/server/errors";
+import { validationError } from "@/server/route";
+import type { Member } from "@/server/session";
+
+export type RatePlanRow = {
+  id: string;
+  name: string;
+  utilityName: string;
+  active: boolean;
+  /** The engine's rate plan (src/engine/rates.ts), defaults filled in. */
+  plan: RatePlan;
+  updatedAt: Date;
+};
+
+const columns = {
+  id: ratePlan.id,
+  name: ratePlan.name,
+  utilityName: ratePlan.utilityName,
+  active: ratePlan.active,
+  plan: ratePlan.plan,
+  updatedAt: ratePlan.updatedAt,
+};
+
+function parsePlan(raw: unknown): RatePlan {
+  const value = typeof raw === "string" ? JSON.parse(raw) : raw;
+  const parsed = ratePlanSchema.safeParse(value);
+  if (!parsed.success) throw new HttpError(500, "rate_plan_unreadable", "A saved rate plan does not match the current format. An admin must save it again.");
+  return parsed.data;
+}
+
+const toRow = (row: Omit<RatePlanRow, "plan"> & { plan: unknown }): RatePlanRow => ({ ...row, plan: parsePlan(row.plan) });
+
+/** The company's rate plans: active first, then by utility and name. */
+export async function listRatePlans(companyId: string): Promise<RatePlanRow[]> {
+  const rows = await db()
+    .select(columns)
+    .from(ratePlan)
+    .where(eq(ratePlan.companyId, companyId))
+    .orderBy(desc(ratePlan.active), asc(ratePlan.utilityName), asc(ratePlan.name));
+  return rows.map(toRow);
+}
+
+export async function getRatePlanOrThrow(companyId: string, id: string): Promise<RatePlanRow> {
+  const [row] = await db()
+    .select(columns)
+    .from(ratePlan)
+    .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, companyId)))
+    .limit(1);
+  if (!row) throw notFound("Rate plan");
+  return toRow(row);
+}
+
+function parseInput(input: unknown) {
+  const parsed = ratePlanRecordSchema.safeParse(input);
+  if (!parsed.success) throw validationError(parsed.error);
+  return parsed.data;
+}
+
+export async function createRatePlan(member: Member, input: unknown): Promise<RatePlanRow> {
+  if (!can(member.role, "rates:manage")) throw forbidden("changing rate plans");
+  const data = parseInput(input);
+  const id = crypto.randomUUID();
+  await db().insert(ratePlan).values({ id, companyId: member.companyId, name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active });
+  return getRatePlanOrThrow(member.companyId, id);
+}
+
+/** Replaces a plan's content (404 for another company's plan; nothing is written on bad input). */
+export async function updateRatePlan(member: Member, id: string, input: unknown): Promise<RatePlanRow> {
+  if (!can(member.role, "rates:manage")) throw forbidden("changing rate plans");
+  const data = parseInput(input);
+  await getRatePlanOrThrow(member.companyId, id);
+  await db()
+    .update(ratePlan)
+    .set({ name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active })
+    .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, member.companyId)));
+  return getRatePlanOrThrow(member.companyId, id);
+}
