@@ -179,11 +179,13 @@ const AIR = (() => {
   const lam = new Float64Array(size);
   const turb = new Float64Array(size);
   const free = new Float64Array(size);
+  const reLimit = new Float64Array(size); // wind speed above which Re > 1.2e5: 1.2e5·ν(T)/L
   for (let k = 0; k < size; k++) {
     const t = tMin + k * step;
     lam[k] = Math.pow(t, -0.12);
     turb[k] = Math.pow(t, -0.648);
     free[k] = Math.pow(t, -0.6064);
+    reLimit[k] = (1.2e5 * viscK * Math.pow(t, 1.76)) / L;
   }
   // ΔT^0.32 every 0.01 K up to 150 K (beyond: Math.pow), and ∛(1 + r) for r in [0, 1] every 1/4096,
   // used to combine free and forced convection as ∛(a³ + b³) = max·∛(1 + (min/max)³).
@@ -194,7 +196,7 @@ const AIR = (() => {
   const cbSize = 4096 + 2;
   const cbrt1p = new Float64Array(cbSize);
   for (let k = 0; k < cbSize; k++) cbrt1p[k] = Math.cbrt(1 + k / 4096);
-  return { lamK, turbK, freeK, viscK, L, tMin, step, size, lam, turb, free, reTurbulent: 1.2e5, dtStep, dtSize, dt032, cbSize, cbrt1p };
+  return { lamK, turbK, freeK, viscK, L, tMin, step, size, lam, turb, free, reLimit, dtStep, dtSize, dt032, cbSize, cbrt1p };
 })();
 
 /** ΔT^0.32 from the table (linear interpolation; exact pow beyond the table). */
@@ -236,7 +238,7 @@ export function fuentesCellTemperature(
   const { tgrat, cap } = m;
   const windFactor = Math.pow(FUENTES.moduleHeightM / FUENTES.windHeightM, 0.2);
   const dtSeconds = stepHours * 3600;
-  const hour: FuentesHour = { tamb: 0, tsky: 0, sun: 0, sun0: 0, tmod0: 0, lamW: 0, turbW: 0, turbulentBelowT: 0, hconv: 0, dtSeconds };
+  const hour: FuentesHour = { tamb: 0, tsky: 0, sun: 0, sun0: 0, tmod0: 0, windMod: 0, lamW: 0, turbW: 0, hconv: 0, dtSeconds };
   let tmod0 = T_NOCT_AMBIENT_K;
   let sun0 = 0;
   let hconvPrev = 0;
@@ -258,10 +260,10 @@ export function fuentesCellTemperature(
     h.sun = sun;
     h.sun0 = sun0;
     h.tmod0 = tmod0;
+    h.windMod = windMod;
     h.lamW = AIR.lamK * Math.sqrt(windMod);
-    h.turbW = AIR.turbK * Math.pow(windMod, 0.8);
-    // Re = u·L/ν > 1.2e5 ⇔ T < (u·L/(1.2e5·ν_K))^(1/1.76)
-    h.turbulentBelowT = Math.pow((windMod * AIR.L) / (AIR.reTurbulent * AIR.viscK), 1 / 1.76);
+    h.turbW = 0; // u^0.8 term, computed on first turbulent pass
+
     // Predictor: one pass of eq. 7 with the previous hour's convective coefficient. It only
     // chooses the starting point; the result is still the converged balance.
     let tmod = hconvPrev > 0 ? heatBalance(tmod0, tmod0, tamb, tsky, sun, sun0, hconvPrev, dtSeconds, cap, tgrat) : tmod0;
@@ -294,9 +296,9 @@ type FuentesHour = {
   sun: number;
   sun0: number;
   tmod0: number;
+  windMod: number;
   lamW: number;
   turbW: number;
-  turbulentBelowT: number;
   /** Convective coefficient of the latest pass (output). */
   hconv: number;
   dtSeconds: number;
@@ -312,7 +314,12 @@ function fuentesPass(t: number, h: FuentesHour, m: ReturnType<typeof fuentesSetu
   const x = (tave - tMin) / step;
   const k = x | 0;
   const f = x - k;
-  const hForced = tave < h.turbulentBelowT ? h.turbW * (turb[k] + f * (turb[k + 1] - turb[k])) : h.lamW * (lam[k] + f * (lam[k + 1] - lam[k]));
+  let hForced: number;
+  if (h.windMod > AIR.reLimit[k] + f * (AIR.reLimit[k + 1] - AIR.reLimit[k])) {
+    // turbulent: Re > 1.2e5
+    if (h.turbW === 0) h.turbW = AIR.turbK * Math.pow(h.windMod, 0.8);
+    hForced = h.turbW * (turb[k] + f * (turb[k + 1] - turb[k]));
+  } else hForced = h.lamW * (lam[k] + f * (lam[k + 1] - lam[k]));
   const dT = Math.abs(t - h.tamb);
   const hFree = dT > 0 ? AIR.freeK * dtPow032(dT) * (free[k] + f * (free[k + 1] - free[k])) : 0;
   const hconv = m.convrat * cubeSum(hFree, hForced);

@@ -257,21 +257,27 @@ export type SunAngles = {
 
 /** Site-dependent part of SPA: hour angle, parallax, elevation, refraction, azimuth (eqs 31–46). */
 function topocentric(g: Geocentric, nuDeg: number, s: SiteTerms, out: SunAngles): void {
-  const hDeg = nuDeg + s.lonDeg - g.alphaDeg; // local hour angle, eq 32 (periodic, no reduction needed)
-  const H = hDeg * D2R;
-  const xi = (8.794 / (3600 * g.radiusAu)) * D2R; // equatorial horizontal parallax, eq 33
+  const H = (nuDeg + s.lonDeg - g.alphaDeg) * D2R; // local hour angle, eq 32 (periodic, no reduction needed)
+  // Equatorial horizontal parallax, eq 33. ξ < 2.5e-6 rad, so sin ξ = ξ to double precision.
+  const sinXi = (8.794 / (3600 * g.radiusAu)) * D2R;
   const delta = g.deltaDeg * D2R;
   const cosH = Math.cos(H);
   const sinH = Math.sin(H);
   const cosDelta = Math.cos(delta);
-  const sinXi = Math.sin(xi);
   const den = cosDelta - s.x * sinXi * cosH;
-  const dAlpha = Math.atan2(-s.x * sinXi * sinH, den); // eq 38
-  const deltaP = Math.atan2((Math.sin(delta) - s.y * sinXi) * Math.cos(dAlpha), den); // eq 39
-  const Hp = H - dAlpha; // eq 40
-  const cosHp = Math.cos(Hp);
-  const sinDeltaP = Math.sin(deltaP);
-  const cosDeltaP = Math.cos(deltaP);
+  // Δα, eq 38, is below 3e-6 rad: atan, sin and cos of it by their series (exact at double precision).
+  const t = (-s.x * sinXi * sinH) / den;
+  const dAlpha = t - (t * t * t) / 3;
+  const cosDA = 1 - (dAlpha * dAlpha) / 2;
+  const sinDA = dAlpha;
+  // δ' = atan2(num, den), eq 39: its sine and cosine straight from the two arguments (den > 0).
+  const num = (Math.sin(delta) - s.y * sinXi) * cosDA;
+  const r = Math.sqrt(num * num + den * den);
+  const sinDeltaP = num / r;
+  const cosDeltaP = den / r;
+  // H' = H − Δα, eq 40
+  const cosHp = cosH * cosDA + sinH * sinDA;
+  const sinHp = sinH * cosDA - cosH * sinDA;
   let sinE0 = s.sinLat * sinDeltaP + s.cosLat * cosDeltaP * cosHp; // eq 41
   if (sinE0 > 1) sinE0 = 1;
   else if (sinE0 < -1) sinE0 = -1;
@@ -281,7 +287,7 @@ function topocentric(g: Geocentric, nuDeg: number, s: SiteTerms, out: SunAngles)
     dE = (s.refractionFactor * 1.02) / (60 * Math.tan((e0 + 10.3 / (e0 + 5.11)) * D2R)); // eq 42
   }
   const e = e0 + dE; // eq 43
-  const gamma = Math.atan2(Math.sin(Hp), cosHp * s.sinLat - (sinDeltaP / cosDeltaP) * s.cosLat) * R2D; // eq 45
+  const gamma = Math.atan2(sinHp, cosHp * s.sinLat - (sinDeltaP / cosDeltaP) * s.cosLat) * R2D; // eq 45
   out.zenithDeg = 90 - e; // eq 44
   out.airlessZenithDeg = 90 - e0;
   out.elevationDeg = e;
