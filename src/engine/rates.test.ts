@@ -189,4 +189,9 @@ describe("validation", () => {
   it("rejects a short usage series", () => {
     expect(() => billYear({ plan: flat, usageHourlyKwh: [1, 2, 3] })).toThrow(EngineInputError);
   });
+
+  it("the bill calculator names the series of the wrong length", () => {
+    const calc = makeBillCalculator(flat);
+    expect(() => calc(constantUsage, [1, 2])).toThrow(/productionHourlyKwh: must have 8760 values, got 2/);
+  });
 });

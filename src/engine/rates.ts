@@ -268,9 +268,11 @@ export function makeBillCalculator(plan: RatePlanInput, calendarYear = 2023): (u
   const parsedPlan = parseOrThrow(ratePlanSchema, plan, "rate plan");
   const info = periodsOf(parsedPlan, calendarYear);
   return (usage, production) => {
-    if (usage.length !== HOURS_PER_YEAR || (production && production.length !== HOURS_PER_YEAR)) {
-      throw new EngineInputError([{ path: "usageHourlyKwh", message: `hourly series must have ${HOURS_PER_YEAR} values` }], "bill");
-    }
+    const lengthIssues = [
+      ...(usage.length !== HOURS_PER_YEAR ? [{ path: "usageHourlyKwh", message: `must have ${HOURS_PER_YEAR} values, got ${usage.length}` }] : []),
+      ...(production && production.length !== HOURS_PER_YEAR ? [{ path: "productionHourlyKwh", message: `must have ${HOURS_PER_YEAR} values, got ${production.length}` }] : []),
+    ];
+    if (lengthIssues.length > 0) throw new EngineInputError(lengthIssues, "bill");
     for (let h = 0; h < HOURS_PER_YEAR; h++) {
       if (!(usage[h] >= 0 && Number.isFinite(usage[h]))) throw new EngineInputError([{ path: `usageHourlyKwh.${h}`, message: "must be a finite number ≥ 0" }], "bill");
       if (production && !(production[h] >= 0 && Number.isFinite(production[h]))) {
