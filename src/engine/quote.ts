@@ -18,7 +18,14 @@ import { buildCashflow, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT
 import { checkString, stringCheckInputSchema, CAUTION, type StringCheckResult } from "./string-check";
 import { HOURS_PER_YEAR, monthlySums } from "./year-calendar";
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "must be a date as YYYY-MM-DD");
+const isoDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "must be a date as YYYY-MM-DD")
+  .refine((s) => {
+    const [y, m, d] = s.split("-").map(Number);
+    const t = new Date(Date.UTC(y, m - 1, d));
+    return t.getUTCFullYear() === y && t.getUTCMonth() === m - 1 && t.getUTCDate() === d;
+  }, "is not a real calendar date");
 
 const caseFaceSchema = z.object({
   name: z.string().min(1).max(100),
