@@ -1,7 +1,8 @@
 import "server-only";
 import { z } from "zod";
 import type { Permission } from "@/lib/permissions";
-import { HttpError, isDatabaseDown } from "@/server/errors";
+import { EngineInputError } from "@/engine/errors";
+import { engineFields, HttpError, isDatabaseDown } from "@/server/errors";
 import { validationError } from "@/server/route";
 import { requireMember, type Member } from "@/server/session";
 
@@ -11,6 +12,7 @@ export type ActionResult<T> =
 
 export function actionError(err: unknown): Extract<ActionResult<never>, { ok: false }> {
   if (err instanceof HttpError) return { ok: false, code: err.code, message: err.message, fieldErrors: err.fields };
+  if (err instanceof EngineInputError) return { ok: false, code: "invalid_input", message: err.message, fieldErrors: engineFields(err) };
   if (isDatabaseDown(err)) {
     return { ok: false, code: "database_unavailable", message: "The database cannot be reached right now. Nothing was saved; try again shortly." };
   }

@@ -32,3 +32,10 @@ export function isDatabaseDown(err: unknown): boolean {
   }
   return false;
 }
+
+/** The engine's named issues as form fields ({ "bills.2.kwh": ["…"] }). */
+export function engineFields(err: { issues: { path: string; message: string }[] }): Record<string, string[]> {
+  const fields: Record<string, string[]> = {};
+  for (const issue of err.issues) (fields[issue.path || "_"] ??= []).push(issue.message);
+  return fields;
+}

@@ -1,0 +1,348 @@
+"use client";
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useRef, useState } from "react";
+import { FormMessage } from "@/components/field";
+import { api, ApiError } from "@/lib/api-client";
+import type { BillSuggestion } from "@/lib/bill-text";
+import { billsTableSchema } from "@/lib/schemas/energy";
+import { UsageChart } from "./usage-chart";
+
+type BillValue = { periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null };
+type Row = { key: string; periodStart: string; periodEnd: string; kwh: string; cost: string; uploadId: string | null };
+type Usage = {
+  monthlyKwh: number[];
+  annualKwh: number;
+  source: "bills" | "interval" | "none";
+  estimatedMonths: boolean[];
+  warnings: string[];
+  averageCentsPerKwh: number | null;
+  fillMethod: string;
+};
+type UploadView = { id: string; fileName: string; mimeType: string; purpose: string; createdAt: string };
+type Outcome =
+  | { kind: "bill-text"; upload: { id: string; fileName: string }; suggestions: BillSuggestion[]; message: string }
+  | { kind: "bill-image"; upload: { id: string; fileName: string }; message: string }
+  | { kind: "interval"; upload: { id: string; fileName: string }; message: string };
+
+let keySeq = 0;
+const toRow = (b: BillValue): Row => ({
+  key: `r${keySeq++}`,
+  periodStart: b.periodStart,
+  periodEnd: b.periodEnd,
+  kwh: String(b.kwh),
+  cost: b.costCents == null ? "" : (b.costCents / 100).toFixed(2),
+  uploadId: b.uploadId,
+});
+const emptyRow = (): Row => ({ key: `r${keySeq++}`, periodStart: "", periodEnd: "", kwh: "", cost: "", uploadId: null });
+
+function toPayload(rows: Row[]) {
+  return {
+    bills: rows
+      .filter((r) => r.periodStart || r.periodEnd || r.kwh || r.cost)
+      .map((r) => ({
+        periodStart: r.periodStart,
+        periodEnd: r.periodEnd,
+        kwh: r.kwh === "" ? Number.NaN : Number(r.kwh.replaceAll(",", "")),
+        costCents: r.cost.trim() === "" ? null : Math.round(Number(r.cost.replace(/[$,]/g, "")) * 100),
+        uploadId: r.uploadId,
+      })),
+  };
+}
+
+/** Uploads with progress (fetch cannot report upload progress; XMLHttpRequest can). */
+function uploadWithProgress(url: string, file: File, onProgress: (pct: number) => void): Promise<Outcome> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open("POST", url);
+    xhr.upload.onprogress = (e) => e.lengthComputable && onProgress(Math.round((e.loaded / e.total) * 100));
+    xhr.onerror = () => reject(new ApiError(0, "network", "The upload was interrupted. Check the connection and try again."));
+    xhr.onload = () => {
+      let body: { data?: Outcome; error?: { code: string; message: string } } = {};
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        /* handled below */
+      }
+      if (xhr.status >= 200 && xhr.status < 300 && body.data) resolve(body.data);
+      else reject(new ApiError(xhr.status, body.error?.code ?? "http_error", body.error?.message ?? `The upload failed (${xhr.status}).`));
+    };
+    const form = new FormData();
+    form.append("file", file);
+    xhr.send(form);
+  });
+}
+
+export function EnergyClient(props: { dealId: string; canEdit: boolean; initialBills: BillValue[]; initialUsage: Usage; uploads: UploadView[] }) {
+  const queryClient = useQueryClient();
+  const [rows, setRows] = useState<Row[]>(() => (props.initialBills.length ? props.initialBills.map(toRow) : [emptyRow()]));
+  const [rowErrors, setRowErrors] = useState<Record<string, string>>({});
+  const [notice, setNotice] = useState<{ tone: "error" | "success" | "info"; text: string } | null>(null);
+  const [progress, setProgress] = useState<number | null>(null);
+  const [suggestions, setSuggestions] = useState<{ uploadId: string; items: (BillSuggestion & { pick: boolean })[] } | null>(null);
+  const fileInput = useRef<HTMLInputElement>(null);
+
+  const usage = useQuery({
+    queryKey: ["usage", props.dealId],
+    queryFn: () => api<Usage>(`/api/deals/${props.dealId}/usage`),
+    initialData: props.initialUsage,
+  });
+  const uploads = useQuery({
+    queryKey: ["uploads", props.dealId],
+    queryFn: () => api<UploadView[]>(`/api/deals/${props.dealId}/uploads`),
+    initialData: props.uploads,
+  });
+
+  const save = useMutation({
+    mutationFn: (payload: ReturnType<typeof toPayload>) => api<{ bills: BillValue[]; usage: Usage }>(`/api/deals/${props.dealId}/bills`, { method: "PUT", json: payload }),
+    onSuccess: (data) => {
+      queryClient.setQueryData(["usage", props.dealId], data.usage);
+      setRows(data.bills.length ? data.bills.map(toRow) : [emptyRow()]);
+      setRowErrors({});
+      setNotice({ tone: "success", text: `Saved ${data.bills.length} bill${data.bills.length === 1 ? "" : "s"}.` });
+    },
+    onError: (err) => {
+      const fields = err instanceof ApiError ? (err.fields ?? {}) : {};
+      setRowErrors(Object.fromEntries(Object.entries(fields).map(([k, v]) => [k, v[0]])));
+      setNotice({ tone: "error", text: `${err.message} Nothing was changed.` });
+    },
+  });
+
+  function onSave() {
+    setNotice(null);
+    const payload = toPayload(rows);
+    const checked = billsTableSchema.safeParse(payload);
+    if (!checked.success) {
+      const errs: Record<string, string> = {};
+      for (const issue of checked.error.issues) errs[issue.path.join(".")] ??= issue.message;
+      setRowErrors(errs);
+      setNotice({ tone: "error", text: "Some bills need a look (marked below). Nothing was saved yet." });
+      return;
+    }
+    save.mutate(payload);
+  }
+
+  async function onFile(file: File) {
+    setNotice(null);
+    setProgress(0);
+    try {
+      const outcome = await uploadWithProgress(`/api/deals/${props.dealId}/uploads`, file, setProgress);
+      setNotice({ tone: outcome.kind === "bill-image" ? "info" : "success", text: outcome.message });
+      if (outcome.kind === "bill-text" && outcome.suggestions.length > 0) {
+        setSuggestions({ uploadId: outcome.upload.id, items: outcome.suggestions.map((s) => ({ ...s, pick: true })) });
+      }
+      if (outcome.kind === "interval") await queryClient.invalidateQueries({ queryKey: ["usage", props.dealId] });
+      await queryClient.invalidateQueries({ queryKey: ["uploads", props.dealId] });
+    } catch (err) {
+      setNotice({ tone: "error", text: err instanceof Error ? err.message : "The upload failed." });
+    } finally {
+      setProgress(null);
+      if (fileInput.current) fileInput.current.value = "";
+    }
+  }
+
+  function addSuggestions() {
+    if (!suggestions) return;
+    const picked = suggestions.items.filter((s) => s.pick);
+    const existing = rows.filter((r) => r.periodStart || r.kwh);
+    setRows([
+      ...existing,
+      ...picked.map((s) => toRow({ periodStart: s.periodStart, periodEnd: s.periodEnd, kwh: s.kwh ?? 0, costCents: s.costCents, uploadId: suggestions.uploadId })).map((r, i) => (picked[i].kwh == null ? { ...r, kwh: "" } : r)),
+    ]);
+    setSuggestions(null);
+    setNotice({ tone: "info", text: `Added ${picked.length} bill${picked.length === 1 ? "" : "s"} to the table. Check them, then save.` });
+  }
+
+  const set = (key: string, field: keyof Row, value: string) => setRows((rs) => rs.map((r) => (r.key === key ? { ...r, [field]: value } : r)));
+  const u = usage.data;
+  const measured = u.estimatedMonths.filter((e) => !e).length;
+
+  return (
+    <div className="grid gap-6 xl:grid-cols-[3fr_2fr]">
+      <div className="space-y-6">
+        {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+
+        {props.canEdit ? (
+          <section className="card p-5" aria-labelledby="upload-heading">
+            <h2 id="upload-heading" className="font-semibold">
+              Add bills from files
+            </h2>
+            <p className="mt-1 text-sm text-graphite-soft">PDF bills, photos of bills (JPEG, PNG), or hourly data: Green Button XML or CSV. Up to 10 MB a bill, 20 MB of interval data.</p>
+            <label className="btn-quiet mt-3 cursor-pointer">
+              Choose a file…
+              <input
+                ref={fileInput}
+                type="file"
+                className="sr-only"
+                accept=".pdf,.jpg,.jpeg,.png,.csv,.xml,application/pdf,image/jpeg,image/png,text/csv,application/xml"
+                onChange={(e) => e.target.files?.[0] && onFile(e.target.files[0])}
+                disabled={progress !== null}
+                data-testid="bill-file-input"
+              />
+            </label>
+            {progress !== null ? (
+              <div className="mt-3" role="progressbar" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} aria-label="Upload progress">
+                <div className="h-2 rounded-full bg-paper-deep">
+                  <div className="h-2 rounded-full bg-copper transition-all" style={{ width: `${progress}%` }} />
+                </div>
+                <p className="mt-1 text-xs text-graphite-soft">{progress < 100 ? `Uploading… ${progress} %` : "Reading the file…"}</p>
+              </div>
+            ) : null}
+            {suggestions ? (
+              <div className="mt-4 rounded-md border border-paper-line bg-paper p-3" data-testid="bill-suggestions">
+                <p className="text-sm font-medium">Found in the bill — tick what is right:</p>
+                <ul className="mt-2 space-y-2">
+                  {suggestions.items.map((s, i) => (
+                    <li key={`${s.periodStart}-${i}`}>
+                      <label className="flex min-h-touch items-start gap-3">
+                        <input
+                          type="checkbox"
+                          className="mt-1 h-5 w-5 accent-copper"
+                          checked={s.pick}
+                          onChange={(e) => setSuggestions({ ...suggestions, items: suggestions.items.map((x, j) => (j === i ? { ...x, pick: e.target.checked } : x)) })}
+                        />
+                        <span>
+                          <span className="figure">
+                            {s.periodStart} → {s.periodEnd} · {s.kwh == null ? "kWh not found" : `${s.kwh.toLocaleString("en-US")} kWh`} ·{" "}
+                            {s.costCents == null ? "amount not found" : `$${(s.costCents / 100).toFixed(2)}`}
+                          </span>
+                          <span className="block text-xs text-graphite-soft">“{s.excerpt}”</span>
+                        </span>
+                      </label>
+                    </li>
+                  ))}
+                </ul>
+                <div className="mt-3 flex gap-2">
+                  <button type="button" className="btn-primary" onClick={addSuggestions}>
+                    Add to the table
+                  </button>
+                  <button type="button" className="btn-quiet" onClick={() => setSuggestions(null)}>
+                    Dismiss
+                  </button>
+                </div>
+              </div>
+            ) : null}
+          </section>
+        ) : null}
+
+        <section className="card overflow-hidden" aria-labelledby="bills-heading">
+          <div className="flex items-center justify-between px-5 pt-5">
+            <h2 id="bills-heading" className="font-semibold">
+              Bills
+            </h2>
+            <span className="text-sm text-graphite-soft">Billing period start and end, kWh, amount</span>
+          </div>
+          <div className="mt-3 overflow-x-auto">
+            <table className="w-full min-w-[560px] text-sm">
+              <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-graphite-soft">
+                <tr>
+                  <th scope="col" className="px-3 py-2">From</th>
+                  <th scope="col" className="px-3 py-2">To</th>
+                  <th scope="col" className="px-3 py-2">kWh</th>
+                  <th scope="col" className="px-3 py-2">Amount ($)</th>
+                  <th scope="col" className="px-3 py-2"><span className="sr-only">Remove</span></th>
+                </tr>
+              </thead>
+              <tbody>
+                {rows.map((r, i) => {
+                  const err = (f: string) => rowErrors[`bills.${i}.${f}`];
+                  const rowMessage = err("periodStart") ?? err("periodEnd") ?? err("kwh") ?? err("costCents") ?? err("startDate") ?? err("endDate");
+                  return (
+                    <tr key={r.key} className="align-top" data-testid="bill-row">
+                      <td className="px-3 py-2">
+                        <input aria-label={`Bill ${i + 1} from`} type="date" className="field-input" value={r.periodStart} disabled={!props.canEdit} aria-invalid={!!(err("periodStart") || err("startDate"))} onChange={(e) => set(r.key, "periodStart", e.target.value)} />
+                      </td>
+                      <td className="px-3 py-2">
+                        <input aria-label={`Bill ${i + 1} to`} type="date" className="field-input" value={r.periodEnd} disabled={!props.canEdit} aria-invalid={!!(err("periodEnd") || err("endDate"))} onChange={(e) => set(r.key, "periodEnd", e.target.value)} />
+                      </td>
+                      <td className="px-3 py-2">
+                        <input aria-label={`Bill ${i + 1} kWh`} inputMode="decimal" className="field-input figure" value={r.kwh} disabled={!props.canEdit} aria-invalid={!!err("kwh")} onChange={(e) => set(r.key, "kwh", e.target.value)} />
+                      </td>
+                      <td className="px-3 py-2">
+                        <input aria-label={`Bill ${i + 1} amount`} inputMode="decimal" className="field-input figure" value={r.cost} disabled={!props.canEdit} aria-invalid={!!err("costCents")} onChange={(e) => set(r.key, "cost", e.target.value)} />
+                        {rowMessage ? (
+                          <p className="field-error" role="alert">
+                            {rowMessage}
+                          </p>
+                        ) : null}
+                      </td>
+                      <td className="px-3 py-2 text-right">
+                        {props.canEdit ? (
+                          <button type="button" className="btn-quiet px-3" aria-label={`Remove bill ${i + 1}`} onClick={() => setRows((rs) => (rs.length > 1 ? rs.filter((x) => x.key !== r.key) : [emptyRow()]))}>
+                            ✕
+                          </button>
+                        ) : null}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          {props.canEdit ? (
+            <div className="flex flex-wrap gap-2 p-5">
+              <button type="button" className="btn-quiet" onClick={() => setRows((rs) => [...rs, emptyRow()])}>
+                Add a bill
+              </button>
+              <button type="button" className="btn-primary" onClick={onSave} disabled={save.isPending}>
+                {save.isPending ? "Saving…" : "Save bills"}
+              </button>
+            </div>
+          ) : null}
+        </section>
+      </div>
+
+      <aside className="space-y-6">
+        <section className="card p-5" aria-labelledby="usage-heading">
+          <h2 id="usage-heading" className="font-semibold">
+            Usage year
+          </h2>
+          {u.source === "none" ? (
+            <p className="mt-2 text-graphite-soft">No bills yet. Add at least one bill; 12 months give the best picture.</p>
+          ) : (
+            <>
+              <p className="mt-1">
+                <span className="figure text-2xl" data-testid="annual-kwh">
+                  {Math.round(u.annualKwh).toLocaleString("en-US")}
+                </span>{" "}
+                kWh a year
+              </p>
+              <p className="text-sm text-graphite-soft">
+                {u.source === "interval"
+                  ? "From hourly interval data."
+                  : `${measured} of 12 months from bills${measured < 12 ? `; the rest estimated (${u.fillMethod === "degree-day" ? "degree-day regression" : "seasonal shape"})` : ""}.`}
+                {u.averageCentsPerKwh != null ? ` Average price ${u.averageCentsPerKwh.toFixed(1)} ¢/kWh.` : ""}
+              </p>
+              <div className="mt-4">
+                <UsageChart monthlyKwh={u.monthlyKwh} estimated={u.estimatedMonths} />
+              </div>
+              {u.warnings.length > 0 ? (
+                <ul className="mt-3 space-y-1 text-sm text-caution" aria-label="Flags">
+                  {u.warnings.map((w) => (
+                    <li key={w}>⚑ {w}</li>
+                  ))}
+                </ul>
+              ) : null}
+            </>
+          )}
+        </section>
+        <section className="card p-5" aria-labelledby="files-heading">
+          <h2 id="files-heading" className="font-semibold">
+            Files
+          </h2>
+          {uploads.data.length === 0 ? (
+            <p className="mt-1 text-sm text-graphite-soft">None yet.</p>
+          ) : (
+            <ul className="mt-2 space-y-1 text-sm" data-testid="upload-list">
+              {uploads.data.map((f) => (
+                <li key={f.id} className="flex justify-between gap-2">
+                  <span className="truncate">{f.fileName}</span>
+                  <span className="shrink-0 text-graphite-soft">{f.purpose === "interval_data" ? "hourly data" : f.mimeType === "application/pdf" ? "PDF" : "photo"}</span>
+                </li>
+              ))}
+            </ul>
+          )}
+        </section>
+      </aside>
+    </div>
+  );
+}
