@@ -11,7 +11,11 @@ import { seedDemo } from "./lib/seed-demo";
 import { buildIfStale, startApp, startMailFake, stopServices, waitForHttp } from "./lib/services";
 
 const inst = instance("test");
-const only = process.argv.slice(2).filter((a) => ["unit", "integration", "browser"].includes(a));
+const dashDash = process.argv.indexOf("--");
+const own = dashDash < 0 ? process.argv.slice(2) : process.argv.slice(2, dashDash);
+/** Anything after `--` goes to the test runner (a file filter, -g "title"). */
+const extra = dashDash < 0 ? [] : process.argv.slice(dashDash + 1);
+const only = own.filter((a) => ["unit", "integration", "browser"].includes(a));
 const layers = only.length > 0 ? only : ["unit", "integration", "browser"];
 const started = Date.now();
 
@@ -26,7 +30,7 @@ const testEnv = { ...inst.appEnv, KW_TEST_MAIL_URL: inst.mailUrl };
 
 async function main(): Promise<boolean> {
   const results: [string, boolean][] = [];
-  if (layers.includes("unit")) results.push(["unit", run("unit tests", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "unit"])]);
+  if (layers.includes("unit")) results.push(["unit", run("unit tests", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "unit", ...extra])]);
 
   if (layers.includes("integration") || layers.includes("browser")) {
     console.log(`\n· MariaDB (test) on 127.0.0.1:${inst.ports.db}, a fresh database`);
@@ -41,13 +45,13 @@ async function main(): Promise<boolean> {
     await waitForHttp(`${inst.mailUrl}/health`, "The dev outbox");
   }
   if (layers.includes("integration")) {
-    results.push(["integration", run("integration tests (real MariaDB)", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "integration"], testEnv)]);
+    results.push(["integration", run("integration tests (real MariaDB)", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "integration", ...extra], testEnv)]);
   }
   if (layers.includes("browser")) {
     buildIfStale();
     startApp(inst);
     await waitForHttp(`${inst.appUrl}/api/health`, "Kilowright (test)", 90_000);
-    results.push(["browser", run("browser tests (Playwright + chromium)", [bin("@playwright/test/cli.js"), "test", "-c", "tests/playwright.config.ts"], testEnv)]);
+    results.push(["browser", run("browser tests (Playwright + chromium)", [bin("@playwright/test/cli.js"), "test", "-c", "tests/playwright.config.ts", ...extra], testEnv)]);
   }
   const minutes = ((Date.now() - started) / 60_000).toFixed(1);
   console.log(`\n${results.map(([name, ok]) => `${ok ? "✓" : "✗"} ${name}`).join("   ")}   (${minutes} min)`);

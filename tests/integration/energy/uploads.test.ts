@@ -1,0 +1,153 @@
+import { readdir } from "node:fs/promises";
+import path from "node:path";
+import { and, eq } from "drizzle-orm";
+import { PDFDocument, StandardFonts } from "pdf-lib";
+import { describe, expect, it } from "vitest";
+import { bill, intervalProfile, upload } from "@/db/schema";
+import { db } from "@/server/db";
+import { createLead } from "@/server/deals";
+import { acceptDealUpload, getDealUsage, saveBills } from "@/server/energy";
+import { HttpError } from "@/server/errors";
+import type { Member } from "@/server/session";
+import { newCompany } from "../support/fixtures";
+
+async function newDeal(member: Member): Promise<string> {
+  const { dealId } = await createLead(member, {
+    name: "Testwood household",
+    contactName: "Pat Testwood",
+    street: "1 Example Row",
+    city: "Greensboro",
+    region: "NC",
+    postalCode: "27401",
+    latitude: 36.07,
+    longitude: -79.79,
+    source: "Referral",
+  });
+  return dealId;
+}
+
+async function textPdf(lines: string[]): Promise<Uint8Array> {
+  const doc = await PDFDocument.create();
+  const page = doc.addPage([612, 792]);
+  const font = await doc.embedFont(StandardFonts.Helvetica);
+  lines.forEach((line, i) => page.drawText(line, { x: 50, y: 740 - i * 18, size: 11, font }));
+  return doc.save();
+}
+
+// A 1×1 PNG (the smallest valid image), drawn big: a page that is only a picture, like a scan.
+const PNG_1PX = Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==", "base64");
+async function scannedPdf(): Promise<Uint8Array> {
+  const doc = await PDFDocument.create();
+  const page = doc.addPage([612, 792]);
+  const image = await doc.embedPng(PNG_1PX);
+  page.drawImage(image, { x: 0, y: 0, width: 612, height: 792 });
+  return doc.save();
+}
+
+async function refused(promise: Promise<unknown>, status: number, text: RegExp) {
+  const err = await promise.then(
+    () => null,
+    (e: unknown) => e,
+  );
+  expect(err).toBeInstanceOf(HttpError);
+  expect((err as HttpError).status).toBe(status);
+  expect((err as HttpError).message).toMatch(text);
+}
+
+async function storedFiles(companyId: string): Promise<string[]> {
+  try {
+    return await readdir(path.join(process.env.STORAGE_DIR ?? "", companyId, "uploads"));
+  } catch {
+    return [];
+  }
+}
+
+describe("bill uploads are checked by content", () => {
+  it("a text PDF is kept and yields suggested billing periods", async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const bytes = await textPdf(["Piedmont Electric Cooperative", "Billing period 01/03/2026 - 02/02/2026", "Energy used 1,024 kWh", "Amount due $142.37"]);
+    const outcome = await acceptDealUpload(member, dealId, { name: "january.pdf", bytes });
+    expect(outcome.kind).toBe("bill-text");
+    if (outcome.kind !== "bill-text") return;
+    expect(outcome.suggestions).toEqual([expect.objectContaining({ periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024, costCents: 14237 })]);
+    expect(await storedFiles(member.companyId)).toHaveLength(1);
+  });
+
+  it("a scanned PDF and a photo are kept, with the request to type the numbers", async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const scan = await acceptDealUpload(member, dealId, { name: "scan.pdf", bytes: await scannedPdf() });
+    expect(scan).toMatchObject({ kind: "bill-image" });
+    expect(scan.message).toMatch(/scanned PDF with no text/);
+    const photo = await acceptDealUpload(member, dealId, { name: "photo.png", bytes: new Uint8Array(PNG_1PX) });
+    expect(photo.kind).toBe("bill-image");
+    const rows = await db().select().from(upload).where(eq(upload.dealId, dealId));
+    expect(rows.map((r) => r.mimeType).sort()).toEqual(["application/pdf", "image/png"]);
+  });
+
+  it("a renamed program, an oversize file and a corrupt PDF are refused and nothing is stored", async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    // ELF header (the start of a Linux program), named like a bill.
+    const elf = new Uint8Array(4096);
+    elf.set([0x7f, 0x45, 0x4c, 0x46, 0x02, 0x01, 0x01, 0x00]);
+    await refused(acceptDealUpload(member, dealId, { name: "bill.pdf", bytes: elf }), 415, /is a program/);
+    await refused(acceptDealUpload(member, dealId, { name: "huge.csv", bytes: new Uint8Array(21 * 1024 * 1024) }), 413, /MB; files up to 20 MB/);
+    const bigPdf = new Uint8Array(11 * 1024 * 1024);
+    bigPdf.set(new TextEncoder().encode("%PDF-1.7\n"));
+    await refused(acceptDealUpload(member, dealId, { name: "big.pdf", bytes: bigPdf }), 413, /bill files up to 10 MB/);
+    const corrupt = new TextEncoder().encode("%PDF-1.7\n1 0 obj << /Type /Catalog /Pages 2 0 R >>\nthis is not a real pdf body\n%%EOF");
+    await refused(acceptDealUpload(member, dealId, { name: "damaged.pdf", bytes: corrupt }), 422, /cannot be read/);
+    await refused(acceptDealUpload(member, dealId, { name: "notes.csv", bytes: new TextEncoder().encode("hello,world\n1,2\n") }), 422, /could not be read as interval CSV/);
+    expect(await db().select().from(upload).where(eq(upload.dealId, dealId))).toEqual([]);
+    expect(await storedFiles(member.companyId)).toEqual([]);
+  });
+
+  it("Green Button XML becomes the deal's hourly usage", async () => {
+    const { readFile } = await import("node:fs/promises");
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const xml = await readFile(path.join(process.cwd(), "tests/fixtures/green-button/espi-two-days-invented.xml"));
+    const outcome = await acceptDealUpload(member, dealId, { name: "usage.xml", bytes: new Uint8Array(xml) });
+    expect(outcome.kind).toBe("interval");
+    const [profile] = await db().select().from(intervalProfile).where(and(eq(intervalProfile.dealId, dealId), eq(intervalProfile.companyId, member.companyId)));
+    expect(profile.hourlyKwh).toHaveLength(8760);
+    const usage = await getDealUsage(member, dealId);
+    expect(usage.source).toBe("interval");
+  });
+});
+
+describe("the bills table", () => {
+  it("overlapping bills are refused naming the bill, and what was saved stays", async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    await saveBills(member, dealId, { bills: [{ periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024, costCents: 14237 }] });
+    const err = await saveBills(member, dealId, {
+      bills: [
+        { periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024 },
+        { periodStart: "2026-01-20", periodEnd: "2026-02-20", kwh: 900 },
+      ],
+    }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(HttpError);
+    expect((err as HttpError).status).toBe(422);
+    expect(Object.keys((err as HttpError).fields ?? {})).toContain("bills.1.startDate");
+    const kept = await db().select().from(bill).where(eq(bill.dealId, dealId));
+    expect(kept.map((b) => b.kwh)).toEqual([1024]);
+  });
+
+  it("twelve bills give twelve measured months", async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const bills = Array.from({ length: 12 }, (_, m) => {
+      const start = new Date(Date.UTC(2025, m, 1)).toISOString().slice(0, 10);
+      const end = new Date(Date.UTC(2025, m + 1, 1)).toISOString().slice(0, 10);
+      return { periodStart: start, periodEnd: end, kwh: 800 + 50 * Math.abs(6 - m), costCents: 12_000 };
+    });
+    await saveBills(member, dealId, { bills });
+    const usage = await getDealUsage(member, dealId);
+    expect(usage.estimatedMonths.filter(Boolean)).toHaveLength(0);
+    // Σ (800 + 50·|6 − m|) for m = 0..11 = 9600 + 50·(6+5+4+3+2+1+0+1+2+3+4+5) = 9600 + 1800 (hand-worked)
+    expect(usage.annualKwh).toBeCloseTo(11_400, 6);
+  });
+});
