@@ -1,12 +1,12 @@
 /**
  * Generates src/engine/data/reference-load-8760.ts from the shared reference file
- * ../shared/reference/residential-load-8760-kw.csv (run once: `npx tsx scripts/generate-reference-load.ts`).
+ * tests/fixtures/reference/residential-load-8760-kw.csv (run once: `npx tsx scripts/generate-reference-load.ts`).
  * Source: NREL/ssc test/input_cases/pvsamv1_data/pvsamv1_residential_load.csv
  * (BSD-3-Clause, Alliance for Sustainable Energy), one average kW figure per hour.
  */
 import { readFileSync, writeFileSync } from "node:fs";
 
-const source = new URL("../../shared/reference/residential-load-8760-kw.csv", import.meta.url);
+const source = new URL("../tests/fixtures/reference/residential-load-8760-kw.csv", import.meta.url);
 const target = new URL("../src/engine/data/reference-load-8760.ts", import.meta.url);
 const values = readFileSync(source, "utf8")
   .split(/\r?\n/)

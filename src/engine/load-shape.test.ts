@@ -6,8 +6,8 @@ import { monthlySums } from "./year-calendar";
 import { EngineInputError } from "./errors";
 
 describe("reference load", () => {
-  it("matches the shared reference file (NREL/ssc pvsamv1_residential_load.csv) to 5 decimals", () => {
-    const raw = readFileSync(new URL("../../../shared/reference/residential-load-8760-kw.csv", import.meta.url), "utf8")
+  it("matches the reference file (NREL/ssc pvsamv1_residential_load.csv) to 5 decimals", () => {
+    const raw = readFileSync(new URL("../../tests/fixtures/reference/residential-load-8760-kw.csv", import.meta.url), "utf8")
       .split(/\r?\n/)
       .filter((l) => l.trim() !== "")
       .map(Number);
