@@ -1,0 +1,3 @@
+export default function Loading() {
+  return <p className="text-graphite-soft" role="status">Loading the price book…</p>;
+}

@@ -1,0 +1,34 @@
+import type { Metadata } from "next";
+import { NoAccess } from "@/components/no-access";
+import { can } from "@/lib/permissions";
+import { emptyPriceBook } from "@/lib/schemas/price-book";
+import { getPriceBookRecord } from "@/server/price-book";
+import { getMember } from "@/server/session";
+import { PriceBookClient } from "./price-book-client";
+
+export const metadata: Metadata = { title: "Price book" };
+
+export default async function PriceBookPage() {
+  const member = await getMember();
+  if (!member) return null;
+  if (!can(member.role, "pricebook:read")) return <NoAccess section="Price book" />;
+  const record = await getPriceBookRecord(member.companyId);
+  const canEdit = can(member.role, "pricebook:manage");
+  return (
+    <>
+      <h1 className="text-2xl font-semibold">Price book</h1>
+      <p className="mt-1 text-graphite-soft">
+        How {member.companyName} prices a system: price per watt by size, adders, line items, discount limits, incentives and the deposit.
+        {canEdit ? "" : " Only an owner or admin can change it."}
+      </p>
+      <PriceBookClient
+        initial={record?.document ?? emptyPriceBook()}
+        canEdit={canEdit}
+        role={member.role}
+        savedAt={record ? record.updatedAt.toISOString() : null}
+        savedBy={record?.updatedByName ?? null}
+        today={new Date().toISOString().slice(0, 10)}
+      />
+    </>
+  );
+}
