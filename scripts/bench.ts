@@ -9,7 +9,7 @@
 import { existsSync, writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import { fileURLToPath, pathToFileURL } from "node:url";
-import { cases as productionCases, sunAccuracyVsAstronomyEngine } from "./bench/production";
+import { denverAccuracy, cases as productionCases, sunAccuracyVsAstronomyEngine } from "./bench/production";
 import type { BenchCase, BenchModule } from "./bench/types";
 
 const root = fileURLToPath(new URL("../", import.meta.url));
@@ -76,6 +76,8 @@ async function main(): Promise<void> {
     full && ours ? `full SPA every hour: ${(full.medianMs / ours.medianMs).toFixed(1)}× the time of the node-interpolated SPA` : "",
   ].filter(Boolean);
   for (const s of summary) console.log(s);
+  const accuracy2 = denverAccuracy();
+  for (const s of accuracy2) console.log(s);
 
   const env = `Node ${process.version}, ${cpus()[0]?.model ?? "unknown CPU"} × ${cpus().length}, load average ${loadavg()
     .map((l) => l.toFixed(2))
@@ -94,7 +96,11 @@ async function main(): Promise<void> {
     "",
     ...summary.map((s) => `- ${s}`),
     "",
-    "Notes",
+    "## Model accuracy against NREL PVWatts (same run)",
+    "",
+    ...accuracy2.map((s) => `- ${s}`),
+    "",
+    "## Notes",
     "",
     "- The production case clears the per-weather-file cache before each run, so it includes the 8,760",
     "  sun positions, the face-independent sky terms, three transpositions, three Fuentes cell-temperature",

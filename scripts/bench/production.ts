@@ -93,3 +93,41 @@ export const cases: BenchCase[] = [
     run: astronomyEngineYear,
   },
 ];
+
+/**
+ * The model against NREL's PVWatts hourly result for Denver (tests/fixtures/weather, with its
+ * attribution): the file's own beam, diffuse, temperature and wind in; annual, monthly and hourly
+ * errors out. The same check runs as a test in src/engine/production.test.ts.
+ */
+export function denverAccuracy(): string[] {
+  const lines = readFileSync(fileURLToPath(new URL("tests/fixtures/weather/pvwatts-8760-rackmount-denver.csv", root)), "utf8").split(/\r?\n/);
+  const start = lines.findIndex((l) => l.startsWith("Month,Day,Hour")) + 1;
+  const ref = lines.slice(start, start + 8760).map((l) => l.split(",").map(Number));
+  const csv = ["month,day,hour,dni,dhi,temp_air,wind_speed", ...ref.map((r) => r.slice(0, 7).join(","))].join("\n");
+  const w = parseWeather(csv, { site: { latitude: 39.73, longitude: -105.18, elevationM: 1819.6, utcOffsetHours: -7 } });
+  const r = estimateProduction(w, {
+    faces: [{ tiltDeg: 20, azimuthDeg: 180, moduleCount: 10, moduleWatts: 400, moduleType: "standard", mount: "open-rack" }],
+    inverter: { kind: "string", dcAcRatio: 1.2, efficiencyPct: 96 },
+    losses: { totalPct: 14.08 },
+  });
+  const refAnnual = ref.reduce((s, x) => s + x[10], 0) / 1000;
+  const refMonthly = new Array<number>(12).fill(0);
+  for (const x of ref) refMonthly[x[0] - 1] += x[10] / 1000;
+  const monthErr = r.monthlyAcKwh.map((v, m) => (v / refMonthly[m] - 1) * 100);
+  const stats = (model: ArrayLike<number>, col: number) => {
+    let se = 0;
+    let sb = 0;
+    for (let i = 0; i < 8760; i++) {
+      const d = model[i] - ref[i][col];
+      se += d * d;
+      sb += d;
+    }
+    return `RMSE ${Math.sqrt(se / 8760).toFixed(2)}, MBE ${(sb / 8760).toFixed(3)}`;
+  };
+  const f = r.faces[0];
+  return [
+    `Denver, PVWatts 4 kW open rack: annual AC ${r.annualAcKwh.toFixed(2)} kWh vs ${refAnnual.toFixed(2)} kWh (${((r.annualAcKwh / refAnnual - 1) * 100).toFixed(2)} %; goal ±2 %)`,
+    `monthly AC error, Jan–Dec, %: ${monthErr.map((e) => e.toFixed(2)).join(", ")} (largest ${Math.max(...monthErr.map(Math.abs)).toFixed(2)} %; goal ±4 %)`,
+    `hourly POA W/m²: ${stats(f.poa, 7)}; cell temperature °C: ${stats(f.cellTempC, 8)}; DC W: ${stats(f.dcW, 9)}; AC W: ${stats(r.hourlyAcW, 10)}`,
+  ];
+}

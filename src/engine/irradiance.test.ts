@@ -3,6 +3,8 @@ import {
   airMassKastenYoung,
   angleOfIncidenceDeg,
   coverTransmittance,
+  coverTransmittanceFast,
+  coverTransmittanceFromCos,
   extraterrestrialNormal,
   groundReflected,
   hayDaviesSky,
@@ -109,6 +111,14 @@ describe("PVWatts v5 cover transmittance (Dobos 2014, n 1.526, K 4/m, L 2 mm)", 
     const expected = [1, 0.99926198, 0.98797788, 0.8893998, 0, 0.99926198, 0.8893998];
     aoi.forEach((a, i) => expect(Math.abs(coverTransmittance(a) - expected[i])).toBeLessThan(1e-7));
   });
+  it("the tabulated form used in the year loop stays within 1e-6 of the formula", () => {
+    let max = 0;
+    for (let k = 0; k <= 20000; k++) {
+      const c = k / 20000;
+      max = Math.max(max, Math.abs(coverTransmittanceFast(c) - coverTransmittanceFromCos(c)));
+    }
+    expect(max).toBeLessThan(1e-6);
+  });
 });
 
 describe("year-level transposition", () => {
@@ -144,7 +154,7 @@ describe("year-level transposition", () => {
               : isotropicSky(25, dhi[i]);
         expect(Math.abs(p.skyDiffuse[i] - sd)).toBeLessThan(1e-9);
         const aoi = angleOfIncidenceDeg(25, 200, sun.zenithDeg[i], sun.azimuthDeg[i]);
-        expect(Math.abs(p.poaTransmitted[i] - (p.beam[i] * coverTransmittance(aoi) + p.skyDiffuse[i] + p.ground[i]))).toBeLessThan(1e-6);
+        expect(Math.abs(p.poaTransmitted[i] - (p.beam[i] * coverTransmittance(aoi) + p.skyDiffuse[i] + p.ground[i]))).toBeLessThan(1e-3);
       }
       expect(p.poa.every(Number.isFinite)).toBe(true);
     }

@@ -178,6 +178,26 @@ export function coverTransmittanceFromCos(cosAoi: number, cover: { n: number; kP
   return iam > 0 ? iam : 0;
 }
 
+/**
+ * The PVWatts cover transmittance tabulated over cos(AOI) in [0, 1] (4,096 steps, linear
+ * interpolation; within 1e-6 of the formula, checked in irradiance.test.ts) for the year loop,
+ * where the formula's sqrt/exp work would otherwise be paid for every sunlit hour of every face.
+ */
+const COVER_TABLE_STEPS = 4096;
+const COVER_TABLE = (() => {
+  const t = new Float64Array(COVER_TABLE_STEPS + 2);
+  for (let k = 0; k <= COVER_TABLE_STEPS + 1; k++) t[k] = coverTransmittanceFromCos(Math.min(k / COVER_TABLE_STEPS, 1));
+  return t;
+})();
+
+/** Tabulated PVWatts cover transmittance from cos(AOI) (see COVER_TABLE). */
+export function coverTransmittanceFast(cosAoi: number): number {
+  if (cosAoi <= 0) return 0;
+  const x = (cosAoi >= 1 ? 1 : cosAoi) * COVER_TABLE_STEPS;
+  const k = x | 0;
+  return COVER_TABLE[k] + (x - k) * (COVER_TABLE[k + 1] - COVER_TABLE[k]);
+}
+
 /** Same, from the angle of incidence in degrees (|AOI| ≥ 90° → 0). */
 export function coverTransmittance(aoiDeg: number, cover = PVWATTS_COVER): number {
   if (Math.abs(aoiDeg) >= 90) return 0;
@@ -320,7 +340,7 @@ export function planeOfArray(sky: SkyYear, tiltDeg: number, azimuthDeg: number, 
     skyDiffuse[i] = skyD;
     ground[i] = gr;
     poa[i] = beam + skyD + gr;
-    poaTransmitted[i] = beam > 0 ? beam * coverTransmittanceFromCos(a) + skyD + gr : skyD + gr;
+    poaTransmitted[i] = beam > 0 ? beam * coverTransmittanceFast(a) + skyD + gr : skyD + gr;
   }
   return out;
 }
