@@ -1,0 +1,476 @@
+import "server-only";
+import { createElement } from "react";
+import { and, asc, desc, eq, inArray } from "drizzle-orm";
+import { deal, discountRequest, household, membership, offer, user, type Role } from "@/db/schema";
+import { EngineInputError } from "@/engine/errors";
+import { env } from "@/env";
+import { formatCents } from "@/lib/format";
+import { computeOfferFigures, type OfferFigures } from "@/lib/offer-figures";
+import { can } from "@/lib/permissions";
+import { PricingInputError } from "@/lib/pricing";
+import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
+import DiscountDecisionEmail from "@emails/discount-decision";
+import DiscountRequestEmail from "@emails/discount-request";
+import { db, type Tx } from "@/server/db";
+import { getDealOrThrow, getDealRoom } from "@/server/deals";
+import { designEquipment, getDesignForDeal, jsonValue, productionForDesign, usageHourlyForDeal } from "@/server/designs";
+import { forbidden, HttpError, notFound } from "@/server/errors";
+import { sendEmail } from "@/server/mail";
+import { getPriceBook } from "@/server/price-book";
+import { getRatePlanOrThrow } from "@/server/rate-plans";
+import { validationError } from "@/server/route";
+import type { Member } from "@/server/session";
+import { recordEvent } from "@/server/timeline";
+
+export type DiscountStatus = "none" | "within_limit" | "pending" | "approved" | "declined";
+
+export type OfferRecord = {
+  id: string;
+  dealId: string;
+  position: number;
+  name: string;
+  inputs: OfferInputs;
+  results: OfferFigures;
+  discountCents: number;
+  discountStatus: DiscountStatus;
+  updatedAt: Date;
+};
+
+const offerColumns = {
+  id: offer.id,
+  dealId: offer.dealId,
+  position: offer.position,
+  name: offer.name,
+  inputs: offer.inputs,
+  results: offer.results,
+  discountCents: offer.discountCents,
+  discountStatus: offer.discountStatus,
+  updatedAt: offer.updatedAt,
+};
+
+function toRecord(row: Omit<OfferRecord, "inputs" | "results"> & { inputs: unknown; results: unknown }): OfferRecord {
+  const inputs = offerInputsSchema.safeParse(jsonValue(row.inputs));
+  if (!inputs.success) throw new HttpError(500, "offer_unreadable", `The saved offer "${row.name}" does not match the current format. Save it again.`);
+  return { ...row, inputs: inputs.data, results: jsonValue(row.results) as OfferFigures };
+}
+
+export async function listOffers(member: Member, dealId: string): Promise<OfferRecord[]> {
+  await getDealOrThrow(member, dealId);
+  const rows = await db()
+    .select(offerColumns)
+    .from(offer)
+    .where(and(eq(offer.companyId, member.companyId), eq(offer.dealId, dealId)))
+    .orderBy(asc(offer.position));
+  return rows.map(toRecord);
+}
+
+/** An offer by id; reps only on deals they own (another company's: not found). */
+export async function getOfferOrThrow(member: Member, offerId: string): Promise<OfferRecord> {
+  const [row] = await db()
+    .select(offerColumns)
+    .from(offer)
+    .where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)))
+    .limit(1);
+  if (!row) throw notFound("Offer");
+  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
+    throw err instanceof HttpError && err.status === 404 ? notFound("Offer") : err;
+  });
+  return toRecord(row);
+}
+
+// ── Computing an offer (always on the server, from stored data) ──────────────────────────
+
+const today = () => new Date().toISOString().slice(0, 10);
+const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
+
+function engineError(err: unknown): never {
+  if (err instanceof PricingInputError) throw fieldError(err.path === "discountCents" ? "inputs.discountCents" : `inputs.${err.path}`, err.message.replace(/^[^:]+: /, ""));
+  if (err instanceof EngineInputError) {
+    const first = err.issues[0];
+    throw new HttpError(422, "cannot_compute", `The figures cannot be computed: ${first ? `${first.path}: ${first.message}` : err.message}`);
+  }
+  throw err;
+}
+
+/** Every figure of an offer from its inputs and the deal's stored design, usage, rate plan and price book. */
+export async function computeOffer(member: Member, dealId: string, inputs: OfferInputs, role: Role = member.role): Promise<{ figures: OfferFigures; ratePlanId: string }> {
+  const room = await getDealRoom(member, dealId);
+  const saved = await getDesignForDeal(member, dealId);
+  if (!saved) throw new HttpError(422, "no_design", "Save a design on the Design tab before making offers.");
+  const doc = saved.document;
+  const { mod, inv } = await designEquipment(member, inputs.moduleId ?? doc.moduleId, inputs.inverterId ?? doc.inverterId, "inputs.");
+
+  const counts = doc.faces.map((f) => {
+    const own = inputs.faceCounts?.find((c) => c.faceId === f.id);
+    return own ? own.moduleCount : f.moduleCount;
+  });
+  (inputs.faceCounts ?? []).forEach((c, i) => {
+    const face = doc.faces.find((f) => f.id === c.faceId);
+    if (!face) throw fieldError(`inputs.faceCounts.${i}.faceId`, "This roof face is no longer in the design");
+    if (c.moduleCount > face.usableSlots) throw fieldError(`inputs.faceCounts.${i}.moduleCount`, `${c.moduleCount} modules do not fit in ${face.usableSlots} usable slots on ${face.name}`);
+  });
+  const moduleCount = counts.reduce((a, b) => a + b, 0);
+  if (moduleCount === 0) throw fieldError("inputs.faceCounts", "Place at least one module");
+
+  const ratePlanId = inputs.ratePlanId ?? room.deal.ratePlanId;
+  if (!ratePlanId) throw fieldError("inputs.ratePlanId", "The deal has no rate plan: pick the household's rate plan");
+  const plan = await getRatePlanOrThrow(member.companyId, ratePlanId).catch((err: unknown) => {
+    throw err instanceof HttpError && err.status === 404 ? fieldError("inputs.ratePlanId", "Pick a rate plan from the list") : err;
+  });
+
+  const site = { latitude: room.household.latitude, longitude: room.household.longitude };
+  const [production, usage, book] = await Promise.all([
+    productionForDesign(member, site, doc, counts, mod, inv),
+    usageHourlyForDeal(member, dealId),
+    getPriceBook(member.companyId),
+  ]);
+  try {
+    const figures = computeOfferFigures({
+      book,
+      role,
+      asOf: today(),
+      moduleCount,
+      moduleWatts: mod.stcWatts,
+      productionHourlyKwh: production.hourlyKwh,
+      usageHourlyKwh: usage.hourlyKwh,
+      ratePlan: plan.plan,
+      payment: inputs.payment,
+      adderIds: inputs.adderIds,
+      lineItemIds: inputs.lineItemIds,
+      discountCents: inputs.discountCents,
+      notes: [`Weather: ${production.label}.`, ...production.notes],
+    });
+    return { figures, ratePlanId };
+  } catch (err) {
+    engineError(err);
+  }
+}
+
+// ── Discount requests ────────────────────────────────────────────────────────────────────
+
+type DiscountOutcome = { status: DiscountStatus; requestId: string | null; mailNeeded: boolean };
+
+/**
+ * Decides the offer's discount status inside the save's transaction. A discount beyond the
+ * saver's limit becomes (or updates) a pending request, unless an approved request already
+ * covers at least this amount.
+ */
+async function settleDiscount(tx: Tx, member: Member, dealId: string, offerId: string, inputs: OfferInputs, figures: OfferFigures): Promise<DiscountOutcome> {
+  if (inputs.discountCents === 0) {
+    await tx.delete(discountRequest).where(and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.offerId, offerId), eq(discountRequest.status, "pending")));
+    return { status: "none", requestId: null, mailNeeded: false };
+  }
+  if (!figures.discountNeedsApproval) return { status: "within_limit", requestId: null, mailNeeded: false };
+  const requests = await tx
+    .select({ id: discountRequest.id, status: discountRequest.status, amountCents: discountRequest.amountCents, reason: discountRequest.reason })
+    .from(discountRequest)
+    .where(and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.offerId, offerId)))
+    .orderBy(desc(discountRequest.createdAt));
+  const approved = requests.find((r) => r.status === "approved" && r.amountCents >= inputs.discountCents);
+  if (approved) return { status: "approved", requestId: approved.id, mailNeeded: false };
+  const pending = requests.find((r) => r.status === "pending");
+  if (pending) {
+    if (pending.amountCents === inputs.discountCents && pending.reason === inputs.discountReason) return { status: "pending", requestId: pending.id, mailNeeded: false };
+    await tx
+      .update(discountRequest)
+      .set({ amountCents: inputs.discountCents, reason: inputs.discountReason })
+      .where(and(eq(discountRequest.id, pending.id), eq(discountRequest.companyId, member.companyId)));
+    return { status: "pending", requestId: pending.id, mailNeeded: true };
+  }
+  const id = crypto.randomUUID();
+  await tx.insert(discountRequest).values({
+    id,
+    companyId: member.companyId,
+    dealId,
+    offerId,
+    amountCents: inputs.discountCents,
+    reason: inputs.discountReason,
+    status: "pending",
+    requestedByUserId: member.userId,
+  });
+  await recordEvent(tx, {
+    companyId: member.companyId,
+    dealId,
+    kind: "discount.requested",
+    summary: `${member.name} asked for a ${formatCents(inputs.discountCents)} discount on "${inputs.name}" (limit ${formatCents(figures.discountLimitCents)})`,
+    actorUserId: member.userId,
+    data: { offerId, discountRequestId: id, amountCents: inputs.discountCents },
+  });
+  return { status: "pending", requestId: id, mailNeeded: true };
+}
+
+/** People who decide discounts: the office managers, or the owners and admins when there are none. */
+async function approverEmails(companyId: string): Promise<string[]> {
+  const rows = await db()
+    .select({ email: user.email, role: membership.role })
+    .from(membership)
+    .innerJoin(user, eq(user.id, membership.userId))
+    .where(and(eq(membership.companyId, companyId), eq(membership.status, "active"), inArray(membership.role, ["office_manager", "owner", "admin"])));
+  const managers = rows.filter((r) => r.role === "office_manager");
+  return (managers.length ? managers : rows).map((r) => r.email);
+}
+
+const offersUrl = (dealId: string) => `${env().APP_URL}/deals/${dealId}/offers`;
+
+/** Mail after the commit: a failure is logged, the request stays pending and shows on the Offers tab and Today. */
+async function mailDiscountRequest(member: Member, dealId: string, requestId: string, inputs: OfferInputs, figures: OfferFigures): Promise<void> {
+  try {
+    const to = await approverEmails(member.companyId);
+    if (to.length === 0) return;
+    const room = await getDealRoom(member, dealId);
+    await sendEmail({
+      to,
+      subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${room.household.name}`,
+      react: createElement(DiscountRequestEmail, {
+        repName: member.name,
+        householdName: room.household.name,
+        offerName: inputs.name,
+        discount: formatCents(inputs.discountCents),
+        limit: formatCents(figures.discountLimitCents ?? 0),
+        contractBefore: formatCents(figures.summary.grossCents),
+        reason: inputs.discountReason,
+        reviewUrl: offersUrl(dealId),
+      }),
+      idempotencyKey: `discount-request-${requestId}-${inputs.discountCents}`,
+    });
+  } catch (err) {
+    console.error("discount request saved; the e-mail to the office could not be sent", requestId, err);
+  }
+}
+
+// ── Writes ───────────────────────────────────────────────────────────────────────────────
+
+/** The rep picked a rate plan for a deal that had none: it becomes the deal's. */
+async function setDealRatePlanIfMissing(tx: Tx, member: Member, dealId: string, ratePlanId: string | null, current: string | null): Promise<void> {
+  if (current || !ratePlanId) return;
+  await tx.update(deal).set({ ratePlanId }).where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)));
+}
+
+export async function createOffer(member: Member, input: unknown): Promise<OfferRecord> {
+  const parsed = createOfferSchema.safeParse(input);
+  if (!parsed.success) throw validationError(parsed.error);
+  const { dealId, inputs } = parsed.data;
+  const room = await getDealRoom(member, dealId);
+  const { figures } = await computeOffer(member, dealId, inputs);
+  if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
+  const id = crypto.randomUUID();
+  let outcome: DiscountOutcome = { status: "none", requestId: null, mailNeeded: false };
+  await db().transaction(async (tx) => {
+    const taken = await tx
+      .select({ position: offer.position })
+      .from(offer)
+      .where(and(eq(offer.companyId, member.companyId), eq(offer.dealId, dealId)));
+    if (taken.length >= MAX_OFFERS_PER_DEAL) throw new HttpError(409, "too_many_offers", `A deal has at most ${MAX_OFFERS_PER_DEAL} offers. Change or delete one.`);
+    const position = [1, 2, 3].find((p) => !taken.some((t) => t.position === p)) ?? taken.length + 1;
+    await tx.insert(offer).values({ id, companyId: member.companyId, dealId, position, name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: "none" });
+    outcome = await settleDiscount(tx, member, dealId, id, inputs, figures);
+    await tx.update(offer).set({ discountStatus: outcome.status }).where(and(eq(offer.id, id), eq(offer.companyId, member.companyId)));
+    await setDealRatePlanIfMissing(tx, member, dealId, inputs.ratePlanId, room.deal.ratePlanId);
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId,
+      kind: "offer.created",
+      summary: `Offer "${inputs.name}" created by ${member.name}: ${figures.summary.kwDc.toFixed(2)} kW DC, ${formatCents(figures.summary.contractCents)}`,
+      actorUserId: member.userId,
+      data: { offerId: id },
+    });
+  });
+  if (outcome.mailNeeded && outcome.requestId) await mailDiscountRequest(member, dealId, outcome.requestId, inputs, figures);
+  return getOfferOrThrow(member, id);
+}
+
+export async function updateOffer(member: Member, offerId: string, input: unknown): Promise<OfferRecord> {
+  const existing = await getOfferOrThrow(member, offerId);
+  const parsed = updateOfferSchema.safeParse(input);
+  if (!parsed.success) throw validationError(parsed.error);
+  const { inputs } = parsed.data;
+  const room = await getDealRoom(member, existing.dealId);
+  const { figures } = await computeOffer(member, existing.dealId, inputs);
+  if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
+  let outcome: DiscountOutcome = { status: "none", requestId: null, mailNeeded: false };
+  await db().transaction(async (tx) => {
+    outcome = await settleDiscount(tx, member, existing.dealId, offerId, inputs, figures);
+    await tx
+      .update(offer)
+      .set({ name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: outcome.status })
+      .where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)));
+    await setDealRatePlanIfMissing(tx, member, existing.dealId, inputs.ratePlanId, room.deal.ratePlanId);
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId: existing.dealId,
+      kind: "offer.updated",
+      summary: `Offer "${inputs.name}" changed by ${member.name}: ${figures.summary.kwDc.toFixed(2)} kW DC, ${formatCents(figures.summary.contractCents)}`,
+      actorUserId: member.userId,
+      data: { offerId },
+    });
+  });
+  if (outcome.mailNeeded && outcome.requestId) await mailDiscountRequest(member, existing.dealId, outcome.requestId, inputs, figures);
+  return getOfferOrThrow(member, offerId);
+}
+
+export async function deleteOffer(member: Member, offerId: string): Promise<{ id: string }> {
+  const existing = await getOfferOrThrow(member, offerId);
+  await db().transaction(async (tx) => {
+    await tx.delete(offer).where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)));
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId: existing.dealId,
+      kind: "offer.deleted",
+      summary: `Offer "${existing.name}" deleted by ${member.name}`,
+      actorUserId: member.userId,
+      data: { offerId },
+    });
+  });
+  return { id: offerId };
+}
+
+// ── Reading and deciding discount requests ───────────────────────────────────────────────
+
+export type DiscountRequestRow = {
+  id: string;
+  dealId: string;
+  offerId: string;
+  offerName: string;
+  householdName: string;
+  amountCents: number;
+  reason: string;
+  status: "pending" | "approved" | "declined";
+  requestedByName: string | null;
+  requestedByUserId: string | null;
+  decidedByUserId: string | null;
+  decidedAt: Date | null;
+  decisionNote: string | null;
+  createdAt: Date;
+};
+
+function requestQuery(companyId: string) {
+  return db()
+    .select({
+      id: discountRequest.id,
+      dealId: discountRequest.dealId,
+      offerId: discountRequest.offerId,
+      offerName: offer.name,
+      householdName: household.name,
+      amountCents: discountRequest.amountCents,
+      reason: discountRequest.reason,
+      status: discountRequest.status,
+      requestedByName: user.name,
+      requestedByUserId: discountRequest.requestedByUserId,
+      decidedByUserId: discountRequest.decidedByUserId,
+      decidedAt: discountRequest.decidedAt,
+      decisionNote: discountRequest.decisionNote,
+      createdAt: discountRequest.createdAt,
+      dealOwnerUserId: deal.ownerUserId,
+    })
+    .from(discountRequest)
+    .innerJoin(offer, and(eq(offer.id, discountRequest.offerId), eq(offer.companyId, discountRequest.companyId)))
+    .innerJoin(deal, and(eq(deal.id, discountRequest.dealId), eq(deal.companyId, discountRequest.companyId)))
+    .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+    .leftJoin(user, eq(user.id, discountRequest.requestedByUserId))
+    .$dynamic()
+    .where(eq(discountRequest.companyId, companyId));
+}
+
+const stripOwner = ({ dealOwnerUserId: _owner, ...row }: DiscountRequestRow & { dealOwnerUserId: string | null }): DiscountRequestRow => row;
+
+export async function getDiscountRequestOrThrow(member: Member, requestId: string): Promise<DiscountRequestRow> {
+  const [row] = await db()
+    .select({ dealId: discountRequest.dealId })
+    .from(discountRequest)
+    .where(and(eq(discountRequest.id, requestId), eq(discountRequest.companyId, member.companyId)))
+    .limit(1);
+  if (!row) throw notFound("Discount request");
+  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
+    throw err instanceof HttpError && err.status === 404 ? notFound("Discount request") : err;
+  });
+  const [full] = await requestQuery(member.companyId).where(and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.id, requestId)));
+  if (!full) throw notFound("Discount request");
+  return stripOwner(full);
+}
+
+export async function listDiscountRequestsForDeal(member: Member, dealId: string): Promise<DiscountRequestRow[]> {
+  await getDealOrThrow(member, dealId);
+  const rows = await requestQuery(member.companyId)
+    .where(and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.dealId, dealId)))
+    .orderBy(desc(discountRequest.createdAt));
+  return rows.map(stripOwner);
+}
+
+/**
+ * Pending discount requests for a person's Today: every pending one of the company for those
+ * who approve discounts; a rep's own pending requests (on deals they own) otherwise.
+ */
+export async function listPendingDiscountRequests(member: Member): Promise<DiscountRequestRow[]> {
+  const pending = and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.status, "pending"));
+  const rows = await requestQuery(member.companyId)
+    .where(can(member.role, "discounts:approve") ? pending : and(pending, eq(deal.ownerUserId, member.userId)))
+    .orderBy(asc(discountRequest.createdAt));
+  return rows.map(stripOwner);
+}
+
+/**
+ * An office manager grants or declines a pending discount. Declining prices the offer again
+ * without the discount. The rep gets an e-mail either way.
+ */
+export async function decideDiscountRequest(member: Member, requestId: string, input: unknown): Promise<DiscountRequestRow> {
+  if (!can(member.role, "discounts:approve")) throw forbidden("deciding discounts");
+  const parsed = discountDecisionSchema.safeParse(input);
+  if (!parsed.success) throw validationError(parsed.error);
+  const { decision, note } = parsed.data;
+  const request = await getDiscountRequestOrThrow(member, requestId);
+  if (request.status !== "pending") throw new HttpError(409, "already_decided", `This discount was already ${request.status}.`);
+  const current = await getOfferOrThrow(member, request.offerId);
+
+  let declinedFigures: OfferFigures | null = null;
+  const inputsWithout: OfferInputs = { ...current.inputs, discountCents: 0, discountReason: "" };
+  if (decision === "decline") declinedFigures = (await computeOffer(member, current.dealId, inputsWithout)).figures;
+
+  await db().transaction(async (tx) => {
+    const changed = await tx
+      .update(discountRequest)
+      .set({ status: decision === "approve" ? "approved" : "declined", decidedByUserId: member.userId, decidedAt: new Date(), decisionNote: note || null })
+      .where(and(eq(discountRequest.id, requestId), eq(discountRequest.companyId, member.companyId), eq(discountRequest.status, "pending")));
+    if (changed[0].affectedRows !== 1) throw new HttpError(409, "already_decided", "Someone decided this discount a moment ago.");
+    if (decision === "approve") {
+      await tx.update(offer).set({ discountStatus: "approved" }).where(and(eq(offer.id, current.id), eq(offer.companyId, member.companyId)));
+    } else {
+      await tx
+        .update(offer)
+        .set({ inputs: inputsWithout, results: declinedFigures, discountCents: 0, discountStatus: "declined" })
+        .where(and(eq(offer.id, current.id), eq(offer.companyId, member.companyId)));
+    }
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId: current.dealId,
+      kind: decision === "approve" ? "discount.approved" : "discount.declined",
+      summary: `${member.name} ${decision === "approve" ? "approved" : "declined"} the ${formatCents(request.amountCents)} discount on "${current.name}"${note ? `: ${note}` : ""}`,
+      actorUserId: member.userId,
+      data: { offerId: current.id, discountRequestId: requestId },
+    });
+  });
+
+  if (request.requestedByUserId) {
+    try {
+      const [rep] = await db().select({ email: user.email }).from(user).where(eq(user.id, request.requestedByUserId)).limit(1);
+      if (rep) {
+        await sendEmail({
+          to: rep.email,
+          subject: `Discount ${decision === "approve" ? "approved" : "declined"}: ${formatCents(request.amountCents)} for the ${request.householdName}`,
+          react: createElement(DiscountDecisionEmail, {
+            deciderName: member.name,
+            householdName: request.householdName,
+            offerName: current.name,
+            discount: formatCents(request.amountCents),
+            approved: decision === "approve",
+            note,
+            offersUrl: offersUrl(current.dealId),
+          }),
+          idempotencyKey: `discount-decision-${requestId}`,
+        });
+      }
+    } catch (err) {
+      console.error("discount decided; the e-mail to the rep could not be sent", requestId, err);
+    }
+  }
+  return getDiscountRequestOrThrow(member, requestId);
+}
