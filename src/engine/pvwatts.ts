@@ -9,6 +9,8 @@
  *  - System losses (section 3.5): 1 − Π(1 − l_i) over the loss categories.
  *  - Inverter (section 3.6): η = (η_nom/η_ref)·(−0.0162ζ − 0.0059/ζ + 0.9858), ζ = P_dc/P_dc0,
  *    P_dc0 = P_ac0/η_nom, output limited to P_ac0 (clipping) and to ≥ 0.
+ * (Section numbers of the manual are from memory; the formulas are checked against pvlib-python's
+ * tests and NREL's own PVWatts hourly output in pvwatts.test.ts and production.test.ts.)
  */
 import { z } from "zod";
 import { parseOrThrow } from "./errors";
