@@ -1,0 +1,391 @@
+"use client";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useRef, useState, useTransition } from "react";
+import { useForm, type Path } from "react-hook-form";
+import type { z } from "zod";
+import { Field, FormMessage } from "@/components/field";
+import { formatDate } from "@/lib/format";
+import {
+  nearestQuerySchema,
+  stationFieldsSchema,
+  WEATHER_FILE_MAX_BYTES,
+  WEATHER_FILE_MAX_LABEL,
+  WEATHER_FORMAT_CHOICES,
+  WEATHER_FORMAT_LABELS,
+  type NearestQueryInput,
+  type StationFields,
+  type StationFieldsInput,
+} from "@/lib/schemas/weather";
+import { deleteStationAction } from "./actions";
+
+export type StationView = {
+  id: string;
+  name: string;
+  format: "epw" | "tmy3" | "csv";
+  latitude: number;
+  longitude: number;
+  elevationM: number;
+  utcOffsetHours: number;
+  attribution: string;
+  annualGhiKwhPerM2: number;
+  fileName: string;
+  sizeBytes: number;
+  createdAt: string;
+  designCount: number;
+  sites: { householdId: string; name: string; city: string; distanceKm: number; how: "chosen" | "nearest" }[];
+};
+
+const FORMAT_NAMES: Record<StationView["format"], string> = { epw: "EPW", tmy3: "TMY3", csv: "Hourly CSV" };
+const kwh = new Intl.NumberFormat("en-US", { maximumFractionDigits: 0 });
+const deg = (v: number, pos: string, neg: string) => `${Math.abs(v).toFixed(3)}° ${v >= 0 ? pos : neg}`;
+const utc = (h: number) => `UTC${h >= 0 ? "+" : "−"}${Math.abs(h)}`;
+const km = (d: number) => `${d < 10 ? d.toFixed(1) : kwh.format(d)} km`;
+
+type ErrorBody = { error?: { code?: string; message?: string; fields?: Record<string, string[]> } };
+
+export function WeatherClient(props: { stations: StationView[]; canManage: boolean; seesAllSites: boolean; maxDistanceKm: number }) {
+  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
+  return (
+    <div className="mt-6 space-y-8">
+      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+      {props.canManage ? <UploadStationForm onAdded={(text) => setNotice({ tone: "success", text })} /> : null}
+      <StationsTable stations={props.stations} canManage={props.canManage} seesAllSites={props.seesAllSites} onNotice={setNotice} />
+      <NearestCheck maxDistanceKm={props.maxDistanceKm} />
+    </div>
+  );
+}
+
+// ── Upload ────────────────────────────────────────────────────────────────────────────────
+
+type StationFormValues = StationFieldsInput;
+const EMPTY: StationFormValues = { name: "", format: "auto", latitude: "", longitude: "", elevationM: "", utcOffsetHours: "", attribution: "" };
+const FORM_FIELDS = ["name", "format", "latitude", "longitude", "elevationM", "utcOffsetHours", "attribution"] as const satisfies readonly (keyof StationFields)[];
+
+function UploadStationForm({ onAdded }: { onAdded: (text: string) => void }) {
+  const router = useRouter();
+  const fileRef = useRef<HTMLInputElement>(null);
+  const [fileError, setFileError] = useState<string | null>(null);
+  const [fileIssues, setFileIssues] = useState<string[]>([]);
+  const [error, setError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    reset,
+    watch,
+    setError: setFieldError,
+    formState: { errors, isSubmitting },
+  } = useForm<StationFormValues, unknown, StationFields>({ resolver: zodResolver(stationFieldsSchema), defaultValues: EMPTY });
+  const format = watch("format");
+
+  const onSubmit = handleSubmit(async (values) => {
+    setError(null);
+    setFileError(null);
+    setFileIssues([]);
+    const file = fileRef.current?.files?.[0];
+    if (!file) return setFileError("Choose a weather file to upload");
+    if (file.size > WEATHER_FILE_MAX_BYTES) return setFileError(`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`);
+    const body = new FormData();
+    body.set("file", file);
+    // The checked values go to the server, which validates them again with the same schema.
+    for (const key of FORM_FIELDS) if (values[key] !== undefined) body.set(key, String(values[key]));
+    let res: Response;
+    try {
+      res = await fetch("/api/weather-stations", { method: "POST", body });
+    } catch {
+      return setError("The upload did not reach the server. Check the connection and try again; nothing was stored.");
+    }
+    const json = (await res.json().catch(() => ({}))) as ErrorBody & { data?: { name: string; annualGhiKwhPerM2: number } };
+    if (!res.ok || !json.data) {
+      const fields = json.error?.fields ?? {};
+      for (const [name, messages] of Object.entries(fields)) {
+        if (name === "file") setFileIssues(messages);
+        else if ((FORM_FIELDS as readonly string[]).includes(name) && messages[0]) setFieldError(name as Path<StationFormValues>, { type: "server", message: messages[0] });
+      }
+      setError(json.error?.message ?? `The upload failed (HTTP ${res.status}); nothing was stored.`);
+      return;
+    }
+    reset(EMPTY);
+    if (fileRef.current) fileRef.current.value = "";
+    onAdded(`${json.data.name} added: ${kwh.format(json.data.annualGhiKwhPerM2)} kWh/m² of sun on the horizontal a year.`);
+    router.refresh();
+  });
+
+  const siteHint = format === "csv" ? "Required: an hourly CSV does not say where it was measured." : "Leave empty to use the file header.";
+  return (
+    <section aria-labelledby="upload-heading" className="card p-5">
+      <h2 id="upload-heading" className="text-lg font-semibold">
+        Add a station
+      </h2>
+      <p className="mt-1 max-w-3xl text-sm text-graphite-soft">
+        A typical year of hourly weather, up to {WEATHER_FILE_MAX_LABEL}: an EPW file, an NREL TMY3 CSV, or an hourly CSV with the columns{" "}
+        <code className="figure text-xs">month,day,hour,ghi,dni,dhi,temp_air,wind_speed</code> (ghi and albedo optional; lines starting with # are
+        notes). The whole file is checked first; nothing is stored unless every hour reads correctly.
+      </p>
+      <form onSubmit={onSubmit} noValidate className="mt-4 space-y-4">
+        {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+        <div className="grid gap-4 md:grid-cols-[2fr_1.3fr_2fr]">
+          <div>
+            <label htmlFor="station-file" className="field-label">
+              Weather file
+            </label>
+            <input
+              id="station-file"
+              ref={fileRef}
+              type="file"
+              accept=".epw,.csv,text/csv,text/plain"
+              className="block min-h-touch w-full text-sm file:mr-3 file:min-h-touch file:rounded-md file:border file:border-paper-line file:bg-white file:px-4 file:text-sm file:font-medium"
+              aria-invalid={fileError || fileIssues.length ? true : undefined}
+              aria-describedby={fileIssues.length ? "station-file-issues" : fileError ? "station-file-error" : undefined}
+              onChange={() => {
+                setFileError(null);
+                setFileIssues([]);
+              }}
+            />
+            {fileError ? (
+              <p id="station-file-error" className="field-error" role="alert">
+                {fileError}
+              </p>
+            ) : null}
+          </div>
+          <div>
+            <label htmlFor="station-format" className="field-label">
+              Format
+            </label>
+            <select id="station-format" className="field-input" {...register("format")}>
+              {WEATHER_FORMAT_CHOICES.map((f) => (
+                <option key={f} value={f}>
+                  {WEATHER_FORMAT_LABELS[f]}
+                </option>
+              ))}
+            </select>
+          </div>
+          <Field id="station-name" label="Name" autoComplete="off" hint="Empty: the name in the file header." error={errors.name?.message} {...register("name")} />
+        </div>
+        {fileIssues.length ? (
+          <div id="station-file-issues" role="alert" className="rounded-md border border-danger/30 bg-danger-light px-3 py-2 text-sm text-danger">
+            <p className="font-medium">Problems in the file{fileIssues.length > 1 ? ` (${fileIssues.length} listed)` : ""}:</p>
+            <ul className="mt-1 max-h-48 list-disc overflow-y-auto pl-5" data-testid="file-issues">
+              {fileIssues.map((issue, i) => (
+                <li key={i}>{issue}</li>
+              ))}
+            </ul>
+          </div>
+        ) : null}
+        <fieldset>
+          <legend className="field-label">Site of the station</legend>
+          <p className="mb-2 text-sm text-graphite-soft">{siteHint}</p>
+          <div className="grid gap-4 sm:grid-cols-2 md:grid-cols-4">
+            <Field id="station-latitude" label="Latitude (° N)" inputMode="decimal" autoComplete="off" error={errors.latitude?.message} {...register("latitude")} />
+            <Field id="station-longitude" label="Longitude (° E, west negative)" inputMode="decimal" autoComplete="off" error={errors.longitude?.message} {...register("longitude")} />
+            <Field id="station-elevation" label="Elevation (m)" inputMode="decimal" autoComplete="off" error={errors.elevationM?.message} {...register("elevationM")} />
+            <Field id="station-utc" label="UTC offset (h, standard time)" inputMode="decimal" autoComplete="off" error={errors.utcOffsetHours?.message} {...register("utcOffsetHours")} />
+          </div>
+        </fieldset>
+        <div>
+          <label htmlFor="station-attribution" className="field-label">
+            Attribution
+          </label>
+          <textarea
+            id="station-attribution"
+            rows={2}
+            className="field-input py-2"
+            aria-invalid={errors.attribution ? true : undefined}
+            aria-describedby={errors.attribution ? "station-attribution-error" : "station-attribution-hint"}
+            {...register("attribution")}
+          />
+          <p id="station-attribution-hint" className="mt-1 text-sm text-graphite-soft">
+            Where the data comes from and its licence; shown beside every estimate. Empty: taken from the file header (or the # lines of an hourly CSV).
+          </p>
+          {errors.attribution ? (
+            <p id="station-attribution-error" className="field-error" role="alert">
+              {errors.attribution.message}
+            </p>
+          ) : null}
+        </div>
+        <button type="submit" className="btn-primary" disabled={isSubmitting}>
+          {isSubmitting ? "Checking the file…" : "Check and add station"}
+        </button>
+      </form>
+    </section>
+  );
+}
+
+// ── List ──────────────────────────────────────────────────────────────────────────────────
+
+const SITES_SHOWN = 6;
+
+function StationsTable(props: {
+  stations: StationView[];
+  canManage: boolean;
+  seesAllSites: boolean;
+  onNotice: (n: { tone: "error" | "success"; text: string } | null) => void;
+}) {
+  const router = useRouter();
+  const [confirming, setConfirming] = useState<string | null>(null);
+  const [pending, startTransition] = useTransition();
+
+  function remove(s: StationView) {
+    props.onNotice(null);
+    startTransition(async () => {
+      const result = await deleteStationAction({ stationId: s.id });
+      setConfirming(null);
+      props.onNotice(result.ok ? { tone: "success", text: `${s.name} and its file are deleted.` } : { tone: "error", text: result.message });
+      if (result.ok) router.refresh();
+    });
+  }
+
+  return (
+    <section aria-labelledby="stations-heading">
+      <h2 id="stations-heading" className="text-lg font-semibold">
+        Stations
+      </h2>
+      {props.stations.length === 0 ? (
+        <p className="mt-1 text-graphite-soft">
+          No weather stations yet. {props.canManage ? "Add a weather file above." : "Ask an admin to add a weather file."} Until then, production comes from a
+          figure entered by hand.
+        </p>
+      ) : (
+        <div className="mt-2 overflow-x-auto rounded-card border border-paper-line bg-white">
+          <table className="w-full min-w-[900px] text-left text-sm">
+            <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
+              <tr>
+                <th scope="col" className="px-3 py-2 font-semibold">Station</th>
+                <th scope="col" className="px-3 py-2 font-semibold">Location</th>
+                <th scope="col" className="px-3 py-2 text-right font-semibold">Annual GHI</th>
+                <th scope="col" className="px-3 py-2 font-semibold">Attribution</th>
+                <th scope="col" className="px-3 py-2 font-semibold">{props.seesAllSites ? "Sites using it" : "Your sites using it"}</th>
+                {props.canManage ? (
+                  <th scope="col" className="px-3 py-2">
+                    <span className="sr-only">Actions</span>
+                  </th>
+                ) : null}
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-paper-line align-top">
+              {props.stations.map((s) => (
+                <tr key={s.id} data-testid={`station-${s.id}`}>
+                  <td className="px-3 py-2">
+                    <span className="font-medium">{s.name}</span>
+                    <span className="block text-xs text-graphite-soft">
+                      {FORMAT_NAMES[s.format]} · {s.fileName} · added {formatDate(new Date(s.createdAt))}
+                    </span>
+                  </td>
+                  <td className="figure whitespace-nowrap px-3 py-2 text-xs">
+                    {deg(s.latitude, "N", "S")}, {deg(s.longitude, "E", "W")}
+                    <span className="block text-graphite-soft">
+                      {kwh.format(s.elevationM)} m · {utc(s.utcOffsetHours)}
+                    </span>
+                  </td>
+                  <td className="whitespace-nowrap px-3 py-2 text-right">
+                    <span className="figure">{kwh.format(s.annualGhiKwhPerM2)}</span> <span className="text-xs text-graphite-soft">kWh/m²</span>
+                  </td>
+                  <td className="max-w-xs px-3 py-2 text-xs text-graphite-soft">{s.attribution}</td>
+                  <td className="px-3 py-2 text-xs">
+                    {s.sites.length === 0 ? (
+                      <span className="text-graphite-soft">None</span>
+                    ) : (
+                      <ul className="space-y-0.5">
+                        {s.sites.slice(0, SITES_SHOWN).map((site) => (
+                          <li key={site.householdId}>
+                            {site.name}, {site.city} · <span className="figure">{km(site.distanceKm)}</span>
+                            {site.how === "chosen" ? <span className="text-graphite-soft"> (chosen on the design)</span> : null}
+                          </li>
+                        ))}
+                        {s.sites.length > SITES_SHOWN ? <li className="text-graphite-soft">and {s.sites.length - SITES_SHOWN} more</li> : null}
+                      </ul>
+                    )}
+                  </td>
+                  {props.canManage ? (
+                    <td className="whitespace-nowrap px-3 py-2 text-right">
+                      {s.designCount > 0 ? (
+                        <span className="text-xs text-graphite-soft">
+                          Used by <span className="figure">{s.designCount}</span> {s.designCount === 1 ? "design" : "designs"}
+                        </span>
+                      ) : confirming === s.id ? (
+                        <span className="inline-flex gap-2">
+                          <button type="button" className="btn-danger" disabled={pending} onClick={() => remove(s)}>
+                            {pending ? "Deleting…" : "Delete for good"}
+                          </button>
+                          <button type="button" className="btn-quiet" disabled={pending} onClick={() => setConfirming(null)}>
+                            Keep
+                          </button>
+                        </span>
+                      ) : (
+                        <button type="button" className="btn-quiet" aria-label={`Delete ${s.name}`} onClick={() => setConfirming(s.id)}>
+                          Delete
+                        </button>
+                      )}
+                    </td>
+                  ) : null}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}
+
+// ── Nearest station for a location ────────────────────────────────────────────────────────
+
+type NearestAnswer =
+  | { found: true; distanceKm: number; maxDistanceKm: number; station: { name: string; annualGhiKwhPerM2: number } }
+  | { found: false; maxDistanceKm: number; message: string };
+
+function NearestCheck({ maxDistanceKm }: { maxDistanceKm: number }) {
+  const [answer, setAnswer] = useState<NearestAnswer | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    formState: { errors, isSubmitting },
+  } = useForm<NearestQueryInput, unknown, z.output<typeof nearestQuerySchema>>({ resolver: zodResolver(nearestQuerySchema), defaultValues: { lat: "", lon: "" } });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setError(null);
+    setAnswer(null);
+    const params = new URLSearchParams({ lat: String(values.lat), lon: String(values.lon) });
+    try {
+      const res = await fetch(`/api/weather-stations/nearest?${params}`);
+      const json = (await res.json()) as ErrorBody & { data?: NearestAnswer };
+      if (!res.ok || !json.data) return setError(json.error?.message ?? `The lookup failed (HTTP ${res.status}).`);
+      setAnswer(json.data);
+    } catch {
+      setError("The lookup did not reach the server. Check the connection and try again.");
+    }
+  });
+
+  return (
+    <section aria-labelledby="nearest-heading" className="card p-5">
+      <h2 id="nearest-heading" className="text-lg font-semibold">
+        Which station serves a place?
+      </h2>
+      <p className="mt-1 text-sm text-graphite-soft">
+        The nearest station by great-circle distance, if it lies within <span className="figure">{maxDistanceKm}</span> km.
+      </p>
+      <form onSubmit={onSubmit} noValidate className="mt-3 grid gap-4 sm:grid-cols-[1fr_1fr_auto] sm:items-start">
+        <Field id="nearest-lat" label="Latitude (° N)" inputMode="decimal" autoComplete="off" error={errors.lat?.message} {...register("lat")} />
+        <Field id="nearest-lon" label="Longitude (° E, west negative)" inputMode="decimal" autoComplete="off" error={errors.lon?.message} {...register("lon")} />
+        <button type="submit" className="btn-quiet sm:mt-6" disabled={isSubmitting}>
+          {isSubmitting ? "Looking…" : "Find station"}
+        </button>
+      </form>
+      <div className="mt-3">
+        {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+        {answer?.found ? (
+          <FormMessage tone="success">
+            {answer.station.name}, <span className="figure">{km(answer.distanceKm)}</span> away (
+            <span className="figure">{kwh.format(answer.station.annualGhiKwhPerM2)}</span> kWh/m² a year).
+          </FormMessage>
+        ) : null}
+        {answer && !answer.found ? (
+          <div role="status" aria-live="polite" className="rounded-md border border-caution/30 bg-caution-light px-3 py-2 text-sm text-graphite">
+            {answer.message}
+          </div>
+        ) : null}
+      </div>
+    </section>
+  );
+}
