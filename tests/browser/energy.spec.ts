@@ -1,0 +1,81 @@
+import { expect, test, type Page } from "@playwright/test";
+import { PDFDocument, StandardFonts } from "pdf-lib";
+import { alertOf, signIn } from "./support";
+
+test.use({ viewport: { width: 820, height: 1180 } }); // a tablet in portrait, where reps work
+
+async function textPdf(lines: string[]): Promise<Buffer> {
+  const doc = await PDFDocument.create();
+  const page = doc.addPage([612, 792]);
+  const font = await doc.embedFont(StandardFonts.Helvetica);
+  lines.forEach((line, i) => page.drawText(line, { x: 50, y: 740 - i * 18, size: 11, font }));
+  return Buffer.from(await doc.save());
+}
+
+async function upload(page: Page, name: string, mimeType: string, buffer: Buffer) {
+  await page.getByTestId("bill-file-input").setInputFiles({ name, mimeType, buffer });
+}
+
+async function openEnergy(page: Page, household: string) {
+  await page.goto("/deals");
+  await page.getByRole("link", { name: household }).click();
+  await page.getByRole("link", { name: "Energy" }).click();
+  await expect(page.getByRole("heading", { name: "Bills" })).toBeVisible();
+}
+
+test("bad files get a clear message each, and nothing is kept", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await openEnergy(page, "Abernathy household");
+
+  const elf = Buffer.alloc(4096);
+  elf.set([0x7f, 0x45, 0x4c, 0x46, 0x02, 0x01, 0x01, 0x00]);
+  await upload(page, "bill.pdf", "application/pdf", elf);
+  await expect(alertOf(page)).toContainText("is a program");
+
+  await upload(page, "damaged.pdf", "application/pdf", Buffer.from("%PDF-1.7\n1 0 obj << /Type /Catalog >>\nnot a pdf\n%%EOF"));
+  await expect(alertOf(page)).toContainText("cannot be read");
+
+  const big = Buffer.alloc(11 * 1024 * 1024);
+  big.write("%PDF-1.7\n");
+  await upload(page, "huge.pdf", "application/pdf", big);
+  await expect(alertOf(page)).toContainText("bill files up to 10 MB");
+
+  await expect(page.getByRole("heading", { name: "Files" })).toBeVisible();
+  await expect(page.getByTestId("upload-list")).toHaveCount(0);
+});
+
+test("a text PDF bill gives suggested values; the rest is typed; the usage year appears", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await openEnergy(page, "Abernathy household");
+  const pdf = await textPdf(["Piedmont Electric Cooperative", "Billing period 01/03/2026 - 02/02/2026", "Energy used 1,024 kWh", "Amount due $142.37"]);
+  await upload(page, "january-bill.pdf", "application/pdf", pdf);
+  await expect(page.getByTestId("bill-suggestions")).toContainText("1,024 kWh");
+  await page.getByRole("button", { name: "Add to the table" }).click();
+  await expect(page.getByLabel("Bill 1 kWh")).toHaveValue("1024");
+  await page.getByRole("button", { name: "Save bills" }).click();
+  await expect(page.getByRole("status")).toContainText("Saved 1 bill");
+  await expect(page.getByTestId("annual-kwh")).not.toHaveText("0");
+  await expect(page.getByText("1 of 12 months from bills")).toBeVisible();
+  await expect(page.getByTestId("upload-list")).toContainText("january-bill.pdf");
+
+  // Overlapping bills are refused, naming the bill; the saved one stays.
+  await page.getByRole("button", { name: "Add a bill" }).click();
+  await page.getByLabel("Bill 2 from").fill("2026-01-20");
+  await page.getByLabel("Bill 2 to").fill("2026-02-20");
+  await page.getByLabel("Bill 2 kWh").fill("900");
+  await page.getByRole("button", { name: "Save bills" }).click();
+  await expect(alertOf(page).first()).toContainText("overlaps");
+  await page.reload();
+  await expect(page.getByTestId("bill-row")).toHaveCount(1);
+});
+
+test("a scanned bill is kept, with the request to type the numbers", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await openEnergy(page, "Abernathy household");
+  const doc = await PDFDocument.create();
+  const p = doc.addPage([612, 792]);
+  p.drawRectangle({ x: 40, y: 600, width: 500, height: 120 }); // drawn, no text layer: like a scan
+  await upload(page, "scan.pdf", "application/pdf", Buffer.from(await doc.save()));
+  await expect(page.getByRole("status")).toContainText("scanned PDF with no text");
+  await expect(page.getByTestId("upload-list")).toContainText("scan.pdf");
+});
