@@ -2,5 +2,6 @@
 export const DEAL_TABS = [
   { segment: "", label: "Household" },
   { segment: "energy", label: "Energy" },
+  { segment: "design", label: "Design" },
   { segment: "timeline", label: "Timeline" },
 ] as const;

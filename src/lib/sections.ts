@@ -1,5 +1,5 @@
 // The app's sections (PRODUCT.md, "Names"), each behind a permission. Only sections that
-// work are listed; later issues add Board, Jobs, Catalog, Price book, Rate plans, Weather.
+// work are listed; later issues add Board and Jobs.
 import type { Role } from "@/db/schema";
 import { can, type Permission } from "@/lib/permissions";
 
@@ -8,6 +8,10 @@ export type Section = { href: string; label: string; permission: Permission; dev
 export const SECTIONS: readonly Section[] = [
   { href: "/today", label: "Today", permission: "today:read" },
   { href: "/deals", label: "Deals", permission: "deals:read-own" },
+  { href: "/catalog", label: "Catalog", permission: "catalog:read" },
+  { href: "/price-book", label: "Price book", permission: "pricebook:read" },
+  { href: "/rate-plans", label: "Rate plans", permission: "rates:read" },
+  { href: "/weather", label: "Weather", permission: "weather:read" },
   { href: "/settings/people", label: "Settings", permission: "people:read" },
   { href: "/dev/outbox", label: "Dev outbox", permission: "outbox:read", devOnly: true },
 ];
