@@ -1,0 +1,499 @@
+"use client";
+// The Offers tab: 1–3 offers side by side, each priced from the price book and computed by the
+// server (never from figures typed here), the cumulative cash-flow chart, and discount requests.
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { FormMessage } from "@/components/field";
+import { api, ApiError } from "@/lib/api-client";
+import { formatCents } from "@/lib/format";
+import { OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";
+import { MAX_OFFERS_PER_DEAL, type OfferInputs, type OfferInputsInput } from "@/lib/schemas/offer";
+import { CashflowChart, OFFER_COLORS } from "./cashflow-chart";
+
+type DiscountStatus = "none" | "within_limit" | "pending" | "approved" | "declined";
+type OfferView = { id: string; position: number; name: string; inputs: OfferInputs; results: OfferFigures; discountStatus: DiscountStatus };
+type DesignView = { faces: { id: string; name: string; usableSlots: number; moduleCount: number }[]; moduleId: string; inverterId: string };
+type Option = { id: string; label: string };
+type RequestView = { id: string; offerId: string; offerName: string; amountCents: number; reason: string; status: "pending" | "approved" | "declined"; requestedByName: string | null; decisionNote: string | null; createdAt: string };
+
+type Props = {
+  dealId: string;
+  canEdit: boolean;
+  canApprove: boolean;
+  dealRatePlanId: string | null;
+  offers: OfferView[];
+  design: DesignView | null;
+  adders: { id: string; name: string }[];
+  lineItems: { id: string; name: string; amountCents: number }[];
+  modules: Option[];
+  inverters: Option[];
+  ratePlans: Option[];
+  requests: RequestView[];
+};
+
+const STATUS_TEXT: Record<DiscountStatus, string> = {
+  none: "",
+  within_limit: "Discount within your limit",
+  pending: "Discount waiting for the office's approval",
+  approved: "Discount approved",
+  declined: "Discount declined; priced without it",
+};
+
+const years = (y: number | null) => (y === null ? "not within 25 years" : `${y.toFixed(1)} years`);
+const pct = (r: number | null) => (r === null ? "—" : `${(r * 100).toFixed(0)} %`);
+
+export function OffersClient(props: Props) {
+  const { dealId, canEdit, canApprove, offers, design } = props;
+  const [editing, setEditing] = useState<string | "new" | null>(null);
+  const router = useRouter();
+
+  if (!design) {
+    return (
+      <FormMessage tone="info">
+        Offers are built on the deal&apos;s design. Lay out the roof on the{" "}
+        <Link href={`/deals/${dealId}/design`} className="text-copper underline">
+          Design tab
+        </Link>{" "}
+        and save it first.
+      </FormMessage>
+    );
+  }
+
+  const pending = props.requests.filter((r) => r.status === "pending");
+  return (
+    <div className="space-y-6">
+      {!props.dealRatePlanId ? (
+        <FormMessage tone="info">This deal has no rate plan yet, so bills cannot be estimated. Pick the household&apos;s rate plan in the offer form; it becomes the deal&apos;s.</FormMessage>
+      ) : null}
+
+      {pending.length > 0 ? (
+        <section className="card p-4" aria-labelledby="requests-heading">
+          <h2 id="requests-heading" className="text-lg font-semibold">
+            Discounts waiting for approval
+          </h2>
+          <ul className="mt-3 space-y-3">
+            {pending.map((r) => (
+              <DiscountRequestItem key={r.id} request={r} canApprove={canApprove} onDone={() => router.refresh()} />
+            ))}
+          </ul>
+        </section>
+      ) : null}
+
+      {offers.length > 0 ? (
+        <section className="card overflow-x-auto p-4" aria-labelledby="compare-heading">
+          <h2 id="compare-heading" className="text-lg font-semibold">
+            Side by side
+          </h2>
+          <Comparison offers={offers} />
+          <div className="mt-6">
+            <CashflowChart series={offers.map((o) => ({ name: o.name, cumulativeCents: o.results.rows.map((r) => r.cumulativeCents) }))} />
+          </div>
+          <p className="mt-3 rounded-md bg-caution-light px-3 py-2 text-sm">{OFFER_CAUTION}</p>
+        </section>
+      ) : (
+        <p className="text-graphite-soft">No offers yet. Add up to {MAX_OFFERS_PER_DEAL} to compare them side by side.</p>
+      )}
+
+      <div className="grid gap-4 lg:grid-cols-3">
+        {offers.map((o, i) =>
+          editing === o.id ? (
+            <OfferForm key={o.id} {...props} existing={o} onClose={() => setEditing(null)} />
+          ) : (
+            <OfferCard key={o.id} offer={o} color={OFFER_COLORS[i % OFFER_COLORS.length]} canEdit={canEdit} onEdit={() => setEditing(o.id)} onDeleted={() => router.refresh()} />
+          ),
+        )}
+        {editing === "new" ? <OfferForm {...props} existing={null} onClose={() => setEditing(null)} /> : null}
+      </div>
+      {canEdit && editing === null && offers.length < MAX_OFFERS_PER_DEAL ? (
+        <button type="button" className="btn-primary" onClick={() => setEditing("new")}>
+          Add an offer
+        </button>
+      ) : null}
+    </div>
+  );
+}
+
+function Comparison({ offers }: { offers: OfferView[] }) {
+  const rows: { label: string; value: (o: OfferView) => string }[] = [
+    { label: "System size", value: (o) => `${o.results.summary.kwDc.toFixed(2)} kW DC` },
+    { label: "Year-1 production", value: (o) => `${Math.round(o.results.summary.annualProductionKwh).toLocaleString("en-US")} kWh (${o.results.summary.offsetPct.toFixed(0)} % offset)` },
+    { label: "Price", value: (o) => formatCents(o.results.summary.contractCents) },
+    { label: "Incentives", value: (o) => formatCents(o.results.summary.incentivesCents) },
+    { label: "Net cost", value: (o) => formatCents(o.results.summary.netCostCents) },
+    { label: "Monthly loan payment", value: (o) => (o.results.summary.monthlyLoanPaymentCents === null ? "cash" : formatCents(o.results.summary.monthlyLoanPaymentCents)) },
+    { label: "Year-1 savings", value: (o) => formatCents(o.results.summary.year1SavingsCents) },
+    { label: "Payback", value: (o) => years(o.results.summary.paybackYears) },
+    { label: "Simple ROI", value: (o) => pct(o.results.summary.simpleRoi) },
+    { label: "25-year bill savings", value: (o) => formatCents(o.results.summary.lifetimeSavingsCents) },
+  ];
+  return (
+    <table className="mt-3 w-full min-w-[32rem] text-left text-sm" data-testid="offer-comparison">
+      <thead>
+        <tr className="border-b border-paper-line">
+          <th scope="col" className="py-2 pr-3 font-medium text-graphite-soft">
+            Figure
+          </th>
+          {offers.map((o, i) => (
+            <th key={o.id} scope="col" className="py-2 pr-3 font-semibold">
+              <span className="mr-1 inline-block h-3 w-3 rounded-sm align-middle" style={{ backgroundColor: OFFER_COLORS[i % OFFER_COLORS.length] }} aria-hidden />
+              {o.name}
+            </th>
+          ))}
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r) => (
+          <tr key={r.label} className="border-b border-paper-line/60">
+            <th scope="row" className="py-2 pr-3 font-normal text-graphite-soft">
+              {r.label}
+            </th>
+            {offers.map((o) => (
+              <td key={o.id} className="figure py-2 pr-3">
+                {r.value(o)}
+              </td>
+            ))}
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+function OfferCard({ offer, color, canEdit, onEdit, onDeleted }: { offer: OfferView; color: string; canEdit: boolean; onEdit: () => void; onDeleted: () => void }) {
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const r = offer.results;
+  async function remove() {
+    if (!window.confirm(`Delete the offer "${offer.name}"?`)) return;
+    setBusy(true);
+    try {
+      await api(`/api/offers/${offer.id}`, { method: "DELETE" });
+      onDeleted();
+    } catch (err) {
+      setError(err instanceof Error ? err.message : "Could not delete the offer.");
+      setBusy(false);
+    }
+  }
+  return (
+    <article className="card p-4" style={{ borderTop: `4px solid ${color}` }} aria-label={`Offer ${offer.name}`}>
+      <h3 className="text-lg font-semibold">{offer.name}</h3>
+      <p className="text-sm text-graphite-soft">
+        {r.summary.moduleCount} modules · {r.summary.kwDc.toFixed(2)} kW DC · {offer.inputs.payment.kind === "cash" ? "cash" : `loan ${offer.inputs.payment.aprPct} % APR, ${offer.inputs.payment.termMonths} months`}
+      </p>
+      <ul className="mt-3 space-y-1 text-sm">
+        {r.price.lines.map((l, i) => (
+          <li key={i} className="flex justify-between gap-2">
+            <span>
+              {l.label} <span className="text-xs text-graphite-soft">{l.detail}</span>
+            </span>
+            <span className="figure">{formatCents(l.amountCents)}</span>
+          </li>
+        ))}
+        {r.incentives.applied.map((a) => (
+          <li key={a.id} className="flex justify-between gap-2 text-sage">
+            <span>
+              {a.name} <span className="text-xs">{a.year === 0 ? "at signing" : `year ${a.year}`}</span>
+            </span>
+            <span className="figure">−{formatCents(a.amountCents)}</span>
+          </li>
+        ))}
+      </ul>
+      {offer.discountStatus !== "none" ? (
+        <p className={`mt-3 rounded px-2 py-1 text-sm ${offer.discountStatus === "pending" ? "bg-caution-light" : offer.discountStatus === "declined" ? "bg-danger-light" : "bg-sage-light"}`} data-testid="discount-status">
+          {STATUS_TEXT[offer.discountStatus]}
+        </p>
+      ) : null}
+      {r.notes.length > 0 ? (
+        <details className="mt-3 text-xs text-graphite-soft">
+          <summary className="cursor-pointer">Assumptions and notes</summary>
+          <ul className="mt-1 list-disc pl-4">
+            <li>
+              Rate plan {r.assumptions.ratePlanName}; bills rise {r.assumptions.utilityEscalationPctPerYear} %/yr; output falls {r.assumptions.degradationPctPerYear} %/yr; priced {r.asOf}.
+            </li>
+            {r.notes.map((n) => (
+              <li key={n}>{n}</li>
+            ))}
+          </ul>
+        </details>
+      ) : null}
+      {canEdit ? (
+        <div className="mt-4 flex gap-2">
+          <button type="button" className="btn-quiet" onClick={onEdit}>
+            Change
+          </button>
+          <button type="button" className="btn-danger" onClick={remove} disabled={busy}>
+            Delete
+          </button>
+        </div>
+      ) : null}
+      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+    </article>
+  );
+}
+
+type FormState = {
+  name: string;
+  counts: Record<string, string>;
+  moduleId: string;
+  inverterId: string;
+  adderIds: string[];
+  lineItemIds: string[];
+  discountDollars: string;
+  discountReason: string;
+  paymentKind: "cash" | "loan";
+  aprPct: string;
+  termMonths: string;
+  dealerFeePct: string;
+  ratePlanId: string;
+};
+
+const toNumber = (s: string) => (s.trim() === "" ? Number.NaN : Number(s));
+
+function OfferForm(props: Props & { existing: OfferView | null; onClose: () => void }) {
+  const { existing, design, dealId } = props;
+  const router = useRouter();
+  const faces = design?.faces ?? [];
+  const [state, setState] = useState<FormState>(() => {
+    const i = existing?.inputs;
+    return {
+      name: i?.name ?? (props.offers.length === 0 ? "Design as laid out" : `Option ${props.offers.length + 1}`),
+      counts: Object.fromEntries(faces.map((f) => [f.id, String(i?.faceCounts?.find((c) => c.faceId === f.id)?.moduleCount ?? f.moduleCount)])),
+      moduleId: i?.moduleId ?? design?.moduleId ?? "",
+      inverterId: i?.inverterId ?? design?.inverterId ?? "",
+      adderIds: i?.adderIds ?? [],
+      lineItemIds: i?.lineItemIds ?? [],
+      discountDollars: i && i.discountCents > 0 ? String(i.discountCents / 100) : "",
+      discountReason: i?.discountReason ?? "",
+      paymentKind: i?.payment.kind ?? "cash",
+      aprPct: i?.payment.kind === "loan" ? String(i.payment.aprPct) : "6.99",
+      termMonths: i?.payment.kind === "loan" ? String(i.payment.termMonths) : "240",
+      dealerFeePct: i?.payment.kind === "loan" ? String(i.payment.dealerFeePct) : "0",
+      ratePlanId: i?.ratePlanId ?? props.dealRatePlanId ?? props.ratePlans[0]?.id ?? "",
+    };
+  });
+  const [fields, setFields] = useState<Record<string, string>>({});
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const set = (patch: Partial<FormState>) => setState((s) => ({ ...s, ...patch }));
+  const toggle = (list: string[], id: string) => (list.includes(id) ? list.filter((x) => x !== id) : [...list, id]);
+
+  function inputs(): OfferInputsInput {
+    const sameCounts = faces.every((f) => toNumber(state.counts[f.id] ?? "") === f.moduleCount);
+    const dollars = state.discountDollars.trim() === "" ? 0 : toNumber(state.discountDollars);
+    return {
+      name: state.name,
+      faceCounts: sameCounts ? null : faces.map((f) => ({ faceId: f.id, moduleCount: toNumber(state.counts[f.id] ?? "") })),
+      moduleId: state.moduleId === design?.moduleId ? null : state.moduleId,
+      inverterId: state.inverterId === design?.inverterId ? null : state.inverterId,
+      adderIds: state.adderIds,
+      lineItemIds: state.lineItemIds,
+      discountCents: Math.round(dollars * 100),
+      discountReason: state.discountReason,
+      payment: state.paymentKind === "cash" ? { kind: "cash" } : { kind: "loan", aprPct: toNumber(state.aprPct), termMonths: toNumber(state.termMonths), dealerFeePct: toNumber(state.dealerFeePct) },
+      ratePlanId: state.ratePlanId === props.dealRatePlanId || state.ratePlanId === "" ? null : state.ratePlanId,
+    };
+  }
+
+  async function submit(e: React.FormEvent) {
+    e.preventDefault();
+    setBusy(true);
+    setError(null);
+    setFields({});
+    try {
+      if (existing) await api(`/api/offers/${existing.id}`, { method: "PUT", json: { inputs: inputs() } });
+      else await api("/api/offers", { method: "POST", json: { dealId, inputs: inputs() } });
+      props.onClose();
+      router.refresh();
+    } catch (err) {
+      if (err instanceof ApiError && err.fields) setFields(Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.replace(/^inputs\./, ""), v[0]])));
+      setError(err instanceof Error ? err.message : "The offer could not be saved.");
+      setBusy(false);
+    }
+  }
+
+  const err = (k: string) => fields[k];
+  return (
+    <form className="card space-y-4 p-4 lg:col-span-3" onSubmit={submit} aria-label={existing ? `Change offer ${existing.name}` : "New offer"} noValidate>
+      <h3 className="text-lg font-semibold">{existing ? `Change “${existing.name}”` : "New offer"}</h3>
+      <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+        <Input id="offer-name" label="Offer name" value={state.name} error={err("name")} onChange={(v) => set({ name: v })} />
+        <div>
+          <label htmlFor="offer-module" className="field-label">
+            Module
+          </label>
+          <select id="offer-module" className="field-input" value={state.moduleId} onChange={(e) => set({ moduleId: e.target.value })}>
+            {props.modules.map((m) => (
+              <option key={m.id} value={m.id}>
+                {m.label}
+              </option>
+            ))}
+          </select>
+          {err("moduleId") ? <p className="field-error">{err("moduleId")}</p> : null}
+        </div>
+        <div>
+          <label htmlFor="offer-inverter" className="field-label">
+            Inverter
+          </label>
+          <select id="offer-inverter" className="field-input" value={state.inverterId} onChange={(e) => set({ inverterId: e.target.value })}>
+            {props.inverters.map((m) => (
+              <option key={m.id} value={m.id}>
+                {m.label}
+              </option>
+            ))}
+          </select>
+          {err("inverterId") ? <p className="field-error">{err("inverterId")}</p> : null}
+        </div>
+      </div>
+
+      <fieldset>
+        <legend className="field-label">Modules per roof face</legend>
+        <div className="grid gap-3 sm:grid-cols-3">
+          {faces.map((f, i) => (
+            <Input
+              key={f.id}
+              id={`offer-face-${i + 1}`}
+              label={`${f.name} (of ${f.usableSlots} slots)`}
+              value={state.counts[f.id] ?? ""}
+              error={err(`faceCounts.${i}.moduleCount`)}
+              inputMode="numeric"
+              onChange={(v) => set({ counts: { ...state.counts, [f.id]: v } })}
+            />
+          ))}
+        </div>
+        {err("faceCounts") ? <p className="field-error">{err("faceCounts")}</p> : null}
+      </fieldset>
+
+      {props.adders.length + props.lineItems.length > 0 ? (
+        <fieldset>
+          <legend className="field-label">Adders and line items</legend>
+          <div className="grid gap-1 sm:grid-cols-2">
+            {props.adders.map((a) => (
+              <label key={a.id} className="flex min-h-touch items-center gap-2">
+                <input type="checkbox" checked={state.adderIds.includes(a.id)} onChange={() => set({ adderIds: toggle(state.adderIds, a.id) })} />
+                {a.name}
+              </label>
+            ))}
+            {props.lineItems.map((l) => (
+              <label key={l.id} className="flex min-h-touch items-center gap-2">
+                <input type="checkbox" checked={state.lineItemIds.includes(l.id)} onChange={() => set({ lineItemIds: toggle(state.lineItemIds, l.id) })} />
+                {l.name} <span className="figure text-sm text-graphite-soft">{formatCents(l.amountCents)}</span>
+              </label>
+            ))}
+          </div>
+        </fieldset>
+      ) : null}
+
+      <div className="grid gap-4 sm:grid-cols-2">
+        <Input id="offer-discount" label="Discount ($)" value={state.discountDollars} error={err("discountCents")} inputMode="decimal" onChange={(v) => set({ discountDollars: v })} hint="Beyond your limit it goes to the office for approval." />
+        <Input id="offer-discount-reason" label="Reason for the discount" value={state.discountReason} error={err("discountReason")} onChange={(v) => set({ discountReason: v })} />
+      </div>
+
+      <fieldset>
+        <legend className="field-label">Payment</legend>
+        <div className="flex flex-wrap gap-4">
+          <label className="flex min-h-touch items-center gap-2">
+            <input type="radio" name="payment" checked={state.paymentKind === "cash"} onChange={() => set({ paymentKind: "cash" })} /> Cash
+          </label>
+          <label className="flex min-h-touch items-center gap-2">
+            <input type="radio" name="payment" checked={state.paymentKind === "loan"} onChange={() => set({ paymentKind: "loan" })} /> Loan
+          </label>
+        </div>
+        {state.paymentKind === "loan" ? (
+          <div className="mt-2 grid gap-4 sm:grid-cols-3">
+            <Input id="offer-apr" label="APR (%)" value={state.aprPct} error={err("payment.aprPct")} inputMode="decimal" onChange={(v) => set({ aprPct: v })} />
+            <Input id="offer-term" label="Term (months)" value={state.termMonths} error={err("payment.termMonths")} inputMode="numeric" onChange={(v) => set({ termMonths: v })} />
+            <Input id="offer-dealer-fee" label="Dealer fee (%)" value={state.dealerFeePct} error={err("payment.dealerFeePct")} inputMode="decimal" onChange={(v) => set({ dealerFeePct: v })} />
+          </div>
+        ) : null}
+      </fieldset>
+
+      <div className="max-w-md">
+        <label htmlFor="offer-rate-plan" className="field-label">
+          Rate plan {props.dealRatePlanId ? "" : "(the deal has none yet)"}
+        </label>
+        <select id="offer-rate-plan" className="field-input" value={state.ratePlanId} onChange={(e) => set({ ratePlanId: e.target.value })}>
+          {!props.dealRatePlanId ? <option value="">Pick the household&apos;s rate plan</option> : null}
+          {props.ratePlans.map((p) => (
+            <option key={p.id} value={p.id}>
+              {p.label}
+            </option>
+          ))}
+        </select>
+        {err("ratePlanId") ? <p className="field-error">{err("ratePlanId")}</p> : null}
+      </div>
+
+      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <div className="flex gap-2">
+        <button type="submit" className="btn-primary" disabled={busy}>
+          {busy ? "Computing…" : existing ? "Save and compute" : "Create and compute"}
+        </button>
+        <button type="button" className="btn-quiet" onClick={props.onClose} disabled={busy}>
+          Cancel
+        </button>
+      </div>
+    </form>
+  );
+}
+
+function DiscountRequestItem({ request, canApprove, onDone }: { request: RequestView; canApprove: boolean; onDone: () => void }) {
+  const [note, setNote] = useState("");
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  async function decide(decision: "approve" | "decline") {
+    setBusy(true);
+    setError(null);
+    try {
+      await api(`/api/discount-requests/${request.id}/decision`, { method: "POST", json: { decision, note } });
+      onDone();
+    } catch (err) {
+      setError(err instanceof Error ? err.message : "Could not record the decision.");
+      setBusy(false);
+    }
+  }
+  return (
+    <li className="rounded-md border border-paper-line p-3" data-testid="discount-request">
+      <p>
+        <span className="figure font-semibold">{formatCents(request.amountCents)}</span> on “{request.offerName}”, asked by {request.requestedByName ?? "a former member"}. Reason: {request.reason || "none given"}
+      </p>
+      {canApprove ? (
+        <div className="mt-2 flex flex-wrap items-end gap-2">
+          <div className="min-w-64 flex-1">
+            <Input id={`note-${request.id}`} label="Note to the rep" value={note} onChange={setNote} />
+          </div>
+          <button type="button" className="btn-primary" disabled={busy} onClick={() => decide("approve")}>
+            Approve discount
+          </button>
+          <button type="button" className="btn-danger" disabled={busy} onClick={() => decide("decline")}>
+            Decline discount
+          </button>
+        </div>
+      ) : (
+        <p className="mt-1 text-sm text-graphite-soft">Waiting for an office manager.</p>
+      )}
+      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+    </li>
+  );
+}
+
+function Input({ id, label, value, error, hint, onChange, inputMode = "text" }: { id: string; label: string; value: string; error?: string; hint?: string; onChange: (v: string) => void; inputMode?: "text" | "decimal" | "numeric" }) {
+  const describedBy = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
+  return (
+    <div>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
+      <input id={id} className="field-input" value={value} inputMode={inputMode} aria-invalid={error ? true : undefined} aria-describedby={describedBy} onChange={(e) => onChange(e.target.value)} />
+      {hint ? (
+        <p id={`${id}-hint`} className="mt-1 text-xs text-graphite-soft">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={`${id}-error`} className="field-error" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </div>
+  );
+}

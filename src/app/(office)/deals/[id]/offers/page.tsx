@@ -1,0 +1,46 @@
+import type { Metadata } from "next";
+import { NoAccess } from "@/components/no-access";
+import { can } from "@/lib/permissions";
+import { listActiveInverters, listActiveModules } from "@/server/catalog";
+import { getDealRoom } from "@/server/deals";
+import { getDesignForDeal } from "@/server/designs";
+import { listDiscountRequestsForDeal, listOffers } from "@/server/offers";
+import { getPriceBook } from "@/server/price-book";
+import { listRatePlans } from "@/server/rate-plans";
+import { getMember } from "@/server/session";
+import { OffersClient } from "./offers-client";
+
+export const metadata: Metadata = { title: "Offers" };
+
+export default async function OffersTab({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const member = await getMember();
+  if (!member) return null;
+  if (!can(member.role, "pricebook:read") || !can(member.role, "catalog:read")) return <NoAccess section="Offers" />;
+  const room = await getDealRoom(member, id);
+  const [offers, design, book, modules, inverters, ratePlans, requests] = await Promise.all([
+    listOffers(member, id),
+    getDesignForDeal(member, id),
+    getPriceBook(member.companyId),
+    listActiveModules(member.companyId),
+    listActiveInverters(member.companyId),
+    listRatePlans(member.companyId),
+    listDiscountRequestsForDeal(member, id),
+  ]);
+  return (
+    <OffersClient
+      dealId={id}
+      canEdit={can(member.role, "deals:write")}
+      canApprove={can(member.role, "discounts:approve")}
+      dealRatePlanId={room.deal.ratePlanId ?? null}
+      offers={offers.map((o) => ({ id: o.id, position: o.position, name: o.name, inputs: o.inputs, results: o.results, discountStatus: o.discountStatus }))}
+      design={design ? { faces: design.document.faces.map((f) => ({ id: f.id, name: f.name, usableSlots: f.usableSlots, moduleCount: f.moduleCount })), moduleId: design.document.moduleId, inverterId: design.document.inverterId } : null}
+      adders={book.adders.map((a) => ({ id: a.id, name: a.name }))}
+      lineItems={book.lineItems.map((l) => ({ id: l.id, name: l.name, amountCents: l.amountCents }))}
+      modules={modules.map((m) => ({ id: m.id, label: `${m.manufacturer} ${m.model} · ${m.stcWatts} W` }))}
+      inverters={inverters.map((i) => ({ id: i.id, label: `${i.manufacturer} ${i.model} · ${i.kind === "micro" ? "micro" : `${(i.acWatts / 1000).toFixed(1)} kW string`}` }))}
+      ratePlans={ratePlans.filter((p) => p.active || p.id === room.deal.ratePlanId).map((p) => ({ id: p.id, label: `${p.utilityName}: ${p.name}` }))}
+      requests={requests.map((r) => ({ id: r.id, offerId: r.offerId, offerName: r.offerName, amountCents: r.amountCents, reason: r.reason, status: r.status, requestedByName: r.requestedByName, decisionNote: r.decisionNote, createdAt: r.createdAt.toISOString() }))}
+    />
+  );
+}
