@@ -145,10 +145,11 @@ function main(): void {
       losses: { totalPct: a.losses },
       transposition: a.model,
       albedo: a.albedo,
-    });
+    }, { faceHours: Boolean(a.hourly) });
 
     if (a.hourly) {
-      const f = result.faces[0];
+      const f = result.faces[0].hours;
+      if (!f) throw new Error("face hours missing");
       const rows = ["month,day,hour,poa,t_cell,dc_w,ac_w"];
       for (let i = 0; i < result.hourlyAcW.length; i++) {
         rows.push(

@@ -109,7 +109,7 @@ export function denverAccuracy(): string[] {
     faces: [{ tiltDeg: 20, azimuthDeg: 180, moduleCount: 10, moduleWatts: 400, moduleType: "standard", mount: "open-rack" }],
     inverter: { kind: "string", dcAcRatio: 1.2, efficiencyPct: 96 },
     losses: { totalPct: 14.08 },
-  });
+  }, { faceHours: true });
   const refAnnual = ref.reduce((s, x) => s + x[10], 0) / 1000;
   const refMonthly = new Array<number>(12).fill(0);
   for (const x of ref) refMonthly[x[0] - 1] += x[10] / 1000;
@@ -124,7 +124,8 @@ export function denverAccuracy(): string[] {
     }
     return `RMSE ${Math.sqrt(se / 8760).toFixed(2)}, MBE ${(sb / 8760).toFixed(3)}`;
   };
-  const f = r.faces[0];
+  const f = r.faces[0].hours;
+  if (!f) throw new Error("face hours missing");
   return [
     `Denver, PVWatts 4 kW open rack: annual AC ${r.annualAcKwh.toFixed(2)} kWh vs ${refAnnual.toFixed(2)} kWh (${((r.annualAcKwh / refAnnual - 1) * 100).toFixed(2)} %; goal ±2 %)`,
     `monthly AC error, Jan–Dec, %: ${monthErr.map((e) => e.toFixed(2)).join(", ")} (largest ${Math.max(...monthErr.map(Math.abs)).toFixed(2)} %; goal ±4 %)`,

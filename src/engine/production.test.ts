@@ -36,7 +36,7 @@ function rmseMbe(model: ArrayLike<number>, col: number): { rmse: number; mbe: nu
 }
 
 describe("reproduces the NREL PVWatts hourly result for Denver (open rack, 4 kW)", () => {
-  const r = estimateProduction(denver, denverSystem);
+  const r = estimateProduction(denver, denverSystem, { faceHours: true });
   const refAnnualAc = ref.reduce((s, x) => s + x[10], 0) / 1000; // 6,023.67 kWh (file's Totals row)
   const refMonthly = new Array<number>(12).fill(0);
   for (const x of ref) refMonthly[x[0] - 1] += x[10] / 1000;
@@ -55,7 +55,8 @@ describe("reproduces the NREL PVWatts hourly result for Denver (open rack, 4 kW)
   });
 
   it("hourly POA, cell temperature and AC errors (recorded)", () => {
-    const f = r.faces[0];
+    const f = r.faces[0].hours;
+    if (!f) throw new Error("face hours missing");
     const poa = rmseMbe(f.poa, 7);
     const dc = rmseMbe(f.dcW, 9);
     const ac = rmseMbe(r.hourlyAcW, 10);
@@ -121,6 +122,17 @@ describe("several roof faces, microinverters, solar access", () => {
     expect(winterShade.monthlyAcKwh[0]).toBeLessThan(full.monthlyAcKwh[0] * 0.6);
   });
 
+  it("face hours only on request; scratch reuse never leaks between calls", () => {
+    const a = estimateProduction(gso, { faces: [face, { ...face, azimuthDeg: 90 }] });
+    expect(a.faces[0].hours).toBeUndefined();
+    const b = estimateProduction(gso, { faces: [face, { ...face, azimuthDeg: 90 }] }, { faceHours: true });
+    const c = estimateProduction(gso, { faces: [{ ...face, azimuthDeg: 270 }] });
+    expect(b.faces[1].hours?.dcW.reduce((s, v) => s + v, 0)).toBeCloseTo(b.faces[1].annualDcKwh * 1000, 3);
+    expect(a.annualAcKwh).toBeCloseTo(b.annualAcKwh, 9);
+    expect(c.annualAcKwh).not.toBeCloseTo(a.annualAcKwh, 0);
+    expect(b.faces[0].monthlyDcKwh.reduce((s, v) => s + v, 0)).toBeCloseTo(b.faces[0].annualDcKwh, 6);
+  });
+
   it("a catalog module's temperature coefficient overrides the module type", () => {
     const std = estimateProduction(gso, { faces: [{ ...face, moduleType: "standard" }] });
     const cat = estimateProduction(gso, { faces: [{ ...face, gammaPctPerC: -0.47 }] });
@@ -151,8 +163,8 @@ describe("several roof faces, microinverters, solar access", () => {
         fc.constantFrom("roof" as const, "open-rack" as const),
         fc.constantFrom("perez" as const, "haydavies" as const, "isotropic" as const),
         (tiltDeg, azimuthDeg, moduleCount, access, mount, transposition) => {
-          const r = estimateProduction(gso, { faces: [{ tiltDeg, azimuthDeg, moduleCount, moduleWatts: 420, solarAccessPct: access, mount }], transposition });
-          return Number.isFinite(r.annualAcKwh) && r.hourlyAcW.every(Number.isFinite) && r.faces[0].cellTempC.every(Number.isFinite);
+          const r = estimateProduction(gso, { faces: [{ tiltDeg, azimuthDeg, moduleCount, moduleWatts: 420, solarAccessPct: access, mount }], transposition }, { faceHours: true });
+          return Number.isFinite(r.annualAcKwh) && r.hourlyAcW.every(Number.isFinite) && (r.faces[0].hours?.cellTempC.every(Number.isFinite) ?? false);
         },
       ),
       { numRuns: 25 },

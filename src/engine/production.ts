@@ -87,16 +87,27 @@ export const systemSchema = z
 export type RoofFace = z.input<typeof roofFaceSchema>;
 export type SystemDesign = z.input<typeof systemSchema>;
 
-export type FaceResult = {
-  name: string;
-  dcKw: number;
+/** A face's hourly series (only with `{ faceHours: true }`). */
+export type FaceHours = {
   /** POA irradiance (after solar access), W/m². */
   poa: Float64Array;
   cellTempC: Float64Array;
   /** DC power after system losses, W. */
   dcW: Float64Array;
+};
+
+export type FaceResult = {
+  name: string;
+  dcKw: number;
   annualPoaKwhPerM2: number;
   annualDcKwh: number;
+  monthlyDcKwh: number[];
+  hours?: FaceHours;
+};
+
+export type EstimateOptions = {
+  /** Also return each face's hourly POA, cell temperature and DC (3 × 8760 numbers per face). */
+  faceHours?: boolean;
 };
 
 export type ProductionResult = {
@@ -155,8 +166,20 @@ export function clearProductionCache(weather: WeatherYear): void {
 
 // ---------------------------------------------------------------- model
 
+/**
+ * Working columns for one face (POA parts, cell temperature, DC), reused from call to call:
+ * allocating ~0.5 MB of fresh typed arrays per estimate costs more than the whole model (page
+ * faults and GC of large buffers). Never handed to callers; estimates run synchronously, so no
+ * two calls share them at once.
+ */
+let scratch: Float64Array[] | null = null;
+function faceScratch(): Float64Array[] {
+  scratch ??= allocateColumns(7);
+  return scratch;
+}
+
 /** Hourly production of a system on a weather year. Throws EngineInputError naming each bad field. */
-export function estimateProduction(weather: WeatherYear, design: SystemDesign): ProductionResult {
+export function estimateProduction(weather: WeatherYear, design: SystemDesign, options: EstimateOptions = {}): ProductionResult {
   const sys = parseOrThrow(systemSchema, design, "system design");
   if (weather.ghi.length !== HOURS_PER_YEAR) {
     throw new EngineInputError([{ path: "weather", message: `expected ${HOURS_PER_YEAR} hours, got ${weather.ghi.length}` }], "production");
@@ -166,11 +189,8 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
   const sky = skyForWeather(weather, sys.transposition);
   const n = HOURS_PER_YEAR;
 
-  // All hourly columns of this estimate come from one buffer (see allocateColumns).
-  const PER_FACE = 7; // poa, poaTransmitted, beam, skyDiffuse, ground, cellTempC, dcW
-  const cols = allocateColumns(2 + PER_FACE * sys.faces.length, n);
-  const hourlyDcW = cols[0];
-  const hourlyAcW = cols[1];
+  const [hourlyDcW, hourlyAcW] = allocateColumns(2, n);
+  const work = faceScratch();
   const faces: FaceResult[] = [];
   let dcKw = 0;
   let weightedPoa = 0;
@@ -180,13 +200,13 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
     const faceDcW0 = face.moduleCount * face.moduleWatts;
     dcKw += faceDcW0 / 1000;
     const gamma = face.gammaPctPerC !== undefined ? face.gammaPctPerC / 100 : MODULE_GAMMA_PER_C[face.moduleType];
-    const c = 2 + PER_FACE * k;
+    const own = options.faceHours ? allocateColumns(3, n) : null;
     const plane = planeOfArray(sky, face.tiltDeg, face.azimuthDeg, sys.albedo, {
-      poa: cols[c],
-      poaTransmitted: cols[c + 1],
-      beam: cols[c + 2],
-      skyDiffuse: cols[c + 3],
-      ground: cols[c + 4],
+      poa: own ? own[0] : work[0],
+      poaTransmitted: work[1],
+      beam: work[2],
+      skyDiffuse: work[3],
+      ground: work[4],
     });
     const access = face.solarAccessPct;
     const poa = plane.poa;
@@ -206,8 +226,9 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
         tr[i] *= f;
       }
     }
-    const cellTempC = fuentesCellTemperature(poa, weather.tempAirC, weather.windSpeedMs, MOUNT_INOCT_C[face.mount], cols[c + 5]);
-    const dcW = cols[c + 6];
+    const cellTempC = fuentesCellTemperature(poa, weather.tempAirC, weather.windSpeedMs, MOUNT_INOCT_C[face.mount], own ? own[1] : work[5]);
+    const dcW = own ? own[2] : work[6];
+    dcW.fill(0);
     let poaSum = 0;
     let dcSum = 0;
     const scale = (faceDcW0 / 1000) * keep;
@@ -231,11 +252,10 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign): 
     faces.push({
       name: face.name ?? `Face ${k + 1}`,
       dcKw: faceDcW0 / 1000,
-      poa,
-      cellTempC,
-      dcW,
       annualPoaKwhPerM2: poaSum / 1000,
       annualDcKwh: dcSum / 1000,
+      monthlyDcKwh: monthlySums(dcW).map((wh) => wh / 1000),
+      ...(own && { hours: { poa, cellTempC, dcW } }),
     });
   });
 
