@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
 import { existsSync, readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
+import { fileURLToPath } from "node:url";
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { deal, design, household, upload, weatherStation } from "@/db/schema";
@@ -20,6 +21,7 @@ import {
 } from "@/server/weather-stations";
 import { addMember, newCompany } from "../support/fixtures";
 
+const projectRoot = fileURLToPath(new URL("../../../", import.meta.url));
 const MONTH_DAYS = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
 
 /**
@@ -140,7 +142,7 @@ describe("uploading a weather file as a station", () => {
 
   it("reads the Greensboro TMY3 reference file with its header's site and a name and attribution from it", async () => {
     const owner = await newCompany("Weather TMY3 Solar");
-    const bytes = new Uint8Array(readFileSync(path.join(process.cwd(), "src/engine/data/tmy3-723170-greensboro-nc.csv")));
+    const bytes = new Uint8Array(readFileSync(path.join(projectRoot, "src/engine/data/tmy3-723170-greensboro-nc.csv")));
     const station = await createStation(owner, { bytes, fileName: "tmy3-723170-greensboro-nc.csv" }, fields({}));
     expect(station).toMatchObject({ format: "tmy3", latitude: 36.1, longitude: -79.95, elevationM: 273, utcOffsetHours: -5 });
     expect(station.name).toContain("GREENSBORO");
