@@ -243,19 +243,25 @@ function dayOfYearOfHour(i: number): number {
 /** Precompute the sky terms that do not depend on the plane (once per weather year and model). */
 export function prepareSky(weather: Pick<WeatherYear, "dni" | "dhi" | "ghi" | "albedo">, sun: SunPositionsYear, model: TranspositionModel = "perez"): SkyYear {
   const n = HOURS_PER_YEAR;
-  const [cosZenith, sinZcosAz, sinZsinAz, f1, f2, invCosZClamped] = allocateColumns(6, n);
-  const sky: SkyYear = { model, cosZenith, sinZcosAz, sinZsinAz, dni: weather.dni, dhi: weather.dhi, ghi: weather.ghi, albedo: weather.albedo, f1, f2, invCosZClamped };
+  const [f1, f2, invCosZClamped] = allocateColumns(3, n);
+  const sky: SkyYear = {
+    model,
+    cosZenith: sun.cosZenith,
+    sinZcosAz: sun.sinZenithCosAz,
+    sinZsinAz: sun.sinZenithSinAz,
+    dni: weather.dni,
+    dhi: weather.dhi,
+    ghi: weather.ghi,
+    albedo: weather.albedo,
+    f1,
+    f2,
+    invCosZClamped,
+  };
   const minCos = model === "perez" ? PEREZ_MIN_COS_ZENITH : HAY_MIN_COS_ZENITH;
   let doyPrev = -1;
   let etr = 0;
   for (let i = 0; i < n; i++) {
-    const z = sun.zenithDeg[i] * D2R;
-    const az = sun.azimuthDeg[i] * D2R;
-    const cz = Math.cos(z);
-    const sz = Math.sin(z);
-    sky.cosZenith[i] = cz;
-    sky.sinZcosAz[i] = sz * Math.cos(az);
-    sky.sinZsinAz[i] = sz * Math.sin(az);
+    const cz = sun.cosZenith[i];
     sky.invCosZClamped[i] = 1 / (cz > minCos ? cz : minCos);
     if (model === "isotropic" || cz <= 0 || !(weather.dhi[i] > 0)) continue;
     const doy = dayOfYearOfHour(i);

@@ -2,7 +2,7 @@ import * as Astronomy from "astronomy-engine";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { EngineInputError } from "./errors";
-import { createSunEvaluator, solarPosition, sunPositionsForYear, typicalHourStartMs, type SunAngles } from "./solar-position";
+import { createSunEvaluator, newSunAngles, solarPosition, sunPositionsForYear, typicalHourStartMs, type SunAngles } from "./solar-position";
 
 const D2R = Math.PI / 180;
 
@@ -76,7 +76,7 @@ describe("agreement with astronomy-engine (independent reference library)", () =
       const observer = new Astronomy.Observer(site.latitude, site.longitude, site.elevationM);
       const start = Date.UTC(2019, 0, 1);
       const evaluate = createSunEvaluator({ ...site, refraction: false }, start, start + 8760 * 3_600_000);
-      const a: SunAngles = { zenithDeg: 0, airlessZenithDeg: 0, azimuthDeg: 0, elevationDeg: 0, earthSunDistanceAu: 1 };
+      const a: SunAngles = newSunAngles();
       let maxSep = 0;
       let maxFullVsFast = 0;
       for (let h = 0; h < 8760; h++) {
@@ -119,8 +119,16 @@ describe("sunPositionsForYear", () => {
       if (i % 24 < 10 && frac > 0.5 + 1e-9) sunriseHours++;
     }
     expect(sunriseHours).toBeGreaterThan(300);
-    for (const arr of [y.zenithDeg, y.azimuthDeg, y.airlessZenithDeg, y.earthSunDistanceAu]) {
+    for (const arr of [y.zenithDeg, y.azimuthDeg, y.airlessZenithDeg, y.earthSunDistanceAu, y.cosZenith, y.sinZenithCosAz, y.sinZenithSinAz]) {
       expect(arr.every(Number.isFinite)).toBe(true);
+    }
+    // the unit vector agrees with the angles
+    for (let i = 0; i < 8760; i += 13) {
+      const z = (y.zenithDeg[i] * Math.PI) / 180;
+      const az = (y.azimuthDeg[i] * Math.PI) / 180;
+      expect(y.cosZenith[i]).toBeCloseTo(Math.cos(z), 12);
+      expect(y.sinZenithCosAz[i]).toBeCloseTo(Math.sin(z) * Math.cos(az), 12);
+      expect(y.sinZenithSinAz[i]).toBeCloseTo(Math.sin(z) * Math.sin(az), 12);
     }
   });
 

@@ -254,6 +254,10 @@ export type SunAngles = {
   elevationDeg: number;
   /** Earth–Sun distance in astronomical units (SPA R). */
   earthSunDistanceAu: number;
+  /** The apparent sun's unit vector (up, north, east parts): cos z, sin z·cos Φ, sin z·sin Φ. */
+  cosZenith: number;
+  sinZenithCosAz: number;
+  sinZenithSinAz: number;
 };
 
 /** Site-dependent part of SPA: hour angle, parallax, elevation, refraction, azimuth (eqs 31–46). */
@@ -286,12 +290,26 @@ function topocentric(g: Geocentric, nuDeg: number, s: SiteTerms, out: SunAngles)
     dE = (s.refractionFactor * 1.02) / (60 * Math.tan((e0 + 10.3 / (e0 + 5.11)) * D2R)); // eq 42
   }
   const e = e0 + dE; // eq 43
-  const gamma = Math.atan2(sinHp, cosHp * s.sinLat - (sinDeltaP / cosDeltaP) * s.cosLat) * R2D; // eq 45
+  const gy = sinHp;
+  const gx = cosHp * s.sinLat - (sinDeltaP / cosDeltaP) * s.cosLat;
+  const gamma = Math.atan2(gy, gx) * R2D; // eq 45
   out.zenithDeg = 90 - e; // eq 44
   out.airlessZenithDeg = 90 - e0;
   out.elevationDeg = e;
   out.azimuthDeg = mod360(gamma + 180); // eq 46
   out.earthSunDistanceAu = g.radiusAu;
+  // Unit vector for the transposition loops, without further trig for the azimuth: Φ = Γ + 180°.
+  const sinE = Math.sin(e * D2R);
+  const sinZ = Math.sqrt(1 - sinE * sinE);
+  const gr = Math.sqrt(gx * gx + gy * gy);
+  out.cosZenith = sinE;
+  out.sinZenithCosAz = gr > 0 ? (-sinZ * gx) / gr : 0;
+  out.sinZenithSinAz = gr > 0 ? (-sinZ * gy) / gr : 0;
+}
+
+/** A zeroed SunAngles to pass as `out`. */
+export function newSunAngles(): SunAngles {
+  return { zenithDeg: 0, airlessZenithDeg: 0, azimuthDeg: 0, elevationDeg: 0, earthSunDistanceAu: 1, cosZenith: 0, sinZenithCosAz: 0, sinZenithSinAz: 0 };
 }
 
 export type SiteOptions = {
@@ -355,7 +373,7 @@ export function solarPosition(date: Date, site: SiteOptions): SunAngles {
   const jd = julianDayFromUnixMs(ms);
   const g = geocentric(jd, s.deltaTSeconds);
   const nu = meanSiderealDeg(jd) + g.nutationRaCorrDeg; // eq 15
-  const out: SunAngles = { zenithDeg: 0, airlessZenithDeg: 0, azimuthDeg: 0, elevationDeg: 0, earthSunDistanceAu: 1 };
+  const out = newSunAngles();
   topocentric(g, nu, siteTerms(s), out);
   return out;
 }
@@ -435,6 +453,10 @@ export type SunPositionsYear = {
   earthSunDistanceAu: Float64Array;
   /** Hour of the day (decimal, local standard time) at which each position was evaluated. */
   evaluatedAtLocalHour: Float64Array;
+  /** The apparent sun's unit vector per hour: cos z, sin z·cos Φ, sin z·sin Φ (for the transposition). */
+  cosZenith: Float64Array;
+  sinZenithCosAz: Float64Array;
+  sinZenithSinAz: Float64Array;
   /** Calendar year the typical year was placed in. */
   year: number;
 };
@@ -506,8 +528,8 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
   );
 
   const n = HOURS_PER_YEAR;
-  // one buffer for the five columns: a single large allocation is much cheaper than five in V8
-  const buf = new Float64Array(5 * n);
+  // one buffer for the eight columns: a single large allocation is much cheaper than five in V8
+  const buf = new Float64Array(8 * n);
   const col = (k: number) => buf.subarray(k * n, (k + 1) * n);
   const out: SunPositionsYear = {
     zenithDeg: col(0),
@@ -515,10 +537,13 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
     azimuthDeg: col(2),
     earthSunDistanceAu: col(3),
     evaluatedAtLocalHour: col(4),
+    cosZenith: col(5),
+    sinZenithCosAz: col(6),
+    sinZenithSinAz: col(7),
     year,
   };
-  const a: SunAngles = { zenithDeg: 0, airlessZenithDeg: 0, azimuthDeg: 0, elevationDeg: 0, earthSunDistanceAu: 1 };
-  const b: SunAngles = { ...a };
+  const a = newSunAngles();
+  const b = newSunAngles();
   const sunUpMid = options.sunUpMidpoint ?? true;
   for (let i = 0; i < n; i++) {
     const hourStartMs = yearStartMs + i * MS_PER_HOUR;
@@ -542,6 +567,9 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
     out.airlessZenithDeg[i] = a.airlessZenithDeg;
     out.azimuthDeg[i] = a.azimuthDeg;
     out.earthSunDistanceAu[i] = a.earthSunDistanceAu;
+    out.cosZenith[i] = a.cosZenith;
+    out.sinZenithCosAz[i] = a.sinZenithCosAz;
+    out.sinZenithSinAz[i] = a.sinZenithSinAz;
     out.evaluatedAtLocalHour[i] = (i % 24) + (evalMs - hourStartMs) / MS_PER_HOUR;
   }
   return out;
