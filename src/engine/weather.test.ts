@@ -75,6 +75,14 @@ describe("EPW import", () => {
   });
 });
 
+describe("format checks", () => {
+  it("says plainly when a forced format does not match the content", () => {
+    const tmy3 = read("src/engine/data/tmy3-723170-greensboro-nc.csv");
+    expect(() => parseWeather(tmy3, { format: "epw" })).toThrow(/line 1: not an EPW file/);
+    expect(() => parseWeather(syntheticCsv(), { format: "tmy3", site: denverSite })).toThrow(/line 2: not a TMY3 file/);
+  });
+});
+
 describe("generic hourly CSV", () => {
   it("accepts columns in any order, derives GHI = DNI·cos z + DHI when absent", () => {
     const w = parseWeather(syntheticCsv(), { site: denverSite });

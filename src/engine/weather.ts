@@ -353,6 +353,13 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
   const issues = new IssueList();
   const context = `${format.toUpperCase()} weather file`;
 
+  if (format === "epw" && !/^LOCATION,/i.test(lines[0] ?? "")) {
+    throw new EngineInputError([{ path: "line 1", message: "not an EPW file: the first line must start with LOCATION," }], context);
+  }
+  if (format === "tmy3" && !/^Date \(MM\/DD\/YYYY\)/i.test(lines[1] ?? "")) {
+    throw new EngineInputError([{ path: "line 2", message: 'not a TMY3 file: the second line must start with "Date (MM/DD/YYYY)"' }], context);
+  }
+
   let parsed: { site: Partial<WeatherSite>; label: string; rows: RawRow[]; hasGhi: boolean };
   if (format === "epw") parsed = { ...parseEpw(lines, issues), hasGhi: true };
   else if (format === "tmy3") parsed = { ...parseTmy3(lines, issues), hasGhi: true };
