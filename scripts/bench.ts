@@ -114,7 +114,7 @@ async function main(): Promise<void> {
     "  sun positions, the face-independent sky terms, three transpositions, three Fuentes cell-temperature",
     "  runs, DC and the inverter. The cached case is what a design screen pays when only the roof changes.",
     "- Sun positions: NREL SPA (Reda & Andreas 2004) with the geocentric terms evaluated in full every",
-    "  2 days and interpolated; the hour-angle, parallax and refraction terms exact for every hour",
+    "  3 days and interpolated; the hour-angle, parallax and refraction terms exact for every hour",
     "  (interpolated vs full SPA: < 1e-4°, solar-position.test.ts). The accuracy figure compares airless",
     "  zenith angles at the 8,760 hour middles with astronomy-engine's topocentric sun.",
     "- The host is shared with other work; a high load average inflates the wall-clock figures. \"CPU ms/run\"",

@@ -78,7 +78,7 @@ export const cases: BenchCase[] = [
     run: () => estimateProduction(loadWeather(), design).annualAcKwh,
   },
   {
-    name: "sun: 8760 h, SPA with 2-day geocentric nodes",
+    name: "sun: 8760 h, SPA with 3-day geocentric nodes",
     goal: "≥ 10× faster than astronomy-engine",
     run: () => sunPositionsForYear(site, { refraction: false, sunUpMidpoint: false }),
   },
