@@ -76,7 +76,11 @@ export const systemSchema = z
   .object({
     faces: z.array(roofFaceSchema).min(1).max(24),
     inverter: inverterSchema.default({ kind: "string", dcAcRatio: 1.2, efficiencyPct: 96 }),
-    /** Either a loss breakdown (unlisted categories take the PVWatts defaults) or one combined %. */
+    /**
+     * Either a loss breakdown (unlisted categories take the PVWatts defaults) or one combined %.
+     * Faces' solar access already removes shade from the POA: with measured access, set the
+     * breakdown's `shading` to 0 so shade is not counted twice.
+     */
     losses: z.union([lossBreakdownSchema, z.object({ totalPct: z.number().finite().min(0).max(99) }).strict()]).default({}),
     transposition: z.enum(["perez", "haydavies", "isotropic"]).default("perez"),
     /** Ground reflectance for every hour, overriding the weather file's. */
