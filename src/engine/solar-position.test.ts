@@ -132,6 +132,26 @@ describe("sunPositionsForYear", () => {
     }
   });
 
+  it("finds every sunrise and sunset hour (brute force at every hour boundary), at several latitudes", () => {
+    for (const latitude of [0.5, 39.74, 64.8, -50]) {
+      const site = { latitude, longitude: 20, elevationM: 100, utcOffsetHours: 1 };
+      const y = sunPositionsForYear(site);
+      const start = typicalHourStartMs(0, 1);
+      const ev = createSunEvaluator({ ...site, temperatureC: 12 }, start - 3_600_000, start + 8761 * 3_600_000);
+      const a = newSunAngles();
+      const up = new Uint8Array(8761);
+      for (let k = 0; k <= 8760; k++) {
+        ev(start + k * 3_600_000, a);
+        up[k] = a.elevationDeg > 0 ? 1 : 0;
+      }
+      for (let i = 0; i < 8760; i++) {
+        const frac = y.evaluatedAtLocalHour[i] - (i % 24);
+        if (up[i] !== up[i + 1]) expect(Math.abs(frac - 0.5)).toBeGreaterThan(1e-6);
+        else expect(frac).toBeCloseTo(0.5, 9);
+      }
+    }
+  });
+
   it("rejects bad sites and leap years with named fields", () => {
     expect(() => sunPositionsForYear({ ...denver, utcOffsetHours: 20 })).toThrow(/utcOffsetHours/);
     expect(() => sunPositionsForYear(denver, { year: 2020 })).toThrow(/year/);

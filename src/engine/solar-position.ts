@@ -486,7 +486,7 @@ export type YearPositionOptions = {
 };
 
 const MS_PER_HOUR = 3_600_000;
-/** Above this elevation at an hour's middle the sun cannot cross the horizon within ±30 min (it moves ≤ 15°/h). */
+/** Above this elevation at an hour's middle the sun cannot cross the horizon within ±30 min (it moves ≤ 15°/h); narrowed by latitude below. */
 const HORIZON_GUARD_DEG = 8;
 
 const yearSiteSchema = z.object({
@@ -544,24 +544,29 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
   };
   const a = newSunAngles();
   const b = newSunAngles();
+  const c = newSunAngles();
   const sunUpMid = options.sunUpMidpoint ?? true;
+  // Near the horizon the sun's elevation changes by at most 15.04°·cos(latitude) per hour (plus
+  // refraction's own change, under 1°): hours whose middle is farther from the horizon than half
+  // of that cannot contain sunrise or sunset.
+  const guardDeg = Math.min(HORIZON_GUARD_DEG, (15.05 * Math.cos(s.latitude * (Math.PI / 180))) / 2 + 1);
   for (let i = 0; i < n; i++) {
     const hourStartMs = yearStartMs + i * MS_PER_HOUR;
     let evalMs = hourStartMs + MS_PER_HOUR / 2;
     evaluate(evalMs, a);
-    if (sunUpMid && Math.abs(a.elevationDeg) < HORIZON_GUARD_DEG) {
-      evaluate(hourStartMs, a);
+    if (sunUpMid && Math.abs(a.elevationDeg) < guardDeg) {
+      evaluate(hourStartMs, c);
       evaluate(hourStartMs + MS_PER_HOUR, b);
-      const upStart = a.elevationDeg > 0;
+      const upStart = c.elevationDeg > 0;
       const upEnd = b.elevationDeg > 0;
       if (upStart !== upEnd) {
         // Elevation is close to linear in time near the horizon: one secant step places the
         // crossing within seconds, which is ample for choosing an evaluation instant.
-        const f = a.elevationDeg / (a.elevationDeg - b.elevationDeg);
+        const f = c.elevationDeg / (c.elevationDeg - b.elevationDeg);
         const crossMs = hourStartMs + f * MS_PER_HOUR;
         evalMs = upStart ? (hourStartMs + crossMs) / 2 : (crossMs + hourStartMs + MS_PER_HOUR) / 2;
+        evaluate(evalMs, a);
       }
-      evaluate(evalMs, a);
     }
     out.zenithDeg[i] = a.zenithDeg;
     out.airlessZenithDeg[i] = a.airlessZenithDeg;
