@@ -504,7 +504,8 @@ function Preview({ plan }: { plan: RatePlan }) {
   const [month, setMonth] = useState(0);
   const result = useMemo((): { bill: AnnualBill } | { problems: string[] } => {
     try {
-      return { bill: sampleBill(plan) };
+      // The name does not change the bill; an unnamed draft still previews.
+      return { bill: sampleBill({ ...plan, name: plan.name.trim() || "draft" }) };
     } catch (e) {
       if (e instanceof EngineInputError) return { problems: e.issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)) };
       return { problems: ["This plan cannot be billed."] };
