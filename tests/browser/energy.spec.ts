@@ -20,7 +20,7 @@ async function openEnergy(page: Page, household: string) {
   await page.goto("/deals");
   await page.getByRole("link", { name: household }).click();
   await page.getByRole("link", { name: "Energy" }).click();
-  await expect(page.getByRole("heading", { name: "Bills" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Bills", exact: true })).toBeVisible();
 }
 
 test("bad files get a clear message each, and nothing is kept", async ({ page }) => {

@@ -1,0 +1,70 @@
+// Demo energy: twelve invented monthly bills for every household past the first visit, and
+// one household with Green Button interval data (the invented fixture of tests/fixtures).
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { bill, intervalProfile, upload } from "../../../src/db/schema";
+import { importIntervalData } from "../../../src/engine/green-button";
+import { referenceMonthlyShape } from "../../../src/engine/load-shape";
+import { putSeedFile, seedStorageDir } from "../seed-files";
+import type { SeedContext } from "../seed-demo";
+
+export const order = 15;
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+const GREEN_BUTTON_FIXTURE = path.resolve(here, "../../../tests/fixtures/green-button/espi-two-days-invented.xml");
+const INTERVAL_UPLOAD_ID = "7a11a55e-0000-4000-8000-000000006001";
+const INTERVAL_PROFILE_ID = "7a11a55e-0000-4000-8000-000000006002";
+/** Invented: about 13.5 ¢/kWh of energy plus a $14 monthly customer charge. */
+const CENTS_PER_KWH = 13.5;
+const FIXED_CENTS = 1_400;
+
+export async function seed(ctx: SeedContext): Promise<void> {
+  const shape = referenceMonthlyShape();
+  const shapeTotal = shape.reduce((a, b) => a + b, 0);
+  // Households 1…11 (Bills in onward; not the lead, not the lost deal) have a year of bills.
+  for (let i = 1; i < ctx.dealIds.length - 1; i++) {
+    const annualKwh = 9_000 + 700 * i;
+    for (let m = 0; m < 12; m++) {
+      const kwh = Math.round((annualKwh * shape[m]) / shapeTotal);
+      await ctx.tx.insert(bill).values({
+        id: `7a11a55e-0000-4000-8000-${String(7000 + i * 100 + m).padStart(12, "0")}`,
+        companyId: ctx.companyId,
+        dealId: ctx.dealIds[i],
+        periodStart: new Date(Date.UTC(2025, m, 1)).toISOString().slice(0, 10),
+        periodEnd: new Date(Date.UTC(2025, m + 1, 1)).toISOString().slice(0, 10),
+        kwh,
+        costCents: Math.round(kwh * CENTS_PER_KWH + FIXED_CENTS),
+      });
+    }
+  }
+
+  // The household whose deal was lost had sent its utility's Green Button download.
+  const bytes = new Uint8Array(await readFile(GREEN_BUTTON_FIXTURE));
+  const profile = importIntervalData(new TextDecoder().decode(bytes), { format: "espi-xml", utcOffsetHours: -5 });
+  const storageKey = `${ctx.companyId}/uploads/${INTERVAL_UPLOAD_ID}.xml`;
+  await putSeedFile(seedStorageDir("demo interval data"), storageKey, bytes);
+  const dealId = ctx.dealIds[ctx.dealIds.length - 1];
+  await ctx.tx.insert(upload).values({
+    id: INTERVAL_UPLOAD_ID,
+    companyId: ctx.companyId,
+    dealId,
+    purpose: "interval_data",
+    fileName: "green-button-download.xml",
+    mimeType: "application/xml",
+    sizeBytes: bytes.byteLength,
+    sha256: createHash("sha256").update(bytes).digest("hex"),
+    storageKey,
+    uploadedByUserId: ctx.people.find((p) => p.role === "sales_rep")?.id ?? null,
+  });
+  await ctx.tx.insert(intervalProfile).values({
+    id: INTERVAL_PROFILE_ID,
+    companyId: ctx.companyId,
+    dealId,
+    uploadId: INTERVAL_UPLOAD_ID,
+    hourlyKwh: profile.hourlyKwh,
+    annualKwh: profile.annualKwh,
+    coveragePct: profile.coverage * 100,
+  });
+}
