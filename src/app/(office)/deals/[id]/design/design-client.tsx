@@ -155,7 +155,8 @@ export function DesignClient({ dealId, canEdit }: { dealId: string; canEdit: boo
   if (inputs.modules.length === 0 || inputs.inverters.length === 0) {
     return <FormMessage tone="info">The equipment catalog has no active {inputs.modules.length === 0 ? "modules" : "inverters"} yet. Ask an admin to add them under Catalog.</FormMessage>;
   }
-  return <DesignEditor key={inputs.design?.id ?? "new"} dealId={dealId} inputs={inputs} canEdit={canEdit} />;
+  // The editor keeps its draft across refetches (e.g. after the first save gives the design an id).
+  return <DesignEditor dealId={dealId} inputs={inputs} canEdit={canEdit} />;
 }
 
 function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: DesignInputs; canEdit: boolean }) {
@@ -237,10 +238,12 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
     setNotice(null);
     setDraft((d) => ({ ...d, faces: d.faces.map((f, k) => (k === i ? { ...f, ...patch } : f)) }));
   };
-  const set = (patch: Partial<Draft>) => {
+  const set = (patch: Partial<Draft>) => update(() => patch);
+  /** Every change goes through the latest draft (never a stale copy from an earlier render). */
+  const update = (change: (d: Draft) => Partial<Draft>) => {
     setServerErrors({});
     setNotice(null);
-    setDraft((d) => ({ ...d, ...patch }));
+    setDraft((d) => ({ ...d, ...change(d) }));
   };
 
   const sizingBlocked =
@@ -320,7 +323,7 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
               Roof faces
             </h2>
             {canEdit ? (
-              <button type="button" className="btn-quiet" onClick={() => set({ faces: [...draft.faces, emptyFace(draft.faces.length + 1)] })} disabled={draft.faces.length >= 24}>
+              <button type="button" className="btn-quiet" onClick={() => update((d) => ({ faces: [...d.faces, emptyFace(d.faces.length + 1)] }))} disabled={draft.faces.length >= 24}>
                 Add a roof face
               </button>
             ) : null}
@@ -350,7 +353,7 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
                     <NumberInput id={`face-${n}-modules`} label={`Face ${n} modules`} value={f.moduleCount} error={e("moduleCount")} disabled={disabled} onChange={(v) => setFace(i, { moduleCount: v })} />
                   </div>
                   {canEdit && draft.faces.length > 1 ? (
-                    <button type="button" className="btn-danger mt-3" onClick={() => set({ faces: draft.faces.filter((_, k) => k !== i) })}>
+                    <button type="button" className="btn-danger mt-3" onClick={() => update((d) => ({ faces: d.faces.filter((_, k) => k !== i) }))}>
                       Remove face {n}
                     </button>
                   ) : null}

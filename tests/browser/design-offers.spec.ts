@@ -1,0 +1,92 @@
+import { expect, test } from "@playwright/test";
+import { signIn, withDb } from "./support";
+
+test.use({ viewport: { width: 820, height: 1180 } }); // a tablet in portrait, where reps work
+
+const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
+/** The demo rep's deal in "designing" (Calloway household, seed-demo.ts). */
+const CALLOWAY_DEAL_ID = "7a11a55e-0000-4000-8000-000000000303";
+/** Ridgewater RW-7600S from the demo catalog (scripts/lib/seed/catalog.ts). */
+const STRING_INVERTER_ID = "7a11a55e-0000-4000-8000-000000001011";
+
+/**
+ * The deal starts without a design or offers (the rep lays it out from scratch), with twelve
+ * monthly bills unless the demo already has some.
+ */
+async function prepareDeal(): Promise<void> {
+  await withDb(async (conn) => {
+    await conn.query("DELETE FROM offer WHERE company_id = ? AND deal_id = ?", [DEMO_COMPANY_ID, CALLOWAY_DEAL_ID]);
+    await conn.query("DELETE FROM design WHERE company_id = ? AND deal_id = ?", [DEMO_COMPANY_ID, CALLOWAY_DEAL_ID]);
+    const [rows] = await conn.query("SELECT COUNT(*) AS n FROM bill WHERE company_id = ? AND deal_id = ?", [DEMO_COMPANY_ID, CALLOWAY_DEAL_ID]);
+    if ((rows as { n: number }[])[0].n > 0) return;
+    const kwh = [1120, 980, 860, 720, 790, 1080, 1310, 1270, 1010, 760, 820, 1060];
+    for (let m = 0; m < 12; m++) {
+      const start = new Date(Date.UTC(2025, m, 1)).toISOString().slice(0, 10);
+      const end = new Date(Date.UTC(2025, m + 1, 0)).toISOString().slice(0, 10);
+      await conn.query("INSERT INTO bill (id, company_id, deal_id, period_start, period_end, kwh) VALUES (UUID(), ?, ?, ?, ?, ?)", [DEMO_COMPANY_ID, CALLOWAY_DEAL_ID, start, end, kwh[m]]);
+    }
+  });
+}
+
+test("the rep adds two roof faces, sizes to 100 % offset, then compares two offers", async ({ page }) => {
+  test.setTimeout(120_000);
+  await prepareDeal();
+  await signIn(page, "rep@tallgrass.example");
+  await page.goto("/deals");
+  await page.getByRole("link", { name: "Calloway household" }).click();
+  await page.getByRole("link", { name: "Design" }).click();
+  await expect(page.getByRole("heading", { name: "Roof faces" })).toBeVisible();
+
+  // A string inverter, so the string check shows.
+  await page.getByLabel("Inverter", { exact: true }).selectOption(STRING_INVERTER_ID);
+  const faceCount = await page.getByTestId(/^face-\d+$/).count();
+  const a = faceCount + 1;
+  const b = faceCount + 2;
+  await page.getByRole("button", { name: "Add a roof face" }).click();
+  await page.getByLabel(`Face ${a} name`).fill("Garage south");
+  await page.getByLabel(`Face ${a} tilt (°)`).fill("20");
+  await page.getByLabel(`Face ${a} usable module slots`).fill("14");
+  await page.getByRole("button", { name: "Add a roof face" }).click();
+  await page.getByLabel(`Face ${b} name`).fill("Shed west");
+  await page.getByLabel(`Face ${b} azimuth (°)`).fill("270");
+  await page.getByLabel(`Face ${b} usable module slots`).fill("6");
+  await page.getByLabel(`Face ${b} solar access (%)`).fill("85");
+
+  // A bad tilt is named at once and holds the estimate.
+  await page.getByLabel(`Face ${b} tilt (°)`).fill("95");
+  await expect(page.getByText("Tilt must be 0–90°")).toBeVisible();
+  await page.getByLabel(`Face ${b} tilt (°)`).fill("15");
+
+  await page.getByLabel("Target offset (%)").fill("100");
+  await page.getByRole("button", { name: "Size to target offset" }).click();
+  await expect(page.getByText(/Sized to 100 % offset/)).toBeVisible();
+  await expect(page.getByTestId("offset")).toHaveText(/^(99|10\d) %$/);
+  await expect(page.getByTestId("production-chart")).toBeVisible();
+  await expect(page.getByTestId("annual-kwh")).not.toHaveText("—");
+  await expect(page.getByTestId("string-check")).toBeVisible();
+  await expect(page.getByText(/licensed professional/).first()).toBeVisible();
+
+  await page.getByRole("button", { name: "Save design" }).click();
+  await expect(page.getByText("Design saved.")).toBeVisible();
+
+  await page.getByRole("link", { name: "Offers" }).click();
+  await page.getByRole("button", { name: "Add an offer" }).click();
+  await page.getByLabel("Offer name").fill("Whole roof, cash");
+  await page.getByRole("button", { name: "Create and compute" }).click();
+  await expect(page.getByRole("article", { name: "Offer Whole roof, cash" })).toBeVisible({ timeout: 30_000 });
+
+  await page.getByRole("button", { name: "Add an offer" }).click();
+  await page.getByLabel("Offer name").fill("Whole roof, loan");
+  await page.getByLabel("Loan").check();
+  await page.getByLabel("APR (%)").fill("5.99");
+  await page.getByLabel("Term (months)").fill("180");
+  await page.getByRole("button", { name: "Create and compute" }).click();
+  await expect(page.getByRole("article", { name: "Offer Whole roof, loan" })).toBeVisible({ timeout: 30_000 });
+
+  const table = page.getByTestId("offer-comparison");
+  await expect(table.getByRole("columnheader")).toHaveCount(3);
+  await expect(table.getByRole("row", { name: /Payback/ })).toContainText("years");
+  await expect(table.getByRole("row", { name: /Monthly loan payment/ })).toContainText("$");
+  await expect(page.getByTestId("cashflow-chart")).toBeVisible();
+  await expect(page.getByText(/Estimates, not a guarantee/)).toBeVisible();
+});
