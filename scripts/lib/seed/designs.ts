@@ -134,7 +134,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
         lineItemIds: ["critter-guard"],
         discountCents: 150_000,
         discountReason: "Matching a neighbour's offer from another installer",
-        payment: { kind: "loan", aprPct: 6.99, termMonths: 240, dealerFeePct: 0 },
+        payment: { kind: "loan", aprPct: 3.99, termMonths: 240, dealerFeePct: 0 },
       },
     },
   ];
