@@ -8,6 +8,7 @@ import { hashPassword } from "better-auth/crypto";
 import { eq } from "drizzle-orm";
 import { drizzle } from "drizzle-orm/mysql2";
 import mysql from "mysql2/promise";
+import { DEMO_RATE_PLAN_IDS } from "./seed/pricing";
 import { account, company, deal, household, membership, schema, user, type Role, type Stage } from "../../src/db/schema";
 
 export const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
@@ -127,6 +128,9 @@ export async function seedDemo(databaseUrl: string): Promise<{ created: boolean 
           stage: h.stage,
           stageChangedAt: new Date(now - h.daysInStage * 86_400_000),
           source: h.source,
+          utilityName: "Piedmont Electric Cooperative",
+          // Every third household chose the time-of-use plan (invented).
+          ratePlanId: i % 3 === 2 ? DEMO_RATE_PLAN_IDS.timeOfUse : DEMO_RATE_PLAN_IDS.residential,
           systemDcWatts: h.dcWatts,
           contractCents: h.contractCents,
         });

@@ -3,5 +3,6 @@ export const DEAL_TABS = [
   { segment: "", label: "Household" },
   { segment: "energy", label: "Energy" },
   { segment: "design", label: "Design" },
+  { segment: "offers", label: "Offers" },
   { segment: "timeline", label: "Timeline" },
 ] as const;

@@ -40,7 +40,7 @@ test("bad files get a clear message each, and nothing is kept", async ({ page })
   await upload(page, "huge.pdf", "application/pdf", big);
   await expect(alertOf(page)).toContainText("bill files up to 10 MB");
 
-  await expect(page.getByRole("heading", { name: "Files" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Files", exact: true })).toBeVisible();
   await expect(page.getByTestId("upload-list")).toHaveCount(0);
 });
 

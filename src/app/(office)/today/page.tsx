@@ -5,6 +5,7 @@ import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
 import { formatCents, formatKwFromWatts } from "@/lib/format";
 import { countDealsByStage, listDeals } from "@/server/deals";
+import { listPendingDiscountRequests } from "@/server/offers";
 import { listPendingInvitations } from "@/server/people";
 import { getMember } from "@/server/session";
 
@@ -30,11 +31,13 @@ export default async function TodayPage() {
     );
   }
 
-  const [counts, deals, invitations] = await Promise.all([
+  const [counts, deals, invitations, discounts] = await Promise.all([
     countDealsByStage(member),
     listDeals(member),
     can(member.role, "people:read") ? listPendingInvitations(member.companyId) : Promise.resolve([]),
+    listPendingDiscountRequests(member),
   ]);
+  const approver = can(member.role, "discounts:approve");
   const scope = can(member.role, "deals:read-all") ? "The company's deals" : "Your deals";
   const open = deals.filter((d) => !["live", "lost", "cancelled"].includes(d.stage));
   const pipelineCents = open.reduce((sum, d) => sum + (d.contractCents ?? 0), 0);
@@ -46,6 +49,28 @@ export default async function TodayPage() {
         {scope}: <span className="figure">{open.length}</span> open, worth <span className="figure">{formatCents(pipelineCents)}</span> in
         signed and priced contracts.
       </p>
+      {discounts.length > 0 ? (
+        <section className="card mt-6 border-caution/40 p-5" aria-labelledby="discounts-heading">
+          <h2 id="discounts-heading" className="font-semibold">
+            {approver ? "Discounts waiting for your decision" : "Your discounts waiting for the office"}
+          </h2>
+          <ul className="mt-2 divide-y divide-paper-line" data-testid="pending-discounts">
+            {discounts.map((d) => (
+              <li key={d.id} className="flex flex-wrap items-center justify-between gap-2 py-2">
+                <span>
+                  <Link href={`/deals/${d.dealId}/offers`} className="font-medium underline-offset-2 hover:text-copper hover:underline">
+                    {d.householdName}
+                  </Link>
+                  <span className="block text-sm text-graphite-soft">
+                    {d.offerName} · asked by {d.requestedByName ?? "a former colleague"}: “{d.reason}”
+                  </span>
+                </span>
+                <span className="figure">{formatCents(d.amountCents)}</span>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
       <section className="mt-6" aria-labelledby="stages-heading">
         <h2 id="stages-heading" className="text-sm font-semibold uppercase tracking-wide text-graphite-soft">
           By stage
