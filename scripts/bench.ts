@@ -6,7 +6,7 @@
  * best reported. The machine's load is printed with the figures: other work on the same host
  * slows every case.
  */
-import { existsSync, writeFileSync } from "node:fs";
+import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { denverAccuracy, cases as productionCases, sunAccuracyVsAstronomyEngine } from "./bench/production";
@@ -122,7 +122,10 @@ async function main(): Promise<void> {
     "  a core does not inflate.",
     "",
   ].join("\n");
-  writeFileSync(root + "docs/benchmarks.md", md);
+  // Keep the browser figures written by `npm run bench:deal-room` (scripts/bench/deal-room.ts).
+  const previous = existsSync(root + "docs/benchmarks.md") ? readFileSync(root + "docs/benchmarks.md", "utf8") : "";
+  const kept = previous.match(/<!-- deal-room:start -->[\s\S]*<!-- deal-room:end -->/)?.[0];
+  writeFileSync(root + "docs/benchmarks.md", kept ? `${md.trimEnd()}\n\n${kept}\n` : md);
   console.log("wrote docs/benchmarks.md");
 }
 
