@@ -56,15 +56,17 @@ const walls: number[] = [];
 const engine: number[] = [];
 for (let i = 0; i < EDITS; i++) {
   const before = await annual.textContent();
-  const value = String(15 + ((i * 7) % 25));
+  const current = await tilt.inputValue();
+  let value = String(15 + ((i * 7) % 25));
+  if (value === current) value = String(Number(value) + 1);
   const t0 = Date.now();
   await tilt.fill(value);
-  await page.waitForFunction(
-    (prev) => document.querySelector('[data-testid="annual-kwh"]')?.textContent !== prev,
-    before,
-    { timeout: 10_000, polling: "raf" },
-  ).catch(() => undefined);
-  walls.push(Date.now() - t0);
+  const changed = await page
+    .waitForFunction((prev) => document.querySelector('[data-testid="annual-kwh"]')?.textContent !== prev, before, { timeout: 10_000, polling: "raf" })
+    .then(() => true)
+    .catch(() => false);
+  // An edit whose rounded annual figure happens not to change cannot be timed this way.
+  if (changed) walls.push(Date.now() - t0);
   const text = (await page.getByText(/computed in [\d.,]+ ms/).first().textContent()) ?? "";
   const ms = Number(text.match(/computed in ([\d.,]+) ms/)?.[1]?.replaceAll(",", ""));
   if (Number.isFinite(ms)) engine.push(ms);

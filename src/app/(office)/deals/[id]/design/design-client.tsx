@@ -147,8 +147,13 @@ function issuesByPath(doc: DesignDocumentInput): Record<string, string> {
   return out;
 }
 
-export function DesignClient({ dealId, canEdit }: { dealId: string; canEdit: boolean }) {
-  const inputsQuery = useQuery({ queryKey: ["design-inputs", dealId], queryFn: () => api<DesignInputs>(`/api/deals/${dealId}/design-inputs`), staleTime: Infinity });
+export function DesignClient({ dealId, canEdit, initialInputs }: { dealId: string; canEdit: boolean; initialInputs?: DesignInputs }) {
+  const inputsQuery = useQuery({
+    queryKey: ["design-inputs", dealId],
+    queryFn: () => api<DesignInputs>(`/api/deals/${dealId}/design-inputs`),
+    initialData: initialInputs,
+    staleTime: Infinity,
+  });
   if (inputsQuery.isPending) return <p role="status" className="text-graphite-soft">Loading the design…</p>;
   if (inputsQuery.isError) return <FormMessage tone="error">{inputsQuery.error.message}</FormMessage>;
   const inputs = inputsQuery.data;
