@@ -185,3 +185,29 @@ export async function listRatePlanOptions(member: Member) {
     .where(and(eq(ratePlan.companyId, member.companyId), eq(ratePlan.active, true)))
     .orderBy(ratePlan.utilityName, ratePlan.name);
 }
+
+/** Changes the deal's utility and rate plan (the plan must be one of the company's). */
+export async function updateDealUtility(member: Member, dealId: string, input: { utilityName: string | null; ratePlanId: string | null }) {
+  await getDealOrThrow(member, dealId);
+  if (input.ratePlanId) {
+    const [plan] = await db()
+      .select({ id: ratePlan.id })
+      .from(ratePlan)
+      .where(and(eq(ratePlan.id, input.ratePlanId), eq(ratePlan.companyId, member.companyId)))
+      .limit(1);
+    if (!plan) throw new HttpError(422, "validation_failed", "ratePlanId: Pick a rate plan from the list", { ratePlanId: ["Pick a rate plan from the list"] });
+  }
+  await db().transaction(async (tx) => {
+    await tx
+      .update(deal)
+      .set({ utilityName: input.utilityName, ratePlanId: input.ratePlanId })
+      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)));
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId,
+      kind: "deal.utility_changed",
+      summary: `${member.name} set the utility and rate plan`,
+      actorUserId: member.userId,
+    });
+  });
+}

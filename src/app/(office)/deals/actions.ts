@@ -2,8 +2,9 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { householdSchema, leadSchema } from "@/lib/schemas/deal";
+import { dealUtilitySchema } from "@/lib/schemas/deal-settings";
 import { memberAction } from "@/server/action";
-import { createLead, updateHousehold } from "@/server/deals";
+import { createLead, updateDealUtility, updateHousehold } from "@/server/deals";
 
 export const createLeadAction = memberAction("deals:write", leadSchema, async (input, member) => {
   const created = await createLead(member, input);
@@ -16,6 +17,16 @@ export const updateHouseholdAction = memberAction(
   z.object({ dealId: z.uuid(), household: householdSchema }),
   async ({ dealId, household }, member) => {
     await updateHousehold(member, dealId, household);
+    revalidatePath(`/deals/${dealId}`);
+    return { dealId };
+  },
+);
+
+export const updateDealUtilityAction = memberAction(
+  "deals:write",
+  z.object({ dealId: z.uuid(), utility: dealUtilitySchema }),
+  async ({ dealId, utility }, member) => {
+    await updateDealUtility(member, dealId, utility);
     revalidatePath(`/deals/${dealId}`);
     return { dealId };
   },

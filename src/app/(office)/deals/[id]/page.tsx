@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
 import { can } from "@/lib/permissions";
-import { getDealRoom } from "@/server/deals";
+import { getDealRoom, listRatePlanOptions } from "@/server/deals";
 import { getMember } from "@/server/session";
 import { HouseholdForm } from "./household-form";
+import { UtilityForm } from "./utility-form";
 
 export const metadata: Metadata = { title: "Household" };
 
@@ -10,12 +11,13 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
   const { id } = await params;
   const member = await getMember();
   if (!member) return null;
-  const { household, deal } = await getDealRoom(member, id);
+  const [{ household, deal }, plans] = await Promise.all([getDealRoom(member, id), listRatePlanOptions(member)]);
+  const readOnly = !can(member.role, "deals:write");
   return (
     <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
       <HouseholdForm
         dealId={id}
-        readOnly={!can(member.role, "deals:write")}
+        readOnly={readOnly}
         defaults={{
           name: household.name,
           contactName: household.contactName ?? "",
@@ -39,13 +41,12 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
           <dd>{deal.ownerName ?? "—"}</dd>
           <dt className="text-graphite-soft">Source</dt>
           <dd>{deal.source ?? "—"}</dd>
-          <dt className="text-graphite-soft">Utility</dt>
-          <dd>{deal.utilityName ?? "—"}</dd>
           <dt className="text-graphite-soft">Coordinates</dt>
           <dd className="figure">
             {household.latitude.toFixed(4)}, {household.longitude.toFixed(4)}
           </dd>
         </dl>
+        <UtilityForm dealId={id} utilityName={deal.utilityName ?? ""} ratePlanId={deal.ratePlanId ?? ""} plans={plans} readOnly={readOnly} />
       </aside>
     </div>
   );
