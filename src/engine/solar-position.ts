@@ -11,6 +11,10 @@
  *    midnights) and interpolated (4-point Lagrange) to each hour. The fast, site-dependent part
  *    (sidereal time, hour angle, parallax, refraction: eqs 12–16, 31–47) is evaluated exactly for
  *    each hour. The interpolation error is below 1e-4° (checked in solar-position.test.ts).
+ *    Speed without approximation beyond that: the nodes' periodic terms are advanced from node to
+ *    node by rotation (angle-addition identities) rather than a cosine each, the nutation terms
+ *    are built from multiple angles of their five arguments, and within each day the hour angle's
+ *    cosine and sine are carried along its (nearly linear) course by rotation.
  *
  * Angles in degrees; azimuth measured eastward from north (SPA's Φ, eq 46).
  */
@@ -157,34 +161,44 @@ function geocentric(jd: number, deltaTSeconds: number): Geocentric {
   const jde = jd + deltaTSeconds / 86400; // eq 5
   const jce = (jde - 2451545) / 36525; // eq 6
   const jme = jce / 10; // eq 7
-
-  const lDeg = mod360(earthSeries(L_TABLES, jme) * R2D); // eq 9–10
-  const bDeg = earthSeries(B_TABLES, jme) * R2D; // eq 11 (latitude)
-  const r = earthSeries(R_TABLES, jme); // eq 11 (radius)
-
-  const thetaDeg = mod360(lDeg + 180); // geocentric longitude, eq 13
-  const betaDeg = -bDeg; // geocentric latitude, eq 14
-
-  // Nutation (eqs 15–23)
-  const jce2 = jce * jce;
-  const jce3 = jce2 * jce;
-  const x0 = 297.85036 + 445267.11148 * jce - 0.0019142 * jce2 + jce3 / 189474;
-  const x1 = 357.52772 + 35999.05034 * jce - 0.0001603 * jce2 - jce3 / 300000;
-  const x2 = 134.96298 + 477198.867398 * jce + 0.0086972 * jce2 + jce3 / 56250;
-  const x3 = 93.27191 + 483202.017538 * jce - 0.0036825 * jce2 + jce3 / 327270;
-  const x4 = 125.04452 - 1934.136261 * jce + 0.0020708 * jce2 + jce3 / 450000;
+  const x = nutationArguments(jce);
   let dPsi = 0;
   let dEps = 0;
   for (let i = 0; i < 63; i++) {
     const y = i * 5;
-    const arg =
-      (x0 * NUT_Y_FLAT[y] + x1 * NUT_Y_FLAT[y + 1] + x2 * NUT_Y_FLAT[y + 2] + x3 * NUT_Y_FLAT[y + 3] + x4 * NUT_Y_FLAT[y + 4]) * D2R;
+    const arg = (x[0] * NUT_Y_FLAT[y] + x[1] * NUT_Y_FLAT[y + 1] + x[2] * NUT_Y_FLAT[y + 2] + x[3] * NUT_Y_FLAT[y + 3] + x[4] * NUT_Y_FLAT[y + 4]) * D2R;
     const c = i * 4;
     dPsi += (NUT_ABCD_FLAT[c] + NUT_ABCD_FLAT[c + 1] * jce) * Math.sin(arg);
     dEps += (NUT_ABCD_FLAT[c + 2] + NUT_ABCD_FLAT[c + 3] * jce) * Math.cos(arg);
   }
-  dPsi /= 36_000_000; // eq 22, degrees
-  dEps /= 36_000_000; // eq 23, degrees
+  // eq 9–11: L, B, R
+  return finishGeocentric(jce, jme, earthSeries(L_TABLES, jme), earthSeries(B_TABLES, jme), earthSeries(R_TABLES, jme), dPsi, dEps);
+}
+
+/** Nutation arguments X0…X4 of eqs 15–19 (mean elongation of the Moon, anomalies of Sun and Moon, Moon's argument of latitude, ascending node), degrees. */
+const nutX = new Float64Array(5);
+function nutationArguments(jce: number): Float64Array {
+  const jce2 = jce * jce;
+  const jce3 = jce2 * jce;
+  nutX[0] = 297.85036 + 445267.11148 * jce - 0.0019142 * jce2 + jce3 / 189474;
+  nutX[1] = 357.52772 + 35999.05034 * jce - 0.0001603 * jce2 - jce3 / 300000;
+  nutX[2] = 134.96298 + 477198.867398 * jce + 0.0086972 * jce2 + jce3 / 56250;
+  nutX[3] = 93.27191 + 483202.017538 * jce - 0.0036825 * jce2 + jce3 / 327270;
+  nutX[4] = 125.04452 - 1934.136261 * jce + 0.0020708 * jce2 + jce3 / 450000;
+  return nutX;
+}
+
+/**
+ * Eqs 13–30 from the Earth series (L, B in radians; R in AU) and the nutation sums
+ * Σ(a + b·JCE)·sin(arg), Σ(c + d·JCE)·cos(arg) in units of 0.0001″.
+ */
+function finishGeocentric(jce: number, jme: number, lRad: number, bRad: number, r: number, dPsiSum: number, dEpsSum: number): Geocentric {
+  const lDeg = mod360(lRad * R2D); // eq 9–10
+  const bDeg = bRad * R2D; // eq 11 (latitude)
+  const thetaDeg = mod360(lDeg + 180); // geocentric longitude, eq 13
+  const betaDeg = -bDeg; // geocentric latitude, eq 14
+  const dPsi = dPsiSum / 36_000_000; // eq 22, degrees
+  const dEps = dEpsSum / 36_000_000; // eq 23, degrees
 
   // True obliquity of the ecliptic (eqs 24–25)
   const u = jme / 10;
@@ -203,6 +217,102 @@ function geocentric(jd: number, deltaTSeconds: number): Geocentric {
   const sinDelta = Math.sin(beta) * Math.cos(eps) + Math.cos(beta) * Math.sin(eps) * Math.sin(lambda); // eq 29
 
   return { alphaDeg, sinDelta, cosDelta: Math.sqrt(1 - sinDelta * sinDelta), nutationRaCorrDeg: dPsi * Math.cos(eps), radiusAu: r };
+}
+
+/**
+ * eqs 9–11 at the equally spaced instants JME = jme0 + k·h (k = 0…count−1), into `out`. Each
+ * term's cos(B + C·JME) advances by a fixed angle C·h from one instant to the next, so it is
+ * carried forward by rotation — cos(x + d) = cos x·cos d − sin x·sin d, sin(x + d) = sin x·cos d +
+ * cos x·sin d (angle-addition identities) — instead of a cosine per term and instant. Rounding
+ * grows by about one unit in the last place per step: below 1e-13 of each term over a year.
+ */
+function earthSeriesAtSteps(tables: Float64Array[], jme0: number, h: number, count: number, out: Float64Array, sum: Float64Array): void {
+  out.fill(0);
+  for (let t = 0; t < tables.length; t++) {
+    const table = tables[t];
+    sum.fill(0);
+    for (let k = 0; k < table.length; k += 3) {
+      const a = table[k];
+      const c = table[k + 2];
+      if (c === 0) {
+        const v = a * Math.cos(table[k + 1]);
+        for (let n = 0; n < count; n++) sum[n] += v;
+        continue;
+      }
+      const x0 = table[k + 1] + c * jme0;
+      let co = Math.cos(x0);
+      let si = Math.sin(x0);
+      const cd = Math.cos(c * h);
+      const sd = Math.sin(c * h);
+      for (let n = 0; n < count; n++) {
+        sum[n] += a * co;
+        const co2 = co * cd - si * sd;
+        si = si * cd + co * sd;
+        co = co2;
+      }
+    }
+    // Σ_t sum_t·JME^t (eq 10), as earthSeries does
+    for (let n = 0; n < count; n++) {
+      const jme = jme0 + n * h;
+      let p = 1;
+      for (let e = 0; e < t; e++) p *= jme;
+      out[n] += sum[n] * p;
+    }
+  }
+  for (let n = 0; n < count; n++) out[n] /= 1e8;
+}
+
+/**
+ * The nutation sums of eqs 20–21 without a sine and cosine per term: each argument is an integer
+ * combination Σ Y_j·X_j with |Y_j| ≤ 3, so its cosine and sine are products of cos/sin(m·X_j),
+ * m = −2…3, built from cos/sin X_j by the double-angle and angle-addition identities.
+ */
+const NUT_MULT = new Float64Array(2 * 5 * 6); // [cos, sin] of m·X_j at ((j·6) + m + 2)·2
+function nutationSums(jce: number, out: { dPsi: number; dEps: number }): void {
+  const x = nutationArguments(jce);
+  const t = NUT_MULT;
+  for (let j = 0; j < 5; j++) {
+    const a = x[j] * D2R;
+    const c1 = Math.cos(a);
+    const s1 = Math.sin(a);
+    const c2 = c1 * c1 - s1 * s1;
+    const s2 = 2 * s1 * c1;
+    const b = j * 12;
+    t[b] = c2; // m = −2
+    t[b + 1] = -s2;
+    t[b + 2] = c1; // m = −1
+    t[b + 3] = -s1;
+    t[b + 4] = 1; // m = 0
+    t[b + 5] = 0;
+    t[b + 6] = c1; // m = 1
+    t[b + 7] = s1;
+    t[b + 8] = c2; // m = 2
+    t[b + 9] = s2;
+    t[b + 10] = c2 * c1 - s2 * s1; // m = 3
+    t[b + 11] = s2 * c1 + c2 * s1;
+  }
+  let dPsi = 0;
+  let dEps = 0;
+  for (let i = 0; i < 63; i++) {
+    const y = i * 5;
+    let co = 1;
+    let si = 0;
+    for (let j = 0; j < 5; j++) {
+      const m = NUT_Y_FLAT[y + j];
+      if (m === 0) continue;
+      const q = j * 12 + (m + 2) * 2;
+      const cm = t[q];
+      const sm = t[q + 1];
+      const co2 = co * cm - si * sm;
+      si = si * cm + co * sm;
+      co = co2;
+    }
+    const c = i * 4;
+    dPsi += (NUT_ABCD_FLAT[c] + NUT_ABCD_FLAT[c + 1] * jce) * si;
+    dEps += (NUT_ABCD_FLAT[c + 2] + NUT_ABCD_FLAT[c + 3] * jce) * co;
+  }
+  out.dPsi = dPsi;
+  out.dEps = dEps;
 }
 
 /** Mean sidereal time at Greenwich, eq 12 (degrees, unreduced). */
@@ -263,18 +373,21 @@ export type SunAngles = {
 /** Site-dependent part of SPA: hour angle, parallax, elevation, refraction, azimuth (eqs 31–46). */
 function topocentric(g: Geocentric, nuDeg: number, s: SiteTerms, out: SunAngles): void {
   const H = (nuDeg + s.lonDeg - g.alphaDeg) * D2R; // local hour angle, eq 32 (periodic, no reduction needed)
+  topocentricFromHourAngle(Math.cos(H), Math.sin(H), g.sinDelta, g.cosDelta, g.radiusAu, s, out);
+}
+
+/** eqs 33–46 from the cosine and sine of the local hour angle H and the geocentric δ and R. */
+function topocentricFromHourAngle(cosH: number, sinH: number, sinDelta: number, cosDelta: number, radiusAu: number, s: SiteTerms, out: SunAngles): void {
   // Equatorial horizontal parallax, eq 33. ξ < 2.5e-6 rad, so sin ξ = ξ to double precision.
-  const sinXi = (8.794 / (3600 * g.radiusAu)) * D2R;
-  const cosH = Math.cos(H);
-  const sinH = Math.sin(H);
-  const den = g.cosDelta - s.x * sinXi * cosH;
+  const sinXi = (8.794 / (3600 * radiusAu)) * D2R;
+  const den = cosDelta - s.x * sinXi * cosH;
   // Δα, eq 38, is below 3e-6 rad: atan, sin and cos of it by their series (exact at double precision).
   const t = (-s.x * sinXi * sinH) / den;
   const dAlpha = t - (t * t * t) / 3;
   const cosDA = 1 - (dAlpha * dAlpha) / 2;
   const sinDA = dAlpha;
   // δ' = atan2(num, den), eq 39: its sine and cosine straight from the two arguments (den > 0).
-  const num = (g.sinDelta - s.y * sinXi) * cosDA;
+  const num = (sinDelta - s.y * sinXi) * cosDA;
   const r = Math.sqrt(num * num + den * den);
   const sinDeltaP = num / r;
   const cosDeltaP = den / r;
@@ -286,20 +399,28 @@ function topocentric(g: Geocentric, nuDeg: number, s: SiteTerms, out: SunAngles)
   else if (sinE0 < -1) sinE0 = -1;
   const e0 = Math.asin(sinE0) * R2D;
   let dE = 0;
+  let sinE = sinE0;
   if (s.refraction && e0 >= s.minElevationForRefractionDeg) {
     dE = (s.refractionFactor * 1.02) / (60 * Math.tan((e0 + 10.3 / (e0 + 5.11)) * D2R)); // eq 42
+    // sin(e0 + ΔE) by the angle-addition identity; ΔE < 0.012 rad, so its sine and cosine by
+    // Taylor series to the 5th/4th power are exact at double precision (next terms < 1e-17).
+    const d = dE * D2R;
+    const d2 = d * d;
+    const sinD = d * (1 - (d2 / 6) * (1 - d2 / 20));
+    const cosD = 1 - (d2 / 2) * (1 - d2 / 12);
+    sinE = sinE0 * cosD + Math.sqrt(1 - sinE0 * sinE0) * sinD;
   }
   const e = e0 + dE; // eq 43
   const gy = sinHp;
   const gx = cosHp * s.sinLat - (sinDeltaP / cosDeltaP) * s.cosLat;
-  const gamma = Math.atan2(gy, gx) * R2D; // eq 45
+  const gamma = Math.atan2(gy, gx) * R2D; // eq 45, Γ in [−180°, 180°]
   out.zenithDeg = 90 - e; // eq 44
   out.airlessZenithDeg = 90 - e0;
   out.elevationDeg = e;
-  out.azimuthDeg = mod360(gamma + 180); // eq 46
-  out.earthSunDistanceAu = g.radiusAu;
+  const az = gamma + 180; // eq 46, in [0°, 360°]
+  out.azimuthDeg = az >= 360 ? az - 360 : az;
+  out.earthSunDistanceAu = radiusAu;
   // Unit vector for the transposition loops, without further trig for the azimuth: Φ = Γ + 180°.
-  const sinE = Math.sin(e * D2R);
   const sinZ = Math.sqrt(1 - sinE * sinE);
   const gr = Math.sqrt(gx * gx + gy * gy);
   out.cosZenith = sinE;
@@ -392,19 +513,39 @@ export const GEOCENTRIC_NODE_SPACING_DAYS = 3;
  * 4-point Lagrange polynomial; the sidereal time and the topocentric terms are exact.
  */
 export function createSunEvaluator(site: SiteOptions, startMs: number, endMs: number): (ms: number, out: SunAngles) => void {
-  const s = resolveSite(site);
-  const terms = siteTerms(s);
+  return evaluatorFor(sunNodes(resolveSite(site), startMs, endMs));
+}
+
+/** The geocentric nodes of a time span and the site constants (see createSunEvaluator). */
+type SunNodes = {
+  terms: SiteTerms;
+  jd0: number;
+  step: number;
+  nodes: number;
+  alpha: Float64Array;
+  sinD: Float64Array;
+  cosD: Float64Array;
+  nutCorr: Float64Array;
+  radius: Float64Array;
+};
+
+function sunNodes(s: Required<SiteOptions>, startMs: number, endMs: number): SunNodes {
   const step = GEOCENTRIC_NODE_SPACING_DAYS;
   const jd0 = Math.floor(julianDayFromUnixMs(startMs) - 0.5) + 0.5 - step; // a UT midnight one node before the start
   const nodes = Math.ceil((julianDayFromUnixMs(endMs) - jd0) / step) + 3;
-  const alpha = new Float64Array(nodes);
-  const sinD = new Float64Array(nodes);
-  const cosD = new Float64Array(nodes);
-  const nutCorr = new Float64Array(nodes);
-  const radius = new Float64Array(nodes);
+  const [alpha, sinD, cosD, nutCorr, radius, work, lNodes, bNodes, rNodes] = columns(9, nodes);
+  // eqs 9–11 at every node in one pass (JME advances by a fixed step), then eqs 13–30 per node
+  const jme0 = (jd0 + s.deltaTSeconds / 86400 - 2451545) / 365250;
+  const jmeStep = step / 365250;
+  earthSeriesAtSteps(L_TABLES, jme0, jmeStep, nodes, lNodes, work);
+  earthSeriesAtSteps(B_TABLES, jme0, jmeStep, nodes, bNodes, work);
+  earthSeriesAtSteps(R_TABLES, jme0, jmeStep, nodes, rNodes, work);
+  const nut = { dPsi: 0, dEps: 0 };
   let prevAlpha = 0;
   for (let k = 0; k < nodes; k++) {
-    const g = geocentric(jd0 + k * step, s.deltaTSeconds);
+    const jce = (jd0 + k * step + s.deltaTSeconds / 86400 - 2451545) / 36525;
+    nutationSums(jce, nut);
+    const g = finishGeocentric(jce, jce / 10, lNodes[k], bNodes[k], rNodes[k], nut.dPsi, nut.dEps);
     // unwrap right ascension so it is continuous for interpolation
     let a = g.alphaDeg;
     if (k > 0) {
@@ -418,27 +559,97 @@ export function createSunEvaluator(site: SiteOptions, startMs: number, endMs: nu
     nutCorr[k] = g.nutationRaCorrDeg;
     radius[k] = g.radiusAu;
   }
+  return { terms: siteTerms(s), jd0, step, nodes, alpha, sinD, cosD, nutCorr, radius };
+}
+
+/** `count` columns of `length` numbers carved from one buffer. */
+function columns(count: number, length: number): Float64Array[] {
+  const buf = new Float64Array(count * length);
+  return Array.from({ length: count }, (_, k) => buf.subarray(k * length, (k + 1) * length));
+}
+
+/** The geocentric terms at Julian Day `jd`, 4-point Lagrange interpolation between the nodes, into `g`. */
+function interpolateGeocentric(n: SunNodes, jd: number, g: Geocentric): void {
+  const { alpha, sinD, cosD, nutCorr, radius } = n;
+  const t = (jd - n.jd0) / n.step;
+  let i = Math.floor(t);
+  if (i < 1) i = 1;
+  if (i > n.nodes - 3) i = n.nodes - 3;
+  const f = t - i; // nodes at i-1, i, i+1, i+2; f in [0, 1) normally
+  // Lagrange weights for nodes at −1, 0, 1, 2
+  const wm1 = (-f * (f - 1) * (f - 2)) / 6;
+  const w0 = ((f + 1) * (f - 1) * (f - 2)) / 2;
+  const w1 = (-(f + 1) * f * (f - 2)) / 2;
+  const w2 = ((f + 1) * f * (f - 1)) / 6;
+  g.alphaDeg = wm1 * alpha[i - 1] + w0 * alpha[i] + w1 * alpha[i + 1] + w2 * alpha[i + 2];
+  // sin δ and cos δ interpolated directly (smooth like δ itself), saving two trig calls per hour
+  g.sinDelta = wm1 * sinD[i - 1] + w0 * sinD[i] + w1 * sinD[i + 1] + w2 * sinD[i + 2];
+  g.cosDelta = wm1 * cosD[i - 1] + w0 * cosD[i] + w1 * cosD[i + 1] + w2 * cosD[i + 2];
+  g.nutationRaCorrDeg = wm1 * nutCorr[i - 1] + w0 * nutCorr[i] + w1 * nutCorr[i + 1] + w2 * nutCorr[i + 2];
+  g.radiusAu = wm1 * radius[i - 1] + w0 * radius[i] + w1 * radius[i + 1] + w2 * radius[i + 2];
+}
+
+function evaluatorFor(n: SunNodes): (ms: number, out: SunAngles) => void {
   const g: Geocentric = { alphaDeg: 0, sinDelta: 0, cosDelta: 1, nutationRaCorrDeg: 0, radiusAu: 1 };
   return (ms: number, out: SunAngles) => {
     const jd = julianDayFromUnixMs(ms);
-    const t = (jd - jd0) / step;
-    let i = Math.floor(t);
-    if (i < 1) i = 1;
-    if (i > nodes - 3) i = nodes - 3;
-    const f = t - i; // nodes at i-1, i, i+1, i+2; f in [0, 1) normally
-    // Lagrange weights for nodes at −1, 0, 1, 2
-    const wm1 = (-f * (f - 1) * (f - 2)) / 6;
-    const w0 = ((f + 1) * (f - 1) * (f - 2)) / 2;
-    const w1 = (-(f + 1) * f * (f - 2)) / 2;
-    const w2 = ((f + 1) * f * (f - 1)) / 6;
-    g.alphaDeg = wm1 * alpha[i - 1] + w0 * alpha[i] + w1 * alpha[i + 1] + w2 * alpha[i + 2];
-    // sin δ and cos δ interpolated directly (smooth like δ itself), saving two trig calls per hour
-    g.sinDelta = wm1 * sinD[i - 1] + w0 * sinD[i] + w1 * sinD[i + 1] + w2 * sinD[i + 2];
-    g.cosDelta = wm1 * cosD[i - 1] + w0 * cosD[i] + w1 * cosD[i + 1] + w2 * cosD[i + 2];
-    g.nutationRaCorrDeg = wm1 * nutCorr[i - 1] + w0 * nutCorr[i] + w1 * nutCorr[i + 1] + w2 * nutCorr[i + 2];
-    g.radiusAu = wm1 * radius[i - 1] + w0 * radius[i] + w1 * radius[i + 1] + w2 * radius[i + 2];
-    topocentric(g, meanSiderealDeg(jd) + g.nutationRaCorrDeg, terms, out);
+    interpolateGeocentric(n, jd, g);
+    topocentric(g, meanSiderealDeg(jd) + g.nutationRaCorrDeg, n.terms, out);
   };
+}
+
+const HOURS_PER_DAY = 24;
+
+/**
+ * Sun positions at `count` instants one hour apart from `firstMs`, the same values as the
+ * evaluator gives one by one, into the columns of `out` (from index 0). The hour angle H
+ * (eq 32) is nearly linear in time over a day — the sidereal time is, and the sun's right
+ * ascension curves by under 0.001° from its chord in 24 hours — so for each run of 24 hours
+ * cos H and sin H are carried by rotation along the chord (angle-addition identities, two trig
+ * calls per day instead of 48) and corrected by the small departure δ from it: cos δ = 1 − δ²/2,
+ * sin δ = δ − δ³/6 (Taylor series; |δ| < 2e-5 rad, so the dropped terms are below 1e-20).
+ */
+function fillHourly(n: SunNodes, firstMs: number, count: number, out: SunPositionsYear): void {
+  const terms = n.terms;
+  const g: Geocentric = { alphaDeg: 0, sinDelta: 0, cosDelta: 1, nutationRaCorrDeg: 0, radiusAu: 1 };
+  const [hDeg, sinDelta, cosDelta, radius] = columns(4, HOURS_PER_DAY);
+  const a = newSunAngles();
+  const { zenithDeg, airlessZenithDeg, azimuthDeg, earthSunDistanceAu, cosZenith, sinZenithCosAz, sinZenithSinAz } = out;
+  for (let d0 = 0; d0 < count; d0 += HOURS_PER_DAY) {
+    const m = Math.min(HOURS_PER_DAY, count - d0);
+    for (let k = 0; k < m; k++) {
+      const jd = julianDayFromUnixMs(firstMs + (d0 + k) * MS_PER_HOUR);
+      interpolateGeocentric(n, jd, g);
+      hDeg[k] = meanSiderealDeg(jd) + g.nutationRaCorrDeg + terms.lonDeg - g.alphaDeg; // eq 32, as in topocentric()
+      sinDelta[k] = g.sinDelta;
+      cosDelta[k] = g.cosDelta;
+      radius[k] = g.radiusAu;
+    }
+    const h0 = hDeg[0];
+    const stepDeg = m > 1 ? (hDeg[m - 1] - h0) / (m - 1) : 0;
+    let c = Math.cos(h0 * D2R);
+    let sn = Math.sin(h0 * D2R);
+    const cStep = Math.cos(stepDeg * D2R);
+    const sStep = Math.sin(stepDeg * D2R);
+    for (let k = 0; k < m; k++) {
+      const dl = (hDeg[k] - h0 - k * stepDeg) * D2R; // departure from the chord, rad
+      const dl2 = dl * dl;
+      const cosDl = 1 - dl2 / 2;
+      const sinDl = dl * (1 - dl2 / 6);
+      topocentricFromHourAngle(c * cosDl - sn * sinDl, sn * cosDl + c * sinDl, sinDelta[k], cosDelta[k], radius[k], terms, a);
+      const i = d0 + k;
+      zenithDeg[i] = a.zenithDeg;
+      airlessZenithDeg[i] = a.airlessZenithDeg;
+      azimuthDeg[i] = a.azimuthDeg;
+      earthSunDistanceAu[i] = a.earthSunDistanceAu;
+      cosZenith[i] = a.cosZenith;
+      sinZenithCosAz[i] = a.sinZenithCosAz;
+      sinZenithSinAz[i] = a.sinZenithSinAz;
+      const c2 = c * cStep - sn * sStep;
+      sn = sn * cStep + c * sStep;
+      c = c2;
+    }
+  }
 }
 
 /** Sun positions for the 8760 hours of a typical weather year (see `sunPositionsForYear`). */
@@ -513,8 +724,8 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
   }
   const offsetMs = s.utcOffsetHours * MS_PER_HOUR;
   const yearStartMs = Date.UTC(year, 0, 1) - offsetMs;
-  const evaluate = createSunEvaluator(
-    {
+  const nodes = sunNodes(
+    resolveSite({
       latitude: s.latitude,
       longitude: s.longitude,
       elevationM: s.elevationM,
@@ -522,7 +733,7 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
       refraction: options.refraction,
       pressureMbar: options.pressureMbar,
       temperatureC: options.temperatureC,
-    },
+    }),
     yearStartMs - MS_PER_HOUR,
     yearStartMs + (HOURS_PER_YEAR + 1) * MS_PER_HOUR,
   );
@@ -542,32 +753,40 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
     sinZenithSinAz: col(7),
     year,
   };
+  // Every hour at its middle first; then the sunrise and sunset hours re-evaluated one by one.
+  fillHourly(nodes, yearStartMs + MS_PER_HOUR / 2, n, out);
+  for (let i = 0; i < n; i++) out.evaluatedAtLocalHour[i] = (i % 24) + 0.5;
+  if (!(options.sunUpMidpoint ?? true)) return out;
+  const evaluate = evaluatorFor(nodes);
   const a = newSunAngles();
-  const b = newSunAngles();
-  const c = newSunAngles();
-  const sunUpMid = options.sunUpMidpoint ?? true;
+  let b = newSunAngles();
+  let c = newSunAngles();
+  let cAtHour = -1; // the hour whose start `c` holds (the previous guarded hour's end, when adjacent)
   // Near the horizon the sun's elevation changes by at most 15.04°·cos(latitude) per hour (plus
   // refraction's own change, under 1°): hours whose middle is farther from the horizon than half
   // of that cannot contain sunrise or sunset.
   const guardDeg = Math.min(HORIZON_GUARD_DEG, (15.05 * Math.cos(s.latitude * (Math.PI / 180))) / 2 + 1);
   for (let i = 0; i < n; i++) {
+    if (!(Math.abs(90 - out.zenithDeg[i]) < guardDeg)) continue;
     const hourStartMs = yearStartMs + i * MS_PER_HOUR;
-    let evalMs = hourStartMs + MS_PER_HOUR / 2;
+    if (cAtHour !== i) evaluate(hourStartMs, c);
+    evaluate(hourStartMs + MS_PER_HOUR, b);
+    // this hour's end is the next hour's start
+    const t = c;
+    c = b;
+    b = t;
+    cAtHour = i + 1;
+    const eStart = b.elevationDeg;
+    const eEnd = c.elevationDeg;
+    const upStart = eStart > 0;
+    const upEnd = eEnd > 0;
+    if (upStart === upEnd) continue;
+    // Elevation is close to linear in time near the horizon: one secant step places the
+    // crossing within seconds, which is ample for choosing an evaluation instant.
+    const f = eStart / (eStart - eEnd);
+    const crossMs = hourStartMs + f * MS_PER_HOUR;
+    const evalMs = upStart ? (hourStartMs + crossMs) / 2 : (crossMs + hourStartMs + MS_PER_HOUR) / 2;
     evaluate(evalMs, a);
-    if (sunUpMid && Math.abs(a.elevationDeg) < guardDeg) {
-      evaluate(hourStartMs, c);
-      evaluate(hourStartMs + MS_PER_HOUR, b);
-      const upStart = c.elevationDeg > 0;
-      const upEnd = b.elevationDeg > 0;
-      if (upStart !== upEnd) {
-        // Elevation is close to linear in time near the horizon: one secant step places the
-        // crossing within seconds, which is ample for choosing an evaluation instant.
-        const f = c.elevationDeg / (c.elevationDeg - b.elevationDeg);
-        const crossMs = hourStartMs + f * MS_PER_HOUR;
-        evalMs = upStart ? (hourStartMs + crossMs) / 2 : (crossMs + hourStartMs + MS_PER_HOUR) / 2;
-        evaluate(evalMs, a);
-      }
-    }
     out.zenithDeg[i] = a.zenithDeg;
     out.airlessZenithDeg[i] = a.airlessZenithDeg;
     out.azimuthDeg[i] = a.azimuthDeg;
