@@ -1,0 +1,99 @@
+// The deals table's query: paging, sorting and filters, shared by the page, the table route
+// and the CSV export. Query-string values arrive as strings; empty ones mean "not set".
+import { z } from "zod";
+import { STAGES, type Stage } from "@/db/schema";
+
+export const DEAL_TABLE_SORT_COLUMNS = [
+  "household",
+  "city",
+  "stage",
+  "systemDcWatts",
+  "contractCents",
+  "stageChangedAt",
+  "createdAt",
+  "owner",
+  "source",
+] as const;
+export type DealTableSortColumn = (typeof DEAL_TABLE_SORT_COLUMNS)[number];
+
+export const DEAL_TABLE_MAX_PAGE_SIZE = 200;
+export const DEAL_TABLE_DEFAULT_PAGE_SIZE = 50;
+export const DEAL_TABLE_DEFAULT_SORT = "stageChangedAt:desc";
+
+const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+const optional = <S extends z.ZodType>(schema: S) => z.preprocess(blankToUndefined, schema.optional());
+
+const isoDay = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-03-31")
+  .refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), "Not a real date");
+
+export const dealTableFiltersSchema = z
+  .object({
+    sort: z.preprocess(
+      blankToUndefined,
+      z
+        .string()
+        .regex(new RegExp(`^(${DEAL_TABLE_SORT_COLUMNS.join("|")}):(asc|desc)$`), "Sort by one of the table's columns, e.g. contractCents:desc")
+        .default(DEAL_TABLE_DEFAULT_SORT),
+    ),
+    stage: optional(z.enum(STAGES, { message: "Pick a stage from the list" })),
+    owner: optional(z.uuid("Pick an owner from the list")),
+    source: optional(z.string().trim().max(100, "Keep the source under 100 characters")),
+    q: optional(z.string().trim().max(100, "Keep the search under 100 characters")),
+    from: optional(isoDay),
+    to: optional(isoDay),
+  })
+  .refine((v) => !v.from || !v.to || v.from <= v.to, { message: "The start date is after the end date", path: ["to"] });
+
+export const dealTableQuerySchema = z
+  .object({
+    page: z.preprocess(blankToUndefined, z.coerce.number().int("Page is a whole number").min(1, "Pages start at 1").max(1_000_000).default(1)),
+    pageSize: z.preprocess(
+      blankToUndefined,
+      z.coerce
+        .number()
+        .int("Page size is a whole number")
+        .min(1, "Show at least one row")
+        .max(DEAL_TABLE_MAX_PAGE_SIZE, `Show at most ${DEAL_TABLE_MAX_PAGE_SIZE} rows per page`)
+        .default(DEAL_TABLE_DEFAULT_PAGE_SIZE),
+    ),
+  })
+  .and(dealTableFiltersSchema);
+
+export type DealTableFilters = z.output<typeof dealTableFiltersSchema>;
+export type DealTableQuery = z.output<typeof dealTableQuerySchema>;
+
+/** Splits "contractCents:desc" into its column and direction (the value is already validated). */
+export function parseSort(sort: string): { column: DealTableSortColumn; direction: "asc" | "desc" } {
+  const [column, direction] = sort.split(":");
+  return { column: column as DealTableSortColumn, direction: direction === "asc" ? "asc" : "desc" };
+}
+
+/** One row of the table as the route sends it (dates as ISO strings). */
+export type DealTableRow = {
+  id: string;
+  householdName: string;
+  city: string;
+  stage: Stage;
+  systemDcWatts: number | null;
+  contractCents: number | null;
+  stageChangedAt: string;
+  createdAt: string;
+  ownerUserId: string | null;
+  ownerName: string | null;
+  source: string | null;
+};
+
+export type DealTablePage = { rows: DealTableRow[]; total: number; page: number; pageSize: number };
+
+/** Turns a search-params record (URLSearchParams or Next's searchParams) into a plain object. */
+export function searchParamsObject(params: URLSearchParams | Record<string, string | string[] | undefined>): Record<string, string> {
+  const out: Record<string, string> = {};
+  if (params instanceof URLSearchParams) {
+    for (const [k, v] of params) out[k] = v;
+  } else {
+    for (const [k, v] of Object.entries(params)) if (v !== undefined) out[k] = Array.isArray(v) ? (v[0] ?? "") : v;
+  }
+  return out;
+}

@@ -1,0 +1,188 @@
+import "server-only";
+import { and, asc, count, desc, eq, gte, inArray, like, lt, or, type SQL } from "drizzle-orm";
+import type { AnyMySqlColumn } from "drizzle-orm/mysql-core";
+import { deal, household, membership, user } from "@/db/schema";
+import { can } from "@/lib/permissions";
+import { parseSort, type DealTableFilters, type DealTablePage, type DealTableQuery, type DealTableRow, type DealTableSortColumn } from "@/lib/schemas/deal-table";
+import { STAGE_LABELS } from "@/lib/stages";
+import { db } from "@/server/db";
+import type { Member } from "@/server/session";
+
+/** Reps see the deals they own; office roles see the company's (the same rule as listDeals). */
+function visibleTo(member: Member): SQL {
+  const company = eq(deal.companyId, member.companyId);
+  if (can(member.role, "deals:read-all")) return company;
+  return and(company, eq(deal.ownerUserId, member.userId)) as SQL;
+}
+
+const SORT_COLUMNS: Record<DealTableSortColumn, AnyMySqlColumn> = {
+  household: household.name,
+  city: household.city,
+  stage: deal.stage,
+  systemDcWatts: deal.systemDcWatts,
+  contractCents: deal.contractCents,
+  stageChangedAt: deal.stageChangedAt,
+  createdAt: deal.createdAt,
+  owner: user.name,
+  source: deal.source,
+};
+
+const rowColumns = {
+  id: deal.id,
+  householdName: household.name,
+  city: household.city,
+  stage: deal.stage,
+  systemDcWatts: deal.systemDcWatts,
+  contractCents: deal.contractCents,
+  stageChangedAt: deal.stageChangedAt,
+  createdAt: deal.createdAt,
+  ownerUserId: deal.ownerUserId,
+  ownerName: user.name,
+  source: deal.source,
+};
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+function nextDay(isoDay: string): Date {
+  const d = new Date(`${isoDay}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + 1);
+  return d;
+}
+
+/** The WHERE of the table: company and visibility first, then the person's filters. */
+function whereFor(member: Member, f: DealTableFilters): SQL {
+  const parts: SQL[] = [visibleTo(member)];
+  if (f.stage) parts.push(eq(deal.stage, f.stage));
+  if (f.owner) parts.push(eq(deal.ownerUserId, f.owner));
+  if (f.source) parts.push(eq(deal.source, f.source));
+  if (f.from) parts.push(gte(deal.createdAt, new Date(`${f.from}T00:00:00Z`)));
+  if (f.to) parts.push(lt(deal.createdAt, nextDay(f.to)));
+  if (f.q) {
+    const pattern = `%${escapeLike(f.q)}%`;
+    parts.push(or(like(household.name, pattern), like(household.contactName, pattern), like(household.street, pattern), like(household.city, pattern)) as SQL);
+  }
+  return and(...parts) as SQL;
+}
+
+function orderFor(sort: string): SQL[] {
+  const { column, direction } = parseSort(sort);
+  const col = SORT_COLUMNS[column];
+  const dir = direction === "asc" ? asc : desc;
+  // The id breaks ties so that pages never overlap or skip rows.
+  return [dir(col), dir(deal.id)];
+}
+
+function baseSelect() {
+  return db()
+    .select(rowColumns)
+    .from(deal)
+    .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+    .leftJoin(user, eq(user.id, deal.ownerUserId));
+}
+
+type RawRow = Omit<DealTableRow, "stageChangedAt" | "createdAt"> & { stageChangedAt: Date; createdAt: Date };
+const serialize = (r: RawRow): DealTableRow => ({ ...r, stageChangedAt: r.stageChangedAt.toISOString(), createdAt: r.createdAt.toISOString() });
+
+/** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
+export async function dealTablePage(member: Member, query: DealTableQuery): Promise<DealTablePage> {
+  const where = whereFor(member, query);
+  const offset = (query.page - 1) * query.pageSize;
+  const [rows, [{ total }]] = await Promise.all([
+    baseSelect()
+      .where(where)
+      .orderBy(...orderFor(query.sort))
+      .limit(query.pageSize)
+      .offset(offset),
+    db()
+      .select({ total: count() })
+      .from(deal)
+      .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+      .where(where),
+  ]);
+  return { rows: rows.map(serialize), total: Number(total), page: query.page, pageSize: query.pageSize };
+}
+
+export const EXPORT_CHUNK_ROWS = 1_000;
+
+/** Every row of the filtered view, read from the database 1,000 rows at a time. */
+export async function* dealTableChunks(member: Member, filters: DealTableFilters, chunkRows = EXPORT_CHUNK_ROWS): AsyncGenerator<DealTableRow[]> {
+  const where = whereFor(member, filters);
+  const order = orderFor(filters.sort);
+  for (let offset = 0; ; offset += chunkRows) {
+    const rows = await baseSelect()
+      .where(where)
+      .orderBy(...order)
+      .limit(chunkRows)
+      .offset(offset);
+    if (rows.length > 0) yield rows.map(serialize);
+    if (rows.length < chunkRows) return;
+  }
+}
+
+// ── CSV ──
+
+export const CSV_HEADER = ["Household", "City", "Stage", "System kW DC", "Contract USD", "In stage since", "Created", "Owner", "Source", "Deal ID"];
+
+/** One CSV cell: text that a spreadsheet would run as a formula gets an apostrophe; quotes when needed. */
+export function csvCell(value: string | number | null): string {
+  if (value == null) return "";
+  let text = String(value);
+  if (/^[=+\-@\t\r]/.test(text)) text = `'${text}`;
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+export function csvLine(cells: Array<string | number | null>): string {
+  return `${cells.map(csvCell).join(",")}\r\n`;
+}
+
+export function csvRow(r: DealTableRow): string {
+  return csvLine([
+    r.householdName,
+    r.city,
+    STAGE_LABELS[r.stage],
+    r.systemDcWatts == null ? null : (r.systemDcWatts / 1000).toFixed(2),
+    r.contractCents == null ? null : (r.contractCents / 100).toFixed(2),
+    r.stageChangedAt.slice(0, 10),
+    r.createdAt.slice(0, 10),
+    r.ownerName,
+    r.source,
+    r.id,
+  ]);
+}
+
+/** The whole filtered view as a CSV stream (header first), built 1,000 rows at a time. */
+export function dealTableCsvStream(member: Member, filters: DealTableFilters): ReadableStream<Uint8Array> {
+  const encoder = new TextEncoder();
+  const chunks = dealTableChunks(member, filters);
+  let headerSent = false;
+  return new ReadableStream<Uint8Array>({
+    async pull(controller) {
+      if (!headerSent) {
+        headerSent = true;
+        controller.enqueue(encoder.encode(csvLine(CSV_HEADER)));
+        return;
+      }
+      try {
+        const next = await chunks.next();
+        if (next.done) controller.close();
+        else controller.enqueue(encoder.encode(next.value.map(csvRow).join("")));
+      } catch (err) {
+        controller.error(err);
+      }
+    },
+    async cancel() {
+      await chunks.return(undefined);
+    },
+  });
+}
+
+/** The people who may own deals, for the owner filter (office roles only; reps see their own). */
+export async function dealOwnerOptions(member: Member): Promise<Array<{ id: string; name: string }>> {
+  if (!can(member.role, "deals:read-all")) return [];
+  return db()
+    .select({ id: user.id, name: user.name })
+    .from(membership)
+    .innerJoin(user, eq(user.id, membership.userId))
+    .where(and(eq(membership.companyId, member.companyId), inArray(membership.role, ["owner", "admin", "office_manager", "sales_rep"])))
+    .orderBy(user.name);
+}
