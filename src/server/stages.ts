@@ -1,0 +1,121 @@
+import "server-only";
+import { and, asc, eq, gte, inArray, isNotNull, lt, type SQL } from "drizzle-orm";
+import { deal, household, membership, user, type Stage } from "@/db/schema";
+import { can } from "@/lib/permissions";
+import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
+import { STAGE_LABELS } from "@/lib/stages";
+import { getDealOrThrow, type DealRow } from "@/server/deals";
+import { db } from "@/server/db";
+import { HttpError } from "@/server/errors";
+import type { Member } from "@/server/session";
+import { recordEvent } from "@/server/timeline";
+
+/** A manual move the stage rules refuse (422); `needs` says what would make it pass. */
+export class StageRuleError extends HttpError {
+  constructor(
+    message: string,
+    readonly needs?: "reason" | "admin_reason",
+  ) {
+    super(422, "stage_rule", message, needs ? { reason: [message] } : undefined);
+    this.name = "StageRuleError";
+  }
+}
+
+export type StageMove = { dealId: string; from: Stage; to: Stage; reason: string | null; stageChangedAt: Date };
+
+/**
+ * Moves a deal to another stage by hand: permission, then the stage rules, then one
+ * transaction that changes the stage (only if nobody moved it meanwhile) and writes the
+ * Timeline event.
+ */
+export async function moveDealStage(member: Member, dealId: string, toStage: Stage, reason?: string | null): Promise<StageMove> {
+  if (!can(member.role, "deals:write")) throw new HttpError(403, "forbidden", "Your role does not allow moving deals.");
+  const found = await getDealOrThrow(member, dealId); // reps see (and so move) only their own deals
+  const from = found.stage;
+  const office = can(member.role, "deals:read-all");
+  if (!office && !(REP_STAGES.includes(from) && REP_STAGES.includes(toStage))) {
+    const allowed = REP_STAGES.map((s) => STAGE_LABELS[s]).join(", ");
+    throw new HttpError(403, "forbidden", `Your role can move deals only between ${allowed}; ask the office for ${STAGE_LABELS[toStage]}.`);
+  }
+  const why = reason?.trim() || null;
+  // No permit table exists yet, so no deal has a permit approval date on record.
+  const check = checkManualMove({ from, to: toStage, role: member.role, reason: why, permitApprovedAt: null });
+  if (!check.ok) throw new StageRuleError(check.reason, check.needs);
+
+  const stageChangedAt = new Date();
+  const summary = `${member.name} moved ${found.householdName} from ${STAGE_LABELS[from]} to ${STAGE_LABELS[toStage]}${why ? `: ${why}` : ""}`;
+  await db().transaction(async (tx) => {
+    const changed = await tx
+      .update(deal)
+      .set({ stage: toStage, stageChangedAt })
+      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId), eq(deal.stage, from)));
+    if (changed[0].affectedRows !== 1) {
+      throw new HttpError(409, "stage_conflict", "Someone else moved this deal a moment ago. Reload to see where it is now.");
+    }
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId,
+      kind: "stage.moved",
+      summary: summary.length > 500 ? `${summary.slice(0, 499)}…` : summary,
+      actorUserId: member.userId,
+      data: { from, to: toStage, reason: why, automatic: false },
+    });
+  });
+  return { dealId, from, to: toStage, reason: why, stageChangedAt };
+}
+
+/** The deals on the board: the person's visible deals, filtered on the server. */
+export async function listBoardDeals(member: Member, filter: BoardFilter): Promise<(DealRow & { ownerUserId: string | null })[]> {
+  const conditions: SQL[] = [eq(deal.companyId, member.companyId)];
+  if (!can(member.role, "deals:read-all")) conditions.push(eq(deal.ownerUserId, member.userId));
+  else if (filter.rep) conditions.push(eq(deal.ownerUserId, filter.rep));
+  if (filter.source) conditions.push(eq(deal.source, filter.source));
+  if (filter.from) conditions.push(gte(deal.createdAt, new Date(`${filter.from}T00:00:00Z`)));
+  if (filter.to) conditions.push(lt(deal.createdAt, new Date(new Date(`${filter.to}T00:00:00Z`).getTime() + 86_400_000)));
+  return db()
+    .select({
+      id: deal.id,
+      stage: deal.stage,
+      stageChangedAt: deal.stageChangedAt,
+      source: deal.source,
+      contractCents: deal.contractCents,
+      systemDcWatts: deal.systemDcWatts,
+      householdId: household.id,
+      householdName: household.name,
+      city: household.city,
+      ownerName: user.name,
+      ownerUserId: deal.ownerUserId,
+      createdAt: deal.createdAt,
+    })
+    .from(deal)
+    .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+    .leftJoin(user, eq(user.id, deal.ownerUserId))
+    .where(and(...conditions))
+    .orderBy(asc(deal.stageChangedAt));
+}
+
+/** People who own deals (for the rep filter): the company's active sellers. */
+export async function listBoardOwners(member: Member): Promise<{ id: string; name: string }[]> {
+  return db()
+    .select({ id: user.id, name: user.name })
+    .from(membership)
+    .innerJoin(user, eq(user.id, membership.userId))
+    .where(
+      and(
+        eq(membership.companyId, member.companyId),
+        eq(membership.status, "active"),
+        inArray(membership.role, ["owner", "admin", "office_manager", "sales_rep"]),
+      ),
+    )
+    .orderBy(asc(user.name));
+}
+
+/** The lead sources used on the company's deals. */
+export async function listBoardSources(member: Member): Promise<string[]> {
+  const rows = await db()
+    .selectDistinct({ source: deal.source })
+    .from(deal)
+    .where(and(eq(deal.companyId, member.companyId), isNotNull(deal.source)))
+    .orderBy(asc(deal.source));
+  return rows.map((r) => r.source).filter((s): s is string => !!s).sort();
+}
