@@ -16,7 +16,7 @@ import {
   MOUNT_INOCT_C,
   PVWATTS_ETA_REFERENCE,
   combinedLossPct,
-  fuentesCellTemperature,
+  fuentesCellTemperatureMany,
   lossBreakdownSchema,
   pvwattsInverter,
 } from "./pvwatts";
@@ -171,15 +171,22 @@ export function clearProductionCache(weather: WeatherYear): void {
 // ---------------------------------------------------------------- model
 
 /**
- * Working columns for one face (POA parts, cell temperature, DC), reused from call to call:
- * allocating ~0.5 MB of fresh typed arrays per estimate costs more than the whole model (page
- * faults and GC of large buffers). Never handed to callers; estimates run synchronously, so no
- * two calls share them at once.
+ * Working columns, reused from call to call: allocating ~0.5 MB of fresh typed arrays per
+ * estimate costs more than the whole model (page faults and GC of large buffers). Never handed to
+ * callers; estimates run synchronously, so no two calls share them at once. `sharedScratch`:
+ * beam, sky diffuse and ground parts of the POA and a face's DC (used one face at a time);
+ * `faceScratch(g)`: POA, transmitted POA and cell temperature of the g-th face of a group.
  */
-let scratch: Float64Array[] | null = null;
-function faceScratch(): Float64Array[] {
-  scratch ??= allocateColumns(7);
-  return scratch;
+const FACE_GROUP = 4;
+let shared: Float64Array[] | null = null;
+function sharedScratch(): Float64Array[] {
+  shared ??= allocateColumns(4);
+  return shared;
+}
+const perFace: Float64Array[][] = [];
+function faceScratch(g: number): Float64Array[] {
+  perFace[g] ??= allocateColumns(3);
+  return perFace[g];
 }
 
 /** Hourly production of a system on a weather year. Throws EngineInputError naming each bad field. */
@@ -194,78 +201,103 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign, o
   const n = HOURS_PER_YEAR;
 
   const [hourlyDcW, hourlyAcW] = allocateColumns(2, n);
-  const work = faceScratch();
+  const work = sharedScratch();
   const faces: FaceResult[] = [];
   let dcKw = 0;
   let weightedPoa = 0;
   const micro = sys.inverter.kind === "micro" ? sys.inverter : null;
 
-  sys.faces.forEach((face, k) => {
-    const faceDcW0 = face.moduleCount * face.moduleWatts;
-    dcKw += faceDcW0 / 1000;
-    const gamma = face.gammaPctPerC !== undefined ? face.gammaPctPerC / 100 : MODULE_GAMMA_PER_C[face.moduleType];
-    const own = options.faceHours ? allocateColumns(3, n) : null;
-    const plane = planeOfArray(sky, face.tiltDeg, face.azimuthDeg, sys.albedo, {
-      poa: own ? own[0] : work[0],
-      poaTransmitted: work[1],
-      beam: work[2],
-      skyDiffuse: work[3],
-      ground: work[4],
-    });
-    const access = face.solarAccessPct;
-    const poa = plane.poa;
-    const tr = plane.poaTransmitted;
-    if (typeof access === "number") {
-      if (access !== 100) {
-        const f = access / 100;
+  // Faces go through in groups of up to FACE_GROUP: the POA of each face of a group, then their
+  // cell temperatures side by side (fuentesCellTemperatureMany), then each face's DC in order.
+  for (let g0 = 0; g0 < sys.faces.length; g0 += FACE_GROUP) {
+    const group = sys.faces.slice(g0, g0 + FACE_GROUP);
+    const groupCols = group.map((face, gi) => {
+      const cols = faceScratch(gi);
+      const own = options.faceHours ? allocateColumns(3, n) : null;
+      const plane = planeOfArray(sky, face.tiltDeg, face.azimuthDeg, sys.albedo, {
+        poa: own ? own[0] : cols[0],
+        poaTransmitted: cols[1],
+        beam: work[0],
+        skyDiffuse: work[1],
+        ground: work[2],
+      });
+      const access = face.solarAccessPct;
+      const poa = plane.poa;
+      const tr = plane.poaTransmitted;
+      if (typeof access === "number") {
+        if (access !== 100) {
+          const f = access / 100;
+          for (let i = 0; i < n; i++) {
+            poa[i] *= f;
+            tr[i] *= f;
+          }
+        }
+      } else {
+        const monthF = access.map((a) => a / 100);
         for (let i = 0; i < n; i++) {
+          const f = monthF[HOUR_MONTH[i]];
           poa[i] *= f;
           tr[i] *= f;
         }
       }
-    } else {
-      for (let i = 0; i < n; i++) {
-        const f = access[HOUR_MONTH[i]] / 100;
-        poa[i] *= f;
-        tr[i] *= f;
-      }
-    }
-    const cellTempC = fuentesCellTemperature(poa, weather.tempAirC, weather.windSpeedMs, MOUNT_INOCT_C[face.mount], own ? own[1] : work[5]);
-    const dcW = own ? own[2] : work[6];
-    dcW.fill(0);
-    let poaSum = 0;
-    let dcSum = 0;
-    const scale = (faceDcW0 / 1000) * keep;
-    for (let i = 0; i < n; i++) {
-      poaSum += poa[i];
-      if (tr[i] <= 0) continue;
-      let p = tr[i] * scale * (1 + gamma * (cellTempC[i] - 25));
-      if (p < 0) p = 0;
-      dcW[i] = p;
-      dcSum += p;
-      hourlyDcW[i] += p;
-    }
-    if (micro) {
-      // Every module on a face sees the same irradiance: one module's inverter times the count.
-      const eta = micro.efficiencyPct / 100;
-      const pdc0 = micro.acWattsPerModule / eta;
-      const m = face.moduleCount;
-      for (let i = 0; i < n; i++) if (dcW[i] > 0) hourlyAcW[i] += m * pvwattsInverter(dcW[i] / m, pdc0, eta, PVWATTS_ETA_REFERENCE);
-    }
-    weightedPoa += (poaSum / 1000) * faceDcW0;
-    faces.push({
-      name: face.name ?? `Face ${k + 1}`,
-      dcKw: faceDcW0 / 1000,
-      annualPoaKwhPerM2: poaSum / 1000,
-      annualDcKwh: dcSum / 1000,
-      monthlyDcKwh: monthlySums(dcW).map((wh) => wh / 1000),
-      ...(own && { hours: { poa, cellTempC, dcW } }),
+      return { poa, tr, cellTempC: own ? own[1] : cols[2], dcW: own ? own[2] : work[3], own };
     });
-  });
+    fuentesCellTemperatureMany(
+      groupCols.map((c) => c.poa),
+      weather.tempAirC,
+      weather.windSpeedMs,
+      group.map((face) => MOUNT_INOCT_C[face.mount]),
+      groupCols.map((c) => c.cellTempC),
+    );
+    group.forEach((face, gi) => {
+      const k = g0 + gi;
+      const { poa, tr, cellTempC, dcW, own } = groupCols[gi];
+      const faceDcW0 = face.moduleCount * face.moduleWatts;
+      dcKw += faceDcW0 / 1000;
+      const gamma = face.gammaPctPerC !== undefined ? face.gammaPctPerC / 100 : MODULE_GAMMA_PER_C[face.moduleType];
+      let poaSum = 0;
+      let dcSum = 0;
+      // monthly DC summed in the same loop (same order of additions as monthlySums)
+      const monthlyDcWh = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
+      const scale = (faceDcW0 / 1000) * keep;
+      for (let i = 0; i < n; i++) {
+        poaSum += poa[i];
+        const t = tr[i];
+        if (t <= 0) {
+          dcW[i] = 0;
+          continue;
+        }
+        let p = t * scale * (1 + gamma * (cellTempC[i] - 25));
+        if (p < 0) p = 0;
+        dcW[i] = p;
+        dcSum += p;
+        hourlyDcW[i] += p;
+        monthlyDcWh[HOUR_MONTH[i]] += p;
+      }
+      if (micro) {
+        // Every module on a face sees the same irradiance: one module's inverter times the count.
+        const eta = micro.efficiencyPct / 100;
+        const pdc0 = micro.acWattsPerModule / eta;
+        const m = face.moduleCount;
+        for (let i = 0; i < n; i++) if (dcW[i] > 0) hourlyAcW[i] += m * pvwattsInverter(dcW[i] / m, pdc0, eta, PVWATTS_ETA_REFERENCE);
+      }
+      weightedPoa += (poaSum / 1000) * faceDcW0;
+      faces.push({
+        name: face.name ?? `Face ${k + 1}`,
+        dcKw: faceDcW0 / 1000,
+        annualPoaKwhPerM2: poaSum / 1000,
+        annualDcKwh: dcSum / 1000,
+        monthlyDcKwh: monthlyDcWh.map((wh) => wh / 1000),
+        ...(own && { hours: { poa, cellTempC, dcW } }),
+      });
+    });
+  }
 
   let acKw: number;
   let clippedWh = 0;
+  let monthlyAcWh: number[];
   if (micro) {
+    monthlyAcWh = monthlySums(hourlyAcW);
     acKw = (micro.acWattsPerModule * sys.faces.reduce((s, f) => s + f.moduleCount, 0)) / 1000;
   } else {
     const inv = sys.inverter.kind === "string" ? sys.inverter : null;
@@ -273,11 +305,13 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign, o
     acKw = inv?.acKw ?? dcKw / (inv?.dcAcRatio ?? 1.2);
     const pac0 = acKw * 1000;
     const pdc0 = pac0 / eta;
+    monthlyAcWh = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0]; // summed in the loop, in monthlySums' order
     for (let i = 0; i < n; i++) {
       const dc = hourlyDcW[i];
       if (dc <= 0) continue;
       const ac = pvwattsInverter(dc, pdc0, eta, PVWATTS_ETA_REFERENCE);
       hourlyAcW[i] = ac;
+      monthlyAcWh[HOUR_MONTH[i]] += ac;
       if (ac >= pac0) {
         // what the efficiency curve would have given without the limit
         const zeta = dc / pdc0;
@@ -286,7 +320,7 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign, o
       }
     }
   }
-  const monthlyAcKwh = monthlySums(hourlyAcW).map((wh) => wh / 1000);
+  const monthlyAcKwh = monthlyAcWh.map((wh) => wh / 1000);
   const annualAcKwh = monthlyAcKwh.reduce((s, v) => s + v, 0);
   const annualDcKwh = faces.reduce((s, f) => s + f.annualDcKwh, 0);
   return {

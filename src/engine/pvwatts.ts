@@ -446,3 +446,168 @@ function heatBalance(
   const ex = eigen > -10 ? Math.exp(eigen) : 0;
   return tmod0 * ex + ((1 - ex) * (hconv * tamb + hsky * tsky + hground * tground + sun0 + (sun - sun0) / eigen) + sun - sun0) / hsum;
 }
+
+/**
+ * `fuentesCellTemperature` for several series on the same weather (one per roof face), each with
+ * its own INOCT, into `outs`: the same operations per series and so the same results, but the
+ * series advance pass by pass together. A series' passes are one long chain of dependent
+ * operations (a division, a table read and an exp per pass); side by side, the processor works
+ * on the others' chains while one waits, and the per-hour weather terms are computed once.
+ */
+export function fuentesCellTemperatureMany(
+  poas: readonly ArrayLike<number>[],
+  tempAirC: ArrayLike<number>,
+  windSpeedMs: ArrayLike<number>,
+  inoctsC: readonly number[],
+  outs: readonly Float64Array[],
+  stepHours = 1,
+): readonly Float64Array[] {
+  const F = poas.length;
+  const n = tempAirC.length;
+  const windFactor = Math.pow(FUENTES.moduleHeightM / FUENTES.windHeightM, 0.2);
+  const dtSeconds = stepHours * 3600;
+  const setups = inoctsC.map((t) => fuentesSetup(t));
+  const tgrat = Float64Array.from(setups, (m) => m.tgrat);
+  const cap = Float64Array.from(setups, (m) => m.cap);
+  const convrat = Float64Array.from(setups, (m) => m.convrat);
+  const eigenPerH = Float64Array.from(setups, (m) => -dtSeconds / m.cap);
+  const tmod0 = new Float64Array(F).fill(T_NOCT_AMBIENT_K);
+  const sun0 = new Float64Array(F);
+  const hconvPrev = new Float64Array(F);
+  const tmod = new Float64Array(F);
+  const hconvLast = new Float64Array(F);
+  const sunNow = new Float64Array(F);
+  const dSun = new Float64Array(F);
+  const dSunLag = new Float64Array(F);
+  const state = new Uint8Array(F); // 0 dark, 1 iterating, 2 converged
+  const { tMin, step, dt032, cbrt1p, lamK, turbK, freeK } = AIR;
+  const rows = AIR_ROWS;
+  const invStep = 1 / step;
+  const dtTableMax = AIR.dtSize - 2;
+  const invDtStep = 1 / AIR.dtStep;
+  const esb = FUENTES.emissivity * FUENTES.stefanBoltzmann;
+  const absorptivity = FUENTES.absorptivity;
+  const maxIterations = FUENTES.maxIterations;
+  const tol = FUENTES.toleranceK;
+  const hour: FuentesHour = { tamb: 0, tsky: 0, sun: 0, sun0: 0, tmod0: 0, windMod: 0, lamW: 0, turbW: 0, hconv: 0, dtSeconds };
+  for (let i = 0; i < n; i++) {
+    const tamb = tempAirC[i] + KELVIN;
+    let active = 0;
+    for (let f = 0; f < F; f++) {
+      const p = poas[f][i];
+      if (!(p > 0)) {
+        outs[f][i] = tempAirC[i];
+        tmod0[f] = tamb;
+        sun0[f] = 0;
+        hconvPrev[f] = 0;
+        state[f] = 0;
+      } else {
+        state[f] = 1;
+        sunNow[f] = p * absorptivity;
+        active++;
+      }
+    }
+    if (active === 0) continue;
+    const tsky = 0.68 * (0.0552 * tamb * Math.sqrt(tamb)) + 0.32 * tamb; // eq. 24
+    const windMod = windSpeedMs[i] * windFactor + 1e-4; // eq. 22
+    const lamW = lamK * Math.sqrt(windMod);
+    let turbW = 0;
+    for (let f = 0; f < F; f++) {
+      if (state[f] === 0) continue;
+      const ds = sunNow[f] - sun0[f];
+      dSun[f] = ds;
+      dSunLag[f] = ds / eigenPerH[f];
+      const t0 = tmod0[f];
+      let t = t0;
+      const hc = hconvPrev[f];
+      if (hc > 0) {
+        // predictor, as in fuentesCellTemperature
+        const hsky = esb * (t0 * t0 + tsky * tsky) * (t0 + tsky);
+        const tground = tamb + tgrat[f] * (t0 - tamb);
+        const hground = esb * (t0 * t0 + tground * tground) * (t0 + tground);
+        const hsum = hc + hsky + hground;
+        const inv = 1 / hsum;
+        const eigen = hsum * eigenPerH[f];
+        const ex = eigen > -10 ? Math.exp(eigen) : 0;
+        t = t0 * ex + ((1 - ex) * (hc * tamb + hsky * tsky + hground * tground + sun0[f] + dSunLag[f] * inv) + ds) * inv;
+      }
+      tmod[f] = t;
+    }
+    for (let j = 0; j < maxIterations && active > 0; j++) {
+      for (let f = 0; f < F; f++) {
+        if (state[f] !== 1) continue;
+        const t = tmod[f];
+        let tave = (t + tamb) / 2;
+        tave = tave < tMin ? tMin : tave > T_TABLE_MAX ? T_TABLE_MAX : tave;
+        const x = (tave - tMin) * invStep;
+        const k = x | 0;
+        const fr = x - k;
+        const q = k * 4;
+        let hForced: number;
+        if (windMod > rows[q] + fr * (rows[q + 4] - rows[q])) {
+          if (turbW === 0) turbW = turbK * Math.pow(windMod, 0.8);
+          hForced = turbW * (rows[q + 2] + fr * (rows[q + 6] - rows[q + 2]));
+        } else hForced = lamW * (rows[q + 1] + fr * (rows[q + 5] - rows[q + 1]));
+        const dT = Math.abs(t - tamb);
+        let hFree = 0;
+        if (dT > 0) {
+          const xd = dT * invDtStep;
+          let pw: number;
+          if (xd >= dtTableMax) pw = Math.pow(dT, 0.32);
+          else {
+            const kd = xd | 0;
+            pw = dt032[kd] + (xd - kd) * (dt032[kd + 1] - dt032[kd]);
+          }
+          hFree = freeK * pw * (rows[q + 3] + fr * (rows[q + 7] - rows[q + 3]));
+        }
+        const hi = hFree > hForced ? hFree : hForced;
+        let cs = 0;
+        if (hi > 0) {
+          const r = (hFree > hForced ? hForced : hFree) / hi;
+          const xc = r * r * r * 4096;
+          const kc = xc | 0;
+          cs = hi * (cbrt1p[kc] + (xc - kc) * (cbrt1p[kc + 1] - cbrt1p[kc]));
+        }
+        const hconv = convrat[f] * cs;
+        const hsky = esb * (t * t + tsky * tsky) * (t + tsky);
+        const tground = tamb + tgrat[f] * (t - tamb);
+        const hground = esb * (t * t + tground * tground) * (t + tground);
+        const hsum = hconv + hsky + hground;
+        const inv = 1 / hsum;
+        const eigen = hsum * eigenPerH[f];
+        const ex = eigen > -10 ? Math.exp(eigen) : 0;
+        const next = tmod0[f] * ex + ((1 - ex) * (hconv * tamb + hsky * tsky + hground * tground + sun0[f] + dSunLag[f] * inv) + dSun[f]) * inv;
+        hconvLast[f] = hconv;
+        tmod[f] = next;
+        if (Math.abs(next - t) < tol) {
+          state[f] = 2;
+          active--;
+        }
+      }
+    }
+    for (let f = 0; f < F; f++) {
+      if (state[f] === 0) continue;
+      let t = tmod[f];
+      if (state[f] === 1) {
+        // not converged: Fuentes' 10th pass from the previous temperature (see fuentesCellTemperature)
+        const h = hour;
+        h.tamb = tamb;
+        h.tsky = tsky;
+        h.sun = sunNow[f];
+        h.sun0 = sun0[f];
+        h.tmod0 = tmod0[f];
+        h.windMod = windMod;
+        h.lamW = lamW;
+        h.turbW = 0;
+        t = tmod0[f];
+        for (let j = 0; j < maxIterations; j++) t = fuentesPass(t, h, setups[f]);
+        hconvLast[f] = h.hconv;
+      }
+      outs[f][i] = t - KELVIN;
+      tmod0[f] = t;
+      sun0[f] = sunNow[f];
+      hconvPrev[f] = hconvLast[f];
+    }
+  }
+  return outs;
+}
