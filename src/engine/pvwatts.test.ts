@@ -2,7 +2,7 @@ import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { EngineInputError } from "./errors";
-import { DEFAULT_LOSSES_PCT, combinedLossPct, fuentesCellTemperature, pvwattsDc, pvwattsInverter } from "./pvwatts";
+import { DEFAULT_LOSSES_PCT, combinedLossPct, fuentesCellTemperature, fuentesCellTemperatureMany, pvwattsDc, pvwattsInverter } from "./pvwatts";
 
 describe("PVWatts v5 DC and losses against pvlib-python's published test values", () => {
   it("pvwatts_dc (pvlib test_pvwatts_dc_scalars: 900 W/m², 30 °C, 100 W, γ −0.003 → 88.65 W)", () => {
@@ -89,6 +89,18 @@ describe("Fuentes 1987 cell temperature as in PVWatts v5", () => {
       expect(max).toBeLessThan(0.1);
       expect(over).toBeLessThanOrEqual(10);
     }
+  });
+
+  it("several faces side by side (fuentesCellTemperatureMany) give exactly the single-face results", () => {
+    const poa = Float64Array.from(rows, (r) => r[7]);
+    const tAir = Float64Array.from(rows, (r) => r[5]);
+    const wind = Float64Array.from(rows, (r) => r[6]);
+    // different irradiance per face (one shaded, one darker in the afternoons) and mountings
+    const poas = [poa, poa.map((v) => v * 0.7), poa.map((v, i) => (i % 24 > 14 ? 0 : v * 1.1)), poa.map((v) => v * 0.4), poa.map((v) => v * 0.9)];
+    const inocts = [45, 49, 49, 45, 49];
+    const outs = poas.map(() => new Float64Array(8760));
+    fuentesCellTemperatureMany(poas, tAir, wind, inocts, outs);
+    poas.forEach((p, f) => expect(outs[f]).toEqual(fuentesCellTemperature(p, tAir, wind, inocts[f])));
   });
 
   it("roof mount (INOCT 49 °C) runs hotter than open rack", () => {

@@ -102,6 +102,22 @@ describe("agreement with astronomy-engine (independent reference library)", () =
 describe("sunPositionsForYear", () => {
   const denver = { latitude: 39.74, longitude: -105.18, elevationM: 1830, utcOffsetHours: -7 };
 
+  it("the year's hour-by-hour path (hour angle carried by rotation within each day) equals the one-instant evaluator", () => {
+    for (const refraction of [true, false]) {
+      const y = sunPositionsForYear(denver, { refraction, sunUpMidpoint: false, temperatureC: 10 });
+      const start = typicalHourStartMs(0, -7);
+      const ev = createSunEvaluator({ ...denver, refraction, temperatureC: 10 }, start - 3_600_000, start + 8761 * 3_600_000);
+      const a = newSunAngles();
+      let max = 0;
+      for (let i = 0; i < 8760; i++) {
+        ev(start + i * 3_600_000 + 1_800_000, a);
+        max = Math.max(max, Math.abs(a.zenithDeg - y.zenithDeg[i]), Math.abs(a.airlessZenithDeg - y.airlessZenithDeg[i]));
+        max = Math.max(max, Math.abs(((a.azimuthDeg - y.azimuthDeg[i] + 540) % 360) - 180));
+      }
+      expect(max).toBeLessThan(1e-8);
+    }
+  });
+
   it("evaluates each hour at its middle, sunrise/sunset hours at the middle of the sunlit part", () => {
     const y = sunPositionsForYear(denver);
     expect(y.zenithDeg.length).toBe(8760);
