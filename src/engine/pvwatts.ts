@@ -236,138 +236,7 @@ export function fuentesCellTemperature(
   out: Float64Array = new Float64Array(poa.length),
   stepHours = 1,
 ): Float64Array {
-  const m = fuentesSetup(inoctC);
-  const { tgrat, cap } = m;
-  const windFactor = Math.pow(FUENTES.moduleHeightM / FUENTES.windHeightM, 0.2);
-  const dtSeconds = stepHours * 3600;
-  const hour: FuentesHour = { tamb: 0, tsky: 0, sun: 0, sun0: 0, tmod0: 0, windMod: 0, lamW: 0, turbW: 0, hconv: 0, dtSeconds };
-  let tmod0 = T_NOCT_AMBIENT_K;
-  let sun0 = 0;
-  let hconvPrev = 0;
-  // The pass of `fuentesPass` and `heatBalance` written out in the loop below on local variables,
-  // with reciprocals in place of most divisions (same formulas; results agree to ~1e-12 K) and
-  // the four temperature tables read from one interleaved array (one cache line per lookup):
-  // ~2.8 passes per sunlit hour and three faces per estimate make this the hottest loop of a
-  // production run.
-  const { tMin, step, dt032, cbrt1p, lamK, turbK, freeK } = AIR;
-  const rows = AIR_ROWS;
-  const invStep = 1 / step;
-  const eigenPerH = -dtSeconds / cap; // eigen = hsum·eigenPerH
-  const dtTableMax = AIR.dtSize - 2;
-  const invDtStep = 1 / AIR.dtStep;
-  const convrat = m.convrat;
-  const esb = FUENTES.emissivity * FUENTES.stefanBoltzmann;
-  const absorptivity = FUENTES.absorptivity;
-  const maxIterations = FUENTES.maxIterations;
-  const tol = FUENTES.toleranceK;
-  const n = poa.length;
-  for (let i = 0; i < n; i++) {
-    const p = poa[i];
-    const tamb = tempAirC[i] + KELVIN;
-    if (!(p > 0)) {
-      out[i] = tempAirC[i];
-      tmod0 = tamb;
-      sun0 = 0;
-      hconvPrev = 0;
-      continue;
-    }
-    const sun = p * absorptivity;
-    const tsky = 0.68 * (0.0552 * tamb * Math.sqrt(tamb)) + 0.32 * tamb; // eq. 24
-    const windMod = windSpeedMs[i] * windFactor + 1e-4; // eq. 22 (+ small floor as in Fuentes' program)
-    const lamW = lamK * Math.sqrt(windMod);
-    let turbW = 0; // u^0.8 term, computed on first turbulent pass
-    const dSun = sun - sun0;
-    const dSunLag = dSun / eigenPerH; // (sun − sun0)/eigen = dSunLag/hsum
-
-    // Predictor: one pass of eq. 7 with the previous hour's convective coefficient. It only
-    // chooses the starting point; the result is still the converged balance.
-    let tmod = tmod0;
-    if (hconvPrev > 0) {
-      // heatBalance(tmod0, tmod0, tamb, tsky, sun, sun0, hconvPrev, dtSeconds, cap, tgrat), written out as in the passes
-      const hsky = esb * (tmod0 * tmod0 + tsky * tsky) * (tmod0 + tsky);
-      const tground = tamb + tgrat * (tmod0 - tamb);
-      const hground = esb * (tmod0 * tmod0 + tground * tground) * (tmod0 + tground);
-      const hsum = hconvPrev + hsky + hground;
-      const inv = 1 / hsum;
-      const eigen = hsum * eigenPerH;
-      const ex = eigen > -10 ? Math.exp(eigen) : 0;
-      tmod = tmod0 * ex + ((1 - ex) * (hconvPrev * tamb + hsky * tsky + hground * tground + sun0 + dSunLag * inv) + dSun) * inv;
-    }
-    let converged = false;
-    let hconv = 0;
-    for (let j = 0; j < maxIterations; j++) {
-      // ---- fuentesPass(tmod)
-      let tave = (tmod + tamb) / 2;
-      tave = tave < tMin ? tMin : tave > T_TABLE_MAX ? T_TABLE_MAX : tave;
-      const x = (tave - tMin) * invStep;
-      const k = x | 0;
-      const f = x - k;
-      const q = k * 4; // row k of AIR_ROWS: [Re limit, laminar, turbulent, free]; row k + 1 follows
-      let hForced: number;
-      if (windMod > rows[q] + f * (rows[q + 4] - rows[q])) {
-        // turbulent: Re > 1.2e5
-        if (turbW === 0) turbW = turbK * Math.pow(windMod, 0.8);
-        hForced = turbW * (rows[q + 2] + f * (rows[q + 6] - rows[q + 2]));
-      } else hForced = lamW * (rows[q + 1] + f * (rows[q + 5] - rows[q + 1]));
-      const dT = Math.abs(tmod - tamb);
-      let hFree = 0;
-      if (dT > 0) {
-        // dtPow032(dT)
-        const xd = dT * invDtStep;
-        let pw: number;
-        if (xd >= dtTableMax) pw = Math.pow(dT, 0.32);
-        else {
-          const kd = xd | 0;
-          pw = dt032[kd] + (xd - kd) * (dt032[kd + 1] - dt032[kd]);
-        }
-        hFree = freeK * pw * (rows[q + 3] + f * (rows[q + 7] - rows[q + 3]));
-      }
-      // cubeSum(hFree, hForced)
-      const hi = hFree > hForced ? hFree : hForced;
-      let cs = 0;
-      if (hi > 0) {
-        const r = (hFree > hForced ? hForced : hFree) / hi;
-        const xc = r * r * r * 4096;
-        const kc = xc | 0;
-        cs = hi * (cbrt1p[kc] + (xc - kc) * (cbrt1p[kc + 1] - cbrt1p[kc]));
-      }
-      hconv = convrat * cs;
-      // ---- heatBalance(tmod, tmod0, tamb, tsky, sun, sun0, hconv, dtSeconds, cap, tgrat)
-      const hsky = esb * (tmod * tmod + tsky * tsky) * (tmod + tsky);
-      const tground = tamb + tgrat * (tmod - tamb);
-      const hground = esb * (tmod * tmod + tground * tground) * (tmod + tground);
-      const hsum = hconv + hsky + hground;
-      const inv = 1 / hsum; // one division where heatBalance has three (same formula)
-      const eigen = hsum * eigenPerH;
-      const ex = eigen > -10 ? Math.exp(eigen) : 0;
-      const next = tmod0 * ex + ((1 - ex) * (hconv * tamb + hsky * tsky + hground * tground + sun0 + dSunLag * inv) + dSun) * inv;
-      converged = Math.abs(next - tmod) < tol;
-      tmod = next;
-      if (converged) break;
-    }
-    if (!converged) {
-      // In near-calm air the passes can settle into a two-value oscillation instead of converging;
-      // Fuentes' program (and PVWatts) then reports its 10th pass from the previous temperature.
-      // Do exactly that so such hours match the reference implementation.
-      const h = hour;
-      h.tamb = tamb;
-      h.tsky = tsky;
-      h.sun = sun;
-      h.sun0 = sun0;
-      h.tmod0 = tmod0;
-      h.windMod = windMod;
-      h.lamW = lamW;
-      h.turbW = 0;
-      tmod = tmod0;
-      for (let j = 0; j < maxIterations; j++) tmod = fuentesPass(tmod, h, m);
-      hconv = h.hconv;
-    }
-    out[i] = tmod - KELVIN;
-    tmod0 = tmod;
-    sun0 = sun;
-    hconvPrev = hconv;
-  }
-  return out;
+  return fuentesCellTemperatureMany([poa], tempAirC, windSpeedMs, [inoctC], [out], stepHours)[0];
 }
 
 /** The per-hour inputs of a pass, kept in one reused object (monomorphic, no allocation per hour). */
@@ -453,6 +322,12 @@ function heatBalance(
  * series advance pass by pass together. A series' passes are one long chain of dependent
  * operations (a division, a table read and an exp per pass); side by side, the processor works
  * on the others' chains while one waits, and the per-hour weather terms are computed once.
+ *
+ * The passes and the predictor are `fuentesPass` and `heatBalance` written out on local
+ * variables, with one division per heat balance where `heatBalance` has three (same formula;
+ * results agree to ~1e-12 K) and the four temperature tables read from one interleaved array
+ * (one cache line per lookup): ~2.8 passes per sunlit hour and face make this the hottest loop of
+ * a production estimate.
  */
 export function fuentesCellTemperatureMany(
   poas: readonly ArrayLike<number>[],
@@ -463,7 +338,7 @@ export function fuentesCellTemperatureMany(
   stepHours = 1,
 ): readonly Float64Array[] {
   const F = poas.length;
-  const n = tempAirC.length;
+  const n = F > 0 ? poas[0].length : 0;
   const windFactor = Math.pow(FUENTES.moduleHeightM / FUENTES.windHeightM, 0.2);
   const dtSeconds = stepHours * 3600;
   const setups = inoctsC.map((t) => fuentesSetup(t));
@@ -521,7 +396,9 @@ export function fuentesCellTemperatureMany(
       let t = t0;
       const hc = hconvPrev[f];
       if (hc > 0) {
-        // predictor, as in fuentesCellTemperature
+        // Predictor: one pass of eq. 7 with the previous hour's convective coefficient
+        // (heatBalance(t0, t0, tamb, tsky, sun, sun0, hc, …)). It only chooses the starting
+        // point; the result is still the converged balance.
         const hsky = esb * (t0 * t0 + tsky * tsky) * (t0 + tsky);
         const tground = tamb + tgrat[f] * (t0 - tamb);
         const hground = esb * (t0 * t0 + tground * tground) * (t0 + tground);
@@ -589,7 +466,9 @@ export function fuentesCellTemperatureMany(
       if (state[f] === 0) continue;
       let t = tmod[f];
       if (state[f] === 1) {
-        // not converged: Fuentes' 10th pass from the previous temperature (see fuentesCellTemperature)
+        // In near-calm air the passes can settle into a two-value oscillation instead of
+        // converging; Fuentes' program (and PVWatts) then reports its 10th pass from the previous
+        // temperature. Do exactly that so such hours match the reference implementation.
         const h = hour;
         h.tamb = tamb;
         h.tsky = tsky;
