@@ -1,0 +1,71 @@
+"use client";
+import Link from "next/link";
+import { columnVisibilityFeature, createColumnHelper, rowPaginationFeature, rowSortingFeature, tableFeatures } from "@tanstack/react-table";
+import type { DealTableRow } from "@/lib/schemas/deal-table";
+import { daysSince, formatCents, formatDate, formatKwFromWatts } from "@/lib/format";
+import { STAGE_LABELS } from "@/lib/stages";
+
+export const features = tableFeatures({
+  rowSortingFeature,
+  rowPaginationFeature,
+  columnVisibilityFeature,
+  columnMeta: {} as { align?: "right"; label: string },
+});
+
+const helper = createColumnHelper<typeof features, DealTableRow>();
+
+/** The table's columns; each id is also the server's sort key. */
+export const allColumns = helper.columns([
+  helper.accessor("householdName", {
+    id: "household",
+    header: "Household",
+    enableHiding: false,
+    meta: { label: "Household" },
+    cell: (info) => (
+      <Link href={`/deals/${info.row.original.id}`} className="font-medium text-graphite underline-offset-2 hover:text-copper hover:underline">
+        {info.getValue()}
+      </Link>
+    ),
+  }),
+  helper.accessor("city", { id: "city", header: "City", meta: { label: "City" } }),
+  helper.accessor("stage", { id: "stage", header: "Stage", meta: { label: "Stage" }, cell: (info) => STAGE_LABELS[info.getValue()] }),
+  helper.accessor("systemDcWatts", {
+    id: "systemDcWatts",
+    header: "System",
+    sortDescFirst: true,
+    meta: { label: "System size", align: "right" },
+    cell: (info) => <span className="figure">{formatKwFromWatts(info.getValue())}</span>,
+  }),
+  helper.accessor("contractCents", {
+    id: "contractCents",
+    header: "Contract",
+    sortDescFirst: true,
+    meta: { label: "Contract value", align: "right" },
+    cell: (info) => <span className="figure">{formatCents(info.getValue())}</span>,
+  }),
+  helper.accessor("stageChangedAt", {
+    id: "stageChangedAt",
+    header: "In stage since",
+    sortDescFirst: true,
+    meta: { label: "In stage since" },
+    cell: (info) => {
+      const d = new Date(info.getValue());
+      return (
+        <span title={`${daysSince(d)} days in this stage`}>
+          {formatDate(d)} <span className="figure text-xs text-graphite-soft">({daysSince(d)} d)</span>
+        </span>
+      );
+    },
+  }),
+  helper.accessor("createdAt", {
+    id: "createdAt",
+    header: "Created",
+    sortDescFirst: true,
+    meta: { label: "Created" },
+    cell: (info) => formatDate(new Date(info.getValue())),
+  }),
+  helper.accessor("ownerName", { id: "owner", header: "Owner", meta: { label: "Owner" }, cell: (info) => info.getValue() ?? "—" }),
+  helper.accessor("source", { id: "source", header: "Source", meta: { label: "Source" }, cell: (info) => info.getValue() ?? "—" }),
+]);
+
+export const repColumns = allColumns.filter((c) => c.id !== "owner");

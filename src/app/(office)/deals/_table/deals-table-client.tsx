@@ -1,0 +1,348 @@
+"use client";
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { useTable, type ColumnVisibilityState, type PaginationState, type SortingState, type Updater } from "@tanstack/react-table";
+import { useEffect, useId, useMemo, useState, type FormEvent } from "react";
+import { STAGES } from "@/db/schema";
+import { api } from "@/lib/api-client";
+import { DEAL_TABLE_DEFAULT_SORT, parseSort, type DealTablePage, type DealTableQuery } from "@/lib/schemas/deal-table";
+import { STAGE_LABELS } from "@/lib/stages";
+import { allColumns, features, repColumns } from "./columns";
+
+const PAGE_SIZES = [25, 50, 100, 200];
+const VISIBILITY_KEY = "kilowright.deals-table.hidden-columns";
+
+type Filters = { stage: string; owner: string; source: string; q: string; from: string; to: string };
+type View = Filters & { sort: string; page: number; pageSize: number };
+
+function viewFrom(q: DealTableQuery): View {
+  return {
+    sort: q.sort,
+    page: q.page,
+    pageSize: q.pageSize,
+    stage: q.stage ?? "",
+    owner: q.owner ?? "",
+    source: q.source ?? "",
+    q: q.q ?? "",
+    from: q.from ?? "",
+    to: q.to ?? "",
+  };
+}
+
+/** The query string of a view; blank filters and defaults are left out. */
+function paramsOf(view: View, withPaging: boolean): URLSearchParams {
+  const p = new URLSearchParams();
+  if (withPaging) {
+    p.set("page", String(view.page));
+    p.set("pageSize", String(view.pageSize));
+  }
+  p.set("sort", view.sort);
+  for (const key of ["stage", "owner", "source", "q", "from", "to"] as const) if (view[key]) p.set(key, view[key]);
+  return p;
+}
+
+function apply<T>(updater: Updater<T>, old: T): T {
+  return typeof updater === "function" ? (updater as (o: T) => T)(old) : updater;
+}
+
+export function DealsTable({
+  initialQuery,
+  initial,
+  showOwner,
+  owners,
+  sources,
+}: {
+  initialQuery: DealTableQuery;
+  initial: DealTablePage;
+  showOwner: boolean;
+  owners: Array<{ id: string; name: string }>;
+  sources: string[];
+}) {
+  const ids = useId();
+  const [view, setView] = useState<View>(() => viewFrom(initialQuery));
+  const [search, setSearch] = useState(view.q);
+  const [columnVisibility, setColumnVisibility] = useState<ColumnVisibilityState>({});
+
+  // Hidden columns are a preference of this browser, read after the first render so the
+  // server's HTML and the browser's first render agree.
+  useEffect(() => {
+    try {
+      const saved: unknown = JSON.parse(window.localStorage.getItem(VISIBILITY_KEY) ?? "[]");
+      if (Array.isArray(saved)) setColumnVisibility(Object.fromEntries(saved.filter((v) => typeof v === "string").map((id) => [id, false])));
+    } catch {
+      // A damaged preference is simply ignored.
+    }
+  }, []);
+
+  const initialKey = useMemo(() => paramsOf(viewFrom(initialQuery), true).toString(), [initialQuery]);
+  const key = paramsOf(view, true).toString();
+
+  // The address follows the view, so a reload or a shared link shows the same deals.
+  useEffect(() => {
+    const next = `${window.location.pathname}?${key}`;
+    if (`${window.location.pathname}${window.location.search}` !== next) window.history.replaceState(null, "", next);
+  }, [key]);
+
+  const result = useQuery({
+    queryKey: ["deals-table", key],
+    queryFn: () => api<DealTablePage>(`/api/deals/table?${key}`),
+    initialData: key === initialKey ? initial : undefined,
+    placeholderData: keepPreviousData,
+  });
+  const data = result.data ?? initial;
+
+  const { column: sortColumn, direction } = parseSort(view.sort);
+  const sorting: SortingState = useMemo(() => [{ id: sortColumn, desc: direction === "desc" }], [sortColumn, direction]);
+  const pagination: PaginationState = useMemo(() => ({ pageIndex: view.page - 1, pageSize: view.pageSize }), [view.page, view.pageSize]);
+
+  const table = useTable({
+    features,
+    columns: showOwner ? allColumns : repColumns,
+    data: data.rows,
+    getRowId: (row) => row.id,
+    manualSorting: true,
+    manualPagination: true,
+    enableMultiSort: false,
+    enableSortingRemoval: false,
+    rowCount: data.total,
+    state: { sorting, pagination, columnVisibility },
+    onSortingChange: (updater) => {
+      const next = apply(updater, sorting)[0];
+      setView((v) => ({ ...v, page: 1, sort: next ? `${next.id}:${next.desc ? "desc" : "asc"}` : DEAL_TABLE_DEFAULT_SORT }));
+    },
+    onPaginationChange: (updater) => {
+      const next = apply(updater, pagination);
+      setView((v) => ({ ...v, page: next.pageSize !== v.pageSize ? 1 : next.pageIndex + 1, pageSize: next.pageSize }));
+    },
+    onColumnVisibilityChange: (updater) => {
+      setColumnVisibility((old) => {
+        const next = apply(updater, old);
+        const hidden = Object.entries(next)
+          .filter(([, visible]) => !visible)
+          .map(([id]) => id);
+        try {
+          window.localStorage.setItem(VISIBILITY_KEY, JSON.stringify(hidden));
+        } catch {
+          // Private browsing may refuse storage; the choice then lasts for this visit.
+        }
+        return next;
+      });
+    },
+  });
+
+  const setFilter = (key: keyof Filters, value: string) => setView((v) => ({ ...v, [key]: value, page: 1 }));
+  const filtered = Boolean(view.stage || view.owner || view.source || view.q || view.from || view.to);
+  const onSearch = (e: FormEvent) => {
+    e.preventDefault();
+    setFilter("q", search.trim());
+  };
+  const pageCount = Math.max(1, Math.ceil(data.total / view.pageSize));
+  const firstRow = data.total === 0 ? 0 : (view.page - 1) * view.pageSize + 1;
+  const lastRow = Math.min(data.total, view.page * view.pageSize);
+  const exportHref = `/api/deals/export?${paramsOf(view, false).toString()}`;
+  const error = result.error instanceof Error ? result.error.message : null;
+
+  return (
+    <section className="mt-4" aria-label="Deals table">
+      <form role="search" className="flex flex-wrap gap-2" action="/deals" onSubmit={onSearch}>
+        <label htmlFor="deal-search" className="sr-only">
+          Search deals
+        </label>
+        <input
+          id="deal-search"
+          name="q"
+          value={search}
+          onChange={(e) => setSearch(e.target.value)}
+          placeholder="Household, contact, street or city"
+          className="field-input max-w-md"
+        />
+        <button type="submit" className="btn-quiet">
+          Search
+        </button>
+      </form>
+
+      <div className="mt-3 flex flex-wrap items-end gap-3">
+        <div>
+          <label htmlFor={`${ids}-stage`} className="field-label">
+            Stage
+          </label>
+          <select id={`${ids}-stage`} className="field-input" value={view.stage} onChange={(e) => setFilter("stage", e.target.value)}>
+            <option value="">All stages</option>
+            {STAGES.map((s) => (
+              <option key={s} value={s}>
+                {STAGE_LABELS[s]}
+              </option>
+            ))}
+          </select>
+        </div>
+        {showOwner ? (
+          <div>
+            <label htmlFor={`${ids}-owner`} className="field-label">
+              Owner
+            </label>
+            <select id={`${ids}-owner`} className="field-input" value={view.owner} onChange={(e) => setFilter("owner", e.target.value)}>
+              <option value="">Everyone</option>
+              {owners.map((o) => (
+                <option key={o.id} value={o.id}>
+                  {o.name}
+                </option>
+              ))}
+            </select>
+          </div>
+        ) : null}
+        <div>
+          <label htmlFor={`${ids}-source`} className="field-label">
+            Source
+          </label>
+          <select id={`${ids}-source`} className="field-input" value={view.source} onChange={(e) => setFilter("source", e.target.value)}>
+            <option value="">Any source</option>
+            {sources.map((s) => (
+              <option key={s} value={s}>
+                {s}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div>
+          <label htmlFor={`${ids}-from`} className="field-label">
+            Created from
+          </label>
+          <input id={`${ids}-from`} type="date" className="field-input" value={view.from} max={view.to || undefined} onChange={(e) => setFilter("from", e.target.value)} />
+        </div>
+        <div>
+          <label htmlFor={`${ids}-to`} className="field-label">
+            Created to
+          </label>
+          <input id={`${ids}-to`} type="date" className="field-input" value={view.to} min={view.from || undefined} onChange={(e) => setFilter("to", e.target.value)} />
+        </div>
+        {filtered ? (
+          <button
+            type="button"
+            className="btn-quiet"
+            onClick={() => {
+              setSearch("");
+              setView((v) => ({ ...v, stage: "", owner: "", source: "", q: "", from: "", to: "", page: 1 }));
+            }}
+          >
+            Clear filters
+          </button>
+        ) : null}
+        <div className="ml-auto flex flex-wrap items-end gap-2">
+          <details className="relative">
+            <summary className="btn-quiet cursor-pointer list-none">Columns</summary>
+            <fieldset className="card absolute right-0 z-10 mt-1 w-56 p-3">
+              <legend className="sr-only">Columns to show</legend>
+              {table.getAllLeafColumns().map((column) => (
+                <label key={column.id} className="flex min-h-touch items-center gap-2 text-sm">
+                  <input
+                    type="checkbox"
+                    className="h-5 w-5 accent-copper"
+                    checked={column.getIsVisible()}
+                    disabled={!column.getCanHide()}
+                    onChange={column.getToggleVisibilityHandler()}
+                  />
+                  {column.columnDef.meta?.label ?? column.id}
+                </label>
+              ))}
+            </fieldset>
+          </details>
+          <a href={exportHref} download className="btn-quiet">
+            Export CSV
+          </a>
+        </div>
+      </div>
+
+      <p className="mt-3 text-sm text-graphite-soft" aria-live="polite">
+        {data.total === 0 ? (
+          "No deals"
+        ) : (
+          <>
+            Deals <span className="figure">{firstRow}</span>–<span className="figure">{lastRow}</span> of <span className="figure">{data.total}</span>
+          </>
+        )}
+        {view.q ? ` matching “${view.q}”` : ""}
+        {result.isFetching ? " · updating…" : ""}
+      </p>
+      {error ? (
+        <p role="alert" className="mt-2 text-sm text-danger">
+          {error}
+        </p>
+      ) : null}
+
+      <div className={`mt-2 overflow-x-auto rounded-card border border-paper-line bg-white ${result.isPlaceholderData ? "opacity-70" : ""}`}>
+        <table className="w-full min-w-[720px] text-left text-sm" aria-busy={result.isFetching}>
+          <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => {
+                  const sorted = header.column.getIsSorted();
+                  const right = header.column.columnDef.meta?.align === "right";
+                  return (
+                    <th
+                      key={header.id}
+                      scope="col"
+                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
+                      className={`px-3 py-1 font-semibold ${right ? "text-right" : ""}`}
+                    >
+                      <button
+                        type="button"
+                        onClick={header.column.getToggleSortingHandler()}
+                        className={`inline-flex min-h-touch items-center gap-1 uppercase tracking-wide hover:text-copper ${right ? "flex-row-reverse" : ""}`}
+                      >
+                        <table.FlexRender header={header} />
+                        <span aria-hidden="true" className="w-3 text-copper">
+                          {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
+                        </span>
+                      </button>
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody className="divide-y divide-paper-line">
+            {table.getRowModel().rows.map((row) => (
+              <tr key={row.id} className="hover:bg-paper">
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className={`px-3 py-2 ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}>
+                    <table.FlexRender cell={cell} />
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {data.rows.length === 0 ? <p className="px-4 py-6 text-graphite-soft">{filtered ? "No deal matches these filters." : "No deals yet."}</p> : null}
+      </div>
+
+      <nav className="mt-3 flex flex-wrap items-center justify-between gap-3" aria-label="Pages">
+        <div className="flex items-center gap-2 text-sm">
+          <label htmlFor={`${ids}-size`}>Rows per page</label>
+          <select id={`${ids}-size`} className="field-input w-24" value={view.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
+            {PAGE_SIZES.map((n) => (
+              <option key={n} value={n}>
+                {n}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div className="flex items-center gap-2">
+          <button type="button" className="btn-quiet" onClick={() => table.firstPage()} disabled={view.page <= 1}>
+            First
+          </button>
+          <button type="button" className="btn-quiet" onClick={() => table.previousPage()} disabled={view.page <= 1}>
+            Previous
+          </button>
+          <span className="text-sm">
+            Page <span className="figure">{view.page}</span> of <span className="figure">{pageCount}</span>
+          </span>
+          <button type="button" className="btn-quiet" onClick={() => table.nextPage()} disabled={view.page >= pageCount}>
+            Next
+          </button>
+          <button type="button" className="btn-quiet" onClick={() => table.lastPage()} disabled={view.page >= pageCount}>
+            Last
+          </button>
+        </div>
+      </nav>
+    </section>
+  );
+}
