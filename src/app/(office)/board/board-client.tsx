@@ -137,7 +137,7 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
             {error}
           </p>
         ) : null}
-        <p role="status" className="text-sm text-sage">
+        <p role="status" data-testid="board-notice" className="text-sm text-sage">
           {notice}
         </p>
       </div>
