@@ -303,7 +303,7 @@ export function DealsTable({
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="hover:bg-paper">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className={`px-3 py-2 ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}>
+                  <td key={cell.id} className={`whitespace-nowrap px-3 py-2 ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}>
                     <table.FlexRender cell={cell} />
                   </td>
                 ))}
