@@ -1,5 +1,5 @@
 // The app's sections (PRODUCT.md, "Names"), each behind a permission. Only sections that
-// work are listed; later issues add Board and Jobs.
+// work are listed; Jobs arrives with its feature.
 import type { Role } from "@/db/schema";
 import { can, type Permission } from "@/lib/permissions";
 
@@ -8,6 +8,7 @@ export type Section = { href: string; label: string; permission: Permission; dev
 export const SECTIONS: readonly Section[] = [
   { href: "/today", label: "Today", permission: "today:read" },
   { href: "/deals", label: "Deals", permission: "deals:read-own" },
+  { href: "/board", label: "Board", permission: "deals:read-own" },
   { href: "/catalog", label: "Catalog", permission: "catalog:read" },
   { href: "/price-book", label: "Price book", permission: "pricebook:read" },
   { href: "/rate-plans", label: "Rate plans", permission: "rates:read" },
