@@ -98,3 +98,22 @@ test("the owner moves it with a reason, and the Timeline shows who and why", asy
   await expect(timeline).toContainText(`Maren Lindqvist moved Halvorsen household from Permitting to Install booked: ${why}`);
   await expect(timeline.getByRole("listitem").last()).toContainText("Maren Lindqvist");
 });
+
+test("a card moves by keyboard too (Space, arrows, Space), announced to screen readers", async ({ page }) => {
+  await signIn(page, "owner@tallgrass.example");
+  await page.goto("/board");
+  const card = halvorsen(column(page, "Install booked"));
+  await card.scrollIntoViewIfNeeded();
+  const live = page.locator('[id^="DndLiveRegion"]');
+  // Retried until the page has hydrated and the card answers Space.
+  await expect(async () => {
+    await card.focus();
+    await page.keyboard.press("Space");
+    await expect(live).toContainText(/Picked up Halvorsen household|Halvorsen household is over Install booked/, { timeout: 2_000 });
+  }).toPass({ timeout: 60_000 });
+  await page.keyboard.press("ArrowRight");
+  await expect(live).toContainText("Halvorsen household is over Installed");
+  await page.keyboard.press("Space");
+  await expect(halvorsen(column(page, "Installed"))).toBeVisible();
+  await expect(page.getByTestId("board-notice")).toContainText("Halvorsen household moved to Installed");
+});
