@@ -56,3 +56,15 @@ test("without a session the API answers 401 with a JSON error", async ({ playwri
   expect((await res.json()).error.code).toBe("unauthorized");
   await anonymous.dispose();
 });
+
+test("Today shows the office the stalled deals, and a rep only their own", async ({ browser }) => {
+  // The demo's Galloway household has been in Survey for 19 days (limit 14, src/lib/stage-rules.ts);
+  // it belongs to rep@.
+  const office = await (await browser.newContext()).newPage();
+  await signIn(office, "office@tallgrass.example");
+  await expect(office.getByTestId("stalled-deals")).toContainText("Galloway household");
+  const rep2 = await (await browser.newContext()).newPage();
+  await signIn(rep2, "rep2@tallgrass.example");
+  await expect(rep2.getByRole("heading", { name: /Good day/ })).toBeVisible();
+  await expect(rep2.getByText("Galloway household")).toHaveCount(0);
+});

@@ -3,7 +3,8 @@ import Link from "next/link";
 import { STAGES } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
-import { formatCents, formatKwFromWatts } from "@/lib/format";
+import { daysSince, formatCents, formatKwFromWatts } from "@/lib/format";
+import { isStalled } from "@/lib/stage-rules";
 import { countDealsByStage, listDeals } from "@/server/deals";
 import { listPendingDiscountRequests } from "@/server/offers";
 import { listPendingInvitations } from "@/server/people";
@@ -38,6 +39,8 @@ export default async function TodayPage() {
     listPendingDiscountRequests(member),
   ]);
   const approver = can(member.role, "discounts:approve");
+  // Flagged by the board's default day limits per stage (src/lib/stage-rules.ts).
+  const stalled = deals.filter((d) => isStalled(d.stage, daysSince(d.stageChangedAt)));
   const scope = can(member.role, "deals:read-all") ? "The company's deals" : "Your deals";
   const open = deals.filter((d) => !["live", "lost", "cancelled"].includes(d.stage));
   const pipelineCents = open.reduce((sum, d) => sum + (d.contractCents ?? 0), 0);
@@ -66,6 +69,25 @@ export default async function TodayPage() {
                   </span>
                 </span>
                 <span className="figure">{formatCents(d.amountCents)}</span>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+      {stalled.length > 0 ? (
+        <section className="card mt-6 p-5" aria-labelledby="stalled-heading">
+          <h2 id="stalled-heading" className="font-semibold">
+            Stalled deals
+          </h2>
+          <ul className="mt-2 divide-y divide-paper-line" data-testid="stalled-deals">
+            {stalled.map((d) => (
+              <li key={d.id} className="flex flex-wrap items-center justify-between gap-2 py-2">
+                <Link href={`/deals/${d.id}`} className="font-medium underline-offset-2 hover:text-copper hover:underline">
+                  {d.householdName}
+                </Link>
+                <span className="text-sm text-graphite-soft">
+                  {STAGE_LABELS[d.stage]} for <span className="figure">{daysSince(d.stageChangedAt)}</span> days
+                </span>
               </li>
             ))}
           </ul>
