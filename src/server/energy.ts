@@ -8,11 +8,12 @@ import { usageFromBills } from "@/engine/bills";
 import { EngineInputError } from "@/engine/errors";
 import { importIntervalData } from "@/engine/green-button";
 import { spreadMonthlyToHourly } from "@/engine/load-shape";
+import { HOUR_MONTH } from "@/engine/year-calendar";
 import { suggestBillsFromText, type BillSuggestion } from "@/lib/bill-text";
 import { MAX_BILL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
-import { db } from "@/server/db";
+import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
-import { HttpError, notFound } from "@/server/errors";
+import { engineFields, HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { storage } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
@@ -49,9 +50,7 @@ export async function getIntervalProfileOrThrow(member: Member, profileId: strin
 /** Turns the engine's named issues into a 422 naming each bad bill. */
 function engineToHttp(err: unknown, what: string): never {
   if (err instanceof EngineInputError) {
-    const fields: Record<string, string[]> = {};
-    for (const issue of err.issues) (fields[issue.path || "_"] ??= []).push(issue.message);
-    throw new HttpError(422, "invalid_input", `${what}: ${err.issues.map((i) => i.message).slice(0, 3).join("; ")}`, fields);
+    throw new HttpError(422, "invalid_input", `${what}: ${err.issues.map((i) => i.message).slice(0, 3).join("; ")}`, engineFields(err));
   }
   throw err;
 }
@@ -123,7 +122,6 @@ export async function getDealUsage(member: Member, dealId: string): Promise<Deal
     .limit(1);
   if (profile) {
     const monthly = new Array<number>(12).fill(0);
-    const { HOUR_MONTH } = await import("@/engine/year-calendar");
     profile.hourlyKwh.forEach((kwh, h) => (monthly[HOUR_MONTH[h]] += kwh));
     return {
       monthlyKwh: monthly,
@@ -261,8 +259,6 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
     message: `Hourly usage loaded from “${file.name}”: ${Math.round(profile.annualKwh).toLocaleString("en-US")} kWh a year, ${(profile.coverage * 100).toFixed(0)} % of hours measured.`,
   };
 }
-
-type Tx = Parameters<Parameters<ReturnType<typeof db>["transaction"]>[0]>[0];
 
 /** Writes the bytes, then the rows in one transaction; if the rows fail, the bytes go too. */
 async function storeUpload(

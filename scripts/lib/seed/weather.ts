@@ -4,12 +4,13 @@
 // like an admin's upload: bytes in the instance's storage folder, an `upload` row and a
 // `weather_station` row, with the site and annual GHI taken from the engine's parse.
 import { createHash } from "node:crypto";
-import { mkdir, readFile, rename, writeFile } from "node:fs/promises";
+import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { upload, weatherStation } from "../../../src/db/schema";
 import { parseWeather, type WeatherFormat, type WeatherSite } from "../../../src/engine/weather";
 import type { SeedContext } from "../seed-demo";
+import { putSeedFile, seedStorageDir } from "../seed-files";
 
 export const order = 5;
 
@@ -58,22 +59,8 @@ const STATIONS: DemoStation[] = [
   },
 ];
 
-/**
- * Writes one file where the app's LocalDiskStorage (src/server/storage.ts) reads it:
- * <STORAGE_DIR>/<key>, written then renamed. That module is server-only, so the seed, which
- * runs in a plain Node script, writes the same layout itself.
- */
-async function putFile(storageDir: string, key: string, bytes: Uint8Array): Promise<void> {
-  const target = path.join(storageDir, key);
-  await mkdir(path.dirname(target), { recursive: true });
-  const temp = `${target}.${process.pid}.${Date.now()}.tmp`;
-  await writeFile(temp, bytes);
-  await rename(temp, target);
-}
-
 export async function seed(ctx: SeedContext): Promise<void> {
-  const storageDir = process.env.STORAGE_DIR;
-  if (!storageDir) throw new Error("Seeding weather stations needs STORAGE_DIR (the instance's file storage folder) in the environment.");
+  const storageDir = seedStorageDir("weather stations");
   for (const s of STATIONS) {
     const bytes = new Uint8Array(await readFile(s.file));
     const weather = parseWeather(new TextDecoder("utf-8").decode(bytes), { format: s.format, site: s.site });
@@ -81,7 +68,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
     let ghiWh = 0;
     for (let i = 0; i < weather.ghi.length; i++) ghiWh += weather.ghi[i];
     const storageKey = `${ctx.companyId}/weather/${s.uploadId}.${s.format === "epw" ? "epw" : "csv"}`;
-    await putFile(storageDir, storageKey, bytes);
+    await putSeedFile(storageDir, storageKey, bytes);
     await ctx.tx.insert(upload).values({
       id: s.uploadId,
       companyId: ctx.companyId,
