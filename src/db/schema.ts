@@ -100,6 +100,8 @@ export const company = mysqlTable("company", {
   id: id().primaryKey(),
   name: varchar("name", { length: 200 }).notNull(),
   licenseNumber: varchar("license_number", { length: 100 }),
+  /** Company settings the office tunes (stall limits per stage…): src/lib/schemas/company-settings.ts. */
+  settings: json("settings"),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -117,6 +119,8 @@ export const membership = mysqlTable(
       .references(() => user.id, { onDelete: "cascade" }),
     role: mysqlEnum("role", ROLES).notNull(),
     status: mysqlEnum("status", ["active", "deactivated"]).notNull().default("active"),
+    /** The install crew an installer belongs to (role crew only). */
+    crewId: id("crew_id"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -225,7 +229,12 @@ export const deal = mysqlTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index("deal_company_stage_idx").on(t.companyId, t.stage), index("deal_owner_idx").on(t.companyId, t.ownerUserId)],
+  (t) => [
+    index("deal_company_stage_idx").on(t.companyId, t.stage),
+    index("deal_owner_idx").on(t.companyId, t.ownerUserId),
+    index("deal_company_changed_idx").on(t.companyId, t.stageChangedAt),
+    index("deal_company_created_idx").on(t.companyId, t.createdAt),
+  ],
 );
 
 // ── The rep's workspace: energy, catalog, price book, rate plans, weather, design, offers ──
@@ -511,6 +520,289 @@ export const timelineEvent = mysqlTable(
   (t) => [index("timeline_event_deal_idx").on(t.companyId, t.dealId, t.createdAt)],
 );
 
+// ── Proposals and signing ─────────────────────────────────────────────────────────────────
+
+export const PROPOSAL_STATUSES = ["sent", "replaced", "revoked", "signed", "cancelled"] as const;
+export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
+
+/**
+ * A frozen, numbered, versioned snapshot of 1–3 offers of a deal, sent to the customer.
+ * `snapshot` copies every input and figure (src/lib/schemas/proposal.ts), so later edits to
+ * offers, catalog or price book never change it. Editing makes a new version; the old one
+ * becomes `replaced`. The link token is stored only as its SHA-256.
+ */
+export const proposal = mysqlTable(
+  "proposal",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    /** Company-wide proposal number, shared by all versions of one deal's proposal. */
+    number: int("number").notNull(),
+    version: int("version").notNull(),
+    status: mysqlEnum("status", PROPOSAL_STATUSES).notNull().default("sent"),
+    snapshot: json("snapshot").notNull(),
+    /** The unsigned PDF as sent, and its SHA-256 (hex). */
+    pdfStorageKey: varchar("pdf_storage_key", { length: 255 }).notNull(),
+    pdfSha256: varchar("pdf_sha256", { length: 64 }).notNull(),
+    tokenHash: varchar("token_hash", { length: 64 }).notNull(),
+    expiresAt: timestamp("expires_at", { fsp: 3 }).notNull(),
+    revokedAt: timestamp("revoked_at", { fsp: 3 }),
+    replacedByProposalId: id("replaced_by_proposal_id"),
+    sentToEmail: varchar("sent_to_email", { length: 320 }).notNull(),
+    sentByUserId: id("sent_by_user_id").references(() => user.id, { onDelete: "set null" }),
+    /** A sale made in the customer's home carries the 3-business-day right to cancel (16 CFR 429). */
+    inHomeSale: boolean("in_home_sale").notNull().default(true),
+    firstOpenedAt: timestamp("first_opened_at", { fsp: 3 }),
+    lastViewedAt: timestamp("last_viewed_at", { fsp: 3 }),
+    /** The offer the customer chose (snapshot offer position). */
+    chosenPosition: int("chosen_position"),
+    /** One-time code for signing: hash, expiry, wrong attempts; a new code resets them. */
+    codeHash: varchar("code_hash", { length: 64 }),
+    codeExpiresAt: timestamp("code_expires_at", { fsp: 3 }),
+    codeAttempts: int("code_attempts").notNull().default(0),
+    codeVerifiedAt: timestamp("code_verified_at", { fsp: 3 }),
+    consentedAt: timestamp("consented_at", { fsp: 3 }),
+    signedAt: timestamp("signed_at", { fsp: 3 }),
+    signerName: varchar("signer_name", { length: 200 }),
+    signerEmail: varchar("signer_email", { length: 320 }),
+    signerIp: varchar("signer_ip", { length: 64 }),
+    signerUserAgent: varchar("signer_user_agent", { length: 500 }),
+    signedStorageKey: varchar("signed_storage_key", { length: 255 }),
+    signedSha256: varchar("signed_sha256", { length: 64 }),
+    /** Last day (inclusive, local date) the buyer may cancel. */
+    cancelDeadline: date("cancel_deadline", { mode: "string" }),
+    cancelledAt: timestamp("cancelled_at", { fsp: 3 }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("proposal_token_uq").on(t.tokenHash),
+    uniqueIndex("proposal_version_uq").on(t.companyId, t.number, t.version),
+    uniqueIndex("proposal_signed_sha_uq").on(t.signedSha256),
+    index("proposal_deal_idx").on(t.companyId, t.dealId),
+  ],
+);
+
+/**
+ * What happened on a proposal, for its certificate and the office: sent, opened, viewed,
+ * code sent, code wrong, code verified, consent, signed, question, cancelled, revoked.
+ */
+export const proposalEvent = mysqlTable(
+  "proposal_event",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    proposalId: id("proposal_id")
+      .notNull()
+      .references(() => proposal.id, { onDelete: "cascade" }),
+    kind: varchar("kind", { length: 40 }).notNull(),
+    /** A customer's question, or a short note. */
+    body: text("body"),
+    ip: varchar("ip", { length: 64 }),
+    userAgent: varchar("user_agent", { length: 500 }),
+    actorUserId: id("actor_user_id").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("proposal_event_proposal_idx").on(t.companyId, t.proposalId, t.createdAt)],
+);
+
+// ── Deposits: payments, refunds, webhook events ──────────────────────────────────────────
+
+export const PAYMENT_STATUSES = ["open", "paid", "failed", "expired", "flagged", "refunded", "partially_refunded"] as const;
+export type PaymentStatus = (typeof PAYMENT_STATUSES)[number];
+
+/** A deposit asked through a Stripe Checkout Session; the ledger row for it. Amounts in cents. */
+export const payment = mysqlTable(
+  "payment",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    proposalId: id("proposal_id")
+      .notNull()
+      .references(() => proposal.id, { onDelete: "cascade" }),
+    checkoutSessionId: varchar("checkout_session_id", { length: 255 }).notNull(),
+    paymentIntentId: varchar("payment_intent_id", { length: 255 }),
+    chargeId: varchar("charge_id", { length: 255 }),
+    /** What was asked. */
+    amountCents: int("amount_cents").notNull(),
+    currency: varchar("currency", { length: 3 }).notNull().default("usd"),
+    /** What the provider reported as paid (may differ: then status is flagged). */
+    paidCents: int("paid_cents"),
+    refundedCents: int("refunded_cents").notNull().default(0),
+    status: mysqlEnum("status", PAYMENT_STATUSES).notNull().default("open"),
+    flagReason: varchar("flag_reason", { length: 500 }),
+    failureMessage: varchar("failure_message", { length: 500 }),
+    paidAt: timestamp("paid_at", { fsp: 3 }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("payment_session_uq").on(t.checkoutSessionId), index("payment_deal_idx").on(t.companyId, t.dealId)],
+);
+
+/** A refund of (part of) a payment, through the Stripe SDK or reported by a webhook. */
+export const refund = mysqlTable(
+  "refund",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    paymentId: id("payment_id")
+      .notNull()
+      .references(() => payment.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    stripeRefundId: varchar("stripe_refund_id", { length: 255 }).notNull(),
+    amountCents: int("amount_cents").notNull(),
+    status: varchar("status", { length: 40 }).notNull(),
+    reason: varchar("reason", { length: 500 }).notNull(),
+    requestedByUserId: id("requested_by_user_id").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("refund_stripe_uq").on(t.stripeRefundId), index("refund_payment_idx").on(t.companyId, t.paymentId)],
+);
+
+/**
+ * Every Stripe event id processed, once (unique primary key: a replay changes nothing). No
+ * company column: events reach the app before it knows whose they are; the payment row is
+ * company-scoped.
+ */
+export const webhookEvent = mysqlTable("webhook_event", {
+  id: varchar("id", { length: 255 }).primaryKey(),
+  type: varchar("type", { length: 100 }).notNull(),
+  /** What the handler did: booked, ignored, flagged, deferred. */
+  outcome: varchar("outcome", { length: 40 }).notNull(),
+  note: varchar("note", { length: 500 }),
+  receivedAt: createdAt(),
+});
+
+// ── Jobs for the crews ───────────────────────────────────────────────────────────────────
+
+/** An install crew; its calendar feed sits behind a secret, rotatable URL token. */
+export const crew = mysqlTable(
+  "crew",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    name: varchar("name", { length: 100 }).notNull(),
+    /** The calendar feed's URL token (shown to the crew, so kept readable; rotate to revoke). */
+    feedToken: varchar("feed_token", { length: 64 }).notNull(),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("crew_feed_uq").on(t.feedToken), index("crew_company_idx").on(t.companyId)],
+);
+
+/** The company's install checklist templates (admins); a job copies one when scheduled. */
+export const checklistTemplate = mysqlTable(
+  "checklist_template",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    name: varchar("name", { length: 100 }).notNull(),
+    /** [{ id, label }] */
+    items: json("items").notNull(),
+    active: boolean("active").notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index("checklist_template_company_idx").on(t.companyId)],
+);
+
+/** The buildable job of a deal, created when its deposit is paid. */
+export const job = mysqlTable(
+  "job",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    /** The signed proposal the job builds (its chosen offer's equipment). */
+    proposalId: id("proposal_id").references(() => proposal.id, { onDelete: "set null" }),
+    crewId: id("crew_id").references(() => crew.id, { onDelete: "set null" }),
+    surveyDate: date("survey_date", { mode: "string" }),
+    installDate: date("install_date", { mode: "string" }),
+    permitNumber: varchar("permit_number", { length: 100 }),
+    permitSubmittedOn: date("permit_submitted_on", { mode: "string" }),
+    permitApprovedOn: date("permit_approved_on", { mode: "string" }),
+    interconnectionNumber: varchar("interconnection_number", { length: 100 }),
+    interconnectionSubmittedOn: date("interconnection_submitted_on", { mode: "string" }),
+    interconnectionApprovedOn: date("interconnection_approved_on", { mode: "string" }),
+    inspectionOn: date("inspection_on", { mode: "string" }),
+    ptoOn: date("pto_on", { mode: "string" }),
+    notes: text("notes"),
+    /** The checklist copied from a template: [{ id, label, doneAt, doneByUserId }]. */
+    checklist: json("checklist"),
+    installedAt: timestamp("installed_at", { fsp: 3 }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("job_deal_uq").on(t.companyId, t.dealId), index("job_crew_idx").on(t.companyId, t.crewId, t.installDate)],
+);
+
+/** A photo a crew took on site (content-checked, resized, stored). */
+export const jobPhoto = mysqlTable(
+  "job_photo",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    jobId: id("job_id")
+      .notNull()
+      .references(() => job.id, { onDelete: "cascade" }),
+    storageKey: varchar("storage_key", { length: 255 }).notNull(),
+    mimeType: varchar("mime_type", { length: 100 }).notNull(),
+    widthPx: int("width_px").notNull(),
+    heightPx: int("height_px").notNull(),
+    sizeBytes: int("size_bytes").notNull(),
+    caption: varchar("caption", { length: 200 }),
+    uploadedByUserId: id("uploaded_by_user_id").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("job_photo_job_idx").on(t.companyId, t.jobId)],
+);
+
+/** A person's saved view of the deals table (filters, sort, columns). */
+export const savedView = mysqlTable(
+  "saved_view",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    userId: id("user_id")
+      .notNull()
+      .references(() => user.id, { onDelete: "cascade" }),
+    name: varchar("name", { length: 100 }).notNull(),
+    /** src/lib/schemas/deal-table.ts query (filters, sort, columns). */
+    query: json("query").notNull(),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("saved_view_name_uq").on(t.companyId, t.userId, t.name)],
+);
+
 export const schema = {
   user,
   session,
@@ -534,4 +826,14 @@ export const schema = {
   offer,
   discountRequest,
   timelineEvent,
+  proposal,
+  proposalEvent,
+  payment,
+  refund,
+  webhookEvent,
+  crew,
+  checklistTemplate,
+  job,
+  jobPhoto,
+  savedView,
 };

@@ -1,8 +1,10 @@
-/** The tabs of a deal room (PRODUCT.md, "Names"); Proposal and Money arrive with their features. */
+/** The tabs of a deal room (PRODUCT.md, "Names"). */
 export const DEAL_TABS = [
   { segment: "", label: "Household" },
   { segment: "energy", label: "Energy" },
   { segment: "design", label: "Design" },
   { segment: "offers", label: "Offers" },
+  { segment: "proposal", label: "Proposal" },
+  { segment: "money", label: "Money" },
   { segment: "timeline", label: "Timeline" },
 ] as const;

@@ -14,6 +14,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 const STAFF_ADMINS: readonly Role[] = ["owner", "admin"];
 const OFFICE: readonly Role[] = ["owner", "admin", "office_manager"];
 const SELLERS: readonly Role[] = ["owner", "admin", "office_manager", "sales_rep"];
+const OFFICE_AND_CREW: readonly Role[] = ["owner", "admin", "office_manager", "crew"];
 
 export const PERMISSIONS = {
   /** See every deal of the company. */
@@ -40,6 +41,25 @@ export const PERMISSIONS = {
   "weather:manage": STAFF_ADMINS,
   /** Grant or decline a discount beyond a rep's limit. */
   "discounts:approve": OFFICE,
+  /** Freeze offers into a proposal, send, re-send and revoke its link (reps: own deals). */
+  "proposals:send": SELLERS,
+  /** The deal's Money tab: payments and refunds (reps: own deals). */
+  "payments:read": SELLERS,
+  /** Refund a deposit fully or partly, and compare the ledger with the provider's. */
+  "payments:refund": OFFICE,
+  "payments:reconcile": OFFICE,
+  /** Jobs: the office sees all, a crew member only the jobs of their crew. */
+  "jobs:read": OFFICE_AND_CREW,
+  /** Schedule, assign a crew, record permits, interconnection, inspection and PTO. */
+  "jobs:manage": OFFICE,
+  /** Tick the checklist, upload photos, mark installed (crews on their own jobs; office too). */
+  "jobs:work": OFFICE_AND_CREW,
+  /** Crews and their calendar feeds. */
+  "crews:manage": OFFICE,
+  /** Install checklist templates. */
+  "checklists:manage": STAFF_ADMINS,
+  /** A person's saved views of the deals table. */
+  "views:own": SELLERS,
   /** Everyone signed in can see their own Today. */
   "today:read": ["owner", "admin", "office_manager", "sales_rep", "crew"],
 } as const satisfies Record<string, readonly Role[]>;

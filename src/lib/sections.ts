@@ -1,5 +1,5 @@
 // The app's sections (PRODUCT.md, "Names"), each behind a permission. Only sections that
-// work are listed; Jobs arrives with its feature.
+// work are listed.
 import type { Role } from "@/db/schema";
 import { can, type Permission } from "@/lib/permissions";
 
@@ -9,6 +9,7 @@ export const SECTIONS: readonly Section[] = [
   { href: "/today", label: "Today", permission: "today:read" },
   { href: "/deals", label: "Deals", permission: "deals:read-own" },
   { href: "/board", label: "Board", permission: "deals:read-own" },
+  { href: "/jobs", label: "Jobs", permission: "jobs:read" },
   { href: "/catalog", label: "Catalog", permission: "catalog:read" },
   { href: "/price-book", label: "Price book", permission: "pricebook:read" },
   { href: "/rate-plans", label: "Rate plans", permission: "rates:read" },
