@@ -16,6 +16,15 @@ export const envSchema = z.object({
     .optional(),
   MAIL_FROM: z.string().regex(/^.+<[^@\s]+@[^@\s]+>$|^[^@\s]+@[^@\s]+$/, "must be an address or Name <address>"),
   STORAGE_DIR: z.string().min(1),
+  /** Stripe secret key (test mode: sk_test_…). */
+  STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_\w+/, "must be a Stripe secret key (sk_test_… or sk_live_…)"),
+  /** Signing secret of the webhook endpoint (whsec_…). */
+  STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_\w+/, "must be a webhook signing secret (whsec_…)"),
+  /** Optional: base URL of a Stripe-compatible API (the dev payments server), e.g. http://127.0.0.1:3520. */
+  STRIPE_API_BASE: z
+    .url()
+    .transform((u) => u.replace(/\/$/, ""))
+    .optional(),
 });
 
 export type Env = z.infer<typeof envSchema>;
