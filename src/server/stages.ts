@@ -5,7 +5,7 @@ import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
 import { getDealOrThrow, type DealRow } from "@/server/deals";
-import { db } from "@/server/db";
+import { db, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
@@ -62,6 +62,37 @@ export async function moveDealStage(member: Member, dealId: string, toStage: Sta
     });
   });
   return { dealId, from, to: toStage, reason: why, stageChangedAt };
+}
+
+/**
+ * A move caused by the customer, by Stripe or by a job date (PRODUCT.md, "Stages": these happen
+ * by themselves). Call it inside the transaction of the change that causes it; it moves the
+ * deal only from one of `from` (so a late or repeated event never drags a deal backwards) and
+ * writes the Timeline event in the same transaction. Returns whether the deal moved.
+ */
+export async function autoMoveStage(
+  tx: Tx,
+  move: { companyId: string; dealId: string; from: readonly Stage[]; to: Stage; summary: string; actorUserId?: string | null; data?: Record<string, unknown> },
+): Promise<boolean> {
+  const [row] = await tx
+    .select({ stage: deal.stage })
+    .from(deal)
+    .where(and(eq(deal.id, move.dealId), eq(deal.companyId, move.companyId)))
+    .for("update");
+  if (!row || row.stage === move.to || !move.from.includes(row.stage)) return false;
+  await tx
+    .update(deal)
+    .set({ stage: move.to, stageChangedAt: new Date() })
+    .where(and(eq(deal.id, move.dealId), eq(deal.companyId, move.companyId)));
+  await recordEvent(tx, {
+    companyId: move.companyId,
+    dealId: move.dealId,
+    kind: "stage.moved",
+    summary: move.summary.length > 500 ? `${move.summary.slice(0, 499)}…` : move.summary,
+    actorUserId: move.actorUserId ?? null,
+    data: { ...move.data, from: row.stage, to: move.to, reason: null, automatic: true },
+  });
+  return true;
 }
 
 /** The deals on the board: the person's visible deals, filtered on the server. */
