@@ -29,10 +29,11 @@ const OFFICE_ROLES: readonly Role[] = ["owner", "admin", "office_manager"];
 const ADMIN_ROLES: readonly Role[] = ["owner", "admin"];
 
 /**
- * Days a deal may sit in a stage before the board flags it as stalled. There is no company
- * setting for this yet, so these are the defaults, following common practice in the trade
- * (a proposal unanswered after two weeks, a permit pending after a month…). Stages without
- * an entry are never flagged (Live is the end; Lost and Cancelled are closed).
+ * Days a deal may sit in a stage before the board flags it as stalled, until a company sets
+ * its own in Settings → Company (src/lib/schemas/company-settings.ts). The defaults follow
+ * common practice in the trade (a proposal unanswered after two weeks, a permit pending after
+ * a month…). Stages without an entry are never flagged (Live is the end; Lost and Cancelled
+ * are closed).
  */
 export const DEFAULT_STALL_DAYS: Partial<Record<Stage, number>> = {
   lead: 7,
@@ -62,8 +63,8 @@ export type MoveInput = {
   role: Role;
   reason?: string | null;
   /**
-   * When the permit was approved. There is no permit table yet, so the server passes null for
-   * every deal: Install booked then always needs an owner's or admin's reason.
+   * When the permit was approved: the deal's job.permit_approved_on, or null while the job has
+   * none (or there is no job yet). Without it, Install booked needs an owner's or admin's reason.
    */
   permitApprovedAt: Date | null;
 };
@@ -110,7 +111,6 @@ export function checkManualMove({ from, to, role, reason, permitApprovedAt }: Mo
   }
 
   if (to === "install_booked" && !permitApprovedAt) {
-    // No permit table exists yet: every deal counts as having no permit approval date.
     if (!admin) {
       return {
         ok: false,

@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, eq, gte, inArray, isNotNull, lt, type SQL } from "drizzle-orm";
-import { deal, household, membership, user, type Stage } from "@/db/schema";
+import { deal, household, job, membership, user, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
@@ -38,8 +38,8 @@ export async function moveDealStage(member: Member, dealId: string, toStage: Sta
     throw new HttpError(403, "forbidden", `Your role can move deals only between ${allowed}; ask the office for ${STAGE_LABELS[toStage]}.`);
   }
   const why = reason?.trim() || null;
-  // No permit table exists yet, so no deal has a permit approval date on record.
-  const check = checkManualMove({ from, to: toStage, role: member.role, reason: why, permitApprovedAt: null });
+  const permitApprovedAt = toStage === "install_booked" ? await permitApprovedOn(member.companyId, dealId) : null;
+  const check = checkManualMove({ from, to: toStage, role: member.role, reason: why, permitApprovedAt });
   if (!check.ok) throw new StageRuleError(check.reason, check.needs);
 
   const stageChangedAt = new Date();
@@ -62,6 +62,16 @@ export async function moveDealStage(member: Member, dealId: string, toStage: Sta
     });
   });
   return { dealId, from, to: toStage, reason: why, stageChangedAt };
+}
+
+/** The permit approval date recorded on the deal's job (null while there is no job or no date). */
+export async function permitApprovedOn(companyId: string, dealId: string): Promise<Date | null> {
+  const [row] = await db()
+    .select({ approvedOn: job.permitApprovedOn })
+    .from(job)
+    .where(and(eq(job.companyId, companyId), eq(job.dealId, dealId)))
+    .limit(1);
+  return row?.approvedOn ? new Date(`${row.approvedOn}T00:00:00Z`) : null;
 }
 
 /**

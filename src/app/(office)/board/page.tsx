@@ -3,7 +3,8 @@ import Link from "next/link";
 import { NoAccess } from "@/components/no-access";
 import { daysSince } from "@/lib/format";
 import { can } from "@/lib/permissions";
-import { boardFilterSchema, DEFAULT_STALL_DAYS, isStalled } from "@/lib/stage-rules";
+import { boardFilterSchema, isStalled } from "@/lib/stage-rules";
+import { getCompanySettings } from "@/server/company-settings";
 import { getMember } from "@/server/session";
 import { listBoardDeals, listBoardOwners, listBoardSources } from "@/server/stages";
 import { BoardClient, type BoardCard } from "./board-client";
@@ -22,7 +23,13 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
     to: typeof raw.to === "string" && raw.to ? raw.to : undefined,
   });
   const office = can(member.role, "deals:read-all");
-  const [deals, owners, sources] = await Promise.all([listBoardDeals(member, filter), office ? listBoardOwners(member) : [], listBoardSources(member)]);
+  const [deals, owners, sources, settings] = await Promise.all([
+    listBoardDeals(member, filter),
+    office ? listBoardOwners(member) : [],
+    listBoardSources(member),
+    getCompanySettings(member.companyId),
+  ]);
+  const limits = settings.stallLimits;
   const now = new Date();
   const cards: BoardCard[] = deals.map((d) => {
     const days = daysSince(d.stageChangedAt, now);
@@ -34,7 +41,7 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
       systemDcWatts: d.systemDcWatts,
       contractCents: d.contractCents,
       daysInStage: days,
-      stalled: isStalled(d.stage, days),
+      stalled: isStalled(d.stage, days, limits),
       ownerName: d.ownerName,
     };
   });
@@ -102,7 +109,7 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
           </Link>
         ) : null}
       </form>
-      <BoardClient key={JSON.stringify(filter)} cards={cards} stallDays={DEFAULT_STALL_DAYS} />
+      <BoardClient key={JSON.stringify([filter, limits])} cards={cards} stallDays={limits} />
     </div>
   );
 }

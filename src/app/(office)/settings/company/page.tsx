@@ -1,0 +1,25 @@
+import type { Metadata } from "next";
+import { NoAccess } from "@/components/no-access";
+import { can } from "@/lib/permissions";
+import { getCompanySettings } from "@/server/company-settings";
+import { getMember } from "@/server/session";
+import { CompanySettingsClient } from "./company-settings-client";
+
+export const metadata: Metadata = { title: "Company settings" };
+
+export default async function CompanySettingsPage() {
+  const member = await getMember();
+  if (!member) return null;
+  if (!can(member.role, "company:manage")) return <NoAccess section="Settings → Company" />;
+  const settings = await getCompanySettings(member.companyId);
+  return (
+    <>
+      <p className="text-sm text-graphite-soft">Settings</p>
+      <h1 className="text-2xl font-semibold">Company</h1>
+      <p className="mt-1 text-graphite-soft">How {settings.name} appears on proposals, its working day, and when the Board flags a deal as stalled.</p>
+      <CompanySettingsClient
+        initial={{ name: settings.name, licenseNumber: settings.licenseNumber ?? "", timeZone: settings.timeZone, stallDays: settings.stallDays }}
+      />
+    </>
+  );
+}

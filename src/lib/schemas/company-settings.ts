@@ -1,0 +1,95 @@
+// Company settings (Settings → Company): the name and contractor licence number printed on
+// proposals, the company's time zone for "today", and the stall limits per stage that the
+// Board and Today flag deals by. The tunable parts live in company.settings (JSON); the name
+// and licence number in their own columns. Shared by the form (zodResolver) and the server.
+import { z } from "zod";
+import type { Stage } from "@/db/schema";
+import { DEFAULT_STALL_DAYS, PIPELINE } from "@/lib/stage-rules";
+
+/** Stages a company may set a stall limit for: the main line up to Inspected, and On hold. */
+export const STALL_STAGES = [...PIPELINE.filter((s) => s !== "live"), "on_hold"] as const satisfies readonly Stage[];
+export type StallStage = (typeof STALL_STAGES)[number];
+
+export const STALL_DAYS_MIN = 1;
+export const STALL_DAYS_MAX = 365;
+
+/**
+ * Time zones offered for the company's working day (U.S. installers; IANA names). "Today"
+ * and "this week" on a crew's queue are days in this zone.
+ */
+export const COMPANY_TIME_ZONES = [
+  { id: "America/New_York", label: "Eastern" },
+  { id: "America/Chicago", label: "Central" },
+  { id: "America/Denver", label: "Mountain" },
+  { id: "America/Phoenix", label: "Mountain, no daylight saving (Arizona)" },
+  { id: "America/Los_Angeles", label: "Pacific" },
+  { id: "America/Anchorage", label: "Alaska" },
+  { id: "Pacific/Honolulu", label: "Hawaii" },
+] as const;
+export type CompanyTimeZone = (typeof COMPANY_TIME_ZONES)[number]["id"];
+const TIME_ZONE_IDS = COMPANY_TIME_ZONES.map((z) => z.id) as [CompanyTimeZone, ...CompanyTimeZone[]];
+/** Until a company picks its zone: the demo company's, and the most common one for U.S. installers' customers. */
+export const DEFAULT_TIME_ZONE: CompanyTimeZone = "America/New_York";
+
+/** Stall limit per stage: whole days, or null for "never flag". */
+export type StallDays = Record<StallStage, number | null>;
+
+/** The defaults of src/lib/stage-rules.ts, in the settings' shape. */
+export const DEFAULT_STALL_SETTINGS: StallDays = Object.fromEntries(STALL_STAGES.map((s) => [s, DEFAULT_STALL_DAYS[s] ?? null])) as StallDays;
+
+const stallDayValue = z.number().int().min(STALL_DAYS_MIN).max(STALL_DAYS_MAX).nullable();
+
+/**
+ * Reads company.settings defensively: a missing or damaged entry falls back to its default,
+ * one stage at a time, so a bad value never hides the rest.
+ */
+export function parseStoredSettings(value: unknown): { stallDays: StallDays; timeZone: CompanyTimeZone } {
+  const raw = (value && typeof value === "object" ? value : {}) as { stallDays?: unknown; timeZone?: unknown };
+  const stored = (raw.stallDays && typeof raw.stallDays === "object" ? raw.stallDays : {}) as Record<string, unknown>;
+  const stallDays = { ...DEFAULT_STALL_SETTINGS };
+  for (const stage of STALL_STAGES) {
+    if (!(stage in stored)) continue;
+    const parsed = stallDayValue.safeParse(stored[stage]);
+    if (parsed.success) stallDays[stage] = parsed.data;
+  }
+  const tz = z.enum(TIME_ZONE_IDS).safeParse(raw.timeZone);
+  return { stallDays, timeZone: tz.success ? tz.data : DEFAULT_TIME_ZONE };
+}
+
+/** The limits as the Board and Today use them: stages without a limit are never flagged. */
+export function stallLimits(stallDays: StallDays): Partial<Record<Stage, number>> {
+  const out: Partial<Record<Stage, number>> = {};
+  for (const stage of STALL_STAGES) {
+    const days = stallDays[stage];
+    if (days != null) out[stage] = days;
+  }
+  return out;
+}
+
+const stallDayField = z
+  .union([z.string(), z.number(), z.null()])
+  .transform((v, ctx) => {
+    if (v === null) return null;
+    const text = typeof v === "number" ? String(v) : v.trim();
+    if (text === "") return null;
+    const n = Number(text);
+    if (!Number.isInteger(n) || n < STALL_DAYS_MIN || n > STALL_DAYS_MAX) {
+      ctx.addIssue({ code: "custom", message: `Whole days from ${STALL_DAYS_MIN} to ${STALL_DAYS_MAX}, or leave empty for never` });
+      return z.NEVER;
+    }
+    return n;
+  });
+
+/** Settings → Company form. */
+export const companySettingsSchema = z.object({
+  name: z.string().trim().min(1, "Enter the company's name").max(200, "Keep the name under 200 characters"),
+  licenseNumber: z
+    .union([z.string(), z.null()])
+    .transform((v) => (v ?? "").trim())
+    .pipe(z.string().max(100, "Keep the licence number under 100 characters"))
+    .transform((v) => (v === "" ? null : v)),
+  timeZone: z.enum(TIME_ZONE_IDS, "Pick a time zone from the list"),
+  stallDays: z.object(Object.fromEntries(STALL_STAGES.map((s) => [s, stallDayField])) as Record<StallStage, typeof stallDayField>),
+});
+export type CompanySettingsInput = z.input<typeof companySettingsSchema>;
+export type CompanySettingsValues = z.output<typeof companySettingsSchema>;

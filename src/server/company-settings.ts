@@ -1,0 +1,61 @@
+import "server-only";
+import { eq } from "drizzle-orm";
+import { company, type Stage } from "@/db/schema";
+import { parseStoredSettings, stallLimits, type CompanySettingsValues, type CompanyTimeZone, type StallDays } from "@/lib/schemas/company-settings";
+import { db } from "@/server/db";
+import { notFound } from "@/server/errors";
+import type { Member } from "@/server/session";
+
+export type CompanySettings = {
+  companyId: string;
+  name: string;
+  /** Contractor licence number, printed on proposals and packets; null when not entered. */
+  licenseNumber: string | null;
+  timeZone: CompanyTimeZone;
+  /** Per stage: days before a deal is flagged as stalled, or null for never. */
+  stallDays: StallDays;
+  /** The same limits as the Board and Today read them (stages without one are never flagged). */
+  stallLimits: Partial<Record<Stage, number>>;
+};
+
+/**
+ * The company's name, licence number and settings. Stored settings are validated; anything
+ * missing or damaged falls back to the defaults (src/lib/stage-rules.ts DEFAULT_STALL_DAYS).
+ */
+export async function getCompanySettings(companyId: string): Promise<CompanySettings> {
+  const [row] = await db()
+    .select({ id: company.id, name: company.name, licenseNumber: company.licenseNumber, settings: company.settings })
+    .from(company)
+    .where(eq(company.id, companyId))
+    .limit(1);
+  if (!row) throw notFound("Company");
+  const { stallDays, timeZone } = parseStoredSettings(row.settings);
+  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays) };
+}
+
+/** GET /api/companies/[id]: one's own company only; any other id is simply not found. */
+export async function getCompanyOrThrow(member: Member, companyId: string): Promise<CompanySettings> {
+  if (companyId !== member.companyId) throw notFound("Company");
+  return getCompanySettings(member.companyId);
+}
+
+/**
+ * Saves Settings → Company. Keys of company.settings this form does not own are kept, so
+ * another area's settings survive an edit here.
+ */
+export async function updateCompanySettings(member: Member, input: CompanySettingsValues): Promise<CompanySettings> {
+  await db().transaction(async (tx) => {
+    const [row] = await tx.select({ settings: company.settings }).from(company).where(eq(company.id, member.companyId)).for("update");
+    if (!row) throw notFound("Company");
+    const previous = row.settings && typeof row.settings === "object" && !Array.isArray(row.settings) ? (row.settings as Record<string, unknown>) : {};
+    await tx
+      .update(company)
+      .set({
+        name: input.name,
+        licenseNumber: input.licenseNumber,
+        settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays },
+      })
+      .where(eq(company.id, member.companyId));
+  });
+  return getCompanySettings(member.companyId);
+}
