@@ -1,0 +1,142 @@
+import "server-only";
+// Stripe webhook events: an allow-list with one handler each. Every event id is recorded in
+// webhook_event inside the same transaction as the ledger change it causes, so a replay (or a
+// concurrent second delivery) finds the id and changes nothing. E-mail goes out only after the
+// commit, and a mail failure never turns into a failed delivery.
+import { eq } from "drizzle-orm";
+import type Stripe from "stripe";
+import { webhookEvent } from "@/db/schema";
+import { db, type Tx } from "@/server/db";
+import {
+  applyChargeRefunded,
+  bookPayment,
+  lockPaymentFor,
+  markPaymentExpired,
+  markPaymentFailed,
+  type AfterCommit,
+  type LedgerOutcome,
+} from "@/server/payments";
+import { stripe } from "@/server/stripe";
+
+export const HANDLED_EVENT_TYPES = [
+  "checkout.session.completed",
+  "payment_intent.succeeded",
+  "payment_intent.payment_failed",
+  "charge.refunded",
+  "checkout.session.expired",
+] as const;
+export type HandledEventType = (typeof HANDLED_EVENT_TYPES)[number];
+type HandledEvent = Extract<Stripe.Event, { type: HandledEventType }>;
+
+export type WebhookResult =
+  | { status: "processed"; outcome: LedgerOutcome["outcome"]; note?: string }
+  | { status: "duplicate" }
+  | { status: "ignored"; note: string };
+
+const idOf = (v: string | { id: string } | null | undefined): string | null => (v == null ? null : typeof v === "string" ? v : v.id);
+const unknownPayment = (what: string): LedgerOutcome => ({ outcome: "ignored", note: `no ledger row for ${what}` });
+
+type Handler<E extends HandledEvent> = (tx: Tx, event: E, after: AfterCommit[]) => Promise<LedgerOutcome>;
+type Handlers = { [T in HandledEventType]: Handler<Extract<HandledEvent, { type: T }>> };
+
+const handlers: Handlers = {
+  "checkout.session.completed": async (tx, event, after) => {
+    const s = event.data.object;
+    const row = await lockPaymentFor(tx, { metadata: s.metadata, sessionId: s.id });
+    if (!row) return unknownPayment(s.id);
+    if (s.payment_status !== "paid") return { outcome: "ignored", note: `session ${s.id} completed with payment ${s.payment_status}` };
+    return bookPayment(
+      tx,
+      row,
+      { amountCents: s.amount_total, currency: s.currency, paymentIntentId: idOf(s.payment_intent), chargeId: null, at: new Date(event.created * 1000) },
+      event.id,
+      after,
+    );
+  },
+
+  "payment_intent.succeeded": async (tx, event, after) => {
+    const pi = event.data.object;
+    const row = await lockPaymentFor(tx, { metadata: pi.metadata, paymentIntentId: pi.id, sessionId: await sessionIdFor(pi) });
+    if (!row) return unknownPayment(pi.id);
+    return bookPayment(
+      tx,
+      row,
+      { amountCents: pi.amount_received, currency: pi.currency, paymentIntentId: pi.id, chargeId: idOf(pi.latest_charge), at: new Date(event.created * 1000) },
+      event.id,
+      after,
+    );
+  },
+
+  "payment_intent.payment_failed": async (tx, event) => {
+    const pi = event.data.object;
+    const row = await lockPaymentFor(tx, { metadata: pi.metadata, paymentIntentId: pi.id, sessionId: await sessionIdFor(pi) });
+    if (!row) return unknownPayment(pi.id);
+    const message = pi.last_payment_error?.message ?? "The card was declined.";
+    return markPaymentFailed(tx, row, pi.id, message);
+  },
+
+  "charge.refunded": async (tx, event, after) => {
+    const charge = event.data.object;
+    const piId = idOf(charge.payment_intent);
+    let row = await lockPaymentFor(tx, { metadata: charge.metadata, chargeId: charge.id, paymentIntentId: piId });
+    if (!row && piId) {
+      // Before the payment's own event landed the ledger knows only the session: ask the provider whose it is.
+      const pi = await stripe().paymentIntents.retrieve(piId);
+      row = await lockPaymentFor(tx, { metadata: pi.metadata, sessionId: await sessionIdFor(pi) });
+    }
+    if (!row) return unknownPayment(charge.id);
+    return applyChargeRefunded(tx, row, { paymentIntentId: piId, chargeId: charge.id }, event.id, after);
+  },
+
+  "checkout.session.expired": async (tx, event) => {
+    const s = event.data.object;
+    const row = await lockPaymentFor(tx, { metadata: s.metadata, sessionId: s.id });
+    if (!row) return unknownPayment(s.id);
+    return markPaymentExpired(tx, row);
+  },
+};
+
+/**
+ * The Checkout Session of a PaymentIntent, asked from the provider only when our metadata is
+ * missing (a PaymentIntent made by Checkout carries payment_intent_data.metadata).
+ */
+async function sessionIdFor(pi: Stripe.PaymentIntent): Promise<string | null> {
+  if (pi.metadata?.paymentId) return null;
+  const list = await stripe().checkout.sessions.list({ payment_intent: pi.id, limit: 1 });
+  return list.data.find((s) => idOf(s.payment_intent) === pi.id)?.id ?? null;
+}
+
+function isHandled(event: Stripe.Event): event is HandledEvent {
+  return (HANDLED_EVENT_TYPES as readonly string[]).includes(event.type);
+}
+
+/**
+ * Processes one verified event exactly once. Resolves only after the ledger transaction has
+ * committed (the route then answers 2xx); throws on any failure, so the route answers 500
+ * and the provider delivers it again.
+ */
+export async function processStripeEvent(event: Stripe.Event): Promise<WebhookResult> {
+  if (!isHandled(event)) return { status: "ignored", note: `event type ${event.type} is not handled` };
+  const after: AfterCommit[] = [];
+  const result = await db().transaction(async (tx): Promise<WebhookResult> => {
+    // The id first: a concurrent delivery of the same event waits here for our commit, then finds it.
+    const inserted = await tx.insert(webhookEvent).ignore().values({ id: event.id, type: event.type, outcome: "processing" });
+    if (inserted[0].affectedRows !== 1) return { status: "duplicate" };
+    const handler = handlers[event.type] as Handler<HandledEvent>;
+    const outcome = await handler(tx, event, after);
+    await tx
+      .update(webhookEvent)
+      .set({ outcome: outcome.outcome, note: outcome.note?.slice(0, 500) ?? null })
+      .where(eq(webhookEvent.id, event.id));
+    return { status: "processed", ...outcome };
+  });
+  for (const task of after) {
+    try {
+      await task();
+    } catch (err) {
+      // Booked and committed; the office can re-send the receipt from the Money tab.
+      console.error(`webhook ${event.id} (${event.type}) committed; a follow-up (e-mail) failed`, err);
+    }
+  }
+  return result;
+}
