@@ -1,11 +1,11 @@
-// `npm run demo`: MariaDB and the dev outbox on loopback, migrations, the demo company,
-// a production build, and the app on http://localhost:3000. Ctrl-C stops all of it.
+// `npm run demo`: MariaDB, the dev outbox and the dev payments server on loopback, migrations,
+// the demo company, a production build, and the app on http://localhost:3000. Ctrl-C stops all of it.
 import path from "node:path";
 import { instance } from "./lib/instance";
 import { startMariaDb, stopMariaDb } from "./lib/mariadb";
 import { applyMigrations } from "./lib/migrate";
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "./lib/seed-demo";
-import { buildIfStale, startApp, startMailFake, stopServices, waitForHttp } from "./lib/services";
+import { buildIfStale, startApp, startMailFake, startPaymentsFake, stopServices, waitForHttp } from "./lib/services";
 import { ROLE_LABELS } from "../src/lib/permissions";
 
 const inst = instance("demo");
@@ -14,7 +14,7 @@ let stopping = false;
 async function shutdown(code: number) {
   if (stopping) return;
   stopping = true;
-  console.log("\n· stopping the app, the dev outbox and MariaDB…");
+  console.log("\n· stopping the app, the dev outbox, the dev payments server and MariaDB…");
   await stopServices();
   await stopMariaDb(inst.db).catch((err) => console.error(err));
   process.exit(code);
@@ -31,6 +31,8 @@ try {
   console.log(seeded.created ? "· demo company created" : "· demo company already there");
   startMailFake(inst);
   await waitForHttp(`${inst.mailUrl}/health`, "The dev outbox");
+  startPaymentsFake(inst);
+  await waitForHttp(`${inst.paymentsUrl}/health`, "The dev payments server");
   buildIfStale();
   startApp(inst);
   await waitForHttp(`${inst.appUrl}/api/health`, "Kilowright", 90_000);
@@ -45,6 +47,8 @@ Demo company: Tallgrass Bright Energy (invented). Every demo account uses the pa
 ${DEMO_PEOPLE.map((p) => `  ${p.email.padEnd(width)}  ${ROLE_LABELS[p.role]} (${p.name})`).join("\n")}
 
 Mail goes to the dev outbox: sign in as owner or admin and open "Dev outbox".
+Payments go to the dev payments server (${inst.paymentsUrl}, a local stand-in for Stripe):
+  card 4242 4242 4242 4242 pays, 4000 0000 0000 0002 is declined, any future expiry and CVC.
 Logs: ${path.relative(process.cwd(), path.join(inst.dir, "logs"))}/  ·  Ctrl-C stops everything.`);
 } catch (err) {
   console.error(`\nThe demo could not start: ${err instanceof Error ? err.message : String(err)}`);

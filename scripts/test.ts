@@ -1,6 +1,6 @@
 // `npm test`: the demo's set-up on the test profile's own ports and data (a fresh database
-// each run), then every layer: unit, integration (real MariaDB, the dev outbox) and browser
-// (Playwright driving Debian's chromium against a production build).
+// each run), then every layer: unit, integration (real MariaDB, the dev outbox, the dev
+// payments server) and browser (Playwright driving Debian's chromium against a production build).
 import { spawnSync } from "node:child_process";
 import { rmSync } from "node:fs";
 import path from "node:path";
@@ -8,7 +8,7 @@ import { instance, projectRoot } from "./lib/instance";
 import { resetDatabase, startMariaDb, stopMariaDb } from "./lib/mariadb";
 import { applyMigrations } from "./lib/migrate";
 import { seedDemo } from "./lib/seed-demo";
-import { buildIfStale, startApp, startMailFake, stopServices, waitForHttp } from "./lib/services";
+import { buildIfStale, startApp, startMailFake, startPaymentsFake, stopServices, waitForHttp } from "./lib/services";
 
 const inst = instance("test");
 const dashDash = process.argv.indexOf("--");
@@ -26,7 +26,7 @@ function run(label: string, args: string[], env: Record<string, string> = {}): b
 }
 
 const bin = (p: string) => path.join(projectRoot, "node_modules", p);
-const testEnv = { ...inst.appEnv, KW_TEST_MAIL_URL: inst.mailUrl };
+const testEnv = { ...inst.appEnv, KW_TEST_MAIL_URL: inst.mailUrl, KW_TEST_PAYMENTS_URL: inst.paymentsUrl };
 
 async function main(): Promise<boolean> {
   const results: [string, boolean][] = [];
@@ -37,12 +37,15 @@ async function main(): Promise<boolean> {
     await startMariaDb(inst.db);
     resetDatabase(inst.db);
     rmSync(inst.mailDir, { recursive: true, force: true });
+    rmSync(inst.paymentsDir, { recursive: true, force: true });
     rmSync(inst.appEnv.STORAGE_DIR, { recursive: true, force: true });
     await applyMigrations(inst.appEnv.DATABASE_URL);
     process.env.STORAGE_DIR = inst.appEnv.STORAGE_DIR; // seeds store demo files (weather) there
     await seedDemo(inst.appEnv.DATABASE_URL);
     startMailFake(inst);
     await waitForHttp(`${inst.mailUrl}/health`, "The dev outbox");
+    startPaymentsFake(inst);
+    await waitForHttp(`${inst.paymentsUrl}/health`, "The dev payments server");
   }
   if (layers.includes("integration")) {
     results.push(["integration", run("integration tests (real MariaDB)", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "integration", ...extra], testEnv)]);

@@ -1,4 +1,4 @@
-// Starting and stopping the local services (mail fake, app) as child processes, waiting
+// Starting and stopping the local services (mail fake, payments fake, app) as child processes, waiting
 // until they answer, and building the app when its sources changed.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, openSync, readdirSync, statSync } from "node:fs";
@@ -66,6 +66,29 @@ export function startMailFake(inst: Instance): ChildProcess {
     process.execPath,
     [path.join(projectRoot, "node_modules/tsx/dist/cli.mjs"), "scripts/fakes/mail.ts"],
     { MAIL_FAKE_PORT: String(inst.ports.mail), MAIL_FAKE_DIR: inst.mailDir, MAIL_FAKE_API_KEY: inst.secrets.resendKey },
+    path.join(inst.dir, "logs"),
+  );
+}
+
+/**
+ * The dev payments server (local fake of the Stripe API) on inst.ports.payments; it signs and
+ * POSTs webhooks to the app's /api/webhooks/stripe, retrying while the app is not up yet. The
+ * test profile retries at most every 2 s so browser tests do not wait on a long back-off.
+ */
+export function startPaymentsFake(inst: Instance): ChildProcess {
+  return startService(
+    "payments",
+    process.execPath,
+    [path.join(projectRoot, "node_modules/tsx/dist/cli.mjs"), "scripts/fakes/payments.ts"],
+    {
+      PAYMENTS_FAKE_PORT: String(inst.ports.payments),
+      PAYMENTS_FAKE_DIR: inst.paymentsDir,
+      PAYMENTS_FAKE_API_KEY: inst.secrets.stripeKey,
+      PAYMENTS_FAKE_WEBHOOK_URL: `${inst.appUrl}/api/webhooks/stripe`,
+      PAYMENTS_FAKE_WEBHOOK_SECRET: inst.secrets.webhookSecret,
+      PAYMENTS_FAKE_RETRY_INITIAL_MS: "1000",
+      PAYMENTS_FAKE_RETRY_MAX_MS: inst.profile === "test" ? "2000" : "60000",
+    },
     path.join(inst.dir, "logs"),
   );
 }
