@@ -1,12 +1,26 @@
 import "server-only";
 import { and, asc, count, desc, eq, gte, inArray, like, lt, or, type SQL } from "drizzle-orm";
 import type { AnyMySqlColumn } from "drizzle-orm/mysql-core";
+import type { z } from "zod";
 import { deal, household, membership, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
-import { parseSort, type DealTableFilters, type DealTablePage, type DealTableQuery, type DealTableRow, type DealTableSortColumn } from "@/lib/schemas/deal-table";
+import {
+  parseSort,
+  type BulkAnswer,
+  type BulkResult,
+  type dealBulkSchema,
+  type DealTableFilters,
+  type DealTablePage,
+  type DealTableQuery,
+  type DealTableRow,
+  type DealTableSortColumn,
+} from "@/lib/schemas/deal-table";
 import { STAGE_LABELS } from "@/lib/stages";
 import { db } from "@/server/db";
+import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
+import { moveDealStage } from "@/server/stages";
+import { recordEvent } from "@/server/timeline";
 
 /** Reps see the deals they own; office roles see the company's (the same rule as listDeals). */
 function visibleTo(member: Member): SQL {
@@ -185,4 +199,111 @@ export async function dealOwnerOptions(member: Member): Promise<Array<{ id: stri
     .innerJoin(user, eq(user.id, membership.userId))
     .where(and(eq(membership.companyId, member.companyId), inArray(membership.role, ["owner", "admin", "office_manager", "sales_rep"])))
     .orderBy(user.name);
+}
+
+// ── Bulk actions on selected deals ──
+
+/** Roles that may own deals (the same people as the owner filter). */
+const DEAL_OWNER_ROLES = ["owner", "admin", "office_manager", "sales_rep"] as const;
+
+/** The household names of the selected deals the person may see (others are not found). */
+async function visibleNames(member: Member, dealIds: string[]): Promise<Map<string, string>> {
+  const rows = await db()
+    .select({ id: deal.id, name: household.name })
+    .from(deal)
+    .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+    .where(and(visibleTo(member), inArray(deal.id, dealIds)));
+  return new Map(rows.map((r) => [r.id, r.name]));
+}
+
+const notFoundResult = (dealId: string): BulkResult => ({ dealId, householdName: null, outcome: "refused", message: "Deal not found." });
+
+/** An active member of the company who may own deals, or a 422 naming the field. */
+async function newOwnerOrThrow(member: Member, ownerUserId: string): Promise<{ id: string; name: string }> {
+  const [row] = await db()
+    .select({ id: user.id, name: user.name })
+    .from(membership)
+    .innerJoin(user, eq(user.id, membership.userId))
+    .where(
+      and(
+        eq(membership.companyId, member.companyId),
+        eq(membership.userId, ownerUserId),
+        eq(membership.status, "active"),
+        inArray(membership.role, [...DEAL_OWNER_ROLES]),
+      ),
+    )
+    .limit(1);
+  if (!row) {
+    const message = "Pick an active rep, office manager, admin or owner of your company";
+    throw new HttpError(422, "validation_failed", `action.ownerUserId: ${message}`, { "action.ownerUserId": [message] });
+  }
+  return row;
+}
+
+/** Gives one deal a new owner, with its "owner.changed" Timeline event in the same transaction. */
+async function reassignOne(member: Member, dealId: string, to: { id: string; name: string }): Promise<BulkResult> {
+  return db().transaction(async (tx) => {
+    const [row] = await tx
+      .select({ ownerUserId: deal.ownerUserId, householdName: household.name, ownerName: user.name })
+      .from(deal)
+      .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+      .leftJoin(user, eq(user.id, deal.ownerUserId))
+      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)))
+      .for("update");
+    if (!row) return notFoundResult(dealId);
+    if (row.ownerUserId === to.id) {
+      return { dealId, householdName: row.householdName, outcome: "unchanged", message: `Already owned by ${to.name}.` };
+    }
+    await tx
+      .update(deal)
+      .set({ ownerUserId: to.id })
+      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)));
+    const summary = `${member.name} reassigned ${row.householdName} from ${row.ownerName ?? "no one"} to ${to.name}`;
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId,
+      kind: "owner.changed",
+      summary: summary.length > 500 ? `${summary.slice(0, 499)}…` : summary,
+      actorUserId: member.userId,
+      data: { fromUserId: row.ownerUserId, toUserId: to.id },
+    });
+    return { dealId, householdName: row.householdName, outcome: "reassigned", message: null };
+  });
+}
+
+/**
+ * POST /api/deals/bulk: the same rules as one deal at a time. Moves go through moveDealStage
+ * (permission, stage rules, Timeline event in the move's transaction), one deal after another;
+ * a deal the rules refuse is reported with their reason and the others still move.
+ * Reassigning is the office's (deals:read-all) and only to an active seller of the company.
+ */
+export async function bulkDealAction(member: Member, input: z.output<typeof dealBulkSchema>): Promise<BulkAnswer> {
+  const { dealIds, action } = input;
+  if (action.kind === "reassign" && !can(member.role, "deals:read-all")) {
+    throw new HttpError(403, "forbidden", "Only the office can reassign deals.");
+  }
+  const newOwner = action.kind === "reassign" ? await newOwnerOrThrow(member, action.ownerUserId) : null;
+  const names = await visibleNames(member, dealIds);
+  const results: BulkResult[] = [];
+  for (const dealId of dealIds) {
+    const householdName = names.get(dealId);
+    if (householdName === undefined) {
+      results.push(notFoundResult(dealId));
+      continue;
+    }
+    if (newOwner) {
+      results.push(await reassignOne(member, dealId, newOwner));
+      continue;
+    }
+    if (action.kind !== "move") continue;
+    try {
+      await moveDealStage(member, dealId, action.to, action.reason);
+      results.push({ dealId, householdName, outcome: "moved", message: null });
+    } catch (err) {
+      if (!(err instanceof HttpError) || err.status >= 500) throw err;
+      results.push({ dealId, householdName, outcome: "refused", message: err.message });
+    }
+  }
+  const done = results.filter((r) => r.outcome === "moved" || r.outcome === "reassigned").length;
+  return { results, done, refused: results.filter((r) => r.outcome === "refused").length };
 }

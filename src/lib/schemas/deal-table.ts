@@ -97,3 +97,73 @@ export function searchParamsObject(params: URLSearchParams | Record<string, stri
   }
   return out;
 }
+
+// ── Saved views (one person's named views of the table) ──
+
+/** Columns a person may hide (the household column always shows). */
+export const DEAL_TABLE_HIDEABLE_COLUMNS = ["city", "stage", "systemDcWatts", "contractCents", "stageChangedAt", "createdAt", "owner", "source"] as const;
+export const SAVED_VIEWS_PER_PERSON = 50;
+
+/** What a saved view keeps: the table's filters and sort, and optionally page size and hidden columns. */
+export const savedViewQuerySchema = z
+  .object({
+    pageSize: z.preprocess(
+      blankToUndefined,
+      z.coerce
+        .number()
+        .int("Page size is a whole number")
+        .min(1, "Show at least one row")
+        .max(DEAL_TABLE_MAX_PAGE_SIZE, `Show at most ${DEAL_TABLE_MAX_PAGE_SIZE} rows per page`)
+        .optional(),
+    ),
+    hiddenColumns: z.array(z.enum(DEAL_TABLE_HIDEABLE_COLUMNS, "Hide only the table's own columns")).max(DEAL_TABLE_HIDEABLE_COLUMNS.length).optional(),
+  })
+  .and(dealTableFiltersSchema);
+export type SavedViewQuery = z.output<typeof savedViewQuerySchema>;
+
+const viewName = z.string().trim().min(1, "Name the view").max(100, "Keep the name under 100 characters");
+
+/** POST /api/saved-views */
+export const savedViewCreateSchema = z.object({ name: viewName, query: savedViewQuerySchema });
+/** PUT /api/saved-views/[id]: rename, replace the query, or both. */
+export const savedViewUpdateSchema = z
+  .object({ name: viewName.optional(), query: savedViewQuerySchema.optional() })
+  .refine((v) => v.name !== undefined || v.query !== undefined, { message: "Send a new name or a new query", path: ["name"] });
+
+export type SavedView = { id: string; name: string; query: SavedViewQuery; createdAt: string; updatedAt: string };
+
+// ── Bulk actions on selected deals ──
+
+export const BULK_MAX_DEALS = 200;
+
+/** POST /api/deals/bulk */
+export const dealBulkSchema = z.object({
+  dealIds: z
+    .array(z.uuid("Deal ids are UUIDs"))
+    .min(1, "Select at least one deal")
+    .max(BULK_MAX_DEALS, `Select at most ${BULK_MAX_DEALS} deals at a time`)
+    .transform((ids) => [...new Set(ids)]),
+  action: z.discriminatedUnion(
+    "kind",
+    [
+      z.object({
+        kind: z.literal("move"),
+        to: z.enum(STAGES, "Pick a stage"),
+        reason: z
+          .string()
+          .trim()
+          .max(300, "Keep the reason under 300 characters")
+          .optional()
+          .nullable()
+          .transform((v) => (v ? v : null)),
+      }),
+      z.object({ kind: z.literal("reassign"), ownerUserId: z.uuid("Pick a rep from the list") }),
+    ],
+    "Choose move or reassign",
+  ),
+});
+export type DealBulkInput = z.input<typeof dealBulkSchema>;
+
+export type BulkOutcome = "moved" | "reassigned" | "unchanged" | "refused";
+export type BulkResult = { dealId: string; householdName: string | null; outcome: BulkOutcome; message: string | null };
+export type BulkAnswer = { results: BulkResult[]; done: number; refused: number };
