@@ -6,7 +6,7 @@ import fontkit from "@pdf-lib/fontkit";
 import { existsSync, readFileSync } from "node:fs";
 import path from "node:path";
 import type { PDFDocument, PDFFont } from "pdf-lib";
-import type { Font, Fontkit } from "pdf-lib/cjs/types/fontkit";
+import type { Font, Fontkit, Glyph } from "pdf-lib/cjs/types/fontkit";
 
 export type DocFonts = { sans: PDFFont; sansBold: PDFFont; mono: PDFFont };
 
@@ -61,6 +61,30 @@ export function fontBytes(): Record<keyof typeof FONT_FILES, Uint8Array> {
 }
 
 /**
+ * Glyphs straight from the font's character map, one per code point, without OpenType shaping.
+ * pdf-lib calls `layout` for every width it measures and every string it draws, and fontkit's
+ * full shaping (GSUB/GPOS lookups) made a proposal take seconds. pdf-lib uses only the glyphs
+ * (not the kerning positions), so the result differs only by ligatures, which our documents do
+ * not want anyway (a ligature makes "fi" one glyph in copied text).
+ */
+function cmapLayout(font: Font): Font["layout"] {
+  const byCodePoint = new Map<number, Glyph>();
+  return (text: string) => {
+    const glyphs: Glyph[] = [];
+    for (const ch of text) {
+      const cp = ch.codePointAt(0) as number;
+      let g = byCodePoint.get(cp);
+      if (!g) {
+        g = font.glyphForCodePoint(cp);
+        byCodePoint.set(cp, g);
+      }
+      glyphs.push(g);
+    }
+    return { glyphs, positions: [] } as unknown as ReturnType<Font["layout"]>;
+  };
+}
+
+/**
  * fontkit for pdf-lib that parses each font file once per process: parsing the tables is most
  * of the cost of embedding, and the parsed font is only read afterwards (each document makes its
  * own subset from it).
@@ -71,6 +95,7 @@ const cachingFontkit: Fontkit = {
     let font = parsed.get(buffer);
     if (!font) {
       font = fontkit.create(buffer, postscriptName);
+      font.layout = cmapLayout(font);
       parsed.set(buffer, font);
     }
     return font;

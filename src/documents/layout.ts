@@ -293,11 +293,18 @@ export function licenseText(licenseNumber: string | null): string {
  * Draws the running header (company name, document label) and footer (company name, license
  * number, "page N of M") on every page of `pdf`. Call it after the last page is added.
  * `fromPage` (0-based) leaves earlier pages alone, e.g. when appending pages to a signed copy
- * whose pages already carry their frame.
+ * whose pages already carry their frame; `pageLabel` replaces "page N of M".
  */
-export function drawPageFrames(pdf: PDFDocument, fonts: DocFonts, info: FrameInfo, fromPage = 0, totalPages?: number): void {
+export function drawPageFrames(
+  pdf: PDFDocument,
+  fonts: DocFonts,
+  info: FrameInfo,
+  opts: { fromPage?: number; pageLabel?: (index: number, total: number) => string } = {},
+): void {
   const pages = pdf.getPages();
-  const total = totalPages ?? pages.length;
+  const total = pages.length;
+  const fromPage = opts.fromPage ?? 0;
+  const pageLabel = opts.pageLabel ?? ((i: number, n: number) => `page ${i + 1} of ${n}`);
   pages.forEach((page, i) => {
     if (i < fromPage) return;
     const { width } = page.getSize();
@@ -310,7 +317,7 @@ export function drawPageFrames(pdf: PDFDocument, fonts: DocFonts, info: FrameInf
     page.drawLine({ start: { x: MARGIN_X, y: footY + 12 }, end: { x: width - MARGIN_X, y: footY + 12 }, thickness: 0.5, color: COLORS.rule });
     const left = [info.companyName, licenseText(info.licenseNumber)].filter(Boolean).join("  ·  ");
     drawLine(page, left, MARGIN_X, footY, { font: fonts.sans, size: SMALL_SIZE, color: COLORS.muted });
-    drawLine(page, `page ${i + 1} of ${total}`, width - MARGIN_X, footY, { font: fonts.mono, size: SMALL_SIZE, color: COLORS.muted, align: "right" });
+    drawLine(page, pageLabel(i, total), width - MARGIN_X, footY, { font: fonts.mono, size: SMALL_SIZE, color: COLORS.muted, align: "right" });
   });
 }
 

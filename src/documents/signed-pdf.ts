@@ -1,0 +1,192 @@
+// The signed copy: the unsigned proposal PDF with the customer's drawn signature, typed name,
+// chosen offer and the signing date stamped into the signature page's boxes, the notice of
+// cancellation's blanks filled in, and a signing certificate appended (signer, e-mail, UTC
+// time, IP, user agent, the SHA-256 of the unsigned document, the event list, and what the
+// U.S. ESIGN Act and UETA ask of an electronic signature). Deterministic for the same input.
+import { PDFBool, PDFDict, PDFDocument, PDFHexString, PDFName, PDFString, type PDFImage, type PDFPage } from "pdf-lib";
+import { formatCents, formatDate } from "@/lib/format";
+import { embedFonts } from "./fonts";
+import { COLORS, SAVE_OPTIONS, createFlow, drawLine, drawPageFrames, fitText, type FrameInfo, type TableColumn } from "./layout";
+import {
+  CHOSEN_OFFER_BOX,
+  DEADLINE_PRINTED_KEY,
+  FRAME_KEY,
+  NOTICE_DEADLINE_BOX,
+  NOTICE_TRANSACTION_DATE_BOX,
+  PAGE_ROLE,
+  PAGE_ROLE_KEY,
+  SIGNATURE_BOX,
+  SIGNED_DATE_BOX,
+  SIGNER_NAME_BOX,
+  type Rect,
+} from "./proposal-pdf";
+
+export type SignatureStamp = {
+  signaturePng: Uint8Array;
+  signerName: string;
+  signerEmail: string;
+  chosenPosition: number;
+  chosenOfferName: string;
+  chosenContractCents: number;
+  signedAt: Date;
+  ip: string;
+  userAgent: string;
+  /** Hex SHA-256 of the unsigned PDF's bytes. */
+  unsignedSha256: string;
+  proposalLabel: string;
+  events: { at: Date; kind: string; detail: string }[];
+  /**
+   * The last day to cancel, written into the notice of cancellation's blank (sales made in the
+   * home). Optional: without it the blank keeps pointing to the rule's three business days.
+   */
+  cancelDeadlineText?: string | null;
+  /**
+   * The day of signing as the deadline was counted from (e.g. the company's local date), for the
+   * notice's "date of transaction"; default: the UTC date of signedAt.
+   */
+  signedOnText?: string | null;
+};
+
+/** The drawn signature is not a usable PNG image. */
+export class SignatureImageError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "SignatureImageError";
+  }
+}
+
+const PNG_MAGIC = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
+/** Inner margin between the signature box's border and the drawing. */
+const SIGNATURE_PADDING = 6;
+
+const isoUtc = (d: Date) => d.toISOString();
+/** "2026-03-03 01:12 UTC" */
+const shortUtc = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
+
+async function embedSignature(pdf: PDFDocument, png: Uint8Array): Promise<PDFImage> {
+  if (png.length < PNG_MAGIC.length || PNG_MAGIC.some((b, i) => png[i] !== b)) {
+    throw new SignatureImageError("The signature must be a PNG image");
+  }
+  try {
+    return await pdf.embedPng(png);
+  } catch (e) {
+    throw new SignatureImageError(`The signature PNG could not be read (${e instanceof Error ? e.message : String(e)})`);
+  }
+}
+
+function pageRole(page: PDFPage): string | null {
+  const v = page.node.get(PDFName.of(PAGE_ROLE_KEY));
+  return v instanceof PDFString || v instanceof PDFHexString ? v.decodeText() : null;
+}
+
+function readFrame(pdf: PDFDocument, fallbackLabel: string): FrameInfo {
+  const dict = pdf.catalog.lookupMaybe(PDFName.of(FRAME_KEY), PDFDict);
+  const text = (key: string) => {
+    const v = dict?.get(PDFName.of(key));
+    return v instanceof PDFHexString || v instanceof PDFString ? v.decodeText() : "";
+  };
+  return {
+    companyName: text("Company") || pdf.getAuthor() || "",
+    licenseNumber: text("License") || null,
+    documentLabel: text("Label") || fallbackLabel,
+  };
+}
+
+/** Draws `image` inside `box`, scaled to fit with its aspect ratio kept, centred. */
+function drawFitted(page: PDFPage, image: PDFImage, box: Rect, padding: number): void {
+  const w = box.width - 2 * padding;
+  const h = box.height - 2 * padding;
+  const scale = Math.min(w / image.width, h / image.height);
+  const dw = image.width * scale;
+  const dh = image.height * scale;
+  page.drawImage(image, { x: box.x + padding + (w - dw) / 2, y: box.y + padding + (h - dh) / 2, width: dw, height: dh });
+}
+
+/** Stamps the signature into the unsigned proposal and appends the signing certificate. */
+export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): Promise<Uint8Array> {
+  const pdf = await PDFDocument.load(unsigned, { updateMetadata: false });
+  const image = await embedSignature(pdf, s.signaturePng);
+  const fonts = await embedFonts(pdf);
+  const pages = pdf.getPages();
+  const originalCount = pages.length;
+  const sigPage = pages.find((p) => pageRole(p) === PAGE_ROLE.signature) ?? pages[originalCount - 1];
+  const offerLine = `Offer ${s.chosenPosition}: ${s.chosenOfferName}`;
+  const priceLine = `Contract price ${formatCents(s.chosenContractCents)}`;
+
+  // The signature page's boxes.
+  const ob = CHOSEN_OFFER_BOX;
+  drawLine(sigPage, fitText(offerLine, fonts.sansBold, 13, ob.width - 16), ob.x + 8, ob.y + ob.height - 32, { font: fonts.sansBold, size: 13 });
+  drawLine(sigPage, priceLine, ob.x + 8, ob.y + 9, { font: fonts.mono, size: 11 });
+  drawFitted(sigPage, image, SIGNATURE_BOX, SIGNATURE_PADDING);
+  drawLine(sigPage, fitText(s.signerName, fonts.sans, 12, SIGNER_NAME_BOX.width - 4), SIGNER_NAME_BOX.x + 2, SIGNER_NAME_BOX.y + 7, { font: fonts.sans, size: 12 });
+  drawLine(sigPage, shortUtc(s.signedAt), SIGNED_DATE_BOX.x + 2, SIGNED_DATE_BOX.y + 7, { font: fonts.mono, size: 11 });
+  drawLine(
+    sigPage,
+    fitText(`Signed electronically by ${s.signerName} <${s.signerEmail}> at ${isoUtc(s.signedAt)}; see the signing certificate.`, fonts.sans, 7.5, SIGNATURE_BOX.width + 200),
+    SIGNATURE_BOX.x,
+    SIGNATURE_BOX.y - 22,
+    { font: fonts.sans, size: 7.5, color: COLORS.copper },
+  );
+
+  // The notice of cancellation's blanks (each copy).
+  for (const page of pages) {
+    if (pageRole(page) !== PAGE_ROLE.cancelNotice) continue;
+    drawLine(page, s.signedOnText ?? `${formatDate(s.signedAt)} (UTC)`, NOTICE_TRANSACTION_DATE_BOX.x + 4, NOTICE_TRANSACTION_DATE_BOX.y + 7, { font: fonts.sans, size: 10 });
+    const printed = page.node.get(PDFName.of(DEADLINE_PRINTED_KEY)) === PDFBool.True;
+    if (!printed && s.cancelDeadlineText) {
+      drawLine(page, s.cancelDeadlineText, NOTICE_DEADLINE_BOX.x + 4, NOTICE_DEADLINE_BOX.y + 7, { font: fonts.sans, size: 10 });
+    }
+  }
+
+  // The signing certificate.
+  const flow = createFlow(pdf, fonts);
+  flow.heading("Signing certificate");
+  flow.paragraph(`How ${s.proposalLabel} was signed electronically. This page was added when the signature was applied; the pages before it are the proposal as sent, with the signature stamped in.`, {
+    size: 9.5,
+    color: COLORS.muted,
+  });
+  flow.facts([
+    { label: "Document", value: s.proposalLabel },
+    { label: "Signer", value: s.signerName },
+    { label: "E-mail", value: s.signerEmail },
+    { label: "Signed at (UTC)", value: isoUtc(s.signedAt), mono: true },
+    { label: "IP address", value: s.ip, mono: true },
+    { label: "User agent", value: s.userAgent },
+    { label: "Offer chosen", value: `${offerLine}, ${formatCents(s.chosenContractCents)}` },
+  ]);
+  flow.paragraph("SHA-256 of the unsigned document", { size: 10, color: COLORS.muted, gapAfter: 2 });
+  flow.paragraph(s.unsignedSha256, { font: fonts.mono, size: 9 });
+  flow.paragraph(
+    "The fingerprint of this signed file cannot be printed inside it (printing it would change it); it is recorded with the signature and can be checked on the verify page.",
+    { size: 8.5, color: COLORS.muted },
+  );
+  flow.paragraph("Events", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  const columns: TableColumn[] = [
+    { label: "Time (UTC)", width: 140, mono: true },
+    { label: "Event", width: 84 },
+    { label: "Detail", width: 280 },
+  ];
+  flow.table(
+    columns,
+    [...s.events].sort((a, b) => a.at.getTime() - b.at.getTime()).map((e) => ({ cells: [isoUtc(e.at), e.kind, e.detail] })),
+  );
+  flow.paragraph("Electronic signature and records", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  flow.bullets(
+    [
+      "Consent: before signing, the signer was shown the disclosure for electronic records and agreed to receive and sign this agreement electronically, as the U.S. ESIGN Act (15 U.S.C. 7001(c)) and the Uniform Electronic Transactions Act ask for consumers; the signer may withdraw consent or ask for a paper copy by writing to the seller.",
+      "Intent: the signer confirmed their e-mail address with a one-time code, typed their name, drew their signature and chose to sign.",
+      "Association: the signature, the typed name, the chosen offer and the date are stamped into this document, and the SHA-256 above ties them to the exact unsigned document that was sent.",
+      "Retention: the signed file is stored unchanged with its own SHA-256 recorded; the signer can download it from their proposal page for as long as the record is kept.",
+    ],
+    { size: 9 },
+  );
+
+  const frame = readFrame(pdf, s.proposalLabel);
+  const certPages = pdf.getPageCount() - originalCount;
+  drawPageFrames(pdf, fonts, frame, {
+    fromPage: originalCount,
+    pageLabel: (i) => `signing certificate, page ${i - originalCount + 1} of ${certPages}`,
+  });
+  pdf.setModificationDate(s.signedAt);
+  return pdf.save(SAVE_OPTIONS);
+}
