@@ -41,6 +41,7 @@ const fake = await startPaymentsFake({
   webhookUrl: config.PAYMENTS_FAKE_WEBHOOK_URL,
   webhookSecret: config.PAYMENTS_FAKE_WEBHOOK_SECRET,
   retry: { initialDelayMs: config.PAYMENTS_FAKE_RETRY_INITIAL_MS, maxDelayMs: config.PAYMENTS_FAKE_RETRY_MAX_MS },
+  log: (line) => console.log(`${new Date().toISOString()} ${line}`),
 });
 console.log(`dev payments listening on ${fake.url} (webhooks to ${config.PAYMENTS_FAKE_WEBHOOK_URL})`);
 

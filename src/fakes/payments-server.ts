@@ -96,6 +96,8 @@ export interface PaymentsFakeOptions {
   retry?: RetryOptions;
   /** Base of the hosted page links in session urls; default the server's own url. */
   publicUrl?: string;
+  /** Receives one line per webhook attempt (the CLI prints them; tests stay quiet). */
+  log?: (line: string) => void;
 }
 
 export interface PaymentsFake {
@@ -240,7 +242,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
   const store = new PaymentsStore(dataDir);
   await store.load();
   const webhookEvents = new Set(options.webhookEvents ?? DEFAULT_WEBHOOK_EVENTS);
-  const sender = new WebhookSender(store, options.webhookUrl || null, webhookSecret, options.retry);
+  const sender = new WebhookSender(store, options.webhookUrl || null, webhookSecret, options.retry, options.log);
   let baseUrl = ""; // set once listening
   let expiryTimer: NodeJS.Timeout | null = null;
   let closed = false;

@@ -46,6 +46,7 @@ export class WebhookSender {
     private readonly url: string | null,
     private readonly secret: string,
     retry: RetryOptions = {},
+    private readonly log: (line: string) => void = () => undefined,
   ) {
     this.initialDelayMs = retry.initialDelayMs ?? 1000;
     this.maxDelayMs = retry.maxDelayMs ?? 60_000;
@@ -182,6 +183,9 @@ export class WebhookSender {
     } else {
       delivery.nextAttemptAt = new Date(Date.now() + this.delayAfter(delivery.attempts.length)).toISOString();
     }
+    const outcome = record.status !== null ? `HTTP ${record.status}` : (record.error ?? "no answer");
+    const next = delivery.status === "pending" && delivery.nextAttemptAt ? `, next try in ${Math.round((Date.parse(delivery.nextAttemptAt) - Date.now()) / 100) / 10} s` : "";
+    this.log(`webhook ${event.id} ${event.type} attempt ${delivery.attempts.length}: ${outcome} → ${delivery.status}${next}`);
     this.refreshPending(event.id);
     await this.store.save().catch((err: unknown) => console.error("dev payments: could not save the delivery state", err));
     this.schedule();
