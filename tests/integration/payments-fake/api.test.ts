@@ -112,7 +112,7 @@ describe("errors in Stripe's shape", () => {
     expect(err).toMatchObject({ statusCode: 400, type: "StripeInvalidRequestError", code: "parameter_missing", param: "line_items" });
 
     const noName = depositParams({
-      line_items: [{ quantity: 1, price_data: { currency: "usd", unit_amount: 100, product_data: { description: "no name" } as { name: string } } }],
+      line_items: [{ quantity: 1, price_data: { currency: "usd", unit_amount: 100, product_data: { description: "no name" } as unknown as { name: string } } }],
     });
     const err2 = await stripe.checkout.sessions.create(noName).catch((e: unknown) => e);
     expect(err2).toMatchObject({ statusCode: 400, code: "parameter_missing", param: "line_items[0][price_data][product_data][name]" });
