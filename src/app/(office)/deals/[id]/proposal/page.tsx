@@ -1,0 +1,43 @@
+import type { Metadata } from "next";
+import { NoAccess } from "@/components/no-access";
+import { can } from "@/lib/permissions";
+import { getDealRoom } from "@/server/deals";
+import { getDesignForDeal } from "@/server/designs";
+import { listOffers } from "@/server/offers";
+import { listProposalsForDeal } from "@/server/proposals";
+import { getMember } from "@/server/session";
+import { ProposalClient, type OfferChoice, type VersionView } from "./proposal-client";
+
+export const metadata: Metadata = { title: "Proposal" };
+
+export default async function ProposalTab({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const member = await getMember();
+  if (!member) return null;
+  if (!can(member.role, "proposals:send")) return <NoAccess section="Proposal" />;
+  const room = await getDealRoom(member, id);
+  const [offers, versions, design] = await Promise.all([listOffers(member, id), listProposalsForDeal(member, id), getDesignForDeal(member, id)]);
+  const choices: OfferChoice[] = offers.map((o) => ({
+    id: o.id,
+    position: o.position,
+    name: o.name,
+    contractCents: o.results.summary.contractCents,
+    kwDc: o.results.summary.kwDc,
+    blockedReason:
+      o.discountStatus === "pending"
+        ? "Discount waiting for the office's approval"
+        : o.discountStatus === "declined"
+          ? "Discount declined: change the offer before sending it"
+          : null,
+  }));
+  const views: VersionView[] = versions.map((v) => ({
+    ...v,
+    sentAt: v.sentAt.toISOString(),
+    expiresAt: v.expiresAt.toISOString(),
+    signedAt: v.signedAt?.toISOString() ?? null,
+    cancelledAt: v.cancelledAt?.toISOString() ?? null,
+    revokedAt: v.revokedAt?.toISOString() ?? null,
+    events: v.events.map((e) => ({ ...e, createdAt: e.createdAt.toISOString() })),
+  }));
+  return <ProposalClient dealId={id} householdEmail={room.household.email ?? ""} hasDesign={!!design} offers={choices} versions={views} />;
+}

@@ -1,0 +1,22 @@
+import { NextResponse } from "next/server";
+import { sendProposalSchema } from "@/lib/schemas/proposal";
+import { notFound } from "@/server/errors";
+import { listProposalsForDeal, sendProposal } from "@/server/proposals";
+import { idSchema, readJson, withMember } from "@/server/route";
+
+/** Every version of a deal's proposal (?dealId=), newest first, with events. */
+export const GET = withMember("proposals:send", async ({ req, member }) => {
+  const dealId = req.nextUrl.searchParams.get("dealId") ?? "";
+  if (!idSchema.safeParse(dealId).success) throw notFound("Deal");
+  return NextResponse.json({ data: await listProposalsForDeal(member, dealId) });
+});
+
+/**
+ * Freezes the deal's offers into a new proposal version and e-mails its link (body:
+ * { dealId, offerIds?, toEmail, message?, validDays?, inHomeSale? }). 201 even when the e-mail
+ * failed: the proposal is saved, `mailSent` says so and the rep can re-send.
+ */
+export const POST = withMember("proposals:send", async ({ req, member }) => {
+  const body = await readJson(req, sendProposalSchema);
+  return NextResponse.json({ data: await sendProposal(member, body) }, { status: 201 });
+});

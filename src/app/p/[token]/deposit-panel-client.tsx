@@ -1,0 +1,149 @@
+"use client";
+import { useCallback, useEffect, useState } from "react";
+import { FormMessage } from "@/components/field";
+import { api, ApiError } from "@/lib/api-client";
+import type { CustomerDeposit } from "@/server/payments";
+
+/** States in which the money has reached the company: nothing to wait for any more. */
+const SETTLED = ["paid", "partially_refunded", "refunded", "flagged"];
+/** How often, and how long, the page asks for the payment's state after the customer comes back. */
+const POLL_EVERY_MS = 2_000;
+const POLL_FOR_MS = 120_000;
+
+/**
+ * The redirect back from checkout only says the customer came back: the page shows
+ * "confirming" and asks the server until the provider's webhook has booked the payment.
+ */
+export function DepositPanelClient({ token, initial, companyName }: { token: string; initial: CustomerDeposit; companyName: string }) {
+  const [deposit, setDeposit] = useState(initial);
+  const [returned, setReturned] = useState<"returned" | "cancelled" | null>(null);
+  const [paying, setPaying] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  const [gaveUp, setGaveUp] = useState(false);
+  const url = `/api/public/proposals/${encodeURIComponent(token)}/deposit`;
+
+  useEffect(() => {
+    const said = new URLSearchParams(window.location.search).get("deposit");
+    if (said === "returned" || said === "cancelled") setReturned(said);
+  }, []);
+
+  const settled = SETTLED.includes(deposit.status);
+  const waiting = returned === "returned" && !settled && !gaveUp;
+
+  useEffect(() => {
+    if (!waiting) return;
+    const started = Date.now();
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    let stopped = false;
+    const tick = async () => {
+      try {
+        const next = await api<CustomerDeposit>(url, { cache: "no-store" });
+        if (!stopped) setDeposit(next);
+      } catch {
+        // A dropped connection: keep asking until the time is up.
+      }
+      if (stopped) return;
+      if (Date.now() - started > POLL_FOR_MS) setGaveUp(true);
+      else timer = setTimeout(tick, POLL_EVERY_MS);
+    };
+    timer = setTimeout(tick, 500);
+    return () => {
+      stopped = true;
+      if (timer) clearTimeout(timer);
+    };
+  }, [waiting, url]);
+
+  const pay = useCallback(async () => {
+    setPaying(true);
+    setError(null);
+    try {
+      const { url: checkoutUrl } = await api<{ url: string }>(url, { method: "POST" });
+      window.location.assign(checkoutUrl);
+    } catch (err) {
+      setPaying(false);
+      if (err instanceof ApiError && (err.code === "already_paid" || err.code === "payment_confirming")) {
+        setReturned("returned");
+        setGaveUp(false);
+        return;
+      }
+      setError(err instanceof Error ? err.message : "The payment page could not be opened. Try again.");
+    }
+  }, [url]);
+
+  return (
+    <section aria-labelledby="deposit-heading" className="card p-4" data-testid="deposit-panel">
+      <h2 id="deposit-heading" className="text-lg font-semibold">
+        Deposit
+      </h2>
+      <div className="mt-2" aria-live="polite" data-testid="deposit-status" data-status={waiting ? "confirming" : deposit.status}>
+        {waiting ? (
+          <Confirming />
+        ) : settled ? (
+          <Settled deposit={deposit} companyName={companyName} />
+        ) : !deposit.canPay ? null : (
+          <>
+            {deposit.status === "failed" ? (
+              <FormMessage tone="error">
+                <strong>Your payment did not go through.</strong> {deposit.failureMessage} No money was taken. You can try again with the same or another card.
+              </FormMessage>
+            ) : null}
+            {returned === "cancelled" && deposit.status !== "failed" ? (
+              <FormMessage tone="info">You left the payment page before paying; nothing was charged. Pay whenever you are ready.</FormMessage>
+            ) : null}
+            {gaveUp ? (
+              <FormMessage tone="info">
+                We have not heard from the card processor yet. If you paid, your receipt will arrive by e-mail; reload this page later to see it here.
+              </FormMessage>
+            ) : null}
+            <p className="mt-3">
+              {companyName} asks for a deposit of <span className="figure text-xl font-semibold">{deposit.amountText}</span> to start the project. It counts toward the
+              contract price.
+            </p>
+            <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={paying} aria-busy={paying}>
+              {paying ? "Opening the payment page…" : deposit.status === "failed" ? `Try again: pay ${deposit.amountText}` : `Pay the deposit: ${deposit.amountText}`}
+            </button>
+            <p className="mt-2 text-xs text-graphite-soft">You pay by card on the payment provider&apos;s secure page and come back here afterwards.</p>
+            {error ? (
+              <div className="mt-3">
+                <FormMessage tone="error">{error}</FormMessage>
+              </div>
+            ) : null}
+          </>
+        )}
+      </div>
+    </section>
+  );
+}
+
+function Confirming() {
+  return (
+    <p className="flex items-center gap-3" role="status">
+      <span aria-hidden className="inline-block h-4 w-4 animate-spin rounded-full border-2 border-copper border-t-transparent" />
+      Confirming your payment… This takes a few seconds; you can keep this page open.
+    </p>
+  );
+}
+
+function Settled({ deposit, companyName }: { deposit: CustomerDeposit; companyName: string }) {
+  if (deposit.status === "flagged") {
+    return (
+      <FormMessage tone="info">
+        <strong>Payment received.</strong> {companyName} is checking the amount ({deposit.paidText}) against the deposit asked ({deposit.amountText}) and will contact you.
+      </FormMessage>
+    );
+  }
+  return (
+    <div className="rounded-md border border-sage/40 bg-sage-light px-3 py-3">
+      <p className="font-semibold">Deposit received</p>
+      <p className="mt-1">
+        <span className="figure font-semibold">{deposit.paidText}</span>
+        {deposit.paidOnText ? <> on {deposit.paidOnText}</> : null}. A receipt was e-mailed to you.
+      </p>
+      {deposit.refundedCents > 0 ? (
+        <p className="mt-1 text-sm">
+          {deposit.status === "refunded" ? "Refunded in full" : "Refunded so far"}: <span className="figure">{deposit.refundedText}</span>.
+        </p>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,64 @@
+"use client";
+// The live proposal: choose one of the offers, read it, and sign it.
+import { useState } from "react";
+import { formatCents } from "@/lib/format";
+import type { ProposalSnapshot } from "@/lib/schemas/proposal";
+import { OfferDetails, paybackText } from "./offer-details";
+import { SigningPanel } from "./signing-panel";
+
+export function ProposalView({ token, label, snapshot }: { token: string; label: string; snapshot: ProposalSnapshot }) {
+  const [position, setPosition] = useState(snapshot.offers[0]?.position ?? 1);
+  const offer = snapshot.offers.find((o) => o.position === position) ?? snapshot.offers[0];
+  if (!offer) return null;
+  const many = snapshot.offers.length > 1;
+  return (
+    <div className="space-y-5">
+      <fieldset className="card p-4">
+        <legend className="sr-only">{many ? "Choose an offer" : "The offer"}</legend>
+        <h2 className="text-lg font-semibold" aria-hidden>
+          {many ? `Choose one of ${snapshot.offers.length} offers` : "Your offer"}
+        </h2>
+        <div className="mt-3 space-y-2">
+          {snapshot.offers.map((o) => {
+            const s = o.figures.summary;
+            const selected = o.position === position;
+            return (
+              <label
+                key={o.position}
+                className={`flex min-h-touch cursor-pointer items-start gap-3 rounded-md border p-3 ${selected ? "border-copper bg-copper-light/40" : "border-paper-line bg-white"}`}
+              >
+                <input type="radio" name="offer" className="mt-1 h-5 w-5 accent-copper" checked={selected} onChange={() => setPosition(o.position)} />
+                <span className="flex-1">
+                  <span className="block font-medium">{o.name}</span>
+                  <span className="block text-sm text-graphite-soft">
+                    <span className="figure">{s.kwDc.toFixed(2)} kW</span> · <span className="figure">{formatCents(s.contractCents)}</span> ·{" "}
+                    {s.monthlyLoanPaymentCents !== null ? (
+                      <>
+                        <span className="figure">{formatCents(s.monthlyLoanPaymentCents)}</span>/month ·{" "}
+                      </>
+                    ) : null}
+                    payback <span className="figure">{paybackText(s.paybackYears)}</span>
+                  </span>
+                </span>
+              </label>
+            );
+          })}
+        </div>
+      </fieldset>
+
+      <section aria-label={`Offer ${offer.name}`}>
+        <h2 className="mb-3 text-xl font-semibold">{offer.name}</h2>
+        <OfferDetails offer={offer} usageKwh={snapshot.usage.monthlyKwh} />
+      </section>
+
+      <SigningPanel
+        token={token}
+        label={label}
+        companyName={snapshot.company.name}
+        repName={snapshot.rep.name}
+        repEmail={snapshot.rep.email}
+        chosen={{ position: offer.position, name: offer.name, contractCents: offer.figures.summary.contractCents }}
+      />
+    </div>
+  );
+}

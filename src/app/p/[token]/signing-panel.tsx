@@ -1,0 +1,337 @@
+"use client";
+// Signing on the customer's phone: confirm the e-mail with a one-time code, read and accept the
+// electronic-records disclosure, type the name, draw the signature (signature_pad, pointer
+// events), sign. The server checks everything again; this screen only guides.
+import { useRouter } from "next/navigation";
+import { useEffect, useRef, useState, type FormEvent } from "react";
+import type SignaturePad from "signature_pad";
+import { FormMessage } from "@/components/field";
+import { api, ApiError } from "@/lib/api-client";
+import { formatCents } from "@/lib/format";
+
+type Chosen = { position: number; name: string; contractCents: number };
+type Props = { token: string; label: string; companyName: string; repName: string; repEmail: string; chosen: Chosen };
+
+type Step = "start" | "code" | "sign";
+
+export function SigningPanel({ token, label, companyName, repName, repEmail, chosen }: Props) {
+  const base = `/api/public/proposals/${token}`;
+  const [step, setStep] = useState<Step>("start");
+  const [sentTo, setSentTo] = useState<string | null>(null);
+  const [code, setCode] = useState("");
+  const [codeError, setCodeError] = useState<string | null>(null);
+  const [message, setMessage] = useState<{ tone: "error" | "success" | "info"; text: string } | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  async function requestCode() {
+    setBusy(true);
+    setMessage(null);
+    setCodeError(null);
+    try {
+      const r = await api<{ sentTo: string; expiresAt: string }>(`${base}/code`, { method: "POST" });
+      setSentTo(r.sentTo);
+      setCode("");
+      setStep("code");
+      setMessage({ tone: "success", text: `We e-mailed a 6-digit code to ${r.sentTo}. It works for 10 minutes.` });
+    } catch (err) {
+      setMessage({ tone: "error", text: err instanceof Error ? err.message : "The code could not be sent." });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  async function verify(e: FormEvent) {
+    e.preventDefault();
+    if (!/^\d{6}$/.test(code.trim())) {
+      setCodeError("Enter the 6 digits from the e-mail");
+      return;
+    }
+    setBusy(true);
+    setCodeError(null);
+    setMessage(null);
+    try {
+      await api(`${base}/verify-code`, { method: "POST", json: { code: code.trim() } });
+      setStep("sign");
+      setMessage({ tone: "success", text: "E-mail confirmed. You have 30 minutes to sign." });
+    } catch (err) {
+      const text = err instanceof Error ? err.message : "The code could not be checked.";
+      if (err instanceof ApiError && (err.code === "code_locked" || err.code === "code_expired" || err.code === "no_code")) {
+        setMessage({ tone: "error", text });
+      } else setCodeError(text);
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <section aria-labelledby="sign-heading" className="card p-4" data-testid="signing-panel">
+      <h2 id="sign-heading" className="text-lg font-semibold">
+        Sign this proposal
+      </h2>
+      <p className="mt-1 text-sm text-graphite-soft">
+        You are signing for <strong className="text-graphite">&ldquo;{chosen.name}&rdquo;</strong> at <span className="figure font-semibold text-graphite">{formatCents(chosen.contractCents)}</span>. To choose
+        another option, pick it above.
+      </p>
+
+      {step === "start" ? (
+        <div className="mt-4">
+          <p className="text-sm">First, confirm it is you: we e-mail a one-time code to the address this proposal was sent to.</p>
+          <button type="button" className="btn-primary mt-3 w-full" onClick={requestCode} disabled={busy}>
+            E-mail me a code
+          </button>
+        </div>
+      ) : null}
+
+      {step === "code" ? (
+        <form className="mt-4 space-y-3" onSubmit={verify} noValidate>
+          <div>
+            <label htmlFor="signing-code" className="field-label">
+              6-digit code
+            </label>
+            <input
+              id="signing-code"
+              className="field-input figure tracking-[0.3em]"
+              inputMode="numeric"
+              autoComplete="one-time-code"
+              maxLength={6}
+              value={code}
+              onChange={(e) => setCode(e.target.value.replace(/\D/g, "").slice(0, 6))}
+              aria-invalid={codeError ? true : undefined}
+              aria-describedby={codeError ? "signing-code-error" : undefined}
+            />
+            {codeError ? (
+              <p id="signing-code-error" className="field-error" role="alert">
+                {codeError}
+              </p>
+            ) : null}
+          </div>
+          <div className="flex flex-col gap-2 sm:flex-row">
+            <button type="submit" className="btn-primary flex-1" disabled={busy}>
+              Confirm code
+            </button>
+            <button type="button" className="btn-quiet flex-1" onClick={requestCode} disabled={busy}>
+              Send a new code
+            </button>
+          </div>
+          {sentTo ? <p className="text-xs text-graphite-soft">Sent to {sentTo}. Not there? Check the spam folder, or send a new code.</p> : null}
+        </form>
+      ) : null}
+
+      {message ? (
+        <div className="mt-3">
+          <FormMessage tone={message.tone}>{message.text}</FormMessage>
+        </div>
+      ) : null}
+
+      {step === "sign" ? (
+        <SignForm
+          base={base}
+          label={label}
+          companyName={companyName}
+          repName={repName}
+          repEmail={repEmail}
+          chosen={chosen}
+          onNeedCode={(text) => {
+            setStep("start");
+            setMessage({ tone: "error", text });
+          }}
+        />
+      ) : null}
+    </section>
+  );
+}
+
+/** Our own wording of the consumer disclosures of the ESIGN Act, 15 U.S.C. 7001(c)(1). */
+export function EsignDisclosure({ companyName, repName, repEmail }: { companyName: string; repName: string; repEmail: string }) {
+  return (
+    <div className="space-y-2 rounded-md border border-paper-line bg-paper-deep p-3 text-sm" data-testid="esign-disclosure">
+      <h3 className="font-semibold">Before you sign electronically</h3>
+      <p>
+        <strong>What you agree to.</strong> This proposal, the agreement you sign, its signed copy and the notices about it are given to you electronically: on this page and
+        by e-mail to the address the proposal was sent to. Your consent covers this agreement only.
+      </p>
+      <p>
+        <strong>Paper instead.</strong> You do not have to sign electronically. If you would rather sign on paper, do not sign here: ask {repName} for a paper agreement. You can
+        also ask {companyName} for a paper copy of any record at any time, free of charge.
+      </p>
+      <p>
+        <strong>Withdrawing your consent.</strong> You may withdraw your consent to electronic records at any time, free of charge, by writing to {repEmail}. From then on we send
+        records on paper; a signature you already gave stays valid.
+      </p>
+      <p>
+        <strong>Keeping your contact details current.</strong> If your e-mail address changes, tell {repName} at {repEmail} so notices keep reaching you.
+      </p>
+      <p>
+        <strong>What you need.</strong> A phone or computer with an up-to-date web browser, access to your e-mail, and a program that opens PDF files, plus room on your device
+        or a printer to keep a copy. Reading this page and opening the PDF shows you can open the records in the form we use.
+      </p>
+    </div>
+  );
+}
+
+function SignForm({
+  base,
+  label,
+  companyName,
+  repName,
+  repEmail,
+  chosen,
+  onNeedCode,
+}: {
+  base: string;
+  label: string;
+  companyName: string;
+  repName: string;
+  repEmail: string;
+  chosen: Chosen;
+  onNeedCode: (message: string) => void;
+}) {
+  const router = useRouter();
+  const canvasRef = useRef<HTMLCanvasElement>(null);
+  const padRef = useRef<SignaturePad | null>(null);
+  const [empty, setEmpty] = useState(true);
+  const [consent, setConsent] = useState(false);
+  const [name, setName] = useState("");
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [formError, setFormError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  useEffect(() => {
+    let pad: SignaturePad | null = null;
+    let cancelled = false;
+    const canvas = canvasRef.current;
+    const fit = () => {
+      if (!canvas || !pad) return;
+      // A sharp drawing on high-density screens, capped so the PNG stays small.
+      const ratio = Math.min(2, Math.max(window.devicePixelRatio || 1, 1));
+      canvas.width = canvas.offsetWidth * ratio;
+      canvas.height = canvas.offsetHeight * ratio;
+      canvas.getContext("2d")?.scale(ratio, ratio);
+      pad.clear();
+      setEmpty(true);
+    };
+    void import("signature_pad").then(({ default: Pad }) => {
+      if (cancelled || !canvas) return;
+      pad = new Pad(canvas, { penColor: "#1F2933", minWidth: 0.8, maxWidth: 2.6 });
+      pad.addEventListener("endStroke", () => setEmpty(pad?.isEmpty() ?? true));
+      padRef.current = pad;
+      fit();
+    });
+    window.addEventListener("resize", fit);
+    return () => {
+      cancelled = true;
+      window.removeEventListener("resize", fit);
+      pad?.off();
+      padRef.current = null;
+    };
+  }, []);
+
+  function clear() {
+    padRef.current?.clear();
+    setEmpty(true);
+  }
+
+  async function sign(e: FormEvent) {
+    e.preventDefault();
+    const found: Record<string, string> = {};
+    if (!consent) found.consent = "Agree to sign electronically to continue";
+    if (name.trim().length < 2) found.signerName = "Type your full name";
+    const pad = padRef.current;
+    if (!pad || pad.isEmpty()) found.signaturePng = "Draw your signature in the box";
+    setErrors(found);
+    setFormError(null);
+    if (Object.keys(found).length > 0 || !pad) return;
+    setBusy(true);
+    try {
+      await api(`${base}/sign`, {
+        method: "POST",
+        json: { position: chosen.position, signerName: name.trim(), consent: true, signaturePng: pad.toDataURL("image/png") },
+      });
+      router.refresh();
+    } catch (err) {
+      setBusy(false);
+      if (err instanceof ApiError && err.code === "code_required") return onNeedCode(err.message);
+      if (err instanceof ApiError && err.fields) {
+        setErrors(Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k, v[0] ?? err.message])));
+      }
+      setFormError(err instanceof Error ? err.message : "The signature could not be saved.");
+    }
+  }
+
+  return (
+    <form className="mt-4 space-y-4" onSubmit={sign} noValidate>
+      <EsignDisclosure companyName={companyName} repName={repName} repEmail={repEmail} />
+      <div>
+        <label className="flex min-h-touch items-start gap-3 text-sm">
+          <input
+            type="checkbox"
+            className="mt-1 h-5 w-5 accent-copper"
+            checked={consent}
+            onChange={(e) => setConsent(e.target.checked)}
+            aria-invalid={errors.consent ? true : undefined}
+            aria-describedby={errors.consent ? "consent-error" : undefined}
+          />
+          <span>I have read the above, I can open and keep these records, and I agree to use electronic records and signatures for this agreement.</span>
+        </label>
+        {errors.consent ? (
+          <p id="consent-error" className="field-error" role="alert">
+            {errors.consent}
+          </p>
+        ) : null}
+      </div>
+      <div>
+        <label htmlFor="signer-name" className="field-label">
+          Your full name
+        </label>
+        <input
+          id="signer-name"
+          className="field-input"
+          autoComplete="name"
+          value={name}
+          onChange={(e) => setName(e.target.value)}
+          aria-invalid={errors.signerName ? true : undefined}
+          aria-describedby={errors.signerName ? "signer-name-error" : undefined}
+        />
+        {errors.signerName ? (
+          <p id="signer-name-error" className="field-error" role="alert">
+            {errors.signerName}
+          </p>
+        ) : null}
+      </div>
+      <div>
+        <p id="signature-label" className="field-label">
+          Your signature
+        </p>
+        <canvas
+          ref={canvasRef}
+          className="block h-40 w-full touch-none rounded-md border border-dashed border-graphite-faint bg-white"
+          role="img"
+          aria-labelledby="signature-label"
+          aria-describedby="signature-hint"
+          data-testid="signature-pad"
+        />
+        <div className="mt-1 flex items-center justify-between gap-2">
+          <p id="signature-hint" className="text-xs text-graphite-soft">
+            {empty ? "Draw with your finger, a stylus or the mouse." : "Signature drawn."}
+          </p>
+          <button type="button" className="btn-quiet" onClick={clear}>
+            Clear
+          </button>
+        </div>
+        {errors.signaturePng ? (
+          <p className="field-error" role="alert">
+            {errors.signaturePng}
+          </p>
+        ) : null}
+      </div>
+      <p className="text-sm">
+        By pressing <strong>Sign</strong> you sign proposal {label} for &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>, and you
+        intend your typed name and drawn signature to be your signature.
+      </p>
+      {formError ? <FormMessage tone="error">{formError}</FormMessage> : null}
+      <button type="submit" className="btn-primary w-full" disabled={busy}>
+        {busy ? "Signing…" : "Sign"}
+      </button>
+    </form>
+  );
+}

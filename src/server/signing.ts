@@ -1,0 +1,392 @@
+import "server-only";
+// Signing a proposal: the customer confirms their e-mail with a one-time code (6 digits,
+// 10 minutes, 5 tries, then only a new code helps), consents to electronic records, types their
+// name and draws a signature; the server stamps it into the PDF with a certificate page, stores
+// the signed file under a new key and records its SHA-256. Also the public verify check.
+//
+// ESIGN Act (15 U.S.C. 7001) and UETA: consent (the disclosure shown and agreed), intent (the
+// sign action), association (signature, name and certificate in the document itself) and
+// retention (the immutable stored file, downloadable from the customer's page).
+import { createHash, createHmac, randomBytes, randomInt, timingSafeEqual } from "node:crypto";
+import { createElement } from "react";
+import { and, asc, eq, gte } from "drizzle-orm";
+import { fileTypeFromBuffer } from "file-type";
+import { deal, proposal, proposalEvent } from "@/db/schema";
+import { SignatureImageError, stampSignedPdf } from "@/documents/signed-pdf";
+import { env } from "@/env";
+import { cancelDeadline } from "@/lib/business-days";
+import { formatCents, formatDateTime } from "@/lib/format";
+import { formatIsoDateLong, localIsoDate, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
+import { signProposalSchema, verifyCodeSchema } from "@/lib/schemas/proposal";
+import type { Stage } from "@/db/schema";
+import SignedCopyEmail from "@emails/signed-copy";
+import SigningCodeEmail from "@emails/signing-code";
+import { getCompanySettings } from "@/server/company-settings";
+import { db } from "@/server/db";
+import { HttpError } from "@/server/errors";
+import { sendEmail } from "@/server/mail";
+import { dealProposalUrl, insertProposalEvent, labelOf, proposalUrl, readProposalPdf, type ClientMeta, type ProposalRow } from "@/server/proposals";
+import { validationError } from "@/server/route";
+import { autoMoveStage } from "@/server/stages";
+import { storage } from "@/server/storage";
+import { recordEvent } from "@/server/timeline";
+
+export const CODE_DIGITS = 6;
+export const CODE_TTL_MS = 10 * 60_000;
+export const MAX_CODE_ATTEMPTS = 5;
+/** A confirmed e-mail stays good for signing this long. */
+export const SIGNING_WINDOW_MS = 30 * 60_000;
+/** No second code within this time (a double tap), and at most this many codes an hour. */
+export const CODE_RESEND_GAP_MS = 20_000;
+export const MAX_CODES_PER_HOUR = 10;
+export const MAX_SIGNATURE_PNG_BYTES = 200 * 1024;
+/** The browser keeps its confirmation in this cookie (httpOnly), scoped to the public proposal API. */
+export const SIGNING_COOKIE = "kw_signing";
+export const SIGNING_COOKIE_PATH = "/api/public/proposals";
+
+const sha256Hex = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
+
+/**
+ * Codes and signing confirmations are stored only as an HMAC keyed with the app's secret and
+ * bound to the proposal, so a copy of the database alone cannot test the 10⁶ possible codes.
+ */
+function secretHash(proposalId: string, purpose: "code" | "session", value: string): string {
+  return createHmac("sha256", env().BETTER_AUTH_SECRET).update(`${purpose}:${proposalId}:${value}`).digest("hex");
+}
+
+function sameHash(a: string, b: string): boolean {
+  const x = Buffer.from(a, "hex");
+  const y = Buffer.from(b, "hex");
+  return x.length === y.length && timingSafeEqual(x, y);
+}
+
+const REFUSALS: Record<Exclude<ProposalLinkState, "live">, { status: number; code: string; message: string }> = {
+  expired: { status: 410, code: "expired", message: "This proposal's link has expired. Ask your installer for a new one." },
+  revoked: { status: 410, code: "revoked", message: "Your installer withdrew this proposal's link." },
+  replaced: { status: 409, code: "replaced", message: "A newer version replaced this proposal. Use the link in the newest e-mail." },
+  signed: { status: 409, code: "already_signed", message: "This proposal is already signed." },
+  cancelled: { status: 409, code: "cancelled", message: "This agreement was cancelled." },
+};
+
+function requireLive(p: { status: string; expiresAt: Date }): void {
+  const state = proposalLinkState(p);
+  if (state !== "live") {
+    const r = REFUSALS[state];
+    throw new HttpError(r.status, r.code, r.message);
+  }
+}
+
+/** "t•••@example.com": enough for the customer to recognise the address, not to learn it. */
+export function maskEmail(email: string): string {
+  const [local, domain] = email.split("@");
+  return `${local.slice(0, 1)}•••@${domain ?? ""}`;
+}
+
+// ── The one-time code ──────────────────────────────────────────────────────────────────────
+
+/** Sends a new code to the address the proposal went to; a new code resets the tries and any earlier confirmation. */
+export async function sendSigningCode(p: ProposalRow, token: string, client: ClientMeta): Promise<{ sentTo: string; expiresAt: Date }> {
+  requireLive(p);
+  const now = new Date();
+  const lastHour = await db()
+    .select({ createdAt: proposalEvent.createdAt })
+    .from(proposalEvent)
+    .where(
+      and(
+        eq(proposalEvent.companyId, p.companyId),
+        eq(proposalEvent.proposalId, p.id),
+        eq(proposalEvent.kind, "code_sent"),
+        gte(proposalEvent.createdAt, new Date(now.getTime() - 3_600_000)),
+      ),
+    )
+    .orderBy(asc(proposalEvent.createdAt));
+  if (lastHour.length >= MAX_CODES_PER_HOUR) throw new HttpError(429, "too_many_codes", "Too many codes asked for in the last hour. Try again later.");
+  const last = lastHour[lastHour.length - 1];
+  if (last && now.getTime() - last.createdAt.getTime() < CODE_RESEND_GAP_MS) {
+    const wait = Math.ceil((CODE_RESEND_GAP_MS - (now.getTime() - last.createdAt.getTime())) / 1000);
+    throw new HttpError(429, "code_just_sent", `A code was sent a moment ago. Check your e-mail, or ask again in ${wait} seconds.`);
+  }
+  const code = String(randomInt(0, 10 ** CODE_DIGITS)).padStart(CODE_DIGITS, "0");
+  const expiresAt = new Date(now.getTime() + CODE_TTL_MS);
+  const eventId = await db().transaction(async (tx) => {
+    const changed = await tx
+      .update(proposal)
+      .set({ codeHash: secretHash(p.id, "code", code), codeExpiresAt: expiresAt, codeAttempts: 0, codeVerifiedAt: null })
+      .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId), eq(proposal.status, "sent")));
+    if (changed[0].affectedRows !== 1) throw new HttpError(409, "not_live", "This proposal can no longer be signed. Reload the page.");
+    return insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "code_sent", body: `to ${p.sentToEmail}`, client, at: now });
+  });
+  try {
+    await sendEmail({
+      to: p.sentToEmail,
+      subject: `Your signing code: ${code}`,
+      react: createElement(SigningCodeEmail, { companyName: p.snapshot.company.name, label: labelOf(p), code, minutes: CODE_TTL_MS / 60_000, proposalUrl: proposalUrl(token) }),
+      idempotencyKey: `signing-code-${eventId}`,
+    });
+  } catch (err) {
+    console.error("signing code stored; its e-mail could not be sent", p.id, err);
+    throw new HttpError(502, "mail_failed", "The code could not be e-mailed just now. Try again in a minute.");
+  }
+  return { sentTo: maskEmail(p.sentToEmail), expiresAt };
+}
+
+type VerifyOutcome = { ok: true; session: string; validUntil: Date } | { ok: false; error: HttpError };
+
+/**
+ * Checks a code. Wrong tries are counted (and committed) before the answer; the fifth locks
+ * the code. A right code becomes a signing confirmation for this browser: a random secret in
+ * an httpOnly cookie, whose HMAC replaces the code's in code_hash, good for 30 minutes
+ * (code_expires_at then holds the confirmation's expiry).
+ */
+export async function verifySigningCode(p: ProposalRow, input: unknown, client: ClientMeta): Promise<{ session: string; validUntil: Date }> {
+  requireLive(p);
+  const parsed = verifyCodeSchema.safeParse(input);
+  if (!parsed.success) throw validationError(parsed.error);
+  const code = parsed.data.code;
+  const now = new Date();
+  const outcome: VerifyOutcome = await db().transaction(async (tx): Promise<VerifyOutcome> => {
+    const [row] = await tx
+      .select({ status: proposal.status, codeHash: proposal.codeHash, codeExpiresAt: proposal.codeExpiresAt, codeAttempts: proposal.codeAttempts, codeVerifiedAt: proposal.codeVerifiedAt })
+      .from(proposal)
+      .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)))
+      .for("update");
+    if (!row || row.status !== "sent") return { ok: false, error: new HttpError(409, "not_live", "This proposal can no longer be signed. Reload the page.") };
+    if (!row.codeHash || row.codeVerifiedAt) return { ok: false, error: new HttpError(409, "no_code", "Ask for a code first: press “E-mail me a code”.") };
+    if (row.codeAttempts >= MAX_CODE_ATTEMPTS) {
+      return { ok: false, error: new HttpError(423, "code_locked", `This code is locked after ${MAX_CODE_ATTEMPTS} wrong tries. Ask for a new code.`, { code: ["Locked: ask for a new code"] }) };
+    }
+    if (!row.codeExpiresAt || row.codeExpiresAt.getTime() <= now.getTime()) {
+      return { ok: false, error: new HttpError(410, "code_expired", "This code has expired (codes last 10 minutes). Ask for a new code.", { code: ["Expired: ask for a new code"] }) };
+    }
+    if (!sameHash(row.codeHash, secretHash(p.id, "code", code))) {
+      const attempts = row.codeAttempts + 1;
+      await tx.update(proposal).set({ codeAttempts: attempts }).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
+      await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "code_wrong", body: `try ${attempts} of ${MAX_CODE_ATTEMPTS}`, client, at: now });
+      const left = MAX_CODE_ATTEMPTS - attempts;
+      const message = left > 0 ? `Wrong code: ${left} ${left === 1 ? "try" : "tries"} left.` : `Wrong code. After ${MAX_CODE_ATTEMPTS} wrong tries this code is locked: ask for a new code.`;
+      return { ok: false, error: new HttpError(left > 0 ? 422 : 423, left > 0 ? "code_wrong" : "code_locked", message, { code: [message] }) };
+    }
+    const session = randomBytes(32).toString("base64url");
+    const validUntil = new Date(now.getTime() + SIGNING_WINDOW_MS);
+    await tx
+      .update(proposal)
+      .set({ codeHash: secretHash(p.id, "session", session), codeVerifiedAt: now, codeExpiresAt: validUntil })
+      .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
+    await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "code_verified", body: `e-mail ${p.sentToEmail} confirmed`, client, at: now });
+    return { ok: true, session, validUntil };
+  });
+  if (!outcome.ok) throw outcome.error;
+  return { session: outcome.session, validUntil: outcome.validUntil };
+}
+
+// ── Signing ────────────────────────────────────────────────────────────────────────────────
+
+/** Stages signing moves a deal from (a deal already further along stays there). */
+const BEFORE_SIGNED: readonly Stage[] = ["lead", "bills_in", "designing", "proposal_out"];
+
+const EVENT_TEXT: Record<string, (e: { body: string | null; ip: string | null }) => string> = {
+  sent: (e) => `Proposal sent ${e.body ?? ""}`.trim(),
+  resent: (e) => `New link sent ${e.body ?? ""}`.trim(),
+  opened: (e) => `Opened${e.ip ? ` from ${e.ip}` : ""}`,
+  viewed: (e) => `Viewed${e.ip ? ` from ${e.ip}` : ""}`,
+  code_sent: (e) => `One-time code sent ${e.body ?? ""}`.trim(),
+  code_wrong: (e) => `Wrong code entered (${e.body ?? ""})`,
+  code_verified: (e) => `E-mail confirmed with the one-time code${e.ip ? ` from ${e.ip}` : ""}`,
+  consented: (e) => `Consent to electronic records and signatures given${e.ip ? ` from ${e.ip}` : ""}`,
+  signed: (e) => `Signed${e.ip ? ` from ${e.ip}` : ""}`,
+};
+
+/** Decodes and checks the drawn signature: a real PNG (by its bytes), within the size limit. */
+export async function signaturePngBytes(dataUrl: string): Promise<Uint8Array> {
+  const base64 = dataUrl.slice("data:image/png;base64,".length);
+  if (!/^[A-Za-z0-9+/]+={0,2}$/.test(base64)) throw new HttpError(422, "validation_failed", "signaturePng: Draw your signature again", { signaturePng: ["Draw your signature again"] });
+  const bytes = new Uint8Array(Buffer.from(base64, "base64"));
+  if (bytes.byteLength > MAX_SIGNATURE_PNG_BYTES) {
+    throw new HttpError(422, "validation_failed", "signaturePng: The signature drawing is too large; clear it and draw again", { signaturePng: ["The signature drawing is too large; clear it and draw again"] });
+  }
+  const type = await fileTypeFromBuffer(bytes);
+  if (type?.mime !== "image/png") throw new HttpError(422, "validation_failed", "signaturePng: The signature must be a PNG drawing", { signaturePng: ["The signature must be a PNG drawing"] });
+  return bytes;
+}
+
+export type SignedOutcome = { signedAt: Date; signedSha256: string; cancelDeadline: string | null; chosenPosition: number };
+
+/**
+ * Signs the proposal for the chosen offer. One transaction holds the proposal's row lock from
+ * the check to the last write: a second signing waits, then finds it signed (409). The signed
+ * file is written under a new key and never overwritten. Copies go out after the commit.
+ */
+export async function signProposal(p: ProposalRow, token: string, input: unknown, client: ClientMeta, session: string | null): Promise<SignedOutcome> {
+  const parsed = signProposalSchema.safeParse(input);
+  if (!parsed.success) throw validationError(parsed.error);
+  const { position, signerName } = parsed.data;
+  const offer = p.snapshot.offers.find((o) => o.position === position);
+  if (!offer) throw new HttpError(422, "validation_failed", "position: Choose one of the offers in this proposal", { position: ["Choose one of the offers in this proposal"] });
+  const signaturePng = await signaturePngBytes(parsed.data.signaturePng);
+
+  const { timeZone } = await getCompanySettings(p.companyId);
+  const key = `${p.companyId}/signed/${crypto.randomUUID()}.pdf`;
+  let stored = false;
+  let result: SignedOutcome;
+  try {
+    result = await db().transaction(async (tx) => {
+      const [row] = await tx.select().from(proposal).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId))).for("update");
+      if (!row) throw new HttpError(404, "not_found", "Proposal not found.");
+      if (row.status === "signed") throw new HttpError(409, "already_signed", "This proposal is already signed; a second signature is not accepted.");
+      requireLive(row);
+      const now = new Date();
+      const confirmed =
+        !!session &&
+        !!row.codeHash &&
+        !!row.codeVerifiedAt &&
+        !!row.codeExpiresAt &&
+        row.codeExpiresAt.getTime() > now.getTime() &&
+        sameHash(row.codeHash, secretHash(p.id, "session", session));
+      if (!confirmed) throw new HttpError(403, "code_required", "Confirm your e-mail with a code first (a confirmation lasts 30 minutes).");
+
+      await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "consented", body: "Agreed to the electronic records disclosure", client, at: now });
+      const events = await tx
+        .select({ kind: proposalEvent.kind, body: proposalEvent.body, ip: proposalEvent.ip, createdAt: proposalEvent.createdAt })
+        .from(proposalEvent)
+        .where(and(eq(proposalEvent.companyId, p.companyId), eq(proposalEvent.proposalId, p.id)))
+        .orderBy(asc(proposalEvent.createdAt));
+      const certificateEvents = events
+        .filter((e) => EVENT_TEXT[e.kind])
+        .map((e) => ({ at: e.createdAt, kind: e.kind, detail: EVENT_TEXT[e.kind](e) }))
+        .concat([{ at: now, kind: "signed", detail: EVENT_TEXT.signed({ body: null, ip: client.ip }) }]);
+
+      // The deadline counts from the day of signing in the company's time zone (Settings → Company).
+      const signedOn = localIsoDate(now, timeZone);
+      const deadline = row.inHomeSale ? cancelDeadline(signedOn) : null;
+      const unsigned = await readProposalPdf(row, "unsigned");
+      if (sha256Hex(unsigned) !== row.pdfSha256) throw new Error(`proposal ${p.id}: the stored PDF does not match its recorded SHA-256`);
+      const signed = await stampSignedPdf(unsigned, {
+        signaturePng,
+        signerName,
+        signerEmail: row.sentToEmail,
+        chosenPosition: position,
+        chosenOfferName: offer.name,
+        chosenContractCents: offer.figures.summary.contractCents,
+        signedAt: now,
+        ip: client.ip,
+        userAgent: client.userAgent,
+        unsignedSha256: row.pdfSha256,
+        proposalLabel: labelOf(row),
+        events: certificateEvents,
+        cancelDeadlineText: deadline ? formatIsoDateLong(deadline) : null,
+        signedOnText: formatIsoDateLong(signedOn),
+      }).catch((err: unknown) => {
+        if (err instanceof SignatureImageError) throw new HttpError(422, "validation_failed", `signaturePng: ${err.message}`, { signaturePng: [err.message] });
+        throw err;
+      });
+      const signedSha256 = sha256Hex(signed);
+      await storage().put(key, signed);
+      stored = true;
+      await tx
+        .update(proposal)
+        .set({
+          status: "signed",
+          chosenPosition: position,
+          consentedAt: now,
+          signedAt: now,
+          signerName,
+          signerEmail: row.sentToEmail,
+          signerIp: client.ip,
+          signerUserAgent: client.userAgent,
+          signedStorageKey: key,
+          signedSha256,
+          cancelDeadline: deadline,
+          codeHash: null,
+        })
+        .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
+      await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "signed", body: `${signerName}: "${offer.name}" at ${formatCents(offer.figures.summary.contractCents)}`, client, at: now });
+      await tx
+        .update(deal)
+        .set({ contractCents: offer.figures.summary.contractCents, systemDcWatts: Math.round(offer.equipment.moduleCount * offer.equipment.module.stcWatts) })
+        .where(and(eq(deal.id, p.dealId), eq(deal.companyId, p.companyId)));
+      await recordEvent(tx, {
+        companyId: p.companyId,
+        dealId: p.dealId,
+        kind: "proposal.signed",
+        summary: `${signerName} signed proposal ${labelOf(row)}: "${offer.name}" at ${formatCents(offer.figures.summary.contractCents)}${deadline ? `; may cancel until ${formatIsoDateLong(deadline)}` : ""}`,
+        actorUserId: null,
+        data: { proposalId: p.id, position, signedSha256, ip: client.ip },
+      });
+      await autoMoveStage(tx, {
+        companyId: p.companyId,
+        dealId: p.dealId,
+        from: BEFORE_SIGNED,
+        to: "signed",
+        summary: `Moved to Signed: the customer signed ${labelOf(row)}`,
+        data: { proposalId: p.id },
+      });
+      return { signedAt: now, signedSha256, cancelDeadline: deadline, chosenPosition: position };
+    });
+  } catch (err) {
+    if (stored) await storage().delete(key).catch(() => undefined);
+    throw err;
+  }
+  await mailSignedCopies(p, token, signerName, offer.name, offer.figures.summary.contractCents, result);
+  return result;
+}
+
+/**
+ * Copies after the commit: the customer gets a link to their page (which always serves the
+ * signed PDF) and the rep a link to the deal. A link rather than an attachment: the mail
+ * helper (src/server/mail.ts) sends no attachments and the dev outbox drops them.
+ */
+async function mailSignedCopies(p: ProposalRow, token: string, signerName: string, offerName: string, contractCents: number, r: SignedOutcome): Promise<void> {
+  const common = {
+    companyName: p.snapshot.company.name,
+    householdName: p.snapshot.household.name,
+    signerName,
+    label: labelOf(p),
+    offerName,
+    price: formatCents(contractCents),
+    signedAt: formatDateTime(r.signedAt),
+    cancelBy: r.cancelDeadline ? formatIsoDateLong(r.cancelDeadline) : null,
+    sha256: r.signedSha256,
+  };
+  const sends = [
+    sendEmail({
+      to: p.sentToEmail,
+      replyTo: p.snapshot.rep.email,
+      subject: `Your signed agreement with ${p.snapshot.company.name} (${labelOf(p)})`,
+      react: createElement(SignedCopyEmail, { ...common, audience: "customer", url: proposalUrl(token) }),
+      idempotencyKey: `signed-copy-customer-${p.id}`,
+    }),
+    sendEmail({
+      to: p.snapshot.rep.email,
+      subject: `Signed: the ${p.snapshot.household.name} (${labelOf(p)})`,
+      react: createElement(SignedCopyEmail, { ...common, audience: "rep", url: dealProposalUrl(p.dealId) }),
+      idempotencyKey: `signed-copy-rep-${p.id}`,
+    }),
+  ];
+  for (const outcome of await Promise.allSettled(sends)) {
+    if (outcome.status === "rejected") console.error("proposal signed; a copy could not be e-mailed", p.id, outcome.reason);
+  }
+}
+
+// ── Verify ─────────────────────────────────────────────────────────────────────────────────
+
+export const MAX_VERIFY_FILE_BYTES = 25 * 1024 * 1024;
+
+export type VerifyAnswer = { match: true; label: string; signedOn: string } | { match: false };
+
+/**
+ * Does this file's SHA-256 match a signed Kilowright record? Answers only the proposal's label
+ * and the UTC date of signing; nothing else about it.
+ */
+export async function verifySignedPdf(bytes: Uint8Array): Promise<VerifyAnswer> {
+  if (bytes.byteLength === 0) throw new HttpError(422, "empty_file", "The file is empty.");
+  if (bytes.byteLength > MAX_VERIFY_FILE_BYTES) throw new HttpError(413, "file_too_large", `Files up to ${MAX_VERIFY_FILE_BYTES / 1048576} MB are checked.`);
+  const type = await fileTypeFromBuffer(bytes);
+  if (type?.mime !== "application/pdf") throw new HttpError(415, "not_pdf", "This is not a PDF file. Upload the signed PDF you received.");
+  const [row] = await db()
+    .select({ number: proposal.number, version: proposal.version, signedAt: proposal.signedAt })
+    .from(proposal)
+    .where(eq(proposal.signedSha256, sha256Hex(bytes)))
+    .limit(1);
+  if (!row || !row.signedAt) return { match: false };
+  return { match: true, label: labelOf(row), signedOn: row.signedAt.toISOString().slice(0, 10) };
+}
