@@ -229,6 +229,14 @@ function createdFilter(params: Params): (created: number) => boolean {
   return (c) => (gt === null || c > gt) && (gte === null || c >= gte) && (lt === null || c < lt) && (lte === null || c <= lte);
 }
 
+/** GET /_dev answers with this list. */
+const DEV_API = [
+  "GET  /_dev/deliveries[?event=evt_…&type=…&status=pending|delivered|failed]  every webhook delivery and its attempts, newest first",
+  "POST /_dev/deliveries/flush  makes every pending delivery due now",
+  "POST /_dev/events/:id/redeliver  queues one more delivery of an event",
+  'POST /_dev/sessions/:id/pay  {"card":"4242424242424242","exp?":"12/30","cvc?":"123","postal_code?":"10001","email?":"…"}  pays without a browser',
+];
+
 const LIST_PARAMS = ["limit", "starting_after", "ending_before", "created", "expand"];
 
 // ---------------------------------------------------------------------------------------------
@@ -763,19 +771,20 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
       if (!p.startsWith("data.")) throw invalidParam(`expand[${i}]`, `This property cannot be expanded (${p}). You may want to try expanding 'data.${p}' instead.`);
       return p.slice("data.".length);
     });
+    const position = new Map(all.map((item, i) => [item.id, i]));
     const matching = all.filter((item) => created(item.created) && filter(item)); // newest first
     let page: T[];
     let hasMore: boolean;
     if (after !== null) {
-      const at = all.findIndex((i) => i.id === after);
-      if (at < 0) throw noSuch(kind, after, "starting_after");
-      const rest = matching.filter((item) => all.indexOf(item) > at);
+      const at = position.get(after);
+      if (at === undefined) throw noSuch(kind, after, "starting_after");
+      const rest = matching.filter((item) => position.get(item.id)! > at);
       page = rest.slice(0, limit);
       hasMore = rest.length > limit;
     } else if (before !== null) {
-      const at = all.findIndex((i) => i.id === before);
-      if (at < 0) throw noSuch(kind, before, "ending_before");
-      const rest = matching.filter((item) => all.indexOf(item) < at);
+      const at = position.get(before);
+      if (at === undefined) throw noSuch(kind, before, "ending_before");
+      const rest = matching.filter((item) => position.get(item.id)! < at);
       page = rest.slice(Math.max(0, rest.length - limit));
       hasMore = rest.length > limit;
     } else {
@@ -1023,8 +1032,13 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
 
       const info: RequestInfo = { id: requestId, idempotencyKey: key };
       let result: ApiResult;
+      const swept = sweepExpired();
+      if (swept) {
+        armExpiry();
+        await store.save();
+        sender.schedule();
+      }
       try {
-        if (sweepExpired()) armExpiry();
         result = routeApi(method, parts, params, info);
       } catch (err) {
         // Errors raised once the call started executing (not bad parameters) are kept for the
@@ -1150,6 +1164,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
     try {
       if (!isLoopback(req)) throw invalidRequest("The dev control API answers only on loopback.", undefined, undefined, 403);
       const [, a, b, c] = parts;
+      if (a === undefined && method === "GET") return send(res, 200, { data: DEV_API });
       if (a === "deliveries" && b === undefined && method === "GET") {
         const event = url.searchParams.get("event");
         const type = url.searchParams.get("type");
@@ -1219,7 +1234,12 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
 
   async function handle(req: IncomingMessage, res: ServerResponse): Promise<void> {
     const url = new URL(req.url ?? "/", "http://fake.invalid");
-    const parts = url.pathname.split("/").filter(Boolean).map((p) => decodeURIComponent(p));
+    let parts: string[];
+    try {
+      parts = url.pathname.split("/").filter(Boolean).map((p) => decodeURIComponent(p));
+    } catch {
+      return send(res, 400, invalidRequest("Invalid percent-encoding in the URL.").body());
+    }
     if (url.pathname === "/health") return send(res, 200, { ok: true });
     if (parts[0] === "v1") return handleApi(req, res, url, parts);
     if (parts[0] === "pay" && parts.length === 2) return handlePage(req, res, parts[1]);

@@ -23,12 +23,13 @@ input{width:100%;min-height:48px;font-size:18px;padding:10px 12px;border:1px sol
 input:focus{outline:3px solid #8fb89b;outline-offset:1px;border-color:#2f4a3a}
 input[aria-invalid=true]{border-color:#a3261b;background:#fff6f5}
 .row{display:grid;grid-template-columns:1fr 1fr;gap:12px}
+.row>div{display:flex;flex-direction:column;justify-content:flex-end}
 .alert{margin:16px 0 0;padding:12px 14px;border-radius:8px;background:#fdecea;border:1px solid #e2a39c;color:#7d1d14;font-weight:600}
 button{margin-top:20px;width:100%;min-height:52px;font-size:18px;font-weight:700;border:0;border-radius:8px;background:#2f4a3a;color:#fff;cursor:pointer}
 button:focus-visible{outline:3px solid #8fb89b;outline-offset:2px}
 .back{display:inline-block;margin-top:16px;min-height:44px;line-height:44px;color:#2f4a3a}
 .help{margin-top:22px;font-size:13px;color:#5c665f}
-.help code{font-size:13px}
+.help code{font-size:13px;white-space:nowrap}
 `;
 
 function layout(title: string, body: string): string {
@@ -67,10 +68,11 @@ function summary(session: CheckoutSession): string {
         `<li><span>${escapeHtml(li.description)}${li.quantity > 1 ? ` × ${li.quantity}` : ""}</span><span>${escapeHtml(formatAmount(li.amount_total, li.currency))}</span></li>`,
     )
     .join("");
-  const description = session._payment_intent_data.description;
-  return `<h1>${escapeHtml(description ?? session._line_items[0]?.description ?? "Payment")}</h1>
+  const title = session._payment_intent_data.description ?? session._line_items[0]?.description ?? "Payment";
+  const only = session._line_items.length === 1 && session._line_items[0].quantity === 1 && session._line_items[0].description === title;
+  return `<h1>${escapeHtml(title)}</h1>
 <p class="total" data-testid="amount">${escapeHtml(formatAmount(session.amount_total, session.currency))}</p>
-<ul class="items">${items}</ul>`;
+${only ? "" : `<ul class="items">${items}</ul>`}`;
 }
 
 export function checkoutPage(session: CheckoutSession, state: FormState = {}): string {
