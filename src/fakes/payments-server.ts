@@ -1010,6 +1010,11 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
       const pathText = url.pathname.replace(/\/+$/, "");
       const paramsText = canonicalParams(params);
 
+      if (sweepExpired()) {
+        armExpiry();
+        await store.save();
+        sender.schedule();
+      }
       if (key !== null) {
         pruneIdempotency();
         const existing = store.idempotency.get(key);
@@ -1032,12 +1037,8 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
 
       const info: RequestInfo = { id: requestId, idempotencyKey: key };
       let result: ApiResult;
-      const swept = sweepExpired();
-      if (swept) {
-        armExpiry();
-        await store.save();
-        sender.schedule();
-      }
+      // From the idempotency check to recording the result nothing awaits, so two requests
+      // with one key cannot both run.
       try {
         result = routeApi(method, parts, params, info);
       } catch (err) {

@@ -173,6 +173,13 @@ describe("Idempotency-Key", () => {
     expect(all.data.filter((s) => s.id === first.id)).toHaveLength(1);
   });
 
+  it("five requests at once with one key make one session", async () => {
+    const key = `deposit-double-click-${Date.now()}`;
+    const results = await Promise.all(Array.from({ length: 5 }, () => stripe.checkout.sessions.create(depositParams(), { idempotencyKey: key })));
+    expect(new Set(results.map((r) => r.id)).size).toBe(1);
+    expect(results.filter((r) => r.lastResponse.headers["idempotent-replayed"] === "true")).toHaveLength(4);
+  });
+
   it("the same key with other parameters is a 400 idempotency_error", async () => {
     const key = `deposit-conflict-${Date.now()}`;
     await stripe.checkout.sessions.create(depositParams(), { idempotencyKey: key });
