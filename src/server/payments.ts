@@ -14,6 +14,7 @@ import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import DepositReceiptEmail from "@emails/deposit-receipt";
 import RefundIssuedEmail from "@emails/refund-issued";
 import { db, type Tx } from "@/server/db";
+import { jsonValue } from "@/server/designs";
 import { getDealOrThrow } from "@/server/deals";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import { createJobForDeal } from "@/server/jobs";
@@ -63,18 +64,18 @@ export function proposalLabel(p: { number: number; version: number }): string {
   return `P-${p.number} v${p.version}`;
 }
 
-function snapshotOf(p: Pick<ProposalRow, "snapshot">): ProposalSnapshot {
-  return p.snapshot as ProposalSnapshot;
+function snapshotOf(p: { snapshot: unknown }): ProposalSnapshot {
+  return jsonValue(p.snapshot) as ProposalSnapshot;
 }
 
-function chosenOffer(p: Pick<ProposalRow, "snapshot" | "chosenPosition">) {
+function chosenOffer(p: { snapshot: unknown; chosenPosition: number | null }) {
   if (p.chosenPosition == null) return null;
   const offers = snapshotOf(p).offers;
   return Array.isArray(offers) ? (offers.find((o) => o.position === p.chosenPosition) ?? null) : null;
 }
 
 /** The deposit of a signed proposal: the chosen offer's `depositCents` in the snapshot (company policy at sending). */
-export function depositCentsOf(p: Pick<ProposalRow, "snapshot" | "chosenPosition">): number | null {
+export function depositCentsOf(p: { snapshot: unknown; chosenPosition: number | null }): number | null {
   const cents = chosenOffer(p)?.depositCents;
   return typeof cents === "number" && Number.isInteger(cents) && cents > 0 ? cents : null;
 }
@@ -207,7 +208,14 @@ export type CustomerDeposit = {
 /** The deposit as the customer's page shows it, or null when the proposal asks for none (or is not signed). */
 export async function getDepositForCustomer(token: string): Promise<CustomerDeposit | null> {
   const [p] = await db().select().from(proposal).where(eq(proposal.tokenHash, hashToken(token))).limit(1);
-  if (!p || (p.status !== "signed" && p.status !== "cancelled")) return null;
+  return p ? depositForProposal(p) : null;
+}
+
+/** The same for a proposal already looked up by its token (the customer's page). */
+export async function depositForProposal(
+  p: Pick<ProposalRow, "id" | "companyId" | "status" | "chosenPosition"> & { snapshot: unknown },
+): Promise<CustomerDeposit | null> {
+  if (p.status !== "signed" && p.status !== "cancelled") return null;
   const amountCents = depositCentsOf(p);
   if (!amountCents) return null;
   const rows = await db()

@@ -1,0 +1,44 @@
+import type { Metadata } from "next";
+import { NoAccess } from "@/components/no-access";
+import { formatDateTime } from "@/lib/format";
+import { can } from "@/lib/permissions";
+import { formatMoney, listDealPayments, refundableCents } from "@/server/payments";
+import { getMember } from "@/server/session";
+import { MoneyClient, type PaymentView } from "./money-client";
+
+export const metadata: Metadata = { title: "Money" };
+
+export default async function MoneyTab({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const member = await getMember();
+  if (!member) return null;
+  if (!can(member.role, "payments:read")) return <NoAccess section="Money" />;
+  const payments = await listDealPayments(member, id);
+  const views: PaymentView[] = payments.map((p) => ({
+    id: p.id,
+    status: p.status,
+    proposalLabel: `P-${p.proposalNumber} v${p.proposalVersion}`,
+    amountText: formatMoney(p.amountCents, p.currency),
+    paidText: p.paidCents == null ? null : formatMoney(p.paidCents, p.currency),
+    refundedText: formatMoney(p.refundedCents, p.currency),
+    refundableCents: refundableCents(p),
+    refundableText: formatMoney(refundableCents(p), p.currency),
+    paidAtText: p.paidAt ? formatDateTime(p.paidAt) : null,
+    createdAtText: formatDateTime(p.createdAt),
+    checkoutSessionId: p.checkoutSessionId,
+    paymentIntentId: p.paymentIntentId,
+    chargeId: p.chargeId,
+    flagReason: p.flagReason,
+    failureMessage: p.failureMessage,
+    refunds: p.refunds.map((r) => ({
+      id: r.id,
+      amountText: formatMoney(r.amountCents, p.currency),
+      reason: r.reason,
+      status: r.status,
+      stripeRefundId: r.stripeRefundId,
+      byName: r.requestedByName,
+      createdAtText: formatDateTime(r.createdAt),
+    })),
+  }));
+  return <MoneyClient payments={views} canRefund={can(member.role, "payments:refund")} canReconcile={can(member.role, "payments:reconcile")} />;
+}

@@ -1,0 +1,125 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { FormMessage } from "@/components/field";
+import { NoAccess } from "@/components/no-access";
+import { formatDateTime } from "@/lib/format";
+import { can } from "@/lib/permissions";
+import { HttpError } from "@/server/errors";
+import { reconcileLedger, type Reconciliation, type ReconciliationDifference } from "@/server/payments";
+import { getMember } from "@/server/session";
+
+export const metadata: Metadata = { title: "Reconciliation" };
+export const dynamic = "force-dynamic";
+
+const KIND_LABELS: Record<ReconciliationDifference["kind"], string> = {
+  missing_in_ledger: "At the provider, not in the ledger",
+  missing_at_provider: "In the ledger, not at the provider",
+  amount: "Amounts differ",
+  state: "States differ",
+};
+const KIND_ORDER: ReconciliationDifference["kind"][] = ["missing_in_ledger", "missing_at_provider", "amount", "state"];
+
+export default async function ReconciliationPage() {
+  const member = await getMember();
+  if (!member) return null;
+  if (!can(member.role, "payments:reconcile")) return <NoAccess section="Money → Reconciliation" />;
+  let result: Reconciliation | null = null;
+  let problem: string | null = null;
+  try {
+    result = await reconcileLedger(member);
+  } catch (err) {
+    if (!(err instanceof HttpError)) throw err;
+    problem = err.message;
+  }
+  return (
+    <>
+      <p className="text-sm text-graphite-soft">Money</p>
+      <h1 className="text-2xl font-semibold">Reconciliation</h1>
+      <p className="mt-1 max-w-3xl text-graphite-soft">
+        The deposit ledger of {member.companyName} compared with the payment provider&apos;s own list of Checkout Sessions and refunds. A difference usually means a webhook has
+        not landed yet, or money moved outside Kilowright; open the deal&apos;s Money tab to see the payment.
+      </p>
+      {problem ? (
+        <div className="mt-6">
+          <FormMessage tone="error">{problem}</FormMessage>
+        </div>
+      ) : result ? (
+        <Result r={result} />
+      ) : null}
+    </>
+  );
+}
+
+function Result({ r }: { r: Reconciliation }) {
+  return (
+    <div className="mt-6 space-y-6">
+      <div className="flex flex-wrap items-center gap-4">
+        <dl className="grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-4" data-testid="reconciliation-counts">
+          <dt className="text-graphite-soft">Ledger payments</dt>
+          <dd className="figure">{r.counts.ledgerPayments}</dd>
+          <dt className="text-graphite-soft">Provider sessions</dt>
+          <dd className="figure">{r.counts.providerSessions}</dd>
+          <dt className="text-graphite-soft">Ledger refunds</dt>
+          <dd className="figure">{r.counts.ledgerRefunds}</dd>
+          <dt className="text-graphite-soft">Provider refunds</dt>
+          <dd className="figure">{r.counts.providerRefunds}</dd>
+        </dl>
+        <Link href="/money/reconciliation" className="btn-quiet" prefetch={false}>
+          Check again
+        </Link>
+      </div>
+      <p className="text-sm text-graphite-soft">Checked {formatDateTime(r.checkedAt)}.</p>
+      {r.demoRowsSkipped > 0 ? (
+        <p className="text-sm text-graphite-soft">
+          {r.demoRowsSkipped} demo ledger row{r.demoRowsSkipped === 1 ? "" : "s"} written by the demo seed (ids starting cs_test_demo) have no provider record and are not
+          compared.
+        </p>
+      ) : null}
+      {r.differences.length === 0 ? (
+        <FormMessage tone="success">The ledger and the provider agree: every payment and refund matches in amount and state.</FormMessage>
+      ) : (
+        KIND_ORDER.map((kind) => {
+          const rows = r.differences.filter((d) => d.kind === kind);
+          if (rows.length === 0) return null;
+          return (
+            <section key={kind} aria-labelledby={`diff-${kind}`}>
+              <h2 id={`diff-${kind}`} className="text-lg font-semibold">
+                {KIND_LABELS[kind]} <span className="figure text-graphite-soft">({rows.length})</span>
+              </h2>
+              <div className="mt-2 overflow-x-auto rounded-card border border-paper-line bg-white">
+                <table className="w-full min-w-[760px] text-left text-sm">
+                  <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
+                    <tr>
+                      <th scope="col" className="px-3 py-2">What</th>
+                      <th scope="col" className="px-3 py-2">Provider id</th>
+                      <th scope="col" className="px-3 py-2">Difference</th>
+                      <th scope="col" className="px-3 py-2">Deal</th>
+                    </tr>
+                  </thead>
+                  <tbody className="divide-y divide-paper-line">
+                    {rows.map((d) => (
+                      <tr key={`${d.object}-${d.providerId}-${d.kind}`} data-testid={`difference-${d.providerId}`}>
+                        <td className="px-3 py-2">{d.object === "payment" ? "Payment" : "Refund"}</td>
+                        <td className="figure px-3 py-2 text-xs">{d.providerId}</td>
+                        <td className="px-3 py-2">{d.detail}</td>
+                        <td className="px-3 py-2">
+                          {d.dealId ? (
+                            <Link href={`/deals/${d.dealId}/money`} className="text-copper underline-offset-2 hover:underline">
+                              Money tab
+                            </Link>
+                          ) : (
+                            "—"
+                          )}
+                        </td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </div>
+            </section>
+          );
+        })
+      )}
+    </div>
+  );
+}
