@@ -1,0 +1,95 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { can } from "@/lib/permissions";
+import { STAGE_LABELS } from "@/lib/stages";
+import { listCrewOptions } from "@/server/crews";
+import { HttpError } from "@/server/errors";
+import { getJobPacket } from "@/server/jobs";
+import { idSchema } from "@/server/route";
+import { getMember } from "@/server/session";
+import { AddChecklistButton } from "./add-checklist-button";
+import { JobForm } from "./job-form";
+import { PacketView } from "./packet-view";
+
+export const metadata: Metadata = { title: "Job" };
+
+export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const member = await getMember();
+  if (!member || !can(member.role, "jobs:read") || !idSchema.safeParse(id).success) notFound();
+  // Another company's job, or another crew's for an installer: simply not found.
+  const packet = await getJobPacket(member, id).catch((err: unknown) => {
+    if (err instanceof HttpError && err.status === 404) notFound();
+    throw err;
+  });
+  const { job } = packet;
+  const office = can(member.role, "jobs:manage");
+  const canWork = can(member.role, "jobs:work");
+
+  const header = (
+    <header className="flex flex-wrap items-start justify-between gap-3">
+      <div>
+        <Link href="/jobs" className="inline-flex min-h-touch items-center text-sm text-copper underline-offset-2 hover:underline">
+          ← Jobs
+        </Link>
+        <h1 className="text-2xl font-semibold">{packet.customer.name}</h1>
+        <p className="text-graphite-soft">
+          {packet.site.street}, {packet.site.city}
+        </p>
+      </div>
+      <p className="rounded-full bg-copper-light px-3 py-1 text-sm font-medium text-copper-dark" data-testid="job-stage">
+        {job.installedAt && job.stage === "install_booked" ? "Installed" : STAGE_LABELS[job.stage]}
+      </p>
+    </header>
+  );
+
+  if (!office) {
+    return (
+      <div className="mx-auto max-w-xl space-y-4">
+        {header}
+        <PacketView packet={packet} canWork={canWork} />
+      </div>
+    );
+  }
+
+  const crews = await listCrewOptions(member.companyId);
+  const v = (x: string | null) => x ?? "";
+  return (
+    <div className="space-y-6">
+      {header}
+      <p className="text-sm">
+        <Link href={`/deals/${job.dealId}`} className="text-copper underline-offset-2 hover:underline">
+          Open the deal
+        </Link>{" "}
+        · its Timeline shows every change below.
+      </p>
+      <JobForm
+        jobId={job.id}
+        crews={crews}
+        defaults={{
+          crewId: v(job.crewId),
+          surveyDate: v(job.surveyDate),
+          installDate: v(job.installDate),
+          permitNumber: v(job.permitNumber),
+          permitSubmittedOn: v(job.permitSubmittedOn),
+          permitApprovedOn: v(job.permitApprovedOn),
+          interconnectionNumber: v(job.interconnectionNumber),
+          interconnectionSubmittedOn: v(job.interconnectionSubmittedOn),
+          interconnectionApprovedOn: v(job.interconnectionApprovedOn),
+          inspectionOn: v(job.inspectionOn),
+          ptoOn: v(job.ptoOn),
+          notes: v(job.notes),
+        }}
+      />
+      {job.checklist.length === 0 ? <AddChecklistButton jobId={job.id} /> : null}
+      <div>
+        <h2 className="text-xl font-semibold">Job packet</h2>
+        <p className="text-sm text-graphite-soft">What the crew sees on their phone.</p>
+        <div className="mt-3 max-w-2xl">
+          <PacketView packet={packet} canWork={canWork} />
+        </div>
+      </div>
+    </div>
+  );
+}
