@@ -256,12 +256,13 @@ describe("reconcileLedger", () => {
       metadata: { companyId: own.companyId, dealId: d.dealId },
       success_url: "http://127.0.0.1/ok",
     });
+    const nowhere = `cs_test_nowhere_${crypto.randomUUID().replaceAll("-", "")}`;
     await dbm.db().insert(payment).values({
       id: crypto.randomUUID(),
       companyId: own.companyId,
       dealId: d.dealId,
       proposalId: d.proposalId,
-      checkoutSessionId: "cs_test_nowhere_0001",
+      checkoutSessionId: nowhere,
       amountCents: 100,
       status: "open",
     });
@@ -273,7 +274,7 @@ describe("reconcileLedger", () => {
     expect(kinds).toEqual(
       [
         `payment:missing_in_ledger:${stray.id}`,
-        "payment:missing_at_provider:cs_test_nowhere_0001",
+        `payment:missing_at_provider:${nowhere}`,
         `payment:amount:${d.sessionId}`,
         `refund:missing_in_ledger:${(await h.sdk.refunds.list({ limit: 1 })).data[0].id}`,
       ].sort(),
