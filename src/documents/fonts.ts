@@ -7,6 +7,7 @@ import { existsSync, readFileSync } from "node:fs";
 import path from "node:path";
 import type { PDFDocument, PDFFont } from "pdf-lib";
 import type { Font, Fontkit, Glyph } from "pdf-lib/cjs/types/fontkit";
+import { useNativeDeflate } from "./layout";
 
 export type DocFonts = { sans: PDFFont; sansBold: PDFFont; mono: PDFFont };
 
@@ -16,11 +17,15 @@ const FONT_FILES = {
   mono: "@expo-google-fonts/ibm-plex-mono/400Regular/IBMPlexMono_400Regular.ttf",
 } as const;
 
-/** Fixed PostScript names: pdf-lib would otherwise add a (seeded) suffix; fixed names keep the bytes stable. */
+/**
+ * Fixed PostScript names (pdf-lib would otherwise add a suffix; fixed names keep the bytes
+ * stable), each with the six-letter tag and "+" the PDF format asks of a font subset
+ * (ISO 32000-1, 9.6.4): two letters the caller picks plus four naming the face.
+ */
 const FONT_NAMES: Record<keyof typeof FONT_FILES, string> = {
-  sans: "IBMPlexSans-Regular",
-  sansBold: "IBMPlexSans-SemiBold",
-  mono: "IBMPlexMono-Regular",
+  sans: "SANS+IBMPlexSans-Regular",
+  sansBold: "SEMI+IBMPlexSans-SemiBold",
+  mono: "MONO+IBMPlexMono-Regular",
 };
 
 const GLYPH_HEADER_PADDING = 16;
@@ -104,13 +109,17 @@ const cachingFontkit: Fontkit = {
 
 /**
  * Embeds Plex Sans Regular, Plex Sans SemiBold and Plex Mono Regular in `pdf` (subset to the
- * glyphs used, so a document carries tens of kilobytes of font, not hundreds).
+ * glyphs used, so a document carries tens of kilobytes of font, not hundreds). A second set
+ * embedded later in the same file (e.g. the signing stamp) takes another `subsetTag`.
  */
-export async function embedFonts(pdf: PDFDocument): Promise<DocFonts> {
+export async function embedFonts(pdf: PDFDocument, opts: { subsetTag?: string } = {}): Promise<DocFonts> {
+  const tag = opts.subsetTag ?? "KW";
+  if (!/^[A-Z]{2}$/.test(tag)) throw new RangeError(`subsetTag must be two capital letters, got "${tag}"`);
   pdf.registerFontkit(cachingFontkit);
+  useNativeDeflate(pdf);
   const bytes = fontBytes();
   const [sans, sansBold, mono] = await Promise.all(
-    (["sans", "sansBold", "mono"] as const).map((k) => pdf.embedFont(bytes[k], { subset: true, customName: FONT_NAMES[k] })),
+    (["sans", "sansBold", "mono"] as const).map((k) => pdf.embedFont(bytes[k], { subset: true, customName: tag + FONT_NAMES[k] })),
   );
   return { sans, sansBold, mono };
 }

@@ -20,6 +20,7 @@ import {
   MARGIN_X,
   PAGE_WIDTH,
   SAVE_OPTIONS,
+  compressContentStreams,
   createFlow,
   drawLine,
   drawPageFrames,
@@ -544,5 +545,6 @@ export async function renderProposalPdf(snapshot: ProposalSnapshot, meta: Propos
     date: meta.sentAt,
   });
   pdf.setLanguage("en-US");
+  compressContentStreams(pdf);
   return pdf.save(SAVE_OPTIONS);
 }

@@ -6,7 +6,7 @@
 import { PDFBool, PDFDict, PDFDocument, PDFHexString, PDFName, PDFString, type PDFImage, type PDFPage } from "pdf-lib";
 import { formatCents, formatDate } from "@/lib/format";
 import { embedFonts } from "./fonts";
-import { COLORS, SAVE_OPTIONS, createFlow, drawLine, drawPageFrames, fitText, type FrameInfo, type TableColumn } from "./layout";
+import { COLORS, SAVE_OPTIONS, compressContentStreams, createFlow, drawLine, drawPageFrames, fitText, type FrameInfo, type TableColumn } from "./layout";
 import {
   CHOSEN_OFFER_BOX,
   DEADLINE_PRINTED_KEY,
@@ -106,7 +106,7 @@ function drawFitted(page: PDFPage, image: PDFImage, box: Rect, padding: number):
 export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): Promise<Uint8Array> {
   const pdf = await PDFDocument.load(unsigned, { updateMetadata: false });
   const image = await embedSignature(pdf, s.signaturePng);
-  const fonts = await embedFonts(pdf);
+  const fonts = await embedFonts(pdf, { subsetTag: "KS" });
   const pages = pdf.getPages();
   const originalCount = pages.length;
   const sigPage = pages.find((p) => pageRole(p) === PAGE_ROLE.signature) ?? pages[originalCount - 1];
@@ -188,5 +188,6 @@ export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): P
     pageLabel: (i) => `signing certificate, page ${i - originalCount + 1} of ${certPages}`,
   });
   pdf.setModificationDate(s.signedAt);
+  compressContentStreams(pdf);
   return pdf.save(SAVE_OPTIONS);
 }
