@@ -217,6 +217,9 @@ export type SignedOutcome = { signedAt: Date; signedSha256: string; cancelDeadli
  * file is written under a new key and never overwritten. Copies go out after the commit.
  */
 export async function signProposal(p: ProposalRow, token: string, input: unknown, client: ClientMeta, session: string | null): Promise<SignedOutcome> {
+  // The link's state first: a replaced or expired link says so whatever was sent (checked again under the lock).
+  if (p.status === "signed") throw new HttpError(409, "already_signed", "This proposal is already signed; a second signature is not accepted.");
+  requireLive(p);
   const parsed = signProposalSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
   const { position, signerName } = parsed.data;
