@@ -4,7 +4,11 @@
  *
  * Each case: optional setup, warm-up runs, then timed runs until 60 runs or 3 s; median, p95 and
  * best reported. The machine's load is printed with the figures: other work on the same host
- * slows every case.
+ * slows every case. A case whose run() returns a promise is timed until it settles.
+ *
+ * `--only=<prefix>` runs only the cases whose name starts with the prefix (e.g.
+ * `npx tsx scripts/bench.ts --only=documents`) and prints them without touching
+ * docs/benchmarks.md, which keeps the figures of a full run.
  */
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
@@ -23,13 +27,17 @@ let sink: unknown;
 
 async function time(c: BenchCase): Promise<Row> {
   if (c.setup) await c.setup();
-  for (let i = 0; i < WARMUP_RUNS; i++) sink = c.run();
+  for (let i = 0; i < WARMUP_RUNS; i++) {
+    sink = c.run();
+    if (sink instanceof Promise) sink = await sink;
+  }
   const samples: number[] = [];
   const cpu0 = process.cpuUsage();
   const start = performance.now();
   while (samples.length < MAX_RUNS && performance.now() - start < MAX_MS) {
     const t = performance.now();
     sink = c.run();
+    if (sink instanceof Promise) sink = await sink;
     samples.push(performance.now() - t);
   }
   const cpu = process.cpuUsage(cpu0);
@@ -54,11 +62,24 @@ function fmt(ms: number): string {
 }
 
 async function main(): Promise<void> {
+  const only = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length) ?? null;
   const all: BenchCase[] = [...productionCases];
-  const moneyPath = fileURLToPath(new URL("./bench/money.ts", import.meta.url));
-  if (existsSync(moneyPath)) {
-    const money = (await import(pathToFileURL(moneyPath).href)) as BenchModule;
-    all.push(...money.cases);
+  for (const part of ["money", "documents"]) {
+    if (only && !part.startsWith(only) && !only.startsWith(part)) continue;
+    const path = fileURLToPath(new URL(`./bench/${part}.ts`, import.meta.url));
+    if (existsSync(path)) {
+      const mod = (await import(pathToFileURL(path).href)) as BenchModule;
+      all.push(...mod.cases);
+    }
+  }
+  if (only) {
+    const picked = all.filter((c) => c.name.startsWith(only));
+    for (const c of picked) {
+      const r = await time(c);
+      console.log(`${r.name.padEnd(64)} median ${fmt(r.medianMs).padStart(7)} ms  p95 ${fmt(r.p95Ms).padStart(7)} ms  best ${fmt(r.bestMs).padStart(7)} ms  cpu ${fmt(r.cpuMeanMs).padStart(7)} ms  runs ${r.runs}  ${r.goal}${r.pass === undefined ? "" : r.pass ? "  ✓" : "  ✗"}`);
+    }
+    console.log(`load average ${loadavg().map((l) => l.toFixed(2)).join(" / ")} (1/5/15 min); docs/benchmarks.md left as it is (--only)`);
+    return;
   }
 
   const rows: Row[] = [];
