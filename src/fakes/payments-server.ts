@@ -1185,9 +1185,10 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
         if (!event) throw noSuch("event", b, "id");
         const delivery = sender.enqueue(event);
         if (!delivery) throw invalidRequest("This dev payments server has no webhook URL, so nothing can be delivered.");
+        const queued = structuredClone(delivery); // as queued: it may be sent before this answer
         await store.save();
         sender.schedule();
-        return send(res, 200, { data: structuredClone(delivery) });
+        return send(res, 200, { data: queued });
       }
       if (a === "sessions" && b && c === "pay" && method === "POST") {
         const params = await readDevParams(req);
