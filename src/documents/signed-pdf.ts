@@ -168,7 +168,7 @@ export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): P
   ];
   flow.table(
     columns,
-    [...s.events].sort((a, b) => a.at.getTime() - b.at.getTime()).map((e) => ({ cells: [isoUtc(e.at), e.kind, e.detail] })),
+    [...s.events].sort((a, b) => a.at.getTime() - b.at.getTime()).map((e) => ({ cells: [isoUtc(e.at), e.kind.replace(/_/g, " "), e.detail] })),
   );
   flow.paragraph("Electronic signature and records", { font: fonts.sansBold, size: 11, gapAfter: 4 });
   flow.bullets(
