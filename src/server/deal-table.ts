@@ -190,21 +190,26 @@ export function dealTableCsvStream(member: Member, filters: DealTableFilters): R
   });
 }
 
-/** The people who may own deals, for the owner filter (office roles only; reps see their own). */
-export async function dealOwnerOptions(member: Member): Promise<Array<{ id: string; name: string }>> {
+/**
+ * The people who may own deals, for the owner filter and bulk reassignment (office roles only;
+ * reps see their own). Deactivated people stay in the filter (they may still own deals) but
+ * cannot be given new ones: `active` says which.
+ */
+export async function dealOwnerOptions(member: Member): Promise<Array<{ id: string; name: string; active: boolean }>> {
   if (!can(member.role, "deals:read-all")) return [];
-  return db()
-    .select({ id: user.id, name: user.name })
+  const rows = await db()
+    .select({ id: user.id, name: user.name, status: membership.status })
     .from(membership)
     .innerJoin(user, eq(user.id, membership.userId))
     .where(and(eq(membership.companyId, member.companyId), inArray(membership.role, ["owner", "admin", "office_manager", "sales_rep"])))
     .orderBy(user.name);
+  return rows.map((r) => ({ id: r.id, name: r.name, active: r.status === "active" }));
 }
 
 // ── Bulk actions on selected deals ──
 
 /** Roles that may own deals (the same people as the owner filter). */
-const DEAL_OWNER_ROLES = ["owner", "admin", "office_manager", "sales_rep"] as const;
+const DEAL_OWNER_ROLES: ("owner" | "admin" | "office_manager" | "sales_rep")[] = ["owner", "admin", "office_manager", "sales_rep"];
 
 /** The household names of the selected deals the person may see (others are not found). */
 async function visibleNames(member: Member, dealIds: string[]): Promise<Map<string, string>> {
@@ -229,7 +234,7 @@ async function newOwnerOrThrow(member: Member, ownerUserId: string): Promise<{ i
         eq(membership.companyId, member.companyId),
         eq(membership.userId, ownerUserId),
         eq(membership.status, "active"),
-        inArray(membership.role, [...DEAL_OWNER_ROLES]),
+        inArray(membership.role, DEAL_OWNER_ROLES),
       ),
     )
     .limit(1);

@@ -3,97 +3,253 @@ import Link from "next/link";
 import { STAGES } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
-import { daysSince, formatCents, formatKwFromWatts } from "@/lib/format";
-import { isStalled } from "@/lib/stage-rules";
-import { countDealsByStage, listDeals } from "@/server/deals";
+import { daysSince, formatCents, formatDate, formatDateTime, formatKwFromWatts } from "@/lib/format";
 import { listPendingDiscountRequests } from "@/server/offers";
 import { listPendingInvitations } from "@/server/people";
 import { getMember } from "@/server/session";
+import { getTodayQueues, getTodaySummary, type CrewVisit, type StalledDeal } from "@/server/today";
+import { QueueItem, QueueSection } from "./queue-section";
 
 export const metadata: Metadata = { title: "Today" };
+
+const linkClass = "font-medium underline-offset-2 hover:text-copper hover:underline";
+const day = (iso: string) => formatDate(new Date(`${iso}T00:00:00Z`));
+const VISIT_LABELS: Record<CrewVisit["kind"], string> = { install: "Install", survey: "Site survey", inspection: "Inspection" };
+
+function StalledItem({ d }: { d: StalledDeal }) {
+  return (
+    <QueueItem
+      aside={
+        <>
+          {STAGE_LABELS[d.stage]} for <span className="figure">{daysSince(d.stageChangedAt)}</span> days (limit <span className="figure">{d.limitDays}</span>)
+        </>
+      }
+    >
+      <Link href={`/deals/${d.dealId}`} className={linkClass}>
+        {d.householdName}
+      </Link>
+    </QueueItem>
+  );
+}
+
+function VisitItem({ v, withDate }: { v: CrewVisit; withDate: boolean }) {
+  return (
+    <QueueItem aside={withDate ? day(v.date) : undefined}>
+      <Link href={`/jobs/${v.jobId}`} className={linkClass}>
+        {VISIT_LABELS[v.kind]}: {v.householdName}
+      </Link>
+      <span className="block text-sm text-graphite-soft">
+        {v.street}, {v.city}
+      </span>
+    </QueueItem>
+  );
+}
 
 export default async function TodayPage() {
   const member = await getMember();
   if (!member) return null; // the layout has already sent the person to sign in
   const first = member.name.split(" ")[0];
+  const q = await getTodayQueues(member);
 
   if (member.role === "crew") {
+    const crew = q.crew ?? { crewId: null, today: [], thisWeek: [] };
     return (
       <>
         <h1 className="text-2xl font-semibold">Good day, {first}</h1>
-        <section className="card mt-6 p-5">
-          <h2 className="font-semibold">Your jobs</h2>
-          <p className="mt-1 text-graphite-soft">
-            No jobs are assigned to you. A job reaches you here once the customer has paid the deposit and the office
-            assigns your crew.
-          </p>
-        </section>
+        <p className="mt-1 text-graphite-soft">{day(q.today)}</p>
+        {crew.crewId ? (
+          <>
+            <QueueSection id="crew-today" title="Your jobs today" total={crew.today.length} shown={crew.today.length} empty="Nothing is booked for your crew today.">
+              {crew.today.map((v) => (
+                <VisitItem key={`${v.jobId}-${v.kind}`} v={v} withDate={false} />
+              ))}
+            </QueueSection>
+            <QueueSection
+              id="crew-week"
+              title="This week"
+              total={crew.thisWeek.length}
+              shown={crew.thisWeek.length}
+              empty="Nothing else is booked for your crew in the next six days."
+            >
+              {crew.thisWeek.map((v) => (
+                <VisitItem key={`${v.jobId}-${v.kind}-${v.date}`} v={v} withDate />
+              ))}
+            </QueueSection>
+            <Link href="/jobs" className="mt-4 inline-block text-sm text-copper underline-offset-2 hover:underline">
+              All your crew&apos;s jobs
+            </Link>
+          </>
+        ) : (
+          <section className="card mt-6 p-5">
+            <h2 className="font-semibold">Your jobs</h2>
+            <p className="mt-1 text-graphite-soft">
+              You are not on a crew yet, so no jobs reach you here. The office adds you to a crew; its jobs then show here with their dates.
+            </p>
+          </section>
+        )}
       </>
     );
   }
 
-  const [counts, deals, invitations, discounts] = await Promise.all([
-    countDealsByStage(member),
-    listDeals(member),
+  const office = can(member.role, "deals:read-all");
+  const [summary, invitations, discounts] = await Promise.all([
+    getTodaySummary(member),
     can(member.role, "people:read") ? listPendingInvitations(member.companyId) : Promise.resolve([]),
     listPendingDiscountRequests(member),
   ]);
   const approver = can(member.role, "discounts:approve");
-  // Flagged by the board's default day limits per stage (src/lib/stage-rules.ts).
-  const stalled = deals.filter((d) => isStalled(d.stage, daysSince(d.stageChangedAt)));
-  const scope = can(member.role, "deals:read-all") ? "The company's deals" : "Your deals";
-  const open = deals.filter((d) => !["live", "lost", "cancelled"].includes(d.stage));
-  const pipelineCents = open.reduce((sum, d) => sum + (d.contractCents ?? 0), 0);
+  const scope = office ? "The company's deals" : "Your deals";
+  const now = new Date();
 
   return (
     <>
       <h1 className="text-2xl font-semibold">Good day, {first}</h1>
       <p className="mt-1 text-graphite-soft">
-        {scope}: <span className="figure">{open.length}</span> open, worth <span className="figure">{formatCents(pipelineCents)}</span> in
+        {scope}: <span className="figure">{summary.open}</span> open, worth <span className="figure">{formatCents(summary.pipelineCents)}</span> in
         signed and priced contracts.
       </p>
+
       {discounts.length > 0 ? (
-        <section className="card mt-6 border-caution/40 p-5" aria-labelledby="discounts-heading">
-          <h2 id="discounts-heading" className="font-semibold">
-            {approver ? "Discounts waiting for your decision" : "Your discounts waiting for the office"}
-          </h2>
-          <ul className="mt-2 divide-y divide-paper-line" data-testid="pending-discounts">
-            {discounts.map((d) => (
-              <li key={d.id} className="flex flex-wrap items-center justify-between gap-2 py-2">
-                <span>
-                  <Link href={`/deals/${d.dealId}/offers`} className="font-medium underline-offset-2 hover:text-copper hover:underline">
-                    {d.householdName}
-                  </Link>
-                  <span className="block text-sm text-graphite-soft">
-                    {d.offerName} · asked by {d.requestedByName ?? "a former colleague"}: “{d.reason}”
-                  </span>
-                </span>
-                <span className="figure">{formatCents(d.amountCents)}</span>
-              </li>
-            ))}
-          </ul>
-        </section>
+        <QueueSection
+          id="pending-discounts"
+          title={approver ? "Discounts waiting for your decision" : "Your discounts waiting for the office"}
+          total={discounts.length}
+          shown={discounts.length}
+          tone="caution"
+        >
+          {discounts.map((d) => (
+            <QueueItem key={d.id} aside={<span className="figure text-graphite">{formatCents(d.amountCents)}</span>}>
+              <Link href={`/deals/${d.dealId}/offers`} className={linkClass}>
+                {d.householdName}
+              </Link>
+              <span className="block text-sm text-graphite-soft">
+                {d.offerName} · asked by {d.requestedByName ?? "a former colleague"}: “{d.reason}”
+              </span>
+            </QueueItem>
+          ))}
+        </QueueSection>
       ) : null}
-      {stalled.length > 0 ? (
-        <section className="card mt-6 p-5" aria-labelledby="stalled-heading">
-          <h2 id="stalled-heading" className="font-semibold">
-            Stalled deals
-          </h2>
-          <ul className="mt-2 divide-y divide-paper-line" data-testid="stalled-deals">
-            {stalled.map((d) => (
-              <li key={d.id} className="flex flex-wrap items-center justify-between gap-2 py-2">
-                <Link href={`/deals/${d.id}`} className="font-medium underline-offset-2 hover:text-copper hover:underline">
-                  {d.householdName}
-                </Link>
-                <span className="text-sm text-graphite-soft">
-                  {STAGE_LABELS[d.stage]} for <span className="figure">{daysSince(d.stageChangedAt)}</span> days
-                </span>
-              </li>
-            ))}
-          </ul>
-        </section>
+
+      {q.questions ? (
+        <QueueSection id="customer-questions" title="Questions from your customers" total={q.questions.total} shown={q.questions.items.length} tone="caution">
+          {q.questions.items.map((x) => (
+            <QueueItem key={x.eventId} aside={formatDateTime(x.askedAt)}>
+              <Link href={`/deals/${x.dealId}/proposal`} className={linkClass}>
+                {x.householdName}
+              </Link>
+              <span className="block max-w-xl text-sm text-graphite-soft">
+                Proposal <span className="figure">{x.proposalNumber}</span>: “{x.body.length > 200 ? `${x.body.slice(0, 199)}…` : x.body}”
+              </span>
+            </QueueItem>
+          ))}
+        </QueueSection>
       ) : null}
-      <section className="mt-6" aria-labelledby="stages-heading">
+
+      {q.proposalsOpened ? (
+        <QueueSection id="proposals-opened" title="Proposals opened, not signed" total={q.proposalsOpened.total} shown={q.proposalsOpened.items.length}>
+          {q.proposalsOpened.items.map((p) => (
+            <QueueItem
+              key={p.proposalId}
+              aside={
+                <>
+                  opened {formatDate(p.firstOpenedAt)}
+                  {p.lastViewedAt ? <>, last seen {formatDate(p.lastViewedAt)}</> : null}
+                  {p.expiresAt < now ? <span className="text-danger"> · link expired</span> : <> · link until {formatDate(p.expiresAt)}</>}
+                </>
+              }
+            >
+              <Link href={`/deals/${p.dealId}/proposal`} className={linkClass}>
+                {p.householdName}
+              </Link>
+              <span className="block text-sm text-graphite-soft">
+                Proposal <span className="figure">{p.number}</span>, version <span className="figure">{p.version}</span>
+              </span>
+            </QueueItem>
+          ))}
+        </QueueSection>
+      ) : null}
+
+      {q.followUps ? (
+        <QueueSection id="follow-ups" title="Your follow-ups" total={q.followUps.total} shown={q.followUps.items.length}>
+          {q.followUps.items.map((d) => (
+            <StalledItem key={d.dealId} d={d} />
+          ))}
+        </QueueSection>
+      ) : null}
+
+      {q.depositsFlagged ? (
+        <QueueSection id="deposits-flagged" title="Deposits flagged" total={q.depositsFlagged.total} shown={q.depositsFlagged.items.length} tone="danger">
+          {q.depositsFlagged.items.map((p) => (
+            <QueueItem key={p.paymentId} aside={<span className="figure text-graphite">{formatCents(p.paidCents ?? p.amountCents)}</span>}>
+              <Link href={`/deals/${p.dealId}/money`} className={linkClass}>
+                {p.householdName}
+              </Link>
+              <span className="block text-sm text-graphite-soft">
+                Asked <span className="figure">{formatCents(p.amountCents)}</span>
+                {p.flagReason ? ` · ${p.flagReason}` : ""}
+              </span>
+            </QueueItem>
+          ))}
+        </QueueSection>
+      ) : null}
+
+      {q.refundsDue ? (
+        <QueueSection id="refunds-due" title="Deposits to refund" total={q.refundsDue.total} shown={q.refundsDue.items.length} tone="danger">
+          {q.refundsDue.items.map((p) => (
+            <QueueItem
+              key={p.paymentId}
+              aside={
+                <>
+                  <span className="figure text-graphite">{formatCents((p.paidCents ?? 0) - p.refundedCents)}</span> to refund
+                </>
+              }
+            >
+              <Link href={`/deals/${p.dealId}/money`} className={linkClass}>
+                {p.householdName}
+              </Link>
+              <span className="block text-sm text-graphite-soft">
+                Cancelled; paid <span className="figure">{formatCents(p.paidCents)}</span>, refunded <span className="figure">{formatCents(p.refundedCents)}</span>
+              </span>
+            </QueueItem>
+          ))}
+        </QueueSection>
+      ) : null}
+
+      {q.jobsToSchedule ? (
+        <QueueSection id="jobs-to-schedule" title="Jobs to schedule" total={q.jobsToSchedule.total} shown={q.jobsToSchedule.items.length}>
+          {q.jobsToSchedule.items.map((j) => (
+            <QueueItem
+              key={j.jobId}
+              aside={[j.installDate ? `install ${day(j.installDate)}` : "no install date", j.hasCrew ? "crew assigned" : "no crew"].join(" · ")}
+            >
+              <Link href={`/jobs/${j.jobId}`} className={linkClass}>
+                {j.householdName}
+              </Link>
+              <span className="block text-sm text-graphite-soft">{j.city}</span>
+            </QueueItem>
+          ))}
+        </QueueSection>
+      ) : null}
+
+      {q.stalled ? (
+        <QueueSection
+          id="stalled-deals"
+          title={office ? "Stalled deals" : "Your stalled deals"}
+          total={q.stalled.total}
+          shown={q.stalled.items.length}
+          more={
+            <Link href="/board" className="text-copper underline-offset-2 hover:underline">
+              See them all on the Board
+            </Link>
+          }
+        >
+          {q.stalled.items.map((d) => (
+            <StalledItem key={d.dealId} d={d} />
+          ))}
+        </QueueSection>
+      ) : null}
+
+      <section className="mt-8" aria-labelledby="stages-heading">
         <h2 id="stages-heading" className="text-sm font-semibold uppercase tracking-wide text-graphite-soft">
           By stage
         </h2>
@@ -101,7 +257,7 @@ export default async function TodayPage() {
           {STAGES.map((stage) => (
             <li key={stage} className="card px-3 py-2">
               <p className="text-xs text-graphite-soft">{STAGE_LABELS[stage]}</p>
-              <p className="figure text-xl">{counts[stage]}</p>
+              <p className="figure text-xl">{summary.counts[stage]}</p>
             </li>
           ))}
         </ul>
@@ -111,15 +267,17 @@ export default async function TodayPage() {
           Most recently moved
         </h2>
         <ul className="mt-2 divide-y divide-paper-line rounded-card border border-paper-line bg-white">
-          {deals.slice(0, 5).map((d) => (
+          {summary.recent.map((d) => (
             <li key={d.id} className="flex flex-wrap items-center justify-between gap-2 px-4 py-3">
-              <span className="font-medium">{d.householdName}</span>
+              <Link href={`/deals/${d.id}`} className={linkClass}>
+                {d.householdName}
+              </Link>
               <span className="text-sm text-graphite-soft">
                 {STAGE_LABELS[d.stage]} · <span className="figure">{formatKwFromWatts(d.systemDcWatts)}</span>
               </span>
             </li>
           ))}
-          {deals.length === 0 ? <li className="px-4 py-3 text-graphite-soft">No deals yet.</li> : null}
+          {summary.recent.length === 0 ? <li className="px-4 py-3 text-graphite-soft">No deals yet.</li> : null}
         </ul>
         <Link href="/deals" className="mt-3 inline-block text-sm text-copper underline-offset-2 hover:underline">
           All deals

@@ -1,6 +1,7 @@
 "use client";
 import Link from "next/link";
-import { columnVisibilityFeature, createColumnHelper, rowPaginationFeature, rowSortingFeature, tableFeatures } from "@tanstack/react-table";
+import { columnVisibilityFeature, createColumnHelper, rowPaginationFeature, rowSelectionFeature, rowSortingFeature, tableFeatures } from "@tanstack/react-table";
+import { useEffect, useRef, type InputHTMLAttributes } from "react";
 import type { DealTableRow } from "@/lib/schemas/deal-table";
 import { daysSince, formatCents, formatDate, formatKwFromWatts } from "@/lib/format";
 import { STAGE_LABELS } from "@/lib/stages";
@@ -9,10 +10,20 @@ export const features = tableFeatures({
   rowSortingFeature,
   rowPaginationFeature,
   columnVisibilityFeature,
+  rowSelectionFeature,
   columnMeta: {} as { align?: "right"; label: string },
 });
 
 const helper = createColumnHelper<typeof features, DealTableRow>();
+
+/** A checkbox that can also show "some selected" (indeterminate is a DOM property, not an attribute). */
+export function Checkbox({ indeterminate = false, ...props }: { indeterminate?: boolean } & InputHTMLAttributes<HTMLInputElement>) {
+  const ref = useRef<HTMLInputElement>(null);
+  useEffect(() => {
+    if (ref.current) ref.current.indeterminate = indeterminate && !props.checked;
+  }, [indeterminate, props.checked]);
+  return <input ref={ref} type="checkbox" className="h-5 w-5 cursor-pointer accent-copper" {...props} />;
+}
 
 /** The table's columns; each id is also the server's sort key. */
 export const allColumns = helper.columns([
@@ -21,10 +32,18 @@ export const allColumns = helper.columns([
     header: "Household",
     enableHiding: false,
     meta: { label: "Household" },
+    // The row's checkbox for bulk actions sits beside the household it selects.
     cell: (info) => (
-      <Link href={`/deals/${info.row.original.id}`} className="font-medium text-graphite underline-offset-2 hover:text-copper hover:underline">
-        {info.getValue()}
-      </Link>
+      <span className="inline-flex items-center gap-3">
+        <Checkbox
+          aria-label={`Select ${info.getValue()}`}
+          checked={info.row.getIsSelected()}
+          onChange={info.row.getToggleSelectedHandler()}
+        />
+        <Link href={`/deals/${info.row.original.id}`} className="font-medium text-graphite underline-offset-2 hover:text-copper hover:underline">
+          {info.getValue()}
+        </Link>
+      </span>
     ),
   }),
   helper.accessor("city", { id: "city", header: "City", meta: { label: "City" } }),

@@ -1,12 +1,24 @@
 "use client";
-import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { useTable, type ColumnVisibilityState, type PaginationState, type SortingState, type Updater } from "@tanstack/react-table";
+import { keepPreviousData, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useTable, type ColumnVisibilityState, type PaginationState, type RowSelectionState, type SortingState, type Updater } from "@tanstack/react-table";
 import { useEffect, useId, useMemo, useState, type FormEvent } from "react";
 import { STAGES } from "@/db/schema";
 import { api } from "@/lib/api-client";
-import { DEAL_TABLE_DEFAULT_SORT, parseSort, type DealTablePage, type DealTableQuery } from "@/lib/schemas/deal-table";
+import {
+  DEAL_TABLE_DEFAULT_PAGE_SIZE,
+  DEAL_TABLE_DEFAULT_SORT,
+  DEAL_TABLE_HIDEABLE_COLUMNS,
+  parseSort,
+  type BulkAnswer,
+  type DealTablePage,
+  type DealTableQuery,
+  type SavedView,
+  type SavedViewQuery,
+} from "@/lib/schemas/deal-table";
 import { STAGE_LABELS } from "@/lib/stages";
-import { allColumns, features, repColumns } from "./columns";
+import { BulkBar } from "./bulk-bar";
+import { allColumns, Checkbox, features, repColumns } from "./columns";
+import { SavedViewsMenu } from "./saved-views-menu";
 
 const PAGE_SIZES = [25, 50, 100, 200];
 const VISIBILITY_KEY = "kilowright.deals-table.hidden-columns";
@@ -44,6 +56,32 @@ function apply<T>(updater: Updater<T>, old: T): T {
   return typeof updater === "function" ? (updater as (o: T) => T)(old) : updater;
 }
 
+type HideableColumn = (typeof DEAL_TABLE_HIDEABLE_COLUMNS)[number];
+const isHideable = (id: string): id is HideableColumn => (DEAL_TABLE_HIDEABLE_COLUMNS as readonly string[]).includes(id);
+
+function saveHidden(visibility: ColumnVisibilityState) {
+  const hidden = Object.entries(visibility)
+    .filter(([, visible]) => !visible)
+    .map(([id]) => id);
+  try {
+    window.localStorage.setItem(VISIBILITY_KEY, JSON.stringify(hidden));
+  } catch {
+    // Private browsing may refuse storage; the choice then lasts for this visit.
+  }
+}
+
+/** What a saved view keeps of the current view: filters, sort, page size and hidden columns. */
+function savedQueryOf(view: View, visibility: ColumnVisibilityState): SavedViewQuery {
+  const hiddenColumns = Object.entries(visibility)
+    .filter(([id, visible]) => !visible && isHideable(id))
+    .map(([id]) => id as HideableColumn);
+  const q: SavedViewQuery = { sort: view.sort };
+  for (const key of ["stage", "owner", "source", "q", "from", "to"] as const) if (view[key]) (q as Record<string, unknown>)[key] = view[key];
+  if (view.pageSize !== DEAL_TABLE_DEFAULT_PAGE_SIZE) q.pageSize = view.pageSize;
+  if (hiddenColumns.length > 0) q.hiddenColumns = hiddenColumns;
+  return q;
+}
+
 export function DealsTable({
   initialQuery,
   initial,
@@ -54,13 +92,16 @@ export function DealsTable({
   initialQuery: DealTableQuery;
   initial: DealTablePage;
   showOwner: boolean;
-  owners: Array<{ id: string; name: string }>;
+  owners: Array<{ id: string; name: string; active?: boolean }>;
   sources: string[];
 }) {
+  const queryClient = useQueryClient();
   const ids = useId();
   const [view, setView] = useState<View>(() => viewFrom(initialQuery));
   const [search, setSearch] = useState(view.q);
   const [columnVisibility, setColumnVisibility] = useState<ColumnVisibilityState>({});
+  const [rowSelection, setRowSelection] = useState<RowSelectionState>({});
+  const [activeViewId, setActiveViewId] = useState<string | null>(null);
 
   // Hidden columns are a preference of this browser, read after the first render so the
   // server's HTML and the browser's first render agree.
@@ -75,6 +116,10 @@ export function DealsTable({
 
   const initialKey = useMemo(() => paramsOf(viewFrom(initialQuery), true).toString(), [initialQuery]);
   const key = paramsOf(view, true).toString();
+
+  // A selection belongs to the deals in view: new filters or a new sort start a new one.
+  const filterKey = paramsOf(view, false).toString();
+  useEffect(() => setRowSelection({}), [filterKey]);
 
   // The address follows the view, so a reload or a shared link shows the same deals.
   useEffect(() => {
@@ -104,7 +149,8 @@ export function DealsTable({
     enableMultiSort: false,
     enableSortingRemoval: false,
     rowCount: data.total,
-    state: { sorting, pagination, columnVisibility },
+    state: { sorting, pagination, columnVisibility, rowSelection },
+    onRowSelectionChange: (updater) => setRowSelection((old) => apply(updater, old)),
     onSortingChange: (updater) => {
       const next = apply(updater, sorting)[0];
       setView((v) => ({ ...v, page: 1, sort: next ? `${next.id}:${next.desc ? "desc" : "asc"}` : DEAL_TABLE_DEFAULT_SORT }));
@@ -116,14 +162,7 @@ export function DealsTable({
     onColumnVisibilityChange: (updater) => {
       setColumnVisibility((old) => {
         const next = apply(updater, old);
-        const hidden = Object.entries(next)
-          .filter(([, visible]) => !visible)
-          .map(([id]) => id);
-        try {
-          window.localStorage.setItem(VISIBILITY_KEY, JSON.stringify(hidden));
-        } catch {
-          // Private browsing may refuse storage; the choice then lasts for this visit.
-        }
+        saveHidden(next);
         return next;
       });
     },
@@ -140,6 +179,33 @@ export function DealsTable({
   const lastRow = Math.min(data.total, view.page * view.pageSize);
   const exportHref = `/api/deals/export?${paramsOf(view, false).toString()}`;
   const error = result.error instanceof Error ? result.error.message : null;
+  const selectedIds = Object.keys(rowSelection);
+
+  function applySavedView(saved: SavedView) {
+    const q = saved.query;
+    setActiveViewId(saved.id);
+    setSearch(q.q ?? "");
+    setView({
+      sort: q.sort,
+      page: 1,
+      pageSize: q.pageSize ?? DEAL_TABLE_DEFAULT_PAGE_SIZE,
+      stage: q.stage ?? "",
+      owner: showOwner ? (q.owner ?? "") : "",
+      source: q.source ?? "",
+      q: q.q ?? "",
+      from: q.from ?? "",
+      to: q.to ?? "",
+    });
+    const visibility: ColumnVisibilityState = Object.fromEntries((q.hiddenColumns ?? []).map((id) => [id, false]));
+    setColumnVisibility(visibility);
+    saveHidden(visibility);
+  }
+
+  function afterBulk(answer: BulkAnswer) {
+    // The refused deals stay selected, so they can be tried again (say, with a reason).
+    setRowSelection(Object.fromEntries(answer.results.filter((r) => r.outcome === "refused").map((r) => [r.dealId, true] as const)));
+    void queryClient.invalidateQueries({ queryKey: ["deals-table"] });
+  }
 
   return (
     <section className="mt-4" aria-label="Deals table">
@@ -227,6 +293,7 @@ export function DealsTable({
           </button>
         ) : null}
         <div className="ml-auto flex flex-wrap items-end gap-2">
+          <SavedViewsMenu current={savedQueryOf(view, columnVisibility)} activeId={activeViewId} onApply={applySavedView} onActiveChange={setActiveViewId} />
           <details className="relative">
             <summary className="btn-quiet cursor-pointer list-none">Columns</summary>
             <fieldset className="card absolute right-0 z-10 mt-1 w-56 p-3">
@@ -250,6 +317,14 @@ export function DealsTable({
           </a>
         </div>
       </div>
+
+      <BulkBar
+        selectedIds={selectedIds}
+        office={showOwner}
+        owners={owners.filter((o) => o.active !== false)}
+        onClear={() => setRowSelection({})}
+        onDone={afterBulk}
+      />
 
       <p className="mt-3 text-sm text-graphite-soft" aria-live="polite">
         {data.total === 0 ? (
@@ -276,6 +351,15 @@ export function DealsTable({
                 {group.headers.map((header) => {
                   const sorted = header.column.getIsSorted();
                   const right = header.column.columnDef.meta?.align === "right";
+                  const selectAll =
+                    header.column.id === "household" ? (
+                      <Checkbox
+                        aria-label="Select every deal on this page"
+                        checked={table.getIsAllPageRowsSelected()}
+                        indeterminate={table.getIsSomePageRowsSelected()}
+                        onChange={table.getToggleAllPageRowsSelectedHandler()}
+                      />
+                    ) : null;
                   return (
                     <th
                       key={header.id}
@@ -283,6 +367,7 @@ export function DealsTable({
                       aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
                       className={`px-3 py-1 font-semibold ${right ? "text-right" : ""}`}
                     >
+                      {selectAll ? <span className="mr-3 inline-flex align-middle">{selectAll}</span> : null}
                       <button
                         type="button"
                         onClick={header.column.getToggleSortingHandler()}
@@ -301,7 +386,7 @@ export function DealsTable({
           </thead>
           <tbody className="divide-y divide-paper-line">
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className="hover:bg-paper">
+              <tr key={row.id} className={row.getIsSelected() ? "bg-copper-light/40" : "hover:bg-paper"}>
                 {row.getVisibleCells().map((cell) => (
                   <td key={cell.id} className={`whitespace-nowrap px-3 py-2 ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}>
                     <table.FlexRender cell={cell} />
