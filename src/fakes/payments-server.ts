@@ -30,6 +30,7 @@
 // kept in the data folder, so a restart resumes it.
 //
 // Dev control API (loopback only, no key; for tests and the demo):
+//   GET  /_dev                             this list
 //   GET  /_dev/deliveries[?event=evt_…&type=…&status=pending|delivered|failed]
 //                                           every webhook delivery with its attempts, newest first
 //   POST /_dev/deliveries/flush            makes every pending delivery due now (skips the back-off)
@@ -51,7 +52,6 @@ import {
   newId,
   nowSeconds,
   publicView,
-  ZERO_DECIMAL,
   type CardDetails,
   type Charge,
   type CheckoutSession,
@@ -379,8 +379,8 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
     const given = str(params, "currency");
     if (given !== null && given.toLowerCase() !== currency) throw invalidParam("currency", `The currency ${given} does not match the line items' currency (${currency}).`);
     const amount = items.reduce((s, li) => s + li.amount_total, 0);
-    const minimum = ZERO_DECIMAL.has(currency) ? 50 : 50;
-    if (currency === "usd" && amount < minimum) {
+    // The service's minimum charge; only the dollar one is modelled (Kilowright charges in usd).
+    if (currency === "usd" && amount < 50) {
       throw invalidRequest(`The Checkout Session's total amount due must add up to at least $0.50 usd`, "line_items", "amount_too_small");
     }
     if (amount > 99_999_999) throw invalidRequest("Amount must be no more than $999,999.99", "line_items", "amount_too_large");
