@@ -95,7 +95,7 @@ function storeFrame(pdf: PDFDocument, frame: FrameInfo): void {
 
 const int = new Intl.NumberFormat("en-US", { maximumFractionDigits: 0 });
 const kwh = (v: number) => `${int.format(v)} kWh`;
-const pct = (v: number, digits = 1) => `${v.toFixed(digits)} %`;
+const pct = (v: number, digits = 1) => `${v < 0 ? "−" : ""}${Math.abs(v).toFixed(digits)} %`;
 const ratioPct = (r: number | null, digits = 1) => (r === null ? "—" : pct(r * 100, digits));
 const kw = (v: number) => `${v.toFixed(2)} kW`;
 const signedCents = (c: number) => (c < 0 ? `−${formatCents(-c)}` : formatCents(c));
@@ -261,14 +261,14 @@ function offerMoney(flow: Flow, o: ProposalSnapshotOffer): void {
   flow.heading(`Offer ${o.position}: what it costs and saves`);
   flow.table(
     [
-      { label: "Price", width: 250 },
-      { label: "How", width: 164 },
-      { label: "Amount", width: 90, align: "right", mono: true },
+      { label: "Price", width: 214 },
+      { label: "How", width: 206 },
+      { label: "Amount", width: 84, align: "right", mono: true },
     ],
     [
       ...o.figures.price.lines.map((l) => ({ cells: [l.label, l.detail, signedCents(l.amountCents)] })),
       { cells: ["Contract price", "what you sign for", formatCents(f.contractCents)], bold: true },
-      ...o.figures.incentives.applied.map((a) => ({ cells: [a.name, `${a.detail}; paid ${whenPaid(a.year)}`, signedCents(-a.amountCents)] })),
+      ...o.figures.incentives.applied.map((a) => ({ cells: [`${a.name}, paid ${whenPaid(a.year)}`, a.detail, signedCents(-a.amountCents)] })),
       { cells: ["Net cost after incentives", "", formatCents(f.netCostCents)], bold: true },
     ],
   );
