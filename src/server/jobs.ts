@@ -20,6 +20,7 @@ import type { ProposalSnapshot, ProposalSnapshotOffer } from "@/lib/schemas/prop
 import { STAGE_LABELS } from "@/lib/stages";
 import { can } from "@/lib/permissions";
 import { getInverterOrThrow, getModuleOrThrow, type InverterModel, type ModuleModel } from "@/server/catalog";
+import { getCompanySettings } from "@/server/company-settings";
 import { crewIdOfMember, findCrewByFeedToken } from "@/server/crews";
 import { db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
@@ -90,9 +91,16 @@ async function findJobIdForDeal(tx: Tx, companyId: string, dealId: string): Prom
 
 // ── Dates ────────────────────────────────────────────────────────────────────────────────
 
-/** Today as YYYY-MM-DD. Job dates are calendar days; the app reads and shows them in UTC. */
-export function todayIso(now = new Date()): string {
-  return now.toISOString().slice(0, 10);
+/** Today as YYYY-MM-DD in a time zone (the company's): job dates are calendar days there. */
+export function todayIso(now = new Date(), timeZone = "UTC"): string {
+  // en-CA formats a date as YYYY-MM-DD.
+  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(now);
+}
+
+/** Today in the company's time zone (Settings → Company). */
+export async function companyToday(companyId: string, now = new Date()): Promise<string> {
+  const { timeZone } = await getCompanySettings(companyId);
+  return todayIso(now, timeZone);
 }
 
 export function addDaysIso(iso: string, days: number): string {
@@ -188,7 +196,7 @@ const BUCKET_ORDER: Record<JobBucket, number> = { today: 0, week: 1, later: 2, n
  * soonest next visit first, unscheduled after.
  */
 export async function listJobs(member: Member, now = new Date()): Promise<JobListRow[]> {
-  const today = todayIso(now);
+  const today = await companyToday(member.companyId, now);
   const rows = await db()
     .select(listColumns)
     .from(job)
@@ -846,7 +854,7 @@ export async function crewCalendarIcs(token: string, now = new Date()): Promise<
     .where(and(eq(job.companyId, found.companyId), eq(job.crewId, found.id)))
     .orderBy(asc(job.id));
   const [co] = await db().select({ name: company.name }).from(company).where(eq(company.id, found.companyId)).limit(1);
-  const since = addDaysIso(todayIso(now), -FEED_PAST_DAYS);
+  const since = addDaysIso(await companyToday(found.companyId, now), -FEED_PAST_DAYS);
   const calendar = ical({
     name: `${found.name} — ${co?.name ?? "Jobs"}`,
     prodId: { company: "Kilowright", product: "Crew jobs", language: "EN" },

@@ -4,7 +4,7 @@ import { NoAccess } from "@/components/no-access";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
 import { getOwnCrew, listCrewOptions } from "@/server/crews";
-import { JOB_DATE_LABELS, listJobs, todayIso, type JobListRow } from "@/server/jobs";
+import { companyToday, JOB_DATE_LABELS, listJobs, type JobListRow } from "@/server/jobs";
 import { getMember } from "@/server/session";
 import { FeedLink } from "./feed-link";
 import { shortDate, weekdayDate } from "./dates";
@@ -19,9 +19,8 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
 
   const raw = await searchParams;
   const crewFilter = typeof raw.crew === "string" ? raw.crew : "";
-  const [jobs, crews] = await Promise.all([listJobs(member), listCrewOptions(member.companyId)]);
+  const [jobs, crews, today] = await Promise.all([listJobs(member), listCrewOptions(member.companyId), companyToday(member.companyId)]);
   const shown = jobs.filter((j) => (crewFilter === "none" ? !j.crewId : crewFilter ? j.crewId === crewFilter : true));
-  const today = todayIso();
 
   return (
     <>
