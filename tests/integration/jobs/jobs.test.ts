@@ -6,6 +6,7 @@ import { readdir } from "node:fs/promises";
 import path from "node:path";
 import { and, asc, eq } from "drizzle-orm";
 import ICAL from "ical.js";
+import { PDFDocument } from "pdf-lib";
 import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import { checklistTemplate, deal, household, job, jobPhoto, timelineEvent, type Stage } from "@/db/schema";
@@ -353,6 +354,33 @@ describe("photos", () => {
     // Another crew cannot read it.
     await rejects(s.jobs.getJobPhotoOrThrow(installerB, photo.id), 404);
     await rejects(s.jobs.getJobPhotoFile(installerB, photo.id), 404);
+  });
+});
+
+describe("the packet as a PDF", () => {
+  it("carries the customer, the schedule, the checklist with ticks, the cautions and the photos, on framed pages", async () => {
+    const { jobId } = await newJob(owner, "install_booked", "Sorrel household");
+    await s.jobs.updateJob(office, jobId, { crewId: crewA, installDate: "2031-06-09", permitNumber: "BP-77", notes: "Ladder on the east side." });
+    const [first] = (await s.jobs.getJobOrThrow(installerA, jobId)).checklist;
+    await s.jobs.setChecklistItem(installerA, jobId, { itemId: first.id, done: true });
+    const jpeg = await sharp({ create: { width: 800, height: 600, channels: 3, background: { r: 90, g: 120, b: 100 } } }).jpeg().toBuffer();
+    await s.jobs.addJobPhoto(installerA, jobId, { bytes: new Uint8Array(jpeg), caption: "Main panel" });
+
+    const { bytes, fileName } = await s.jobs.getJobPacketPdf(installerA, jobId, new Date("2031-06-01T12:00:00Z"));
+    expect(fileName).toBe("job-packet-sorrel-household.pdf");
+    const doc = await PDFDocument.load(bytes);
+    expect(doc.getPageCount()).toBeGreaterThanOrEqual(1);
+    expect(doc.getTitle()).toBe("Job packet for Sorrel household");
+    const { extractText, getDocumentProxy } = await import("unpdf");
+    const { text } = await extractText(await getDocumentProxy(new Uint8Array(bytes)), { mergePages: true });
+    for (const expected of ["Job packet: Sorrel household", "Pat Sorrel", "336-555-0199", "12 Gable Row", "BP-77", "Ladder on the east side.", "Install checklist", "Rapid shutdown tested", "licensed professional", "Main panel", "Jobs Test Solar", "page 1 of"]) {
+      expect(text).toContain(expected);
+    }
+    expect(text).toMatch(/done Jun 1, 2031|done [A-Z][a-z]{2} \d{1,2}, \d{4}/);
+    // Same input, same bytes.
+    const again = await s.jobs.getJobPacketPdf(installerA, jobId, new Date("2031-06-01T12:00:00Z"));
+    expect(Buffer.from(again.bytes).equals(Buffer.from(bytes))).toBe(true);
+    await rejects(s.jobs.getJobPacketPdf(installerB, jobId), 404);
   });
 });
 
