@@ -430,6 +430,31 @@ describe("calendar feeds", () => {
   });
 });
 
+describe("the customer's project page", () => {
+  it("shows the stage and the next step with its date from the job, and nothing internal", async () => {
+    const { nextStep } = await import("@/app/p/[token]/project-panel");
+    const { dealId, jobId } = await newJob(owner, "deposit_paid", "Tansy household");
+    const now = new Date("2031-07-01T15:00:00Z");
+    let progress = (await s.jobs.getProjectProgress(owner.companyId, dealId, now))!;
+    expect(progress.stage).toBe("deposit_paid");
+    expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Site survey", date: null });
+
+    await s.jobs.updateJob(office, jobId, { surveyDate: "2031-07-03", notes: "Internal: customer haggled hard", permitNumber: "SECRET-1" });
+    progress = (await s.jobs.getProjectProgress(owner.companyId, dealId, now))!;
+    expect(progress.stage).toBe("survey");
+    expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Site survey", date: "2031-07-03" });
+    expect(JSON.stringify(progress)).not.toMatch(/haggled|SECRET|Opal/);
+
+    await s.jobs.updateJob(office, jobId, { permitSubmittedOn: "2031-07-05", installDate: "2031-07-20" });
+    progress = (await s.jobs.getProjectProgress(owner.companyId, dealId, new Date("2031-07-10T15:00:00Z")))!;
+    expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Installation (planned)", date: "2031-07-20" });
+    await s.jobs.updateJob(office, jobId, { permitApprovedOn: "2031-07-12" });
+    progress = (await s.jobs.getProjectProgress(owner.companyId, dealId, new Date("2031-07-13T15:00:00Z")))!;
+    expect(progress.stage).toBe("install_booked");
+    expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Installation", date: "2031-07-20" });
+  });
+});
+
 describe("tenancy", () => {
   it("another company's job, photo, crew and checklist are not found", async () => {
     const { jobId } = await newJob(owner, "install_booked", "Rowan household");
