@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, count, desc, eq, gte, inArray, like, lt, or, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, gte, inArray, isNull, like, lt, or, sql, type SQL } from "drizzle-orm";
 import type { AnyMySqlColumn } from "drizzle-orm/mysql-core";
 import type { z } from "zod";
 import { deal, household, membership, user } from "@/db/schema";
@@ -82,6 +82,9 @@ function orderFor(sort: string): SQL[] {
   const { column, direction } = parseSort(sort);
   const col = SORT_COLUMNS[column];
   const dir = direction === "asc" ? asc : desc;
+  // A household's columns are tied by the household's id: one deal per household (createLead),
+  // and it lets the database walk the household's (company, name or city) index in order.
+  if (column === "household" || column === "city") return [dir(col), dir(household.id), dir(deal.id)];
   // The id breaks ties so that pages never overlap or skip rows.
   return [dir(col), dir(deal.id)];
 }
@@ -97,39 +100,109 @@ function baseSelect() {
 type RawRow = Omit<DealTableRow, "stageChangedAt" | "createdAt"> & { stageChangedAt: Date; createdAt: Date };
 const serialize = (r: RawRow): DealTableRow => ({ ...r, stageChangedAt: r.stageChangedAt.toISOString(), createdAt: r.createdAt.toISOString() });
 
+/** Only the search and the household's columns need the household; only the owner sort needs the user. */
+function joinsFor(f: DealTableFilters): { household: boolean; user: boolean } {
+  const { column } = parseSort(f.sort);
+  return { household: Boolean(f.q) || column === "household" || column === "city", user: column === "owner" };
+}
+
+/**
+ * The ids of one page, in order. Sorting and skipping happen on the deal table alone (joined
+ * only where the filter or sort needs it), so the database walks an index and skips over
+ * narrow rows; the households and owners are then read for these ids only ("deferred join").
+ */
+async function pageIds(member: Member, f: DealTableFilters, limit: number, offset: number): Promise<string[]> {
+  if (parseSort(f.sort).column === "owner") return ownerSortedIds(member, f, limit, offset);
+  const joins = joinsFor(f);
+  let q = db().select({ id: deal.id }).from(deal).$dynamic();
+  if (joins.household) q = q.innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)));
+  if (joins.user) q = q.leftJoin(user, eq(user.id, deal.ownerUserId));
+  const rows = await q
+    .where(whereFor(member, f))
+    .orderBy(...orderFor(f.sort))
+    .limit(limit)
+    .offset(offset);
+  return rows.map((r) => r.id);
+}
+
+/**
+ * The owner sort, without sorting every deal by its owner's name: a company has few owners,
+ * so each owner's deals are read in id order from the (company, owner) index, at most
+ * offset + limit of them, and the groups are laid end to end in the owners' name order (no
+ * owner first when ascending, as SQL sorts NULL). Owners sharing a name follow each other by
+ * user id.
+ */
+async function ownerSortedIds(member: Member, f: DealTableFilters, limit: number, offset: number): Promise<string[]> {
+  const ascending = parseSort(f.sort).direction === "asc";
+  const present = await db()
+    .selectDistinct({ ownerUserId: deal.ownerUserId })
+    .from(deal)
+    .where(whereFor(member, { sort: f.sort, owner: f.owner }));
+  const ids = present.map((p) => p.ownerUserId).filter((id): id is string => id !== null);
+  // Named in the database's collation, as ORDER BY would; the user id keeps namesakes apart.
+  const named = ids.length
+    ? (await db().select({ id: user.id }).from(user).where(inArray(user.id, ids)).orderBy(asc(user.name), asc(user.id))).map((u) => u.id)
+    : [];
+  // No owner (NULL) sorts first, as in SQL; an id without a user (not possible with the foreign key) with it.
+  const unnamed = ids.filter((id) => !named.includes(id));
+  const groups: (string | null)[] = [...(present.some((p) => p.ownerUserId === null) ? [null] : []), ...unnamed, ...named];
+  if (!ascending) groups.reverse();
+  if (groups.length === 0) return [];
+
+  const where = whereFor(member, f);
+  const take = sql.raw(String(offset + limit));
+  const dir = ascending ? sql.raw("ASC") : sql.raw("DESC");
+  const from = f.q
+    ? sql`${deal} INNER JOIN ${household} ON ${household.id} = ${deal.householdId} AND ${household.companyId} = ${deal.companyId}`
+    : sql`${deal}`;
+  const parts = groups.map(
+    (owner, k) =>
+      sql`(SELECT ${deal.id} AS id, ${sql.raw(String(k))} AS k FROM ${from} WHERE ${where} AND ${owner === null ? isNull(deal.ownerUserId) : eq(deal.ownerUserId, owner)} ORDER BY ${deal.id} ${dir} LIMIT ${take})`,
+  );
+  const [rows] = (await db().execute(
+    sql`SELECT t.id FROM (${sql.join(parts, sql` UNION ALL `)}) AS t ORDER BY t.k ASC, t.id ${dir} LIMIT ${sql.raw(String(limit))} OFFSET ${sql.raw(String(offset))}`,
+  )) as unknown as [{ id: string }[]];
+  return rows.map((r) => r.id);
+}
+
+/** The rows of these ids (the person's company only), in the ids' order. */
+async function rowsOf(member: Member, ids: string[]): Promise<DealTableRow[]> {
+  if (ids.length === 0) return [];
+  const rows = await baseSelect().where(and(eq(deal.companyId, member.companyId), inArray(deal.id, ids)));
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  return ids.flatMap((id) => {
+    const r = byId.get(id);
+    return r ? [serialize(r)] : [];
+  });
+}
+
+/**
+ * How many deals match. The household is joined only for a search: every deal's household
+ * belongs to the deal's company (createLead writes both in one transaction), so without a
+ * search the join adds nothing but a lookup per deal.
+ */
+async function countMatching(member: Member, f: DealTableFilters): Promise<number> {
+  let q = db().select({ total: count() }).from(deal).$dynamic();
+  if (f.q) q = q.innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)));
+  const [{ total }] = await q.where(whereFor(member, f));
+  return Number(total);
+}
+
 /** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
 export async function dealTablePage(member: Member, query: DealTableQuery): Promise<DealTablePage> {
-  const where = whereFor(member, query);
   const offset = (query.page - 1) * query.pageSize;
-  const [rows, [{ total }]] = await Promise.all([
-    baseSelect()
-      .where(where)
-      .orderBy(...orderFor(query.sort))
-      .limit(query.pageSize)
-      .offset(offset),
-    db()
-      .select({ total: count() })
-      .from(deal)
-      .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
-      .where(where),
-  ]);
-  return { rows: rows.map(serialize), total: Number(total), page: query.page, pageSize: query.pageSize };
+  const [ids, total] = await Promise.all([pageIds(member, query, query.pageSize, offset), countMatching(member, query)]);
+  return { rows: await rowsOf(member, ids), total, page: query.page, pageSize: query.pageSize };
 }
 
 export const EXPORT_CHUNK_ROWS = 1_000;
 
 /** Every row of the filtered view, read from the database 1,000 rows at a time. */
 export async function* dealTableChunks(member: Member, filters: DealTableFilters, chunkRows = EXPORT_CHUNK_ROWS): AsyncGenerator<DealTableRow[]> {
-  const where = whereFor(member, filters);
-  const order = orderFor(filters.sort);
   for (let offset = 0; ; offset += chunkRows) {
-    const rows = await baseSelect()
-      .where(where)
-      .orderBy(...order)
-      .limit(chunkRows)
-      .offset(offset);
-    if (rows.length > 0) yield rows.map(serialize);
-    if (rows.length < chunkRows) return;
+    const ids = await pageIds(member, filters, chunkRows, offset);
+    if (ids.length > 0) yield await rowsOf(member, ids);
+    if (ids.length < chunkRows) return;
   }
 }
 
