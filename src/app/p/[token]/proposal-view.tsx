@@ -14,11 +14,8 @@ export function ProposalView({ token, label, snapshot }: { token: string; label:
   return (
     <div className="space-y-5">
       <fieldset className="card p-4">
-        <legend className="sr-only">{many ? "Choose an offer" : "The offer"}</legend>
-        <h2 className="text-lg font-semibold" aria-hidden>
-          {many ? `Choose one of ${snapshot.offers.length} offers` : "Your offer"}
-        </h2>
-        <div className="mt-3 space-y-2">
+        <legend className="float-left w-full text-lg font-semibold">{many ? `Choose one of ${snapshot.offers.length} offers` : "Your offer"}</legend>
+        <div className="clear-both space-y-2 pt-3">
           {snapshot.offers.map((o) => {
             const s = o.figures.summary;
             const selected = o.position === position;

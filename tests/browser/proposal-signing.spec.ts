@@ -1,0 +1,235 @@
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import { expect, test, type APIRequestContext, type Page } from "@playwright/test";
+import { PDFDocument } from "pdf-lib";
+import { extractText, getDocumentProxy } from "unpdf";
+import { apiSignIn, linkIn, signIn, unique, waitForMail, withDb } from "./support";
+
+// The customer reads and signs on a phone.
+test.use({ viewport: { width: 390, height: 844 } });
+
+/** Demo catalog and rate plan (scripts/lib/seed/catalog.ts, pricing.ts): Prairieline PL-410T, Ridgewater RW-7600S, the co-op's residential plan. */
+const MODULE_ID = "7a11a55e-0000-4000-8000-000000001001";
+const INVERTER_ID = "7a11a55e-0000-4000-8000-000000001011";
+const RATE_PLAN_ID = "7a11a55e-0000-4000-8000-000000002011";
+
+const usd = (cents: number) => new Intl.NumberFormat("en-US", { style: "currency", currency: "USD", maximumFractionDigits: 0 }).format(Math.round(cents) / 100);
+
+async function ok<T>(res: Awaited<ReturnType<APIRequestContext["post"]>>): Promise<T> {
+  expect(res.ok(), `${res.url()} → ${res.status()} ${await res.text()}`).toBe(true);
+  return ((await res.json()) as { data: T }).data;
+}
+
+/**
+ * A fresh deal of the demo rep with its own household e-mail (so the outbox holds only this
+ * test's messages for it): a year of bills, a design near the Greensboro station, two offers.
+ */
+async function prepareDeal(request: APIRequestContext): Promise<{ dealId: string; email: string; contactName: string; loanOfferId: string }> {
+  await apiSignIn(request, "rep@tallgrass.example");
+  const email = `${unique("signer")}@homeowner.example`;
+  const contactName = "Marisol Fennimore";
+  const { dealId } = await ok<{ dealId: string }>(
+    await request.post("/api/deals", {
+      data: {
+        name: "Fennimore household",
+        contactName,
+        email,
+        street: "12 Larkspur Bend",
+        city: "Greensboro",
+        region: "NC",
+        postalCode: "27408",
+        latitude: 36.09,
+        longitude: -79.82,
+        source: "Door to door",
+        ratePlanId: RATE_PLAN_ID,
+      },
+    }),
+  );
+  const kwh = [1150, 990, 870, 730, 800, 1110, 1320, 1280, 1020, 770, 830, 1070];
+  const bills = kwh.map((k, m) => ({
+    periodStart: new Date(Date.UTC(2025, m, 1)).toISOString().slice(0, 10),
+    periodEnd: new Date(Date.UTC(2025, m + 1, 0)).toISOString().slice(0, 10),
+    kwh: k,
+  }));
+  await ok(await request.put(`/api/deals/${dealId}/bills`, { data: { bills } }));
+  await ok(
+    await request.put("/api/designs", {
+      data: {
+        dealId,
+        document: {
+          moduleId: MODULE_ID,
+          inverterId: INVERTER_ID,
+          faces: [{ id: "south", name: "South", tiltDeg: 25, azimuthDeg: 180, usableSlots: 20, solarAccessPct: 95, moduleCount: 18 }],
+          weather: { kind: "nearest" },
+          stringPlan: null,
+        },
+      },
+    }),
+  );
+  await ok(await request.post("/api/offers", { data: { dealId, inputs: { name: "Whole roof, cash", payment: { kind: "cash" } } } }));
+  const loan = await ok<{ id: string }>(
+    await request.post("/api/offers", { data: { dealId, inputs: { name: "Whole roof, loan", payment: { kind: "loan", aprPct: 4.25, termMonths: 240, dealerFeePct: 0 } } } }),
+  );
+  return { dealId, email, contactName, loanOfferId: loan.id };
+}
+
+/** Draws a signature stroke with the mouse, which the browser delivers as pointer events. */
+async function drawSignature(page: Page): Promise<void> {
+  const pad = page.getByTestId("signature-pad");
+  await pad.scrollIntoViewIfNeeded();
+  const box = await pad.boundingBox();
+  if (!box) throw new Error("the signature pad has no size");
+  const y = box.y + box.height * 0.6;
+  await page.mouse.move(box.x + 20, y);
+  await page.mouse.down();
+  for (let i = 1; i <= 24; i++) {
+    const x = box.x + 20 + i * ((box.width - 40) / 24);
+    await page.mouse.move(x, y - Math.sin(i / 2.5) * box.height * 0.3, { steps: 2 });
+  }
+  await page.mouse.up();
+}
+
+test("the customer opens the e-mailed link, confirms a code, draws a signature and signs; the rep sees Signed and the signed PDF holds", async ({ page, browser, request }) => {
+  test.setTimeout(180_000);
+  const deal = await prepareDeal(request);
+
+  // The rep sends the proposal from the deal's Proposal tab.
+  await signIn(page, "rep@tallgrass.example");
+  await page.goto(`/deals/${deal.dealId}/proposal`);
+  await expect(page.getByRole("heading", { name: "Send a proposal" })).toBeVisible();
+  await expect(page.getByLabel("Send to (e-mail)")).toHaveValue(deal.email);
+  await expect(page.getByRole("checkbox", { name: /Whole roof, cash/ })).toBeChecked();
+  await expect(page.getByRole("checkbox", { name: /Whole roof, loan/ })).toBeChecked();
+  await page.getByRole("button", { name: "Send proposal" }).click();
+  await expect(page.getByText(/Proposal P-\d+ v1 sent to/)).toBeVisible({ timeout: 30_000 });
+  const version = page.getByRole("article", { name: /^Proposal P-\d+ v1$/ });
+  await expect(version.getByTestId("proposal-status")).toHaveText("Sent");
+
+  // The customer, on their own phone, opens the link from the e-mail.
+  const sent = await waitForMail(deal.email, /solar proposal/);
+  const link = linkIn(sent, "/p/");
+  const customer = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
+  const phone = await customer.newPage();
+  await phone.goto(link);
+  await expect(phone.getByRole("heading", { name: "Solar proposal for the Fennimore household" })).toBeVisible();
+  await expect(phone.getByRole("group", { name: "Choose one of 2 offers" })).toBeVisible();
+  await expect(phone.getByRole("heading", { name: "What the figures assume" })).toBeVisible();
+  await expect(phone.getByTestId("usage-production-chart")).toBeVisible();
+  await expect(phone.getByTestId("cashflow-chart")).toBeVisible();
+
+  // Reads the loan option and chooses it.
+  await phone.getByRole("radio", { name: /Whole roof, loan/ }).check();
+  await expect(phone.getByRole("heading", { name: "Whole roof, loan", level: 2 })).toBeVisible();
+  const loanPrice = (await phone.getByTestId("price-2").textContent())?.trim() ?? "";
+  expect(loanPrice).toMatch(/^\$[\d,]+$/);
+
+  // Confirms the e-mail with the code from a second e-mail.
+  await phone.getByRole("button", { name: "E-mail me a code" }).click();
+  await expect(phone.getByText(/We e-mailed a 6-digit code/)).toBeVisible();
+  const codeMail = await waitForMail(deal.email, /signing code/);
+  const code = codeMail.subject.match(/(\d{6})/)?.[1] ?? "";
+  expect(code).toMatch(/^\d{6}$/);
+  await phone.getByLabel("6-digit code").fill(code);
+  await phone.getByRole("button", { name: "Confirm code" }).click();
+  await expect(phone.getByText("E-mail confirmed. You have 30 minutes to sign.")).toBeVisible();
+
+  // Consents, types the name, draws, signs.
+  await expect(phone.getByTestId("esign-disclosure")).toContainText("paper");
+  await phone.getByRole("checkbox", { name: /agree to use electronic records and signatures/ }).check();
+  await phone.getByLabel("Your full name").fill(deal.contactName);
+  await drawSignature(phone);
+  await expect(phone.getByText("Signature drawn.")).toBeVisible();
+  await phone.getByRole("button", { name: "Sign", exact: true }).click();
+  await expect(phone.getByTestId("state-signed")).toBeVisible({ timeout: 30_000 });
+  await expect(phone.getByTestId("state-signed")).toContainText(deal.contactName);
+  await expect(phone.getByTestId("right-to-cancel")).toBeVisible();
+  await expect(phone.getByRole("button", { name: "Cancel this agreement" })).toBeVisible();
+
+  // The rep sees it signed.
+  await page.reload();
+  await expect(page.getByRole("article", { name: /^Proposal P-\d+ v1$/ }).getByTestId("proposal-status")).toHaveText("Signed");
+  await expect(page.getByTestId("deal-stage")).toHaveText("Signed");
+
+  // The signed PDF: it parses, names the signer, the chosen offer's price and the certificate, and its hash is the record's.
+  const [download] = await Promise.all([phone.waitForEvent("download"), phone.getByRole("link", { name: "Download the signed PDF" }).click()]);
+  const bytes = new Uint8Array(await readFile((await download.path()) ?? ""));
+  const doc = await PDFDocument.load(bytes);
+  expect(doc.getPageCount()).toBeGreaterThan(2);
+  const { text } = await extractText(await getDocumentProxy(new Uint8Array(bytes)), { mergePages: true });
+  const flat = text.replace(/\s+/g, " ");
+  const record = await withDb(async (conn) => {
+    const [rows] = await conn.query("SELECT signed_sha256, pdf_sha256, signer_name, chosen_position, snapshot FROM proposal WHERE deal_id = ? AND status = 'signed'", [deal.dealId]);
+    return (rows as { signed_sha256: string; pdf_sha256: string; signer_name: string; chosen_position: number; snapshot: unknown }[])[0];
+  });
+  expect(record.chosen_position).toBe(2);
+  expect(record.signer_name).toBe(deal.contactName);
+  const snapshot = (typeof record.snapshot === "string" ? JSON.parse(record.snapshot) : record.snapshot) as { offers: { position: number; figures: { summary: { contractCents: number } } }[] };
+  const chosenPrice = usd(snapshot.offers.find((o) => o.position === 2)?.figures.summary.contractCents ?? -1);
+  expect(chosenPrice).toBe(loanPrice);
+  expect(flat).toContain(deal.contactName);
+  expect(flat).toContain(chosenPrice);
+  expect(flat).toContain("Signing certificate");
+  expect(flat).toContain(record.pdf_sha256);
+  expect(createHash("sha256").update(bytes).digest("hex")).toBe(record.signed_sha256);
+
+  // The copies went out: the customer's points back to their page.
+  const copy = await waitForMail(deal.email, /Your signed agreement/);
+  expect(linkIn(copy, "/p/")).toBe(link);
+  await customer.close();
+});
+
+test("a replaced version says so and offers nothing to sign; the verify page matches a signed PDF and refuses a changed one", async ({ page, browser, request }) => {
+  test.setTimeout(120_000);
+  const deal = await prepareDeal(request);
+  await signIn(page, "rep@tallgrass.example");
+  await page.goto(`/deals/${deal.dealId}/proposal`);
+  await page.getByRole("button", { name: "Send proposal" }).click();
+  await expect(page.getByText(/Proposal P-\d+ v1 sent to/)).toBeVisible({ timeout: 30_000 });
+  const first = linkIn(await waitForMail(deal.email, /solar proposal/), "/p/");
+  await page.getByRole("checkbox", { name: /Whole roof, cash/ }).uncheck();
+  await page.getByRole("button", { name: "Send proposal" }).click();
+  await expect(page.getByText(/Proposal P-\d+ v2 sent to/)).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByRole("article", { name: /^Proposal P-\d+ v1$/ }).getByTestId("proposal-status")).toHaveText("Replaced");
+
+  const customer = await browser.newContext({ viewport: { width: 390, height: 844 } });
+  const phone = await customer.newPage();
+  await phone.goto(first);
+  await expect(phone.getByTestId("state-replaced")).toContainText(/use the link in the newest e-mail/i);
+  await expect(phone.getByRole("button", { name: "E-mail me a code" })).toHaveCount(0);
+  await expect(phone.getByRole("link", { name: /Download/ })).toHaveCount(0);
+  const refused = await customer.request.post(`${first.replace("/p/", "/api/public/proposals/")}/code`);
+  expect(refused.status()).toBe(409);
+
+  // Revoked: the rep withdraws v2, and its link shows that.
+  const second = linkIn(await waitForMail(deal.email, /solar proposal/), "/p/");
+  expect(second).not.toBe(first);
+  page.once("dialog", (d) => void d.accept());
+  await page.getByRole("article", { name: /^Proposal P-\d+ v2$/ }).getByRole("button", { name: "Revoke link" }).click();
+  await expect(page.getByRole("article", { name: /^Proposal P-\d+ v2$/ }).getByTestId("proposal-status")).toHaveText("Revoked");
+  await phone.goto(second);
+  await expect(phone.getByTestId("state-revoked")).toBeVisible();
+  await expect(phone.getByRole("button", { name: "E-mail me a code" })).toHaveCount(0);
+
+  // Verify: a signed demo PDF matches; the same file with one byte changed does not.
+  const signed = await withDb(async (conn) => {
+    // One of the demo rep's own deals, so the rep may download it.
+    const [rows] = await conn.query(
+      "SELECT p.id, p.number, p.version FROM proposal p JOIN deal d ON d.id = p.deal_id WHERE p.company_id = '7a11a55e-0000-4000-8000-000000000001' AND p.status = 'signed' AND d.owner_user_id = '7a11a55e-0000-4000-8000-000000000104' ORDER BY p.number LIMIT 1",
+    );
+    return (rows as { id: string; number: number; version: number }[])[0];
+  });
+  expect(signed, "the demo seed has a signed proposal").toBeTruthy();
+  const pdf = await request.get(`/api/proposals/${signed.id}/signed-pdf`);
+  expect(pdf.status()).toBe(200);
+  const bytes = Buffer.from(await pdf.body());
+  await phone.goto("/verify");
+  await phone.getByLabel("Signed PDF").setInputFiles({ name: "signed.pdf", mimeType: "application/pdf", buffer: bytes });
+  await phone.getByRole("button", { name: "Check the file" }).click();
+  await expect(phone.getByTestId("verify-answer")).toContainText(`matches proposal P-${signed.number} v${signed.version}, signed on`);
+  const changed = Buffer.from(bytes);
+  changed[Math.floor(changed.length / 2)] ^= 0x01;
+  await phone.getByLabel("Signed PDF").setInputFiles({ name: "changed.pdf", mimeType: "application/pdf", buffer: changed });
+  await phone.getByRole("button", { name: "Check the file" }).click();
+  await expect(phone.getByTestId("verify-answer")).toHaveText("No signed Kilowright record matches this file.");
+  await customer.close();
+});
