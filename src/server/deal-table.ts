@@ -5,6 +5,7 @@ import type { z } from "zod";
 import { deal, household, membership, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import {
+  DEAL_TABLE_COUNT_LIMIT,
   parseSort,
   type BulkAnswer,
   type BulkResult,
@@ -82,9 +83,10 @@ function orderFor(sort: string): SQL[] {
   const { column, direction } = parseSort(sort);
   const col = SORT_COLUMNS[column];
   const dir = direction === "asc" ? asc : desc;
-  // A household's columns are tied by the household's id: one deal per household (createLead),
-  // and it lets the database walk the household's (company, name or city) index in order.
-  if (column === "household" || column === "city") return [dir(col), dir(household.id), dir(deal.id)];
+  // A household's columns are tied by the household's id, which is as good as the deal's: a
+  // household has one deal (createLead writes both). It lets the database walk the household's
+  // (company, name or city) index in order instead of sorting every deal.
+  if (column === "household" || column === "city") return [dir(col), dir(household.id)];
   // The id breaks ties so that pages never overlap or skip rows.
   return [dir(col), dir(deal.id)];
 }
@@ -177,22 +179,38 @@ async function rowsOf(member: Member, ids: string[]): Promise<DealTableRow[]> {
 }
 
 /**
- * How many deals match. The household is joined only for a search: every deal's household
- * belongs to the deal's company (createLead writes both in one transaction), so without a
- * search the join adds nothing but a lookup per deal.
+ * How many deals match, counted up to `limit` + 1 (DEAL_TABLE_COUNT_LIMIT): past it the answer
+ * is "more than limit", so the cost stays bounded however many deals a company has. The
+ * household is joined only for a search: every deal's household belongs to the deal's
+ * company (createLead writes both in one transaction), so without a search the join adds
+ * nothing but a lookup per deal.
  */
-async function countMatching(member: Member, f: DealTableFilters): Promise<number> {
-  let q = db().select({ total: count() }).from(deal).$dynamic();
+async function countMatching(member: Member, f: DealTableFilters, limit: number): Promise<{ total: number; capped: boolean }> {
+  let q = db().select({ one: sql<number>`1` }).from(deal).$dynamic();
   if (f.q) q = q.innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)));
-  const [{ total }] = await q.where(whereFor(member, f));
-  return Number(total);
+  const matching = q
+    .where(whereFor(member, f))
+    .limit(limit + 1)
+    .as("matching");
+  const [{ n }] = await db().select({ n: count() }).from(matching);
+  const total = Number(n);
+  return total > limit ? { total: limit, capped: true } : { total, capped: false };
 }
 
 /** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
-export async function dealTablePage(member: Member, query: DealTableQuery): Promise<DealTablePage> {
+export async function dealTablePage(member: Member, query: DealTableQuery, countLimit = DEAL_TABLE_COUNT_LIMIT): Promise<DealTablePage> {
   const offset = (query.page - 1) * query.pageSize;
-  const [ids, total] = await Promise.all([pageIds(member, query, query.pageSize, offset), countMatching(member, query)]);
-  return { rows: await rowsOf(member, ids), total, page: query.page, pageSize: query.pageSize };
+  // One id more than the page tells whether another page follows, even when the count stops.
+  const [ids, counted] = await Promise.all([pageIds(member, query, query.pageSize + 1, offset), countMatching(member, query, countLimit)]);
+  const hasNextPage = ids.length > query.pageSize;
+  return {
+    rows: await rowsOf(member, ids.slice(0, query.pageSize)),
+    total: counted.total,
+    totalCapped: counted.capped,
+    hasNextPage,
+    page: query.page,
+    pageSize: query.pageSize,
+  };
 }
 
 export const EXPORT_CHUNK_ROWS = 1_000;

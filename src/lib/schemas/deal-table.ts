@@ -85,7 +85,18 @@ export type DealTableRow = {
   source: string | null;
 };
 
-export type DealTablePage = { rows: DealTableRow[]; total: number; page: number; pageSize: number };
+/**
+ * Counting stops here: beyond it the table says "more than 10,000" instead of counting every
+ * deal on every page (an exact count walks every matching index entry, which at 100,000 deals
+ * costs more than the page itself). The CSV export still has every row.
+ */
+export const DEAL_TABLE_COUNT_LIMIT = 10_000;
+
+/**
+ * One page. `total` is exact unless `totalCapped`, when more than `total` deals match;
+ * `hasNextPage` says whether a page follows (known either way).
+ */
+export type DealTablePage = { rows: DealTableRow[]; total: number; totalCapped: boolean; hasNextPage: boolean; page: number; pageSize: number };
 
 /** Turns a search-params record (URLSearchParams or Next's searchParams) into a plain object. */
 export function searchParamsObject(params: URLSearchParams | Record<string, string | string[] | undefined>): Record<string, string> {

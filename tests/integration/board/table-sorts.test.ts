@@ -24,10 +24,13 @@ function rng(seed: number) {
   };
 }
 
-/** The SQL the table means: the same joins and order, with the owner sort by name, then owner, then id. */
+/**
+ * The SQL the table means: the same joins and order; the owner sort by name, then owner, then
+ * deal id; the household's columns tied by the household (one deal per household).
+ */
 const SQL_ORDER: Record<string, string> = {
-  household: "h.name {d}, h.id {d}, d.id {d}",
-  city: "h.city {d}, h.id {d}, d.id {d}",
+  household: "h.name {d}, h.id {d}",
+  city: "h.city {d}, h.id {d}",
   stage: "d.stage {d}, d.id {d}",
   systemDcWatts: "d.system_dc_watts {d}, d.id {d}",
   contractCents: "d.contract_cents {d}, d.id {d}",
@@ -136,6 +139,22 @@ describe("deals table page queries", () => {
         expect(got.total).toBe(Number(n));
       }
     }
+  });
+
+  it("counts up to the limit and then says there are more, while paging on", async () => {
+    const capped = await dealTablePage(office, dealTableQuerySchema.parse({ page: "3", pageSize: "50" }), 1_000);
+    expect(capped).toMatchObject({ total: 1_000, totalCapped: true, hasNextPage: true });
+    expect(capped.rows).toHaveLength(50);
+    const exact = await dealTablePage(office, dealTableQuerySchema.parse({ stage: "lead", pageSize: "200" }), 1_000);
+    expect(exact.totalCapped).toBe(false);
+    const [[{ n }]] = await pool().query<RowDataPacket[]>("SELECT COUNT(*) AS n FROM deal WHERE company_id = ? AND stage = 'lead'", [owner.companyId]);
+    expect(exact.total).toBe(Number(n));
+    expect(exact.hasNextPage).toBe(Number(n) > 200);
+    // Exactly at the limit is still exact.
+    expect(await dealTablePage(office, dealTableQuerySchema.parse({}), TOTAL)).toMatchObject({ total: TOTAL, totalCapped: false });
+    const last = await dealTablePage(office, dealTableQuerySchema.parse({ page: String(TOTAL / 200), pageSize: "200" }), 1_000);
+    expect(last).toMatchObject({ hasNextPage: false, totalCapped: true });
+    expect(last.rows).toHaveLength(200);
   });
 
   it("walks every page of the owner sort once, deals without an owner first", async () => {

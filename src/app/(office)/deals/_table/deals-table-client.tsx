@@ -148,7 +148,7 @@ export function DealsTable({
     manualPagination: true,
     enableMultiSort: false,
     enableSortingRemoval: false,
-    rowCount: data.total,
+    rowCount: data.totalCapped ? -1 : data.total,
     state: { sorting, pagination, columnVisibility, rowSelection },
     onRowSelectionChange: (updater) => setRowSelection((old) => apply(updater, old)),
     onSortingChange: (updater) => {
@@ -174,9 +174,12 @@ export function DealsTable({
     e.preventDefault();
     setFilter("q", search.trim());
   };
+  // Past DEAL_TABLE_COUNT_LIMIT the server stops counting: the last page is then unknown, and
+  // Next follows the server's hasNextPage.
   const pageCount = Math.max(1, Math.ceil(data.total / view.pageSize));
-  const firstRow = data.total === 0 ? 0 : (view.page - 1) * view.pageSize + 1;
-  const lastRow = Math.min(data.total, view.page * view.pageSize);
+  const firstRow = data.rows.length === 0 ? 0 : (view.page - 1) * view.pageSize + 1;
+  const lastRow = firstRow === 0 ? 0 : firstRow + data.rows.length - 1;
+  const goTo = (page: number) => setView((v) => ({ ...v, page: Math.max(1, page) }));
   const exportHref = `/api/deals/export?${paramsOf(view, false).toString()}`;
   const error = result.error instanceof Error ? result.error.message : null;
   const selectedIds = Object.keys(rowSelection);
@@ -331,7 +334,8 @@ export function DealsTable({
           "No deals"
         ) : (
           <>
-            Deals <span className="figure">{firstRow}</span>–<span className="figure">{lastRow}</span> of <span className="figure">{data.total}</span>
+            Deals <span className="figure">{firstRow}</span>–<span className="figure">{lastRow}</span> of {data.totalCapped ? "more than " : ""}
+            <span className="figure">{data.total.toLocaleString("en-US")}</span>
           </>
         )}
         {view.q ? ` matching “${view.q}”` : ""}
@@ -411,19 +415,31 @@ export function DealsTable({
           </select>
         </div>
         <div className="flex items-center gap-2">
-          <button type="button" className="btn-quiet" onClick={() => table.firstPage()} disabled={view.page <= 1}>
+          <button type="button" className="btn-quiet" onClick={() => goTo(1)} disabled={view.page <= 1}>
             First
           </button>
-          <button type="button" className="btn-quiet" onClick={() => table.previousPage()} disabled={view.page <= 1}>
+          <button type="button" className="btn-quiet" onClick={() => goTo(view.page - 1)} disabled={view.page <= 1}>
             Previous
           </button>
           <span className="text-sm">
-            Page <span className="figure">{view.page}</span> of <span className="figure">{pageCount}</span>
+            Page <span className="figure">{view.page}</span>
+            {data.totalCapped ? null : (
+              <>
+                {" "}
+                of <span className="figure">{pageCount}</span>
+              </>
+            )}
           </span>
-          <button type="button" className="btn-quiet" onClick={() => table.nextPage()} disabled={view.page >= pageCount}>
+          <button type="button" className="btn-quiet" onClick={() => goTo(view.page + 1)} disabled={!data.hasNextPage}>
             Next
           </button>
-          <button type="button" className="btn-quiet" onClick={() => table.lastPage()} disabled={view.page >= pageCount}>
+          <button
+            type="button"
+            className="btn-quiet"
+            onClick={() => goTo(pageCount)}
+            disabled={data.totalCapped || view.page >= pageCount}
+            title={data.totalCapped ? "Too many deals to count: narrow the filters, or export the view" : undefined}
+          >
             Last
           </button>
         </div>
