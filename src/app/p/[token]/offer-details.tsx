@@ -15,7 +15,7 @@ function Row({ label, value, strong = false, testId }: { label: string; value: s
   return (
     <div className={`flex items-baseline justify-between gap-3 py-1.5 ${strong ? "font-semibold" : ""}`}>
       <dt className={strong ? "" : "text-graphite-soft"}>{label}</dt>
-      <dd className="figure text-right" data-testid={testId}>
+      <dd className="figure whitespace-nowrap text-right" data-testid={testId}>
         {value}
       </dd>
     </div>
