@@ -23,11 +23,15 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
   const open = items.filter((i) => !i.doneAt).length;
 
   async function tick(item: JobChecklistItem, done: boolean) {
+    const before = items;
+    // Shown ticked at once (a roof's mobile data is slow); put back if the server refuses.
+    setItems((list) => list.map((i) => (i.id === item.id ? { ...i, doneAt: done ? new Date().toISOString() : null } : i)));
     setBusyItem(item.id);
     setNotice(null);
     try {
       setItems(await api<JobChecklistItem[]>(`/api/jobs/${props.jobId}/checklist`, { method: "PATCH", json: { itemId: item.id, done } }));
     } catch (err) {
+      setItems(before);
       setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "Not saved. Try again." });
     } finally {
       setBusyItem(null);
