@@ -43,6 +43,7 @@ import { toErrorResponse, validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
 import { storage } from "@/server/storage";
+import { refundOnCancellation } from "@/server/payments";
 import { recordEvent } from "@/server/timeline";
 import { hashToken, newLinkToken } from "@/server/tokens";
 
@@ -738,8 +739,13 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
     });
     return { proposalId: p.id, companyId: p.companyId, dealId: p.dealId, cancelledAt: now };
   });
-  // ── After the commit: the deposit refund goes here (DEPOSITS, src/server/payments.ts):
-  // await refundOnCancellation(outcome.companyId, outcome.dealId, `Buyer cancelled ${labelOf(p)} inside the right-to-cancel window`);
+  // After the commit: refund any paid deposit through the provider. The cancellation stands even
+  // if the provider cannot be reached now; the office sees the refund due on Today and retries.
+  try {
+    await refundOnCancellation(outcome.companyId, outcome.dealId, `Buyer cancelled ${labelOf(p)} inside the right-to-cancel window`);
+  } catch (err) {
+    console.error(`[proposals] refund after the cancellation of ${labelOf(p)} failed:`, err);
+  }
   try {
     await sendEmail({
       to: p.snapshot.rep.email,

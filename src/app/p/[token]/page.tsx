@@ -12,7 +12,9 @@ import { formatIsoDateLong, localIsoDate, proposalLinkState } from "@/lib/propos
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { cancelWindowOf, clientMeta, findProposalByToken, labelOf, recordProposalView, type ProposalRow } from "@/server/proposals";
 import { CancelForm } from "./cancel-form";
+import { DepositPanel } from "./deposit-panel";
 import { OfferDetails } from "./offer-details";
+import { ProjectPanel } from "./project-panel";
 import { ProposalView } from "./proposal-view";
 import { QuestionForm } from "./question-form";
 
@@ -192,7 +194,8 @@ async function SignedPage({ p, token }: { p: ProposalRow; token: string }) {
         </p>
       </section>
       <Downloads token={token} signed />
-      {/* After signing: the deposit (DEPOSITS, ./deposit-panel.tsx) and the project's progress (JOBS, ./project-panel.tsx) go here. */}
+      <DepositPanel token={token} />
+      <ProjectPanel token={token} />
       {cancelWindow ? <RightToCancel p={p} token={token} cancelWindow={cancelWindow} /> : null}
       <section aria-label={`Your offer ${offer.name}`}>
         <h2 className="mb-3 text-xl font-semibold">{offer.name}</h2>
@@ -258,6 +261,7 @@ function CancelledPage({ p, token }: { p: ProposalRow; token: string }) {
         including a deposit, within ten business days. Questions: {s.rep.name} ({s.rep.email}).
       </Notice>
       {p.signedStorageKey ? <Downloads token={token} signed /> : null}
+      <DepositPanel token={token} />
     </>
   );
 }
