@@ -9,6 +9,8 @@ const SETTLED = ["paid", "partially_refunded", "refunded", "flagged"];
 /** How often, and how long, the page asks for the payment's state after the customer comes back. */
 const POLL_EVERY_MS = 2_000;
 const POLL_FOR_MS = 120_000;
+/** After leaving checkout unpaid, a declined card's webhook may still be on its way: ask for a while. */
+const POLL_AFTER_CANCEL_MS = 30_000;
 
 /**
  * The redirect back from checkout only says the customer came back: the page shows
@@ -20,18 +22,24 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
   const [paying, setPaying] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [gaveUp, setGaveUp] = useState(false);
+  const [quietDone, setQuietDone] = useState(false);
+  // The button works only once this script runs (no dead press before the page is interactive).
+  const [ready, setReady] = useState(false);
   const url = `/api/public/proposals/${encodeURIComponent(token)}/deposit`;
 
   useEffect(() => {
     const said = new URLSearchParams(window.location.search).get("deposit");
     if (said === "returned" || said === "cancelled") setReturned(said);
+    setReady(true);
   }, []);
 
   const settled = SETTLED.includes(deposit.status);
   const waiting = returned === "returned" && !settled && !gaveUp;
+  const quiet = returned === "cancelled" && deposit.status === "open" && !quietDone;
+  const pollForMs = waiting ? POLL_FOR_MS : quiet ? POLL_AFTER_CANCEL_MS : 0;
 
   useEffect(() => {
-    if (!waiting) return;
+    if (pollForMs === 0) return;
     const started = Date.now();
     let timer: ReturnType<typeof setTimeout> | undefined;
     let stopped = false;
@@ -43,15 +51,16 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
         // A dropped connection: keep asking until the time is up.
       }
       if (stopped) return;
-      if (Date.now() - started > POLL_FOR_MS) setGaveUp(true);
-      else timer = setTimeout(tick, POLL_EVERY_MS);
+      if (Date.now() - started <= pollForMs) timer = setTimeout(tick, POLL_EVERY_MS);
+      else if (pollForMs === POLL_FOR_MS) setGaveUp(true);
+      else setQuietDone(true);
     };
     timer = setTimeout(tick, 500);
     return () => {
       stopped = true;
       if (timer) clearTimeout(timer);
     };
-  }, [waiting, url]);
+  }, [pollForMs, url]);
 
   const pay = useCallback(async () => {
     setPaying(true);
@@ -75,8 +84,11 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
       <h2 id="deposit-heading" className="text-lg font-semibold">
         Deposit
       </h2>
-      <div className="mt-2" aria-live="polite" data-testid="deposit-status" data-status={waiting ? "confirming" : deposit.status}>
-        {waiting ? (
+      <div className="mt-2" aria-live="polite" data-testid="deposit-status" data-status={!ready && !settled ? "loading" : waiting ? "confirming" : deposit.status}>
+        {!ready && !settled ? (
+          // Until the page knows whether the customer just came back from checkout, say nothing that may be stale.
+          <p className="text-graphite-soft">Checking the deposit…</p>
+        ) : waiting ? (
           <Confirming />
         ) : settled ? (
           <Settled deposit={deposit} companyName={companyName} />
@@ -99,7 +111,7 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
               {companyName} asks for a deposit of <span className="figure text-xl font-semibold">{deposit.amountText}</span> to start the project. It counts toward the
               contract price.
             </p>
-            <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={paying} aria-busy={paying}>
+            <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={!ready || paying} aria-busy={paying}>
               {paying ? "Opening the payment page…" : deposit.status === "failed" ? `Try again: pay ${deposit.amountText}` : `Pay the deposit: ${deposit.amountText}`}
             </button>
             <p className="mt-2 text-xs text-graphite-soft">You pay by card on the payment provider&apos;s secure page and come back here afterwards.</p>
