@@ -39,6 +39,7 @@ const REFUNDABLE_STATUSES: readonly PaymentStatus[] = ["paid", "partially_refund
 const UNSETTLED_STATUSES: readonly PaymentStatus[] = ["open", "failed"];
 /** Provider refund states that count as money returned (or on its way). */
 const COUNTED_REFUND_STATES = ["succeeded", "pending"];
+const CANCELLED_BEFORE_PAYMENT_REASON = "The agreement was cancelled before this payment arrived";
 /** Ledger rows the demo seed writes without a provider record (scripts/lib/seed/payments.ts). */
 export const DEMO_SESSION_PREFIX = "cs_test_demo";
 
@@ -315,6 +316,27 @@ export async function bookPayment(tx: Tx, row: PaymentRow, reported: Reported, r
   }
 
   await tx.update(payment).set({ status: "paid", paidCents: reported.amountCents, paidAt: reported.at, failureMessage: null, flagReason: null, ...ids }).where(where);
+  const [agreement] = await tx
+    .select({ status: proposal.status })
+    .from(proposal)
+    .where(and(eq(proposal.id, row.proposalId), eq(proposal.companyId, row.companyId)))
+    .limit(1);
+  if (agreement?.status === "cancelled") {
+    // Paid on a checkout still open when the customer cancelled: no job, and the money goes back.
+    await recordEvent(tx, {
+      companyId: row.companyId,
+      dealId: row.dealId,
+      kind: "deposit.paid",
+      summary: `Deposit of ${formatMoney(row.amountCents, row.currency)} paid after the agreement was cancelled; it is refunded in full`,
+      actorUserId: null,
+      data: { paymentId: row.id, ...ids, afterCancellation: true },
+    });
+    after.push(async () => {
+      const [fresh] = await db().select().from(payment).where(where).limit(1);
+      if (fresh && refundableCents(fresh) > 0) await issueRefund(fresh, refundableCents(fresh), CANCELLED_BEFORE_PAYMENT_REASON, null);
+    });
+    return { outcome: "booked", note: "paid after cancellation; refund queued" };
+  }
   await recordEvent(tx, {
     companyId: row.companyId,
     dealId: row.dealId,
@@ -584,14 +606,13 @@ async function issueRefund(
     }
     await recomputeRefunded(tx, row.id, row.companyId);
     const [rec] = await tx.select().from(refund).where(and(eq(refund.stripeRefundId, r.id), eq(refund.companyId, row.companyId))).limit(1);
-    return { rec, isNew: inserted[0].affectedRows === 1 };
+    return { rec };
   });
-  if (saved.isNew) {
-    try {
-      await sendRefundNotice(saved.rec);
-    } catch (err) {
-      console.error("refund recorded; the e-mail to the customer could not be sent", saved.rec.id, err);
-    }
+  // Sent whoever recorded the refund first (this request or the provider's webhook); the key sends it once.
+  try {
+    await sendRefundNotice(saved.rec);
+  } catch (err) {
+    console.error("refund recorded; the e-mail to the customer could not be sent", saved.rec.id, err);
   }
   return saved.rec;
 }
@@ -608,11 +629,25 @@ export async function refundPayment(member: Member, paymentId: string, input: { 
  * deal through the SDK. Tries every payment, then throws one error naming those that failed.
  */
 export async function refundOnCancellation(companyId: string, dealId: string, reason: string): Promise<void> {
+  const failures: string[] = [];
+  // First close any checkout still open, so nothing new can be paid on this deal.
+  const open = await db()
+    .select()
+    .from(payment)
+    .where(and(eq(payment.companyId, companyId), eq(payment.dealId, dealId), inArray(payment.status, [...UNSETTLED_STATUSES])));
+  for (const row of open) {
+    try {
+      const s = await stripe().checkout.sessions.retrieve(row.checkoutSessionId);
+      if (s.status === "open") await stripe().checkout.sessions.expire(row.checkoutSessionId);
+    } catch (err) {
+      // A session paid meanwhile is refunded when its payment is booked (bookPayment sees the cancellation).
+      if (!(err instanceof Stripe.errors.StripeInvalidRequestError)) failures.push(`${row.id}: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
   const rows = await db()
     .select()
     .from(payment)
     .where(and(eq(payment.companyId, companyId), eq(payment.dealId, dealId), inArray(payment.status, [...REFUNDABLE_STATUSES])));
-  const failures: string[] = [];
   for (const row of rows) {
     const remaining = refundableCents(row);
     if (remaining === 0) continue;

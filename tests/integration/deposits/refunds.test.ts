@@ -5,7 +5,7 @@
 import { and, eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { payment, refund } from "@/db/schema";
+import { payment, proposal, refund } from "@/db/schema";
 import type { Member } from "@/server/session";
 import { addMember, newCompany } from "../support/fixtures";
 import { ledgerOf, outboxTo, payWithCard, signedProposal, startHarness, startReceiver, waitFor, type Harness, type Receiver } from "./support";
@@ -190,6 +190,38 @@ describe("refundOnCancellation", () => {
     expect(l.payments[0]).toMatchObject({ status: "refunded", refundedCents: 80_000 });
     expect(l.refunds.map((r) => r.amountCents).sort((a, b) => a - b)).toEqual([5_000, 75_000]);
     expect(l.refunds.find((r) => r.amountCents === 75_000)?.reason).toBe("Cancelled within the 3-business-day window");
+  });
+
+  it("closes a checkout still open, and refunds by itself a payment that lands after the cancellation", async () => {
+    const cancel = async (proposalId: string) =>
+      dbm.db().update(proposal).set({ status: "cancelled", cancelledAt: new Date() }).where(and(eq(proposal.id, proposalId), eq(proposal.companyId, owner.companyId)));
+
+    const open = await signedProposal(owner);
+    const first = await payments.startDepositCheckout(open.token);
+    await cancel(open.proposalId);
+    await payments.refundOnCancellation(owner.companyId, open.dealId, "Cancelled within the 3-business-day window");
+    const [row] = await dbm.db().select().from(payment).where(eq(payment.id, first.paymentId));
+    expect((await h.sdk.checkout.sessions.retrieve(row.checkoutSessionId)).status).toBe("expired");
+    await settled();
+    expect((await ledgerOf(owner.companyId, open.dealId)).payments[0].status).toBe("expired");
+
+    const late = await signedProposal(owner);
+    const second = await payments.startDepositCheckout(late.token);
+    const [row2] = await dbm.db().select().from(payment).where(eq(payment.id, second.paymentId));
+    await cancel(late.proposalId);
+    expect((await payWithCard(h.fake, row2.checkoutSessionId)).status).toBe(200);
+    await waitFor("the automatic refund", async () => {
+      const [r] = await dbm.db().select().from(payment).where(eq(payment.id, second.paymentId));
+      return r.status === "refunded" ? r : null;
+    });
+    await settled();
+    const l = await ledgerOf(owner.companyId, late.dealId);
+    expect(l.payments[0]).toMatchObject({ status: "refunded", paidCents: 100_000, refundedCents: 100_000 });
+    expect(l.refunds).toHaveLength(1);
+    expect(l.refunds[0].reason).toBe("The agreement was cancelled before this payment arrived");
+    expect(l.stage).toBe("signed");
+    expect(l.jobs).toBe(0);
+    expect(await payments.getDepositForCustomer(late.token)).toMatchObject({ status: "refunded", canPay: false });
   });
 
   it("does nothing for a deal without a paid deposit, and nothing across companies", async () => {

@@ -71,8 +71,8 @@ function Result({ r }: { r: Reconciliation }) {
       <p className="text-sm text-graphite-soft">Checked {formatDateTime(r.checkedAt)}.</p>
       {r.demoRowsSkipped > 0 ? (
         <p className="text-sm text-graphite-soft">
-          {r.demoRowsSkipped} demo ledger row{r.demoRowsSkipped === 1 ? "" : "s"} written by the demo seed (ids starting cs_test_demo) have no provider record and are not
-          compared.
+          {r.demoRowsSkipped} demo ledger row{r.demoRowsSkipped === 1 ? "" : "s"} written by the demo seed (payments with ids starting cs_test_demo, and their refunds) have
+          no provider record and are not compared.
         </p>
       ) : null}
       {r.differences.length === 0 ? (

@@ -275,7 +275,7 @@ function RefundForm({ p }: { p: PaymentView }) {
           {refund.isPending ? "Refunding…" : "Refund"}
         </button>
         <button type="button" className="btn-quiet" onClick={() => setOpen(false)} disabled={refund.isPending}>
-          Keep the money
+          Don&apos;t refund
         </button>
       </div>
     </form>
