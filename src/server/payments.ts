@@ -190,7 +190,7 @@ export async function startDepositCheckout(token: string): Promise<{ url: string
   });
 }
 
-export type CustomerDepositStatus = "due" | "open" | "failed" | "expired" | PaymentStatus;
+export type CustomerDepositStatus = "due" | PaymentStatus;
 export type CustomerDeposit = {
   status: CustomerDepositStatus;
   amountCents: number;
