@@ -248,7 +248,8 @@ function requestMix() {
     r("page=20&pageSize=50&sort=stageChangedAt:desc"),
     r("page=1&pageSize=200&sort=contractCents:asc&stage=install_booked"),
     r("page=1&pageSize=50&sort=source:asc"),
-    r("page=1&pageSize=50&sort=stageChangedAt:desc&q=Ridge"),
+    // A search for one household by its number: nothing rules a household out but reading it.
+    r("page=1&pageSize=50&sort=stageChangedAt:desc&q=004217"),
     // The 10,000th deal: the last page at 10,000 deals, the deepest page a count-limited view links to at 100,000.
     r("page=200&pageSize=50&sort=stageChangedAt:desc"),
   ];
@@ -375,15 +376,21 @@ async function main(): Promise<void> {
     if (!process.argv.includes("--keep")) await stopMariaDb(cfg);
   }
 
-  const [small, big] = results as { deals: number; p50: number; p95: number; p99: number; errors: number; timeouts: number; non2xx: number }[];
-  const ratio = big.p95 / small.p95;
+  type Row = { deals: number; requests: number; p50?: number; p95?: number; p99?: number; errors: number; timeouts: number; non2xx: number };
+  const [small, big] = results as Row[];
+  // With no answer within autocannon's 10 s timeout there is no percentile: the ratio is then unknown.
+  const ms = (v: number | undefined) => (v === undefined ? "none answered" : v.toFixed(1));
+  const ratio = big.p95 !== undefined && small.p95 !== undefined ? big.p95 / small.p95 : Number.NaN;
   const lines = [
     "",
     `Deals table route handler, ${CONNECTIONS} connections × ${DURATION_S} s per case (autocannon), ${cpus().length} × ${cpus()[0]?.model.trim()}, Node ${process.version}, schema: migrations${WITH_PROPOSED ? " + proposed indexes" : ""}:`,
-    "| deals | p50 ms | p95 ms | p99 ms | errors | goal p95 ≤ 100 ms |",
-    "|---:|---:|---:|---:|---:|:-:|",
-    ...[small, big].map((r) => `| ${r.deals.toLocaleString("en-US")} | ${r.p50.toFixed(1)} | ${r.p95.toFixed(1)} | ${r.p99.toFixed(1)} | ${r.errors + r.timeouts + r.non2xx} | ${r.p95 <= GOAL_P95_MS ? "yes" : "no"} |`),
-    `100,000 / 10,000 p95 ratio: ${ratio.toFixed(2)} (goal ≤ ${GOAL_RATIO}: ${ratio <= GOAL_RATIO ? "yes" : "no"})`,
+    "| deals | p50 ms | p95 ms | p99 ms | answered | errors + timeouts | goal p95 ≤ 100 ms |",
+    "|---:|---:|---:|---:|---:|---:|:-:|",
+    ...[small, big].map(
+      (r) =>
+        `| ${r.deals.toLocaleString("en-US")} | ${ms(r.p50)} | ${ms(r.p95)} | ${ms(r.p99)} | ${r.requests} | ${r.errors + r.timeouts + r.non2xx} | ${r.p95 !== undefined && r.p95 <= GOAL_P95_MS ? "yes" : "no"} |`,
+    ),
+    `100,000 / 10,000 p95 ratio: ${Number.isNaN(ratio) ? "unknown" : ratio.toFixed(2)} (goal ≤ ${GOAL_RATIO}: ${ratio <= GOAL_RATIO ? "yes" : "no"})`,
   ];
   console.log(lines.join("\n"));
   writeFileSync(

@@ -6,6 +6,7 @@ import { deal, household, membership, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import {
   DEAL_TABLE_COUNT_LIMIT,
+  DEAL_TABLE_SEARCH_COUNT_LIMIT,
   parseSort,
   type BulkAnswer,
   type BulkResult,
@@ -64,18 +65,46 @@ function nextDay(isoDay: string): Date {
   return d;
 }
 
+/**
+ * The filters once a search is resolved: a search matching few households becomes the list of
+ * their ids (householdIds, read by the deal's household index); one matching many stays a
+ * LIKE over the joined households (q), where matches are dense and found quickly.
+ */
+type Scope = DealTableFilters & { householdIds?: string[] };
+
+/** Past this many matching households a search stays a LIKE on the joined households. */
+const SEARCH_HOUSEHOLD_IDS = 1_000;
+
+const searchCondition = (q: string) => {
+  const pattern = `%${escapeLike(q)}%`;
+  return or(like(household.name, pattern), like(household.contactName, pattern), like(household.street, pattern), like(household.city, pattern)) as SQL;
+};
+
+/**
+ * Reads the company's households alone for a search (one pass over the household table, which
+ * is far cheaper than looking each deal's household up), and keeps their ids when they are few.
+ */
+async function resolveSearch(member: Member, f: DealTableFilters): Promise<Scope> {
+  if (!f.q) return f;
+  const rows = await db()
+    .select({ id: household.id })
+    .from(household)
+    .where(and(eq(household.companyId, member.companyId), searchCondition(f.q)))
+    .limit(SEARCH_HOUSEHOLD_IDS + 1);
+  if (rows.length > SEARCH_HOUSEHOLD_IDS) return f;
+  return { ...f, q: undefined, householdIds: rows.map((r) => r.id) };
+}
+
 /** The WHERE of the table: company and visibility first, then the person's filters. */
-function whereFor(member: Member, f: DealTableFilters): SQL {
+function whereFor(member: Member, f: Scope): SQL {
   const parts: SQL[] = [visibleTo(member)];
+  if (f.householdIds) parts.push(f.householdIds.length > 0 ? inArray(deal.householdId, f.householdIds) : sql`false`);
   if (f.stage) parts.push(eq(deal.stage, f.stage));
   if (f.owner) parts.push(eq(deal.ownerUserId, f.owner));
   if (f.source) parts.push(eq(deal.source, f.source));
   if (f.from) parts.push(gte(deal.createdAt, new Date(`${f.from}T00:00:00Z`)));
   if (f.to) parts.push(lt(deal.createdAt, nextDay(f.to)));
-  if (f.q) {
-    const pattern = `%${escapeLike(f.q)}%`;
-    parts.push(or(like(household.name, pattern), like(household.contactName, pattern), like(household.street, pattern), like(household.city, pattern)) as SQL);
-  }
+  if (f.q) parts.push(searchCondition(f.q));
   return and(...parts) as SQL;
 }
 
@@ -113,7 +142,7 @@ function joinsFor(f: DealTableFilters): { household: boolean; user: boolean } {
  * only where the filter or sort needs it), so the database walks an index and skips over
  * narrow rows; the households and owners are then read for these ids only ("deferred join").
  */
-async function pageIds(member: Member, f: DealTableFilters, limit: number, offset: number): Promise<string[]> {
+async function pageIds(member: Member, f: Scope, limit: number, offset: number): Promise<string[]> {
   if (parseSort(f.sort).column === "owner") return ownerSortedIds(member, f, limit, offset);
   const joins = joinsFor(f);
   let q = db().select({ id: deal.id }).from(deal).$dynamic();
@@ -134,7 +163,7 @@ async function pageIds(member: Member, f: DealTableFilters, limit: number, offse
  * owner first when ascending, as SQL sorts NULL). Owners sharing a name follow each other by
  * user id.
  */
-async function ownerSortedIds(member: Member, f: DealTableFilters, limit: number, offset: number): Promise<string[]> {
+async function ownerSortedIds(member: Member, f: Scope, limit: number, offset: number): Promise<string[]> {
   const ascending = parseSort(f.sort).direction === "asc";
   const present = await db()
     .selectDistinct({ ownerUserId: deal.ownerUserId })
@@ -185,7 +214,7 @@ async function rowsOf(member: Member, ids: string[]): Promise<DealTableRow[]> {
  * company (createLead writes both in one transaction), so without a search the join adds
  * nothing but a lookup per deal.
  */
-async function countMatching(member: Member, f: DealTableFilters, limit: number): Promise<{ total: number; capped: boolean }> {
+async function countMatching(member: Member, f: Scope, limit: number): Promise<{ total: number; capped: boolean }> {
   let q = db().select({ one: sql<number>`1` }).from(deal).$dynamic();
   if (f.q) q = q.innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)));
   const matching = q
@@ -200,8 +229,10 @@ async function countMatching(member: Member, f: DealTableFilters, limit: number)
 /** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
 export async function dealTablePage(member: Member, query: DealTableQuery, countLimit = DEAL_TABLE_COUNT_LIMIT): Promise<DealTablePage> {
   const offset = (query.page - 1) * query.pageSize;
+  const scope = await resolveSearch(member, query);
   // One id more than the page tells whether another page follows, even when the count stops.
-  const [ids, counted] = await Promise.all([pageIds(member, query, query.pageSize + 1, offset), countMatching(member, query, countLimit)]);
+  const limit = query.q ? Math.min(countLimit, DEAL_TABLE_SEARCH_COUNT_LIMIT) : countLimit;
+  const [ids, counted] = await Promise.all([pageIds(member, scope, query.pageSize + 1, offset), countMatching(member, scope, limit)]);
   const hasNextPage = ids.length > query.pageSize;
   return {
     rows: await rowsOf(member, ids.slice(0, query.pageSize)),
@@ -217,8 +248,9 @@ export const EXPORT_CHUNK_ROWS = 1_000;
 
 /** Every row of the filtered view, read from the database 1,000 rows at a time. */
 export async function* dealTableChunks(member: Member, filters: DealTableFilters, chunkRows = EXPORT_CHUNK_ROWS): AsyncGenerator<DealTableRow[]> {
+  const scope = await resolveSearch(member, filters);
   for (let offset = 0; ; offset += chunkRows) {
-    const ids = await pageIds(member, filters, chunkRows, offset);
+    const ids = await pageIds(member, scope, chunkRows, offset);
     if (ids.length > 0) yield await rowsOf(member, ids);
     if (ids.length < chunkRows) return;
   }

@@ -91,6 +91,8 @@ export type DealTableRow = {
  * costs more than the page itself). The CSV export still has every row.
  */
 export const DEAL_TABLE_COUNT_LIMIT = 10_000;
+/** A search reads every household it cannot rule out, so its count stops sooner: a search is for finding a few. */
+export const DEAL_TABLE_SEARCH_COUNT_LIMIT = 1_000;
 
 /**
  * One page. `total` is exact unless `totalCapped`, when more than `total` deals match;

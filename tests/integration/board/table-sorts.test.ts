@@ -141,6 +141,14 @@ describe("deals table page queries", () => {
     }
   });
 
+  it("finds nothing for a search no household matches, and a search's few households by their ids", async () => {
+    const none = await dealTablePage(office, dealTableQuerySchema.parse({ q: "Nowhere-at-all" }));
+    expect(none).toMatchObject({ total: 0, totalCapped: false, hasNextPage: false, rows: [] });
+    const one = await dealTablePage(office, dealTableQuerySchema.parse({ q: "Contact 1234", sort: "household:asc" }));
+    expect(one.rows.map((r) => r.id)).toEqual(await sqlIds("AND h.contact_name LIKE '%Contact 1234%'", [], "household:asc", 50, 0));
+    expect(one.total).toBe(1);
+  });
+
   it("counts up to the limit and then says there are more, while paging on", async () => {
     const capped = await dealTablePage(office, dealTableQuerySchema.parse({ page: "3", pageSize: "50" }), 1_000);
     expect(capped).toMatchObject({ total: 1_000, totalCapped: true, hasNextPage: true });
