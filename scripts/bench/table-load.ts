@@ -130,6 +130,8 @@ async function serve(): Promise<void> {
     })();
   });
   server.keepAliveTimeout = 60_000;
+  // A clean exit on SIGINT, so that `--cpu-prof` can write its profile.
+  process.on("SIGINT", () => process.exit(0));
   server.listen(0, "127.0.0.1", () => {
     const address = server.address();
     if (address && typeof address === "object") console.log(`listening ${address.port}`);
