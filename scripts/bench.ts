@@ -143,10 +143,13 @@ async function main(): Promise<void> {
     "  a core does not inflate.",
     "",
   ].join("\n");
-  // Keep the browser figures written by `npm run bench:deal-room` (scripts/bench/deal-room.ts).
+  // Keep the sections other benchmarks write between their markers: the browser figures of
+  // `npm run bench:deal-room` and the deals table under load (`npm run bench:table`).
   const previous = existsSync(root + "docs/benchmarks.md") ? readFileSync(root + "docs/benchmarks.md", "utf8") : "";
-  const kept = previous.match(/<!-- deal-room:start -->[\s\S]*<!-- deal-room:end -->/)?.[0];
-  writeFileSync(root + "docs/benchmarks.md", kept ? `${md.trimEnd()}\n\n${kept}\n` : md);
+  const kept = ["deal-room", "table-load"]
+    .map((name) => previous.match(new RegExp(`<!-- ${name}:start -->[\\s\\S]*<!-- ${name}:end -->`))?.[0])
+    .filter((section): section is string => Boolean(section));
+  writeFileSync(root + "docs/benchmarks.md", kept.length > 0 ? `${md.trimEnd()}\n\n${kept.join("\n\n")}\n` : md);
   console.log("wrote docs/benchmarks.md");
 }
 

@@ -204,7 +204,12 @@ export const household = mysqlTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index("household_company_idx").on(t.companyId)],
+  (t) => [
+    index("household_company_idx").on(t.companyId),
+    // The deals table sorts by household name and city (scripts/bench/table-load.ts).
+    index("household_company_name_idx").on(t.companyId, t.name),
+    index("household_company_city_idx").on(t.companyId, t.city),
+  ],
 );
 
 export const deal = mysqlTable(
@@ -234,6 +239,10 @@ export const deal = mysqlTable(
     index("deal_owner_idx").on(t.companyId, t.ownerUserId),
     index("deal_company_changed_idx").on(t.companyId, t.stageChangedAt),
     index("deal_company_created_idx").on(t.companyId, t.createdAt),
+    // Sorts and filters of the deals table; without them 100,000 deals time out (docs/benchmarks.md).
+    index("deal_company_contract_idx").on(t.companyId, t.contractCents),
+    index("deal_company_system_idx").on(t.companyId, t.systemDcWatts),
+    index("deal_company_source_idx").on(t.companyId, t.source),
   ],
 );
 
