@@ -553,6 +553,13 @@ async function issueRefund(
     const message = `At most ${formatMoney(remaining, row.currency)} can be refunded on this payment.`;
     throw new HttpError(422, "validation_failed", message, { amountCents: [message] });
   }
+  if (row.checkoutSessionId.startsWith(DEMO_SESSION_PREFIX)) {
+    throw new HttpError(
+      422,
+      "refund_refused",
+      "This deposit is demo history written straight into the ledger; the payment provider has never seen it. Pay a deposit from a customer's page to try a refund.",
+    );
+  }
   let r: Stripe.Refund;
   try {
     r = await stripe().refunds.create(
