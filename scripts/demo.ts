@@ -1,14 +1,17 @@
 // `npm run demo`: MariaDB, the dev outbox and the dev payments server on loopback, migrations,
 // the demo company, a production build, and the app on http://localhost:3000. Ctrl-C stops all of it.
+import { rmSync } from "node:fs";
 import path from "node:path";
 import { instance } from "./lib/instance";
-import { startMariaDb, stopMariaDb } from "./lib/mariadb";
+import { resetDatabase, startMariaDb, stopMariaDb } from "./lib/mariadb";
 import { applyMigrations } from "./lib/migrate";
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "./lib/seed-demo";
 import { buildIfStale, startApp, startMailFake, startPaymentsFake, stopServices, waitForHttp } from "./lib/services";
 import { ROLE_LABELS } from "../src/lib/permissions";
 
 const inst = instance("demo");
+/** `npm run demo -- --fresh` drops the demo's data (database, outbox, payments, files) and seeds it again. */
+const fresh = process.argv.includes("--fresh");
 let stopping = false;
 
 async function shutdown(code: number) {
@@ -25,10 +28,19 @@ process.on("SIGTERM", () => void shutdown(0));
 try {
   console.log(`· MariaDB on 127.0.0.1:${inst.ports.db} (data in ${path.relative(process.cwd(), inst.db.dir)})`);
   await startMariaDb(inst.db);
+  if (fresh) {
+    console.log("· --fresh: dropping the demo's database, outbox, payments and files");
+    resetDatabase(inst.db);
+    for (const dir of [inst.mailDir, inst.paymentsDir, inst.appEnv.STORAGE_DIR]) rmSync(dir, { recursive: true, force: true });
+  }
   await applyMigrations(inst.appEnv.DATABASE_URL);
   process.env.STORAGE_DIR = inst.appEnv.STORAGE_DIR; // seeds store demo files (weather) there
   const seeded = await seedDemo(inst.appEnv.DATABASE_URL);
-  console.log(seeded.created ? "· demo company created" : "· demo company already there");
+  console.log(
+    seeded.created
+      ? "· demo company created"
+      : "· demo company already there (seeded once, kept as you left it; `npm run demo -- --fresh` starts over with this version's demo data)",
+  );
   startMailFake(inst);
   await waitForHttp(`${inst.mailUrl}/health`, "The dev outbox");
   startPaymentsFake(inst);
