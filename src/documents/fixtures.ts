@@ -279,7 +279,7 @@ export function fixtureStamp(signaturePng: Uint8Array, unsignedSha256: string): 
     userAgent:
       "Mozilla/5.0 (iPhone; CPU iPhone OS 19_2 like Mac OS X) AppleWebKit/605.1.15 (KHTML, like Gecko) Version/19.2 Mobile/15E148 Safari/604.1",
     unsignedSha256,
-    proposalLabel: "Proposal 1042-2",
+    proposalLabel: "Proposal P-1042 v2",
     events: [
       { at: at("2026-03-02T15:30:02.000Z"), kind: "sent", detail: "Sent to marisol.ventana@example.com by Dana Whitcombe" },
       { at: at("2026-03-03T00:58:10.000Z"), kind: "opened", detail: "Link opened" },

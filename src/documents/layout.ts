@@ -374,7 +374,7 @@ export function createFlow(pdf: PDFDocument, fonts: DocFonts): Flow {
 export type FrameInfo = {
   companyName: string;
   licenseNumber: string | null;
-  /** Short name of the document, e.g. "Proposal 1042-2", shown at the top of each page. */
+  /** Short name of the document, e.g. "Proposal P-1042 v2", shown at the top of each page. */
   documentLabel: string;
 };
 

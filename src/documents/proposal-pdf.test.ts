@@ -47,7 +47,7 @@ describe("renderProposalPdf (3 offers, sold in the home)", () => {
       expect(all).toContain(formatCents(o.figures.summary.contractCents));
       expect(all).toContain(formatCents(o.figures.summary.netCostCents));
     }
-    expect(all).toContain("Proposal 1042-2");
+    expect(all).toContain("Proposal P-1042 v2");
     expect(all).toContain(snapshot.rep.name);
   });
 

@@ -8,6 +8,7 @@
 // Deterministic: the same snapshot and meta give the same bytes (fixed metadata dates from
 // meta.sentAt, fixed producer and font names, no object streams).
 import { PDFBool, PDFDocument, PDFHexString, PDFName, PDFString, type PDFPage } from "pdf-lib";
+import { proposalLabel as shortProposalLabel } from "@/lib/proposal-snapshot";
 import { formatCents, formatDate } from "@/lib/format";
 import { OFFER_CAUTION } from "@/lib/offer-figures";
 import type { ProposalSnapshot, ProposalSnapshotOffer } from "@/lib/schemas/proposal";
@@ -102,8 +103,9 @@ const signedCents = (c: number) => (c < 0 ? `−${formatCents(-c)}` : formatCent
 const sum = (xs: readonly number[]) => xs.reduce((a, b) => a + b, 0);
 const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
 
+/** "Proposal P-1042 v2": the same number and version the customer's page and e-mails show. */
 export function proposalLabel(meta: Pick<ProposalPdfMeta, "number" | "version">): string {
-  return `Proposal ${meta.number}-${meta.version}`;
+  return `Proposal ${shortProposalLabel(meta.number, meta.version)}`;
 }
 
 function paymentText(o: ProposalSnapshotOffer): string {

@@ -71,7 +71,7 @@ describe("stampSignedPdf", () => {
     expect(cert).toContain("203.0.113.24");
     expect(cert).toContain("Mozilla/5.0 (iPhone;");
     expect(cert).toContain(unsignedSha);
-    expect(cert).toContain("Proposal 1042-2");
+    expect(cert).toContain("Proposal P-1042 v2");
     for (const e of stamp.events) expect(cert).toContain(e.detail);
     expect(cert).toContain("ESIGN");
     expect(cert).toContain("Retention");

@@ -5,6 +5,13 @@ export function formatCents(cents: number | null | undefined): string {
   return cents == null ? "—" : usd.format(Math.round(cents) / 100);
 }
 
+const usdExact = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD", minimumFractionDigits: 2, maximumFractionDigits: 2 });
+/** Money to the cent ("$1,234.50"), for deposits, refunds and receipts; another currency as "12.34 EUR". */
+export function formatCentsExact(cents: number | null | undefined, currency = "usd"): string {
+  if (cents == null) return "—";
+  return currency.toLowerCase() === "usd" ? usdExact.format(cents / 100) : `${(cents / 100).toFixed(2)} ${currency.toUpperCase()}`;
+}
+
 export function formatKwFromWatts(watts: number | null | undefined): string {
   return watts == null ? "—" : `${(watts / 1000).toFixed(2)} kW`;
 }

@@ -1,4 +1,5 @@
 import "server-only";
+import { localIsoDate } from "@/lib/proposal-snapshot";
 import { and, asc, desc, eq, inArray, type SQL } from "drizzle-orm";
 import { fileTypeFromBuffer } from "file-type";
 import ical from "ical-generator";
@@ -92,16 +93,11 @@ async function findJobIdForDeal(tx: Tx, companyId: string, dealId: string): Prom
 
 // ── Dates ────────────────────────────────────────────────────────────────────────────────
 
-/** Today as YYYY-MM-DD in a time zone (the company's): job dates are calendar days there. */
-export function todayIso(now = new Date(), timeZone = "UTC"): string {
-  // en-CA formats a date as YYYY-MM-DD.
-  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(now);
-}
 
 /** Today in the company's time zone (Settings → Company). */
 export async function companyToday(companyId: string, now = new Date()): Promise<string> {
   const { timeZone } = await getCompanySettings(companyId);
-  return todayIso(now, timeZone);
+  return localIsoDate(now, timeZone);
 }
 
 export function addDaysIso(iso: string, days: number): string {

@@ -9,6 +9,8 @@ import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import Stripe from "stripe";
 import { company, deal, household, payment, proposal, refund, user, type PaymentStatus } from "@/db/schema";
 import { env } from "@/env";
+import { formatCentsExact, formatDate } from "@/lib/format";
+import { proposalLabel as shortProposalLabel } from "@/lib/proposal-snapshot";
 import { can } from "@/lib/permissions";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import DepositReceiptEmail from "@emails/deposit-receipt";
@@ -51,19 +53,8 @@ const HOUR_MS = 3_600_000;
  */
 const SESSION_LIFETIME_MS = 23 * HOUR_MS;
 
-const usd = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD", minimumFractionDigits: 2, maximumFractionDigits: 2 });
-/** Deposit and refund amounts are shown to the cent ("$1,234.50"). */
-export function formatMoney(cents: number | null | undefined, currency: string = DEPOSIT_CURRENCY): string {
-  if (cents == null) return "—";
-  const text = usd.format(cents / 100);
-  return currency.toLowerCase() === DEPOSIT_CURRENCY ? text : `${(cents / 100).toFixed(2)} ${currency.toUpperCase()}`;
-}
 
-const dayFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" });
-
-export function proposalLabel(p: { number: number; version: number }): string {
-  return `P-${p.number} v${p.version}`;
-}
+export const proposalLabelOf = (p: { number: number; version: number }): string => shortProposalLabel(p.number, p.version);
 
 function snapshotOf(p: { snapshot: unknown }): ProposalSnapshot {
   return jsonValue(p.snapshot) as ProposalSnapshot;
@@ -152,7 +143,7 @@ export async function startDepositCheckout(token: string): Promise<{ url: string
         line_items: [
           {
             quantity: 1,
-            price_data: { currency: DEPOSIT_CURRENCY, unit_amount: amountCents, product_data: { name: `Deposit — proposal ${proposalLabel(p)}` } },
+            price_data: { currency: DEPOSIT_CURRENCY, unit_amount: amountCents, product_data: { name: `Deposit — proposal ${proposalLabelOf(p)}` } },
           },
         ],
         customer_email: p.signerEmail ?? p.sentToEmail,
@@ -180,7 +171,7 @@ export async function startDepositCheckout(token: string): Promise<{ url: string
       companyId: p.companyId,
       dealId: p.dealId,
       kind: "deposit.checkout",
-      summary: `Customer opened the deposit checkout (${formatMoney(amountCents)}, proposal ${proposalLabel(p)})`,
+      summary: `Customer opened the deposit checkout (${formatCentsExact(amountCents)}, proposal ${proposalLabelOf(p)})`,
       actorUserId: null,
       data: { paymentId, checkoutSessionId: session.id, attempt },
     });
@@ -230,13 +221,13 @@ export async function depositForProposal(
   return {
     status: row ? row.status : "due",
     amountCents,
-    amountText: formatMoney(amountCents),
+    amountText: formatCentsExact(amountCents),
     paidCents: row?.paidCents ?? null,
-    paidText: row?.paidCents != null ? formatMoney(row.paidCents, row.currency) : null,
+    paidText: row?.paidCents != null ? formatCentsExact(row.paidCents, row.currency) : null,
     paidAt: row?.paidAt?.toISOString() ?? null,
-    paidOnText: row?.paidAt ? dayFmt.format(row.paidAt) : null,
+    paidOnText: row?.paidAt ? formatDate(row.paidAt) : null,
     refundedCents: row?.refundedCents ?? 0,
-    refundedText: formatMoney(row?.refundedCents ?? 0),
+    refundedText: formatCentsExact(row?.refundedCents ?? 0),
     failureMessage: row?.status === "failed" ? (row.failureMessage ?? "The payment did not go through.") : null,
     canPay: !cancelled && (!row || !BOOKED_STATUSES.includes(row.status)),
   };
@@ -295,7 +286,7 @@ export async function bookPayment(tx: Tx, row: PaymentRow, reported: Reported, r
   const currency = reported.currency?.toLowerCase() ?? null;
   const ids = { paymentIntentId: reported.paymentIntentId ?? row.paymentIntentId, chargeId: reported.chargeId ?? row.chargeId };
   const mismatch: string[] = [];
-  if (reported.amountCents !== row.amountCents) mismatch.push(`paid ${formatMoney(reported.amountCents, currency ?? row.currency)} but the deposit is ${formatMoney(row.amountCents, row.currency)}`);
+  if (reported.amountCents !== row.amountCents) mismatch.push(`paid ${formatCentsExact(reported.amountCents, currency ?? row.currency)} but the deposit is ${formatCentsExact(row.amountCents, row.currency)}`);
   if (currency !== row.currency) mismatch.push(`currency ${currency?.toUpperCase() ?? "missing"} instead of ${row.currency.toUpperCase()}`);
 
   if (mismatch.length > 0) {
@@ -327,7 +318,7 @@ export async function bookPayment(tx: Tx, row: PaymentRow, reported: Reported, r
       companyId: row.companyId,
       dealId: row.dealId,
       kind: "deposit.paid",
-      summary: `Deposit of ${formatMoney(row.amountCents, row.currency)} paid after the agreement was cancelled; it is refunded in full`,
+      summary: `Deposit of ${formatCentsExact(row.amountCents, row.currency)} paid after the agreement was cancelled; it is refunded in full`,
       actorUserId: null,
       data: { paymentId: row.id, ...ids, afterCancellation: true },
     });
@@ -341,7 +332,7 @@ export async function bookPayment(tx: Tx, row: PaymentRow, reported: Reported, r
     companyId: row.companyId,
     dealId: row.dealId,
     kind: "deposit.paid",
-    summary: `Deposit of ${formatMoney(row.amountCents, row.currency)} paid by card (${ids.paymentIntentId ?? row.checkoutSessionId})`,
+    summary: `Deposit of ${formatCentsExact(row.amountCents, row.currency)} paid by card (${ids.paymentIntentId ?? row.checkoutSessionId})`,
     actorUserId: null,
     data: { paymentId: row.id, ...ids },
   });
@@ -350,7 +341,7 @@ export async function bookPayment(tx: Tx, row: PaymentRow, reported: Reported, r
     dealId: row.dealId,
     from: ["signed"],
     to: "deposit_paid",
-    summary: `Deposit of ${formatMoney(row.amountCents, row.currency)} received: moved to Deposit paid`,
+    summary: `Deposit of ${formatCentsExact(row.amountCents, row.currency)} received: moved to Deposit paid`,
     data: { paymentId: row.id },
   });
   await createJobForDeal(tx, { companyId: row.companyId, dealId: row.dealId, proposalId: row.proposalId });
@@ -409,7 +400,7 @@ async function syncRefundsFromProvider(tx: Tx, row: PaymentRow): Promise<number>
         companyId: row.companyId,
         dealId: row.dealId,
         kind: "deposit.refunded",
-        summary: `Refund of ${formatMoney(r.amount, r.currency)} recorded from the payment provider: ${reason}`.slice(0, 500),
+        summary: `Refund of ${formatCentsExact(r.amount, r.currency)} recorded from the payment provider: ${reason}`.slice(0, 500),
         actorUserId: null,
         data: { paymentId: row.id, stripeRefundId: r.id },
       });
@@ -550,7 +541,7 @@ async function issueRefund(
   const remaining = refundableCents(row);
   if (remaining === 0) throw new HttpError(409, "not_refundable", "Only a paid deposit with money left on it can be refunded.");
   if (amountCents > remaining) {
-    const message = `At most ${formatMoney(remaining, row.currency)} can be refunded on this payment.`;
+    const message = `At most ${formatCentsExact(remaining, row.currency)} can be refunded on this payment.`;
     throw new HttpError(422, "validation_failed", message, { amountCents: [message] });
   }
   if (row.checkoutSessionId.startsWith(DEMO_SESSION_PREFIX)) {
@@ -600,7 +591,7 @@ async function issueRefund(
         companyId: row.companyId,
         dealId: row.dealId,
         kind: "deposit.refunded",
-        summary: `${actor ? actor.name : "Kilowright"} refunded ${formatMoney(r.amount, row.currency)} of the deposit: ${reason}`.slice(0, 500),
+        summary: `${actor ? actor.name : "Kilowright"} refunded ${formatCentsExact(r.amount, row.currency)} of the deposit: ${reason}`.slice(0, 500),
         actorUserId: actor?.userId ?? null,
         data: { paymentId: row.id, stripeRefundId: r.id, amountCents: r.amount },
       });
@@ -691,17 +682,17 @@ export async function sendDepositReceipt(paymentId: string, idempotencyKey: stri
   const offer = chosenOffer(c.prop);
   await sendEmail({
     to: c.to,
-    subject: `Deposit received: ${formatMoney(c.p.paidCents, c.p.currency)} — ${c.companyName}`,
+    subject: `Deposit received: ${formatCentsExact(c.p.paidCents, c.p.currency)} — ${c.companyName}`,
     react: createElement(DepositReceiptEmail, {
       customerName: c.name,
       companyName: c.companyName,
-      amount: formatMoney(c.p.paidCents, c.p.currency),
-      paidOn: c.p.paidAt ? dayFmt.format(c.p.paidAt) : dayFmt.format(new Date()),
-      proposalLabel: proposalLabel(c.prop),
+      amount: formatCentsExact(c.p.paidCents, c.p.currency),
+      paidOn: c.p.paidAt ? formatDate(c.p.paidAt) : formatDate(new Date()),
+      proposalLabel: proposalLabelOf(c.prop),
       offerName: offer?.name ?? "your chosen offer",
-      contractPrice: formatMoney(offer?.figures?.summary?.contractCents ?? null),
+      contractPrice: formatCentsExact(offer?.figures?.summary?.contractCents ?? null),
       reference: c.p.chargeId ?? c.p.paymentIntentId ?? c.p.checkoutSessionId,
-      cancelUntil: c.prop.inHomeSale && c.prop.cancelDeadline && !c.prop.cancelledAt ? dayFmt.format(new Date(`${c.prop.cancelDeadline}T12:00:00Z`)) : null,
+      cancelUntil: c.prop.inHomeSale && c.prop.cancelDeadline && !c.prop.cancelledAt ? formatDate(new Date(`${c.prop.cancelDeadline}T12:00:00Z`)) : null,
       repName: snapshotOf(c.prop).rep.name,
       repEmail: snapshotOf(c.prop).rep.email,
     }),
@@ -738,15 +729,15 @@ async function sendRefundNotice(r: RefundRow): Promise<void> {
   const paid = c.p.paidCents ?? 0;
   await sendEmail({
     to: c.to,
-    subject: `Refund of ${formatMoney(r.amountCents, c.p.currency)} — ${c.companyName}`,
+    subject: `Refund of ${formatCentsExact(r.amountCents, c.p.currency)} — ${c.companyName}`,
     react: createElement(RefundIssuedEmail, {
       customerName: c.name,
       companyName: c.companyName,
-      amount: formatMoney(r.amountCents, c.p.currency),
-      paid: formatMoney(paid, c.p.currency),
-      remaining: formatMoney(Math.max(0, paid - c.p.refundedCents), c.p.currency),
+      amount: formatCentsExact(r.amountCents, c.p.currency),
+      paid: formatCentsExact(paid, c.p.currency),
+      remaining: formatCentsExact(Math.max(0, paid - c.p.refundedCents), c.p.currency),
       reason: r.reason,
-      proposalLabel: proposalLabel(c.prop),
+      proposalLabel: proposalLabelOf(c.prop),
       reference: r.stripeRefundId,
       repName: c.snapshot.rep.name,
       repEmail: c.snapshot.rep.email,
@@ -838,7 +829,7 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
         ledgerId: null,
         providerId: s.id,
         dealId: s.metadata?.dealId ?? null,
-        detail: `Checkout Session for ${formatMoney(s.amount_total, s.currency ?? DEPOSIT_CURRENCY)} (${state.replace("_", " ")}) has no ledger row.`,
+        detail: `Checkout Session for ${formatCentsExact(s.amount_total, s.currency ?? DEPOSIT_CURRENCY)} (${state.replace("_", " ")}) has no ledger row.`,
       });
       continue;
     }
@@ -847,7 +838,7 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
       differences.push({
         ...base,
         kind: "amount",
-        detail: `Asked ${formatMoney(s.amount_total, s.currency ?? row.currency)} at the provider, ${formatMoney(row.amountCents, row.currency)} in the ledger.`,
+        detail: `Asked ${formatCentsExact(s.amount_total, s.currency ?? row.currency)} at the provider, ${formatCentsExact(row.amountCents, row.currency)} in the ledger.`,
       });
     }
     const booked = BOOKED_STATUSES.includes(row.status);
@@ -867,7 +858,7 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
         differences.push({
           ...base,
           kind: "amount",
-          detail: `Refunded ${formatMoney(providerRefunded, row.currency)} at the provider, ${formatMoney(row.refundedCents, row.currency)} in the ledger.`,
+          detail: `Refunded ${formatCentsExact(providerRefunded, row.currency)} at the provider, ${formatCentsExact(row.refundedCents, row.currency)} in the ledger.`,
         });
       }
     }
@@ -881,7 +872,7 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
       ledgerId: row.id,
       providerId: row.checkoutSessionId,
       dealId: row.dealId,
-      detail: `Ledger payment of ${formatMoney(row.amountCents, row.currency)} (${row.status}) has no Checkout Session at the provider.`,
+      detail: `Ledger payment of ${formatCentsExact(row.amountCents, row.currency)} (${row.status}) has no Checkout Session at the provider.`,
     });
   }
 
@@ -897,13 +888,13 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
         ledgerId: null,
         providerId: r.id,
         dealId: s?.metadata?.dealId ?? null,
-        detail: `Refund of ${formatMoney(r.amount, r.currency)} (${r.status}) is not in the ledger.`,
+        detail: `Refund of ${formatCentsExact(r.amount, r.currency)} (${r.status}) is not in the ledger.`,
       });
       continue;
     }
     const base = { object: "refund" as const, ledgerId: row.id, providerId: r.id, dealId: row.dealId };
     if (r.amount !== row.amountCents) {
-      differences.push({ ...base, kind: "amount", detail: `Refunded ${formatMoney(r.amount, r.currency)} at the provider, ${formatMoney(row.amountCents)} in the ledger.` });
+      differences.push({ ...base, kind: "amount", detail: `Refunded ${formatCentsExact(r.amount, r.currency)} at the provider, ${formatCentsExact(row.amountCents)} in the ledger.` });
     }
     if ((r.status ?? "") !== row.status) differences.push({ ...base, kind: "state", detail: `${r.status} at the provider, ${row.status} in the ledger.` });
   }
@@ -917,7 +908,7 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
       ledgerId: row.id,
       providerId: row.stripeRefundId,
       dealId: row.dealId,
-      detail: `Ledger refund of ${formatMoney(row.amountCents, p?.currency)} is not at the provider.`,
+      detail: `Ledger refund of ${formatCentsExact(row.amountCents, p?.currency)} is not at the provider.`,
     });
   }
 

@@ -1,8 +1,9 @@
 import "server-only";
+import { localIsoDate } from "@/lib/proposal-snapshot";
+import { addDaysIso } from "@/server/jobs";
 import { and, asc, count, desc, eq, gt, gte, isNotNull, isNull, lte, ne, notInArray, or, sql, sum, type SQL } from "drizzle-orm";
 import { deal, household, job, membership, payment, proposal, proposalEvent, STAGES, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
-import type { CompanyTimeZone } from "@/lib/schemas/company-settings";
 import { getCompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
 import type { Member } from "@/server/session";
@@ -58,17 +59,6 @@ export type TodayQueues = {
   crew: { crewId: string | null; today: CrewVisit[]; thisWeek: CrewVisit[] } | null;
 };
 
-/** The calendar day (YYYY-MM-DD) at `now` in a time zone. */
-export function dayIn(timeZone: CompanyTimeZone | string, now = new Date()): string {
-  // en-CA formats dates as YYYY-MM-DD.
-  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(now);
-}
-
-export function addDays(isoDay: string, n: number): string {
-  const d = new Date(`${isoDay}T00:00:00Z`);
-  d.setUTCDate(d.getUTCDate() + n);
-  return d.toISOString().slice(0, 10);
-}
 
 const householdJoin = and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId));
 
@@ -305,7 +295,7 @@ async function crewOf(member: Member): Promise<string | null> {
  */
 export async function getTodayQueues(member: Member, now = new Date()): Promise<TodayQueues> {
   const settings = await getCompanySettings(member.companyId);
-  const today = dayIn(settings.timeZone, now);
+  const today = localIsoDate(now, settings.timeZone);
   const seller = can(member.role, "deals:read-own");
   const office = can(member.role, "deals:read-all");
   const isCrew = member.role === "crew";
@@ -328,7 +318,7 @@ export async function getTodayQueues(member: Member, now = new Date()): Promise<
       ? (async () => {
           const crewId = await crewOf(member);
           if (!crewId) return { crewId: null, today: [], thisWeek: [] };
-          const visits = await crewVisits(member, crewId, today, addDays(today, 6));
+          const visits = await crewVisits(member, crewId, today, addDaysIso(today, 6));
           return { crewId, today: visits.filter((v) => v.date === today), thisWeek: visits.filter((v) => v.date !== today) };
         })()
       : null,

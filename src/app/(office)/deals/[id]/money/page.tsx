@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
-import { formatDateTime } from "@/lib/format";
+import { formatCentsExact, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
-import { formatMoney, listDealPayments, refundableCents } from "@/server/payments";
+import { proposalLabel } from "@/lib/proposal-snapshot";
+import { listDealPayments, refundableCents } from "@/server/payments";
 import { getMember } from "@/server/session";
 import { MoneyClient, type PaymentView } from "./money-client";
 
@@ -17,12 +18,12 @@ export default async function MoneyTab({ params }: { params: Promise<{ id: strin
   const views: PaymentView[] = payments.map((p) => ({
     id: p.id,
     status: p.status,
-    proposalLabel: `P-${p.proposalNumber} v${p.proposalVersion}`,
-    amountText: formatMoney(p.amountCents, p.currency),
-    paidText: p.paidCents == null ? null : formatMoney(p.paidCents, p.currency),
-    refundedText: formatMoney(p.refundedCents, p.currency),
+    proposalLabel: proposalLabel(p.proposalNumber, p.proposalVersion),
+    amountText: formatCentsExact(p.amountCents, p.currency),
+    paidText: p.paidCents == null ? null : formatCentsExact(p.paidCents, p.currency),
+    refundedText: formatCentsExact(p.refundedCents, p.currency),
     refundableCents: refundableCents(p),
-    refundableText: formatMoney(refundableCents(p), p.currency),
+    refundableText: formatCentsExact(refundableCents(p), p.currency),
     paidAtText: p.paidAt ? formatDateTime(p.paidAt) : null,
     createdAtText: formatDateTime(p.createdAt),
     checkoutSessionId: p.checkoutSessionId,
@@ -32,7 +33,7 @@ export default async function MoneyTab({ params }: { params: Promise<{ id: strin
     failureMessage: p.failureMessage,
     refunds: p.refunds.map((r) => ({
       id: r.id,
-      amountText: formatMoney(r.amountCents, p.currency),
+      amountText: formatCentsExact(r.amountCents, p.currency),
       reason: r.reason,
       status: r.status,
       stripeRefundId: r.stripeRefundId,
