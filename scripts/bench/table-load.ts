@@ -10,6 +10,9 @@
  * withMember (the same indexed queries), the query-string schema, dealTablePage (rows and total
  * in SQL) and the `{ data }` JSON — on the app's own pool (10 connections).
  *
+ * While the load runs, one deal changes stage every 5 s (--write-every-ms=<ms>), as when others
+ * work in the same company: each change makes a new deals revision, so the pages the handler
+ * keeps in memory stop being served and are read from the database again.
  * Options: --duration=<s> (default 12), --connections=<n> (default 50), --keep (leave MariaDB
  * running), --proposed-indexes (also create the indexes of PROPOSED_INDEXES after the migrations,
  * to measure them before they become a migration; the figures say so), TABLE_BENCH_DB_PORT
@@ -33,6 +36,8 @@ const arg = (name: string) => process.argv.find((a) => a.startsWith(`--${name}=`
 const DURATION_S = Number(arg("duration") ?? 12);
 const CONNECTIONS = Number(arg("connections") ?? 50);
 const WARMUP_S = 3;
+/** Someone in the office changes a deal this often during the load (each change starts a new revision). */
+const WRITE_EVERY_MS = Number(arg("write-every-ms") ?? 5_000);
 const CASES = [10_000, 100_000];
 /** A second company's deals, so that every query has to keep to its tenant. */
 const OTHER_COMPANY_DEALS = 5_000;
@@ -81,25 +86,21 @@ const dbEnv = (port: number) => ({
 
 async function serve(): Promise<void> {
   // Imported here: these modules need the react-server condition and the environment above.
-  const { and, eq } = await import("drizzle-orm");
-  const { company, membership, session, user } = await import("../../src/db/schema");
+  const { eq } = await import("drizzle-orm");
+  const { session, user } = await import("../../src/db/schema");
+  const { activeMembership } = await import("../../src/server/session");
   const { dealTableQuerySchema, searchParamsObject } = await import("../../src/lib/schemas/deal-table");
   const { dealTablePage } = await import("../../src/server/deal-table");
   const { db } = await import("../../src/server/db");
   type Member = import("../../src/server/session").Member;
 
-  /** What withMember costs before the handler: the session by token, its user, the membership with its company. */
+  /** What withMember costs before the handler: better-auth's session and user look-ups, then the app's own membership query. */
   async function memberFor(token: string): Promise<Member | null> {
     const [s] = await db().select().from(session).where(eq(session.token, token)).limit(1);
     if (!s || s.expiresAt < new Date()) return null;
     const [u] = await db().select().from(user).where(eq(user.id, s.userId)).limit(1);
     if (!u) return null;
-    const [row] = await db()
-      .select({ membershipId: membership.id, companyId: membership.companyId, role: membership.role, companyName: company.name })
-      .from(membership)
-      .innerJoin(company, eq(company.id, membership.companyId))
-      .where(and(eq(membership.userId, u.id), eq(membership.status, "active")))
-      .limit(1);
+    const row = await activeMembership(u.id);
     return row ? { userId: u.id, name: u.name, email: u.email, ...row } : null;
   }
 
@@ -253,6 +254,31 @@ function requestMix() {
   ];
 }
 
+/**
+ * Another person's work during the load: every WRITE_EVERY_MS one deal of the company moves
+ * to another stage (the revision triggers fire, so cached pages stop being served and the next
+ * requests read the database again). Returns how many changes were made.
+ */
+function startWriter(conn: mysql.Connection, deals: number): { stop(): Promise<number> } {
+  let writes = 0;
+  let pending: Promise<unknown> = Promise.resolve();
+  const rand = rng(deals);
+  const timer = setInterval(() => {
+    const i = Math.floor(rand() * deals);
+    const stage = STAGES[Math.floor(rand() * STAGES.length)];
+    pending = conn
+      .query("UPDATE deal SET stage = ?, stage_changed_at = CURRENT_TIMESTAMP(3) WHERE id = ? AND company_id = ?", [stage, seqId(2, 1, i), COMPANY_ID])
+      .then(() => writes++);
+  }, WRITE_EVERY_MS);
+  return {
+    async stop() {
+      clearInterval(timer);
+      await pending;
+      return writes;
+    },
+  };
+}
+
 const percentile = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil(p * sorted.length) - 1))];
 
 async function load(url: string, seconds: number) {
@@ -361,10 +387,12 @@ async function main(): Promise<void> {
       const single = await singleTimes(server.url);
       await load(server.url, WARMUP_S);
       const startLoad = loadavg()[0];
+      const writer = startWriter(conn, target);
       const r = await load(server.url, DURATION_S);
-      results.push({ deals: target, loadAverage1m: startLoad, ...r, single });
+      const writes = await writer.stop();
+      results.push({ deals: target, loadAverage1m: startLoad, writes, ...r, single });
       console.log(
-        `  ${CONNECTIONS} connections, ${DURATION_S} s: ${r.requests} requests (${r.rps.toFixed(0)}/s), p50 ${r.p50?.toFixed(1)} ms, p95 ${r.p95?.toFixed(1)} ms, p99 ${r.p99?.toFixed(1)} ms, max ${r.max?.toFixed(1)} ms; errors ${r.errors}, timeouts ${r.timeouts}, non-2xx ${r.non2xx} (load average ${startLoad.toFixed(2)})`,
+        `  ${CONNECTIONS} connections, ${DURATION_S} s, ${writes} deal changes: ${r.requests} requests (${r.rps.toFixed(0)}/s), p50 ${r.p50?.toFixed(1)} ms, p95 ${r.p95?.toFixed(1)} ms, p99 ${r.p99?.toFixed(1)} ms, max ${r.max?.toFixed(1)} ms; errors ${r.errors}, timeouts ${r.timeouts}, non-2xx ${r.non2xx} (load average ${startLoad.toFixed(2)})`,
       );
       console.log(`  one request alone (best of 3): ${single.map((s) => `${s.ms.toFixed(0)} ms ${s.path}`).join("; ")}`);
     }
@@ -374,14 +402,14 @@ async function main(): Promise<void> {
     if (!process.argv.includes("--keep")) await stopMariaDb(cfg);
   }
 
-  type Row = { deals: number; requests: number; p50?: number; p95?: number; p99?: number; errors: number; timeouts: number; non2xx: number };
+  type Row = { deals: number; writes: number; requests: number; p50?: number; p95?: number; p99?: number; errors: number; timeouts: number; non2xx: number };
   const [small, big] = results as Row[];
   // With no answer within autocannon's 10 s timeout there is no percentile: the ratio is then unknown.
   const ms = (v: number | undefined) => (v === undefined ? "none answered" : v.toFixed(1));
   const ratio = big.p95 !== undefined && small.p95 !== undefined ? big.p95 / small.p95 : Number.NaN;
   const lines = [
     "",
-    `Deals table route handler, ${CONNECTIONS} connections × ${DURATION_S} s per case (autocannon), ${cpus().length} × ${cpus()[0]?.model.trim()}, Node ${process.version}, schema: migrations${WITH_PROPOSED ? " + proposed indexes" : ""}:`,
+    `Deals table route handler, ${CONNECTIONS} connections × ${DURATION_S} s per case (autocannon), a deal changed every ${WRITE_EVERY_MS / 1000} s, ${cpus().length} × ${cpus()[0]?.model.trim()}, Node ${process.version}, schema: migrations${WITH_PROPOSED ? " + proposed indexes" : ""}:`,
     "| deals | p50 ms | p95 ms | p99 ms | answered | errors + timeouts | goal p95 ≤ 100 ms |",
     "|---:|---:|---:|---:|---:|---:|:-:|",
     ...[small, big].map(
@@ -393,7 +421,7 @@ async function main(): Promise<void> {
   console.log(lines.join("\n"));
   writeFileSync(
     path.join(dataDir, WITH_PROPOSED ? "results-proposed-indexes.json" : "results.json"),
-    JSON.stringify({ at: new Date().toISOString(), connections: CONNECTIONS, durationS: DURATION_S, proposedIndexes: WITH_PROPOSED, results, ratio }, null, 2),
+    JSON.stringify({ at: new Date().toISOString(), connections: CONNECTIONS, durationS: DURATION_S, writeEveryMs: WRITE_EVERY_MS, proposedIndexes: WITH_PROPOSED, results, ratio }, null, 2),
   );
 }
 

@@ -3,6 +3,7 @@
 // belongs to a company carries `company_id`, and every query filters on it.
 import { sql } from "drizzle-orm";
 import {
+  bigint,
   boolean,
   date,
   datetime,
@@ -245,6 +246,20 @@ export const deal = mysqlTable(
     index("deal_company_source_idx").on(t.companyId, t.source),
   ],
 );
+
+/**
+ * A counter per company that grows with every change a deals list could show: database
+ * triggers (drizzle/0004_deals-revision.sql) bump it when a deal is added, changed or removed,
+ * when a household's name, contact, street or city changes and when a deal owner's name
+ * changes, in the writer's own transaction. Readers key cached pages of the deals table by it
+ * (src/server/deal-table.ts), so no write path can forget to invalidate them.
+ */
+export const dealsRevision = mysqlTable("deals_revision", {
+  companyId: id("company_id")
+    .primaryKey()
+    .references(() => company.id, { onDelete: "cascade" }),
+  revision: bigint("revision", { mode: "number", unsigned: true }).notNull().default(0),
+});
 
 // ── The rep's workspace: energy, catalog, price book, rate plans, weather, design, offers ──
 
@@ -823,6 +838,7 @@ export const schema = {
   signInFailure,
   household,
   deal,
+  dealsRevision,
   upload,
   bill,
   intervalProfile,

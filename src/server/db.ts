@@ -6,8 +6,9 @@ import { schema } from "@/db/schema";
 
 export type Db = MySql2Database<typeof schema>;
 
-// One pool per process. The app keeps no other state in memory: after a database restart
-// the pool simply opens new connections on the next query.
+// One pool per process. The app keeps no other state in memory than caches keyed by a
+// revision read from the database (the deals table's pages): after a database restart the
+// pool simply opens new connections on the next query, and any process may serve any request.
 const globalForDb = globalThis as unknown as { kilowrightPool?: mysql.Pool; kilowrightDb?: Db };
 
 export function pool(): mysql.Pool {

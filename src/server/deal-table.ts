@@ -1,8 +1,9 @@
 import "server-only";
 import { and, asc, count, desc, eq, gte, inArray, isNull, like, lt, or, sql, type SQL } from "drizzle-orm";
 import type { AnyMySqlColumn } from "drizzle-orm/mysql-core";
+import { LRUCache } from "lru-cache";
 import type { z } from "zod";
-import { deal, household, membership, user } from "@/db/schema";
+import { deal, dealsRevision, household, membership, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import {
   DEAL_TABLE_COUNT_LIMIT,
@@ -226,8 +227,8 @@ async function countMatching(member: Member, f: Scope, limit: number): Promise<{
   return total > limit ? { total: limit, capped: true } : { total, capped: false };
 }
 
-/** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
-export async function dealTablePage(member: Member, query: DealTableQuery, countLimit = DEAL_TABLE_COUNT_LIMIT): Promise<DealTablePage> {
+/** One page read from the database: the ids in SQL order, their rows, and the total. */
+async function readPage(member: Member, query: DealTableQuery, countLimit: number): Promise<DealTablePage> {
   const offset = (query.page - 1) * query.pageSize;
   const scope = await resolveSearch(member, query);
   // One id more than the page tells whether another page follows, even when the count stops.
@@ -242,6 +243,57 @@ export async function dealTablePage(member: Member, query: DealTableQuery, count
     page: query.page,
     pageSize: query.pageSize,
   };
+}
+
+// ── Pages kept in memory, keyed by the company's deals revision ──
+
+/**
+ * The company's deals revision (the deals_revision table, bumped by triggers in every writer's
+ * transaction: drizzle/0004_deals-revision.sql). Read before the page, so a page stored under
+ * revision r holds data at least as new as r; any later change makes r + 1 and a new key.
+ */
+async function revisionOf(companyId: string): Promise<number> {
+  revisionQuery ??= prepareRevisionQuery();
+  const [row] = await revisionQuery.execute({ companyId });
+  return row?.revision ?? 0;
+}
+function prepareRevisionQuery() {
+  return db()
+    .select({ revision: dealsRevision.revision })
+    .from(dealsRevision)
+    .where(eq(dealsRevision.companyId, sql.placeholder("companyId")))
+    .limit(1)
+    .prepare();
+}
+let revisionQuery: ReturnType<typeof prepareRevisionQuery> | undefined;
+
+type PageRequest = { member: Member; query: DealTableQuery; countLimit: number };
+
+/**
+ * Recently read pages. Offices open the same views again and again (the default sort, a saved
+ * view, page 2 and back), and counting up to DEAL_TABLE_COUNT_LIMIT rows costs more than the
+ * page itself; a page is served from here until the company's next change. fetch() runs one
+ * read for concurrent requests of the same key. Bounded by the rows held (≈ 300 bytes each).
+ */
+const pageCache = new LRUCache<string, DealTablePage, PageRequest>({
+  maxSize: 100_000,
+  sizeCalculation: (page) => page.rows.length + 1,
+  fetchMethod: (_key, _stale, { context }) => readPage(context.member, context.query, context.countLimit),
+});
+
+/** Whose deals a page shows: the company's for office roles, one rep's own otherwise (visibleTo). */
+const audience = (member: Member) => (can(member.role, "deals:read-all") ? "company" : `own:${member.userId}`);
+
+function pageKey(member: Member, q: DealTableQuery, countLimit: number, revision: number): string {
+  return JSON.stringify([member.companyId, audience(member), revision, countLimit, q.page, q.pageSize, q.sort, q.stage, q.owner, q.source, q.q, q.from, q.to]);
+}
+
+/** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
+export async function dealTablePage(member: Member, query: DealTableQuery, countLimit = DEAL_TABLE_COUNT_LIMIT): Promise<DealTablePage> {
+  const revision = await revisionOf(member.companyId);
+  const page = await pageCache.fetch(pageKey(member, query, countLimit, revision), { context: { member, query, countLimit } });
+  if (!page) throw new Error("The deals table page could not be read.");
+  return page;
 }
 
 export const EXPORT_CHUNK_ROWS = 1_000;

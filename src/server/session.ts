@@ -1,5 +1,5 @@
 import "server-only";
-import { and, eq } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import { headers } from "next/headers";
 import { cache } from "react";
 import { company, membership, type Role } from "@/db/schema";
@@ -25,11 +25,8 @@ export type Member = {
   role: Role;
 };
 
-/** The signed-in, active member of this request, or null. */
-export const getMember = cache(async (): Promise<Member | null> => {
-  const s = await getSession();
-  if (!s) return null;
-  const [row] = await db()
+function prepareMembershipQuery() {
+  return db()
     .select({
       membershipId: membership.id,
       companyId: membership.companyId,
@@ -38,8 +35,27 @@ export const getMember = cache(async (): Promise<Member | null> => {
     })
     .from(membership)
     .innerJoin(company, eq(company.id, membership.companyId))
-    .where(and(eq(membership.userId, s.user.id), eq(membership.status, "active")))
-    .limit(1);
+    .where(and(eq(membership.userId, sql.placeholder("userId")), eq(membership.status, "active")))
+    .limit(1)
+    .prepare();
+}
+let membershipQuery: ReturnType<typeof prepareMembershipQuery> | undefined;
+
+/**
+ * A person's active membership with its company, or null (deactivated or none). Every request
+ * of a signed-in person asks, so the query is built once per process and only its value bound.
+ */
+export async function activeMembership(userId: string) {
+  membershipQuery ??= prepareMembershipQuery();
+  const [row] = await membershipQuery.execute({ userId });
+  return row ?? null;
+}
+
+/** The signed-in, active member of this request, or null. */
+export const getMember = cache(async (): Promise<Member | null> => {
+  const s = await getSession();
+  if (!s) return null;
+  const row = await activeMembership(s.user.id);
   if (!row) return null;
   return { userId: s.user.id, name: s.user.name, email: s.user.email, ...row };
 });
