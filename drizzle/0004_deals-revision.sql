@@ -1,12 +1,14 @@
 CREATE TABLE `deals_revision` (
 	`company_id` varchar(36) NOT NULL,
 	`revision` bigint unsigned NOT NULL DEFAULT 0,
+	`households` bigint unsigned NOT NULL DEFAULT 0,
 	CONSTRAINT `deals_revision_company_id` PRIMARY KEY(`company_id`)
 );
 --> statement-breakpoint
-ALTER TABLE `deals_revision` ADD CONSTRAINT `deals_revision_company_id_company_id_fk` FOREIGN KEY (`company_id`) REFERENCES `company`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE `deals_revision` ADD CONSTRAINT `deals_revision_company_id_company_id_fk` FOREIGN KEY (`company_id`) REFERENCES `company`(`id`) ON DELETE cascade ON UPDATE no action;
+--> statement-breakpoint
 -- Every company starts with a revision, so that a user's rename below finds its row.
-INSERT INTO `deals_revision` (`company_id`, `revision`) SELECT `id`, 1 FROM `company`;
+INSERT INTO `deals_revision` (`company_id`, `revision`, `households`) SELECT `id`, 1, 1 FROM `company`;
 --> statement-breakpoint
 -- The triggers bump the company's revision inside the writer's transaction. MariaDB fires no
 -- trigger for foreign-key cascades, so the parents that cascade into deals (household, user)
@@ -33,14 +35,18 @@ END;
 CREATE TRIGGER `deal_revision_delete` AFTER DELETE ON `deal` FOR EACH ROW
   UPDATE `deals_revision` SET `revision` = `revision` + 1 WHERE `company_id` = OLD.`company_id`;
 --> statement-breakpoint
+CREATE TRIGGER `household_revision_insert` AFTER INSERT ON `household` FOR EACH ROW
+  INSERT INTO `deals_revision` (`company_id`, `revision`, `households`) VALUES (NEW.`company_id`, 1, 1)
+  ON DUPLICATE KEY UPDATE `revision` = `revision` + 1, `households` = `households` + 1;
+--> statement-breakpoint
 CREATE TRIGGER `household_revision_update` AFTER UPDATE ON `household` FOR EACH ROW
-  UPDATE `deals_revision` SET `revision` = `revision` + 1
+  UPDATE `deals_revision` SET `revision` = `revision` + 1, `households` = `households` + 1
   WHERE `company_id` IN (OLD.`company_id`, NEW.`company_id`)
     AND NOT (OLD.`company_id` <=> NEW.`company_id` AND OLD.`name` <=> NEW.`name`
       AND OLD.`contact_name` <=> NEW.`contact_name` AND OLD.`street` <=> NEW.`street` AND OLD.`city` <=> NEW.`city`);
 --> statement-breakpoint
 CREATE TRIGGER `household_revision_delete` AFTER DELETE ON `household` FOR EACH ROW
-  UPDATE `deals_revision` SET `revision` = `revision` + 1 WHERE `company_id` = OLD.`company_id`;
+  UPDATE `deals_revision` SET `revision` = `revision` + 1, `households` = `households` + 1 WHERE `company_id` = OLD.`company_id`;
 --> statement-breakpoint
 CREATE TRIGGER `user_revision_update` AFTER UPDATE ON `user` FOR EACH ROW
   UPDATE `deals_revision` SET `revision` = `revision` + 1

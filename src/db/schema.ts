@@ -259,6 +259,8 @@ export const dealsRevision = mysqlTable("deals_revision", {
     .primaryKey()
     .references(() => company.id, { onDelete: "cascade" }),
   revision: bigint("revision", { mode: "number", unsigned: true }).notNull().default(0),
+  /** Bumped only when a household is added or removed or its searchable text changes (the search's own key). */
+  households: bigint("households", { mode: "number", unsigned: true }).notNull().default(0),
 });
 
 // ── The rep's workspace: energy, catalog, price book, rate plans, weather, design, offers ──

@@ -96,6 +96,26 @@ async function resolveSearch(member: Member, f: DealTableFilters): Promise<Scope
   return { ...f, q: undefined, householdIds: rows.map((r) => r.id) };
 }
 
+/**
+ * Searches already resolved to households, keyed by the company's households counter: a stage
+ * move or a new price leaves which households a search matches unchanged, so after such a
+ * change a search costs the deals' page and count only, not another pass over every household.
+ */
+const searchCache = new LRUCache<string, { householdIds?: string[] }, { member: Member; q: string }>({
+  max: 2_000,
+  fetchMethod: async (_key, _stale, { context }) => {
+    const scope = await resolveSearch(context.member, { sort: "household:asc", q: context.q });
+    return scope.householdIds ? { householdIds: scope.householdIds } : {};
+  },
+});
+
+async function resolveSearchKept(member: Member, f: DealTableFilters, revision: Revision): Promise<Scope> {
+  if (!f.q) return f;
+  const key = JSON.stringify([member.companyId, revision.households, f.q]);
+  const found = await searchCache.fetch(key, { context: { member, q: f.q } });
+  return found?.householdIds ? { ...f, q: undefined, householdIds: found.householdIds } : f;
+}
+
 /** The WHERE of the table: company and visibility first, then the person's filters. */
 function whereFor(member: Member, f: Scope): SQL {
   const parts: SQL[] = [visibleTo(member)];
@@ -228,9 +248,9 @@ async function countMatching(member: Member, f: Scope, limit: number): Promise<{
 }
 
 /** One page read from the database: the ids in SQL order, their rows, and the total. */
-async function readPage(member: Member, query: DealTableQuery, countLimit: number): Promise<DealTablePage> {
+async function readPage(member: Member, query: DealTableQuery, countLimit: number, revision: Revision): Promise<DealTablePage> {
   const offset = (query.page - 1) * query.pageSize;
-  const scope = await resolveSearch(member, query);
+  const scope = await resolveSearchKept(member, query, revision);
   // One id more than the page tells whether another page follows, even when the count stops.
   const limit = query.q ? Math.min(countLimit, DEAL_TABLE_SEARCH_COUNT_LIMIT) : countLimit;
   const [ids, counted] = await Promise.all([pageIds(member, scope, query.pageSize + 1, offset), countMatching(member, scope, limit)]);
@@ -252,14 +272,14 @@ async function readPage(member: Member, query: DealTableQuery, countLimit: numbe
  * transaction: drizzle/0004_deals-revision.sql). Read before the page, so a page stored under
  * revision r holds data at least as new as r; any later change makes r + 1 and a new key.
  */
-async function revisionOf(companyId: string): Promise<number> {
+async function revisionOf(companyId: string): Promise<Revision> {
   revisionQuery ??= prepareRevisionQuery();
   const [row] = await revisionQuery.execute({ companyId });
-  return row?.revision ?? 0;
+  return row ?? { deals: 0, households: 0 };
 }
 function prepareRevisionQuery() {
   return db()
-    .select({ revision: dealsRevision.revision })
+    .select({ deals: dealsRevision.revision, households: dealsRevision.households })
     .from(dealsRevision)
     .where(eq(dealsRevision.companyId, sql.placeholder("companyId")))
     .limit(1)
@@ -267,7 +287,9 @@ function prepareRevisionQuery() {
 }
 let revisionQuery: ReturnType<typeof prepareRevisionQuery> | undefined;
 
-type PageRequest = { member: Member; query: DealTableQuery; countLimit: number };
+/** The company's two counters: any change a deals list shows, and changes to households' searchable text. */
+type Revision = { deals: number; households: number };
+type PageRequest = { member: Member; query: DealTableQuery; countLimit: number; revision: Revision };
 
 /**
  * Recently read pages. Offices open the same views again and again (the default sort, a saved
@@ -278,20 +300,20 @@ type PageRequest = { member: Member; query: DealTableQuery; countLimit: number }
 const pageCache = new LRUCache<string, DealTablePage, PageRequest>({
   maxSize: 100_000,
   sizeCalculation: (page) => page.rows.length + 1,
-  fetchMethod: (_key, _stale, { context }) => readPage(context.member, context.query, context.countLimit),
+  fetchMethod: (_key, _stale, { context }) => readPage(context.member, context.query, context.countLimit, context.revision),
 });
 
 /** Whose deals a page shows: the company's for office roles, one rep's own otherwise (visibleTo). */
 const audience = (member: Member) => (can(member.role, "deals:read-all") ? "company" : `own:${member.userId}`);
 
-function pageKey(member: Member, q: DealTableQuery, countLimit: number, revision: number): string {
-  return JSON.stringify([member.companyId, audience(member), revision, countLimit, q.page, q.pageSize, q.sort, q.stage, q.owner, q.source, q.q, q.from, q.to]);
+function pageKey(member: Member, q: DealTableQuery, countLimit: number, revision: Revision): string {
+  return JSON.stringify([member.companyId, audience(member), revision.deals, countLimit, q.page, q.pageSize, q.sort, q.stage, q.owner, q.source, q.q, q.from, q.to]);
 }
 
 /** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
 export async function dealTablePage(member: Member, query: DealTableQuery, countLimit = DEAL_TABLE_COUNT_LIMIT): Promise<DealTablePage> {
   const revision = await revisionOf(member.companyId);
-  const page = await pageCache.fetch(pageKey(member, query, countLimit, revision), { context: { member, query, countLimit } });
+  const page = await pageCache.fetch(pageKey(member, query, countLimit, revision), { context: { member, query, countLimit, revision } });
   if (!page) throw new Error("The deals table page could not be read.");
   return page;
 }

@@ -97,6 +97,26 @@ describe("deals table pages kept in memory", () => {
     expect((await dealTablePage(rep, query())).rows.map((r) => r.id).sort()).toEqual([deals[0], deals[1]].sort());
   });
 
+  it("keeps a search's households across a stage move, and finds a new household", async () => {
+    const before = await dealTablePage(office, query({ q: "Tern Lane" }));
+    expect(before.total).toBe(3);
+    await exec("UPDATE deal SET stage = 'designing' WHERE id = ?", [deals[0]]);
+    const moved = await dealTablePage(office, query({ q: "Tern Lane" }));
+    expect(moved.rows.find((r) => r.id === deals[0])?.stage).toBe("designing");
+    const hid = crypto.randomUUID();
+    await exec(
+      "INSERT INTO household (id, company_id, name, street, city, region, postal_code, latitude, longitude) VALUES (?, ?, 'Cache 8 household', '8 Tern Lane', 'Durham', 'NC', '27701', 36, -78.9)",
+      [hid, owner.companyId],
+    );
+    const newDeal = crypto.randomUUID();
+    await exec("INSERT INTO deal (id, company_id, household_id, stage) VALUES (?, ?, ?, 'lead')", [newDeal, owner.companyId, hid]);
+    const grown = await dealTablePage(office, query({ q: "Tern Lane" }));
+    expect(grown.total).toBe(4);
+    expect(grown.rows.map((r) => r.id)).toContain(newDeal);
+    await exec("DELETE FROM household WHERE id = ?", [hid]);
+    expect((await dealTablePage(office, query({ q: "Tern Lane" }))).total).toBe(3);
+  });
+
   it("counts a new deal and forgets a deleted household's deal", async () => {
     const before = await dealTablePage(office, query());
     const hid = crypto.randomUUID();
@@ -122,6 +142,8 @@ describe("deals table pages kept in memory", () => {
   });
 
   it("does not move the revision when a write is rolled back", async () => {
+    const stage = (await dealTablePage(office, query())).rows.find((r) => r.id === deals[0])?.stage;
+    expect(stage).not.toBe("lost");
     const ours = await revision(owner.companyId);
     await expect(
       db().transaction(async (tx) => {
@@ -130,6 +152,6 @@ describe("deals table pages kept in memory", () => {
       }),
     ).rejects.toThrow("changed my mind");
     expect(await revision(owner.companyId)).toBe(ours);
-    expect((await dealTablePage(office, query())).rows.find((r) => r.id === deals[0])?.stage).toBe("lead");
+    expect((await dealTablePage(office, query())).rows.find((r) => r.id === deals[0])?.stage).toBe(stage);
   });
 });
