@@ -83,17 +83,22 @@ const searchCondition = (q: string) => {
 
 /**
  * Reads the company's households alone for a search (one pass over the household table, which
- * is far cheaper than looking each deal's household up), and keeps their ids when they are few.
+ * is far cheaper than looking each deal's household up): their ids when they are few, null
+ * when the search should stay a LIKE on the joined households.
  */
-async function resolveSearch(member: Member, f: DealTableFilters): Promise<Scope> {
-  if (!f.q) return f;
+async function searchHouseholdIds(companyId: string, q: string): Promise<string[] | null> {
   const rows = await db()
     .select({ id: household.id })
     .from(household)
-    .where(and(eq(household.companyId, member.companyId), searchCondition(f.q)))
+    .where(and(eq(household.companyId, companyId), searchCondition(q)))
     .limit(SEARCH_HOUSEHOLD_IDS + 1);
-  if (rows.length > SEARCH_HOUSEHOLD_IDS) return f;
-  return { ...f, q: undefined, householdIds: rows.map((r) => r.id) };
+  return rows.length > SEARCH_HOUSEHOLD_IDS ? null : rows.map((r) => r.id);
+}
+
+const withHouseholds = (f: DealTableFilters, ids: string[] | null): Scope => (ids ? { ...f, q: undefined, householdIds: ids } : f);
+
+async function resolveSearch(member: Member, f: DealTableFilters): Promise<Scope> {
+  return f.q ? withHouseholds(f, await searchHouseholdIds(member.companyId, f.q)) : f;
 }
 
 /**
@@ -101,19 +106,16 @@ async function resolveSearch(member: Member, f: DealTableFilters): Promise<Scope
  * move or a new price leaves which households a search matches unchanged, so after such a
  * change a search costs the deals' page and count only, not another pass over every household.
  */
-const searchCache = new LRUCache<string, { householdIds?: string[] }, { member: Member; q: string }>({
+const searchCache = new LRUCache<string, { ids: string[] | null }, { companyId: string; q: string }>({
   max: 2_000,
-  fetchMethod: async (_key, _stale, { context }) => {
-    const scope = await resolveSearch(context.member, { sort: "household:asc", q: context.q });
-    return scope.householdIds ? { householdIds: scope.householdIds } : {};
-  },
+  fetchMethod: async (_key, _stale, { context }) => ({ ids: await searchHouseholdIds(context.companyId, context.q) }),
 });
 
 async function resolveSearchKept(member: Member, f: DealTableFilters, revision: Revision): Promise<Scope> {
   if (!f.q) return f;
   const key = JSON.stringify([member.companyId, revision.households, f.q]);
-  const found = await searchCache.fetch(key, { context: { member, q: f.q } });
-  return found?.householdIds ? { ...f, q: undefined, householdIds: found.householdIds } : f;
+  const found = await searchCache.fetch(key, { context: { companyId: member.companyId, q: f.q } });
+  return withHouseholds(f, found?.ids ?? null);
 }
 
 /** The WHERE of the table: company and visibility first, then the person's filters. */
