@@ -53,5 +53,16 @@ test("company B asking for company A's records by id gets 404, for every table",
   });
   const patch = await companyB.patch(`/api/people/${membershipId}`, { data: { status: "deactivated" } });
   expect(patch.status()).toBe(404);
+
+  // Pages of another company's records answer 404 as well (a status, not only a not-found text
+  // streamed after a 200).
+  for (const [table, path] of [["deal", "/deals/"], ["job", "/jobs/"], ["rate_plan", "/rate-plans/"]] as const) {
+    const [id] = await withDb(async (conn) => {
+      const [rows] = await conn.query(`SELECT id FROM \`${table}\` WHERE company_id = ? LIMIT 1`, [DEMO_COMPANY_ID]);
+      return (rows as { id: string }[]).map((r) => r.id);
+    });
+    expect((await request.get(`${path}${id}`)).status(), `${path}${id} as company A`).toBe(200);
+    expect((await companyB.get(`${path}${id}`)).status(), `${path}${id} as company B`).toBe(404);
+  }
   await companyB.dispose();
 });

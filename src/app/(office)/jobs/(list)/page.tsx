@@ -6,8 +6,8 @@ import { STAGE_LABELS } from "@/lib/stages";
 import { getOwnCrew, listCrewOptions } from "@/server/crews";
 import { companyToday, JOB_DATE_LABELS, listJobs, type JobListRow } from "@/server/jobs";
 import { getMember } from "@/server/session";
-import { FeedLink } from "./feed-link";
-import { shortDate, weekdayDate } from "./dates";
+import { FeedLink } from "../feed-link";
+import { shortDate, weekdayDate } from "../dates";
 
 export const metadata: Metadata = { title: "Jobs" };
 

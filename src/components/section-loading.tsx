@@ -1,5 +1,9 @@
-/** Shown while a section's data loads (the shell stays in place). */
-export default function Loading() {
+/**
+ * Shown while a section's data loads (the shell stays in place). Only list sections use it:
+ * a page that can answer "not found" (a deal, a job, a rate plan) must not sit under a loading
+ * boundary, or its not-found page would be streamed after a 200 instead of answered as a 404.
+ */
+export function SectionLoading() {
   return (
     <div role="status" aria-live="polite" className="space-y-3">
       <span className="sr-only">Loading…</span>

@@ -7,7 +7,7 @@ import { can } from "@/lib/permissions";
 import { PREVIEW_MONTHLY_KWH } from "@/lib/schemas/rate-plan";
 import { listRatePlans } from "@/server/rate-plans";
 import { getMember } from "@/server/session";
-import { sampleBill } from "./sample-bill";
+import { sampleBill } from "../sample-bill";
 
 export const metadata: Metadata = { title: "Rate plans" };
 

@@ -6,7 +6,7 @@ import { LEAD_SOURCES } from "@/lib/schemas/deal";
 import { dealTableQuerySchema, searchParamsObject } from "@/lib/schemas/deal-table";
 import { dealOwnerOptions, dealTablePage } from "@/server/deal-table";
 import { getMember } from "@/server/session";
-import { DealsTable } from "./_table/deals-table-client";
+import { DealsTable } from "../_table/deals-table-client";
 
 export const metadata: Metadata = { title: "Deals" };
 

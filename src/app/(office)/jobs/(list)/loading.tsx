@@ -1,0 +1,3 @@
+import { SectionLoading } from "@/components/section-loading";
+
+export default SectionLoading;
