@@ -4,11 +4,12 @@
  * inserts), 50 concurrent connections from autocannon for DURATION_S seconds per case with a
  * mix of pages, sorts, filters and a search, as the office and as a rep.
  *
- * The app's production build is shared, so the handler runs in-process instead: a small
- * node:http server in a child process (with the react-server condition, as the app's server
- * code runs) does what GET /api/deals/table does — the session and membership look-ups of
- * withMember (the same indexed queries), the query-string schema, dealTablePage (rows and total
- * in SQL) and the `{ data }` JSON — on the app's own pool (10 connections).
+ * The app's production build is shared, so Next's router is left out: a small node:http server
+ * in a child process (with the react-server condition, as the app's server code runs) turns each
+ * request into a NextRequest and calls the route module's own GET (src/app/api/deals/table/
+ * route.ts): withMember with better-auth's getSession (the signed cookies of a real sign-in, so
+ * its cookie cache as in the app) and the membership query, the query-string schema,
+ * dealTablePage and the `{ data }` JSON, on the app's own pool (10 connections).
  *
  * While the load runs, one deal changes stage every 5 s (--write-every-ms=<ms>), as when others
  * work in the same company: each change makes a new deals revision, so the pages the handler
@@ -16,7 +17,8 @@
  * Options: --duration=<s> (default 12), --connections=<n> (default 50), --keep (leave MariaDB
  * running), --proposed-indexes (also create the indexes of PROPOSED_INDEXES after the migrations,
  * to measure them before they become a migration; the figures say so), TABLE_BENCH_DB_PORT
- * (default 4791). Data lives in .data/bench-table/ (git-ignored).
+ * (default 4791), --profile (a V8 CPU profile of the handler's server per case, in
+ * .data/bench-table/profiles/). Data lives in .data/bench-table/ (git-ignored).
  * Prints p50/p95/p99 latency, throughput and errors per case and the 100k/10k ratio; the
  * figures are also written to .data/bench-table/results.json. docs/benchmarks.md is not touched.
  */
@@ -44,6 +46,8 @@ const OTHER_COMPANY_DEALS = 5_000;
 const INSERT_BATCH = 2_000;
 const GOAL_P95_MS = 100;
 const WITH_PROPOSED = process.argv.includes("--proposed-indexes");
+/** Writes a V8 CPU profile of the handler's server per case to .data/bench-table/profiles/. */
+const PROFILE = process.argv.includes("--profile");
 /** Indexes the table's sorts would walk at 100,000 deals (not in the schema yet). */
 // The first proposals (contract, system size, source, household name and city) became
 // migration 0003_deals-table-indexes; list new candidates here to measure them first.
@@ -62,7 +66,8 @@ const PEOPLE = [
 ] as const;
 const OFFICE = PEOPLE[1];
 const REP = PEOPLE[2];
-const SESSION_TOKENS = { office: "bench-session-office-0000000000000000", rep: "bench-session-rep-00000000000000000000" };
+const BENCH_PASSWORD = "bench-table-password-2026";
+const emailOf = (id: string) => `${id}@bench.example`;
 
 const STAGES = ["lead", "bills_in", "designing", "proposal_out", "signed", "deposit_paid", "survey", "permitting", "install_booked", "installed", "inspected", "live", "on_hold", "lost", "cancelled"];
 const SOURCES = ["Referral", "Website", "Door to door", "Home show", "Phone"];
@@ -86,43 +91,39 @@ const dbEnv = (port: number) => ({
 
 async function serve(): Promise<void> {
   // Imported here: these modules need the react-server condition and the environment above.
-  const { eq } = await import("drizzle-orm");
-  const { session, user } = await import("../../src/db/schema");
-  const { activeMembership } = await import("../../src/server/session");
-  const { dealTableQuerySchema, searchParamsObject } = await import("../../src/lib/schemas/deal-table");
-  const { dealTablePage } = await import("../../src/server/deal-table");
-  const { db } = await import("../../src/server/db");
-  type Member = import("../../src/server/session").Member;
+  const { NextRequest } = await import("next/server");
+  const { GET } = await import("../../src/app/api/deals/table/route");
+  const { auth } = await import("../../src/server/auth");
 
-  /** What withMember costs before the handler: better-auth's session and user look-ups, then the app's own membership query. */
-  async function memberFor(token: string): Promise<Member | null> {
-    const [s] = await db().select().from(session).where(eq(session.token, token)).limit(1);
-    if (!s || s.expiresAt < new Date()) return null;
-    const [u] = await db().select().from(user).where(eq(user.id, s.userId)).limit(1);
-    if (!u) return null;
-    const row = await activeMembership(u.id);
-    return row ? { userId: u.id, name: u.name, email: u.email, ...row } : null;
+  /** A real sign-in through better-auth: the Cookie header a browser would send afterwards. */
+  async function signIn(email: string): Promise<string> {
+    const res = await auth().api.signInEmail({ body: { email, password: BENCH_PASSWORD }, asResponse: true });
+    if (!res.ok) throw new Error(`sign-in of ${email} answered ${res.status}`);
+    return res.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
   }
 
-  const json = (res: import("node:http").ServerResponse, status: number, body: unknown) => {
-    const text = JSON.stringify(body);
-    res.writeHead(status, { "Content-Type": "application/json", "Content-Length": Buffer.byteLength(text) });
-    res.end(text);
+  const send = (res: import("node:http").ServerResponse, status: number, contentType: string, body: Buffer) => {
+    res.writeHead(status, { "Content-Type": contentType, "Content-Length": body.length });
+    res.end(body);
   };
 
   const server = createServer((req, res) => {
     void (async () => {
       try {
-        const url = new URL(req.url ?? "/", "http://bench.local");
-        const token = /(?:^|;\s*)bench_session=([^;]+)/.exec(req.headers.cookie ?? "")?.[1];
-        const member = token ? await memberFor(token) : null;
-        if (!member) return json(res, 401, { error: { code: "unauthorized", message: "Sign in to continue." } });
-        const parsed = dealTableQuerySchema.safeParse(searchParamsObject(url.searchParams));
-        if (!parsed.success) return json(res, 422, { error: { code: "validation_failed", message: parsed.error.issues[0]?.message } });
-        json(res, 200, { data: await dealTablePage(member, parsed.data) });
+        const url = new URL(req.url ?? "/", "http://127.0.0.1");
+        if (url.pathname === "/bench/sign-in") {
+          return send(res, 200, "text/plain", Buffer.from(await signIn(url.searchParams.get("email") ?? "")));
+        }
+        const headers = new Headers();
+        for (const [name, value] of Object.entries(req.headers)) if (typeof value === "string") headers.set(name, value);
+        const response = await GET(new NextRequest(url, { headers }), { params: Promise.resolve({}) });
+        send(res, response.status, response.headers.get("content-type") ?? "application/json", Buffer.from(await response.arrayBuffer()));
       } catch (err) {
         console.error(err);
-        json(res, 500, { error: { code: "internal_error", message: "failed" } });
+        send(res, 500, "text/plain", Buffer.from("the bench server failed"));
       }
     })();
   });
@@ -150,20 +151,23 @@ const hex = (n: number, width: number) => n.toString(16).padStart(width, "0");
 const seqId = (kind: number, company: number, i: number) => `${hex(i, 8)}-${hex(company, 4)}-4${hex(kind, 3)}-8000-${hex(i * 7919, 12).slice(-12)}`;
 
 async function seedPeople(conn: mysql.Connection) {
+  const { hashPassword } = await import("better-auth/crypto");
+  const passwordHash = await hashPassword(BENCH_PASSWORD);
   await conn.query("INSERT INTO company (id, name) VALUES (?, 'Bench Table Solar'), (?, 'Bench Other Solar')", [COMPANY_ID, OTHER_COMPANY_ID]);
   for (const p of PEOPLE) {
-    await conn.query("INSERT INTO user (id, name, email, email_verified) VALUES (?, ?, ?, 1)", [p.id, p.name, `${p.id}@bench.example`]);
+    await conn.query("INSERT INTO user (id, name, email, email_verified) VALUES (?, ?, ?, 1)", [p.id, p.name, emailOf(p.id)]);
+    await conn.query("INSERT INTO account (id, account_id, provider_id, user_id, password) VALUES (?, ?, 'credential', ?, ?)", [
+      p.id.replace(/^b3c4/, "b3c6"),
+      p.id,
+      p.id,
+      passwordHash,
+    ]);
     await conn.query("INSERT INTO membership (id, company_id, user_id, role) VALUES (?, ?, ?, ?)", [
       p.id.replace(/^b3c4/, "b3c5"),
       "other" in p ? OTHER_COMPANY_ID : COMPANY_ID,
       p.id,
       p.role,
     ]);
-  }
-  const expires = new Date(Date.now() + 86_400_000);
-  for (const [who, token] of Object.entries(SESSION_TOKENS)) {
-    const person = who === "office" ? OFFICE : REP;
-    await conn.query("INSERT INTO session (id, token, user_id, expires_at) VALUES (?, ?, ?, ?)", [crypto.randomUUID(), token, person.id, expires]);
   }
 }
 
@@ -227,10 +231,27 @@ type AutocannonResult = {
   duration: number;
 };
 
+/** The Cookie headers of the office manager and of a rep, from real sign-ins. */
+type Cookies = { office: string; rep: string };
+
+/**
+ * Signs both people in through the bench server (better-auth's sign-in endpoint code). Done
+ * again before each load, as a browser holds a fresh session cookie cache: autocannon's
+ * connections keep no cookies, so they could not take the refreshed ones.
+ */
+async function signInBoth(url: string): Promise<Cookies> {
+  const one = async (id: string) => {
+    const res = await fetch(`${url}/bench/sign-in?email=${encodeURIComponent(emailOf(id))}`);
+    if (!res.ok) throw new Error(`bench sign-in answered ${res.status}`);
+    return res.text();
+  };
+  return { office: await one(OFFICE.id), rep: await one(REP.id) };
+}
+
 /** The mix each connection cycles through: paging, every kind of sort, filters, a search; office and rep. */
-function requestMix() {
-  const office = { cookie: `bench_session=${SESSION_TOKENS.office}` };
-  const rep = { cookie: `bench_session=${SESSION_TOKENS.rep}` };
+function requestMix(cookies: Cookies) {
+  const office = { cookie: cookies.office };
+  const rep = { cookie: cookies.rep };
   const r = (query: string, headers = office) => ({ method: "GET", path: `/api/deals/table?${query}`, headers });
   return [
     r("page=1&pageSize=50&sort=stageChangedAt:desc"),
@@ -281,12 +302,12 @@ function startWriter(conn: mysql.Connection, deals: number): { stop(): Promise<n
 
 const percentile = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil(p * sorted.length) - 1))];
 
-async function load(url: string, seconds: number) {
+async function load(url: string, seconds: number, cookies: Cookies) {
   const require = createRequire(import.meta.url);
   const autocannon = require("autocannon") as Autocannon;
   const latencies: number[] = [];
   const statuses = new Map<number, number>();
-  const instance = autocannon({ url, connections: CONNECTIONS, duration: seconds, requests: requestMix(), timeout: 10 });
+  const instance = autocannon({ url, connections: CONNECTIONS, duration: seconds, requests: requestMix(cookies), timeout: 10 });
   instance.on("response", (_client, status, _bytes, ms) => {
     latencies.push(ms);
     statuses.set(status, (statuses.get(status) ?? 0) + 1);
@@ -312,9 +333,9 @@ async function load(url: string, seconds: number) {
  * request of a kind is read from the database (a fresh server, no change since); the best of
  * two more is the page kept in memory.
  */
-async function singleTimes(url: string) {
+async function singleTimes(url: string, cookies: Cookies) {
   const out: { path: string; fromDatabaseMs: number; fromMemoryMs: number }[] = [];
-  for (const req of requestMix()) {
+  for (const req of requestMix(cookies)) {
     const times: number[] = [];
     for (let i = 0; i < 3; i++) {
       const t = performance.now();
@@ -329,7 +350,8 @@ async function singleTimes(url: string) {
 }
 
 async function startServer(env: Record<string, string>): Promise<{ url: string; child: ChildProcess }> {
-  const child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", fileURLToPath(import.meta.url), "--serve"], {
+  const profile = PROFILE ? ["--cpu-prof", `--cpu-prof-dir=${path.join(dataDir, "profiles")}`] : [];
+  const child = spawn(process.execPath, [...profile, "--conditions=react-server", "--import", "tsx", fileURLToPath(import.meta.url), "--serve"], {
     cwd: root,
     env: { ...process.env, ...env, NODE_ENV: "production" },
     stdio: ["ignore", "pipe", "inherit"],
@@ -378,9 +400,9 @@ async function main(): Promise<void> {
       await conn.query("ANALYZE TABLE deal, household");
       console.log(`\n${target.toLocaleString("en-US")} deals seeded (${((performance.now() - t) / 1000).toFixed(1)} s)`);
 
-      server?.child.kill();
+      server?.child.kill("SIGINT");
       server = await startServer(env);
-      const check = (await (await fetch(`${server.url}/api/deals/table?pageSize=1`, { headers: { cookie: `bench_session=${SESSION_TOKENS.office}` } })).json()) as {
+      const check = (await (await fetch(`${server.url}/api/deals/table?pageSize=1`, { headers: { cookie: (await signInBoth(server.url)).office } })).json()) as {
         data: { total: number; totalCapped: boolean };
       };
       const expected = Math.min(target, DEAL_TABLE_COUNT_LIMIT);
@@ -388,11 +410,12 @@ async function main(): Promise<void> {
         throw new Error(`the handler answers total ${check.data.total} (capped: ${check.data.totalCapped}) for ${target} deals`);
       }
 
-      const single = await singleTimes(server.url);
-      await load(server.url, WARMUP_S);
+      const single = await singleTimes(server.url, await signInBoth(server.url));
+      const cookies = await signInBoth(server.url);
+      await load(server.url, WARMUP_S, cookies);
       const startLoad = loadavg()[0];
       const writer = startWriter(conn, target);
-      const r = await load(server.url, DURATION_S);
+      const r = await load(server.url, DURATION_S, cookies);
       const writes = await writer.stop();
       results.push({ deals: target, loadAverage1m: startLoad, writes, ...r, single });
       console.log(
@@ -403,7 +426,7 @@ async function main(): Promise<void> {
       );
     }
   } finally {
-    server?.child.kill();
+    server?.child.kill("SIGINT");
     await conn.end();
     if (!process.argv.includes("--keep")) await stopMariaDb(cfg);
   }

@@ -34,7 +34,7 @@ type Handler<P> = (args: { req: NextRequest; member: Member; params: P }) => Pro
 export function withMember<P = Record<string, never>>(permission: Permission, handler: Handler<P>) {
   return async (req: NextRequest, ctx: RouteContext<P>): Promise<Response> => {
     try {
-      const member = await requireMember(permission);
+      const member = await requireMember(permission, req.headers);
       return await handler({ req, member, params: await ctx.params });
     } catch (err) {
       return toErrorResponse(err);

@@ -7,12 +7,7 @@ import { can, type Permission } from "@/lib/permissions";
 import { auth } from "@/server/auth";
 import { db } from "@/server/db";
 import { forbidden, unauthorized } from "@/server/errors";
-
-/** The better-auth session of this request, read once per request. */
-export const getSession = cache(async () => {
-  const requestHeaders = await headers(); // first: it marks the page as per-request
-  return auth().api.getSession({ headers: requestHeaders });
-});
+import { keepSession, reusedSession } from "@/server/session-reuse";
 
 /** A signed-in person with their company (the tenant) and role. */
 export type Member = {
@@ -51,18 +46,40 @@ export async function activeMembership(userId: string) {
   return row ?? null;
 }
 
-/** The signed-in, active member of this request, or null. */
-export const getMember = cache(async (): Promise<Member | null> => {
-  const s = await getSession();
+/** better-auth's session for these headers; the same Cookie header is answered from memory for a few seconds (session-reuse.ts). */
+async function sessionOf(requestHeaders: Headers) {
+  const cookie = requestHeaders.get("cookie");
+  if (!cookie) return null;
+  const reused = reusedSession(cookie);
+  if (reused) return reused;
+  const s = await auth().api.getSession({ headers: requestHeaders });
+  if (s) keepSession(cookie, s);
+  return s;
+}
+
+/**
+ * The signed-in, active member behind a request's headers, or null. The session comes from
+ * better-auth (session-reuse.ts may answer a repeated Cookie header for a few seconds); the
+ * membership and role are read on every call, so a deactivation or a role change holds from
+ * the next request.
+ */
+export async function memberFromHeaders(requestHeaders: Headers): Promise<Member | null> {
+  const s = await sessionOf(requestHeaders);
   if (!s) return null;
   const row = await activeMembership(s.user.id);
   if (!row) return null;
   return { userId: s.user.id, name: s.user.name, email: s.user.email, ...row };
-});
+}
 
-/** For actions and route handlers: the member, or a 401/403 HttpError. */
-export async function requireMember(permission: Permission): Promise<Member> {
-  const member = await getMember();
+/** The signed-in, active member of this request (pages, actions), or null; read once per request. */
+export const getMember = cache(async (): Promise<Member | null> => memberFromHeaders(await headers()));
+
+/**
+ * For actions and route handlers: the member, or a 401/403 HttpError. A route handler passes
+ * its request's headers; an action reads them from Next's request scope.
+ */
+export async function requireMember(permission: Permission, requestHeaders?: Headers): Promise<Member> {
+  const member = requestHeaders ? await memberFromHeaders(requestHeaders) : await getMember();
   if (!member) throw unauthorized();
   if (!can(member.role, permission)) throw forbidden();
   return member;

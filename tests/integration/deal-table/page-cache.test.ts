@@ -8,7 +8,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { deal, household } from "@/db/schema";
 import { dealTableQuerySchema } from "@/lib/schemas/deal-table";
 import { db, pool } from "@/server/db";
-import { dealTablePage } from "@/server/deal-table";
+import { dealTablePage, dealTablePageJson } from "@/server/deal-table";
 import type { Member } from "@/server/session";
 import { moveDealStage } from "@/server/stages";
 import { addMember, newCompany } from "../support/fixtures";
@@ -56,6 +56,17 @@ describe("deals table pages kept in memory", () => {
     const again = await dealTablePage(office, query());
     expect(again).toBe(first);
     expect(first.rows.map((r) => r.householdName)).toEqual(["Cache 0 household", "Cache 1 household", "Cache 2 household"]);
+  });
+
+  it("answers the route's JSON text of the kept page, and a new text after a change; kept pages are frozen", async () => {
+    const page = await dealTablePage(office, query());
+    const text = await dealTablePageJson(office, query());
+    expect(text).toBe(JSON.stringify(page));
+    expect(await dealTablePageJson(office, query())).toBe(text);
+    expect(Object.isFrozen(page) && Object.isFrozen(page.rows) && page.rows.every((r) => Object.isFrozen(r))).toBe(true);
+    await exec("UPDATE deal SET contract_cents = contract_cents + 100 WHERE id = ?", [deals[0]]);
+    const changed = JSON.parse(await dealTablePageJson(office, query())) as typeof page;
+    expect(changed.rows.find((r) => r.id === deals[0])?.contractCents).toBe(page.rows.find((r) => r.id === deals[0])!.contractCents! + 100);
   });
 
   it("shows a stage move made by another process's SQL on the next read", async () => {

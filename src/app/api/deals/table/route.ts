@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { dealTableQuerySchema, searchParamsObject } from "@/lib/schemas/deal-table";
-import { dealTablePage } from "@/server/deal-table";
+import { dealTablePageJson } from "@/server/deal-table";
 import { validationError, withMember } from "@/server/route";
 
 /**
@@ -10,5 +10,6 @@ import { validationError, withMember } from "@/server/route";
 export const GET = withMember("deals:read-own", async ({ req, member }) => {
   const parsed = dealTableQuerySchema.safeParse(searchParamsObject(req.nextUrl.searchParams));
   if (!parsed.success) throw validationError(parsed.error);
-  return NextResponse.json({ data: await dealTablePage(member, parsed.data) });
+  // The page's JSON text is kept with the page (deal-table.ts), so it is wrapped, not serialized again.
+  return new NextResponse(`{"data":${await dealTablePageJson(member, parsed.data)}}`, { headers: { "content-type": "application/json" } });
 });
