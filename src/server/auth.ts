@@ -9,7 +9,7 @@ import { account, membership, session, user, verification } from "@/db/schema";
 import { env } from "@/env";
 import { db } from "@/server/db";
 import { sendEmail } from "@/server/mail";
-import { forgetSession } from "@/server/session-reuse";
+import { forgetCookie } from "@/server/session-reuse";
 import { clearSignInFailures, recordSignInFailure, signInBlocked } from "@/server/sign-in-limit";
 import { ResetPasswordEmail } from "@emails/reset-password";
 import { VerifyEmail } from "@emails/verify-email";
@@ -106,7 +106,7 @@ function createAuth() {
         }
       }),
       after: createAuthMiddleware(async (ctx) => {
-        if (ctx.path === "/sign-out") forgetSession(ctx.headers?.get("cookie"));
+        if (ctx.path === "/sign-out") forgetCookie(ctx.headers?.get("cookie"));
         if (ctx.path !== "/sign-in/email") return;
         const email = emailOf(ctx.body);
         if (!email) return;

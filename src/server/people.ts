@@ -10,6 +10,7 @@ import type { acceptInvitationSchema, inviteSchema, updatePersonSchema } from "@
 import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { sendEmail } from "@/server/mail";
+import { forgetPerson } from "@/server/session-reuse";
 import type { Member } from "@/server/session";
 import { hashToken, newLinkToken } from "@/server/tokens";
 import { InvitationEmail } from "@emails/invitation";
@@ -199,6 +200,7 @@ export async function updatePerson(
       throw new HttpError(409, "last_owner", "A company needs at least one active owner.");
     }
   });
+  forgetPerson(target.userId); // their next request reads the new role or status
   return getPersonOrThrow(member.companyId, membershipId);
 }
 

@@ -1,38 +1,44 @@
 import "server-only";
 import { LRUCache } from "lru-cache";
+import type { Member } from "@/server/session";
 
 /**
- * better-auth's answer for one Cookie header, reused for a few seconds. Asking better-auth costs
- * about 1.5 ms of CPU per request (its endpoint context, hooks, the signed-cookie check and a
- * session-table read); a person's browser sends the same Cookie header with every request, and
- * the deals table under load asks hundreds of times a second (docs/benchmarks.md, table-load).
+ * Who is asking, reused for a few seconds per Cookie header. Answering it costs better-auth's
+ * session check (≈ 3 ms of CPU: its endpoint context, hooks, the signed cookie and the session
+ * table) and the membership query (≈ 0.3 ms); a person's browser sends the same Cookie header
+ * with every request, and the deals table under load asks a thousand times a second
+ * (docs/benchmarks.md, table-load).
  *
- * The trade-off, kept small: a session revoked elsewhere (a password reset on another device)
- * is still accepted for at most SESSION_REUSE_MS by a process that answered for it just before.
- * Signing out through this process forgets the entry at once. Who may do what is never reused:
- * session.ts reads the membership (active, role) on every request.
+ * The trade-off, kept small: a change made by another app process (a session revoked by a
+ * password reset, a role change or deactivation answered by another process) holds there after
+ * at most SESSION_REUSE_MS. In this process it holds at once: signing out forgets the Cookie
+ * header, and people.ts forgets a person whose role or status changes.
  */
 export const SESSION_REUSE_MS = 5_000;
 
-type Answer = NonNullable<Awaited<ReturnType<ReturnType<typeof import("@/server/auth").auth>["api"]["getSession"]>>>;
+const members = new LRUCache<string, { member: Member; sessionExpiresAt: number }>({ max: 10_000, ttl: SESSION_REUSE_MS });
 
-const answers = new LRUCache<string, Answer>({ max: 10_000, ttl: SESSION_REUSE_MS, ttlAutopurge: false });
-
-/** The answer kept for this Cookie header, if younger than SESSION_REUSE_MS and its session not expired. */
-export function reusedSession(cookie: string): Answer | undefined {
-  const kept = answers.get(cookie);
-  if (kept && new Date(kept.session.expiresAt).getTime() <= Date.now()) {
-    answers.delete(cookie);
+/** The member kept for this Cookie header, if younger than SESSION_REUSE_MS and the session not expired. */
+export function reusedMember(cookie: string): Member | undefined {
+  const kept = members.get(cookie);
+  if (!kept) return undefined;
+  if (kept.sessionExpiresAt <= Date.now()) {
+    members.delete(cookie);
     return undefined;
   }
-  return kept;
+  return kept.member;
 }
 
-export function keepSession(cookie: string, answer: Answer): void {
-  answers.set(cookie, answer);
+export function keepMember(cookie: string, member: Member, sessionExpiresAt: Date): void {
+  members.set(cookie, { member, sessionExpiresAt: sessionExpiresAt.getTime() });
 }
 
 /** On sign-out: the signed-out Cookie header is not answered from memory again. */
-export function forgetSession(cookie: string | null | undefined): void {
-  if (cookie) answers.delete(cookie);
+export function forgetCookie(cookie: string | null | undefined): void {
+  if (cookie) members.delete(cookie);
+}
+
+/** After a role or status change: every kept answer for that person is dropped. */
+export function forgetPerson(userId: string): void {
+  for (const [cookie, kept] of members.entries()) if (kept.member.userId === userId) members.delete(cookie);
 }

@@ -7,7 +7,7 @@ import { can, type Permission } from "@/lib/permissions";
 import { auth } from "@/server/auth";
 import { db } from "@/server/db";
 import { forbidden, unauthorized } from "@/server/errors";
-import { keepSession, reusedSession } from "@/server/session-reuse";
+import { keepMember, reusedMember } from "@/server/session-reuse";
 
 /** A signed-in person with their company (the tenant) and role. */
 export type Member = {
@@ -46,29 +46,23 @@ export async function activeMembership(userId: string) {
   return row ?? null;
 }
 
-/** better-auth's session for these headers; the same Cookie header is answered from memory for a few seconds (session-reuse.ts). */
-async function sessionOf(requestHeaders: Headers) {
-  const cookie = requestHeaders.get("cookie");
-  if (!cookie) return null;
-  const reused = reusedSession(cookie);
-  if (reused) return reused;
-  const s = await auth().api.getSession({ headers: requestHeaders });
-  if (s) keepSession(cookie, s);
-  return s;
-}
-
 /**
- * The signed-in, active member behind a request's headers, or null. The session comes from
- * better-auth (session-reuse.ts may answer a repeated Cookie header for a few seconds); the
- * membership and role are read on every call, so a deactivation or a role change holds from
- * the next request.
+ * The signed-in, active member behind a request's headers, or null: better-auth's session, then
+ * the active membership with its role. A repeated Cookie header is answered from memory for up
+ * to SESSION_REUSE_MS (session-reuse.ts says what that trades).
  */
 export async function memberFromHeaders(requestHeaders: Headers): Promise<Member | null> {
-  const s = await sessionOf(requestHeaders);
+  const cookie = requestHeaders.get("cookie");
+  if (!cookie) return null;
+  const reused = reusedMember(cookie);
+  if (reused) return reused;
+  const s = await auth().api.getSession({ headers: requestHeaders });
   if (!s) return null;
   const row = await activeMembership(s.user.id);
   if (!row) return null;
-  return { userId: s.user.id, name: s.user.name, email: s.user.email, ...row };
+  const member: Member = { userId: s.user.id, name: s.user.name, email: s.user.email, ...row };
+  keepMember(cookie, member, new Date(s.session.expiresAt));
+  return member;
 }
 
 /** The signed-in, active member of this request (pages, actions), or null; read once per request. */
