@@ -1,18 +1,13 @@
 import "server-only";
 import { localIsoDate } from "@/lib/proposal-snapshot";
 import { and, asc, desc, eq, inArray, type SQL } from "drizzle-orm";
-import { fileTypeFromBuffer } from "file-type";
 import ical from "ical-generator";
-import sharp, { type OutputInfo } from "sharp";
 import { renderJobPacketPdf, type JobPacketPdfPhoto } from "@/documents/job-packet-pdf";
 import { env } from "@/env";
 import { checklistTemplate, company, crew, deal, design, household, job, jobPhoto, proposal, upload, user, type Stage } from "@/db/schema";
 import { checkStringPlan, inverterAcKw, STRING_CAUTION, type StringPlanCheck } from "@/lib/offer-figures";
 import { designDocumentSchema, type DesignDocument } from "@/lib/schemas/design";
 import {
-  JOB_PHOTO_MAX_BYTES,
-  JOB_PHOTO_MAX_SIDE_PX,
-  JOB_PHOTO_MIME_TYPES,
   parseJobChecklist,
   parseTemplateItems,
   type JobChecklistItem,
@@ -26,6 +21,7 @@ import { getCompanySettings } from "@/server/company-settings";
 import { crewIdOfMember, findCrewByFeedToken } from "@/server/crews";
 import { db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
+import { normalizePhoto } from "@/server/photos";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
 import { storage } from "@/server/storage";
@@ -546,36 +542,13 @@ export async function getJobPhotoFile(member: Member, photoId: string): Promise<
   return { bytes, mimeType: meta.mimeType };
 }
 
-const ACCEPTED = new Set<string>(JOB_PHOTO_MIME_TYPES);
-
-/**
- * A photo from the crew's phone: checked by its content (JPEG, PNG or WebP), turned upright,
- * resized to at most 2048 px on its long side and stored as JPEG. A refused file stores nothing.
- */
+/** A photo from the crew's phone, checked and resized by normalizePhoto (photos.ts). A refused file stores nothing. */
 export async function addJobPhoto(member: Member, jobId: string, file: { bytes: Uint8Array; caption: string }): Promise<JobPhotoView> {
   const current = await getJobRowOrThrow(member, jobId);
-  if (file.bytes.byteLength === 0) throw new HttpError(422, "empty_file", "The file is empty. Take the photo again.", { file: ["The file is empty"] });
-  if (file.bytes.byteLength > JOB_PHOTO_MAX_BYTES) {
-    throw new HttpError(422, "file_too_large", `The photo is larger than ${JOB_PHOTO_MAX_BYTES / 1024 / 1024} MB.`, { file: ["The photo is too large"] });
-  }
-  const type = await fileTypeFromBuffer(file.bytes);
-  if (!type || !ACCEPTED.has(type.mime)) {
-    const what = type ? `a ${type.ext.toUpperCase()} file` : "not an image";
-    throw new HttpError(422, "unsupported_file", `This file is ${what}. Upload a photo as JPEG, PNG or WebP.`, { file: ["Upload a JPEG, PNG or WebP photo"] });
-  }
-  let out: { data: Buffer; info: OutputInfo };
-  try {
-    out = await sharp(file.bytes, { failOn: "error" })
-      .rotate() // upright from the camera's EXIF orientation; the metadata itself is dropped
-      .resize({ width: JOB_PHOTO_MAX_SIDE_PX, height: JOB_PHOTO_MAX_SIDE_PX, fit: "inside", withoutEnlargement: true })
-      .jpeg({ quality: 82, mozjpeg: true })
-      .toBuffer({ resolveWithObject: true });
-  } catch {
-    throw new HttpError(422, "unreadable_image", "The photo could not be read (it may be cut short). Take it again.", { file: ["The photo could not be read"] });
-  }
+  const photo = await normalizePhoto(file.bytes);
   const id = crypto.randomUUID();
   const storageKey = `${member.companyId}/jobs/${id}.jpg`;
-  await storage().put(storageKey, new Uint8Array(out.data));
+  await storage().put(storageKey, photo.jpeg);
   try {
     await db().transaction(async (tx) => {
       await tx.insert(jobPhoto).values({
@@ -584,9 +557,9 @@ export async function addJobPhoto(member: Member, jobId: string, file: { bytes: 
         jobId,
         storageKey,
         mimeType: "image/jpeg",
-        widthPx: out.info.width,
-        heightPx: out.info.height,
-        sizeBytes: out.info.size,
+        widthPx: photo.widthPx,
+        heightPx: photo.heightPx,
+        sizeBytes: photo.sizeBytes,
         caption: file.caption || null,
         uploadedByUserId: member.userId,
       });

@@ -35,12 +35,41 @@ test.beforeAll(async () => {
       "INSERT INTO household (id, company_id, name, contact_name, phone, street, city, region, postal_code, latitude, longitude) VALUES (?, ?, ?, 'Wren Tester', '336-555-0177', '5 Cobble Bend', 'Greensboro', 'NC', '27405', 36.0901, -79.7702)",
       [householdId, DEMO_COMPANY_ID, household],
     );
-    await conn.query("INSERT INTO deal (id, company_id, household_id, stage, source) VALUES (?, ?, ?, 'install_booked', 'Referral')", [dealId, DEMO_COMPANY_ID, householdId]);
+    // The demo rep's deal: they took the site photos on the visit.
+    await conn.query(
+      "INSERT INTO deal (id, company_id, household_id, owner_user_id, stage, source) SELECT ?, ?, ?, id, 'install_booked', 'Referral' FROM user WHERE email = 'rep@tallgrass.example'",
+      [dealId, DEMO_COMPANY_ID, householdId],
+    );
     await conn.query(
       "INSERT INTO job (id, company_id, deal_id, crew_id, install_date, permit_number, permit_submitted_on, permit_approved_on, notes, checklist) VALUES (?, ?, ?, ?, ?, 'BP-TEST-1', ?, ?, 'Gate code 4417', ?)",
       [jobId, DEMO_COMPANY_ID, dealId, CREW_NORTH_ID, today, today, today, JSON.stringify(checklist)],
     );
   });
+});
+
+test("a rep adds a site photo from their phone on the deal's Household tab", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await page.goto(`/deals/${dealId}`);
+  await expect(page.getByRole("heading", { name: "Site photos" })).toBeVisible();
+  const input = page.locator("#site-photo-input");
+  await expect(input).toHaveAttribute("capture", "environment");
+  await expect(input).toHaveAttribute("accept", "image/*");
+
+  // A text file named like a photo is refused with the reason; nothing is shown or stored.
+  await input.setInputFiles({ name: "panel.jpg", mimeType: "image/jpeg", buffer: Buffer.from("this is not a photo") });
+  await expect(page.getByText("This file is not an image. Upload a photo as JPEG, PNG or WebP.")).toBeVisible();
+  await expect(page.getByTestId("site-photos").locator("img")).toHaveCount(0);
+
+  const jpeg = await sharp({ create: { width: 3000, height: 2000, channels: 3, background: { r: 96, g: 110, b: 124 } } }).jpeg({ quality: 85 }).toBuffer();
+  await input.setInputFiles({ name: "IMG_0107.jpeg", mimeType: "image/jpeg", buffer: jpeg });
+  await expect(page.getByText("Site photo saved as “IMG_0107.jpg”.", { exact: false })).toBeVisible();
+  await expect(page.getByRole("img", { name: "Site photo IMG_0107.jpg" })).toBeVisible();
+  const listed = await page.request.get(`/api/deals/${dealId}/site-photos`);
+  expect(listed.status()).toBe(200);
+  expect(((await listed.json()).data as { fileName: string }[]).map((p) => p.fileName)).toEqual(["IMG_0107.jpg"]);
+  // Kept after a reload.
+  await page.reload();
+  await expect(page.getByRole("img", { name: "Site photo IMG_0107.jpg" })).toBeVisible();
 });
 
 test("an installer sees only their crew's jobs, works through the packet and marks the job installed", async ({ page }) => {
@@ -66,6 +95,8 @@ test("an installer sees only their crew's jobs, works through the packet and mar
   await expect(page.getByTestId("map-link")).toHaveAttribute("href", /^geo:36\.0901,-79\.7702\?q=5%20Cobble%20Bend/);
   await expect(packet.getByText("Gate code 4417")).toBeVisible();
   await expect(page.getByTestId("cautions")).toContainText("licensed professional");
+  // The rep's site photo from the visit.
+  await expect(page.getByRole("img", { name: "IMG_0107.jpg", exact: true })).toBeVisible();
 
   // Tick the first checklist item; it stays ticked after a reload.
   const firstItem = page.getByRole("checkbox").first();

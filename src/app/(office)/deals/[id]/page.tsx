@@ -2,7 +2,9 @@ import type { Metadata } from "next";
 import { can } from "@/lib/permissions";
 import { getDealRoom, listRatePlanOptions } from "@/server/deals";
 import { getMember } from "@/server/session";
+import { listSitePhotos } from "@/server/site-photos";
 import { HouseholdForm } from "./household-form";
+import { SitePhotos } from "./site-photos";
 import { UtilityForm } from "./utility-form";
 
 export const metadata: Metadata = { title: "Household" };
@@ -11,7 +13,7 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
   const { id } = await params;
   const member = await getMember();
   if (!member) return null;
-  const [{ household, deal }, plans] = await Promise.all([getDealRoom(member, id), listRatePlanOptions(member)]);
+  const [{ household, deal }, plans, sitePhotos] = await Promise.all([getDealRoom(member, id), listRatePlanOptions(member), listSitePhotos(member, id)]);
   const readOnly = !can(member.role, "deals:write");
   return (
     <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
@@ -48,6 +50,7 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
         </dl>
         <UtilityForm dealId={id} utilityName={deal.utilityName ?? ""} ratePlanId={deal.ratePlanId ?? ""} plans={plans} readOnly={readOnly} />
       </aside>
+      <SitePhotos dealId={id} canEdit={!readOnly} photos={sitePhotos.map((p) => ({ id: p.id, fileName: p.fileName, uploadedByName: p.uploadedByName }))} />
     </div>
   );
 }

@@ -1,0 +1,103 @@
+"use client";
+import { useRef, useState } from "react";
+import { FormMessage } from "@/components/field";
+import { api, ApiError } from "@/lib/api-client";
+
+export type SitePhotoThumb = { id: string; fileName: string; uploadedByName: string | null };
+
+/**
+ * Photos from the site visit (roof faces, the electrical panel, the meter): taken with the
+ * phone's camera or added from a file, checked and resized on the server, and shown to the
+ * install crew in the job packet.
+ */
+export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; canEdit: boolean }) {
+  const [photos, setPhotos] = useState(props.photos);
+  const [busy, setBusy] = useState(false);
+  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
+  const fileInput = useRef<HTMLInputElement>(null);
+  const fileUrl = (id: string) => `/api/deals/${props.dealId}/site-photos/${id}`;
+
+  async function add(file: File) {
+    setBusy(true);
+    setNotice(null);
+    const form = new FormData();
+    form.set("file", file);
+    try {
+      const photo = await api<SitePhotoThumb>(`/api/deals/${props.dealId}/site-photos`, { method: "POST", body: form });
+      setPhotos((list) => [photo, ...list]);
+      setNotice({ tone: "success", text: `Site photo saved as “${photo.fileName}”. The install crew will see it in the job packet.` });
+    } catch (err) {
+      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "The photo was not saved. Try again." });
+    } finally {
+      setBusy(false);
+      if (fileInput.current) fileInput.current.value = "";
+    }
+  }
+
+  async function remove(photo: SitePhotoThumb) {
+    setBusy(true);
+    setNotice(null);
+    try {
+      await api<null>(fileUrl(photo.id), { method: "DELETE" });
+      setPhotos((list) => list.filter((p) => p.id !== photo.id));
+      setNotice({ tone: "success", text: `Removed “${photo.fileName}”.` });
+    } catch (err) {
+      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "Not removed. Try again." });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <section className="card p-5 lg:col-span-2" aria-labelledby="site-photos-heading">
+      <h2 id="site-photos-heading" className="font-semibold">
+        Site photos
+      </h2>
+      <p className="mt-1 text-sm text-graphite-soft">The roof, the electrical panel and the meter, as you saw them. The install crew sees these in the job packet.</p>
+      <div aria-live="polite" className="mt-2">
+        {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+      </div>
+      {photos.length === 0 ? <p className="mt-2 text-sm text-graphite-soft">No site photos yet.</p> : null}
+      <ul className="mt-3 grid grid-cols-2 gap-3 sm:grid-cols-4" data-testid="site-photos">
+        {photos.map((p) => (
+          <li key={p.id} className="text-xs">
+            <a href={fileUrl(p.id)} target="_blank" rel="noreferrer">
+              <img src={fileUrl(p.id)} alt={`Site photo ${p.fileName}`} className="aspect-square w-full rounded-md object-cover" loading="lazy" />
+            </a>
+            <div className="mt-1 flex items-center justify-between gap-2">
+              <span className="truncate text-graphite-soft" title={p.fileName}>
+                {p.fileName}
+              </span>
+              {props.canEdit ? (
+                <button type="button" className="text-danger underline" disabled={busy} onClick={() => void remove(p)} aria-label={`Remove site photo ${p.fileName}`}>
+                  Remove
+                </button>
+              ) : null}
+            </div>
+          </li>
+        ))}
+      </ul>
+      {props.canEdit ? (
+        <div className="mt-3">
+          <label htmlFor="site-photo-input" className={`btn-quiet cursor-pointer ${busy ? "opacity-60" : ""}`}>
+            {busy ? "Saving…" : "Take or add a site photo"}
+          </label>
+          <input
+            ref={fileInput}
+            id="site-photo-input"
+            type="file"
+            accept="image/*"
+            capture="environment"
+            className="sr-only"
+            disabled={busy}
+            onChange={(e) => {
+              const file = e.target.files?.[0];
+              if (file) void add(file);
+            }}
+          />
+          <span className="ml-2 text-xs text-graphite-soft">JPEG, PNG or WebP; kept at up to 2048 px, location data removed.</span>
+        </div>
+      ) : null}
+    </section>
+  );
+}

@@ -1,0 +1,22 @@
+import { notFound } from "@/server/errors";
+import { idSchema, withMember } from "@/server/route";
+import { deleteSitePhoto, getSitePhotoFile } from "@/server/site-photos";
+
+type Params = { id: string; uploadId: string };
+
+const validIds = (params: Params) => idSchema.safeParse(params.id).success && idSchema.safeParse(params.uploadId).success;
+
+/** The site photo itself (JPEG). */
+export const GET = withMember<Params>("deals:read-own", async ({ member, params }) => {
+  if (!validIds(params)) throw notFound("Site photo");
+  const bytes = await getSitePhotoFile(member, params.id, params.uploadId);
+  return new Response(Buffer.from(bytes), {
+    headers: { "Content-Type": "image/jpeg", "Cache-Control": "private, max-age=3600", "X-Content-Type-Options": "nosniff" },
+  });
+});
+
+export const DELETE = withMember<Params>("deals:write", async ({ member, params }) => {
+  if (!validIds(params)) throw notFound("Site photo");
+  await deleteSitePhoto(member, params.id, params.uploadId);
+  return new Response(null, { status: 204 });
+});
