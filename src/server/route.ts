@@ -55,6 +55,15 @@ export async function readJson<S extends z.ZodType>(req: Request, schema: S): Pr
   return parsed.data;
 }
 
+/** Reads a multipart form body (file uploads): 400 naming what to send when it is not one. */
+export async function readForm(req: Request, what = "the file"): Promise<FormData> {
+  try {
+    return await req.formData();
+  } catch {
+    throw new HttpError(400, "invalid_form", `Send ${what} as multipart/form-data in a field named “file”.`);
+  }
+}
+
 export function validationError(error: z.ZodError): HttpError {
   const fields: Record<string, string[]> = {};
   for (const issue of error.issues) {

@@ -1,9 +1,7 @@
 // Shared set-up of the Board area's integration tests: deals written straight to MariaDB.
 import { and, asc, eq } from "drizzle-orm";
-import { expect } from "vitest";
 import { deal, household, timelineEvent, type Stage } from "@/db/schema";
 import { db } from "@/server/db";
-import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 
 /** A household and its deal, owned by `owner`, in `stage`, moved there `daysAgo` days ago. */
@@ -56,13 +54,4 @@ export async function eventsOf(dealId: string, kind: string) {
     .orderBy(asc(timelineEvent.createdAt));
 }
 
-/** Awaits a rejection and checks it is an HttpError with this status. */
-export async function rejects(promise: Promise<unknown>, status: number): Promise<HttpError> {
-  const err = await promise.then(
-    () => null,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(HttpError);
-  expect((err as HttpError).status).toBe(status);
-  return err as HttpError;
-}
+export { rejects } from "../support/fixtures";

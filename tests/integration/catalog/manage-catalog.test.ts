@@ -17,20 +17,10 @@ import {
   updateModule,
 } from "@/server/catalog";
 import { db } from "@/server/db";
-import { HttpError } from "@/server/errors";
-import { newCompany } from "../support/fixtures";
+import { newCompany, rejects } from "../support/fixtures";
 
 const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
 
-async function rejects(promise: Promise<unknown>, status: number) {
-  const err = await promise.then(
-    () => null,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(HttpError);
-  expect((err as HttpError).status).toBe(status);
-  return err as HttpError;
-}
 
 const goodModule: ModuleModelValues = {
   manufacturer: "Testfield",

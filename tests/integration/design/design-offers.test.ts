@@ -10,7 +10,7 @@ import { startMailFake, type MailFake } from "@/fakes/mail-server";
 import type { DesignDocumentInput } from "@/lib/schemas/design";
 import type { OfferInputsInput } from "@/lib/schemas/offer";
 import type { Member } from "@/server/session";
-import { addMember, newCompany, uniqueEmail } from "../support/fixtures";
+import { addMember, newCompany, rejects, uniqueEmail } from "../support/fixtures";
 
 let fake: MailFake | null = null;
 let owner: Member;
@@ -30,16 +30,6 @@ type Server = {
 };
 let s: Server;
 
-async function rejects(promise: Promise<unknown>, status: number): Promise<{ code: string; message: string; fields?: Record<string, string[]> }> {
-  const err = await promise.then(
-    () => null,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(s.errors.HttpError);
-  const e = err as InstanceType<typeof s.errors.HttpError>;
-  expect(e.status).toBe(status);
-  return { code: e.code, message: e.message, fields: e.fields };
-}
 
 async function mailTo(to: string): Promise<{ subject: string; text: string | null }[]> {
   const res = await fetch(`${process.env.KW_TEST_MAIL_URL}/dev/messages?to=${encodeURIComponent(to)}`, {

@@ -11,13 +11,12 @@ import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import { checklistTemplate, deal, household, job, jobPhoto, timelineEvent, type Stage } from "@/db/schema";
 import type { Member } from "@/server/session";
-import { addMember, newCompany } from "../support/fixtures";
+import { addMember, newCompany, rejects } from "../support/fixtures";
 
 type Server = {
   jobs: typeof import("@/server/jobs");
   crews: typeof import("@/server/crews");
   checklists: typeof import("@/server/checklists");
-  errors: typeof import("@/server/errors");
   db: typeof import("@/server/db");
   calendarRoute: typeof import("@/app/api/calendar/[token]/route");
 };
@@ -31,16 +30,6 @@ let stranger: Member;
 let crewA: string;
 let crewB: string;
 
-async function rejects(promise: Promise<unknown>, status: number): Promise<{ code: string; message: string }> {
-  const err = await promise.then(
-    () => null,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(s.errors.HttpError);
-  const e = err as InstanceType<typeof s.errors.HttpError>;
-  expect(e.status).toBe(status);
-  return { code: e.code, message: e.message };
-}
 
 async function newDeal(by: Member, stage: Stage, name: string): Promise<string> {
   const householdId = crypto.randomUUID();
@@ -95,7 +84,6 @@ beforeAll(async () => {
     jobs: await import("@/server/jobs"),
     crews: await import("@/server/crews"),
     checklists: await import("@/server/checklists"),
-    errors: await import("@/server/errors"),
     db: await import("@/server/db"),
     calendarRoute: await import("@/app/api/calendar/[token]/route"),
   };

@@ -7,13 +7,12 @@ import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import { deal, household, timelineEvent, upload } from "@/db/schema";
 import type { Member } from "@/server/session";
-import { addMember, newCompany } from "../support/fixtures";
+import { addMember, newCompany, rejects } from "../support/fixtures";
 
 type Server = {
   sitePhotos: typeof import("@/server/site-photos");
   jobs: typeof import("@/server/jobs");
   crews: typeof import("@/server/crews");
-  errors: typeof import("@/server/errors");
   db: typeof import("@/server/db");
 };
 let s: Server;
@@ -26,16 +25,6 @@ let stranger: Member;
 let dealId: string;
 let jobId: string;
 
-async function rejects(p: Promise<unknown>, status: number): Promise<{ code: string; message: string }> {
-  const err = await p.then(
-    () => null,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(s.errors.HttpError);
-  const e = err as InstanceType<typeof s.errors.HttpError>;
-  expect(e.status).toBe(status);
-  return { code: e.code, message: e.message };
-}
 
 async function sitePhotoRows(): Promise<number> {
   const rows = await s.db.db().select({ id: upload.id }).from(upload).where(and(eq(upload.dealId, dealId), eq(upload.purpose, "site_photo")));
@@ -55,7 +44,6 @@ beforeAll(async () => {
     sitePhotos: await import("@/server/site-photos"),
     jobs: await import("@/server/jobs"),
     crews: await import("@/server/crews"),
-    errors: await import("@/server/errors"),
     db: await import("@/server/db"),
   };
   owner = await newCompany("Site Photo Solar");

@@ -2,9 +2,8 @@ import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { account, invitation, membership, session, user } from "@/db/schema";
 import { db } from "@/server/db";
-import { HttpError } from "@/server/errors";
 import { acceptInvitation, findOpenInvitation, getPersonOrThrow, invitePerson, revokeInvitation, updatePerson } from "@/server/people";
-import { addMember, newCompany, uniqueEmail } from "../support/fixtures";
+import { addMember, newCompany, rejects, uniqueEmail } from "../support/fixtures";
 
 async function latestMailTo(to: string) {
   const res = await fetch(`${process.env.KW_TEST_MAIL_URL}/dev/messages?to=${encodeURIComponent(to)}&limit=1`, {
@@ -20,15 +19,6 @@ function tokenFrom(html: string): string {
   return match[1];
 }
 
-async function rejects(promise: Promise<unknown>, status: number, code?: string) {
-  const err = await promise.then(
-    () => null,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(HttpError);
-  expect((err as HttpError).status).toBe(status);
-  if (code) expect((err as HttpError).code).toBe(code);
-}
 
 describe("invitations", () => {
   it("stores only a hash of the token, e-mails the link, and the link creates a verified member once", async () => {

@@ -4,7 +4,7 @@ import { and, asc, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { deal, household, timelineEvent, type Stage } from "@/db/schema";
 import type { Member } from "@/server/session";
-import { addMember, newCompany } from "../support/fixtures";
+import { addMember, newCompany, rejects } from "../support/fixtures";
 
 type Server = {
   stages: typeof import("@/server/stages");
@@ -18,15 +18,17 @@ let rep: Member;
 let rep2: Member;
 let stranger: Member;
 
-async function rejects(promise: Promise<unknown>, status: number): Promise<{ code: string; message: string }> {
-  const err = await promise.then(
-    () => null,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(s.errors.HttpError);
-  const e = err as InstanceType<typeof s.errors.HttpError>;
-  expect(e.status).toBe(status);
-  return { code: e.code, message: e.message };
+
+/**
+ * Waits until one of the app's connections is running its UPDATE of a deal (blocked on the row
+ * lock), up to 10 s: the process list shows a user's own threads without extra privileges.
+ */
+async function waitForBlockedDealUpdate(): Promise<void> {
+  for (const start = Date.now(); Date.now() - start < 10_000; await new Promise((r) => setTimeout(r, 20))) {
+    const [rows] = await s.db.pool().query("SELECT COUNT(*) AS n FROM information_schema.PROCESSLIST WHERE INFO LIKE 'update `deal`%'");
+    if (Number((rows as { n: number }[])[0].n) > 0) return;
+  }
+  throw new Error("the move's UPDATE did not come to wait on the row lock within 10 s");
 }
 
 async function newDeal(by: Member, stage: Stage, name = "Testwood household"): Promise<string> {
@@ -142,7 +144,7 @@ describe("moveDealStage", () => {
         () => null,
         (e: unknown) => e,
       );
-      await new Promise((r) => setTimeout(r, 400)); // ours has read "Survey" and waits on the row lock
+      await waitForBlockedDealUpdate(); // ours has read "Survey" and waits on the row lock
       await other.query("UPDATE deal SET stage = 'on_hold' WHERE id = ?", [id]);
       await other.commit();
       const err = await ours;

@@ -1,8 +1,10 @@
 // Set-up helpers for integration tests: real MariaDB (the test profile's, started by
 // `npm test`), records written through the app's own modules where they exist.
 import { eq } from "drizzle-orm";
+import { expect } from "vitest";
 import { company, membership, user, type Role } from "@/db/schema";
 import { db } from "@/server/db";
+import { HttpError } from "@/server/errors";
 import { createCompanyForOwner } from "@/server/people";
 import type { Member } from "@/server/session";
 
@@ -31,4 +33,16 @@ export async function addMember(owner: Member, role: Role, name = "Sam Member"):
   await db().insert(membership).values({ id: membershipId, companyId: owner.companyId, userId, role });
   const [c] = await db().select().from(company).where(eq(company.id, owner.companyId));
   return { userId, name, email, membershipId, companyId: owner.companyId, companyName: c.name, role };
+}
+
+/** Awaits a rejection and checks it is an HttpError with this status (and this code, when given). */
+export async function rejects(promise: Promise<unknown>, status: number, code?: string): Promise<HttpError> {
+  const err = await promise.then(
+    () => null,
+    (e: unknown) => e,
+  );
+  expect(err).toBeInstanceOf(HttpError);
+  expect((err as HttpError).status).toBe(status);
+  if (code) expect((err as HttpError).code).toBe(code);
+  return err as HttpError;
 }

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { stationFieldsSchema, WEATHER_FILE_MAX_BYTES, WEATHER_FILE_MAX_LABEL } from "@/lib/schemas/weather";
 import { HttpError } from "@/server/errors";
-import { validationError, withMember } from "@/server/route";
+import { readForm, validationError, withMember } from "@/server/route";
 import { createStation, listStations } from "@/server/weather-stations";
 
 /** The company's weather stations with the sites that use them. */
@@ -24,12 +24,7 @@ export const POST = withMember("weather:manage", async ({ req, member }) => {
   if (declared > WEATHER_FILE_MAX_BYTES + MULTIPART_OVERHEAD_BYTES) {
     throw new HttpError(413, "file_too_large", `The file is larger than ${WEATHER_FILE_MAX_LABEL}.`, { file: [`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`] });
   }
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new HttpError(400, "invalid_form", "The upload could not be read as multipart form data.");
-  }
+  const form = await readForm(req);
   const file = form.get("file");
   if (!(file instanceof File)) {
     throw new HttpError(422, "validation_failed", "file: Choose a weather file to upload.", { file: ["Choose a weather file to upload"] });

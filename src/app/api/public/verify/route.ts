@@ -1,7 +1,7 @@
 import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import { HttpError } from "@/server/errors";
-import { toErrorResponse } from "@/server/route";
+import { readForm, toErrorResponse } from "@/server/route";
 import { MAX_VERIFY_FILE_BYTES, verifySignedPdf } from "@/server/signing";
 
 const formSchema = z.object({ file: z.instanceof(File, { message: "Choose a PDF file" }) });
@@ -14,12 +14,7 @@ export async function POST(req: NextRequest): Promise<Response> {
   try {
     const length = Number(req.headers.get("content-length") ?? "0");
     if (length > MAX_VERIFY_FILE_BYTES + 64 * 1024) throw new HttpError(413, "file_too_large", `Files up to ${MAX_VERIFY_FILE_BYTES / 1048576} MB are checked.`);
-    let form: FormData;
-    try {
-      form = await req.formData();
-    } catch {
-      throw new HttpError(400, "invalid_form", "Send the file as multipart/form-data in a field named “file”.");
-    }
+    const form = await readForm(req);
     const parsed = formSchema.safeParse({ file: form.get("file") });
     if (!parsed.success) throw new HttpError(422, "validation_failed", "Choose a PDF file.", { file: ["Choose a PDF file"] });
     const bytes = new Uint8Array(await parsed.data.file.arrayBuffer());

@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { HttpError, notFound } from "@/server/errors";
-import { idSchema, validationError, withMember } from "@/server/route";
+import { notFound } from "@/server/errors";
+import { idSchema, readForm, validationError, withMember } from "@/server/route";
 import { addSitePhoto, listSitePhotos } from "@/server/site-photos";
 
 type Params = { id: string };
@@ -16,12 +16,7 @@ const photoFormSchema = z.object({ file: z.instanceof(File, { message: "Choose o
 /** A site photo from the rep's phone or camera (multipart field “file”); the crew sees it in the job packet. */
 export const POST = withMember<Params>("deals:write", async ({ req, member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new HttpError(400, "invalid_form", "Send the photo as multipart/form-data in a field named “file”.");
-  }
+  const form = await readForm(req, "the photo");
   const parsed = photoFormSchema.safeParse({ file: form.get("file") });
   if (!parsed.success) throw validationError(parsed.error);
   const photo = await addSitePhoto(member, params.id, { name: parsed.data.file.name, bytes: new Uint8Array(await parsed.data.file.arrayBuffer()) });

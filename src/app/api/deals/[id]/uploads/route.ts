@@ -2,7 +2,7 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { acceptDealUpload, listDealUploads } from "@/server/energy";
 import { HttpError, notFound } from "@/server/errors";
-import { idSchema, withMember } from "@/server/route";
+import { idSchema, readForm, withMember } from "@/server/route";
 
 type Params = { id: string };
 
@@ -16,12 +16,7 @@ const uploadFormSchema = z.object({ file: z.instanceof(File, { message: "Choose 
 /** A bill (PDF, photo) or interval data (Green Button XML, CSV), checked by its content. */
 export const POST = withMember<Params>("deals:write", async ({ req, member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new HttpError(400, "invalid_form", "Send the file as multipart/form-data in a field named “file”.");
-  }
+  const form = await readForm(req);
   const parsed = uploadFormSchema.safeParse({ file: form.get("file") });
   if (!parsed.success) throw new HttpError(422, "validation_failed", "Choose a file to upload.", { file: ["Choose a file to upload"] });
   const file = parsed.data.file;

@@ -1,9 +1,9 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { jobPhotoCaptionSchema } from "@/lib/schemas/jobs";
-import { HttpError, notFound } from "@/server/errors";
+import { notFound } from "@/server/errors";
 import { addJobPhoto, listJobPhotos } from "@/server/jobs";
-import { idSchema, validationError, withMember } from "@/server/route";
+import { idSchema, readForm, validationError, withMember } from "@/server/route";
 
 type Params = { id: string };
 
@@ -20,12 +20,7 @@ const photoFormSchema = z.object({
 /** A photo from the phone's camera (multipart field “file”, optional “caption”). */
 export const POST = withMember<Params>("jobs:work", async ({ req, member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Job");
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new HttpError(400, "invalid_form", "Send the photo as multipart/form-data in a field named “file”.");
-  }
+  const form = await readForm(req, "the photo");
   const caption = form.get("caption");
   const parsed = photoFormSchema.safeParse({ file: form.get("file"), caption: typeof caption === "string" ? caption : undefined });
   if (!parsed.success) throw validationError(parsed.error);
