@@ -115,6 +115,14 @@ function paymentText(o: ProposalSnapshotOffer): string {
   return `Loan: ${pct(p.aprPct, 2)} APR over ${p.termMonths} months${fee}`;
 }
 
+/** "25 years", or "20 to 25 years" when the offers were figured over different periods. */
+function savingsYears(offers: readonly ProposalSnapshotOffer[]): string {
+  const ys = offers.map((o) => o.figures.assumptions.years);
+  const lo = Math.min(...ys);
+  const hi = Math.max(...ys);
+  return lo === hi ? `${lo} years` : `${lo} to ${hi} years`;
+}
+
 const whenPaid = (year: number) => (year === 0 ? "at signing" : `in year ${year}`);
 
 // ── Pages ──────────────────────────────────────────────────────────────────────────────────
@@ -167,7 +175,7 @@ function cover(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
     })),
   );
   flow.paragraph(
-    "Inside: your energy today, each offer's system and expected production, what it costs and saves over 25 years, every assumption behind the figures" +
+    `Inside: your energy today, each offer's system and expected production, what it costs and saves over ${savingsYears(s.offers)}, every assumption behind the figures` +
       (meta.inHomeSale ? ", your right to cancel," : ",") +
       " and the page to sign. All figures are estimates; see “Assumptions and disclosures”.",
     { size: 9.5, color: COLORS.muted },

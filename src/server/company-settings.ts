@@ -1,7 +1,7 @@
 import "server-only";
 import { eq } from "drizzle-orm";
 import { company, type Stage } from "@/db/schema";
-import { parseStoredSettings, stallLimits, type CompanySettingsValues, type CompanyTimeZone, type StallDays } from "@/lib/schemas/company-settings";
+import { parseStoredSettings, stallLimits, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
 import { db } from "@/server/db";
 import { notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -16,6 +16,8 @@ export type CompanySettings = {
   stallDays: StallDays;
   /** The same limits as the Board and Today read them (stages without one are never flagged). */
   stallLimits: Partial<Record<Stage, number>>;
+  /** The savings assumptions every new offer is figured with. */
+  finance: FinanceAssumptions;
 };
 
 /**
@@ -29,8 +31,8 @@ export async function getCompanySettings(companyId: string): Promise<CompanySett
     .where(eq(company.id, companyId))
     .limit(1);
   if (!row) throw notFound("Company");
-  const { stallDays, timeZone } = parseStoredSettings(row.settings);
-  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays) };
+  const { stallDays, timeZone, finance } = parseStoredSettings(row.settings);
+  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance };
 }
 
 /** GET /api/companies/[id]: one's own company only; any other id is simply not found. */
@@ -53,7 +55,7 @@ export async function updateCompanySettings(member: Member, input: CompanySettin
       .set({
         name: input.name,
         licenseNumber: input.licenseNumber,
-        settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays },
+        settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays, ...(input.finance ? { finance: input.finance } : {}) },
       })
       .where(eq(company.id, member.companyId));
   });

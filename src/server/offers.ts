@@ -11,6 +11,7 @@ import { PricingInputError } from "@/lib/pricing";
 import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
 import DiscountDecisionEmail from "@emails/discount-decision";
 import DiscountRequestEmail from "@emails/discount-request";
+import { getCompanySettings } from "@/server/company-settings";
 import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { designEquipment, getDesignForDeal, jsonValue, productionForDesign, usageHourlyForDeal } from "@/server/designs";
@@ -119,10 +120,11 @@ export async function computeOffer(member: Member, dealId: string, inputs: Offer
   });
 
   const site = { latitude: room.household.latitude, longitude: room.household.longitude };
-  const [production, usage, book] = await Promise.all([
+  const [production, usage, book, settings] = await Promise.all([
     productionForDesign(member, site, doc, counts, mod, inv),
     usageHourlyForDeal(member, dealId),
     getPriceBook(member.companyId),
+    getCompanySettings(member.companyId),
   ]);
   try {
     const figures = computeOfferFigures({
@@ -138,6 +140,7 @@ export async function computeOffer(member: Member, dealId: string, inputs: Offer
       adderIds: inputs.adderIds,
       lineItemIds: inputs.lineItemIds,
       discountCents: inputs.discountCents,
+      assumptions: settings.finance,
       notes: [`Weather: ${production.label}.`, ...production.notes],
     });
     return { figures, ratePlanId };

@@ -173,3 +173,36 @@ test("an admin sets the company's stall limit for a stage, and the Board flags b
   await expect(survey).toContainText("Flag after 30 days");
   await expect(survey.getByRole("button", { name: /^Galloway household/ })).not.toHaveAccessibleName(/stalled/);
 });
+
+test("an admin sets the savings assumptions of new offers; a slip is named on its field", async ({ page }) => {
+  await signIn(page, "admin@tallgrass.example");
+  await page.goto("/settings/company");
+  await expect(page.getByRole("heading", { name: "Savings assumptions" })).toBeVisible();
+  const degradation = page.getByLabel("Module output falls (%/yr)");
+  await expect(degradation).toHaveValue("0.5");
+
+  // 25 typed for 2.5: refused, named on its field, nothing saved.
+  await page.getByLabel("Utility prices rise (%/yr)").fill("25");
+  await page.getByRole("button", { name: "Save company settings" }).click();
+  await expect(page.getByText("A number from -2 to 8 (%/yr)")).toBeVisible();
+  await page.reload();
+  await expect(page.getByLabel("Utility prices rise (%/yr)")).toHaveValue("2.5");
+
+  await page.getByLabel("Utility prices rise (%/yr)").fill("3");
+  await degradation.fill("0.7");
+  await page.getByLabel("Years the savings run").fill("30");
+  await page.getByRole("button", { name: "Save company settings" }).click();
+  await expect(page.getByText("Company settings saved.")).toBeVisible();
+  await page.reload();
+  await expect(page.getByLabel("Utility prices rise (%/yr)")).toHaveValue("3");
+  await expect(degradation).toHaveValue("0.7");
+  await expect(page.getByLabel("Years the savings run")).toHaveValue("30");
+
+  // Back to the defaults, as the other journeys expect them.
+  await page.getByRole("button", { name: "Use the default savings assumptions" }).click();
+  await expect(degradation).toHaveValue("0.5");
+  await page.getByRole("button", { name: "Save company settings" }).click();
+  await expect(page.getByText("Company settings saved.")).toBeVisible();
+  await page.reload();
+  await expect(page.getByLabel("Years the savings run")).toHaveValue("25");
+});

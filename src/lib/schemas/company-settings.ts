@@ -1,9 +1,10 @@
 // Company settings (Settings → Company): the name and contractor licence number printed on
-// proposals, the company's time zone for "today", and the stall limits per stage that the
-// Board and Today flag deals by. The tunable parts live in company.settings (JSON); the name
+// proposals, the company's time zone for "today", the stall limits per stage that the Board
+// and Today flag deals by, and the savings assumptions every new offer is figured with. The tunable parts live in company.settings (JSON); the name
 // and licence number in their own columns. Shared by the form (zodResolver) and the server.
 import { z } from "zod";
 import type { Stage } from "@/db/schema";
+import { DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS } from "@/engine/cashflow";
 import { DEFAULT_STALL_DAYS, PIPELINE } from "@/lib/stage-rules";
 
 /** Stages a company may set a stall limit for: the main line up to Inspected, and On hold. */
@@ -40,11 +41,46 @@ export const DEFAULT_STALL_SETTINGS: StallDays = Object.fromEntries(STALL_STAGES
 const stallDayValue = z.number().int().min(STALL_DAYS_MIN).max(STALL_DAYS_MAX).nullable();
 
 /**
+ * The savings assumptions of every new offer (offer-figures.ts OfferAssumptions): how many
+ * years the savings run, how fast the modules' output falls and the utility's prices rise, and
+ * the discount rate of the NPV and LCOE. Assumptions, not forecasts: the customer's page and
+ * the proposal PDF state them. Saved proposals keep the figures they were made with.
+ */
+export type FinanceAssumptions = { years: number; degradationPctPerYear: number; utilityEscalationPctPerYear: number; discountRatePct: number };
+
+/** The engine's defaults (src/engine/cashflow.ts names their sources). */
+export const DEFAULT_FINANCE: FinanceAssumptions = {
+  years: DEFAULT_YEARS,
+  degradationPctPerYear: DEFAULT_DEGRADATION_PCT,
+  utilityEscalationPctPerYear: DEFAULT_UTILITY_ESCALATION_PCT,
+  discountRatePct: DEFAULT_DISCOUNT_RATE_PCT,
+};
+
+/**
+ * What a company may set (our ranges: wide enough for any residential market, narrow enough
+ * to catch a slip such as 25 for 2.5). Degradation: Jordan & Kurtz (2013) report module
+ * medians near 0.5 %/yr, and few warranties allow more than 1 %/yr.
+ */
+export const FINANCE_LIMITS = {
+  years: { min: 10, max: 40, integer: true, unit: "years" },
+  degradationPctPerYear: { min: 0, max: 2, integer: false, unit: "%/yr" },
+  utilityEscalationPctPerYear: { min: -2, max: 8, integer: false, unit: "%/yr" },
+  discountRatePct: { min: 0, max: 15, integer: false, unit: "%" },
+} as const satisfies Record<keyof FinanceAssumptions, { min: number; max: number; integer: boolean; unit: string }>;
+export const FINANCE_KEYS = Object.keys(FINANCE_LIMITS) as (keyof FinanceAssumptions)[];
+
+const financeValue = (k: keyof FinanceAssumptions) => {
+  const l = FINANCE_LIMITS[k];
+  const n = z.number().finite().min(l.min).max(l.max);
+  return l.integer ? n.int() : n;
+};
+
+/**
  * Reads company.settings defensively: a missing or damaged entry falls back to its default,
  * one stage at a time, so a bad value never hides the rest.
  */
-export function parseStoredSettings(value: unknown): { stallDays: StallDays; timeZone: CompanyTimeZone } {
-  const raw = (value && typeof value === "object" ? value : {}) as { stallDays?: unknown; timeZone?: unknown };
+export function parseStoredSettings(value: unknown): { stallDays: StallDays; timeZone: CompanyTimeZone; finance: FinanceAssumptions } {
+  const raw = (value && typeof value === "object" ? value : {}) as { stallDays?: unknown; timeZone?: unknown; finance?: unknown };
   const stored = (raw.stallDays && typeof raw.stallDays === "object" ? raw.stallDays : {}) as Record<string, unknown>;
   const stallDays = { ...DEFAULT_STALL_SETTINGS };
   for (const stage of STALL_STAGES) {
@@ -53,7 +89,13 @@ export function parseStoredSettings(value: unknown): { stallDays: StallDays; tim
     if (parsed.success) stallDays[stage] = parsed.data;
   }
   const tz = z.enum(TIME_ZONE_IDS).safeParse(raw.timeZone);
-  return { stallDays, timeZone: tz.success ? tz.data : DEFAULT_TIME_ZONE };
+  const storedFinance = (raw.finance && typeof raw.finance === "object" ? raw.finance : {}) as Record<string, unknown>;
+  const finance = { ...DEFAULT_FINANCE };
+  for (const k of FINANCE_KEYS) {
+    const parsed = financeValue(k).safeParse(storedFinance[k]);
+    if (parsed.success) finance[k] = parsed.data;
+  }
+  return { stallDays, timeZone: tz.success ? tz.data : DEFAULT_TIME_ZONE, finance };
 }
 
 /** The limits as the Board and Today use them: stages without a limit are never flagged. */
@@ -80,6 +122,28 @@ const stallDayField = z
     return n;
   });
 
+/** A typed number within its range (the form sends text); the message names the range and unit. */
+function financeField(k: keyof FinanceAssumptions) {
+  const l = FINANCE_LIMITS[k];
+  const message = l.integer ? `Whole ${l.unit} from ${l.min} to ${l.max}` : `A number from ${l.min} to ${l.max} (${l.unit})`;
+  return z.union([z.string(), z.number()]).transform((v, ctx) => {
+    const text = typeof v === "number" ? String(v) : v.trim().replace(/%$/, "").trim();
+    const n = text === "" ? Number.NaN : Number(text);
+    if (!Number.isFinite(n) || n < l.min || n > l.max || (l.integer && !Number.isInteger(n))) {
+      ctx.addIssue({ code: "custom", message });
+      return z.NEVER;
+    }
+    return n;
+  });
+}
+
+export const financeSchema = z.object({
+  years: financeField("years"),
+  degradationPctPerYear: financeField("degradationPctPerYear"),
+  utilityEscalationPctPerYear: financeField("utilityEscalationPctPerYear"),
+  discountRatePct: financeField("discountRatePct"),
+});
+
 /** Settings → Company form. */
 export const companySettingsSchema = z.object({
   name: z.string().trim().min(1, "Enter the company's name").max(200, "Keep the name under 200 characters"),
@@ -90,6 +154,8 @@ export const companySettingsSchema = z.object({
     .transform((v) => (v === "" ? null : v)),
   timeZone: z.enum(TIME_ZONE_IDS, "Pick a time zone from the list"),
   stallDays: z.object(Object.fromEntries(STALL_STAGES.map((s) => [s, stallDayField])) as Record<StallStage, typeof stallDayField>),
+  /** Left out, the stored assumptions stay as they are. */
+  finance: financeSchema.optional(),
 });
 export type CompanySettingsInput = z.input<typeof companySettingsSchema>;
 export type CompanySettingsValues = z.output<typeof companySettingsSchema>;

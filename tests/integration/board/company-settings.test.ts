@@ -4,7 +4,7 @@
 import { eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { company, job } from "@/db/schema";
-import { companySettingsSchema, DEFAULT_STALL_SETTINGS } from "@/lib/schemas/company-settings";
+import { companySettingsSchema, DEFAULT_FINANCE, DEFAULT_STALL_SETTINGS } from "@/lib/schemas/company-settings";
 import { DEFAULT_STALL_DAYS } from "@/lib/stage-rules";
 import { getCompanyOrThrow, getCompanySettings, updateCompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
@@ -82,6 +82,48 @@ describe("company settings", () => {
     const s = await getCompanySettings(other.companyId);
     expect(s.stallDays).toEqual({ ...DEFAULT_STALL_SETTINGS, survey: 9, signed: null });
     expect(s.timeZone).toBe("America/New_York");
+  });
+
+  it("saves the savings assumptions; a form without them keeps the stored ones", async () => {
+    const other = await newCompany("Assumptions Solar");
+    expect((await getCompanySettings(other.companyId)).finance).toEqual(DEFAULT_FINANCE);
+    const base = { name: "Assumptions Solar", licenseNumber: "", timeZone: "America/New_York", stallDays: DEFAULT_STALL_SETTINGS };
+    const saved = await updateCompanySettings(other, companySettingsSchema.parse({ ...base, finance: { years: "30", degradationPctPerYear: "0.4", utilityEscalationPctPerYear: "3.1 %", discountRatePct: "0" } }));
+    expect(saved.finance).toEqual({ years: 30, degradationPctPerYear: 0.4, utilityEscalationPctPerYear: 3.1, discountRatePct: 0 });
+    const kept = await updateCompanySettings(other, companySettingsSchema.parse({ ...base, name: "Assumptions Solar LLC" }));
+    expect(kept.finance).toEqual(saved.finance);
+    expect((await getCompanySettings(owner.companyId)).finance).toEqual(DEFAULT_FINANCE);
+  });
+
+  it("refuses assumptions outside their ranges, naming the field", () => {
+    const base = { name: "X", licenseNumber: "", timeZone: "America/New_York", stallDays: DEFAULT_STALL_SETTINGS };
+    const good = { years: "25", degradationPctPerYear: "0.5", utilityEscalationPctPerYear: "2.5", discountRatePct: "5" };
+    const cases: [keyof typeof good, string, RegExp][] = [
+      ["years", "9", /Whole years from 10 to 40/],
+      ["years", "25.5", /Whole years from 10 to 40/],
+      ["degradationPctPerYear", "5", /from 0 to 2/],
+      ["degradationPctPerYear", "-0.1", /from 0 to 2/],
+      ["utilityEscalationPctPerYear", "25", /from -2 to 8/],
+      ["discountRatePct", "five", /from 0 to 15/],
+      ["discountRatePct", "", /from 0 to 15/],
+    ];
+    for (const [key, value, message] of cases) {
+      const r = companySettingsSchema.safeParse({ ...base, finance: { ...good, [key]: value } });
+      expect(r.success, `${key}=${value}`).toBe(false);
+      if (!r.success) {
+        expect(r.error.issues[0].path).toEqual(["finance", key]);
+        expect(r.error.issues[0].message).toMatch(message);
+      }
+    }
+  });
+
+  it("falls back to the default for each damaged stored assumption", async () => {
+    const other = await newCompany("Damaged Assumptions Solar");
+    await db()
+      .update(company)
+      .set({ settings: { finance: { years: 99, degradationPctPerYear: "0.7", utilityEscalationPctPerYear: 3, discountRatePct: null } } })
+      .where(eq(company.id, other.companyId));
+    expect((await getCompanySettings(other.companyId)).finance).toEqual({ ...DEFAULT_FINANCE, utilityEscalationPctPerYear: 3 });
   });
 
   it("reads one's own company by id only", async () => {

@@ -8,7 +8,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { discountRequest, offer, timelineEvent } from "@/db/schema";
 import { startMailFake, type MailFake } from "@/fakes/mail-server";
 import type { DesignDocumentInput } from "@/lib/schemas/design";
+import { companySettingsSchema, DEFAULT_FINANCE, DEFAULT_STALL_SETTINGS } from "@/lib/schemas/company-settings";
 import type { OfferInputsInput } from "@/lib/schemas/offer";
+import { updateCompanySettings } from "@/server/company-settings";
 import type { Member } from "@/server/session";
 import { addMember, newCompany, rejects, uniqueEmail } from "../support/fixtures";
 
@@ -211,6 +213,28 @@ describe("offers", () => {
     expect(mails[0]?.subject).toMatch(/Discount to review: \$1,500/);
     const pending = await s.offers.listPendingDiscountRequests(office);
     expect(pending.map((p) => p.id)).toContain(request.id);
+  });
+
+  it("figures offers with the company's savings assumptions from the next save; a saved offer keeps its figures", async () => {
+    const before = await s.offers.getOfferOrThrow(rep, offerId);
+    expect(before.results.assumptions).toMatchObject(DEFAULT_FINANCE);
+    const settings = (finance?: Record<string, string>) =>
+      companySettingsSchema.parse({ name: "Design Test Solar", licenseNumber: "", timeZone: "America/New_York", stallDays: DEFAULT_STALL_SETTINGS, finance });
+    await updateCompanySettings(owner, settings({ years: "20", degradationPctPerYear: "1", utilityEscalationPctPerYear: "4", discountRatePct: "6" }));
+    try {
+      expect((await s.offers.getOfferOrThrow(rep, offerId)).results).toEqual(before.results);
+      const again = await s.offers.updateOffer(rep, offerId, { inputs: before.inputs });
+      expect(again.results.assumptions).toMatchObject({ years: 20, degradationPctPerYear: 1, utilityEscalationPctPerYear: 4, discountRatePct: 6 });
+      expect(again.results.rows).toHaveLength(21); // year 0 and 20 years
+      // Same system and price; output falls 1 %/yr instead of 0.5 %, prices rise 4 % instead of 2.5 %.
+      expect(again.results.summary.contractCents).toBe(before.results.summary.contractCents);
+      expect(again.results.summary.year1SavingsCents).toBe(before.results.summary.year1SavingsCents);
+      expect(again.results.rows[10].savingsCents).toBeGreaterThan(before.results.rows[10].savingsCents);
+    } finally {
+      await updateCompanySettings(owner, settings(Object.fromEntries(Object.entries(DEFAULT_FINANCE).map(([k, v]) => [k, String(v)]))));
+    }
+    const restored = await s.offers.updateOffer(rep, offerId, { inputs: before.inputs });
+    expect(restored.results.summary).toEqual(before.results.summary);
   });
 
   it("a rep cannot decide a discount; another company cannot see it", async () => {

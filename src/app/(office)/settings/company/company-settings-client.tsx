@@ -8,21 +8,34 @@ import { applyFieldErrors } from "@/lib/form-errors";
 import {
   COMPANY_TIME_ZONES,
   companySettingsSchema,
+  DEFAULT_FINANCE,
   DEFAULT_STALL_SETTINGS,
+  FINANCE_KEYS,
+  FINANCE_LIMITS,
   STALL_DAYS_MAX,
   STALL_DAYS_MIN,
   STALL_STAGES,
   type CompanySettingsInput,
   type CompanySettingsValues,
   type CompanyTimeZone,
+  type FinanceAssumptions,
   type StallDays,
 } from "@/lib/schemas/company-settings";
 import { STAGE_LABELS } from "@/lib/stages";
 import { updateCompanySettingsAction } from "./actions";
 
-type Initial = { name: string; licenseNumber: string; timeZone: CompanyTimeZone; stallDays: StallDays };
+type Initial = { name: string; licenseNumber: string; timeZone: CompanyTimeZone; stallDays: StallDays; finance: FinanceAssumptions };
 
 const asText = (days: StallDays): Record<string, string> => Object.fromEntries(STALL_STAGES.map((s) => [s, days[s] == null ? "" : String(days[s])]));
+const financeText = (f: FinanceAssumptions) => Object.fromEntries(FINANCE_KEYS.map((k) => [k, String(f[k])])) as Record<keyof FinanceAssumptions, string>;
+
+/** The savings assumptions as the form shows them, with where each default comes from. */
+const FINANCE_ROWS: { key: keyof FinanceAssumptions; label: string; hint: string }[] = [
+  { key: "years", label: "Years the savings run", hint: "The cash-flow table, payback, ROI and lifetime savings stop here. Common practice: the module warranty's term." },
+  { key: "degradationPctPerYear", label: "Module output falls (%/yr)", hint: "Default: Jordan & Kurtz (2013), the median of field studies. Use the module's warranty figure if you quote it." },
+  { key: "utilityEscalationPctPerYear", label: "Utility prices rise (%/yr)", hint: "Applied to the whole bill, with and without solar. Our default; look at your utility's recent rate cases." },
+  { key: "discountRatePct", label: "Discount rate for NPV (%)", hint: "How much less a dollar later is worth than a dollar now, for the NPV and LCOE. Our default." },
+];
 
 export function CompanySettingsClient({ initial }: { initial: Initial }) {
   const router = useRouter();
@@ -36,7 +49,13 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
     reset,
   } = useForm<CompanySettingsInput, unknown, CompanySettingsValues>({
     resolver: zodResolver(companySettingsSchema),
-    defaultValues: { name: initial.name, licenseNumber: initial.licenseNumber, timeZone: initial.timeZone, stallDays: asText(initial.stallDays) },
+    defaultValues: {
+      name: initial.name,
+      licenseNumber: initial.licenseNumber,
+      timeZone: initial.timeZone,
+      stallDays: asText(initial.stallDays),
+      finance: financeText(initial.finance),
+    },
   });
 
   const onSubmit = handleSubmit(async (values) => {
@@ -47,7 +66,7 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
       setNotice({ tone: "error", text: result.message });
       return;
     }
-    reset({ ...values, licenseNumber: values.licenseNumber ?? "", stallDays: asText(values.stallDays) });
+    reset({ ...values, licenseNumber: values.licenseNumber ?? "", stallDays: asText(values.stallDays), finance: values.finance ? financeText(values.finance) : undefined });
     setNotice({ tone: "success", text: "Company settings saved." });
     router.refresh();
   });
@@ -57,6 +76,10 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
       const d = DEFAULT_STALL_SETTINGS[stage];
       setValue(`stallDays.${stage}`, d == null ? "" : String(d), { shouldDirty: true, shouldValidate: true });
     }
+  }
+
+  function applyFinanceDefaults() {
+    for (const k of FINANCE_KEYS) setValue(`finance.${k}`, String(DEFAULT_FINANCE[k]), { shouldDirty: true, shouldValidate: true });
   }
 
   return (
@@ -162,6 +185,38 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
             })}
           </tbody>
         </table>
+      </section>
+
+      <section aria-labelledby="company-finance" className="card p-5">
+        <div className="flex flex-wrap items-baseline justify-between gap-2">
+          <h2 id="company-finance" className="text-lg font-semibold">
+            Savings assumptions
+          </h2>
+          <button type="button" className="btn-quiet" onClick={applyFinanceDefaults} aria-label="Use the default savings assumptions">
+            Use the defaults
+          </button>
+        </div>
+        <p className="mt-1 text-sm text-graphite-soft">
+          Every new offer&apos;s savings, payback, ROI and NPV are figured with these, and the customer&apos;s page and proposal PDF state them.
+          They are assumptions, not forecasts. Proposals already sent keep the figures they were made with; re-save an offer to figure it again.
+        </p>
+        <div className="mt-3 grid gap-4 sm:grid-cols-2">
+          {FINANCE_ROWS.map((row) => {
+            const l = FINANCE_LIMITS[row.key];
+            return (
+              <Field
+                key={row.key}
+                id={`finance-${row.key}`}
+                label={row.label}
+                inputMode="decimal"
+                autoComplete="off"
+                hint={`${row.hint} Default ${DEFAULT_FINANCE[row.key]}; from ${l.min} to ${l.max}.`}
+                error={errors.finance?.[row.key]?.message}
+                {...register(`finance.${row.key}`)}
+              />
+            );
+          })}
+        </div>
       </section>
 
       <div className="flex gap-2">

@@ -16,9 +16,9 @@ export default async function CompanySettingsPage() {
     <>
       <p className="text-sm text-graphite-soft">Settings</p>
       <h1 className="text-2xl font-semibold">Company</h1>
-      <p className="mt-1 text-graphite-soft">How {settings.name} appears on proposals, its working day, and when the Board flags a deal as stalled.</p>
+      <p className="mt-1 text-graphite-soft">How {settings.name} appears on proposals, its working day, when the Board flags a deal as stalled, and the savings assumptions of its offers.</p>
       <CompanySettingsClient
-        initial={{ name: settings.name, licenseNumber: settings.licenseNumber ?? "", timeZone: settings.timeZone, stallDays: settings.stallDays }}
+        initial={{ name: settings.name, licenseNumber: settings.licenseNumber ?? "", timeZone: settings.timeZone, stallDays: settings.stallDays, finance: settings.finance }}
       />
     </>
   );

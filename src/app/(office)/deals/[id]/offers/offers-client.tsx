@@ -40,7 +40,7 @@ const STATUS_TEXT: Record<DiscountStatus, string> = {
   declined: "Discount declined; priced without it",
 };
 
-const years = (y: number | null) => (y === null ? "not within 25 years" : `${y.toFixed(1)} years`);
+const years = (y: number | null, horizon: number) => (y === null ? `not within ${horizon} years` : `${y.toFixed(1)} years`);
 const pct = (r: number | null) => (r === null ? "—" : `${(r * 100).toFixed(0)} %`);
 
 export function OffersClient(props: Props) {
@@ -123,9 +123,9 @@ function Comparison({ offers }: { offers: OfferView[] }) {
     { label: "Net cost", value: (o) => formatCents(o.results.summary.netCostCents) },
     { label: "Monthly loan payment", value: (o) => (o.results.summary.monthlyLoanPaymentCents === null ? "cash" : formatCents(o.results.summary.monthlyLoanPaymentCents)) },
     { label: "Year-1 savings", value: (o) => formatCents(o.results.summary.year1SavingsCents) },
-    { label: "Payback", value: (o) => years(o.results.summary.paybackYears) },
+    { label: "Payback", value: (o) => years(o.results.summary.paybackYears, o.results.assumptions.years) },
     { label: "Simple ROI", value: (o) => pct(o.results.summary.simpleRoi) },
-    { label: "25-year bill savings", value: (o) => formatCents(o.results.summary.lifetimeSavingsCents) },
+    { label: "Bill savings over the period", value: (o) => `${formatCents(o.results.summary.lifetimeSavingsCents)} in ${o.results.assumptions.years} years` },
   ];
   return (
     <table className="mt-3 w-full min-w-[32rem] text-left text-sm" data-testid="offer-comparison">
