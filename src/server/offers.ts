@@ -249,6 +249,20 @@ async function setDealRatePlanIfMissing(tx: Tx, member: Member, dealId: string, 
   await tx.update(deal).set({ ratePlanId }).where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)));
 }
 
+type CreateOfferInput = { dealId: string; inputs: OfferInputs };
+
+/** What the offer form shows before saving: the same figures a save would store, minus the yearly rows. */
+export type OfferPreview = Pick<OfferFigures, "summary" | "discountNeedsApproval" | "discountLimitCents" | "assumptions">;
+
+/**
+ * An offer's figures for inputs not yet saved (the rep trying a discount, a loan, fewer
+ * modules): computed exactly as createOffer would, written nowhere.
+ */
+export async function previewOffer(member: Member, input: CreateOfferInput): Promise<OfferPreview> {
+  const { figures } = await computeOffer(member, input.dealId, input.inputs);
+  return { summary: figures.summary, discountNeedsApproval: figures.discountNeedsApproval, discountLimitCents: figures.discountLimitCents, assumptions: figures.assumptions };
+}
+
 export async function createOffer(member: Member, input: unknown): Promise<OfferRecord> {
   const parsed = createOfferSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);

@@ -72,6 +72,16 @@ test("the rep adds two roof faces, sizes to 100 % offset, then compares two offe
   await page.getByRole("link", { name: "Offers" }).click();
   await page.getByRole("button", { name: "Add an offer" }).click();
   await page.getByLabel("Offer name").fill("Whole roof, cash");
+  // The preview figures the inputs before saving: a $100 discount takes $100 off the price at once.
+  const previewPrice = page.getByTestId("offer-preview").getByTestId("preview-price");
+  await expect(previewPrice).toHaveText(/^\$[\d,]+/, { timeout: 30_000 });
+  const dollars = async () => Number(((await previewPrice.textContent()) ?? "").replace(/[$,]/g, ""));
+  const fullPrice = await dollars();
+  expect(fullPrice).toBeGreaterThan(1_000);
+  await page.getByLabel("Discount ($)").fill("100");
+  await expect.poll(dollars, { timeout: 15_000 }).toBe(fullPrice - 100);
+  await page.getByLabel("Discount ($)").fill("");
+  await expect.poll(dollars, { timeout: 15_000 }).toBe(fullPrice);
   await page.getByRole("button", { name: "Create and compute" }).click();
   await expect(page.getByRole("article", { name: "Offer Whole roof, cash" })).toBeVisible({ timeout: 30_000 });
 

@@ -9,7 +9,7 @@ import { discountRequest, offer, timelineEvent } from "@/db/schema";
 import { startMailFake, type MailFake } from "@/fakes/mail-server";
 import type { DesignDocumentInput } from "@/lib/schemas/design";
 import { companySettingsSchema, DEFAULT_FINANCE, DEFAULT_STALL_SETTINGS } from "@/lib/schemas/company-settings";
-import type { OfferInputsInput } from "@/lib/schemas/offer";
+import { offerInputsSchema, type OfferInputsInput } from "@/lib/schemas/offer";
 import { updateCompanySettings } from "@/server/company-settings";
 import type { Member } from "@/server/session";
 import { addMember, newCompany, rejects, uniqueEmail } from "../support/fixtures";
@@ -193,6 +193,24 @@ describe("offers", () => {
     expect(created.results.summary.year1SavingsCents).toBeGreaterThan(0);
     expect(created.results.rows).toHaveLength(26);
     expect(created.discountStatus).toBe("none");
+  });
+
+  it("previews unsaved inputs with the figures a save stores, writing nothing", async () => {
+    const saved = await s.offers.getOfferOrThrow(rep, offerId);
+    const offersBefore = await s.db.db().select({ id: offer.id }).from(offer).where(eq(offer.dealId, dealId));
+    const preview = await s.offers.previewOffer(rep, { dealId, inputs: offerInputsSchema.parse(cashOffer()) });
+    expect(preview.summary).toEqual(saved.results.summary);
+    expect(preview.discountNeedsApproval).toBe(false);
+
+    // Beyond the rep's limit: flagged in the preview, and no request is made until a save.
+    const big = await s.offers.previewOffer(rep, { dealId, inputs: offerInputsSchema.parse(cashOffer({ discountCents: 150_000 })) });
+    expect(big.summary.contractCents).toBe(saved.results.summary.contractCents - 150_000);
+    expect(big.discountNeedsApproval).toBe(true);
+    expect(await s.db.db().select({ id: discountRequest.id }).from(discountRequest).where(eq(discountRequest.dealId, dealId))).toEqual([]);
+    expect(await s.db.db().select({ id: offer.id }).from(offer).where(eq(offer.dealId, dealId))).toEqual(offersBefore);
+    expect((await s.offers.getOfferOrThrow(rep, offerId)).results).toEqual(saved.results);
+
+    await rejects(s.offers.previewOffer(other, { dealId, inputs: offerInputsSchema.parse(cashOffer()) }), 404);
   });
 
   it("recomputes on update from its own face counts", async () => {

@@ -3,7 +3,7 @@
 // server (never from figures typed here), the cumulative cash-flow chart, and discount requests.
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { FormMessage } from "@/components/field";
 import { api, ApiError } from "@/lib/api-client";
 import { formatCents } from "@/lib/format";
@@ -12,6 +12,10 @@ import { MAX_OFFERS_PER_DEAL, type OfferInputs, type OfferInputsInput } from "@/
 import { CashflowChart, OFFER_COLORS } from "./cashflow-chart";
 
 type DiscountStatus = "none" | "within_limit" | "pending" | "approved" | "declined";
+/** The server's figures for the form's inputs before saving (POST /api/offers/preview). */
+type Preview = Pick<OfferFigures, "summary" | "discountNeedsApproval" | "discountLimitCents" | "assumptions">;
+/** How long typing must pause before the preview is figured again. */
+const PREVIEW_DELAY_MS = 400;
 type OfferView = { id: string; position: number; name: string; inputs: OfferInputs; results: OfferFigures; discountStatus: DiscountStatus };
 type DesignView = { faces: { id: string; name: string; usableSlots: number; moduleCount: number }[]; moduleId: string; inverterId: string };
 type Option = { id: string; label: string };
@@ -295,6 +299,33 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
     };
   }
 
+  // The live preview: the same computation as a save, asked again whenever the inputs settle.
+  const [preview, setPreview] = useState<Preview | null>(null);
+  const [previewError, setPreviewError] = useState<string | null>(null);
+  const [previewBusy, setPreviewBusy] = useState(false);
+  useEffect(() => {
+    const controller = new AbortController();
+    const timer = setTimeout(async () => {
+      setPreviewBusy(true);
+      try {
+        const figures = await api<Preview>("/api/offers/preview", { method: "POST", json: { dealId, inputs: inputs() }, signal: controller.signal });
+        if (controller.signal.aborted) return;
+        setPreview(figures);
+        setPreviewError(null);
+      } catch (err) {
+        if (controller.signal.aborted) return;
+        setPreviewError(err instanceof ApiError ? err.message : "The preview could not be figured.");
+      } finally {
+        if (!controller.signal.aborted) setPreviewBusy(false);
+      }
+    }, PREVIEW_DELAY_MS);
+    return () => {
+      clearTimeout(timer);
+      controller.abort();
+    };
+    // inputs() reads only `state` (and props that do not change while the form is open).
+  }, [state]);
+
   async function submit(e: React.FormEvent) {
     e.preventDefault();
     setBusy(true);
@@ -423,6 +454,8 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
         {err("ratePlanId") ? <p className="field-error">{err("ratePlanId")}</p> : null}
       </div>
 
+      <OfferPreviewPanel preview={preview} error={previewError} busy={previewBusy} />
+
       {error ? <FormMessage tone="error">{error}</FormMessage> : null}
       <div className="flex gap-2">
         <button type="submit" className="btn-primary" disabled={busy}>
@@ -433,6 +466,53 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
         </button>
       </div>
     </form>
+  );
+}
+
+/** The figures of the inputs as they stand, before saving; nothing here is stored. */
+function OfferPreviewPanel({ preview, error, busy }: { preview: Preview | null; error: string | null; busy: boolean }) {
+  const f = preview?.summary;
+  const items: [string, string][] = f
+    ? [
+        ["System", `${f.kwDc.toFixed(2)} kW · ${f.offsetPct.toFixed(0)} % offset`],
+        ["Price", formatCents(f.contractCents)],
+        ["Net cost", formatCents(f.netCostCents)],
+        ["Year-1 savings", formatCents(f.year1SavingsCents)],
+        ["Payback", years(f.paybackYears, preview.assumptions.years)],
+        ...(f.monthlyLoanPaymentCents === null ? [] : ([["Monthly loan payment", formatCents(f.monthlyLoanPaymentCents)]] as [string, string][])),
+      ]
+    : [];
+  return (
+    <section aria-labelledby="offer-preview-heading" className="rounded-md border border-paper-line bg-paper-deep p-3 text-sm" data-testid="offer-preview">
+      <h4 id="offer-preview-heading" className="font-semibold">
+        Before saving{busy ? <span className="font-normal text-graphite-soft"> · figuring…</span> : null}
+      </h4>
+      <div aria-live="polite">
+        {error ? (
+          <p className="mt-1 text-graphite-soft">Not figured yet: {error}</p>
+        ) : f ? (
+          <>
+            <dl className="mt-1 grid grid-cols-2 gap-x-4 gap-y-1 sm:grid-cols-3">
+              {items.map(([label, value]) => (
+                <div key={label}>
+                  <dt className="text-graphite-soft">{label}</dt>
+                  <dd className="figure font-medium" data-testid={`preview-${label.toLowerCase().replace(/[^a-z0-9]+/g, "-")}`}>
+                    {value}
+                  </dd>
+                </div>
+              ))}
+            </dl>
+            {preview.discountNeedsApproval ? (
+              <p className="mt-2 text-danger">
+                This discount is beyond your limit{preview.discountLimitCents === null ? "" : ` of ${formatCents(preview.discountLimitCents)}`}: saving sends it to the office for approval.
+              </p>
+            ) : null}
+          </>
+        ) : (
+          <p className="mt-1 text-graphite-soft">Figuring the offer…</p>
+        )}
+      </div>
+    </section>
   );
 }
 
