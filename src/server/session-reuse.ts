@@ -30,7 +30,8 @@ export function reusedMember(cookie: string): Member | undefined {
 }
 
 export function keepMember(cookie: string, member: Member, sessionExpiresAt: Date): void {
-  members.set(cookie, { member, sessionExpiresAt: sessionExpiresAt.getTime() });
+  // Frozen: one object answers many requests.
+  members.set(cookie, { member: Object.freeze(member), sessionExpiresAt: sessionExpiresAt.getTime() });
 }
 
 /** On sign-out: the signed-out Cookie header is not answered from memory again. */

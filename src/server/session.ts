@@ -37,8 +37,9 @@ function prepareMembershipQuery() {
 let membershipQuery: ReturnType<typeof prepareMembershipQuery> | undefined;
 
 /**
- * A person's active membership with its company, or null (deactivated or none). Every request
- * of a signed-in person asks, so the query is built once per process and only its value bound.
+ * A person's active membership with its company, or null (deactivated or none). Asked for every
+ * request whose answer is not kept (session-reuse.ts), so the query is built once per process
+ * and only its value bound.
  */
 export async function activeMembership(userId: string) {
   membershipQuery ??= prepareMembershipQuery();
