@@ -20,17 +20,11 @@ import {
 } from "@/lib/schemas/deal-table";
 import { STAGE_LABELS } from "@/lib/stages";
 import { db } from "@/server/db";
+import { dealAudience, visibleTo } from "@/server/deals";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { moveDealStage } from "@/server/stages";
 import { recordEvent } from "@/server/timeline";
-
-/** Reps see the deals they own; office roles see the company's (the same rule as listDeals). */
-function visibleTo(member: Member): SQL {
-  const company = eq(deal.companyId, member.companyId);
-  if (can(member.role, "deals:read-all")) return company;
-  return and(company, eq(deal.ownerUserId, member.userId)) as SQL;
-}
 
 const SORT_COLUMNS: Record<DealTableSortColumn, AnyMySqlColumn> = {
   household: household.name,
@@ -315,8 +309,8 @@ function deepFreeze(page: DealTablePage): DealTablePage {
 /** A kept page's JSON text, written once: serializing 50 rows costs more than the rest of a cached answer. */
 const pageJson = new WeakMap<DealTablePage, string>();
 
-/** Whose deals a page shows: the company's for office roles, one rep's own otherwise (visibleTo). */
-const audience = (member: Member) => (can(member.role, "deals:read-all") ? "company" : `own:${member.userId}`);
+/** Whose deals a page shows (deals.ts dealAudience, the rule visibleTo applies). */
+const audience = (member: Member) => (dealAudience(member) === "company" ? "company" : `own:${member.userId}`);
 
 function pageKey(member: Member, q: DealTableQuery, countLimit: number, revision: Revision): string {
   return JSON.stringify([member.companyId, audience(member), revision.deals, countLimit, q.page, q.pageSize, q.sort, q.stage, q.owner, q.source, q.q, q.from, q.to]);

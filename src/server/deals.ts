@@ -23,10 +23,13 @@ export type DealRow = {
   createdAt: Date;
 };
 
-/** Reps see the deals they own; office roles see the company's. Always scoped by company. */
-function visibleTo(member: Member): SQL {
+/** Whose deals a person sees: the company's (office roles) or only the deals they own (reps). */
+export const dealAudience = (member: Member): "company" | "own" => (can(member.role, "deals:read-all") ? "company" : "own");
+
+/** The SQL of dealAudience, always scoped by company (every list of deals uses it). */
+export function visibleTo(member: Member): SQL {
   const company = eq(deal.companyId, member.companyId);
-  if (can(member.role, "deals:read-all")) return company;
+  if (dealAudience(member) === "company") return company;
   return and(company, eq(deal.ownerUserId, member.userId)) as SQL;
 }
 

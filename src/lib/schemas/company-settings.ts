@@ -69,10 +69,12 @@ export const FINANCE_LIMITS = {
 } as const satisfies Record<keyof FinanceAssumptions, { min: number; max: number; integer: boolean; unit: string }>;
 export const FINANCE_KEYS = Object.keys(FINANCE_LIMITS) as (keyof FinanceAssumptions)[];
 
+/** One assumption within its range; the message names the range and unit (the form shows it). */
 const financeValue = (k: keyof FinanceAssumptions) => {
   const l = FINANCE_LIMITS[k];
-  const n = z.number().finite().min(l.min).max(l.max);
-  return l.integer ? n.int() : n;
+  const message = l.integer ? `Whole ${l.unit} from ${l.min} to ${l.max}` : `A number from ${l.min} to ${l.max} (${l.unit})`;
+  const n = z.number({ error: message }).min(l.min, message).max(l.max, message);
+  return l.integer ? n.int(message) : n;
 };
 
 /**
@@ -122,20 +124,15 @@ const stallDayField = z
     return n;
   });
 
-/** A typed number within its range (the form sends text); the message names the range and unit. */
-function financeField(k: keyof FinanceAssumptions) {
-  const l = FINANCE_LIMITS[k];
-  const message = l.integer ? `Whole ${l.unit} from ${l.min} to ${l.max}` : `A number from ${l.min} to ${l.max} (${l.unit})`;
-  return z.union([z.string(), z.number()]).transform((v, ctx) => {
-    const text = typeof v === "number" ? String(v) : v.trim().replace(/%$/, "").trim();
-    const n = text === "" ? Number.NaN : Number(text);
-    if (!Number.isFinite(n) || n < l.min || n > l.max || (l.integer && !Number.isInteger(n))) {
-      ctx.addIssue({ code: "custom", message });
-      return z.NEVER;
-    }
-    return n;
-  });
-}
+/** A typed assumption (the form sends text, "3 %" allowed): read as a number, then checked like a stored one. */
+const financeField = (k: keyof FinanceAssumptions) =>
+  z
+    .union([z.string(), z.number()])
+    .transform((v) => {
+      const text = typeof v === "number" ? String(v) : v.trim().replace(/%$/, "").trim();
+      return text === "" ? Number.NaN : Number(text);
+    })
+    .pipe(financeValue(k));
 
 export const financeSchema = z.object({
   years: financeField("years"),
