@@ -1,5 +1,6 @@
 "use client";
-import { useRef, useState } from "react";
+import { useState } from "react";
+import { CameraInput } from "@/components/camera-input";
 import { FormMessage } from "@/components/field";
 import { api, ApiError } from "@/lib/api-client";
 
@@ -14,7 +15,6 @@ export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; ca
   const [photos, setPhotos] = useState(props.photos);
   const [busy, setBusy] = useState(false);
   const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const fileInput = useRef<HTMLInputElement>(null);
   const fileUrl = (id: string) => `/api/deals/${props.dealId}/site-photos/${id}`;
 
   async function add(file: File) {
@@ -30,7 +30,6 @@ export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; ca
       setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "The photo was not saved. Try again." });
     } finally {
       setBusy(false);
-      if (fileInput.current) fileInput.current.value = "";
     }
   }
 
@@ -79,22 +78,7 @@ export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; ca
       </ul>
       {props.canEdit ? (
         <div className="mt-3">
-          <label htmlFor="site-photo-input" className={`btn-quiet cursor-pointer ${busy ? "opacity-60" : ""}`}>
-            {busy ? "Saving…" : "Take or add a site photo"}
-          </label>
-          <input
-            ref={fileInput}
-            id="site-photo-input"
-            type="file"
-            accept="image/*"
-            capture="environment"
-            className="sr-only"
-            disabled={busy}
-            onChange={(e) => {
-              const file = e.target.files?.[0];
-              if (file) void add(file);
-            }}
-          />
+          <CameraInput id="site-photo-input" label="Take or add a site photo" busyLabel="Saving…" busy={busy} buttonClass="btn-quiet" onPhoto={(file) => void add(file)} />
           <span className="ml-2 text-xs text-graphite-soft">JPEG, PNG or WebP; kept at up to 2048 px, location data removed.</span>
         </div>
       ) : null}

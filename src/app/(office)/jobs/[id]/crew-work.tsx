@@ -1,6 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
-import { useRef, useState } from "react";
+import { useState } from "react";
+import { CameraInput } from "@/components/camera-input";
 import { FormMessage } from "@/components/field";
 import { api, ApiError } from "@/lib/api-client";
 import type { JobChecklistItem } from "@/lib/schemas/jobs";
@@ -19,7 +20,6 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
   const [uploading, setUploading] = useState(false);
   const [confirming, setConfirming] = useState(false);
   const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const fileInput = useRef<HTMLInputElement>(null);
   const open = items.filter((i) => !i.doneAt).length;
 
   async function tick(item: JobChecklistItem, done: boolean) {
@@ -51,7 +51,6 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
       setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "The photo was not saved. Try again." });
     } finally {
       setUploading(false);
-      if (fileInput.current) fileInput.current.value = "";
     }
   }
 
@@ -123,21 +122,13 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
         </ul>
         {props.canWork ? (
           <div className="mt-3">
-            <label htmlFor="job-photo-input" className={`btn-primary w-full cursor-pointer ${uploading ? "opacity-60" : ""}`}>
-              {uploading ? "Saving the photo…" : "Take or add a photo"}
-            </label>
-            <input
-              ref={fileInput}
+            <CameraInput
               id="job-photo-input"
-              type="file"
-              accept="image/*"
-              capture="environment"
-              className="sr-only"
-              disabled={uploading}
-              onChange={(e) => {
-                const file = e.target.files?.[0];
-                if (file) void upload(file);
-              }}
+              label="Take or add a photo"
+              busyLabel="Saving the photo…"
+              busy={uploading}
+              buttonClass="btn-primary w-full"
+              onPhoto={(file) => void upload(file)}
             />
             <p className="mt-1 text-xs text-graphite-soft">JPEG, PNG or WebP; stored at up to 2048 px.</p>
           </div>
