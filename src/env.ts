@@ -1,6 +1,16 @@
 // Configuration, parsed once at start. A missing or malformed variable stops the process
 // with a message naming it (documented in .env.example).
+import proxyaddr from "proxy-addr";
 import { z } from "zod";
+
+function trustListValid(list: string): boolean {
+  try {
+    proxyaddr.compile(list.split(",").map((s) => s.trim()).filter(Boolean));
+    return true;
+  } catch {
+    return false;
+  }
+}
 
 export const envSchema = z.object({
   APP_MODE: z.enum(["demo", "test", "production"]),
@@ -25,6 +35,14 @@ export const envSchema = z.object({
     .url()
     .transform((u) => u.replace(/\/$/, ""))
     .optional(),
+  /**
+   * Proxies whose X-Forwarded-For is believed: comma list of addresses or CIDR ranges. Empty
+   * (the default): the client address is the connection's peer, whatever the caller writes.
+   */
+  TRUSTED_PROXIES: z
+    .string()
+    .default("")
+    .refine((v) => trustListValid(v), "must be a comma list of IP addresses or CIDR ranges, e.g. 10.0.0.5,10.1.0.0/16"),
 });
 
 export type Env = z.infer<typeof envSchema>;

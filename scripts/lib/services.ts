@@ -93,11 +93,15 @@ export function startPaymentsFake(inst: Instance): ChildProcess {
   );
 }
 
+/**
+ * The production build behind scripts/app-server.ts (the client address from the connection),
+ * on loopback. One Node process: stopping its group stops it.
+ */
 export function startApp(inst: Instance): ChildProcess {
   return startService(
     "app",
     process.execPath,
-    [path.join(projectRoot, "node_modules/next/dist/bin/next"), "start", "-H", "127.0.0.1", "-p", String(inst.ports.app)],
+    ["--import", "tsx", "scripts/app-server.ts", "-H", "127.0.0.1", "-p", String(inst.ports.app)],
     { ...inst.appEnv, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
     path.join(inst.dir, "logs"),
   );

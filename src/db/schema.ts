@@ -149,16 +149,17 @@ export const invitation = mysqlTable(
   (t) => [uniqueIndex("invitation_token_uq").on(t.tokenHash), index("invitation_company_idx").on(t.companyId, t.email)],
 );
 
-/** Failed sign-in attempts, kept in the database so every app node sees the same limit. */
-export const signInFailure = mysqlTable(
-  "sign_in_failure",
-  {
-    id: int("id").autoincrement().primaryKey(),
-    email: varchar("email", { length: 320 }).notNull(),
-    failedAt: datetime("failed_at", { fsp: 3 }).notNull(),
-  },
-  (t) => [index("sign_in_failure_email_idx").on(t.email, t.failedAt)],
-);
+/**
+ * The counters of the one limiter (src/server/limits.ts, rate-limiter-flexible's MySQL store):
+ * one row per limit and key, with the points used and when the window ends (ms since epoch).
+ * Column names, order and types are the store's own (it inserts `VALUES (key, points, expire)`).
+ * No company_id: the keys are addresses, e-mails and links, counted before anyone is known.
+ */
+export const rateLimit = mysqlTable("rate_limit", {
+  key: varchar("key", { length: 255 }).primaryKey(),
+  points: int("points").notNull().default(0),
+  expire: bigint("expire", { mode: "number", unsigned: true }),
+});
 
 // ── Households and deals ───────────────────────────────────────────────────────────────────
 
@@ -837,7 +838,7 @@ export const schema = {
   company,
   membership,
   invitation,
-  signInFailure,
+  rateLimit,
   household,
   deal,
   dealsRevision,

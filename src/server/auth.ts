@@ -3,14 +3,16 @@ import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { APIError, createAuthMiddleware } from "better-auth/api";
 import { nextCookies } from "better-auth/next-js";
-import { and, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { createElement } from "react";
 import { account, membership, session, user, verification } from "@/db/schema";
 import { env } from "@/env";
+import { CLIENT_HEADER, clientAddress } from "@/server/client-address";
 import { db } from "@/server/db";
+import { clearTurns, emailKey, giveBack, takeTurn, TooManyRequests, tryTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
 import { forgetCookie } from "@/server/session-reuse";
-import { clearSignInFailures, recordSignInFailure, signInBlocked } from "@/server/sign-in-limit";
+import { AccountExistsEmail } from "@emails/account-exists";
 import { ResetPasswordEmail } from "@emails/reset-password";
 import { VerifyEmail } from "@emails/verify-email";
 
@@ -33,6 +35,34 @@ function emailOf(body: unknown): string | null {
   return typeof email === "string" ? email.trim().toLowerCase() : null;
 }
 
+/** A refused turn as better-auth answers it: 429, the wait in the message and in Retry-After. */
+function tooMany(err: unknown): never {
+  if (err instanceof TooManyRequests) {
+    throw new APIError("TOO_MANY_REQUESTS", { message: err.message, code: "TOO_MANY_ATTEMPTS" }, { "Retry-After": String(err.retryAfterSeconds) });
+  }
+  throw err;
+}
+
+const signInMessage = (wait: string) => `Too many wrong passwords for this e-mail. Wait ${wait}, or reset your password.`;
+
+/**
+ * Turns taken before better-auth checks a password, in this order: the address (so one
+ * stranger's guesses use up their own address first), the e-mail from that address (at most 5
+ * passwords checked), then the e-mail from every address (short; a password reset lifts it).
+ */
+async function takeSignInTurns(address: string, email: string): Promise<void> {
+  await takeTurn("signInAddress", address, (wait) => `Too many sign-in attempts from this address. Wait ${wait}.`);
+  await takeTurn("signInPair", `${emailKey(email)}|${address}`, signInMessage);
+  await takeTurn("signInEmail", emailKey(email), signInMessage);
+}
+
+/** The right password was given: the e-mail's counts are forgotten and the address gets its turn back. */
+async function rightPassword(address: string, email: string): Promise<void> {
+  await Promise.all([clearTurns("signInPair", `${emailKey(email)}|${address}`), clearTurns("signInEmail", emailKey(email)), giveBack("signInAddress", address)]);
+}
+
+const addressOf = (headers: Headers | undefined) => clientAddress(headers ?? new Headers());
+
 function createAuth() {
   const config = env();
   return betterAuth({
@@ -41,10 +71,24 @@ function createAuth() {
     secret: config.BETTER_AUTH_SECRET,
     database: drizzleAdapter(db(), { provider: "mysql", schema: { user, session, account, verification } }),
     telemetry: { enabled: false },
-    // better-auth's own limiter keeps its counters per IP; sign-in is limited per account by
-    // sign-in-limit.ts in the database instead, so every app node shares the same count.
+    // better-auth's own limiter counts after reading a non-atomic row; limits.ts (one limiter,
+    // atomic, in MariaDB) guards its endpoints in the hooks below instead.
     rateLimit: { enabled: false },
-    advanced: { database: { generateId: () => crypto.randomUUID() } },
+    // Sign-up goes through our own action, which makes the company and its owner together;
+    // the bare endpoint would leave a person without a company.
+    disabledPaths: ["/sign-up/email"],
+    advanced: {
+      database: { generateId: () => crypto.randomUUID() },
+      // Session records keep the address the app server took from the connection.
+      ipAddress: { ipAddressHeaders: [CLIENT_HEADER] },
+      // E-mails are sent after the answer, so an address with an account answers as fast as
+      // one without (reset, sign-up); a failed send is logged.
+      backgroundTasks: {
+        handler: (p) => {
+          void p.catch((err: unknown) => console.error("background e-mail failed", err));
+        },
+      },
+    },
     session: { expiresIn: SESSION_DAYS * 24 * 3600, updateAge: 24 * 3600 },
     emailAndPassword: {
       enabled: true,
@@ -53,6 +97,18 @@ function createAuth() {
       maxPasswordLength: 128,
       resetPasswordTokenExpiresIn: RESET_TOKEN_MINUTES * 60,
       revokeSessionsOnPasswordReset: true,
+      // The reset link proves the mailbox: the e-mail's sign-in lock is lifted.
+      onPasswordReset: async ({ user: u }) => {
+        await clearTurns("signInEmail", emailKey(u.email));
+      },
+      // Sign-up with a known address answers as a new one would; the owner gets this instead.
+      onExistingUserSignUp: async ({ user: u }) => {
+        await sendEmail({
+          to: u.email,
+          subject: "You already have a Kilowright account",
+          react: createElement(AccountExistsEmail, { name: u.name, signInUrl: `${config.APP_URL}/sign-in`, resetUrl: `${config.APP_URL}/forgot-password` }),
+        });
+      },
       sendResetPassword: async ({ user: u, url }) => {
         await sendEmail({
           to: u.email,
@@ -65,7 +121,10 @@ function createAuth() {
       sendOnSignUp: true,
       sendOnSignIn: true,
       autoSignInAfterVerification: true,
-      sendVerificationEmail: async ({ user: u, url }) => {
+      sendVerificationEmail: async ({ user: u, url }, request) => {
+        // The resend endpoint took its turn (with a 429) in the hook; sign-in and sign-up skip quietly.
+        const counted = request?.url.endsWith("/send-verification-email") ?? false;
+        if (!counted && !(await tryTurn("verificationEmail", emailKey(u.email)))) return;
         await sendEmail({
           to: u.email,
           subject: "Confirm your e-mail for Kilowright",
@@ -77,32 +136,29 @@ function createAuth() {
       session: {
         create: {
           // A deactivated person gets no new session by any path (sign-in, verification link).
-          before: async (s) => ((await isDeactivated(s.userId)) ? false : undefined),
+          // This runs only after the right password, so the state is never told to a guesser.
+          before: async (s) => {
+            if (await isDeactivated(s.userId)) {
+              throw new APIError("FORBIDDEN", {
+                message: "This account has been deactivated. Ask your company's admin to reactivate it.",
+                code: "ACCOUNT_DEACTIVATED",
+              });
+            }
+          },
         },
       },
     },
     hooks: {
       before: createAuthMiddleware(async (ctx) => {
-        if (ctx.path !== "/sign-in/email") return;
         const email = emailOf(ctx.body);
-        if (!email) return;
-        if (await signInBlocked(email)) {
-          throw new APIError("TOO_MANY_REQUESTS", {
-            message: "Too many wrong passwords for this e-mail. Wait 15 minutes, or reset your password.",
-            code: "TOO_MANY_ATTEMPTS",
-          });
+        const address = addressOf(ctx.headers);
+        if (ctx.path === "/sign-in/email" && email) await takeSignInTurns(address, email).catch(tooMany);
+        if (ctx.path === "/request-password-reset" && email) {
+          await takeTurn("resetAddress", address).catch(tooMany);
+          await takeTurn("resetEmail", emailKey(email), (wait) => `A reset link for this address was asked for several times. Check your e-mail, or try again in ${wait}.`).catch(tooMany);
         }
-        const [found] = await db()
-          .select({ status: membership.status })
-          .from(user)
-          .innerJoin(membership, eq(membership.userId, user.id))
-          .where(and(eq(user.email, email), eq(membership.status, "deactivated")))
-          .limit(1);
-        if (found) {
-          throw new APIError("FORBIDDEN", {
-            message: "This account has been deactivated. Ask your company's admin to reactivate it.",
-            code: "ACCOUNT_DEACTIVATED",
-          });
+        if (ctx.path === "/send-verification-email" && email) {
+          await takeTurn("verificationEmail", emailKey(email), (wait) => `Several confirmation e-mails went to this address already. Check your e-mail, or ask again in ${wait}.`).catch(tooMany);
         }
       }),
       after: createAuthMiddleware(async (ctx) => {
@@ -111,11 +167,9 @@ function createAuth() {
         const email = emailOf(ctx.body);
         if (!email) return;
         const returned = ctx.context.returned;
-        if (returned instanceof APIError) {
-          if (returned.statusCode === 401) await recordSignInFailure(email);
-        } else {
-          await clearSignInFailures(email);
-        }
+        // Signed in, or refused only after the password check (403: not yet confirmed, deactivated).
+        const right = returned instanceof APIError ? returned.statusCode === 403 : !(returned instanceof Error);
+        if (right) await rightPassword(addressOf(ctx.headers), email);
       }),
     },
     plugins: [nextCookies()],

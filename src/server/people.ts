@@ -9,6 +9,7 @@ import type { z } from "zod";
 import type { acceptInvitationSchema, inviteSchema, updatePersonSchema } from "@/lib/schemas/people";
 import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
+import { emailKey, takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
 import { forgetPerson } from "@/server/session-reuse";
 import type { Member } from "@/server/session";
@@ -112,12 +113,21 @@ export async function invitePerson(member: Member, input: z.output<typeof invite
   if (!assignableRoles(member.role).includes(input.role)) {
     throw new HttpError(403, "forbidden", "Only an owner can invite another owner.");
   }
-  const [existing] = await db().select({ id: user.id }).from(user).where(eq(user.email, input.email)).limit(1);
-  if (existing) {
-    throw new HttpError(409, "already_member", `${input.email} already has a Kilowright account.`, {
-      email: ["This person already has an account"],
+  // Only the inviter's own people are named; an address with an account elsewhere (or none)
+  // gets the same answer and the same e-mail, so inviting reveals no other company's people.
+  const [ours] = await db()
+    .select({ id: membership.id })
+    .from(membership)
+    .innerJoin(user, eq(user.id, membership.userId))
+    .where(and(eq(membership.companyId, member.companyId), eq(user.email, input.email)))
+    .limit(1);
+  if (ours) {
+    throw new HttpError(409, "already_member", `${input.email} is already one of your company's people.`, {
+      email: ["This person is already in your company"],
     });
   }
+  await takeTurn("invitationCompany", member.companyId);
+  await takeTurn("invitationEmail", emailKey(input.email), (wait) => `Several invitations went to ${input.email} already. Try again in ${wait}.`);
   const { token, hash } = newLinkToken();
   const id = crypto.randomUUID();
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 24 * 3600_000);
@@ -244,7 +254,7 @@ export async function acceptInvitation(input: z.output<typeof acceptInvitationSc
   const userId = crypto.randomUUID();
   await db().transaction(async (tx) => {
     const [taken] = await tx.select({ id: user.id }).from(user).where(eq(user.email, inv.email)).limit(1);
-    if (taken) throw new HttpError(409, "already_member", `${inv.email} already has a Kilowright account.`);
+    if (taken) throw new HttpError(409, "already_member", `${inv.email} already has a Kilowright account, and a person belongs to one company. Sign in with it, or ask for an invitation to another address.`);
     await tx.insert(user).values({ id: userId, name: input.name, email: inv.email, emailVerified: true });
     await tx.insert(account).values({
       id: crypto.randomUUID(),

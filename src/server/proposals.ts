@@ -36,6 +36,8 @@ import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { getDesignForDeal, jsonValue } from "@/server/designs";
 import { getDealUsage } from "@/server/energy";
 import { forbidden, HttpError, notFound } from "@/server/errors";
+import { clientMeta, type ClientMeta } from "@/server/client-address";
+import { takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
 import { listOffers } from "@/server/offers";
 import { getPriceBook } from "@/server/price-book";
@@ -108,14 +110,8 @@ export function publicView(p: ProposalRow) {
 
 // ── Events ──────────────────────────────────────────────────────────────────────────────────
 
-export type ClientMeta = { ip: string; userAgent: string };
-
-/** The caller's address and browser as the proxy reports them (first x-forwarded-for hop). */
-export function clientMeta(headers: Headers): ClientMeta {
-  const forwarded = headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  const ip = forwarded || headers.get("x-real-ip")?.trim() || "unknown";
-  return { ip: ip.slice(0, 64), userAgent: (headers.get("user-agent") ?? "unknown").slice(0, 500) };
-}
+// The caller's address comes from the connection (client-address.ts), never from their headers.
+export { clientMeta, type ClientMeta } from "@/server/client-address";
 
 export type ProposalEventKind =
   | "sent"
@@ -640,7 +636,6 @@ export async function recordProposalView(p: ProposalRow, client: ClientMeta, now
   });
 }
 
-const MAX_QUESTIONS_PER_HOUR = 20;
 
 /** The customer asks the rep a question: stored as an event, on the Timeline, e-mailed to the rep. */
 export async function askQuestion(p: ProposalRow, input: unknown, client: ClientMeta): Promise<{ id: string }> {
@@ -648,15 +643,10 @@ export async function askQuestion(p: ProposalRow, input: unknown, client: Client
   if (state !== "live" && state !== "signed") throw new HttpError(409, "not_live", `${STATE_REFUSALS[state as Exclude<ProposalLinkState, "live">]} Questions go through the newest link.`);
   const parsed = proposalQuestionSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
-  const recent = await db()
-    .select({ id: proposalEvent.id, createdAt: proposalEvent.createdAt })
-    .from(proposalEvent)
-    .where(and(eq(proposalEvent.companyId, p.companyId), eq(proposalEvent.proposalId, p.id), eq(proposalEvent.kind, "question")))
-    .orderBy(desc(proposalEvent.createdAt))
-    .limit(MAX_QUESTIONS_PER_HOUR);
-  if (recent.length >= MAX_QUESTIONS_PER_HOUR && Date.now() - recent[recent.length - 1].createdAt.getTime() < 3_600_000) {
-    throw new HttpError(429, "too_many_questions", "That is many questions in one hour; your installer has them. Try again later or call them.");
-  }
+  // Counted before the question is stored and mailed (limits.ts), per link and per address.
+  const tooMany = (wait: string) => `That is many questions in one hour; your installer has them. Try again in ${wait}, or call them.`;
+  await takeTurn("questionLink", p.id, tooMany);
+  await takeTurn("questionAddress", client.ip, tooMany);
   const question = parsed.data.question;
   const id = await db().transaction(async (tx) => {
     const eid = await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "question", body: question, client });

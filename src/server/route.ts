@@ -4,6 +4,7 @@ import { z } from "zod";
 import type { Permission } from "@/lib/permissions";
 import { EngineInputError } from "@/engine/errors";
 import { engineFields, HttpError, isDatabaseDown } from "@/server/errors";
+import { TooManyRequests } from "@/server/limits";
 import { requireMember, type Member } from "@/server/session";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -15,6 +16,11 @@ export function errorResponse(status: number, code: string, message: string, fie
 
 /** Turns any thrown error into the JSON error body; unexpected ones are logged, not leaked. */
 export function toErrorResponse(err: unknown): NextResponse {
+  if (err instanceof TooManyRequests) {
+    const res = errorResponse(err.status, err.code, err.message);
+    res.headers.set("Retry-After", String(err.retryAfterSeconds));
+    return res;
+  }
   if (err instanceof HttpError) return errorResponse(err.status, err.code, err.message, err.fields);
   if (err instanceof EngineInputError) return errorResponse(422, "invalid_input", err.message, engineFields(err));
   if (isDatabaseDown(err)) {

@@ -9,7 +9,7 @@ import "server-only";
 // retention (the immutable stored file, downloadable from the customer's page).
 import { createHash, createHmac, randomBytes, randomInt, timingSafeEqual } from "node:crypto";
 import { createElement } from "react";
-import { and, asc, eq, gte } from "drizzle-orm";
+import { and, asc, eq } from "drizzle-orm";
 import { fileTypeFromBuffer } from "file-type";
 import { deal, proposal, proposalEvent } from "@/db/schema";
 import { SignatureImageError, stampSignedPdf } from "@/documents/signed-pdf";
@@ -24,6 +24,7 @@ import SigningCodeEmail from "@emails/signing-code";
 import { getCompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
 import { HttpError } from "@/server/errors";
+import { takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
 import { dealProposalUrl, insertProposalEvent, labelOf, proposalUrl, readProposalPdf, type ClientMeta, type ProposalRow } from "@/server/proposals";
 import { validationError } from "@/server/route";
@@ -36,9 +37,6 @@ export const CODE_TTL_MS = 10 * 60_000;
 export const MAX_CODE_ATTEMPTS = 5;
 /** A confirmed e-mail stays good for signing this long. */
 export const SIGNING_WINDOW_MS = 30 * 60_000;
-/** No second code within this time (a double tap), and at most this many codes an hour. */
-export const CODE_RESEND_GAP_MS = 20_000;
-export const MAX_CODES_PER_HOUR = 10;
 export const MAX_SIGNATURE_PNG_BYTES = 200 * 1024;
 /** The browser keeps its confirmation in this cookie (httpOnly), scoped to the public proposal API. */
 export const SIGNING_COOKIE = "kw_signing";
@@ -88,24 +86,11 @@ export function maskEmail(email: string): string {
 export async function sendSigningCode(p: ProposalRow, token: string, client: ClientMeta): Promise<{ sentTo: string; expiresAt: Date }> {
   requireLive(p);
   const now = new Date();
-  const lastHour = await db()
-    .select({ createdAt: proposalEvent.createdAt })
-    .from(proposalEvent)
-    .where(
-      and(
-        eq(proposalEvent.companyId, p.companyId),
-        eq(proposalEvent.proposalId, p.id),
-        eq(proposalEvent.kind, "code_sent"),
-        gte(proposalEvent.createdAt, new Date(now.getTime() - 3_600_000)),
-      ),
-    )
-    .orderBy(asc(proposalEvent.createdAt));
-  if (lastHour.length >= MAX_CODES_PER_HOUR) throw new HttpError(429, "too_many_codes", "Too many codes asked for in the last hour. Try again later.");
-  const last = lastHour[lastHour.length - 1];
-  if (last && now.getTime() - last.createdAt.getTime() < CODE_RESEND_GAP_MS) {
-    const wait = Math.ceil((CODE_RESEND_GAP_MS - (now.getTime() - last.createdAt.getTime())) / 1000);
-    throw new HttpError(429, "code_just_sent", `A code was sent a moment ago. Check your e-mail, or ask again in ${wait} seconds.`);
-  }
+  // Counted before the code is made (limits.ts): a double tap sends one code, and a link or an
+  // address asks for a bounded number an hour, however many requests arrive at once.
+  await takeTurn("signingCodeGap", p.id, (wait) => `A code was sent a moment ago. Check your e-mail, or ask again in ${wait}.`);
+  await takeTurn("signingCodeLink", p.id, (wait) => `Too many codes asked for in the last hour. Try again in ${wait}.`);
+  await takeTurn("signingCodeAddress", client.ip, (wait) => `Too many codes asked for from this address. Try again in ${wait}.`);
   const code = String(randomInt(0, 10 ** CODE_DIGITS)).padStart(CODE_DIGITS, "0");
   const expiresAt = new Date(now.getTime() + CODE_TTL_MS);
   const eventId = await db().transaction(async (tx) => {
