@@ -4,6 +4,7 @@ import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { APIError, createAuthMiddleware } from "better-auth/api";
 import { nextCookies } from "better-auth/next-js";
 import { eq } from "drizzle-orm";
+import { render } from "@react-email/render";
 import { createElement } from "react";
 import { account, membership, session, user, verification } from "@/db/schema";
 import { env } from "@/env";
@@ -61,6 +62,20 @@ async function rightPassword(address: string, email: string): Promise<void> {
   await Promise.all([clearTurns("signInPair", `${emailKey(email)}|${address}`), clearTurns("signInEmail", emailKey(email)), giveBack("signInAddress", address)]);
 }
 
+const resetEmail = (name: string, url: string) => createElement(ResetPasswordEmail, { name, resetUrl: url, expiresInMinutes: RESET_TOKEN_MINUTES });
+
+/**
+ * A reset asked for an address without an account does the work a real one does before its
+ * answer (the e-mail is rendered, then dropped), so the answer takes about as long (measured in
+ * tests/integration/auth/no-discovery.test.ts).
+ */
+async function resetWorkForNobody(email: string): Promise<void> {
+  const [found] = await db().select({ id: user.id }).from(user).where(eq(user.email, email)).limit(1);
+  if (found) return;
+  const message = resetEmail("there", `${env().APP_URL}/reset-password/${"x".repeat(24)}?callbackURL=`);
+  await Promise.all([render(message), render(message, { plainText: true })]);
+}
+
 const addressOf = (headers: Headers | undefined) => clientAddress(headers ?? new Headers());
 
 function createAuth() {
@@ -113,7 +128,7 @@ function createAuth() {
         await sendEmail({
           to: u.email,
           subject: "Reset your Kilowright password",
-          react: createElement(ResetPasswordEmail, { name: u.name, resetUrl: url, expiresInMinutes: RESET_TOKEN_MINUTES }),
+          react: resetEmail(u.name, url),
         });
       },
     },
@@ -156,6 +171,7 @@ function createAuth() {
         if (ctx.path === "/request-password-reset" && email) {
           await takeTurn("resetAddress", address).catch(tooMany);
           await takeTurn("resetEmail", emailKey(email), (wait) => `A reset link for this address was asked for several times. Check your e-mail, or try again in ${wait}.`).catch(tooMany);
+          await resetWorkForNobody(email);
         }
         if (ctx.path === "/send-verification-email" && email) {
           await takeTurn("verificationEmail", emailKey(email), (wait) => `Several confirmation e-mails went to this address already. Check your e-mail, or ask again in ${wait}.`).catch(tooMany);

@@ -108,7 +108,9 @@ test("the customer opens the e-mailed link, confirms a code, draws a signature a
   // The customer, on their own phone, opens the link from the e-mail.
   const sent = await waitForMail(deal.email, /solar proposal/);
   const link = linkIn(sent, "/p/");
-  const customer = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
+  // Their browser (or anything between) writes a made-up address: the certificate must not believe it.
+  const forgedHeaders = { "X-Forwarded-For": "198.51.100.66", "X-Kilowright-Client": "203.0.113.66" };
+  const customer = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, extraHTTPHeaders: forgedHeaders });
   const phone = await customer.newPage();
   await phone.goto(link);
   await expect(phone.getByRole("heading", { name: "Solar proposal for the Fennimore household" })).toBeVisible();
@@ -158,9 +160,14 @@ test("the customer opens the e-mailed link, confirms a code, draws a signature a
   const { text } = await extractText(await getDocumentProxy(new Uint8Array(bytes)), { mergePages: true });
   const flat = text.replace(/\s+/g, " ");
   const record = await withDb(async (conn) => {
-    const [rows] = await conn.query("SELECT signed_sha256, pdf_sha256, signer_name, chosen_position, snapshot FROM proposal WHERE deal_id = ? AND status = 'signed'", [deal.dealId]);
-    return (rows as { signed_sha256: string; pdf_sha256: string; signer_name: string; chosen_position: number; snapshot: unknown }[])[0];
+    const [rows] = await conn.query("SELECT signed_sha256, pdf_sha256, signer_name, signer_ip, chosen_position, snapshot FROM proposal WHERE deal_id = ? AND status = 'signed'", [deal.dealId]);
+    return (rows as { signed_sha256: string; pdf_sha256: string; signer_name: string; signer_ip: string; chosen_position: number; snapshot: unknown }[])[0];
   });
+  // The address on the record and the certificate is the connection's (the app listens on loopback).
+  expect(record.signer_ip).toBe("127.0.0.1");
+  expect(flat).toContain("127.0.0.1");
+  expect(flat).not.toContain("198.51.100.66");
+  expect(flat).not.toContain("203.0.113.66");
   expect(record.chosen_position).toBe(2);
   expect(record.signer_name).toBe(deal.contactName);
   const snapshot = (typeof record.snapshot === "string" ? JSON.parse(record.snapshot) : record.snapshot) as { offers: { position: number; figures: { summary: { contractCents: number } } }[] };
