@@ -150,8 +150,9 @@ export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): P
     { label: "Signer", value: s.signerName },
     { label: "E-mail", value: s.signerEmail },
     { label: "Signed at (UTC)", value: isoUtc(s.signedAt), mono: true },
-    { label: "IP address", value: s.ip, mono: true },
-    { label: "User agent", value: s.userAgent },
+    // The address is the connection's (or the trusted proxy's report); the browser names itself.
+    { label: "IP address (connection)", value: s.ip, mono: true },
+    { label: "Browser (self-reported)", value: s.userAgent },
     { label: "Offer chosen", value: `${offerLine}, ${formatCents(s.chosenContractCents)}` },
   ]);
   flow.paragraph("SHA-256 of the unsigned document", { size: 10, color: COLORS.muted, gapAfter: 2 });

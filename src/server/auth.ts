@@ -10,7 +10,7 @@ import { account, membership, session, user, verification } from "@/db/schema";
 import { env } from "@/env";
 import { CLIENT_HEADER, clientAddress } from "@/server/client-address";
 import { db } from "@/server/db";
-import { clearTurns, emailKey, giveBack, takeTurn, TooManyRequests, tryTurn } from "@/server/limits";
+import { clearTurns, emailKey, giveBack, isMarked, mark, takeTurn, TooManyRequests, tryTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
 import { forgetCookie } from "@/server/session-reuse";
 import { AccountExistsEmail } from "@emails/account-exists";
@@ -50,16 +50,20 @@ const signInMessage = (wait: string) => `Too many wrong passwords for this e-mai
  * Turns taken before better-auth checks a password, in this order: the address (so one
  * stranger's guesses use up their own address first), the e-mail from that address (at most 5
  * passwords checked), then the e-mail from every address (short; a password reset lifts it).
+ * An address this e-mail signed in from in the last 30 days skips the e-mail-wide turn, so
+ * strangers elsewhere never lock the owner out where they usually sign in.
  */
 async function takeSignInTurns(address: string, email: string): Promise<void> {
+  const pair = `${emailKey(email)}|${address}`;
   await takeTurn("signInAddress", address, (wait) => `Too many sign-in attempts from this address. Wait ${wait}.`);
-  await takeTurn("signInPair", `${emailKey(email)}|${address}`, signInMessage);
-  await takeTurn("signInEmail", emailKey(email), signInMessage);
+  await takeTurn("signInPair", pair, signInMessage);
+  if (!(await isMarked("knownAddress", pair))) await takeTurn("signInEmail", emailKey(email), signInMessage);
 }
 
-/** The right password was given: the e-mail's counts are forgotten and the address gets its turn back. */
+/** The right password was given: the e-mail's counts are forgotten, the address is known and gets its turn back. */
 async function rightPassword(address: string, email: string): Promise<void> {
-  await Promise.all([clearTurns("signInPair", `${emailKey(email)}|${address}`), clearTurns("signInEmail", emailKey(email)), giveBack("signInAddress", address)]);
+  const pair = `${emailKey(email)}|${address}`;
+  await Promise.all([clearTurns("signInPair", pair), clearTurns("signInEmail", emailKey(email)), giveBack("signInAddress", address), mark("knownAddress", pair)]);
 }
 
 const resetEmail = (name: string, url: string) => createElement(ResetPasswordEmail, { name, resetUrl: url, expiresInMinutes: RESET_TOKEN_MINUTES });
@@ -74,6 +78,12 @@ async function resetWorkForNobody(email: string): Promise<void> {
   if (found) return;
   const message = resetEmail("there", `${env().APP_URL}/reset-password/${"x".repeat(24)}?callbackURL=`);
   await Promise.all([render(message), render(message, { plainText: true })]);
+  // A real reset commits a token row; this commits one that is gone again in the same transaction.
+  await db().transaction(async (tx) => {
+    const id = crypto.randomUUID();
+    await tx.insert(verification).values({ id, identifier: `reset-password:none-${id}`, value: "none", expiresAt: new Date() });
+    await tx.delete(verification).where(eq(verification.id, id));
+  });
 }
 
 const addressOf = (headers: Headers | undefined) => clientAddress(headers ?? new Headers());

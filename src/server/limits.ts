@@ -23,6 +23,8 @@ export const LIMITS = {
    * reset link always works.
    */
   signInEmail: { points: 10, minutes: 15, what: "wrong passwords for this e-mail" },
+  /** Not a limit but a mark: an address this e-mail signed in from lately is spared the e-mail-wide lock. */
+  knownAddress: { points: 1, minutes: 30 * 24 * 60, what: "" },
   signUpAddress: { points: 5, minutes: 60, what: "sign-ups from this address" },
   resetAddress: { points: 10, minutes: 15, what: "password reset requests from this address" },
   resetEmail: { points: 3, minutes: 15, what: "password reset e-mails for this address" },
@@ -119,6 +121,16 @@ export async function tryTurn(name: LimitName, key: string): Promise<boolean> {
 /** Gives one turn back (a sign-in that succeeded). */
 export async function giveBack(name: LimitName, key: string): Promise<void> {
   await limiter(name).reward(key, 1);
+}
+
+/** Sets the mark of a key (knownAddress) for its limit's whole window. */
+export async function mark(name: LimitName, key: string): Promise<void> {
+  await limiter(name).set(key, 1, Math.round(LIMITS[name].minutes * 60));
+}
+
+/** Whether a key holds a mark or a count now. */
+export async function isMarked(name: LimitName, key: string): Promise<boolean> {
+  return (await limiter(name).get(key)) !== null;
 }
 
 /** Forgets a key's count (a successful sign-in or password reset lifts the e-mail's lock). */
