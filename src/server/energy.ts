@@ -10,7 +10,7 @@ import { importIntervalData } from "@/engine/green-button";
 import { spreadMonthlyToHourly } from "@/engine/load-shape";
 import { HOUR_MONTH } from "@/engine/year-calendar";
 import { suggestBillsFromText, type BillSuggestion } from "@/lib/bill-text";
-import { MAX_BILL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
+import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
 import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { engineFields, HttpError, notFound } from "@/server/errors";
@@ -163,7 +163,6 @@ export type UploadOutcome =
   | { kind: "bill-image"; upload: UploadMeta; message: string }
   | { kind: "interval"; upload: UploadMeta; profileId: string; annualKwh: number; coveragePct: number; message: string };
 
-export const MAX_INTERVAL_FILE_BYTES = 20 * 1024 * 1024;
 const MIN_PDF_TEXT_CHARS = 20;
 
 async function pdfText(bytes: Uint8Array): Promise<string> {

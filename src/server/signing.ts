@@ -17,7 +17,7 @@ import { env } from "@/env";
 import { cancelDeadline } from "@/lib/business-days";
 import { formatCents, formatDateTime } from "@/lib/format";
 import { formatIsoDateLong, localIsoDate, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
-import { signProposalSchema, verifyCodeSchema } from "@/lib/schemas/proposal";
+import { MAX_VERIFY_FILE_BYTES, signProposalSchema, verifyCodeSchema } from "@/lib/schemas/proposal";
 import type { Stage } from "@/db/schema";
 import SignedCopyEmail from "@emails/signed-copy";
 import SigningCodeEmail from "@emails/signing-code";
@@ -372,7 +372,6 @@ async function mailSignedCopies(p: ProposalRow, token: string, signerName: strin
 
 // ── Verify ─────────────────────────────────────────────────────────────────────────────────
 
-export const MAX_VERIFY_FILE_BYTES = 25 * 1024 * 1024;
 
 export type VerifyAnswer = { match: true; label: string; signedOn: string } | { match: false };
 

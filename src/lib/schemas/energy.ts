@@ -17,3 +17,5 @@ export const billsTableSchema = z.object({ bills: z.array(billRowSchema).max(36,
 export type BillsTableInput = z.input<typeof billsTableSchema>;
 
 export const MAX_BILL_FILE_BYTES = 10 * 1024 * 1024;
+/** Interval data (Green Button XML, CSV) may be larger than a bill: a year of 15-minute readings. */
+export const MAX_INTERVAL_FILE_BYTES = 20 * 1024 * 1024;

@@ -82,3 +82,6 @@ export const signProposalSchema = z.object({
 
 /** POST /p/[token]/questions */
 export const proposalQuestionSchema = z.object({ question: z.string().trim().min(3, "Write your question").max(2000, "Keep it under 2,000 characters") });
+
+/** Largest file the public /verify page checks (a signed copy is a few hundred kB; our choice). */
+export const MAX_VERIFY_FILE_BYTES = 25 * 1024 * 1024;
