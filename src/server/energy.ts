@@ -15,6 +15,7 @@ import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { engineFields, HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
+import { reencodeBillImage } from "@/server/photos";
 import { storage } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
@@ -222,7 +223,9 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
       const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", null);
       return { kind: "bill-image", upload: meta, message: `“${file.name}” is a scanned PDF with no text. It was kept with the deal; type the billing period, kWh and amount from it.` };
     }
-    const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", null);
+    // A photographed bill is decoded within the pixel limit and re-encoded (422 when it does not decode).
+    const pixels = await reencodeBillImage(file.bytes, detected.mime, file.name);
+    const meta = await storeUpload(member, dealId, { name: file.name, bytes: pixels }, detected.mime, detected.ext, "bill", null);
     return { kind: "bill-image", upload: meta, message: `The photo “${file.name}” was kept with the deal; type the billing period, kWh and amount from it.` };
   }
 

@@ -28,6 +28,7 @@ import { sendEmail } from "@/server/mail";
 import { dealProposalUrl, insertProposalEvent, labelOf, proposalUrl, readProposalPdf, type ClientMeta, type ProposalRow } from "@/server/proposals";
 import { validationError } from "@/server/route";
 import { autoMoveStage } from "@/server/stages";
+import { openImage } from "@/server/photos";
 import { storage } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
@@ -40,6 +41,8 @@ export const SIGNING_WINDOW_MS = 30 * 60_000;
 export const CODE_RESEND_GAP_MS = 20_000;
 export const MAX_CODES_PER_HOUR = 10;
 export const MAX_SIGNATURE_PNG_BYTES = 200 * 1024;
+/** A drawn signature is a phone or desktop canvas at device pixel ratio: far under 4 megapixels (our choice). */
+export const MAX_SIGNATURE_PIXELS = 4_000_000;
 /** The browser keeps its confirmation in this cookie (httpOnly), scoped to the public proposal API. */
 export const SIGNING_COOKIE = "kw_signing";
 export const SIGNING_COOKIE_PATH = "/api/public/proposals";
@@ -206,7 +209,13 @@ export async function signaturePngBytes(dataUrl: string): Promise<Uint8Array> {
   }
   const type = await fileTypeFromBuffer(bytes);
   if (type?.mime !== "image/png") throw new HttpError(422, "validation_failed", "signaturePng: The signature must be a PNG drawing", { signaturePng: ["The signature must be a PNG drawing"] });
-  return bytes;
+  // Decoded within a pixel limit and re-encoded: the PDF gets pixels we wrote, never the sender's bytes.
+  const image = await openImage(bytes, { field: "signaturePng", what: "signature drawing", maxPixels: MAX_SIGNATURE_PIXELS });
+  try {
+    return new Uint8Array(await image.png().toBuffer());
+  } catch {
+    throw new HttpError(422, "validation_failed", "signaturePng: The signature drawing could not be read; clear it and draw again", { signaturePng: ["The signature drawing could not be read; clear it and draw again"] });
+  }
 }
 
 export type SignedOutcome = { signedAt: Date; signedSha256: string; cancelDeadline: string | null; chosenPosition: number };
