@@ -3,6 +3,7 @@
 // be an image but does not decode is refused, and Green Button XML with invalid characters or
 // 60,000 nested elements is a 422 with the reason. Nothing is stored for a refused file.
 import { and, eq } from "drizzle-orm";
+import { NextRequest } from "next/server";
 import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import { deal, household, upload } from "@/db/schema";
@@ -13,6 +14,7 @@ import type { Member } from "@/server/session";
 import { addSitePhoto } from "@/server/site-photos";
 import { MAX_SIGNATURE_PIXELS, signaturePngBytes } from "@/server/signing";
 import { newCompany, rejects } from "../support/fixtures";
+import { signedInHeaders } from "../support/sign-in";
 
 let owner: Member;
 let dealId: string;
@@ -100,5 +102,24 @@ describe("Green Button XML", () => {
     expect(performance.now() - started).toBeLessThan(5_000);
     expect(err.message).toMatch(/nest deeper than 64 levels/);
     expect(await uploadRows()).toBe(rows);
+  });
+});
+
+describe("serving stored files", () => {
+  it("a stored photo goes out with its exact type, nosniff and a sandbox; the upload route gives metadata, never the bytes", async () => {
+    const headers = await signedInHeaders(owner);
+    const png = await sharp({ create: { width: 64, height: 48, channels: 3, background: "#336699" } }).png().toBuffer();
+    const photo = await addSitePhoto(owner, dealId, { name: "panel.png", bytes: new Uint8Array(png) });
+    const { GET } = await import("@/app/api/deals/[id]/site-photos/[uploadId]/route");
+    const res = await GET(new NextRequest(`http://localhost/api/deals/${dealId}/site-photos/${photo.id}`, { headers }), { params: Promise.resolve({ id: dealId, uploadId: photo.id }) });
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toBe("image/jpeg");
+    expect(res.headers.get("x-content-type-options")).toBe("nosniff");
+    expect(res.headers.get("content-security-policy")).toContain("sandbox");
+    expect(res.headers.get("content-disposition")).toMatch(/^inline; filename="site-photo-/);
+
+    const { GET: getUpload } = await import("@/app/api/uploads/[id]/route");
+    const meta = await getUpload(new NextRequest(`http://localhost/api/uploads/${photo.id}`, { headers }), { params: Promise.resolve({ id: photo.id }) });
+    expect(meta.headers.get("content-type")).toMatch(/^application\/json/);
   });
 });
