@@ -4,7 +4,8 @@
 import { and, eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import { beforeAll, describe, expect, it } from "vitest";
-import { bill, crew, deal, household, savedView } from "@/db/schema";
+import { bill, crew, deal, household, savedView, user } from "@/db/schema";
+import { auth } from "@/server/auth";
 import { db } from "@/server/db";
 import type { Member } from "@/server/session";
 import { newCompany } from "../support/fixtures";
@@ -81,5 +82,15 @@ describe("names with hidden characters", () => {
     const { POST } = await import("@/app/api/crews/route");
     const res = await POST(json("/api/crews", "POST", { name: "فريق الشمال" }), { params: Promise.resolve({}) });
     expect(res.status).toBe(201);
+  });
+});
+
+describe("names reaching better-auth directly", () => {
+  it("update-user refuses a bidi override in the person's name and keeps the old one", async () => {
+    const res = await auth().api.updateUser({ body: { name: "Olive \u202Eenilo" }, headers: new Headers(headers), asResponse: true });
+    expect(res.status).toBe(400);
+    expect(((await res.json()) as { message: string }).message).toMatch(/text-direction character \(U\+202E\)/);
+    const [row] = await db().select({ name: user.name }).from(user).where(eq(user.id, owner.userId));
+    expect(row.name).toBe("Olive Owner");
   });
 });
