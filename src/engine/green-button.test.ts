@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
-import { importIntervalData, parseEspiXml, parseIntervalCsv, parseXml, readingsToProfile } from "./green-button";
+import { importIntervalData, MAX_XML_DEPTH, parseEspiXml, parseIntervalCsv, parseXml, readingsToProfile } from "./green-button";
 import { EngineInputError } from "./errors";
 
 const fixture = (name: string) => readFileSync(fileURLToPath(new URL(`../../tests/fixtures/green-button/${name}`, import.meta.url)), "utf8");
@@ -59,6 +59,30 @@ describe("ESPI (Green Button) XML — invented fixture, hand-worked values", () 
   it("names the line of malformed XML and refuses a DOCTYPE", () => {
     expect(issuesOf(() => parseXml("<a>\n<b></a>"))[0]).toMatchObject({ path: "line 2" });
     expect(issuesOf(() => parseXml('<!DOCTYPE x [<!ENTITY e "boom">]><a/>'))[0].message).toContain("DOCTYPE");
+  });
+
+  it("refuses characters XML does not allow, naming the line and the character", () => {
+    const withBell = xml.replace("<espi:value>300</espi:value>", "<espi:value>300\u0007</espi:value>");
+    const issue = issuesOf(() => importIntervalData(withBell))[0];
+    expect(issue.message).toMatch(/invalid character U\+0007/);
+    expect(issue.path).toBe(`line ${xml.slice(0, xml.indexOf("<espi:value>300</espi:value>")).split("\n").length}`);
+    expect(issuesOf(() => parseXml("<a>\uD800</a>"))[0].message).toMatch(/invalid character U\+D800/);
+    expect(issuesOf(() => parseXml("<a>&#1;</a>"))[0].message).toMatch(/&#1; is not an XML character/);
+    expect(issuesOf(() => parseXml("<a>&#x110000;</a>"))[0].message).toMatch(/not an XML character/);
+  });
+
+  it(`refuses 60,000 nested elements quickly (deeper than ${MAX_XML_DEPTH} levels)`, () => {
+    const deep = "<a>".repeat(60_000) + "</a>".repeat(60_000);
+    const started = performance.now();
+    expect(issuesOf(() => importIntervalData(deep))[0].message).toMatch(/nest deeper than 64 levels/);
+    expect(performance.now() - started).toBeLessThan(5_000);
+  });
+
+  it("decodes the predefined entities and character references, and expands no other", () => {
+    const root = parseXml('<a href="x&amp;y">&lt;b&gt; &#x41;&#66;</a>');
+    expect(root.attributes.href).toBe("x&y");
+    expect(root.text).toBe("<b> AB");
+    expect(issuesOf(() => parseXml("<a>&custom;</a>"))[0].message).toContain("unknown XML entity");
   });
 
   it("rejects non-energy units and running totals, and needs a time zone", () => {

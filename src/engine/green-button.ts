@@ -31,6 +31,7 @@
  * calendar month; where that month has none at that hour, the reference residential load
  * (load-shape.ts) scaled to the measured hours. Every filled hour is counted as estimated.
  */
+import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { z } from "zod";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
 import { REFERENCE_LOAD_HOURLY_KWH } from "./data/reference-load-8760";
@@ -54,9 +55,16 @@ const MAX_REPORTED_GAPS = 50;
 const MAX_ISSUES = 50;
 
 // ---------------------------------------------------------------------------------------------
-// A small XML reader: elements, attributes, text, CDATA, comments and processing instructions.
-// No DTDs or external entities (a DOCTYPE is refused), which also keeps entity expansion out.
+// Reading the XML: fast-xml-parser, with limits. Characters outside XML 1.0's Char production
+// (§2.2: control characters, unpaired surrogates, U+FFFE/U+FFFF) and any DOCTYPE are refused
+// first, so no DTD entity is ever declared or expanded (processEntities is off; the five
+// predefined entities and character references are decoded here). Elements nest at most
+// MAX_XML_DEPTH deep (the parser's maxNestedTags): 60,000 nested elements are refused, never
+// walked. Every refusal is an EngineInputError naming the line (a 422 at the routes).
 // ---------------------------------------------------------------------------------------------
+
+/** Deepest element nesting read (our choice: an ESPI feed nests about 8 deep). */
+export const MAX_XML_DEPTH = 64;
 
 export type XmlElement = {
   /** Local name, namespace prefix removed ("espi:IntervalBlock" → "IntervalBlock"). */
@@ -68,13 +76,25 @@ export type XmlElement = {
 };
 
 const ENTITIES: Record<string, string> = { amp: "&", lt: "<", gt: ">", quot: '"', apos: "'" };
+const xmlFail = (line: number | null, message: string): never => {
+  throw new EngineInputError([{ path: line === null ? "file" : `line ${line}`, message }], "Green Button XML");
+};
+
+/** XML 1.0 §2.2 Char: tab, LF, CR, U+0020–U+D7FF, U+E000–U+FFFD, U+10000–U+10FFFF (the `u` flag makes an unpaired surrogate match). */
+const NOT_XML_CHAR = /[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/u;
+const isXmlChar = (cp: number) => cp === 0x9 || cp === 0xa || cp === 0xd || (cp >= 0x20 && cp <= 0xd7ff) || (cp >= 0xe000 && cp <= 0xfffd) || (cp >= 0x10000 && cp <= 0x10ffff);
+const hex = (cp: number) => `U+${cp.toString(16).toUpperCase().padStart(4, "0")}`;
 
 function decodeEntities(s: string, line: number): string {
+  if (!s.includes("&")) return s;
   return s.replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-zA-Z]+);/g, (_, ref: string) => {
-    if (ref.startsWith("#x")) return String.fromCodePoint(parseInt(ref.slice(2), 16));
-    if (ref.startsWith("#")) return String.fromCodePoint(parseInt(ref.slice(1), 10));
+    if (ref.startsWith("#")) {
+      const cp = ref.startsWith("#x") ? parseInt(ref.slice(2), 16) : parseInt(ref.slice(1), 10);
+      if (!isXmlChar(cp)) xmlFail(line, `character reference &${ref}; is not an XML character`);
+      return String.fromCodePoint(cp);
+    }
     const value = ENTITIES[ref];
-    if (value === undefined) throw new EngineInputError([{ path: `line ${line}`, message: `unknown XML entity &${ref};` }], "Green Button XML");
+    if (value === undefined) xmlFail(line, `unknown XML entity &${ref};`);
     return value;
   });
 }
@@ -83,102 +103,81 @@ const localName = (qname: string) => qname.slice(qname.indexOf(":") + 1);
 /** Shared by every element without attributes (most of them), so none allocates its own. */
 const NO_ATTRIBUTES: Readonly<Record<string, string>> = Object.freeze({});
 
+const parser = new XMLParser({
+  preserveOrder: true,
+  ignoreAttributes: false,
+  attributeNamePrefix: "",
+  parseTagValue: false,
+  parseAttributeValue: false,
+  trimValues: true,
+  processEntities: false,
+  htmlEntities: false,
+  ignoreDeclaration: true,
+  ignorePiTags: true,
+  captureMetaData: true,
+  maxNestedTags: MAX_XML_DEPTH,
+});
+const META = XMLParser.getMetaDataSymbol() as unknown as symbol;
+type OrderedNode = Record<string, unknown> & { ":@"?: Record<string, string> };
+
 /** Parse an XML document into its root element. Throws EngineInputError with the line of the problem. */
 export function parseXml(text: string): XmlElement {
-  const fail = (pos: number, message: string): never => {
-    const line = text.slice(0, pos).split("\n").length;
-    throw new EngineInputError([{ path: `line ${line}`, message }], "Green Button XML");
-  };
-  let line = 1;
-  let lastPos = 0;
-  // Line numbers for messages, counted incrementally with indexOf (fast on large files).
+  const newlines: number[] = [];
+  for (let nl = text.indexOf("\n"); nl !== -1; nl = text.indexOf("\n", nl + 1)) newlines.push(nl);
   const lineAt = (pos: number) => {
-    for (let nl = text.indexOf("\n", lastPos); nl !== -1 && nl < pos; nl = text.indexOf("\n", nl + 1)) {
-      line++;
-      lastPos = nl + 1;
+    let lo = 0;
+    let hi = newlines.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (newlines[mid] < pos) lo = mid + 1;
+      else hi = mid;
     }
-    return line;
+    return lo + 1;
   };
-  const stack: XmlElement[] = [];
-  let root: XmlElement | null = null;
-  let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0;
-  while (pos < text.length) {
-    const lt = text.indexOf("<", pos);
-    const textEnd = lt === -1 ? text.length : lt;
-    if (textEnd > pos) {
-      const chunk = text.slice(pos, textEnd);
-      if (stack.length > 0) {
-        const top = stack[stack.length - 1];
-        // Whitespace between child elements carries nothing in data XML; skip it (and the work).
-        if (!(top.children.length > 0 && chunk.trim() === "")) top.text += chunk.includes("&") ? decodeEntities(chunk, lineAt(pos)) : chunk;
-      } else if (chunk.trim() !== "") fail(pos, "text outside the root element");
-    }
-    if (lt === -1) break;
-    if (text.startsWith("<!--", lt)) {
-      const end = text.indexOf("-->", lt + 4);
-      if (end === -1) fail(lt, "unclosed comment");
-      pos = end + 3;
-    } else if (text.startsWith("<![CDATA[", lt)) {
-      const end = text.indexOf("]]>", lt + 9);
-      if (end === -1) fail(lt, "unclosed CDATA section");
-      if (stack.length > 0) stack[stack.length - 1].text += text.slice(lt + 9, end);
-      pos = end + 3;
-    } else if (text.startsWith("<?", lt)) {
-      const end = text.indexOf("?>", lt + 2);
-      if (end === -1) fail(lt, "unclosed processing instruction");
-      pos = end + 2;
-    } else if (text.startsWith("<!", lt)) {
-      fail(lt, "DOCTYPE and DTD declarations are not accepted");
-    } else if (text.startsWith("</", lt)) {
-      const end = text.indexOf(">", lt);
-      if (end === -1) fail(lt, "unclosed end tag");
-      const name = localName(text.slice(lt + 2, end).trim());
-      const open = stack.pop();
-      if (!open || open.name !== name) fail(lt, `end tag </${name}> does not match ${open ? `<${open.name}> opened on line ${open.line}` : "any open element"}`);
-      pos = end + 1;
-    } else {
-      const end = findTagEnd(text, lt);
-      if (end === -1) fail(lt, "unclosed tag");
-      const selfClosing = text.charCodeAt(end - 1) === 47; // "/"
-      const bodyEnd = selfClosing ? end - 1 : end;
-      // The tag name runs to the first whitespace (a hand scan: this loop is the parser's hot path).
-      let nameEnd = lt + 1;
-      while (nameEnd < bodyEnd && text.charCodeAt(nameEnd) > 32) nameEnd++;
-      const qname = text.slice(lt + 1, nameEnd);
-      const c0 = qname.charCodeAt(0);
-      if (!((c0 >= 65 && c0 <= 90) || (c0 >= 97 && c0 <= 122) || c0 === 95)) fail(lt, "malformed tag");
-      const element: XmlElement = { name: localName(qname), attributes: NO_ATTRIBUTES, children: [], text: "", line: lineAt(lt) };
-      if (nameEnd < bodyEnd) {
-        const rest = text.slice(nameEnd, bodyEnd);
-        const attrRe = /([A-Za-z_][\w.:-]*)\s*=\s*("([^"]*)"|'([^']*)')/g;
-        let a: RegExpExecArray | null;
-        const attributes: Record<string, string> = {};
-        while ((a = attrRe.exec(rest)) !== null) attributes[localName(a[1])] = decodeEntities(a[3] ?? a[4] ?? "", element.line);
-        element.attributes = attributes;
-      }
-      if (stack.length > 0) stack[stack.length - 1].children.push(element);
-      else if (root) fail(lt, "a second root element");
-      else root = element;
-      if (!selfClosing) stack.push(element);
-      pos = end + 1;
-    }
-  }
-  if (stack.length > 0) fail(text.length, `<${stack[stack.length - 1].name}> opened on line ${stack[stack.length - 1].line} is never closed`);
-  if (!root) return fail(0, "no XML element found");
-  return root;
-}
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const offset = text.length - body.length;
 
-/** Index of the ">" closing a start tag, skipping ">" inside quoted attribute values. */
-function findTagEnd(text: string, from: number): number {
-  let quote = 0;
-  for (let i = from + 1; i < text.length; i++) {
-    const c = text.charCodeAt(i);
-    if (quote) {
-      if (c === quote) quote = 0;
-    } else if (c === 34 || c === 39) quote = c;
-    else if (c === 62) return i;
+  const bad = NOT_XML_CHAR.exec(body);
+  if (bad) xmlFail(lineAt(bad.index + offset), `invalid character ${hex(bad[0].codePointAt(0)!)}: XML allows no control characters (other than tab and line breaks) and no unpaired surrogates`);
+  const doctype = /<!DOCTYPE|<!ENTITY|<!ELEMENT|<!ATTLIST/i.exec(body);
+  if (doctype) xmlFail(lineAt(doctype.index + offset), "DOCTYPE and DTD declarations are not accepted");
+
+  const valid = XMLValidator.validate(body, { allowBooleanAttributes: false });
+  if (valid !== true) xmlFail(valid.err.line, valid.err.msg);
+
+  let ordered: OrderedNode[];
+  try {
+    ordered = parser.parse(body) as OrderedNode[];
+  } catch (err) {
+    if (err instanceof Error && /nested tags/i.test(err.message)) xmlFail(null, `elements nest deeper than ${MAX_XML_DEPTH} levels; a Green Button file nests about 8`);
+    return xmlFail(null, `the XML could not be read (${err instanceof Error ? err.message : "unknown error"})`);
   }
-  return -1;
+
+  // The parser's nodes → XmlElement (recursion is bounded by MAX_XML_DEPTH).
+  const toElement = (node: OrderedNode, key: string): XmlElement => {
+    const meta = (node as unknown as Record<symbol, { startIndex?: number } | undefined>)[META];
+    const line = meta?.startIndex === undefined ? 0 : lineAt(meta.startIndex + offset);
+    const attrs = node[":@"];
+    let attributes: Readonly<Record<string, string>> = NO_ATTRIBUTES;
+    if (attrs) {
+      const out: Record<string, string> = {};
+      for (const [k, v] of Object.entries(attrs)) out[localName(k)] = decodeEntities(String(v), line);
+      attributes = out;
+    }
+    const element: XmlElement = { name: localName(key), attributes, children: [], text: "", line };
+    for (const child of node[key] as OrderedNode[]) {
+      if ("#text" in child) element.text += decodeEntities(String(child["#text"]), line);
+      else {
+        const childKey = Object.keys(child).find((k) => k !== ":@");
+        if (childKey !== undefined) element.children.push(toElement(child, childKey));
+      }
+    }
+    return element;
+  };
+  const roots = ordered.filter((n) => !("#text" in n));
+  const rootKey = roots[0] && Object.keys(roots[0]).find((k) => k !== ":@");
+  if (rootKey === undefined) return xmlFail(1, "no XML element found");
+  return toElement(roots[0], rootKey);
 }
 
 function* descendants(el: XmlElement, name: string): Generator<XmlElement> {

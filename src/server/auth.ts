@@ -2,6 +2,7 @@ import "server-only";
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { APIError, createAuthMiddleware } from "better-auth/api";
+import { textProblem } from "@/lib/schemas/text";
 import { nextCookies } from "better-auth/next-js";
 import { eq } from "drizzle-orm";
 import { render } from "@react-email/render";
@@ -158,6 +159,7 @@ function createAuth() {
       },
     },
     databaseHooks: {
+      user: userNameHooks,
       session: {
         create: {
           // A deactivated person gets no new session by any path (sign-in, verification link).
@@ -201,6 +203,19 @@ function createAuth() {
     plugins: [nextCookies()],
   });
 }
+
+/**
+ * A name that reaches better-auth's own endpoints (sign-up, update-user) obeys the rule our
+ * forms apply (plainText: no control, unpaired-surrogate or bidi-override characters).
+ */
+function refuseHiddenName(name: unknown): void {
+  const problem = typeof name === "string" ? textProblem(name) : null;
+  if (problem) throw new APIError("BAD_REQUEST", { message: `The name ${problem}.`, code: "INVALID_NAME" });
+}
+const userNameHooks = {
+  create: { before: async (u: { name?: unknown }) => void refuseHiddenName(u.name) },
+  update: { before: async (u: { name?: unknown }) => void refuseHiddenName(u.name) },
+};
 
 export type Auth = ReturnType<typeof createAuth>;
 

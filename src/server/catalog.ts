@@ -23,6 +23,7 @@ import {
   type ModuleModelValues,
   type modulePatchSchema,
 } from "@/lib/schemas/catalog";
+import { BODY_CAPS, readCappedBody, readCappedForm } from "@/server/body-limit";
 import { db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
@@ -298,25 +299,17 @@ export async function csvTextFromUpload(bytes: Uint8Array): Promise<string> {
 /** The CSV text and import mode of an import request: a multipart form (file, mode) or a text/csv body (?mode=). */
 export async function readCsvUpload(req: Request): Promise<{ text: string; mode: ImportMode }> {
   const contentType = req.headers.get("content-type") ?? "";
-  const declared = Number(req.headers.get("content-length") ?? "0");
-  if (declared > CSV_MAX_BYTES + 64_000) {
-    throw new HttpError(413, "file_too_large", `The file is larger than ${CSV_MAX_BYTES / 1_000_000} MB. Split it into smaller files.`);
-  }
   let bytes: Uint8Array;
   let modeValue: unknown;
   if (contentType.startsWith("multipart/form-data")) {
-    let form: FormData;
-    try {
-      form = await req.formData();
-    } catch {
-      throw new HttpError(400, "invalid_form", "The upload could not be read. Choose the file again.");
-    }
+    // Capped before parsing (413 past BODY_CAPS.csvImport); the file's own size is checked below.
+    const form = await readCappedForm(req, BODY_CAPS.csvImport, "the CSV file");
     const file = form.get("file");
     if (!(file instanceof File)) throw new HttpError(422, "validation_failed", "Choose a CSV file to import.", { file: ["Choose a CSV file"] });
     bytes = new Uint8Array(await file.arrayBuffer());
     modeValue = form.get("mode") ?? "all_or_nothing";
   } else {
-    bytes = new Uint8Array(await req.arrayBuffer());
+    bytes = await readCappedBody(req, BODY_CAPS.csvImport);
     modeValue = new URL(req.url).searchParams.get("mode") ?? "all_or_nothing";
   }
   const mode = importModeSchema.safeParse(modeValue);

@@ -10,11 +10,12 @@ import { importIntervalData } from "@/engine/green-button";
 import { spreadMonthlyToHourly } from "@/engine/load-shape";
 import { HOUR_MONTH } from "@/engine/year-calendar";
 import { suggestBillsFromText, type BillSuggestion } from "@/lib/bill-text";
-import { MAX_BILL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
+import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
 import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { engineFields, HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
+import { reencodeBillImage } from "@/server/photos";
 import { storage } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
@@ -163,7 +164,6 @@ export type UploadOutcome =
   | { kind: "bill-image"; upload: UploadMeta; message: string }
   | { kind: "interval"; upload: UploadMeta; profileId: string; annualKwh: number; coveragePct: number; message: string };
 
-export const MAX_INTERVAL_FILE_BYTES = 20 * 1024 * 1024;
 const MIN_PDF_TEXT_CHARS = 20;
 
 async function pdfText(bytes: Uint8Array): Promise<string> {
@@ -223,7 +223,9 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
       const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", null);
       return { kind: "bill-image", upload: meta, message: `“${file.name}” is a scanned PDF with no text. It was kept with the deal; type the billing period, kWh and amount from it.` };
     }
-    const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", null);
+    // A photographed bill is decoded within the pixel limit and re-encoded (422 when it does not decode).
+    const pixels = await reencodeBillImage(file.bytes, detected.mime, file.name);
+    const meta = await storeUpload(member, dealId, { name: file.name, bytes: pixels }, detected.mime, detected.ext, "bill", null);
     return { kind: "bill-image", upload: meta, message: `The photo “${file.name}” was kept with the deal; type the billing period, kWh and amount from it.` };
   }
 

@@ -3,6 +3,7 @@ import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import type { Permission } from "@/lib/permissions";
 import { EngineInputError } from "@/engine/errors";
+import { BODY_CAPS, readCappedForm, readCappedText, type BodyCap } from "@/server/body-limit";
 import { engineFields, HttpError, isDatabaseDown } from "@/server/errors";
 import { TooManyRequests } from "@/server/limits";
 import { requireMember, type Member } from "@/server/session";
@@ -48,11 +49,15 @@ export function withMember<P = Record<string, never>>(permission: Permission, ha
   };
 }
 
-/** Reads a JSON body and validates it: 400 for malformed JSON, 422 naming each bad field. */
-export async function readJson<S extends z.ZodType>(req: Request, schema: S): Promise<z.output<S>> {
+/**
+ * Reads a JSON body within its cap (BODY_CAPS.json, 413 past it) and validates it: 400 for
+ * malformed JSON, 422 naming each bad field.
+ */
+export async function readJson<S extends z.ZodType>(req: Request, schema: S, cap: BodyCap = BODY_CAPS.json): Promise<z.output<S>> {
+  const text = await readCappedText(req, cap);
   let raw: unknown;
   try {
-    raw = JSON.parse(await req.text());
+    raw = JSON.parse(text);
   } catch {
     throw new HttpError(400, "invalid_json", "The request body is not valid JSON.");
   }
@@ -61,13 +66,12 @@ export async function readJson<S extends z.ZodType>(req: Request, schema: S): Pr
   return parsed.data;
 }
 
-/** Reads a multipart form body (file uploads): 400 naming what to send when it is not one. */
-export async function readForm(req: Request, what = "the file"): Promise<FormData> {
-  try {
-    return await req.formData();
-  } catch {
-    throw new HttpError(400, "invalid_form", `Send ${what} as multipart/form-data in a field named “file”.`);
-  }
+/**
+ * Reads a multipart form body (file uploads) within the cap of its kind (BODY_CAPS: 413 past
+ * it, before formData() parses anything): 400 naming what to send when it is not a form.
+ */
+export async function readForm(req: Request, cap: BodyCap, what = "the file"): Promise<FormData> {
+  return readCappedForm(req, cap, what);
 }
 
 export function validationError(error: z.ZodError): HttpError {

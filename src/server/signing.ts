@@ -17,7 +17,7 @@ import { env } from "@/env";
 import { cancelDeadline } from "@/lib/business-days";
 import { formatCents, formatDateTime } from "@/lib/format";
 import { formatIsoDateLong, localIsoDate, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
-import { signProposalSchema, verifyCodeSchema } from "@/lib/schemas/proposal";
+import { MAX_VERIFY_FILE_BYTES, signProposalSchema, verifyCodeSchema } from "@/lib/schemas/proposal";
 import type { Stage } from "@/db/schema";
 import SignedCopyEmail from "@emails/signed-copy";
 import SigningCodeEmail from "@emails/signing-code";
@@ -29,6 +29,7 @@ import { sendEmail } from "@/server/mail";
 import { dealProposalUrl, insertProposalEvent, labelOf, proposalUrl, readProposalPdf, type ClientMeta, type ProposalRow } from "@/server/proposals";
 import { validationError } from "@/server/route";
 import { autoMoveStage } from "@/server/stages";
+import { openImage } from "@/server/photos";
 import { storage } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
@@ -38,6 +39,8 @@ export const MAX_CODE_ATTEMPTS = 5;
 /** A confirmed e-mail stays good for signing this long. */
 export const SIGNING_WINDOW_MS = 30 * 60_000;
 export const MAX_SIGNATURE_PNG_BYTES = 200 * 1024;
+/** A drawn signature is a phone or desktop canvas at device pixel ratio: far under 4 megapixels (our choice). */
+export const MAX_SIGNATURE_PIXELS = 4_000_000;
 /** The browser keeps its confirmation in this cookie (httpOnly), scoped to the public proposal API. */
 export const SIGNING_COOKIE = "kw_signing";
 export const SIGNING_COOKIE_PATH = "/api/public/proposals";
@@ -191,7 +194,13 @@ export async function signaturePngBytes(dataUrl: string): Promise<Uint8Array> {
   }
   const type = await fileTypeFromBuffer(bytes);
   if (type?.mime !== "image/png") throw new HttpError(422, "validation_failed", "signaturePng: The signature must be a PNG drawing", { signaturePng: ["The signature must be a PNG drawing"] });
-  return bytes;
+  // Decoded within a pixel limit and re-encoded: the PDF gets pixels we wrote, never the sender's bytes.
+  const image = await openImage(bytes, { field: "signaturePng", what: "signature drawing", maxPixels: MAX_SIGNATURE_PIXELS });
+  try {
+    return new Uint8Array(await image.png().toBuffer());
+  } catch {
+    throw new HttpError(422, "validation_failed", "signaturePng: The signature drawing could not be read; clear it and draw again", { signaturePng: ["The signature drawing could not be read; clear it and draw again"] });
+  }
 }
 
 export type SignedOutcome = { signedAt: Date; signedSha256: string; cancelDeadline: string | null; chosenPosition: number };
@@ -357,7 +366,6 @@ async function mailSignedCopies(p: ProposalRow, token: string, signerName: strin
 
 // ── Verify ─────────────────────────────────────────────────────────────────────────────────
 
-export const MAX_VERIFY_FILE_BYTES = 25 * 1024 * 1024;
 
 export type VerifyAnswer = { match: true; label: string; signedOn: string } | { match: false };
 

@@ -2,11 +2,12 @@
 import { useState, type FormEvent } from "react";
 import { FormMessage } from "@/components/field";
 import { ApiError } from "@/lib/api-client";
+import { MAX_VERIFY_FILE_BYTES } from "@/lib/schemas/proposal";
 
 type Answer = { match: true; label: string; signedOn: string } | { match: false };
 
-/** 25 MB, as the server checks (src/server/signing.ts MAX_VERIFY_FILE_BYTES). */
-const MAX_BYTES = 25 * 1024 * 1024;
+/** As the server checks. */
+const MAX_BYTES = MAX_VERIFY_FILE_BYTES;
 
 export function VerifyClient() {
   const [file, setFile] = useState<File | null>(null);

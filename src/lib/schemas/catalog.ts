@@ -3,6 +3,7 @@
 // physical checks catch typing slips in datasheet values; they are sanity ranges, not a
 // replacement for the datasheet.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 import { CELL_TECHNOLOGIES } from "@/db/schema";
 
 export { CELL_TECHNOLOGIES };
@@ -87,8 +88,7 @@ function measure(limit: Limit, opts: { integer?: boolean } = {}) {
 
 /** Names as printed on datasheets; they start with a letter or digit (so an exported CSV never starts a cell with a spreadsheet formula). */
 function label(field: string, max = 100) {
-  return z
-    .string({ error: `Enter the ${field}` })
+  return plainText({ error: `Enter the ${field}` })
     .trim()
     .min(1, `Enter the ${field}`)
     .max(max, `Keep the ${field} under ${max} characters`)

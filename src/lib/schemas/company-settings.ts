@@ -3,6 +3,7 @@
 // and Today flag deals by, and the savings assumptions every new offer is figured with. The tunable parts live in company.settings (JSON); the name
 // and licence number in their own columns. Shared by the form (zodResolver) and the server.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 import type { Stage } from "@/db/schema";
 import { DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS } from "@/engine/cashflow";
 import { DEFAULT_STALL_DAYS, PIPELINE } from "@/lib/stage-rules";
@@ -143,11 +144,11 @@ export const financeSchema = z.object({
 
 /** Settings → Company form. */
 export const companySettingsSchema = z.object({
-  name: z.string().trim().min(1, "Enter the company's name").max(200, "Keep the name under 200 characters"),
+  name: plainText().trim().min(1, "Enter the company's name").max(200, "Keep the name under 200 characters"),
   licenseNumber: z
     .union([z.string(), z.null()])
     .transform((v) => (v ?? "").trim())
-    .pipe(z.string().max(100, "Keep the licence number under 100 characters"))
+    .pipe(plainText().max(100, "Keep the licence number under 100 characters"))
     .transform((v) => (v === "" ? null : v)),
   timeZone: z.enum(TIME_ZONE_IDS, "Pick a time zone from the list"),
   stallDays: z.object(Object.fromEntries(STALL_STAGES.map((s) => [s, stallDayField])) as Record<StallStage, typeof stallDayField>),

@@ -1,6 +1,7 @@
 // The deals table's query: paging, sorting and filters, shared by the page, the table route
 // and the CSV export. Query-string values arrive as strings; empty ones mean "not set".
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 import { STAGES, type Stage } from "@/db/schema";
 
 export const DEAL_TABLE_SORT_COLUMNS = [
@@ -46,6 +47,7 @@ export const dealTableFiltersSchema = z
   })
   .refine((v) => !v.from || !v.to || v.from <= v.to, { message: "The start date is after the end date", path: ["to"] });
 
+/** GET /api/deals/table's query string: text by nature, so page numbers are coerced here (and only here). */
 export const dealTableQuerySchema = z
   .object({
     page: z.preprocess(blankToUndefined, z.coerce.number().int("Page is a whole number").min(1, "Pages start at 1").max(1_000_000).default(1)),
@@ -120,21 +122,19 @@ export const SAVED_VIEWS_PER_PERSON = 50;
 /** What a saved view keeps: the table's filters and sort, and optionally page size and hidden columns. */
 export const savedViewQuerySchema = z
   .object({
-    pageSize: z.preprocess(
-      blankToUndefined,
-      z.coerce
-        .number()
-        .int("Page size is a whole number")
-        .min(1, "Show at least one row")
-        .max(DEAL_TABLE_MAX_PAGE_SIZE, `Show at most ${DEAL_TABLE_MAX_PAGE_SIZE} rows per page`)
-        .optional(),
-    ),
+    // Saved views arrive as JSON: a number is a number (no coercion, unlike the query string's).
+    pageSize: z
+      .number({ error: "Page size is a number" })
+      .int("Page size is a whole number")
+      .min(1, "Show at least one row")
+      .max(DEAL_TABLE_MAX_PAGE_SIZE, `Show at most ${DEAL_TABLE_MAX_PAGE_SIZE} rows per page`)
+      .optional(),
     hiddenColumns: z.array(z.enum(DEAL_TABLE_HIDEABLE_COLUMNS, "Hide only the table's own columns")).max(DEAL_TABLE_HIDEABLE_COLUMNS.length).optional(),
   })
   .and(dealTableFiltersSchema);
 export type SavedViewQuery = z.output<typeof savedViewQuerySchema>;
 
-const viewName = z.string().trim().min(1, "Name the view").max(100, "Keep the name under 100 characters");
+const viewName = plainText().trim().min(1, "Name the view").max(100, "Keep the name under 100 characters");
 
 /** POST /api/saved-views */
 export const savedViewCreateSchema = z.object({ name: viewName, query: savedViewQuerySchema });

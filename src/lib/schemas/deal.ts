@@ -1,9 +1,9 @@
 // The new-lead and household forms: one schema, used by the form and by the server.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 
 const optionalText = (max: number) =>
-  z
-    .string()
+  plainText()
     .trim()
     .max(max, `Keep it under ${max} characters`)
     .transform((v) => (v === "" ? null : v))
@@ -21,19 +21,19 @@ const optionalEmail = z
 export const LEAD_SOURCES = ["Referral", "Website", "Door to door", "Home show", "Phone", "Other"] as const;
 
 export const householdSchema = z.object({
-  name: z.string().trim().min(2, "Give the household a name, e.g. “Rivera household”").max(200),
-  contactName: z.string().trim().min(2, "Enter the main contact's name").max(200),
+  name: plainText().trim().min(2, "Give the household a name, e.g. “Rivera household”").max(200),
+  contactName: plainText().trim().min(2, "Enter the main contact's name").max(200),
   email: optionalEmail,
   phone: optionalText(40),
   secondContactName: optionalText(200),
   secondContactEmail: optionalEmail,
   secondContactPhone: optionalText(40),
-  street: z.string().trim().min(3, "Enter the street address").max(200),
-  city: z.string().trim().min(2, "Enter the city").max(100),
-  region: z.string().trim().min(2, "Enter the state").max(50),
+  street: plainText().trim().min(3, "Enter the street address").max(200),
+  city: plainText().trim().min(2, "Enter the city").max(100),
+  region: plainText().trim().min(2, "Enter the state").max(50),
   postalCode: z.string().trim().regex(/^[0-9]{5}(-[0-9]{4})?$/, "Enter a ZIP code like 27401"),
-  latitude: z.coerce.number({ message: "Enter the latitude in degrees" }).min(-90, "Latitude is between −90 and 90").max(90, "Latitude is between −90 and 90"),
-  longitude: z.coerce.number({ message: "Enter the longitude in degrees" }).min(-180, "Longitude is between −180 and 180").max(180, "Longitude is between −180 and 180"),
+  latitude: z.number({ error: "Enter the latitude in degrees" }).min(-90, "Latitude is between −90 and 90").max(90, "Latitude is between −90 and 90"),
+  longitude: z.number({ error: "Enter the longitude in degrees" }).min(-180, "Longitude is between −180 and 180").max(180, "Longitude is between −180 and 180"),
 });
 export type HouseholdInput = z.input<typeof householdSchema>;
 

@@ -2,6 +2,7 @@
 // faces with their module counts, where the production estimate's weather comes from, and the
 // string plan for string inverters. Shared by the Design tab's form and the server (PUT /api/designs).
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 
 const num = (label: string) => z.number({ error: `${label} must be a number` }).finite(`${label} must be a number`);
 
@@ -15,7 +16,7 @@ export const designFaceSchema = z
   .object({
     /** Stable key of the face inside the design (offers refer to faces by it). */
     id: z.string().trim().min(1).max(40),
-    name: z.string().trim().min(1, "Give the face a name").max(100),
+    name: plainText().trim().min(1, "Give the face a name").max(100),
     tiltDeg: num("Tilt").min(0, "Tilt must be 0–90°").max(90, "Tilt must be 0–90°"),
     /** Degrees clockwise from north: 90 east, 180 south, 270 west. */
     azimuthDeg: num("Azimuth").min(0, "Azimuth must be 0–360°").max(360, "Azimuth must be 0–360°"),
@@ -37,7 +38,7 @@ export const designWeatherSchema = z.discriminatedUnion("kind", [
     kind: z.literal("manual"),
     annualKwh: num("Annual production").positive("Annual production must be above 0 kWh").max(1_000_000),
     monthlyKwh: z.array(num("Monthly production").min(0)).length(12, "Give 12 monthly values, January first").nullable().default(null),
-    source: z.string().trim().min(3, "Say where the figure comes from").max(300),
+    source: plainText().trim().min(3, "Say where the figure comes from").max(300),
   }),
 ]);
 export type DesignWeather = z.output<typeof designWeatherSchema>;

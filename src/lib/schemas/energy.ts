@@ -7,8 +7,8 @@ export const billRowSchema = z
   .object({
     periodStart: isoDate,
     periodEnd: isoDate,
-    kwh: z.coerce.number({ message: "Enter the kWh on the bill" }).positive("kWh must be more than 0").max(100_000, "More than 100,000 kWh in one bill is not a home"),
-    costCents: z.coerce.number().int().min(0, "The amount cannot be negative").max(10_000_000).nullable().optional(),
+    kwh: z.number({ error: "Enter the kWh on the bill" }).positive("kWh must be more than 0").max(100_000, "More than 100,000 kWh in one bill is not a home"),
+    costCents: z.number({ error: "Enter the amount in cents" }).int("The amount is whole cents").min(0, "The amount cannot be negative").max(10_000_000).nullable().optional(),
     uploadId: z.uuid().nullable().optional(),
   })
   .refine((b) => b.periodEnd > b.periodStart, { path: ["periodEnd"], message: "The end must be after the start" });
@@ -17,3 +17,5 @@ export const billsTableSchema = z.object({ bills: z.array(billRowSchema).max(36,
 export type BillsTableInput = z.input<typeof billsTableSchema>;
 
 export const MAX_BILL_FILE_BYTES = 10 * 1024 * 1024;
+/** Interval data (Green Button XML, CSV) may be larger than a bill: a year of 15-minute readings. */
+export const MAX_INTERVAL_FILE_BYTES = 20 * 1024 * 1024;

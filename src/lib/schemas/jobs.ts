@@ -1,6 +1,7 @@
 // Input schemas for jobs, crews, checklist templates and job photos, shared by the forms
 // (zodResolver) and the server.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 
 /** One item of a job's install checklist, copied from a template when the job is created. */
 export type JobChecklistItem = { id: string; label: string; doneAt: string | null; doneByUserId: string | null };
@@ -52,7 +53,7 @@ const optionalDate = z
 
 const optionalText = (max: number, label: string) =>
   z
-    .union([z.null(), z.string().trim().max(max, `Keep the ${label} under ${max} characters`)])
+    .union([z.null(), plainText({ multiline: true }).trim().max(max, `Keep the ${label} under ${max} characters`)])
     .transform((v) => (v ? v : null))
     .optional();
 
@@ -120,11 +121,11 @@ export const JOB_PHOTO_MAX_BYTES = 25 * 1024 * 1024;
 export const JOB_PHOTO_MIME_TYPES = ["image/jpeg", "image/png", "image/webp"] as const;
 /** Longest side of a stored photo, px: enough to read a label, small enough for a roof's mobile data. */
 export const JOB_PHOTO_MAX_SIDE_PX = 2048;
-export const jobPhotoCaptionSchema = z.string().trim().max(200, "Keep the caption under 200 characters").default("");
+export const jobPhotoCaptionSchema = plainText().trim().max(200, "Keep the caption under 200 characters").default("");
 
 // ── Crews ───────────────────────────────────────────────────────────────────────────────
 
-const crewName = z.string().trim().min(2, "Give the crew a name").max(100, "Keep the name under 100 characters");
+const crewName = plainText().trim().min(2, "Give the crew a name").max(100, "Keep the name under 100 characters");
 
 export const createCrewSchema = z.object({ name: crewName });
 export type CreateCrewInput = z.input<typeof createCrewSchema>;
@@ -148,10 +149,10 @@ export const templateItemSchema = z.object({
     .max(64)
     .regex(/^[A-Za-z0-9_-]*$/, "Unknown item")
     .default(""),
-  label: z.string().trim().min(3, "Write what the crew checks (3 characters or more)").max(200, "Keep each item under 200 characters"),
+  label: plainText().trim().min(3, "Write what the crew checks (3 characters or more)").max(200, "Keep each item under 200 characters"),
 });
 
-const templateName = z.string().trim().min(2, "Give the checklist a name").max(100, "Keep the name under 100 characters");
+const templateName = plainText().trim().min(2, "Give the checklist a name").max(100, "Keep the name under 100 characters");
 const templateItems = z
   .array(templateItemSchema)
   .min(1, "Add at least one item")

@@ -2,6 +2,7 @@
 // own per face), equipment, price-book adders and line items, discount and payment. Shared by
 // the Offers tab's form and the server, which recomputes every figure on save.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 
 export const MAX_OFFERS_PER_DEAL = 3;
 
@@ -20,7 +21,7 @@ export type PaymentInput = z.output<typeof paymentInputSchema>;
 
 export const offerInputsSchema = z
   .object({
-    name: z.string().trim().min(1, "Give the offer a name").max(100),
+    name: plainText().trim().min(1, "Give the offer a name").max(100),
     /** Module counts per design face (by face id); null = the design's own counts. */
     faceCounts: z
       .array(z.object({ faceId: z.string().min(1).max(40), moduleCount: z.number().int("Modules must be a whole number").min(0).max(1000) }))
@@ -34,7 +35,7 @@ export const offerInputsSchema = z
     lineItemIds: z.array(z.string().min(1).max(60)).max(100).default([]),
     discountCents: z.number({ error: "Discount must be a number" }).int("Discount must be whole cents").min(0, "Discount must not be negative").max(100_000_000).default(0),
     /** Why the discount is given (required when it needs approval). */
-    discountReason: z.string().trim().max(500).default(""),
+    discountReason: plainText({ multiline: true }).trim().max(500).default(""),
     payment: paymentInputSchema.default({ kind: "cash" }),
     /** Rate plan for the bills; null = the deal's. */
     ratePlanId: z.string().uuid("Pick a rate plan from the list").nullable().default(null),
@@ -60,7 +61,7 @@ export const updateOfferSchema = z.object({ inputs: offerInputsSchema });
 export const discountDecisionSchema = z
   .object({
     decision: z.enum(["approve", "decline"], { error: "Choose approve or decline" }),
-    note: z.string().trim().max(1000).default(""),
+    note: plainText({ multiline: true }).trim().max(1000).default(""),
   })
   .refine((d) => d.decision === "approve" || d.note.length >= 3, { path: ["note"], message: "Say why the discount is declined" });
 export type DiscountDecision = z.output<typeof discountDecisionSchema>;

@@ -1,5 +1,6 @@
 // Input schemas for people and sign-in forms, shared by the forms (zodResolver) and the server.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 import { ROLES } from "@/db/schema";
 
 export const PASSWORD_MIN = 10;
@@ -11,7 +12,7 @@ const email = z
   .min(1, "Enter an e-mail address")
   .max(320)
   .pipe(z.email("Enter a valid e-mail address, like name@example.com"));
-const personName = z.string().trim().min(1, "Enter a name").max(200, "Keep the name under 200 characters");
+const personName = plainText().trim().min(1, "Enter a name").max(200, "Keep the name under 200 characters");
 const password = z
   .string()
   .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters`)
@@ -23,7 +24,7 @@ export const signInSchema = z.object({ email, password: z.string().min(1, "Enter
 export type SignInInput = z.input<typeof signInSchema>;
 
 export const signUpSchema = z.object({
-  companyName: z.string().trim().min(2, "Enter your company's name").max(200),
+  companyName: plainText().trim().min(2, "Enter your company's name").max(200),
   name: personName,
   email,
   password,
@@ -37,7 +38,7 @@ export const resetPasswordSchema = z
 
 export const inviteSchema = z.object({
   email,
-  name: z.string().trim().max(200).optional(),
+  name: plainText().trim().max(200).optional(),
   role: roleSchema,
 });
 export type InviteInput = z.input<typeof inviteSchema>;

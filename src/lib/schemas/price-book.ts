@@ -3,6 +3,7 @@
 // (src/lib/pricing.ts). Incentive rules are the engine's own rule schema
 // (src/engine/incentives.ts) with one extra field saying who pays.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 import { incentiveRuleSchema, type IncentiveRuleInput } from "@/engine/incentives";
 
 /** The price book format this code reads and writes. */
@@ -14,7 +15,7 @@ const idString = z
   .min(1, "is required")
   .max(60)
   .regex(/^[a-z0-9][a-z0-9-]*$/, "use lower-case letters, digits and dashes");
-const nameString = z.string().trim().min(1, "is required").max(120);
+const nameString = plainText().trim().min(1, "is required").max(120);
 const cents = z.number({ error: "must be a number" }).int("must be whole cents").min(0, "must not be negative").max(100_000_000);
 
 /** Cents per watt DC with at most two decimals (e.g. 287.5 = $2.875/W). */

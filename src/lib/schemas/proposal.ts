@@ -2,6 +2,7 @@
 // inputs of sending, signing, asking and cancelling. The snapshot copies every figure, so the
 // customer's page and the PDF read only it, never the live offers, catalog or price book.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 import type { OfferFigures } from "@/lib/offer-figures";
 import type { OfferInputs } from "@/lib/schemas/offer";
 
@@ -59,7 +60,7 @@ export const sendProposalSchema = z.object({
   /** Which offers go in (1–3); all of the deal's by default. */
   offerIds: z.array(z.string().uuid()).min(1, "Pick at least one offer").max(3, "A proposal holds at most 3 offers").optional(),
   toEmail: email,
-  message: z.string().trim().max(2000).default(""),
+  message: plainText({ multiline: true }).trim().max(2000).default(""),
   validDays: z.number().int("Whole days").min(1, "At least 1 day").max(90, "At most 90 days").default(DEFAULT_PROPOSAL_LINK_DAYS),
   inHomeSale: z.boolean().default(true),
 });
@@ -71,7 +72,7 @@ export const verifyCodeSchema = z.object({ code: z.string().trim().regex(/^\d{6}
 /** POST /p/[token]/sign */
 export const signProposalSchema = z.object({
   position: z.number().int().min(1).max(3),
-  signerName: z.string().trim().min(2, "Type your full name").max(200),
+  signerName: plainText().trim().min(2, "Type your full name").max(200),
   consent: z.literal(true, { error: "Agree to sign electronically to continue" }),
   /** The drawn signature as a PNG data URL. */
   signaturePng: z
@@ -81,4 +82,7 @@ export const signProposalSchema = z.object({
 });
 
 /** POST /p/[token]/questions */
-export const proposalQuestionSchema = z.object({ question: z.string().trim().min(3, "Write your question").max(2000, "Keep it under 2,000 characters") });
+export const proposalQuestionSchema = z.object({ question: plainText({ multiline: true }).trim().min(3, "Write your question").max(2000, "Keep it under 2,000 characters") });
+
+/** Largest file the public /verify page checks (a signed copy is a few hundred kB; our choice). */
+export const MAX_VERIFY_FILE_BYTES = 25 * 1024 * 1024;

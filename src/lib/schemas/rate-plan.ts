@@ -1,12 +1,13 @@
 // A saved utility rate plan: the engine's rate plan input (src/engine/rates.ts, reused as is)
 // plus the utility's name and whether reps may still pick it. Shared by the editor and the server.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 import { ratePlanSchema } from "@/engine/rates";
 
 export const ratePlanRecordSchema = z.object({
-  utilityName: z.string().trim().min(1, "is required").max(200),
+  utilityName: plainText().trim().min(1, "is required").max(200),
   active: z.boolean().default(true),
-  plan: ratePlanSchema.safeExtend({ name: z.string().trim().min(1, "is required").max(200) }),
+  plan: ratePlanSchema.safeExtend({ name: plainText().trim().min(1, "is required").max(200) }),
 });
 export type RatePlanRecordInput = z.input<typeof ratePlanRecordSchema>;
 export type RatePlanRecord = z.output<typeof ratePlanRecordSchema>;

@@ -2,6 +2,7 @@
 // (zodResolver) and by the route handlers. The file itself is checked by size here and by
 // parsing on the server (src/engine/weather.ts).
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 
 /** Largest weather file accepted. A full EPW year is about 1.9 MB, a TMY3 CSV about 1.7 MB. */
 export const WEATHER_FILE_MAX_BYTES = 5 * 1024 * 1024;
@@ -16,7 +17,10 @@ export const WEATHER_FORMAT_LABELS: Record<WeatherFormatChoice, string> = {
   csv: "Hourly CSV (site typed below)",
 };
 
-/** An optional number typed in a form field: empty means "not given". */
+/**
+ * An optional number typed in a form field: empty means "not given". Text is read as a number
+ * here on purpose: these fields arrive as multipart form text (and query strings), never as JSON.
+ */
 const optionalNumber = (label: string, min: number, max: number, unit: string) =>
   z.preprocess(
     (v) => (v === undefined || v === null || (typeof v === "string" && v.trim() === "") ? undefined : typeof v === "string" ? Number(v.trim()) : v),
@@ -28,10 +32,10 @@ const optionalNumber = (label: string, min: number, max: number, unit: string) =
       .optional(),
   );
 
-const optionalText = (max: number, message: string) =>
+const optionalText = (max: number, message: string, multiline = false) =>
   z.preprocess(
     (v) => (typeof v === "string" && v.trim() === "" ? undefined : typeof v === "string" ? v.trim() : v),
-    z.string().max(max, message).optional(),
+    plainText({ multiline }).max(max, message).optional(),
   );
 
 /**
@@ -46,7 +50,7 @@ export const stationFieldsSchema = z
     longitude: optionalNumber("longitude", -180, 180, "°"),
     elevationM: optionalNumber("elevation", -500, 9000, " m"),
     utcOffsetHours: optionalNumber("UTC offset", -12, 14, " h"),
-    attribution: optionalText(2000, "Keep the attribution under 2,000 characters"),
+    attribution: optionalText(2000, "Keep the attribution under 2,000 characters", true),
   })
   .superRefine((v, ctx) => {
     if (v.format !== "csv") return;

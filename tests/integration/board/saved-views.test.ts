@@ -31,7 +31,7 @@ describe("saved views", () => {
     await newDeal(owner, "permitting", { name: "Viewmoor household", owner: rep, source: "Referral", contractCents: 3_000_000 });
     await newDeal(owner, "lead", { name: "Viewcrest household", owner: rep, source: "Website" });
 
-    const b = await create(office, "Permits by value", { stage: "permitting", sort: "contractCents:desc", pageSize: "25", hiddenColumns: ["city"], q: "" });
+    const b = await create(office, "Permits by value", { stage: "permitting", sort: "contractCents:desc", pageSize: 25, hiddenColumns: ["city"], q: "" });
     const a = await create(office, "All websites", { source: "Website" });
     expect(b.query).toEqual({ stage: "permitting", sort: "contractCents:desc", pageSize: 25, hiddenColumns: ["city"] });
     expect(a.query).toEqual({ source: "Website", sort: "stageChangedAt:desc" });

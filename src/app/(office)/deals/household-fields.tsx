@@ -2,6 +2,7 @@
 import type { FieldErrors, UseFormRegister } from "react-hook-form";
 import { Field } from "@/components/field";
 import type { HouseholdInput } from "@/lib/schemas/deal";
+import { numberFromField } from "@/lib/schemas/text";
 
 /** The household's fields, shared by the new-lead form and the Household tab. */
 export function HouseholdFields({ register, errors }: { register: UseFormRegister<HouseholdInput>; errors: FieldErrors<HouseholdInput> }) {
@@ -26,8 +27,8 @@ export function HouseholdFields({ register, errors }: { register: UseFormRegiste
           <Field id="region" label="State" error={errors.region?.message} {...register("region")} />
           <Field id="postalCode" label="ZIP" inputMode="numeric" error={errors.postalCode?.message} {...register("postalCode")} />
         </div>
-        <Field id="latitude" label="Latitude (°N)" inputMode="decimal" error={errors.latitude?.message} {...register("latitude")} />
-        <Field id="longitude" label="Longitude (°E, negative in the Americas)" inputMode="decimal" error={errors.longitude?.message} {...register("longitude")} />
+        <Field id="latitude" label="Latitude (°N)" inputMode="decimal" error={errors.latitude?.message} {...register("latitude", { setValueAs: numberFromField })} />
+        <Field id="longitude" label="Longitude (°E, negative in the Americas)" inputMode="decimal" error={errors.longitude?.message} {...register("longitude", { setValueAs: numberFromField })} />
       </fieldset>
     </>
   );

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { stationFieldsSchema, WEATHER_FILE_MAX_BYTES, WEATHER_FILE_MAX_LABEL } from "@/lib/schemas/weather";
+import { BODY_CAPS } from "@/server/body-limit";
 import { HttpError } from "@/server/errors";
 import { readForm, validationError, withMember } from "@/server/route";
 import { createStation, listStations } from "@/server/weather-stations";
@@ -9,9 +10,6 @@ export const GET = withMember("weather:read", async ({ member }) => {
   return NextResponse.json({ data: await listStations(member) });
 });
 
-/** Room for the form's text fields and the multipart boundaries around the file. */
-const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
-
 /**
  * Adds a station from an uploaded weather file (multipart/form-data: `file` plus the typed
  * fields of stationFieldsSchema). Nothing is stored unless the whole file parses.
@@ -20,11 +18,7 @@ export const POST = withMember("weather:manage", async ({ req, member }) => {
   if (!(req.headers.get("content-type") ?? "").toLowerCase().startsWith("multipart/form-data")) {
     throw new HttpError(415, "unsupported_media_type", "Send the weather file as multipart/form-data with a field named file.");
   }
-  const declared = Number(req.headers.get("content-length") ?? "0");
-  if (declared > WEATHER_FILE_MAX_BYTES + MULTIPART_OVERHEAD_BYTES) {
-    throw new HttpError(413, "file_too_large", `The file is larger than ${WEATHER_FILE_MAX_LABEL}.`, { file: [`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`] });
-  }
-  const form = await readForm(req);
+  const form = await readForm(req, BODY_CAPS.weather, "the weather file");
   const file = form.get("file");
   if (!(file instanceof File)) {
     throw new HttpError(422, "validation_failed", "file: Choose a weather file to upload.", { file: ["Choose a weather file to upload"] });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import Stripe from "stripe";
-import { errorResponse } from "@/server/route";
+import { BODY_CAPS, readCappedText } from "@/server/body-limit";
+import { errorResponse, toErrorResponse } from "@/server/route";
 import { isDatabaseDown } from "@/server/errors";
 import { verifyWebhook } from "@/server/stripe";
 import { processStripeEvent } from "@/server/webhooks";
@@ -8,13 +9,18 @@ import { processStripeEvent } from "@/server/webhooks";
 export const dynamic = "force-dynamic";
 
 /**
- * Stripe's webhook endpoint (public: the signature is the authentication). Reads the raw body,
- * verifies Stripe-Signature (400 and nothing written on a bad or stale one), processes the
+ * Stripe's webhook endpoint (public: the signature is the authentication). Reads the raw body
+ * (at most BODY_CAPS.webhook: 413 past it), verifies Stripe-Signature (400 and nothing written on a bad or stale one), processes the
  * event exactly once and answers 2xx only after the ledger write has committed; any failure
  * answers 5xx so the provider delivers the event again.
  */
 export async function POST(req: Request): Promise<Response> {
-  const raw = await req.text();
+  let raw: string;
+  try {
+    raw = await readCappedText(req, BODY_CAPS.webhook);
+  } catch (err) {
+    return toErrorResponse(err); // 413 past the cap, before the rest is read
+  }
   let event: Stripe.Event;
   try {
     event = verifyWebhook(raw, req.headers.get("stripe-signature"));

@@ -1,6 +1,7 @@
 // The office's refund input, shared by the Money tab's form (zodResolver) and
 // POST /api/payments/[id]/refunds. Amounts in integer cents; the form converts dollars.
 import { z } from "zod";
+import { plainText } from "@/lib/schemas/text";
 
 /** The largest refund the form accepts at all ($1,000,000); the payment's own limit is checked on the server. */
 export const MAX_REFUND_CENTS = 100_000_000;
@@ -11,7 +12,7 @@ export const refundPaymentSchema = z.object({
     .int("Enter whole cents (at most two decimals)")
     .positive("Enter an amount above $0.00")
     .max(MAX_REFUND_CENTS, "That is more than any deposit"),
-  reason: z.string().trim().min(3, "Give the reason; the customer sees it").max(500, "Keep the reason under 500 characters"),
+  reason: plainText({ multiline: true }).trim().min(3, "Give the reason; the customer sees it").max(500, "Keep the reason under 500 characters"),
 });
 export type RefundPaymentInput = z.input<typeof refundPaymentSchema>;
 

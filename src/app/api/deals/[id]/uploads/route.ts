@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { acceptDealUpload, listDealUploads } from "@/server/energy";
+import { BODY_CAPS } from "@/server/body-limit";
 import { HttpError, notFound } from "@/server/errors";
 import { idSchema, readForm, withMember } from "@/server/route";
 
@@ -16,7 +17,7 @@ const uploadFormSchema = z.object({ file: z.instanceof(File, { message: "Choose 
 /** A bill (PDF, photo) or interval data (Green Button XML, CSV), checked by its content. */
 export const POST = withMember<Params>("deals:write", async ({ req, member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
-  const form = await readForm(req);
+  const form = await readForm(req, BODY_CAPS.dealUpload);
   const parsed = uploadFormSchema.safeParse({ file: form.get("file") });
   if (!parsed.success) throw new HttpError(422, "validation_failed", "Choose a file to upload.", { file: ["Choose a file to upload"] });
   const file = parsed.data.file;

@@ -1,5 +1,6 @@
 import { notFound } from "@/server/errors";
 import { getJobPacketPdf } from "@/server/jobs";
+import { storedFileResponse } from "@/server/file-response";
 import { idSchema, withMember } from "@/server/route";
 
 type Params = { id: string };
@@ -8,12 +9,6 @@ type Params = { id: string };
 export const GET = withMember<Params>("jobs:read", async ({ member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Job");
   const { bytes, fileName } = await getJobPacketPdf(member, params.id);
-  return new Response(Buffer.from(bytes), {
-    headers: {
-      "Content-Type": "application/pdf",
-      "Content-Disposition": `inline; filename="${fileName}"`,
-      "Cache-Control": "private, no-store",
-      "X-Content-Type-Options": "nosniff",
-    },
-  });
+  // Our own PDF, printed now: it may open inline.
+  return storedFileResponse(bytes, { type: "application/pdf", fileName, disposition: "inline", cache: "private, no-store" });
 });

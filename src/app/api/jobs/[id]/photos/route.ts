@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { jobPhotoCaptionSchema } from "@/lib/schemas/jobs";
+import { BODY_CAPS } from "@/server/body-limit";
 import { notFound } from "@/server/errors";
 import { addJobPhoto, listJobPhotos } from "@/server/jobs";
 import { idSchema, readForm, validationError, withMember } from "@/server/route";
@@ -20,7 +21,7 @@ const photoFormSchema = z.object({
 /** A photo from the phone's camera (multipart field “file”, optional “caption”). */
 export const POST = withMember<Params>("jobs:work", async ({ req, member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Job");
-  const form = await readForm(req, "the photo");
+  const form = await readForm(req, BODY_CAPS.photo, "the photo");
   const caption = form.get("caption");
   const parsed = photoFormSchema.safeParse({ file: form.get("file"), caption: typeof caption === "string" ? caption : undefined });
   if (!parsed.success) throw validationError(parsed.error);
