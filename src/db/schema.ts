@@ -19,6 +19,11 @@ import {
   uniqueIndex,
   varchar,
 } from "drizzle-orm/mysql-core";
+import { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES } from "../lib/enums";
+
+// The enum value lists live in src/lib/enums.ts (browser code needs them without drizzle); re-exported for server code.
+export { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES };
+export type { PaymentStatus, ProposalStatus, Role, Stage } from "../lib/enums";
 
 const id = (name = "id") => varchar(name, { length: 36 });
 const createdAt = () => timestamp("created_at", { fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`);
@@ -94,9 +99,6 @@ export const verification = mysqlTable(
 
 // ── Companies and people ───────────────────────────────────────────────────────────────────
 
-export const ROLES = ["owner", "admin", "office_manager", "sales_rep", "crew"] as const;
-export type Role = (typeof ROLES)[number];
-
 export const company = mysqlTable("company", {
   id: id().primaryKey(),
   name: varchar("name", { length: 200 }).notNull(),
@@ -161,25 +163,6 @@ export const signInFailure = mysqlTable(
 );
 
 // ── Households and deals ───────────────────────────────────────────────────────────────────
-
-export const STAGES = [
-  "lead",
-  "bills_in",
-  "designing",
-  "proposal_out",
-  "signed",
-  "deposit_paid",
-  "survey",
-  "permitting",
-  "install_booked",
-  "installed",
-  "inspected",
-  "live",
-  "on_hold",
-  "lost",
-  "cancelled",
-] as const;
-export type Stage = (typeof STAGES)[number];
 
 export const household = mysqlTable(
   "household",
@@ -355,8 +338,6 @@ export const weatherStation = mysqlTable(
   },
   (t) => [index("weather_station_company_idx").on(t.companyId)],
 );
-
-export const CELL_TECHNOLOGIES = ["mono_perc", "topcon", "heterojunction", "back_contact", "polycrystalline", "thin_film_cdte", "thin_film_cigs"] as const;
 
 /** A PV module in the company's catalog (datasheet values at STC). */
 export const moduleModel = mysqlTable(
@@ -548,9 +529,6 @@ export const timelineEvent = mysqlTable(
 
 // ── Proposals and signing ─────────────────────────────────────────────────────────────────
 
-export const PROPOSAL_STATUSES = ["sent", "replaced", "revoked", "signed", "cancelled"] as const;
-export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
-
 /**
  * A frozen, numbered, versioned snapshot of 1–3 offers of a deal, sent to the customer.
  * `snapshot` copies every input and figure (src/lib/schemas/proposal.ts), so later edits to
@@ -640,9 +618,6 @@ export const proposalEvent = mysqlTable(
 );
 
 // ── Deposits: payments, refunds, webhook events ──────────────────────────────────────────
-
-export const PAYMENT_STATUSES = ["open", "paid", "failed", "expired", "flagged", "refunded", "partially_refunded"] as const;
-export type PaymentStatus = (typeof PAYMENT_STATUSES)[number];
 
 /** A deposit asked through a Stripe Checkout Session; the ledger row for it. Amounts in cents. */
 export const payment = mysqlTable(

@@ -3,7 +3,7 @@
 // physical checks catch typing slips in datasheet values; they are sanity ranges, not a
 // replacement for the datasheet.
 import { z } from "zod";
-import { CELL_TECHNOLOGIES } from "@/db/schema";
+import { CELL_TECHNOLOGIES } from "@/lib/enums";
 
 export { CELL_TECHNOLOGIES };
 export type CellTechnology = (typeof CELL_TECHNOLOGIES)[number];

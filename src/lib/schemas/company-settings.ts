@@ -3,7 +3,7 @@
 // and Today flag deals by, and the savings assumptions every new offer is figured with. The tunable parts live in company.settings (JSON); the name
 // and licence number in their own columns. Shared by the form (zodResolver) and the server.
 import { z } from "zod";
-import type { Stage } from "@/db/schema";
+import type { Stage } from "@/lib/enums";
 import { DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS } from "@/engine/cashflow";
 import { DEFAULT_STALL_DAYS, PIPELINE } from "@/lib/stage-rules";
 

@@ -1,7 +1,7 @@
 // The deals table's query: paging, sorting and filters, shared by the page, the table route
 // and the CSV export. Query-string values arrive as strings; empty ones mean "not set".
 import { z } from "zod";
-import { STAGES, type Stage } from "@/db/schema";
+import { STAGES, type Stage } from "@/lib/enums";
 
 export const DEAL_TABLE_SORT_COLUMNS = [
   "household",
