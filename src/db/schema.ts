@@ -690,6 +690,29 @@ export const webhookEvent = mysqlTable("webhook_event", {
   receivedAt: createdAt(),
 });
 
+/**
+ * Money the provider reports that the ledger cannot place, for the office to look into: today a
+ * refund of a payment the ledger does not know. Shown on Money → Reconciliation. Written with
+ * the webhook_event row of its cause, when the event's metadata names one of our companies.
+ */
+export const paymentAlert = mysqlTable(
+  "payment_alert",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    kind: mysqlEnum("kind", ["unknown_refund"]).notNull(),
+    webhookEventId: varchar("webhook_event_id", { length: 255 }).notNull(),
+    chargeId: varchar("charge_id", { length: 255 }),
+    paymentIntentId: varchar("payment_intent_id", { length: 255 }),
+    amountCents: int("amount_cents"),
+    detail: varchar("detail", { length: 500 }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("payment_alert_event_uq").on(t.webhookEventId), index("payment_alert_company_idx").on(t.companyId, t.createdAt)],
+);
+
 // ── Jobs for the crews ───────────────────────────────────────────────────────────────────
 
 /** An install crew; its calendar feed sits behind a secret, rotatable URL token. */
@@ -833,6 +856,7 @@ export const schema = {
   payment,
   refund,
   webhookEvent,
+  paymentAlert,
   crew,
   checklistTemplate,
   job,

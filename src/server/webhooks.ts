@@ -7,7 +7,7 @@ import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
 import type Stripe from "stripe";
 import { z } from "zod";
-import { webhookEvent } from "@/db/schema";
+import { company, paymentAlert, webhookEvent } from "@/db/schema";
 import { db, type Tx } from "@/server/db";
 import {
   applyChargeRefunded,
@@ -87,7 +87,7 @@ const handlers: Handlers = {
       const pi = await stripe().paymentIntents.retrieve(piId);
       row = await lockPaymentFor(tx, { metadata: pi.metadata, sessionId: await sessionIdFor(pi) });
     }
-    if (!row) return unknownPayment(charge.id);
+    if (!row) return flagUnknownRefund(tx, event, charge, piId);
     return applyChargeRefunded(tx, row, { paymentIntentId: piId, chargeId: charge.id }, event.id, after);
   },
 
@@ -98,6 +98,34 @@ const handlers: Handlers = {
     return markPaymentExpired(tx, row);
   },
 };
+
+/**
+ * A refund of a payment the ledger does not know: money left the company's account and no row
+ * says why. When our metadata (on the charge, else its PaymentIntent) names one of our
+ * companies, the office of that company sees it on Money → Reconciliation; otherwise only the
+ * webhook_event row and the log keep it (no company may see another's alerts).
+ */
+async function flagUnknownRefund(tx: Tx, event: Stripe.Event, charge: Stripe.Charge, piId: string | null): Promise<LedgerOutcome> {
+  let companyId = charge.metadata?.companyId ?? null;
+  if (!companyId && piId) companyId = (await stripe().paymentIntents.retrieve(piId)).metadata?.companyId ?? null;
+  const [owner] = companyId ? await tx.select({ id: company.id }).from(company).where(eq(company.id, companyId)).limit(1) : [];
+  const what = `refund of ${charge.amount_refunded ?? "?"} cents on charge ${charge.id}${piId ? ` (payment intent ${piId})` : ""}, a payment the ledger does not know`;
+  if (!owner) {
+    console.warn(`webhook ${event.id}: ${what}; no company named in its metadata`);
+    return { outcome: "flagged", note: `${what}; no company named` };
+  }
+  await tx.insert(paymentAlert).ignore().values({
+    id: crypto.randomUUID(),
+    companyId: owner.id,
+    kind: "unknown_refund",
+    webhookEventId: event.id,
+    chargeId: charge.id,
+    paymentIntentId: piId,
+    amountCents: Number.isInteger(charge.amount_refunded) ? charge.amount_refunded : null,
+    detail: `The provider reports a ${what}.`.slice(0, 500),
+  });
+  return { outcome: "flagged", note: what };
+}
 
 /**
  * The Checkout Session of a PaymentIntent, asked from the provider only when our metadata is
@@ -129,7 +157,7 @@ const OBJECT_SCHEMAS: Record<HandledEventType, z.ZodType> = {
   "checkout.session.completed": z.object({ id: objectId, metadata, payment_status: z.string(), amount_total: cents.nullable(), currency: currency.nullable(), payment_intent: ref.nullish() }).loose(),
   "payment_intent.succeeded": z.object({ id: objectId, metadata, amount_received: cents, currency, latest_charge: ref.nullish() }).loose(),
   "payment_intent.payment_failed": z.object({ id: objectId, metadata, last_payment_error: z.object({ message: z.string().optional() }).loose().nullish() }).loose(),
-  "charge.refunded": z.object({ id: objectId, metadata, payment_intent: ref.nullish() }).loose(),
+  "charge.refunded": z.object({ id: objectId, metadata, payment_intent: ref.nullish(), amount_refunded: cents.optional() }).loose(),
   "checkout.session.expired": z.object({ id: objectId, metadata }).loose(),
 };
 

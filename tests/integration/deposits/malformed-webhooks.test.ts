@@ -85,3 +85,43 @@ describe("signed but malformed webhook events", () => {
     expect(await recorded(JSON.parse(body).id)).toBeUndefined();
   });
 });
+
+describe("refunds of payments the ledger does not know", () => {
+  const refundEvent = (charge: Record<string, unknown>) => ({
+    id: `evt_unknown_refund_${Date.now()}_${Math.random().toString(36).slice(2, 7)}`,
+    object: "event",
+    type: "charge.refunded",
+    created: Math.floor(Date.now() / 1000),
+    data: { object: { object: "charge", payment_intent: null, amount: 40_000, ...charge } },
+  });
+
+  it("flags one for the office of the company our metadata names, and only that company sees it", async () => {
+    const other = await newCompany("Other Webhook Solar");
+    const chargeId = `ch_unknown_${Date.now()}`;
+    const event = refundEvent({ id: chargeId, amount_refunded: 40_000, metadata: { companyId: owner.companyId, paymentId: crypto.randomUUID() } });
+    const res = await deliver(JSON.stringify(event));
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ status: "processed", outcome: "flagged" });
+    expect((await recorded(event.id))?.outcome).toBe("flagged");
+
+    const alerts = await payments.listPaymentAlerts(owner);
+    const alert = alerts.find((a) => a.chargeId === chargeId);
+    expect(alert).toMatchObject({ kind: "unknown_refund", amountCents: 40_000, webhookEventId: event.id });
+    expect(alert?.detail).toContain(chargeId);
+    expect((await payments.listPaymentAlerts(other)).some((a) => a.chargeId === chargeId)).toBe(false);
+    await expect(payments.getPaymentAlertOrThrow(other, alert!.id)).rejects.toMatchObject({ status: 404 });
+
+    // A redelivery adds nothing.
+    expect((await deliver(JSON.stringify(event))).body).toMatchObject({ status: "duplicate" });
+    expect((await payments.listPaymentAlerts(owner)).filter((a) => a.chargeId === chargeId)).toHaveLength(1);
+  });
+
+  it("keeps one that names no company of ours in the event log only", async () => {
+    const event = refundEvent({ id: `ch_nobody_${Date.now()}`, amount_refunded: 500, metadata: {} });
+    const res = await deliver(JSON.stringify(event));
+    expect(res.status).toBe(200);
+    expect((await recorded(event.id))).toMatchObject({ outcome: "flagged" });
+    expect((await recorded(event.id))?.note).toMatch(/no company named/);
+    expect((await payments.listPaymentAlerts(owner)).some((a) => a.webhookEventId === event.id)).toBe(false);
+  });
+});
