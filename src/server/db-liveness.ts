@@ -1,29 +1,47 @@
 import "server-only";
-// Is MariaDB reachable right now? Asked by src/proxy.ts before every page and API request, so
-// the answer is cached: at most one `SELECT 1` per second per process (our choice), on its own
-// one-connection pool with short timeouts, shared by every request that arrives meanwhile.
+// Is MariaDB reachable right now? Asked by src/proxy.ts before every page request and by the
+// sign-in route, so the answer is cached: at most one `SELECT 1` per second per process (our
+// choice), on one connection of its own, shared by every request that arrives meanwhile. Any
+// failure or a hang past the timeout drops that connection, and the next probe opens a new one
+// (a connection from before a database restart is dead even when the database is back).
 import mysql from "mysql2/promise";
 import { env } from "@/env";
 
 const PROBE_EVERY_MS = 1_000;
 const PROBE_TIMEOUT_MS = 1_000;
 
-type State = { pool?: mysql.Pool; up: boolean | null; checkedAt: number; inflight: Promise<boolean> | null };
-// On globalThis so the proxy's bundle and a reload share one pool and one answer per process.
+type State = { conn: mysql.Connection | null; up: boolean | null; checkedAt: number; inflight: Promise<boolean> | null };
+// On globalThis so every bundle of this process shares one connection and one answer.
 const g = globalThis as unknown as { kilowrightLiveness?: State };
-const state: State = (g.kilowrightLiveness ??= { up: null, checkedAt: 0, inflight: null });
+const state: State = (g.kilowrightLiveness ??= { conn: null, up: null, checkedAt: 0, inflight: null });
 
-function probePool(): mysql.Pool {
-  state.pool ??= mysql.createPool({ uri: env().DATABASE_URL, connectionLimit: 1, maxIdle: 1, connectTimeout: PROBE_TIMEOUT_MS, enableKeepAlive: true });
-  return state.pool;
+async function selectOne(): Promise<void> {
+  if (!state.conn) {
+    const conn = await mysql.createConnection({ uri: env().DATABASE_URL, connectTimeout: PROBE_TIMEOUT_MS });
+    // A connection lost while idle (the server stopped) reports it here; without a listener it would crash the process.
+    conn.on("error", () => {
+      if (state.conn === conn) state.conn = null;
+    });
+    state.conn = conn;
+  }
+  await state.conn.query({ sql: "SELECT 1", timeout: PROBE_TIMEOUT_MS });
 }
 
 async function probe(): Promise<boolean> {
+  let timer: NodeJS.Timeout | undefined;
+  const deadline = new Promise<never>((_, reject) => {
+    timer = setTimeout(() => reject(new Error("probe timed out")), PROBE_TIMEOUT_MS + 200);
+  });
   try {
-    await probePool().query({ sql: "SELECT 1", timeout: PROBE_TIMEOUT_MS });
+    await Promise.race([selectOne(), deadline]);
     return true;
   } catch {
+    const dead = state.conn;
+    state.conn = null;
+    dead?.destroy();
     return false;
+  } finally {
+    clearTimeout(timer);
   }
 }
 

@@ -50,6 +50,10 @@ test("the database stops and starts under the running app: 503 with a short page
   await expect
     .poll(async () => (await request.get("/api/health")).status(), { timeout: 30_000, intervals: [250, 500, 1000] })
     .toBe(200);
+  // Pages follow within a second: the proxy's liveness answer is kept that long (src/server/db-liveness.ts).
+  await expect
+    .poll(async () => (await request.get("/sign-in")).status(), { timeout: 5_000, intervals: [250, 500] })
+    .toBe(200);
   await page.goto("/sign-in");
   await page.getByLabel("E-mail").fill("office@tallgrass.example");
   await page.getByLabel("Password").fill("tallgrass-demo-2026");
