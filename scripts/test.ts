@@ -8,6 +8,7 @@ import { instance, projectRoot } from "./lib/instance";
 import { resetDatabase, startMariaDb, stopMariaDb } from "./lib/mariadb";
 import { applyMigrations } from "./lib/migrate";
 import { seedDemo } from "./lib/seed-demo";
+import { checkClientBundles } from "./lib/client-bundles";
 import { buildIfStale, startApp, startMailFake, startPaymentsFake, stopServices, waitForHttp } from "./lib/services";
 
 const inst = instance("test");
@@ -52,6 +53,8 @@ async function main(): Promise<boolean> {
   }
   if (layers.includes("browser")) {
     buildIfStale();
+    console.log("\n━━ client bundles (no drizzle in the browser) ━━");
+    results.push(["client bundles", checkClientBundles(projectRoot)]);
     startApp(inst);
     await waitForHttp(`${inst.appUrl}/api/health`, "Kilowright (test)", 90_000);
     results.push(["browser", run("browser tests (Playwright + chromium)", [bin("@playwright/test/cli.js"), "test", "-c", "tests/playwright.config.ts", ...extra], testEnv)]);

@@ -20,6 +20,9 @@ export default defineConfig({
   outputDir: "../test-results",
   use: {
     baseURL,
+    // Chromium sends Origin on every fetch that changes something; Playwright's API requests do
+    // not, and the app refuses cookie mutations without one (src/server/request-guard.ts).
+    extraHTTPHeaders: { Origin: new URL(baseURL).origin },
     headless: true,
     launchOptions: chromium,
     trace: "retain-on-failure",

@@ -107,7 +107,7 @@ export function startApp(inst: Instance): ChildProcess {
   );
 }
 
-const BUILD_INPUTS = ["src", "emails", "drizzle", "public", "package-lock.json", "tailwind.config.ts", "tsconfig.json", ".postcssrc.json"];
+const BUILD_INPUTS = ["src", "emails", "drizzle", "public", "package-lock.json", "tailwind.config.ts", "tsconfig.json", ".postcssrc.json", "next.config.ts"];
 
 function newestMtime(p: string): number {
   if (!existsSync(p)) return 0;

@@ -5,7 +5,9 @@ import "@fontsource/ibm-plex-mono/400.css";
 import "@fontsource/ibm-plex-mono/500.css";
 import "./globals.css";
 import type { Metadata, Viewport } from "next";
+import { connection } from "next/server";
 import type { ReactNode } from "react";
+import { ZodJitless } from "@/components/zod-jitless";
 
 export const metadata: Metadata = {
   title: { default: "Kilowright", template: "%s · Kilowright" },
@@ -14,10 +16,15 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#FAF7F2" };
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+/** Every page renders per request: its scripts carry the nonce of that request's CSP (src/proxy.ts). */
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  await connection();
   return (
     <html lang="en">
-      <body className="min-h-dvh">{children}</body>
+      <body className="min-h-dvh">
+        <ZodJitless />
+        {children}
+      </body>
     </html>
   );
 }

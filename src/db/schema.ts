@@ -19,6 +19,11 @@ import {
   uniqueIndex,
   varchar,
 } from "drizzle-orm/mysql-core";
+import { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES } from "../lib/enums";
+
+// The enum value lists live in src/lib/enums.ts (browser code needs them without drizzle); re-exported for server code.
+export { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES };
+export type { PaymentStatus, ProposalStatus, Role, Stage } from "../lib/enums";
 
 const id = (name = "id") => varchar(name, { length: 36 });
 const createdAt = () => timestamp("created_at", { fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`);
@@ -94,9 +99,6 @@ export const verification = mysqlTable(
 
 // ── Companies and people ───────────────────────────────────────────────────────────────────
 
-export const ROLES = ["owner", "admin", "office_manager", "sales_rep", "crew"] as const;
-export type Role = (typeof ROLES)[number];
-
 export const company = mysqlTable("company", {
   id: id().primaryKey(),
   name: varchar("name", { length: 200 }).notNull(),
@@ -162,25 +164,6 @@ export const rateLimit = mysqlTable("rate_limit", {
 });
 
 // ── Households and deals ───────────────────────────────────────────────────────────────────
-
-export const STAGES = [
-  "lead",
-  "bills_in",
-  "designing",
-  "proposal_out",
-  "signed",
-  "deposit_paid",
-  "survey",
-  "permitting",
-  "install_booked",
-  "installed",
-  "inspected",
-  "live",
-  "on_hold",
-  "lost",
-  "cancelled",
-] as const;
-export type Stage = (typeof STAGES)[number];
 
 export const household = mysqlTable(
   "household",
@@ -356,8 +339,6 @@ export const weatherStation = mysqlTable(
   },
   (t) => [index("weather_station_company_idx").on(t.companyId)],
 );
-
-export const CELL_TECHNOLOGIES = ["mono_perc", "topcon", "heterojunction", "back_contact", "polycrystalline", "thin_film_cdte", "thin_film_cigs"] as const;
 
 /** A PV module in the company's catalog (datasheet values at STC). */
 export const moduleModel = mysqlTable(
@@ -549,9 +530,6 @@ export const timelineEvent = mysqlTable(
 
 // ── Proposals and signing ─────────────────────────────────────────────────────────────────
 
-export const PROPOSAL_STATUSES = ["sent", "replaced", "revoked", "signed", "cancelled"] as const;
-export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
-
 /**
  * A frozen, numbered, versioned snapshot of 1–3 offers of a deal, sent to the customer.
  * `snapshot` copies every input and figure (src/lib/schemas/proposal.ts), so later edits to
@@ -642,9 +620,6 @@ export const proposalEvent = mysqlTable(
 
 // ── Deposits: payments, refunds, webhook events ──────────────────────────────────────────
 
-export const PAYMENT_STATUSES = ["open", "paid", "failed", "expired", "flagged", "refunded", "partially_refunded"] as const;
-export type PaymentStatus = (typeof PAYMENT_STATUSES)[number];
-
 /** A deposit asked through a Stripe Checkout Session; the ledger row for it. Amounts in cents. */
 export const payment = mysqlTable(
   "payment",
@@ -715,6 +690,29 @@ export const webhookEvent = mysqlTable("webhook_event", {
   note: varchar("note", { length: 500 }),
   receivedAt: createdAt(),
 });
+
+/**
+ * Money the provider reports that the ledger cannot place, for the office to look into: today a
+ * refund of a payment the ledger does not know. Shown on Money → Reconciliation. Written with
+ * the webhook_event row of its cause, when the event's metadata names one of our companies.
+ */
+export const paymentAlert = mysqlTable(
+  "payment_alert",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    kind: mysqlEnum("kind", ["unknown_refund"]).notNull(),
+    webhookEventId: varchar("webhook_event_id", { length: 255 }).notNull(),
+    chargeId: varchar("charge_id", { length: 255 }),
+    paymentIntentId: varchar("payment_intent_id", { length: 255 }),
+    amountCents: int("amount_cents"),
+    detail: varchar("detail", { length: 500 }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("payment_alert_event_uq").on(t.webhookEventId), index("payment_alert_company_idx").on(t.companyId, t.createdAt)],
+);
 
 // ── Jobs for the crews ───────────────────────────────────────────────────────────────────
 
@@ -859,6 +857,7 @@ export const schema = {
   payment,
   refund,
   webhookEvent,
+  paymentAlert,
   crew,
   checklistTemplate,
   job,

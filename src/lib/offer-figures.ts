@@ -5,7 +5,7 @@
 // Pieces reused from the engine: estimateProduction's system shape (production.ts), the sizing
 // helper (sizing.ts), the string check (string-check.ts), bills (rates.ts), incentives
 // (incentives.ts) and the 25-year table (cashflow.ts); quote.ts chains them the same way.
-import type { Role } from "@/db/schema";
+import type { Role } from "@/lib/enums";
 import { buildCashflow, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowRow } from "@/engine/cashflow";
 import { evaluateIncentives, type IncentiveResult } from "@/engine/incentives";
 import type { SystemDesign } from "@/engine/production";

@@ -1,7 +1,7 @@
 // The one permission table (PRODUCT.md, "The people and what each must get done").
 // Every server action and route handler names one of these; pages use the same table to
 // decide which sections to show. Shared by server and browser, so no server imports here.
-import type { Role } from "@/db/schema";
+import type { Role } from "@/lib/enums";
 
 export const ROLE_LABELS: Record<Role, string> = {
   owner: "Owner",

@@ -1,7 +1,7 @@
 // Pricing one offer from the company's price book. Pure: no server or browser imports, so the
 // rep's screen and the server compute the same figures. All amounts are integer cents; each
 // line is rounded to the cent once, and totals are sums of the rounded lines.
-import type { Role } from "@/db/schema";
+import type { Role } from "@/lib/enums";
 import type { DiscountLimit, PriceBook } from "@/lib/schemas/price-book";
 
 export type OfferPricingInput = {

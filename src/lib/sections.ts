@@ -1,6 +1,6 @@
 // The app's sections (PRODUCT.md, "Names"), each behind a permission. Only sections that
 // work are listed.
-import type { Role } from "@/db/schema";
+import type { Role } from "@/lib/enums";
 import { can, type Permission } from "@/lib/permissions";
 
 export type Section = { href: string; label: string; permission: Permission; devOnly?: boolean };

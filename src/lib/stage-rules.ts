@@ -1,7 +1,7 @@
 // Stage rules (PRODUCT.md, "Stages"): which manual moves are allowed and what they require.
 // Pure: shared by the server (which enforces them) and the board (which explains them).
 import { z } from "zod";
-import { STAGES, type Role, type Stage } from "@/db/schema";
+import { STAGES, type Role, type Stage } from "@/lib/enums";
 import { STAGE_LABELS } from "@/lib/stages";
 
 /** The main line of a deal, in order (PRODUCT.md). */

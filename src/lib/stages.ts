@@ -1,4 +1,4 @@
-import type { Stage } from "@/db/schema";
+import type { Stage } from "@/lib/enums";
 
 /** The stage names people read (PRODUCT.md, "Stages"). */
 export const STAGE_LABELS: Record<Stage, string> = {

@@ -6,7 +6,8 @@ import { pool } from "@/server/db";
 export type Health = {
   status: "ok" | "degraded";
   version: string;
-  database: { reachable: boolean; latencyMs: number | null; error?: string };
+  /** Reachable or not; never the host, port or the driver's error text (they help an attacker, not the load balancer). */
+  database: { reachable: boolean; latencyMs: number | null };
   migrations: { expected: number; applied: number | null; latest: string; upToDate: boolean };
 };
 
@@ -35,10 +36,12 @@ export async function checkHealth(): Promise<Health> {
       migrations: { expected, applied, latest: latest?.tag ?? "", upToDate },
     };
   } catch (err) {
+    // The details go to the log, which only operators read.
+    console.error("health: the database did not answer", err);
     return {
       status: "degraded",
       version: VERSION,
-      database: { reachable: false, latencyMs: null, error: err instanceof Error ? err.message : String(err) },
+      database: { reachable: false, latencyMs: null },
       migrations: { expected, applied: null, latest: latest?.tag ?? "", upToDate: false },
     };
   }

@@ -7,7 +7,7 @@ import { createHash } from "node:crypto";
 import { createElement } from "react";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import Stripe from "stripe";
-import { company, deal, household, payment, proposal, refund, user, type PaymentStatus } from "@/db/schema";
+import { company, deal, household, payment, paymentAlert, proposal, refund, user, type PaymentStatus } from "@/db/schema";
 import { env } from "@/env";
 import { formatCentsExact, formatDate } from "@/lib/format";
 import { proposalLabel as shortProposalLabel } from "@/lib/proposal-snapshot";
@@ -28,6 +28,7 @@ import { recordEvent } from "@/server/timeline";
 import { hashToken } from "@/server/tokens";
 
 export type PaymentRow = typeof payment.$inferSelect;
+export type PaymentAlertRow = typeof paymentAlert.$inferSelect;
 export type RefundRow = typeof refund.$inferSelect;
 type ProposalRow = typeof proposal.$inferSelect;
 
@@ -747,6 +748,24 @@ async function sendRefundNotice(r: RefundRow): Promise<void> {
 }
 
 // ── Reconciliation: the ledger against the provider's own lists ─────────────────────────────
+
+/** Money the provider reported that the ledger could not place (newest first), for the office. */
+export async function listPaymentAlerts(member: Member): Promise<PaymentAlertRow[]> {
+  if (!can(member.role, "payments:reconcile")) throw forbidden("reading payment alerts");
+  return db().select().from(paymentAlert).where(eq(paymentAlert.companyId, member.companyId)).orderBy(desc(paymentAlert.createdAt)).limit(200);
+}
+
+/** One alert of the member's company; another company's is not found. */
+export async function getPaymentAlertOrThrow(member: Member, id: string): Promise<PaymentAlertRow> {
+  if (!can(member.role, "payments:reconcile")) throw forbidden("reading payment alerts");
+  const [row] = await db()
+    .select()
+    .from(paymentAlert)
+    .where(and(eq(paymentAlert.id, id), eq(paymentAlert.companyId, member.companyId)))
+    .limit(1);
+  if (!row) throw notFound("Payment alert");
+  return row;
+}
 
 export type ReconciliationDifference = {
   kind: "missing_in_ledger" | "missing_at_provider" | "amount" | "state";

@@ -47,6 +47,7 @@ import { autoMoveStage } from "@/server/stages";
 import { storage } from "@/server/storage";
 import { refundOnCancellation } from "@/server/payments";
 import { recordEvent } from "@/server/timeline";
+import { guardPublicMutation } from "@/server/request-guard";
 import { hashToken, newLinkToken } from "@/server/tokens";
 
 // ── Rows ────────────────────────────────────────────────────────────────────────────────────
@@ -768,11 +769,13 @@ type TokenHandler = (args: { req: NextRequest; token: string; proposal: Proposal
 
 /**
  * The wrapper for the customer's route handlers (/api/public/proposals/[token]/…): a malformed
- * or unknown token is simply not found, and nothing about other records is revealed.
+ * or unknown token is simply not found, and nothing about other records is revealed. Its
+ * mutations come only from our own pages (request-guard.ts: 403/415).
  */
 export function withProposalToken(handler: TokenHandler) {
   return async (req: NextRequest, ctx: { params: Promise<{ token: string }> }): Promise<Response> => {
     try {
+      guardPublicMutation(req);
       const { token } = await ctx.params;
       const found = await findProposalByToken(token);
       if (!found) throw notFound("Proposal");

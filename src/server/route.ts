@@ -6,6 +6,7 @@ import { EngineInputError } from "@/engine/errors";
 import { BODY_CAPS, readCappedForm, readCappedText, type BodyCap } from "@/server/body-limit";
 import { engineFields, HttpError, isDatabaseDown } from "@/server/errors";
 import { TooManyRequests } from "@/server/limits";
+import { DEFAULT_BODY_TYPES, guardCookieMutation } from "@/server/request-guard";
 import { requireMember, type Member } from "@/server/session";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -36,11 +37,15 @@ type Handler<P> = (args: { req: NextRequest; member: Member; params: P }) => Pro
 
 /**
  * The one wrapper for route handlers: loads the person, their company and role, checks
- * the named permission (401/403 with a JSON body), then runs the handler.
+ * the named permission (401/403 with a JSON body), then runs the handler. A mutation sent
+ * with a cookie must come from the app's own origin with a JSON or multipart body (403/415,
+ * src/server/request-guard.ts); `bodyTypes` names others a route accepts (e.g. text/csv).
  */
-export function withMember<P = Record<string, never>>(permission: Permission, handler: Handler<P>) {
+export function withMember<P = Record<string, never>>(permission: Permission, handler: Handler<P>, options: { bodyTypes?: readonly string[] } = {}) {
+  const bodyTypes = options.bodyTypes ?? DEFAULT_BODY_TYPES;
   return async (req: NextRequest, ctx: RouteContext<P>): Promise<Response> => {
     try {
+      guardCookieMutation(req, bodyTypes);
       const member = await requireMember(permission, req.headers);
       return await handler({ req, member, params: await ctx.params });
     } catch (err) {

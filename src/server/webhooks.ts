@@ -3,9 +3,11 @@ import "server-only";
 // webhook_event inside the same transaction as the ledger change it causes, so a replay (or a
 // concurrent second delivery) finds the id and changes nothing. E-mail goes out only after the
 // commit, and a mail failure never turns into a failed delivery.
+import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
 import type Stripe from "stripe";
-import { webhookEvent } from "@/db/schema";
+import { z } from "zod";
+import { company, paymentAlert, webhookEvent } from "@/db/schema";
 import { db, type Tx } from "@/server/db";
 import {
   applyChargeRefunded,
@@ -31,7 +33,8 @@ type HandledEvent = Extract<Stripe.Event, { type: HandledEventType }>;
 export type WebhookResult =
   | { status: "processed"; outcome: LedgerOutcome["outcome"]; note?: string }
   | { status: "duplicate" }
-  | { status: "ignored"; note: string };
+  | { status: "ignored"; note: string }
+  | { status: "rejected"; note: string };
 
 const idOf = (v: string | { id: string } | null | undefined): string | null => (v == null ? null : typeof v === "string" ? v : v.id);
 const unknownPayment = (what: string): LedgerOutcome => ({ outcome: "ignored", note: `no ledger row for ${what}` });
@@ -84,7 +87,7 @@ const handlers: Handlers = {
       const pi = await stripe().paymentIntents.retrieve(piId);
       row = await lockPaymentFor(tx, { metadata: pi.metadata, sessionId: await sessionIdFor(pi) });
     }
-    if (!row) return unknownPayment(charge.id);
+    if (!row) return flagUnknownRefund(tx, event, charge, piId);
     return applyChargeRefunded(tx, row, { paymentIntentId: piId, chargeId: charge.id }, event.id, after);
   },
 
@@ -95,6 +98,34 @@ const handlers: Handlers = {
     return markPaymentExpired(tx, row);
   },
 };
+
+/**
+ * A refund of a payment the ledger does not know: money left the company's account and no row
+ * says why. When our metadata (on the charge, else its PaymentIntent) names one of our
+ * companies, the office of that company sees it on Money → Reconciliation; otherwise only the
+ * webhook_event row and the log keep it (no company may see another's alerts).
+ */
+async function flagUnknownRefund(tx: Tx, event: Stripe.Event, charge: Stripe.Charge, piId: string | null): Promise<LedgerOutcome> {
+  let companyId = charge.metadata?.companyId ?? null;
+  if (!companyId && piId) companyId = (await stripe().paymentIntents.retrieve(piId)).metadata?.companyId ?? null;
+  const [owner] = companyId ? await tx.select({ id: company.id }).from(company).where(eq(company.id, companyId)).limit(1) : [];
+  const what = `refund of ${charge.amount_refunded ?? "?"} cents on charge ${charge.id}${piId ? ` (payment intent ${piId})` : ""}, a payment the ledger does not know`;
+  if (!owner) {
+    console.warn(`webhook ${event.id}: ${what}; no company named in its metadata`);
+    return { outcome: "flagged", note: `${what}; no company named` };
+  }
+  await tx.insert(paymentAlert).ignore().values({
+    id: crypto.randomUUID(),
+    companyId: owner.id,
+    kind: "unknown_refund",
+    webhookEventId: event.id,
+    chargeId: charge.id,
+    paymentIntentId: piId,
+    amountCents: Number.isInteger(charge.amount_refunded) ? charge.amount_refunded : null,
+    detail: `The provider reports a ${what}.`.slice(0, 500),
+  });
+  return { outcome: "flagged", note: what };
+}
 
 /**
  * The Checkout Session of a PaymentIntent, asked from the provider only when our metadata is
@@ -108,6 +139,72 @@ async function sessionIdFor(pi: Stripe.PaymentIntent): Promise<string | null> {
 
 function isHandled(event: Stripe.Event): event is HandledEvent {
   return (HANDLED_EVENT_TYPES as readonly string[]).includes(event.type);
+}
+
+// ── Signed but malformed events ───────────────────────────────────────────────────────────
+// A body with a valid signature that is not what we need (not JSON, no id, an allow-listed type
+// whose object lacks the fields its handler reads) will not get better by delivering it again:
+// it is recorded as rejected with the reason and answered 2xx, so the provider stops retrying.
+
+const objectId = z.string().min(1).max(255);
+const ref = z.union([objectId, z.object({ id: objectId }).loose()]);
+const metadata = z.record(z.string(), z.string()).nullish();
+const cents = z.number().int().nonnegative();
+const currency = z.string().length(3);
+
+/** What each handler reads from `data.object`; anything else in the object is left alone. */
+const OBJECT_SCHEMAS: Record<HandledEventType, z.ZodType> = {
+  "checkout.session.completed": z.object({ id: objectId, metadata, payment_status: z.string(), amount_total: cents.nullable(), currency: currency.nullable(), payment_intent: ref.nullish() }).loose(),
+  "payment_intent.succeeded": z.object({ id: objectId, metadata, amount_received: cents, currency, latest_charge: ref.nullish() }).loose(),
+  "payment_intent.payment_failed": z.object({ id: objectId, metadata, last_payment_error: z.object({ message: z.string().optional() }).loose().nullish() }).loose(),
+  "charge.refunded": z.object({ id: objectId, metadata, payment_intent: ref.nullish(), amount_refunded: cents.optional() }).loose(),
+  "checkout.session.expired": z.object({ id: objectId, metadata }).loose(),
+};
+
+const envelopeSchema = z
+  .object({ id: objectId, type: z.string().min(1).max(100), created: z.number().int().positive(), data: z.object({ object: z.record(z.string(), z.unknown()) }).loose() })
+  .loose();
+
+/** An id for a body that has none we can trust: the same body gets the same id, so a retry is a duplicate. */
+const bodyId = (raw: string) => `malformed_${createHash("sha256").update(raw).digest("hex").slice(0, 40)}`;
+
+function firstIssue(error: z.ZodError): string {
+  const issue = error.issues[0];
+  return issue ? `${issue.path.join(".") || "body"}: ${issue.message}` : "invalid";
+}
+
+/**
+ * Checks a signature-verified body: the event when it is one we can act on (or one we ignore by
+ * type), else the reason it is rejected and the id to record it under.
+ */
+export function parseSignedEvent(raw: string): { ok: true; event: Stripe.Event } | { ok: false; id: string; type: string; reason: string } {
+  let json: unknown;
+  try {
+    json = JSON.parse(raw);
+  } catch {
+    return { ok: false, id: bodyId(raw), type: "unparsed", reason: "the body is not JSON" };
+  }
+  const envelope = envelopeSchema.safeParse(json);
+  if (!envelope.success) {
+    const id = typeof (json as { id?: unknown } | null)?.id === "string" ? String((json as { id: string }).id).slice(0, 255) : bodyId(raw);
+    return { ok: false, id, type: "unparsed", reason: `not an event: ${firstIssue(envelope.error)}` };
+  }
+  const { id, type, data } = envelope.data;
+  const schema = (OBJECT_SCHEMAS as Record<string, z.ZodType | undefined>)[type];
+  if (schema) {
+    const object = schema.safeParse(data.object);
+    if (!object.success) return { ok: false, id, type, reason: `data.object.${firstIssue(object.error)}` };
+  }
+  return { ok: true, event: json as Stripe.Event };
+}
+
+/** Records a rejected event once (a redelivery finds the row) and says so. */
+export async function recordRejectedEvent(id: string, type: string, reason: string): Promise<WebhookResult> {
+  const note = reason.slice(0, 500);
+  const inserted = await db().insert(webhookEvent).ignore().values({ id, type: type.slice(0, 100), outcome: "rejected", note });
+  if (inserted[0].affectedRows !== 1) return { status: "duplicate" };
+  console.warn(`webhook ${id} (${type}) rejected: ${note}`);
+  return { status: "rejected", note };
 }
 
 /**

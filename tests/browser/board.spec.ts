@@ -1,5 +1,5 @@
 import { expect, test, type Locator, type Page } from "@playwright/test";
-import { alertOf, signIn, withDb } from "./support";
+import { alertOf, signIn, watchBrowserProblems, withDb } from "./support";
 
 // The office's board at desktop size: the stage rules refuse a move with their reason, an admin
 // moves with a reason typed in the dialog, and the deal's Timeline shows who moved it and why.
@@ -70,6 +70,8 @@ test("the office manager is refused Install booked without a permit approval dat
 
 test("the owner moves it with a reason, and the Timeline shows who and why", async ({ page }) => {
   const why = "Permit approved by phone; the paper copy follows";
+  // Drag and drop (dnd-kit) under the app's CSP: no violation, no page error.
+  const problems = await watchBrowserProblems(page.context());
   await signIn(page, "owner@tallgrass.example");
   await page.goto("/board");
   const permitting = column(page, "Permitting");
@@ -97,6 +99,7 @@ test("the owner moves it with a reason, and the Timeline shows who and why", asy
   const timeline = page.getByRole("list", { name: "What happened" });
   await expect(timeline).toContainText(`Maren Lindqvist moved Halvorsen household from Permitting to Install booked: ${why}`);
   await expect(timeline.getByRole("listitem").last()).toContainText("Maren Lindqvist");
+  problems.expectNone();
 });
 
 test("a card moves by keyboard too (Space, arrows, Space), announced to screen readers", async ({ page }) => {

@@ -1,6 +1,6 @@
 // Shared helpers for the browser tests: the dev outbox, direct database access for set-up,
 // and signing in. The app under test is the production build started by `npm test`.
-import { expect, type APIRequestContext, type Page } from "@playwright/test";
+import { expect, type APIRequestContext, type BrowserContext, type Page } from "@playwright/test";
 import { hashPassword } from "better-auth/crypto";
 import mysql from "mysql2/promise";
 import { z } from "zod";
@@ -87,3 +87,27 @@ export async function createCompany(name: string): Promise<{ companyId: string; 
 
 /** The page's own alerts (Next.js adds an empty route announcer with role="alert"). */
 export const alertOf = (page: Page) => page.locator('[role="alert"]:not(#__next-route-announcer__)');
+
+/**
+ * Collects what the Content-Security-Policy blocked (securitypolicyviolation events, and the
+ * console's "Refused to …" errors) and uncaught page errors, in every page of a context, so a
+ * journey can fail on them: a policy that breaks charts, the signature pad or drag and drop
+ * shows up here even when the screen still looks right.
+ */
+export async function watchBrowserProblems(context: BrowserContext): Promise<{ problems: string[]; expectNone: () => void }> {
+  const problems: string[] = [];
+  await context.exposeBinding("__kwReportViolation", (_source, text: string) => {
+    problems.push(`CSP violation: ${text}`);
+  });
+  await context.addInitScript(() => {
+    const report = (window as unknown as { __kwReportViolation: (text: string) => void }).__kwReportViolation;
+    document.addEventListener("securitypolicyviolation", (e) => {
+      report(`${e.effectiveDirective} blocked ${e.blockedURI || "inline"} (${e.sourceFile}:${e.lineNumber}) on ${location.pathname}`);
+    });
+  });
+  context.on("console", (msg) => {
+    if (msg.type() === "error" && /Content Security Policy|Refused to/i.test(msg.text())) problems.push(`console: ${msg.text()}`);
+  });
+  context.on("weberror", (err) => problems.push(`page error: ${err.error().message}`));
+  return { problems, expectNone: () => expect(problems, problems.join("\n")).toEqual([]) };
+}

@@ -3,7 +3,7 @@
 // refund. The provider ids are made up and look it (cs_test_demo…, pi_demo…): the demo's dev
 // payments server has never seen them, so the reconciliation page lists them apart.
 import { and, desc, eq, inArray } from "drizzle-orm";
-import { deal, payment, proposal, refund, timelineEvent, type Stage } from "../../../src/db/schema";
+import { deal, payment, paymentAlert, proposal, refund, timelineEvent, webhookEvent, type Stage } from "../../../src/db/schema";
 import type { ProposalSnapshot } from "../../../src/lib/schemas/proposal";
 import type { SeedContext } from "../seed-demo";
 
@@ -27,6 +27,7 @@ function depositOf(raw: unknown, chosenPosition: number | null): number | null {
 const money = (cents: number) => `$${(cents / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
 
 export async function seed(ctx: SeedContext): Promise<void> {
+  await seedUnknownRefund(ctx);
   const deals = await ctx.tx
     .select({ id: deal.id, stage: deal.stage, stageChangedAt: deal.stageChangedAt })
     .from(deal)
@@ -109,4 +110,21 @@ export async function seed(ctx: SeedContext): Promise<void> {
       });
     }
   }
+}
+
+/** A refund the provider reported for a payment the ledger does not know (Money → Reconciliation lists it). */
+async function seedUnknownRefund(ctx: SeedContext): Promise<void> {
+  const eventId = `evt_demo_unknown_refund_${ctx.companyId.slice(-4)}`;
+  const detail = "The provider reports a refund of 25000 cents on charge ch_demo_unknown_1, a payment the ledger does not know.";
+  await ctx.tx.insert(webhookEvent).values({ id: eventId, type: "charge.refunded", outcome: "flagged", note: detail.slice(21) });
+  await ctx.tx.insert(paymentAlert).values({
+    id: uid(850),
+    companyId: ctx.companyId,
+    kind: "unknown_refund",
+    webhookEventId: eventId,
+    chargeId: "ch_demo_unknown_1",
+    paymentIntentId: null,
+    amountCents: 25_000,
+    detail,
+  });
 }

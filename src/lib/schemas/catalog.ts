@@ -4,7 +4,7 @@
 // replacement for the datasheet.
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
-import { CELL_TECHNOLOGIES } from "@/db/schema";
+import { CELL_TECHNOLOGIES } from "@/lib/enums";
 
 export { CELL_TECHNOLOGIES };
 export type CellTechnology = (typeof CELL_TECHNOLOGIES)[number];

@@ -4,7 +4,7 @@
 // and licence number in their own columns. Shared by the form (zodResolver) and the server.
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
-import type { Stage } from "@/db/schema";
+import type { Stage } from "@/lib/enums";
 import { DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS } from "@/engine/cashflow";
 import { DEFAULT_STALL_DAYS, PIPELINE } from "@/lib/stage-rules";
 

@@ -2,7 +2,7 @@
 // and the CSV export. Query-string values arrive as strings; empty ones mean "not set".
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
-import { STAGES, type Stage } from "@/db/schema";
+import { STAGES, type Stage } from "@/lib/enums";
 
 export const DEAL_TABLE_SORT_COLUMNS = [
   "household",

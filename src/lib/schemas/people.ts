@@ -1,7 +1,7 @@
 // Input schemas for people and sign-in forms, shared by the forms (zodResolver) and the server.
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
-import { ROLES } from "@/db/schema";
+import { ROLES } from "@/lib/enums";
 
 export const PASSWORD_MIN = 10;
 

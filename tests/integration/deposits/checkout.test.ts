@@ -16,7 +16,7 @@ let route: typeof import("@/app/api/public/proposals/[token]/deposit/route");
 
 const ctx = (token: string) => ({ params: Promise.resolve({ token }) });
 const post = async (token: string) => {
-  const res = await route.POST(new Request(`http://127.0.0.1/api/public/proposals/${token}/deposit`, { method: "POST" }), ctx(token));
+  const res = await route.POST(new Request(`http://127.0.0.1/api/public/proposals/${token}/deposit`, { method: "POST", headers: { Origin: process.env.APP_URL ?? "" } }), ctx(token));
   return { status: res.status, body: (await res.json()) as { data?: { url: string; reused: boolean }; error?: { code: string; message: string } } };
 };
 const get = async (token: string) => {

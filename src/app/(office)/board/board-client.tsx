@@ -19,7 +19,7 @@ import {
 } from "@dnd-kit/core";
 import Link from "next/link";
 import { useEffect, useId, useRef, useState, type FormEvent } from "react";
-import type { Stage } from "@/db/schema";
+import type { Stage } from "@/lib/enums";
 import { formatCents, formatKwFromWatts } from "@/lib/format";
 import { PIPELINE, SIDE_STAGES } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";

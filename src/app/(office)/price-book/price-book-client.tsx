@@ -1,6 +1,6 @@
 "use client";
 import { useMemo, useState, useTransition, type ReactNode } from "react";
-import type { Role } from "@/db/schema";
+import type { Role } from "@/lib/enums";
 import { FormMessage } from "@/components/field";
 import { formatDateTime } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";

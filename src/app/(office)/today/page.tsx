@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { STAGES } from "@/db/schema";
+import { STAGES } from "@/lib/enums";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
 import { daysSince, formatCents, formatDate, formatDateTime, formatKwFromWatts } from "@/lib/format";

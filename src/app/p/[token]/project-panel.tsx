@@ -1,7 +1,7 @@
 // The customer's project after signing: where it stands among the stages and what comes next,
 // with its date when the office has set one. Phone-first. It shows the company's name only:
 // no staff names, permit numbers or internal notes.
-import type { Stage } from "@/db/schema";
+import type { Stage } from "@/lib/enums";
 import { getProjectProgress, type ProjectProgress } from "@/server/jobs";
 import { findProposalByToken } from "@/server/proposals";
 

@@ -1,7 +1,7 @@
 "use client";
 import { useMutation } from "@tanstack/react-query";
 import { useId, useState, type FormEvent } from "react";
-import type { Stage } from "@/db/schema";
+import type { Stage } from "@/lib/enums";
 import { api, ApiError } from "@/lib/api-client";
 import { BULK_MAX_DEALS, type BulkAnswer, type DealBulkInput } from "@/lib/schemas/deal-table";
 import { PIPELINE, SIDE_STAGES } from "@/lib/stage-rules";

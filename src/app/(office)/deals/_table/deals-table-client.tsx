@@ -2,7 +2,7 @@
 import { keepPreviousData, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useTable, type ColumnVisibilityState, type PaginationState, type RowSelectionState, type SortingState, type Updater } from "@tanstack/react-table";
 import { useEffect, useId, useMemo, useState, type FormEvent } from "react";
-import { STAGES } from "@/db/schema";
+import { STAGES } from "@/lib/enums";
 import { api } from "@/lib/api-client";
 import {
   DEAL_TABLE_DEFAULT_PAGE_SIZE,

@@ -2,10 +2,10 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { FormMessage } from "@/components/field";
 import { NoAccess } from "@/components/no-access";
-import { formatDateTime } from "@/lib/format";
+import { formatCentsExact, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { HttpError } from "@/server/errors";
-import { reconcileLedger, type Reconciliation, type ReconciliationDifference } from "@/server/payments";
+import { listPaymentAlerts, reconcileLedger, type PaymentAlertRow, type Reconciliation, type ReconciliationDifference } from "@/server/payments";
 import { getMember } from "@/server/session";
 
 export const metadata: Metadata = { title: "Reconciliation" };
@@ -23,6 +23,7 @@ export default async function ReconciliationPage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "payments:reconcile")) return <NoAccess section="Money → Reconciliation" />;
+  const alerts = await listPaymentAlerts(member);
   let result: Reconciliation | null = null;
   let problem: string | null = null;
   try {
@@ -39,6 +40,7 @@ export default async function ReconciliationPage() {
         The deposit ledger of {member.companyName} compared with the payment provider&apos;s own list of Checkout Sessions and refunds. A difference usually means a webhook has
         not landed yet, or money moved outside Kilowright; open the deal&apos;s Money tab to see the payment.
       </p>
+      <Alerts alerts={alerts} />
       {problem ? (
         <div className="mt-6">
           <FormMessage tone="error">{problem}</FormMessage>
@@ -121,5 +123,27 @@ function Result({ r }: { r: Reconciliation }) {
         })
       )}
     </div>
+  );
+}
+
+/** Refunds (and later other money) the provider reported that the ledger could not place. */
+function Alerts({ alerts }: { alerts: PaymentAlertRow[] }) {
+  if (alerts.length === 0) return null;
+  return (
+    <section aria-labelledby="payment-alerts" className="mt-6" data-testid="payment-alerts">
+      <h2 id="payment-alerts" className="text-lg font-semibold">
+        Refunds of payments the ledger does not know <span className="figure text-graphite-soft">({alerts.length})</span>
+      </h2>
+      <p className="text-sm text-graphite-soft">Money left the account at the provider for a payment Kilowright has no record of. Check it at the provider.</p>
+      <ul className="mt-2 divide-y divide-paper-line rounded-card border border-paper-line bg-white text-sm">
+        {alerts.map((a) => (
+          <li key={a.id} className="px-3 py-2" data-testid={`payment-alert-${a.id}`}>
+            <span className="figure">{a.amountCents === null ? "—" : formatCentsExact(a.amountCents)}</span> · <span className="figure text-xs">{a.chargeId ?? a.paymentIntentId ?? a.webhookEventId}</span> ·{" "}
+            {formatDateTime(a.createdAt)}
+            <p className="text-graphite-soft">{a.detail}</p>
+          </li>
+        ))}
+      </ul>
+    </section>
   );
 }

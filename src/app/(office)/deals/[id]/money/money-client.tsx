@@ -7,7 +7,7 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
-import type { PaymentStatus } from "@/db/schema";
+import type { PaymentStatus } from "@/lib/enums";
 import { FormMessage } from "@/components/field";
 import { api, ApiError } from "@/lib/api-client";
 import { applyFieldErrors } from "@/lib/form-errors";

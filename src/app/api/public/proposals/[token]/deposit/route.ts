@@ -2,6 +2,7 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { notFound } from "@/server/errors";
 import { getDepositForCustomer, startDepositCheckout } from "@/server/payments";
+import { guardPublicMutation } from "@/server/request-guard";
 import { toErrorResponse } from "@/server/route";
 
 export const dynamic = "force-dynamic";
@@ -24,9 +25,10 @@ export async function GET(_req: Request, ctx: Ctx): Promise<Response> {
   }
 }
 
-/** The Pay button: returns the Checkout Session's url (the open one if there is one). */
-export async function POST(_req: Request, ctx: Ctx): Promise<Response> {
+/** The Pay button: returns the Checkout Session's url (the open one if there is one); only from our own page. */
+export async function POST(req: Request, ctx: Ctx): Promise<Response> {
   try {
+    guardPublicMutation(req);
     const { token } = await ctx.params;
     if (!tokenSchema.safeParse(token).success) throw notFound("Proposal");
     const { url, reused } = await startDepositCheckout(token);

@@ -1,0 +1,33 @@
+// The value lists behind the schema's enum columns, shared by server and browser. They live here,
+// not in src/db/schema.ts, so a client component that needs a stage or a role never pulls drizzle
+// (and the database schema) into the browser bundle; scripts/lib/client-bundles.ts checks that.
+
+export const ROLES = ["owner", "admin", "office_manager", "sales_rep", "crew"] as const;
+export type Role = (typeof ROLES)[number];
+
+export const STAGES = [
+  "lead",
+  "bills_in",
+  "designing",
+  "proposal_out",
+  "signed",
+  "deposit_paid",
+  "survey",
+  "permitting",
+  "install_booked",
+  "installed",
+  "inspected",
+  "live",
+  "on_hold",
+  "lost",
+  "cancelled",
+] as const;
+export type Stage = (typeof STAGES)[number];
+
+export const CELL_TECHNOLOGIES = ["mono_perc", "topcon", "heterojunction", "back_contact", "polycrystalline", "thin_film_cdte", "thin_film_cigs"] as const;
+
+export const PROPOSAL_STATUSES = ["sent", "replaced", "revoked", "signed", "cancelled"] as const;
+export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
+
+export const PAYMENT_STATUSES = ["open", "paid", "failed", "expired", "flagged", "refunded", "partially_refunded"] as const;
+export type PaymentStatus = (typeof PAYMENT_STATUSES)[number];
