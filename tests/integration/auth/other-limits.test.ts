@@ -84,7 +84,7 @@ describe("limits naming the wait", () => {
     const token = await latestToken(d.email);
     const { POST } = await import("@/app/api/public/proposals/[token]/question/route");
     const ask = (i: number) =>
-      POST(new NextRequest(`http://localhost/api/public/proposals/${token}/question`, { method: "POST", headers: stampedHeaders(someAddress(), { "content-type": "application/json" }), body: JSON.stringify({ question: `Question number ${i}?` }) }), {
+      POST(new NextRequest(`http://localhost/api/public/proposals/${token}/question`, { method: "POST", headers: stampedHeaders(someAddress(), { "content-type": "application/json", origin: env().APP_URL }), body: JSON.stringify({ question: `Question number ${i}?` }) }), {
         params: Promise.resolve({ token }),
       });
     for (let i = 0; i < LIMITS.questionLink.points; i++) expect((await ask(i)).status, `question ${i + 1}`).toBeLessThan(300);
@@ -97,7 +97,7 @@ describe("limits naming the wait", () => {
     await sendProposal(w.rep, { dealId: d.dealId, toEmail: d.email, inHomeSale: true });
     const token = await latestToken(d.email);
     const { POST } = await import("@/app/api/public/proposals/[token]/code/route");
-    const send = () => POST(new NextRequest(`http://localhost/api/public/proposals/${token}/code`, { method: "POST", headers: stampedHeaders(someAddress()) }), { params: Promise.resolve({ token }) });
+    const send = () => POST(new NextRequest(`http://localhost/api/public/proposals/${token}/code`, { method: "POST", headers: stampedHeaders(someAddress(), { origin: env().APP_URL }) }), { params: Promise.resolve({ token }) });
     const both = await Promise.all([send(), send(), send()]);
     expect(both.map((r) => r.status).sort()).toEqual([201, 429, 429]);
     await expect429(both.find((r) => r.status === 429)!, /ask again in \d+ seconds\.$/);
