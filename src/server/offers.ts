@@ -1,13 +1,13 @@
 import "server-only";
 import { createElement } from "react";
-import { and, asc, desc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { deal, discountRequest, household, membership, offer, user, type Role } from "@/db/schema";
 import { EngineInputError } from "@/engine/errors";
 import { env } from "@/env";
 import { formatCents } from "@/lib/format";
 import { computeOfferFigures, type OfferFigures } from "@/lib/offer-figures";
 import { can } from "@/lib/permissions";
-import { PricingInputError } from "@/lib/pricing";
+import { discountDecisionRefusal, PricingInputError } from "@/lib/pricing";
 import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
 import DiscountDecisionEmail from "@emails/discount-decision";
 import DiscountRequestEmail from "@emails/discount-request";
@@ -202,15 +202,20 @@ async function settleDiscount(tx: Tx, member: Member, dealId: string, offerId: s
   return { status: "pending", requestId: id, mailNeeded: true };
 }
 
-/** People who decide discounts: the office managers, or the owners and admins when there are none. */
-async function approverEmails(companyId: string): Promise<string[]> {
+/**
+ * People who may decide this discount (discountDecisionRefusal): the office managers among them,
+ * or the owners and admins when no office manager may.
+ */
+async function approverEmails(companyId: string, request: { requestedByUserId: string; amountCents: number; grossCents: number }): Promise<string[]> {
   const rows = await db()
-    .select({ email: user.email, role: membership.role })
+    .select({ userId: membership.userId, email: user.email, role: membership.role })
     .from(membership)
     .innerJoin(user, eq(user.id, membership.userId))
     .where(and(eq(membership.companyId, companyId), eq(membership.status, "active"), inArray(membership.role, ["office_manager", "owner", "admin"])));
-  const managers = rows.filter((r) => r.role === "office_manager");
-  return (managers.length ? managers : rows).map((r) => r.email);
+  const book = await getPriceBook(companyId);
+  const deciders = rows.filter((r) => discountDecisionRefusal(book, r, request) === null);
+  const managers = deciders.filter((r) => r.role === "office_manager");
+  return (managers.length ? managers : deciders).map((r) => r.email);
 }
 
 const offersUrl = (dealId: string) => `${env().APP_URL}/deals/${dealId}/offers`;
@@ -218,7 +223,7 @@ const offersUrl = (dealId: string) => `${env().APP_URL}/deals/${dealId}/offers`;
 /** Mail after the commit: a failure is logged, the request stays pending and shows on the Offers tab and Today. */
 async function mailDiscountRequest(member: Member, dealId: string, requestId: string, inputs: OfferInputs, figures: OfferFigures): Promise<void> {
   try {
-    const to = await approverEmails(member.companyId);
+    const to = await approverEmails(member.companyId, { requestedByUserId: member.userId, amountCents: inputs.discountCents, grossCents: figures.summary.grossCents });
     if (to.length === 0) return;
     const room = await getDealRoom(member, dealId);
     await sendEmail({
@@ -378,6 +383,8 @@ function requestQuery(companyId: string) {
       decisionNote: discountRequest.decisionNote,
       createdAt: discountRequest.createdAt,
       dealOwnerUserId: deal.ownerUserId,
+      /** The offer's price before discount, which the decider's own limit is measured on. */
+      grossCents: sql<number>`CAST(JSON_VALUE(${offer.results}, '$.summary.grossCents') AS SIGNED)`.mapWith(Number),
     })
     .from(discountRequest)
     .innerJoin(offer, and(eq(offer.id, discountRequest.offerId), eq(offer.companyId, discountRequest.companyId)))
@@ -388,7 +395,8 @@ function requestQuery(companyId: string) {
     .where(eq(discountRequest.companyId, companyId));
 }
 
-const stripOwner = ({ dealOwnerUserId: _owner, ...row }: DiscountRequestRow & { dealOwnerUserId: string | null }): DiscountRequestRow => row;
+type RequestQueryRow = DiscountRequestRow & { dealOwnerUserId: string | null; grossCents: number };
+const stripOwner = ({ dealOwnerUserId: _owner, grossCents: _gross, ...row }: RequestQueryRow): DiscountRequestRow => row;
 
 export async function getDiscountRequestOrThrow(member: Member, requestId: string): Promise<DiscountRequestRow> {
   const [row] = await db()
@@ -419,10 +427,14 @@ export async function listDiscountRequestsForDeal(member: Member, dealId: string
  */
 export async function listPendingDiscountRequests(member: Member): Promise<DiscountRequestRow[]> {
   const pending = and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.status, "pending"));
+  const approver = can(member.role, "discounts:approve");
   const rows = await requestQuery(member.companyId)
-    .where(can(member.role, "discounts:approve") ? pending : and(pending, eq(deal.ownerUserId, member.userId)))
+    .where(approver ? pending : and(pending, eq(deal.ownerUserId, member.userId)))
     .orderBy(asc(discountRequest.createdAt));
-  return rows.map(stripOwner);
+  if (!approver) return rows.map(stripOwner);
+  // An approver's queue holds only what they may decide (not their own, not above their limit).
+  const book = await getPriceBook(member.companyId);
+  return rows.filter((r) => discountDecisionRefusal(book, member, r) === null).map(stripOwner);
 }
 
 /**
@@ -437,6 +449,12 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   const request = await getDiscountRequestOrThrow(member, requestId);
   if (request.status !== "pending") throw new HttpError(409, "already_decided", `This discount was already ${request.status}.`);
   const current = await getOfferOrThrow(member, request.offerId);
+  const refusal = discountDecisionRefusal(await getPriceBook(member.companyId), member, {
+    requestedByUserId: request.requestedByUserId,
+    amountCents: request.amountCents,
+    grossCents: current.results.summary.grossCents,
+  });
+  if (refusal) throw new HttpError(403, "not_your_decision", refusal);
 
   let declinedFigures: OfferFigures | null = null;
   const inputsWithout: OfferInputs = { ...current.inputs, discountCents: 0, discountReason: "" };
