@@ -9,6 +9,7 @@ import { account, membership, session, user, verification } from "@/db/schema";
 import { env } from "@/env";
 import { db } from "@/server/db";
 import { sendEmail } from "@/server/mail";
+import { mailCompanyOfUser } from "@/server/mail-company";
 import { forgetCookie } from "@/server/session-reuse";
 import { clearSignInFailures, recordSignInFailure, signInBlocked } from "@/server/sign-in-limit";
 import { ResetPasswordEmail } from "@emails/reset-password";
@@ -54,7 +55,11 @@ function createAuth() {
       resetPasswordTokenExpiresIn: RESET_TOKEN_MINUTES * 60,
       revokeSessionsOnPasswordReset: true,
       sendResetPassword: async ({ user: u, url }) => {
+        const companyId = await mailCompanyOfUser(u.id);
+        // Every message belongs to a company; an account without one has nothing to sign in to.
+        if (!companyId) return console.error("password reset not sent: the account belongs to no company", u.id);
         await sendEmail({
+          companyId,
           to: u.email,
           subject: "Reset your Kilowright password",
           react: createElement(ResetPasswordEmail, { name: u.name, resetUrl: url, expiresInMinutes: RESET_TOKEN_MINUTES }),
@@ -66,7 +71,10 @@ function createAuth() {
       sendOnSignIn: true,
       autoSignInAfterVerification: true,
       sendVerificationEmail: async ({ user: u, url }) => {
+        const companyId = await mailCompanyOfUser(u.id);
+        if (!companyId) return console.error("verification e-mail not sent: the account belongs to no company", u.id);
         await sendEmail({
+          companyId,
           to: u.email,
           subject: "Confirm your e-mail for Kilowright",
           react: createElement(VerifyEmail, { name: u.name, verifyUrl: url }),

@@ -227,6 +227,7 @@ async function mailDiscountRequest(member: Member, dealId: string, requestId: st
     if (to.length === 0) return;
     const room = await getDealRoom(member, dealId);
     await sendEmail({
+      companyId: member.companyId,
       to,
       subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${room.household.name}`,
       react: createElement(DiscountRequestEmail, {
@@ -489,6 +490,7 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
       const [rep] = await db().select({ email: user.email }).from(user).where(eq(user.id, request.requestedByUserId)).limit(1);
       if (rep) {
         await sendEmail({
+          companyId: member.companyId,
           to: rep.email,
           subject: `Discount ${decision === "approve" ? "approved" : "declined"}: ${formatCents(request.amountCents)} for the ${request.householdName}`,
           react: createElement(DiscountDecisionEmail, {

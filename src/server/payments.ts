@@ -681,6 +681,7 @@ export async function sendDepositReceipt(paymentId: string, idempotencyKey: stri
   }
   const offer = chosenOffer(c.prop);
   await sendEmail({
+    companyId: c.p.companyId,
     to: c.to,
     subject: `Deposit received: ${formatCentsExact(c.p.paidCents, c.p.currency)} — ${c.companyName}`,
     react: createElement(DepositReceiptEmail, {
@@ -728,6 +729,7 @@ async function sendRefundNotice(r: RefundRow): Promise<void> {
   const c = await receiptContext(r.paymentId);
   const paid = c.p.paidCents ?? 0;
   await sendEmail({
+    companyId: c.p.companyId,
     to: c.to,
     subject: `Refund of ${formatCentsExact(r.amountCents, c.p.currency)} — ${c.companyName}`,
     react: createElement(RefundIssuedEmail, {

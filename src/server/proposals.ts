@@ -465,6 +465,7 @@ async function mailProposalLink(m: {
 }): Promise<{ mailSent: boolean; mailError: string | null }> {
   try {
     await sendEmail({
+      companyId: m.companyId,
       to: m.to,
       subject: `${m.resent ? "New link: " : ""}Your solar proposal from ${m.snapshot.company.name} (${m.label})`,
       replyTo: m.snapshot.rep.email,
@@ -673,6 +674,7 @@ export async function askQuestion(p: ProposalRow, input: unknown, client: Client
   });
   try {
     await sendEmail({
+      companyId: p.companyId,
       to: p.snapshot.rep.email,
       replyTo: p.sentToEmail,
       subject: `Question from the ${p.snapshot.household.name} (${labelOf(p)})`,
@@ -748,6 +750,7 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
   }
   try {
     await sendEmail({
+      companyId: p.companyId,
       to: p.snapshot.rep.email,
       subject: `Cancelled: the ${p.snapshot.household.name} (${labelOf(p)})`,
       react: createElement(ProposalCancelledEmail, {

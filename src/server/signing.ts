@@ -118,6 +118,7 @@ export async function sendSigningCode(p: ProposalRow, token: string, client: Cli
   });
   try {
     await sendEmail({
+      companyId: p.companyId,
       to: p.sentToEmail,
       subject: `Your signing code: ${code}`,
       react: createElement(SigningCodeEmail, { companyName: p.snapshot.company.name, label: labelOf(p), code, minutes: CODE_TTL_MS / 60_000, proposalUrl: proposalUrl(token) }),
@@ -352,6 +353,7 @@ async function mailSignedCopies(p: ProposalRow, token: string, signerName: strin
   };
   const sends = [
     sendEmail({
+      companyId: p.companyId,
       to: p.sentToEmail,
       replyTo: p.snapshot.rep.email,
       subject: `Your signed agreement with ${p.snapshot.company.name} (${labelOf(p)})`,
@@ -359,6 +361,7 @@ async function mailSignedCopies(p: ProposalRow, token: string, signerName: strin
       idempotencyKey: `signed-copy-customer-${p.id}`,
     }),
     sendEmail({
+      companyId: p.companyId,
       to: p.snapshot.rep.email,
       subject: `Signed: the ${p.snapshot.household.name} (${labelOf(p)})`,
       react: createElement(SignedCopyEmail, { ...common, audience: "rep", url: dealProposalUrl(p.dealId) }),

@@ -8,6 +8,7 @@ import { publicAction } from "@/server/action";
 import { auth } from "@/server/auth";
 import { db } from "@/server/db";
 import { HttpError } from "@/server/errors";
+import { sendingForNewCompany } from "@/server/mail-company";
 import { createCompanyForOwner, deleteUnattachedUser } from "@/server/people";
 
 export const signUpAction = publicAction(signUpSchema, async (input) => {
@@ -18,18 +19,23 @@ export const signUpAction = publicAction(signUpSchema, async (input) => {
     });
   }
   let userId: string;
+  // The verification e-mail goes out during sign-up: it belongs to the company made just after.
+  const companyId = crypto.randomUUID();
   try {
-    const created = await auth().api.signUpEmail({
-      body: { name: input.name, email: input.email, password: input.password, callbackURL: "/today" },
-      headers: await headers(),
-    });
+    const requestHeaders = await headers();
+    const created = await sendingForNewCompany(companyId, () =>
+      auth().api.signUpEmail({
+        body: { name: input.name, email: input.email, password: input.password, callbackURL: "/today" },
+        headers: requestHeaders,
+      }),
+    );
     userId = created.user.id;
   } catch (err) {
     if (err instanceof APIError) throw new HttpError(err.statusCode, "sign_up_refused", err.message);
     throw err;
   }
   try {
-    await createCompanyForOwner(userId, input.companyName);
+    await createCompanyForOwner(userId, input.companyName, companyId);
   } catch (err) {
     await deleteUnattachedUser(userId);
     throw err;
