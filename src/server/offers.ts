@@ -16,7 +16,7 @@ import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { designEquipment, getDesignForDeal, jsonValue, productionForDesign, usageHourlyForDeal } from "@/server/designs";
 import { forbidden, HttpError, notFound } from "@/server/errors";
-import { sendEmail } from "@/server/mail";
+import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import { getPriceBook } from "@/server/price-book";
 import { getRatePlanOrThrow } from "@/server/rate-plans";
 import { validationError } from "@/server/route";
@@ -220,19 +220,18 @@ async function approverEmails(companyId: string, request: { requestedByUserId: s
 
 const offersUrl = (dealId: string) => `${env().APP_URL}/deals/${dealId}/offers`;
 
-/** Mail after the commit: a failure is logged, the request stays pending and shows on the Offers tab and Today. */
-async function mailDiscountRequest(member: Member, dealId: string, requestId: string, inputs: OfferInputs, figures: OfferFigures): Promise<void> {
-  try {
-    const to = await approverEmails(member.companyId, { requestedByUserId: member.userId, amountCents: inputs.discountCents, grossCents: figures.summary.grossCents });
-    if (to.length === 0) return;
-    const room = await getDealRoom(member, dealId);
-    await sendEmail({
+/** The e-mail to those who may decide, written in the request's transaction (outbox); null when nobody may. */
+async function queueDiscountRequest(tx: Tx, member: Member, dealId: string, householdName: string, requestId: string, inputs: OfferInputs, figures: OfferFigures): Promise<string | null> {
+  const to = await approverEmails(member.companyId, { requestedByUserId: member.userId, amountCents: inputs.discountCents, grossCents: figures.summary.grossCents });
+  if (to.length === 0) return null;
+  return queueMail(tx, {
       companyId: member.companyId,
+      kind: "discount-request",
       to,
-      subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${room.household.name}`,
+      subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${householdName}`,
       react: createElement(DiscountRequestEmail, {
         repName: member.name,
-        householdName: room.household.name,
+        householdName,
         offerName: inputs.name,
         discount: formatCents(inputs.discountCents),
         limit: formatCents(figures.discountLimitCents ?? 0),
@@ -242,9 +241,6 @@ async function mailDiscountRequest(member: Member, dealId: string, requestId: st
       }),
       idempotencyKey: `discount-request-${requestId}-${inputs.discountCents}`,
     });
-  } catch (err) {
-    console.error("discount request saved; the e-mail to the office could not be sent", requestId, err);
-  }
 }
 
 // ── Writes ───────────────────────────────────────────────────────────────────────────────
@@ -277,7 +273,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
   const { figures } = await computeOffer(member, dealId, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const id = crypto.randomUUID();
-  let outcome: DiscountOutcome = { status: "none", requestId: null, mailNeeded: false };
+  const mailIds: string[] = [];
   await db().transaction(async (tx) => {
     const taken = await tx
       .select({ position: offer.position })
@@ -286,8 +282,12 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
     if (taken.length >= MAX_OFFERS_PER_DEAL) throw new HttpError(409, "too_many_offers", `A deal has at most ${MAX_OFFERS_PER_DEAL} offers. Change or delete one.`);
     const position = [1, 2, 3].find((p) => !taken.some((t) => t.position === p)) ?? taken.length + 1;
     await tx.insert(offer).values({ id, companyId: member.companyId, dealId, position, name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: "none" });
-    outcome = await settleDiscount(tx, member, dealId, id, inputs, figures);
+    const outcome = await settleDiscount(tx, member, dealId, id, inputs, figures);
     await tx.update(offer).set({ discountStatus: outcome.status }).where(and(eq(offer.id, id), eq(offer.companyId, member.companyId)));
+    if (outcome.mailNeeded && outcome.requestId) {
+      const mailId = await queueDiscountRequest(tx, member, dealId, room.household.name, outcome.requestId, inputs, figures);
+      if (mailId) mailIds.push(mailId);
+    }
     await setDealRatePlanIfMissing(tx, member, dealId, inputs.ratePlanId, room.deal.ratePlanId);
     await recordEvent(tx, {
       companyId: member.companyId,
@@ -298,7 +298,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
       data: { offerId: id },
     });
   });
-  if (outcome.mailNeeded && outcome.requestId) await mailDiscountRequest(member, dealId, outcome.requestId, inputs, figures);
+  await sendQueuedNow(mailIds);
   return getOfferOrThrow(member, id);
 }
 
@@ -310,9 +310,13 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
   const room = await getDealRoom(member, existing.dealId);
   const { figures } = await computeOffer(member, existing.dealId, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
-  let outcome: DiscountOutcome = { status: "none", requestId: null, mailNeeded: false };
+  const mailIds: string[] = [];
   await db().transaction(async (tx) => {
-    outcome = await settleDiscount(tx, member, existing.dealId, offerId, inputs, figures);
+    const outcome = await settleDiscount(tx, member, existing.dealId, offerId, inputs, figures);
+    if (outcome.mailNeeded && outcome.requestId) {
+      const mailId = await queueDiscountRequest(tx, member, existing.dealId, room.household.name, outcome.requestId, inputs, figures);
+      if (mailId) mailIds.push(mailId);
+    }
     await tx
       .update(offer)
       .set({ name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: outcome.status })
@@ -327,7 +331,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
       data: { offerId },
     });
   });
-  if (outcome.mailNeeded && outcome.requestId) await mailDiscountRequest(member, existing.dealId, outcome.requestId, inputs, figures);
+  await sendQueuedNow(mailIds);
   return getOfferOrThrow(member, offerId);
 }
 
@@ -461,7 +465,7 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   const inputsWithout: OfferInputs = { ...current.inputs, discountCents: 0, discountReason: "" };
   if (decision === "decline") declinedFigures = (await computeOffer(member, current.dealId, inputsWithout)).figures;
 
-  await db().transaction(async (tx) => {
+  const mailIds = await db().transaction(async (tx): Promise<string[]> => {
     const changed = await tx
       .update(discountRequest)
       .set({ status: decision === "approve" ? "approved" : "declined", decidedByUserId: member.userId, decidedAt: new Date(), decisionNote: note || null })
@@ -483,14 +487,14 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
       actorUserId: member.userId,
       data: { offerId: current.id, discountRequestId: requestId },
     });
-  });
-
-  if (request.requestedByUserId) {
-    try {
-      const [rep] = await db().select({ email: user.email }).from(user).where(eq(user.id, request.requestedByUserId)).limit(1);
-      if (rep) {
-        await sendEmail({
+    // The requester hears either way; the e-mail is written with the decision (outbox).
+    if (!request.requestedByUserId) return [];
+    const [rep] = await tx.select({ email: user.email }).from(user).where(eq(user.id, request.requestedByUserId)).limit(1);
+    if (!rep) return [];
+    return [
+      await queueMail(tx, {
           companyId: member.companyId,
+          kind: "discount-decision",
           to: rep.email,
           subject: `Discount ${decision === "approve" ? "approved" : "declined"}: ${formatCents(request.amountCents)} for the ${request.householdName}`,
           react: createElement(DiscountDecisionEmail, {
@@ -503,11 +507,9 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
             offersUrl: offersUrl(current.dealId),
           }),
           idempotencyKey: `discount-decision-${requestId}`,
-        });
-      }
-    } catch (err) {
-      console.error("discount decided; the e-mail to the rep could not be sent", requestId, err);
-    }
-  }
+      }),
+    ];
+  });
+  await sendQueuedNow(mailIds);
   return getDiscountRequestOrThrow(member, requestId);
 }
