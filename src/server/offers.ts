@@ -225,22 +225,22 @@ async function queueDiscountRequest(tx: Tx, member: Member, dealId: string, hous
   const to = await approverEmails(member.companyId, { requestedByUserId: member.userId, amountCents: inputs.discountCents, grossCents: figures.summary.grossCents });
   if (to.length === 0) return null;
   return queueMail(tx, {
-      companyId: member.companyId,
-      kind: "discount-request",
-      to,
-      subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${householdName}`,
-      react: createElement(DiscountRequestEmail, {
-        repName: member.name,
-        householdName,
-        offerName: inputs.name,
-        discount: formatCents(inputs.discountCents),
-        limit: formatCents(figures.discountLimitCents ?? 0),
-        contractBefore: formatCents(figures.summary.grossCents),
-        reason: inputs.discountReason,
-        reviewUrl: offersUrl(dealId),
-      }),
-      idempotencyKey: `discount-request-${requestId}-${inputs.discountCents}`,
-    });
+    companyId: member.companyId,
+    kind: "discount-request",
+    to,
+    subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${householdName}`,
+    react: createElement(DiscountRequestEmail, {
+      repName: member.name,
+      householdName,
+      offerName: inputs.name,
+      discount: formatCents(inputs.discountCents),
+      limit: formatCents(figures.discountLimitCents ?? 0),
+      contractBefore: formatCents(figures.summary.grossCents),
+      reason: inputs.discountReason,
+      reviewUrl: offersUrl(dealId),
+    }),
+    idempotencyKey: `discount-request-${requestId}-${inputs.discountCents}`,
+  });
 }
 
 // ── Writes ───────────────────────────────────────────────────────────────────────────────
@@ -493,20 +493,20 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
     if (!rep) return [];
     return [
       await queueMail(tx, {
-          companyId: member.companyId,
-          kind: "discount-decision",
-          to: rep.email,
-          subject: `Discount ${decision === "approve" ? "approved" : "declined"}: ${formatCents(request.amountCents)} for the ${request.householdName}`,
-          react: createElement(DiscountDecisionEmail, {
-            deciderName: member.name,
-            householdName: request.householdName,
-            offerName: current.name,
-            discount: formatCents(request.amountCents),
-            approved: decision === "approve",
-            note,
-            offersUrl: offersUrl(current.dealId),
-          }),
-          idempotencyKey: `discount-decision-${requestId}`,
+        companyId: member.companyId,
+        kind: "discount-decision",
+        to: rep.email,
+        subject: `Discount ${decision === "approve" ? "approved" : "declined"}: ${formatCents(request.amountCents)} for the ${request.householdName}`,
+        react: createElement(DiscountDecisionEmail, {
+          deciderName: member.name,
+          householdName: request.householdName,
+          offerName: current.name,
+          discount: formatCents(request.amountCents),
+          approved: decision === "approve",
+          note,
+          offersUrl: offersUrl(current.dealId),
+        }),
+        idempotencyKey: `discount-decision-${requestId}`,
       }),
     ];
   });
