@@ -59,8 +59,28 @@ export async function queueMail(tx: Tx, m: QueuedMail): Promise<string> {
   return row?.id ?? id;
 }
 
-/** Claims up to `limit` due rows (optionally only `ids`) for this worker; the claim commits at once. */
+/** MariaDB's "try restarting transaction" answers (deadlock, lock wait timeout): the claim rolled back whole. */
+function isRetryableLockError(err: unknown): boolean {
+  const errno = (err as { errno?: unknown; cause?: { errno?: unknown } } | null)?.errno ?? (err as { cause?: { errno?: unknown } } | null)?.cause?.errno;
+  return errno === 1213 || errno === 1205;
+}
+
+/**
+ * Claims up to `limit` due rows (optionally only `ids`) for this worker; the claim commits at
+ * once. Claimers racing on the due index can deadlock; the loser's claim rolled back, so it tries again.
+ */
 async function claimDue(limit: number, ids?: string[]): Promise<string[]> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await claimOnce(limit, ids);
+    } catch (err) {
+      if (attempt >= 5 || !isRetryableLockError(err)) throw err;
+      await new Promise((r) => setTimeout(r, 20 * attempt + Math.floor(Math.random() * 30)));
+    }
+  }
+}
+
+async function claimOnce(limit: number, ids?: string[]): Promise<string[]> {
   return db().transaction(async (tx) => {
     const due = and(
       eq(outboundMail.status, "pending"),
@@ -127,8 +147,8 @@ export async function deliverQueuedMail(opts: { ids?: string[]; limit?: number }
   while (tally.sent + tally.retry + tally.failed < limit) {
     const claimed = await claimDue(Math.min(BATCH, limit - (tally.sent + tally.retry + tally.failed)), opts.ids);
     if (claimed.length === 0) break;
+    // A refused row is due again only after its back-off, so this ends.
     for (const outcome of await Promise.all(claimed.map(sendOne))) tally[outcome] += 1;
-    if (opts.ids) break;
   }
   return tally;
 }
