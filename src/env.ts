@@ -64,7 +64,11 @@ export function env(): Env {
   return cached;
 }
 
-/** The dev outbox and other local fakes are reachable only in demo and test instances. */
+/**
+ * The dev outbox exists only where the app runs with the local fakes: a demo or test instance
+ * whose RESEND_BASE_URL points the mail SDK at the fake. With real mail settings it is not there (404).
+ */
 export function devToolsEnabled(): boolean {
-  return env().APP_MODE !== "production";
+  const { APP_MODE, RESEND_BASE_URL } = env();
+  return APP_MODE !== "production" && RESEND_BASE_URL !== undefined;
 }

@@ -10,6 +10,7 @@ import {
   double,
   json,
   decimal,
+  mediumtext,
   index,
   int,
   mysqlEnum,
@@ -714,6 +715,39 @@ export const paymentAlert = mysqlTable(
   (t) => [uniqueIndex("payment_alert_event_uq").on(t.webhookEventId), index("payment_alert_company_idx").on(t.companyId, t.createdAt)],
 );
 
+/**
+ * E-mail that follows a committed change (signed copies, receipts, refund notices, …): written in
+ * the same transaction as the change, sent by the mail worker (src/server/outbound-mail.ts) until
+ * the mail service accepts it. The body is rendered when queued and cleared once sent.
+ */
+export const outboundMail = mysqlTable(
+  "outbound_mail",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    /** Which message this is (the template and audience), e.g. "signed-copy-customer". */
+    kind: varchar("kind", { length: 60 }).notNull(),
+    toAddresses: json("to_addresses").$type<string[]>().notNull(),
+    replyTo: varchar("reply_to", { length: 320 }),
+    subject: varchar("subject", { length: 500 }).notNull(),
+    html: mediumtext("html"),
+    text: mediumtext("text"),
+    /** Sent as the service's Idempotency-Key: a retry of an accepted message is not sent again. */
+    idempotencyKey: varchar("idempotency_key", { length: 256 }).notNull().unique(),
+    status: mysqlEnum("status", ["pending", "sent", "failed"]).notNull().default("pending"),
+    attempts: int("attempts").notNull().default(0),
+    /** When a worker may try it next; a claim moves it ahead by the lease, so a crashed send is retried. */
+    nextAttemptAt: timestamp("next_attempt_at", { fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    sentAt: timestamp("sent_at", { fsp: 3 }),
+    providerId: varchar("provider_id", { length: 100 }),
+    lastError: varchar("last_error", { length: 500 }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("outbound_mail_due_idx").on(t.status, t.nextAttemptAt), index("outbound_mail_company_idx").on(t.companyId, t.createdAt)],
+);
+
 // ── Jobs for the crews ───────────────────────────────────────────────────────────────────
 
 /** An install crew; its calendar feed sits behind a secret, rotatable URL token. */
@@ -858,6 +892,7 @@ export const schema = {
   refund,
   webhookEvent,
   paymentAlert,
+  outboundMail,
   crew,
   checklistTemplate,
   job,

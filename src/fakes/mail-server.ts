@@ -462,7 +462,15 @@ function idempotencyKeyOf(req: IncomingMessage): string | null {
 const UUID = z.uuid();
 const listQuerySchema = z.object({
   to: z.string().optional(),
+  /** Only messages tagged `company_id` = this value (the app tags every message with its company). */
+  company: z.string().regex(TAG_PART, "may contain only letters, digits, _ and -").optional(),
   limit: z.coerce.number().int().min(1).max(MAX_LIST_LIMIT).default(DEFAULT_LIST_LIMIT),
+});
+
+/** POST /dev/faults: refuse the next `refuseNext` sends (POST /emails, /emails/batch) with this status. */
+const faultsSchema = z.object({
+  refuseNext: z.number().int().min(0).max(1_000_000),
+  statusCode: z.union([z.literal(429), z.literal(500), z.literal(503)]).default(503),
 });
 
 /** Message ids: random UUIDs; createdAt strictly increases within a process so order is stable. */
@@ -479,6 +487,9 @@ export async function startMailFake({ port, host = "127.0.0.1", dataDir, apiKey 
   const store = new MessageStore(path.resolve(dataDir));
   await store.init();
   const now = makeClock();
+  /** Sends still to refuse (POST /dev/faults), so tests can show the app retries; kept in memory only. */
+  let refuseNext = 0;
+  let refuseStatus = 503;
 
   async function handle(req: IncomingMessage, res: ServerResponse): Promise<void> {
     const url = new URL(req.url ?? "/", "http://fake.invalid");
@@ -494,6 +505,11 @@ export async function startMailFake({ port, host = "127.0.0.1", dataDir, apiKey 
     // POST /emails, GET /emails/:id, POST /emails/batch
     if (parts[0] === "emails" && parts.length <= 2) {
       checkAuth(req, apiKey);
+      if (method === "POST" && refuseNext > 0) {
+        refuseNext -= 1;
+        await readBody(req);
+        throw new ApiError(refuseStatus, "internal_server_error", "The dev outbox refused this send on purpose (POST /dev/faults).");
+      }
       if (parts.length === 1) {
         if (method !== "POST") throw notAllowed();
         const key = idempotencyKeyOf(req);
@@ -543,6 +559,19 @@ export async function startMailFake({ port, host = "127.0.0.1", dataDir, apiKey 
     }
 
     // Dev endpoints: not part of the service.
+    if (parts[0] === "dev" && parts[1] === "faults" && parts.length === 2) {
+      checkAuth(req, apiKey);
+      if (method === "DELETE") {
+        refuseNext = 0;
+        return sendJson(res, 200, { refuseNext });
+      }
+      if (method !== "POST") throw notAllowed();
+      const parsed = faultsSchema.safeParse(await readJson(req));
+      if (!parsed.success) throw invalid(`Invalid faults: ${parsed.error.issues[0].message}.`);
+      refuseNext = parsed.data.refuseNext;
+      refuseStatus = parsed.data.statusCode;
+      return sendJson(res, 200, parsed.data);
+    }
     if (parts[0] === "dev" && parts[1] === "messages" && parts.length <= 3) {
       checkAuth(req, apiKey);
       if (parts.length === 2) {
@@ -556,9 +585,12 @@ export async function startMailFake({ port, host = "127.0.0.1", dataDir, apiKey 
         const wanted = query.data.to === undefined ? null : bareAddress(query.data.to);
         if (query.data.to !== undefined && wanted === null) throw invalid("Invalid `to` parameter: not an e-mail address.");
         const all = await store.list();
-        const matching = wanted
-          ? all.filter((m) => [...m.to, ...m.cc, ...m.bcc].some((a) => bareAddress(a) === wanted))
-          : all;
+        const company = query.data.company;
+        const matching = all.filter(
+          (m) =>
+            (wanted === null || [...m.to, ...m.cc, ...m.bcc].some((a) => bareAddress(a) === wanted)) &&
+            (company === undefined || m.tags.some((t) => t.name === "company_id" && t.value === company)),
+        );
         return sendJson(res, 200, { data: matching.slice(0, query.data.limit) });
       }
       if (method !== "GET") throw notAllowed();

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { evaluateIncentives } from "@/engine/incentives";
-import { bandFor, depositFor, discountLimitCents, priceOffer, PricingInputError, toQuotePrice, type OfferPricingInput } from "@/lib/pricing";
+import { bandFor, depositFor, discountDecisionRefusal, discountLimitCents, priceOffer, PricingInputError, toQuotePrice, type OfferPricingInput } from "@/lib/pricing";
 import { incentiveRulesForEngine, priceBookSchema, type PriceBook, type PriceBookInput } from "@/lib/schemas/price-book";
 
 // A price book like the demo company's: $3.10/W below 6 kW, $2.85/W 6–10 kW, $2.65/W above.
@@ -192,5 +192,24 @@ describe("price book document", () => {
     expect(r.skipped.map((s) => s.id)).toEqual(["old-grant"]);
     // 9,000 W × 20 = 180,000 → capped at 150,000
     expect(evaluateIncentives({ rules, asOf: "2026-05-01", grossPriceCents: 2_565_000, systemKwDc: 9, payment: "cash" }).upfrontCents).toBe(150_000);
+  });
+});
+
+describe("who may decide a discount request", () => {
+  // Office managers: at most $3,000 and 8 % of the price before discount; owners and admins: no limit.
+  const request = { requestedByUserId: "rep-1", amountCents: 250_000, grossCents: 2_000_000 };
+
+  it("someone else whose own limit covers the discount may", () => {
+    expect(discountDecisionRefusal(book, { userId: "om-1", role: "office_manager" }, { ...request, amountCents: 160_000 })).toBeNull();
+    expect(discountDecisionRefusal(book, { userId: "owner-1", role: "owner" }, request)).toBeNull();
+    expect(discountDecisionRefusal(book, { userId: "admin-1", role: "admin" }, request)).toBeNull();
+  });
+
+  it("an office manager may not decide above their own limit (8 % of $20,000 = $1,600)", () => {
+    expect(discountDecisionRefusal(book, { userId: "om-1", role: "office_manager" }, request)).toMatch(/above your own limit of \$1,600\.00/);
+  });
+
+  it("nobody decides their own request, whatever their limit", () => {
+    expect(discountDecisionRefusal(book, { userId: "owner-1", role: "owner" }, { ...request, requestedByUserId: "owner-1" })).toMatch(/You asked for this discount/);
   });
 });

@@ -81,6 +81,27 @@ export function discountLimitCents(book: PriceBook, role: Role, grossCents: numb
   return Math.min(...caps);
 }
 
+/**
+ * Why `decider` may not decide a discount request, or null when they may. Separation of duties
+ * (common practice, the "four-eyes" rule): never the person who asked, and only someone whose own
+ * limit on this price covers the discount asked, so an office manager's over-limit discount goes
+ * to an owner or admin. The role's `discounts:approve` permission is checked by the caller.
+ */
+export function discountDecisionRefusal(
+  book: PriceBook,
+  decider: { userId: string; role: Role },
+  request: { requestedByUserId: string | null; amountCents: number; grossCents: number },
+): string | null {
+  if (request.requestedByUserId !== null && request.requestedByUserId === decider.userId) {
+    return "You asked for this discount, so someone else decides it: an owner, an admin or an office manager whose limit covers it.";
+  }
+  const limit = discountLimitCents(book, decider.role, request.grossCents);
+  if (limit !== null && limit < request.amountCents) {
+    return `This discount of ${usd(request.amountCents)} is above your own limit of ${usd(limit)} on this price, so an owner or admin decides it.`;
+  }
+  return null;
+}
+
 /** The deposit the policy asks on a contract; never more than the contract itself. */
 export function depositFor(book: PriceBook, contractCents: number): number {
   const d = book.deposit;

@@ -13,6 +13,7 @@ import { CLIENT_HEADER, clientAddress } from "@/server/client-address";
 import { db } from "@/server/db";
 import { clearTurns, emailKey, giveBack, isMarked, mark, takeTurn, TooManyRequests, tryTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
+import { mailCompanyOfUser } from "@/server/mail-company";
 import { forgetCookie } from "@/server/session-reuse";
 import { AccountExistsEmail } from "@emails/account-exists";
 import { ResetPasswordEmail } from "@emails/reset-password";
@@ -129,14 +130,21 @@ function createAuth() {
       },
       // Sign-up with a known address answers as a new one would; the owner gets this instead.
       onExistingUserSignUp: async ({ user: u }) => {
+        const companyId = await mailCompanyOfUser(u.id);
+        if (!companyId) return console.error("account-exists e-mail not sent: the account belongs to no company", u.id);
         await sendEmail({
+          companyId,
           to: u.email,
           subject: "You already have a Kilowright account",
           react: createElement(AccountExistsEmail, { name: u.name, signInUrl: `${config.APP_URL}/sign-in`, resetUrl: `${config.APP_URL}/forgot-password` }),
         });
       },
       sendResetPassword: async ({ user: u, url }) => {
+        const companyId = await mailCompanyOfUser(u.id);
+        // Every message belongs to a company; an account without one has nothing to sign in to.
+        if (!companyId) return console.error("password reset not sent: the account belongs to no company", u.id);
         await sendEmail({
+          companyId,
           to: u.email,
           subject: "Reset your Kilowright password",
           react: resetEmail(u.name, url),
@@ -151,7 +159,10 @@ function createAuth() {
         // The resend endpoint took its turn (with a 429) in the hook; sign-in and sign-up skip quietly.
         const counted = request?.url.endsWith("/send-verification-email") ?? false;
         if (!counted && !(await tryTurn("verificationEmail", emailKey(u.email)))) return;
+        const companyId = await mailCompanyOfUser(u.id);
+        if (!companyId) return console.error("verification e-mail not sent: the account belongs to no company", u.id);
         await sendEmail({
+          companyId,
           to: u.email,
           subject: "Confirm your e-mail for Kilowright",
           react: createElement(VerifyEmail, { name: u.name, verifyUrl: url }),

@@ -6,7 +6,7 @@ import { render } from "@react-email/render";
 import type { ReactElement } from "react";
 import { Resend } from "resend";
 import { z } from "zod";
-import { env } from "@/env";
+import { devToolsEnabled, env } from "@/env";
 
 /** The service refused a message (or could not be reached); `code` is the service's error name. */
 export class MailSendError extends Error {
@@ -21,7 +21,12 @@ export class MailSendError extends Error {
   }
 }
 
+/** The tag naming the company a message belongs to; the dev outbox lists a company's mail by it. */
+export const COMPANY_TAG = "company_id";
+
 export interface SendEmailInput {
+  /** The company the message belongs to (mail is one company's record, like any other). */
+  companyId: string;
   to: string | string[];
   subject: string;
   /** An element of one of the templates in emails/. */
@@ -45,12 +50,25 @@ function resend(): Resend {
 }
 
 /** Renders the template to HTML and plain text, sends it, and returns the service's id. Throws MailSendError. */
-export async function sendEmail({ to, subject, react, replyTo, idempotencyKey }: SendEmailInput): Promise<{ id: string }> {
+export async function sendEmail({ react, ...rest }: SendEmailInput): Promise<{ id: string }> {
   const [html, text] = await Promise.all([render(react), render(react, { plainText: true })]);
-  const { data, error } = await resend().emails.send(
-    { from: env().MAIL_FROM, to, subject, html, text, ...(replyTo === undefined ? {} : { replyTo }) },
-    idempotencyKey === undefined ? undefined : { idempotencyKey },
-  );
+  return sendRendered({ ...rest, html, text });
+}
+
+export type RenderedEmail = Omit<SendEmailInput, "react"> & { html: string; text: string };
+
+/** Sends an already rendered message (the mail outbox keeps them rendered). Throws MailSendError. */
+export async function sendRendered({ companyId, to, subject, html, text, replyTo, idempotencyKey }: RenderedEmail): Promise<{ id: string }> {
+  let answer: Awaited<ReturnType<Resend["emails"]["send"]>>;
+  try {
+    answer = await resend().emails.send(
+      { from: env().MAIL_FROM, to, subject, html, text, tags: [{ name: COMPANY_TAG, value: companyId }], ...(replyTo === undefined ? {} : { replyTo }) },
+      idempotencyKey === undefined ? undefined : { idempotencyKey },
+    );
+  } catch (err) {
+    throw new MailSendError("application_error", `The mail service cannot be reached: ${err instanceof Error ? err.message : String(err)}`, null);
+  }
+  const { data, error } = answer;
   if (error) throw new MailSendError(error.name, error.message, error.statusCode);
   if (!data) throw new MailSendError("application_error", "The mail service answered without an id.", null);
   return { id: data.id };
@@ -78,15 +96,19 @@ export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
 const outboxListSchema = z.object({ data: z.array(outboxMessageSchema) });
 const serviceErrorSchema = z.object({ name: z.string(), message: z.string() });
 
-/** Messages the dev outbox holds, newest first; `to` keeps those addressed (to, cc or bcc) to one address. */
-export async function listOutbox({ to, limit }: { to?: string; limit?: number } = {}): Promise<OutboxMessage[]> {
+/**
+ * One company's messages in the dev outbox, newest first; `to` keeps those addressed (to, cc or
+ * bcc) to one address. A company sees only the mail it sent (the company tag of sendRendered).
+ */
+export async function listOutbox({ companyId, to, limit }: { companyId: string; to?: string; limit?: number }): Promise<OutboxMessage[]> {
   const { RESEND_BASE_URL, RESEND_API_KEY } = env();
-  if (!RESEND_BASE_URL) {
+  if (!RESEND_BASE_URL || !devToolsEnabled()) {
     throw new Error(
-      "The dev outbox is not configured: RESEND_BASE_URL is not set, so e-mail goes to the real service and there is no local outbox to list.",
+      "The dev outbox is not configured: RESEND_BASE_URL is not set (or APP_MODE is production), so e-mail goes to the real service and there is no local outbox to list.",
     );
   }
   const url = new URL(`${RESEND_BASE_URL}/dev/messages`);
+  url.searchParams.set("company", companyId);
   if (to !== undefined) url.searchParams.set("to", to);
   if (limit !== undefined) url.searchParams.set("limit", String(limit));
   let res: Response;

@@ -1,13 +1,13 @@
 import "server-only";
 import { createElement } from "react";
-import { and, asc, desc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { deal, discountRequest, household, membership, offer, user, type Role } from "@/db/schema";
 import { EngineInputError } from "@/engine/errors";
 import { env } from "@/env";
 import { formatCents } from "@/lib/format";
 import { computeOfferFigures, type OfferFigures } from "@/lib/offer-figures";
 import { can } from "@/lib/permissions";
-import { PricingInputError } from "@/lib/pricing";
+import { discountDecisionRefusal, PricingInputError } from "@/lib/pricing";
 import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
 import DiscountDecisionEmail from "@emails/discount-decision";
 import DiscountRequestEmail from "@emails/discount-request";
@@ -16,7 +16,7 @@ import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { designEquipment, getDesignForDeal, jsonValue, productionForDesign, usageHourlyForDeal } from "@/server/designs";
 import { forbidden, HttpError, notFound } from "@/server/errors";
-import { sendEmail } from "@/server/mail";
+import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import { getPriceBook } from "@/server/price-book";
 import { getRatePlanOrThrow } from "@/server/rate-plans";
 import { validationError } from "@/server/route";
@@ -202,43 +202,45 @@ async function settleDiscount(tx: Tx, member: Member, dealId: string, offerId: s
   return { status: "pending", requestId: id, mailNeeded: true };
 }
 
-/** People who decide discounts: the office managers, or the owners and admins when there are none. */
-async function approverEmails(companyId: string): Promise<string[]> {
+/**
+ * People who may decide this discount (discountDecisionRefusal): the office managers among them,
+ * or the owners and admins when no office manager may.
+ */
+async function approverEmails(companyId: string, request: { requestedByUserId: string; amountCents: number; grossCents: number }): Promise<string[]> {
   const rows = await db()
-    .select({ email: user.email, role: membership.role })
+    .select({ userId: membership.userId, email: user.email, role: membership.role })
     .from(membership)
     .innerJoin(user, eq(user.id, membership.userId))
     .where(and(eq(membership.companyId, companyId), eq(membership.status, "active"), inArray(membership.role, ["office_manager", "owner", "admin"])));
-  const managers = rows.filter((r) => r.role === "office_manager");
-  return (managers.length ? managers : rows).map((r) => r.email);
+  const book = await getPriceBook(companyId);
+  const deciders = rows.filter((r) => discountDecisionRefusal(book, r, request) === null);
+  const managers = deciders.filter((r) => r.role === "office_manager");
+  return (managers.length ? managers : deciders).map((r) => r.email);
 }
 
 const offersUrl = (dealId: string) => `${env().APP_URL}/deals/${dealId}/offers`;
 
-/** Mail after the commit: a failure is logged, the request stays pending and shows on the Offers tab and Today. */
-async function mailDiscountRequest(member: Member, dealId: string, requestId: string, inputs: OfferInputs, figures: OfferFigures): Promise<void> {
-  try {
-    const to = await approverEmails(member.companyId);
-    if (to.length === 0) return;
-    const room = await getDealRoom(member, dealId);
-    await sendEmail({
-      to,
-      subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${room.household.name}`,
-      react: createElement(DiscountRequestEmail, {
-        repName: member.name,
-        householdName: room.household.name,
-        offerName: inputs.name,
-        discount: formatCents(inputs.discountCents),
-        limit: formatCents(figures.discountLimitCents ?? 0),
-        contractBefore: formatCents(figures.summary.grossCents),
-        reason: inputs.discountReason,
-        reviewUrl: offersUrl(dealId),
-      }),
-      idempotencyKey: `discount-request-${requestId}-${inputs.discountCents}`,
-    });
-  } catch (err) {
-    console.error("discount request saved; the e-mail to the office could not be sent", requestId, err);
-  }
+/** The e-mail to those who may decide, written in the request's transaction (outbox); null when nobody may. */
+async function queueDiscountRequest(tx: Tx, member: Member, dealId: string, householdName: string, requestId: string, inputs: OfferInputs, figures: OfferFigures): Promise<string | null> {
+  const to = await approverEmails(member.companyId, { requestedByUserId: member.userId, amountCents: inputs.discountCents, grossCents: figures.summary.grossCents });
+  if (to.length === 0) return null;
+  return queueMail(tx, {
+    companyId: member.companyId,
+    kind: "discount-request",
+    to,
+    subject: `Discount to review: ${formatCents(inputs.discountCents)} for the ${householdName}`,
+    react: createElement(DiscountRequestEmail, {
+      repName: member.name,
+      householdName,
+      offerName: inputs.name,
+      discount: formatCents(inputs.discountCents),
+      limit: formatCents(figures.discountLimitCents ?? 0),
+      contractBefore: formatCents(figures.summary.grossCents),
+      reason: inputs.discountReason,
+      reviewUrl: offersUrl(dealId),
+    }),
+    idempotencyKey: `discount-request-${requestId}-${inputs.discountCents}`,
+  });
 }
 
 // ── Writes ───────────────────────────────────────────────────────────────────────────────
@@ -271,7 +273,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
   const { figures } = await computeOffer(member, dealId, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const id = crypto.randomUUID();
-  let outcome: DiscountOutcome = { status: "none", requestId: null, mailNeeded: false };
+  const mailIds: string[] = [];
   await db().transaction(async (tx) => {
     const taken = await tx
       .select({ position: offer.position })
@@ -280,8 +282,12 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
     if (taken.length >= MAX_OFFERS_PER_DEAL) throw new HttpError(409, "too_many_offers", `A deal has at most ${MAX_OFFERS_PER_DEAL} offers. Change or delete one.`);
     const position = [1, 2, 3].find((p) => !taken.some((t) => t.position === p)) ?? taken.length + 1;
     await tx.insert(offer).values({ id, companyId: member.companyId, dealId, position, name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: "none" });
-    outcome = await settleDiscount(tx, member, dealId, id, inputs, figures);
+    const outcome = await settleDiscount(tx, member, dealId, id, inputs, figures);
     await tx.update(offer).set({ discountStatus: outcome.status }).where(and(eq(offer.id, id), eq(offer.companyId, member.companyId)));
+    if (outcome.mailNeeded && outcome.requestId) {
+      const mailId = await queueDiscountRequest(tx, member, dealId, room.household.name, outcome.requestId, inputs, figures);
+      if (mailId) mailIds.push(mailId);
+    }
     await setDealRatePlanIfMissing(tx, member, dealId, inputs.ratePlanId, room.deal.ratePlanId);
     await recordEvent(tx, {
       companyId: member.companyId,
@@ -292,7 +298,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
       data: { offerId: id },
     });
   });
-  if (outcome.mailNeeded && outcome.requestId) await mailDiscountRequest(member, dealId, outcome.requestId, inputs, figures);
+  await sendQueuedNow(mailIds);
   return getOfferOrThrow(member, id);
 }
 
@@ -304,9 +310,13 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
   const room = await getDealRoom(member, existing.dealId);
   const { figures } = await computeOffer(member, existing.dealId, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
-  let outcome: DiscountOutcome = { status: "none", requestId: null, mailNeeded: false };
+  const mailIds: string[] = [];
   await db().transaction(async (tx) => {
-    outcome = await settleDiscount(tx, member, existing.dealId, offerId, inputs, figures);
+    const outcome = await settleDiscount(tx, member, existing.dealId, offerId, inputs, figures);
+    if (outcome.mailNeeded && outcome.requestId) {
+      const mailId = await queueDiscountRequest(tx, member, existing.dealId, room.household.name, outcome.requestId, inputs, figures);
+      if (mailId) mailIds.push(mailId);
+    }
     await tx
       .update(offer)
       .set({ name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: outcome.status })
@@ -321,7 +331,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
       data: { offerId },
     });
   });
-  if (outcome.mailNeeded && outcome.requestId) await mailDiscountRequest(member, existing.dealId, outcome.requestId, inputs, figures);
+  await sendQueuedNow(mailIds);
   return getOfferOrThrow(member, offerId);
 }
 
@@ -378,6 +388,8 @@ function requestQuery(companyId: string) {
       decisionNote: discountRequest.decisionNote,
       createdAt: discountRequest.createdAt,
       dealOwnerUserId: deal.ownerUserId,
+      /** The offer's price before discount, which the decider's own limit is measured on. */
+      grossCents: sql<number>`CAST(JSON_VALUE(${offer.results}, '$.summary.grossCents') AS SIGNED)`.mapWith(Number),
     })
     .from(discountRequest)
     .innerJoin(offer, and(eq(offer.id, discountRequest.offerId), eq(offer.companyId, discountRequest.companyId)))
@@ -388,7 +400,8 @@ function requestQuery(companyId: string) {
     .where(eq(discountRequest.companyId, companyId));
 }
 
-const stripOwner = ({ dealOwnerUserId: _owner, ...row }: DiscountRequestRow & { dealOwnerUserId: string | null }): DiscountRequestRow => row;
+type RequestQueryRow = DiscountRequestRow & { dealOwnerUserId: string | null; grossCents: number };
+const stripOwner = ({ dealOwnerUserId: _owner, grossCents: _gross, ...row }: RequestQueryRow): DiscountRequestRow => row;
 
 export async function getDiscountRequestOrThrow(member: Member, requestId: string): Promise<DiscountRequestRow> {
   const [row] = await db()
@@ -419,10 +432,14 @@ export async function listDiscountRequestsForDeal(member: Member, dealId: string
  */
 export async function listPendingDiscountRequests(member: Member): Promise<DiscountRequestRow[]> {
   const pending = and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.status, "pending"));
+  const approver = can(member.role, "discounts:approve");
   const rows = await requestQuery(member.companyId)
-    .where(can(member.role, "discounts:approve") ? pending : and(pending, eq(deal.ownerUserId, member.userId)))
+    .where(approver ? pending : and(pending, eq(deal.ownerUserId, member.userId)))
     .orderBy(asc(discountRequest.createdAt));
-  return rows.map(stripOwner);
+  if (!approver) return rows.map(stripOwner);
+  // An approver's queue holds only what they may decide (not their own, not above their limit).
+  const book = await getPriceBook(member.companyId);
+  return rows.filter((r) => discountDecisionRefusal(book, member, r) === null).map(stripOwner);
 }
 
 /**
@@ -437,12 +454,18 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   const request = await getDiscountRequestOrThrow(member, requestId);
   if (request.status !== "pending") throw new HttpError(409, "already_decided", `This discount was already ${request.status}.`);
   const current = await getOfferOrThrow(member, request.offerId);
+  const refusal = discountDecisionRefusal(await getPriceBook(member.companyId), member, {
+    requestedByUserId: request.requestedByUserId,
+    amountCents: request.amountCents,
+    grossCents: current.results.summary.grossCents,
+  });
+  if (refusal) throw new HttpError(403, "not_your_decision", refusal);
 
   let declinedFigures: OfferFigures | null = null;
   const inputsWithout: OfferInputs = { ...current.inputs, discountCents: 0, discountReason: "" };
   if (decision === "decline") declinedFigures = (await computeOffer(member, current.dealId, inputsWithout)).figures;
 
-  await db().transaction(async (tx) => {
+  const mailIds = await db().transaction(async (tx): Promise<string[]> => {
     const changed = await tx
       .update(discountRequest)
       .set({ status: decision === "approve" ? "approved" : "declined", decidedByUserId: member.userId, decidedAt: new Date(), decisionNote: note || null })
@@ -464,30 +487,29 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
       actorUserId: member.userId,
       data: { offerId: current.id, discountRequestId: requestId },
     });
+    // The requester hears either way; the e-mail is written with the decision (outbox).
+    if (!request.requestedByUserId) return [];
+    const [rep] = await tx.select({ email: user.email }).from(user).where(eq(user.id, request.requestedByUserId)).limit(1);
+    if (!rep) return [];
+    return [
+      await queueMail(tx, {
+        companyId: member.companyId,
+        kind: "discount-decision",
+        to: rep.email,
+        subject: `Discount ${decision === "approve" ? "approved" : "declined"}: ${formatCents(request.amountCents)} for the ${request.householdName}`,
+        react: createElement(DiscountDecisionEmail, {
+          deciderName: member.name,
+          householdName: request.householdName,
+          offerName: current.name,
+          discount: formatCents(request.amountCents),
+          approved: decision === "approve",
+          note,
+          offersUrl: offersUrl(current.dealId),
+        }),
+        idempotencyKey: `discount-decision-${requestId}`,
+      }),
+    ];
   });
-
-  if (request.requestedByUserId) {
-    try {
-      const [rep] = await db().select({ email: user.email }).from(user).where(eq(user.id, request.requestedByUserId)).limit(1);
-      if (rep) {
-        await sendEmail({
-          to: rep.email,
-          subject: `Discount ${decision === "approve" ? "approved" : "declined"}: ${formatCents(request.amountCents)} for the ${request.householdName}`,
-          react: createElement(DiscountDecisionEmail, {
-            deciderName: member.name,
-            householdName: request.householdName,
-            offerName: current.name,
-            discount: formatCents(request.amountCents),
-            approved: decision === "approve",
-            note,
-            offersUrl: offersUrl(current.dealId),
-          }),
-          idempotencyKey: `discount-decision-${requestId}`,
-        });
-      }
-    } catch (err) {
-      console.error("discount decided; the e-mail to the rep could not be sent", requestId, err);
-    }
-  }
+  await sendQueuedNow(mailIds);
   return getDiscountRequestOrThrow(member, requestId);
 }

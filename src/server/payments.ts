@@ -15,12 +15,13 @@ import { can } from "@/lib/permissions";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import DepositReceiptEmail from "@emails/deposit-receipt";
 import RefundIssuedEmail from "@emails/refund-issued";
-import { db, type Tx } from "@/server/db";
+import { db, type Db, type Tx } from "@/server/db";
 import { jsonValue } from "@/server/designs";
 import { getDealOrThrow } from "@/server/deals";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import { createJobForDeal } from "@/server/jobs";
 import { MailSendError, sendEmail } from "@/server/mail";
+import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
 import { stripe } from "@/server/stripe";
@@ -346,9 +347,9 @@ export async function bookPayment(tx: Tx, row: PaymentRow, reported: Reported, r
     data: { paymentId: row.id },
   });
   await createJobForDeal(tx, { companyId: row.companyId, dealId: row.dealId, proposalId: row.proposalId });
-  after.push(async () => {
-    await sendDepositReceipt(row.id, receiptKey);
-  });
+  // The receipt is written with the booking (transactional outbox) and sent right after the commit.
+  const mailId = await queueMail(tx, { ...(await depositReceiptMail(tx, row.id)), kind: "deposit-receipt", idempotencyKey: `deposit-receipt-${receiptKey}` });
+  after.push(() => sendQueuedNow([mailId]));
   return { outcome: "booked" };
 }
 
@@ -605,14 +606,11 @@ async function issueRefund(
     }
     await recomputeRefunded(tx, row.id, row.companyId);
     const [rec] = await tx.select().from(refund).where(and(eq(refund.stripeRefundId, r.id), eq(refund.companyId, row.companyId))).limit(1);
-    return { rec };
+    // Queued whoever recorded the refund first (this request or the provider's webhook); the key keeps it to one message.
+    const mailId = await queueMail(tx, { ...(await refundNoticeMail(tx, rec)), kind: "refund-notice", idempotencyKey: `refund-notice-${rec.stripeRefundId}` });
+    return { rec, mailId };
   });
-  // Sent whoever recorded the refund first (this request or the provider's webhook); the key sends it once.
-  try {
-    await sendRefundNotice(saved.rec);
-  } catch (err) {
-    console.error("refund recorded; the e-mail to the customer could not be sent", saved.rec.id, err);
-  }
+  await sendQueuedNow([saved.mailId]);
   return saved.rec;
 }
 
@@ -659,8 +657,8 @@ export async function refundOnCancellation(companyId: string, dealId: string, re
   if (failures.length) throw new Error(`Deposit refund on cancellation failed for ${failures.length} payment(s): ${failures.join("; ")}`);
 }
 
-async function receiptContext(paymentId: string) {
-  const [row] = await db()
+async function receiptContext(q: Db | Tx, paymentId: string) {
+  const [row] = await q
     .select({ p: payment, prop: proposal, companyName: company.name, customerName: household.contactName, householdName: household.name })
     .from(payment)
     .innerJoin(proposal, and(eq(proposal.id, payment.proposalId), eq(proposal.companyId, payment.companyId)))
@@ -674,14 +672,15 @@ async function receiptContext(paymentId: string) {
   return { ...row, snapshot, to: row.prop.signerEmail ?? row.prop.sentToEmail, name: row.prop.signerName ?? row.customerName ?? row.householdName };
 }
 
-/** E-mails the receipt of a paid deposit to the customer (the webhook after commit, or the office's re-send). */
-export async function sendDepositReceipt(paymentId: string, idempotencyKey: string): Promise<{ to: string }> {
-  const c = await receiptContext(paymentId);
+/** The receipt of a paid deposit to the customer (read with `q`: the booking's own transaction, or the pool). */
+async function depositReceiptMail(q: Db | Tx, paymentId: string) {
+  const c = await receiptContext(q, paymentId);
   if (!BOOKED_STATUSES.includes(c.p.status) || c.p.status === "flagged" || c.p.paidCents == null) {
     throw new HttpError(409, "not_paid", "Only a booked deposit has a receipt.");
   }
   const offer = chosenOffer(c.prop);
-  await sendEmail({
+  return {
+    companyId: c.p.companyId,
     to: c.to,
     subject: `Deposit received: ${formatCentsExact(c.p.paidCents, c.p.currency)} — ${c.companyName}`,
     react: createElement(DepositReceiptEmail, {
@@ -697,9 +696,14 @@ export async function sendDepositReceipt(paymentId: string, idempotencyKey: stri
       repName: snapshotOf(c.prop).rep.name,
       repEmail: snapshotOf(c.prop).rep.email,
     }),
-    idempotencyKey,
-  });
-  return { to: c.to };
+  };
+}
+
+/** The office's re-send: sent at once, so the office sees a failure (the booking's own receipt goes through the outbox). */
+export async function sendDepositReceipt(paymentId: string, idempotencyKey: string): Promise<{ to: string }> {
+  const mail = await depositReceiptMail(db(), paymentId);
+  await sendEmail({ ...mail, idempotencyKey });
+  return { to: mail.to };
 }
 
 /** The office's "Re-send receipt": a new send each time (its own idempotency key), logged on the Timeline. */
@@ -725,10 +729,11 @@ export async function resendDepositReceipt(member: Member, paymentId: string): P
   return sent;
 }
 
-async function sendRefundNotice(r: RefundRow): Promise<void> {
-  const c = await receiptContext(r.paymentId);
+async function refundNoticeMail(tx: Tx, r: RefundRow) {
+  const c = await receiptContext(tx, r.paymentId);
   const paid = c.p.paidCents ?? 0;
-  await sendEmail({
+  return {
+    companyId: c.p.companyId,
     to: c.to,
     subject: `Refund of ${formatCentsExact(r.amountCents, c.p.currency)} — ${c.companyName}`,
     react: createElement(RefundIssuedEmail, {
@@ -743,8 +748,7 @@ async function sendRefundNotice(r: RefundRow): Promise<void> {
       repName: c.snapshot.rep.name,
       repEmail: c.snapshot.rep.email,
     }),
-    idempotencyKey: `refund-notice-${r.stripeRefundId}`,
-  });
+  };
 }
 
 // ── Reconciliation: the ledger against the provider's own lists ─────────────────────────────

@@ -155,6 +155,7 @@ export async function invitePerson(member: Member, input: z.output<typeof invite
     });
   });
   await sendEmail({
+    companyId: member.companyId,
     to: input.email,
     subject: `${member.name} invited you to ${member.companyName} on Kilowright`,
     react: createElement(InvitationEmail, {
@@ -274,8 +275,7 @@ export async function acceptInvitation(input: z.output<typeof acceptInvitationSc
 }
 
 /** Sign-up: the company and its owner. The user row comes from better-auth (which sends the verification e-mail). */
-export async function createCompanyForOwner(userId: string, companyName: string): Promise<string> {
-  const companyId = crypto.randomUUID();
+export async function createCompanyForOwner(userId: string, companyName: string, companyId: string = crypto.randomUUID()): Promise<string> {
   await db().transaction(async (tx) => {
     await tx.insert(company).values({ id: companyId, name: companyName });
     await tx.insert(membership).values({ id: crypto.randomUUID(), companyId, userId, role: "owner" });

@@ -39,12 +39,13 @@ import { forbidden, HttpError, notFound } from "@/server/errors";
 import { clientMeta, type ClientMeta } from "@/server/client-address";
 import { takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
+import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import { listOffers } from "@/server/offers";
 import { getPriceBook } from "@/server/price-book";
 import { toErrorResponse, validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
-import { storage } from "@/server/storage";
+import { storage, withFilesUndoneOnFailure } from "@/server/storage";
 import { refundOnCancellation } from "@/server/payments";
 import { recordEvent } from "@/server/timeline";
 import { guardPublicMutation } from "@/server/request-guard";
@@ -358,10 +359,9 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   const { token, hash } = newLinkToken();
   const id = crypto.randomUUID();
   const key = `${member.companyId}/proposals/${crypto.randomUUID()}.pdf`;
-  let stored = false;
   let numbering: { number: number; version: number };
   try {
-    numbering = await db().transaction(async (tx) => {
+    numbering = await withFilesUndoneOnFailure((put) => db().transaction(async (tx) => {
       await tx.select({ id: company.id }).from(company).where(eq(company.id, member.companyId)).for("update");
       const earlier = await tx
         .select({ id: proposal.id, number: proposal.number, version: proposal.version, status: proposal.status })
@@ -380,8 +380,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
         version = 1;
       }
       const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
-      await storage().put(key, pdf);
-      stored = true;
+      await put(key, pdf);
       await tx.insert(proposal).values({
         id,
         companyId: member.companyId,
@@ -436,9 +435,8 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
         data: { proposalId: id },
       });
       return { number, version };
-    });
+    }));
   } catch (err) {
-    if (stored) await storage().delete(key).catch(() => undefined);
     if (isDuplicateKey(err)) throw new HttpError(409, "proposal_conflict", "Another proposal for this company was numbered at the same moment. Send again.");
     throw err;
   }
@@ -462,6 +460,7 @@ async function mailProposalLink(m: {
 }): Promise<{ mailSent: boolean; mailError: string | null }> {
   try {
     await sendEmail({
+      companyId: m.companyId,
       to: m.to,
       subject: `${m.resent ? "New link: " : ""}Your solar proposal from ${m.snapshot.company.name} (${m.label})`,
       replyTo: m.snapshot.rep.email,
@@ -649,7 +648,7 @@ export async function askQuestion(p: ProposalRow, input: unknown, client: Client
   await takeTurn("questionLink", p.id, tooMany);
   await takeTurn("questionAddress", client.ip, tooMany);
   const question = parsed.data.question;
-  const id = await db().transaction(async (tx) => {
+  const { id, mailId } = await db().transaction(async (tx) => {
     const eid = await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "question", body: question, client });
     const short = question.length > 300 ? `${question.slice(0, 299)}…` : question;
     await recordEvent(tx, {
@@ -660,10 +659,10 @@ export async function askQuestion(p: ProposalRow, input: unknown, client: Client
       actorUserId: null,
       data: { proposalId: p.id, proposalEventId: eid },
     });
-    return eid;
-  });
-  try {
-    await sendEmail({
+    // The question is stored and on the Timeline; its e-mail to the rep is written with it (outbox).
+    const queued = await queueMail(tx, {
+      companyId: p.companyId,
+      kind: "proposal-question",
       to: p.snapshot.rep.email,
       replyTo: p.sentToEmail,
       subject: `Question from the ${p.snapshot.household.name} (${labelOf(p)})`,
@@ -674,12 +673,11 @@ export async function askQuestion(p: ProposalRow, input: unknown, client: Client
         customerEmail: p.sentToEmail,
         dealUrl: dealProposalUrl(p.dealId),
       }),
-      idempotencyKey: `proposal-question-${id}`,
+      idempotencyKey: `proposal-question-${eid}`,
     });
-  } catch (err) {
-    // The question is stored and on the Timeline; the rep sees it on the Proposal tab.
-    console.error("question stored; the e-mail to the rep could not be sent", id, err);
-  }
+    return { id: eid, mailId: queued };
+  });
+  await sendQueuedNow([mailId]);
   return { id };
 }
 
@@ -728,7 +726,20 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
       summary: `Moved to Cancelled: the buyer cancelled ${labelOf(p)} inside the 3-business-day window`,
       data: { proposalId: p.id },
     });
-    return { proposalId: p.id, companyId: p.companyId, dealId: p.dealId, cancelledAt: now };
+    const mailId = await queueMail(tx, {
+      companyId: p.companyId,
+      kind: "proposal-cancelled",
+      to: p.snapshot.rep.email,
+      subject: `Cancelled: the ${p.snapshot.household.name} (${labelOf(p)})`,
+      react: createElement(ProposalCancelledEmail, {
+        householdName: p.snapshot.household.name,
+        label: labelOf(p),
+        cancelledAt: formatDateTime(now),
+        dealUrl: dealProposalUrl(p.dealId),
+      }),
+      idempotencyKey: `proposal-cancelled-${p.id}`,
+    });
+    return { proposalId: p.id, companyId: p.companyId, dealId: p.dealId, cancelledAt: now, mailId };
   });
   // After the commit: refund any paid deposit through the provider. The cancellation stands even
   // if the provider cannot be reached now; the office sees the refund due on Today and retries.
@@ -737,22 +748,9 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
   } catch (err) {
     console.error(`[proposals] refund after the cancellation of ${labelOf(p)} failed:`, err);
   }
-  try {
-    await sendEmail({
-      to: p.snapshot.rep.email,
-      subject: `Cancelled: the ${p.snapshot.household.name} (${labelOf(p)})`,
-      react: createElement(ProposalCancelledEmail, {
-        householdName: p.snapshot.household.name,
-        label: labelOf(p),
-        cancelledAt: formatDateTime(outcome.cancelledAt),
-        dealUrl: dealProposalUrl(p.dealId),
-      }),
-      idempotencyKey: `proposal-cancelled-${p.id}`,
-    });
-  } catch (err) {
-    console.error("cancellation recorded; the e-mail to the rep could not be sent", p.id, err);
-  }
-  return outcome;
+  await sendQueuedNow([outcome.mailId]);
+  const { mailId: _sent, ...cancelled } = outcome;
+  return cancelled;
 }
 
 /** When the buyer's window closes, for the page (null when the sale carries no right to cancel). */

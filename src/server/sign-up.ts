@@ -9,6 +9,7 @@ import { clientAddress } from "@/server/client-address";
 import { db } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import { takeTurn } from "@/server/limits";
+import { sendingForNewCompany } from "@/server/mail-company";
 import { createCompanyForOwner, deleteUnattachedUser } from "@/server/people";
 
 /**
@@ -19,11 +20,15 @@ import { createCompanyForOwner, deleteUnattachedUser } from "@/server/people";
 export async function signUp(input: z.output<typeof signUpSchema>, headers: Headers): Promise<{ email: string }> {
   await takeTurn("signUpAddress", clientAddress(headers), (wait) => `Too many sign-ups from this address. Try again in ${wait}.`);
   let userId: string;
+  // The verification e-mail goes out during sign-up: it belongs to the company made just after.
+  const companyId = crypto.randomUUID();
   try {
-    const created = await auth().api.signUpEmail({
-      body: { name: input.name, email: input.email, password: input.password, callbackURL: "/today" },
-      headers,
-    });
+    const created = await sendingForNewCompany(companyId, () =>
+      auth().api.signUpEmail({
+        body: { name: input.name, email: input.email, password: input.password, callbackURL: "/today" },
+        headers,
+      }),
+    );
     userId = created.user.id;
   } catch (err) {
     if (err instanceof APIError) throw new HttpError(err.statusCode, "sign_up_refused", err.message);
@@ -33,7 +38,7 @@ export async function signUp(input: z.output<typeof signUpSchema>, headers: Head
   const [stored] = await db().select({ id: user.id }).from(user).where(eq(user.id, userId)).limit(1);
   if (stored) {
     try {
-      await createCompanyForOwner(userId, input.companyName);
+      await createCompanyForOwner(userId, input.companyName, companyId);
     } catch (err) {
       await deleteUnattachedUser(userId);
       throw err;

@@ -22,15 +22,16 @@ import type { Stage } from "@/db/schema";
 import SignedCopyEmail from "@emails/signed-copy";
 import SigningCodeEmail from "@emails/signing-code";
 import { getCompanySettings } from "@/server/company-settings";
-import { db } from "@/server/db";
+import { db, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import { takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
+import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import { dealProposalUrl, insertProposalEvent, labelOf, proposalUrl, readProposalPdf, type ClientMeta, type ProposalRow } from "@/server/proposals";
 import { validationError } from "@/server/route";
 import { autoMoveStage } from "@/server/stages";
 import { openImage } from "@/server/photos";
-import { storage } from "@/server/storage";
+import { withFilesUndoneOnFailure } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
 export const CODE_DIGITS = 6;
@@ -106,6 +107,7 @@ export async function sendSigningCode(p: ProposalRow, token: string, client: Cli
   });
   try {
     await sendEmail({
+      companyId: p.companyId,
       to: p.sentToEmail,
       subject: `Your signing code: ${code}`,
       react: createElement(SigningCodeEmail, { companyName: p.snapshot.company.name, label: labelOf(p), code, minutes: CODE_TTL_MS / 60_000, proposalUrl: proposalUrl(token) }),
@@ -223,10 +225,8 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
 
   const { timeZone } = await getCompanySettings(p.companyId);
   const key = `${p.companyId}/signed/${crypto.randomUUID()}.pdf`;
-  let stored = false;
-  let result: SignedOutcome;
-  try {
-    result = await db().transaction(async (tx) => {
+  const result = await withFilesUndoneOnFailure((put) =>
+    db().transaction(async (tx) => {
       const [row] = await tx.select().from(proposal).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId))).for("update");
       if (!row) throw new HttpError(404, "not_found", "Proposal not found.");
       if (row.status === "signed") throw new HttpError(409, "already_signed", "This proposal is already signed; a second signature is not accepted.");
@@ -277,8 +277,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
         throw err;
       });
       const signedSha256 = sha256Hex(signed);
-      await storage().put(key, signed);
-      stored = true;
+      await put(key, signed);
       await tx
         .update(proposal)
         .set({
@@ -317,22 +316,24 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
         summary: `Moved to Signed: the customer signed ${labelOf(row)}`,
         data: { proposalId: p.id },
       });
-      return { signedAt: now, signedSha256, cancelDeadline: deadline, chosenPosition: position };
-    });
-  } catch (err) {
-    if (stored) await storage().delete(key).catch(() => undefined);
-    throw err;
-  }
-  await mailSignedCopies(p, token, signerName, offer.name, offer.figures.summary.contractCents, result);
-  return result;
+      const outcome = { signedAt: now, signedSha256, cancelDeadline: deadline, chosenPosition: position };
+      // The copies are written with the signature, so a crash after the commit cannot lose them.
+      const mailIds = await queueSignedCopies(tx, p, token, signerName, offer.name, offer.figures.summary.contractCents, outcome);
+      return { ...outcome, mailIds };
+    }),
+  );
+  await sendQueuedNow(result.mailIds);
+  const { mailIds: _sent, ...signed } = result;
+  return signed;
 }
 
 /**
- * Copies after the commit: the customer gets a link to their page (which always serves the
- * signed PDF) and the rep a link to the deal. A link rather than an attachment: the mail
- * helper (src/server/mail.ts) sends no attachments and the dev outbox drops them.
+ * The copies, queued in the signing's transaction (src/server/outbound-mail.ts): the customer
+ * gets a link to their page (which always serves the signed PDF) and the rep a link to the deal.
+ * A link rather than an attachment: the mail helper (src/server/mail.ts) sends no attachments
+ * and the dev outbox drops them.
  */
-async function mailSignedCopies(p: ProposalRow, token: string, signerName: string, offerName: string, contractCents: number, r: SignedOutcome): Promise<void> {
+async function queueSignedCopies(tx: Tx, p: ProposalRow, token: string, signerName: string, offerName: string, contractCents: number, r: SignedOutcome): Promise<string[]> {
   const common = {
     companyName: p.snapshot.company.name,
     householdName: p.snapshot.household.name,
@@ -344,24 +345,25 @@ async function mailSignedCopies(p: ProposalRow, token: string, signerName: strin
     cancelBy: r.cancelDeadline ? formatIsoDateLong(r.cancelDeadline) : null,
     sha256: r.signedSha256,
   };
-  const sends = [
-    sendEmail({
+  return [
+    await queueMail(tx, {
+      companyId: p.companyId,
+      kind: "signed-copy-customer",
       to: p.sentToEmail,
       replyTo: p.snapshot.rep.email,
       subject: `Your signed agreement with ${p.snapshot.company.name} (${labelOf(p)})`,
       react: createElement(SignedCopyEmail, { ...common, audience: "customer", url: proposalUrl(token) }),
       idempotencyKey: `signed-copy-customer-${p.id}`,
     }),
-    sendEmail({
+    await queueMail(tx, {
+      companyId: p.companyId,
+      kind: "signed-copy-rep",
       to: p.snapshot.rep.email,
       subject: `Signed: the ${p.snapshot.household.name} (${labelOf(p)})`,
       react: createElement(SignedCopyEmail, { ...common, audience: "rep", url: dealProposalUrl(p.dealId) }),
       idempotencyKey: `signed-copy-rep-${p.id}`,
     }),
   ];
-  for (const outcome of await Promise.allSettled(sends)) {
-    if (outcome.status === "rejected") console.error("proposal signed; a copy could not be e-mailed", p.id, outcome.reason);
-  }
 }
 
 // ── Verify ─────────────────────────────────────────────────────────────────────────────────

@@ -24,6 +24,13 @@ test("sign-up creates a company and its owner, confirmed by e-mail", async ({ pa
   await expect(page.getByTestId("company-name")).toHaveText("Prairie Current Solar");
   await expect(page.getByTestId("role-label")).toHaveText("Owner");
 
+  // The new company's dev outbox holds only its own mail (the confirmation), none of the demo company's.
+  await page.goto("/dev/outbox");
+  await expect(page.getByRole("heading", { name: "Dev outbox" })).toBeVisible();
+  const recipients = await page.locator("li summary").allTextContents();
+  expect(recipients.length).toBeGreaterThan(0);
+  expect(recipients.filter((r) => !r.includes(`to ${email}`))).toEqual([]);
+
   const rows = await withDb(async (conn) => {
     const [r] = await conn.query(
       "SELECT c.name, m.role FROM membership m JOIN company c ON c.id = m.company_id JOIN user u ON u.id = m.user_id WHERE u.email = ?",

@@ -18,6 +18,7 @@ let fake: MailFake | null = null;
 let owner: Member;
 let rep: Member;
 let office: Member;
+let office2: Member;
 let other: Member;
 let dealId: string;
 let moduleId: string;
@@ -65,6 +66,7 @@ beforeAll(async () => {
   owner = await newCompany("Design Test Solar");
   rep = await addMember(owner, "sales_rep", "Rhea Rep");
   office = await addMember(owner, "office_manager", "Otto Office");
+  office2 = await addMember(owner, "office_manager", "Olga Office");
   other = await newCompany("Elsewhere Solar");
 
   const bytes = new Uint8Array(await readFile(path.join(process.cwd(), "src/engine/data/tmy3-723170-greensboro-nc.csv")));
@@ -283,6 +285,36 @@ describe("offers", () => {
     expect(after.discountStatus).toBe("declined");
     expect(after.results.summary.discountCents).toBe(0);
     expect((await mailTo(rep.email))[0]?.subject).toMatch(/Discount declined/);
+  });
+
+  it("a discount above an office manager's own limit is decided only by an owner or admin, and only theirs show it on Today", async () => {
+    // The office managers' limit is $2,000; the rep asks $2,500.
+    const asked = await s.offers.updateOffer(rep, offerId, { inputs: cashOffer({ discountCents: 250_000, discountReason: "Two neighbours signing together" }) });
+    expect(asked.discountStatus).toBe("pending");
+    const [request] = await s.db.db().select().from(discountRequest).where(and(eq(discountRequest.offerId, offerId), eq(discountRequest.status, "pending")));
+    const err = await rejects(s.offers.decideDiscountRequest(office, request.id, { decision: "approve", note: "" }), 403);
+    expect(err.code).toBe("not_your_decision");
+    expect(err.message).toMatch(/above your own limit of \$2,000\.00/);
+    expect((await s.offers.listPendingDiscountRequests(office)).map((r) => r.id)).not.toContain(request.id);
+    expect((await s.offers.listPendingDiscountRequests(owner)).map((r) => r.id)).toContain(request.id);
+    const mails = await mailTo(owner.email);
+    expect(mails[0]?.subject).toMatch(/Discount to review: \$2,500/);
+    expect((await mailTo(office.email)).some((m) => /\$2,500/.test(m.subject))).toBe(false);
+    expect((await s.offers.decideDiscountRequest(owner, request.id, { decision: "approve", note: "" })).status).toBe("approved");
+  });
+
+  it("nobody decides their own discount: an office manager's over-limit request goes to an owner", async () => {
+    const asked = await s.offers.updateOffer(office, offerId, { inputs: cashOffer({ discountCents: 260_000, discountReason: "Storm damage credit" }) });
+    expect(asked.discountStatus).toBe("pending");
+    const [request] = await s.db.db().select().from(discountRequest).where(and(eq(discountRequest.offerId, offerId), eq(discountRequest.status, "pending")));
+    expect(request.requestedByUserId).toBe(office.userId);
+    const own = await rejects(s.offers.decideDiscountRequest(office, request.id, { decision: "approve", note: "" }), 403);
+    expect(own.message).toMatch(/You asked for this discount, so someone else decides it/);
+    // Another office manager has the same, lower limit.
+    await rejects(s.offers.decideDiscountRequest(office2, request.id, { decision: "approve", note: "" }), 403);
+    for (const m of [office, office2]) expect((await s.offers.listPendingDiscountRequests(m)).map((r) => r.id)).not.toContain(request.id);
+    expect((await s.offers.listPendingDiscountRequests(owner)).map((r) => r.id)).toContain(request.id);
+    expect((await s.offers.decideDiscountRequest(owner, request.id, { decision: "decline", note: "Not this one" })).status).toBe("declined");
   });
 
   it("keeps to three offers a deal", async () => {

@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import InvitationEmail from "@emails/invitation";
 import ResetPasswordEmail from "@emails/reset-password";
 import VerifyEmail from "@emails/verify-email";
-import { startMailFake, type MailFake } from "@/fakes/mail-server";
+import { startMailFake, type MailFake, type StoredMessage } from "@/fakes/mail-server";
 
 const API_KEY = "re_mailtest_0123456789abcdef";
 const FROM = "Kilowright Tests <no-reply@kilowright.localhost>";
@@ -31,6 +31,15 @@ function linkTo(html: string, needle: string): string | null {
   }
   return null;
 }
+
+/** Every message of the dev outbox to one address, whatever its company (the fake's own list). */
+async function listTo({ to }: { to: string }): Promise<StoredMessage[]> {
+  const res = await fetch(`${fake.url}/dev/messages?to=${encodeURIComponent(to)}`, { headers: { Authorization: `Bearer ${API_KEY}` } });
+  return ((await res.json()) as { data: StoredMessage[] }).data;
+}
+
+const COMPANY = "0b9e3c58-7a51-4c8e-9a57-6c1f2f5a0001";
+const OTHER_COMPANY = "0b9e3c58-7a51-4c8e-9a57-6c1f2f5a0002";
 
 async function getJson(url: string, init: RequestInit = {}): Promise<{ status: number; body: unknown }> {
   const res = await fetch(url, { ...init, headers: { Authorization: `Bearer ${API_KEY}`, ...init.headers } });
@@ -124,10 +133,10 @@ describe("e-mail templates", () => {
 describe("sendEmail through the dev outbox", () => {
   it.each(templates)("delivers $name with rendered HTML and text containing the link", async ({ element, url }) => {
     const to = uniqueAddress("recipient");
-    const { id } = await mail.sendEmail({ to, subject: "A test message", react: element, replyTo: "office@mail-test.example" });
+    const { id } = await mail.sendEmail({ companyId: COMPANY, to, subject: "A test message", react: element, replyTo: "office@mail-test.example" });
     expect(id).toMatch(/^[0-9a-f-]{36}$/);
 
-    const listed = await mail.listOutbox({ to });
+    const listed = await listTo({ to });
     expect(listed).toHaveLength(1);
     const [m] = listed;
     expect(m.id).toBe(id);
@@ -155,11 +164,11 @@ describe("sendEmail through the dev outbox", () => {
     expect(raw.error?.message).toContain("subject");
 
     const to = uniqueAddress("emptysubject");
-    const err: unknown = await mail.sendEmail({ to, subject: "", react: templates[0].element }).catch((e: unknown) => e);
+    const err: unknown = await mail.sendEmail({ companyId: COMPANY, to, subject: "", react: templates[0].element }).catch((e: unknown) => e);
     expect(err).toBeInstanceOf(mail.MailSendError);
     expect(err).toMatchObject({ code: "validation_error", statusCode: 422 });
     expect((err as Error).message).toContain("subject");
-    expect(await mail.listOutbox({ to })).toHaveLength(0);
+    expect(await listTo({ to })).toHaveLength(0);
   });
 
   it("rejects bad addresses, missing bodies, and too many recipients with 422", async () => {
@@ -206,25 +215,25 @@ describe("sendEmail through the dev outbox", () => {
     const to = uniqueAddress("idem");
     const key = `invite-${to}`;
     const element = templates[0].element;
-    const first = await mail.sendEmail({ to, subject: "Once only", react: element, idempotencyKey: key });
-    const again = await mail.sendEmail({ to, subject: "Once only", react: element, idempotencyKey: key });
+    const first = await mail.sendEmail({ companyId: COMPANY, to, subject: "Once only", react: element, idempotencyKey: key });
+    const again = await mail.sendEmail({ companyId: COMPANY, to, subject: "Once only", react: element, idempotencyKey: key });
     expect(again.id).toBe(first.id);
-    expect(await mail.listOutbox({ to })).toHaveLength(1);
+    expect(await listTo({ to })).toHaveLength(1);
 
     const err: unknown = await mail
-      .sendEmail({ to, subject: "Something else", react: element, idempotencyKey: key })
+      .sendEmail({ companyId: COMPANY, to, subject: "Something else", react: element, idempotencyKey: key })
       .catch((e: unknown) => e);
     expect(err).toBeInstanceOf(mail.MailSendError);
     expect(err).toMatchObject({ code: "invalid_idempotent_request", statusCode: 409 });
-    expect(await mail.listOutbox({ to })).toHaveLength(1);
+    expect(await listTo({ to })).toHaveLength(1);
 
     // Concurrent retries with one key still make one message.
     const to2 = uniqueAddress("idem-concurrent");
     const ids = await Promise.all(
-      Array.from({ length: 5 }, () => mail.sendEmail({ to: to2, subject: "Race", react: element, idempotencyKey: `k-${to2}` })),
+      Array.from({ length: 5 }, () => mail.sendEmail({ companyId: COMPANY, to: to2, subject: "Race", react: element, idempotencyKey: `k-${to2}` })),
     );
     expect(new Set(ids.map((r) => r.id)).size).toBe(1);
-    expect(await mail.listOutbox({ to: to2 })).toHaveLength(1);
+    expect(await listTo({ to: to2 })).toHaveLength(1);
   });
 
   it("sends a batch and keeps each message", async () => {
@@ -237,21 +246,21 @@ describe("sendEmail through the dev outbox", () => {
     ]);
     expect(res.error).toBeNull();
     expect(res.data?.data).toHaveLength(2);
-    expect((await mail.listOutbox({ to: b })).map((m) => m.subject)).toEqual(["Batch two"]);
+    expect((await listTo({ to: b })).map((m) => m.subject)).toEqual(["Batch two"]);
     // `to` filters on every recipient (to, cc, bcc), newest first.
-    expect((await mail.listOutbox({ to: a })).map((m) => m.subject)).toEqual(["Batch two", "Batch one"]);
+    expect((await listTo({ to: a })).map((m) => m.subject)).toEqual(["Batch two", "Batch one"]);
 
     const bad = await sdk.batch.send([
       { from: FROM, to: a, subject: "fine", text: "x" },
       { from: FROM, to: "nope", subject: "bad", text: "x" },
     ]);
     expect(bad.error).toMatchObject({ statusCode: 422, name: "validation_error" });
-    expect((await mail.listOutbox({ to: a })).map((m) => m.subject)).toEqual(["Batch two", "Batch one"]);
+    expect((await listTo({ to: a })).map((m) => m.subject)).toEqual(["Batch two", "Batch one"]);
   });
 
   it("keeps every message across a restart and between two servers on one directory", async () => {
     const to = uniqueAddress("durable");
-    const sent = await mail.sendEmail({ to, subject: "Before restart", react: templates[2].element });
+    const sent = await mail.sendEmail({ companyId: COMPANY, to, subject: "Before restart", react: templates[2].element });
     const before = await getJson(`${fake.url}/dev/messages?limit=1000`);
 
     // A second server on the same directory sees the message, and what it accepts is seen by the first.
@@ -260,7 +269,7 @@ describe("sendEmail through the dev outbox", () => {
       const sdk2 = new Resend(API_KEY, { baseUrl: second.url });
       const viaSecond = await sdk2.emails.send({ from: FROM, to, subject: "Via the second server", text: "hello" });
       expect(viaSecond.error).toBeNull();
-      const fromFirst = await mail.listOutbox({ to });
+      const fromFirst = await listTo({ to });
       expect(fromFirst.map((m) => m.subject)).toEqual(["Via the second server", "Before restart"]);
 
       // Restart on the same port: the first server stops; a new one on the same directory has everything.
@@ -270,7 +279,7 @@ describe("sendEmail through the dev outbox", () => {
       const after = await getJson(`${fake.url}/dev/messages?limit=1000`);
       const count = (b: unknown) => (b as { data: unknown[] }).data.length;
       expect(count(after.body)).toBe(count(before.body) + 1);
-      expect((await mail.listOutbox({ to })).map((m) => m.subject)).toEqual(["Via the second server", "Before restart"]);
+      expect((await listTo({ to })).map((m) => m.subject)).toEqual(["Via the second server", "Before restart"]);
       const one = await getJson(`${fake.url}/dev/messages/${sent.id}`);
       expect(one.status).toBe(200);
       expect(one.body).toMatchObject({ id: sent.id, subject: "Before restart", to: [to] });
@@ -279,6 +288,29 @@ describe("sendEmail through the dev outbox", () => {
     } finally {
       await second.close();
     }
+  });
+
+  it("lists only the mail of the company asking: every message carries its company", async () => {
+    const to = uniqueAddress("tenancy");
+    await mail.sendEmail({ companyId: COMPANY, to, subject: "Ours", react: templates[0].element });
+    await mail.sendEmail({ companyId: OTHER_COMPANY, to, subject: "Theirs", react: templates[1].element });
+    expect((await mail.listOutbox({ companyId: COMPANY, to })).map((m) => m.subject)).toEqual(["Ours"]);
+    expect((await mail.listOutbox({ companyId: OTHER_COMPANY })).map((m) => m.subject)).toEqual(["Theirs"]);
+    const ours = await mail.listOutbox({ companyId: COMPANY, limit: 1000 });
+    expect(ours.every((m) => m.tags.some((t) => t.name === "company_id" && t.value === COMPANY))).toBe(true);
+  });
+
+  it("refuses the next sends on request (POST /dev/faults), so callers can show they retry", async () => {
+    const to = uniqueAddress("faults");
+    const set = await getJson(`${fake.url}/dev/faults`, { method: "POST", body: JSON.stringify({ refuseNext: 2 }) });
+    expect(set.status).toBe(200);
+    for (let i = 0; i < 2; i++) {
+      const err: unknown = await mail.sendEmail({ companyId: COMPANY, to, subject: "Refused", react: templates[0].element }).catch((e: unknown) => e);
+      expect(err).toBeInstanceOf(mail.MailSendError);
+      expect((err as InstanceType<typeof mail.MailSendError>).statusCode).toBe(503);
+    }
+    await mail.sendEmail({ companyId: COMPANY, to, subject: "Accepted", react: templates[0].element });
+    expect((await listTo({ to })).map((m) => m.subject)).toEqual(["Accepted"]);
   });
 
   it("answers 404 for an unknown message and clears the outbox on DELETE", async () => {

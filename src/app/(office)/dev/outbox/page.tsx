@@ -19,12 +19,12 @@ export default async function OutboxPage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "outbox:read")) return <NoAccess section="the dev outbox" />;
-  const messages = await listOutbox({ limit: 50 });
+  const messages = await listOutbox({ companyId: member.companyId, limit: 50 });
   return (
     <>
       <h1 className="text-2xl font-semibold">Dev outbox</h1>
       <p className="mt-1 text-graphite-soft">
-        Every e-mail this demo instance has sent, newest first. Nothing here left the machine.
+        Every e-mail {member.companyName} has sent from this demo instance, newest first. Nothing here left the machine.
       </p>
       {messages.length === 0 ? <p className="mt-6 text-graphite-soft">No messages yet.</p> : null}
       <ul className="mt-6 space-y-4">
