@@ -110,7 +110,8 @@ test("the app is killed right after a signing commits; after a restart both copi
   test.setTimeout(300_000);
   const port = await freePort();
   let app: OwnApp | null = await startOwnApp(port);
-  const rep = await playwright.request.newContext();
+  // A browser on the app's own pages sends their origin with every change (checked by the app).
+  const rep = await playwright.request.newContext({ extraHTTPHeaders: { Origin: app.url } });
   const customer = await playwright.request.newContext();
   try {
     await signInAt(rep, app.url, "rep@tallgrass.example");
