@@ -25,7 +25,10 @@ import { normalizePhoto } from "@/server/photos";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
 import { storage } from "@/server/storage";
+import type { JobPacket, JobPhotoView, JobRecord, JobView, PacketBomLine, PacketFace } from "@/lib/job-packet";
 import { recordEvent } from "@/server/timeline";
+
+export type { JobPacket, JobPhotoView, JobRecord, JobView, PacketBomLine, PacketFace } from "@/lib/job-packet";
 
 // ── Creating the job (deposits call this in the webhook's transaction) ──────────────────
 
@@ -88,7 +91,6 @@ async function findJobIdForDeal(tx: Tx, companyId: string, dealId: string): Prom
 }
 
 // ── Dates ────────────────────────────────────────────────────────────────────────────────
-
 
 /** Today in the company's time zone (Settings → Company). */
 export async function companyToday(companyId: string, now = new Date()): Promise<string> {
@@ -206,8 +208,6 @@ export async function listJobs(member: Member, now = new Date()): Promise<JobLis
   return out.sort((a, b) => BUCKET_ORDER[a.bucket] - BUCKET_ORDER[b.bucket] || (a.next?.date ?? "9999").localeCompare(b.next?.date ?? "9999") || a.householdName.localeCompare(b.householdName));
 }
 
-export type JobRecord = typeof job.$inferSelect;
-
 /** A job the person may see (another company's, or another crew's for an installer: not found). */
 export async function getJobRowOrThrow(member: Member, jobId: string): Promise<JobRecord> {
   const [row] = await db()
@@ -218,13 +218,6 @@ export async function getJobRowOrThrow(member: Member, jobId: string): Promise<J
   if (!row) throw notFound("Job");
   return row;
 }
-
-export type JobView = Omit<JobRecord, "checklist"> & {
-  checklist: JobChecklistItem[];
-  stage: Stage;
-  householdName: string;
-  crewName: string | null;
-};
 
 /** GET /api/jobs/[id]: the job with its checklist, stage and household name. */
 export async function getJobOrThrow(member: Member, jobId: string): Promise<JobView> {
@@ -481,18 +474,6 @@ export async function markJobInstalled(member: Member, jobId: string): Promise<J
   return getJobOrThrow(member, jobId);
 }
 
-export type JobPhotoView = {
-  id: string;
-  jobId: string;
-  mimeType: string;
-  widthPx: number;
-  heightPx: number;
-  sizeBytes: number;
-  caption: string | null;
-  uploadedByName: string | null;
-  createdAt: Date;
-};
-
 const photoColumns = {
   id: jobPhoto.id,
   jobId: jobPhoto.jobId,
@@ -580,31 +561,6 @@ export async function addJobPhoto(member: Member, jobId: string, file: { bytes: 
 }
 
 // ── The job packet (web and PDF) ─────────────────────────────────────────────────────────
-
-export type PacketFace = { name: string; tiltDeg: number; azimuthDeg: number; moduleCount: number };
-export type PacketBomLine = { item: string; detail: string; quantity: number; unit: string };
-export type JobPacket = {
-  job: JobView;
-  company: { name: string; licenseNumber: string | null };
-  customer: { name: string; contactName: string | null; phone: string | null; email: string | null; secondContactName: string | null; secondContactPhone: string | null };
-  site: { street: string; city: string; region: string; postalCode: string; latitude: number; longitude: number; mapUri: string; utilityName: string | null };
-  /** Where the equipment comes from: the signed proposal's chosen offer, or the deal's design. */
-  source: { kind: "proposal"; label: string } | { kind: "design"; label: string } | { kind: "none"; label: string };
-  faces: PacketFace[];
-  system: { moduleCount: number; kwDc: number; kwAc: number | null } | null;
-  bom: PacketBomLine[];
-  stringPlan: {
-    lowestTempC: number;
-    highestTempC: number;
-    stringSizes: number[];
-    check: StringPlanCheck;
-    notes: string[];
-  } | null;
-  cautions: string[];
-  sitePhotos: { id: string; fileName: string; mimeType: string }[];
-  photos: JobPhotoView[];
-  crewName: string | null;
-};
 
 function jsonValue(raw: unknown): unknown {
   return typeof raw === "string" ? JSON.parse(raw) : raw;
