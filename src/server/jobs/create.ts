@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { checklistTemplate, job } from "@/db/schema";
 import { parseTemplateItems, type JobChecklistItem } from "@/lib/schemas/jobs";
-import { type Tx } from "@/server/db";
+import type { Tx } from "@/server/db";
 import { recordEvent } from "@/server/timeline";
 
 // ── Creating the job (deposits call this in the webhook's transaction) ──────────────────

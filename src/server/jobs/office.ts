@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import { crew, deal, household, job, type Stage } from "@/db/schema";
-import { type JobFields } from "@/lib/schemas/jobs";
+import type { JobFields } from "@/lib/schemas/jobs";
 import { STAGE_LABELS } from "@/lib/stages";
 import { can } from "@/lib/permissions";
 import { db, type Tx } from "@/server/db";
