@@ -9,7 +9,7 @@ import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { storage } from "@/server/storage";
-import type { JobPacket, JobRecord, PacketBomLine, PacketFace } from "@/lib/job-packet";
+import type { JobPacket, JobRecord, PacketFace } from "@/lib/job-packet";
 import { listJobPhotos } from "./crew-work";
 import { getJobOrThrow, getJobRowOrThrow } from "./read";
 
@@ -62,9 +62,8 @@ function inverterUnits(inv: { kind: "string" | "micro"; modulesPerUnit?: number 
   return inv.kind === "micro" ? Math.ceil(moduleCount / Math.max(1, inv.modulesPerUnit ?? 1)) : stringInverters;
 }
 
-/** Everything the crew needs on site, for one job they may see. */
-export async function getJobPacket(member: Member, jobId: string): Promise<JobPacket> {
-  const j = await getJobOrThrow(member, jobId);
+/** The household and deal fields the packet shows (the deal's own company only). */
+async function siteOf(companyId: string, dealId: string) {
   const [h] = await db()
     .select({
       name: household.name,
@@ -83,8 +82,74 @@ export async function getJobPacket(member: Member, jobId: string): Promise<JobPa
     })
     .from(deal)
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
-    .where(and(eq(deal.id, j.dealId), eq(deal.companyId, member.companyId)))
+    .where(and(eq(deal.id, dealId), eq(deal.companyId, companyId)))
     .limit(1);
+  return h ?? null;
+}
+
+type PacketEquipment = Pick<JobPacket, "source" | "faces" | "bom" | "system">;
+
+/** What goes on the roof: the signed proposal's chosen offer first, else the deal's design. */
+function equipmentOf(
+  signed: { offer: ProposalSnapshotOffer; label: string } | null,
+  doc: DesignDocument | null,
+  mod: ModuleModel | null,
+  inv: InverterModel | null,
+  stringInverters: number,
+): PacketEquipment {
+  if (signed) {
+    const eqp = signed.offer.equipment;
+    const units = inverterUnits({ kind: eqp.inverter.kind, modulesPerUnit: inv?.modulesPerUnit }, eqp.moduleCount, stringInverters);
+    return {
+      source: { kind: "proposal", label: signed.label },
+      faces: eqp.faces.filter((f) => f.moduleCount > 0).map((f) => ({ name: f.name, tiltDeg: f.tiltDeg, azimuthDeg: f.azimuthDeg, moduleCount: f.moduleCount })),
+      bom: [
+        { item: "PV module", detail: `${eqp.module.manufacturer} ${eqp.module.model}, ${eqp.module.stcWatts} W STC`, quantity: eqp.moduleCount, unit: "pcs" },
+        {
+          item: eqp.inverter.kind === "micro" ? "Microinverter" : "String inverter",
+          detail: `${eqp.inverter.manufacturer} ${eqp.inverter.model}, ${eqp.inverter.acWatts} W AC`,
+          quantity: units,
+          unit: "pcs",
+        },
+      ],
+      system: {
+        moduleCount: eqp.moduleCount,
+        kwDc: (eqp.moduleCount * eqp.module.stcWatts) / 1000,
+        kwAc: (units * eqp.inverter.acWatts) / 1000,
+      },
+    };
+  }
+  if (doc && mod && inv) {
+    const faces: PacketFace[] = doc.faces.filter((f) => f.moduleCount > 0).map((f) => ({ name: f.name, tiltDeg: f.tiltDeg, azimuthDeg: f.azimuthDeg, moduleCount: f.moduleCount }));
+    const moduleCount = faces.reduce((s, f) => s + f.moduleCount, 0);
+    const units = inverterUnits(inv, moduleCount, stringInverters);
+    return {
+      source: { kind: "design", label: "The deal's design (no signed proposal on record)" },
+      faces,
+      bom: [
+        { item: "PV module", detail: `${mod.manufacturer} ${mod.model}, ${mod.stcWatts} W STC`, quantity: moduleCount, unit: "pcs" },
+        { item: inv.kind === "micro" ? "Microinverter" : "String inverter", detail: `${inv.manufacturer} ${inv.model}, ${inv.acWatts} W AC`, quantity: units, unit: "pcs" },
+      ],
+      system: { moduleCount, kwDc: (moduleCount * mod.stcWatts) / 1000, kwAc: inverterAcKw(inv, stringInverters, moduleCount) },
+    };
+  }
+  return { source: { kind: "none", label: "No signed proposal or design yet" }, faces: [], bom: [], system: null };
+}
+
+/** The design's string plan checked against the module and string inverter (string inverters only). */
+function stringPlanOf(doc: DesignDocument | null, mod: ModuleModel | null, inv: InverterModel | null, stringInverters: number, system: JobPacket["system"]): JobPacket["stringPlan"] {
+  if (!doc?.stringPlan || !mod || !inv || inv.kind !== "string") return null;
+  const check = checkStringPlan(mod, inv, stringInverters, doc.stringPlan);
+  const notes: string[] = [];
+  const planned = doc.stringPlan.stringSizes.reduce((s, n) => s + n, 0);
+  if (system && planned !== system.moduleCount) notes.push(`The strings hold ${planned} modules; the system has ${system.moduleCount}. Ask the office before wiring.`);
+  return { lowestTempC: doc.stringPlan.lowestTempC, highestTempC: doc.stringPlan.highestTempC, stringSizes: doc.stringPlan.stringSizes, check, notes };
+}
+
+/** Everything the crew needs on site, for one job they may see. */
+export async function getJobPacket(member: Member, jobId: string): Promise<JobPacket> {
+  const j = await getJobOrThrow(member, jobId);
+  const h = await siteOf(member.companyId, j.dealId);
   if (!h) throw notFound("Job");
   const [co] = await db()
     .select({ name: company.name, licenseNumber: company.licenseNumber })
@@ -98,50 +163,8 @@ export async function getJobPacket(member: Member, jobId: string): Promise<JobPa
   const inverterId = signed?.offer.inputs.inverterId ?? doc?.inverterId ?? null;
   const { mod, inv } = await catalogPair(member.companyId, moduleId, inverterId);
   const stringInverters = doc?.inverterCount ?? 1;
-
-  let faces: PacketFace[] = [];
-  let bom: PacketBomLine[] = [];
-  let system: JobPacket["system"] = null;
-  let source: JobPacket["source"] = { kind: "none", label: "No signed proposal or design yet" };
-  if (signed) {
-    const eqp = signed.offer.equipment;
-    source = { kind: "proposal", label: signed.label };
-    faces = eqp.faces.filter((f) => f.moduleCount > 0).map((f) => ({ name: f.name, tiltDeg: f.tiltDeg, azimuthDeg: f.azimuthDeg, moduleCount: f.moduleCount }));
-    const units = inverterUnits({ kind: eqp.inverter.kind, modulesPerUnit: inv?.modulesPerUnit }, eqp.moduleCount, stringInverters);
-    bom = [
-      { item: "PV module", detail: `${eqp.module.manufacturer} ${eqp.module.model}, ${eqp.module.stcWatts} W STC`, quantity: eqp.moduleCount, unit: "pcs" },
-      {
-        item: eqp.inverter.kind === "micro" ? "Microinverter" : "String inverter",
-        detail: `${eqp.inverter.manufacturer} ${eqp.inverter.model}, ${eqp.inverter.acWatts} W AC`,
-        quantity: units,
-        unit: "pcs",
-      },
-    ];
-    system = {
-      moduleCount: eqp.moduleCount,
-      kwDc: (eqp.moduleCount * eqp.module.stcWatts) / 1000,
-      kwAc: (units * eqp.inverter.acWatts) / 1000,
-    };
-  } else if (doc && mod && inv) {
-    source = { kind: "design", label: "The deal's design (no signed proposal on record)" };
-    faces = doc.faces.filter((f) => f.moduleCount > 0).map((f) => ({ name: f.name, tiltDeg: f.tiltDeg, azimuthDeg: f.azimuthDeg, moduleCount: f.moduleCount }));
-    const moduleCount = faces.reduce((s, f) => s + f.moduleCount, 0);
-    const units = inverterUnits(inv, moduleCount, stringInverters);
-    bom = [
-      { item: "PV module", detail: `${mod.manufacturer} ${mod.model}, ${mod.stcWatts} W STC`, quantity: moduleCount, unit: "pcs" },
-      { item: inv.kind === "micro" ? "Microinverter" : "String inverter", detail: `${inv.manufacturer} ${inv.model}, ${inv.acWatts} W AC`, quantity: units, unit: "pcs" },
-    ];
-    system = { moduleCount, kwDc: (moduleCount * mod.stcWatts) / 1000, kwAc: inverterAcKw(inv, stringInverters, moduleCount) };
-  }
-
-  let stringPlan: JobPacket["stringPlan"] = null;
-  if (doc?.stringPlan && mod && inv && inv.kind === "string") {
-    const check = checkStringPlan(mod, inv, stringInverters, doc.stringPlan);
-    const notes: string[] = [];
-    const planned = doc.stringPlan.stringSizes.reduce((s, n) => s + n, 0);
-    if (system && planned !== system.moduleCount) notes.push(`The strings hold ${planned} modules; the system has ${system.moduleCount}. Ask the office before wiring.`);
-    stringPlan = { lowestTempC: doc.stringPlan.lowestTempC, highestTempC: doc.stringPlan.highestTempC, stringSizes: doc.stringPlan.stringSizes, check, notes };
-  }
+  const { source, faces, bom, system } = equipmentOf(signed, doc, mod, inv, stringInverters);
+  const stringPlan = stringPlanOf(doc, mod, inv, stringInverters, system);
 
   const sitePhotos = await db()
     .select({ id: upload.id, fileName: upload.fileName, mimeType: upload.mimeType })

@@ -8,7 +8,7 @@ import { db } from "@/server/db";
 import { forbidden, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { stripe } from "@/server/stripe";
-import { BOOKED_STATUSES, COUNTED_REFUND_STATES, DEMO_SESSION_PREFIX, DEPOSIT_CURRENCY, idOf, type PaymentAlertRow, providerError } from "./common";
+import { BOOKED_STATUSES, COUNTED_REFUND_STATES, DEMO_SESSION_PREFIX, DEPOSIT_CURRENCY, idOf, type PaymentAlertRow, type PaymentRow, providerError, type RefundRow } from "./common";
 
 // ── Reconciliation: the ledger against the provider's own lists ─────────────────────────────
 
@@ -55,22 +55,8 @@ function providerPaymentState(s: Stripe.Checkout.Session): "paid" | "open" | "ex
   return s.status === "expired" ? "expired" : "open";
 }
 
-/**
- * Compares the company's ledger with the provider's Checkout Sessions and refunds (every page
- * of both lists, through the SDK's auto-pagination). A session belongs to the company by the
- * metadata we set on it; a refund by its PaymentIntent's session.
- */
-export async function reconcileLedger(member: Member): Promise<Reconciliation> {
-  if (!can(member.role, "payments:reconcile")) throw forbidden("reconciling payments");
-  const companyId = member.companyId;
-  const [ledgerPayments, ledgerRefunds] = await Promise.all([
-    db().select().from(payment).where(eq(payment.companyId, companyId)),
-    db().select().from(refund).where(eq(refund.companyId, companyId)),
-  ]);
-  const demoPaymentIds = new Set(ledgerPayments.filter((p) => p.checkoutSessionId.startsWith(DEMO_SESSION_PREFIX)).map((p) => p.id));
-  const payments = ledgerPayments.filter((p) => !demoPaymentIds.has(p.id));
-  const refunds = ledgerRefunds.filter((r) => !demoPaymentIds.has(r.paymentId));
-
+/** The provider's sessions of the company (by the metadata we set) and their refunds, every page. */
+async function providerRecords(companyId: string) {
   const sessions: Stripe.Checkout.Session[] = [];
   try {
     for await (const s of stripe().checkout.sessions.list({ limit: 100 })) if (s.metadata?.companyId === companyId) sessions.push(s);
@@ -91,7 +77,11 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
   } catch (err) {
     throw providerError(err);
   }
+  return { sessions, sessionByPi, providerRefunds };
+}
 
+/** Sessions against ledger payments: missing on either side, amounts, states and refunded sums. */
+function paymentDifferences(sessions: Stripe.Checkout.Session[], payments: PaymentRow[], providerRefunds: Stripe.Refund[]): ReconciliationDifference[] {
   const differences: ReconciliationDifference[] = [];
   const paymentBySession = new Map(payments.map((p) => [p.checkoutSessionId, p]));
   const refundedAtProvider = new Map<string, number>();
@@ -157,7 +147,12 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
       detail: `Ledger payment of ${formatCentsExact(row.amountCents, row.currency)} (${row.status}) has no Checkout Session at the provider.`,
     });
   }
+  return differences;
+}
 
+/** Provider refunds against ledger refunds: missing on either side, amounts and states. */
+function refundDifferences(providerRefunds: Stripe.Refund[], sessionByPi: Map<string, Stripe.Checkout.Session>, refunds: RefundRow[], payments: PaymentRow[]): ReconciliationDifference[] {
+  const differences: ReconciliationDifference[] = [];
   const refundByStripeId = new Map(refunds.map((r) => [r.stripeRefundId, r]));
   const paymentById = new Map(payments.map((p) => [p.id, p]));
   for (const r of providerRefunds) {
@@ -193,6 +188,28 @@ export async function reconcileLedger(member: Member): Promise<Reconciliation> {
       detail: `Ledger refund of ${formatCentsExact(row.amountCents, p?.currency)} is not at the provider.`,
     });
   }
+  return differences;
+}
+
+/**
+ * Compares the company's ledger with the provider's Checkout Sessions and refunds (every page
+ * of both lists, through the SDK's auto-pagination). A session belongs to the company by the
+ * metadata we set on it; a refund by its PaymentIntent's session.
+ */
+export async function reconcileLedger(member: Member): Promise<Reconciliation> {
+  if (!can(member.role, "payments:reconcile")) throw forbidden("reconciling payments");
+  const companyId = member.companyId;
+  const [ledgerPayments, ledgerRefunds] = await Promise.all([
+    db().select().from(payment).where(eq(payment.companyId, companyId)),
+    db().select().from(refund).where(eq(refund.companyId, companyId)),
+  ]);
+  const demoPaymentIds = new Set(ledgerPayments.filter((p) => p.checkoutSessionId.startsWith(DEMO_SESSION_PREFIX)).map((p) => p.id));
+  const payments = ledgerPayments.filter((p) => !demoPaymentIds.has(p.id));
+  const refunds = ledgerRefunds.filter((r) => !demoPaymentIds.has(r.paymentId));
+
+  const { sessions, sessionByPi, providerRefunds } = await providerRecords(companyId);
+
+  const differences = [...paymentDifferences(sessions, payments, providerRefunds), ...refundDifferences(providerRefunds, sessionByPi, refunds, payments)];
 
   return {
     checkedAt: new Date(),

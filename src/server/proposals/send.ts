@@ -12,7 +12,7 @@ import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
 import { getInverterOrThrow, getModuleOrThrow } from "@/server/catalog";
-import { db } from "@/server/db";
+import { db, type Tx } from "@/server/db";
 import { getDealOrThrow, getDealRoom } from "@/server/deals";
 import { getDesignForDeal } from "@/server/designs";
 import { getDealUsage } from "@/server/energy";
@@ -132,6 +132,50 @@ function isDuplicateKey(err: unknown): boolean {
 }
 
 /**
+ * Under a lock on the company row: the deal's earlier versions and the next number and version
+ * (a deal's first proposal takes the company's next number, later ones the next version).
+ */
+async function nextNumbering(tx: Tx, companyId: string, dealId: string) {
+  await tx.select({ id: company.id }).from(company).where(eq(company.id, companyId)).for("update");
+  const earlier = await tx
+    .select({ id: proposal.id, number: proposal.number, version: proposal.version, status: proposal.status })
+    .from(proposal)
+    .where(and(eq(proposal.companyId, companyId), eq(proposal.dealId, dealId)));
+  const signed = earlier.find((p) => p.status === "signed");
+  if (signed) throw new HttpError(409, "already_signed", `${labelOf(signed)} of this deal is signed; a signed agreement is not replaced by a new version.`);
+  let number: number;
+  let version: number;
+  if (earlier.length > 0) {
+    number = earlier[0].number;
+    version = Math.max(...earlier.map((p) => p.version)) + 1;
+  } else {
+    const [top] = await tx.select({ n: max(proposal.number) }).from(proposal).where(eq(proposal.companyId, companyId));
+    number = Math.max(FIRST_PROPOSAL_NUMBER, (top?.n ?? FIRST_PROPOSAL_NUMBER - 1) + 1);
+    version = 1;
+  }
+  return { earlier, number, version };
+}
+
+/** Marks the deal's live earlier versions replaced by the new one. */
+async function markReplaced(tx: Tx, companyId: string, live: { id: string }[], id: string): Promise<void> {
+  if (live.length > 0) {
+    await tx
+      .update(proposal)
+      .set({ status: "replaced", replacedByProposalId: id })
+      .where(
+        and(
+          eq(proposal.companyId, companyId),
+          inArray(
+            proposal.id,
+            live.map((p) => p.id),
+          ),
+          eq(proposal.status, "sent"),
+        ),
+      );
+  }
+}
+
+/**
  * Freezes the chosen offers (all by default) into a new proposal version, renders and stores
  * its PDF, marks earlier live versions of the deal replaced, moves the deal to Proposal out and
  * e-mails the link. Numbering happens under a lock on the company row: a deal's first proposal
@@ -153,23 +197,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   let numbering: { number: number; version: number };
   try {
     numbering = await withFilesUndoneOnFailure((put) => db().transaction(async (tx) => {
-      await tx.select({ id: company.id }).from(company).where(eq(company.id, member.companyId)).for("update");
-      const earlier = await tx
-        .select({ id: proposal.id, number: proposal.number, version: proposal.version, status: proposal.status })
-        .from(proposal)
-        .where(and(eq(proposal.companyId, member.companyId), eq(proposal.dealId, dealId)));
-      const signed = earlier.find((p) => p.status === "signed");
-      if (signed) throw new HttpError(409, "already_signed", `${labelOf(signed)} of this deal is signed; a signed agreement is not replaced by a new version.`);
-      let number: number;
-      let version: number;
-      if (earlier.length > 0) {
-        number = earlier[0].number;
-        version = Math.max(...earlier.map((p) => p.version)) + 1;
-      } else {
-        const [top] = await tx.select({ n: max(proposal.number) }).from(proposal).where(eq(proposal.companyId, member.companyId));
-        number = Math.max(FIRST_PROPOSAL_NUMBER, (top?.n ?? FIRST_PROPOSAL_NUMBER - 1) + 1);
-        version = 1;
-      }
+      const { earlier, number, version } = await nextNumbering(tx, member.companyId, dealId);
       const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
       await put(key, pdf);
       await tx.insert(proposal).values({
@@ -190,21 +218,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
         createdAt: sentAt,
       });
       const live = earlier.filter((p) => p.status === "sent");
-      if (live.length > 0) {
-        await tx
-          .update(proposal)
-          .set({ status: "replaced", replacedByProposalId: id })
-          .where(
-            and(
-              eq(proposal.companyId, member.companyId),
-              inArray(
-                proposal.id,
-                live.map((p) => p.id),
-              ),
-              eq(proposal.status, "sent"),
-            ),
-          );
-      }
+      await markReplaced(tx, member.companyId, live, id);
       const label = proposalLabel(number, version);
       await insertProposalEvent(tx, { companyId: member.companyId, proposalId: id, kind: "sent", body: `to ${toEmail}`, actorUserId: member.userId, at: sentAt });
       const offerNames = snapshot.offers.map((o) => `"${o.name}"`).join(", ");
