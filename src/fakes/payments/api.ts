@@ -1,13 +1,14 @@
 import type { IncomingMessage, ServerResponse } from "node:http";
-import { StripeApiError, invalidParam, invalidRequest, noSuch } from "./errors";
+import { StripeApiError, invalidRequest } from "./errors";
 import { canonicalParams } from "./form";
-import { newId, nowSeconds, publicView } from "./objects";
-import { API_VERSION, type ApiResult, type FakeContext, type RequestInfo } from "./context";
+import { newId, nowSeconds } from "./objects";
+import { API_VERSION, ApiCall, type ApiResult, type FakeContext, type RequestInfo } from "./context";
 import { checkAuth, parseParams, readBody, send } from "./http";
-import { listOf, one } from "./lists";
-import { list, LIST_PARAMS, onlyKnown, type Params, str } from "./params";
-import { createRefund } from "./refunds";
-import { armExpiry, createSession, expireSession, sessionOrThrow, sweepExpired } from "./sessions";
+import { type Params } from "./params";
+import { routeRefunds } from "./refunds";
+import { armExpiry, routeSessions, sweepExpired } from "./sessions";
+import { routeEvents } from "./events";
+import { routePaymentIntents, routeCharges } from "./paying";
 
 // ── The API: routing, idempotency, authentication ──────────────────────────────────────────────
 
@@ -15,7 +16,6 @@ const IDEMPOTENCY_WINDOW_S = 24 * 3600;
 const MAX_IDEMPOTENCY_KEY = 255;
 
 function routeApi(ctx: FakeContext, method: string, parts: string[], params: Params, request: RequestInfo): ApiResult {
-  const ok = (body: unknown): ApiResult => ({ status: 200, body });
   const pathText = `/${parts.join("/")}`;
   const unrecognized = () =>
     invalidRequest(
@@ -24,115 +24,13 @@ function routeApi(ctx: FakeContext, method: string, parts: string[], params: Par
       undefined,
       404,
     );
-  const [, resource, a, b, c] = parts; // parts[0] === "v1"
-
-  if (resource === "checkout" && a === "sessions") {
-    if (b === undefined) {
-      if (method === "POST") return ok(one(ctx, "checkout.session", createSession(ctx, params), params));
-      if (method === "GET") {
-        onlyKnown(params, [...LIST_PARAMS, "status", "payment_intent", "customer_details", "payment_link", "customer", "subscription"]);
-        const status = str(params, "status");
-        const piFilter = str(params, "payment_intent");
-        return ok(
-          listOf(ctx, "checkout.session", ctx.store.sessions.newestFirst(), params, "/v1/checkout/sessions", (s) => (status === null || s.status === status) && (piFilter === null || s.payment_intent === piFilter)),
-        );
-      }
-      throw unrecognized();
-    }
-    const session = sessionOrThrow(ctx, b);
-    if (c === undefined && method === "GET") {
-      onlyKnown(params, ["expand"]);
-      return ok(one(ctx, "checkout.session", session, params));
-    }
-    if (c === "expire" && method === "POST" && parts.length === 5) {
-      onlyKnown(params, ["expand"]);
-      if (session.status !== "open") {
-        throw invalidRequest(`Only Checkout Sessions with a status in ["open"] can be expired. This Checkout Session has a status of "${session.status}".`, "session");
-      }
-      expireSession(ctx, session, request);
-      armExpiry(ctx);
-      return ok(one(ctx, "checkout.session", session, params));
-    }
-    if (c === "line_items" && method === "GET" && parts.length === 5) {
-      onlyKnown(params, LIST_PARAMS);
-      const items = [...session._line_items].map((li) => ({ ...li, created: 0 }));
-      const listed = listOf(ctx, "item", items, params, `/v1/checkout/sessions/${session.id}/line_items`);
-      return ok({ ...listed, data: (listed.data as Record<string, unknown>[]).map(({ created: _created, ...li }) => li) });
-    }
-    throw unrecognized();
-  }
-
-  if (resource === "payment_intents" && method === "GET" && b === undefined) {
-    if (a === undefined) {
-      onlyKnown(params, [...LIST_PARAMS, "customer"]);
-      return ok(listOf(ctx, "payment_intent", ctx.store.paymentIntents.newestFirst(), params, "/v1/payment_intents"));
-    }
-    onlyKnown(params, ["expand", "client_secret"]);
-    const pi = ctx.store.paymentIntents.get(a);
-    if (!pi) throw noSuch("payment_intent", a, "intent");
-    return ok(one(ctx, "payment_intent", pi, params));
-  }
-
-  if (resource === "charges" && method === "GET" && b === undefined) {
-    if (a === undefined) {
-      onlyKnown(params, [...LIST_PARAMS, "payment_intent", "customer", "transfer_group"]);
-      const piFilter = str(params, "payment_intent");
-      return ok(listOf(ctx, "charge", ctx.store.charges.newestFirst(), params, "/v1/charges", (ch) => piFilter === null || ch.payment_intent === piFilter));
-    }
-    onlyKnown(params, ["expand"]);
-    const charge = ctx.store.charges.get(a);
-    if (!charge) throw noSuch("charge", a, "charge");
-    return ok(one(ctx, "charge", charge, params));
-  }
-
-  if (resource === "refunds" && b === undefined) {
-    if (a === undefined && method === "POST") return ok(one(ctx, "refund", createRefund(ctx, params, request), params));
-    if (a === undefined && method === "GET") {
-      onlyKnown(params, [...LIST_PARAMS, "payment_intent", "charge"]);
-      const piFilter = str(params, "payment_intent");
-      const chargeFilter = str(params, "charge");
-      return ok(
-        listOf(ctx, "refund", ctx.store.refunds.newestFirst(), params, "/v1/refunds", (r) => (piFilter === null || r.payment_intent === piFilter) && (chargeFilter === null || r.charge === chargeFilter)),
-      );
-    }
-    if (a !== undefined && method === "GET") {
-      onlyKnown(params, ["expand"]);
-      const refund = ctx.store.refunds.get(a);
-      if (!refund) throw noSuch("refund", a, "refund");
-      return ok(one(ctx, "refund", refund, params));
-    }
-    throw unrecognized();
-  }
-
-  if (resource === "events" && method === "GET" && b === undefined) {
-    if (a === undefined) {
-      onlyKnown(params, [...LIST_PARAMS, "type", "types", "delivery_success"]);
-      const type = str(params, "type");
-      const typesRaw = list(params, "types");
-      const types = typesRaw ? typesRaw.map((t, i) => (typeof t === "string" ? t : (() => { throw invalidParam(`types[${i}]`, "Invalid string"); })())) : null;
-      if (type !== null && types !== null) throw invalidRequest("You may only specify one of these parameters: type, types.", "type");
-      const matches = (pattern: string, t: string) => (pattern.endsWith(".*") ? t.startsWith(pattern.slice(0, -1)) : pattern === t);
-      const successRaw = str(params, "delivery_success");
-      const deliveredFilter = successRaw === null ? null : successRaw === "true";
-      return ok(
-        listOf(ctx, "event", ctx.store.events.newestFirst(), params, "/v1/events", (e) => {
-          if (type !== null && !matches(type, e.type)) return false;
-          if (types !== null && !types.some((t) => matches(t, e.type))) return false;
-          if (deliveredFilter !== null) {
-            const ds = ctx.store.deliveries.all().filter((d) => d.eventId === e.id);
-            const delivered = ds.length > 0 && ds.every((d) => d.status === "delivered");
-            if (delivered !== deliveredFilter) return false;
-          }
-          return true;
-        }),
-      );
-    }
-    onlyKnown(params, ["expand"]);
-    const event = ctx.store.events.get(a);
-    if (!event) throw noSuch("event", a, "id");
-    return ok(publicView(event));
-  }
-
+  const call: ApiCall = { method, parts, params, request, unrecognized };
+  const [, resource, a, b] = parts; // parts[0] === "v1"
+  if (resource === "checkout" && a === "sessions") return routeSessions(ctx, call);
+  if (resource === "payment_intents" && method === "GET" && b === undefined) return routePaymentIntents(ctx, call);
+  if (resource === "charges" && method === "GET" && b === undefined) return routeCharges(ctx, call);
+  if (resource === "refunds" && b === undefined) return routeRefunds(ctx, call);
+  if (resource === "events" && method === "GET" && b === undefined) return routeEvents(ctx, call);
   throw unrecognized();
 }
 

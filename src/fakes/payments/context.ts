@@ -1,3 +1,5 @@
+import type { StripeApiError } from "./errors";
+import type { Params } from "./params";
 import type { PaymentsStore } from "./store";
 import type { WebhookSender } from "./webhooks";
 
@@ -29,3 +31,14 @@ export interface ApiResult {
   status: number;
   body: unknown;
 }
+
+/** One API call as a resource's routes see it; `unrecognized` is the 404 for a path no route has. */
+export interface ApiCall {
+  method: string;
+  parts: string[];
+  params: Params;
+  request: RequestInfo;
+  unrecognized: () => StripeApiError;
+}
+
+export const ok = (body: unknown): ApiResult => ({ status: 200, body });

@@ -1,7 +1,10 @@
 import { outcomeOf, type CardDecline, type CheckedCard } from "./cards";
 import { newId, nowSeconds, type CardDetails, type Charge, type CheckoutSession, type PaymentIntent } from "./objects";
-import { type FakeContext, type RequestInfo } from "./context";
+import { type ApiCall, type ApiResult, type FakeContext, ok, type RequestInfo } from "./context";
 import { emit } from "./events";
+import { noSuch } from "./errors";
+import { listOf, one } from "./lists";
+import { onlyKnown, LIST_PARAMS, str } from "./params";
 
 // ── Paying: PaymentIntents and Charges ──────────────────────────────────────────────
 
@@ -51,6 +54,8 @@ function paymentIntentFor(ctx: FakeContext, session: CheckoutSession, request: R
  * One payment attempt with a card that passed the form's checks. On success the session is
  * complete and paid; on a decline the PaymentIntent carries last_payment_error and the
  * session stays open for another card.
+ * (Over 80 lines on purpose: most of it is the one Charge object, field by field as the service
+ * shows it; splitting it would scatter the object.)
  */
 export function pay(ctx: FakeContext, session: CheckoutSession, card: CheckedCard, email: string | null, request: RequestInfo): { ok: true } | { ok: false; decline: CardDecline } {
   const pi = paymentIntentFor(ctx, session, request);
@@ -132,4 +137,33 @@ export function pay(ctx: FakeContext, session: CheckoutSession, card: CheckedCar
   emit(ctx, "payment_intent.succeeded", pi, request);
   emit(ctx, "checkout.session.completed", session, request);
   return { ok: true };
+}
+
+/** GET /v1/payment_intents[/:id] */
+export function routePaymentIntents(ctx: FakeContext, call: ApiCall): ApiResult {
+  const { parts, params } = call;
+  const [, , a] = parts; // parts[0] === "v1"
+  if (a === undefined) {
+    onlyKnown(params, [...LIST_PARAMS, "customer"]);
+    return ok(listOf(ctx, "payment_intent", ctx.store.paymentIntents.newestFirst(), params, "/v1/payment_intents"));
+  }
+  onlyKnown(params, ["expand", "client_secret"]);
+  const pi = ctx.store.paymentIntents.get(a);
+  if (!pi) throw noSuch("payment_intent", a, "intent");
+  return ok(one(ctx, "payment_intent", pi, params));
+}
+
+/** GET /v1/charges[/:id] */
+export function routeCharges(ctx: FakeContext, call: ApiCall): ApiResult {
+  const { parts, params } = call;
+  const [, , a] = parts; // parts[0] === "v1"
+  if (a === undefined) {
+    onlyKnown(params, [...LIST_PARAMS, "payment_intent", "customer", "transfer_group"]);
+    const piFilter = str(params, "payment_intent");
+    return ok(listOf(ctx, "charge", ctx.store.charges.newestFirst(), params, "/v1/charges", (ch) => piFilter === null || ch.payment_intent === piFilter));
+  }
+  onlyKnown(params, ["expand"]);
+  const charge = ctx.store.charges.get(a);
+  if (!charge) throw noSuch("charge", a, "charge");
+  return ok(one(ctx, "charge", charge, params));
 }

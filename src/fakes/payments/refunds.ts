@@ -1,8 +1,9 @@
 import { invalidParam, invalidRequest, noSuch } from "./errors";
 import { formatAmount, newId, nowSeconds, publicView, type Charge, type PaymentIntent, type Refund } from "./objects";
-import { type FakeContext, type RequestInfo } from "./context";
+import { type ApiCall, type ApiResult, type FakeContext, ok, type RequestInfo } from "./context";
 import { emit } from "./events";
-import { int, metadataOf, onlyKnown, type Params, str } from "./params";
+import { int, LIST_PARAMS, metadataOf, onlyKnown, type Params, str } from "./params";
+import { one, listOf } from "./lists";
 
 // ── Refunds ──────────────────────────────────────────────
 
@@ -73,4 +74,26 @@ export function createRefund(ctx: FakeContext, params: Params, request: RequestI
   emit(ctx, "refund.created", refund, request);
   emit(ctx, "charge.refunded", charge, request, charge.refunded ? previous : { amount_refunded: previous.amount_refunded, refunds: previous.refunds });
   return refund;
+}
+
+/** /v1/refunds[/:id] */
+export function routeRefunds(ctx: FakeContext, call: ApiCall): ApiResult {
+  const { parts, method, params, request, unrecognized } = call;
+  const [, , a] = parts; // parts[0] === "v1"
+  if (a === undefined && method === "POST") return ok(one(ctx, "refund", createRefund(ctx, params, request), params));
+  if (a === undefined && method === "GET") {
+    onlyKnown(params, [...LIST_PARAMS, "payment_intent", "charge"]);
+    const piFilter = str(params, "payment_intent");
+    const chargeFilter = str(params, "charge");
+    return ok(
+      listOf(ctx, "refund", ctx.store.refunds.newestFirst(), params, "/v1/refunds", (r) => (piFilter === null || r.payment_intent === piFilter) && (chargeFilter === null || r.charge === chargeFilter)),
+    );
+  }
+  if (a !== undefined && method === "GET") {
+    onlyKnown(params, ["expand"]);
+    const refund = ctx.store.refunds.get(a);
+    if (!refund) throw noSuch("refund", a, "refund");
+    return ok(one(ctx, "refund", refund, params));
+  }
+  throw unrecognized();
 }

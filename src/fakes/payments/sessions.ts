@@ -1,9 +1,10 @@
 import { invalidParam, invalidRequest, missingParam, noSuch } from "./errors";
 import type { ParamValue } from "./form";
 import { newId, nowSeconds, type CheckoutSession, type LineItem } from "./objects";
-import { AUTOMATIC, type FakeContext, type RequestInfo } from "./context";
+import { type ApiCall, type ApiResult, AUTOMATIC, type FakeContext, ok, type RequestInfo } from "./context";
 import { emit } from "./events";
-import { currencyOf, int, list, metadataOf, obj, onlyKnown, type Params, str, urlOf } from "./params";
+import { currencyOf, int, list, LIST_PARAMS, metadataOf, obj, onlyKnown, type Params, str, urlOf } from "./params";
+import { one, listOf } from "./lists";
 
 // ── Checkout Sessions ──────────────────────────────────────────────
 
@@ -90,6 +91,10 @@ function lineItemOf(raw: ParamValue, index: number, now: number): LineItem {
   };
 }
 
+/**
+ * POST /v1/checkout/sessions. (Over 80 lines on purpose: half of it is the session object, field
+ * by field as the service shows it, next to the checks that fill it.)
+ */
 export function createSession(ctx: FakeContext, params: Params): CheckoutSession {
   onlyKnown(params, SESSION_CREATE_PARAMS);
   const now = nowSeconds();
@@ -223,4 +228,43 @@ export function armExpiry(ctx: FakeContext): void {
     armExpiry(ctx);
   }, wait);
   ctx.expiryTimer.unref?.();
+}
+
+/** /v1/checkout/sessions[/:id[/expire|/line_items]] */
+export function routeSessions(ctx: FakeContext, call: ApiCall): ApiResult {
+  const { method, parts, params, request, unrecognized } = call;
+  const [, , , b, c] = parts; // /v1/checkout/sessions/:id/…
+  if (b === undefined) {
+    if (method === "POST") return ok(one(ctx, "checkout.session", createSession(ctx, params), params));
+    if (method === "GET") {
+      onlyKnown(params, [...LIST_PARAMS, "status", "payment_intent", "customer_details", "payment_link", "customer", "subscription"]);
+      const status = str(params, "status");
+      const piFilter = str(params, "payment_intent");
+      return ok(
+        listOf(ctx, "checkout.session", ctx.store.sessions.newestFirst(), params, "/v1/checkout/sessions", (s) => (status === null || s.status === status) && (piFilter === null || s.payment_intent === piFilter)),
+      );
+    }
+    throw unrecognized();
+  }
+  const session = sessionOrThrow(ctx, b);
+  if (c === undefined && method === "GET") {
+    onlyKnown(params, ["expand"]);
+    return ok(one(ctx, "checkout.session", session, params));
+  }
+  if (c === "expire" && method === "POST" && parts.length === 5) {
+    onlyKnown(params, ["expand"]);
+    if (session.status !== "open") {
+      throw invalidRequest(`Only Checkout Sessions with a status in ["open"] can be expired. This Checkout Session has a status of "${session.status}".`, "session");
+    }
+    expireSession(ctx, session, request);
+    armExpiry(ctx);
+    return ok(one(ctx, "checkout.session", session, params));
+  }
+  if (c === "line_items" && method === "GET" && parts.length === 5) {
+    onlyKnown(params, LIST_PARAMS);
+    const items = [...session._line_items].map((li) => ({ ...li, created: 0 }));
+    const listed = listOf(ctx, "item", items, params, `/v1/checkout/sessions/${session.id}/line_items`);
+    return ok({ ...listed, data: (listed.data as Record<string, unknown>[]).map(({ created: _created, ...li }) => li) });
+  }
+  throw unrecognized();
 }
