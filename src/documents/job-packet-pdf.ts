@@ -3,7 +3,7 @@
 // with each NEC check and its numbers, the cautions, the office's notes, the install checklist
 // as tick boxes (ticked ones dated) and the photos. Same input, same bytes.
 import { PDFDocument, type PDFImage } from "pdf-lib";
-import type { JobPacket } from "@/server/jobs";
+import type { JobPacket } from "@/lib/job-packet";
 import { embedFonts } from "./fonts";
 import {
   COLORS,

@@ -1,4 +1,4 @@
-// Freezing offers into a proposal: the pure part, shared by the server (src/server/proposals.ts)
+// Freezing offers into a proposal: the pure part, shared by the server (src/server/proposals/)
 // and the demo seed (scripts/lib/seed/proposals.ts). It copies every figure and turns the
 // assumptions behind them into sentences, so the customer's page and the PDF read only the
 // snapshot, never the live offers, catalog or price book. Also: the states a proposal link can

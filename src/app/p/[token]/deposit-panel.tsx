@@ -1,5 +1,5 @@
 // The deposit on the customer's page, after signing: what is due, the Pay button, and the
-// payment's state as the provider's webhook set it (src/server/payments.ts).
+// payment's state as the provider's webhook set it (src/server/payments/).
 import { depositForProposal } from "@/server/payments";
 import { findProposalByToken } from "@/server/proposals";
 import { DepositPanelClient } from "./deposit-panel-client";

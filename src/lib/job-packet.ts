@@ -1,0 +1,51 @@
+// The job packet's shape, shared by the server (src/server/jobs) and the PDF renderer
+// (src/documents), which must not import the server.
+import type { job, Stage } from "@/db/schema";
+import type { StringPlanCheck } from "@/lib/offer-figures";
+import type { JobChecklistItem } from "@/lib/schemas/jobs";
+
+export type JobRecord = typeof job.$inferSelect;
+
+export type JobView = Omit<JobRecord, "checklist"> & {
+  checklist: JobChecklistItem[];
+  stage: Stage;
+  householdName: string;
+  crewName: string | null;
+};
+
+export type JobPhotoView = {
+  id: string;
+  jobId: string;
+  mimeType: string;
+  widthPx: number;
+  heightPx: number;
+  sizeBytes: number;
+  caption: string | null;
+  uploadedByName: string | null;
+  createdAt: Date;
+};
+
+export type PacketFace = { name: string; tiltDeg: number; azimuthDeg: number; moduleCount: number };
+export type PacketBomLine = { item: string; detail: string; quantity: number; unit: string };
+export type JobPacket = {
+  job: JobView;
+  company: { name: string; licenseNumber: string | null };
+  customer: { name: string; contactName: string | null; phone: string | null; email: string | null; secondContactName: string | null; secondContactPhone: string | null };
+  site: { street: string; city: string; region: string; postalCode: string; latitude: number; longitude: number; mapUri: string; utilityName: string | null };
+  /** Where the equipment comes from: the signed proposal's chosen offer, or the deal's design. */
+  source: { kind: "proposal"; label: string } | { kind: "design"; label: string } | { kind: "none"; label: string };
+  faces: PacketFace[];
+  system: { moduleCount: number; kwDc: number; kwAc: number | null } | null;
+  bom: PacketBomLine[];
+  stringPlan: {
+    lowestTempC: number;
+    highestTempC: number;
+    stringSizes: number[];
+    check: StringPlanCheck;
+    notes: string[];
+  } | null;
+  cautions: string[];
+  sitePhotos: { id: string; fileName: string; mimeType: string }[];
+  photos: JobPhotoView[];
+  crewName: string | null;
+};

@@ -1,0 +1,187 @@
+import "server-only";
+import { and, asc, eq } from "drizzle-orm";
+import { checklistTemplate, job, jobPhoto, user } from "@/db/schema";
+import { parseJobChecklist, parseTemplateItems, type JobChecklistItem } from "@/lib/schemas/jobs";
+import { can } from "@/lib/permissions";
+import { db } from "@/server/db";
+import { HttpError, notFound } from "@/server/errors";
+import { normalizePhoto } from "@/server/photos";
+import type { Member } from "@/server/session";
+import { autoMoveStage } from "@/server/stages";
+import { storage } from "@/server/storage";
+import type { JobPhotoView, JobView } from "@/lib/job-packet";
+import { recordEvent } from "@/server/timeline";
+import { dealHouseholdName } from "./office";
+import { getJobOrThrow, getJobRowOrThrow } from "./read";
+
+// ── The crew's work: checklist, installed, photos ───────────────────────────────────────
+
+/** Ticks or unticks one checklist item, recording who and when (row locked against a lost update). */
+export async function setChecklistItem(member: Member, jobId: string, input: { itemId: string; done: boolean }): Promise<JobChecklistItem[]> {
+  await getJobRowOrThrow(member, jobId);
+  return db().transaction(async (tx) => {
+    const [row] = await tx
+      .select({ checklist: job.checklist })
+      .from(job)
+      .where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)))
+      .for("update");
+    if (!row) throw notFound("Job");
+    const items = parseJobChecklist(row.checklist);
+    const item = items.find((i) => i.id === input.itemId);
+    if (!item) throw new HttpError(422, "validation_failed", "itemId: This item is not on the job's checklist", { itemId: ["This item is not on the job's checklist"] });
+    if (input.done && !item.doneAt) {
+      item.doneAt = new Date().toISOString();
+      item.doneByUserId = member.userId;
+    } else if (!input.done) {
+      item.doneAt = null;
+      item.doneByUserId = null;
+    }
+    await tx
+      .update(job)
+      .set({ checklist: items })
+      .where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)));
+    return items;
+  });
+}
+
+/** The office copies the active checklist into a job that has none (e.g. created before any template existed). */
+export async function applyActiveChecklist(member: Member, jobId: string): Promise<JobChecklistItem[]> {
+  if (!can(member.role, "jobs:manage")) throw new HttpError(403, "forbidden", "Your role does not allow changing a job's checklist.");
+  await getJobRowOrThrow(member, jobId);
+  return db().transaction(async (tx) => {
+    const [row] = await tx.select({ checklist: job.checklist }).from(job).where(and(eq(job.id, jobId), eq(job.companyId, member.companyId))).for("update");
+    if (!row) throw notFound("Job");
+    if (parseJobChecklist(row.checklist).length > 0) throw new HttpError(409, "checklist_exists", "This job already has its checklist.");
+    const [template] = await tx
+      .select({ items: checklistTemplate.items })
+      .from(checklistTemplate)
+      .where(and(eq(checklistTemplate.companyId, member.companyId), eq(checklistTemplate.active, true)))
+      .orderBy(asc(checklistTemplate.name), asc(checklistTemplate.id))
+      .limit(1);
+    if (!template) throw new HttpError(409, "no_active_checklist", "No checklist is active. An admin can activate one under Settings → Checklists.");
+    const items = parseTemplateItems(template.items).map((i) => ({ id: i.id, label: i.label, doneAt: null, doneByUserId: null }));
+    await tx.update(job).set({ checklist: items }).where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)));
+    return items;
+  });
+}
+
+/** "Installed": the crew marks the work done; the deal moves to Installed in the same transaction. */
+export async function markJobInstalled(member: Member, jobId: string): Promise<JobView> {
+  const current = await getJobRowOrThrow(member, jobId);
+  if (current.installedAt) return getJobOrThrow(member, jobId);
+  await db().transaction(async (tx) => {
+    const installedAt = new Date();
+    const changed = await tx
+      .update(job)
+      .set({ installedAt })
+      .where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)));
+    if (changed[0].affectedRows !== 1) throw notFound("Job");
+    const name = await dealHouseholdName(tx, member.companyId, current.dealId);
+    const items = parseJobChecklist(current.checklist);
+    const open = items.filter((i) => !i.doneAt).length;
+    await recordEvent(tx, {
+      companyId: member.companyId,
+      dealId: current.dealId,
+      kind: "job.installed",
+      summary: `${member.name} marked the install done${open ? ` (${open} checklist item${open === 1 ? "" : "s"} still open)` : ""}`,
+      actorUserId: member.userId,
+      data: { jobId, checklistOpen: open },
+    });
+    await autoMoveStage(tx, {
+      companyId: member.companyId,
+      dealId: current.dealId,
+      from: ["deposit_paid", "survey", "permitting", "install_booked"],
+      to: "installed",
+      summary: `${name} moved to Installed: the crew marked the install done`,
+      actorUserId: member.userId,
+      data: { jobId, cause: "job" },
+    });
+  });
+  return getJobOrThrow(member, jobId);
+}
+
+const photoColumns = {
+  id: jobPhoto.id,
+  jobId: jobPhoto.jobId,
+  mimeType: jobPhoto.mimeType,
+  widthPx: jobPhoto.widthPx,
+  heightPx: jobPhoto.heightPx,
+  sizeBytes: jobPhoto.sizeBytes,
+  caption: jobPhoto.caption,
+  uploadedByName: user.name,
+  createdAt: jobPhoto.createdAt,
+};
+
+export async function listJobPhotos(member: Member, jobId: string): Promise<JobPhotoView[]> {
+  await getJobRowOrThrow(member, jobId);
+  return db()
+    .select(photoColumns)
+    .from(jobPhoto)
+    .leftJoin(user, eq(user.id, jobPhoto.uploadedByUserId))
+    .where(and(eq(jobPhoto.companyId, member.companyId), eq(jobPhoto.jobId, jobId)))
+    .orderBy(asc(jobPhoto.createdAt));
+}
+
+/** One photo's metadata, for a person who may see its job. */
+export async function getJobPhotoOrThrow(member: Member, photoId: string): Promise<JobPhotoView> {
+  const [row] = await db()
+    .select(photoColumns)
+    .from(jobPhoto)
+    .leftJoin(user, eq(user.id, jobPhoto.uploadedByUserId))
+    .where(and(eq(jobPhoto.id, photoId), eq(jobPhoto.companyId, member.companyId)))
+    .limit(1);
+  if (!row) throw notFound("Photo");
+  await getJobRowOrThrow(member, row.jobId).catch((err: unknown) => {
+    throw err instanceof HttpError && err.status === 404 ? notFound("Photo") : err;
+  });
+  return row;
+}
+
+export async function getJobPhotoFile(member: Member, photoId: string): Promise<{ bytes: Uint8Array; mimeType: string }> {
+  const meta = await getJobPhotoOrThrow(member, photoId);
+  const [row] = await db()
+    .select({ storageKey: jobPhoto.storageKey })
+    .from(jobPhoto)
+    .where(and(eq(jobPhoto.id, photoId), eq(jobPhoto.companyId, member.companyId)))
+    .limit(1);
+  const bytes = row ? await storage().get(row.storageKey) : null;
+  if (!bytes) throw new HttpError(404, "not_found", "The photo's file is missing from storage.");
+  return { bytes, mimeType: meta.mimeType };
+}
+
+/** A photo from the crew's phone, checked and resized by normalizePhoto (photos.ts). A refused file stores nothing. */
+export async function addJobPhoto(member: Member, jobId: string, file: { bytes: Uint8Array; caption: string }): Promise<JobPhotoView> {
+  const current = await getJobRowOrThrow(member, jobId);
+  const photo = await normalizePhoto(file.bytes);
+  const id = crypto.randomUUID();
+  const storageKey = `${member.companyId}/jobs/${id}.jpg`;
+  await storage().put(storageKey, photo.jpeg);
+  try {
+    await db().transaction(async (tx) => {
+      await tx.insert(jobPhoto).values({
+        id,
+        companyId: member.companyId,
+        jobId,
+        storageKey,
+        mimeType: "image/jpeg",
+        widthPx: photo.widthPx,
+        heightPx: photo.heightPx,
+        sizeBytes: photo.sizeBytes,
+        caption: file.caption || null,
+        uploadedByUserId: member.userId,
+      });
+      await recordEvent(tx, {
+        companyId: member.companyId,
+        dealId: current.dealId,
+        kind: "job.photo",
+        summary: `${member.name} added a job photo${file.caption ? `: ${file.caption}` : ""}`,
+        actorUserId: member.userId,
+        data: { jobId, photoId: id },
+      });
+    });
+  } catch (err) {
+    await storage().delete(storageKey);
+    throw err;
+  }
+  return getJobPhotoOrThrow(member, id);
+}

@@ -1,0 +1,11 @@
+import "server-only";
+export { createJobForDeal } from "./create";
+export { companyToday, addDaysIso, type JobDateKind, JOB_DATE_LABELS, type JobBucket, nextJobDate, jobBucket } from "./dates";
+export { type JobListRow, listJobs, getJobRowOrThrow, getJobOrThrow, findJobForDeal } from "./read";
+export { type JobStageMove, jobStageMoves, type JobUpdateResult, updateJob } from "./office";
+export { setChecklistItem, applyActiveChecklist, markJobInstalled, listJobPhotos, getJobPhotoOrThrow, getJobPhotoFile, addJobPhoto } from "./crew-work";
+export { getJobPacket, getJobSitePhotoFile } from "./packet";
+export { crewCalendarIcs } from "./calendar";
+export { getJobPacketPdf } from "./packet-pdf";
+export { type ProjectProgress, getProjectProgress } from "./progress";
+export type { JobPacket, JobPhotoView, JobRecord, JobView, PacketBomLine, PacketFace } from "@/lib/job-packet";

@@ -1,0 +1,98 @@
+import "server-only";
+import { createElement } from "react";
+import { and, eq } from "drizzle-orm";
+import { proposal, type Stage } from "@/db/schema";
+import { formatDateTime } from "@/lib/format";
+import { canStillCancel, cancelWindowClosesAt, formatIsoDateLong } from "@/lib/proposal-snapshot";
+import ProposalCancelledEmail from "@emails/proposal-cancelled";
+import { getCompanySettings } from "@/server/company-settings";
+import { db } from "@/server/db";
+import { HttpError, notFound } from "@/server/errors";
+import type { ClientMeta } from "@/server/client-address";
+import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
+import { autoMoveStage } from "@/server/stages";
+import { refundOnCancellation } from "@/server/payments";
+import { recordEvent } from "@/server/timeline";
+import { insertProposalEvent } from "./events";
+import { labelOf, type ProposalRow } from "./rows";
+import { dealProposalUrl } from "./send";
+
+// ── Right to cancel ─────────────────────────────────────────────────────────────────────────
+
+/** Stages a cancellation inside the window moves a deal from (it cannot have gone further in 3 business days). */
+const CANCELLABLE_STAGES: readonly Stage[] = ["signed", "deposit_paid", "survey", "permitting", "install_booked"];
+
+export type CancelOutcome = { proposalId: string; companyId: string; dealId: string; cancelledAt: Date };
+
+/**
+ * The buyer cancels a signed in-home sale inside the 3-business-day window (16 CFR 429.1):
+ * the proposal becomes cancelled and the deal moves to Cancelled, in one transaction. After
+ * the window: 409 naming the deadline.
+ */
+export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, now = new Date()): Promise<CancelOutcome> {
+  const { timeZone } = await getCompanySettings(p.companyId);
+  const outcome = await db().transaction(async (tx) => {
+    const [row] = await tx
+      .select({ status: proposal.status, inHomeSale: proposal.inHomeSale, cancelDeadline: proposal.cancelDeadline })
+      .from(proposal)
+      .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)))
+      .for("update");
+    if (!row) throw notFound("Proposal");
+    if (row.status === "cancelled") throw new HttpError(409, "already_cancelled", "This agreement is already cancelled.");
+    if (row.status !== "signed") throw new HttpError(409, "not_signed", "Only a signed agreement can be cancelled.");
+    if (!row.inHomeSale || !row.cancelDeadline) throw new HttpError(409, "no_right_to_cancel", "This agreement was not made in your home, so the 3-day right to cancel does not apply. Contact your installer.");
+    if (!canStillCancel(row, timeZone, now)) {
+      throw new HttpError(409, "cancel_window_closed", `The time to cancel ended with ${formatIsoDateLong(row.cancelDeadline)}. Contact your installer.`);
+    }
+    await tx.update(proposal).set({ status: "cancelled", cancelledAt: now }).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
+    await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "cancelled", body: "The buyer cancelled inside the right-to-cancel window.", client, at: now });
+    await recordEvent(tx, {
+      companyId: p.companyId,
+      dealId: p.dealId,
+      kind: "proposal.cancelled",
+      summary: `The buyer cancelled the signed agreement ${labelOf(p)} (right to cancel until ${formatIsoDateLong(row.cancelDeadline)})`,
+      actorUserId: null,
+      data: { proposalId: p.id, ip: client.ip },
+    });
+    await autoMoveStage(tx, {
+      companyId: p.companyId,
+      dealId: p.dealId,
+      from: CANCELLABLE_STAGES,
+      to: "cancelled",
+      summary: `Moved to Cancelled: the buyer cancelled ${labelOf(p)} inside the 3-business-day window`,
+      data: { proposalId: p.id },
+    });
+    const mailId = await queueMail(tx, {
+      companyId: p.companyId,
+      kind: "proposal-cancelled",
+      to: p.snapshot.rep.email,
+      subject: `Cancelled: the ${p.snapshot.household.name} (${labelOf(p)})`,
+      react: createElement(ProposalCancelledEmail, {
+        householdName: p.snapshot.household.name,
+        label: labelOf(p),
+        cancelledAt: formatDateTime(now),
+        dealUrl: dealProposalUrl(p.dealId),
+      }),
+      idempotencyKey: `proposal-cancelled-${p.id}`,
+    });
+    return { proposalId: p.id, companyId: p.companyId, dealId: p.dealId, cancelledAt: now, mailId };
+  });
+  // After the commit: refund any paid deposit through the provider. The cancellation stands even
+  // if the provider cannot be reached now; the office sees the refund due on Today and retries.
+  try {
+    await refundOnCancellation(outcome.companyId, outcome.dealId, `Buyer cancelled ${labelOf(p)} inside the right-to-cancel window`);
+  } catch (err) {
+    console.error(`[proposals] refund after the cancellation of ${labelOf(p)} failed:`, err);
+  }
+  await sendQueuedNow([outcome.mailId]);
+  const { mailId: _sent, ...cancelled } = outcome;
+  return cancelled;
+}
+
+/** When the buyer's window closes, for the page (null when the sale carries no right to cancel). */
+export async function cancelWindowOf(p: ProposalRow, now = new Date()): Promise<{ deadline: string; closesAt: Date; timeZone: string; open: boolean } | null> {
+  if (!p.inHomeSale || !p.cancelDeadline) return null;
+  const { timeZone } = await getCompanySettings(p.companyId);
+  const closesAt = cancelWindowClosesAt(p.cancelDeadline, timeZone);
+  return { deadline: p.cancelDeadline, closesAt, timeZone, open: canStillCancel(p, timeZone, now) };
+}

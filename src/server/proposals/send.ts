@@ -1,0 +1,294 @@
+import "server-only";
+import { createHash } from "node:crypto";
+import { createElement } from "react";
+import { and, eq, inArray, max } from "drizzle-orm";
+import { company, deal, proposal, user, type Stage } from "@/db/schema";
+import { renderProposalPdf } from "@/documents/proposal-pdf";
+import { env } from "@/env";
+import { formatDate } from "@/lib/format";
+import { can } from "@/lib/permissions";
+import { buildProposalSnapshot, FIRST_PROPOSAL_NUMBER, proposalLabel, type SnapshotSource } from "@/lib/proposal-snapshot";
+import type { ProposalSnapshot } from "@/lib/schemas/proposal";
+import { sendProposalSchema } from "@/lib/schemas/proposal";
+import ProposalSentEmail from "@emails/proposal-sent";
+import { getInverterOrThrow, getModuleOrThrow } from "@/server/catalog";
+import { db, type Tx } from "@/server/db";
+import { getDealOrThrow, getDealRoom } from "@/server/deals";
+import { getDesignForDeal } from "@/server/designs";
+import { getDealUsage } from "@/server/energy";
+import { forbidden, HttpError, notFound } from "@/server/errors";
+import { sendEmail } from "@/server/mail";
+import { listOffers } from "@/server/offers";
+import { getPriceBook } from "@/server/price-book";
+import { validationError } from "@/server/route";
+import type { Member } from "@/server/session";
+import { autoMoveStage } from "@/server/stages";
+import { withFilesUndoneOnFailure } from "@/server/storage";
+import { recordEvent } from "@/server/timeline";
+import { newLinkToken } from "@/server/tokens";
+import { insertProposalEvent } from "./events";
+import { labelOf } from "./rows";
+
+// ── Freezing the offers ─────────────────────────────────────────────────────────────────────
+
+const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
+
+/** Everything the snapshot copies, read from the deal's stored offers, design, usage, catalog and price book. */
+export async function snapshotSourceFor(member: Member, dealId: string, offerIds: string[] | undefined, takenAt: Date): Promise<SnapshotSource> {
+  const room = await getDealRoom(member, dealId);
+  const all = await listOffers(member, dealId);
+  if (all.length === 0) throw fieldError("offerIds", "This deal has no offers yet: make one on the Offers tab first");
+  let chosen = all;
+  if (offerIds) {
+    if (new Set(offerIds).size !== offerIds.length) throw fieldError("offerIds", "An offer is listed twice");
+    chosen = offerIds.map((id) => {
+      const found = all.find((o) => o.id === id);
+      if (!found) throw fieldError("offerIds", "Pick offers of this deal");
+      return found;
+    });
+    chosen.sort((a, b) => a.position - b.position);
+  }
+  if (chosen.length > 3) throw fieldError("offerIds", "A proposal holds at most 3 offers");
+  for (const o of chosen) {
+    if (o.discountStatus === "pending") throw fieldError("offerIds", `"${o.name}" has a discount waiting for the office's approval; send it once it is decided, or leave it out`);
+    if (o.discountStatus === "declined") throw fieldError("offerIds", `The office declined the discount on "${o.name}"; save the offer again with an allowed discount, or leave it out`);
+  }
+  const saved = await getDesignForDeal(member, dealId);
+  if (!saved) throw new HttpError(422, "no_design", "Save a design on the Design tab before sending a proposal.");
+  const doc = saved.document;
+
+  const [usage, book, [co], [owner]] = await Promise.all([
+    getDealUsage(member, dealId),
+    getPriceBook(member.companyId),
+    db().select({ name: company.name, licenseNumber: company.licenseNumber }).from(company).where(eq(company.id, member.companyId)).limit(1),
+    db()
+      .select({ name: user.name, email: user.email })
+      .from(deal)
+      .innerJoin(user, eq(user.id, deal.ownerUserId))
+      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)))
+      .limit(1),
+  ]);
+  if (!co) throw notFound("Company");
+
+  const offers: SnapshotSource["offers"] = [];
+  for (const o of chosen) {
+    const mod = await getModuleOrThrow(member.companyId, o.inputs.moduleId ?? doc.moduleId);
+    const inv = await getInverterOrThrow(member.companyId, o.inputs.inverterId ?? doc.inverterId);
+    // The figures were computed when the offer was saved; a design changed since would not match them.
+    const modules = doc.faces.reduce((s, f) => s + (o.inputs.faceCounts?.find((c) => c.faceId === f.id)?.moduleCount ?? f.moduleCount), 0);
+    if (modules !== o.results.summary.moduleCount || Math.abs(o.results.summary.kwDc - (modules * mod.stcWatts) / 1000) > 0.001) {
+      throw fieldError("offerIds", `The design changed after "${o.name}" was computed; open the Offers tab and save that offer again`);
+    }
+    offers.push({
+      position: o.position,
+      name: o.name,
+      inputs: o.inputs,
+      figures: o.results,
+      module: { manufacturer: mod.manufacturer, model: mod.model, stcWatts: mod.stcWatts },
+      inverter: { manufacturer: inv.manufacturer, model: inv.model, kind: inv.kind, acWatts: inv.acWatts },
+    });
+  }
+  const h = room.household;
+  return {
+    takenAt,
+    company: { name: co.name, licenseNumber: co.licenseNumber },
+    rep: owner ?? { name: member.name, email: member.email },
+    household: {
+      name: h.name,
+      contactName: h.contactName,
+      email: h.email,
+      phone: h.phone,
+      street: h.street,
+      city: h.city,
+      region: h.region,
+      postalCode: h.postalCode,
+      latitude: h.latitude,
+      longitude: h.longitude,
+    },
+    utilityName: room.deal.utilityName ?? null,
+    usage: { monthlyKwh: usage.monthlyKwh, source: usage.source, estimatedMonths: usage.estimatedMonths.filter(Boolean).length, fillMethod: usage.fillMethod },
+    design: { lossesPct: doc.lossesPct, faces: doc.faces },
+    offers,
+    book,
+  };
+}
+
+const sha256Hex = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
+
+export const proposalUrl = (token: string) => `${env().APP_URL}/p/${token}`;
+export const dealProposalUrl = (dealId: string) => `${env().APP_URL}/deals/${dealId}/proposal`;
+
+/** Stages a newly sent proposal moves a deal from (later stages stay where they are). */
+const BEFORE_PROPOSAL: readonly Stage[] = ["lead", "bills_in", "designing", "proposal_out"];
+
+export type SentProposal = { id: string; label: string; number: number; version: number; expiresAt: Date; mailSent: boolean; mailError: string | null };
+
+function isDuplicateKey(err: unknown): boolean {
+  for (let e: unknown = err, depth = 0; e && depth < 5; depth++) {
+    if (typeof e === "object" && e !== null && (e as { code?: unknown }).code === "ER_DUP_ENTRY") return true;
+    e = typeof e === "object" && e !== null ? (e as { cause?: unknown }).cause : null;
+  }
+  return false;
+}
+
+/**
+ * Under a lock on the company row: the deal's earlier versions and the next number and version
+ * (a deal's first proposal takes the company's next number, later ones the next version).
+ */
+async function nextNumbering(tx: Tx, companyId: string, dealId: string) {
+  await tx.select({ id: company.id }).from(company).where(eq(company.id, companyId)).for("update");
+  const earlier = await tx
+    .select({ id: proposal.id, number: proposal.number, version: proposal.version, status: proposal.status })
+    .from(proposal)
+    .where(and(eq(proposal.companyId, companyId), eq(proposal.dealId, dealId)));
+  const signed = earlier.find((p) => p.status === "signed");
+  if (signed) throw new HttpError(409, "already_signed", `${labelOf(signed)} of this deal is signed; a signed agreement is not replaced by a new version.`);
+  let number: number;
+  let version: number;
+  if (earlier.length > 0) {
+    number = earlier[0].number;
+    version = Math.max(...earlier.map((p) => p.version)) + 1;
+  } else {
+    const [top] = await tx.select({ n: max(proposal.number) }).from(proposal).where(eq(proposal.companyId, companyId));
+    number = Math.max(FIRST_PROPOSAL_NUMBER, (top?.n ?? FIRST_PROPOSAL_NUMBER - 1) + 1);
+    version = 1;
+  }
+  return { earlier, number, version };
+}
+
+/** Marks the deal's live earlier versions replaced by the new one. */
+async function markReplaced(tx: Tx, companyId: string, live: { id: string }[], id: string): Promise<void> {
+  if (live.length > 0) {
+    await tx
+      .update(proposal)
+      .set({ status: "replaced", replacedByProposalId: id })
+      .where(
+        and(
+          eq(proposal.companyId, companyId),
+          inArray(
+            proposal.id,
+            live.map((p) => p.id),
+          ),
+          eq(proposal.status, "sent"),
+        ),
+      );
+  }
+}
+
+/**
+ * Freezes the chosen offers (all by default) into a new proposal version, renders and stores
+ * its PDF, marks earlier live versions of the deal replaced, moves the deal to Proposal out and
+ * e-mails the link. Numbering happens under a lock on the company row: a deal's first proposal
+ * takes the company's next number, later ones the same number with the next version.
+ */
+export async function sendProposal(member: Member, input: unknown): Promise<SentProposal> {
+  if (!can(member.role, "proposals:send")) throw forbidden("sending proposals");
+  const parsed = sendProposalSchema.safeParse(input);
+  if (!parsed.success) throw validationError(parsed.error);
+  const { dealId, offerIds, toEmail, message, validDays, inHomeSale } = parsed.data;
+  await getDealOrThrow(member, dealId); // reps: only their own deals
+
+  const sentAt = new Date();
+  const snapshot = buildProposalSnapshot(await snapshotSourceFor(member, dealId, offerIds, sentAt));
+  const expiresAt = new Date(sentAt.getTime() + validDays * 86_400_000);
+  const { token, hash } = newLinkToken();
+  const id = crypto.randomUUID();
+  const key = `${member.companyId}/proposals/${crypto.randomUUID()}.pdf`;
+  let numbering: { number: number; version: number };
+  try {
+    numbering = await withFilesUndoneOnFailure((put) => db().transaction(async (tx) => {
+      const { earlier, number, version } = await nextNumbering(tx, member.companyId, dealId);
+      const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
+      await put(key, pdf);
+      await tx.insert(proposal).values({
+        id,
+        companyId: member.companyId,
+        dealId,
+        number,
+        version,
+        status: "sent",
+        snapshot,
+        pdfStorageKey: key,
+        pdfSha256: sha256Hex(pdf),
+        tokenHash: hash,
+        expiresAt,
+        sentToEmail: toEmail,
+        sentByUserId: member.userId,
+        inHomeSale,
+        createdAt: sentAt,
+      });
+      const live = earlier.filter((p) => p.status === "sent");
+      await markReplaced(tx, member.companyId, live, id);
+      const label = proposalLabel(number, version);
+      await insertProposalEvent(tx, { companyId: member.companyId, proposalId: id, kind: "sent", body: `to ${toEmail}`, actorUserId: member.userId, at: sentAt });
+      const offerNames = snapshot.offers.map((o) => `"${o.name}"`).join(", ");
+      await recordEvent(tx, {
+        companyId: member.companyId,
+        dealId,
+        kind: "proposal.sent",
+        summary: `${member.name} sent proposal ${label} to ${toEmail} (${offerNames}), link valid until ${formatDate(expiresAt)}${live.length ? `; replaces ${live.map(labelOf).join(", ")}` : ""}`,
+        actorUserId: member.userId,
+        data: { proposalId: id, number, version },
+      });
+      await autoMoveStage(tx, {
+        companyId: member.companyId,
+        dealId,
+        from: BEFORE_PROPOSAL,
+        to: "proposal_out",
+        summary: `Moved to Proposal out: proposal ${label} sent`,
+        actorUserId: member.userId,
+        data: { proposalId: id },
+      });
+      return { number, version };
+    }));
+  } catch (err) {
+    if (isDuplicateKey(err)) throw new HttpError(409, "proposal_conflict", "Another proposal for this company was numbered at the same moment. Send again.");
+    throw err;
+  }
+  const label = proposalLabel(numbering.number, numbering.version);
+  const mail = await mailProposalLink({ companyId: member.companyId, proposalId: id, dealId, token, snapshot, label, expiresAt, to: toEmail, message, idempotencyKey: `proposal-sent-${id}`, resent: false });
+  return { id, label, ...numbering, expiresAt, ...mail };
+}
+
+export async function mailProposalLink(m: {
+  companyId: string;
+  proposalId: string;
+  dealId: string;
+  token: string;
+  snapshot: ProposalSnapshot;
+  label: string;
+  expiresAt: Date;
+  to: string;
+  message: string;
+  idempotencyKey: string;
+  resent: boolean;
+}): Promise<{ mailSent: boolean; mailError: string | null }> {
+  try {
+    await sendEmail({
+      companyId: m.companyId,
+      to: m.to,
+      subject: `${m.resent ? "New link: " : ""}Your solar proposal from ${m.snapshot.company.name} (${m.label})`,
+      replyTo: m.snapshot.rep.email,
+      react: createElement(ProposalSentEmail, {
+        companyName: m.snapshot.company.name,
+        repName: m.snapshot.rep.name,
+        householdName: m.snapshot.household.name,
+        label: m.label,
+        offerCount: m.snapshot.offers.length,
+        validUntil: formatDate(m.expiresAt),
+        proposalUrl: proposalUrl(m.token),
+        message: m.message,
+        resent: m.resent,
+      }),
+      idempotencyKey: m.idempotencyKey,
+    });
+    return { mailSent: true, mailError: null };
+  } catch (err) {
+    console.error("proposal saved; its e-mail could not be sent", m.proposalId, err);
+    const reason = err instanceof Error ? err.message : "unknown error";
+    await db()
+      .transaction((tx) => insertProposalEvent(tx, { companyId: m.companyId, proposalId: m.proposalId, kind: "send_failed", body: reason.slice(0, 500) }))
+      .catch(() => undefined);
+    return { mailSent: false, mailError: `The e-mail could not be sent (${reason}). Use "Re-send link" to try again.` };
+  }
+}
