@@ -21,14 +21,12 @@ export const MODULE_GAMMA_PER_C = {
   premium: -0.0035,
   "thin-film": -0.002,
 } as const;
-export type ModuleType = keyof typeof MODULE_GAMMA_PER_C;
 
 /** Installed nominal operating cell temperature by mounting, °C (Dobos 2014, section 3.3). */
 export const MOUNT_INOCT_C = {
   "open-rack": 45,
   roof: 49,
 } as const;
-export type MountType = keyof typeof MOUNT_INOCT_C;
 
 /** PVWatts v5 default loss breakdown, % (Dobos 2014, system loss table; from memory: Table 3). Combined: 14.08 %. */
 export const DEFAULT_LOSSES_PCT = {
