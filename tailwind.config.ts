@@ -1,4 +1,4 @@
-// Kilowright's design tokens (PRODUCT.md, "Look"): warm paper, graphite text, copper for
+// Kilowright's design tokens: warm paper, graphite text, copper for
 // action and production, slate blue for usage, sage for success. Loaded by src/app/globals.css.
 import type { Config } from "tailwindcss";
 

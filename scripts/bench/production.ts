@@ -10,6 +10,7 @@ import { clearProductionCache, estimateProduction, type SystemDesign } from "../
 import { solarPosition, sunPositionsForYear, typicalHourStartMs } from "../../src/engine/solar-position";
 import { parseWeather, type WeatherYear } from "../../src/engine/weather";
 import type { BenchCase } from "./types";
+import { readCsvRecords } from "../../src/engine/csv";
 
 const root = new URL("../../", import.meta.url);
 let weather: WeatherYear | null = null;
@@ -100,9 +101,9 @@ export const cases: BenchCase[] = [
  * errors out. The same check runs as a test in src/engine/production.test.ts.
  */
 export function denverAccuracy(): string[] {
-  const lines = readFileSync(fileURLToPath(new URL("tests/fixtures/weather/pvwatts-8760-rackmount-denver.csv", root)), "utf8").split(/\r?\n/);
-  const start = lines.findIndex((l) => l.startsWith("Month,Day,Hour")) + 1;
-  const ref = lines.slice(start, start + 8760).map((l) => l.split(",").map(Number));
+  const records = readCsvRecords(readFileSync(fileURLToPath(new URL("tests/fixtures/weather/pvwatts-8760-rackmount-denver.csv", root)), "utf8"));
+  const start = records.findIndex((r) => r.cells.slice(0, 3).join(",") === "Month,Day,Hour") + 1;
+  const ref = records.slice(start, start + 8760).map((r) => r.cells.map(Number));
   const csv = ["month,day,hour,dni,dhi,temp_air,wind_speed", ...ref.map((r) => r.slice(0, 7).join(","))].join("\n");
   const w = parseWeather(csv, { site: { latitude: 39.73, longitude: -105.18, elevationM: 1819.6, utcOffsetHours: -7 } });
   const r = estimateProduction(w, {

@@ -1,5 +1,5 @@
-// The invented demo company of PRODUCT.md: Tallgrass Bright Energy, one person per role
-// (and the second rep and crew the brief describes), and a dozen households at every stage.
+// The invented demo company, Tallgrass Bright Energy: one person per role (plus a second
+// sales rep and a second crew, so sharing and assignment can be shown), and a dozen households at every stage.
 // Places and people are made up. Idempotent: fixed ids, inserted only when missing.
 import { readdirSync } from "node:fs";
 import path from "node:path";

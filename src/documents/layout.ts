@@ -186,11 +186,6 @@ export function drawWrapped(page: PDFPage, text: string, x: number, y: number, w
   return cy;
 }
 
-/** Height `drawWrapped` will use for `text`. */
-export function wrappedHeight(text: string, font: PDFFont, size: number, width: number, lineGap = LINE_GAP): number {
-  return wrapText(text, font, size, width).length * size * lineGap;
-}
-
 // ── Tables ───────────────────────────────────────────────────────────────────────────────
 
 export type TableColumn = {

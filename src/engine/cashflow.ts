@@ -52,7 +52,6 @@ export const paymentSchema = z.discriminatedUnion("kind", [
     downPaymentCents: z.number().int().min(0).default(0),
   }),
 ]);
-export type PaymentInput = z.input<typeof paymentSchema>;
 
 export const cashflowInputSchema = z
   .object({

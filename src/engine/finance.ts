@@ -145,7 +145,6 @@ function refineRoot(values: readonly number[], low: number, high: number, npvLow
  *   fee (receives amount × (1 − fee%)). The homeowner's payments do not change.
  */
 export const dealerFeeModeSchema = z.enum(["added", "deducted"]);
-export type DealerFeeMode = z.infer<typeof dealerFeeModeSchema>;
 
 export const loanInputSchema = z.object({
   /** What the homeowner needs financed (price − down payment − upfront incentives), cents. */

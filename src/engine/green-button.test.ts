@@ -110,6 +110,16 @@ describe("interval CSV", () => {
     expect(p.notes.some((n) => n.includes("local standard time"))).toBe(true);
   });
 
+  it("reads quoted cells (a kWh with a thousands comma) and names the line of a broken quote", () => {
+    const text = 'timestamp,kWh\n2023-07-01T12:00,"1,250.5"\n2023-07-01T13:00,"2.5\n';
+    const issues = issuesOf(() => parseIntervalCsv(text));
+    expect(issues).toHaveLength(1);
+    expect(issues[0].path).toBe("line 3");
+    expect(issues[0].message).toMatch(/cannot be read.*quote/i);
+    const ok = parseIntervalCsv('timestamp,kWh\n2023-07-01T12:00,"1,250.5"\n2023-07-01T13:00,"2.5"\n');
+    expect(ok.readings.map((r) => r.kwh)).toEqual([1250.5, 2.5]);
+  });
+
   it("converts offset timestamps to local standard time with the site's offset", () => {
     const text = "timestamp,kWh\n2023-07-01T12:00:00-04:00,1.5\n2023-07-01T13:00:00-04:00,1.0\n";
     expect(issuesOf(() => parseIntervalCsv(text))[0].path).toBe("utcOffsetHours");

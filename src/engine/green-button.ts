@@ -33,6 +33,7 @@
  */
 import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { z } from "zod";
+import { isBlankRecord, readCsvRecords } from "./csv";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
 import { REFERENCE_LOAD_HOURLY_KWH } from "./data/reference-load-8760";
 import { HOURS_PER_YEAR, HOUR_MONTH, MONTH_DAYS, MONTH_START_DAY } from "./year-calendar";
@@ -354,28 +355,6 @@ const END_TIME_HEADERS = ["end time", "end_time"];
 const ENERGY_HEADERS = ["kwh", "usage", "usage (kwh)", "value", "consumption", "energy", "import (kwh)"];
 const UNIT_HEADERS = ["units", "unit"];
 
-function splitCsv(line: string): string[] {
-  const out: string[] = [];
-  let cur = "";
-  let quoted = false;
-  for (let i = 0; i < line.length; i++) {
-    const c = line[i];
-    if (quoted) {
-      if (c === '"' && line[i + 1] === '"') {
-        cur += '"';
-        i++;
-      } else if (c === '"') quoted = false;
-      else cur += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ",") {
-      out.push(cur.trim());
-      cur = "";
-    } else cur += c;
-  }
-  out.push(cur.trim());
-  return out;
-}
-
 const ISO_RE = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{1,2}):(\d{2})(?::(\d{2})(?:\.\d+)?)?)?\s*(Z|[+-]\d{2}:?\d{2})?$/;
 
 /** Parse an ISO-like timestamp to seconds; `offsetSec` is null when the text carries no offset. */
@@ -412,12 +391,12 @@ function normaliseDate(s: string): string | null {
  * or from the most common step between consecutive timestamps.
  */
 export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number } = {}): { readings: IntervalReading[]; notes: string[] } {
-  const lines = text.replace(/^\uFEFF/, "").split(/\r?\n/);
-  const norm = (s: string) => s.trim().toLowerCase().replace(/^"|"$/g, "");
+  const records = readCsvRecords(text);
+  const norm = (s: string) => s.trim().toLowerCase();
   let headerIdx = -1;
   let cols: string[] = [];
-  for (let i = 0; i < Math.min(lines.length, 50); i++) {
-    const c = splitCsv(lines[i]).map(norm);
+  for (let i = 0; i < records.length && records[i].line <= 50; i++) {
+    const c = records[i].cells.map(norm);
     const hasTime = c.some((x) => TIMESTAMP_HEADERS.includes(x)) || (c.some((x) => DATE_HEADERS.includes(x)) && c.some((x) => START_TIME_HEADERS.includes(x)));
     if (hasTime && c.some((x) => ENERGY_HEADERS.includes(x))) {
       headerIdx = i;
@@ -444,10 +423,14 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
   const rows: { sec: number; endSec: number | null; kwh: number }[] = [];
   let withOffset = 0;
   let withoutOffset = 0;
-  for (let i = headerIdx + 1; i < lines.length && issues.length < MAX_ISSUES; i++) {
-    if (lines[i].trim() === "") continue;
-    const f = splitCsv(lines[i]);
-    const lineNo = `line ${i + 1}`;
+  for (let i = headerIdx + 1; i < records.length && issues.length < MAX_ISSUES; i++) {
+    if (isBlankRecord(records[i])) continue;
+    const f = records[i].cells.map((c) => c.trim());
+    const lineNo = `line ${records[i].line}`;
+    if (records[i].problem) {
+      issues.push({ path: lineNo, message: `this row cannot be read: ${records[i].problem}` });
+      continue;
+    }
     let stamp: string;
     if (tsCol >= 0) stamp = f[tsCol] ?? "";
     else {

@@ -58,7 +58,6 @@ export const incentiveRuleSchema = z
       .default({}),
   })
   .refine((r) => r.startDate <= r.endDate, { path: ["endDate"], message: "must not be before startDate" });
-export type IncentiveRule = z.output<typeof incentiveRuleSchema>;
 export type IncentiveRuleInput = z.input<typeof incentiveRuleSchema>;
 
 export const incentiveContextSchema = z.object({

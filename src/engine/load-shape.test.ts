@@ -17,8 +17,8 @@ describe("reference load", () => {
     expect(maxDiff).toBeLessThanOrEqual(5e-6);
   });
 
-  it("has the monthly totals stated in ../shared/reference/README.md", () => {
-    // README: monthly kWh Jan–Dec about 375, 331, 334, 369, 479, 693, 842, 773, 622, 500, 325, 377
+  it("has the monthly totals of the ssc reference load", () => {
+    // Monthly kWh Jan–Dec about 375, 331, 334, 369, 479, 693, 842, 773, 622, 500, 325, 377
     const expected = [375, 331, 334, 369, 479, 693, 842, 773, 622, 500, 325, 377];
     referenceMonthlyKwh().forEach((v, m) => expect(Math.abs(v - expected[m])).toBeLessThan(1));
   });

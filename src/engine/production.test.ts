@@ -5,15 +5,16 @@ import { describe, expect, it } from "vitest";
 import { EngineInputError } from "./errors";
 import { estimateProduction, productionByYear, productionInYear, type SystemDesign } from "./production";
 import { parseWeather } from "./weather";
+import { readCsvRecords } from "./csv";
 
 const root = fileURLToPath(new URL("../../", import.meta.url));
 
 // NREL PVWatts hourly result, Denver (tests/fixtures/weather/README.md): 4 kW DC, standard module,
 // open rack, tilt 20°, azimuth 180°, losses 14.08 %, inverter 96 %, DC/AC 1.2, lat 39.73,
 // lon −105.18, 1819.6 m. Columns: month, day, hour, beam, diffuse, air temp, wind, POA, cell temp, DC, AC.
-const lines = readFileSync(root + "tests/fixtures/weather/pvwatts-8760-rackmount-denver.csv", "utf8").split(/\r?\n/);
-const start = lines.findIndex((l) => l.startsWith("Month,Day,Hour")) + 1;
-const ref = lines.slice(start, start + 8760).map((l) => l.split(",").map(Number));
+const records = readCsvRecords(readFileSync(root + "tests/fixtures/weather/pvwatts-8760-rackmount-denver.csv", "utf8"));
+const start = records.findIndex((r) => r.cells.slice(0, 3).join(",") === "Month,Day,Hour") + 1;
+const ref = records.slice(start, start + 8760).map((r) => r.cells.map(Number));
 const denverSite = { latitude: 39.73, longitude: -105.18, elevationM: 1819.6, utcOffsetHours: -7 };
 // The file's own beam, diffuse, temperature and wind as a generic hourly CSV (no GHI column: derived).
 const denverCsv = ["month,day,hour,dni,dhi,temp_air,wind_speed", ...ref.map((r) => r.slice(0, 7).join(","))].join("\n");

@@ -88,7 +88,6 @@ export const systemSchema = z
   })
   .strict();
 
-export type RoofFace = z.input<typeof roofFaceSchema>;
 export type SystemDesign = z.input<typeof systemSchema>;
 
 /** A face's hourly series (only with `{ faceHours: true }`). */

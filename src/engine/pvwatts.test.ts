@@ -3,6 +3,7 @@ import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { EngineInputError } from "./errors";
 import { DEFAULT_LOSSES_PCT, combinedLossPct, fuentesCellTemperature, fuentesCellTemperatureMany, pvwattsDc, pvwattsInverter } from "./pvwatts";
+import { readCsvRecords } from "./csv";
 
 describe("PVWatts v5 DC and losses against pvlib-python's published test values", () => {
   it("pvwatts_dc (pvlib test_pvwatts_dc_scalars: 900 W/m², 30 °C, 100 W, γ −0.003 → 88.65 W)", () => {
@@ -41,9 +42,9 @@ describe("Fuentes 1987 cell temperature as in PVWatts v5", () => {
   // The NREL PVWatts hourly result for Denver (tests/fixtures/weather, attribution in README.md):
   // its own POA, air temperature and wind in, its cell temperature column out (open rack, INOCT 45 °C).
   const root = fileURLToPath(new URL("../../", import.meta.url));
-  const lines = readFileSync(root + "tests/fixtures/weather/pvwatts-8760-rackmount-denver.csv", "utf8").split(/\r?\n/);
-  const start = lines.findIndex((l) => l.startsWith("Month,Day,Hour")) + 1;
-  const rows = lines.slice(start, start + 8760).map((l) => l.split(",").map(Number));
+  const records = readCsvRecords(readFileSync(root + "tests/fixtures/weather/pvwatts-8760-rackmount-denver.csv", "utf8"));
+  const start = records.findIndex((r) => r.cells.slice(0, 3).join(",") === "Month,Day,Hour") + 1;
+  const rows = records.slice(start, start + 8760).map((r) => r.cells.map(Number));
 
   it("reproduces PVWatts' hourly cell temperature for Denver within 0.1 °C MAE", () => {
     const poa = Float64Array.from(rows, (r) => r[7]);

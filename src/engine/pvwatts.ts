@@ -21,16 +21,12 @@ export const MODULE_GAMMA_PER_C = {
   premium: -0.0035,
   "thin-film": -0.002,
 } as const;
-export type ModuleType = keyof typeof MODULE_GAMMA_PER_C;
-export const MODULE_TYPES = Object.keys(MODULE_GAMMA_PER_C) as ModuleType[];
 
 /** Installed nominal operating cell temperature by mounting, °C (Dobos 2014, section 3.3). */
 export const MOUNT_INOCT_C = {
   "open-rack": 45,
   roof: 49,
 } as const;
-export type MountType = keyof typeof MOUNT_INOCT_C;
-export const MOUNT_TYPES = Object.keys(MOUNT_INOCT_C) as MountType[];
 
 /** PVWatts v5 default loss breakdown, % (Dobos 2014, system loss table; from memory: Table 3). Combined: 14.08 %. */
 export const DEFAULT_LOSSES_PCT = {
@@ -343,7 +339,6 @@ export function fuentesCellTemperatureMany(
   const dtSeconds = stepHours * 3600;
   const setups = inoctsC.map((t) => fuentesSetup(t));
   const tgrat = Float64Array.from(setups, (m) => m.tgrat);
-  const cap = Float64Array.from(setups, (m) => m.cap);
   const convrat = Float64Array.from(setups, (m) => m.convrat);
   const eigenPerH = Float64Array.from(setups, (m) => -dtSeconds / m.cap);
   const tmod0 = new Float64Array(F).fill(T_NOCT_AMBIENT_K);

@@ -106,7 +106,6 @@ export const quoteCaseSchema = z
       }
     });
   });
-export type QuoteCase = z.output<typeof quoteCaseSchema>;
 export type QuoteCaseInput = z.input<typeof quoteCaseSchema>;
 
 /** What the production model is asked for: faces with module counts, the inverter, losses. */

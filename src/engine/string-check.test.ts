@@ -11,7 +11,7 @@ const base: StringCheckInput = {
 };
 
 describe("NEC 690.7 maximum voltage", () => {
-  it("corrects Voc with the module coefficient (NEC 690.7(A)(1); check values from the issue, hand-verified)", () => {
+  it("corrects Voc with the module coefficient (NEC 690.7(A)(1); values worked by hand below)", () => {
     // 49.5 × (1 + (−10 − 25) × −0.0028) = 49.5 × 1.098 = 54.351 V per module
     // 11 × 54.351 = 597.861 V ≤ 600 V (dwelling limit) → pass
     const r = checkString(base);

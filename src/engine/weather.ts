@@ -16,6 +16,7 @@
  * 365-day year must appear exactly once.
  */
 import { z } from "zod";
+import { isBlankRecord, readCsvRecords, type CsvRecord } from "./csv";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
 import { sunPositionsForYear } from "./solar-position";
 import { HOURS_PER_YEAR, MONTH_DAYS, MONTH_START_DAY } from "./year-calendar";
@@ -98,30 +99,6 @@ export type ParseWeatherOptions = {
   sourceLabel?: string;
 };
 
-/** Split one CSV line, honouring double quotes. */
-export function splitCsvLine(line: string): string[] {
-  if (!line.includes('"')) return line.split(",");
-  const out: string[] = [];
-  let cur = "";
-  let quoted = false;
-  for (let i = 0; i < line.length; i++) {
-    const c = line[i];
-    if (quoted) {
-      if (c === '"' && line[i + 1] === '"') {
-        cur += '"';
-        i++;
-      } else if (c === '"') quoted = false;
-      else cur += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ",") {
-      out.push(cur);
-      cur = "";
-    } else cur += c;
-  }
-  out.push(cur);
-  return out;
-}
-
 /** Guess the format from the content. */
 export function detectWeatherFormat(text: string): WeatherFormat {
   const lines = text.replace(/^\uFEFF/, "").split(/\r?\n/, 3);
@@ -196,8 +173,8 @@ function validAlbedo(v: number): number | null {
 const EPW = { month: 1, day: 2, hour: 3, temp: 6, ghi: 13, dni: 14, dhi: 15, wind: 21, albedo: 32, minFields: 22 };
 const EPW_HEADER_LINES = 8;
 
-function parseEpw(lines: string[], issues: IssueList): { site: Partial<WeatherSite>; label: string; rows: RawRow[] } {
-  const loc = splitCsvLine(lines[0]);
+function parseEpw(records: CsvRecord[], issues: IssueList): { site: Partial<WeatherSite>; label: string; rows: RawRow[] } {
+  const loc = records[0]?.cells ?? [];
   const site: Partial<WeatherSite> = {
     name: [loc[1], loc[2], loc[3]].filter((x) => x && x.trim() && x.trim() !== "-" && x.trim() !== "unknown").join(", ") || undefined,
     latitude: num(loc[6]),
@@ -205,13 +182,11 @@ function parseEpw(lines: string[], issues: IssueList): { site: Partial<WeatherSi
     utcOffsetHours: num(loc[8]),
     elevationM: num(loc[9]),
   };
-  const dataStart = lines.findIndex((l) => /^DATA PERIODS/i.test(l)) + 1 || EPW_HEADER_LINES;
+  const dataStart = records.findIndex((r) => /^DATA PERIODS/i.test(r.cells[0])) + 1 || EPW_HEADER_LINES;
   const rows: RawRow[] = [];
-  for (let i = dataStart; i < lines.length; i++) {
-    const text = lines[i];
-    if (!text.trim()) continue;
-    const line = i + 1;
-    const f = text.split(",");
+  for (const record of records.slice(dataStart)) {
+    if (isBlankRecord(record)) continue;
+    const { line, cells: f } = record;
     if (f.length < EPW.minFields) {
       issues.add(line, `expected at least ${EPW.minFields} fields, found ${f.length}`);
       continue;
@@ -245,8 +220,8 @@ const TMY3_COLUMNS = {
   albedo: "Alb (unitless)",
 } as const;
 
-function parseTmy3(lines: string[], issues: IssueList): { site: Partial<WeatherSite>; label: string; rows: RawRow[] } {
-  const meta = splitCsvLine(lines[0]);
+function parseTmy3(records: CsvRecord[], issues: IssueList): { site: Partial<WeatherSite>; label: string; rows: RawRow[] } {
+  const meta = records[0]?.cells ?? [];
   const site: Partial<WeatherSite> = {
     name: `${meta[1]?.trim() ?? ""}${meta[2]?.trim() ? `, ${meta[2].trim()}` : ""}` || undefined,
     utcOffsetHours: num(meta[3]),
@@ -254,7 +229,7 @@ function parseTmy3(lines: string[], issues: IssueList): { site: Partial<WeatherS
     longitude: num(meta[5]),
     elevationM: num(meta[6]),
   };
-  const header = splitCsvLine(lines[1]).map((h) => h.trim());
+  const header = (records[1]?.cells ?? []).map((h) => h.trim());
   const col = {} as Record<keyof typeof TMY3_COLUMNS, number>;
   for (const [key, name] of Object.entries(TMY3_COLUMNS) as [keyof typeof TMY3_COLUMNS, string][]) {
     col[key] = header.indexOf(name);
@@ -263,11 +238,9 @@ function parseTmy3(lines: string[], issues: IssueList): { site: Partial<WeatherS
   }
   issues.throwIfAny("TMY3 weather file");
   const rows: RawRow[] = [];
-  for (let i = 2; i < lines.length; i++) {
-    const text = lines[i];
-    if (!text.trim()) continue;
-    const line = i + 1;
-    const f = splitCsvLine(text);
+  for (const record of records.slice(2)) {
+    if (isBlankRecord(record)) continue;
+    const { line, cells: f } = record;
     const date = /^(\d{1,2})\/(\d{1,2})\/\d{4}$/.exec(f[col.date]?.trim() ?? "");
     const time = /^(\d{1,2}):(\d{2})$/.exec(f[col.time]?.trim() ?? "");
     if (!date || !time) {
@@ -294,28 +267,26 @@ function parseTmy3(lines: string[], issues: IssueList): { site: Partial<WeatherS
 export const GENERIC_CSV_COLUMNS = ["month", "day", "hour", "ghi", "dni", "dhi", "temp_air", "wind_speed", "albedo"] as const;
 const REQUIRED_CSV_COLUMNS = ["month", "day", "hour", "dni", "dhi", "temp_air", "wind_speed"] as const;
 
-function parseGenericCsv(lines: string[], issues: IssueList): { rows: RawRow[]; hasGhi: boolean } {
-  let h = 0;
-  while (h < lines.length && (lines[h].trim() === "" || lines[h].trimStart().startsWith("#"))) h++;
-  if (h >= lines.length) {
+function parseGenericCsv(records: CsvRecord[], issues: IssueList): { rows: RawRow[]; hasGhi: boolean } {
+  // Comment lines were blanked before parsing (see parseWeather), so blank records are skipped here.
+  const data = records.filter((r) => !isBlankRecord(r));
+  const headerRecord = data.shift();
+  if (!headerRecord) {
     issues.add(null, "no header line");
     issues.throwIfAny("weather CSV");
+    return { rows: [], hasGhi: false };
   }
-  const header = splitCsvLine(lines[h]).map((x) => x.trim().toLowerCase());
+  const header = headerRecord.cells.map((x) => x.trim().toLowerCase());
   const col = new Map<string, number>();
   header.forEach((name, i) => col.set(name, i));
   for (const name of REQUIRED_CSV_COLUMNS) {
-    if (!col.has(name)) issues.add(h + 1, `column "${name}" is missing (expected ${GENERIC_CSV_COLUMNS.join(",")}; ghi and albedo optional)`);
+    if (!col.has(name)) issues.add(headerRecord.line, `column "${name}" is missing (expected ${GENERIC_CSV_COLUMNS.join(",")}; ghi and albedo optional)`);
   }
   issues.throwIfAny("weather CSV");
   const hasGhi = col.has("ghi");
   const idx = (name: string) => col.get(name) ?? -1;
   const rows: RawRow[] = [];
-  for (let i = h + 1; i < lines.length; i++) {
-    const text = lines[i];
-    if (!text.trim() || text.trimStart().startsWith("#")) continue;
-    const line = i + 1;
-    const f = splitCsvLine(text);
+  for (const { line, cells: f } of data) {
     rows.push({
       line,
       month: num(f[idx("month")]),
@@ -361,9 +332,14 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
   }
 
   let parsed: { site: Partial<WeatherSite>; label: string; rows: RawRow[]; hasGhi: boolean };
-  if (format === "epw") parsed = { ...parseEpw(lines, issues), hasGhi: true };
-  else if (format === "tmy3") parsed = { ...parseTmy3(lines, issues), hasGhi: true };
-  else parsed = { ...parseGenericCsv(lines, issues), site: {}, label: "hourly CSV" };
+  if (format === "epw") parsed = { ...parseEpw(readCsvRecords(clean), issues), hasGhi: true };
+  else if (format === "tmy3") parsed = { ...parseTmy3(readCsvRecords(clean), issues), hasGhi: true };
+  else {
+    // "#" lines are free text (attribution): blanked, not parsed, so a stray quote in them cannot
+    // swallow the lines after; the line count stays, so errors still name the file's lines.
+    const withoutComments = lines.map((l) => (l.trimStart().startsWith("#") ? "" : l)).join("\n");
+    parsed = { ...parseGenericCsv(readCsvRecords(withoutComments), issues), site: {}, label: "hourly CSV" };
+  }
 
   // Site: header values, overridden by explicit options.
   const site = parseOrThrow(weatherSiteSchema, { ...parsed.site, ...stripUndefined(options.site ?? {}) }, `${context}: site`);

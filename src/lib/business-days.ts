@@ -3,7 +3,7 @@
 // The FTC's rule (16 CFR 429.1(a)) lets the buyer cancel "prior to midnight of the third business
 // day after the date of the transaction". Its definition (16 CFR 429.0(c)) counts every calendar
 // day except Sunday and nine named holidays — so Saturday IS a business day under the rule.
-// Kilowright follows the stricter-for-the-seller reading the product asks for: it skips
+// Kilowright follows a stricter-for-the-seller reading (our choice): it skips
 // Saturdays, Sundays and every U.S. federal holiday of 5 U.S.C. 6103(a) on its observed date
 // (a Saturday holiday on the Friday before, a Sunday holiday on the Monday after; 5 U.S.C.
 // 6103(b), Executive Order 11582). Each of these skips only moves the deadline later, so the

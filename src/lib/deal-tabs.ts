@@ -1,4 +1,4 @@
-/** The tabs of a deal room (PRODUCT.md, "Names"). */
+/** The tabs of a deal room, in the order a deal moves through them. */
 export const DEAL_TABS = [
   { segment: "", label: "Household" },
   { segment: "energy", label: "Energy" },

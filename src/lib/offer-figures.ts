@@ -220,28 +220,6 @@ export function suggestStrings(total: number, mod: ModuleSpec, inv: InverterSpec
   return sizes;
 }
 
-// ── Production and usage summary (the Design tab's figures) ─────────────────────────────
-
-export type ProductionSummary = {
-  monthlyKwh: number[];
-  annualKwh: number;
-  offsetPct: number | null;
-  specificYieldKwhPerKw: number | null;
-  kwDc: number;
-};
-
-export function summarizeProduction(hourlyKwh: ArrayLike<number>, kwDc: number, annualUsageKwh: number): ProductionSummary {
-  const monthlyKwh = monthlySums(hourlyKwh);
-  const annualKwh = monthlyKwh.reduce((a, b) => a + b, 0);
-  return {
-    monthlyKwh,
-    annualKwh,
-    offsetPct: annualUsageKwh > 0 ? (annualKwh / annualUsageKwh) * 100 : null,
-    specificYieldKwhPerKw: kwDc > 0 ? annualKwh / kwDc : null,
-    kwDc,
-  };
-}
-
 // ── An offer's figures ───────────────────────────────────────────────────────────────────
 
 export type OfferAssumptions = {

@@ -1,4 +1,4 @@
-// The one permission table (PRODUCT.md, "The people and what each must get done").
+// The one permission table: what each role (owner, admin, office manager, sales rep, crew) may do.
 // Every server action and route handler names one of these; pages use the same table to
 // decide which sections to show. Shared by server and browser, so no server imports here.
 import type { Role } from "@/lib/enums";

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { cancelWindowClosesAt, canStillCancel, formatIsoDateLong, localIsoDate, proposalDisplayStatus, proposalLabel, proposalLinkState } from "./proposal-snapshot";
+import { cancelWindowClosesAt, canStillCancel, formatIsoDateLong, proposalDisplayStatus, proposalLabel, proposalLinkState } from "./proposal-snapshot";
+import { dateInZone } from "./zoned-time";
 
 const future = new Date(Date.now() + 86_400_000);
 const past = new Date(Date.now() - 86_400_000);
@@ -33,8 +34,8 @@ describe("the cancellation window (16 CFR 429.1(a): prior to midnight of the dea
   });
 
   it("counts the signing day in the company's time zone", () => {
-    expect(localIsoDate(new Date("2026-12-05T03:00:00Z"), "America/New_York")).toBe("2026-12-04");
-    expect(localIsoDate(new Date("2026-12-05T06:00:00Z"), "America/New_York")).toBe("2026-12-05");
+    expect(dateInZone(new Date("2026-12-05T03:00:00Z"), "America/New_York")).toBe("2026-12-04");
+    expect(dateInZone(new Date("2026-12-05T06:00:00Z"), "America/New_York")).toBe("2026-12-05");
   });
 
   it("is open only for a signed in-home sale before the close", () => {

@@ -3,6 +3,7 @@
 // assumptions behind them into sentences, so the customer's page and the PDF read only the
 // snapshot, never the live offers, catalog or price book. Also: the states a proposal link can
 // be in, and the right-to-cancel window. No server or browser imports.
+import { addDaysToDate, dateInZone, startOfDayInZone } from "@/lib/zoned-time";
 import { OFFER_CAUTION, STRING_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { depositFor } from "@/lib/pricing";
 import type { OfferInputs } from "@/lib/schemas/offer";
@@ -185,27 +186,12 @@ export function proposalDisplayStatus(p: { status: string; expiresAt: Date; firs
 // Days are the company's calendar days (Settings → Company time zone): installers sell in
 // their own area, so it stands in for the household's own time zone, which is not recorded.
 
-/** The calendar date (YYYY-MM-DD) of an instant in a time zone. */
-export function localIsoDate(at: Date, timeZone: string): string {
-  const parts = new Intl.DateTimeFormat("en-US", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).formatToParts(at);
-  const get = (type: string) => parts.find((x) => x.type === type)?.value ?? "";
-  return `${get("year")}-${get("month")}-${get("day")}`;
-}
-
-/** How far the zone's wall clock is ahead of UTC at an instant, ms. */
-function zoneOffsetMs(at: Date, timeZone: string): number {
-  const parts = new Intl.DateTimeFormat("en-US", { timeZone, hourCycle: "h23", year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit" }).formatToParts(at);
-  const get = (type: string) => Number(parts.find((x) => x.type === type)?.value ?? 0);
-  const wall = Date.UTC(get("year"), get("month") - 1, get("day"), get("hour"), get("minute"), get("second"));
-  return wall - Math.floor(at.getTime() / 1000) * 1000;
-}
+/** Kept for src/server/jobs.ts until it imports dateInZone from src/lib/zoned-time.ts itself. */
+export const localIsoDate = dateInZone;
 
 /** The instant the deadline day ends: midnight after it, in the time zone (16 CFR 429.1(a): "prior to midnight"). */
 export function cancelWindowClosesAt(deadlineIsoDate: string, timeZone: string): Date {
-  const wallMidnight = Date.parse(`${deadlineIsoDate}T00:00:00Z`) + 86_400_000;
-  let t = wallMidnight - zoneOffsetMs(new Date(wallMidnight), timeZone);
-  t = wallMidnight - zoneOffsetMs(new Date(t), timeZone); // once more, in case daylight saving changed in between
-  return new Date(t);
+  return startOfDayInZone(addDaysToDate(deadlineIsoDate, 1), timeZone);
 }
 
 export function canStillCancel(p: { status: string; inHomeSale: boolean; cancelDeadline: string | null }, timeZone: string, now = new Date()): boolean {

@@ -1,4 +1,4 @@
-// The app's sections (PRODUCT.md, "Names"), each behind a permission. Only sections that
+// The app's sections as named in the navigation, each behind a permission. Only sections that
 // work are listed.
 import type { Role } from "@/lib/enums";
 import { can, type Permission } from "@/lib/permissions";

@@ -1,10 +1,10 @@
-// Stage rules (PRODUCT.md, "Stages"): which manual moves are allowed and what they require.
+// Stage rules: which manual moves are allowed and what they require.
 // Pure: shared by the server (which enforces them) and the board (which explains them).
 import { z } from "zod";
 import { STAGES, type Role, type Stage } from "@/lib/enums";
 import { STAGE_LABELS } from "@/lib/stages";
 
-/** The main line of a deal, in order (PRODUCT.md). */
+/** The main line of a deal, from first contact to a running system, in order. */
 export const PIPELINE: readonly Stage[] = [
   "lead",
   "bills_in",

@@ -1,6 +1,6 @@
 import type { Stage } from "@/lib/enums";
 
-/** The stage names people read (PRODUCT.md, "Stages"). */
+/** The stage names people read on the board, the deals table and the timeline. */
 export const STAGE_LABELS: Record<Stage, string> = {
   lead: "Lead",
   bills_in: "Bills in",

@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { fileTypeFromBuffer } from "file-type";
 import Papa from "papaparse";
+import { isBlankRecord, readCsvRecords } from "@/engine/csv";
 import type { z } from "zod";
 import { inverterModel, moduleModel } from "@/db/schema";
 import {
@@ -319,27 +320,9 @@ export async function readCsvUpload(req: Request): Promise<{ text: string; mode:
 
 type CsvRow = { line: number; cells: Record<string, string> };
 
-/** Parses the CSV with Papa Parse, keeping each row's line number in the file. */
+/** Parses the CSV with Papa Parse (src/engine/csv.ts), keeping each row's line number in the file. */
 function readCsv(text: string, columns: readonly CsvColumn[]): { rows: CsvRow[]; errors: CsvRowError[] } {
-  const normalized = text.replace(/^\uFEFF/, "").replace(/\r\n?/g, "\n");
-  const raw: { line: number; cells: string[]; problem?: string }[] = [];
-  let prevCursor = 0;
-  let newlinesBefore = 0;
-  Papa.parse<string[]>(normalized, {
-    delimiter: ",",
-    newline: "\n",
-    skipEmptyLines: false,
-    step: (result) => {
-      const line = newlinesBefore + 1;
-      const consumed = normalized.slice(prevCursor, result.meta.cursor);
-      for (const ch of consumed) if (ch === "\n") newlinesBefore++;
-      prevCursor = result.meta.cursor;
-      const problem = result.errors.find((e) => e.type !== "Delimiter")?.message;
-      raw.push({ line, cells: result.data, problem });
-    },
-  });
-  const isBlank = (cells: string[]) => cells.every((c) => c.trim() === "");
-  const meaningful = raw.filter((r) => !isBlank(r.cells));
+  const meaningful = readCsvRecords(text).filter((r) => !isBlankRecord(r));
   const errors: CsvRowError[] = [];
   const header = meaningful.shift();
   if (!header) return { rows: [], errors: [{ line: 1, column: "file", message: "The file has no header row and no data." }] };

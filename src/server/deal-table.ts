@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, count, desc, eq, gte, inArray, isNull, like, lt, or, sql, type SQL } from "drizzle-orm";
 import type { AnyMySqlColumn } from "drizzle-orm/mysql-core";
 import { LRUCache } from "lru-cache";
+import Papa from "papaparse";
 import type { z } from "zod";
 import { deal, dealsRevision, household, membership, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
@@ -351,20 +352,18 @@ export async function* dealTableChunks(member: Member, filters: DealTableFilters
 
 export const CSV_HEADER = ["Household", "City", "Stage", "System kW DC", "Contract USD", "In stage since", "Created", "Owner", "Source", "Deal ID"];
 
-/** One CSV cell: text that a spreadsheet would run as a formula gets an apostrophe; quotes when needed. */
-export function csvCell(value: string | number | null): string {
-  if (value == null) return "";
-  let text = String(value);
-  if (/^[=+\-@\t\r]/.test(text)) text = `'${text}`;
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+/**
+ * CSV lines (RFC 4180, CRLF after each, so chunks can be joined). Papa Parse quotes what needs
+ * it, and `escapeFormulae` puts an apostrophe before text a spreadsheet would run as a formula
+ * (=, +, -, @, tab, CR: OWASP "CSV Injection").
+ */
+export function csvLines(rows: Array<Array<string | number | null>>): string {
+  if (rows.length === 0) return "";
+  return `${Papa.unparse(rows, { newline: "\r\n", escapeFormulae: true })}\r\n`;
 }
 
-export function csvLine(cells: Array<string | number | null>): string {
-  return `${cells.map(csvCell).join(",")}\r\n`;
-}
-
-export function csvRow(r: DealTableRow): string {
-  return csvLine([
+function csvCells(r: DealTableRow): Array<string | null> {
+  return [
     r.householdName,
     r.city,
     STAGE_LABELS[r.stage],
@@ -375,7 +374,7 @@ export function csvRow(r: DealTableRow): string {
     r.ownerName,
     r.source,
     r.id,
-  ]);
+  ];
 }
 
 /** The whole filtered view as a CSV stream (header first), built 1,000 rows at a time. */
@@ -387,13 +386,13 @@ export function dealTableCsvStream(member: Member, filters: DealTableFilters): R
     async pull(controller) {
       if (!headerSent) {
         headerSent = true;
-        controller.enqueue(encoder.encode(csvLine(CSV_HEADER)));
+        controller.enqueue(encoder.encode(csvLines([CSV_HEADER])));
         return;
       }
       try {
         const next = await chunks.next();
         if (next.done) controller.close();
-        else controller.enqueue(encoder.encode(next.value.map(csvRow).join("")));
+        else controller.enqueue(encoder.encode(csvLines(next.value.map(csvCells))));
       } catch (err) {
         controller.error(err);
       }

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, desc, eq, like, or, type SQL } from "drizzle-orm";
 import type { z } from "zod";
-import { deal, household, ratePlan, STAGES, user, type Stage } from "@/db/schema";
+import { deal, household, ratePlan, user, type Stage } from "@/db/schema";
 import type { householdSchema, leadSchema } from "@/lib/schemas/deal";
 import { can } from "@/lib/permissions";
 import { db } from "@/server/db";
@@ -73,12 +73,6 @@ export async function getDealOrThrow(member: Member, dealId: string): Promise<De
     .limit(1);
   if (!row) throw notFound("Deal");
   return row;
-}
-
-export async function countDealsByStage(member: Member): Promise<Record<Stage, number>> {
-  const counts = Object.fromEntries(STAGES.map((s) => [s, 0])) as Record<Stage, number>;
-  for (const row of await listDeals(member)) counts[row.stage] += 1;
-  return counts;
 }
 
 export async function getHouseholdOrThrow(member: Member, householdId: string) {

@@ -16,7 +16,8 @@ import { SignatureImageError, stampSignedPdf } from "@/documents/signed-pdf";
 import { env } from "@/env";
 import { cancelDeadline } from "@/lib/business-days";
 import { formatCents, formatDateTime } from "@/lib/format";
-import { formatIsoDateLong, localIsoDate, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
+import { formatIsoDateLong, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
+import { dateInZone } from "@/lib/zoned-time";
 import { MAX_VERIFY_FILE_BYTES, signProposalSchema, verifyCodeSchema } from "@/lib/schemas/proposal";
 import type { Stage } from "@/db/schema";
 import SignedCopyEmail from "@emails/signed-copy";
@@ -253,7 +254,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
         .concat([{ at: now, kind: "signed", detail: EVENT_TEXT.signed({ body: null, ip: client.ip }) }]);
 
       // The deadline counts from the day of signing in the company's time zone (Settings → Company).
-      const signedOn = localIsoDate(now, timeZone);
+      const signedOn = dateInZone(now, timeZone);
       const deadline = row.inHomeSale ? cancelDeadline(signedOn) : null;
       const unsigned = await readProposalPdf(row, "unsigned");
       if (sha256Hex(unsigned) !== row.pdfSha256) throw new Error(`proposal ${p.id}: the stored PDF does not match its recorded SHA-256`);

@@ -75,8 +75,8 @@ export async function permitApprovedOn(companyId: string, dealId: string): Promi
 }
 
 /**
- * A move caused by the customer, by Stripe or by a job date (PRODUCT.md, "Stages": these happen
- * by themselves). Call it inside the transaction of the change that causes it; it moves the
+ * A move caused by the customer, by Stripe or by a job date (these moves happen by
+ * themselves; nobody drags the card). Call it inside the transaction of the change that causes it; it moves the
  * deal only from one of `from` (so a late or repeated event never drags a deal backwards) and
  * writes the Timeline event in the same transaction. Returns whether the deal moved.
  */

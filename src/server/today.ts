@@ -1,6 +1,5 @@
 import "server-only";
-import { localIsoDate } from "@/lib/proposal-snapshot";
-import { addDaysIso } from "@/server/jobs";
+import { addDaysToDate, todayInZone } from "@/lib/zoned-time";
 import { and, asc, count, desc, eq, gt, gte, isNotNull, isNull, lte, ne, notInArray, or, sql, sum, type SQL } from "drizzle-orm";
 import { deal, household, job, membership, payment, proposal, proposalEvent, STAGES, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
@@ -295,7 +294,7 @@ async function crewOf(member: Member): Promise<string | null> {
  */
 export async function getTodayQueues(member: Member, now = new Date()): Promise<TodayQueues> {
   const settings = await getCompanySettings(member.companyId);
-  const today = localIsoDate(now, settings.timeZone);
+  const today = todayInZone(settings.timeZone, now);
   const seller = can(member.role, "deals:read-own");
   const office = can(member.role, "deals:read-all");
   const isCrew = member.role === "crew";
@@ -318,7 +317,7 @@ export async function getTodayQueues(member: Member, now = new Date()): Promise<
       ? (async () => {
           const crewId = await crewOf(member);
           if (!crewId) return { crewId: null, today: [], thisWeek: [] };
-          const visits = await crewVisits(member, crewId, today, addDaysIso(today, 6));
+          const visits = await crewVisits(member, crewId, today, addDaysToDate(today, 6));
           return { crewId, today: visits.filter((v) => v.date === today), thisWeek: visits.filter((v) => v.date !== today) };
         })()
       : null,

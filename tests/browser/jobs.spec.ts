@@ -139,6 +139,9 @@ test("an installer sees only their crew's jobs, works through the packet and mar
   await expect(page.getByText(/checklist items are still open/)).toBeVisible();
   await page.getByRole("button", { name: "Yes, installed" }).click();
   await expect(page.getByTestId("installed-status")).toBeVisible();
+  // Shown on the demo company's clock (Settings → Company: America/New_York), whatever the server's zone.
+  const zoneName = new Intl.DateTimeFormat("en-US", { timeZone: "America/New_York", timeZoneName: "short" }).formatToParts(new Date()).find((p) => p.type === "timeZoneName")?.value;
+  await expect(page.getByTestId("installed-status")).toContainText(`${zoneName}.`);
   await expect(page.getByTestId("job-stage")).toHaveText("Installed");
   const stage = await withDb(async (conn) => {
     const [rows] = await conn.query("SELECT stage FROM deal WHERE id = ?", [dealId]);

@@ -1,7 +1,7 @@
 import { expect, test } from "@playwright/test";
 import { apiSignIn, signIn, alertOf } from "./support";
 
-// Sections each demo role sees (src/lib/sections.ts; PRODUCT.md's people and tasks).
+// Sections each demo role sees (src/lib/sections.ts and the permission table in src/lib/permissions.ts).
 const ROLES = [
   { email: "owner@tallgrass.example", label: "Owner", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Rate plans", "Weather", "Settings", "Dev outbox"] },
   { email: "admin@tallgrass.example", label: "Admin", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Rate plans", "Weather", "Settings", "Dev outbox"] },

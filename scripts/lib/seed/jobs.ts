@@ -8,6 +8,7 @@ import { and, desc, eq } from "drizzle-orm";
 import sharp from "sharp";
 import { checklistTemplate, crew, job, jobPhoto, membership, proposal, timelineEvent, upload } from "../../../src/db/schema";
 import { DEFAULT_TIME_ZONE } from "../../../src/lib/schemas/company-settings";
+import { addDaysToDate, todayInZone } from "../../../src/lib/zoned-time";
 import type { ChecklistTemplateItem, JobChecklistItem } from "../../../src/lib/schemas/jobs";
 import type { SeedContext } from "../seed-demo";
 import { putSeedFile, seedStorageDir } from "../seed-files";
@@ -46,8 +47,7 @@ const CHECKLIST: ChecklistTemplateItem[] = [
 
 /** Today in the company's time zone, shifted by whole days (job dates are calendar days). */
 function day(offset: number): string {
-  const today = new Intl.DateTimeFormat("en-CA", { timeZone: DEFAULT_TIME_ZONE, year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date());
-  return new Date(Date.parse(`${today}T00:00:00Z`) + offset * 86_400_000).toISOString().slice(0, 10);
+  return addDaysToDate(todayInZone(DEFAULT_TIME_ZONE), offset);
 }
 const at = (offsetDays: number, hour = 15) => new Date(Date.parse(`${day(offsetDays)}T${String(hour).padStart(2, "0")}:00:00Z`));
 

@@ -37,7 +37,8 @@ import { parseWeather, type WeatherYear } from "../../../src/engine/weather";
 import { cancelDeadline } from "../../../src/lib/business-days";
 import { formatCents } from "../../../src/lib/format";
 import { computeOfferFigures, engineSystem } from "../../../src/lib/offer-figures";
-import { buildProposalSnapshot, formatIsoDateLong, localIsoDate, proposalLabel, type SnapshotSource } from "../../../src/lib/proposal-snapshot";
+import { buildProposalSnapshot, formatIsoDateLong, proposalLabel, type SnapshotSource } from "../../../src/lib/proposal-snapshot";
+import { dateInZone } from "../../../src/lib/zoned-time";
 import { DEFAULT_TIME_ZONE } from "../../../src/lib/schemas/company-settings";
 import { designDocumentSchema, type DesignDocument } from "../../../src/lib/schemas/design";
 import { offerInputsSchema, type OfferInputs, type OfferInputsInput } from "../../../src/lib/schemas/offer";
@@ -218,7 +219,7 @@ async function writeProposal(
   let signed: Partial<typeof proposal.$inferInsert> = {};
   if (p.sign) {
     const offerSigned = p.snapshot.offers.find((o) => o.position === p.sign?.position) ?? p.snapshot.offers[0];
-    const signedOn = localIsoDate(p.sign.at, DEFAULT_TIME_ZONE);
+    const signedOn = dateInZone(p.sign.at, DEFAULT_TIME_ZONE);
     const deadline = p.inHomeSale ? cancelDeadline(signedOn) : null;
     const detail: Record<string, (e: EventSpec) => string> = {
       sent: (e) => `Proposal sent ${e.body ?? ""}`.trim(),

@@ -120,9 +120,6 @@ const moduleFields = z.object({
   encapsulant,
 });
 
-/** Editable module fields without the cross-field checks (for partial updates, merged then checked whole). */
-export const moduleFieldsSchema = moduleFields;
-
 const round1 = (v: number) => Math.round(v * 10) / 10;
 
 export const moduleModelSchema = moduleFields.superRefine((m, ctx) => {

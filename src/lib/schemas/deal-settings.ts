@@ -12,4 +12,3 @@ export const dealUtilitySchema = z.object({
     .transform((v) => (v === "" ? null : v))
     .pipe(z.uuid("Pick a rate plan from the list").nullable()),
 });
-export type DealUtilityInput = z.input<typeof dealUtilitySchema>;

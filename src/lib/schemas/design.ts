@@ -41,7 +41,6 @@ export const designWeatherSchema = z.discriminatedUnion("kind", [
     source: plainText().trim().min(3, "Say where the figure comes from").max(300),
   }),
 ]);
-export type DesignWeather = z.output<typeof designWeatherSchema>;
 
 /** Common cold design default when no site figure is typed, °C (our choice; replace with the site's record low). */
 /** Combined losses default, %: the PVWatts v5 default breakdown combines to about 14 % (Dobos 2014). */
@@ -60,7 +59,6 @@ export const stringPlanSchema = z
     highestTempC: num("Highest temperature").min(-20).max(60),
   })
   .refine((p) => p.highestTempC > p.lowestTempC, { path: ["highestTempC"], message: "Must be above the lowest temperature" });
-export type StringPlan = z.output<typeof stringPlanSchema>;
 
 export const designDocumentSchema = z
   .object({
@@ -91,4 +89,3 @@ export const saveDesignSchema = z.object({
   dealId: z.string().uuid("Unknown deal"),
   document: designDocumentSchema,
 });
-export type SaveDesignInput = z.input<typeof saveDesignSchema>;

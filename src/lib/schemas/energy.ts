@@ -14,7 +14,6 @@ export const billRowSchema = z
   .refine((b) => b.periodEnd > b.periodStart, { path: ["periodEnd"], message: "The end must be after the start" });
 
 export const billsTableSchema = z.object({ bills: z.array(billRowSchema).max(36, "Keep to the last 36 bills") });
-export type BillsTableInput = z.input<typeof billsTableSchema>;
 
 export const MAX_BILL_FILE_BYTES = 10 * 1024 * 1024;
 /** Interval data (Green Button XML, CSV) may be larger than a bill: a year of 15-minute readings. */

@@ -113,9 +113,6 @@ export const checklistTickSchema = z.object({
   done: z.boolean({ error: "Say whether the item is done" }),
 });
 
-/** POST /api/jobs/[id]/installed */
-export const markInstalledSchema = z.object({ installed: z.literal(true).default(true) });
-
 /** Job photos: what the phone may send, and the largest file accepted. */
 export const JOB_PHOTO_MAX_BYTES = 25 * 1024 * 1024;
 export const JOB_PHOTO_MIME_TYPES = ["image/jpeg", "image/png", "image/webp"] as const;
@@ -137,7 +134,6 @@ export const updateCrewSchema = z
     memberIds: z.array(z.string().uuid("Unknown person")).max(50, "At most 50 people in a crew").optional(),
   })
   .refine((v) => v.name !== undefined || v.memberIds !== undefined, { message: "Nothing to change" });
-export type UpdateCrewInput = z.input<typeof updateCrewSchema>;
 
 // ── Checklist templates ─────────────────────────────────────────────────────────────────
 

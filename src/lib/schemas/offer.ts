@@ -64,4 +64,3 @@ export const discountDecisionSchema = z
     note: plainText({ multiline: true }).trim().max(1000).default(""),
   })
   .refine((d) => d.decision === "approve" || d.note.length >= 3, { path: ["note"], message: "Say why the discount is declined" });
-export type DiscountDecision = z.output<typeof discountDecisionSchema>;

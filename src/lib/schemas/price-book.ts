@@ -49,7 +49,6 @@ export type Adder = z.output<typeof adderSchema>;
 
 /** A fixed extra added to the offer as one line (e.g. a critter guard). */
 export const lineItemSchema = z.object({ id: idString, name: nameString, amountCents: cents });
-export type LineItem = z.output<typeof lineItemSchema>;
 
 /**
  * How much discount a role may give without approval: at most `maxCents`, and at most
@@ -91,7 +90,6 @@ export const depositPolicySchema = z.discriminatedUnion("kind", [
     })
     .refine((d) => d.minCents <= d.maxCents, { path: ["maxCents"], message: "must not be below the minimum" }),
 ]);
-export type DepositPolicy = z.output<typeof depositPolicySchema>;
 
 function uniqueIds(items: { id: string }[], ctx: z.RefinementCtx, field: string) {
   const seen = new Set<string>();

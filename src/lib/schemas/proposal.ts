@@ -64,7 +64,6 @@ export const sendProposalSchema = z.object({
   validDays: z.number().int("Whole days").min(1, "At least 1 day").max(90, "At most 90 days").default(DEFAULT_PROPOSAL_LINK_DAYS),
   inHomeSale: z.boolean().default(true),
 });
-export type SendProposalInput = z.input<typeof sendProposalSchema>;
 
 /** POST /p/[token]/code — check the one-time code. */
 export const verifyCodeSchema = z.object({ code: z.string().trim().regex(/^\d{6}$/, "Enter the 6 digits from the e-mail") });

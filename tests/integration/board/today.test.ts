@@ -7,8 +7,7 @@ import { company, crew, job, membership, payment, proposal, proposalEvent } from
 import { DEFAULT_STALL_SETTINGS } from "@/lib/schemas/company-settings";
 import { db } from "@/server/db";
 import type { Member } from "@/server/session";
-import { localIsoDate } from "@/lib/proposal-snapshot";
-import { addDaysIso } from "@/server/jobs";
+import { addDaysToDate, todayInZone } from "@/lib/zoned-time";
 import { getTodayQueues, getTodaySummary } from "@/server/today";
 import { addMember, newCompany } from "../support/fixtures";
 import { newDeal } from "./support";
@@ -212,19 +211,19 @@ describe("a crew member's Today", () => {
     await db().update(membership).set({ crewId: crewB }).where(eq(membership.id, otherInstaller.membershipId));
     // A fixed instant: 2026-06-10 15:00 UTC is 11:00 in New York.
     const now = new Date("2026-06-10T15:00:00Z");
-    const today = localIsoDate(now, "America/New_York");
+    const today = todayInZone("America/New_York", now);
     expect(today).toBe("2026-06-10");
 
     const d1 = await newDeal(owner, "install_booked", { name: "Install today household" });
     await newJob(owner, d1, { crewId: crewA, installDate: today });
     const d2 = await newDeal(owner, "survey", { name: "Survey later household" });
-    await newJob(owner, d2, { crewId: crewA, surveyDate: addDaysIso(today, 6), inspectionOn: addDaysIso(today, 7) });
+    await newJob(owner, d2, { crewId: crewA, surveyDate: addDaysToDate(today, 6), inspectionOn: addDaysToDate(today, 7) });
     const d3 = await newDeal(owner, "installed", { name: "Inspection soon household" });
-    await newJob(owner, d3, { crewId: crewA, installDate: addDaysIso(today, -3), inspectionOn: addDaysIso(today, 2) });
+    await newJob(owner, d3, { crewId: crewA, installDate: addDaysToDate(today, -3), inspectionOn: addDaysToDate(today, 2) });
     const d4 = await newDeal(owner, "install_booked", { name: "Crew B household" });
     await newJob(owner, d4, { crewId: crewB, installDate: today });
     const d5 = await newDeal(owner, "cancelled", { name: "Cancelled install household" });
-    await newJob(owner, d5, { crewId: crewA, installDate: addDaysIso(today, 1) });
+    await newJob(owner, d5, { crewId: crewA, installDate: addDaysToDate(today, 1) });
 
     const q = await getTodayQueues(installer, now);
     expect(q.today).toBe(today);

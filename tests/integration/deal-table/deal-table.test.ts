@@ -4,7 +4,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { deal, household, STAGES } from "@/db/schema";
 import { dealTableFiltersSchema, dealTableQuerySchema } from "@/lib/schemas/deal-table";
 import { db, pool } from "@/server/db";
-import { CSV_HEADER, csvCell, dealTableCsvStream, dealTablePage } from "@/server/deal-table";
+import { CSV_HEADER, csvLines, dealTableCsvStream, dealTablePage } from "@/server/deal-table";
 import type { Member } from "@/server/session";
 import { addMember, newCompany } from "../support/fixtures";
 
@@ -202,11 +202,11 @@ describe("deals table over 10,000 deals", () => {
   });
 
   it("escapes CSV cells", () => {
-    expect(csvCell('Say "hi", ok')).toBe('"Say ""hi"", ok"');
-    expect(csvCell("+1 555")).toBe("'+1 555");
-    expect(csvCell("-x")).toBe("'-x");
-    expect(csvCell("@home")).toBe("'@home");
-    expect(csvCell(null)).toBe("");
-    expect(csvCell("line\nbreak")).toBe('"line\nbreak"');
+    const text = csvLines([['Say "hi", ok', "+1 555", "-x", "@home", null, "line\nbreak", "=SUM(A1)"]]);
+    expect(text.endsWith("\r\n")).toBe(true);
+    expect(text).toContain('"Say ""hi"", ok"');
+    const parsed = Papa.parse<string[]>(text.trimEnd());
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.data).toEqual([['Say "hi", ok', "'+1 555", "'-x", "'@home", "", "line\nbreak", "'=SUM(A1)"]]);
   });
 });

@@ -75,7 +75,7 @@ export async function startHarness(webhookUrl: string | null): Promise<Harness> 
 
 function requiredEnv(name: string): string {
   const v = process.env[name];
-  if (!v) throw new Error(`${name} must be set for the deposits tests (see the helper brief's test environment)`);
+  if (!v) throw new Error(`${name} must be set for the deposits tests (run them through scripts/test.ts, which sets it for the test instance in scripts/lib/instance.ts)`);
   return v;
 }
 

@@ -8,7 +8,8 @@ import { notFound } from "next/navigation";
 import type { ReactNode } from "react";
 import { Wordmark } from "@/components/wordmark";
 import { formatCents, formatDate, formatDateTime } from "@/lib/format";
-import { formatIsoDateLong, localIsoDate, proposalLinkState } from "@/lib/proposal-snapshot";
+import { formatIsoDateLong, proposalLinkState } from "@/lib/proposal-snapshot";
+import { dateInZone } from "@/lib/zoned-time";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { cancelWindowOf, clientMeta, findProposalByToken, labelOf, recordProposalView, type ProposalRow } from "@/server/proposals";
 import { CancelForm } from "./cancel-form";
@@ -210,7 +211,7 @@ async function SignedPage({ p, token }: { p: ProposalRow; token: string }) {
 function RightToCancel({ p, token, cancelWindow }: { p: ProposalRow; token: string; cancelWindow: { deadline: string; timeZone: string; open: boolean } }) {
   const s = p.snapshot;
   const deadlineText = formatIsoDateLong(cancelWindow.deadline);
-  const signedOn = p.signedAt ? formatIsoDateLong(localIsoDate(p.signedAt, cancelWindow.timeZone)) : "—";
+  const signedOn = p.signedAt ? formatIsoDateLong(dateInZone(p.signedAt, cancelWindow.timeZone)) : "—";
   return (
     <section aria-labelledby="cancel-heading" className="card p-4" data-testid="right-to-cancel">
       <h2 id="cancel-heading" className="text-lg font-semibold">

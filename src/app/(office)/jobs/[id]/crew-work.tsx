@@ -8,14 +8,15 @@ import type { JobChecklistItem } from "@/lib/schemas/jobs";
 
 type PhotoThumb = { id: string; caption: string | null; widthPx: number; heightPx: number; uploadedByName: string | null };
 
-const timeFmt = new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", hour: "numeric", minute: "2-digit" });
 
 /** The crew's work on a job: the install checklist, photos from the phone's camera, and "installed". */
-export function CrewWork(props: { jobId: string; canWork: boolean; checklist: JobChecklistItem[]; photos: PhotoThumb[]; installedAt: string | null }) {
+export function CrewWork(props: { jobId: string; canWork: boolean; checklist: JobChecklistItem[]; photos: PhotoThumb[]; installedAt: string | null; timeZone: string }) {
   const router = useRouter();
   const [items, setItems] = useState(props.checklist);
   const [photos, setPhotos] = useState(props.photos);
   const [installedAt, setInstalledAt] = useState(props.installedAt);
+  // The company's zone, not the runtime's: the server render and the browser then print the same time.
+  const timeFmt = new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", hour: "numeric", minute: "2-digit", timeZone: props.timeZone, timeZoneName: "short" });
   const [busyItem, setBusyItem] = useState<string | null>(null);
   const [uploading, setUploading] = useState(false);
   const [confirming, setConfirming] = useState(false);

@@ -16,7 +16,7 @@ function compass(azimuthDeg: number): string {
  * string plan with its checks and cautions, notes, site photos, then the crew's work
  * (checklist, photos, installed).
  */
-export function PacketView({ packet, canWork }: { packet: JobPacket; canWork: boolean }) {
+export function PacketView({ packet, canWork, timeZone }: { packet: JobPacket; canWork: boolean; timeZone: string }) {
   const { job, customer, site, system } = packet;
   const address = `${site.street}, ${site.city}, ${site.region} ${site.postalCode}`;
   const visits = [
@@ -239,6 +239,7 @@ export function PacketView({ packet, canWork }: { packet: JobPacket; canWork: bo
         checklist={job.checklist}
         photos={packet.photos.map((p) => ({ id: p.id, caption: p.caption, widthPx: p.widthPx, heightPx: p.heightPx, uploadedByName: p.uploadedByName }))}
         installedAt={job.installedAt ? job.installedAt.toISOString() : null}
+        timeZone={timeZone}
       />
 
       <p>

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
+import { getCompanySettings } from "@/server/company-settings";
 import { listCrewOptions } from "@/server/crews";
 import { HttpError } from "@/server/errors";
 import { getJobPacket } from "@/server/jobs";
@@ -26,6 +27,8 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   const { job } = packet;
   const office = can(member.role, "jobs:manage");
   const canWork = can(member.role, "jobs:work");
+  // Times the crew records are shown on the company's clock, the same on the server and in the browser.
+  const { timeZone } = await getCompanySettings(member.companyId);
 
   const header = (
     <header className="flex flex-wrap items-start justify-between gap-3">
@@ -48,7 +51,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
     return (
       <div className="mx-auto max-w-xl space-y-4">
         {header}
-        <PacketView packet={packet} canWork={canWork} />
+        <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
       </div>
     );
   }
@@ -87,7 +90,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
         <h2 className="text-xl font-semibold">Job packet</h2>
         <p className="text-sm text-graphite-soft">What the crew sees on their phone.</p>
         <div className="mt-3 max-w-2xl">
-          <PacketView packet={packet} canWork={canWork} />
+          <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
         </div>
       </div>
     </div>
