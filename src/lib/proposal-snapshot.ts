@@ -3,7 +3,7 @@
 // assumptions behind them into sentences, so the customer's page and the PDF read only the
 // snapshot, never the live offers, catalog or price book. Also: the states a proposal link can
 // be in, and the right-to-cancel window. No server or browser imports.
-import { addDaysToDate, dateInZone, startOfDayInZone } from "@/lib/zoned-time";
+import { addDaysToDate, startOfDayInZone } from "@/lib/zoned-time";
 import { OFFER_CAUTION, STRING_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { depositFor } from "@/lib/pricing";
 import type { OfferInputs } from "@/lib/schemas/offer";
@@ -185,9 +185,6 @@ export function proposalDisplayStatus(p: { status: string; expiresAt: Date; firs
 // ── Right to cancel (16 CFR Part 429) ──────────────────────────────────────────────────────
 // Days are the company's calendar days (Settings → Company time zone): installers sell in
 // their own area, so it stands in for the household's own time zone, which is not recorded.
-
-/** Kept for src/server/jobs.ts until it imports dateInZone from src/lib/zoned-time.ts itself. */
-export const localIsoDate = dateInZone;
 
 /** The instant the deadline day ends: midnight after it, in the time zone (16 CFR 429.1(a): "prior to midnight"). */
 export function cancelWindowClosesAt(deadlineIsoDate: string, timeZone: string): Date {

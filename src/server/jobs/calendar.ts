@@ -5,7 +5,8 @@ import { env } from "@/env";
 import { company, deal, household, job } from "@/db/schema";
 import { findCrewByFeedToken } from "@/server/crews";
 import { db } from "@/server/db";
-import { addDaysIso, companyToday, JOB_DATE_LABELS, type JobDateKind } from "./dates";
+import { addDaysToDate } from "@/lib/zoned-time";
+import { companyToday, JOB_DATE_LABELS, type JobDateKind } from "./dates";
 
 // ── The crew's calendar feed (RFC 5545) ─────────────────────────────────────────────────
 
@@ -42,7 +43,7 @@ export async function crewCalendarIcs(token: string, now = new Date()): Promise<
     .where(and(eq(job.companyId, found.companyId), eq(job.crewId, found.id)))
     .orderBy(asc(job.id));
   const [co] = await db().select({ name: company.name }).from(company).where(eq(company.id, found.companyId)).limit(1);
-  const since = addDaysIso(await companyToday(found.companyId, now), -FEED_PAST_DAYS);
+  const since = addDaysToDate(await companyToday(found.companyId, now), -FEED_PAST_DAYS);
   const calendar = ical({
     name: `${found.name} — ${co?.name ?? "Jobs"}`,
     prodId: { company: "Kilowright", product: "Crew jobs", language: "EN" },
@@ -61,7 +62,7 @@ export async function crewCalendarIcs(token: string, now = new Date()): Promise<
       calendar.createEvent({
         id: `job-${r.id}-${v.kind}@kilowright`,
         start: new Date(`${v.date}T00:00:00Z`),
-        end: new Date(`${addDaysIso(v.date, 1)}T00:00:00Z`),
+        end: new Date(`${addDaysToDate(v.date, 1)}T00:00:00Z`),
         allDay: true,
         stamp: r.updatedAt,
         summary: `${JOB_DATE_LABELS[v.kind]}: ${r.householdName}`,

@@ -1,5 +1,5 @@
 import "server-only";
-import { localIsoDate } from "@/lib/proposal-snapshot";
+import { addDaysToDate, todayInZone } from "@/lib/zoned-time";
 import { getCompanySettings } from "@/server/company-settings";
 
 // ── Dates ────────────────────────────────────────────────────────────────────────────────
@@ -7,11 +7,7 @@ import { getCompanySettings } from "@/server/company-settings";
 /** Today in the company's time zone (Settings → Company). */
 export async function companyToday(companyId: string, now = new Date()): Promise<string> {
   const { timeZone } = await getCompanySettings(companyId);
-  return localIsoDate(now, timeZone);
-}
-
-export function addDaysIso(iso: string, days: number): string {
-  return new Date(Date.parse(`${iso}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
+  return todayInZone(timeZone, now);
 }
 
 export type JobDateKind = "survey" | "install" | "inspection";
@@ -36,5 +32,5 @@ export function nextJobDate(
 export function jobBucket(next: { date: string } | null, today: string): JobBucket {
   if (!next) return "none";
   if (next.date === today) return "today";
-  return next.date <= addDaysIso(today, 6) ? "week" : "later";
+  return next.date <= addDaysToDate(today, 6) ? "week" : "later";
 }

@@ -1,6 +1,6 @@
 import "server-only";
 export { createJobForDeal } from "./create";
-export { companyToday, addDaysIso, type JobDateKind, JOB_DATE_LABELS, type JobBucket, nextJobDate, jobBucket } from "./dates";
+export { companyToday, type JobDateKind, JOB_DATE_LABELS, type JobBucket, nextJobDate, jobBucket } from "./dates";
 export { type JobListRow, listJobs, getJobRowOrThrow, getJobOrThrow, findJobForDeal } from "./read";
 export { type JobStageMove, jobStageMoves, type JobUpdateResult, updateJob } from "./office";
 export { setChecklistItem, applyActiveChecklist, markJobInstalled, listJobPhotos, getJobPhotoOrThrow, getJobPhotoFile, addJobPhoto } from "./crew-work";
