@@ -7,7 +7,7 @@ import { existsSync, readFileSync } from "node:fs";
 import path from "node:path";
 import type { PDFDocument, PDFFont } from "pdf-lib";
 import type { Font, Fontkit, Glyph } from "pdf-lib/cjs/types/fontkit";
-import { useNativeDeflate } from "./layout";
+import { useNativeDeflate } from "./deflate";
 
 export type DocFonts = { sans: PDFFont; sansBold: PDFFont; mono: PDFFont };
 

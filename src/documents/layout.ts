@@ -431,16 +431,6 @@ export function setFixedMetadata(pdf: PDFDocument, m: { title: string; subject?:
 }
 
 /**
- * Makes `pdf` compress the streams it embeds (font files, their Unicode maps, images) with
- * Node's zlib rather than pdf-lib's JavaScript deflate; the same idea as compressContentStreams.
- */
-export function useNativeDeflate(pdf: PDFDocument): void {
-  const context = pdf.context;
-  context.flateStream = (contents, dict = {}) =>
-    context.stream(deflateSync(typeof contents === "string" ? Buffer.from(contents, "latin1") : contents), { ...dict, Filter: "FlateDecode" });
-}
-
-/**
  * Compresses every page content stream with Node's zlib instead of pdf-lib's JavaScript deflate
  * (about half of a proposal's render time). Call it right before `save`: pages drawn on after
  * it would write to the replaced streams. zlib's output is fixed for a given zlib version, so

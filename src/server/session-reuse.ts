@@ -1,6 +1,6 @@
 import "server-only";
 import { LRUCache } from "lru-cache";
-import type { Member } from "@/server/session";
+import type { Member } from "@/server/member";
 
 /**
  * Who is asking, reused for a few seconds per Cookie header. Answering it costs better-auth's

@@ -2,23 +2,17 @@ import "server-only";
 import { and, eq, sql } from "drizzle-orm";
 import { headers } from "next/headers";
 import { cache } from "react";
-import { company, membership, type Role } from "@/db/schema";
+import { company, membership } from "@/db/schema";
 import { can, type Permission } from "@/lib/permissions";
 import { auth } from "@/server/auth";
 import { db } from "@/server/db";
 import { forbidden, unauthorized } from "@/server/errors";
+import type { Member } from "@/server/member";
 import { keepMember, reusedMember } from "@/server/session-reuse";
 
+export type { Member };
+
 /** A signed-in person with their company (the tenant) and role. */
-export type Member = {
-  userId: string;
-  name: string;
-  email: string;
-  membershipId: string;
-  companyId: string;
-  companyName: string;
-  role: Role;
-};
 
 function prepareMembershipQuery() {
   return db()

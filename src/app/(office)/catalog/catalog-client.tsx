@@ -2,48 +2,14 @@
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
 import { FormMessage } from "@/components/field";
-import { CELL_TECHNOLOGY_LABELS, CONSTRUCTION_LABELS, INVERTER_KIND_LABELS, type CellTechnology, type Construction, type InverterKind } from "@/lib/schemas/catalog";
+import { CELL_TECHNOLOGY_LABELS, CONSTRUCTION_LABELS, INVERTER_KIND_LABELS } from "@/lib/schemas/catalog";
 import { setInverterActiveAction, setModuleActiveAction } from "./actions";
 import { CsvColumnsHelp, CsvImport } from "./csv-import";
 import { InverterForm } from "./inverter-form";
 import { ModuleForm } from "./module-form";
+import type { InverterView, ModuleView } from "./catalog-views";
 
-export type ModuleView = {
-  id: string;
-  manufacturer: string;
-  model: string;
-  stcWatts: number;
-  vocV: number;
-  iscA: number;
-  vmpV: number;
-  impA: number;
-  gammaPmaxPctPerC: number;
-  betaVocPctPerC: number;
-  lengthMm: number;
-  widthMm: number;
-  cellTechnology: CellTechnology;
-  construction: Construction;
-  encapsulant: string | null;
-  active: boolean;
-};
-
-export type InverterView = {
-  id: string;
-  manufacturer: string;
-  model: string;
-  kind: InverterKind;
-  acWatts: number;
-  efficiencyPct: number;
-  maxDcVoltageV: number | null;
-  mpptMinV: number | null;
-  mpptMaxV: number | null;
-  maxInputCurrentA: number | null;
-  mpptCount: number | null;
-  dcInputMinV: number | null;
-  dcInputMaxV: number | null;
-  modulesPerUnit: number | null;
-  active: boolean;
-};
+export type { InverterView, ModuleView };
 
 type Notice = { tone: "error" | "success"; text: string } | null;
 type Editing<T> = { mode: "new" } | { mode: "edit"; row: T } | null;

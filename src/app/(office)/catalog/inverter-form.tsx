@@ -7,8 +7,7 @@ import { Field, FormMessage } from "@/components/field";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { INVERTER_KIND_LABELS, INVERTER_KINDS, inverterModelSchema, type InverterModelInput, type InverterModelValues } from "@/lib/schemas/catalog";
 import { createInverterAction, updateInverterAction } from "./actions";
-import type { InverterView } from "./catalog-client";
-import { withoutPrefix } from "./module-form";
+import { type InverterView, withoutPrefix } from "./catalog-views";
 
 type NumberField = { name: Path<InverterModelInput>; label: string; step: string };
 

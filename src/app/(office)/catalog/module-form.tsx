@@ -15,13 +15,7 @@ import {
   type ModuleModelValues,
 } from "@/lib/schemas/catalog";
 import { createModuleAction, updateModuleAction } from "./actions";
-import type { ModuleView } from "./catalog-client";
-
-/** Server field errors of an update arrive as "values.<field>"; the form's fields have no prefix. */
-export function withoutPrefix(fields: Record<string, string[]> | undefined): Record<string, string[]> | undefined {
-  if (!fields) return fields;
-  return Object.fromEntries(Object.entries(fields).map(([k, v]) => [k.replace(/^values\./, ""), v]));
-}
+import { type ModuleView, withoutPrefix } from "./catalog-views";
 
 const NUMBER_FIELDS: { name: Path<ModuleModelInput>; label: string; step: string }[] = [
   { name: "stcWatts", label: "STC watts (W)", step: "any" },

@@ -1,0 +1,46 @@
+// What the catalog's table and forms show of a module or an inverter, and one helper both forms
+// use. Its own module so the table and the forms do not import each other.
+import type { CellTechnology, Construction, InverterKind } from "@/lib/schemas/catalog";
+
+export type ModuleView = {
+  id: string;
+  manufacturer: string;
+  model: string;
+  stcWatts: number;
+  vocV: number;
+  iscA: number;
+  vmpV: number;
+  impA: number;
+  gammaPmaxPctPerC: number;
+  betaVocPctPerC: number;
+  lengthMm: number;
+  widthMm: number;
+  cellTechnology: CellTechnology;
+  construction: Construction;
+  encapsulant: string | null;
+  active: boolean;
+};
+
+export type InverterView = {
+  id: string;
+  manufacturer: string;
+  model: string;
+  kind: InverterKind;
+  acWatts: number;
+  efficiencyPct: number;
+  maxDcVoltageV: number | null;
+  mpptMinV: number | null;
+  mpptMaxV: number | null;
+  maxInputCurrentA: number | null;
+  mpptCount: number | null;
+  dcInputMinV: number | null;
+  dcInputMaxV: number | null;
+  modulesPerUnit: number | null;
+  active: boolean;
+};
+
+/** Server field errors of an update arrive as "values.<field>"; the form's fields have no prefix. */
+export function withoutPrefix(fields: Record<string, string[]> | undefined): Record<string, string[]> | undefined {
+  if (!fields) return fields;
+  return Object.fromEntries(Object.entries(fields).map(([k, v]) => [k.replace(/^values\./, ""), v]));
+}
