@@ -8,6 +8,7 @@ import { eq } from "drizzle-orm";
 import type Stripe from "stripe";
 import { z } from "zod";
 import { company, paymentAlert, webhookEvent } from "@/db/schema";
+import { formatCentsExact } from "@/lib/format";
 import { db, type Tx } from "@/server/db";
 import {
   applyChargeRefunded,
@@ -109,7 +110,7 @@ async function flagUnknownRefund(tx: Tx, event: Stripe.Event, charge: Stripe.Cha
   let companyId = charge.metadata?.companyId ?? null;
   if (!companyId && piId) companyId = (await stripe().paymentIntents.retrieve(piId)).metadata?.companyId ?? null;
   const [owner] = companyId ? await tx.select({ id: company.id }).from(company).where(eq(company.id, companyId)).limit(1) : [];
-  const what = `refund of ${charge.amount_refunded ?? "?"} cents on charge ${charge.id}${piId ? ` (payment intent ${piId})` : ""}, a payment the ledger does not know`;
+  const what = `refund of ${charge.amount_refunded == null ? "an unknown amount" : formatCentsExact(charge.amount_refunded, charge.currency)} on charge ${charge.id}${piId ? ` (payment intent ${piId})` : ""}, a payment the ledger does not know`;
   if (!owner) {
     console.warn(`webhook ${event.id}: ${what}; no company named in its metadata`);
     return { outcome: "flagged", note: `${what}; no company named` };

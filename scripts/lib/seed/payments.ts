@@ -115,7 +115,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
 /** A refund the provider reported for a payment the ledger does not know (Money → Reconciliation lists it). */
 async function seedUnknownRefund(ctx: SeedContext): Promise<void> {
   const eventId = `evt_demo_unknown_refund_${ctx.companyId.slice(-4)}`;
-  const detail = "The provider reports a refund of 25000 cents on charge ch_demo_unknown_1, a payment the ledger does not know.";
+  const detail = "The provider reports a refund of $250.00 on charge ch_demo_unknown_1, a payment the ledger does not know.";
   await ctx.tx.insert(webhookEvent).values({ id: eventId, type: "charge.refunded", outcome: "flagged", note: detail.slice(21) });
   await ctx.tx.insert(paymentAlert).values({
     id: uid(850),
