@@ -1,14 +1,15 @@
 import type { ReactNode, ThHTMLAttributes, TdHTMLAttributes } from "react";
 
 /** The office tables' frame: white card, scrolls sideways inside itself on a narrow screen. */
-export function TableShell({ minWidth, testId, head, children, label }: { minWidth?: number; testId?: string; head: ReactNode; children: ReactNode; label?: string }) {
+export function TableShell(props: { minWidth?: number; testId?: string; head: ReactNode; children: ReactNode; label?: string; alignTop?: boolean; className?: string }) {
+  const { minWidth, testId, head, children, label } = props;
   return (
-    <div className="overflow-x-auto rounded-card border border-paper-line bg-white">
+    <div className={`overflow-x-auto rounded-card border border-paper-line bg-white ${props.className ?? ""}`}>
       <table className="w-full text-left text-sm" style={minWidth ? { minWidth } : undefined} data-testid={testId} aria-label={label}>
         <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
           <tr>{head}</tr>
         </thead>
-        <tbody className="divide-y divide-paper-line">{children}</tbody>
+        <tbody className={`divide-y divide-paper-line ${props.alignTop ? "align-top" : ""}`}>{children}</tbody>
       </table>
     </div>
   );

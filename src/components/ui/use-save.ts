@@ -11,7 +11,8 @@ import { api, ApiError } from "@/lib/api-client";
 import { applyFieldErrors } from "@/lib/form-errors";
 import type { Notice } from "./field";
 
-export type SaveRequest = { url: string; method: "POST" | "PUT" | "PATCH" | "DELETE"; json?: unknown };
+/** JSON, or a multipart form for uploads (`body`). */
+export type SaveRequest = { url: string; method: "POST" | "PUT" | "PATCH" | "DELETE"; json?: unknown; body?: FormData };
 
 type Options<I, T, F extends FieldValues> = {
   /** Where and how to send the input. */
@@ -31,6 +32,8 @@ type Options<I, T, F extends FieldValues> = {
   /** Somewhere else shows the status message (a section shared by several saves). */
   notify?: (notice: Notice | null) => void;
   onSaved?: (data: T, input: I) => void;
+  /** After a refusal (e.g. put back what was shown at once). */
+  onFailed?: (input: I) => void;
 };
 
 export function useSave<I, T = unknown, F extends FieldValues = FieldValues>(options: Options<I, T, F>) {
@@ -40,8 +43,8 @@ export function useSave<I, T = unknown, F extends FieldValues = FieldValues>(opt
   const notify = options.notify ?? setOwnNotice;
   const mutation = useMutation<T, Error, I>({
     mutationFn: (input) => {
-      const { url, method, json } = options.request(input);
-      return api<T>(url, { method, json });
+      const { url, method, json, body } = options.request(input);
+      return api<T>(url, { method, json, body });
     },
     onMutate: () => notify(null),
     onSuccess: async (data, input) => {
@@ -51,7 +54,8 @@ export function useSave<I, T = unknown, F extends FieldValues = FieldValues>(opt
       if (text) notify({ tone: "success", text });
       options.onSaved?.(data, input);
     },
-    onError: (err) => {
+    onError: (err, input) => {
+      options.onFailed?.(input);
       if (err instanceof ApiError && err.fields) {
         const fields = options.fieldPrefix ? stripPrefix(err.fields, options.fieldPrefix) : err.fields;
         if (options.setError) applyFieldErrors(fields, options.setError);

@@ -1,7 +1,8 @@
 "use client";
-import { useMemo, useState, useTransition, type ReactNode } from "react";
+import { useMemo, useState, type ReactNode } from "react";
 import type { Role } from "@/lib/enums";
-import { FormMessage } from "@/components/ui/field";
+import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import { formatDateTime } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";
 import { priceOffer, PricingInputError, type OfferPrice } from "@/lib/pricing";
@@ -18,7 +19,6 @@ import {
 } from "@/lib/schemas/price-book";
 import { NumberInput } from "@/components/ui/number-input";
 import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
-import { savePriceBookAction } from "./actions";
 
 const ADDER_KIND_LABELS: Record<AdderKind, string> = { per_watt: "per watt DC", per_module: "per module", fixed: "per job" };
 type Amount = PriceBookIncentive["amount"];
@@ -43,10 +43,18 @@ function incentiveStatus(rule: PriceBookIncentive, today: string): { label: stri
 export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string }) {
   const [doc, setDoc] = useState<PriceBook>(props.initial);
   const [errors, setErrors] = useState<PathErrors>({});
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
   const [saved, setSaved] = useState({ at: props.savedAt, by: props.savedBy });
   const [dirty, setDirty] = useState(false);
-  const [pending, startTransition] = useTransition();
+  const { save: send, pending, notice, setNotice } = useSave<PriceBook, { updatedAt: string; updatedByName: string | null }>({
+    request: (json) => ({ url: "/api/price-books", method: "POST", json }),
+    success: "Price book saved.",
+    onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
+    onSaved: (record) => {
+      setErrors({});
+      setDirty(false);
+      setSaved({ at: record.updatedAt, by: record.updatedByName });
+    },
+  });
   const edit = props.canEdit;
   // Items already saved keep their id (offers refer to it); a new item's id follows its name.
   const savedIds = useMemo(
@@ -80,18 +88,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
       setNotice({ tone: "error", text: `Not saved: ${parsed.error.issues.length} field(s) need attention.` });
       return;
     }
-    startTransition(async () => {
-      const result = await savePriceBookAction(parsed.data);
-      if (!result.ok) {
-        setErrors(fieldErrorsToErrors(result.fieldErrors));
-        setNotice({ tone: "error", text: result.message });
-        return;
-      }
-      setErrors({});
-      setDirty(false);
-      setSaved({ at: result.data.updatedAt, by: result.data.updatedByName });
-      setNotice({ tone: "success", text: "Price book saved." });
-    });
+    send(parsed.data);
   }
 
   return (
@@ -106,7 +103,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
           </button>
         ) : null}
       </div>
-      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+      <StatusMessage notice={notice} />
       {errors._ ? <FormMessage tone="error">{errors._}</FormMessage> : null}
 
       <fieldset disabled={!edit || pending} className="space-y-6">

@@ -1,14 +1,14 @@
 "use client";
 import { useRouter } from "next/navigation";
-import { useMemo, useState, useTransition, type ReactNode } from "react";
-import { FormMessage } from "@/components/ui/field";
+import { useMemo, useState, type ReactNode } from "react";
+import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import { EngineInputError } from "@/engine/errors";
 import { ratePlanSchema, touPeriodByHour, type AnnualBill, type RatePlan } from "@/engine/rates";
 import { MONTH_START_DAY, weekdayOfJanuaryFirst } from "@/engine/year-calendar";
 import { PREVIEW_MONTHLY_KWH, ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
 import { NumberInput } from "@/components/ui/number-input";
 import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
-import { createRatePlanAction, updateRatePlanAction } from "./actions";
 import { ALL_MONTHS, compensationTemplate, energyTemplate, type EditorRecord } from "./plan-templates";
 import { sampleBill } from "./sample-bill";
 
@@ -27,8 +27,17 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
   const router = useRouter();
   const [record, setRecord] = useState<EditorRecord>(initial);
   const [errors, setErrors] = useState<PathErrors>({});
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const [pending, startTransition] = useTransition();
+  const { save: send, pending, notice, setNotice } = useSave<EditorRecord, { id: string }>({
+    request: (json) => (id ? { url: `/api/rate-plans/${id}`, method: "PUT", json } : { url: "/api/rate-plans", method: "POST", json }),
+    // A new plan opens at its own address; a saved one stays here.
+    success: id ? "Rate plan saved." : undefined,
+    refresh: id !== null,
+    onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
+    onSaved: (saved) => {
+      setErrors({});
+      if (!id) router.push(`/rate-plans/${saved.id}`);
+    },
+  });
   const plan = record.plan;
 
   function update(change: (draft: EditorRecord) => void) {
@@ -48,23 +57,7 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
       setNotice({ tone: "error", text: "Not saved: fix the fields listed below." });
       return;
     }
-    startTransition(async () => {
-      const result = id ? await updateRatePlanAction({ id, record: parsed.data }) : await createRatePlanAction(parsed.data);
-      if (!result.ok) {
-        // The update action nests the record under "record.".
-        const fields = Object.fromEntries(Object.entries(result.fieldErrors ?? {}).map(([k, v]) => [k.replace(/^record\./, ""), v]));
-        setErrors(fieldErrorsToErrors(fields));
-        setNotice({ tone: "error", text: result.message });
-        return;
-      }
-      setErrors({});
-      if (!id) {
-        router.push(`/rate-plans/${result.data.id}`);
-        return;
-      }
-      setNotice({ tone: "success", text: "Rate plan saved." });
-      router.refresh();
-    });
+    send(parsed.data as EditorRecord);
   }
 
   const errorList = Object.entries(errors);
@@ -72,7 +65,7 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="space-y-6">
-        {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+        <StatusMessage notice={notice} />
         {errorList.length > 0 ? (
           <ul className="rounded-md border border-danger/30 bg-danger-light px-4 py-2 text-sm text-danger" aria-label="Problems">
             {errorList.map(([path, message]) => (
