@@ -11,7 +11,7 @@ import type { PaymentStatus } from "@/lib/enums";
 import { FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 import { applyFieldErrors } from "@/lib/form-errors";
-import { dollarsToCents, refundPaymentSchema, type RefundPaymentInput } from "./refund-schema";
+import { dollarsToCents, refundPaymentSchema, type RefundPaymentInput } from "@/lib/schemas/refund";
 
 export type RefundView = { id: string; amountText: string; reason: string; status: string; stripeRefundId: string; byName: string | null; createdAtText: string };
 export type PaymentView = {
