@@ -2,6 +2,7 @@
 import { useMemo, useState, type ReactNode } from "react";
 import type { Role } from "@/lib/enums";
 import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { RadioGroup } from "@/components/ui/radio-group";
 import { useSave } from "@/components/ui/use-save";
 import { formatDateTime } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";
@@ -308,16 +309,18 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
         </Section>
 
         <Section id="deposit" title="Deposit" hint="Asked when the customer signs; never more than the contract.">
-          <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="Deposit kind">
-            <label className="flex min-h-touch items-center gap-2">
-              <input type="radio" name="deposit-kind" checked={doc.deposit.kind === "fixed"} onChange={() => update((d) => void (d.deposit = { kind: "fixed", amountCents: 50_000 }))} />
-              A fixed amount
-            </label>
-            <label className="flex min-h-touch items-center gap-2">
-              <input type="radio" name="deposit-kind" checked={doc.deposit.kind === "percent"} onChange={() => update((d) => void (d.deposit = { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 }))} />
-              A percentage of the contract
-            </label>
-          </div>
+          <RadioGroup
+            name="deposit-kind"
+            label="Deposit kind"
+            options={[
+              ["fixed", "A fixed amount"],
+              ["percent", "A percentage of the contract"],
+            ]}
+            value={doc.deposit.kind}
+            onChange={(kind) =>
+              update((d) => void (d.deposit = kind === "fixed" ? { kind: "fixed", amountCents: 50_000 } : { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 }))
+            }
+          />
           {doc.deposit.kind === "fixed" ? (
             <NumberInput id="deposit-amount" className="mt-2 max-w-48" label="Deposit ($)" scale={100} value={doc.deposit.amountCents} error={err("deposit.amountCents")} onValue={(v) => update((d) => void (d.deposit.kind === "fixed" && (d.deposit.amountCents = nn(v))))} />
           ) : (

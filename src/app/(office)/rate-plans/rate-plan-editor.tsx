@@ -2,6 +2,7 @@
 import { useRouter } from "next/navigation";
 import { useMemo, useState, type ReactNode } from "react";
 import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { RadioGroup } from "@/components/ui/radio-group";
 import { useSave } from "@/components/ui/use-save";
 import { EngineInputError } from "@/engine/errors";
 import { ratePlanSchema, touPeriodByHour, type AnnualBill, type RatePlan } from "@/engine/rates";
@@ -91,20 +92,17 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
           </Card>
 
           <Card title="Energy charges">
-            <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="Energy pricing">
-              {(
-                [
-                  ["flat", "Flat"],
-                  ["tiered", "Tiered (monthly kWh)"],
-                  ["tou", "Time-of-use"],
-                ] as const
-              ).map(([kind, label]) => (
-                <label key={kind} className="flex min-h-touch items-center gap-2">
-                  <input type="radio" name="energy-kind" checked={plan.energy.kind === kind} onChange={() => update((d) => void (d.plan.energy = energyTemplate(kind)))} />
-                  {label}
-                </label>
-              ))}
-            </div>
+            <RadioGroup
+              name="energy-kind"
+              label="Energy pricing"
+              options={[
+                ["flat", "Flat"],
+                ["tiered", "Tiered (monthly kWh)"],
+                ["tou", "Time-of-use"],
+              ]}
+              value={plan.energy.kind}
+              onChange={(kind) => update((d) => void (d.plan.energy = energyTemplate(kind)))}
+            />
             <div className="mt-3">
               {plan.energy.kind === "flat" ? (
                 <NumberInput
@@ -125,20 +123,17 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
           </Card>
 
           <Card title="Exported energy">
-            <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="Export compensation">
-              {(
-                [
-                  ["net-metering", "Net metering"],
-                  ["net-billing", "Net billing"],
-                  ["no-export", "No export"],
-                ] as const
-              ).map(([kind, label]) => (
-                <label key={kind} className="flex min-h-touch items-center gap-2">
-                  <input type="radio" name="compensation-kind" checked={plan.compensation.kind === kind} onChange={() => update((d) => void (d.plan.compensation = compensationTemplate(kind)))} />
-                  {label}
-                </label>
-              ))}
-            </div>
+            <RadioGroup
+              name="compensation-kind"
+              label="Export compensation"
+              options={[
+                ["net-metering", "Net metering"],
+                ["net-billing", "Net billing"],
+                ["no-export", "No export"],
+              ]}
+              value={plan.compensation.kind}
+              onChange={(kind) => update((d) => void (d.plan.compensation = compensationTemplate(kind)))}
+            />
             <p className="mt-1 text-sm text-graphite-soft">
               {plan.compensation.kind === "net-metering"
                 ? "Imports and exports are netted each month (per period on time-of-use); surplus becomes a credit at the retail price. At the annual true-up the year's net surplus kWh is paid at the surplus rate and leftover credit lapses."
