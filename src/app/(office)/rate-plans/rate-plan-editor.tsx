@@ -8,7 +8,7 @@ import { EngineInputError } from "@/engine/errors";
 import { ratePlanSchema, touPeriodByHour, type AnnualBill, type RatePlan } from "@/engine/rates";
 import { MONTH_START_DAY, weekdayOfJanuaryFirst } from "@/engine/year-calendar";
 import { PREVIEW_MONTHLY_KWH, ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
-import { NumberInput } from "@/components/ui/number-input";
+import { MoneyInput, NumberInput } from "@/components/ui/number-input";
 import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
 import { ALL_MONTHS, compensationTemplate, energyTemplate, type EditorRecord } from "./plan-templates";
 import { sampleBill } from "./sample-bill";
@@ -82,8 +82,8 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
             <div className="grid gap-3 md:grid-cols-2">
               <TextField id="plan-utility" label="Utility" value={record.utilityName} error={errors.utilityName} onText={(t) => update((d) => void (d.utilityName = t))} />
               <TextField id="plan-name" label="Plan name" value={plan.name} error={err("name")} onText={(t) => update((d) => void (d.plan.name = t))} />
-              <NumberInput id="plan-fixed" label="Fixed charge ($ / month)" scale={100} value={plan.fixedMonthlyCents} error={err("fixedMonthlyCents")} onValue={(v) => update((d) => void (d.plan.fixedMonthlyCents = nn(v)))} />
-              <NumberInput id="plan-minimum" label="Minimum bill ($ / month, fixed charge included)" scale={100} value={plan.minimumBillCents} error={err("minimumBillCents")} onValue={(v) => update((d) => void (d.plan.minimumBillCents = nn(v)))} />
+              <MoneyInput id="plan-fixed" label="Fixed charge ($ / month)" value={plan.fixedMonthlyCents} error={err("fixedMonthlyCents")} onValue={(v) => update((d) => void (d.plan.fixedMonthlyCents = nn(v)))} />
+              <MoneyInput id="plan-minimum" label="Minimum bill ($ / month, fixed charge included)" value={plan.minimumBillCents} error={err("minimumBillCents")} onValue={(v) => update((d) => void (d.plan.minimumBillCents = nn(v)))} />
             </div>
             <label className="mt-3 flex min-h-touch items-center gap-2 text-sm">
               <input type="checkbox" checked={record.active} onChange={(e) => update((d) => void (d.active = e.target.checked))} />
