@@ -1,6 +1,6 @@
 "use client";
 import { useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { ApiError } from "@/lib/api-client";
 import { MAX_VERIFY_FILE_BYTES } from "@/lib/schemas/proposal";
 

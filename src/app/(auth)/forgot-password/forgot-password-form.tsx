@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { authClient } from "@/lib/auth-client";
 import { forgotPasswordSchema } from "@/lib/schemas/people";
 

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { authClient } from "@/lib/auth-client";
 import { PASSWORD_MIN, resetPasswordSchema } from "@/lib/schemas/people";
 

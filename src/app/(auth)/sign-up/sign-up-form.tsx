@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { PASSWORD_MIN, signUpSchema, type SignUpInput } from "@/lib/schemas/people";
 import { signUpAction } from "./actions";

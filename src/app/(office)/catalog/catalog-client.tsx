@@ -1,7 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { CELL_TECHNOLOGY_LABELS, CONSTRUCTION_LABELS, INVERTER_KIND_LABELS } from "@/lib/schemas/catalog";
 import { setInverterActiveAction, setModuleActiveAction } from "./actions";
 import { CsvColumnsHelp, CsvImport } from "./csv-import";

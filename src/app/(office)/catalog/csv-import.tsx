@@ -1,7 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useId, useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { CSV_MAX_BYTES, INVERTER_CSV_COLUMNS, MODULE_CSV_COLUMNS, type CsvImportReport, type ImportMode } from "@/lib/schemas/catalog";
 
 type Kind = "modules" | "inverters";

@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm, type Path } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { INVERTER_KIND_LABELS, INVERTER_KINDS, inverterModelSchema, type InverterModelInput, type InverterModelValues } from "@/lib/schemas/catalog";
 import { createInverterAction, updateInverterAction } from "./actions";

@@ -1,6 +1,6 @@
 "use client";
 import type { FieldErrors, UseFormRegister } from "react-hook-form";
-import { Field } from "@/components/field";
+import { Field } from "@/components/ui/field";
 import type { HouseholdInput } from "@/lib/schemas/deal";
 import { numberFromField } from "@/lib/schemas/text";
 

@@ -1,7 +1,7 @@
 "use client";
 import { useMemo, useState, useTransition, type ReactNode } from "react";
 import type { Role } from "@/lib/enums";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { formatDateTime } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";
 import { priceOffer, PricingInputError, type OfferPrice } from "@/lib/pricing";
@@ -16,7 +16,8 @@ import {
   type PriceBook,
   type PriceBookIncentive,
 } from "@/lib/schemas/price-book";
-import { fieldErrorsToErrors, issuesToErrors, NumberInput, type PathErrors } from "./_components/number-input";
+import { NumberInput } from "@/components/ui/number-input";
+import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
 import { savePriceBookAction } from "./actions";
 
 const ADDER_KIND_LABELS: Record<AdderKind, string> = { per_watt: "per watt DC", per_module: "per module", fixed: "per job" };

@@ -1,12 +1,13 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useMemo, useState, useTransition, type ReactNode } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { EngineInputError } from "@/engine/errors";
 import { ratePlanSchema, touPeriodByHour, type AnnualBill, type RatePlan } from "@/engine/rates";
 import { MONTH_START_DAY, weekdayOfJanuaryFirst } from "@/engine/year-calendar";
 import { PREVIEW_MONTHLY_KWH, ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
-import { fieldErrorsToErrors, issuesToErrors, NumberInput, type PathErrors } from "../price-book/_components/number-input";
+import { NumberInput } from "@/components/ui/number-input";
+import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
 import { createRatePlanAction, updateRatePlanAction } from "./actions";
 import { ALL_MONTHS, compensationTemplate, energyTemplate, type EditorRecord } from "./plan-templates";
 import { sampleBill } from "./sample-bill";

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useRef, useState, useTransition } from "react";
 import { useForm, type Path } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { formatDate } from "@/lib/format";
 import {
   nearestQuerySchema,

@@ -1,7 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { api } from "@/lib/api-client";
 
 /** "Cancel this agreement", with a second step so a stray tap cancels nothing. Shown only inside the window. */

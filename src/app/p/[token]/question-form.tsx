@@ -1,6 +1,6 @@
 "use client";
 import { useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 
 /** Ask the rep a question; it is kept with the proposal and e-mailed to them. */

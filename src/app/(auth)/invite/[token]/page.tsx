@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { ROLE_LABELS } from "@/lib/permissions";
 import { findOpenInvitation } from "@/server/people";
 import { AcceptInvitationForm } from "./accept-invitation-form";

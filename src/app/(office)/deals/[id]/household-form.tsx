@@ -2,7 +2,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { householdSchema, type HouseholdInput } from "@/lib/schemas/deal";
 import { updateHouseholdAction } from "../actions";

@@ -1,7 +1,7 @@
 "use client";
 import { useState } from "react";
 import { CameraInput } from "@/components/camera-input";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 
 export type SitePhotoThumb = { id: string; fileName: string; uploadedByName: string | null };

@@ -1,7 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { updateDealUtilityAction } from "../actions";
 
 type Plan = { id: string; name: string; utilityName: string };

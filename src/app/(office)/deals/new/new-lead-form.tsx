@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm, type UseFormRegister } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { LEAD_SOURCES, leadSchema, type HouseholdInput, type LeadInput } from "@/lib/schemas/deal";
 import { createLeadAction } from "../actions";

@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { jobFieldsSchema, type JobFields, type JobFieldsInput, type JobFormValues } from "@/lib/schemas/jobs";

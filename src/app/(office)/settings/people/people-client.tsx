@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useState, useTransition } from "react";
 import { useForm } from "react-hook-form";
 import type { Role } from "@/lib/enums";
-import { Field, FormMessage } from "@/components/field";
+import { Field, FormMessage } from "@/components/ui/field";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { formatDate } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";

@@ -4,7 +4,7 @@
 // once; the engine then runs here, in the browser, on every edit.
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useDeferredValue, useMemo, useState } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { estimateProduction } from "@/engine/production";
 import type { WeatherYear } from "@/engine/weather";
 import { api, ApiError } from "@/lib/api-client";

@@ -1,7 +1,7 @@
 "use client";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useRef, useState } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 import type { BillSuggestion } from "@/lib/bill-text";
 import { billsTableSchema } from "@/lib/schemas/energy";

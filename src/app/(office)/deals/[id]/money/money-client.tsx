@@ -8,7 +8,7 @@ import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import type { PaymentStatus } from "@/lib/enums";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 import { applyFieldErrors } from "@/lib/form-errors";
 import { dollarsToCents, refundPaymentSchema, type RefundPaymentInput } from "./refund-schema";

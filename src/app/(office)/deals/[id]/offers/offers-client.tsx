@@ -4,7 +4,7 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 import { formatCents } from "@/lib/format";
 import { OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";

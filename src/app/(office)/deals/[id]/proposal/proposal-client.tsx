@@ -4,7 +4,7 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { api, ApiError } from "@/lib/api-client";
 import { formatCents, formatDate, formatDateTime } from "@/lib/format";
 import { formatIsoDateLong } from "@/lib/proposal-snapshot";
