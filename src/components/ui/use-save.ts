@@ -11,7 +11,8 @@ import { api, ApiError } from "@/lib/api-client";
 import { applyFieldErrors } from "@/lib/form-errors";
 import type { Notice } from "./field";
 
-export type SaveRequest = { url: string; method: "POST" | "PUT" | "PATCH" | "DELETE"; json?: unknown };
+/** `body` carries a multipart upload (FormData) instead of JSON. */
+export type SaveRequest = { url: string; method: "POST" | "PUT" | "PATCH" | "DELETE"; json?: unknown; body?: FormData };
 
 type Options<I, T, F extends FieldValues> = {
   /** Where and how to send the input. */
@@ -40,8 +41,8 @@ export function useSave<I, T = unknown, F extends FieldValues = FieldValues>(opt
   const notify = options.notify ?? setOwnNotice;
   const mutation = useMutation<T, Error, I>({
     mutationFn: (input) => {
-      const { url, method, json } = options.request(input);
-      return api<T>(url, { method, json });
+      const { url, method, json, body } = options.request(input);
+      return api<T>(url, { method, json, body });
     },
     onMutate: () => notify(null),
     onSuccess: async (data, input) => {
