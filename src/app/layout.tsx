@@ -7,6 +7,7 @@ import "./globals.css";
 import type { Metadata, Viewport } from "next";
 import { connection } from "next/server";
 import type { ReactNode } from "react";
+import { QueryProvider } from "@/components/ui/query-provider";
 import { ZodJitless } from "@/components/zod-jitless";
 
 export const metadata: Metadata = {
@@ -23,7 +24,7 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
     <html lang="en">
       <body className="min-h-dvh">
         <ZodJitless />
-        {children}
+        <QueryProvider>{children}</QueryProvider>
       </body>
     </html>
   );

@@ -6,7 +6,7 @@ import { EngineInputError } from "@/engine/errors";
 import { BODY_CAPS, readCappedForm, readCappedText, type BodyCap } from "@/server/body-limit";
 import { engineFields, HttpError, isDatabaseDown } from "@/server/errors";
 import { TooManyRequests } from "@/server/limits";
-import { DEFAULT_BODY_TYPES, guardCookieMutation } from "@/server/request-guard";
+import { DEFAULT_BODY_TYPES, guardCookieMutation, guardPublicMutation } from "@/server/request-guard";
 import { requireMember, type Member } from "@/server/session";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -48,6 +48,22 @@ export function withMember<P = Record<string, never>>(permission: Permission, ha
       guardCookieMutation(req, bodyTypes);
       const member = await requireMember(permission, req.headers);
       return await handler({ req, member, params: await ctx.params });
+    } catch (err) {
+      return toErrorResponse(err);
+    }
+  };
+}
+
+/**
+ * The wrapper for the few routes anyone may call without a session (sign-up, accepting an
+ * invitation): a mutation must come from the app's own origin with a JSON or multipart body
+ * whether or not a cookie came with it (403/415), because each one signs a browser up or in.
+ */
+export function publicRoute(handler: (args: { req: NextRequest }) => Promise<Response>) {
+  return async (req: NextRequest): Promise<Response> => {
+    try {
+      guardPublicMutation(req);
+      return await handler({ req });
     } catch (err) {
       return toErrorResponse(err);
     }

@@ -32,8 +32,8 @@ type Options<I, T, F extends FieldValues> = {
   /** Somewhere else shows the status message (a section shared by several saves). */
   notify?: (notice: Notice | null) => void;
   onSaved?: (data: T, input: I) => void;
-  /** After a refusal (e.g. put back what was shown at once). */
-  onFailed?: (input: I) => void;
+  /** After a refusal: put back what was shown at once, or act on the error's code (an expired code, already paid). */
+  onError?: (err: Error, input: I) => void;
 };
 
 export function useSave<I, T = unknown, F extends FieldValues = FieldValues>(options: Options<I, T, F>) {
@@ -55,13 +55,13 @@ export function useSave<I, T = unknown, F extends FieldValues = FieldValues>(opt
       options.onSaved?.(data, input);
     },
     onError: (err, input) => {
-      options.onFailed?.(input);
       if (err instanceof ApiError && err.fields) {
         const fields = options.fieldPrefix ? stripPrefix(err.fields, options.fieldPrefix) : err.fields;
         if (options.setError) applyFieldErrors(fields, options.setError);
         options.onFieldErrors?.(fields);
       }
       notify({ tone: "error", text: err.message || "Not saved." });
+      options.onError?.(err, input);
     },
   });
   return {

@@ -27,7 +27,7 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
     refresh: false,
     notify: setNotice,
     onSaved: setItems,
-    onFailed: () => setItems(before),
+    onError: () => setItems(before),
   });
   function toggle(item: JobChecklistItem, done: boolean) {
     setBefore(items);
