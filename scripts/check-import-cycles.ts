@@ -73,8 +73,9 @@ const layerBreaks = files.flatMap((f) => {
 
 /**
  * The feature folder of a file in src/app: "api", "p", "verify" or, inside a route group,
- * "(office)/catalog". Files at the top of a group (its layout, providers) are its shell: a
- * shell may import its features, a feature never another feature nor the shell.
+ * "(office)/catalog". Files at the top of a group (its layout, providers, parts its screens
+ * share, e.g. the auth forms' frame) are its shell: a shell may import its features and a
+ * feature its own group's shell, a feature never another feature nor another group.
  */
 function feature(f: string): string | null {
   const parts = rel(f).split("/").slice(2); // after src/app
@@ -86,7 +87,7 @@ const featureBreaks = files.flatMap((f) => {
   const from = rel(f).startsWith("src/app/") ? feature(f) : null;
   if (!from || from.endsWith(" shell")) return [];
   return (edges.get(f) ?? [])
-    .filter((t) => rel(t).startsWith("src/app/") && feature(t) !== null && feature(t) !== from)
+    .filter((t) => rel(t).startsWith("src/app/") && feature(t) !== null && feature(t) !== from && feature(t) !== `${from.split("/")[0]} shell`)
     .map((t) => `${rel(f)} -> ${rel(t)}`);
 });
 
