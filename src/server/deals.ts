@@ -1,11 +1,13 @@
 import "server-only";
-import { and, desc, eq, like, or, type SQL } from "drizzle-orm";
+import { and, desc, eq, like, or } from "drizzle-orm";
 import type { z } from "zod";
 import { deal, household, ratePlan, user, type Stage } from "@/db/schema";
 import type { householdSchema, leadSchema } from "@/lib/schemas/deal";
 import { can } from "@/lib/permissions";
 import { db } from "@/server/db";
+import { visibleTo } from "@/server/deal-audience";
 import { HttpError, notFound } from "@/server/errors";
+import type { DealScope } from "@/server/deal-scope";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
 
@@ -23,15 +25,7 @@ export type DealRow = {
   createdAt: Date;
 };
 
-/** Whose deals a person sees: the company's (office roles) or only the deals they own (reps). */
-export const dealAudience = (member: Member): "company" | "own" => (can(member.role, "deals:read-all") ? "company" : "own");
-
-/** The SQL of dealAudience, always scoped by company (every list of deals uses it). */
-export function visibleTo(member: Member): SQL {
-  const company = eq(deal.companyId, member.companyId);
-  if (dealAudience(member) === "company") return company;
-  return and(company, eq(deal.ownerUserId, member.userId)) as SQL;
-}
+export { dealAudience, visibleTo } from "@/server/deal-audience";
 
 const dealColumns = {
   id: deal.id,
@@ -61,18 +55,6 @@ export async function listDeals(member: Member, query?: string): Promise<DealRow
     .leftJoin(user, eq(user.id, deal.ownerUserId))
     .where(search ? and(visibleTo(member), search) : visibleTo(member))
     .orderBy(desc(deal.stageChangedAt));
-}
-
-export async function getDealOrThrow(member: Member, dealId: string): Promise<DealRow> {
-  const [row] = await db()
-    .select(dealColumns)
-    .from(deal)
-    .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
-    .leftJoin(user, eq(user.id, deal.ownerUserId))
-    .where(and(eq(deal.id, dealId), visibleTo(member)))
-    .limit(1);
-  if (!row) throw notFound("Deal");
-  return row;
 }
 
 export async function getHouseholdOrThrow(member: Member, householdId: string) {
@@ -130,10 +112,10 @@ export async function createLead(member: Member, input: z.output<typeof leadSche
   return { dealId, householdId };
 }
 
-export async function updateHousehold(member: Member, dealId: string, input: z.output<typeof householdSchema>) {
-  const found = await getDealOrThrow(member, dealId);
+export async function updateHousehold(scope: DealScope, input: z.output<typeof householdSchema>) {
+  const { member, dealId } = scope;
   await db().transaction(async (tx) => {
-    await tx.update(household).set(input).where(and(eq(household.id, found.householdId), eq(household.companyId, member.companyId)));
+    await tx.update(household).set(input).where(and(eq(household.id, scope.deal.householdId), eq(household.companyId, member.companyId)));
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId,
@@ -142,18 +124,6 @@ export async function updateHousehold(member: Member, dealId: string, input: z.o
       actorUserId: member.userId,
     });
   });
-}
-
-/** The deal with its household and settings, for the deal room. */
-export async function getDealRoom(member: Member, dealId: string) {
-  const row = await getDealOrThrow(member, dealId);
-  const home = await getHouseholdOrThrow(member, row.householdId);
-  const [extra] = await db()
-    .select({ utilityName: deal.utilityName, ratePlanId: deal.ratePlanId })
-    .from(deal)
-    .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)))
-    .limit(1);
-  return { deal: { ...row, ...extra }, household: home };
 }
 
 /** Recently used sites of the company, to pick coordinates from (no map service is reachable). */
@@ -184,8 +154,8 @@ export async function listRatePlanOptions(member: Member) {
 }
 
 /** Changes the deal's utility and rate plan (the plan must be one of the company's). */
-export async function updateDealUtility(member: Member, dealId: string, input: { utilityName: string | null; ratePlanId: string | null }) {
-  await getDealOrThrow(member, dealId);
+export async function updateDealUtility(scope: DealScope, input: { utilityName: string | null; ratePlanId: string | null }) {
+  const { member, dealId } = scope;
   if (input.ratePlanId) {
     const [plan] = await db()
       .select({ id: ratePlan.id })

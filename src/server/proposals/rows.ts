@@ -5,7 +5,7 @@ import { proposal, proposalEvent } from "@/db/schema";
 import { proposalDisplayStatus, proposalLabel, proposalLinkState } from "@/lib/proposal-snapshot";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { db } from "@/server/db";
-import { getDealOrThrow } from "@/server/deals";
+import { openDealOf } from "@/server/deal-scope";
 import { jsonValue } from "@/server/designs";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -46,9 +46,7 @@ export async function getProposalOrThrow(member: Member, proposalId: string): Pr
     .where(and(eq(proposal.id, proposalId), eq(proposal.companyId, member.companyId)))
     .limit(1);
   if (!row) throw notFound("Proposal");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Proposal") : err;
-  });
+  await openDealOf(member, row.dealId, "Proposal");
   return toRow(row);
 }
 

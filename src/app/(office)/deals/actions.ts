@@ -4,6 +4,7 @@ import { z } from "zod";
 import { householdSchema, leadSchema } from "@/lib/schemas/deal";
 import { dealUtilitySchema } from "@/lib/schemas/deal-settings";
 import { memberAction } from "@/server/action";
+import { openDeal } from "@/server/deal-scope";
 import { createLead, updateDealUtility, updateHousehold } from "@/server/deals";
 
 export const createLeadAction = memberAction("deals:write", leadSchema, async (input, member) => {
@@ -16,7 +17,7 @@ export const updateHouseholdAction = memberAction(
   "deals:write",
   z.object({ dealId: z.uuid(), household: householdSchema }),
   async ({ dealId, household }, member) => {
-    await updateHousehold(member, dealId, household);
+    await updateHousehold(await openDeal(member, dealId), household);
     revalidatePath(`/deals/${dealId}`);
     return { dealId };
   },
@@ -26,7 +27,7 @@ export const updateDealUtilityAction = memberAction(
   "deals:write",
   z.object({ dealId: z.uuid(), utility: dealUtilitySchema }),
   async ({ dealId, utility }, member) => {
-    await updateDealUtility(member, dealId, utility);
+    await updateDealUtility(await openDeal(member, dealId), utility);
     revalidatePath(`/deals/${dealId}`);
     return { dealId };
   },

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
+import { openDeal } from "@/server/deal-scope";
 import { notFound } from "@/server/errors";
 import { listProposalsForDeal, sendProposal } from "@/server/proposals";
 import { idSchema, readJson, withMember } from "@/server/route";
@@ -8,7 +9,7 @@ import { idSchema, readJson, withMember } from "@/server/route";
 export const GET = withMember("proposals:send", async ({ req, member }) => {
   const dealId = req.nextUrl.searchParams.get("dealId") ?? "";
   if (!idSchema.safeParse(dealId).success) throw notFound("Deal");
-  return NextResponse.json({ data: await listProposalsForDeal(member, dealId) });
+  return NextResponse.json({ data: await listProposalsForDeal(await openDeal(member, dealId)) });
 });
 
 /**

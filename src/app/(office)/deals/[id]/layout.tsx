@@ -5,7 +5,7 @@ import { DEAL_TABS } from "@/lib/deal-tabs";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
 import { HttpError } from "@/server/errors";
-import { getDealRoom } from "@/server/deals";
+import { openDeal } from "@/server/deal-scope";
 import { getMember } from "@/server/session";
 import { idSchema } from "@/server/route";
 import { DealTabs } from "./deal-tabs";
@@ -14,7 +14,7 @@ export default async function DealRoomLayout({ children, params }: { children: R
   const { id } = await params;
   const member = await getMember();
   if (!member || !can(member.role, "deals:read-own") || !idSchema.safeParse(id).success) notFound();
-  const room = await getDealRoom(member, id).catch((err: unknown) => {
+  const room = await openDeal(member, id).catch((err: unknown) => {
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;
   });

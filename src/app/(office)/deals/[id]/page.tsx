@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
-import { can } from "@/lib/permissions";
-import { getDealRoom, listRatePlanOptions } from "@/server/deals";
+import { openDeal } from "@/server/deal-scope";
+import { listRatePlanOptions } from "@/server/deals";
 import { getMember } from "@/server/session";
 import { listSitePhotos } from "@/server/site-photos";
 import { HouseholdForm } from "./household-form";
@@ -13,8 +13,8 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
   const { id } = await params;
   const member = await getMember();
   if (!member) return null;
-  const [{ household, deal }, plans, sitePhotos] = await Promise.all([getDealRoom(member, id), listRatePlanOptions(member), listSitePhotos(member, id)]);
-  const readOnly = !can(member.role, "deals:write");
+  const [{ household, deal, rights }, plans, sitePhotos] = await Promise.all([openDeal(member, id), listRatePlanOptions(member), listSitePhotos(member, id)]);
+  const readOnly = !rights.edit;
   return (
     <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
       <HouseholdForm

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
-import { can } from "@/lib/permissions";
 import { getDealUsage, listBills, listDealUploads } from "@/server/energy";
+import { openDeal } from "@/server/deal-scope";
 import { getMember } from "@/server/session";
 import { EnergyClient } from "./energy-client";
 
@@ -10,11 +10,12 @@ export default async function EnergyTab({ params }: { params: Promise<{ id: stri
   const { id } = await params;
   const member = await getMember();
   if (!member) return null;
-  const [bills, usage, uploads] = await Promise.all([listBills(member, id), getDealUsage(member, id), listDealUploads(member, id)]);
+  const scope = await openDeal(member, id);
+  const [bills, usage, uploads] = await Promise.all([listBills(scope), getDealUsage(scope), listDealUploads(scope)]);
   return (
     <EnergyClient
       dealId={id}
-      canEdit={can(member.role, "deals:write")}
+      canEdit={scope.rights.edit}
       initialBills={bills.map(({ periodStart, periodEnd, kwh, costCents, uploadId }) => ({ periodStart, periodEnd, kwh, costCents, uploadId }))}
       initialUsage={{ monthlyKwh: usage.monthlyKwh, annualKwh: usage.annualKwh, source: usage.source, estimatedMonths: usage.estimatedMonths, warnings: usage.warnings, averageCentsPerKwh: usage.averageCentsPerKwh, fillMethod: usage.fillMethod }}
       uploads={uploads.map((u) => ({ id: u.id, fileName: u.fileName, mimeType: u.mimeType, purpose: u.purpose, createdAt: u.createdAt.toISOString() }))}

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
-import { can } from "@/lib/permissions";
-import { getDealRoom } from "@/server/deals";
+import { describeStale } from "@/lib/offer-basis";
+import { openDeal } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
 import { listOffers } from "@/server/offers";
 import { listProposalsForDeal } from "@/server/proposals";
@@ -14,9 +14,9 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
   const { id } = await params;
   const member = await getMember();
   if (!member) return null;
-  if (!can(member.role, "proposals:send")) return <NoAccess section="Proposal" />;
-  const room = await getDealRoom(member, id);
-  const [offers, versions, design] = await Promise.all([listOffers(member, id), listProposalsForDeal(member, id), getDesignForDeal(member, id)]);
+  const room = await openDeal(member, id);
+  if (!room.rights.send) return <NoAccess section="Proposal" />;
+  const [offers, versions, design] = await Promise.all([listOffers(room), listProposalsForDeal(room), getDesignForDeal(room)]);
   const choices: OfferChoice[] = offers.map((o) => ({
     id: o.id,
     position: o.position,
@@ -28,7 +28,9 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
         ? "Discount waiting for the office's approval"
         : o.discountStatus === "declined"
           ? "Discount declined: change the offer before sending it"
-          : null,
+          : o.stale.length > 0
+            ? `Recompute it on the Offers tab: the ${describeStale(o.stale)} changed`
+            : null,
   }));
   const views: VersionView[] = versions.map((v) => ({
     ...v,

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { formatDateTime } from "@/lib/format";
-import { getDealOrThrow } from "@/server/deals";
+import { openDeal } from "@/server/deal-scope";
 import { getMember } from "@/server/session";
 import { listTimeline } from "@/server/timeline";
 
@@ -10,7 +10,7 @@ export default async function TimelineTab({ params }: { params: Promise<{ id: st
   const { id } = await params;
   const member = await getMember();
   if (!member) return null;
-  await getDealOrThrow(member, id);
+  await openDeal(member, id);
   const events = await listTimeline(member, id);
   return (
     <ol className="relative space-y-4 border-l-2 border-paper-line pl-6" aria-label="What happened">

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { getWeatherColumns } from "@/server/designs";
+import { openDeal } from "@/server/deal-scope";
 import { notFound } from "@/server/errors";
 import { idSchema, withMember } from "@/server/route";
 
@@ -11,6 +12,6 @@ export const GET = withMember<{ id: string }>("weather:read", async ({ req, memb
   if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
   const stationId = req.nextUrl.searchParams.get("stationId") ?? "";
   if (!idSchema.safeParse(stationId).success) throw notFound("Weather station");
-  const data = await getWeatherColumns(member, params.id, stationId);
+  const data = await getWeatherColumns(await openDeal(member, params.id), stationId);
   return NextResponse.json({ data }, { headers: { "Cache-Control": "private, max-age=3600" } });
 });
