@@ -45,14 +45,7 @@ export type CurrentInputs = {
 export const STALE_INPUTS = ["usage", "design", "rate_plan", "price_book", "incentives", "assumptions"] as const;
 export type StaleInput = (typeof STALE_INPUTS)[number];
 
-export const STALE_INPUT_LABELS: Record<StaleInput, string> = {
-  usage: "usage (bills or interval data)",
-  design: "design",
-  rate_plan: "rate plan",
-  price_book: "price book",
-  incentives: "incentive rules",
-  assumptions: "savings assumptions",
-};
+export const STALE_INPUT_LABELS: Record<StaleInput, string> = { usage: "usage (bills or interval data)", design: "design", rate_plan: "rate plan", price_book: "price book", incentives: "incentive rules", assumptions: "savings assumptions" };
 
 /**
  * The inputs that changed since the offer was computed; empty when it is current. An offer

@@ -1,31 +1,15 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import { cache } from "react";
-import { deal, household, user, type Stage } from "@/db/schema";
+import { deal, household, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { getCompanySettings, type CompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
-import { visibleTo } from "@/server/deal-audience";
+import { dealColumns, visibleTo, type DealRow } from "@/server/deal-audience";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/member";
 
-export type DealRecord = {
-  id: string;
-  stage: Stage;
-  stageChangedAt: Date;
-  source: string | null;
-  contractCents: number | null;
-  systemDcWatts: number | null;
-  utilityName: string | null;
-  ratePlanId: string | null;
-  householdId: string;
-  householdName: string;
-  city: string;
-  ownerUserId: string | null;
-  ownerName: string | null;
-  ownerEmail: string | null;
-  createdAt: Date;
-};
+export type DealRecord = DealRow & { utilityName: string | null; ratePlanId: string | null; ownerUserId: string | null; ownerEmail: string | null };
 
 export type HouseholdRecord = typeof household.$inferSelect;
 
@@ -33,6 +17,8 @@ export type HouseholdRecord = typeof household.$inferSelect;
 export type DealRights = {
   /** Change the household, bills, design and offers. */
   edit: boolean;
+  /** Open the Design tab: the catalog and the weather stations. */
+  design: boolean;
   /** Open the Offers tab: the price book and the catalog. */
   price: boolean;
   /** Freeze offers into a proposal and send it. */
@@ -62,6 +48,7 @@ export type DealScope = {
 export function dealRights(member: Member): DealRights {
   return {
     edit: can(member.role, "deals:write"),
+    design: can(member.role, "catalog:read") && can(member.role, "weather:read"),
     price: can(member.role, "pricebook:read") && can(member.role, "catalog:read"),
     send: can(member.role, "proposals:send"),
     approveDiscounts: can(member.role, "discounts:approve"),
@@ -73,24 +60,7 @@ export function dealRights(member: Member): DealRights {
 async function loadDeal(member: Member, dealId: string): Promise<DealScope> {
   const [[row], settings] = await Promise.all([
     db()
-      .select({
-        deal: {
-          id: deal.id,
-          stage: deal.stage,
-          stageChangedAt: deal.stageChangedAt,
-          source: deal.source,
-          contractCents: deal.contractCents,
-          systemDcWatts: deal.systemDcWatts,
-          utilityName: deal.utilityName,
-          ratePlanId: deal.ratePlanId,
-          householdId: deal.householdId,
-          ownerUserId: deal.ownerUserId,
-          createdAt: deal.createdAt,
-        },
-        household,
-        ownerName: user.name,
-        ownerEmail: user.email,
-      })
+      .select({ deal: { ...dealColumns, utilityName: deal.utilityName, ratePlanId: deal.ratePlanId, ownerUserId: deal.ownerUserId, ownerEmail: user.email }, household })
       .from(deal)
       .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
       .leftJoin(user, eq(user.id, deal.ownerUserId))
@@ -104,7 +74,7 @@ async function loadDeal(member: Member, dealId: string): Promise<DealScope> {
     member,
     companyId: member.companyId,
     dealId,
-    deal: { ...row.deal, householdName: row.household.name, city: row.household.city, ownerName: row.ownerName, ownerEmail: row.ownerEmail },
+    deal: row.deal,
     household: row.household,
     settings,
     rights: dealRights(member),
@@ -126,4 +96,12 @@ export async function openDealOf(member: Member, dealId: string, what: string): 
   return openDeal(member, dealId).catch((err: unknown) => {
     throw err instanceof HttpError && err.status === 404 ? notFound(what) : err;
   });
+}
+
+/** A record found by its own id, in its deal's scope: not found (naming the record) when missing or out of sight. */
+export async function inDealOrThrow<T extends { dealId: string }>(member: Member, what: string, rows: T[]): Promise<T> {
+  const [row] = rows;
+  if (!row) throw notFound(what);
+  await openDealOf(member, row.dealId, what);
+  return row;
 }

@@ -7,9 +7,9 @@ import { engineSystem, manualProductionHourly, MANUAL_SHAPE_NOTE, type InverterS
 import { designDocumentSchema, saveDesignSchema, type DesignDocument } from "@/lib/schemas/design";
 import { getInverterOrThrow, getModuleOrThrow, listActiveInverters, listActiveModules, type InverterModel, type ModuleModel } from "@/server/catalog";
 import { db } from "@/server/db";
-import { openDeal, openDealOf, type DealScope } from "@/server/deal-scope";
+import { inDealOrThrow, openDeal, type DealScope } from "@/server/deal-scope";
 import { getDealUsage } from "@/server/energy";
-import { HttpError, notFound } from "@/server/errors";
+import { HttpError } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
@@ -43,13 +43,12 @@ export async function getDesignForDeal(scope: DealScope): Promise<DesignRecord |
 
 /** A design by its id; reps only through deals they own (another company's: not found). */
 export async function getDesignOrThrow(member: Member, designId: string): Promise<DesignRecord> {
-  const [row] = await db()
+  const rows = await db()
     .select(columns)
     .from(design)
     .where(and(eq(design.id, designId), eq(design.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Design");
-  await openDealOf(member, row.dealId, "Design");
+  const row = await inDealOrThrow(member, "Design", rows);
   return { ...row, document: parseDocument(row.document) };
 }
 

@@ -1,6 +1,6 @@
 import "server-only";
 import { createHash } from "node:crypto";
-import { and, asc, desc, eq, sql } from "drizzle-orm";
+import { and, asc, desc, eq, getTableColumns, sql } from "drizzle-orm";
 import { fileTypeFromBuffer } from "file-type";
 import type { z } from "zod";
 import { bill, dealUsage, intervalProfile, upload } from "@/db/schema";
@@ -11,11 +11,11 @@ import { suggestBillsFromText, type BillSuggestion } from "@/lib/bill-text";
 import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
 import { deriveUsageYear, type UsageYear } from "@/lib/usage-year";
 import { db, type Tx } from "@/server/db";
-import { openDealOf, type DealScope } from "@/server/deal-scope";
-import { engineFields, HttpError, notFound } from "@/server/errors";
+import { inDealOrThrow, type DealScope } from "@/server/deal-scope";
+import { engineFields, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { reencodeBillImage } from "@/server/photos";
-import { storage } from "@/server/storage";
+import { withFilesUndoneOnFailure } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
 export type BillRow = { id: string; periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null };
@@ -35,21 +35,17 @@ export async function listBills(scope: DealScope): Promise<BillRow[]> {
 }
 
 export async function getBillOrThrow(member: Member, billId: string) {
-  const [row] = await db().select().from(bill).where(and(eq(bill.id, billId), eq(bill.companyId, member.companyId))).limit(1);
-  if (!row) throw notFound("Bill");
-  await openDealOf(member, row.dealId, "Bill");
-  return row;
+  return inDealOrThrow(member, "Bill", await db().select().from(bill).where(and(eq(bill.id, billId), eq(bill.companyId, member.companyId))).limit(1));
 }
 
 export async function getIntervalProfileOrThrow(member: Member, profileId: string) {
-  const [row] = await db()
-    .select({ id: intervalProfile.id, dealId: intervalProfile.dealId, uploadId: intervalProfile.uploadId, annualKwh: intervalProfile.annualKwh, coveragePct: intervalProfile.coveragePct, createdAt: intervalProfile.createdAt })
+  const { id, dealId, uploadId, annualKwh, coveragePct, createdAt } = getTableColumns(intervalProfile);
+  const rows = await db()
+    .select({ id, dealId, uploadId, annualKwh, coveragePct, createdAt })
     .from(intervalProfile)
     .where(and(eq(intervalProfile.id, profileId), eq(intervalProfile.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Interval profile");
-  await openDealOf(member, row.dealId, "Interval profile");
-  return row;
+  return inDealOrThrow(member, "Interval profile", rows);
 }
 
 /** Turns the engine's named issues into a 422 naming each bad bill. */
@@ -192,13 +188,12 @@ export async function getDealUsage(scope: DealScope): Promise<DealUsage> {
 
 /** GET /api/deal-usages/[id]: the stored year by its id; reps only on deals they own. */
 export async function getDealUsageOrThrow(member: Member, usageId: string): Promise<DealUsage & { dealId: string }> {
-  const [row] = await db()
+  const rows = await db()
     .select({ ...usageColumns, dealId: dealUsage.dealId })
     .from(dealUsage)
     .where(and(eq(dealUsage.id, usageId), eq(dealUsage.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Usage year");
-  await openDealOf(member, row.dealId, "Usage year");
+  const row = await inDealOrThrow(member, "Usage year", rows);
   return { ...toUsage(row), dealId: row.dealId };
 }
 
@@ -258,7 +253,7 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
         throw new HttpError(422, "unreadable_pdf", `“${file.name}” looks like a PDF but cannot be read (damaged or protected). Nothing was saved; try downloading the bill again.`);
       }
       if (text.replace(/\s/g, "").length >= MIN_PDF_TEXT_CHARS) {
-        const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", text);
+        const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", text);
         const suggestions = suggestBillsFromText(text);
         return {
           kind: "bill-text",
@@ -267,12 +262,12 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
           message: suggestions.length > 0 ? `Found ${suggestions.length} billing period${suggestions.length === 1 ? "" : "s"} in “${file.name}”. Check them against the bill, then add them.` : `“${file.name}” was kept, but no billing period could be read from its text. Type the numbers from the bill.`,
         };
       }
-      const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", null);
+      const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", null);
       return { kind: "bill-image", upload: meta, message: `“${file.name}” is a scanned PDF with no text. It was kept with the deal; type the billing period, kWh and amount from it.` };
     }
     // A photographed bill is decoded within the pixel limit and re-encoded (422 when it does not decode).
     const pixels = await reencodeBillImage(file.bytes, detected.mime, file.name);
-    const meta = await storeUpload(member, dealId, { name: file.name, bytes: pixels }, detected.mime, detected.ext, "bill", null);
+    const meta = await storeUpload(scope, { name: file.name, bytes: pixels }, detected.mime, detected.ext, "bill", null);
     return { kind: "bill-image", upload: meta, message: `The photo “${file.name}” was kept with the deal; type the billing period, kWh and amount from it.` };
   }
 
@@ -288,7 +283,7 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
     engineToHttp(err, `“${file.name}” could not be read as ${isXml ? "Green Button XML" : "interval CSV"}`);
   }
   const profileId = crypto.randomUUID();
-  const meta = await storeUpload(member, dealId, file, isXml ? "application/xml" : "text/csv", isXml ? "xml" : "csv", "interval_data", null, async (tx, uploadId) => {
+  const meta = await storeUpload(scope, file, isXml ? "application/xml" : "text/csv", isXml ? "xml" : "csv", "interval_data", null, async (tx, uploadId) => {
     await tx.insert(intervalProfile).values({
       id: profileId,
       companyId: member.companyId,
@@ -312,8 +307,7 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
 
 /** Writes the bytes, then the rows in one transaction; if the rows fail, the bytes go too. */
 async function storeUpload(
-  member: Member,
-  dealId: string,
+  scope: DealScope,
   file: { name: string; bytes: Uint8Array },
   mimeType: string,
   ext: string,
@@ -321,34 +315,21 @@ async function storeUpload(
   extractedText: string | null,
   extra?: (tx: Tx, uploadId: string) => Promise<void>,
 ): Promise<UploadMeta> {
+  const { member, dealId, companyId } = scope;
   const id = crypto.randomUUID();
-  const key = `${member.companyId}/uploads/${id}.${ext}`;
-  await storage().put(key, file.bytes);
+  const storageKey = `${companyId}/uploads/${id}.${ext}`;
   const fileName = file.name.slice(0, 255) || `upload.${ext}`;
-  try {
-    await db().transaction(async (tx) => {
-      await tx.insert(upload).values({
-        id,
-        companyId: member.companyId,
-        dealId,
-        purpose,
-        fileName,
-        mimeType,
-        sizeBytes: file.bytes.byteLength,
-        sha256: createHash("sha256").update(file.bytes).digest("hex"),
-        storageKey: key,
-        extractedText,
-        uploadedByUserId: member.userId,
-      });
+  const [sizeBytes, sha256] = [file.bytes.byteLength, createHash("sha256").update(file.bytes).digest("hex")];
+  await withFilesUndoneOnFailure((put) =>
+    db().transaction(async (tx) => {
+      await put(storageKey, file.bytes);
+      await tx.insert(upload).values({ id, companyId, dealId, purpose, fileName, mimeType, sizeBytes, sha256, storageKey, extractedText, uploadedByUserId: member.userId });
       if (extra) await extra(tx, id);
-      await recordEvent(tx, { companyId: member.companyId, dealId, kind: "upload.added", summary: `${member.name} uploaded “${fileName}”`, actorUserId: member.userId });
-    });
-  } catch (err) {
-    await storage().delete(key);
-    throw err;
-  }
+      await recordEvent(tx, { companyId, dealId, kind: "upload.added", summary: `${member.name} uploaded “${fileName}”`, actorUserId: member.userId });
+    }),
+  );
   const [row] = await db().select({ createdAt: upload.createdAt }).from(upload).where(eq(upload.id, id));
-  return { id, fileName, mimeType, sizeBytes: file.bytes.byteLength, createdAt: row.createdAt };
+  return { id, fileName, mimeType, sizeBytes, createdAt: row.createdAt };
 }
 
 export async function listDealUploads(scope: DealScope): Promise<(UploadMeta & { purpose: string })[]> {

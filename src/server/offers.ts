@@ -14,7 +14,7 @@ import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerIn
 import DiscountDecisionEmail from "@emails/discount-decision";
 import DiscountRequestEmail from "@emails/discount-request";
 import { db, type Tx } from "@/server/db";
-import { openDeal, openDealOf, type DealScope } from "@/server/deal-scope";
+import { inDealOrThrow, openDeal, openDealOf, type DealScope } from "@/server/deal-scope";
 import { designEquipment, getDesignForDeal, jsonValue, productionForDesign } from "@/server/designs";
 import { getDealUsage } from "@/server/energy";
 import { forbidden, HttpError, notFound } from "@/server/errors";
@@ -111,11 +111,7 @@ export async function listOffers(scope: DealScope): Promise<OfferRecord[]> {
 
 /** An offer by id with its deal's scope; reps only on deals they own (another company's: not found). */
 export async function openOffer(member: Member, offerId: string): Promise<{ scope: DealScope; offer: OfferRecord }> {
-  const [row] = await db()
-    .select({ dealId: offer.dealId })
-    .from(offer)
-    .where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)))
-    .limit(1);
+  const [row] = await db().select({ dealId: offer.dealId }).from(offer).where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId))).limit(1);
   if (!row) throw notFound("Offer");
   const scope = await openDealOf(member, row.dealId, "Offer");
   const [found] = await offersOf(scope, and(eq(offer.companyId, member.companyId), eq(offer.id, offerId)));
@@ -468,13 +464,12 @@ type RequestQueryRow = DiscountRequestRow & { dealOwnerUserId: string | null; gr
 const stripOwner = ({ dealOwnerUserId: _owner, grossCents: _gross, ...row }: RequestQueryRow): DiscountRequestRow => row;
 
 export async function getDiscountRequestOrThrow(member: Member, requestId: string): Promise<DiscountRequestRow> {
-  const [row] = await db()
+  const found = await db()
     .select({ dealId: discountRequest.dealId })
     .from(discountRequest)
     .where(and(eq(discountRequest.id, requestId), eq(discountRequest.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Discount request");
-  await openDealOf(member, row.dealId, "Discount request");
+  await inDealOrThrow(member, "Discount request", found);
   const [full] = await requestQuery(member.companyId).where(and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.id, requestId)));
   if (!full) throw notFound("Discount request");
   return stripOwner(full);

@@ -5,7 +5,7 @@ import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
 import { openDeal } from "@/server/deal-scope";
-import type { DealRow } from "@/server/deals";
+import { dealColumns, type DealRow } from "@/server/deal-audience";
 import { db, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -115,20 +115,7 @@ export async function listBoardDeals(member: Member, filter: BoardFilter): Promi
   if (filter.from) conditions.push(gte(deal.createdAt, new Date(`${filter.from}T00:00:00Z`)));
   if (filter.to) conditions.push(lt(deal.createdAt, new Date(new Date(`${filter.to}T00:00:00Z`).getTime() + 86_400_000)));
   return db()
-    .select({
-      id: deal.id,
-      stage: deal.stage,
-      stageChangedAt: deal.stageChangedAt,
-      source: deal.source,
-      contractCents: deal.contractCents,
-      systemDcWatts: deal.systemDcWatts,
-      householdId: household.id,
-      householdName: household.name,
-      city: household.city,
-      ownerName: user.name,
-      ownerUserId: deal.ownerUserId,
-      createdAt: deal.createdAt,
-    })
+    .select({ ...dealColumns, ownerUserId: deal.ownerUserId })
     .from(deal)
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
     .leftJoin(user, eq(user.id, deal.ownerUserId))

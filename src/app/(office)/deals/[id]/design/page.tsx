@@ -1,20 +1,17 @@
 import type { Metadata } from "next";
 import { preload } from "react-dom";
 import { NoAccess } from "@/components/no-access";
-import { can } from "@/lib/permissions";
-import { openDeal } from "@/server/deal-scope";
 import { getDesignInputs } from "@/server/designs";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { DesignClient } from "./design-client";
 
 export const metadata: Metadata = { title: "Design" };
 
 export default async function DesignTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  if (!can(member.role, "catalog:read") || !can(member.role, "weather:read")) return <NoAccess section="Design" />;
-  const scope = await openDeal(member, id);
+  const scope = await dealPageScope(params);
+  if (!scope) return null;
+  if (!scope.rights.design) return <NoAccess section="Design" />;
+  const id = scope.dealId;
   // Rendered with the page, so the editor does not wait for a second round trip (LCP).
   const inputs = JSON.parse(JSON.stringify(await getDesignInputs(scope))) as Awaited<ReturnType<typeof getDesignInputs>>;
   // The station's hourly weather starts downloading with the page's scripts, not after them.

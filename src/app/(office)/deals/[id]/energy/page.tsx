@@ -1,16 +1,14 @@
 import type { Metadata } from "next";
 import { getDealUsage, listBills, listDealUploads } from "@/server/energy";
-import { openDeal } from "@/server/deal-scope";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { EnergyClient } from "./energy-client";
 
 export const metadata: Metadata = { title: "Energy" };
 
 export default async function EnergyTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  const scope = await openDeal(member, id);
+  const scope = await dealPageScope(params);
+  if (!scope) return null;
+  const id = scope.dealId;
   const [bills, usage, uploads] = await Promise.all([listBills(scope), getDealUsage(scope), listDealUploads(scope)]);
   return (
     <EnergyClient

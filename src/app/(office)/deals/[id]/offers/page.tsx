@@ -1,21 +1,19 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
 import { listActiveInverters, listActiveModules } from "@/server/catalog";
-import { openDeal } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
 import { listDiscountRequestsForDeal, listOffers } from "@/server/offers";
 import { getPriceBook } from "@/server/price-book";
 import { listRatePlans } from "@/server/rate-plans";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { OffersClient } from "./offers-client";
 
 export const metadata: Metadata = { title: "Offers" };
 
 export default async function OffersTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  const room = await openDeal(member, id);
+  const room = await dealPageScope(params);
+  if (!room) return null;
+  const { member, dealId: id } = room;
   if (!room.rights.price) return <NoAccess section="Offers" />;
   const [offers, design, book, modules, inverters, ratePlans, requests] = await Promise.all([
     listOffers(room),

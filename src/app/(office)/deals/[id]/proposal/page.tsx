@@ -1,20 +1,18 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
 import { describeStale } from "@/lib/offer-basis";
-import { openDeal } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
 import { listOffers } from "@/server/offers";
 import { listProposalsForDeal } from "@/server/proposals";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { ProposalClient, type OfferChoice, type VersionView } from "./proposal-client";
 
 export const metadata: Metadata = { title: "Proposal" };
 
 export default async function ProposalTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  const room = await openDeal(member, id);
+  const room = await dealPageScope(params);
+  if (!room) return null;
+  const id = room.dealId;
   if (!room.rights.send) return <NoAccess section="Proposal" />;
   const [offers, versions, design] = await Promise.all([listOffers(room), listProposalsForDeal(room), getDesignForDeal(room)]);
   const choices: OfferChoice[] = offers.map((o) => ({
