@@ -124,8 +124,7 @@ const usageColumns = {
 /** MariaDB keeps JSON as text, so the driver may hand back a string. */
 const parsed = <T>(raw: T | string): T => (typeof raw === "string" ? (JSON.parse(raw) as T) : raw);
 
-function toUsage(row: typeof dealUsage.$inferSelect | { [K in keyof typeof usageColumns]: unknown }): DealUsage {
-  const r = row as typeof dealUsage.$inferSelect;
+function toUsage(r: Pick<typeof dealUsage.$inferSelect, keyof typeof usageColumns>): DealUsage {
   return {
     id: r.id,
     version: r.version,
@@ -164,7 +163,11 @@ export async function rebuildDealUsage(tx: Tx, companyId: string, dealId: string
       .set({ ...year, version: sql`${dealUsage.version} + 1` })
       .where(and(eq(dealUsage.id, current.id), eq(dealUsage.companyId, companyId)));
   } else {
-    await tx.insert(dealUsage).values({ id: crypto.randomUUID(), companyId, dealId, version: 1, ...year });
+    // Two first builds at once (a deal's first bills, a first read of older bills): the later one counts as a change.
+    await tx
+      .insert(dealUsage)
+      .values({ id: crypto.randomUUID(), companyId, dealId, version: 1, ...year })
+      .onDuplicateKeyUpdate({ set: { ...year, version: sql`${dealUsage.version} + 1` } });
   }
 }
 
