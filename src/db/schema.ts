@@ -106,6 +106,8 @@ export const company = mysqlTable("company", {
   licenseNumber: varchar("license_number", { length: 100 }),
   /** Company settings the office tunes (stall limits per stage…): src/lib/schemas/company-settings.ts. */
   settings: json("settings"),
+  /** Grows whenever the savings assumptions (settings.finance) change; offers record the one they used. */
+  financeVersion: int("finance_version").notNull().default(1),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -316,6 +318,37 @@ export const intervalProfile = mysqlTable(
   (t) => [index("interval_profile_deal_idx").on(t.companyId, t.dealId)],
 );
 
+/**
+ * The deal's usage year (12 months and 8760 hours) derived from its interval data, else its
+ * bills: rebuilt in the transaction that changes them, so readers never derive it again. The
+ * version grows with every rebuild; an offer records the version it was computed from.
+ */
+export const dealUsage = mysqlTable(
+  "deal_usage",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    version: int("version").notNull().default(1),
+    source: mysqlEnum("source", ["bills", "interval", "none"]).notNull(),
+    monthlyKwh: json("monthly_kwh").$type<number[]>().notNull(),
+    /** Measured hours (interval data) or the months spread by the reference load shape; null with no usage. */
+    hourlyKwh: json("hourly_kwh").$type<number[] | null>(),
+    annualKwh: double("annual_kwh").notNull(),
+    estimatedMonths: json("estimated_months").$type<boolean[]>().notNull(),
+    warnings: json("warnings").$type<string[]>().notNull(),
+    averageCentsPerKwh: double("average_cents_per_kwh"),
+    fillMethod: varchar("fill_method", { length: 40 }).notNull(),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("deal_usage_deal_uq").on(t.companyId, t.dealId)],
+);
+
 /** A typical-year weather file for a place (EPW, TMY3 or generic CSV), uploaded by an admin. */
 export const weatherStation = mysqlTable(
   "weather_station",
@@ -413,6 +446,9 @@ export const priceBook = mysqlTable(
       .notNull()
       .references(() => company.id, { onDelete: "cascade" }),
     document: json("document").notNull(),
+    /** Grows with every save; `incentivesVersion` only when the incentive rules change. Offers record both. */
+    version: int("version").notNull().default(1),
+    incentivesVersion: int("incentives_version").notNull().default(1),
     updatedByUserId: id("updated_by_user_id").references(() => user.id, { onDelete: "set null" }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -432,6 +468,8 @@ export const ratePlan = mysqlTable(
     utilityName: varchar("utility_name", { length: 200 }).notNull(),
     plan: json("plan").notNull(),
     active: boolean("active").notNull().default(true),
+    /** Grows with every change of the plan; offers record the version they were priced with. */
+    version: int("version").notNull().default(1),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -452,6 +490,8 @@ export const design = mysqlTable(
     document: json("document").notNull(),
     /** The station chosen by the rep; null means the nearest one. */
     weatherStationId: id("weather_station_id").references(() => weatherStation.id, { onDelete: "set null" }),
+    /** Grows with every save; offers record the revision they were computed from. */
+    revision: int("revision").notNull().default(1),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -475,6 +515,12 @@ export const offer = mysqlTable(
     inputs: json("inputs").notNull(),
     /** The engine's figures for those inputs, recomputed on every save. */
     results: json("results").notNull(),
+    /**
+     * What the figures were computed from (src/lib/offer-basis.ts): the versions of the usage,
+     * design, rate plan, price book, incentive rules and savings assumptions, and the usage and
+     * design figures themselves, which a proposal copies. Null for offers saved before it existed.
+     */
+    basis: json("basis"),
     discountCents: int("discount_cents").notNull().default(0),
     discountStatus: mysqlEnum("discount_status", ["none", "within_limit", "pending", "approved", "declined"]).notNull().default("none"),
     createdAt: createdAt(),

@@ -1,5 +1,5 @@
 import "server-only";
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { company, type Stage } from "@/db/schema";
 import { parseStoredSettings, stallLimits, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
 import { db } from "@/server/db";
@@ -18,6 +18,8 @@ export type CompanySettings = {
   stallLimits: Partial<Record<Stage, number>>;
   /** The savings assumptions every new offer is figured with. */
   finance: FinanceAssumptions;
+  /** Grows whenever `finance` changes; offers record the one they used. */
+  financeVersion: number;
 };
 
 /**
@@ -26,13 +28,13 @@ export type CompanySettings = {
  */
 export async function getCompanySettings(companyId: string): Promise<CompanySettings> {
   const [row] = await db()
-    .select({ id: company.id, name: company.name, licenseNumber: company.licenseNumber, settings: company.settings })
+    .select({ id: company.id, name: company.name, licenseNumber: company.licenseNumber, settings: company.settings, financeVersion: company.financeVersion })
     .from(company)
     .where(eq(company.id, companyId))
     .limit(1);
   if (!row) throw notFound("Company");
   const { stallDays, timeZone, finance } = parseStoredSettings(row.settings);
-  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance };
+  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance, financeVersion: row.financeVersion };
 }
 
 /** GET /api/companies/[id]: one's own company only; any other id is simply not found. */
@@ -50,12 +52,14 @@ export async function updateCompanySettings(member: Member, input: CompanySettin
     const [row] = await tx.select({ settings: company.settings }).from(company).where(eq(company.id, member.companyId)).for("update");
     if (!row) throw notFound("Company");
     const previous = row.settings && typeof row.settings === "object" && !Array.isArray(row.settings) ? (row.settings as Record<string, unknown>) : {};
+    const financeChanged = !!input.finance && JSON.stringify(parseStoredSettings(row.settings).finance) !== JSON.stringify(input.finance);
     await tx
       .update(company)
       .set({
         name: input.name,
         licenseNumber: input.licenseNumber,
         settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays, ...(input.finance ? { finance: input.finance } : {}) },
+        ...(financeChanged ? { financeVersion: sql`${company.financeVersion} + 1` } : {}),
       })
       .where(eq(company.id, member.companyId));
   });

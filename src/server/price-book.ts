@@ -11,6 +11,9 @@ import type { Member } from "@/server/session";
 export type PriceBookRecord = {
   id: string;
   document: PriceBook;
+  /** Every save adds one; incentivesVersion only when the incentive rules change (offers record both). */
+  version: number;
+  incentivesVersion: number;
   updatedAt: Date;
   updatedByName: string | null;
 };
@@ -28,7 +31,7 @@ function parseStored(raw: unknown): PriceBook {
   return parsed.data;
 }
 
-const recordColumns = { id: priceBook.id, document: priceBook.document, updatedAt: priceBook.updatedAt, updatedByName: user.name };
+const recordColumns = { id: priceBook.id, document: priceBook.document, version: priceBook.version, incentivesVersion: priceBook.incentivesVersion, updatedAt: priceBook.updatedAt, updatedByName: user.name };
 
 /** The company's saved price book with who changed it last, or null before the first save. */
 export async function getPriceBookRecord(companyId: string): Promise<PriceBookRecord | null> {
@@ -65,10 +68,29 @@ export async function savePriceBook(member: Member, doc: unknown): Promise<Price
   if (!can(member.role, "pricebook:manage")) throw forbidden("changing the price book");
   const parsed = priceBookSchema.safeParse(doc);
   if (!parsed.success) throw validationError(parsed.error);
-  await db()
-    .insert(priceBook)
-    .values({ id: crypto.randomUUID(), companyId: member.companyId, document: parsed.data, updatedByUserId: member.userId })
-    .onDuplicateKeyUpdate({ set: { document: parsed.data, updatedByUserId: member.userId, updatedAt: sql`CURRENT_TIMESTAMP(3)` } });
+  await db().transaction(async (tx) => {
+    const [row] = await tx.select({ document: priceBook.document }).from(priceBook).where(eq(priceBook.companyId, member.companyId)).for("update");
+    if (!row) {
+      // A first save racing another: the later one counts as a change of everything.
+      await tx
+        .insert(priceBook)
+        .values({ id: crypto.randomUUID(), companyId: member.companyId, document: parsed.data, updatedByUserId: member.userId })
+        .onDuplicateKeyUpdate({ set: { document: parsed.data, version: sql`${priceBook.version} + 1`, incentivesVersion: sql`${priceBook.incentivesVersion} + 1`, updatedByUserId: member.userId } });
+      return;
+    }
+    const before = priceBookSchema.safeParse(jsonValue(row.document));
+    const incentivesChanged = !before.success || JSON.stringify(before.data.incentives) !== JSON.stringify(parsed.data.incentives);
+    await tx
+      .update(priceBook)
+      .set({
+        document: parsed.data,
+        version: sql`${priceBook.version} + 1`,
+        ...(incentivesChanged ? { incentivesVersion: sql`${priceBook.incentivesVersion} + 1` } : {}),
+        updatedByUserId: member.userId,
+        updatedAt: sql`CURRENT_TIMESTAMP(3)`,
+      })
+      .where(eq(priceBook.companyId, member.companyId));
+  });
   const saved = await getPriceBookRecord(member.companyId);
   if (!saved) throw new Error("price book vanished right after saving");
   return saved;

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq } from "drizzle-orm";
+import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { ratePlan } from "@/db/schema";
 import { ratePlanSchema, type RatePlan } from "@/engine/rates";
 import { can } from "@/lib/permissions";
@@ -16,6 +16,8 @@ export type RatePlanRow = {
   active: boolean;
   /** The engine's rate plan (src/engine/rates.ts), defaults filled in. */
   plan: RatePlan;
+  /** Every change adds one; offers record the version they were priced with. */
+  version: number;
   updatedAt: Date;
 };
 
@@ -25,6 +27,7 @@ const columns = {
   utilityName: ratePlan.utilityName,
   active: ratePlan.active,
   plan: ratePlan.plan,
+  version: ratePlan.version,
   updatedAt: ratePlan.updatedAt,
 };
 
@@ -78,7 +81,7 @@ export async function updateRatePlan(member: Member, id: string, input: unknown)
   await getRatePlanOrThrow(member.companyId, id);
   await db()
     .update(ratePlan)
-    .set({ name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active })
+    .set({ name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active, version: sql`${ratePlan.version} + 1` })
     .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, member.companyId)));
   return getRatePlanOrThrow(member.companyId, id);
 }

@@ -4,7 +4,8 @@ import { deal, household, job, membership, user, type Stage } from "@/db/schema"
 import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
-import { getDealOrThrow, type DealRow } from "@/server/deals";
+import { openDeal } from "@/server/deal-scope";
+import { dealColumns, type DealRow } from "@/server/deal-audience";
 import { db, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -30,7 +31,7 @@ export type StageMove = { dealId: string; from: Stage; to: Stage; reason: string
  */
 export async function moveDealStage(member: Member, dealId: string, toStage: Stage, reason?: string | null): Promise<StageMove> {
   if (!can(member.role, "deals:write")) throw new HttpError(403, "forbidden", "Your role does not allow moving deals.");
-  const found = await getDealOrThrow(member, dealId); // reps see (and so move) only their own deals
+  const found = (await openDeal(member, dealId)).deal; // reps see (and so move) only their own deals
   const from = found.stage;
   const office = can(member.role, "deals:read-all");
   if (!office && !(REP_STAGES.includes(from) && REP_STAGES.includes(toStage))) {
@@ -114,20 +115,7 @@ export async function listBoardDeals(member: Member, filter: BoardFilter): Promi
   if (filter.from) conditions.push(gte(deal.createdAt, new Date(`${filter.from}T00:00:00Z`)));
   if (filter.to) conditions.push(lt(deal.createdAt, new Date(new Date(`${filter.to}T00:00:00Z`).getTime() + 86_400_000)));
   return db()
-    .select({
-      id: deal.id,
-      stage: deal.stage,
-      stageChangedAt: deal.stageChangedAt,
-      source: deal.source,
-      contractCents: deal.contractCents,
-      systemDcWatts: deal.systemDcWatts,
-      householdId: household.id,
-      householdName: household.name,
-      city: household.city,
-      ownerName: user.name,
-      ownerUserId: deal.ownerUserId,
-      createdAt: deal.createdAt,
-    })
+    .select({ ...dealColumns, ownerUserId: deal.ownerUserId })
     .from(deal)
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
     .leftJoin(user, eq(user.id, deal.ownerUserId))

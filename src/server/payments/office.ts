@@ -2,8 +2,8 @@ import "server-only";
 import { and, asc, desc, eq } from "drizzle-orm";
 import { payment, proposal, refund, user } from "@/db/schema";
 import { db } from "@/server/db";
-import { getDealOrThrow } from "@/server/deals";
-import { HttpError, notFound } from "@/server/errors";
+import { openDeal, openDealOf } from "@/server/deal-scope";
+import { notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import type { PaymentRow, RefundRow } from "./common";
 
@@ -17,9 +17,7 @@ export async function getPaymentOrThrow(member: Member, paymentId: string): Prom
     .where(and(eq(payment.id, paymentId), eq(payment.companyId, member.companyId)))
     .limit(1);
   if (!row) throw notFound("Payment");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Payment") : err;
-  });
+  await openDealOf(member, row.dealId, "Payment");
   return row;
 }
 
@@ -30,9 +28,7 @@ export async function getRefundOrThrow(member: Member, refundId: string): Promis
     .where(and(eq(refund.id, refundId), eq(refund.companyId, member.companyId)))
     .limit(1);
   if (!row) throw notFound("Refund");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Refund") : err;
-  });
+  await openDealOf(member, row.dealId, "Refund");
   return row;
 }
 
@@ -41,7 +37,7 @@ export type LedgerPayment = PaymentRow & { proposalNumber: number; proposalVersi
 
 /** The deal's payments, newest first, each with its refunds (the Money tab). */
 export async function listDealPayments(member: Member, dealId: string): Promise<LedgerPayment[]> {
-  await getDealOrThrow(member, dealId);
+  await openDeal(member, dealId);
   const rows = await db()
     .select({ p: payment, number: proposal.number, version: proposal.version })
     .from(payment)

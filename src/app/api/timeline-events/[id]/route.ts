@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { getDealOrThrow } from "@/server/deals";
+import { openDealOf } from "@/server/deal-scope";
 import { notFound } from "@/server/errors";
 import { idSchema, withMember } from "@/server/route";
 import { getTimelineEventOrThrow } from "@/server/timeline";
@@ -7,6 +7,6 @@ import { getTimelineEventOrThrow } from "@/server/timeline";
 export const GET = withMember<{ id: string }>("deals:read-own", async ({ member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Timeline event");
   const event = await getTimelineEventOrThrow(member, params.id);
-  await getDealOrThrow(member, event.dealId); // a rep reads only their own deals' events
+  await openDealOf(member, event.dealId, "Timeline event"); // a rep reads only their own deals' events
   return NextResponse.json({ data: event });
 });

@@ -8,19 +8,12 @@ import { api, ApiError } from "@/lib/api-client";
 import { fieldErrorsToErrors } from "@/lib/form-errors";
 import type { BillSuggestion } from "@/lib/bill-text";
 import { billsTableSchema } from "@/lib/schemas/energy";
+import type { UsageYear } from "@/lib/usage-year";
 import { UsageChart } from "./usage-chart";
 
 type BillValue = { periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null };
 type Row = { key: string; periodStart: string; periodEnd: string; kwh: string; cost: string; uploadId: string | null };
-type Usage = {
-  monthlyKwh: number[];
-  annualKwh: number;
-  source: "bills" | "interval" | "none";
-  estimatedMonths: boolean[];
-  warnings: string[];
-  averageCentsPerKwh: number | null;
-  fillMethod: string;
-};
+type Usage = Omit<UsageYear, "hourlyKwh">;
 type UploadView = { id: string; fileName: string; mimeType: string; purpose: string; createdAt: string };
 type Outcome =
   | { kind: "bill-text"; upload: { id: string; fileName: string }; suggestions: BillSuggestion[]; message: string }

@@ -11,14 +11,16 @@ import { api, ApiError } from "@/lib/api-client";
 import { formatCents } from "@/lib/format";
 import { OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { MAX_OFFERS_PER_DEAL, type OfferInputs, type OfferInputsInput } from "@/lib/schemas/offer";
+import type { StaleInput } from "@/lib/offer-basis";
 import { CashflowChart, OFFER_COLORS } from "./cashflow-chart";
+import { OfferInputsStatus } from "./offer-inputs-status";
 
 type DiscountStatus = "none" | "within_limit" | "pending" | "approved" | "declined";
 /** The server's figures for the form's inputs before saving (POST /api/offers/preview). */
 type Preview = Pick<OfferFigures, "summary" | "discountNeedsApproval" | "discountLimitCents" | "assumptions">;
 /** How long typing must pause before the preview is figured again. */
 const PREVIEW_DELAY_MS = 400;
-type OfferView = { id: string; position: number; name: string; inputs: OfferInputs; results: OfferFigures; discountStatus: DiscountStatus };
+type OfferView = { id: string; position: number; name: string; inputs: OfferInputs; results: OfferFigures; discountStatus: DiscountStatus; stale: StaleInput[] };
 type DesignView = { faces: { id: string; name: string; usableSlots: number; moduleCount: number }[]; moduleId: string; inverterId: string };
 type Option = { id: string; label: string };
 type RequestView = { id: string; offerId: string; offerName: string; amountCents: number; reason: string; status: "pending" | "approved" | "declined"; requestedByName: string | null; decisionNote: string | null; createdAt: string };
@@ -198,6 +200,7 @@ function OfferCard({ offer, color, canEdit, onEdit }: { offer: OfferView; color:
           {STATUS_TEXT[offer.discountStatus]}
         </p>
       ) : null}
+      <OfferInputsStatus offer={offer} canEdit={canEdit} />
       {r.notes.length > 0 ? (
         <details className="mt-3 text-xs text-graphite-soft">
           <summary className="cursor-pointer">Assumptions and notes</summary>

@@ -1,13 +1,12 @@
 import { NextResponse } from "next/server";
 import { dealUtilitySchema } from "@/lib/schemas/deal-settings";
+import { withDeal } from "@/server/deal-route";
 import { updateDealUtility } from "@/server/deals";
-import { notFound } from "@/server/errors";
-import { idSchema, readJson, withMember } from "@/server/route";
+import { readJson } from "@/server/route";
 
 /** The deal's utility and rate plan ({ utilityName, ratePlanId }; "" for "not known yet"). */
-export const PUT = withMember<{ id: string }>("deals:write", async ({ req, member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
+export const PUT = withDeal("deals:write", async ({ req, scope }) => {
   const input = await readJson(req, dealUtilitySchema);
-  await updateDealUtility(member, params.id, input);
-  return NextResponse.json({ data: { dealId: params.id } });
+  await updateDealUtility(scope, input);
+  return NextResponse.json({ data: { dealId: scope.deal.id } });
 });
