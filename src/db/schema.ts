@@ -8,7 +8,6 @@ import {
   date,
   datetime,
   double,
-  json,
   decimal,
   mediumtext,
   index,
@@ -21,6 +20,14 @@ import {
   varchar,
 } from "drizzle-orm/mysql-core";
 import { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES } from "../lib/enums";
+import { ratePlanSchema } from "../engine/rates";
+import { storedCompanySettingsSchema } from "../lib/schemas/company-settings";
+import { designDocumentSchema } from "../lib/schemas/design";
+import { storedJobChecklistSchema, storedTemplateItemsSchema } from "../lib/schemas/jobs";
+import { offerInputsSchema } from "../lib/schemas/offer";
+import { priceBookSchema } from "../lib/schemas/price-book";
+import { jsonColumn } from "./json-column";
+import * as shapes from "./json-shapes";
 
 // The enum value lists live in src/lib/enums.ts (browser code needs them without drizzle); re-exported for server code.
 export { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES };
@@ -105,7 +112,7 @@ export const company = mysqlTable("company", {
   name: varchar("name", { length: 200 }).notNull(),
   licenseNumber: varchar("license_number", { length: 100 }),
   /** Company settings the office tunes (stall limits per stage…): src/lib/schemas/company-settings.ts. */
-  settings: json("settings"),
+  settings: jsonColumn("company", "settings", storedCompanySettingsSchema),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -308,7 +315,7 @@ export const intervalProfile = mysqlTable(
       .notNull()
       .references(() => deal.id, { onDelete: "cascade" }),
     uploadId: id("upload_id").references(() => upload.id, { onDelete: "set null" }),
-    hourlyKwh: json("hourly_kwh").$type<number[]>().notNull(),
+    hourlyKwh: jsonColumn("interval_profile", "hourly_kwh", shapes.hourlyKwh).notNull(),
     annualKwh: double("annual_kwh").notNull(),
     coveragePct: double("coverage_pct").notNull(),
     createdAt: createdAt(),
@@ -412,7 +419,7 @@ export const priceBook = mysqlTable(
     companyId: id("company_id")
       .notNull()
       .references(() => company.id, { onDelete: "cascade" }),
-    document: json("document").notNull(),
+    document: jsonColumn("price_book", "document", priceBookSchema).notNull(),
     updatedByUserId: id("updated_by_user_id").references(() => user.id, { onDelete: "set null" }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -430,7 +437,7 @@ export const ratePlan = mysqlTable(
       .references(() => company.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 200 }).notNull(),
     utilityName: varchar("utility_name", { length: 200 }).notNull(),
-    plan: json("plan").notNull(),
+    plan: jsonColumn("rate_plan", "plan", ratePlanSchema).notNull(),
     active: boolean("active").notNull().default(true),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -449,7 +456,7 @@ export const design = mysqlTable(
     dealId: id("deal_id")
       .notNull()
       .references(() => deal.id, { onDelete: "cascade" }),
-    document: json("document").notNull(),
+    document: jsonColumn("design", "document", designDocumentSchema).notNull(),
     /** The station chosen by the rep; null means the nearest one. */
     weatherStationId: id("weather_station_id").references(() => weatherStation.id, { onDelete: "set null" }),
     createdAt: createdAt(),
@@ -472,9 +479,9 @@ export const offer = mysqlTable(
     position: int("position").notNull(),
     name: varchar("name", { length: 100 }).notNull(),
     /** Inputs (system, adders, discount, payment) as the rep set them: src/lib/schemas/offer.ts. */
-    inputs: json("inputs").notNull(),
+    inputs: jsonColumn("offer", "inputs", offerInputsSchema).notNull(),
     /** The engine's figures for those inputs, recomputed on every save. */
-    results: json("results").notNull(),
+    results: jsonColumn("offer", "results", shapes.offerFiguresEnvelope).notNull(),
     discountCents: int("discount_cents").notNull().default(0),
     discountStatus: mysqlEnum("discount_status", ["none", "within_limit", "pending", "approved", "declined"]).notNull().default("none"),
     createdAt: createdAt(),
@@ -522,7 +529,7 @@ export const timelineEvent = mysqlTable(
       .references(() => deal.id, { onDelete: "cascade" }),
     kind: varchar("kind", { length: 50 }).notNull(),
     summary: varchar("summary", { length: 500 }).notNull(),
-    data: json("data"),
+    data: jsonColumn("timeline_event", "data", shapes.timelineData),
     actorUserId: id("actor_user_id").references(() => user.id, { onDelete: "set null" }),
     createdAt: createdAt(),
   },
@@ -551,7 +558,7 @@ export const proposal = mysqlTable(
     number: int("number").notNull(),
     version: int("version").notNull(),
     status: mysqlEnum("status", PROPOSAL_STATUSES).notNull().default("sent"),
-    snapshot: json("snapshot").notNull(),
+    snapshot: jsonColumn("proposal", "snapshot", shapes.proposalSnapshotEnvelope).notNull(),
     /** The unsigned PDF as sent, and its SHA-256 (hex). */
     pdfStorageKey: varchar("pdf_storage_key", { length: 255 }).notNull(),
     pdfSha256: varchar("pdf_sha256", { length: 64 }).notNull(),
@@ -729,7 +736,7 @@ export const outboundMail = mysqlTable(
       .references(() => company.id, { onDelete: "cascade" }),
     /** Which message this is (the template and audience), e.g. "signed-copy-customer". */
     kind: varchar("kind", { length: 60 }).notNull(),
-    toAddresses: json("to_addresses").$type<string[]>().notNull(),
+    toAddresses: jsonColumn("outbound_mail", "to_addresses", shapes.emailAddresses).notNull(),
     replyTo: varchar("reply_to", { length: 320 }),
     subject: varchar("subject", { length: 500 }).notNull(),
     html: mediumtext("html"),
@@ -777,7 +784,7 @@ export const checklistTemplate = mysqlTable(
       .references(() => company.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 100 }).notNull(),
     /** [{ id, label }] */
-    items: json("items").notNull(),
+    items: jsonColumn("checklist_template", "items", storedTemplateItemsSchema).notNull(),
     active: boolean("active").notNull().default(true),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -811,7 +818,7 @@ export const job = mysqlTable(
     ptoOn: date("pto_on", { mode: "string" }),
     notes: text("notes"),
     /** The checklist copied from a template: [{ id, label, doneAt, doneByUserId }]. */
-    checklist: json("checklist"),
+    checklist: jsonColumn("job", "checklist", storedJobChecklistSchema),
     installedAt: timestamp("installed_at", { fsp: 3 }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -855,7 +862,7 @@ export const savedView = mysqlTable(
       .references(() => user.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 100 }).notNull(),
     /** src/lib/schemas/deal-table.ts query (filters, sort, columns). */
-    query: json("query").notNull(),
+    query: jsonColumn("saved_view", "query", shapes.storedSavedViewQuery).notNull(),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

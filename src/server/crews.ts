@@ -5,8 +5,9 @@ import type { z } from "zod";
 import { crew, job, membership, user } from "@/db/schema";
 import { env } from "@/env";
 import type { createCrewSchema, updateCrewSchema } from "@/lib/schemas/jobs";
+import { companyRowOrThrow } from "@/server/records";
 import { db } from "@/server/db";
-import { HttpError, notFound } from "@/server/errors";
+import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 
 export type CrewPerson = { membershipId: string; userId: string; name: string; email: string; status: "active" | "deactivated" };
@@ -74,12 +75,7 @@ export async function listCrewOptions(companyId: string): Promise<{ id: string; 
 }
 
 export async function getCrewOrThrow(member: Member, crewId: string): Promise<CrewView> {
-  const [row] = await db()
-    .select()
-    .from(crew)
-    .where(and(eq(crew.id, crewId), eq(crew.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Crew");
+  const row = await companyRowOrThrow(crew, member.companyId, crewId, "Crew");
   const [people, counts] = await Promise.all([crewPeople(member.companyId, [row.id]), openJobCounts(member.companyId)]);
   return {
     id: row.id,

@@ -461,7 +461,7 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   });
   if (refusal) throw new HttpError(403, "not_your_decision", refusal);
 
-  let declinedFigures: OfferFigures | null = null;
+  let declinedFigures: OfferFigures | undefined;
   const inputsWithout: OfferInputs = { ...current.inputs, discountCents: 0, discountReason: "" };
   if (decision === "decline") declinedFigures = (await computeOffer(member, current.dealId, inputsWithout)).figures;
 

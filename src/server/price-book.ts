@@ -4,7 +4,7 @@ import { priceBook, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { emptyPriceBook, priceBookSchema, type PriceBook } from "@/lib/schemas/price-book";
 import { db } from "@/server/db";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { forbidden, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
@@ -14,19 +14,6 @@ export type PriceBookRecord = {
   updatedAt: Date;
   updatedByName: string | null;
 };
-
-/** MariaDB keeps JSON as text, so the driver may hand back a string. */
-function jsonValue(raw: unknown): unknown {
-  return typeof raw === "string" ? JSON.parse(raw) : raw;
-}
-
-function parseStored(raw: unknown): PriceBook {
-  const parsed = priceBookSchema.safeParse(jsonValue(raw));
-  if (!parsed.success) {
-    throw new HttpError(500, "price_book_unreadable", "The saved price book does not match the current format. An admin must save it again.");
-  }
-  return parsed.data;
-}
 
 const recordColumns = { id: priceBook.id, document: priceBook.document, updatedAt: priceBook.updatedAt, updatedByName: user.name };
 
@@ -38,7 +25,7 @@ export async function getPriceBookRecord(companyId: string): Promise<PriceBookRe
     .leftJoin(user, eq(user.id, priceBook.updatedByUserId))
     .where(eq(priceBook.companyId, companyId))
     .limit(1);
-  return row ? { ...row, document: parseStored(row.document) } : null;
+  return row ?? null;
 }
 
 /** The company's price book document; a company that never saved one gets the empty book. */
@@ -54,7 +41,7 @@ export async function getPriceBookOrThrow(companyId: string, id: string): Promis
     .where(and(eq(priceBook.id, id), eq(priceBook.companyId, companyId)))
     .limit(1);
   if (!row) throw notFound("Price book");
-  return { ...row, document: parseStored(row.document) };
+  return row;
 }
 
 /**

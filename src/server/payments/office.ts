@@ -1,9 +1,10 @@
 import "server-only";
 import { and, asc, desc, eq } from "drizzle-orm";
 import { payment, proposal, refund, user } from "@/db/schema";
+import { companyRowOrThrow, hiddenWithParent } from "@/server/records";
 import { db } from "@/server/db";
 import { getDealOrThrow } from "@/server/deals";
-import { HttpError, notFound } from "@/server/errors";
+
 import type { Member } from "@/server/session";
 import type { PaymentRow, RefundRow } from "./common";
 
@@ -11,28 +12,14 @@ import type { PaymentRow, RefundRow } from "./common";
 
 /** A payment of the member's company (reps: of their own deals only); another company's is not found. */
 export async function getPaymentOrThrow(member: Member, paymentId: string): Promise<PaymentRow> {
-  const [row] = await db()
-    .select()
-    .from(payment)
-    .where(and(eq(payment.id, paymentId), eq(payment.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Payment");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Payment") : err;
-  });
+  const row = await companyRowOrThrow(payment, member.companyId, paymentId, "Payment");
+  await hiddenWithParent(getDealOrThrow(member, row.dealId), "Payment");
   return row;
 }
 
 export async function getRefundOrThrow(member: Member, refundId: string): Promise<RefundRow> {
-  const [row] = await db()
-    .select()
-    .from(refund)
-    .where(and(eq(refund.id, refundId), eq(refund.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Refund");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Refund") : err;
-  });
+  const row = await companyRowOrThrow(refund, member.companyId, refundId, "Refund");
+  await hiddenWithParent(getDealOrThrow(member, row.dealId), "Refund");
   return row;
 }
 
