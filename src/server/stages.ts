@@ -1,10 +1,11 @@
 import "server-only";
-import { and, asc, eq, gte, inArray, isNotNull, lt, type SQL } from "drizzle-orm";
+import { and, asc, eq, inArray, isNotNull, type SQL } from "drizzle-orm";
 import { deal, household, job, membership, user, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
 import { getDealOrThrow, type DealRow } from "@/server/deals";
+import { zoneForDays, withinDays } from "@/server/day-filters";
 import { db, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -111,8 +112,7 @@ export async function listBoardDeals(member: Member, filter: BoardFilter): Promi
   if (!can(member.role, "deals:read-all")) conditions.push(eq(deal.ownerUserId, member.userId));
   else if (filter.rep) conditions.push(eq(deal.ownerUserId, filter.rep));
   if (filter.source) conditions.push(eq(deal.source, filter.source));
-  if (filter.from) conditions.push(gte(deal.createdAt, new Date(`${filter.from}T00:00:00Z`)));
-  if (filter.to) conditions.push(lt(deal.createdAt, new Date(new Date(`${filter.to}T00:00:00Z`).getTime() + 86_400_000)));
+  conditions.push(...withinDays(deal.createdAt, filter, await zoneForDays(member.companyId, filter)));
   return db()
     .select({
       id: deal.id,
