@@ -9,9 +9,10 @@
 import { createHash, randomUUID } from "node:crypto";
 import { mkdir, open, readFile, readdir, rename, link, unlink } from "node:fs/promises";
 import { createServer, type IncomingMessage, type ServerResponse } from "node:http";
-import type { AddressInfo } from "node:net";
 import path from "node:path";
 import { z } from "zod";
+import { closeServer, listenOn } from "./listen";
+import { outboxMessageSchema } from "../lib/schemas/outbox";
 
 export interface MailFakeOptions {
   /** 0 picks a free port; the real one is in the returned url. */
@@ -30,20 +31,7 @@ export interface MailFake {
 }
 
 /** The stored form of one message: what the dev outbox page and tests read. */
-export const storedMessageSchema = z.object({
-  id: z.uuid(),
-  from: z.string(),
-  to: z.array(z.string()),
-  cc: z.array(z.string()),
-  bcc: z.array(z.string()),
-  replyTo: z.array(z.string()),
-  subject: z.string(),
-  html: z.string().nullable(),
-  text: z.string().nullable(),
-  headers: z.record(z.string(), z.string()),
-  tags: z.array(z.object({ name: z.string(), value: z.string() })),
-  createdAt: z.iso.datetime(),
-});
+export const storedMessageSchema = outboxMessageSchema;
 export type StoredMessage = z.infer<typeof storedMessageSchema>;
 
 // Limits as documented by the service.
@@ -195,7 +183,8 @@ function toApiEmail(m: StoredMessage) {
 // ---------------------------------------------------------------------------------------------
 // Durable storage
 
-async function writeFileAtomic(file: string, data: string): Promise<void> {
+/** Writes `data` to a synced temporary file beside `file` and answers its path. */
+async function writeSyncedTemp(file: string, data: string): Promise<string> {
   const tmp = path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.${randomUUID()}.tmp`);
   const handle = await open(tmp, "w");
   try {
@@ -204,19 +193,16 @@ async function writeFileAtomic(file: string, data: string): Promise<void> {
   } finally {
     await handle.close();
   }
-  await rename(tmp, file);
+  return tmp;
+}
+
+async function writeFileAtomic(file: string, data: string): Promise<void> {
+  await rename(await writeSyncedTemp(file, data), file);
 }
 
 /** Like writeFileAtomic, but fails with EEXIST when the file is already there (link is exclusive). */
 async function createFileExclusive(file: string, data: string): Promise<boolean> {
-  const tmp = path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.${randomUUID()}.tmp`);
-  const handle = await open(tmp, "w");
-  try {
-    await handle.writeFile(data, "utf8");
-    await handle.sync();
-  } finally {
-    await handle.close();
-  }
+  const tmp = await writeSyncedTemp(file, data);
   try {
     await link(tmp, file);
     return true;
@@ -615,22 +601,5 @@ export async function startMailFake({ port, host = "127.0.0.1", dataDir, apiKey 
     });
   });
 
-  await new Promise<void>((resolve, reject) => {
-    server.once("error", reject);
-    server.listen(port, host, () => {
-      server.off("error", reject);
-      resolve();
-    });
-  });
-  const actualPort = (server.address() as AddressInfo).port;
-  const urlHost = host.includes(":") ? `[${host}]` : host;
-
-  return {
-    url: `http://${urlHost}:${actualPort}`,
-    close: () =>
-      new Promise<void>((resolve, reject) => {
-        server.close((err) => (err ? reject(err) : resolve()));
-        server.closeAllConnections();
-      }),
-  };
+  return { url: await listenOn(server, port, host), close: () => closeServer(server) };
 }

@@ -25,7 +25,7 @@ import { db } from "@/server/db";
 import { dealAudience, visibleTo } from "@/server/deals";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
-import { moveDealStage } from "@/server/stages";
+import { activeDealOwners, moveDealStage } from "@/server/stages";
 import { recordEvent } from "@/server/timeline";
 
 const SORT_COLUMNS: Record<DealTableSortColumn, AnyMySqlColumn> = {
@@ -417,7 +417,6 @@ export async function dealOwnerOptions(member: Member): Promise<Array<{ id: stri
 // ── Bulk actions on selected deals ──
 
 /** Roles that may own deals (the same people as the owner filter). */
-const DEAL_OWNER_ROLES: ("owner" | "admin" | "office_manager" | "sales_rep")[] = ["owner", "admin", "office_manager", "sales_rep"];
 
 /** The household names of the selected deals the person may see (others are not found). */
 async function visibleNames(member: Member, dealIds: string[]): Promise<Map<string, string>> {
@@ -433,19 +432,7 @@ const notFoundResult = (dealId: string): BulkResult => ({ dealId, householdName:
 
 /** An active member of the company who may own deals, or a 422 naming the field. */
 async function newOwnerOrThrow(member: Member, ownerUserId: string): Promise<{ id: string; name: string }> {
-  const [row] = await db()
-    .select({ id: user.id, name: user.name })
-    .from(membership)
-    .innerJoin(user, eq(user.id, membership.userId))
-    .where(
-      and(
-        eq(membership.companyId, member.companyId),
-        eq(membership.userId, ownerUserId),
-        eq(membership.status, "active"),
-        inArray(membership.role, DEAL_OWNER_ROLES),
-      ),
-    )
-    .limit(1);
+  const [row] = await activeDealOwners(member.companyId, ownerUserId).limit(1);
   if (!row) {
     const message = "Pick an active rep, office manager, admin or owner of your company";
     throw new HttpError(422, "validation_failed", `action.ownerUserId: ${message}`, { "action.ownerUserId": [message] });

@@ -1,6 +1,7 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import type { MySqlColumn, MySqlTable } from "drizzle-orm/mysql-core";
+import { household } from "@/db/schema";
 import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 
@@ -31,3 +32,13 @@ export async function hiddenWithParent(parentCheck: Promise<unknown>, what: stri
     throw err instanceof HttpError && err.status === 404 ? notFound(what) : err;
   });
 }
+
+/** The household's address and position, as the deal room, the job packet and the crews' calendar read it. */
+export const householdAddress = {
+  street: household.street,
+  city: household.city,
+  region: household.region,
+  postalCode: household.postalCode,
+  latitude: household.latitude,
+  longitude: household.longitude,
+};

@@ -135,20 +135,27 @@ export async function listBoardDeals(member: Member, filter: BoardFilter): Promi
     .orderBy(asc(deal.stageChangedAt));
 }
 
-/** People who own deals (for the rep filter): the company's active sellers. */
-export async function listBoardOwners(member: Member): Promise<{ id: string; name: string }[]> {
+const DEAL_OWNER_ROLES: ("owner" | "admin" | "office_manager" | "sales_rep")[] = ["owner", "admin", "office_manager", "sales_rep"];
+
+/** The company's active members who may own deals (its sellers); with `userId`, that one only. */
+export function activeDealOwners(companyId: string, userId?: string) {
   return db()
     .select({ id: user.id, name: user.name })
     .from(membership)
     .innerJoin(user, eq(user.id, membership.userId))
     .where(
       and(
-        eq(membership.companyId, member.companyId),
+        eq(membership.companyId, companyId),
         eq(membership.status, "active"),
-        inArray(membership.role, ["owner", "admin", "office_manager", "sales_rep"]),
+        inArray(membership.role, DEAL_OWNER_ROLES),
+        userId === undefined ? undefined : eq(membership.userId, userId),
       ),
-    )
-    .orderBy(asc(user.name));
+    );
+}
+
+/** People who own deals (for the rep filter). */
+export async function listBoardOwners(member: Member): Promise<{ id: string; name: string }[]> {
+  return activeDealOwners(member.companyId).orderBy(asc(user.name));
 }
 
 /** The lead sources used on the company's deals. */

@@ -5,6 +5,7 @@ import { checkStringPlan, inverterAcKw, STRING_CAUTION } from "@/lib/offer-figur
 import type { DesignDocument } from "@/lib/schemas/design";
 import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import { getInverterOrThrow, getModuleOrThrow, type InverterModel, type ModuleModel } from "@/server/catalog";
+import { householdAddress } from "@/server/records";
 import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -56,12 +57,7 @@ async function siteOf(companyId: string, dealId: string) {
       email: household.email,
       secondContactName: household.secondContactName,
       secondContactPhone: household.secondContactPhone,
-      street: household.street,
-      city: household.city,
-      region: household.region,
-      postalCode: household.postalCode,
-      latitude: household.latitude,
-      longitude: household.longitude,
+      ...householdAddress,
       utilityName: deal.utilityName,
     })
     .from(deal)
