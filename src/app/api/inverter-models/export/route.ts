@@ -1,5 +1,3 @@
-import { exportInvertersCsv } from "@/server/catalog";
-import { csvDownload, withMember } from "@/server/route";
+import { exportEquipment } from "@/server/catalog-routes";
 
-/** The company's inverters as CSV (columns documented on the Catalog page). */
-export const GET = withMember("catalog:read", async ({ member }) => csvDownload("inverters.csv", await exportInvertersCsv(member.companyId)));
+export const GET = exportEquipment("inverters");

@@ -1,5 +1,3 @@
-import { exportModulesCsv } from "@/server/catalog";
-import { csvDownload, withMember } from "@/server/route";
+import { exportEquipment } from "@/server/catalog-routes";
 
-/** The company's modules as CSV (columns documented on the Catalog page). */
-export const GET = withMember("catalog:read", async ({ member }) => csvDownload("modules.csv", await exportModulesCsv(member.companyId)));
+export const GET = exportEquipment("modules");
