@@ -93,7 +93,6 @@ export const storedCompanySettingsSchema = z.preprocess(
     finance: z.preprocess(objectOrEmpty, z.object(Object.fromEntries(FINANCE_KEYS.map((k) => [k, financeValue(k).catch(DEFAULT_FINANCE[k])])) as Record<keyof FinanceAssumptions, z.ZodCatch<z.ZodNumber>>)),
   }),
 );
-export type StoredCompanySettings = z.output<typeof storedCompanySettingsSchema>;
 
 /** The limits as the Board and Today use them: stages without a limit are never flagged. */
 export function stallLimits(stallDays: StallDays): Partial<Record<Stage, number>> {
