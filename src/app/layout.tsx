@@ -1,8 +1,4 @@
-import "@fontsource/ibm-plex-sans/400.css";
-import "@fontsource/ibm-plex-sans/500.css";
-import "@fontsource/ibm-plex-sans/600.css";
-import "@fontsource/ibm-plex-mono/400.css";
-import "@fontsource/ibm-plex-mono/500.css";
+import "./fonts.css";
 import "./globals.css";
 import type { Metadata, Viewport } from "next";
 import { connection } from "next/server";

@@ -290,14 +290,8 @@ export function predictMonthlyKwh(fit: DegreeDayFit, hourlyTempC: readonly numbe
   );
 }
 
-/** Bills → the household's 12 monthly kWh (Jan–Dec of a typical year), each flagged measured or estimated. */
-export function usageFromBills(input: BillsInput): UsageYear {
-  const parsed = parseOrThrow(billsInputSchema, input, "bills");
-  const bills = parsed.bills;
-  checkBills(bills);
-  const warnings: string[] = [];
-
-  // Spread each bill over its days; pool by calendar month of year.
+/** Spreads each bill over its days and pools them by calendar month of year. */
+function spreadOverMonths(bills: readonly { startDate: string; endDate: string; kwh: number }[]) {
   const kwhByMonth = new Array<number>(12).fill(0);
   const daysByMonth = new Array<number>(12).fill(0);
   const yearsByMonth = Array.from({ length: 12 }, () => new Set<number>());
@@ -313,6 +307,95 @@ export function usageFromBills(input: BillsInput): UsageYear {
       yearsByMonth[m].add(date.getUTCFullYear());
     }
   }
+
+  return { kwhByMonth, daysByMonth, yearsByMonth };
+}
+
+/** What the bills leave out: months averaged over years, gaps between bills, months scaled up or estimated. */
+function coverageWarnings(bills: readonly { startDate: string; endDate: string }[], months: MonthUsage[], yearsByMonth: Set<number>[], measuredCount: number): string[] {
+  const warnings: string[] = [];
+  if (yearsByMonth.some((years) => years.size > 1)) {
+    warnings.push("Bills span more than a year: the same calendar month from different years was averaged per day.");
+  }
+  const sorted = [...bills].sort((a, b) => dayNumber(a.startDate) - dayNumber(b.startDate));
+  for (let i = 1; i < sorted.length; i++) {
+    const gap = dayNumber(sorted[i].startDate) - dayNumber(sorted[i - 1].endDate);
+    if (gap > 0) warnings.push(`No bill covers ${sorted[i - 1].endDate} to ${sorted[i].startDate} (${gap} day(s)).`);
+  }
+  months.forEach((mu) => {
+    if (mu.status === "measured" && mu.coverage < 1) {
+      warnings.push(`Month ${mu.month} is ${Math.round(mu.coverage * 100)} % covered by bills; its kWh is scaled up from the covered days.`);
+    }
+  });
+  if (measuredCount < 12) {
+    warnings.push(`Only ${measuredCount} month(s) measured; ${12 - measuredCount} estimated.`);
+  }
+  return warnings;
+}
+
+/**
+ * Fills the estimated months (changed in place): from a degree-day fit to the site's
+ * temperatures when asked for and good enough, else from the seasonal shape scaled to the
+ * measured months. Says in `warnings` why a fit was not used.
+ */
+function fillEstimatedMonths(
+  parsed: z.output<typeof billsInputSchema>,
+  months: MonthUsage[],
+  measuredIdx: number[],
+  warnings: string[],
+): { fillMethod: UsageYear["fillMethod"]; degreeDayFit: DegreeDayFit | null } {
+  let fillMethod: UsageYear["fillMethod"];
+  let degreeDayFit: DegreeDayFit | null = null;
+  const wantsDegreeDay = parsed.fill === "degree-day" || parsed.fill === "auto";
+  if (wantsDegreeDay) {
+    if (!parsed.hourlyTempC) {
+      if (parsed.fill === "degree-day") warnings.push("Degree-day fill needs the site's hourly temperatures; used the seasonal shape instead.");
+    } else if (measuredIdx.length < MIN_MONTHS_FOR_DEGREE_DAY) {
+      warnings.push(`Degree-day fill needs at least ${MIN_MONTHS_FOR_DEGREE_DAY} measured months; used the seasonal shape instead.`);
+    } else {
+      const fit = fitDegreeDayModel(
+        measuredIdx.map((m) => ({ month: m, kwhPerDay: months[m].kwh / MONTH_DAYS[m] })),
+        parsed.hourlyTempC,
+      );
+      if (fit && fit.adjustedR2 >= MIN_DEGREE_DAY_ADJUSTED_R2) {
+        degreeDayFit = fit;
+      } else {
+        warnings.push(
+          `Degree-day fit too weak (adjusted R² ${fit ? fit.adjustedR2.toFixed(2) : "n/a"} < ${MIN_DEGREE_DAY_ADJUSTED_R2}); used the seasonal shape instead.`,
+        );
+      }
+    }
+  }
+  if (degreeDayFit && parsed.hourlyTempC) {
+    fillMethod = "degree-day";
+    const predicted = predictMonthlyKwh(degreeDayFit, parsed.hourlyTempC);
+    months.forEach((mu, m) => {
+      if (mu.status === "estimated") mu.kwh = predicted[m];
+    });
+  } else {
+    fillMethod = "seasonal";
+    const shape = parsed.seasonalShape ?? referenceMonthlyKwh();
+    const measuredShape = measuredIdx.reduce((a, m) => a + shape[m], 0);
+    const measuredKwh = measuredIdx.reduce((a, m) => a + months[m].kwh, 0);
+    if (measuredShape <= 0) {
+      throw new EngineInputError([{ path: "seasonalShape", message: "the shape is zero in every measured month" }], "bills");
+    }
+    const scale = measuredKwh / measuredShape;
+    months.forEach((mu, m) => {
+      if (mu.status === "estimated") mu.kwh = shape[m] * scale;
+    });
+  }
+  return { fillMethod, degreeDayFit };
+}
+
+/** Bills → the household's 12 monthly kWh (Jan–Dec of a typical year), each flagged measured or estimated. */
+export function usageFromBills(input: BillsInput): UsageYear {
+  const parsed = parseOrThrow(billsInputSchema, input, "bills");
+  const bills = parsed.bills;
+  checkBills(bills);
+  const warnings: string[] = [];
+
+  const { kwhByMonth, daysByMonth, yearsByMonth } = spreadOverMonths(bills);
 
   const months: MonthUsage[] = MONTH_DAYS.map((days, m) => {
     const coverage = Math.min(1, daysByMonth[m] / days);
@@ -332,66 +415,9 @@ export function usageFromBills(input: BillsInput): UsageYear {
       "bills",
     );
   }
-  if (yearsByMonth.some((years) => years.size > 1)) {
-    warnings.push("Bills span more than a year: the same calendar month from different years was averaged per day.");
-  }
-  const sorted = [...bills].sort((a, b) => dayNumber(a.startDate) - dayNumber(b.startDate));
-  for (let i = 1; i < sorted.length; i++) {
-    const gap = dayNumber(sorted[i].startDate) - dayNumber(sorted[i - 1].endDate);
-    if (gap > 0) warnings.push(`No bill covers ${sorted[i - 1].endDate} to ${sorted[i].startDate} (${gap} day(s)).`);
-  }
-  months.forEach((mu) => {
-    if (mu.status === "measured" && mu.coverage < 1) {
-      warnings.push(`Month ${mu.month} is ${Math.round(mu.coverage * 100)} % covered by bills; its kWh is scaled up from the covered days.`);
-    }
-  });
-  if (measuredIdx.length < 12) {
-    warnings.push(`Only ${measuredIdx.length} month(s) measured; ${12 - measuredIdx.length} estimated.`);
-  }
+  warnings.push(...coverageWarnings(bills, months, yearsByMonth, measuredIdx.length));
 
-  let fillMethod: UsageYear["fillMethod"] = "none";
-  let degreeDayFit: DegreeDayFit | null = null;
-  if (measuredIdx.length < 12) {
-    const wantsDegreeDay = parsed.fill === "degree-day" || parsed.fill === "auto";
-    if (wantsDegreeDay) {
-      if (!parsed.hourlyTempC) {
-        if (parsed.fill === "degree-day") warnings.push("Degree-day fill needs the site's hourly temperatures; used the seasonal shape instead.");
-      } else if (measuredIdx.length < MIN_MONTHS_FOR_DEGREE_DAY) {
-        warnings.push(`Degree-day fill needs at least ${MIN_MONTHS_FOR_DEGREE_DAY} measured months; used the seasonal shape instead.`);
-      } else {
-        const fit = fitDegreeDayModel(
-          measuredIdx.map((m) => ({ month: m, kwhPerDay: months[m].kwh / MONTH_DAYS[m] })),
-          parsed.hourlyTempC,
-        );
-        if (fit && fit.adjustedR2 >= MIN_DEGREE_DAY_ADJUSTED_R2) {
-          degreeDayFit = fit;
-        } else {
-          warnings.push(
-            `Degree-day fit too weak (adjusted R² ${fit ? fit.adjustedR2.toFixed(2) : "n/a"} < ${MIN_DEGREE_DAY_ADJUSTED_R2}); used the seasonal shape instead.`,
-          );
-        }
-      }
-    }
-    if (degreeDayFit && parsed.hourlyTempC) {
-      fillMethod = "degree-day";
-      const predicted = predictMonthlyKwh(degreeDayFit, parsed.hourlyTempC);
-      months.forEach((mu, m) => {
-        if (mu.status === "estimated") mu.kwh = predicted[m];
-      });
-    } else {
-      fillMethod = "seasonal";
-      const shape = parsed.seasonalShape ?? referenceMonthlyKwh();
-      const measuredShape = measuredIdx.reduce((a, m) => a + shape[m], 0);
-      const measuredKwh = measuredIdx.reduce((a, m) => a + months[m].kwh, 0);
-      if (measuredShape <= 0) {
-        throw new EngineInputError([{ path: "seasonalShape", message: "the shape is zero in every measured month" }], "bills");
-      }
-      const scale = measuredKwh / measuredShape;
-      months.forEach((mu, m) => {
-        if (mu.status === "estimated") mu.kwh = shape[m] * scale;
-      });
-    }
-  }
+  const { fillMethod, degreeDayFit } = measuredIdx.length < 12 ? fillEstimatedMonths(parsed, months, measuredIdx, warnings) : { fillMethod: "none" as const, degreeDayFit: null };
 
   const monthlyKwh = months.map((mu) => mu.kwh);
   const allCosted = bills.every((b) => b.costCents !== undefined);

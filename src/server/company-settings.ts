@@ -1,7 +1,7 @@
 import "server-only";
 import { eq, sql } from "drizzle-orm";
 import { company, type Stage } from "@/db/schema";
-import { parseStoredSettings, stallLimits, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
+import { stallLimits, storedCompanySettingsSchema, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
 import { db } from "@/server/db";
 import { notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -23,8 +23,8 @@ export type CompanySettings = {
 };
 
 /**
- * The company's name, licence number and settings. Stored settings are validated; anything
- * missing or damaged falls back to the defaults (src/lib/stage-rules.ts DEFAULT_STALL_DAYS).
+ * The company's name, licence number and settings. The settings column's schema fills in
+ * anything missing or damaged with its default (src/lib/stage-rules.ts DEFAULT_STALL_DAYS).
  */
 export async function getCompanySettings(companyId: string): Promise<CompanySettings> {
   const [row] = await db()
@@ -33,7 +33,7 @@ export async function getCompanySettings(companyId: string): Promise<CompanySett
     .where(eq(company.id, companyId))
     .limit(1);
   if (!row) throw notFound("Company");
-  const { stallDays, timeZone, finance } = parseStoredSettings(row.settings);
+  const { stallDays, timeZone, finance } = row.settings ?? storedCompanySettingsSchema.parse({});
   return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance, financeVersion: row.financeVersion };
 }
 
@@ -51,14 +51,14 @@ export async function updateCompanySettings(member: Member, input: CompanySettin
   await db().transaction(async (tx) => {
     const [row] = await tx.select({ settings: company.settings }).from(company).where(eq(company.id, member.companyId)).for("update");
     if (!row) throw notFound("Company");
-    const previous = row.settings && typeof row.settings === "object" && !Array.isArray(row.settings) ? (row.settings as Record<string, unknown>) : {};
-    const financeChanged = !!input.finance && JSON.stringify(parseStoredSettings(row.settings).finance) !== JSON.stringify(input.finance);
+    const previous = row.settings ?? storedCompanySettingsSchema.parse({});
+    const financeChanged = !!input.finance && JSON.stringify(previous.finance) !== JSON.stringify(input.finance);
     await tx
       .update(company)
       .set({
         name: input.name,
         licenseNumber: input.licenseNumber,
-        settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays, ...(input.finance ? { finance: input.finance } : {}) },
+        settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays, finance: input.finance ?? previous.finance },
         ...(financeChanged ? { financeVersion: sql`${company.financeVersion} + 1` } : {}),
       })
       .where(eq(company.id, member.companyId));

@@ -518,7 +518,7 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   });
   if (refusal) throw new HttpError(403, "not_your_decision", refusal);
 
-  let declinedFigures: OfferFigures | null = null;
+  let declinedFigures: OfferFigures | undefined;
   const inputsWithout: OfferInputs = { ...current.inputs, discountCents: 0, discountReason: "" };
   let declinedBasis: OfferBasis | null = null;
   if (decision === "decline") ({ figures: declinedFigures, basis: declinedBasis } = await computeOffer(scope, inputsWithout));

@@ -4,7 +4,7 @@ import { priceBook, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { emptyPriceBook, priceBookSchema, type PriceBook } from "@/lib/schemas/price-book";
 import { db } from "@/server/db";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { forbidden, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
@@ -18,19 +18,6 @@ export type PriceBookRecord = {
   updatedByName: string | null;
 };
 
-/** MariaDB keeps JSON as text, so the driver may hand back a string. */
-function jsonValue(raw: unknown): unknown {
-  return typeof raw === "string" ? JSON.parse(raw) : raw;
-}
-
-function parseStored(raw: unknown): PriceBook {
-  const parsed = priceBookSchema.safeParse(jsonValue(raw));
-  if (!parsed.success) {
-    throw new HttpError(500, "price_book_unreadable", "The saved price book does not match the current format. An admin must save it again.");
-  }
-  return parsed.data;
-}
-
 const recordColumns = { id: priceBook.id, document: priceBook.document, version: priceBook.version, incentivesVersion: priceBook.incentivesVersion, updatedAt: priceBook.updatedAt, updatedByName: user.name };
 
 /** The company's saved price book with who changed it last, or null before the first save. */
@@ -41,7 +28,7 @@ export async function getPriceBookRecord(companyId: string): Promise<PriceBookRe
     .leftJoin(user, eq(user.id, priceBook.updatedByUserId))
     .where(eq(priceBook.companyId, companyId))
     .limit(1);
-  return row ? { ...row, document: parseStored(row.document) } : null;
+  return row ?? null;
 }
 
 /** The company's price book document; a company that never saved one gets the empty book. */
@@ -57,7 +44,7 @@ export async function getPriceBookOrThrow(companyId: string, id: string): Promis
     .where(and(eq(priceBook.id, id), eq(priceBook.companyId, companyId)))
     .limit(1);
   if (!row) throw notFound("Price book");
-  return { ...row, document: parseStored(row.document) };
+  return row;
 }
 
 /**
@@ -78,8 +65,7 @@ export async function savePriceBook(member: Member, doc: unknown): Promise<Price
         .onDuplicateKeyUpdate({ set: { document: parsed.data, version: sql`${priceBook.version} + 1`, incentivesVersion: sql`${priceBook.incentivesVersion} + 1`, updatedByUserId: member.userId } });
       return;
     }
-    const before = priceBookSchema.safeParse(jsonValue(row.document));
-    const incentivesChanged = !before.success || JSON.stringify(before.data.incentives) !== JSON.stringify(parsed.data.incentives);
+    const incentivesChanged = JSON.stringify(row.document.incentives) !== JSON.stringify(parsed.data.incentives);
     await tx
       .update(priceBook)
       .set({

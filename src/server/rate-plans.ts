@@ -1,11 +1,11 @@
 import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { ratePlan } from "@/db/schema";
-import { ratePlanSchema, type RatePlan } from "@/engine/rates";
+import type { RatePlan } from "@/engine/rates";
 import { can } from "@/lib/permissions";
 import { ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
 import { db } from "@/server/db";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { forbidden, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
@@ -31,15 +31,6 @@ const columns = {
   updatedAt: ratePlan.updatedAt,
 };
 
-function parsePlan(raw: unknown): RatePlan {
-  const value = typeof raw === "string" ? JSON.parse(raw) : raw;
-  const parsed = ratePlanSchema.safeParse(value);
-  if (!parsed.success) throw new HttpError(500, "rate_plan_unreadable", "A saved rate plan does not match the current format. An admin must save it again.");
-  return parsed.data;
-}
-
-const toRow = (row: Omit<RatePlanRow, "plan"> & { plan: unknown }): RatePlanRow => ({ ...row, plan: parsePlan(row.plan) });
-
 /** The company's rate plans: active first, then by utility and name. */
 export async function listRatePlans(companyId: string): Promise<RatePlanRow[]> {
   const rows = await db()
@@ -47,7 +38,7 @@ export async function listRatePlans(companyId: string): Promise<RatePlanRow[]> {
     .from(ratePlan)
     .where(eq(ratePlan.companyId, companyId))
     .orderBy(desc(ratePlan.active), asc(ratePlan.utilityName), asc(ratePlan.name));
-  return rows.map(toRow);
+  return rows;
 }
 
 export async function getRatePlanOrThrow(companyId: string, id: string): Promise<RatePlanRow> {
@@ -57,7 +48,7 @@ export async function getRatePlanOrThrow(companyId: string, id: string): Promise
     .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, companyId)))
     .limit(1);
   if (!row) throw notFound("Rate plan");
-  return toRow(row);
+  return row;
 }
 
 function parseInput(input: unknown) {

@@ -355,12 +355,7 @@ function cachePut(key: string, value: WeatherYear): void {
 export async function loadStationWeather(companyId: string, stationId: string): Promise<WeatherYear> {
   const [row] = await db()
     .select({
-      name: weatherStation.name,
-      format: weatherStation.format,
-      latitude: weatherStation.latitude,
-      longitude: weatherStation.longitude,
-      elevationM: weatherStation.elevationM,
-      utcOffsetHours: weatherStation.utcOffsetHours,
+      ...stationColumns,
       sha256: upload.sha256,
       storageKey: upload.storageKey,
     })

@@ -1,9 +1,9 @@
 import "server-only";
 import { and, asc, desc, eq } from "drizzle-orm";
 import { payment, proposal, refund, user } from "@/db/schema";
+import { companyRowOrThrow, hiddenWithParent } from "@/server/records";
 import { db } from "@/server/db";
 import { openDeal, openDealOf } from "@/server/deal-scope";
-import { notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import type { PaymentRow, RefundRow } from "./common";
 
@@ -11,23 +11,13 @@ import type { PaymentRow, RefundRow } from "./common";
 
 /** A payment of the member's company (reps: of their own deals only); another company's is not found. */
 export async function getPaymentOrThrow(member: Member, paymentId: string): Promise<PaymentRow> {
-  const [row] = await db()
-    .select()
-    .from(payment)
-    .where(and(eq(payment.id, paymentId), eq(payment.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Payment");
+  const row = await companyRowOrThrow(payment, member.companyId, paymentId, "Payment");
   await openDealOf(member, row.dealId, "Payment");
   return row;
 }
 
 export async function getRefundOrThrow(member: Member, refundId: string): Promise<RefundRow> {
-  const [row] = await db()
-    .select()
-    .from(refund)
-    .where(and(eq(refund.id, refundId), eq(refund.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Refund");
+  const row = await companyRowOrThrow(refund, member.companyId, refundId, "Refund");
   await openDealOf(member, row.dealId, "Refund");
   return row;
 }
