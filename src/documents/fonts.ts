@@ -1,8 +1,8 @@
 // The PDFs' fonts: IBM Plex Sans (text) and IBM Plex Mono (figures) from IBM's own packages
 // (@ibm/plex-sans, @ibm/plex-mono), whose WOFF2 files the web pages use (src/app/fonts.css).
-// The PDFs read the WOFF files of the same release: WOFF is the TrueType tables, each zlib-packed,
-// which fontkit unpacks; its WOFF2 reader fails on empty glyphs (the space) when subsetting.
-// pdf-lib embeds a TrueType subset either way. Never fetched at run time.
+// The PDFs read the WOFF files of the same release, unpacked once per process into the TrueType
+// file each wraps (woff.ts); fontkit's WOFF2 reader fails on empty glyphs (the space) when
+// subsetting. pdf-lib embeds a TrueType subset. Never fetched at run time.
 // The files are read once per process from node_modules under the working directory, which is
 // the project root under `next start`, vitest and the scripts.
 import fontkit from "@pdf-lib/fontkit";
@@ -11,6 +11,7 @@ import path from "node:path";
 import type { PDFDocument, PDFFont } from "pdf-lib";
 import type { Font, Fontkit, Glyph } from "pdf-lib/cjs/types/fontkit";
 import { useNativeDeflate } from "./deflate";
+import { woffToSfnt } from "./woff";
 
 export type DocFonts = { sans: PDFFont; sansBold: PDFFont; mono: PDFFont };
 
@@ -48,11 +49,11 @@ function findModulesDir(): string {
   );
 }
 
-/** The three font files' bytes (read once, then kept). */
+/** The three fonts as TrueType bytes (read and unpacked once, then kept). */
 export function fontBytes(): Record<keyof typeof FONT_FILES, Uint8Array> {
   if (!cache) {
     const modules = findModulesDir();
-    const read = (rel: string) => new Uint8Array(readFileSync(path.join(modules, rel)));
+    const read = (rel: string) => woffToSfnt(new Uint8Array(readFileSync(path.join(modules, rel))));
     cache = { sans: read(FONT_FILES.sans), sansBold: read(FONT_FILES.sansBold), mono: read(FONT_FILES.mono) };
   }
   return cache;
