@@ -84,28 +84,24 @@ const collision: CollisionDetection = (args) => {
   return hits.length > 0 ? hits : rectIntersection(args);
 };
 
-export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDays: Partial<Record<Stage, number>> }) {
-  const [items, setItems] = useState(cards);
-  const [activeId, setActiveId] = useState<string | null>(null);
-  const [error, setError] = useState<string | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
-  const [ask, setAsk] = useState<{ deal: BoardCard; to: Stage; message: string } | null>(null);
-  const requestMove = useStageMove();
-
-  const sensors = useSensors(
-    useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
-    useSensor(KeyboardSensor, { coordinateGetter: columnKeyboardCoordinates }),
-  );
-  const byId = new Map(items.map((c) => [c.id, c]));
-  const active = activeId ? byId.get(activeId) : undefined;
-  const nameOf = (id: unknown) => byId.get(String(id))?.householdName ?? "The deal";
-
-  const announcements: Announcements = {
+/** What a screen reader hears while a card is picked up, moved and dropped. */
+function boardAnnouncements(nameOf: (id: unknown) => string): Announcements {
+  return {
     onDragStart: ({ active: a }) => `Picked up ${nameOf(a.id)}. Arrow keys change the column; Space drops it, Escape cancels.`,
     onDragOver: ({ active: a, over }) => (over ? `${nameOf(a.id)} is over ${STAGE_LABELS[over.id as Stage]}.` : `${nameOf(a.id)} is not over a column.`),
     onDragEnd: ({ active: a, over }) => (over ? `${nameOf(a.id)} dropped on ${STAGE_LABELS[over.id as Stage]}.` : `${nameOf(a.id)} put back.`),
     onDragCancel: ({ active: a }) => `Move cancelled; ${nameOf(a.id)} stays where it was.`,
   };
+}
+
+/**
+ * The cards as shown, and a move that shows the card in its new column at once, then keeps it
+ * there (counting its days afresh) or puts it back, as the server decides.
+ */
+function useBoardMoves(cards: BoardCard[]) {
+  const [items, setItems] = useState(cards);
+  const [notice, setNotice] = useState<string | null>(null);
+  const requestMove = useStageMove();
 
   function place(dealId: string, stage: Stage, moved: boolean) {
     setItems((prev) => prev.map((c) => (c.id === dealId ? { ...c, stage, ...(moved ? { daysInStage: 0, stalled: false } : {}) } : c)));
@@ -122,6 +118,37 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
     }
     return result;
   }
+  return { items, notice, setNotice, move };
+}
+
+function BoardMessages({ error, notice }: { error: string | null; notice: string | null }) {
+  return (
+    <div className="mt-3 min-h-6 px-2 md:px-4">
+      {error ? (
+        <p role="alert" className="rounded-md border border-danger/30 bg-danger-light px-3 py-2 text-sm text-danger">
+          {error}
+        </p>
+      ) : null}
+      <p role="status" data-testid="board-notice" className="text-sm text-sage">
+        {notice}
+      </p>
+    </div>
+  );
+}
+
+export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDays: Partial<Record<Stage, number>> }) {
+  const { items, notice, setNotice, move } = useBoardMoves(cards);
+  const [activeId, setActiveId] = useState<string | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [ask, setAsk] = useState<{ deal: BoardCard; to: Stage; message: string } | null>(null);
+
+  const sensors = useSensors(
+    useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
+    useSensor(KeyboardSensor, { coordinateGetter: columnKeyboardCoordinates }),
+  );
+  const byId = new Map(items.map((c) => [c.id, c]));
+  const active = activeId ? byId.get(activeId) : undefined;
+  const nameOf = (id: unknown) => byId.get(String(id))?.householdName ?? "The deal";
 
   function onDragStart(event: DragStartEvent) {
     setActiveId(String(event.active.id));
@@ -142,16 +169,7 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
 
   return (
     <>
-      <div className="mt-3 min-h-6 px-2 md:px-4">
-        {error ? (
-          <p role="alert" className="rounded-md border border-danger/30 bg-danger-light px-3 py-2 text-sm text-danger">
-            {error}
-          </p>
-        ) : null}
-        <p role="status" data-testid="board-notice" className="text-sm text-sage">
-          {notice}
-        </p>
-      </div>
+      <BoardMessages error={error} notice={notice} />
       <DndContext
         id="board"
         sensors={sensors}
@@ -160,7 +178,7 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
         onDragEnd={onDragEnd}
         onDragCancel={() => setActiveId(null)}
         accessibility={{
-          announcements,
+          announcements: boardAnnouncements(nameOf),
           screenReaderInstructions: {
             draggable: "To move this deal, press Space to pick it up, use the arrow keys to change the column, then Space to drop it or Escape to cancel.",
           },

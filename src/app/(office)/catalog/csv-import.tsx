@@ -47,7 +47,6 @@ export function CsvImport({ kind }: { kind: Kind }) {
     }
   }
 
-  const bad = report ? new Set(report.errors.map((e) => e.line)).size : 0;
   return (
     <div className="card p-5">
       <h3 className="text-base font-semibold">Import {kind} from CSV</h3>
@@ -86,48 +85,54 @@ export function CsvImport({ kind }: { kind: Kind }) {
       </form>
       <div id={`${formId}-result`} className="mt-3 space-y-2" data-testid={`${NOUN[kind]}-import-result`}>
         {failure ? <FormMessage tone="error">{failure}</FormMessage> : null}
-        {report ? (
-          <>
-            {report.applied ? (
-              <FormMessage tone="success">
-                Imported {plural(report.created.length, `new ${NOUN[kind]}`)} and updated {plural(report.updated.length, NOUN[kind])}
-                {report.errors.length > 0 ? `; skipped ${plural(bad, "bad row")}.` : "."}
-              </FormMessage>
-            ) : report.errors.length > 0 ? (
-              <FormMessage tone="error">
-                Nothing was imported: {plural(bad, "line")} {bad === 1 ? "has" : "have"} problems.
-                {report.mode === "all_or_nothing" && report.rowsRead > 0 ? " Fix them and upload again, or choose “Import only the good rows”." : ""}
-              </FormMessage>
-            ) : (
-              <FormMessage tone="info">The file has no data rows; nothing was imported.</FormMessage>
-            )}
-            {report.errors.length > 0 ? (
-              <ol className="divide-y divide-paper-line rounded-md border border-paper-line text-sm" aria-label="Problems by line">
-                {report.errors.map((e, i) => (
-                  <li key={i} className="flex gap-3 px-3 py-1.5" data-testid="import-error">
-                    <span className="figure w-20 shrink-0 text-danger">Line {e.line}</span>
-                    <span className="figure w-48 shrink-0">{e.column}</span>
-                    <span>{e.message}</span>
-                  </li>
-                ))}
-              </ol>
-            ) : null}
-            {report.updated.length > 0 ? (
-              <details className="text-sm">
-                <summary className="cursor-pointer">Updated ({report.updated.length})</summary>
-                <ul className="mt-1 list-inside list-disc text-graphite-soft">
-                  {report.updated.map((u) => (
-                    <li key={u.line}>
-                      Line <span className="figure">{u.line}</span>: {u.manufacturer} {u.model}
-                    </li>
-                  ))}
-                </ul>
-              </details>
-            ) : null}
-          </>
-        ) : null}
+        {report ? <ImportReport kind={kind} report={report} /> : null}
       </div>
     </div>
+  );
+}
+
+/** What the import did: the counts, every bad row by line and column, and the rows it updated. */
+function ImportReport({ kind, report }: { kind: Kind; report: CsvImportReport }) {
+  const bad = new Set(report.errors.map((e) => e.line)).size;
+  return (
+    <>
+      {report.applied ? (
+        <FormMessage tone="success">
+          Imported {plural(report.created.length, `new ${NOUN[kind]}`)} and updated {plural(report.updated.length, NOUN[kind])}
+          {report.errors.length > 0 ? `; skipped ${plural(bad, "bad row")}.` : "."}
+        </FormMessage>
+      ) : report.errors.length > 0 ? (
+        <FormMessage tone="error">
+          Nothing was imported: {plural(bad, "line")} {bad === 1 ? "has" : "have"} problems.
+          {report.mode === "all_or_nothing" && report.rowsRead > 0 ? " Fix them and upload again, or choose “Import only the good rows”." : ""}
+        </FormMessage>
+      ) : (
+        <FormMessage tone="info">The file has no data rows; nothing was imported.</FormMessage>
+      )}
+      {report.errors.length > 0 ? (
+        <ol className="divide-y divide-paper-line rounded-md border border-paper-line text-sm" aria-label="Problems by line">
+          {report.errors.map((e, i) => (
+            <li key={i} className="flex gap-3 px-3 py-1.5" data-testid="import-error">
+              <span className="figure w-20 shrink-0 text-danger">Line {e.line}</span>
+              <span className="figure w-48 shrink-0">{e.column}</span>
+              <span>{e.message}</span>
+            </li>
+          ))}
+        </ol>
+      ) : null}
+      {report.updated.length > 0 ? (
+        <details className="text-sm">
+          <summary className="cursor-pointer">Updated ({report.updated.length})</summary>
+          <ul className="mt-1 list-inside list-disc text-graphite-soft">
+            {report.updated.map((u) => (
+              <li key={u.line}>
+                Line <span className="figure">{u.line}</span>: {u.manufacturer} {u.model}
+              </li>
+            ))}
+          </ul>
+        </details>
+      ) : null}
+    </>
   );
 }
 

@@ -37,21 +37,15 @@ export function EquipmentSection<R extends Row>(props: {
   const headingId = `${kind}-heading`;
   return (
     <section aria-labelledby={headingId} className="space-y-3">
-      <div className="flex flex-wrap items-center justify-between gap-3">
-        <h2 id={headingId} className="text-lg font-semibold">
-          {heading} <span className="figure text-sm font-normal text-graphite-soft">({rows.length})</span>
-        </h2>
-        <div className="flex flex-wrap gap-2">
-          <a className="btn-quiet" href={`${spec.collection}/export`} download>
-            Export {kind} CSV
-          </a>
-          {canManage ? (
-            <button type="button" className="btn-primary" onClick={() => setEditing({ mode: "new" })} disabled={editing?.mode === "new"}>
-              Add {spec.noun}
-            </button>
-          ) : null}
-        </div>
-      </div>
+      <SectionHead
+        headingId={headingId}
+        heading={heading}
+        count={rows.length}
+        kind={kind}
+        spec={spec}
+        onAdd={canManage ? () => setEditing({ mode: "new" }) : null}
+        adding={editing?.mode === "new"}
+      />
       <StatusMessage notice={setActive.notice} />
       {canManage && editing ? (
         <EquipmentForm
@@ -71,59 +65,116 @@ export function EquipmentSection<R extends Row>(props: {
         <TableShell
           minWidth={props.minWidth}
           testId={`${kind}-table`}
-          head={
-            <>
-              <Th>{Noun}</Th>
-              {columns.map((c) => (
-                <Th key={c.header} numeric={c.numeric} title={c.title}>
-                  {c.header}
-                </Th>
-              ))}
-              <Th>Status</Th>
-              {canManage ? (
-                <Th>
-                  <span className="sr-only">Actions</span>
-                </Th>
-              ) : null}
-            </>
-          }
+          head={<TableHead noun={Noun} columns={columns} canManage={canManage} />}
         >
-          {rows.map((r) => {
-            const name = `${r.manufacturer} ${r.model}`;
-            return (
-              <tr key={r.id} data-testid={`${spec.noun}-${r.model}`} className={r.active ? undefined : "bg-paper/60"}>
-                <Td>
-                  <span className="font-medium">{r.manufacturer}</span> {r.model}
-                </Td>
-                {columns.map((c) => (
-                  <Td key={c.header} numeric={c.numeric} className={c.className}>
-                    {c.cell(r)}
-                  </Td>
-                ))}
-                <Td>{r.active ? <Badge tone="success">Active</Badge> : <Badge>Deactivated</Badge>}</Td>
-                {canManage ? (
-                  <Td className="whitespace-nowrap text-right">
-                    <button type="button" className="btn-quiet" disabled={setActive.pending} onClick={() => setEditing({ mode: "edit", row: r })} aria-label={`Edit ${name}`}>
-                      Edit
-                    </button>{" "}
-                    <button
-                      type="button"
-                      className={r.active ? "btn-danger" : "btn-quiet"}
-                      disabled={setActive.pending}
-                      aria-label={`${r.active ? "Deactivate" : "Reactivate"} ${name}`}
-                      onClick={() => setActive.save({ row: r, active: !r.active })}
-                    >
-                      {r.active ? "Deactivate" : "Reactivate"}
-                    </button>
-                  </Td>
-                ) : null}
-              </tr>
-            );
-          })}
+          {rows.map((r) => (
+            <EquipmentRow
+              key={r.id}
+              row={r}
+              noun={spec.noun}
+              columns={columns}
+              canManage={canManage}
+              busy={setActive.pending}
+              onEdit={() => setEditing({ mode: "edit", row: r })}
+              onSetActive={(active) => setActive.save({ row: r, active })}
+            />
+          ))}
         </TableShell>
       )}
       {canManage ? <CsvImport kind={kind} /> : null}
       {canManage ? <CsvColumnsHelp kind={kind} /> : null}
     </section>
+  );
+}
+
+/** The list's heading with its count, the CSV export, and (for managers) the add button. */
+function SectionHead(props: {
+  headingId: string;
+  heading: string;
+  count: number;
+  kind: "modules" | "inverters";
+  spec: { collection: string; noun: string };
+  onAdd: (() => void) | null;
+  adding: boolean;
+}) {
+  const { spec, kind } = props;
+  return (
+    <div className="flex flex-wrap items-center justify-between gap-3">
+      <h2 id={props.headingId} className="text-lg font-semibold">
+        {props.heading} <span className="figure text-sm font-normal text-graphite-soft">({props.count})</span>
+      </h2>
+      <div className="flex flex-wrap gap-2">
+        <a className="btn-quiet" href={`${spec.collection}/export`} download>
+          Export {kind} CSV
+        </a>
+        {props.onAdd ? (
+          <button type="button" className="btn-primary" onClick={props.onAdd} disabled={props.adding}>
+            Add {spec.noun}
+          </button>
+        ) : null}
+      </div>
+    </div>
+  );
+}
+
+function TableHead<R>({ noun, columns, canManage }: { noun: string; columns: Column<R>[]; canManage: boolean }) {
+  return (
+    <>
+      <Th>{noun}</Th>
+      {columns.map((c) => (
+        <Th key={c.header} numeric={c.numeric} title={c.title}>
+          {c.header}
+        </Th>
+      ))}
+      <Th>Status</Th>
+      {canManage ? (
+        <Th>
+          <span className="sr-only">Actions</span>
+        </Th>
+      ) : null}
+    </>
+  );
+}
+
+/** One model's row: name, the list's own columns, status, and (for managers) edit and activate/deactivate. */
+function EquipmentRow<R extends Row>(props: {
+  row: R;
+  noun: string;
+  columns: Column<R>[];
+  canManage: boolean;
+  busy: boolean;
+  onEdit: () => void;
+  onSetActive: (active: boolean) => void;
+}) {
+  const { row: r, columns, canManage, busy } = props;
+  const name = `${r.manufacturer} ${r.model}`;
+  return (
+    <tr data-testid={`${props.noun}-${r.model}`} className={r.active ? undefined : "bg-paper/60"}>
+      <Td>
+        <span className="font-medium">{r.manufacturer}</span> {r.model}
+      </Td>
+      {columns.map((c) => (
+        <Td key={c.header} numeric={c.numeric} className={c.className}>
+          {c.cell(r)}
+        </Td>
+      ))}
+      <Td>{r.active ? <Badge tone="success">Active</Badge> : <Badge>Deactivated</Badge>}</Td>
+      {canManage ? (
+        <Td className="whitespace-nowrap text-right">
+          <button type="button" className="btn-quiet" disabled={busy} onClick={props.onEdit} aria-label={`Edit ${name}`}>
+            Edit
+          </button>{" "}
+          <button
+            type="button"
+            className={r.active ? "btn-danger" : "btn-quiet"}
+            disabled={busy}
+            aria-label={`${r.active ? "Deactivate" : "Reactivate"} ${name}`}
+            onClick={() => props.onSetActive(!r.active)}
+          >
+            {r.active ? "Deactivate" : "Reactivate"}
+          </button>
+        </Td>
+      ) : null}
+    </tr>
   );
 }

@@ -11,36 +11,18 @@ import { STAGE_LABELS } from "@/lib/stages";
 const AUTOMATIC: readonly Stage[] = ["signed", "deposit_paid", "cancelled"];
 const TARGETS = [...PIPELINE, ...SIDE_STAGES].filter((s) => !AUTOMATIC.includes(s));
 const PICK = { value: "", label: "Pick…" };
+const plural = (n: number) => `${n} deal${n === 1 ? "" : "s"}`;
 
 type Mode = "move" | "reassign" | null;
 
-/**
- * Actions on the selected deals: move them to a stage (with a reason when the rules ask for
- * one) or, for the office, hand them to another rep. The server applies the same rules as to
- * one deal at a time and answers per deal; refusals are listed with their reason.
- */
-export function BulkBar({
-  selectedIds,
-  office,
-  owners,
-  onClear,
-  onDone,
-}: {
-  selectedIds: string[];
-  office: boolean;
-  owners: Array<{ id: string; name: string }>;
-  onClear: () => void;
-  onDone: (answer: BulkAnswer) => void;
-}) {
-  const ids = useId();
+/** The chosen action, its fields, and the server's answer per deal. */
+function useBulkAction(selectedIds: string[], onDone: (answer: BulkAnswer) => void) {
   const [mode, setMode] = useState<Mode>(null);
   const [stage, setStage] = useState<Stage | "">("");
   const [reason, setReason] = useState("");
   const [ownerId, setOwnerId] = useState("");
   const [answer, setAnswer] = useState<(BulkAnswer & { kind: "move" | "reassign" }) | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const count = selectedIds.length;
-  const tooMany = count > BULK_MAX_DEALS;
 
   // The table reads through useQuery: onDone invalidates it (no page refresh).
   const run = useSave<DealBulkInput, BulkAnswer>({
@@ -67,10 +49,31 @@ export function BulkBar({
       run.save({ dealIds: selectedIds, action: { kind: "reassign", ownerUserId: ownerId } });
     }
   }
+  return { mode, setMode, stage, setStage, reason, setReason, ownerId, setOwnerId, answer, setAnswer, error, setError, submit, pending: run.pending };
+}
 
-  const plural = (n: number) => `${n} deal${n === 1 ? "" : "s"}`;
-  const refused = answer?.results.filter((r) => r.outcome === "refused") ?? [];
-  const unchanged = answer?.results.filter((r) => r.outcome === "unchanged") ?? [];
+/**
+ * Actions on the selected deals: move them to a stage (with a reason when the rules ask for
+ * one) or, for the office, hand them to another rep. The server applies the same rules as to
+ * one deal at a time and answers per deal; refusals are listed with their reason.
+ */
+export function BulkBar({
+  selectedIds,
+  office,
+  owners,
+  onClear,
+  onDone,
+}: {
+  selectedIds: string[];
+  office: boolean;
+  owners: Array<{ id: string; name: string }>;
+  onClear: () => void;
+  onDone: (answer: BulkAnswer) => void;
+}) {
+  const bulk = useBulkAction(selectedIds, onDone);
+  const { mode, setMode, answer, error } = bulk;
+  const count = selectedIds.length;
+  const tooMany = count > BULK_MAX_DEALS;
 
   return (
     <div className="mt-3 space-y-2">
@@ -99,36 +102,7 @@ export function BulkBar({
               </button>
             </>
           ) : (
-            <form onSubmit={submit} className="flex flex-1 flex-wrap items-end gap-3" aria-label={mode === "move" ? "Move the selected deals" : "Reassign the selected deals"}>
-              {mode === "move" ? (
-                <>
-                  <SelectField id={`${ids}-to`} label="Move the selected deals to" value={stage} onChange={(e) => setStage(e.target.value as Stage | "")} options={[PICK, ...optionsOf(TARGETS, STAGE_LABELS)]} />
-                  <Field
-                    id={`${ids}-reason`}
-                    className="min-w-64 flex-1"
-                    label="Reason (for the Timeline; needed for Lost, On hold, moving back, and booking an install without a permit date)"
-                    value={reason}
-                    maxLength={300}
-                    onChange={(e) => setReason(e.target.value)}
-                  />
-                </>
-              ) : (
-                <SelectField id={`${ids}-rep`} label="Reassign to" value={ownerId} onChange={(e) => setOwnerId(e.target.value)} options={[PICK, ...owners.map((o) => ({ value: o.id, label: o.name }))]} />
-              )}
-              <button type="submit" className="btn-primary" disabled={run.pending || tooMany}>
-                {run.pending ? "Working…" : `${mode === "move" ? "Move" : "Reassign"} ${plural(count)}`}
-              </button>
-              <button
-                type="button"
-                className="btn-quiet"
-                onClick={() => {
-                  setMode(null);
-                  setError(null);
-                }}
-              >
-                Cancel
-              </button>
-            </form>
+            <BulkForm bulk={bulk} owners={owners} count={count} tooMany={tooMany} />
           )}
           {error ? (
             <p role="alert" className="basis-full text-sm text-danger">
@@ -137,38 +111,83 @@ export function BulkBar({
           ) : null}
         </section>
       ) : null}
-      {answer ? (
-        <section aria-label="Result of the bulk action" data-testid="bulk-result" className="card p-3 text-sm">
-          <div className="flex flex-wrap items-center justify-between gap-2">
-            <p role="status">
-              <span className="figure">{answer.done}</span> {answer.kind === "reassign" ? "reassigned" : "moved"}
-              {unchanged.length > 0 ? (
-                <>
-                  , <span className="figure">{unchanged.length}</span> already theirs
-                </>
-              ) : null}
-              {refused.length > 0 ? (
-                <>
-                  , <span className="figure">{refused.length}</span> refused
-                </>
-              ) : null}
-              .{refused.length > 0 ? " The refused deals stay selected." : ""}
-            </p>
-            <button type="button" className="btn-quiet" onClick={() => setAnswer(null)}>
-              Dismiss
-            </button>
-          </div>
-          {refused.length > 0 ? (
-            <ul className="mt-2 divide-y divide-paper-line" aria-label="Refused deals">
-              {refused.map((r) => (
-                <li key={r.dealId} className="py-1.5">
-                  <span className="font-medium">{r.householdName ?? "A deal"}</span>: {r.message}
-                </li>
-              ))}
-            </ul>
-          ) : null}
-        </section>
-      ) : null}
+      {answer ? <BulkResult answer={answer} onDismiss={() => bulk.setAnswer(null)} /> : null}
     </div>
+  );
+}
+
+/** The fields of the chosen action (stage and reason, or the rep) with its submit and cancel. */
+function BulkForm({ bulk, owners, count, tooMany }: { bulk: ReturnType<typeof useBulkAction>; owners: Array<{ id: string; name: string }>; count: number; tooMany: boolean }) {
+  const ids = useId();
+  const { mode, stage, setStage, reason, setReason, ownerId, setOwnerId, setMode, setError } = bulk;
+  return (
+    <form onSubmit={bulk.submit} className="flex flex-1 flex-wrap items-end gap-3" aria-label={mode === "move" ? "Move the selected deals" : "Reassign the selected deals"}>
+      {mode === "move" ? (
+        <>
+          <SelectField id={`${ids}-to`} label="Move the selected deals to" value={stage} onChange={(e) => setStage(e.target.value as Stage | "")} options={[PICK, ...optionsOf(TARGETS, STAGE_LABELS)]} />
+          <Field
+            id={`${ids}-reason`}
+            className="min-w-64 flex-1"
+            label="Reason (for the Timeline; needed for Lost, On hold, moving back, and booking an install without a permit date)"
+            value={reason}
+            maxLength={300}
+            onChange={(e) => setReason(e.target.value)}
+          />
+        </>
+      ) : (
+        <SelectField id={`${ids}-rep`} label="Reassign to" value={ownerId} onChange={(e) => setOwnerId(e.target.value)} options={[PICK, ...owners.map((o) => ({ value: o.id, label: o.name }))]} />
+      )}
+      <button type="submit" className="btn-primary" disabled={bulk.pending || tooMany}>
+        {bulk.pending ? "Working…" : `${mode === "move" ? "Move" : "Reassign"} ${plural(count)}`}
+      </button>
+      <button
+        type="button"
+        className="btn-quiet"
+        onClick={() => {
+          setMode(null);
+          setError(null);
+        }}
+      >
+        Cancel
+      </button>
+    </form>
+  );
+}
+
+/** What the last action did: counts, and each refused deal with the rules' reason. */
+function BulkResult({ answer, onDismiss }: { answer: BulkAnswer & { kind: "move" | "reassign" }; onDismiss: () => void }) {
+  const refused = answer.results.filter((r) => r.outcome === "refused");
+  const unchanged = answer.results.filter((r) => r.outcome === "unchanged");
+  return (
+    <section aria-label="Result of the bulk action" data-testid="bulk-result" className="card p-3 text-sm">
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <p role="status">
+          <span className="figure">{answer.done}</span> {answer.kind === "reassign" ? "reassigned" : "moved"}
+          {unchanged.length > 0 ? (
+            <>
+              , <span className="figure">{unchanged.length}</span> already theirs
+            </>
+          ) : null}
+          {refused.length > 0 ? (
+            <>
+              , <span className="figure">{refused.length}</span> refused
+            </>
+          ) : null}
+          .{refused.length > 0 ? " The refused deals stay selected." : ""}
+        </p>
+        <button type="button" className="btn-quiet" onClick={onDismiss}>
+          Dismiss
+        </button>
+      </div>
+      {refused.length > 0 ? (
+        <ul className="mt-2 divide-y divide-paper-line" aria-label="Refused deals">
+          {refused.map((r) => (
+            <li key={r.dealId} className="py-1.5">
+              <span className="font-medium">{r.householdName ?? "A deal"}</span>: {r.message}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </section>
   );
 }

@@ -1,7 +1,7 @@
 "use client";
 import { keepPreviousData, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useTable, type ColumnVisibilityState, type PaginationState, type RowSelectionState, type SortingState, type Updater } from "@tanstack/react-table";
-import { useEffect, useId, useMemo, useState, type FormEvent } from "react";
+import { useEffect, useId, useMemo, useState, type Dispatch, type FormEvent, type ReactNode, type SetStateAction } from "react";
 import { STAGES } from "@/lib/enums";
 import { api } from "@/lib/api-client";
 import {
@@ -83,26 +83,16 @@ function savedQueryOf(view: View, visibility: ColumnVisibilityState): SavedViewQ
   return q;
 }
 
-export function DealsTable({
-  initialQuery,
-  initial,
-  showOwner,
-  owners,
-  sources,
-}: {
-  initialQuery: DealTableQuery;
-  initial: DealTablePage;
-  showOwner: boolean;
-  owners: Array<{ id: string; name: string; active?: boolean }>;
-  sources: string[];
-}) {
-  const queryClient = useQueryClient();
-  const ids = useId();
+const isFiltered = (view: View) => Boolean(view.stage || view.owner || view.source || view.q || view.from || view.to);
+
+/**
+ * The view (filters, sort, page), the hidden columns and the selection; the address follows
+ * the view, and a new filter or sort starts a new selection.
+ */
+function useDealsView(initialQuery: DealTableQuery) {
   const [view, setView] = useState<View>(() => viewFrom(initialQuery));
-  const [search, setSearch] = useState(view.q);
   const [columnVisibility, setColumnVisibility] = useState<ColumnVisibilityState>({});
   const [rowSelection, setRowSelection] = useState<RowSelectionState>({});
-  const [activeViewId, setActiveViewId] = useState<string | null>(null);
 
   // Hidden columns are a preference of this browser, read after the first render so the
   // server's HTML and the browser's first render agree.
@@ -115,7 +105,6 @@ export function DealsTable({
     }
   }, []);
 
-  const initialKey = useMemo(() => paramsOf(viewFrom(initialQuery), true).toString(), [initialQuery]);
   const key = paramsOf(view, true).toString();
 
   // A selection belongs to the deals in view: new filters or a new sort start a new one.
@@ -127,20 +116,17 @@ export function DealsTable({
     const next = `${window.location.pathname}?${key}`;
     if (`${window.location.pathname}${window.location.search}` !== next) window.history.replaceState(null, "", next);
   }, [key]);
+  return { view, setView, columnVisibility, setColumnVisibility, rowSelection, setRowSelection, key };
+}
 
-  const result = useQuery({
-    queryKey: ["deals-table", key],
-    queryFn: () => api<DealTablePage>(`/api/deals/table?${key}`),
-    initialData: key === initialKey ? initial : undefined,
-    placeholderData: keepPreviousData,
-  });
-  const data = result.data ?? initial;
-
+/** The table model: sorting and paging are the server's (they change the view); hidden columns are remembered here. */
+function useDealsTable(showOwner: boolean, data: DealTablePage, state: ReturnType<typeof useDealsView>) {
+  const { view, setView, columnVisibility, setColumnVisibility, rowSelection, setRowSelection } = state;
   const { column: sortColumn, direction } = parseSort(view.sort);
   const sorting: SortingState = useMemo(() => [{ id: sortColumn, desc: direction === "desc" }], [sortColumn, direction]);
   const pagination: PaginationState = useMemo(() => ({ pageIndex: view.page - 1, pageSize: view.pageSize }), [view.page, view.pageSize]);
 
-  const table = useTable({
+  return useTable({
     features,
     columns: showOwner ? allColumns : repColumns,
     data: data.rows,
@@ -168,38 +154,65 @@ export function DealsTable({
       });
     },
   });
+}
 
-  const setFilter = (key: keyof Filters, value: string) => setView((v) => ({ ...v, [key]: value, page: 1 }));
-  const filtered = Boolean(view.stage || view.owner || view.source || view.q || view.from || view.to);
+/** The view a saved query opens on (page 1); a rep's view never filters by owner. */
+function viewOfSaved(q: SavedViewQuery, showOwner: boolean): View {
+  return {
+    sort: q.sort,
+    page: 1,
+    pageSize: q.pageSize ?? DEAL_TABLE_DEFAULT_PAGE_SIZE,
+    stage: q.stage ?? "",
+    owner: showOwner ? (q.owner ?? "") : "",
+    source: q.source ?? "",
+    q: q.q ?? "",
+    from: q.from ?? "",
+    to: q.to ?? "",
+  };
+}
+
+type DealsTableModel = ReturnType<typeof useDealsTable>;
+type HeaderModel = ReturnType<DealsTableModel["getHeaderGroups"]>[number]["headers"][number];
+
+export function DealsTable({
+  initialQuery,
+  initial,
+  showOwner,
+  owners,
+  sources,
+}: {
+  initialQuery: DealTableQuery;
+  initial: DealTablePage;
+  showOwner: boolean;
+  owners: Array<{ id: string; name: string; active?: boolean }>;
+  sources: string[];
+}) {
+  const queryClient = useQueryClient();
+  const state = useDealsView(initialQuery);
+  const { view, setView, columnVisibility, setColumnVisibility, rowSelection, setRowSelection, key } = state;
+  const [search, setSearch] = useState(view.q);
+  const [activeViewId, setActiveViewId] = useState<string | null>(null);
+
+  const initialKey = useMemo(() => paramsOf(viewFrom(initialQuery), true).toString(), [initialQuery]);
+  const result = useQuery({
+    queryKey: ["deals-table", key],
+    queryFn: () => api<DealTablePage>(`/api/deals/table?${key}`),
+    initialData: key === initialKey ? initial : undefined,
+    placeholderData: keepPreviousData,
+  });
+  const data = result.data ?? initial;
+  const table = useDealsTable(showOwner, data, state);
+
   const onSearch = (e: FormEvent) => {
     e.preventDefault();
-    setFilter("q", search.trim());
+    setView((v) => ({ ...v, q: search.trim(), page: 1 }));
   };
-  // Past DEAL_TABLE_COUNT_LIMIT the server stops counting: the last page is then unknown, and
-  // Next follows the server's hasNextPage.
-  const pageCount = Math.max(1, Math.ceil(data.total / view.pageSize));
-  const firstRow = data.rows.length === 0 ? 0 : (view.page - 1) * view.pageSize + 1;
-  const lastRow = firstRow === 0 ? 0 : firstRow + data.rows.length - 1;
-  const goTo = (page: number) => setView((v) => ({ ...v, page: Math.max(1, page) }));
-  const exportHref = `/api/deals/export?${paramsOf(view, false).toString()}`;
-  const error = result.error instanceof Error ? result.error.message : null;
-  const selectedIds = Object.keys(rowSelection);
 
   function applySavedView(saved: SavedView) {
     const q = saved.query;
     setActiveViewId(saved.id);
     setSearch(q.q ?? "");
-    setView({
-      sort: q.sort,
-      page: 1,
-      pageSize: q.pageSize ?? DEAL_TABLE_DEFAULT_PAGE_SIZE,
-      stage: q.stage ?? "",
-      owner: showOwner ? (q.owner ?? "") : "",
-      source: q.source ?? "",
-      q: q.q ?? "",
-      from: q.from ?? "",
-      to: q.to ?? "",
-    });
+    setView(viewOfSaved(q, showOwner));
     const visibility: ColumnVisibilityState = Object.fromEntries((q.hiddenColumns ?? []).map((id) => [id, false]));
     setColumnVisibility(visibility);
     saveHidden(visibility);
@@ -213,77 +226,123 @@ export function DealsTable({
 
   return (
     <section className="mt-4" aria-label="Deals table">
-      <form role="search" className="flex flex-wrap gap-2" action="/deals" onSubmit={onSearch}>
-        <label htmlFor="deal-search" className="sr-only">
-          Search deals
-        </label>
-        <input
-          id="deal-search"
-          name="q"
-          value={search}
-          onChange={(e) => setSearch(e.target.value)}
-          placeholder="Household, contact, street or city"
-          className="field-input max-w-md"
-        />
-        <button type="submit" className="btn-quiet">
-          Search
-        </button>
-      </form>
+      <SearchForm search={search} setSearch={setSearch} onSearch={onSearch} />
 
-      <div className="mt-3 flex flex-wrap items-end gap-3">
-        <SelectField id={`${ids}-stage`} label="Stage" value={view.stage} onChange={(e) => setFilter("stage", e.target.value)} options={[{ value: "", label: "All stages" }, ...optionsOf(STAGES, STAGE_LABELS)]} />
-        {showOwner ? (
-          <SelectField id={`${ids}-owner`} label="Owner" value={view.owner} onChange={(e) => setFilter("owner", e.target.value)} options={[{ value: "", label: "Everyone" }, ...owners.map((o) => ({ value: o.id, label: o.name }))]} />
-        ) : null}
-        <SelectField id={`${ids}-source`} label="Source" value={view.source} onChange={(e) => setFilter("source", e.target.value)} options={[{ value: "", label: "Any source" }, ...sources.map((s) => ({ value: s, label: s }))]} />
-        <Field id={`${ids}-from`} label="Created from" type="date" value={view.from} max={view.to || undefined} onChange={(e) => setFilter("from", e.target.value)} />
-        <Field id={`${ids}-to`} label="Created to" type="date" value={view.to} min={view.from || undefined} onChange={(e) => setFilter("to", e.target.value)} />
-        {filtered ? (
-          <button
-            type="button"
-            className="btn-quiet"
-            onClick={() => {
-              setSearch("");
-              setView((v) => ({ ...v, stage: "", owner: "", source: "", q: "", from: "", to: "", page: 1 }));
-            }}
-          >
-            Clear filters
-          </button>
-        ) : null}
-        <div className="ml-auto flex flex-wrap items-end gap-2">
-          <SavedViewsMenu current={savedQueryOf(view, columnVisibility)} activeId={activeViewId} onApply={applySavedView} onActiveChange={setActiveViewId} />
-          <details className="relative">
-            <summary className="btn-quiet cursor-pointer list-none">Columns</summary>
-            <fieldset className="card absolute right-0 z-10 mt-1 w-56 p-3">
-              <legend className="sr-only">Columns to show</legend>
-              {table.getAllLeafColumns().map((column) => (
-                <label key={column.id} className="flex min-h-touch items-center gap-2 text-sm">
-                  <input
-                    type="checkbox"
-                    className="h-5 w-5 accent-copper"
-                    checked={column.getIsVisible()}
-                    disabled={!column.getCanHide()}
-                    onChange={column.getToggleVisibilityHandler()}
-                  />
-                  {column.columnDef.meta?.label ?? column.id}
-                </label>
-              ))}
-            </fieldset>
-          </details>
-          <a href={exportHref} download className="btn-quiet">
-            Export CSV
-          </a>
-        </div>
-      </div>
+      <FilterBar view={view} setView={setView} showOwner={showOwner} owners={owners} sources={sources} onClearSearch={() => setSearch("")}>
+        <SavedViewsMenu current={savedQueryOf(view, columnVisibility)} activeId={activeViewId} onApply={applySavedView} onActiveChange={setActiveViewId} />
+        <ColumnsMenu table={table} />
+        <a href={`/api/deals/export?${paramsOf(view, false).toString()}`} download className="btn-quiet">
+          Export CSV
+        </a>
+      </FilterBar>
 
       <BulkBar
-        selectedIds={selectedIds}
+        selectedIds={Object.keys(rowSelection)}
         office={showOwner}
         owners={owners.filter((o) => o.active !== false)}
         onClear={() => setRowSelection({})}
         onDone={afterBulk}
       />
 
+      <CountLine data={data} view={view} fetching={result.isFetching} error={result.error instanceof Error ? result.error.message : null} />
+      <DealsGrid table={table} data={data} filtered={isFiltered(view)} fetching={result.isFetching} placeholder={result.isPlaceholderData} />
+      <Pager table={table} data={data} view={view} setView={setView} />
+    </section>
+  );
+}
+
+function SearchForm({ search, setSearch, onSearch }: { search: string; setSearch: (text: string) => void; onSearch: (e: FormEvent) => void }) {
+  return (
+    <form role="search" className="flex flex-wrap gap-2" action="/deals" onSubmit={onSearch}>
+      <label htmlFor="deal-search" className="sr-only">
+        Search deals
+      </label>
+      <input
+        id="deal-search"
+        name="q"
+        value={search}
+        onChange={(e) => setSearch(e.target.value)}
+        placeholder="Household, contact, street or city"
+        className="field-input max-w-md"
+      />
+      <button type="submit" className="btn-quiet">
+        Search
+      </button>
+    </form>
+  );
+}
+
+/** The filters of the view, and (as children) the saved views, the columns menu and the export. */
+function FilterBar(props: {
+  view: View;
+  setView: Dispatch<SetStateAction<View>>;
+  showOwner: boolean;
+  owners: Array<{ id: string; name: string }>;
+  sources: string[];
+  onClearSearch: () => void;
+  children: ReactNode;
+}) {
+  const { view, setView, showOwner, owners, sources, onClearSearch } = props;
+  const ids = useId();
+  const setFilter = (key: keyof Filters, value: string) => setView((v) => ({ ...v, [key]: value, page: 1 }));
+  const filtered = isFiltered(view);
+  return (
+    <div className="mt-3 flex flex-wrap items-end gap-3">
+      <SelectField id={`${ids}-stage`} label="Stage" value={view.stage} onChange={(e) => setFilter("stage", e.target.value)} options={[{ value: "", label: "All stages" }, ...optionsOf(STAGES, STAGE_LABELS)]} />
+      {showOwner ? (
+        <SelectField id={`${ids}-owner`} label="Owner" value={view.owner} onChange={(e) => setFilter("owner", e.target.value)} options={[{ value: "", label: "Everyone" }, ...owners.map((o) => ({ value: o.id, label: o.name }))]} />
+      ) : null}
+      <SelectField id={`${ids}-source`} label="Source" value={view.source} onChange={(e) => setFilter("source", e.target.value)} options={[{ value: "", label: "Any source" }, ...sources.map((s) => ({ value: s, label: s }))]} />
+      <Field id={`${ids}-from`} label="Created from" type="date" value={view.from} max={view.to || undefined} onChange={(e) => setFilter("from", e.target.value)} />
+      <Field id={`${ids}-to`} label="Created to" type="date" value={view.to} min={view.from || undefined} onChange={(e) => setFilter("to", e.target.value)} />
+      {filtered ? (
+        <button
+          type="button"
+          className="btn-quiet"
+          onClick={() => {
+            onClearSearch();
+            setView((v) => ({ ...v, stage: "", owner: "", source: "", q: "", from: "", to: "", page: 1 }));
+          }}
+        >
+          Clear filters
+        </button>
+      ) : null}
+      <div className="ml-auto flex flex-wrap items-end gap-2">
+        {props.children}
+      </div>
+    </div>
+  );
+}
+
+function ColumnsMenu({ table }: { table: DealsTableModel }) {
+  return (
+    <details className="relative">
+      <summary className="btn-quiet cursor-pointer list-none">Columns</summary>
+      <fieldset className="card absolute right-0 z-10 mt-1 w-56 p-3">
+        <legend className="sr-only">Columns to show</legend>
+        {table.getAllLeafColumns().map((column) => (
+          <label key={column.id} className="flex min-h-touch items-center gap-2 text-sm">
+            <input
+              type="checkbox"
+              className="h-5 w-5 accent-copper"
+              checked={column.getIsVisible()}
+              disabled={!column.getCanHide()}
+              onChange={column.getToggleVisibilityHandler()}
+            />
+            {column.columnDef.meta?.label ?? column.id}
+          </label>
+        ))}
+      </fieldset>
+    </details>
+  );
+}
+
+/** Which deals of how many are shown, and any failure to fetch them. */
+function CountLine({ data, view, fetching, error }: { data: DealTablePage; view: View; fetching: boolean; error: string | null }) {
+  const firstRow = data.rows.length === 0 ? 0 : (view.page - 1) * view.pageSize + 1;
+  const lastRow = firstRow === 0 ? 0 : firstRow + data.rows.length - 1;
+  return (
+    <>
       <p className="mt-3 text-sm text-graphite-soft" aria-live="polite">
         {data.total === 0 ? (
           "No deals"
@@ -294,111 +353,128 @@ export function DealsTable({
           </>
         )}
         {view.q ? ` matching “${view.q}”` : ""}
-        {result.isFetching ? " · updating…" : ""}
+        {fetching ? " · updating…" : ""}
       </p>
       {error ? (
         <p role="alert" className="mt-2 text-sm text-danger">
           {error}
         </p>
       ) : null}
+    </>
+  );
+}
 
-      <div className={`mt-2 overflow-x-auto rounded-card border border-paper-line bg-white ${result.isPlaceholderData ? "opacity-70" : ""}`}>
-        <table className="w-full min-w-[720px] text-left text-sm" aria-busy={result.isFetching}>
-          <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  const right = header.column.columnDef.meta?.align === "right";
-                  const selectAll =
-                    header.column.id === "household" ? (
-                      <Checkbox
-                        aria-label="Select every deal on this page"
-                        checked={table.getIsAllPageRowsSelected()}
-                        indeterminate={table.getIsSomePageRowsSelected()}
-                        onChange={table.getToggleAllPageRowsSelectedHandler()}
-                      />
-                    ) : null;
-                  return (
-                    <th
-                      key={header.id}
-                      scope="col"
-                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
-                      className={`px-3 py-1 font-semibold ${right ? "text-right" : ""}`}
-                    >
-                      {selectAll ? <span className="mr-3 inline-flex align-middle">{selectAll}</span> : null}
-                      <button
-                        type="button"
-                        onClick={header.column.getToggleSortingHandler()}
-                        className={`inline-flex min-h-touch items-center gap-1 uppercase tracking-wide hover:text-copper ${right ? "flex-row-reverse" : ""}`}
-                      >
-                        <table.FlexRender header={header} />
-                        <span aria-hidden="true" className="w-3 text-copper">
-                          {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
-                        </span>
-                      </button>
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody className="divide-y divide-paper-line">
-            {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className={row.getIsSelected() ? "bg-copper-light/40" : "hover:bg-paper"}>
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className={`whitespace-nowrap px-3 py-2 ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}>
-                    <table.FlexRender cell={cell} />
-                  </td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
-        {data.rows.length === 0 ? <p className="px-4 py-6 text-graphite-soft">{filtered ? "No deal matches these filters." : "No deals yet."}</p> : null}
+function DealsGrid({ table, data, filtered, fetching, placeholder }: { table: DealsTableModel; data: DealTablePage; filtered: boolean; fetching: boolean; placeholder: boolean }) {
+  return (
+    <div className={`mt-2 overflow-x-auto rounded-card border border-paper-line bg-white ${placeholder ? "opacity-70" : ""}`}>
+      <table className="w-full min-w-[720px] text-left text-sm" aria-busy={fetching}>
+        <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
+          {table.getHeaderGroups().map((group) => (
+            <tr key={group.id}>
+              {group.headers.map((header) => (
+                <HeaderCell key={header.id} table={table} header={header} />
+              ))}
+            </tr>
+          ))}
+        </thead>
+        <tbody className="divide-y divide-paper-line">
+          {table.getRowModel().rows.map((row) => (
+            <tr key={row.id} className={row.getIsSelected() ? "bg-copper-light/40" : "hover:bg-paper"}>
+              {row.getVisibleCells().map((cell) => (
+                <td key={cell.id} className={`whitespace-nowrap px-3 py-2 ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}>
+                  <table.FlexRender cell={cell} />
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {data.rows.length === 0 ? <p className="px-4 py-6 text-graphite-soft">{filtered ? "No deal matches these filters." : "No deals yet."}</p> : null}
+    </div>
+  );
+}
+
+/** A column heading: sorts on click; the household column also holds "select every deal on this page". */
+function HeaderCell({ table, header }: { table: DealsTableModel; header: HeaderModel }) {
+  const sorted = header.column.getIsSorted();
+  const right = header.column.columnDef.meta?.align === "right";
+  const selectAll =
+    header.column.id === "household" ? (
+      <Checkbox
+        aria-label="Select every deal on this page"
+        checked={table.getIsAllPageRowsSelected()}
+        indeterminate={table.getIsSomePageRowsSelected()}
+        onChange={table.getToggleAllPageRowsSelectedHandler()}
+      />
+    ) : null;
+  return (
+    <th
+      scope="col"
+      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
+      className={`px-3 py-1 font-semibold ${right ? "text-right" : ""}`}
+    >
+      {selectAll ? <span className="mr-3 inline-flex align-middle">{selectAll}</span> : null}
+      <button
+        type="button"
+        onClick={header.column.getToggleSortingHandler()}
+        className={`inline-flex min-h-touch items-center gap-1 uppercase tracking-wide hover:text-copper ${right ? "flex-row-reverse" : ""}`}
+      >
+        <table.FlexRender header={header} />
+        <span aria-hidden="true" className="w-3 text-copper">
+          {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
+        </span>
+      </button>
+    </th>
+  );
+}
+
+function Pager({ table, data, view, setView }: { table: DealsTableModel; data: DealTablePage; view: View; setView: Dispatch<SetStateAction<View>> }) {
+  const ids = useId();
+  // Past DEAL_TABLE_COUNT_LIMIT the server stops counting: the last page is then unknown, and
+  // Next follows the server's hasNextPage.
+  const pageCount = Math.max(1, Math.ceil(data.total / view.pageSize));
+  const goTo = (page: number) => setView((v) => ({ ...v, page: Math.max(1, page) }));
+  return (
+    <nav className="mt-3 flex flex-wrap items-center justify-between gap-3" aria-label="Pages">
+      <div className="flex items-center gap-2 text-sm">
+        <label htmlFor={`${ids}-size`}>Rows per page</label>
+        <select id={`${ids}-size`} className="field-input w-24" value={view.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
+          {PAGE_SIZES.map((n) => (
+            <option key={n} value={n}>
+              {n}
+            </option>
+          ))}
+        </select>
       </div>
-
-      <nav className="mt-3 flex flex-wrap items-center justify-between gap-3" aria-label="Pages">
-        <div className="flex items-center gap-2 text-sm">
-          <label htmlFor={`${ids}-size`}>Rows per page</label>
-          <select id={`${ids}-size`} className="field-input w-24" value={view.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
-            {PAGE_SIZES.map((n) => (
-              <option key={n} value={n}>
-                {n}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex items-center gap-2">
-          <button type="button" className="btn-quiet" onClick={() => goTo(1)} disabled={view.page <= 1}>
-            First
-          </button>
-          <button type="button" className="btn-quiet" onClick={() => goTo(view.page - 1)} disabled={view.page <= 1}>
-            Previous
-          </button>
-          <span className="text-sm">
-            Page <span className="figure">{view.page}</span>
-            {data.totalCapped ? null : (
-              <>
-                {" "}
-                of <span className="figure">{pageCount}</span>
-              </>
-            )}
-          </span>
-          <button type="button" className="btn-quiet" onClick={() => goTo(view.page + 1)} disabled={!data.hasNextPage}>
-            Next
-          </button>
-          <button
-            type="button"
-            className="btn-quiet"
-            onClick={() => goTo(pageCount)}
-            disabled={data.totalCapped || view.page >= pageCount}
-            title={data.totalCapped ? "Too many deals to count: narrow the filters, or export the view" : undefined}
-          >
-            Last
-          </button>
-        </div>
-      </nav>
-    </section>
+      <div className="flex items-center gap-2">
+        <button type="button" className="btn-quiet" onClick={() => goTo(1)} disabled={view.page <= 1}>
+          First
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => goTo(view.page - 1)} disabled={view.page <= 1}>
+          Previous
+        </button>
+        <span className="text-sm">
+          Page <span className="figure">{view.page}</span>
+          {data.totalCapped ? null : (
+            <>
+              {" "}
+              of <span className="figure">{pageCount}</span>
+            </>
+          )}
+        </span>
+        <button type="button" className="btn-quiet" onClick={() => goTo(view.page + 1)} disabled={!data.hasNextPage}>
+          Next
+        </button>
+        <button
+          type="button"
+          className="btn-quiet"
+          onClick={() => goTo(pageCount)}
+          disabled={data.totalCapped || view.page >= pageCount}
+          title={data.totalCapped ? "Too many deals to count: narrow the filters, or export the view" : undefined}
+        >
+          Last
+        </button>
+      </div>
+    </nav>
   );
 }

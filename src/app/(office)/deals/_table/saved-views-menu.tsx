@@ -21,29 +21,14 @@ export function sameQuery(a: SavedViewQuery, b: SavedViewQuery): boolean {
 }
 
 /**
- * The person's saved views of the table: apply one, save the current view under a name,
- * save changes to the view in use, delete. Views are private to their person.
+ * The menu's own state and its three saves (create, update, delete), which share one status
+ * message and refresh the list they change.
  */
-export function SavedViewsMenu({
-  current,
-  activeId,
-  onApply,
-  onActiveChange,
-}: {
-  current: SavedViewQuery;
-  activeId: string | null;
-  onApply: (view: SavedView) => void;
-  onActiveChange: (id: string | null) => void;
-}) {
-  const ids = useId();
-  const views = useQuery({ queryKey: VIEWS_KEY, queryFn: () => api<SavedView[]>("/api/saved-views") });
+function useViewSaves(activeId: string | null, onActiveChange: (id: string | null) => void) {
   const [naming, setNaming] = useState(false);
   const [name, setName] = useState("");
   const [confirmDelete, setConfirmDelete] = useState<string | null>(null);
   const [message, setMessage] = useState<Notice | null>(null);
-
-  const active = views.data?.find((v) => v.id === activeId) ?? null;
-  const changed = active ? !sameQuery(active.query, current) : false;
 
   // The three saves share one status message and refresh the list they change (useQuery).
   const shared = { notify: setMessage, invalidate: [VIEWS_KEY], refresh: false as const };
@@ -72,7 +57,8 @@ export function SavedViewsMenu({
     },
   });
 
-  function save(e: FormEvent) {
+  /** Saves the current view under the name typed. */
+  function save(e: FormEvent, current: SavedViewQuery) {
     e.preventDefault();
     setMessage(null);
     if (!name.trim()) {
@@ -81,61 +67,53 @@ export function SavedViewsMenu({
     }
     create.save({ name: name.trim(), query: current });
   }
+  return { naming, setNaming, name, setName, confirmDelete, setConfirmDelete, message, setMessage, create, update, remove, save };
+}
+
+/**
+ * The person's saved views of the table: apply one, save the current view under a name,
+ * save changes to the view in use, delete. Views are private to their person.
+ */
+export function SavedViewsMenu({
+  current,
+  activeId,
+  onApply,
+  onActiveChange,
+}: {
+  current: SavedViewQuery;
+  activeId: string | null;
+  onApply: (view: SavedView) => void;
+  onActiveChange: (id: string | null) => void;
+}) {
+  const ids = useId();
+  const views = useQuery({ queryKey: VIEWS_KEY, queryFn: () => api<SavedView[]>("/api/saved-views") });
+  const { naming, setNaming, name, setName, confirmDelete, setConfirmDelete, message, setMessage, create, update, remove, save } = useViewSaves(activeId, onActiveChange);
+
+  const active = views.data?.find((v) => v.id === activeId) ?? null;
+  const changed = active ? !sameQuery(active.query, current) : false;
 
   return (
     <div className="flex flex-wrap items-end gap-2">
       <details className="relative" data-testid="saved-views">
         <summary className="btn-quiet cursor-pointer list-none">{active ? `View: ${active.name}` : "Saved views"}</summary>
         <div className="card absolute left-0 z-20 mt-1 w-72 p-2">
-          {views.isPending ? <p className="px-2 py-2 text-sm text-graphite-soft">Loading your views…</p> : null}
-          {views.error ? (
-            <p role="alert" className="px-2 py-2 text-sm text-danger">
-              {views.error instanceof Error ? views.error.message : "Your views could not be loaded."}
-            </p>
-          ) : null}
-          {views.data && views.data.length === 0 ? (
-            <p className="px-2 py-2 text-sm text-graphite-soft">No saved views yet. Set filters and a sort, then “Save view”.</p>
-          ) : null}
+          <ViewsLoadState pending={views.isPending} error={views.error} empty={views.data?.length === 0} />
           <ul aria-label="Your saved views" className="divide-y divide-paper-line">
             {views.data?.map((v) => (
-              <li key={v.id} className="flex items-center gap-1">
-                {confirmDelete === v.id ? (
-                  <span className="flex min-h-touch flex-1 items-center justify-between gap-2 px-2 text-sm">
-                    Delete “{v.name}”?
-                    <span className="flex gap-1">
-                      <button type="button" className="btn-danger px-3" onClick={() => remove.save(v)} disabled={remove.pending}>
-                        Delete
-                      </button>
-                      <button type="button" className="btn-quiet px-3" onClick={() => setConfirmDelete(null)}>
-                        Keep
-                      </button>
-                    </span>
-                  </span>
-                ) : (
-                  <>
-                    <button
-                      type="button"
-                      className={`flex min-h-touch flex-1 items-center rounded-md px-2 text-left text-sm hover:bg-paper ${v.id === activeId ? "font-semibold text-copper" : ""}`}
-                      aria-current={v.id === activeId ? "true" : undefined}
-                      onClick={(e) => {
-                        setMessage(null);
-                        onApply(v);
-                        e.currentTarget.closest("details")?.removeAttribute("open");
-                      }}
-                    >
-                      {v.name}
-                    </button>
-                    <button
-                      type="button"
-                      className="btn-quiet min-w-touch px-2 text-graphite-soft"
-                      aria-label={`Delete the view ${v.name}`}
-                      onClick={() => setConfirmDelete(v.id)}
-                    >
-                      ✕
-                    </button>
-                  </>
-                )}
-              </li>
+              <ViewItem
+                key={v.id}
+                view={v}
+                active={v.id === activeId}
+                confirming={confirmDelete === v.id}
+                deleting={remove.pending}
+                onApply={() => {
+                  setMessage(null);
+                  onApply(v);
+                }}
+                onAskDelete={() => setConfirmDelete(v.id)}
+                onKeep={() => setConfirmDelete(null)}
+                onDelete={() => remove.save(v)}
+              />
             ))}
           </ul>
         </div>
@@ -146,7 +124,7 @@ export function SavedViewsMenu({
         </button>
       ) : null}
       {naming ? (
-        <form onSubmit={save} className="flex items-end gap-2" aria-label="Save this view">
+        <form onSubmit={(e) => save(e, current)} className="flex items-end gap-2" aria-label="Save this view">
           <Field id={`${ids}-name`} label="View name" inputClassName="w-48" value={name} maxLength={100} autoFocus onChange={(e) => setName(e.target.value)} />
           <button type="submit" className="btn-primary" disabled={create.pending}>
             {create.pending ? "Saving…" : "Save"}
@@ -171,5 +149,75 @@ export function SavedViewsMenu({
         <StatusMessage notice={message} />
       </div>
     </div>
+  );
+}
+
+/** One saved view in the menu: apply it, or delete it after a confirm in place. */
+function ViewItem(props: {
+  view: SavedView;
+  active: boolean;
+  confirming: boolean;
+  deleting: boolean;
+  onApply: () => void;
+  onAskDelete: () => void;
+  onKeep: () => void;
+  onDelete: () => void;
+}) {
+  const { view, active, confirming, deleting, onApply, onAskDelete, onKeep, onDelete } = props;
+  return (
+    <li className="flex items-center gap-1">
+      {confirming ? (
+        <span className="flex min-h-touch flex-1 items-center justify-between gap-2 px-2 text-sm">
+          Delete “{view.name}”?
+          <span className="flex gap-1">
+            <button type="button" className="btn-danger px-3" onClick={onDelete} disabled={deleting}>
+              Delete
+            </button>
+            <button type="button" className="btn-quiet px-3" onClick={onKeep}>
+              Keep
+            </button>
+          </span>
+        </span>
+      ) : (
+        <>
+          <button
+            type="button"
+            className={`flex min-h-touch flex-1 items-center rounded-md px-2 text-left text-sm hover:bg-paper ${active ? "font-semibold text-copper" : ""}`}
+            aria-current={active ? "true" : undefined}
+            onClick={(e) => {
+              onApply();
+              e.currentTarget.closest("details")?.removeAttribute("open");
+            }}
+          >
+            {view.name}
+          </button>
+          <button
+            type="button"
+            className="btn-quiet min-w-touch px-2 text-graphite-soft"
+            aria-label={`Delete the view ${view.name}`}
+            onClick={onAskDelete}
+          >
+            ✕
+          </button>
+        </>
+      )}
+    </li>
+  );
+}
+
+/** Loading, failed, or none saved yet: the line above the list. */
+function ViewsLoadState({ pending, error, empty }: { pending: boolean; error: unknown; empty: boolean }) {
+  return (
+    <>
+      {pending ? <p className="px-2 py-2 text-sm text-graphite-soft">Loading your views…</p> : null}
+      {error ? (
+        <p role="alert" className="px-2 py-2 text-sm text-danger">
+          {error instanceof Error ? error.message : "Your views could not be loaded."}
+        </p>
+      ) : null}
+      {empty ? (
+        <p className="px-2 py-2 text-sm text-graphite-soft">No saved views yet. Set filters and a sort, then “Save view”.</p>
+      ) : null}
+    </>
   );
 }

@@ -166,18 +166,60 @@ export function DesignClient({ dealId, canEdit, initialInputs }: { dealId: strin
   return <DesignEditor dealId={dealId} inputs={inputs} canEdit={canEdit} />;
 }
 
-function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: DesignInputs; canEdit: boolean }) {
+type Mod = DesignInputs["modules"][number];
+type Inv = DesignInputs["inverters"][number];
+/** What every card of the editor needs: the draft, its errors, and how to change it. */
+type DraftParts = { draft: Draft; errors: Record<string, string>; disabled: boolean; set: (patch: Partial<Draft>) => void };
+
+/** The year's production for a valid design: from the station's weather, or spread from a typed figure. */
+function estimateFor(doc: DesignDocument | null, mod: Mod | null, inv: Inv | null, weather: WeatherYear | null): Estimate | null {
+  if (!doc || !mod || !inv) return null;
+  const counts = doc.faces.map((f) => f.moduleCount);
+  const modules = counts.reduce((a, b) => a + b, 0);
+  const kwDc = (modules * mod.stcWatts) / 1000;
+  const t0 = performance.now();
+  if (doc.weather.kind === "manual") {
+    const hourly = manualProductionHourly(doc.weather.annualKwh, doc.weather.monthlyKwh);
+    const monthly = Array.from({ length: 12 }, () => 0);
+    const months = doc.weather.monthlyKwh ?? null;
+    if (months) months.forEach((v, i) => (monthly[i] = v));
+    else {
+      let h = 0;
+      [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31].forEach((d, m) => {
+        for (let k = 0; k < d * 24; k++, h++) monthly[m] += hourly[h];
+      });
+    }
+    return { monthlyKwh: monthly, annualKwh: doc.weather.annualKwh, kwDc, kwAc: inverterAcKw(inv, doc.inverterCount, modules), clippedKwh: null, ms: performance.now() - t0, label: `Typed from another source: ${doc.weather.source}` };
+  }
+  if (!weather) return null;
+  const sys = engineSystem(doc.faces, counts, mod, inv, { inverterCount: doc.inverterCount, lossesPct: doc.lossesPct });
+  if (!sys) return { monthlyKwh: Array(12).fill(0), annualKwh: 0, kwDc: 0, kwAc: 0, clippedKwh: 0, ms: 0, label: weather.sourceLabel };
+  const r = estimateProduction(weather, sys);
+  return { monthlyKwh: r.monthlyAcKwh, annualKwh: r.annualAcKwh, kwDc: r.dcKw, kwAc: r.acKw, clippedKwh: r.clippedKwh, ms: performance.now() - t0, label: weather.sourceLabel };
+}
+
+/** The draft and every way to change it; any change clears the last save's errors and message. */
+function useDesignDraft(inputs: DesignInputs) {
   const [draft, setDraft] = useState<Draft>(() => draftFrom(inputs));
   const [notice, setNotice] = useState<Notice | null>(null);
   const [serverErrors, setServerErrors] = useState<Record<string, string>>({});
+  const setFace = (i: number, patch: Partial<FaceDraft>) => {
+    setServerErrors({});
+    setNotice(null);
+    setDraft((d) => ({ ...d, faces: d.faces.map((f, k) => (k === i ? { ...f, ...patch } : f)) }));
+  };
+  const set = (patch: Partial<Draft>) => update(() => patch);
+  /** Every change goes through the latest draft (never a stale copy from an earlier render). */
+  const update = (change: (d: Draft) => Partial<Draft>) => {
+    setServerErrors({});
+    setNotice(null);
+    setDraft((d) => ({ ...d, ...change(d) }));
+  };
+  return { draft, setDraft, notice, setNotice, serverErrors, setServerErrors, setFace, set, update };
+}
 
-  const mod = inputs.modules.find((m) => m.id === draft.moduleId) ?? null;
-  const inv = inputs.inverters.find((i) => i.id === draft.inverterId) ?? null;
-  const doc = useMemo(() => toDocument(draft, inv?.kind ?? null), [draft, inv?.kind]);
-  const errors = useMemo(() => ({ ...issuesByPath(doc), ...serverErrors }), [doc, serverErrors]);
-  const parsed = useMemo(() => designDocumentSchema.safeParse(doc), [doc]);
-  const validDoc: DesignDocument | null = parsed.success ? parsed.data : null;
-
+/** The hourly weather of the station the draft uses (none for a typed figure), fetched once per station. */
+function useStationWeather(dealId: string, inputs: DesignInputs, draft: Draft) {
   const stationId = draft.weatherKind === "station" ? draft.stationId : draft.weatherKind === "nearest" ? (inputs.nearest?.stationId ?? "") : "";
   const station = inputs.stations.find((s) => s.id === stationId) ?? null;
   const weatherQuery = useQuery({
@@ -187,38 +229,42 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
     staleTime: Infinity,
   });
   const weather = useMemo(() => (weatherQuery.data ? toWeatherYear(weatherQuery.data) : null), [weatherQuery.data]);
+  return { station, weather, weatherQuery };
+}
+
+/** Module counts per face for the target offset, and the message that says how it went. */
+function sizeToTarget(validDoc: DesignDocument, mod: Mod, inv: Inv, weather: WeatherYear, annualUsageKwh: number): { counts: number[]; notice: Notice } {
+  const result = sizeDesign({
+    faces: validDoc.faces,
+    mod,
+    inv,
+    inverterCount: validDoc.inverterCount,
+    lossesPct: validDoc.lossesPct,
+    annualUsageKwh,
+    targetOffsetPct: validDoc.targetOffsetPct,
+    produce: (sys) => {
+      const r = estimateProduction(weather, sys);
+      return { hourlyAcW: r.hourlyAcW, annualAcKwh: r.annualAcKwh, dcKw: r.dcKw };
+    },
+  });
+  const outcome = result.outcome === "reached" ? `Sized to ${fmt(validDoc.targetOffsetPct)} % offset: ${result.totalModules} modules.` : `${result.totalModules} modules. ${result.warnings.join(" ")}`;
+  return { counts: validDoc.faces.map((_, i) => result.modulesByFace[i]?.modules ?? 0), notice: { tone: result.outcome === "reached" ? "info" : "error", text: outcome } };
+}
+
+function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: DesignInputs; canEdit: boolean }) {
+  const { draft, setDraft, notice, setNotice, serverErrors, setServerErrors, setFace, set, update } = useDesignDraft(inputs);
+  const mod = inputs.modules.find((m) => m.id === draft.moduleId) ?? null;
+  const inv = inputs.inverters.find((i) => i.id === draft.inverterId) ?? null;
+  const doc = useMemo(() => toDocument(draft, inv?.kind ?? null), [draft, inv?.kind]);
+  const errors = useMemo(() => ({ ...issuesByPath(doc), ...serverErrors }), [doc, serverErrors]);
+  const parsed = useMemo(() => designDocumentSchema.safeParse(doc), [doc]);
+  const validDoc: DesignDocument | null = parsed.success ? parsed.data : null;
+  const { station, weather, weatherQuery } = useStationWeather(dealId, inputs, draft);
 
   const deferredDoc = useDeferredValue(validDoc);
-  const estimate: Estimate | null = useMemo(() => {
-    if (!deferredDoc || !mod || !inv) return null;
-    const counts = deferredDoc.faces.map((f) => f.moduleCount);
-    const modules = counts.reduce((a, b) => a + b, 0);
-    const kwDc = (modules * mod.stcWatts) / 1000;
-    const t0 = performance.now();
-    if (deferredDoc.weather.kind === "manual") {
-      const hourly = manualProductionHourly(deferredDoc.weather.annualKwh, deferredDoc.weather.monthlyKwh);
-      const monthly = Array.from({ length: 12 }, () => 0);
-      const months = deferredDoc.weather.monthlyKwh ?? null;
-      if (months) months.forEach((v, i) => (monthly[i] = v));
-      else {
-        let h = 0;
-        [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31].forEach((d, m) => {
-          for (let k = 0; k < d * 24; k++, h++) monthly[m] += hourly[h];
-        });
-      }
-      return { monthlyKwh: monthly, annualKwh: deferredDoc.weather.annualKwh, kwDc, kwAc: inverterAcKw(inv, deferredDoc.inverterCount, modules), clippedKwh: null, ms: performance.now() - t0, label: `Typed from another source: ${deferredDoc.weather.source}` };
-    }
-    if (!weather) return null;
-    const sys = engineSystem(deferredDoc.faces, counts, mod, inv, { inverterCount: deferredDoc.inverterCount, lossesPct: deferredDoc.lossesPct });
-    if (!sys) return { monthlyKwh: Array(12).fill(0), annualKwh: 0, kwDc: 0, kwAc: 0, clippedKwh: 0, ms: 0, label: weather.sourceLabel };
-    const r = estimateProduction(weather, sys);
-    return { monthlyKwh: r.monthlyAcKwh, annualKwh: r.annualAcKwh, kwDc: r.dcKw, kwAc: r.acKw, clippedKwh: r.clippedKwh, ms: performance.now() - t0, label: weather.sourceLabel };
-  }, [deferredDoc, mod, inv, weather]);
-
+  const estimate = useMemo(() => estimateFor(deferredDoc, mod, inv, weather), [deferredDoc, mod, inv, weather]);
   const usage = inputs.usage;
-  const offsetPct = estimate && usage.annualKwh > 0 ? (estimate.annualKwh / usage.annualKwh) * 100 : null;
   const totalModules = validDoc ? validDoc.faces.reduce((s, f) => s + f.moduleCount, 0) : null;
-
   const stringCheck = useMemo(() => {
     if (!validDoc?.stringPlan || !mod || !inv || inv.kind !== "string") return null;
     return checkStringPlan(mod as ModuleSpec, inv as InverterSpec, validDoc.inverterCount, validDoc.stringPlan);
@@ -236,40 +282,14 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
     refresh: false,
   });
 
-  const setFace = (i: number, patch: Partial<FaceDraft>) => {
-    setServerErrors({});
-    setNotice(null);
-    setDraft((d) => ({ ...d, faces: d.faces.map((f, k) => (k === i ? { ...f, ...patch } : f)) }));
-  };
-  const set = (patch: Partial<Draft>) => update(() => patch);
-  /** Every change goes through the latest draft (never a stale copy from an earlier render). */
-  const update = (change: (d: Draft) => Partial<Draft>) => {
-    setServerErrors({});
-    setNotice(null);
-    setDraft((d) => ({ ...d, ...change(d) }));
-  };
-
   const sizingBlocked =
     !validDoc ? "Fix the marked fields first." : usage.annualKwh <= 0 ? "The deal has no usage yet: add bills on the Energy tab." : draft.weatherKind === "manual" ? "Sizing needs a weather station; with a typed figure, set the module counts by hand." : !weather ? "The weather is still loading." : null;
 
   function runSizing() {
     if (!validDoc || !mod || !inv || !weather) return;
-    const result = sizeDesign({
-      faces: validDoc.faces,
-      mod,
-      inv,
-      inverterCount: validDoc.inverterCount,
-      lossesPct: validDoc.lossesPct,
-      annualUsageKwh: usage.annualKwh,
-      targetOffsetPct: validDoc.targetOffsetPct,
-      produce: (sys) => {
-        const r = estimateProduction(weather, sys);
-        return { hourlyAcW: r.hourlyAcW, annualAcKwh: r.annualAcKwh, dcKw: r.dcKw };
-      },
-    });
-    setDraft((d) => ({ ...d, faces: d.faces.map((f, i) => ({ ...f, moduleCount: String(result.modulesByFace[i]?.modules ?? 0) })) }));
-    const outcome = result.outcome === "reached" ? `Sized to ${fmt(validDoc.targetOffsetPct)} % offset: ${result.totalModules} modules.` : `${result.totalModules} modules. ${result.warnings.join(" ")}`;
-    setNotice({ tone: result.outcome === "reached" ? "info" : "error", text: outcome });
+    const sized = sizeToTarget(validDoc, mod, inv, weather, usage.annualKwh);
+    setDraft((d) => ({ ...d, faces: d.faces.map((f, i) => ({ ...f, moduleCount: String(sized.counts[i] ?? 0) })) }));
+    setNotice(sized.notice);
   }
 
   function suggest() {
@@ -278,167 +298,15 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
     set({ stringSizes: sizes.join(", ") });
   }
 
-  const coldestHourC = weather ? Math.min(...weather.tempAirC) : null;
-  const disabled = !canEdit;
-
+  const parts: DraftParts = { draft, errors, disabled: !canEdit, set };
   return (
     <div className="grid gap-6 xl:grid-cols-[3fr_2fr]">
       <div className="space-y-6">
-        <section className="card p-4" aria-labelledby="equipment-heading">
-          <h2 id="equipment-heading" className="text-lg font-semibold">
-            Equipment
-          </h2>
-          <div className="mt-3 grid gap-4 sm:grid-cols-2">
-            <SelectField
-              id="module"
-              label="Module"
-              value={draft.moduleId}
-              disabled={disabled}
-              onChange={(e) => set({ moduleId: e.target.value })}
-              options={inputs.modules.map((m) => ({ value: m.id, label: `${m.manufacturer} ${m.model} · ${m.stcWatts} W` }))}
-            />
-            <SelectField
-              id="inverter"
-              label="Inverter"
-              value={draft.inverterId}
-              disabled={disabled}
-              onChange={(e) => set({ inverterId: e.target.value })}
-              options={inputs.inverters.map((i) => ({ value: i.id, label: `${i.manufacturer} ${i.model} · ${i.kind === "micro" ? `micro, ${i.acWatts} W` : `string, ${fmt(i.acWatts / 1000, 1)} kW`}` }))}
-            />
-            {inv?.kind === "string" ? (
-              <Field inputMode="decimal" id="inverter-count" label="Inverters of this model" value={draft.inverterCount} error={errors.inverterCount} disabled={disabled} onChange={(ev) => set({ inverterCount: ev.target.value })} />
-            ) : null}
-            <Field inputMode="decimal" id="losses" label="System losses (%)" value={draft.lossesPct} error={errors.lossesPct} disabled={disabled} onChange={(ev) => set({ lossesPct: ev.target.value })} hint="Wiring, soiling, mismatch, light-induced and age losses combined; shading goes in solar access." />
-          </div>
-        </section>
-
-        <section className="card p-4" aria-labelledby="faces-heading">
-          <div className="flex flex-wrap items-center justify-between gap-2">
-            <h2 id="faces-heading" className="text-lg font-semibold">
-              Roof faces
-            </h2>
-            {canEdit ? (
-              <button type="button" className="btn-quiet" onClick={() => update((d) => ({ faces: [...d.faces, emptyFace(d.faces.length + 1)] }))} disabled={draft.faces.length >= 24}>
-                Add a roof face
-              </button>
-            ) : null}
-          </div>
-          {errors.faces ? <p className="field-error">{errors.faces}</p> : null}
-          <ul className="mt-3 space-y-4">
-            {draft.faces.map((f, i) => {
-              const n = i + 1;
-              const e = (k: string) => errors[`faces.${i}.${k}`];
-              return (
-                <li key={f.id} className="rounded-md border border-paper-line p-3" data-testid={`face-${n}`}>
-                  <div className="grid gap-3 sm:grid-cols-3">
-                    <Field id={`face-${n}-name`} label={`Face ${n} name`} value={f.name} error={e("name")} disabled={disabled} onChange={(ev) => setFace(i, { name: ev.target.value })} />
-                    <Field inputMode="decimal" id={`face-${n}-tilt`} label={`Face ${n} tilt (°)`} value={f.tiltDeg} error={e("tiltDeg")} disabled={disabled} onChange={(ev) => setFace(i, { tiltDeg: ev.target.value })} />
-                    <Field inputMode="decimal" id={`face-${n}-azimuth`} label={`Face ${n} azimuth (°)`} value={f.azimuthDeg} error={e("azimuthDeg")} disabled={disabled} onChange={(ev) => setFace(i, { azimuthDeg: ev.target.value })} hint="180 south, 90 east, 270 west" />
-                    <Field inputMode="decimal" id={`face-${n}-slots`} label={`Face ${n} usable module slots`} value={f.usableSlots} error={e("usableSlots")} disabled={disabled} onChange={(ev) => setFace(i, { usableSlots: ev.target.value })} />
-                    <Field
-                      id={`face-${n}-access`}
-                      label={`Face ${n} solar access (%)`}
-                      value={f.solarAccess}
-                      error={e("solarAccessPct") ?? Object.entries(errors).find(([k]) => k.startsWith(`faces.${i}.solarAccessPct.`))?.[1]}
-                      disabled={disabled}
-                      onChange={(ev) => setFace(i, { solarAccess: ev.target.value })}
-                      hint="One annual value, or 12 monthly values (Jan first) separated by commas"
-                      inputMode="decimal"
-                    />
-                    <Field inputMode="decimal" id={`face-${n}-modules`} label={`Face ${n} modules`} value={f.moduleCount} error={e("moduleCount")} disabled={disabled} onChange={(ev) => setFace(i, { moduleCount: ev.target.value })} />
-                  </div>
-                  {canEdit && draft.faces.length > 1 ? (
-                    <button type="button" className="btn-danger mt-3" onClick={() => update((d) => ({ faces: d.faces.filter((_, k) => k !== i) }))}>
-                      Remove face {n}
-                    </button>
-                  ) : null}
-                </li>
-              );
-            })}
-          </ul>
-          <div className="mt-4 flex flex-wrap items-end gap-3 border-t border-paper-line pt-4">
-            <div className="w-40">
-              <Field inputMode="decimal" id="target-offset" label="Target offset (%)" value={draft.targetOffsetPct} error={errors.targetOffsetPct} disabled={disabled} onChange={(ev) => set({ targetOffsetPct: ev.target.value })} />
-            </div>
-            {canEdit ? (
-              <button type="button" className="btn-quiet" onClick={runSizing} disabled={sizingBlocked !== null}>
-                Size to target offset
-              </button>
-            ) : null}
-            {sizingBlocked && canEdit ? <p className="text-sm text-graphite-soft">{sizingBlocked}</p> : null}
-          </div>
-        </section>
-
-        <section className="card p-4" aria-labelledby="weather-heading">
-          <h2 id="weather-heading" className="text-lg font-semibold">
-            Weather
-          </h2>
-          {inputs.nearest === null ? (
-            <div className="mt-2">
-              <FormMessage tone="info">
-                No weather station lies within {inputs.maxStationDistanceKm} km of this site, so Kilowright has no weather to estimate from. Type an annual production figure from another
-                source below, or ask an admin to add a weather file for this area.
-              </FormMessage>
-            </div>
-          ) : null}
-          <fieldset className="mt-3 space-y-2" disabled={disabled}>
-            <legend className="sr-only">Where the production estimate comes from</legend>
-            {inputs.nearest ? (
-              <label className="flex min-h-touch items-center gap-2">
-                <input type="radio" name="weather" checked={draft.weatherKind === "nearest"} onChange={() => set({ weatherKind: "nearest" })} />
-                Nearest station: {inputs.stations.find((s) => s.id === inputs.nearest?.stationId)?.name} ({fmt(inputs.nearest.distanceKm, 1)} km away)
-              </label>
-            ) : null}
-            {inputs.stations.length > 0 ? (
-              <label className="flex min-h-touch flex-wrap items-center gap-2">
-                <input type="radio" name="weather" checked={draft.weatherKind === "station"} onChange={() => set({ weatherKind: "station" })} />
-                Pick a station:
-                <select aria-label="Weather station" className="field-input w-auto" value={draft.stationId} onChange={(e) => set({ weatherKind: "station", stationId: e.target.value })}>
-                  {inputs.stations.map((s) => (
-                    <option key={s.id} value={s.id}>
-                      {s.name} ({fmt(s.distanceKm, 0)} km{s.distanceKm > inputs.maxStationDistanceKm ? ", beyond the usual range" : ""})
-                    </option>
-                  ))}
-                </select>
-              </label>
-            ) : null}
-            <label className="flex min-h-touch items-center gap-2">
-              <input type="radio" name="weather" checked={draft.weatherKind === "manual"} onChange={() => set({ weatherKind: "manual" })} />
-              Production figure from another source
-            </label>
-          </fieldset>
-          {draft.weatherKind === "manual" ? (
-            <div className="mt-3 grid gap-3 sm:grid-cols-2">
-              <Field inputMode="decimal" id="manual-annual" label="Annual production from another source (kWh)" value={draft.manualAnnualKwh} error={errors["weather.annualKwh"]} disabled={disabled} onChange={(ev) => set({ manualAnnualKwh: ev.target.value })} />
-              <Field id="manual-source" label="Where the figure comes from" value={draft.manualSource} error={errors["weather.source"]} disabled={disabled} onChange={(ev) => set({ manualSource: ev.target.value })} hint="e.g. the utility's solar calculator, a site survey report" />
-              <Field id="manual-monthly" label="Monthly figures (optional, 12 values, Jan first)" value={draft.manualMonthlyKwh} error={errors["weather.monthlyKwh"]} disabled={disabled} onChange={(ev) => set({ manualMonthlyKwh: ev.target.value })} />
-            </div>
-          ) : station ? (
-            <p className="mt-2 text-sm text-graphite-soft">
-              {station.name}, {fmt(station.distanceKm, 1)} km from the site. Source: {station.attribution}
-            </p>
-          ) : null}
-          {weatherQuery.isError ? <FormMessage tone="error">{weatherQuery.error.message}</FormMessage> : null}
-        </section>
-
+        <EquipmentCard {...parts} inputs={inputs} inv={inv} />
+        <FacesCard {...parts} canEdit={canEdit} update={update} setFace={setFace} sizingBlocked={sizingBlocked} onSize={runSizing} />
+        <WeatherCard {...parts} inputs={inputs} station={station} weatherError={weatherQuery.isError ? weatherQuery.error.message : null} />
         {inv?.kind === "string" && mod ? (
-          <section className="card p-4" aria-labelledby="strings-heading">
-            <h2 id="strings-heading" className="text-lg font-semibold">
-              String check
-            </h2>
-            <div className="mt-3 grid gap-3 sm:grid-cols-3">
-              <Field id="string-sizes" label="Modules per string" value={draft.stringSizes} error={errors["stringPlan.stringSizes"] ?? Object.entries(errors).find(([k]) => k.startsWith("stringPlan.stringSizes."))?.[1]} disabled={disabled} onChange={(ev) => set({ stringSizes: ev.target.value })} hint="One number per string, e.g. 10, 10" />
-              <Field inputMode="decimal" id="lowest-temp" label="Site record low (°C)" value={draft.lowestTempC} error={errors["stringPlan.lowestTempC"]} disabled={disabled} onChange={(ev) => set({ lowestTempC: ev.target.value })} hint={`Use the site's record or extreme-minimum low.${coldestHourC !== null ? ` The typical year's coldest hour is ${fmt(coldestHourC, 1)} °C; records go lower.` : ""}`} />
-              <Field inputMode="decimal" id="highest-temp" label="Hot design temperature (°C)" value={draft.highestTempC} error={errors["stringPlan.highestTempC"]} disabled={disabled} onChange={(ev) => set({ highestTempC: ev.target.value })} />
-            </div>
-            {canEdit ? (
-              <button type="button" className="btn-quiet mt-3" onClick={suggest} disabled={!totalModules}>
-                Suggest strings for {totalModules ?? 0} modules
-              </button>
-            ) : null}
-            {stringCheck ? <StringCheckPanel check={stringCheck} totalModules={totalModules ?? 0} sizes={validDoc?.stringPlan?.stringSizes ?? []} /> : null}
-            <p className="mt-3 rounded-md bg-caution-light px-3 py-2 text-sm text-graphite">{STRING_CAUTION}</p>
-          </section>
+          <StringsCard {...parts} canEdit={canEdit} onSuggest={suggest} totalModules={totalModules} stringCheck={stringCheck} sizes={validDoc?.stringPlan?.stringSizes ?? []} coldestHourC={weather ? Math.min(...weather.tempAirC) : null} />
         ) : null}
 
         {canEdit ? (
@@ -453,35 +321,251 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
       </div>
 
       <aside className="space-y-4 xl:sticky xl:top-4 xl:self-start" aria-label="Production estimate">
-        <section className="card p-4">
-          <h2 className="text-lg font-semibold">Estimate against usage</h2>
-          {usage.source === "none" ? <p className="mt-1 text-sm text-graphite-soft">No usage yet: add bills on the Energy tab to see the offset.</p> : null}
-          <dl className="mt-3 grid grid-cols-2 gap-3">
-            <Figure label="System size" value={estimate ? `${fmt(estimate.kwDc, 2)} kW DC` : "—"} testId="kw-dc" />
-            <Figure label="Annual production" value={estimate ? `${fmt(estimate.annualKwh)} kWh` : "—"} testId="annual-kwh" />
-            <Figure label="Offset" value={offsetPct !== null ? `${fmt(offsetPct)} %` : "—"} testId="offset" />
-            <Figure label="Specific yield" value={estimate && estimate.kwDc > 0 ? `${fmt(estimate.annualKwh / estimate.kwDc)} kWh/kW` : "—"} testId="specific-yield" />
-            <Figure label="Annual usage" value={`${fmt(usage.annualKwh)} kWh`} testId="annual-usage" />
-            <Figure label="Inverter AC" value={estimate ? `${fmt(estimate.kwAc, 2)} kW${estimate.kwAc > 0 && inv?.kind === "string" ? ` (DC/AC ${fmt(estimate.kwDc / estimate.kwAc, 2)})` : ""}` : "—"} testId="kw-ac" />
-          </dl>
-          <div className="mt-4">
-            {estimate ? (
-              <ProductionChart usageKwh={usage.monthlyKwh} productionKwh={estimate.monthlyKwh} />
-            ) : (
-              <p className="text-sm text-graphite-soft" role="status">
-                {!validDoc ? "Fix the marked fields to update the estimate." : draft.weatherKind !== "manual" && weatherQuery.isPending ? "Loading the station's weather…" : "No estimate yet."}
-              </p>
-            )}
-          </div>
-          {estimate ? (
-            <p className="mt-2 text-xs text-graphite-soft">
-              {estimate.label}
-              {estimate.clippedKwh ? ` · ${fmt(estimate.clippedKwh)} kWh clipped at the inverter` : ""} · computed in {fmt(estimate.ms)} ms. An estimate for a typical year, not a guarantee.
-            </p>
-          ) : null}
-        </section>
+        <EstimateCard
+          usage={usage}
+          estimate={estimate}
+          inv={inv}
+          waitingFor={!validDoc ? "Fix the marked fields to update the estimate." : draft.weatherKind !== "manual" && weatherQuery.isPending ? "Loading the station's weather…" : "No estimate yet."}
+        />
       </aside>
     </div>
+  );
+}
+
+function EquipmentCard({ draft, errors, disabled, set, inputs, inv }: DraftParts & { inputs: DesignInputs; inv: Inv | null }) {
+  return (
+    <section className="card p-4" aria-labelledby="equipment-heading">
+      <h2 id="equipment-heading" className="text-lg font-semibold">
+        Equipment
+      </h2>
+      <div className="mt-3 grid gap-4 sm:grid-cols-2">
+        <SelectField
+          id="module"
+          label="Module"
+          value={draft.moduleId}
+          disabled={disabled}
+          onChange={(e) => set({ moduleId: e.target.value })}
+          options={inputs.modules.map((m) => ({ value: m.id, label: `${m.manufacturer} ${m.model} · ${m.stcWatts} W` }))}
+        />
+        <SelectField
+          id="inverter"
+          label="Inverter"
+          value={draft.inverterId}
+          disabled={disabled}
+          onChange={(e) => set({ inverterId: e.target.value })}
+          options={inputs.inverters.map((i) => ({ value: i.id, label: `${i.manufacturer} ${i.model} · ${i.kind === "micro" ? `micro, ${i.acWatts} W` : `string, ${fmt(i.acWatts / 1000, 1)} kW`}` }))}
+        />
+        {inv?.kind === "string" ? (
+          <Field inputMode="decimal" id="inverter-count" label="Inverters of this model" value={draft.inverterCount} error={errors.inverterCount} disabled={disabled} onChange={(ev) => set({ inverterCount: ev.target.value })} />
+        ) : null}
+        <Field inputMode="decimal" id="losses" label="System losses (%)" value={draft.lossesPct} error={errors.lossesPct} disabled={disabled} onChange={(ev) => set({ lossesPct: ev.target.value })} hint="Wiring, soiling, mismatch, light-induced and age losses combined; shading goes in solar access." />
+      </div>
+    </section>
+  );
+}
+
+function FacesCard(
+  props: DraftParts & {
+    canEdit: boolean;
+    update: (change: (d: Draft) => Partial<Draft>) => void;
+    setFace: (i: number, patch: Partial<FaceDraft>) => void;
+    sizingBlocked: string | null;
+    onSize: () => void;
+  },
+) {
+  const { draft, errors, disabled, set, canEdit, update, sizingBlocked } = props;
+  return (
+    <section className="card p-4" aria-labelledby="faces-heading">
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <h2 id="faces-heading" className="text-lg font-semibold">
+          Roof faces
+        </h2>
+        {canEdit ? (
+          <button type="button" className="btn-quiet" onClick={() => update((d) => ({ faces: [...d.faces, emptyFace(d.faces.length + 1)] }))} disabled={draft.faces.length >= 24}>
+            Add a roof face
+          </button>
+        ) : null}
+      </div>
+      {errors.faces ? <p className="field-error">{errors.faces}</p> : null}
+      <ul className="mt-3 space-y-4">
+        {draft.faces.map((f, i) => (
+          <FaceItem
+            key={f.id}
+            face={f}
+            index={i}
+            errors={errors}
+            disabled={disabled}
+            setFace={(patch) => props.setFace(i, patch)}
+            onRemove={canEdit && draft.faces.length > 1 ? () => update((d) => ({ faces: d.faces.filter((_, k) => k !== i) })) : null}
+          />
+        ))}
+      </ul>
+      <div className="mt-4 flex flex-wrap items-end gap-3 border-t border-paper-line pt-4">
+        <div className="w-40">
+          <Field inputMode="decimal" id="target-offset" label="Target offset (%)" value={draft.targetOffsetPct} error={errors.targetOffsetPct} disabled={disabled} onChange={(ev) => set({ targetOffsetPct: ev.target.value })} />
+        </div>
+        {canEdit ? (
+          <button type="button" className="btn-quiet" onClick={props.onSize} disabled={sizingBlocked !== null}>
+            Size to target offset
+          </button>
+        ) : null}
+        {sizingBlocked && canEdit ? <p className="text-sm text-graphite-soft">{sizingBlocked}</p> : null}
+      </div>
+    </section>
+  );
+}
+
+function FaceItem(props: { face: FaceDraft; index: number; errors: Record<string, string>; disabled: boolean; setFace: (patch: Partial<FaceDraft>) => void; onRemove: (() => void) | null }) {
+  const { face: f, index: i, errors, disabled, setFace, onRemove } = props;
+  const n = i + 1;
+  const e = (k: string) => errors[`faces.${i}.${k}`];
+  return (
+    <li className="rounded-md border border-paper-line p-3" data-testid={`face-${n}`}>
+      <div className="grid gap-3 sm:grid-cols-3">
+        <Field id={`face-${n}-name`} label={`Face ${n} name`} value={f.name} error={e("name")} disabled={disabled} onChange={(ev) => setFace({ name: ev.target.value })} />
+        <Field inputMode="decimal" id={`face-${n}-tilt`} label={`Face ${n} tilt (°)`} value={f.tiltDeg} error={e("tiltDeg")} disabled={disabled} onChange={(ev) => setFace({ tiltDeg: ev.target.value })} />
+        <Field inputMode="decimal" id={`face-${n}-azimuth`} label={`Face ${n} azimuth (°)`} value={f.azimuthDeg} error={e("azimuthDeg")} disabled={disabled} onChange={(ev) => setFace({ azimuthDeg: ev.target.value })} hint="180 south, 90 east, 270 west" />
+        <Field inputMode="decimal" id={`face-${n}-slots`} label={`Face ${n} usable module slots`} value={f.usableSlots} error={e("usableSlots")} disabled={disabled} onChange={(ev) => setFace({ usableSlots: ev.target.value })} />
+        <Field
+          id={`face-${n}-access`}
+          label={`Face ${n} solar access (%)`}
+          value={f.solarAccess}
+          error={e("solarAccessPct") ?? Object.entries(errors).find(([k]) => k.startsWith(`faces.${i}.solarAccessPct.`))?.[1]}
+          disabled={disabled}
+          onChange={(ev) => setFace({ solarAccess: ev.target.value })}
+          hint="One annual value, or 12 monthly values (Jan first) separated by commas"
+          inputMode="decimal"
+        />
+        <Field inputMode="decimal" id={`face-${n}-modules`} label={`Face ${n} modules`} value={f.moduleCount} error={e("moduleCount")} disabled={disabled} onChange={(ev) => setFace({ moduleCount: ev.target.value })} />
+      </div>
+      {onRemove ? (
+        <button type="button" className="btn-danger mt-3" onClick={onRemove}>
+          Remove face {n}
+        </button>
+      ) : null}
+    </li>
+  );
+}
+
+function WeatherCard({ draft, errors, disabled, set, inputs, station, weatherError }: DraftParts & { inputs: DesignInputs; station: DesignInputs["stations"][number] | null; weatherError: string | null }) {
+  return (
+    <section className="card p-4" aria-labelledby="weather-heading">
+      <h2 id="weather-heading" className="text-lg font-semibold">
+        Weather
+      </h2>
+      {inputs.nearest === null ? (
+        <div className="mt-2">
+          <FormMessage tone="info">
+            No weather station lies within {inputs.maxStationDistanceKm} km of this site, so Kilowright has no weather to estimate from. Type an annual production figure from another
+            source below, or ask an admin to add a weather file for this area.
+          </FormMessage>
+        </div>
+      ) : null}
+      <fieldset className="mt-3 space-y-2" disabled={disabled}>
+        <legend className="sr-only">Where the production estimate comes from</legend>
+        {inputs.nearest ? (
+          <label className="flex min-h-touch items-center gap-2">
+            <input type="radio" name="weather" checked={draft.weatherKind === "nearest"} onChange={() => set({ weatherKind: "nearest" })} />
+            Nearest station: {inputs.stations.find((s) => s.id === inputs.nearest?.stationId)?.name} ({fmt(inputs.nearest.distanceKm, 1)} km away)
+          </label>
+        ) : null}
+        {inputs.stations.length > 0 ? (
+          <label className="flex min-h-touch flex-wrap items-center gap-2">
+            <input type="radio" name="weather" checked={draft.weatherKind === "station"} onChange={() => set({ weatherKind: "station" })} />
+            Pick a station:
+            <select aria-label="Weather station" className="field-input w-auto" value={draft.stationId} onChange={(e) => set({ weatherKind: "station", stationId: e.target.value })}>
+              {inputs.stations.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name} ({fmt(s.distanceKm, 0)} km{s.distanceKm > inputs.maxStationDistanceKm ? ", beyond the usual range" : ""})
+                </option>
+              ))}
+            </select>
+          </label>
+        ) : null}
+        <label className="flex min-h-touch items-center gap-2">
+          <input type="radio" name="weather" checked={draft.weatherKind === "manual"} onChange={() => set({ weatherKind: "manual" })} />
+          Production figure from another source
+        </label>
+      </fieldset>
+      {draft.weatherKind === "manual" ? (
+        <div className="mt-3 grid gap-3 sm:grid-cols-2">
+          <Field inputMode="decimal" id="manual-annual" label="Annual production from another source (kWh)" value={draft.manualAnnualKwh} error={errors["weather.annualKwh"]} disabled={disabled} onChange={(ev) => set({ manualAnnualKwh: ev.target.value })} />
+          <Field id="manual-source" label="Where the figure comes from" value={draft.manualSource} error={errors["weather.source"]} disabled={disabled} onChange={(ev) => set({ manualSource: ev.target.value })} hint="e.g. the utility's solar calculator, a site survey report" />
+          <Field id="manual-monthly" label="Monthly figures (optional, 12 values, Jan first)" value={draft.manualMonthlyKwh} error={errors["weather.monthlyKwh"]} disabled={disabled} onChange={(ev) => set({ manualMonthlyKwh: ev.target.value })} />
+        </div>
+      ) : station ? (
+        <p className="mt-2 text-sm text-graphite-soft">
+          {station.name}, {fmt(station.distanceKm, 1)} km from the site. Source: {station.attribution}
+        </p>
+      ) : null}
+      {weatherError ? <FormMessage tone="error">{weatherError}</FormMessage> : null}
+    </section>
+  );
+}
+
+function StringsCard(
+  props: DraftParts & {
+    canEdit: boolean;
+    onSuggest: () => void;
+    totalModules: number | null;
+    stringCheck: ReturnType<typeof checkStringPlan> | null;
+    sizes: number[];
+    coldestHourC: number | null;
+  },
+) {
+  const { draft, errors, disabled, set, canEdit, totalModules, stringCheck, coldestHourC } = props;
+  return (
+    <section className="card p-4" aria-labelledby="strings-heading">
+      <h2 id="strings-heading" className="text-lg font-semibold">
+        String check
+      </h2>
+      <div className="mt-3 grid gap-3 sm:grid-cols-3">
+        <Field id="string-sizes" label="Modules per string" value={draft.stringSizes} error={errors["stringPlan.stringSizes"] ?? Object.entries(errors).find(([k]) => k.startsWith("stringPlan.stringSizes."))?.[1]} disabled={disabled} onChange={(ev) => set({ stringSizes: ev.target.value })} hint="One number per string, e.g. 10, 10" />
+        <Field inputMode="decimal" id="lowest-temp" label="Site record low (°C)" value={draft.lowestTempC} error={errors["stringPlan.lowestTempC"]} disabled={disabled} onChange={(ev) => set({ lowestTempC: ev.target.value })} hint={`Use the site's record or extreme-minimum low.${coldestHourC !== null ? ` The typical year's coldest hour is ${fmt(coldestHourC, 1)} °C; records go lower.` : ""}`} />
+        <Field inputMode="decimal" id="highest-temp" label="Hot design temperature (°C)" value={draft.highestTempC} error={errors["stringPlan.highestTempC"]} disabled={disabled} onChange={(ev) => set({ highestTempC: ev.target.value })} />
+      </div>
+      {canEdit ? (
+        <button type="button" className="btn-quiet mt-3" onClick={props.onSuggest} disabled={!totalModules}>
+          Suggest strings for {totalModules ?? 0} modules
+        </button>
+      ) : null}
+      {stringCheck ? <StringCheckPanel check={stringCheck} totalModules={totalModules ?? 0} sizes={props.sizes} /> : null}
+      <p className="mt-3 rounded-md bg-caution-light px-3 py-2 text-sm text-graphite">{STRING_CAUTION}</p>
+    </section>
+  );
+}
+
+/** The live estimate beside the form: size, production, offset against the deal's usage, and the monthly chart. */
+function EstimateCard({ usage, estimate, inv, waitingFor }: { usage: DesignInputs["usage"]; estimate: Estimate | null; inv: Inv | null; waitingFor: string }) {
+  const offsetPct = estimate && usage.annualKwh > 0 ? (estimate.annualKwh / usage.annualKwh) * 100 : null;
+  return (
+    <section className="card p-4">
+      <h2 className="text-lg font-semibold">Estimate against usage</h2>
+      {usage.source === "none" ? <p className="mt-1 text-sm text-graphite-soft">No usage yet: add bills on the Energy tab to see the offset.</p> : null}
+      <dl className="mt-3 grid grid-cols-2 gap-3">
+        <Figure label="System size" value={estimate ? `${fmt(estimate.kwDc, 2)} kW DC` : "—"} testId="kw-dc" />
+        <Figure label="Annual production" value={estimate ? `${fmt(estimate.annualKwh)} kWh` : "—"} testId="annual-kwh" />
+        <Figure label="Offset" value={offsetPct !== null ? `${fmt(offsetPct)} %` : "—"} testId="offset" />
+        <Figure label="Specific yield" value={estimate && estimate.kwDc > 0 ? `${fmt(estimate.annualKwh / estimate.kwDc)} kWh/kW` : "—"} testId="specific-yield" />
+        <Figure label="Annual usage" value={`${fmt(usage.annualKwh)} kWh`} testId="annual-usage" />
+        <Figure label="Inverter AC" value={estimate ? `${fmt(estimate.kwAc, 2)} kW${estimate.kwAc > 0 && inv?.kind === "string" ? ` (DC/AC ${fmt(estimate.kwDc / estimate.kwAc, 2)})` : ""}` : "—"} testId="kw-ac" />
+      </dl>
+      <div className="mt-4">
+        {estimate ? (
+          <ProductionChart usageKwh={usage.monthlyKwh} productionKwh={estimate.monthlyKwh} />
+        ) : (
+          <p className="text-sm text-graphite-soft" role="status">
+            {waitingFor}
+          </p>
+        )}
+      </div>
+      {estimate ? (
+        <p className="mt-2 text-xs text-graphite-soft">
+          {estimate.label}
+          {estimate.clippedKwh ? ` · ${fmt(estimate.clippedKwh)} kWh clipped at the inverter` : ""} · computed in {fmt(estimate.ms)} ms. An estimate for a typical year, not a guarantee.
+        </p>
+      ) : null}
+    </section>
   );
 }
 

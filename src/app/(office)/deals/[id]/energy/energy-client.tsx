@@ -68,35 +68,22 @@ function uploadWithProgress(url: string, file: File, onProgress: (pct: number) =
   });
 }
 
-export function EnergyClient(props: { dealId: string; canEdit: boolean; initialBills: BillValue[]; initialUsage: Usage; uploads: UploadView[] }) {
+type Suggestions = { uploadId: string; items: (BillSuggestion & { pick: boolean })[] };
+type SetNotice = (notice: Notice | null) => void;
+
+/** The bills table's save: checked here first with the server's own schema, then PUT; errors land on their rows. */
+function useBillsSave(dealId: string, rows: Row[], setRows: (rows: Row[]) => void, setNotice: SetNotice) {
   const queryClient = useQueryClient();
-  const [rows, setRows] = useState<Row[]>(() => (props.initialBills.length ? props.initialBills.map(toRow) : [emptyRow()]));
   const [rowErrors, setRowErrors] = useState<Record<string, string>>({});
-  const [notice, setNotice] = useState<Notice | null>(null);
-  const [progress, setProgress] = useState<number | null>(null);
-  const [suggestions, setSuggestions] = useState<{ uploadId: string; items: (BillSuggestion & { pick: boolean })[] } | null>(null);
-  const fileInput = useRef<HTMLInputElement>(null);
-
-  const usage = useQuery({
-    queryKey: ["usage", props.dealId],
-    queryFn: () => api<Usage>(`/api/deals/${props.dealId}/usage`),
-    initialData: props.initialUsage,
-  });
-  const uploads = useQuery({
-    queryKey: ["uploads", props.dealId],
-    queryFn: () => api<UploadView[]>(`/api/deals/${props.dealId}/uploads`),
-    initialData: props.uploads,
-  });
-
   // The tab reads usage through useQuery: the answer carries the new usage year, put straight into it.
   const save = useSave<ReturnType<typeof toPayload>, { bills: BillValue[]; usage: Usage }>({
-    request: (json) => ({ url: `/api/deals/${props.dealId}/bills`, method: "PUT", json }),
+    request: (json) => ({ url: `/api/deals/${dealId}/bills`, method: "PUT", json }),
     notify: setNotice,
     refresh: false,
     success: (data) => `Saved ${data.bills.length} bill${data.bills.length === 1 ? "" : "s"}.`,
     onFieldErrors: (fields) => setRowErrors(fieldErrorsToErrors(fields)),
     onSaved: (data) => {
-      queryClient.setQueryData(["usage", props.dealId], data.usage);
+      queryClient.setQueryData(["usage", dealId], data.usage);
       setRows(data.bills.length ? data.bills.map(toRow) : [emptyRow()]);
       setRowErrors({});
     },
@@ -115,18 +102,27 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
     }
     save.save(payload);
   }
+  return { rowErrors, onSave, saving: save.pending };
+}
+
+/** A file upload with its progress; a bill's text comes back as suggested rows, interval data as a new usage year. */
+function useBillUpload(dealId: string, setNotice: SetNotice) {
+  const queryClient = useQueryClient();
+  const [progress, setProgress] = useState<number | null>(null);
+  const [suggestions, setSuggestions] = useState<Suggestions | null>(null);
+  const fileInput = useRef<HTMLInputElement>(null);
 
   async function onFile(file: File) {
     setNotice(null);
     setProgress(0);
     try {
-      const outcome = await uploadWithProgress(`/api/deals/${props.dealId}/uploads`, file, setProgress);
+      const outcome = await uploadWithProgress(`/api/deals/${dealId}/uploads`, file, setProgress);
       setNotice({ tone: outcome.kind === "bill-image" ? "info" : "success", text: outcome.message });
       if (outcome.kind === "bill-text" && outcome.suggestions.length > 0) {
         setSuggestions({ uploadId: outcome.upload.id, items: outcome.suggestions.map((s) => ({ ...s, pick: true })) });
       }
-      if (outcome.kind === "interval") await queryClient.invalidateQueries({ queryKey: ["usage", props.dealId] });
-      await queryClient.invalidateQueries({ queryKey: ["uploads", props.dealId] });
+      if (outcome.kind === "interval") await queryClient.invalidateQueries({ queryKey: ["usage", dealId] });
+      await queryClient.invalidateQueries({ queryKey: ["uploads", dealId] });
     } catch (err) {
       setNotice({ tone: "error", text: err instanceof Error ? err.message : "The upload failed." });
     } finally {
@@ -134,6 +130,26 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
       if (fileInput.current) fileInput.current.value = "";
     }
   }
+  return { progress, suggestions, setSuggestions, fileInput, onFile };
+}
+
+export function EnergyClient(props: { dealId: string; canEdit: boolean; initialBills: BillValue[]; initialUsage: Usage; uploads: UploadView[] }) {
+  const [rows, setRows] = useState<Row[]>(() => (props.initialBills.length ? props.initialBills.map(toRow) : [emptyRow()]));
+  const [notice, setNotice] = useState<Notice | null>(null);
+  const upload = useBillUpload(props.dealId, setNotice);
+  const { suggestions, setSuggestions } = upload;
+
+  const usage = useQuery({
+    queryKey: ["usage", props.dealId],
+    queryFn: () => api<Usage>(`/api/deals/${props.dealId}/usage`),
+    initialData: props.initialUsage,
+  });
+  const uploads = useQuery({
+    queryKey: ["uploads", props.dealId],
+    queryFn: () => api<UploadView[]>(`/api/deals/${props.dealId}/uploads`),
+    initialData: props.uploads,
+  });
+  const bills = useBillsSave(props.dealId, rows, setRows, setNotice);
 
   function addSuggestions() {
     if (!suggestions) return;
@@ -147,199 +163,253 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
     setNotice({ tone: "info", text: `Added ${picked.length} bill${picked.length === 1 ? "" : "s"} to the table. Check them, then save.` });
   }
 
-  const set = (key: string, field: keyof Row, value: string) => setRows((rs) => rs.map((r) => (r.key === key ? { ...r, [field]: value } : r)));
-  const u = usage.data;
-  const measured = u.estimatedMonths.filter((e) => !e).length;
-
   return (
     <div className="grid gap-6 xl:grid-cols-[3fr_2fr]">
       <div className="space-y-6">
         <StatusMessage notice={notice} />
 
-        {props.canEdit ? (
-          <section className="card p-5" aria-labelledby="upload-heading">
-            <h2 id="upload-heading" className="font-semibold">
-              Add bills from files
-            </h2>
-            <p className="mt-1 text-sm text-graphite-soft">PDF bills, photos of bills (JPEG, PNG), or hourly data: Green Button XML or CSV. Up to 10 MB a bill, 20 MB of interval data.</p>
-            <label className="btn-quiet mt-3 cursor-pointer">
-              Choose a file…
-              <input
-                ref={fileInput}
-                type="file"
-                className="sr-only"
-                accept=".pdf,.jpg,.jpeg,.png,.csv,.xml,application/pdf,image/jpeg,image/png,text/csv,application/xml"
-                onChange={(e) => e.target.files?.[0] && onFile(e.target.files[0])}
-                disabled={progress !== null}
-                data-testid="bill-file-input"
-              />
-            </label>
-            {progress !== null ? (
-              <div className="mt-3" role="progressbar" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} aria-label="Upload progress">
-                <div className="h-2 rounded-full bg-paper-deep">
-                  <div className="h-2 rounded-full bg-copper transition-all" style={{ width: `${progress}%` }} />
-                </div>
-                <p className="mt-1 text-xs text-graphite-soft">{progress < 100 ? `Uploading… ${progress} %` : "Reading the file…"}</p>
-              </div>
-            ) : null}
-            {suggestions ? (
-              <div className="mt-4 rounded-md border border-paper-line bg-paper p-3" data-testid="bill-suggestions">
-                <p className="text-sm font-medium">Found in the bill — tick what is right:</p>
-                <ul className="mt-2 space-y-2">
-                  {suggestions.items.map((s, i) => (
-                    <li key={`${s.periodStart}-${i}`}>
-                      <label className="flex min-h-touch items-start gap-3">
-                        <input
-                          type="checkbox"
-                          className="mt-1 h-5 w-5 accent-copper"
-                          checked={s.pick}
-                          onChange={(e) => setSuggestions({ ...suggestions, items: suggestions.items.map((x, j) => (j === i ? { ...x, pick: e.target.checked } : x)) })}
-                        />
-                        <span>
-                          <span className="figure">
-                            {s.periodStart} → {s.periodEnd} · {s.kwh == null ? "kWh not found" : `${s.kwh.toLocaleString("en-US")} kWh`} ·{" "}
-                            {s.costCents == null ? "amount not found" : `$${(s.costCents / 100).toFixed(2)}`}
-                          </span>
-                          <span className="block text-xs text-graphite-soft">“{s.excerpt}”</span>
-                        </span>
-                      </label>
-                    </li>
-                  ))}
-                </ul>
-                <div className="mt-3 flex gap-2">
-                  <button type="button" className="btn-primary" onClick={addSuggestions}>
-                    Add to the table
-                  </button>
-                  <button type="button" className="btn-quiet" onClick={() => setSuggestions(null)}>
-                    Dismiss
-                  </button>
-                </div>
-              </div>
-            ) : null}
-          </section>
-        ) : null}
+        {props.canEdit ? <UploadSection upload={upload} onAdd={addSuggestions} /> : null}
 
-        <section className="card overflow-hidden" aria-labelledby="bills-heading">
-          <div className="flex items-center justify-between px-5 pt-5">
-            <h2 id="bills-heading" className="font-semibold">
-              Bills
-            </h2>
-            <span className="text-sm text-graphite-soft">Billing period start and end, kWh, amount</span>
-          </div>
-          <div className="mt-3 overflow-x-auto">
-            <table className="w-full min-w-[560px] text-sm">
-              <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-graphite-soft">
-                <tr>
-                  <Th>From</Th>
-                  <Th>To</Th>
-                  <Th>kWh</Th>
-                  <Th>Amount ($)</Th>
-                  <Th>
-                    <span className="sr-only">Remove</span>
-                  </Th>
-                </tr>
-              </thead>
-              <tbody>
-                {rows.map((r, i) => {
-                  const err = (f: string) => rowErrors[`bills.${i}.${f}`];
-                  const rowMessage = err("periodStart") ?? err("periodEnd") ?? err("kwh") ?? err("costCents") ?? err("startDate") ?? err("endDate");
-                  return (
-                    <tr key={r.key} className="align-top" data-testid="bill-row">
-                      <td className="px-3 py-2">
-                        <input aria-label={`Bill ${i + 1} from`} type="date" className="field-input" value={r.periodStart} disabled={!props.canEdit} aria-invalid={!!(err("periodStart") || err("startDate"))} onChange={(e) => set(r.key, "periodStart", e.target.value)} />
-                      </td>
-                      <td className="px-3 py-2">
-                        <input aria-label={`Bill ${i + 1} to`} type="date" className="field-input" value={r.periodEnd} disabled={!props.canEdit} aria-invalid={!!(err("periodEnd") || err("endDate"))} onChange={(e) => set(r.key, "periodEnd", e.target.value)} />
-                      </td>
-                      <td className="px-3 py-2">
-                        <input aria-label={`Bill ${i + 1} kWh`} inputMode="decimal" className="field-input figure" value={r.kwh} disabled={!props.canEdit} aria-invalid={!!err("kwh")} onChange={(e) => set(r.key, "kwh", e.target.value)} />
-                      </td>
-                      <td className="px-3 py-2">
-                        <input aria-label={`Bill ${i + 1} amount`} inputMode="decimal" className="field-input figure" value={r.cost} disabled={!props.canEdit} aria-invalid={!!err("costCents")} onChange={(e) => set(r.key, "cost", e.target.value)} />
-                        {rowMessage ? (
-                          <p className="field-error" role="alert">
-                            {rowMessage}
-                          </p>
-                        ) : null}
-                      </td>
-                      <td className="px-3 py-2 text-right">
-                        {props.canEdit ? (
-                          <button type="button" className="btn-quiet px-3" aria-label={`Remove bill ${i + 1}`} onClick={() => setRows((rs) => (rs.length > 1 ? rs.filter((x) => x.key !== r.key) : [emptyRow()]))}>
-                            ✕
-                          </button>
-                        ) : null}
-                      </td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
-          {props.canEdit ? (
-            <div className="flex flex-wrap gap-2 p-5">
-              <button type="button" className="btn-quiet" onClick={() => setRows((rs) => [...rs, emptyRow()])}>
-                Add a bill
-              </button>
-              <button type="button" className="btn-primary" onClick={onSave} disabled={save.pending}>
-                {save.pending ? "Saving…" : "Save bills"}
-              </button>
-            </div>
-          ) : null}
-        </section>
+        <BillsSection rows={rows} setRows={setRows} rowErrors={bills.rowErrors} canEdit={props.canEdit} onSave={bills.onSave} saving={bills.saving} />
       </div>
 
       <aside className="space-y-6">
-        <section className="card p-5" aria-labelledby="usage-heading">
-          <h2 id="usage-heading" className="font-semibold">
-            Usage year
-          </h2>
-          {u.source === "none" ? (
-            <p className="mt-2 text-graphite-soft">No bills yet. Add at least one bill; 12 months give the best picture.</p>
-          ) : (
-            <>
-              <p className="mt-1">
-                <span className="figure text-2xl" data-testid="annual-kwh">
-                  {Math.round(u.annualKwh).toLocaleString("en-US")}
-                </span>{" "}
-                kWh a year
-              </p>
-              <p className="text-sm text-graphite-soft">
-                {u.source === "interval"
-                  ? "From hourly interval data."
-                  : `${measured} of 12 months from bills${measured < 12 ? `; the rest estimated (${u.fillMethod === "degree-day" ? "degree-day regression" : "seasonal shape"})` : ""}.`}
-                {u.averageCentsPerKwh != null ? ` Average price ${u.averageCentsPerKwh.toFixed(1)} ¢/kWh.` : ""}
-              </p>
-              <div className="mt-4">
-                <UsageChart monthlyKwh={u.monthlyKwh} estimated={u.estimatedMonths} />
-              </div>
-              {u.warnings.length > 0 ? (
-                <ul className="mt-3 space-y-1 text-sm text-caution" aria-label="Flags">
-                  {u.warnings.map((w) => (
-                    <li key={w}>⚑ {w}</li>
-                  ))}
-                </ul>
-              ) : null}
-            </>
-          )}
-        </section>
-        <section className="card p-5" aria-labelledby="files-heading">
-          <h2 id="files-heading" className="font-semibold">
-            Files
-          </h2>
-          {uploads.data.length === 0 ? (
-            <p className="mt-1 text-sm text-graphite-soft">None yet.</p>
-          ) : (
-            <ul className="mt-2 space-y-1 text-sm" data-testid="upload-list">
-              {uploads.data.map((f) => (
-                <li key={f.id} className="flex justify-between gap-2">
-                  <span className="truncate">{f.fileName}</span>
-                  <span className="shrink-0 text-graphite-soft">{f.purpose === "interval_data" ? "hourly data" : f.mimeType === "application/pdf" ? "PDF" : "photo"}</span>
-                </li>
-              ))}
-            </ul>
-          )}
-        </section>
+        <UsageYearCard u={usage.data} />
+        <FilesCard uploads={uploads.data} />
       </aside>
     </div>
+  );
+}
+
+function UploadSection({ upload, onAdd }: { upload: ReturnType<typeof useBillUpload>; onAdd: () => void }) {
+  const { progress, suggestions, setSuggestions, fileInput, onFile } = upload;
+  return (
+    <section className="card p-5" aria-labelledby="upload-heading">
+      <h2 id="upload-heading" className="font-semibold">
+        Add bills from files
+      </h2>
+      <p className="mt-1 text-sm text-graphite-soft">PDF bills, photos of bills (JPEG, PNG), or hourly data: Green Button XML or CSV. Up to 10 MB a bill, 20 MB of interval data.</p>
+      <label className="btn-quiet mt-3 cursor-pointer">
+        Choose a file…
+        <input
+          ref={fileInput}
+          type="file"
+          className="sr-only"
+          accept=".pdf,.jpg,.jpeg,.png,.csv,.xml,application/pdf,image/jpeg,image/png,text/csv,application/xml"
+          onChange={(e) => e.target.files?.[0] && onFile(e.target.files[0])}
+          disabled={progress !== null}
+          data-testid="bill-file-input"
+        />
+      </label>
+      {progress !== null ? (
+        <div className="mt-3" role="progressbar" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} aria-label="Upload progress">
+          <div className="h-2 rounded-full bg-paper-deep">
+            <div className="h-2 rounded-full bg-copper transition-all" style={{ width: `${progress}%` }} />
+          </div>
+          <p className="mt-1 text-xs text-graphite-soft">{progress < 100 ? `Uploading… ${progress} %` : "Reading the file…"}</p>
+        </div>
+      ) : null}
+      {suggestions ? <SuggestionsPicker suggestions={suggestions} setSuggestions={setSuggestions} onAdd={onAdd} /> : null}
+    </section>
+  );
+}
+
+/** The bills read from an uploaded bill's text, each to tick before it goes into the table. */
+function SuggestionsPicker({ suggestions, setSuggestions, onAdd }: { suggestions: Suggestions; setSuggestions: (s: Suggestions | null) => void; onAdd: () => void }) {
+  return (
+    <div className="mt-4 rounded-md border border-paper-line bg-paper p-3" data-testid="bill-suggestions">
+      <p className="text-sm font-medium">Found in the bill — tick what is right:</p>
+      <ul className="mt-2 space-y-2">
+        {suggestions.items.map((s, i) => (
+          <li key={`${s.periodStart}-${i}`}>
+            <label className="flex min-h-touch items-start gap-3">
+              <input
+                type="checkbox"
+                className="mt-1 h-5 w-5 accent-copper"
+                checked={s.pick}
+                onChange={(e) => setSuggestions({ ...suggestions, items: suggestions.items.map((x, j) => (j === i ? { ...x, pick: e.target.checked } : x)) })}
+              />
+              <span>
+                <span className="figure">
+                  {s.periodStart} → {s.periodEnd} · {s.kwh == null ? "kWh not found" : `${s.kwh.toLocaleString("en-US")} kWh`} ·{" "}
+                  {s.costCents == null ? "amount not found" : `$${(s.costCents / 100).toFixed(2)}`}
+                </span>
+                <span className="block text-xs text-graphite-soft">“{s.excerpt}”</span>
+              </span>
+            </label>
+          </li>
+        ))}
+      </ul>
+      <div className="mt-3 flex gap-2">
+        <button type="button" className="btn-primary" onClick={onAdd}>
+          Add to the table
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => setSuggestions(null)}>
+          Dismiss
+        </button>
+      </div>
+    </div>
+  );
+}
+
+function BillsSection(props: {
+  rows: Row[];
+  setRows: (update: (rows: Row[]) => Row[]) => void;
+  rowErrors: Record<string, string>;
+  canEdit: boolean;
+  onSave: () => void;
+  saving: boolean;
+}) {
+  const { rows, setRows } = props;
+  const set = (key: string, field: keyof Row, value: string) => setRows((rs) => rs.map((r) => (r.key === key ? { ...r, [field]: value } : r)));
+  return (
+    <section className="card overflow-hidden" aria-labelledby="bills-heading">
+      <div className="flex items-center justify-between px-5 pt-5">
+        <h2 id="bills-heading" className="font-semibold">
+          Bills
+        </h2>
+        <span className="text-sm text-graphite-soft">Billing period start and end, kWh, amount</span>
+      </div>
+      <div className="mt-3 overflow-x-auto">
+        <table className="w-full min-w-[560px] text-sm">
+          <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-graphite-soft">
+            <tr>
+              <Th>From</Th>
+              <Th>To</Th>
+              <Th>kWh</Th>
+              <Th>Amount ($)</Th>
+              <Th>
+                <span className="sr-only">Remove</span>
+              </Th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r, i) => (
+              <BillRow
+                key={r.key}
+                row={r}
+                index={i}
+                err={(f) => props.rowErrors[`bills.${i}.${f}`]}
+                canEdit={props.canEdit}
+                set={(field, value) => set(r.key, field, value)}
+                onRemove={() => setRows((rs) => (rs.length > 1 ? rs.filter((x) => x.key !== r.key) : [emptyRow()]))}
+              />
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {props.canEdit ? (
+        <div className="flex flex-wrap gap-2 p-5">
+          <button type="button" className="btn-quiet" onClick={() => setRows((rs) => [...rs, emptyRow()])}>
+            Add a bill
+          </button>
+          <button type="button" className="btn-primary" onClick={props.onSave} disabled={props.saving}>
+            {props.saving ? "Saving…" : "Save bills"}
+          </button>
+        </div>
+      ) : null}
+    </section>
+  );
+}
+
+function BillRow(props: {
+  row: Row;
+  index: number;
+  err: (field: string) => string | undefined;
+  canEdit: boolean;
+  set: (field: keyof Row, value: string) => void;
+  onRemove: () => void;
+}) {
+  const { row: r, index: i, err, canEdit, set } = props;
+  const rowMessage = err("periodStart") ?? err("periodEnd") ?? err("kwh") ?? err("costCents") ?? err("startDate") ?? err("endDate");
+  return (
+    <tr className="align-top" data-testid="bill-row">
+      <td className="px-3 py-2">
+        <input aria-label={`Bill ${i + 1} from`} type="date" className="field-input" value={r.periodStart} disabled={!canEdit} aria-invalid={!!(err("periodStart") || err("startDate"))} onChange={(e) => set("periodStart", e.target.value)} />
+      </td>
+      <td className="px-3 py-2">
+        <input aria-label={`Bill ${i + 1} to`} type="date" className="field-input" value={r.periodEnd} disabled={!canEdit} aria-invalid={!!(err("periodEnd") || err("endDate"))} onChange={(e) => set("periodEnd", e.target.value)} />
+      </td>
+      <td className="px-3 py-2">
+        <input aria-label={`Bill ${i + 1} kWh`} inputMode="decimal" className="field-input figure" value={r.kwh} disabled={!canEdit} aria-invalid={!!err("kwh")} onChange={(e) => set("kwh", e.target.value)} />
+      </td>
+      <td className="px-3 py-2">
+        <input aria-label={`Bill ${i + 1} amount`} inputMode="decimal" className="field-input figure" value={r.cost} disabled={!canEdit} aria-invalid={!!err("costCents")} onChange={(e) => set("cost", e.target.value)} />
+        {rowMessage ? (
+          <p className="field-error" role="alert">
+            {rowMessage}
+          </p>
+        ) : null}
+      </td>
+      <td className="px-3 py-2 text-right">
+        {canEdit ? (
+          <button type="button" className="btn-quiet px-3" aria-label={`Remove bill ${i + 1}`} onClick={props.onRemove}>
+            ✕
+          </button>
+        ) : null}
+      </td>
+    </tr>
+  );
+}
+
+/** The household's year of use: total, where it came from, the monthly chart and any flags. */
+function UsageYearCard({ u }: { u: Usage }) {
+  const measured = u.estimatedMonths.filter((e) => !e).length;
+  return (
+    <section className="card p-5" aria-labelledby="usage-heading">
+      <h2 id="usage-heading" className="font-semibold">
+        Usage year
+      </h2>
+      {u.source === "none" ? (
+        <p className="mt-2 text-graphite-soft">No bills yet. Add at least one bill; 12 months give the best picture.</p>
+      ) : (
+        <>
+          <p className="mt-1">
+            <span className="figure text-2xl" data-testid="annual-kwh">
+              {Math.round(u.annualKwh).toLocaleString("en-US")}
+            </span>{" "}
+            kWh a year
+          </p>
+          <p className="text-sm text-graphite-soft">
+            {u.source === "interval"
+              ? "From hourly interval data."
+              : `${measured} of 12 months from bills${measured < 12 ? `; the rest estimated (${u.fillMethod === "degree-day" ? "degree-day regression" : "seasonal shape"})` : ""}.`}
+            {u.averageCentsPerKwh != null ? ` Average price ${u.averageCentsPerKwh.toFixed(1)} ¢/kWh.` : ""}
+          </p>
+          <div className="mt-4">
+            <UsageChart monthlyKwh={u.monthlyKwh} estimated={u.estimatedMonths} />
+          </div>
+          {u.warnings.length > 0 ? (
+            <ul className="mt-3 space-y-1 text-sm text-caution" aria-label="Flags">
+              {u.warnings.map((w) => (
+                <li key={w}>⚑ {w}</li>
+              ))}
+            </ul>
+          ) : null}
+        </>
+      )}
+    </section>
+  );
+}
+
+function FilesCard({ uploads }: { uploads: UploadView[] }) {
+  return (
+    <section className="card p-5" aria-labelledby="files-heading">
+      <h2 id="files-heading" className="font-semibold">
+        Files
+      </h2>
+      {uploads.length === 0 ? (
+        <p className="mt-1 text-sm text-graphite-soft">None yet.</p>
+      ) : (
+        <ul className="mt-2 space-y-1 text-sm" data-testid="upload-list">
+          {uploads.map((f) => (
+            <li key={f.id} className="flex justify-between gap-2">
+              <span className="truncate">{f.fileName}</span>
+              <span className="shrink-0 text-graphite-soft">{f.purpose === "interval_data" ? "hourly data" : f.mimeType === "application/pdf" ? "PDF" : "photo"}</span>
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
   );
 }

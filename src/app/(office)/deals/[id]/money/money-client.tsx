@@ -168,9 +168,8 @@ function ResendReceipt({ paymentId }: { paymentId: string }) {
   );
 }
 
-function RefundForm({ p }: { p: PaymentView }) {
-  const [open, setOpen] = useState(false);
-  const [done, setDone] = useState<string | null>(null);
+/** The refund form's state: amount typed in dollars, held in cents; closes the form once the refund is recorded. */
+function useRefund(p: PaymentView, onRefunded: () => void) {
   const form = useForm<RefundPaymentInput>({ resolver: zodResolver(refundPaymentSchema), defaultValues: { reason: "" } });
   const { errors } = form.formState;
   // The person types dollars; the form (and the server) hold integer cents.
@@ -186,11 +185,20 @@ function RefundForm({ p }: { p: PaymentView }) {
     request: (json) => ({ url: `/api/payments/${p.id}/refunds`, method: "POST", json }),
     setError: form.setError,
     onSaved: () => {
-      setDone("Refund sent to the payment provider and recorded.");
       form.reset({ reason: "" });
       setAmountText("");
-      setOpen(false);
+      onRefunded();
     },
+  });
+  return { form, errors, amountText, setAmount, refund };
+}
+
+function RefundForm({ p }: { p: PaymentView }) {
+  const [open, setOpen] = useState(false);
+  const [done, setDone] = useState<string | null>(null);
+  const { form, errors, amountText, setAmount, refund } = useRefund(p, () => {
+    setDone("Refund sent to the payment provider and recorded.");
+    setOpen(false);
   });
 
   if (!open) {

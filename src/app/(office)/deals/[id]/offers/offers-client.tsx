@@ -245,56 +245,47 @@ type FormState = {
 
 const toNumber = (s: string) => (s.trim() === "" ? Number.NaN : Number(s));
 
-function OfferForm(props: Props & { existing: OfferView | null; onClose: () => void }) {
-  const { existing, design, dealId } = props;
-  const faces = design?.faces ?? [];
-  const [state, setState] = useState<FormState>(() => {
-    const i = existing?.inputs;
-    return {
-      name: i?.name ?? (props.offers.length === 0 ? "Design as laid out" : `Option ${props.offers.length + 1}`),
-      counts: Object.fromEntries(faces.map((f) => [f.id, String(i?.faceCounts?.find((c) => c.faceId === f.id)?.moduleCount ?? f.moduleCount)])),
-      moduleId: i?.moduleId ?? design?.moduleId ?? "",
-      inverterId: i?.inverterId ?? design?.inverterId ?? "",
-      adderIds: i?.adderIds ?? [],
-      lineItemIds: i?.lineItemIds ?? [],
-      discountDollars: i && i.discountCents > 0 ? String(i.discountCents / 100) : "",
-      discountReason: i?.discountReason ?? "",
-      paymentKind: i?.payment.kind ?? "cash",
-      aprPct: i?.payment.kind === "loan" ? String(i.payment.aprPct) : "6.99",
-      termMonths: i?.payment.kind === "loan" ? String(i.payment.termMonths) : "240",
-      dealerFeePct: i?.payment.kind === "loan" ? String(i.payment.dealerFeePct) : "0",
-      ratePlanId: i?.ratePlanId ?? props.dealRatePlanId ?? props.ratePlans[0]?.id ?? "",
-    };
-  });
-  const [fields, setFields] = useState<Record<string, string>>({});
-  const save = useSave<OfferInputsInput>({
-    request: (inputs) => (existing ? { url: `/api/offers/${existing.id}`, method: "PUT", json: { inputs } } : { url: "/api/offers", method: "POST", json: { dealId, inputs } }),
-    fieldPrefix: "inputs.",
-    onFieldErrors: (f) => setFields(fieldErrorsToErrors(f)),
-    onSaved: () => props.onClose(),
-  });
-  const busy = save.pending;
-  const set = (patch: Partial<FormState>) => setState((s) => ({ ...s, ...patch }));
-  const toggle = (list: string[], id: string) => (list.includes(id) ? list.filter((x) => x !== id) : [...list, id]);
+/** The form as it opens: the offer's saved inputs, or the design as laid out for a new one. */
+function initialFormState(props: Props & { existing: OfferView | null }, faces: DesignView["faces"]): FormState {
+  const { existing, design } = props;
+  const i = existing?.inputs;
+  return {
+    name: i?.name ?? (props.offers.length === 0 ? "Design as laid out" : `Option ${props.offers.length + 1}`),
+    counts: Object.fromEntries(faces.map((f) => [f.id, String(i?.faceCounts?.find((c) => c.faceId === f.id)?.moduleCount ?? f.moduleCount)])),
+    moduleId: i?.moduleId ?? design?.moduleId ?? "",
+    inverterId: i?.inverterId ?? design?.inverterId ?? "",
+    adderIds: i?.adderIds ?? [],
+    lineItemIds: i?.lineItemIds ?? [],
+    discountDollars: i && i.discountCents > 0 ? String(i.discountCents / 100) : "",
+    discountReason: i?.discountReason ?? "",
+    paymentKind: i?.payment.kind ?? "cash",
+    aprPct: i?.payment.kind === "loan" ? String(i.payment.aprPct) : "6.99",
+    termMonths: i?.payment.kind === "loan" ? String(i.payment.termMonths) : "240",
+    dealerFeePct: i?.payment.kind === "loan" ? String(i.payment.dealerFeePct) : "0",
+    ratePlanId: i?.ratePlanId ?? props.dealRatePlanId ?? props.ratePlans[0]?.id ?? "",
+  };
+}
 
-  function inputs(): OfferInputsInput {
-    const sameCounts = faces.every((f) => toNumber(state.counts[f.id] ?? "") === f.moduleCount);
-    const dollars = state.discountDollars.trim() === "" ? 0 : toNumber(state.discountDollars);
-    return {
-      name: state.name,
-      faceCounts: sameCounts ? null : faces.map((f) => ({ faceId: f.id, moduleCount: toNumber(state.counts[f.id] ?? "") })),
-      moduleId: state.moduleId === design?.moduleId ? null : state.moduleId,
-      inverterId: state.inverterId === design?.inverterId ? null : state.inverterId,
-      adderIds: state.adderIds,
-      lineItemIds: state.lineItemIds,
-      discountCents: Math.round(dollars * 100),
-      discountReason: state.discountReason,
-      payment: state.paymentKind === "cash" ? { kind: "cash" } : { kind: "loan", aprPct: toNumber(state.aprPct), termMonths: toNumber(state.termMonths), dealerFeePct: toNumber(state.dealerFeePct) },
-      ratePlanId: state.ratePlanId === props.dealRatePlanId || state.ratePlanId === "" ? null : state.ratePlanId,
-    };
-  }
+/** The form's text as the inputs the server checks; what matches the design or the deal is sent as null. */
+function formInputs(state: FormState, faces: DesignView["faces"], design: DesignView | null, dealRatePlanId: string | null): OfferInputsInput {
+  const sameCounts = faces.every((f) => toNumber(state.counts[f.id] ?? "") === f.moduleCount);
+  const dollars = state.discountDollars.trim() === "" ? 0 : toNumber(state.discountDollars);
+  return {
+    name: state.name,
+    faceCounts: sameCounts ? null : faces.map((f) => ({ faceId: f.id, moduleCount: toNumber(state.counts[f.id] ?? "") })),
+    moduleId: state.moduleId === design?.moduleId ? null : state.moduleId,
+    inverterId: state.inverterId === design?.inverterId ? null : state.inverterId,
+    adderIds: state.adderIds,
+    lineItemIds: state.lineItemIds,
+    discountCents: Math.round(dollars * 100),
+    discountReason: state.discountReason,
+    payment: state.paymentKind === "cash" ? { kind: "cash" } : { kind: "loan", aprPct: toNumber(state.aprPct), termMonths: toNumber(state.termMonths), dealerFeePct: toNumber(state.dealerFeePct) },
+    ratePlanId: state.ratePlanId === dealRatePlanId || state.ratePlanId === "" ? null : state.ratePlanId,
+  };
+}
 
-  // The live preview: the same computation as a save, asked again whenever the inputs settle.
+/** The live preview: the same computation as a save, asked again whenever the inputs settle. */
+function useOfferPreview(dealId: string, state: FormState, inputs: () => OfferInputsInput) {
   const [preview, setPreview] = useState<Preview | null>(null);
   const [previewError, setPreviewError] = useState<string | null>(null);
   const [previewBusy, setPreviewBusy] = useState(false);
@@ -320,6 +311,24 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
     };
     // inputs() reads only `state` (and props that do not change while the form is open).
   }, [state]);
+  return { preview, previewError, previewBusy };
+}
+
+function OfferForm(props: Props & { existing: OfferView | null; onClose: () => void }) {
+  const { existing, design, dealId } = props;
+  const faces = design?.faces ?? [];
+  const [state, setState] = useState<FormState>(() => initialFormState(props, faces));
+  const [fields, setFields] = useState<Record<string, string>>({});
+  const save = useSave<OfferInputsInput>({
+    request: (inputs) => (existing ? { url: `/api/offers/${existing.id}`, method: "PUT", json: { inputs } } : { url: "/api/offers", method: "POST", json: { dealId, inputs } }),
+    fieldPrefix: "inputs.",
+    onFieldErrors: (f) => setFields(fieldErrorsToErrors(f)),
+    onSaved: () => props.onClose(),
+  });
+  const busy = save.pending;
+  const set = (patch: Partial<FormState>) => setState((s) => ({ ...s, ...patch }));
+  const inputs = () => formInputs(state, faces, design, props.dealRatePlanId);
+  const { preview, previewError, previewBusy } = useOfferPreview(dealId, state, inputs);
 
   function submit(e: React.FormEvent) {
     e.preventDefault();
@@ -337,67 +346,16 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
         <SelectField id="offer-inverter" label="Inverter" value={state.inverterId} error={err("inverterId")} options={optionsOf(props.inverters)} onChange={(e) => set({ inverterId: e.target.value })} />
       </div>
 
-      <fieldset>
-        <legend className="field-label">Modules per roof face</legend>
-        <div className="grid gap-3 sm:grid-cols-3">
-          {faces.map((f, i) => (
-            <Field
-              key={f.id}
-              id={`offer-face-${i + 1}`}
-              label={`${f.name} (of ${f.usableSlots} slots)`}
-              value={state.counts[f.id] ?? ""}
-              error={err(`faceCounts.${i}.moduleCount`)}
-              inputMode="numeric"
-              onChange={(e) => set({ counts: { ...state.counts, [f.id]: e.target.value } })}
-            />
-          ))}
-        </div>
-        {err("faceCounts") ? <p className="field-error">{err("faceCounts")}</p> : null}
-      </fieldset>
+      <FaceCountsFields faces={faces} state={state} set={set} err={err} />
 
-      {props.adders.length + props.lineItems.length > 0 ? (
-        <fieldset>
-          <legend className="field-label">Adders and line items</legend>
-          <div className="grid gap-1 sm:grid-cols-2">
-            {props.adders.map((a) => (
-              <label key={a.id} className="flex min-h-touch items-center gap-2">
-                <input type="checkbox" checked={state.adderIds.includes(a.id)} onChange={() => set({ adderIds: toggle(state.adderIds, a.id) })} />
-                {a.name}
-              </label>
-            ))}
-            {props.lineItems.map((l) => (
-              <label key={l.id} className="flex min-h-touch items-center gap-2">
-                <input type="checkbox" checked={state.lineItemIds.includes(l.id)} onChange={() => set({ lineItemIds: toggle(state.lineItemIds, l.id) })} />
-                {l.name} <span className="figure text-sm text-graphite-soft">{formatCents(l.amountCents)}</span>
-              </label>
-            ))}
-          </div>
-        </fieldset>
-      ) : null}
+      <ExtrasFields adders={props.adders} lineItems={props.lineItems} state={state} set={set} />
 
       <div className="grid gap-4 sm:grid-cols-2">
         <Field id="offer-discount" label="Discount ($)" value={state.discountDollars} error={err("discountCents")} inputMode="decimal" onChange={(e) => set({ discountDollars: e.target.value })} hint="Beyond your limit it goes to the office for approval." />
         <Field id="offer-discount-reason" label="Reason for the discount" value={state.discountReason} error={err("discountReason")} onChange={(e) => set({ discountReason: e.target.value })} />
       </div>
 
-      <fieldset>
-        <legend className="field-label">Payment</legend>
-        <div className="flex flex-wrap gap-4">
-          <label className="flex min-h-touch items-center gap-2">
-            <input type="radio" name="payment" checked={state.paymentKind === "cash"} onChange={() => set({ paymentKind: "cash" })} /> Cash
-          </label>
-          <label className="flex min-h-touch items-center gap-2">
-            <input type="radio" name="payment" checked={state.paymentKind === "loan"} onChange={() => set({ paymentKind: "loan" })} /> Loan
-          </label>
-        </div>
-        {state.paymentKind === "loan" ? (
-          <div className="mt-2 grid gap-4 sm:grid-cols-3">
-            <Field id="offer-apr" label="APR (%)" value={state.aprPct} error={err("payment.aprPct")} inputMode="decimal" onChange={(e) => set({ aprPct: e.target.value })} />
-            <Field id="offer-term" label="Term (months)" value={state.termMonths} error={err("payment.termMonths")} inputMode="numeric" onChange={(e) => set({ termMonths: e.target.value })} />
-            <Field id="offer-dealer-fee" label="Dealer fee (%)" value={state.dealerFeePct} error={err("payment.dealerFeePct")} inputMode="decimal" onChange={(e) => set({ dealerFeePct: e.target.value })} />
-          </div>
-        ) : null}
-      </fieldset>
+      <PaymentFields state={state} set={set} err={err} />
 
       <SelectField
         id="offer-rate-plan"
@@ -421,6 +379,78 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
         </button>
       </div>
     </form>
+  );
+}
+
+type FormParts = { state: FormState; set: (patch: Partial<FormState>) => void; err: (key: string) => string | undefined };
+
+function FaceCountsFields({ faces, state, set, err }: FormParts & { faces: DesignView["faces"] }) {
+  return (
+    <fieldset>
+      <legend className="field-label">Modules per roof face</legend>
+      <div className="grid gap-3 sm:grid-cols-3">
+        {faces.map((f, i) => (
+          <Field
+            key={f.id}
+            id={`offer-face-${i + 1}`}
+            label={`${f.name} (of ${f.usableSlots} slots)`}
+            value={state.counts[f.id] ?? ""}
+            error={err(`faceCounts.${i}.moduleCount`)}
+            inputMode="numeric"
+            onChange={(e) => set({ counts: { ...state.counts, [f.id]: e.target.value } })}
+          />
+        ))}
+      </div>
+      {err("faceCounts") ? <p className="field-error">{err("faceCounts")}</p> : null}
+    </fieldset>
+  );
+}
+
+const toggle = (list: string[], id: string) => (list.includes(id) ? list.filter((x) => x !== id) : [...list, id]);
+
+function ExtrasFields({ adders, lineItems, state, set }: Omit<FormParts, "err"> & Pick<Props, "adders" | "lineItems">) {
+  if (adders.length + lineItems.length === 0) return null;
+  return (
+    <fieldset>
+      <legend className="field-label">Adders and line items</legend>
+      <div className="grid gap-1 sm:grid-cols-2">
+        {adders.map((a) => (
+          <label key={a.id} className="flex min-h-touch items-center gap-2">
+            <input type="checkbox" checked={state.adderIds.includes(a.id)} onChange={() => set({ adderIds: toggle(state.adderIds, a.id) })} />
+            {a.name}
+          </label>
+        ))}
+        {lineItems.map((l) => (
+          <label key={l.id} className="flex min-h-touch items-center gap-2">
+            <input type="checkbox" checked={state.lineItemIds.includes(l.id)} onChange={() => set({ lineItemIds: toggle(state.lineItemIds, l.id) })} />
+            {l.name} <span className="figure text-sm text-graphite-soft">{formatCents(l.amountCents)}</span>
+          </label>
+        ))}
+      </div>
+    </fieldset>
+  );
+}
+
+function PaymentFields({ state, set, err }: FormParts) {
+  return (
+    <fieldset>
+      <legend className="field-label">Payment</legend>
+      <div className="flex flex-wrap gap-4">
+        <label className="flex min-h-touch items-center gap-2">
+          <input type="radio" name="payment" checked={state.paymentKind === "cash"} onChange={() => set({ paymentKind: "cash" })} /> Cash
+        </label>
+        <label className="flex min-h-touch items-center gap-2">
+          <input type="radio" name="payment" checked={state.paymentKind === "loan"} onChange={() => set({ paymentKind: "loan" })} /> Loan
+        </label>
+      </div>
+      {state.paymentKind === "loan" ? (
+        <div className="mt-2 grid gap-4 sm:grid-cols-3">
+          <Field id="offer-apr" label="APR (%)" value={state.aprPct} error={err("payment.aprPct")} inputMode="decimal" onChange={(e) => set({ aprPct: e.target.value })} />
+          <Field id="offer-term" label="Term (months)" value={state.termMonths} error={err("payment.termMonths")} inputMode="numeric" onChange={(e) => set({ termMonths: e.target.value })} />
+          <Field id="offer-dealer-fee" label="Dealer fee (%)" value={state.dealerFeePct} error={err("payment.dealerFeePct")} inputMode="decimal" onChange={(e) => set({ dealerFeePct: e.target.value })} />
+        </div>
+      ) : null}
+    </fieldset>
   );
 }
 

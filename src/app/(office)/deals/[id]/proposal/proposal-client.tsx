@@ -106,6 +106,16 @@ export function ProposalClient({ dealId, householdEmail, hasDesign, offers, vers
   );
 }
 
+/** The form's own checks before it asks the server (which checks the same again). */
+function sendFormErrors(picked: string[], toEmail: string, days: number): Record<string, string> {
+  const found: Record<string, string> = {};
+  if (picked.length === 0) found.offerIds = "Pick at least one offer";
+  if (picked.length > 3) found.offerIds = "A proposal holds at most 3 offers";
+  if (!/^[^@\s]+@[^@\s]+\.[^@\s]+$/.test(toEmail.trim())) found.toEmail = "Enter a valid e-mail address";
+  if (!Number.isInteger(days) || days < 1 || days > 90) found.validDays = "1 to 90 whole days";
+  return found;
+}
+
 function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; householdEmail: string; offers: OfferChoice[]; live: VersionView | null }) {
   const [picked, setPicked] = useState<string[]>(() => offers.filter((o) => !o.blockedReason).map((o) => o.id));
   const [toEmail, setToEmail] = useState(householdEmail);
@@ -136,11 +146,7 @@ function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; ho
     e.preventDefault();
     setOutcome(null);
     const days = Number(validDays);
-    const found: Record<string, string> = {};
-    if (picked.length === 0) found.offerIds = "Pick at least one offer";
-    if (picked.length > 3) found.offerIds = "A proposal holds at most 3 offers";
-    if (!/^[^@\s]+@[^@\s]+\.[^@\s]+$/.test(toEmail.trim())) found.toEmail = "Enter a valid e-mail address";
-    if (!Number.isInteger(days) || days < 1 || days > 90) found.validDays = "1 to 90 whole days";
+    const found = sendFormErrors(picked, toEmail, days);
     setErrors(found);
     if (Object.keys(found).length > 0) return;
     send.save({ dealId, offerIds: offers.filter((o) => picked.includes(o.id)).map((o) => o.id), toEmail: toEmail.trim(), message, validDays: days, inHomeSale });
@@ -156,28 +162,7 @@ function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; ho
           Sending makes version {live.version + 1}. The link of {live.label} then shows that it was replaced and can no longer be signed.
         </p>
       ) : null}
-      <fieldset>
-        <legend className="field-label">Offers to include</legend>
-        <div className="space-y-2">
-          {offers.map((o) => (
-            <label key={o.id} className={`flex min-h-touch items-center gap-3 rounded-md border border-paper-line px-3 ${o.blockedReason ? "bg-paper-deep text-graphite-soft" : "bg-white"}`}>
-              <input type="checkbox" className="h-5 w-5 accent-copper" checked={picked.includes(o.id)} disabled={!!o.blockedReason} onChange={(e) => toggle(o.id, e.target.checked)} />
-              <span className="flex-1 py-2">
-                <span className="block font-medium">{o.name}</span>
-                <span className="block text-sm">
-                  <span className="figure">{o.kwDc.toFixed(2)} kW DC</span> · <span className="figure">{formatCents(o.contractCents)}</span>
-                  {o.blockedReason ? ` · ${o.blockedReason}` : ""}
-                </span>
-              </span>
-            </label>
-          ))}
-        </div>
-        {errors.offerIds ? (
-          <p className="field-error" role="alert">
-            {errors.offerIds}
-          </p>
-        ) : null}
-      </fieldset>
+      <OfferPicker offers={offers} picked={picked} onToggle={toggle} error={errors.offerIds} />
       <div className="grid gap-4 sm:grid-cols-2">
         <Field id="proposal-to" label="Send to (e-mail)" type="email" value={toEmail} error={errors.toEmail} onChange={(e) => setToEmail(e.target.value)} />
         <Field
@@ -211,9 +196,36 @@ function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; ho
   );
 }
 
+/** The offers to freeze into the proposal; one the rules block is shown but cannot be picked. */
+function OfferPicker({ offers, picked, onToggle, error }: { offers: OfferChoice[]; picked: string[]; onToggle: (id: string, on: boolean) => void; error?: string }) {
+  return (
+    <fieldset>
+      <legend className="field-label">Offers to include</legend>
+      <div className="space-y-2">
+        {offers.map((o) => (
+          <label key={o.id} className={`flex min-h-touch items-center gap-3 rounded-md border border-paper-line px-3 ${o.blockedReason ? "bg-paper-deep text-graphite-soft" : "bg-white"}`}>
+            <input type="checkbox" className="h-5 w-5 accent-copper" checked={picked.includes(o.id)} disabled={!!o.blockedReason} onChange={(e) => onToggle(o.id, e.target.checked)} />
+            <span className="flex-1 py-2">
+              <span className="block font-medium">{o.name}</span>
+              <span className="block text-sm">
+                <span className="figure">{o.kwDc.toFixed(2)} kW DC</span> · <span className="figure">{formatCents(o.contractCents)}</span>
+                {o.blockedReason ? ` · ${o.blockedReason}` : ""}
+              </span>
+            </span>
+          </label>
+        ))}
+      </div>
+      {error ? (
+        <p className="field-error" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </fieldset>
+  );
+}
+
 function VersionCard({ v }: { v: VersionView }) {
   const [note, setNote] = useState<Notice | null>(null);
-  const chosen = v.offers.find((o) => o.position === v.chosenPosition) ?? null;
   const canRevoke = v.state === "live";
   const canResend = v.state === "live" || v.state === "signed" || v.state === "cancelled";
   const revoke = useSave<void>({ request: () => ({ url: `/api/proposals/${v.id}/revoke`, method: "POST" }), notify: setNote, success: "Link revoked." });
@@ -233,62 +245,7 @@ function VersionCard({ v }: { v: VersionView }) {
           {STATUS_LABELS[v.status]}
         </Badge>
       </header>
-      <dl className="mt-2 grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[auto_1fr]">
-        <dt className="text-graphite-soft">Sent</dt>
-        <dd>
-          {formatDateTime(new Date(v.sentAt))} to {v.sentToEmail}
-          {v.sentByName ? ` by ${v.sentByName}` : ""}
-        </dd>
-        <dt className="text-graphite-soft">{v.state === "expired" ? "Expired" : "Link valid until"}</dt>
-        <dd>{formatDateTime(new Date(v.expiresAt))}</dd>
-        <dt className="text-graphite-soft">Offers</dt>
-        <dd>
-          {v.offers.map((o) => (
-            <span key={o.position} className="mr-3 inline-block">
-              {o.name} <span className="figure">{formatCents(o.contractCents)}</span>
-            </span>
-          ))}
-        </dd>
-        <dt className="text-graphite-soft">In-home sale</dt>
-        <dd>{v.inHomeSale ? "Yes: 3-business-day right to cancel" : "No"}</dd>
-        {v.signedAt ? (
-          <>
-            <dt className="text-graphite-soft">Signed</dt>
-            <dd>
-              {formatDateTime(new Date(v.signedAt))} by {v.signerName}
-              {chosen ? (
-                <>
-                  , &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>
-                </>
-              ) : null}
-            </dd>
-          </>
-        ) : null}
-        {v.cancelDeadline ? (
-          <>
-            <dt className="text-graphite-soft">May cancel until</dt>
-            <dd>{formatIsoDateLong(v.cancelDeadline)}</dd>
-          </>
-        ) : null}
-        {v.cancelledAt ? (
-          <>
-            <dt className="text-graphite-soft">Cancelled</dt>
-            <dd>{formatDateTime(new Date(v.cancelledAt))}</dd>
-          </>
-        ) : null}
-        {v.revokedAt ? (
-          <>
-            <dt className="text-graphite-soft">Revoked</dt>
-            <dd>{formatDate(new Date(v.revokedAt))}</dd>
-          </>
-        ) : null}
-        {v.replacedByLabel ? (
-          <>
-            <dt className="text-graphite-soft">Replaced by</dt>
-            <dd className="figure">{v.replacedByLabel}</dd>
-          </>
-        ) : null}
-      </dl>
+      <VersionFacts v={v} />
       <div className="mt-3 flex flex-wrap gap-2">
         <a href={`/api/proposals/${v.id}/pdf`} className="btn-quiet" download>
           Download PDF
@@ -320,28 +277,98 @@ function VersionCard({ v }: { v: VersionView }) {
           <StatusMessage notice={note} />
         </div>
       ) : null}
-      <details className="mt-3" open={v.state === "live" || v.state === "signed"}>
-        <summary className="cursor-pointer text-sm font-medium">Activity ({v.events.length})</summary>
-        <ol className="mt-2 space-y-2 text-sm" aria-label={`Activity of ${v.label}`}>
-          {v.events
-            .slice()
-            .reverse()
-            .map((e) => (
-              <li key={e.id} className="border-l-2 border-paper-line pl-3" data-testid={`event-${e.kind}`}>
-                <p>
-                  <span className="font-medium">{EVENT_LABELS[e.kind] ?? e.kind}</span>
-                  {e.actorName ? ` · ${e.actorName}` : ""}
-                  {e.kind !== "question" && e.body ? <span className="text-graphite-soft"> · {e.body}</span> : null}
-                </p>
-                {e.kind === "question" && e.body ? <p className="mt-1 whitespace-pre-wrap rounded bg-paper-deep px-2 py-1">&ldquo;{e.body}&rdquo;</p> : null}
-                <p className="text-xs text-graphite-soft">
-                  {formatDateTime(new Date(e.createdAt))}
-                  {e.ip ? ` · ${e.ip}` : ""}
-                </p>
-              </li>
-            ))}
-        </ol>
-      </details>
+      <VersionActivity v={v} />
     </article>
+  );
+}
+
+/** When and to whom a version went, what it held, and what happened to it since. */
+function VersionFacts({ v }: { v: VersionView }) {
+  const chosen = v.offers.find((o) => o.position === v.chosenPosition) ?? null;
+  return (
+    <dl className="mt-2 grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[auto_1fr]">
+      <dt className="text-graphite-soft">Sent</dt>
+      <dd>
+        {formatDateTime(new Date(v.sentAt))} to {v.sentToEmail}
+        {v.sentByName ? ` by ${v.sentByName}` : ""}
+      </dd>
+      <dt className="text-graphite-soft">{v.state === "expired" ? "Expired" : "Link valid until"}</dt>
+      <dd>{formatDateTime(new Date(v.expiresAt))}</dd>
+      <dt className="text-graphite-soft">Offers</dt>
+      <dd>
+        {v.offers.map((o) => (
+          <span key={o.position} className="mr-3 inline-block">
+            {o.name} <span className="figure">{formatCents(o.contractCents)}</span>
+          </span>
+        ))}
+      </dd>
+      <dt className="text-graphite-soft">In-home sale</dt>
+      <dd>{v.inHomeSale ? "Yes: 3-business-day right to cancel" : "No"}</dd>
+      {v.signedAt ? (
+        <>
+          <dt className="text-graphite-soft">Signed</dt>
+          <dd>
+            {formatDateTime(new Date(v.signedAt))} by {v.signerName}
+            {chosen ? (
+              <>
+                , &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>
+              </>
+            ) : null}
+          </dd>
+        </>
+      ) : null}
+      {v.cancelDeadline ? (
+        <>
+          <dt className="text-graphite-soft">May cancel until</dt>
+          <dd>{formatIsoDateLong(v.cancelDeadline)}</dd>
+        </>
+      ) : null}
+      {v.cancelledAt ? (
+        <>
+          <dt className="text-graphite-soft">Cancelled</dt>
+          <dd>{formatDateTime(new Date(v.cancelledAt))}</dd>
+        </>
+      ) : null}
+      {v.revokedAt ? (
+        <>
+          <dt className="text-graphite-soft">Revoked</dt>
+          <dd>{formatDate(new Date(v.revokedAt))}</dd>
+        </>
+      ) : null}
+      {v.replacedByLabel ? (
+        <>
+          <dt className="text-graphite-soft">Replaced by</dt>
+          <dd className="figure">{v.replacedByLabel}</dd>
+        </>
+      ) : null}
+    </dl>
+  );
+}
+
+/** What the customer and the office did with this version, newest first. */
+function VersionActivity({ v }: { v: VersionView }) {
+  return (
+    <details className="mt-3" open={v.state === "live" || v.state === "signed"}>
+      <summary className="cursor-pointer text-sm font-medium">Activity ({v.events.length})</summary>
+      <ol className="mt-2 space-y-2 text-sm" aria-label={`Activity of ${v.label}`}>
+        {v.events
+          .slice()
+          .reverse()
+          .map((e) => (
+            <li key={e.id} className="border-l-2 border-paper-line pl-3" data-testid={`event-${e.kind}`}>
+              <p>
+                <span className="font-medium">{EVENT_LABELS[e.kind] ?? e.kind}</span>
+                {e.actorName ? ` · ${e.actorName}` : ""}
+                {e.kind !== "question" && e.body ? <span className="text-graphite-soft"> · {e.body}</span> : null}
+              </p>
+              {e.kind === "question" && e.body ? <p className="mt-1 whitespace-pre-wrap rounded bg-paper-deep px-2 py-1">&ldquo;{e.body}&rdquo;</p> : null}
+              <p className="text-xs text-graphite-soft">
+                {formatDateTime(new Date(e.createdAt))}
+                {e.ip ? ` · ${e.ip}` : ""}
+              </p>
+            </li>
+          ))}
+      </ol>
+    </details>
   );
 }
