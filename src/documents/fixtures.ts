@@ -162,6 +162,7 @@ function buildOffer(spec: OfferSpec, usageHourly: readonly number[], perKw: Floa
     productionHourlyKwh: production,
     usageHourlyKwh: usageHourly,
     ratePlan: RATE_PLAN,
+    timeZone: "America/New_York",
     payment: spec.payment,
     adderIds: spec.adderIds,
     lineItemIds: spec.lineItemIds,

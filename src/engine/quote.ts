@@ -12,11 +12,12 @@ import { billSchema, fillMethodSchema, usageFromBills } from "./bills";
 import { spreadMonthlyToHourly } from "./load-shape";
 import { importIntervalData } from "./green-button";
 import { makeBillCalculator, ratePlanSchema, type AnnualBill } from "./rates";
+import { siteTimeZone } from "./site-time-zone";
 import { sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "./sizing";
 import { evaluateIncentives, incentiveRuleSchema, type IncentiveResult } from "./incentives";
 import { buildCashflow, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowResult } from "./cashflow";
 import { checkString, stringCheckInputSchema, CAUTION, type StringCheckResult } from "./string-check";
-import { HOURS_PER_YEAR, monthlySums } from "./year-calendar";
+import { HOURS_PER_YEAR, isTimeZone, monthlySums } from "./year-calendar";
 
 const isoDate = z
   .string()
@@ -48,6 +49,8 @@ export const quoteCaseSchema = z
       latitude: z.number().finite().min(-90).max(90),
       longitude: z.number().finite().min(-180).max(180),
       utcOffsetHours: z.number().finite().min(-12).max(14).optional(),
+      /** IANA time zone for time-of-use clock hours; default: looked up from the coordinates. */
+      timeZone: z.string().refine(isTimeZone, { message: "is not a known time zone (IANA name, e.g. America/New_York)" }).optional(),
     }),
     /** Weather file, path relative to the case file (read by the caller). */
     weather: z.object({ file: z.string().min(1) }),
@@ -287,7 +290,7 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
   if (dcAcRatio !== null && dcAcRatio > d.maxDcAcRatio) notes.push(`DC/AC ratio ${dcAcRatio.toFixed(2)} exceeds ${d.maxDcAcRatio}.`);
 
   // 4. Bills: year 1 without and with solar; with solar re-billed for each year's degraded output.
-  const bill = makeBillCalculator(c.ratePlan, calendarYear);
+  const bill = makeBillCalculator(c.ratePlan, { calendarYear, timeZone: c.site.timeZone ?? siteTimeZone(c.site.latitude, c.site.longitude) });
   const without = bill(usageHourly, null);
   const degraded = new Float64Array(HOURS_PER_YEAR);
   const withByYear: AnnualBill[] = [];

@@ -32,6 +32,7 @@ describe("computeOfferFigures (hand-worked)", () => {
     productionHourlyKwh: production,
     usageHourlyKwh: usage,
     ratePlan: flatPlan,
+    timeZone: "America/Denver",
     payment: { kind: "cash" as const },
     adderIds: ["trench"],
     lineItemIds: [],

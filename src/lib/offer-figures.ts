@@ -249,6 +249,8 @@ export type OfferFiguresInput = {
   /** Usage, 8760 hourly kWh. */
   usageHourlyKwh: ArrayLike<number>;
   ratePlan: RatePlanInput;
+  /** The site's IANA time zone: time-of-use hours are read on its wall clock. */
+  timeZone: string;
   payment: PaymentInput;
   adderIds: readonly string[];
   lineItemIds: readonly string[];
@@ -315,7 +317,7 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
   });
 
   const calendarYear = Number(input.asOf.slice(0, 4));
-  const bill = makeBillCalculator(input.ratePlan, calendarYear);
+  const bill = makeBillCalculator(input.ratePlan, { calendarYear, timeZone: input.timeZone });
   const without = bill(input.usageHourlyKwh, null);
   const produced = Float64Array.from(input.productionHourlyKwh);
   const degraded = new Float64Array(HOURS_PER_YEAR);

@@ -1,4 +1,5 @@
 import "server-only";
+import { siteTimeZone } from "@/engine/site-time-zone";
 import { createElement } from "react";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { deal, discountRequest, household, membership, offer, user, type Role } from "@/db/schema";
@@ -136,6 +137,7 @@ export async function computeOffer(member: Member, dealId: string, inputs: Offer
       productionHourlyKwh: production.hourlyKwh,
       usageHourlyKwh: usage.hourlyKwh,
       ratePlan: plan.plan,
+      timeZone: siteTimeZone(site.latitude, site.longitude),
       payment: inputs.payment,
       adderIds: inputs.adderIds,
       lineItemIds: inputs.lineItemIds,
