@@ -54,6 +54,10 @@ describe("usageFromBills — spreading by day", () => {
     const result = usageFromBills({ bills: [{ startDate: "2023-01-01", endDate: "2023-01-31", kwh: 744 }] });
     expect(result.months[0]).toMatchObject({ status: "measured", coveredDays: 31, coverage: 1, kwh: 744 });
     expect(result.warnings.some((w) => w.includes("scaled up"))).toBe(false);
+    // Printed with meter-read dates (same day of the month at both ends): 1 March – 1 April is March.
+    const read = usageFromBills({ bills: [{ startDate: "2023-03-01", endDate: "2023-04-01", kwh: 620 }] });
+    expect(read.months[2]).toMatchObject({ coveredDays: 31, coverage: 1, kwh: 620 });
+    expect(read.months[3].coveredDays).toBe(0);
   });
 
   it("a month covered half or less keeps its billed kWh and fills only the uncovered days", () => {
@@ -78,7 +82,8 @@ describe("usageFromBills — spreading by day", () => {
     const year = usageFromBills({ bills: bills(12) });
     expect(year.measuredMonths).toBe(12);
     expect(year.warnings.some((w) => w.includes("more than a year"))).toBe(false);
-    // The last bill's end date (2024-01-14) is no one's start: it counts, so 366 days → still a year.
+    // The last bill (2023-12-14 – 2024-01-14) has the same day of the month at both ends: read dates too.
+    expect(year.months.reduce((a, m) => a + m.coveredDays, 0)).toBe(365);
     const more = usageFromBills({ bills: bills(13) });
     expect(more.warnings.some((w) => w.includes("more than a year"))).toBe(true);
   });
@@ -108,7 +113,7 @@ describe("usageFromBills — errors name the bills", () => {
     const issues = issuesOf(() =>
       usageFromBills({
         bills: [
-          { id: "Jan", startDate: "2023-01-01", endDate: "2023-02-01", kwh: 500 }, // 1 Jan – 1 Feb, both included
+          { id: "Jan", startDate: "2023-01-01", endDate: "2023-01-31", kwh: 500 },
           { id: "Late Jan", startDate: "2023-01-25", endDate: "2023-02-25", kwh: 500 },
         ],
       }),
@@ -117,7 +122,7 @@ describe("usageFromBills — errors name the bills", () => {
     expect(issues[0].path).toBe("bills.1.startDate");
     expect(issues[0].message).toContain('"Late Jan"');
     expect(issues[0].message).toContain('"Jan"');
-    expect(issues[0].message).toContain("8 day(s)"); // 25 January – 1 February
+    expect(issues[0].message).toContain("7 day(s)"); // 25 – 31 January
   });
 
   it("rejects impossible periods and kWh, every bad bill at once", () => {
@@ -125,7 +130,7 @@ describe("usageFromBills — errors name the bills", () => {
       usageFromBills({
         bills: [
           { startDate: "2023-03-01", endDate: "2023-02-01", kwh: 500 },
-          { startDate: "2023-04-01", endDate: "2023-09-01", kwh: 500 },
+          { startDate: "2023-04-01", endDate: "2023-09-02", kwh: 500 },
           { startDate: "2023-10-01", endDate: "2023-11-01", kwh: 0 },
           { startDate: "2023-11-01", endDate: "2023-12-01", kwh: -4 },
         ],
@@ -133,7 +138,7 @@ describe("usageFromBills — errors name the bills", () => {
     );
     expect(issues.map((i) => i.path)).toEqual(["bills.0.endDate", "bills.1.endDate", "bills.2.kwh", "bills.3.kwh"]);
     expect(issues[0].message).toContain("bill 1");
-    expect(issues[1].message).toContain("154-day"); // 1 April – 1 September, both included
+    expect(issues[1].message).toContain("155-day"); // 1 April – 2 September, both included
   });
 
   it("rejects malformed dates via the schema", () => {

@@ -3,9 +3,10 @@
  *
  * Day counting: a bill covers its start date through its end date, both days included, as a
  * person reads "1 January – 31 January" (31 days, a full January). Bills printed with meter-read
- * dates (read on 14 January, next read on 14 February, the next bill starting 14 February)
- * share their boundary day: where a bill starts on another bill's end date, that day counts
- * once, in the later bill. Each bill's kWh is spread evenly over its days (kWh per day = kWh /
+ * dates (read on 14 January, next read on 14 February, the next bill starting 14 February) are
+ * recognised two ways, and then their end date is the next period's first day, not theirs: the
+ * end date falls on the same day of the month as the start (14 January – 14 February, 1 March –
+ * 1 April), or another bill starts on it (the boundary day counts once, in the later bill). Each bill's kWh is spread evenly over its days (kWh per day = kWh /
  * days) and each day's share is added to its calendar month.
  *
  * A calendar month is "measured" when bills cover more than half of its days
@@ -127,14 +128,17 @@ function billName(bill: Bill, index: number): string {
 }
 
 /**
- * The days each bill covers, [first, last + 1) as day numbers: start through end inclusive,
- * except that a bill's end date is left to the bill that starts on it (meter-read dates).
+ * The days each bill covers, [first, end) as day numbers: start through end date inclusive,
+ * except for meter-read dates (same day of the month at both ends, or the end date is another
+ * bill's start), whose end date is the next period's first day.
  */
 function billSpans(bills: Bill[]): { first: number; end: number }[] {
-  const starts = new Set(bills.map((b) => dayNumber(b.startDate)));
+  const starts = new Set(bills.map((b) => b.startDate));
   return bills.map((b) => {
+    const first = dayNumber(b.startDate);
     const last = dayNumber(b.endDate);
-    return { first: dayNumber(b.startDate), end: starts.has(last) && last > dayNumber(b.startDate) ? last : last + 1 };
+    const readDates = last > first && (starts.has(b.endDate) || b.endDate.slice(8) === b.startDate.slice(8));
+    return { first, end: readDates ? last : last + 1 };
   });
 }
 
