@@ -13,7 +13,7 @@ import { spreadMonthlyToHourly } from "./load-shape";
 import { importIntervalData } from "./green-button";
 import { makeBillCalculator, ratePlanSchema, type AnnualBill } from "./rates";
 import { siteTimeZone } from "./site-time-zone";
-import { sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "./sizing";
+import { dcAcRatioWarning, sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "./sizing";
 import { evaluateIncentives, incentiveRuleSchema, type IncentiveResult } from "./incentives";
 import { buildCashflow, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowResult } from "./cashflow";
 import { checkString, stringCheckInputSchema, CAUTION, type StringCheckResult } from "./string-check";
@@ -286,8 +286,9 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
   const productionHourly = Float64Array.from(production.hourlyAcKwh);
   const productionMonthly = monthlySums(productionHourly);
   const annualProduction = sum(productionMonthly);
-  const dcAcRatio = d.inverter.kind === "string" ? kwDc / d.inverter.acKw : null;
-  if (dcAcRatio !== null && dcAcRatio > d.maxDcAcRatio) notes.push(`DC/AC ratio ${dcAcRatio.toFixed(2)} exceeds ${d.maxDcAcRatio}.`);
+  const dcAcRatio = d.inverter.kind === "string" ? kwDc / d.inverter.acKw : d.module.watts / d.inverter.acWattsPerModule;
+  const dcAcNote = dcAcRatioWarning(d.inverter.kind, dcAcRatio, d.inverter.kind === "string" ? d.maxDcAcRatio : undefined);
+  if (dcAcNote) notes.push(dcAcNote);
 
   // 4. Bills: year 1 without and with solar; with solar re-billed for each year's degraded output.
   const bill = makeBillCalculator(c.ratePlan, { calendarYear, timeZone: c.site.timeZone ?? siteTimeZone(c.site.latitude, c.site.longitude) });
