@@ -130,7 +130,7 @@ const OFFERS: OfferSpec[] = [
     adderIds: ["steep-roof"],
     lineItemIds: ["critter-guard"],
     discountCents: 0,
-    payment: { kind: "loan", aprPct: 6.99, termMonths: 240, dealerFeePct: 12 },
+    payment: { kind: "loan", aprPct: 6.99, termMonths: 240, dealerFeePct: 12, downPaymentCents: null },
   },
   {
     position: 3,

@@ -172,10 +172,17 @@ export type QuoteResult = {
     netPriceCents: number;
     year1SavingsCents: number;
     lifetimeSavingsCents: number;
+    /** Year the cumulative cash flow turns positive (escalation, degradation, loan payments included). */
     paybackYears: number | null;
+    /** Net cost ÷ year-1 savings. */
+    simplePaybackYears: number | null;
+    /** ROI's denominator: down payment or price, loan payments and upkeep, less incentives received. */
+    roiBasisCents: number;
     simpleRoi: number | null;
     npvCents: number;
     irr: number | null;
+    /** Why irr is null ("not meaningful: …"). */
+    irrNote: string | null;
     lcoeCentsPerKwh: number | null;
     monthlyLoanPaymentCents: number | null;
   };
@@ -203,7 +210,9 @@ function checkHourly(name: string, series: ArrayLike<number>): void {
 export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): QuoteResult {
   const c = parseOrThrow(quoteCaseSchema, input, "quote case");
   const notes: string[] = [];
-  const a = c.assumptions;
+  // A loan is counted to its last payment: the analysis runs at least its term.
+  const loanYears = c.financing.kind === "loan" ? Math.ceil(c.financing.termMonths / 12) : 0;
+  const a = { ...c.assumptions, years: Math.max(c.assumptions.years, loanYears) };
   const calendarYear = a.calendarYear ?? Number(c.asOf.slice(0, 4));
 
   // 1. Usage: 8760 hourly kWh.
@@ -301,6 +310,7 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
     withByYear.push(bill(usageHourly, degraded));
   }
   const withYear1 = withByYear[0];
+  if (a.years > c.assumptions.years) notes.push(`The table runs ${a.years} years, the loan's term, instead of ${c.assumptions.years}, so every loan payment is counted.`);
 
   // 5. Price, incentives, cash flow.
   const addersCents = c.price.adders.reduce((s, x) => s + x.amountCents, 0);
@@ -374,9 +384,12 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
       year1SavingsCents: without.totalCents - withYear1.totalCents,
       lifetimeSavingsCents: s.lifetimeSavingsCents,
       paybackYears: s.paybackYears === null ? null : round(s.paybackYears, 2),
+      simplePaybackYears: s.simplePaybackYears === null ? null : round(s.simplePaybackYears, 2),
       simpleRoi: s.simpleRoi === null ? null : round(s.simpleRoi, 4),
+      roiBasisCents: s.netCostCents,
       npvCents: s.npvCents,
       irr: s.irr === null ? null : round(s.irr, 6),
+      irrNote: s.irrNote,
       lcoeCentsPerKwh: s.lcoeCentsPerKwh === null ? null : round(s.lcoeCentsPerKwh, 2),
       monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
     },

@@ -63,10 +63,39 @@ describe("computeOfferFigures (hand-worked)", () => {
     expect(f.discountNeedsApproval).toBe(false);
   });
 
-  it("a 0 % loan over 120 months pays the contract less upfront incentives in equal parts", () => {
-    const f = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0 } });
-    // $12,500 / 120 = $104.1667 → 10,417 ¢ (rounded to the cent).
-    expect(f.summary.monthlyLoanPaymentCents).toBe(10_417);
+  it("a 0 % loan over 120 months pays the contract less the deposit (the down payment) in equal parts", () => {
+    const f = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0, downPaymentCents: null } });
+    // The $1,000 deposit paid at signing is the down payment: ($12,500 − $1,000) / 120 = $95.8333 → 9,583 ¢.
+    expect(f.summary.monthlyLoanPaymentCents).toBe(9_583);
+    expect(f.summary.downPaymentCents).toBe(100_000);
+    // Year 0 shows the down payment.
+    expect(f.rows[0]).toMatchObject({ year: 0, systemPaymentCents: 100_000, cashFlowCents: -100_000 });
+    // A larger down payment: ($12,500 − $3,000) / 120 = $79.1667 → 7,917 ¢.
+    const more = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0, downPaymentCents: 300_000 } });
+    expect(more.summary.monthlyLoanPaymentCents).toBe(7_917);
+  });
+
+  it("refuses a down payment below the deposit paid at signing", () => {
+    expect(() => computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 5, termMonths: 120, dealerFeePct: 0, downPaymentCents: 50_000 } })).toThrow(
+      /payment.downPaymentCents: the \$1,000(\.00)? deposit is paid at signing/,
+    );
+  });
+
+  it("a loan longer than the analysis lengthens the table instead of dropping payments", () => {
+    const f = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 4, termMonths: 360, dealerFeePct: 0, downPaymentCents: null } });
+    // noDrift keeps 25 years; the 30-year loan makes the table 30 years (rows 0–30).
+    expect(f.rows).toHaveLength(31);
+    expect(f.rows[30].systemPaymentCents).toBeGreaterThan(0);
+    expect(f.notes.some((n) => n.startsWith("The table runs 30 years"))).toBe(true);
+    expect(f.assumptions.years).toBe(30);
+  });
+
+  it("simple payback = net cost ÷ year-1 savings; ROI's basis is what the homeowner pays", () => {
+    const f = computeOfferFigures(base);
+    // Cash: net cost = the year-0 outlay less incentives received later (no loan, no upkeep here).
+    const laterIncentives = f.rows.slice(1).reduce((a, r) => a + r.incentivesCents, 0);
+    expect(f.summary.roiBasisCents).toBe(-f.rows[0].cashFlowCents - laterIncentives);
+    expect(f.summary.simplePaybackYears).toBeCloseTo(f.summary.roiBasisCents! / f.summary.year1SavingsCents, 2);
   });
 
   it("flags a discount beyond the rep's limit and still prices it", () => {

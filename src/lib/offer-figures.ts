@@ -13,7 +13,8 @@ import { makeBillCalculator, type RatePlanInput } from "@/engine/rates";
 import { sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "@/engine/sizing";
 import { checkString, maxModulesInSeries, CAUTION as STRING_CAUTION, type StringCheckResult } from "@/engine/string-check";
 import { HOURS_PER_YEAR, HOUR_MONTH, MONTH_DAYS, monthlySums } from "@/engine/year-calendar";
-import { priceOffer, type OfferPrice } from "@/lib/pricing";
+import { formatCents } from "@/lib/format";
+import { priceOffer, PricingInputError, type OfferPrice } from "@/lib/pricing";
 import type { DesignFace } from "@/lib/schemas/design";
 import type { PaymentInput } from "@/lib/schemas/offer";
 import { incentiveRulesForEngine, type PriceBook } from "@/lib/schemas/price-book";
@@ -273,7 +274,14 @@ export type OfferSummary = {
   netCostCents: number;
   monthlyLoanPaymentCents: number | null;
   year1SavingsCents: number;
+  /** Year the cumulative cash flow turns positive (escalation, degradation and loan payments included). */
   paybackYears: number | null;
+  /** Net cost ÷ year-1 savings (figures saved before this field have none). */
+  simplePaybackYears?: number | null;
+  /** Paid at signing and taken off the loan (loans only). */
+  downPaymentCents?: number | null;
+  /** ROI's denominator: what the homeowner pays for the system over the table (down payment or price, loan payments, upkeep) less incentives received. */
+  roiBasisCents?: number;
   simpleRoi: number | null;
   /** Bill savings over the table's years. */
   lifetimeSavingsCents: number;
@@ -281,6 +289,8 @@ export type OfferSummary = {
   lifetimeNetCents: number;
   npvCents: number;
   irr: number | null;
+  /** Why there is no IRR ("not meaningful: …"). */
+  irrNote?: string | null;
   lcoeCentsPerKwh: number | null;
 };
 
@@ -316,6 +326,18 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     role: input.role,
   });
 
+  // A loan is counted to its last payment: the analysis runs at least its term.
+  const loanYears = input.payment.kind === "loan" ? Math.ceil(input.payment.termMonths / 12) : 0;
+  if (loanYears > a.years) {
+    notes.push(`The table runs ${loanYears} years, the loan's term, instead of the usual ${a.years}, so every loan payment is counted.`);
+    a.years = loanYears;
+  }
+  const downPaymentCents = input.payment.kind === "loan" ? (input.payment.downPaymentCents ?? price.depositCents) : 0;
+  if (input.payment.kind === "loan" && downPaymentCents < price.depositCents) {
+    throw new PricingInputError("payment.downPaymentCents", `the ${formatCents(price.depositCents)} deposit is paid at signing and counts toward the price, so the down payment is at least that`);
+  }
+  if (downPaymentCents > price.contractCents) throw new PricingInputError("payment.downPaymentCents", "the down payment is more than the price");
+
   const calendarYear = Number(input.asOf.slice(0, 4));
   const bill = makeBillCalculator(input.ratePlan, { calendarYear, timeZone: input.timeZone });
   const without = bill(input.usageHourlyKwh, null);
@@ -349,7 +371,7 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     payment:
       input.payment.kind === "cash"
         ? { kind: "cash" }
-        : { kind: "loan", aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added", downPaymentCents: 0 },
+        : { kind: "loan", aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added", downPaymentCents },
     year1ProductionKwh: annualProduction,
     degradationPctPerYear: a.degradationPctPerYear,
     billWithoutSolarCents: without.totalCents,
@@ -377,11 +399,15 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
       monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
       year1SavingsCents: without.totalCents - withByYear[0].totalCents,
       paybackYears: s.paybackYears === null ? null : round(s.paybackYears, 2),
+      simplePaybackYears: s.simplePaybackYears === null ? null : round(s.simplePaybackYears, 2),
+      downPaymentCents: input.payment.kind === "loan" ? downPaymentCents : null,
+      roiBasisCents: s.netCostCents,
       simpleRoi: s.simpleRoi === null ? null : round(s.simpleRoi, 4),
       lifetimeSavingsCents: s.lifetimeSavingsCents,
       lifetimeNetCents: last.cumulativeCents,
       npvCents: s.npvCents,
       irr: s.irr === null ? null : round(s.irr, 6),
+      irrNote: s.irrNote,
       lcoeCentsPerKwh: s.lcoeCentsPerKwh === null ? null : round(s.lcoeCentsPerKwh, 2),
     },
     price,
