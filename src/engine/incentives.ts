@@ -3,15 +3,19 @@
  * and end date and optional eligibility. Nothing is hard-coded here; a company keeps its own
  * list (e.g. a federal tax credit of 30 % of the system cost, a utility rebate per watt).
  *
- * A rule applies when the evaluation date (usually the offer or contract date) lies within
- * [startDate, endDate], both inclusive, and the system meets its eligibility. An ended or
- * not-yet-started rule never appears among the applied incentives; it is listed as skipped
- * with the reason.
+ * Each rule says which date it counts on (`countsOn`): the offer date (a rebate reserved when
+ * the contract is signed) or the installation date (a credit that counts when the system is
+ * installed, e.g. the U.S. federal residential clean energy credit, 26 U.S.C. §25D, whose
+ * expenditures count when installation is complete, §25D(e)(8)). A rule applies when its date
+ * lies within [startDate, endDate], both inclusive, and the system meets its eligibility. An
+ * ended or not-yet-started rule never appears among the applied incentives; it is listed as
+ * skipped with the reason.
  *
- * Percent rules take a percentage of a basis: the gross price, or the price net of the
- * incentives applied before them in list order (e.g. a tax credit whose basis excludes a
- * utility rebate). Each amount is capped (optional cap) and never exceeds what is left of the
- * price, so incentives never sum above the price.
+ * Percent rules take a percentage of a basis: the system cost (the price, plus a lender's dealer
+ * fee the homeowner pays inside the loan: what the homeowner pays for the system), or that cost
+ * net of the incentives applied before them in list order (e.g. a tax credit whose basis
+ * excludes a utility rebate). Each amount is capped (optional cap) and never exceeds what is
+ * left of the price, so incentives never sum above the price.
  */
 import { z } from "zod";
 import { parseOrThrow } from "./errors";
@@ -49,6 +53,8 @@ export const incentiveRuleSchema = z
      * first tax return: year 1).
      */
     timing: z.union([z.literal("upfront"), z.object({ year: z.number().int().min(1).max(50) })]).default("upfront"),
+    /** Which date must fall within [startDate, endDate]: the offer's or the (expected) installation's. */
+    countsOn: z.enum(["offer", "installation"]).default("offer"),
     eligibility: z
       .object({
         minKwDc: z.number().finite().min(0).optional(),
@@ -64,7 +70,11 @@ export const incentiveContextSchema = z.object({
   rules: z.array(incentiveRuleSchema),
   /** The date the rules are evaluated at (offer date), YYYY-MM-DD. */
   asOf: isoDate,
+  /** Expected (or actual) installation date, for rules that count on it; default: asOf. */
+  installDate: isoDate.optional(),
   grossPriceCents: z.number().int().min(0),
+  /** A lender's dealer fee the homeowner pays inside the loan: part of the system cost a percent rule takes. */
+  dealerFeeCents: z.number().int().min(0).default(0),
   systemKwDc: z.number().finite().min(0),
   payment: z.enum(["cash", "loan"]),
 });
@@ -100,12 +110,14 @@ export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
   for (const rule of ctx.rules) {
     const skip = (reason: string) => skipped.push({ id: rule.id, name: rule.name, reason });
     // ISO dates compare correctly as strings.
-    if (ctx.asOf < rule.startDate) {
-      skip(`starts ${rule.startDate}, after ${ctx.asOf}`);
+    const on = rule.countsOn === "installation" ? (ctx.installDate ?? ctx.asOf) : ctx.asOf;
+    const onWhat = rule.countsOn === "installation" ? `installation on ${on}` : `the offer on ${on}`;
+    if (on < rule.startDate) {
+      skip(`starts ${rule.startDate}, after ${onWhat}`);
       continue;
     }
-    if (ctx.asOf > rule.endDate) {
-      skip(`ended ${rule.endDate}, before ${ctx.asOf}`);
+    if (on > rule.endDate) {
+      skip(`ended ${rule.endDate}, before ${onWhat}`);
       continue;
     }
     const el = rule.eligibility;
@@ -133,9 +145,14 @@ export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
         detail += `, capped at ${dollars(a.capCents)}`;
       }
     } else if (a.kind === "percent") {
-      const basis = a.basis === "gross-price" ? ctx.grossPriceCents : ctx.grossPriceCents - appliedSoFar;
+      const cost = ctx.grossPriceCents + ctx.dealerFeeCents;
+      const basis = a.basis === "gross-price" ? cost : cost - appliedSoFar;
       raw = (basis * a.pct) / 100;
-      detail = `${a.pct} % of ${dollars(basis)}${a.basis === "net-of-earlier" ? " (price net of earlier incentives)" : ""}`;
+      const parts = [
+        ...(ctx.dealerFeeCents > 0 ? [`incl. the ${dollars(ctx.dealerFeeCents)} dealer fee in the loan`] : []),
+        ...(a.basis === "net-of-earlier" ? ["net of earlier incentives"] : []),
+      ];
+      detail = `${a.pct} % of ${dollars(basis)}${parts.length ? ` (system cost ${parts.join(", ")})` : ""}`;
       if (a.capCents !== undefined && raw > a.capCents) {
         raw = a.capCents;
         detail += `, capped at ${dollars(a.capCents)}`;
@@ -144,6 +161,7 @@ export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
       raw = a.amountCents;
       detail = "fixed amount";
     }
+    if (rule.countsOn === "installation") detail += `; counts at ${onWhat}`;
     let amountCents = Math.round(raw);
     const room = ctx.grossPriceCents - appliedSoFar;
     if (amountCents > room) {

@@ -13,6 +13,7 @@ import { spreadMonthlyToHourly } from "./load-shape";
 import { importIntervalData } from "./green-button";
 import { makeBillCalculator, ratePlanSchema, type AnnualBill } from "./rates";
 import { siteTimeZone } from "./site-time-zone";
+import { amortizeLoan } from "./finance";
 import { dcAcRatioWarning, sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "./sizing";
 import { evaluateIncentives, incentiveRuleSchema, type IncentiveResult } from "./incentives";
 import { buildCashflow, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowResult } from "./cashflow";
@@ -45,6 +46,8 @@ export const quoteCaseSchema = z
     name: z.string().min(1).max(200),
     /** Offer date: incentives are evaluated at it. */
     asOf: isoDate,
+    /** Expected installation date, for incentives that count at installation (default: asOf). */
+    installDate: isoDate.optional(),
     site: z.object({
       latitude: z.number().finite().min(-90).max(90),
       longitude: z.number().finite().min(-180).max(180),
@@ -315,7 +318,15 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
   // 5. Price, incentives, cash flow.
   const addersCents = c.price.adders.reduce((s, x) => s + x.amountCents, 0);
   const grossCents = Math.max(0, Math.round(kwDc * 1000 * c.price.perWattCents) + addersCents - c.price.discountCents);
-  const incentives = evaluateIncentives({ rules: c.incentives, asOf: c.asOf, grossPriceCents: grossCents, systemKwDc: kwDc, payment: c.financing.kind });
+  // A dealer fee inside the loan is part of the system cost a percent credit takes (see incentives.ts).
+  const incentivesWith = (dealerFeeCents: number) =>
+    evaluateIncentives({ rules: c.incentives, asOf: c.asOf, installDate: c.installDate, grossPriceCents: grossCents, dealerFeeCents, systemKwDc: kwDc, payment: c.financing.kind });
+  let incentives = incentivesWith(0);
+  if (c.financing.kind === "loan" && c.financing.dealerFeePct > 0 && c.financing.dealerFeeMode === "added") {
+    const f = c.financing;
+    const borrowed = Math.max(0, grossCents - f.downPaymentCents - incentives.upfrontCents);
+    incentives = incentivesWith(amortizeLoan({ amountCents: borrowed, aprPct: f.aprPct, termMonths: f.termMonths, dealerFeePct: f.dealerFeePct, dealerFeeMode: "added" }).dealerFeeCents);
+  }
   const cashflow = buildCashflow({
     years: a.years,
     grossPriceCents: grossCents,

@@ -12,7 +12,7 @@ const book: PriceBook = {
   lineItems: [],
   discountLimits: { sales_rep: { maxCents: 50_000, maxPct: null }, office_manager: { maxCents: 200_000, maxPct: null } },
   incentives: [
-    { id: "credit", name: "Tax credit", source: "federal", amount: { kind: "percent", pct: 30, basis: "gross-price" }, startDate: "2020-01-01", endDate: "2040-12-31", timing: { year: 1 }, eligibility: {} },
+    { id: "credit", name: "Tax credit", source: "federal", amount: { kind: "percent", pct: 30, basis: "gross-price" }, startDate: "2020-01-01", endDate: "2040-12-31", timing: { year: 1 }, countsOn: "installation", eligibility: {} },
   ],
   deposit: { kind: "fixed", amountCents: 100_000 },
 };
@@ -73,6 +73,22 @@ describe("computeOfferFigures (hand-worked)", () => {
     // A larger down payment: ($12,500 − $3,000) / 120 = $79.1667 → 7,917 ¢.
     const more = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0, downPaymentCents: 300_000 } });
     expect(more.summary.monthlyLoanPaymentCents).toBe(7_917);
+  });
+
+  it("the tax credit's basis includes the dealer fee inside the loan; its date is the expected installation", () => {
+    const loan = { kind: "loan" as const, aprPct: 5, termMonths: 120, dealerFeePct: 10, downPaymentCents: null };
+    const f = computeOfferFigures({ ...base, payment: loan });
+    // Borrowed $12,500 − $1,000 deposit = $11,500; grossed up for a 10 % fee: 11,500 / 0.9 = $12,777.78, fee $1,277.78.
+    // Credit: 30 % × ($12,500 + $1,277.78) = $4,133.33.
+    expect(f.incentives.applied[0].amountCents).toBe(413_333);
+    expect(f.incentives.applied[0].detail).toContain("dealer fee in the loan");
+    // Installation expected after the credit's end: no credit, with the reason.
+    const late = computeOfferFigures({ ...base, book: { ...book, incentives: [{ ...book.incentives[0], endDate: "2026-03-31" }] }, expectedInstallDate: "2026-04-15" });
+    expect(late.incentives.applied).toHaveLength(0);
+    expect(late.incentives.skipped[0].reason).toBe("ended 2026-03-31, before installation on 2026-04-15");
+    // No install date planned: the offer date + 60 days (2026-03-02 → 2026-05-01).
+    const assumed = computeOfferFigures({ ...base, book: { ...book, incentives: [{ ...book.incentives[0], endDate: "2026-04-30" }] } });
+    expect(assumed.incentives.skipped[0].reason).toBe("ended 2026-04-30, before installation on 2026-05-01");
   });
 
   it("refuses a down payment below the deposit paid at signing", () => {

@@ -7,6 +7,7 @@
 // (incentives.ts) and the 25-year table (cashflow.ts); quote.ts chains them the same way.
 import type { Role } from "@/lib/enums";
 import { buildCashflow, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowRow } from "@/engine/cashflow";
+import { amortizeLoan } from "@/engine/finance";
 import { evaluateIncentives, type IncentiveResult } from "@/engine/incentives";
 import type { SystemDesign } from "@/engine/production";
 import { makeBillCalculator, type RatePlanInput } from "@/engine/rates";
@@ -243,6 +244,8 @@ export type OfferFiguresInput = {
   role: Role;
   /** Offer date, YYYY-MM-DD: incentives are evaluated at it. */
   asOf: string;
+  /** Expected installation date, YYYY-MM-DD, for credits that count at installation; default: asOf + DEFAULT_INSTALL_LEAD_DAYS. */
+  expectedInstallDate?: string;
   moduleCount: number;
   moduleWatts: number;
   /** Year-1 production, 8760 hourly kWh AC. */
@@ -311,6 +314,14 @@ export type OfferFigures = {
 
 const round = (x: number, digits = 1) => Math.round(x * 10 ** digits) / 10 ** digits;
 
+/** Days from offer to installation assumed when no install date is planned yet (our choice; typical permitting and scheduling). */
+export const DEFAULT_INSTALL_LEAD_DAYS = 60;
+
+function addDays(isoDate: string, days: number): string {
+  const [y, m, d] = isoDate.split("-").map(Number);
+  return new Date(Date.UTC(y, m - 1, d + days)).toISOString().slice(0, 10);
+}
+
 /** Price, bills, incentives and the 25-year table for one offer. Throws PricingInputError / EngineInputError on bad input. */
 export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
   const a: OfferAssumptions = { ...DEFAULT_OFFER_ASSUMPTIONS, ...input.assumptions };
@@ -350,13 +361,19 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     withByYear.push(bill(input.usageHourlyKwh, degraded));
   }
 
-  const incentives = evaluateIncentives({
-    rules: incentiveRulesForEngine(input.book),
-    asOf: input.asOf,
-    grossPriceCents: price.contractCents,
-    systemKwDc: kwDc,
-    payment: input.payment.kind,
-  });
+  // Credits that count at installation are judged on the expected install date; a dealer fee
+  // inside the loan is part of what the homeowner pays for the system (the credit's basis). The
+  // fee depends on the amount borrowed, which upfront incentives lower: one pass without it
+  // finds those, the second prices the fee in.
+  const installDate = input.expectedInstallDate ?? addDays(input.asOf, DEFAULT_INSTALL_LEAD_DAYS);
+  const incentivesWith = (dealerFeeCents: number) =>
+    evaluateIncentives({ rules: incentiveRulesForEngine(input.book), asOf: input.asOf, installDate, grossPriceCents: price.contractCents, dealerFeeCents, systemKwDc: kwDc, payment: input.payment.kind });
+  let incentives = incentivesWith(0);
+  if (input.payment.kind === "loan" && input.payment.dealerFeePct > 0) {
+    const borrowed = Math.max(0, price.contractCents - downPaymentCents - incentives.upfrontCents);
+    const { dealerFeeCents } = amortizeLoan({ amountCents: borrowed, aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added" });
+    incentives = incentivesWith(dealerFeeCents);
+  }
   if (incentives.byYear.length > a.years + 1) notes.push(`Incentives paid after year ${a.years} are left out.`);
 
   const productionMonthly = monthlySums(produced);
