@@ -124,11 +124,17 @@ describe("amortizeLoan", () => {
 
   it("rejects bad input naming the field", () => {
     expect(() => amortizeLoan({ amountCents: -5, aprPct: 5, termMonths: 12 })).toThrow(EngineInputError);
-    try {
-      amortizeLoan({ amountCents: 100, aprPct: 5, termMonths: 0 });
-    } catch (e) {
-      expect((e as EngineInputError).issues[0].path).toBe("termMonths");
-    }
+    // Fails when nothing is thrown, or something else is.
+    const err = (() => {
+      try {
+        amortizeLoan({ amountCents: 100, aprPct: 5, termMonths: 0 });
+      } catch (e) {
+        return e;
+      }
+      return null;
+    })();
+    expect(err).toBeInstanceOf(EngineInputError);
+    expect((err as EngineInputError).issues[0].path).toBe("termMonths");
   });
 });
 

@@ -145,6 +145,8 @@ export type QuoteContext<W> = {
   weatherLabel?: string;
   /** The weather file's standard UTC offset, used for interval data when neither the file nor the case gives one. */
   weatherUtcOffsetHours?: number;
+  /** What the caller found about the weather (timing against the sun, distance to the station), for the notes. */
+  weatherNotes?: string[];
 };
 
 type MonthlyBillSummary = { month: number; withoutSolarCents: number; withSolarCents: number; importKwh: number; exportKwh: number };
@@ -212,7 +214,7 @@ function checkHourly(name: string, series: ArrayLike<number>): void {
 /** Run the whole chain for one case. */
 export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): QuoteResult {
   const c = parseOrThrow(quoteCaseSchema, input, "quote case");
-  const notes: string[] = [];
+  const notes: string[] = [...(ctx.weatherNotes ?? [])];
   // A loan is counted to its last payment: the analysis runs at least its term.
   const loanYears = c.financing.kind === "loan" ? Math.ceil(c.financing.termMonths / 12) : 0;
   const a = { ...c.assumptions, years: Math.max(c.assumptions.years, loanYears) };

@@ -15,6 +15,7 @@
  * 29 February is dropped. Rows are placed by their month/day/hour, so every hour of the
  * 365-day year must appear exactly once.
  */
+import { offsetContradiction, sunTimingShiftHours, sunTimingWarning } from "./weather-timing";
 import { z } from "zod";
 import { isBlankRecord, readCsvRecords, type CsvRecord } from "./csv";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
@@ -57,6 +58,8 @@ export type WeatherYear = {
   ghiDerived: boolean;
   /** Hours whose albedo came from the file (the rest use DEFAULT_ALBEDO). */
   albedoFromFileHours: number;
+  /** How far (h, + = later) the sunshine sits from solar noon at the stated offset (weather-timing.ts); null without sun. */
+  timingShiftHours?: number | null;
   /** Notes for the user, e.g. "dropped 24 rows of 29 February". */
   notes: string[];
 };
@@ -343,6 +346,8 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
 
   // Site: header values, overridden by explicit options.
   const site = parseOrThrow(weatherSiteSchema, { ...parsed.site, ...stripUndefined(options.site ?? {}) }, `${context}: site`);
+  const contradiction = offsetContradiction(site.longitude, site.utcOffsetHours);
+  if (contradiction) throw new EngineInputError([{ path: "site.utcOffsetHours", message: contradiction }], context);
 
   // Place rows on the grid; drop 29 February; require each hour exactly once.
   const n = HOURS_PER_YEAR;
@@ -430,6 +435,9 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
   }
 
   const notes: string[] = [];
+  const timingShiftHours = sunTimingShiftHours(out.ghi, site.longitude, site.utcOffsetHours);
+  const timingWarning = sunTimingWarning(timingShiftHours, site.utcOffsetHours);
+  if (timingWarning) notes.push(timingWarning);
   if (leapRows) notes.push(`dropped ${leapRows} rows of 29 February`);
   if (ghiDerived) notes.push("GHI derived as DNI·cos(zenith) + DHI");
   if (albedoFromFileHours < n) notes.push(`albedo ${DEFAULT_ALBEDO} used for ${n - albedoFromFileHours} hours without a valid file value`);
@@ -441,6 +449,7 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
     ...out,
     ghiDerived,
     albedoFromFileHours,
+    timingShiftHours,
     notes,
   };
 }
