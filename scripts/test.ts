@@ -34,6 +34,8 @@ async function main(): Promise<boolean> {
   if (layers.includes("unit")) results.push(["unit", run("unit tests", [bin("vitest/vitest.mjs"), "run", "-c", "tests/vitest.config.ts", "--project", "unit", ...extra])]);
   // Layers hold: no import cycles in src, and the PDFs (src/documents) never import src/server.
   if (layers.includes("unit")) results.push(["import cycles", run("import cycles and layers", [bin("tsx/dist/cli.mjs"), "scripts/check-import-cycles.ts"])]);
+  // No function over 80 lines in src without a reason written beside it.
+  if (layers.includes("unit")) results.push(["function length", run("function length", [bin("tsx/dist/cli.mjs"), "scripts/check-function-length.ts"])]);
 
   if (layers.includes("integration") || layers.includes("browser")) {
     console.log(`\n· MariaDB (test) on 127.0.0.1:${inst.ports.db}, a fresh database`);

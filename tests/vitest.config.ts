@@ -16,7 +16,7 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: "unit", root, include: ["src/**/*.test.ts"], environment: "node" },
+        test: { name: "unit", root, include: ["src/**/*.test.ts", "scripts/**/*.test.ts"], environment: "node" },
       },
       {
         resolve: { alias },

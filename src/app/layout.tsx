@@ -1,12 +1,9 @@
-import "@fontsource/ibm-plex-sans/400.css";
-import "@fontsource/ibm-plex-sans/500.css";
-import "@fontsource/ibm-plex-sans/600.css";
-import "@fontsource/ibm-plex-mono/400.css";
-import "@fontsource/ibm-plex-mono/500.css";
+import "./fonts.css";
 import "./globals.css";
 import type { Metadata, Viewport } from "next";
 import { connection } from "next/server";
 import type { ReactNode } from "react";
+import { QueryProvider } from "@/components/ui/query-provider";
 import { ZodJitless } from "@/components/zod-jitless";
 
 export const metadata: Metadata = {
@@ -23,7 +20,7 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
     <html lang="en">
       <body className="min-h-dvh">
         <ZodJitless />
-        {children}
+        <QueryProvider>{children}</QueryProvider>
       </body>
     </html>
   );

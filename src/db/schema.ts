@@ -8,7 +8,6 @@ import {
   date,
   datetime,
   double,
-  json,
   decimal,
   mediumtext,
   index,
@@ -21,6 +20,15 @@ import {
   varchar,
 } from "drizzle-orm/mysql-core";
 import { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES } from "../lib/enums";
+import { ratePlanSchema } from "../engine/rates";
+import { storedCompanySettingsSchema } from "../lib/schemas/company-settings";
+import { designDocumentSchema } from "../lib/schemas/design";
+import { storedJobChecklistSchema, storedTemplateItemsSchema } from "../lib/schemas/jobs";
+import { offerBasisSchema } from "../lib/offer-basis";
+import { offerInputsSchema } from "../lib/schemas/offer";
+import { priceBookSchema } from "../lib/schemas/price-book";
+import { jsonColumn } from "./json-column";
+import * as shapes from "./json-shapes";
 
 // The enum value lists live in src/lib/enums.ts (browser code needs them without drizzle); re-exported for server code.
 export { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES };
@@ -105,7 +113,9 @@ export const company = mysqlTable("company", {
   name: varchar("name", { length: 200 }).notNull(),
   licenseNumber: varchar("license_number", { length: 100 }),
   /** Company settings the office tunes (stall limits per stage…): src/lib/schemas/company-settings.ts. */
-  settings: json("settings"),
+  settings: jsonColumn("company", "settings", storedCompanySettingsSchema),
+  /** Grows whenever the savings assumptions (settings.finance) change; offers record the one they used. */
+  financeVersion: int("finance_version").notNull().default(1),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -308,12 +318,43 @@ export const intervalProfile = mysqlTable(
       .notNull()
       .references(() => deal.id, { onDelete: "cascade" }),
     uploadId: id("upload_id").references(() => upload.id, { onDelete: "set null" }),
-    hourlyKwh: json("hourly_kwh").$type<number[]>().notNull(),
+    hourlyKwh: jsonColumn("interval_profile", "hourly_kwh", shapes.hourlyKwh).notNull(),
     annualKwh: double("annual_kwh").notNull(),
     coveragePct: double("coverage_pct").notNull(),
     createdAt: createdAt(),
   },
   (t) => [index("interval_profile_deal_idx").on(t.companyId, t.dealId)],
+);
+
+/**
+ * The deal's usage year (12 months and 8760 hours) derived from its interval data, else its
+ * bills: rebuilt in the transaction that changes them, so readers never derive it again. The
+ * version grows with every rebuild; an offer records the version it was computed from.
+ */
+export const dealUsage = mysqlTable(
+  "deal_usage",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    version: int("version").notNull().default(1),
+    source: mysqlEnum("source", ["bills", "interval", "none"]).notNull(),
+    monthlyKwh: jsonColumn("deal_usage", "monthly_kwh", shapes.monthlyKwh).notNull(),
+    /** Measured hours (interval data) or the months spread by the reference load shape; null with no usage. */
+    hourlyKwh: jsonColumn("deal_usage", "hourly_kwh", shapes.hourlyKwh),
+    annualKwh: double("annual_kwh").notNull(),
+    estimatedMonths: jsonColumn("deal_usage", "estimated_months", shapes.monthFlags).notNull(),
+    warnings: jsonColumn("deal_usage", "warnings", shapes.notes).notNull(),
+    averageCentsPerKwh: double("average_cents_per_kwh"),
+    fillMethod: varchar("fill_method", { length: 40 }).notNull(),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("deal_usage_deal_uq").on(t.companyId, t.dealId)],
 );
 
 /** A typical-year weather file for a place (EPW, TMY3 or generic CSV), uploaded by an admin. */
@@ -412,7 +453,10 @@ export const priceBook = mysqlTable(
     companyId: id("company_id")
       .notNull()
       .references(() => company.id, { onDelete: "cascade" }),
-    document: json("document").notNull(),
+    document: jsonColumn("price_book", "document", priceBookSchema).notNull(),
+    /** Grows with every save; `incentivesVersion` only when the incentive rules change. Offers record both. */
+    version: int("version").notNull().default(1),
+    incentivesVersion: int("incentives_version").notNull().default(1),
     updatedByUserId: id("updated_by_user_id").references(() => user.id, { onDelete: "set null" }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -430,8 +474,10 @@ export const ratePlan = mysqlTable(
       .references(() => company.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 200 }).notNull(),
     utilityName: varchar("utility_name", { length: 200 }).notNull(),
-    plan: json("plan").notNull(),
+    plan: jsonColumn("rate_plan", "plan", ratePlanSchema).notNull(),
     active: boolean("active").notNull().default(true),
+    /** Grows with every change of the plan; offers record the version they were priced with. */
+    version: int("version").notNull().default(1),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -449,9 +495,11 @@ export const design = mysqlTable(
     dealId: id("deal_id")
       .notNull()
       .references(() => deal.id, { onDelete: "cascade" }),
-    document: json("document").notNull(),
+    document: jsonColumn("design", "document", designDocumentSchema).notNull(),
     /** The station chosen by the rep; null means the nearest one. */
     weatherStationId: id("weather_station_id").references(() => weatherStation.id, { onDelete: "set null" }),
+    /** Grows with every save; offers record the revision they were computed from. */
+    revision: int("revision").notNull().default(1),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -472,9 +520,15 @@ export const offer = mysqlTable(
     position: int("position").notNull(),
     name: varchar("name", { length: 100 }).notNull(),
     /** Inputs (system, adders, discount, payment) as the rep set them: src/lib/schemas/offer.ts. */
-    inputs: json("inputs").notNull(),
+    inputs: jsonColumn("offer", "inputs", offerInputsSchema).notNull(),
     /** The engine's figures for those inputs, recomputed on every save. */
-    results: json("results").notNull(),
+    results: jsonColumn("offer", "results", shapes.offerFiguresEnvelope).notNull(),
+    /**
+     * What the figures were computed from (src/lib/offer-basis.ts): the versions of the usage,
+     * design, rate plan, price book, incentive rules and savings assumptions, and the usage and
+     * design figures themselves, which a proposal copies. Null for offers saved before it existed.
+     */
+    basis: jsonColumn("offer", "basis", offerBasisSchema),
     discountCents: int("discount_cents").notNull().default(0),
     discountStatus: mysqlEnum("discount_status", ["none", "within_limit", "pending", "approved", "declined"]).notNull().default("none"),
     createdAt: createdAt(),
@@ -522,7 +576,7 @@ export const timelineEvent = mysqlTable(
       .references(() => deal.id, { onDelete: "cascade" }),
     kind: varchar("kind", { length: 50 }).notNull(),
     summary: varchar("summary", { length: 500 }).notNull(),
-    data: json("data"),
+    data: jsonColumn("timeline_event", "data", shapes.timelineData),
     actorUserId: id("actor_user_id").references(() => user.id, { onDelete: "set null" }),
     createdAt: createdAt(),
   },
@@ -551,7 +605,7 @@ export const proposal = mysqlTable(
     number: int("number").notNull(),
     version: int("version").notNull(),
     status: mysqlEnum("status", PROPOSAL_STATUSES).notNull().default("sent"),
-    snapshot: json("snapshot").notNull(),
+    snapshot: jsonColumn("proposal", "snapshot", shapes.proposalSnapshotEnvelope).notNull(),
     /** The unsigned PDF as sent, and its SHA-256 (hex). */
     pdfStorageKey: varchar("pdf_storage_key", { length: 255 }).notNull(),
     pdfSha256: varchar("pdf_sha256", { length: 64 }).notNull(),
@@ -729,7 +783,7 @@ export const outboundMail = mysqlTable(
       .references(() => company.id, { onDelete: "cascade" }),
     /** Which message this is (the template and audience), e.g. "signed-copy-customer". */
     kind: varchar("kind", { length: 60 }).notNull(),
-    toAddresses: json("to_addresses").$type<string[]>().notNull(),
+    toAddresses: jsonColumn("outbound_mail", "to_addresses", shapes.emailAddresses).notNull(),
     replyTo: varchar("reply_to", { length: 320 }),
     subject: varchar("subject", { length: 500 }).notNull(),
     html: mediumtext("html"),
@@ -777,7 +831,7 @@ export const checklistTemplate = mysqlTable(
       .references(() => company.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 100 }).notNull(),
     /** [{ id, label }] */
-    items: json("items").notNull(),
+    items: jsonColumn("checklist_template", "items", storedTemplateItemsSchema).notNull(),
     active: boolean("active").notNull().default(true),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -811,7 +865,7 @@ export const job = mysqlTable(
     ptoOn: date("pto_on", { mode: "string" }),
     notes: text("notes"),
     /** The checklist copied from a template: [{ id, label, doneAt, doneByUserId }]. */
-    checklist: json("checklist"),
+    checklist: jsonColumn("job", "checklist", storedJobChecklistSchema),
     installedAt: timestamp("installed_at", { fsp: 3 }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -855,7 +909,7 @@ export const savedView = mysqlTable(
       .references(() => user.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 100 }).notNull(),
     /** src/lib/schemas/deal-table.ts query (filters, sort, columns). */
-    query: json("query").notNull(),
+    query: jsonColumn("saved_view", "query", shapes.storedSavedViewQuery).notNull(),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

@@ -1,5 +1,8 @@
-// The PDFs' fonts: IBM Plex Sans (text) and IBM Plex Mono (figures), embedded as TrueType from
-// the @expo-google-fonts packages shipped with the app (never WOFF2, never fetched at run time).
+// The PDFs' fonts: IBM Plex Sans (text) and IBM Plex Mono (figures) from IBM's own packages
+// (@ibm/plex-sans, @ibm/plex-mono), whose WOFF2 files the web pages use (src/app/fonts.css).
+// The PDFs read the WOFF files of the same release: WOFF is the TrueType tables, each zlib-packed,
+// which fontkit unpacks; its WOFF2 reader fails on empty glyphs (the space) when subsetting.
+// pdf-lib embeds a TrueType subset either way. Never fetched at run time.
 // The files are read once per process from node_modules under the working directory, which is
 // the project root under `next start`, vitest and the scripts.
 import fontkit from "@pdf-lib/fontkit";
@@ -12,9 +15,9 @@ import { useNativeDeflate } from "./deflate";
 export type DocFonts = { sans: PDFFont; sansBold: PDFFont; mono: PDFFont };
 
 const FONT_FILES = {
-  sans: "@expo-google-fonts/ibm-plex-sans/400Regular/IBMPlexSans_400Regular.ttf",
-  sansBold: "@expo-google-fonts/ibm-plex-sans/600SemiBold/IBMPlexSans_600SemiBold.ttf",
-  mono: "@expo-google-fonts/ibm-plex-mono/400Regular/IBMPlexMono_400Regular.ttf",
+  sans: "@ibm/plex-sans/fonts/complete/woff/IBMPlexSans-Regular.woff",
+  sansBold: "@ibm/plex-sans/fonts/complete/woff/IBMPlexSans-SemiBold.woff",
+  mono: "@ibm/plex-mono/fonts/complete/woff/IBMPlexMono-Regular.woff",
 } as const;
 
 /**
@@ -27,8 +30,6 @@ const FONT_NAMES: Record<keyof typeof FONT_FILES, string> = {
   sansBold: "SEMI+IBMPlexSans-SemiBold",
   mono: "MONO+IBMPlexMono-Regular",
 };
-
-const GLYPH_HEADER_PADDING = 16;
 
 let cache: Record<keyof typeof FONT_FILES, Uint8Array> | null = null;
 
@@ -47,19 +48,11 @@ function findModulesDir(): string {
   );
 }
 
-/** The three TrueType files' bytes (read once, then kept). */
+/** The three font files' bytes (read once, then kept). */
 export function fontBytes(): Record<keyof typeof FONT_FILES, Uint8Array> {
   if (!cache) {
     const modules = findModulesDir();
-    const read = (rel: string) => {
-      const file = readFileSync(path.join(modules, rel));
-      // Plex Mono's space is the last glyph of the glyf table, which ends the file; fontkit reads
-      // a glyph header (10 bytes) even for an empty glyph and would run past the end. Zero bytes
-      // after the last table give it a blank header to read and change nothing else.
-      const padded = new Uint8Array(file.length + GLYPH_HEADER_PADDING);
-      padded.set(file);
-      return padded;
-    };
+    const read = (rel: string) => new Uint8Array(readFileSync(path.join(modules, rel)));
     cache = { sans: read(FONT_FILES.sans), sansBold: read(FONT_FILES.sansBold), mono: read(FONT_FILES.mono) };
   }
   return cache;

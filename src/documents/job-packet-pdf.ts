@@ -1,4 +1,4 @@
-// The crew's job packet as a PDF (pdf-lib, Plex fonts embedded as TTF): customer and site,
+// The crew's job packet as a PDF (pdf-lib, Plex fonts embedded as TrueType subsets): customer and site,
 // schedule and permits, the system with its roof faces and bill of materials, the string plan
 // with each NEC check and its numbers, the cautions, the office's notes, the install checklist
 // as tick boxes (ticked ones dated) and the photos. Same input, same bytes.

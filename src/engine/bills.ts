@@ -132,7 +132,7 @@ function billName(bill: Bill, index: number): string {
  * except for meter-read dates (same day of the month at both ends, or the end date is another
  * bill's start), whose end date is the next period's first day.
  */
-function billSpans(bills: Bill[]): { first: number; end: number }[] {
+function billSpans(bills: readonly Bill[]): { first: number; end: number }[] {
   const starts = new Set(bills.map((b) => b.startDate));
   return bills.map((b) => {
     const first = dayNumber(b.startDate);
@@ -312,14 +312,8 @@ export function predictMonthlyKwh(fit: DegreeDayFit, hourlyTempC: readonly numbe
   );
 }
 
-/** Bills → the household's 12 monthly kWh (Jan–Dec of a typical year), each flagged measured or estimated. */
-export function usageFromBills(input: BillsInput): UsageYear {
-  const parsed = parseOrThrow(billsInputSchema, input, "bills");
-  const bills = parsed.bills;
-  checkBills(bills);
-  const warnings: string[] = [];
-
-  // Spread each bill over its days; pool by calendar month of year.
+/** Spreads each bill over its days (billSpans) and pools them by calendar month of year. */
+function spreadOverMonths(bills: readonly Bill[]) {
   const kwhByMonth = new Array<number>(12).fill(0);
   const daysByMonth = new Array<number>(12).fill(0);
   const spans = billSpans(bills);
@@ -332,26 +326,12 @@ export function usageFromBills(input: BillsInput): UsageYear {
       daysByMonth[m] += 1;
     }
   });
+  return { kwhByMonth, daysByMonth, spans };
+}
 
-  const months: MonthUsage[] = MONTH_DAYS.map((days, m) => {
-    const coverage = Math.min(1, daysByMonth[m] / days);
-    const measured = coverage > MIN_MEASURED_COVERAGE;
-    return {
-      month: m + 1,
-      // An estimated month keeps its billed kWh; the fill adds its uncovered share below.
-      kwh: measured ? (kwhByMonth[m] / daysByMonth[m]) * days : kwhByMonth[m],
-      status: measured ? "measured" : "estimated",
-      coveredDays: daysByMonth[m],
-      coverage,
-    };
-  });
-  const measuredIdx = months.flatMap((mu, m) => (mu.status === "measured" ? [m] : []));
-  if (measuredIdx.length === 0) {
-    throw new EngineInputError(
-      [{ path: "bills", message: `no calendar month is covered for more than ${MIN_MEASURED_COVERAGE * 100} % of its days` }],
-      "bills",
-    );
-  }
+/** What the bills leave out: more than a year pooled, gaps between bills, months scaled up or estimated (named). */
+function coverageWarnings(bills: readonly Bill[], spans: { first: number; end: number }[], months: MonthUsage[], measuredCount: number): string[] {
+  const warnings: string[] = [];
   const coveredDays = spans.reduce((a, s) => a + (s.end - s.first), 0);
   if (coveredDays > 366) {
     warnings.push(`Bills cover ${coveredDays} days, more than a year: the same calendar month from different years was averaged per day.`);
@@ -368,52 +348,92 @@ export function usageFromBills(input: BillsInput): UsageYear {
   });
   const estimatedNames = months.filter((mu) => mu.status === "estimated").map((mu) => MONTH_NAMES[mu.month - 1]);
   if (estimatedNames.length > 0) {
-    warnings.push(`${measuredIdx.length} month(s) measured; estimated: ${estimatedNames.join(", ")} (billed days kept, the rest filled in).`);
+    warnings.push(`${measuredCount} month(s) measured; estimated: ${estimatedNames.join(", ")} (billed days kept, the rest filled in).`);
   }
+  return warnings;
+}
 
-  let fillMethod: UsageYear["fillMethod"] = "none";
+/**
+ * Fills the estimated months (changed in place): each keeps its billed kWh and gets the fill's
+ * estimate for its uncovered share, from a degree-day fit to the site's temperatures when asked
+ * for and good enough, else from the seasonal shape scaled to the measured months. Says in
+ * `warnings` why a fit was not used.
+ */
+function fillEstimatedMonths(
+  parsed: z.output<typeof billsInputSchema>,
+  months: MonthUsage[],
+  measuredIdx: number[],
+  warnings: string[],
+): { fillMethod: UsageYear["fillMethod"]; degreeDayFit: DegreeDayFit | null } {
   let degreeDayFit: DegreeDayFit | null = null;
-  if (measuredIdx.length < 12) {
-    const wantsDegreeDay = parsed.fill === "degree-day" || parsed.fill === "auto";
-    if (wantsDegreeDay) {
-      if (!parsed.hourlyTempC) {
-        if (parsed.fill === "degree-day") warnings.push("Degree-day fill needs the site's hourly temperatures; used the seasonal shape instead.");
-      } else if (measuredIdx.length < MIN_MONTHS_FOR_DEGREE_DAY) {
-        warnings.push(`Degree-day fill needs at least ${MIN_MONTHS_FOR_DEGREE_DAY} measured months; used the seasonal shape instead.`);
-      } else {
-        const fit = fitDegreeDayModel(
-          measuredIdx.map((m) => ({ month: m, kwhPerDay: months[m].kwh / MONTH_DAYS[m] })),
-          parsed.hourlyTempC,
-        );
-        if (fit && fit.adjustedR2 >= MIN_DEGREE_DAY_ADJUSTED_R2) {
-          degreeDayFit = fit;
-        } else {
-          warnings.push(
-            `Degree-day fit too weak (adjusted R² ${fit ? fit.adjustedR2.toFixed(2) : "n/a"} < ${MIN_DEGREE_DAY_ADJUSTED_R2}); used the seasonal shape instead.`,
-          );
-        }
-      }
-    }
-    if (degreeDayFit && parsed.hourlyTempC) {
-      fillMethod = "degree-day";
-      const predicted = predictMonthlyKwh(degreeDayFit, parsed.hourlyTempC);
-      months.forEach((mu, m) => {
-        if (mu.status === "estimated") mu.kwh += predicted[m] * (1 - mu.coverage);
-      });
+  const wantsDegreeDay = parsed.fill === "degree-day" || parsed.fill === "auto";
+  if (wantsDegreeDay) {
+    if (!parsed.hourlyTempC) {
+      if (parsed.fill === "degree-day") warnings.push("Degree-day fill needs the site's hourly temperatures; used the seasonal shape instead.");
+    } else if (measuredIdx.length < MIN_MONTHS_FOR_DEGREE_DAY) {
+      warnings.push(`Degree-day fill needs at least ${MIN_MONTHS_FOR_DEGREE_DAY} measured months; used the seasonal shape instead.`);
     } else {
-      fillMethod = "seasonal";
-      const shape = parsed.seasonalShape ?? referenceMonthlyKwh();
-      const measuredShape = measuredIdx.reduce((a, m) => a + shape[m], 0);
-      const measuredKwh = measuredIdx.reduce((a, m) => a + months[m].kwh, 0);
-      if (measuredShape <= 0) {
-        throw new EngineInputError([{ path: "seasonalShape", message: "the shape is zero in every measured month" }], "bills");
+      const fit = fitDegreeDayModel(
+        measuredIdx.map((m) => ({ month: m, kwhPerDay: months[m].kwh / MONTH_DAYS[m] })),
+        parsed.hourlyTempC,
+      );
+      if (fit && fit.adjustedR2 >= MIN_DEGREE_DAY_ADJUSTED_R2) {
+        degreeDayFit = fit;
+      } else {
+        warnings.push(
+          `Degree-day fit too weak (adjusted R² ${fit ? fit.adjustedR2.toFixed(2) : "n/a"} < ${MIN_DEGREE_DAY_ADJUSTED_R2}); used the seasonal shape instead.`,
+        );
       }
-      const scale = measuredKwh / measuredShape;
-      months.forEach((mu, m) => {
-        if (mu.status === "estimated") mu.kwh += shape[m] * scale * (1 - mu.coverage);
-      });
     }
   }
+  if (degreeDayFit && parsed.hourlyTempC) {
+    const predicted = predictMonthlyKwh(degreeDayFit, parsed.hourlyTempC);
+    months.forEach((mu, m) => {
+      if (mu.status === "estimated") mu.kwh += predicted[m] * (1 - mu.coverage);
+    });
+    return { fillMethod: "degree-day", degreeDayFit };
+  }
+  const shape = parsed.seasonalShape ?? referenceMonthlyKwh();
+  const measuredShape = measuredIdx.reduce((a, m) => a + shape[m], 0);
+  const measuredKwh = measuredIdx.reduce((a, m) => a + months[m].kwh, 0);
+  if (measuredShape <= 0) {
+    throw new EngineInputError([{ path: "seasonalShape", message: "the shape is zero in every measured month" }], "bills");
+  }
+  const scale = measuredKwh / measuredShape;
+  months.forEach((mu, m) => {
+    if (mu.status === "estimated") mu.kwh += shape[m] * scale * (1 - mu.coverage);
+  });
+  return { fillMethod: "seasonal", degreeDayFit: null };
+}
+
+/** Bills → the household's 12 monthly kWh (Jan–Dec of a typical year), each flagged measured or estimated. */
+export function usageFromBills(input: BillsInput): UsageYear {
+  const parsed = parseOrThrow(billsInputSchema, input, "bills");
+  const bills = parsed.bills;
+  checkBills(bills);
+  const { kwhByMonth, daysByMonth, spans } = spreadOverMonths(bills);
+
+  const months: MonthUsage[] = MONTH_DAYS.map((days, m) => {
+    const coverage = Math.min(1, daysByMonth[m] / days);
+    const measured = coverage > MIN_MEASURED_COVERAGE;
+    return {
+      month: m + 1,
+      // An estimated month keeps its billed kWh; the fill adds its uncovered share.
+      kwh: measured ? (kwhByMonth[m] / daysByMonth[m]) * days : kwhByMonth[m],
+      status: measured ? "measured" : "estimated",
+      coveredDays: daysByMonth[m],
+      coverage,
+    };
+  });
+  const measuredIdx = months.flatMap((mu, m) => (mu.status === "measured" ? [m] : []));
+  if (measuredIdx.length === 0) {
+    throw new EngineInputError(
+      [{ path: "bills", message: `no calendar month is covered for more than ${MIN_MEASURED_COVERAGE * 100} % of its days` }],
+      "bills",
+    );
+  }
+  const warnings = coverageWarnings(bills, spans, months, measuredIdx.length);
+  const { fillMethod, degreeDayFit } = measuredIdx.length < 12 ? fillEstimatedMonths(parsed, months, measuredIdx, warnings) : { fillMethod: "none" as const, degreeDayFit: null };
 
   const monthlyKwh = months.map((mu) => mu.kwh);
   const allCosted = bills.every((b) => b.costCents !== undefined);

@@ -138,14 +138,8 @@ export type CashflowSummary = {
 
 export type CashflowResult = { rows: CashflowRow[]; summary: CashflowSummary };
 
-/** Build the year-by-year table and its summary. */
-export function buildCashflow(input: CashflowInput): CashflowResult {
-  const v = parseOrThrow(cashflowInputSchema, input, "cash flow");
-  const notes: string[] = [];
-  const d = v.degradationPctPerYear / 100;
-  const e = v.utilityEscalationPctPerYear / 100;
-  const upfront = v.incentivesByYear[0] ?? 0;
-
+/** What the customer pays for the system: the year-0 outlay and, for a loan, the payments by year. */
+function outlays(v: z.output<typeof cashflowInputSchema>, upfront: number, notes: string[]) {
   let loan: CashflowSummary["loan"] = null;
   const loanByYear = new Array<number>(v.years + 1).fill(0);
   let yearZeroOutlay: number;
@@ -167,6 +161,36 @@ export function buildCashflow(input: CashflowInput): CashflowResult {
       dealerFeeCents: result.dealerFeeCents,
     };
   }
+  return { loan, loanByYear, yearZeroOutlay };
+}
+
+/** Net system cost by year (outlays − later incentives), the flows, and the discounted LCOE. */
+function costsAndLcoe(v: z.output<typeof cashflowInputSchema>, rows: CashflowRow[], yearZeroOutlay: number) {
+  const d = v.degradationPctPerYear / 100;
+  const costByYear = rows.map((r) => (r.year === 0 ? yearZeroOutlay : r.systemPaymentCents + r.omCents - r.incentivesCents));
+  const netCost = costByYear.reduce((a, b) => a + b, 0);
+  const flows = rows.map((r) => r.cashFlowCents);
+  const rate = v.discountRatePct / 100;
+
+  let discountedCost = 0;
+  let discountedKwh = 0;
+  rows.forEach((r, t) => {
+    const f = Math.pow(1 + rate, t);
+    discountedCost += costByYear[t] / f;
+    discountedKwh += (t === 0 ? 0 : v.year1ProductionKwh * Math.pow(1 - d, t - 1)) / f;
+  });
+  return { netCost, flows, rate, lcoe: discountedKwh > 0 ? discountedCost / discountedKwh : null };
+}
+
+/** Build the year-by-year table and its summary. */
+export function buildCashflow(input: CashflowInput): CashflowResult {
+  const v = parseOrThrow(cashflowInputSchema, input, "cash flow");
+  const notes: string[] = [];
+  const d = v.degradationPctPerYear / 100;
+  const e = v.utilityEscalationPctPerYear / 100;
+  const upfront = v.incentivesByYear[0] ?? 0;
+
+  const { loan, loanByYear, yearZeroOutlay } = outlays(v, upfront, notes);
 
   const rows: CashflowRow[] = [
     {
@@ -219,19 +243,7 @@ export function buildCashflow(input: CashflowInput): CashflowResult {
     });
   }
 
-  // Net system cost by year (outlays − later incentives), for net cost and LCOE.
-  const costByYear = rows.map((r) => (r.year === 0 ? yearZeroOutlay : r.systemPaymentCents + r.omCents - r.incentivesCents));
-  const netCost = costByYear.reduce((a, b) => a + b, 0);
-  const flows = rows.map((r) => r.cashFlowCents);
-  const rate = v.discountRatePct / 100;
-
-  let discountedCost = 0;
-  let discountedKwh = 0;
-  rows.forEach((r, t) => {
-    const f = Math.pow(1 + rate, t);
-    discountedCost += costByYear[t] / f;
-    discountedKwh += (t === 0 ? 0 : v.year1ProductionKwh * Math.pow(1 - d, t - 1)) / f;
-  });
+  const { netCost, flows, rate, lcoe } = costsAndLcoe(v, rows, yearZeroOutlay);
 
   return {
     rows,
@@ -244,7 +256,7 @@ export function buildCashflow(input: CashflowInput): CashflowResult {
       simpleRoi: netCost > 0 ? (lifetimeSavings - netCost) / netCost : null,
       npvCents: Math.round(npv(rate, flows)),
       ...irrOf(flows),
-      lcoeCentsPerKwh: discountedKwh > 0 ? discountedCost / discountedKwh : null,
+      lcoeCentsPerKwh: lcoe,
       simpleLcoeCentsPerKwh: lifetimeKwh > 0 ? netCost / lifetimeKwh : null,
       loan,
       notes,

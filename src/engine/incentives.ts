@@ -100,6 +100,48 @@ export type IncentiveResult = {
 
 const dollars = (cents: number) => `$${(cents / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
 
+type Context = z.output<typeof incentiveContextSchema>;
+type Rule = Context["rules"][number];
+
+/** The date a rule is judged on, as words for the reasons ("installation on 2026-01-15"). */
+function ruleDate(rule: Rule, ctx: Context): { on: string; onWhat: string } {
+  const on = rule.countsOn === "installation" ? (ctx.installDate ?? ctx.asOf) : ctx.asOf;
+  return { on, onWhat: rule.countsOn === "installation" ? `installation on ${on}` : `the offer on ${on}` };
+}
+
+/** Why a rule does not apply (dates, size, payment), or null when it does. */
+function skipReason(rule: Rule, ctx: Context): string | null {
+  const { on, onWhat } = ruleDate(rule, ctx);
+  // ISO dates compare correctly as strings.
+  if (on < rule.startDate) return `starts ${rule.startDate}, after ${onWhat}`;
+  if (on > rule.endDate) return `ended ${rule.endDate}, before ${onWhat}`;
+  const el = rule.eligibility;
+  if (el.minKwDc !== undefined && ctx.systemKwDc < el.minKwDc) return `system ${ctx.systemKwDc} kW DC is below the ${el.minKwDc} kW minimum`;
+  if (el.maxKwDc !== undefined && ctx.systemKwDc > el.maxKwDc) return `system ${ctx.systemKwDc} kW DC is above the ${el.maxKwDc} kW maximum`;
+  if (el.payment && !el.payment.includes(ctx.payment)) return `not available for ${ctx.payment} payment`;
+  return null;
+}
+
+/** A rule's amount before the remaining-price limit, with how it was worked out. */
+function ruleAmount(rule: Rule, ctx: Context, appliedSoFar: number): { raw: number; detail: string } {
+  const a = rule.amount;
+  const capped = (raw: number, detail: string, capCents: number | undefined) =>
+    capCents !== undefined && raw > capCents ? { raw: capCents, detail: `${detail}, capped at ${dollars(capCents)}` } : { raw, detail };
+  if (a.kind === "per-watt") {
+    return capped(ctx.systemKwDc * 1000 * a.centsPerWattDc, `${Math.round(ctx.systemKwDc * 1000)} W × ${a.centsPerWattDc} ¢/W`, a.capCents);
+  }
+  if (a.kind === "percent") {
+    const cost = ctx.grossPriceCents + ctx.dealerFeeCents;
+    const basis = a.basis === "gross-price" ? cost : cost - appliedSoFar;
+    const parts = [
+      ...(ctx.dealerFeeCents > 0 ? [`incl. the ${dollars(ctx.dealerFeeCents)} dealer fee in the loan`] : []),
+      ...(a.basis === "net-of-earlier" ? ["net of earlier incentives"] : []),
+    ];
+    return capped((basis * a.pct) / 100, `${a.pct} % of ${dollars(basis)}${parts.length ? ` (system cost ${parts.join(", ")})` : ""}`, a.capCents);
+  }
+  return { raw: a.amountCents, detail: "fixed amount" };
+}
+
 /** Evaluate the incentive rules for one offer at a date. */
 export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
   const ctx = parseOrThrow(incentiveContextSchema, input, "incentives");
@@ -108,61 +150,14 @@ export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
   let appliedSoFar = 0;
 
   for (const rule of ctx.rules) {
-    const skip = (reason: string) => skipped.push({ id: rule.id, name: rule.name, reason });
-    // ISO dates compare correctly as strings.
-    const on = rule.countsOn === "installation" ? (ctx.installDate ?? ctx.asOf) : ctx.asOf;
-    const onWhat = rule.countsOn === "installation" ? `installation on ${on}` : `the offer on ${on}`;
-    if (on < rule.startDate) {
-      skip(`starts ${rule.startDate}, after ${onWhat}`);
+    const reason = skipReason(rule, ctx);
+    if (reason) {
+      skipped.push({ id: rule.id, name: rule.name, reason });
       continue;
     }
-    if (on > rule.endDate) {
-      skip(`ended ${rule.endDate}, before ${onWhat}`);
-      continue;
-    }
-    const el = rule.eligibility;
-    if (el.minKwDc !== undefined && ctx.systemKwDc < el.minKwDc) {
-      skip(`system ${ctx.systemKwDc} kW DC is below the ${el.minKwDc} kW minimum`);
-      continue;
-    }
-    if (el.maxKwDc !== undefined && ctx.systemKwDc > el.maxKwDc) {
-      skip(`system ${ctx.systemKwDc} kW DC is above the ${el.maxKwDc} kW maximum`);
-      continue;
-    }
-    if (el.payment && !el.payment.includes(ctx.payment)) {
-      skip(`not available for ${ctx.payment} payment`);
-      continue;
-    }
-
-    let raw: number;
-    let detail: string;
-    const a = rule.amount;
-    if (a.kind === "per-watt") {
-      raw = ctx.systemKwDc * 1000 * a.centsPerWattDc;
-      detail = `${Math.round(ctx.systemKwDc * 1000)} W × ${a.centsPerWattDc} ¢/W`;
-      if (a.capCents !== undefined && raw > a.capCents) {
-        raw = a.capCents;
-        detail += `, capped at ${dollars(a.capCents)}`;
-      }
-    } else if (a.kind === "percent") {
-      const cost = ctx.grossPriceCents + ctx.dealerFeeCents;
-      const basis = a.basis === "gross-price" ? cost : cost - appliedSoFar;
-      raw = (basis * a.pct) / 100;
-      const parts = [
-        ...(ctx.dealerFeeCents > 0 ? [`incl. the ${dollars(ctx.dealerFeeCents)} dealer fee in the loan`] : []),
-        ...(a.basis === "net-of-earlier" ? ["net of earlier incentives"] : []),
-      ];
-      detail = `${a.pct} % of ${dollars(basis)}${parts.length ? ` (system cost ${parts.join(", ")})` : ""}`;
-      if (a.capCents !== undefined && raw > a.capCents) {
-        raw = a.capCents;
-        detail += `, capped at ${dollars(a.capCents)}`;
-      }
-    } else {
-      raw = a.amountCents;
-      detail = "fixed amount";
-    }
-    if (rule.countsOn === "installation") detail += `; counts at ${onWhat}`;
-    let amountCents = Math.round(raw);
+    const amount = ruleAmount(rule, ctx, appliedSoFar);
+    let detail = rule.countsOn === "installation" ? `${amount.detail}; counts at ${ruleDate(rule, ctx).onWhat}` : amount.detail;
+    let amountCents = Math.round(amount.raw);
     const room = ctx.grossPriceCents - appliedSoFar;
     if (amountCents > room) {
       amountCents = Math.max(0, room);

@@ -325,6 +325,8 @@ function heatBalance(
  * (one cache line per lookup): ~2.8 passes per sunlit hour and face make this the hottest loop of
  * a production estimate.
  */
+// long because: the hottest loop of a production estimate, written out on local variables on
+// purpose (see above); split into functions it pays calls per pass and per face.
 export function fuentesCellTemperatureMany(
   poas: readonly ArrayLike<number>[],
   tempAirC: ArrayLike<number>,

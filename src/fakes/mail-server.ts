@@ -9,9 +9,10 @@
 import { createHash, randomUUID } from "node:crypto";
 import { mkdir, open, readFile, readdir, rename, link, unlink } from "node:fs/promises";
 import { createServer, type IncomingMessage, type ServerResponse } from "node:http";
-import type { AddressInfo } from "node:net";
 import path from "node:path";
 import { z } from "zod";
+import { closeServer, listenOn } from "./listen";
+import { outboxMessageSchema } from "../lib/schemas/outbox";
 
 export interface MailFakeOptions {
   /** 0 picks a free port; the real one is in the returned url. */
@@ -30,20 +31,7 @@ export interface MailFake {
 }
 
 /** The stored form of one message: what the dev outbox page and tests read. */
-export const storedMessageSchema = z.object({
-  id: z.uuid(),
-  from: z.string(),
-  to: z.array(z.string()),
-  cc: z.array(z.string()),
-  bcc: z.array(z.string()),
-  replyTo: z.array(z.string()),
-  subject: z.string(),
-  html: z.string().nullable(),
-  text: z.string().nullable(),
-  headers: z.record(z.string(), z.string()),
-  tags: z.array(z.object({ name: z.string(), value: z.string() })),
-  createdAt: z.iso.datetime(),
-});
+export const storedMessageSchema = outboxMessageSchema;
 export type StoredMessage = z.infer<typeof storedMessageSchema>;
 
 // Limits as documented by the service.
@@ -195,7 +183,8 @@ function toApiEmail(m: StoredMessage) {
 // ---------------------------------------------------------------------------------------------
 // Durable storage
 
-async function writeFileAtomic(file: string, data: string): Promise<void> {
+/** Writes `data` to a synced temporary file beside `file` and answers its path. */
+async function writeSyncedTemp(file: string, data: string): Promise<string> {
   const tmp = path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.${randomUUID()}.tmp`);
   const handle = await open(tmp, "w");
   try {
@@ -204,19 +193,16 @@ async function writeFileAtomic(file: string, data: string): Promise<void> {
   } finally {
     await handle.close();
   }
-  await rename(tmp, file);
+  return tmp;
+}
+
+async function writeFileAtomic(file: string, data: string): Promise<void> {
+  await rename(await writeSyncedTemp(file, data), file);
 }
 
 /** Like writeFileAtomic, but fails with EEXIST when the file is already there (link is exclusive). */
 async function createFileExclusive(file: string, data: string): Promise<boolean> {
-  const tmp = path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.${randomUUID()}.tmp`);
-  const handle = await open(tmp, "w");
-  try {
-    await handle.writeFile(data, "utf8");
-    await handle.sync();
-  } finally {
-    await handle.close();
-  }
+  const tmp = await writeSyncedTemp(file, data);
   try {
     await link(tmp, file);
     return true;
@@ -482,129 +468,142 @@ function makeClock() {
   };
 }
 
+/** The outbox's state: its store, its clock, its key and the sends still to refuse (POST /dev/faults, memory only). */
+type Outbox = { store: MessageStore; now: () => string; apiKey: string; refuseNext: number; refuseStatus: number };
+
+const notAllowed = () => new ApiError(405, "method_not_allowed", "Method is not allowed for the requested path.");
+
+/** POST /emails, GET /emails/:id, POST /emails/batch: the service's own API. */
+async function handleEmails(o: Outbox, req: IncomingMessage, res: ServerResponse, parts: string[], method: string): Promise<void> {
+  checkAuth(req, o.apiKey);
+  if (method === "POST" && o.refuseNext > 0) {
+    o.refuseNext -= 1;
+    await readBody(req);
+    throw new ApiError(o.refuseStatus, "internal_server_error", "The dev outbox refused this send on purpose (POST /dev/faults).");
+  }
+  if (parts.length === 1) {
+    if (method !== "POST") throw notAllowed();
+    const key = idempotencyKeyOf(req);
+    const body = parseSendBody(await readJson(req));
+    const create = () => {
+      const message = toStored(body, randomUUID(), o.now());
+      return { response: { id: message.id }, messages: [message] };
+    };
+    if (key) return sendJson(res, 200, await o.store.idempotent("/emails", key, body, create));
+    const made = create();
+    await o.store.save(made.messages);
+    return sendJson(res, 200, made.response);
+  }
+  if (parts[1] === "batch") {
+    if (method !== "POST") throw notAllowed();
+    const key = idempotencyKeyOf(req);
+    const raw = await readJson(req);
+    if (!Array.isArray(raw)) throw invalid("The request body must be an array of e-mails.");
+    if (raw.length === 0) throw invalid("The batch must contain at least one e-mail.");
+    if (raw.length > MAX_BATCH) throw invalid(`The batch must contain at most ${MAX_BATCH} e-mails.`);
+    const permissive = String(req.headers["x-batch-validation"] ?? "strict").toLowerCase() === "permissive";
+    const valid: SendBody[] = [];
+    const errors: { index: number; message: string }[] = [];
+    raw.forEach((item: unknown, index) => {
+      try {
+        valid.push(parseSendBody(item, `E-mail ${index}: `));
+      } catch (err) {
+        if (!permissive || !(err instanceof ApiError)) throw err;
+        errors.push({ index, message: err.message });
+      }
+    });
+    const create = () => {
+      const messages = valid.map((b) => toStored(b, randomUUID(), o.now()));
+      const data = messages.map((m) => ({ id: m.id }));
+      return { response: permissive ? { data, errors } : { data }, messages };
+    };
+    if (key) return sendJson(res, 200, await o.store.idempotent("/emails/batch", key, raw, create));
+    const made = create();
+    await o.store.save(made.messages);
+    return sendJson(res, 200, made.response);
+  }
+  if (method !== "GET") throw notAllowed();
+  if (!UUID.safeParse(parts[1]).success) throw new ApiError(422, "invalid_parameter", "The `id` must be a valid UUID.");
+  const found = await o.store.get(parts[1]);
+  if (!found) throw new ApiError(404, "not_found", "Email not found.");
+  return sendJson(res, 200, toApiEmail(found));
+}
+
+/** The dev endpoints (not part of the service): /dev/faults and /dev/messages. Answers false for any other path. */
+async function handleDev(o: Outbox, req: IncomingMessage, res: ServerResponse, url: URL, parts: string[], method: string): Promise<boolean> {
+  if (parts[0] === "dev" && parts[1] === "faults" && parts.length === 2) {
+    checkAuth(req, o.apiKey);
+    if (method === "DELETE") {
+      o.refuseNext = 0;
+      sendJson(res, 200, { refuseNext: o.refuseNext });
+      return true;
+    }
+    if (method !== "POST") throw notAllowed();
+    const parsed = faultsSchema.safeParse(await readJson(req));
+    if (!parsed.success) throw invalid(`Invalid faults: ${parsed.error.issues[0].message}.`);
+    o.refuseNext = parsed.data.refuseNext;
+    o.refuseStatus = parsed.data.statusCode;
+    sendJson(res, 200, parsed.data);
+    return true;
+  }
+  if (parts[0] === "dev" && parts[1] === "messages" && parts.length <= 3) {
+    checkAuth(req, o.apiKey);
+    if (parts.length === 2) {
+      if (method === "DELETE") {
+        sendJson(res, 200, { deleted: await o.store.clear() });
+        return true;
+      }
+      if (method !== "GET") throw notAllowed();
+      const query = listQuerySchema.safeParse(Object.fromEntries(url.searchParams));
+      if (!query.success) {
+        const issue = query.error.issues[0];
+        throw invalid(`Invalid \`${issue.path.map(String).join(".")}\` parameter: ${issue.message}.`);
+      }
+      const wanted = query.data.to === undefined ? null : bareAddress(query.data.to);
+      if (query.data.to !== undefined && wanted === null) throw invalid("Invalid `to` parameter: not an e-mail address.");
+      const all = await o.store.list();
+      const company = query.data.company;
+      const matching = all.filter(
+        (m) =>
+          (wanted === null || [...m.to, ...m.cc, ...m.bcc].some((a) => bareAddress(a) === wanted)) &&
+          (company === undefined || m.tags.some((t) => t.name === "company_id" && t.value === company)),
+      );
+      sendJson(res, 200, { data: matching.slice(0, query.data.limit) });
+      return true;
+    }
+    if (method !== "GET") throw notAllowed();
+    if (!UUID.safeParse(parts[2]).success) throw new ApiError(422, "invalid_parameter", "The `id` must be a valid UUID.");
+    const found = await o.store.get(parts[2]);
+    if (!found) throw new ApiError(404, "not_found", "Message not found.");
+    sendJson(res, 200, found);
+    return true;
+  }
+  return false;
+}
+
+async function handle(o: Outbox, req: IncomingMessage, res: ServerResponse): Promise<void> {
+  const url = new URL(req.url ?? "/", "http://fake.invalid");
+  const parts = url.pathname.split("/").filter(Boolean);
+  const method = req.method ?? "GET";
+  if (url.pathname === "/health") {
+    if (method !== "GET") throw notAllowed();
+    return sendJson(res, 200, { ok: true });
+  }
+  if (parts[0] === "emails" && parts.length <= 2) return handleEmails(o, req, res, parts, method);
+  if (await handleDev(o, req, res, url, parts, method)) return;
+  throw new ApiError(404, "not_found", "The requested endpoint does not exist.");
+}
+
 export async function startMailFake({ port, host = "127.0.0.1", dataDir, apiKey }: MailFakeOptions): Promise<MailFake> {
   if (!apiKey) throw new Error("startMailFake: apiKey is required");
   const store = new MessageStore(path.resolve(dataDir));
   await store.init();
   const now = makeClock();
-  /** Sends still to refuse (POST /dev/faults), so tests can show the app retries; kept in memory only. */
-  let refuseNext = 0;
-  let refuseStatus = 503;
-
-  async function handle(req: IncomingMessage, res: ServerResponse): Promise<void> {
-    const url = new URL(req.url ?? "/", "http://fake.invalid");
-    const parts = url.pathname.split("/").filter(Boolean);
-    const method = req.method ?? "GET";
-    const notAllowed = () => new ApiError(405, "method_not_allowed", "Method is not allowed for the requested path.");
-
-    if (url.pathname === "/health") {
-      if (method !== "GET") throw notAllowed();
-      return sendJson(res, 200, { ok: true });
-    }
-
-    // POST /emails, GET /emails/:id, POST /emails/batch
-    if (parts[0] === "emails" && parts.length <= 2) {
-      checkAuth(req, apiKey);
-      if (method === "POST" && refuseNext > 0) {
-        refuseNext -= 1;
-        await readBody(req);
-        throw new ApiError(refuseStatus, "internal_server_error", "The dev outbox refused this send on purpose (POST /dev/faults).");
-      }
-      if (parts.length === 1) {
-        if (method !== "POST") throw notAllowed();
-        const key = idempotencyKeyOf(req);
-        const body = parseSendBody(await readJson(req));
-        const create = () => {
-          const message = toStored(body, randomUUID(), now());
-          return { response: { id: message.id }, messages: [message] };
-        };
-        if (key) return sendJson(res, 200, await store.idempotent("/emails", key, body, create));
-        const made = create();
-        await store.save(made.messages);
-        return sendJson(res, 200, made.response);
-      }
-      if (parts[1] === "batch") {
-        if (method !== "POST") throw notAllowed();
-        const key = idempotencyKeyOf(req);
-        const raw = await readJson(req);
-        if (!Array.isArray(raw)) throw invalid("The request body must be an array of e-mails.");
-        if (raw.length === 0) throw invalid("The batch must contain at least one e-mail.");
-        if (raw.length > MAX_BATCH) throw invalid(`The batch must contain at most ${MAX_BATCH} e-mails.`);
-        const permissive = String(req.headers["x-batch-validation"] ?? "strict").toLowerCase() === "permissive";
-        const valid: SendBody[] = [];
-        const errors: { index: number; message: string }[] = [];
-        raw.forEach((item: unknown, index) => {
-          try {
-            valid.push(parseSendBody(item, `E-mail ${index}: `));
-          } catch (err) {
-            if (!permissive || !(err instanceof ApiError)) throw err;
-            errors.push({ index, message: err.message });
-          }
-        });
-        const create = () => {
-          const messages = valid.map((b) => toStored(b, randomUUID(), now()));
-          const data = messages.map((m) => ({ id: m.id }));
-          return { response: permissive ? { data, errors } : { data }, messages };
-        };
-        if (key) return sendJson(res, 200, await store.idempotent("/emails/batch", key, raw, create));
-        const made = create();
-        await store.save(made.messages);
-        return sendJson(res, 200, made.response);
-      }
-      if (method !== "GET") throw notAllowed();
-      if (!UUID.safeParse(parts[1]).success) throw new ApiError(422, "invalid_parameter", "The `id` must be a valid UUID.");
-      const found = await store.get(parts[1]);
-      if (!found) throw new ApiError(404, "not_found", "Email not found.");
-      return sendJson(res, 200, toApiEmail(found));
-    }
-
-    // Dev endpoints: not part of the service.
-    if (parts[0] === "dev" && parts[1] === "faults" && parts.length === 2) {
-      checkAuth(req, apiKey);
-      if (method === "DELETE") {
-        refuseNext = 0;
-        return sendJson(res, 200, { refuseNext });
-      }
-      if (method !== "POST") throw notAllowed();
-      const parsed = faultsSchema.safeParse(await readJson(req));
-      if (!parsed.success) throw invalid(`Invalid faults: ${parsed.error.issues[0].message}.`);
-      refuseNext = parsed.data.refuseNext;
-      refuseStatus = parsed.data.statusCode;
-      return sendJson(res, 200, parsed.data);
-    }
-    if (parts[0] === "dev" && parts[1] === "messages" && parts.length <= 3) {
-      checkAuth(req, apiKey);
-      if (parts.length === 2) {
-        if (method === "DELETE") return sendJson(res, 200, { deleted: await store.clear() });
-        if (method !== "GET") throw notAllowed();
-        const query = listQuerySchema.safeParse(Object.fromEntries(url.searchParams));
-        if (!query.success) {
-          const issue = query.error.issues[0];
-          throw invalid(`Invalid \`${issue.path.map(String).join(".")}\` parameter: ${issue.message}.`);
-        }
-        const wanted = query.data.to === undefined ? null : bareAddress(query.data.to);
-        if (query.data.to !== undefined && wanted === null) throw invalid("Invalid `to` parameter: not an e-mail address.");
-        const all = await store.list();
-        const company = query.data.company;
-        const matching = all.filter(
-          (m) =>
-            (wanted === null || [...m.to, ...m.cc, ...m.bcc].some((a) => bareAddress(a) === wanted)) &&
-            (company === undefined || m.tags.some((t) => t.name === "company_id" && t.value === company)),
-        );
-        return sendJson(res, 200, { data: matching.slice(0, query.data.limit) });
-      }
-      if (method !== "GET") throw notAllowed();
-      if (!UUID.safeParse(parts[2]).success) throw new ApiError(422, "invalid_parameter", "The `id` must be a valid UUID.");
-      const found = await store.get(parts[2]);
-      if (!found) throw new ApiError(404, "not_found", "Message not found.");
-      return sendJson(res, 200, found);
-    }
-
-    throw new ApiError(404, "not_found", "The requested endpoint does not exist.");
-  }
+  // Sends still to refuse (POST /dev/faults), so tests can show the app retries.
+  const outbox: Outbox = { store, now, apiKey, refuseNext: 0, refuseStatus: 503 };
 
   const server = createServer((req, res) => {
-    handle(req, res).catch((err: unknown) => {
+    handle(outbox, req, res).catch((err: unknown) => {
       if (err instanceof ApiError) return sendJson(res, err.statusCode, err.body());
       console.error("dev outbox: unexpected error", err);
       if (!res.headersSent) {
@@ -615,22 +614,5 @@ export async function startMailFake({ port, host = "127.0.0.1", dataDir, apiKey 
     });
   });
 
-  await new Promise<void>((resolve, reject) => {
-    server.once("error", reject);
-    server.listen(port, host, () => {
-      server.off("error", reject);
-      resolve();
-    });
-  });
-  const actualPort = (server.address() as AddressInfo).port;
-  const urlHost = host.includes(":") ? `[${host}]` : host;
-
-  return {
-    url: `http://${urlHost}:${actualPort}`,
-    close: () =>
-      new Promise<void>((resolve, reject) => {
-        server.close((err) => (err ? reject(err) : resolve()));
-        server.closeAllConnections();
-      }),
-  };
+  return { url: await listenOn(server, port, host), close: () => closeServer(server) };
 }

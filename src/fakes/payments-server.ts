@@ -47,8 +47,8 @@
 // object shapes, errors and the page's HTML.
 import type { IncomingMessage, ServerResponse } from "node:http";
 import { createServer } from "node:http";
-import type { AddressInfo } from "node:net";
 import path from "node:path";
+import { closeServer, listenOn } from "./listen";
 import { handleApi } from "./payments/api";
 import type { FakeContext } from "./payments/context";
 import { handleDev } from "./payments/dev-api";
@@ -135,16 +135,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
     });
   });
 
-  await new Promise<void>((resolve, reject) => {
-    server.once("error", reject);
-    server.listen(port, host, () => {
-      server.off("error", reject);
-      resolve();
-    });
-  });
-  const actualPort = (server.address() as AddressInfo).port;
-  const urlHost = host.includes(":") ? `[${host}]` : host;
-  const url = `http://${urlHost}:${actualPort}`;
+  const url = await listenOn(server, port, host);
   ctx.baseUrl = (options.publicUrl ?? url).replace(/\/+$/, "");
 
   // Sessions made by an earlier run keep their own url; expire what ran out while stopped, and
@@ -155,7 +146,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
 
   return {
     url,
-    port: actualPort,
+    port: Number(new URL(url).port),
     dataDir,
     deliveries: () => structuredClone(store.deliveries.newestFirst()),
     flushDeliveries: () => {
@@ -166,14 +157,11 @@ export async function startPaymentsFake(options: PaymentsFakeOptions): Promise<P
       ctx.closed = true;
       if (ctx.expiryTimer) clearTimeout(ctx.expiryTimer);
       await ctx.sender.close();
-      await new Promise<void>((resolve, reject) => {
-        server.close((err) => (err ? reject(err) : resolve()));
-        server.closeAllConnections();
-      });
+      await closeServer(server);
       await store.flush();
     },
   };
-  }
+}
 
 /** One request: the API under /v1, the hosted page under /pay, the dev control API under /_dev. */
 async function handle(ctx: FakeContext, req: IncomingMessage, res: ServerResponse): Promise<void> {

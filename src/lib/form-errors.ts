@@ -14,3 +14,21 @@ export function applyFieldErrors<T extends FieldValues>(
   }
   return applied;
 }
+
+/** Zod issues or server field errors keyed by dotted path ("bands.1.minWatts"). */
+export type PathErrors = Record<string, string>;
+
+export function issuesToErrors(issues: { path: PropertyKey[]; message: string }[]): PathErrors {
+  const out: PathErrors = {};
+  for (const i of issues) {
+    const key = i.path.map(String).join(".") || "_";
+    out[key] ??= i.message;
+  }
+  return out;
+}
+
+export function fieldErrorsToErrors(fields: Record<string, string[]> | undefined): PathErrors {
+  const out: PathErrors = {};
+  for (const [k, v] of Object.entries(fields ?? {})) if (v[0]) out[k] = v[0];
+  return out;
+}

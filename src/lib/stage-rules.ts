@@ -4,23 +4,10 @@ import { z } from "zod";
 import { STAGES, type Role, type Stage } from "@/lib/enums";
 import { STAGE_LABELS } from "@/lib/stages";
 
-/** The main line of a deal, from first contact to a running system, in order. */
-export const PIPELINE: readonly Stage[] = [
-  "lead",
-  "bills_in",
-  "designing",
-  "proposal_out",
-  "signed",
-  "deposit_paid",
-  "survey",
-  "permitting",
-  "install_booked",
-  "installed",
-  "inspected",
-  "live",
-];
 /** Side states, beside the main line. */
 export const SIDE_STAGES: readonly Stage[] = ["on_hold", "lost", "cancelled"];
+/** The main line of a deal, from first contact to a running system, in order (STAGES lists it first). */
+export const PIPELINE: readonly Stage[] = STAGES.filter((s) => !SIDE_STAGES.includes(s));
 
 /** Stages a sales rep may move their own deals between; the rest is the office's. */
 export const REP_STAGES: readonly Stage[] = ["lead", "bills_in", "designing", "proposal_out", "on_hold", "lost"];
@@ -128,17 +115,17 @@ export function checkManualMove({ from, to, role, reason, permitApprovedAt }: Mo
   return { ok: true };
 }
 
+/** Why a person moves a deal (some moves require it); empty means none. */
+export const stageMoveReason = z
+  .string()
+  .trim()
+  .max(300, "Keep the reason under 300 characters")
+  .optional()
+  .nullable()
+  .transform((v) => (v ? v : null));
+
 /** PATCH /api/deals/[id]/stage */
-export const stageMoveSchema = z.object({
-  stage: z.enum(STAGES, "Pick a stage"),
-  reason: z
-    .string()
-    .trim()
-    .max(300, "Keep the reason under 300 characters")
-    .optional()
-    .nullable()
-    .transform((v) => (v ? v : null)),
-});
+export const stageMoveSchema = z.object({ stage: z.enum(STAGES, "Pick a stage"), reason: stageMoveReason });
 
 const optionalFilter = z
   .string()

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { addDaysToDate, dateInZone, instantInZone, startOfDayInZone, todayInZone } from "./zoned-time";
+import { addDaysToDate, dateInZone, dayRangeInZone, instantInZone, startOfDayInZone, todayInZone } from "./zoned-time";
 
 const NY = "America/New_York";
 
@@ -60,5 +60,24 @@ describe("input checks", () => {
     expect(() => startOfDayInZone("2026-02-30", NY)).toThrow(/Not a calendar date: "2026-02-30"/);
     expect(() => addDaysToDate("2026-13-01", 1)).toThrow(/Not a calendar date/);
     expect(() => addDaysToDate("2026-00-10", 1)).toThrow(/Not a calendar date/);
+  });
+});
+
+describe("dayRangeInZone", () => {
+  it("turns calendar days into the zone's instants, far from UTC near midnight", () => {
+    expect(dayRangeInZone({ from: "2026-03-01", to: "2026-03-31" }, "Pacific/Honolulu")).toEqual({
+      start: new Date("2026-03-01T10:00:00Z"),
+      end: new Date("2026-04-01T10:00:00Z"),
+    });
+    // Auckland is UTC+13 in March (daylight time) and UTC+12 from April 5.
+    expect(dayRangeInZone({ from: "2026-04-01", to: "2026-04-30" }, "Pacific/Auckland")).toEqual({
+      start: new Date("2026-03-31T11:00:00Z"),
+      end: new Date("2026-04-30T12:00:00Z"),
+    });
+  });
+
+  it("leaves an open side open", () => {
+    expect(dayRangeInZone({ to: "2026-12-31" }, "UTC")).toEqual({ start: undefined, end: new Date("2027-01-01T00:00:00Z") });
+    expect(dayRangeInZone({}, "UTC")).toEqual({ start: undefined, end: undefined });
   });
 });

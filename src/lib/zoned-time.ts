@@ -46,3 +46,14 @@ export function addDaysToDate(isoDate: string, days: number): string {
   const t = new TZDate(y, mo - 1, d + days, "UTC");
   return `${pad(t.getFullYear(), 4)}-${pad(t.getMonth() + 1)}-${pad(t.getDate())}`;
 }
+
+/**
+ * The instants [start, end) that the calendar days `from` to `to` (both included) cover in the
+ * zone, e.g. a "created from 1 to 31 March" filter; either side may be left open.
+ */
+export function dayRangeInZone(range: { from?: string; to?: string }, timeZone: string): { start?: Date; end?: Date } {
+  return {
+    start: range.from ? startOfDayInZone(range.from, timeZone) : undefined,
+    end: range.to ? startOfDayInZone(addDaysToDate(range.to, 1), timeZone) : undefined,
+  };
+}

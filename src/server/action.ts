@@ -41,16 +41,3 @@ export function memberAction<S extends z.ZodType, T>(
     }
   };
 }
-
-/** The same for public actions (sign-up, accepting an invitation). */
-export function publicAction<S extends z.ZodType, T>(schema: S, body: (input: z.output<S>) => Promise<T>) {
-  return async (input: z.input<S>): Promise<ActionResult<T>> => {
-    try {
-      const parsed = schema.safeParse(input);
-      if (!parsed.success) throw validationError(parsed.error);
-      return { ok: true, data: await body(parsed.data) };
-    } catch (err) {
-      return actionError(err);
-    }
-  };
-}

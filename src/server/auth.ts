@@ -1,5 +1,5 @@
 import "server-only";
-import { betterAuth } from "better-auth";
+import { betterAuth, type BetterAuthOptions } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { APIError, createAuthMiddleware } from "better-auth/api";
 import { textProblem } from "@/lib/schemas/text";
@@ -90,6 +90,71 @@ async function resetWorkForNobody(email: string): Promise<void> {
 
 const addressOf = (headers: Headers | undefined) => clientAddress(headers ?? new Headers());
 
+/** E-mail and password: the mails better-auth asks us to send (each names its company), and the reset's lock lift. */
+function emailAndPasswordOptions(appUrl: string): NonNullable<BetterAuthOptions["emailAndPassword"]> {
+  return {
+    enabled: true,
+    requireEmailVerification: true,
+    minPasswordLength: PASSWORD_MIN_LENGTH,
+    maxPasswordLength: 128,
+    resetPasswordTokenExpiresIn: RESET_TOKEN_MINUTES * 60,
+    revokeSessionsOnPasswordReset: true,
+    // The reset link proves the mailbox: the e-mail's sign-in lock is lifted.
+    onPasswordReset: async ({ user: u }) => {
+      await clearTurns("signInEmail", emailKey(u.email));
+    },
+    // Sign-up with a known address answers as a new one would; the owner gets this instead.
+    onExistingUserSignUp: async ({ user: u }) => {
+      const companyId = await mailCompanyOfUser(u.id);
+      if (!companyId) return console.error("account-exists e-mail not sent: the account belongs to no company", u.id);
+      await sendEmail({
+        companyId,
+        to: u.email,
+        subject: "You already have a Kilowright account",
+        react: createElement(AccountExistsEmail, { name: u.name, signInUrl: `${appUrl}/sign-in`, resetUrl: `${appUrl}/forgot-password` }),
+      });
+    },
+    sendResetPassword: async ({ user: u, url }) => {
+      const companyId = await mailCompanyOfUser(u.id);
+      // Every message belongs to a company; an account without one has nothing to sign in to.
+      if (!companyId) return console.error("password reset not sent: the account belongs to no company", u.id);
+      await sendEmail({
+        companyId,
+        to: u.email,
+        subject: "Reset your Kilowright password",
+        react: resetEmail(u.name, url),
+      });
+    },
+  };
+}
+
+/** Our limits before better-auth's endpoints run, and what a sign-in or sign-out changes after. */
+const authHooks = {
+  before: createAuthMiddleware(async (ctx) => {
+    const email = emailOf(ctx.body);
+    const address = addressOf(ctx.headers);
+    if (ctx.path === "/sign-in/email" && email) await takeSignInTurns(address, email).catch(tooMany);
+    if (ctx.path === "/request-password-reset" && email) {
+      await takeTurn("resetAddress", address).catch(tooMany);
+      await takeTurn("resetEmail", emailKey(email), (wait) => `A reset link for this address was asked for several times. Check your e-mail, or try again in ${wait}.`).catch(tooMany);
+      await resetWorkForNobody(email);
+    }
+    if (ctx.path === "/send-verification-email" && email) {
+      await takeTurn("verificationEmail", emailKey(email), (wait) => `Several confirmation e-mails went to this address already. Check your e-mail, or ask again in ${wait}.`).catch(tooMany);
+    }
+  }),
+  after: createAuthMiddleware(async (ctx) => {
+    if (ctx.path === "/sign-out") forgetCookie(ctx.headers?.get("cookie"));
+    if (ctx.path !== "/sign-in/email") return;
+    const email = emailOf(ctx.body);
+    if (!email) return;
+    const returned = ctx.context.returned;
+    // Signed in, or refused only after the password check (403: not yet confirmed, deactivated).
+    const right = returned instanceof APIError ? returned.statusCode === 403 : !(returned instanceof Error);
+    if (right) await rightPassword(addressOf(ctx.headers), email);
+  }),
+};
+
 function createAuth() {
   const config = env();
   return betterAuth({
@@ -117,40 +182,7 @@ function createAuth() {
       },
     },
     session: { expiresIn: SESSION_DAYS * 24 * 3600, updateAge: 24 * 3600 },
-    emailAndPassword: {
-      enabled: true,
-      requireEmailVerification: true,
-      minPasswordLength: PASSWORD_MIN_LENGTH,
-      maxPasswordLength: 128,
-      resetPasswordTokenExpiresIn: RESET_TOKEN_MINUTES * 60,
-      revokeSessionsOnPasswordReset: true,
-      // The reset link proves the mailbox: the e-mail's sign-in lock is lifted.
-      onPasswordReset: async ({ user: u }) => {
-        await clearTurns("signInEmail", emailKey(u.email));
-      },
-      // Sign-up with a known address answers as a new one would; the owner gets this instead.
-      onExistingUserSignUp: async ({ user: u }) => {
-        const companyId = await mailCompanyOfUser(u.id);
-        if (!companyId) return console.error("account-exists e-mail not sent: the account belongs to no company", u.id);
-        await sendEmail({
-          companyId,
-          to: u.email,
-          subject: "You already have a Kilowright account",
-          react: createElement(AccountExistsEmail, { name: u.name, signInUrl: `${config.APP_URL}/sign-in`, resetUrl: `${config.APP_URL}/forgot-password` }),
-        });
-      },
-      sendResetPassword: async ({ user: u, url }) => {
-        const companyId = await mailCompanyOfUser(u.id);
-        // Every message belongs to a company; an account without one has nothing to sign in to.
-        if (!companyId) return console.error("password reset not sent: the account belongs to no company", u.id);
-        await sendEmail({
-          companyId,
-          to: u.email,
-          subject: "Reset your Kilowright password",
-          react: resetEmail(u.name, url),
-        });
-      },
-    },
+    emailAndPassword: emailAndPasswordOptions(config.APP_URL),
     emailVerification: {
       sendOnSignUp: true,
       sendOnSignIn: true,
@@ -186,31 +218,7 @@ function createAuth() {
         },
       },
     },
-    hooks: {
-      before: createAuthMiddleware(async (ctx) => {
-        const email = emailOf(ctx.body);
-        const address = addressOf(ctx.headers);
-        if (ctx.path === "/sign-in/email" && email) await takeSignInTurns(address, email).catch(tooMany);
-        if (ctx.path === "/request-password-reset" && email) {
-          await takeTurn("resetAddress", address).catch(tooMany);
-          await takeTurn("resetEmail", emailKey(email), (wait) => `A reset link for this address was asked for several times. Check your e-mail, or try again in ${wait}.`).catch(tooMany);
-          await resetWorkForNobody(email);
-        }
-        if (ctx.path === "/send-verification-email" && email) {
-          await takeTurn("verificationEmail", emailKey(email), (wait) => `Several confirmation e-mails went to this address already. Check your e-mail, or ask again in ${wait}.`).catch(tooMany);
-        }
-      }),
-      after: createAuthMiddleware(async (ctx) => {
-        if (ctx.path === "/sign-out") forgetCookie(ctx.headers?.get("cookie"));
-        if (ctx.path !== "/sign-in/email") return;
-        const email = emailOf(ctx.body);
-        if (!email) return;
-        const returned = ctx.context.returned;
-        // Signed in, or refused only after the password check (403: not yet confirmed, deactivated).
-        const right = returned instanceof APIError ? returned.statusCode === 403 : !(returned instanceof Error);
-        if (right) await rightPassword(addressOf(ctx.headers), email);
-      }),
-    },
+    hooks: authHooks,
     plugins: [nextCookies()],
   });
 }

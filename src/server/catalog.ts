@@ -25,8 +25,9 @@ import {
   type modulePatchSchema,
 } from "@/lib/schemas/catalog";
 import { BODY_CAPS, readCappedBody, readCappedForm } from "@/server/body-limit";
+import { companyRowOrThrow } from "@/server/records";
 import { db, type Tx } from "@/server/db";
-import { HttpError, notFound } from "@/server/errors";
+import { HttpError } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
@@ -51,13 +52,7 @@ export async function listActiveModules(companyId: string): Promise<ModuleModel[
 
 /** A module of the company, active or not (an existing design may use a deactivated one). */
 export async function getModuleOrThrow(companyId: string, id: string): Promise<ModuleModel> {
-  const [row] = await db()
-    .select()
-    .from(moduleModel)
-    .where(and(eq(moduleModel.id, id), eq(moduleModel.companyId, companyId)))
-    .limit(1);
-  if (!row) throw notFound("Module");
-  return row;
+  return companyRowOrThrow(moduleModel, companyId, id, "Module");
 }
 
 export async function listInverters(companyId: string): Promise<InverterModel[]> {
@@ -78,13 +73,7 @@ export async function listActiveInverters(companyId: string): Promise<InverterMo
 }
 
 export async function getInverterOrThrow(companyId: string, id: string): Promise<InverterModel> {
-  const [row] = await db()
-    .select()
-    .from(inverterModel)
-    .where(and(eq(inverterModel.id, id), eq(inverterModel.companyId, companyId)))
-    .limit(1);
-  if (!row) throw notFound("Inverter");
-  return row;
+  return companyRowOrThrow(inverterModel, companyId, id, "Inverter");
 }
 
 // ── Writes ───────────────────────────────────────────────────────────────────────────

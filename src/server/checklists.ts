@@ -3,9 +3,10 @@ import { randomBytes } from "node:crypto";
 import { and, asc, eq, ne } from "drizzle-orm";
 import type { z } from "zod";
 import { checklistTemplate } from "@/db/schema";
-import { parseTemplateItems, type ChecklistTemplateItem, type checklistTemplateSchema, type updateChecklistTemplateSchema } from "@/lib/schemas/jobs";
+import { type ChecklistTemplateItem, type checklistTemplateSchema, type updateChecklistTemplateSchema } from "@/lib/schemas/jobs";
+import { companyRowOrThrow } from "@/server/records";
 import { db } from "@/server/db";
-import { notFound } from "@/server/errors";
+
 import type { Member } from "@/server/session";
 
 export type ChecklistTemplateView = {
@@ -18,7 +19,7 @@ export type ChecklistTemplateView = {
 };
 
 function view(row: typeof checklistTemplate.$inferSelect): ChecklistTemplateView {
-  return { id: row.id, name: row.name, items: parseTemplateItems(row.items), active: row.active, createdAt: row.createdAt, updatedAt: row.updatedAt };
+  return { id: row.id, name: row.name, items: row.items, active: row.active, createdAt: row.createdAt, updatedAt: row.updatedAt };
 }
 
 /** Item keys: kept when an item is edited, new for a new item. */
@@ -37,13 +38,7 @@ export async function listChecklistTemplates(member: Member): Promise<ChecklistT
 }
 
 export async function getChecklistTemplateOrThrow(member: Member, id: string): Promise<ChecklistTemplateView> {
-  const [row] = await db()
-    .select()
-    .from(checklistTemplate)
-    .where(and(eq(checklistTemplate.id, id), eq(checklistTemplate.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Checklist");
-  return view(row);
+  return view(await companyRowOrThrow(checklistTemplate, member.companyId, id, "Checklist"));
 }
 
 /**

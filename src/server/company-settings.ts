@@ -1,7 +1,7 @@
 import "server-only";
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { company, type Stage } from "@/db/schema";
-import { parseStoredSettings, stallLimits, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
+import { stallLimits, storedCompanySettingsSchema, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
 import { db } from "@/server/db";
 import { notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -18,21 +18,23 @@ export type CompanySettings = {
   stallLimits: Partial<Record<Stage, number>>;
   /** The savings assumptions every new offer is figured with. */
   finance: FinanceAssumptions;
+  /** Grows whenever `finance` changes; offers record the one they used. */
+  financeVersion: number;
 };
 
 /**
- * The company's name, licence number and settings. Stored settings are validated; anything
- * missing or damaged falls back to the defaults (src/lib/stage-rules.ts DEFAULT_STALL_DAYS).
+ * The company's name, licence number and settings. The settings column's schema fills in
+ * anything missing or damaged with its default (src/lib/stage-rules.ts DEFAULT_STALL_DAYS).
  */
 export async function getCompanySettings(companyId: string): Promise<CompanySettings> {
   const [row] = await db()
-    .select({ id: company.id, name: company.name, licenseNumber: company.licenseNumber, settings: company.settings })
+    .select({ id: company.id, name: company.name, licenseNumber: company.licenseNumber, settings: company.settings, financeVersion: company.financeVersion })
     .from(company)
     .where(eq(company.id, companyId))
     .limit(1);
   if (!row) throw notFound("Company");
-  const { stallDays, timeZone, finance } = parseStoredSettings(row.settings);
-  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance };
+  const { stallDays, timeZone, finance } = row.settings ?? storedCompanySettingsSchema.parse({});
+  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance, financeVersion: row.financeVersion };
 }
 
 /** GET /api/companies/[id]: one's own company only; any other id is simply not found. */
@@ -49,13 +51,15 @@ export async function updateCompanySettings(member: Member, input: CompanySettin
   await db().transaction(async (tx) => {
     const [row] = await tx.select({ settings: company.settings }).from(company).where(eq(company.id, member.companyId)).for("update");
     if (!row) throw notFound("Company");
-    const previous = row.settings && typeof row.settings === "object" && !Array.isArray(row.settings) ? (row.settings as Record<string, unknown>) : {};
+    const previous = row.settings ?? storedCompanySettingsSchema.parse({});
+    const financeChanged = !!input.finance && JSON.stringify(previous.finance) !== JSON.stringify(input.finance);
     await tx
       .update(company)
       .set({
         name: input.name,
         licenseNumber: input.licenseNumber,
-        settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays, ...(input.finance ? { finance: input.finance } : {}) },
+        settings: { ...previous, timeZone: input.timeZone, stallDays: input.stallDays, finance: input.finance ?? previous.finance },
+        ...(financeChanged ? { financeVersion: sql`${company.financeVersion} + 1` } : {}),
       })
       .where(eq(company.id, member.companyId));
   });

@@ -5,8 +5,9 @@ import type { z } from "zod";
 import { crew, job, membership, user } from "@/db/schema";
 import { env } from "@/env";
 import type { createCrewSchema, updateCrewSchema } from "@/lib/schemas/jobs";
+import { companyRowOrThrow } from "@/server/records";
 import { db } from "@/server/db";
-import { HttpError, notFound } from "@/server/errors";
+import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 
 export type CrewPerson = { membershipId: string; userId: string; name: string; email: string; status: "active" | "deactivated" };
@@ -56,7 +57,12 @@ async function openJobCounts(companyId: string): Promise<Map<string, number>> {
 /** The company's crews with their installers, for the office's crews page. */
 export async function listCrews(member: Member): Promise<CrewView[]> {
   const rows = await db().select().from(crew).where(eq(crew.companyId, member.companyId)).orderBy(asc(crew.name));
-  const [people, counts] = await Promise.all([crewPeople(member.companyId, rows.map((r) => r.id)), openJobCounts(member.companyId)]);
+  return crewViews(member.companyId, rows);
+}
+
+/** Crews with their installers, calendar link and open jobs. */
+async function crewViews(companyId: string, rows: (typeof crew.$inferSelect)[]): Promise<CrewView[]> {
+  const [people, counts] = await Promise.all([crewPeople(companyId, rows.map((r) => r.id)), openJobCounts(companyId)]);
   return rows.map((r) => ({
     id: r.id,
     name: r.name,
@@ -74,22 +80,8 @@ export async function listCrewOptions(companyId: string): Promise<{ id: string; 
 }
 
 export async function getCrewOrThrow(member: Member, crewId: string): Promise<CrewView> {
-  const [row] = await db()
-    .select()
-    .from(crew)
-    .where(and(eq(crew.id, crewId), eq(crew.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Crew");
-  const [people, counts] = await Promise.all([crewPeople(member.companyId, [row.id]), openJobCounts(member.companyId)]);
-  return {
-    id: row.id,
-    name: row.name,
-    feedUrl: crewFeedUrl(row.feedToken),
-    members: people.get(row.id) ?? [],
-    openJobs: counts.get(row.id) ?? 0,
-    createdAt: row.createdAt,
-    updatedAt: row.updatedAt,
-  };
+  const [view] = await crewViews(member.companyId, [await companyRowOrThrow(crew, member.companyId, crewId, "Crew")]);
+  return view;
 }
 
 /** The installers of the company (role crew) with the crew each belongs to, for assigning. */

@@ -20,11 +20,12 @@ import {
   type DealTableSortColumn,
 } from "@/lib/schemas/deal-table";
 import { STAGE_LABELS } from "@/lib/stages";
+import { zoneForDays, withinDays } from "@/server/day-filters";
 import { db } from "@/server/db";
 import { dealAudience, visibleTo } from "@/server/deals";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
-import { moveDealStage } from "@/server/stages";
+import { activeDealOwners, moveDealStage } from "@/server/stages";
 import { recordEvent } from "@/server/timeline";
 
 const SORT_COLUMNS: Record<DealTableSortColumn, AnyMySqlColumn> = {
@@ -55,18 +56,12 @@ const rowColumns = {
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
-function nextDay(isoDay: string): Date {
-  const d = new Date(`${isoDay}T00:00:00Z`);
-  d.setUTCDate(d.getUTCDate() + 1);
-  return d;
-}
-
 /**
  * The filters once a search is resolved: a search matching few households becomes the list of
  * their ids (householdIds, read by the deal's household index); one matching many stays a
  * LIKE over the joined households (q), where matches are dense and found quickly.
  */
-type Scope = DealTableFilters & { householdIds?: string[] };
+type Scope = DealTableFilters & { householdIds?: string[]; timeZone?: string | null };
 
 /** Past this many matching households a search stays a LIKE on the joined households. */
 const SEARCH_HOUSEHOLD_IDS = 1_000;
@@ -120,8 +115,7 @@ function whereFor(member: Member, f: Scope): SQL {
   if (f.stage) parts.push(eq(deal.stage, f.stage));
   if (f.owner) parts.push(eq(deal.ownerUserId, f.owner));
   if (f.source) parts.push(eq(deal.source, f.source));
-  if (f.from) parts.push(gte(deal.createdAt, new Date(`${f.from}T00:00:00Z`)));
-  if (f.to) parts.push(lt(deal.createdAt, nextDay(f.to)));
+  parts.push(...withinDays(deal.createdAt, f, f.timeZone ?? null));
   if (f.q) parts.push(searchCondition(f.q));
   return and(...parts) as SQL;
 }
@@ -245,9 +239,9 @@ async function countMatching(member: Member, f: Scope, limit: number): Promise<{
 }
 
 /** One page read from the database: the ids in SQL order, their rows, and the total. */
-async function readPage(member: Member, query: DealTableQuery, countLimit: number, revision: Revision): Promise<DealTablePage> {
+async function readPage(member: Member, query: DealTableQuery, countLimit: number, revision: Revision, timeZone: string | null): Promise<DealTablePage> {
   const offset = (query.page - 1) * query.pageSize;
-  const scope = await resolveSearchKept(member, query, revision);
+  const scope = { ...(await resolveSearchKept(member, query, revision)), timeZone };
   // One id more than the page tells whether another page follows, even when the count stops.
   const limit = query.q ? Math.min(countLimit, DEAL_TABLE_SEARCH_COUNT_LIMIT) : countLimit;
   const [ids, counted] = await Promise.all([pageIds(member, scope, query.pageSize + 1, offset), countMatching(member, scope, limit)]);
@@ -286,7 +280,7 @@ let revisionQuery: ReturnType<typeof prepareRevisionQuery> | undefined;
 
 /** The company's two counters: any change a deals list shows, and changes to households' searchable text. */
 type Revision = { deals: number; households: number };
-type PageRequest = { member: Member; query: DealTableQuery; countLimit: number; revision: Revision };
+type PageRequest = { member: Member; query: DealTableQuery; countLimit: number; revision: Revision; timeZone: string | null };
 
 /**
  * Recently read pages. Offices open the same views again and again (the default sort, a saved
@@ -298,7 +292,7 @@ const pageCache = new LRUCache<string, DealTablePage, PageRequest>({
   maxSize: 100_000,
   sizeCalculation: (page) => page.rows.length + 1,
   // Frozen: one page object answers many requests (and its JSON text is kept beside it).
-  fetchMethod: async (_key, _stale, { context }) => deepFreeze(await readPage(context.member, context.query, context.countLimit, context.revision)),
+  fetchMethod: async (_key, _stale, { context }) => deepFreeze(await readPage(context.member, context.query, context.countLimit, context.revision, context.timeZone)),
 });
 
 function deepFreeze(page: DealTablePage): DealTablePage {
@@ -313,14 +307,15 @@ const pageJson = new WeakMap<DealTablePage, string>();
 /** Whose deals a page shows (deals.ts dealAudience, the rule visibleTo applies). */
 const audience = (member: Member) => (dealAudience(member) === "company" ? "company" : `own:${member.userId}`);
 
-function pageKey(member: Member, q: DealTableQuery, countLimit: number, revision: Revision): string {
-  return JSON.stringify([member.companyId, audience(member), revision.deals, countLimit, q.page, q.pageSize, q.sort, q.stage, q.owner, q.source, q.q, q.from, q.to]);
+function pageKey(member: Member, q: DealTableQuery, countLimit: number, revision: Revision, timeZone: string | null): string {
+  return JSON.stringify([member.companyId, audience(member), revision.deals, countLimit, q.page, q.pageSize, q.sort, q.stage, q.owner, q.source, q.q, q.from, q.to, timeZone]);
 }
 
 /** One page of the deals a person may see, paged, sorted and filtered in SQL, with the total. */
 export async function dealTablePage(member: Member, query: DealTableQuery, countLimit = DEAL_TABLE_COUNT_LIMIT): Promise<DealTablePage> {
-  const revision = await revisionOf(member.companyId);
-  const page = await pageCache.fetch(pageKey(member, query, countLimit, revision), { context: { member, query, countLimit, revision } });
+  // The day filters are the company's calendar days: its zone is part of the page's key.
+  const [revision, timeZone] = await Promise.all([revisionOf(member.companyId), zoneForDays(member.companyId, query)]);
+  const page = await pageCache.fetch(pageKey(member, query, countLimit, revision, timeZone), { context: { member, query, countLimit, revision, timeZone } });
   if (!page) throw new Error("The deals table page could not be read.");
   return page;
 }
@@ -340,7 +335,7 @@ export const EXPORT_CHUNK_ROWS = 1_000;
 
 /** Every row of the filtered view, read from the database 1,000 rows at a time. */
 export async function* dealTableChunks(member: Member, filters: DealTableFilters, chunkRows = EXPORT_CHUNK_ROWS): AsyncGenerator<DealTableRow[]> {
-  const scope = await resolveSearch(member, filters);
+  const scope = { ...(await resolveSearch(member, filters)), timeZone: await zoneForDays(member.companyId, filters) };
   for (let offset = 0; ; offset += chunkRows) {
     const ids = await pageIds(member, scope, chunkRows, offset);
     if (ids.length > 0) yield await rowsOf(member, ids);
@@ -422,7 +417,6 @@ export async function dealOwnerOptions(member: Member): Promise<Array<{ id: stri
 // ── Bulk actions on selected deals ──
 
 /** Roles that may own deals (the same people as the owner filter). */
-const DEAL_OWNER_ROLES: ("owner" | "admin" | "office_manager" | "sales_rep")[] = ["owner", "admin", "office_manager", "sales_rep"];
 
 /** The household names of the selected deals the person may see (others are not found). */
 async function visibleNames(member: Member, dealIds: string[]): Promise<Map<string, string>> {
@@ -438,19 +432,7 @@ const notFoundResult = (dealId: string): BulkResult => ({ dealId, householdName:
 
 /** An active member of the company who may own deals, or a 422 naming the field. */
 async function newOwnerOrThrow(member: Member, ownerUserId: string): Promise<{ id: string; name: string }> {
-  const [row] = await db()
-    .select({ id: user.id, name: user.name })
-    .from(membership)
-    .innerJoin(user, eq(user.id, membership.userId))
-    .where(
-      and(
-        eq(membership.companyId, member.companyId),
-        eq(membership.userId, ownerUserId),
-        eq(membership.status, "active"),
-        inArray(membership.role, DEAL_OWNER_ROLES),
-      ),
-    )
-    .limit(1);
+  const [row] = await activeDealOwners(member.companyId, ownerUserId).limit(1);
   if (!row) {
     const message = "Pick an active rep, office manager, admin or owner of your company";
     throw new HttpError(422, "validation_failed", `action.ownerUserId: ${message}`, { "action.ownerUserId": [message] });

@@ -1,51 +1,16 @@
 import "server-only";
-import { and, desc, eq, like, or, type SQL } from "drizzle-orm";
+import { and, desc, eq, getTableColumns, like, or } from "drizzle-orm";
 import type { z } from "zod";
-import { deal, household, ratePlan, user, type Stage } from "@/db/schema";
+import { deal, household, ratePlan, user } from "@/db/schema";
 import type { householdSchema, leadSchema } from "@/lib/schemas/deal";
-import { can } from "@/lib/permissions";
 import { db } from "@/server/db";
+import { dealColumns, visibleTo, type DealRow } from "@/server/deal-audience";
 import { HttpError, notFound } from "@/server/errors";
+import type { DealScope } from "@/server/deal-scope";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
 
-export type DealRow = {
-  id: string;
-  stage: Stage;
-  stageChangedAt: Date;
-  source: string | null;
-  contractCents: number | null;
-  systemDcWatts: number | null;
-  householdId: string;
-  householdName: string;
-  city: string;
-  ownerName: string | null;
-  createdAt: Date;
-};
-
-/** Whose deals a person sees: the company's (office roles) or only the deals they own (reps). */
-export const dealAudience = (member: Member): "company" | "own" => (can(member.role, "deals:read-all") ? "company" : "own");
-
-/** The SQL of dealAudience, always scoped by company (every list of deals uses it). */
-export function visibleTo(member: Member): SQL {
-  const company = eq(deal.companyId, member.companyId);
-  if (dealAudience(member) === "company") return company;
-  return and(company, eq(deal.ownerUserId, member.userId)) as SQL;
-}
-
-const dealColumns = {
-  id: deal.id,
-  stage: deal.stage,
-  stageChangedAt: deal.stageChangedAt,
-  source: deal.source,
-  contractCents: deal.contractCents,
-  systemDcWatts: deal.systemDcWatts,
-  householdId: household.id,
-  householdName: household.name,
-  city: household.city,
-  ownerName: user.name,
-  createdAt: deal.createdAt,
-};
+export { dealAudience, visibleTo, type DealRow } from "@/server/deal-audience";
 
 /** The deals a person may see, optionally matching a search on household, contact, street or city. */
 export async function listDeals(member: Member, query?: string): Promise<DealRow[]> {
@@ -63,47 +28,32 @@ export async function listDeals(member: Member, query?: string): Promise<DealRow
     .orderBy(desc(deal.stageChangedAt));
 }
 
-export async function getDealOrThrow(member: Member, dealId: string): Promise<DealRow> {
-  const [row] = await db()
-    .select(dealColumns)
-    .from(deal)
-    .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
-    .leftJoin(user, eq(user.id, deal.ownerUserId))
-    .where(and(eq(deal.id, dealId), visibleTo(member)))
-    .limit(1);
-  if (!row) throw notFound("Deal");
-  return row;
-}
-
+/** A household by id; reps only through a deal they own (households are made with their deal). */
 export async function getHouseholdOrThrow(member: Member, householdId: string) {
   const [row] = await db()
-    .select()
+    .select({ household })
     .from(household)
+    .innerJoin(deal, and(eq(deal.householdId, household.id), visibleTo(member)))
     .where(and(eq(household.id, householdId), eq(household.companyId, member.companyId)))
     .limit(1);
   if (!row) throw notFound("Household");
-  if (!can(member.role, "deals:read-all")) {
-    // A rep sees a household only through a deal they own.
-    const [owned] = await db()
-      .select({ id: deal.id })
-      .from(deal)
-      .where(and(eq(deal.householdId, householdId), eq(deal.companyId, member.companyId), eq(deal.ownerUserId, member.userId)))
-      .limit(1);
-    if (!owned) throw notFound("Household");
-  }
-  return row;
+  return row.household;
+}
+
+/** A rate plan the deal may use: one of the company's (422 naming the field otherwise). */
+async function checkRatePlan(companyId: string, ratePlanId: string | null | undefined): Promise<void> {
+  if (!ratePlanId) return;
+  const [plan] = await db()
+    .select({ id: ratePlan.id })
+    .from(ratePlan)
+    .where(and(eq(ratePlan.id, ratePlanId), eq(ratePlan.companyId, companyId)))
+    .limit(1);
+  if (!plan) throw new HttpError(422, "validation_failed", "ratePlanId: Pick a rate plan from the list", { ratePlanId: ["Pick a rate plan from the list"] });
 }
 
 /** A new lead: the household and its deal, owned by the rep who created it. */
 export async function createLead(member: Member, input: z.output<typeof leadSchema>): Promise<{ dealId: string; householdId: string }> {
-  if (input.ratePlanId) {
-    const [plan] = await db()
-      .select({ id: ratePlan.id })
-      .from(ratePlan)
-      .where(and(eq(ratePlan.id, input.ratePlanId), eq(ratePlan.companyId, member.companyId)))
-      .limit(1);
-    if (!plan) throw new HttpError(422, "validation_failed", "ratePlanId: Pick a rate plan from the list", { ratePlanId: ["Pick a rate plan from the list"] });
-  }
+  await checkRatePlan(member.companyId, input.ratePlanId);
   const householdId = crypto.randomUUID();
   const dealId = crypto.randomUUID();
   const { utilityName, ratePlanId, source, ...home } = input;
@@ -130,10 +80,10 @@ export async function createLead(member: Member, input: z.output<typeof leadSche
   return { dealId, householdId };
 }
 
-export async function updateHousehold(member: Member, dealId: string, input: z.output<typeof householdSchema>) {
-  const found = await getDealOrThrow(member, dealId);
+export async function updateHousehold(scope: DealScope, input: z.output<typeof householdSchema>) {
+  const { member, dealId } = scope;
   await db().transaction(async (tx) => {
-    await tx.update(household).set(input).where(and(eq(household.id, found.householdId), eq(household.companyId, member.companyId)));
+    await tx.update(household).set(input).where(and(eq(household.id, scope.deal.householdId), eq(household.companyId, member.companyId)));
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId,
@@ -144,30 +94,11 @@ export async function updateHousehold(member: Member, dealId: string, input: z.o
   });
 }
 
-/** The deal with its household and settings, for the deal room. */
-export async function getDealRoom(member: Member, dealId: string) {
-  const row = await getDealOrThrow(member, dealId);
-  const home = await getHouseholdOrThrow(member, row.householdId);
-  const [extra] = await db()
-    .select({ utilityName: deal.utilityName, ratePlanId: deal.ratePlanId })
-    .from(deal)
-    .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)))
-    .limit(1);
-  return { deal: { ...row, ...extra }, household: home };
-}
-
 /** Recently used sites of the company, to pick coordinates from (no map service is reachable). */
 export async function recentSites(member: Member, limit = 12) {
+  const { name, street, city, region, postalCode, latitude, longitude } = getTableColumns(household);
   return db()
-    .select({
-      name: household.name,
-      street: household.street,
-      city: household.city,
-      region: household.region,
-      postalCode: household.postalCode,
-      latitude: household.latitude,
-      longitude: household.longitude,
-    })
+    .select({ name, street, city, region, postalCode, latitude, longitude })
     .from(household)
     .where(eq(household.companyId, member.companyId))
     .orderBy(desc(household.createdAt))
@@ -184,16 +115,9 @@ export async function listRatePlanOptions(member: Member) {
 }
 
 /** Changes the deal's utility and rate plan (the plan must be one of the company's). */
-export async function updateDealUtility(member: Member, dealId: string, input: { utilityName: string | null; ratePlanId: string | null }) {
-  await getDealOrThrow(member, dealId);
-  if (input.ratePlanId) {
-    const [plan] = await db()
-      .select({ id: ratePlan.id })
-      .from(ratePlan)
-      .where(and(eq(ratePlan.id, input.ratePlanId), eq(ratePlan.companyId, member.companyId)))
-      .limit(1);
-    if (!plan) throw new HttpError(422, "validation_failed", "ratePlanId: Pick a rate plan from the list", { ratePlanId: ["Pick a rate plan from the list"] });
-  }
+export async function updateDealUtility(scope: DealScope, input: { utilityName: string | null; ratePlanId: string | null }) {
+  const { member, dealId } = scope;
+  await checkRatePlan(member.companyId, input.ratePlanId);
   await db().transaction(async (tx) => {
     await tx
       .update(deal)

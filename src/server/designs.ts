@@ -1,16 +1,15 @@
 import "server-only";
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { design, weatherStation } from "@/db/schema";
 import { estimateProduction } from "@/engine/production";
-import { spreadMonthlyToHourly } from "@/engine/load-shape";
 import type { WeatherYear } from "@/engine/weather";
 import { engineSystem, manualProductionHourly, MANUAL_SHAPE_NOTE, type InverterSpec, type ModuleSpec } from "@/lib/offer-figures";
 import { designDocumentSchema, saveDesignSchema, type DesignDocument } from "@/lib/schemas/design";
 import { getInverterOrThrow, getModuleOrThrow, listActiveInverters, listActiveModules, type InverterModel, type ModuleModel } from "@/server/catalog";
 import { db } from "@/server/db";
-import { getDealOrThrow, getDealRoom } from "@/server/deals";
+import { inDealOrThrow, openDeal, type DealScope } from "@/server/deal-scope";
 import { getDealUsage } from "@/server/energy";
-import { HttpError, notFound } from "@/server/errors";
+import { HttpError } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
@@ -21,7 +20,7 @@ export function jsonValue(raw: unknown): unknown {
   return typeof raw === "string" ? JSON.parse(raw) : raw;
 }
 
-export type DesignRecord = { id: string; dealId: string; document: DesignDocument; weatherStationId: string | null; updatedAt: Date };
+export type DesignRecord = { id: string; dealId: string; document: DesignDocument; weatherStationId: string | null; revision: number; updatedAt: Date };
 
 function parseDocument(raw: unknown): DesignDocument {
   const parsed = designDocumentSchema.safeParse(jsonValue(raw));
@@ -29,11 +28,11 @@ function parseDocument(raw: unknown): DesignDocument {
   return parsed.data;
 }
 
-const columns = { id: design.id, dealId: design.dealId, document: design.document, weatherStationId: design.weatherStationId, updatedAt: design.updatedAt };
+const columns = { id: design.id, dealId: design.dealId, document: design.document, weatherStationId: design.weatherStationId, revision: design.revision, updatedAt: design.updatedAt };
 
 /** The deal's design, or null before the first save. */
-export async function getDesignForDeal(member: Member, dealId: string): Promise<DesignRecord | null> {
-  await getDealOrThrow(member, dealId);
+export async function getDesignForDeal(scope: DealScope): Promise<DesignRecord | null> {
+  const { member, dealId } = scope;
   const [row] = await db()
     .select(columns)
     .from(design)
@@ -44,15 +43,12 @@ export async function getDesignForDeal(member: Member, dealId: string): Promise<
 
 /** A design by its id; reps only through deals they own (another company's: not found). */
 export async function getDesignOrThrow(member: Member, designId: string): Promise<DesignRecord> {
-  const [row] = await db()
+  const rows = await db()
     .select(columns)
     .from(design)
     .where(and(eq(design.id, designId), eq(design.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Design");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Design") : err;
-  });
+  const row = await inDealOrThrow(member, "Design", rows);
   return { ...row, document: parseDocument(row.document) };
 }
 
@@ -83,7 +79,7 @@ export async function saveDesign(member: Member, input: unknown): Promise<Design
   const parsed = saveDesignSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
   const { dealId, document } = parsed.data;
-  await getDealOrThrow(member, dealId);
+  const scope = await openDeal(member, dealId);
   const { mod, inv } = await designEquipment(member, document.moduleId, document.inverterId);
   if (document.weather.kind === "station") await checkStation(member.companyId, document.weather.stationId);
   const stationId = document.weather.kind === "station" ? document.weather.stationId : null;
@@ -98,7 +94,7 @@ export async function saveDesign(member: Member, input: unknown): Promise<Design
     if (existing) {
       await tx
         .update(design)
-        .set({ document, weatherStationId: stationId })
+        .set({ document, weatherStationId: stationId, revision: sql`${design.revision} + 1` })
         .where(and(eq(design.id, existing.id), eq(design.companyId, member.companyId)));
     } else {
       await tx.insert(design).values({ id: crypto.randomUUID(), companyId: member.companyId, dealId, document, weatherStationId: stationId });
@@ -112,7 +108,7 @@ export async function saveDesign(member: Member, input: unknown): Promise<Design
       data: { modules, kwDc: kw },
     });
   });
-  const saved = await getDesignForDeal(member, dealId);
+  const saved = await getDesignForDeal(scope);
   if (!saved) throw new Error("design vanished right after saving");
   return saved;
 }
@@ -144,16 +140,16 @@ export async function listStationOptions(companyId: string, site: { latitude: nu
     .sort((a, b) => a.distanceKm - b.distanceKm);
 }
 
-export async function getDesignInputs(member: Member, dealId: string): Promise<DesignInputs> {
-  const room = await getDealRoom(member, dealId);
-  const site = { latitude: room.household.latitude, longitude: room.household.longitude };
+export async function getDesignInputs(scope: DealScope): Promise<DesignInputs> {
+  const { member, dealId } = scope;
+  const site = { latitude: scope.household.latitude, longitude: scope.household.longitude };
   const [usage, modules, inverters, stations, nearest, saved] = await Promise.all([
-    getDealUsage(member, dealId),
+    getDealUsage(scope),
     listActiveModules(member.companyId),
     listActiveInverters(member.companyId),
     listStationOptions(member.companyId, site),
     nearestStation(member.companyId, site.latitude, site.longitude),
-    getDesignForDeal(member, dealId),
+    getDesignForDeal(scope),
   ]);
   // A saved design may use equipment deactivated since: keep it pickable for this design.
   if (saved) {
@@ -193,9 +189,8 @@ export type WeatherColumns = {
 const r1 = (xs: ArrayLike<number>) => Array.from(xs, (x) => Math.round(x * 10) / 10);
 const r3 = (xs: ArrayLike<number>) => Array.from(xs, (x) => Math.round(x * 1000) / 1000);
 
-export async function getWeatherColumns(member: Member, dealId: string, stationId: string): Promise<WeatherColumns> {
-  await getDealOrThrow(member, dealId);
-  const w = await loadStationWeather(member.companyId, stationId);
+export async function getWeatherColumns(scope: DealScope, stationId: string): Promise<WeatherColumns> {
+  const w = await loadStationWeather(scope.companyId, stationId);
   return {
     stationId,
     sourceLabel: w.sourceLabel,
@@ -262,14 +257,4 @@ export async function productionForDesign(
   const hourlyKwh = new Float64Array(result.hourlyAcW.length);
   for (let i = 0; i < hourlyKwh.length; i++) hourlyKwh[i] = result.hourlyAcW[i] / 1000;
   return { hourlyKwh, label: weather.sourceLabel, notes: [] };
-}
-
-/** The deal's hourly usage for bills: interval data, or the monthly figures spread by the reference load shape. */
-export async function usageHourlyForDeal(member: Member, dealId: string): Promise<{ hourlyKwh: number[]; annualKwh: number; source: string }> {
-  const usage = await getDealUsage(member, dealId);
-  if (!(usage.annualKwh > 0)) {
-    throw new HttpError(422, "no_usage", "This deal has no usage yet. Add bills or interval data on the Energy tab first.");
-  }
-  const hourlyKwh = usage.hourlyKwh ?? spreadMonthlyToHourly(usage.monthlyKwh).hourlyKwh;
-  return { hourlyKwh, annualKwh: usage.annualKwh, source: usage.source };
 }

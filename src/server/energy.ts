@@ -2,52 +2,52 @@ import "server-only";
 import { siteTimeZone } from "@/engine/site-time-zone";
 import { standardOffsetMinutes } from "@/engine/year-calendar";
 import { createHash } from "node:crypto";
-import { and, asc, desc, eq } from "drizzle-orm";
+import { and, asc, desc, eq, getTableColumns, sql } from "drizzle-orm";
 import { fileTypeFromBuffer } from "file-type";
 import type { z } from "zod";
-import { bill, intervalProfile, upload } from "@/db/schema";
+import { bill, dealUsage, intervalProfile, upload } from "@/db/schema";
 import { usageFromBills } from "@/engine/bills";
 import { EngineInputError } from "@/engine/errors";
 import { importIntervalData } from "@/engine/green-button";
-import { spreadMonthlyToHourly } from "@/engine/load-shape";
-import { HOUR_MONTH } from "@/engine/year-calendar";
 import { suggestBillsFromText, type BillSuggestion } from "@/lib/bill-text";
 import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
+import { deriveUsageYear, type UsageYear } from "@/lib/usage-year";
 import { db, type Tx } from "@/server/db";
-import { getDealOrThrow, getDealRoom } from "@/server/deals";
-import { engineFields, HttpError, notFound } from "@/server/errors";
+import { inDealOrThrow, type DealScope } from "@/server/deal-scope";
+import { engineFields, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { reencodeBillImage } from "@/server/photos";
-import { storage } from "@/server/storage";
+import { withFilesUndoneOnFailure } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
 export type BillRow = { id: string; periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null };
 
-export async function listBills(member: Member, dealId: string): Promise<BillRow[]> {
-  await getDealOrThrow(member, dealId);
-  return db()
-    .select({ id: bill.id, periodStart: bill.periodStart, periodEnd: bill.periodEnd, kwh: bill.kwh, costCents: bill.costCents, uploadId: bill.uploadId })
+const billColumns = { id: bill.id, periodStart: bill.periodStart, periodEnd: bill.periodEnd, kwh: bill.kwh, costCents: bill.costCents, uploadId: bill.uploadId };
+
+function billsOf(q: Tx | ReturnType<typeof db>, companyId: string, dealId: string): Promise<BillRow[]> {
+  return q
+    .select(billColumns)
     .from(bill)
-    .where(and(eq(bill.companyId, member.companyId), eq(bill.dealId, dealId)))
+    .where(and(eq(bill.companyId, companyId), eq(bill.dealId, dealId)))
     .orderBy(asc(bill.periodStart));
 }
 
+export async function listBills(scope: DealScope): Promise<BillRow[]> {
+  return billsOf(db(), scope.companyId, scope.dealId);
+}
+
 export async function getBillOrThrow(member: Member, billId: string) {
-  const [row] = await db().select().from(bill).where(and(eq(bill.id, billId), eq(bill.companyId, member.companyId))).limit(1);
-  if (!row) throw notFound("Bill");
-  await getDealOrThrow(member, row.dealId);
-  return row;
+  return inDealOrThrow(member, "Bill", await db().select().from(bill).where(and(eq(bill.id, billId), eq(bill.companyId, member.companyId))).limit(1));
 }
 
 export async function getIntervalProfileOrThrow(member: Member, profileId: string) {
-  const [row] = await db()
-    .select({ id: intervalProfile.id, dealId: intervalProfile.dealId, uploadId: intervalProfile.uploadId, annualKwh: intervalProfile.annualKwh, coveragePct: intervalProfile.coveragePct, createdAt: intervalProfile.createdAt })
+  const { id, dealId, uploadId, annualKwh, coveragePct, createdAt } = getTableColumns(intervalProfile);
+  const rows = await db()
+    .select({ id, dealId, uploadId, annualKwh, coveragePct, createdAt })
     .from(intervalProfile)
     .where(and(eq(intervalProfile.id, profileId), eq(intervalProfile.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Interval profile");
-  await getDealOrThrow(member, row.dealId);
-  return row;
+  return inDealOrThrow(member, "Interval profile", rows);
 }
 
 /** Turns the engine's named issues into a 422 naming each bad bill. */
@@ -59,11 +59,12 @@ function engineToHttp(err: unknown, what: string): never {
 }
 
 /**
- * Saves the bills table as a whole (what the rep sees is what is stored). The engine checks
- * the periods first (overlaps, impossible lengths), so a bad table changes nothing.
+ * Saves the bills table as a whole (what the rep sees is what is stored) and rebuilds the usage
+ * year in the same transaction. The engine checks the periods first (overlaps, impossible
+ * lengths), so a bad table changes nothing.
  */
-export async function saveBills(member: Member, dealId: string, input: z.output<typeof billsTableSchema>): Promise<BillRow[]> {
-  await getDealOrThrow(member, dealId);
+export async function saveBills(scope: DealScope, input: z.output<typeof billsTableSchema>): Promise<BillRow[]> {
+  const { member, dealId } = scope;
   if (input.bills.length > 0) {
     try {
       usageFromBills({ bills: input.bills.map((b) => ({ startDate: b.periodStart, endDate: b.periodEnd, kwh: b.kwh })), fill: "seasonal" });
@@ -76,7 +77,7 @@ export async function saveBills(member: Member, dealId: string, input: z.output<
     const [u] = await db().select({ id: upload.id }).from(upload).where(and(eq(upload.id, id), eq(upload.companyId, member.companyId), eq(upload.dealId, dealId))).limit(1);
     if (!u) throw new HttpError(422, "validation_failed", "A bill refers to a file that is not part of this deal.");
   }
-  await db().transaction(async (tx) => {
+  return db().transaction(async (tx) => {
     await tx.delete(bill).where(and(eq(bill.companyId, member.companyId), eq(bill.dealId, dealId)));
     if (input.bills.length > 0) {
       await tx.insert(bill).values(
@@ -92,6 +93,7 @@ export async function saveBills(member: Member, dealId: string, input: z.output<
         })),
       );
     }
+    await rebuildDealUsage(tx, member.companyId, dealId);
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId,
@@ -99,62 +101,105 @@ export async function saveBills(member: Member, dealId: string, input: z.output<
       summary: `${member.name} saved ${input.bills.length} bill${input.bills.length === 1 ? "" : "s"}`,
       actorUserId: member.userId,
     });
+    return billsOf(tx, member.companyId, dealId);
   });
-  return listBills(member, dealId);
 }
 
-export type DealUsage = {
-  monthlyKwh: number[];
-  hourlyKwh: number[] | null;
-  annualKwh: number;
-  source: "bills" | "interval" | "none";
-  estimatedMonths: boolean[];
-  warnings: string[];
-  averageCentsPerKwh: number | null;
-  fillMethod: string;
+// ── The stored usage year ──────────────────────────────────────────────────────────────────
+
+/** The usage year as stored, with its row id and version (offers record the version). */
+export type DealUsage = UsageYear & { id: string | null; version: number };
+
+const usageColumns = {
+  id: dealUsage.id,
+  version: dealUsage.version,
+  monthlyKwh: dealUsage.monthlyKwh,
+  hourlyKwh: dealUsage.hourlyKwh,
+  annualKwh: dealUsage.annualKwh,
+  source: dealUsage.source,
+  estimatedMonths: dealUsage.estimatedMonths,
+  warnings: dealUsage.warnings,
+  averageCentsPerKwh: dealUsage.averageCentsPerKwh,
+  fillMethod: dealUsage.fillMethod,
 };
 
-/** The household's usage year: interval data when there is some, else the bills, filled by the engine. */
-export async function getDealUsage(member: Member, dealId: string): Promise<DealUsage> {
-  await getDealOrThrow(member, dealId);
-  const [profile] = await db()
+/** MariaDB keeps JSON as text, so the driver may hand back a string. */
+const parsed = <T>(raw: T | string): T => (typeof raw === "string" ? (JSON.parse(raw) as T) : raw);
+
+function toUsage(r: Pick<typeof dealUsage.$inferSelect, keyof typeof usageColumns>): DealUsage {
+  return {
+    id: r.id,
+    version: r.version,
+    monthlyKwh: parsed(r.monthlyKwh),
+    hourlyKwh: parsed(r.hourlyKwh),
+    annualKwh: r.annualKwh,
+    source: r.source,
+    estimatedMonths: parsed(r.estimatedMonths).map(Boolean),
+    warnings: parsed(r.warnings),
+    averageCentsPerKwh: r.averageCentsPerKwh,
+    fillMethod: r.fillMethod,
+  };
+}
+
+/**
+ * Derives the deal's usage year from its stored bills and newest interval data and stores it
+ * with the next version, in the caller's transaction (the one that changed them). The row is
+ * locked first, so two saves at once number their versions one after the other.
+ */
+export async function rebuildDealUsage(tx: Tx, companyId: string, dealId: string): Promise<void> {
+  const [current] = await tx
+    .select({ id: dealUsage.id, version: dealUsage.version })
+    .from(dealUsage)
+    .where(and(eq(dealUsage.companyId, companyId), eq(dealUsage.dealId, dealId)))
+    .for("update");
+  const [profile] = await tx
     .select({ hourlyKwh: intervalProfile.hourlyKwh, coveragePct: intervalProfile.coveragePct })
     .from(intervalProfile)
-    .where(and(eq(intervalProfile.companyId, member.companyId), eq(intervalProfile.dealId, dealId)))
+    .where(and(eq(intervalProfile.companyId, companyId), eq(intervalProfile.dealId, dealId)))
     .orderBy(desc(intervalProfile.createdAt))
     .limit(1);
-  if (profile) {
-    const monthly = new Array<number>(12).fill(0);
-    profile.hourlyKwh.forEach((kwh, h) => (monthly[HOUR_MONTH[h]] += kwh));
-    return {
-      monthlyKwh: monthly,
-      hourlyKwh: profile.hourlyKwh,
-      annualKwh: monthly.reduce((a, b) => a + b, 0),
-      source: "interval",
-      estimatedMonths: monthly.map(() => false),
-      warnings: profile.coveragePct < 90 ? [`Interval data covers ${profile.coveragePct.toFixed(0)} % of the year; the gaps were filled.`] : [],
-      averageCentsPerKwh: null,
-      fillMethod: "interval",
-    };
+  const year = deriveUsageYear(await billsOf(tx, companyId, dealId), profile ? { hourlyKwh: parsed(profile.hourlyKwh), coveragePct: profile.coveragePct } : null);
+  if (current) {
+    await tx
+      .update(dealUsage)
+      .set({ ...year, version: sql`${dealUsage.version} + 1` })
+      .where(and(eq(dealUsage.id, current.id), eq(dealUsage.companyId, companyId)));
+  } else {
+    // Two first builds at once (a deal's first bills, a first read of older bills): the later one counts as a change.
+    await tx
+      .insert(dealUsage)
+      .values({ id: crypto.randomUUID(), companyId, dealId, version: 1, ...year })
+      .onDuplicateKeyUpdate({ set: { ...year, version: sql`${dealUsage.version} + 1` } });
   }
-  const bills = await listBills(member, dealId);
-  if (bills.length === 0) {
-    return { monthlyKwh: new Array(12).fill(0), hourlyKwh: null, annualKwh: 0, source: "none", estimatedMonths: new Array(12).fill(true), warnings: [], averageCentsPerKwh: null, fillMethod: "none" };
-  }
-  const usage = usageFromBills({
-    bills: bills.map((b) => ({ id: b.id, startDate: b.periodStart, endDate: b.periodEnd, kwh: b.kwh, costCents: b.costCents ?? undefined })),
-    fill: "seasonal",
-  });
-  return {
-    monthlyKwh: usage.monthlyKwh,
-    hourlyKwh: spreadMonthlyToHourly(usage.monthlyKwh).hourlyKwh,
-    annualKwh: usage.annualKwh,
-    source: "bills",
-    estimatedMonths: usage.months.map((m) => m.status === "estimated"),
-    warnings: usage.warnings,
-    averageCentsPerKwh: usage.averageCentsPerKwh,
-    fillMethod: usage.fillMethod,
-  };
+}
+
+/**
+ * The deal's stored usage year. A deal whose bills predate the stored year gets it built once
+ * here (version 1); a deal with nothing stored reads as no usage, version 0.
+ */
+export async function getDealUsage(scope: DealScope): Promise<DealUsage> {
+  const read = () => db().select(usageColumns).from(dealUsage).where(and(eq(dealUsage.companyId, scope.companyId), eq(dealUsage.dealId, scope.dealId))).limit(1);
+  const [row] = await read();
+  if (row) return toUsage(row);
+  const [anyBill] = await db().select({ id: bill.id }).from(bill).where(and(eq(bill.companyId, scope.companyId), eq(bill.dealId, scope.dealId))).limit(1);
+  const [anyProfile] = anyBill
+    ? [anyBill]
+    : await db().select({ id: intervalProfile.id }).from(intervalProfile).where(and(eq(intervalProfile.companyId, scope.companyId), eq(intervalProfile.dealId, scope.dealId))).limit(1);
+  if (!anyProfile) return { ...deriveUsageYear([], null), id: null, version: 0 };
+  await db().transaction((tx) => rebuildDealUsage(tx, scope.companyId, scope.dealId));
+  const [built] = await read();
+  return toUsage(built);
+}
+
+/** GET /api/deal-usages/[id]: the stored year by its id; reps only on deals they own. */
+export async function getDealUsageOrThrow(member: Member, usageId: string): Promise<DealUsage & { dealId: string }> {
+  const rows = await db()
+    .select({ ...usageColumns, dealId: dealUsage.dealId })
+    .from(dealUsage)
+    .where(and(eq(dealUsage.id, usageId), eq(dealUsage.companyId, member.companyId)))
+    .limit(1);
+  const row = await inDealOrThrow(member, "Usage year", rows);
+  return { ...toUsage(row), dealId: row.dealId };
 }
 
 // ── Uploads ────────────────────────────────────────────────────────────────────────────────
@@ -190,8 +235,8 @@ const PROGRAM_TYPES = new Set(["application/x-msdownload", "application/x-elf", 
  * Checks a file by its content, never its name, then keeps it with what it yields. Anything
  * refused is refused before a byte or a row is written.
  */
-export async function acceptDealUpload(member: Member, dealId: string, file: { name: string; bytes: Uint8Array }): Promise<UploadOutcome> {
-  const { household } = await getDealRoom(member, dealId);
+export async function acceptDealUpload(scope: DealScope, file: { name: string; bytes: Uint8Array }): Promise<UploadOutcome> {
+  const { member, dealId, household } = scope;
   const size = file.bytes.byteLength;
   if (size === 0) throw new HttpError(422, "empty_file", `“${file.name}” is empty.`);
   if (size > MAX_INTERVAL_FILE_BYTES) throw new HttpError(413, "file_too_large", `“${file.name}” is ${(size / 1048576).toFixed(1)} MB; files up to ${MAX_INTERVAL_FILE_BYTES / 1048576} MB are accepted.`);
@@ -213,7 +258,7 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
         throw new HttpError(422, "unreadable_pdf", `“${file.name}” looks like a PDF but cannot be read (damaged or protected). Nothing was saved; try downloading the bill again.`);
       }
       if (text.replace(/\s/g, "").length >= MIN_PDF_TEXT_CHARS) {
-        const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", text);
+        const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", text);
         const suggestions = suggestBillsFromText(text);
         return {
           kind: "bill-text",
@@ -222,12 +267,12 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
           message: suggestions.length > 0 ? `Found ${suggestions.length} billing period${suggestions.length === 1 ? "" : "s"} in “${file.name}”. Check them against the bill, then add them.` : `“${file.name}” was kept, but no billing period could be read from its text. Type the numbers from the bill.`,
         };
       }
-      const meta = await storeUpload(member, dealId, file, detected.mime, detected.ext, "bill", null);
+      const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", null);
       return { kind: "bill-image", upload: meta, message: `“${file.name}” is a scanned PDF with no text. It was kept with the deal; type the billing period, kWh and amount from it.` };
     }
     // A photographed bill is decoded within the pixel limit and re-encoded (422 when it does not decode).
     const pixels = await reencodeBillImage(file.bytes, detected.mime, file.name);
-    const meta = await storeUpload(member, dealId, { name: file.name, bytes: pixels }, detected.mime, detected.ext, "bill", null);
+    const meta = await storeUpload(scope, { name: file.name, bytes: pixels }, detected.mime, detected.ext, "bill", null);
     return { kind: "bill-image", upload: meta, message: `The photo “${file.name}” was kept with the deal; type the billing period, kWh and amount from it.` };
   }
 
@@ -245,7 +290,7 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
     engineToHttp(err, `“${file.name}” could not be read as ${isXml ? "Green Button XML" : "interval CSV"}`);
   }
   const profileId = crypto.randomUUID();
-  const meta = await storeUpload(member, dealId, file, isXml ? "application/xml" : "text/csv", isXml ? "xml" : "csv", "interval_data", null, async (tx, uploadId) => {
+  const meta = await storeUpload(scope, file, isXml ? "application/xml" : "text/csv", isXml ? "xml" : "csv", "interval_data", null, async (tx, uploadId) => {
     await tx.insert(intervalProfile).values({
       id: profileId,
       companyId: member.companyId,
@@ -255,6 +300,7 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
       annualKwh: profile.annualKwh,
       coveragePct: profile.coverage * 100,
     });
+    await rebuildDealUsage(tx, member.companyId, dealId);
   });
   return {
     kind: "interval",
@@ -268,8 +314,7 @@ export async function acceptDealUpload(member: Member, dealId: string, file: { n
 
 /** Writes the bytes, then the rows in one transaction; if the rows fail, the bytes go too. */
 async function storeUpload(
-  member: Member,
-  dealId: string,
+  scope: DealScope,
   file: { name: string; bytes: Uint8Array },
   mimeType: string,
   ext: string,
@@ -277,38 +322,25 @@ async function storeUpload(
   extractedText: string | null,
   extra?: (tx: Tx, uploadId: string) => Promise<void>,
 ): Promise<UploadMeta> {
+  const { member, dealId, companyId } = scope;
   const id = crypto.randomUUID();
-  const key = `${member.companyId}/uploads/${id}.${ext}`;
-  await storage().put(key, file.bytes);
+  const storageKey = `${companyId}/uploads/${id}.${ext}`;
   const fileName = file.name.slice(0, 255) || `upload.${ext}`;
-  try {
-    await db().transaction(async (tx) => {
-      await tx.insert(upload).values({
-        id,
-        companyId: member.companyId,
-        dealId,
-        purpose,
-        fileName,
-        mimeType,
-        sizeBytes: file.bytes.byteLength,
-        sha256: createHash("sha256").update(file.bytes).digest("hex"),
-        storageKey: key,
-        extractedText,
-        uploadedByUserId: member.userId,
-      });
+  const [sizeBytes, sha256] = [file.bytes.byteLength, createHash("sha256").update(file.bytes).digest("hex")];
+  await withFilesUndoneOnFailure((put) =>
+    db().transaction(async (tx) => {
+      await put(storageKey, file.bytes);
+      await tx.insert(upload).values({ id, companyId, dealId, purpose, fileName, mimeType, sizeBytes, sha256, storageKey, extractedText, uploadedByUserId: member.userId });
       if (extra) await extra(tx, id);
-      await recordEvent(tx, { companyId: member.companyId, dealId, kind: "upload.added", summary: `${member.name} uploaded “${fileName}”`, actorUserId: member.userId });
-    });
-  } catch (err) {
-    await storage().delete(key);
-    throw err;
-  }
+      await recordEvent(tx, { companyId, dealId, kind: "upload.added", summary: `${member.name} uploaded “${fileName}”`, actorUserId: member.userId });
+    }),
+  );
   const [row] = await db().select({ createdAt: upload.createdAt }).from(upload).where(eq(upload.id, id));
-  return { id, fileName, mimeType, sizeBytes: file.bytes.byteLength, createdAt: row.createdAt };
+  return { id, fileName, mimeType, sizeBytes, createdAt: row.createdAt };
 }
 
-export async function listDealUploads(member: Member, dealId: string): Promise<(UploadMeta & { purpose: string })[]> {
-  await getDealOrThrow(member, dealId);
+export async function listDealUploads(scope: DealScope): Promise<(UploadMeta & { purpose: string })[]> {
+  const { member, dealId } = scope;
   return db()
     .select({ id: upload.id, fileName: upload.fileName, mimeType: upload.mimeType, sizeBytes: upload.sizeBytes, createdAt: upload.createdAt, purpose: upload.purpose })
     .from(upload)

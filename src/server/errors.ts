@@ -1,16 +1,12 @@
 import "server-only";
+import { ApiError } from "@/lib/api-client";
 
-/** An error with an HTTP status and a stable code, shown to the person as its message. */
-export class HttpError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    readonly fields?: Record<string, string[]>,
-  ) {
-    super(message);
-    this.name = "HttpError";
-  }
+/**
+ * An error with an HTTP status and a stable code, shown to the person as its message: the
+ * server's side of the browser's ApiError (the same fields, read back from the error body).
+ */
+export class HttpError extends ApiError {
+  override name = "HttpError";
 }
 
 export const unauthorized = () => new HttpError(401, "unauthorized", "Sign in to continue.");

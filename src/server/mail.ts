@@ -7,6 +7,7 @@ import type { ReactElement } from "react";
 import { Resend } from "resend";
 import { z } from "zod";
 import { devToolsEnabled, env } from "@/env";
+import { outboxMessageSchema } from "@/lib/schemas/outbox";
 
 /** The service refused a message (or could not be reached); `code` is the service's error name. */
 export class MailSendError extends Error {
@@ -77,20 +78,6 @@ export async function sendRendered({ companyId, to, subject, html, text, replyTo
 // ---------------------------------------------------------------------------------------------
 // Dev outbox (demo and test instances only)
 
-export const outboxMessageSchema = z.object({
-  id: z.string(),
-  from: z.string(),
-  to: z.array(z.string()),
-  cc: z.array(z.string()),
-  bcc: z.array(z.string()),
-  replyTo: z.array(z.string()),
-  subject: z.string(),
-  html: z.string().nullable(),
-  text: z.string().nullable(),
-  headers: z.record(z.string(), z.string()),
-  tags: z.array(z.object({ name: z.string(), value: z.string() })),
-  createdAt: z.string(),
-});
 export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
 
 const outboxListSchema = z.object({ data: z.array(outboxMessageSchema) });

@@ -2,23 +2,25 @@ import "server-only";
 import { siteTimeZone } from "@/engine/site-time-zone";
 import { createElement } from "react";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
-import { deal, discountRequest, household, membership, offer, user, type Role } from "@/db/schema";
+import { deal, dealUsage, design, discountRequest, household, membership, offer, priceBook, ratePlan, user, type Role } from "@/db/schema";
 import { EngineInputError } from "@/engine/errors";
 import { env } from "@/env";
 import { formatCents } from "@/lib/format";
+import { offerBasisSchema, staleInputs, type CurrentInputs, type OfferBasis, type StaleInput } from "@/lib/offer-basis";
 import { computeOfferFigures, type OfferFigures } from "@/lib/offer-figures";
+import { emptyPriceBook } from "@/lib/schemas/price-book";
 import { can } from "@/lib/permissions";
 import { discountDecisionRefusal, PricingInputError } from "@/lib/pricing";
 import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
 import DiscountDecisionEmail from "@emails/discount-decision";
 import DiscountRequestEmail from "@emails/discount-request";
-import { getCompanySettings } from "@/server/company-settings";
 import { db, type Tx } from "@/server/db";
-import { getDealOrThrow, getDealRoom } from "@/server/deals";
-import { designEquipment, getDesignForDeal, jsonValue, productionForDesign, usageHourlyForDeal } from "@/server/designs";
+import { inDealOrThrow, openDeal, openDealOf, type DealScope } from "@/server/deal-scope";
+import { designEquipment, getDesignForDeal, jsonValue, productionForDesign } from "@/server/designs";
+import { getDealUsage } from "@/server/energy";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
-import { getPriceBook } from "@/server/price-book";
+import { getPriceBook, getPriceBookRecord } from "@/server/price-book";
 import { getRatePlanOrThrow } from "@/server/rate-plans";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
@@ -35,6 +37,10 @@ export type OfferRecord = {
   results: OfferFigures;
   discountCents: number;
   discountStatus: DiscountStatus;
+  /** What the figures were computed from; null for offers saved before it was recorded. */
+  basis: OfferBasis | null;
+  /** Inputs changed since (empty: current). A proposal freezes only current offers. */
+  stale: StaleInput[];
   updatedAt: Date;
 };
 
@@ -47,37 +53,75 @@ const offerColumns = {
   results: offer.results,
   discountCents: offer.discountCents,
   discountStatus: offer.discountStatus,
+  basis: offer.basis,
   updatedAt: offer.updatedAt,
 };
 
-function toRecord(row: Omit<OfferRecord, "inputs" | "results"> & { inputs: unknown; results: unknown }): OfferRecord {
+type StoredOffer = Omit<OfferRecord, "inputs" | "results" | "basis" | "stale"> & { inputs: unknown; results: unknown; basis: unknown };
+
+function toRecord(row: StoredOffer, now: CurrentInputs | ((ratePlanId: string | null) => CurrentInputs)): OfferRecord {
   const inputs = offerInputsSchema.safeParse(jsonValue(row.inputs));
   if (!inputs.success) throw new HttpError(500, "offer_unreadable", `The saved offer "${row.name}" does not match the current format. Save it again.`);
-  return { ...row, inputs: inputs.data, results: jsonValue(row.results) as OfferFigures };
+  const parsedBasis = row.basis == null ? null : offerBasisSchema.safeParse(jsonValue(row.basis));
+  const basis = parsedBasis?.success ? parsedBasis.data : null;
+  const current = typeof now === "function" ? now(inputs.data.ratePlanId) : now;
+  return { ...row, inputs: inputs.data, results: jsonValue(row.results) as OfferFigures, basis, stale: staleInputs(basis, current) };
 }
 
-export async function listOffers(member: Member, dealId: string): Promise<OfferRecord[]> {
-  await getDealOrThrow(member, dealId);
-  const rows = await db()
-    .select(offerColumns)
-    .from(offer)
-    .where(and(eq(offer.companyId, member.companyId), eq(offer.dealId, dealId)))
-    .orderBy(asc(offer.position));
-  return rows.map(toRecord);
+/**
+ * The versions of the deal's inputs as stored now, per rate plan an offer names (its own, else
+ * the deal's): what staleInputs compares an offer's basis with.
+ */
+export async function currentInputs(scope: DealScope, ratePlanIds: (string | null)[]): Promise<(ratePlanId: string | null) => CurrentInputs> {
+  const { companyId, dealId } = scope;
+  const planIds = [...new Set(ratePlanIds.map((id) => id ?? scope.deal.ratePlanId).filter((id): id is string => !!id))];
+  const [[usage], [saved], [book], plans] = await Promise.all([
+    db().select({ version: dealUsage.version }).from(dealUsage).where(and(eq(dealUsage.companyId, companyId), eq(dealUsage.dealId, dealId))).limit(1),
+    db().select({ revision: design.revision }).from(design).where(and(eq(design.companyId, companyId), eq(design.dealId, dealId))).limit(1),
+    db().select({ version: priceBook.version, incentivesVersion: priceBook.incentivesVersion }).from(priceBook).where(eq(priceBook.companyId, companyId)).limit(1),
+    planIds.length
+      ? db().select({ id: ratePlan.id, version: ratePlan.version }).from(ratePlan).where(and(eq(ratePlan.companyId, companyId), inArray(ratePlan.id, planIds)))
+      : Promise.resolve([]),
+  ]);
+  return (ratePlanId) => {
+    const planId = ratePlanId ?? scope.deal.ratePlanId;
+    const plan = plans.find((p) => p.id === planId);
+    return {
+      usageVersion: usage?.version ?? 0,
+      designRevision: saved?.revision ?? 0,
+      ratePlan: plan ? { id: plan.id, version: plan.version } : null,
+      priceBookVersion: book?.version ?? 0,
+      incentivesVersion: book?.incentivesVersion ?? 0,
+      assumptionsVersion: scope.settings.financeVersion,
+    };
+  };
 }
 
-/** An offer by id; reps only on deals they own (another company's: not found). */
-export async function getOfferOrThrow(member: Member, offerId: string): Promise<OfferRecord> {
-  const [row] = await db()
-    .select(offerColumns)
-    .from(offer)
-    .where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)))
-    .limit(1);
+async function offersOf(scope: DealScope, where: ReturnType<typeof and>): Promise<OfferRecord[]> {
+  const rows = await db().select(offerColumns).from(offer).where(where).orderBy(asc(offer.position));
+  const now = await currentInputs(
+    scope,
+    rows.map((r) => offerInputsSchema.safeParse(jsonValue(r.inputs)).data?.ratePlanId ?? null),
+  );
+  return rows.map((r) => toRecord(r, now));
+}
+
+export async function listOffers(scope: DealScope): Promise<OfferRecord[]> {
+  return offersOf(scope, and(eq(offer.companyId, scope.companyId), eq(offer.dealId, scope.dealId)));
+}
+
+/** An offer by id with its deal's scope; reps only on deals they own (another company's: not found). */
+export async function openOffer(member: Member, offerId: string): Promise<{ scope: DealScope; offer: OfferRecord }> {
+  const [row] = await db().select({ dealId: offer.dealId }).from(offer).where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId))).limit(1);
   if (!row) throw notFound("Offer");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Offer") : err;
-  });
-  return toRecord(row);
+  const scope = await openDealOf(member, row.dealId, "Offer");
+  const [found] = await offersOf(scope, and(eq(offer.companyId, member.companyId), eq(offer.id, offerId)));
+  if (!found) throw notFound("Offer");
+  return { scope, offer: found };
+}
+
+export async function getOfferOrThrow(member: Member, offerId: string): Promise<OfferRecord> {
+  return (await openOffer(member, offerId)).offer;
 }
 
 // ── Computing an offer (always on the server, from stored data) ──────────────────────────
@@ -94,10 +138,14 @@ function engineError(err: unknown): never {
   throw err;
 }
 
-/** Every figure of an offer from its inputs and the deal's stored design, usage, rate plan and price book. */
-export async function computeOffer(member: Member, dealId: string, inputs: OfferInputs, role: Role = member.role): Promise<{ figures: OfferFigures; ratePlanId: string }> {
-  const room = await getDealRoom(member, dealId);
-  const saved = await getDesignForDeal(member, dealId);
+/**
+ * Every figure of an offer from its inputs and the deal's stored design, usage year, rate plan,
+ * price book and savings assumptions, with the basis: which versions of those it used, and the
+ * usage and design figures a proposal later copies.
+ */
+export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: Role = scope.member.role): Promise<{ figures: OfferFigures; basis: OfferBasis }> {
+  const { member } = scope;
+  const saved = await getDesignForDeal(scope);
   if (!saved) throw new HttpError(422, "no_design", "Save a design on the Design tab before making offers.");
   const doc = saved.document;
   const { mod, inv } = await designEquipment(member, inputs.moduleId ?? doc.moduleId, inputs.inverterId ?? doc.inverterId, "inputs.");
@@ -114,19 +162,32 @@ export async function computeOffer(member: Member, dealId: string, inputs: Offer
   const moduleCount = counts.reduce((a, b) => a + b, 0);
   if (moduleCount === 0) throw fieldError("inputs.faceCounts", "Place at least one module");
 
-  const ratePlanId = inputs.ratePlanId ?? room.deal.ratePlanId;
+  const ratePlanId = inputs.ratePlanId ?? scope.deal.ratePlanId;
   if (!ratePlanId) throw fieldError("inputs.ratePlanId", "The deal has no rate plan: pick the household's rate plan");
   const plan = await getRatePlanOrThrow(member.companyId, ratePlanId).catch((err: unknown) => {
     throw err instanceof HttpError && err.status === 404 ? fieldError("inputs.ratePlanId", "Pick a rate plan from the list") : err;
   });
 
-  const site = { latitude: room.household.latitude, longitude: room.household.longitude };
-  const [production, usage, book, settings] = await Promise.all([
-    productionForDesign(member, site, doc, counts, mod, inv),
-    usageHourlyForDeal(member, dealId),
-    getPriceBook(member.companyId),
-    getCompanySettings(member.companyId),
-  ]);
+  const site = { latitude: scope.household.latitude, longitude: scope.household.longitude };
+  const [production, usage, bookRecord] = await Promise.all([productionForDesign(member, site, doc, counts, mod, inv), getDealUsage(scope), getPriceBookRecord(member.companyId)]);
+  if (!(usage.annualKwh > 0) || !usage.hourlyKwh) throw new HttpError(422, "no_usage", "This deal has no usage yet. Add bills or interval data on the Energy tab first.");
+  const book = bookRecord?.document ?? emptyPriceBook();
+  const basis: OfferBasis = {
+    usage: {
+      version: usage.version,
+      monthlyKwh: usage.monthlyKwh,
+      annualKwh: usage.annualKwh,
+      source: usage.source,
+      estimatedMonths: usage.estimatedMonths.filter(Boolean).length,
+      fillMethod: usage.fillMethod,
+    },
+    design: { revision: saved.revision, lossesPct: doc.lossesPct, faces: doc.faces.map(({ id, name, tiltDeg, azimuthDeg, solarAccessPct, moduleCount: count }) => ({ id, name, tiltDeg, azimuthDeg, solarAccessPct, moduleCount: count })) },
+    ratePlan: { id: plan.id, version: plan.version },
+    priceBook: { version: bookRecord?.version ?? 0, incentivesVersion: bookRecord?.incentivesVersion ?? 0, document: book },
+    assumptionsVersion: scope.settings.financeVersion,
+    module: { manufacturer: mod.manufacturer, model: mod.model, stcWatts: mod.stcWatts },
+    inverter: { manufacturer: inv.manufacturer, model: inv.model, kind: inv.kind, acWatts: inv.acWatts },
+  };
   try {
     const figures = computeOfferFigures({
       book,
@@ -142,10 +203,10 @@ export async function computeOffer(member: Member, dealId: string, inputs: Offer
       adderIds: inputs.adderIds,
       lineItemIds: inputs.lineItemIds,
       discountCents: inputs.discountCents,
-      assumptions: settings.finance,
+      assumptions: scope.settings.finance,
       notes: [`Weather: ${production.label}.`, ...production.notes],
     });
-    return { figures, ratePlanId };
+    return { figures, basis };
   } catch (err) {
     engineError(err);
   }
@@ -263,7 +324,7 @@ export type OfferPreview = Pick<OfferFigures, "summary" | "discountNeedsApproval
  * modules): computed exactly as createOffer would, written nowhere.
  */
 export async function previewOffer(member: Member, input: CreateOfferInput): Promise<OfferPreview> {
-  const { figures } = await computeOffer(member, input.dealId, input.inputs);
+  const { figures } = await computeOffer(await openDeal(member, input.dealId), input.inputs);
   return { summary: figures.summary, discountNeedsApproval: figures.discountNeedsApproval, discountLimitCents: figures.discountLimitCents, assumptions: figures.assumptions };
 }
 
@@ -271,8 +332,8 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
   const parsed = createOfferSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
   const { dealId, inputs } = parsed.data;
-  const room = await getDealRoom(member, dealId);
-  const { figures } = await computeOffer(member, dealId, inputs);
+  const scope = await openDeal(member, dealId);
+  const { figures, basis } = await computeOffer(scope, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const id = crypto.randomUUID();
   const mailIds: string[] = [];
@@ -283,14 +344,14 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
       .where(and(eq(offer.companyId, member.companyId), eq(offer.dealId, dealId)));
     if (taken.length >= MAX_OFFERS_PER_DEAL) throw new HttpError(409, "too_many_offers", `A deal has at most ${MAX_OFFERS_PER_DEAL} offers. Change or delete one.`);
     const position = [1, 2, 3].find((p) => !taken.some((t) => t.position === p)) ?? taken.length + 1;
-    await tx.insert(offer).values({ id, companyId: member.companyId, dealId, position, name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: "none" });
+    await tx.insert(offer).values({ id, companyId: member.companyId, dealId, position, name: inputs.name, inputs, results: figures, basis, discountCents: inputs.discountCents, discountStatus: "none" });
     const outcome = await settleDiscount(tx, member, dealId, id, inputs, figures);
     await tx.update(offer).set({ discountStatus: outcome.status }).where(and(eq(offer.id, id), eq(offer.companyId, member.companyId)));
     if (outcome.mailNeeded && outcome.requestId) {
-      const mailId = await queueDiscountRequest(tx, member, dealId, room.household.name, outcome.requestId, inputs, figures);
+      const mailId = await queueDiscountRequest(tx, member, dealId, scope.household.name, outcome.requestId, inputs, figures);
       if (mailId) mailIds.push(mailId);
     }
-    await setDealRatePlanIfMissing(tx, member, dealId, inputs.ratePlanId, room.deal.ratePlanId);
+    await setDealRatePlanIfMissing(tx, member, dealId, inputs.ratePlanId, scope.deal.ratePlanId);
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId,
@@ -301,29 +362,28 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
     });
   });
   await sendQueuedNow(mailIds);
-  return getOfferOrThrow(member, id);
+  return (await offersOf(scope, and(eq(offer.companyId, member.companyId), eq(offer.id, id))))[0];
 }
 
 export async function updateOffer(member: Member, offerId: string, input: unknown): Promise<OfferRecord> {
-  const existing = await getOfferOrThrow(member, offerId);
+  const { scope, offer: existing } = await openOffer(member, offerId);
   const parsed = updateOfferSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
   const { inputs } = parsed.data;
-  const room = await getDealRoom(member, existing.dealId);
-  const { figures } = await computeOffer(member, existing.dealId, inputs);
+  const { figures, basis } = await computeOffer(scope, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const mailIds: string[] = [];
   await db().transaction(async (tx) => {
     const outcome = await settleDiscount(tx, member, existing.dealId, offerId, inputs, figures);
     if (outcome.mailNeeded && outcome.requestId) {
-      const mailId = await queueDiscountRequest(tx, member, existing.dealId, room.household.name, outcome.requestId, inputs, figures);
+      const mailId = await queueDiscountRequest(tx, member, existing.dealId, scope.household.name, outcome.requestId, inputs, figures);
       if (mailId) mailIds.push(mailId);
     }
     await tx
       .update(offer)
-      .set({ name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: outcome.status })
+      .set({ name: inputs.name, inputs, results: figures, basis, discountCents: inputs.discountCents, discountStatus: outcome.status })
       .where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)));
-    await setDealRatePlanIfMissing(tx, member, existing.dealId, inputs.ratePlanId, room.deal.ratePlanId);
+    await setDealRatePlanIfMissing(tx, member, existing.dealId, inputs.ratePlanId, scope.deal.ratePlanId);
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId: existing.dealId,
@@ -334,7 +394,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
     });
   });
   await sendQueuedNow(mailIds);
-  return getOfferOrThrow(member, offerId);
+  return (await offersOf(scope, and(eq(offer.companyId, member.companyId), eq(offer.id, offerId))))[0];
 }
 
 export async function deleteOffer(member: Member, offerId: string): Promise<{ id: string }> {
@@ -406,22 +466,19 @@ type RequestQueryRow = DiscountRequestRow & { dealOwnerUserId: string | null; gr
 const stripOwner = ({ dealOwnerUserId: _owner, grossCents: _gross, ...row }: RequestQueryRow): DiscountRequestRow => row;
 
 export async function getDiscountRequestOrThrow(member: Member, requestId: string): Promise<DiscountRequestRow> {
-  const [row] = await db()
+  const found = await db()
     .select({ dealId: discountRequest.dealId })
     .from(discountRequest)
     .where(and(eq(discountRequest.id, requestId), eq(discountRequest.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Discount request");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Discount request") : err;
-  });
+  await inDealOrThrow(member, "Discount request", found);
   const [full] = await requestQuery(member.companyId).where(and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.id, requestId)));
   if (!full) throw notFound("Discount request");
   return stripOwner(full);
 }
 
-export async function listDiscountRequestsForDeal(member: Member, dealId: string): Promise<DiscountRequestRow[]> {
-  await getDealOrThrow(member, dealId);
+export async function listDiscountRequestsForDeal(scope: DealScope): Promise<DiscountRequestRow[]> {
+  const { member, dealId } = scope;
   const rows = await requestQuery(member.companyId)
     .where(and(eq(discountRequest.companyId, member.companyId), eq(discountRequest.dealId, dealId)))
     .orderBy(desc(discountRequest.createdAt));
@@ -455,7 +512,7 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   const { decision, note } = parsed.data;
   const request = await getDiscountRequestOrThrow(member, requestId);
   if (request.status !== "pending") throw new HttpError(409, "already_decided", `This discount was already ${request.status}.`);
-  const current = await getOfferOrThrow(member, request.offerId);
+  const { scope, offer: current } = await openOffer(member, request.offerId);
   const refusal = discountDecisionRefusal(await getPriceBook(member.companyId), member, {
     requestedByUserId: request.requestedByUserId,
     amountCents: request.amountCents,
@@ -463,9 +520,10 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   });
   if (refusal) throw new HttpError(403, "not_your_decision", refusal);
 
-  let declinedFigures: OfferFigures | null = null;
+  let declinedFigures: OfferFigures | undefined;
   const inputsWithout: OfferInputs = { ...current.inputs, discountCents: 0, discountReason: "" };
-  if (decision === "decline") declinedFigures = (await computeOffer(member, current.dealId, inputsWithout)).figures;
+  let declinedBasis: OfferBasis | null = null;
+  if (decision === "decline") ({ figures: declinedFigures, basis: declinedBasis } = await computeOffer(scope, inputsWithout));
 
   const mailIds = await db().transaction(async (tx): Promise<string[]> => {
     const changed = await tx
@@ -478,7 +536,7 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
     } else {
       await tx
         .update(offer)
-        .set({ inputs: inputsWithout, results: declinedFigures, discountCents: 0, discountStatus: "declined" })
+        .set({ inputs: inputsWithout, results: declinedFigures, basis: declinedBasis, discountCents: 0, discountStatus: "declined" })
         .where(and(eq(offer.id, current.id), eq(offer.companyId, member.companyId)));
     }
     await recordEvent(tx, {

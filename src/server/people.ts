@@ -67,16 +67,18 @@ export async function getPersonOrThrow(companyId: string, membershipId: string):
   return row;
 }
 
+const invitationColumns = {
+  id: invitation.id,
+  email: invitation.email,
+  name: invitation.name,
+  role: invitation.role,
+  expiresAt: invitation.expiresAt,
+  createdAt: invitation.createdAt,
+};
+
 export async function listPendingInvitations(companyId: string): Promise<PendingInvitation[]> {
   return db()
-    .select({
-      id: invitation.id,
-      email: invitation.email,
-      name: invitation.name,
-      role: invitation.role,
-      expiresAt: invitation.expiresAt,
-      createdAt: invitation.createdAt,
-    })
+    .select(invitationColumns)
     .from(invitation)
     .where(
       and(
@@ -91,16 +93,7 @@ export async function listPendingInvitations(companyId: string): Promise<Pending
 
 export async function getInvitationOrThrow(companyId: string, invitationId: string) {
   const [row] = await db()
-    .select({
-      id: invitation.id,
-      email: invitation.email,
-      name: invitation.name,
-      role: invitation.role,
-      expiresAt: invitation.expiresAt,
-      acceptedAt: invitation.acceptedAt,
-      revokedAt: invitation.revokedAt,
-      createdAt: invitation.createdAt,
-    })
+    .select({ ...invitationColumns, acceptedAt: invitation.acceptedAt, revokedAt: invitation.revokedAt })
     .from(invitation)
     .where(and(eq(invitation.id, invitationId), eq(invitation.companyId, companyId)))
     .limit(1);

@@ -4,31 +4,21 @@ import { priceBook, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { emptyPriceBook, priceBookSchema, type PriceBook } from "@/lib/schemas/price-book";
 import { db } from "@/server/db";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { forbidden, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
 export type PriceBookRecord = {
   id: string;
   document: PriceBook;
+  /** Every save adds one; incentivesVersion only when the incentive rules change (offers record both). */
+  version: number;
+  incentivesVersion: number;
   updatedAt: Date;
   updatedByName: string | null;
 };
 
-/** MariaDB keeps JSON as text, so the driver may hand back a string. */
-function jsonValue(raw: unknown): unknown {
-  return typeof raw === "string" ? JSON.parse(raw) : raw;
-}
-
-function parseStored(raw: unknown): PriceBook {
-  const parsed = priceBookSchema.safeParse(jsonValue(raw));
-  if (!parsed.success) {
-    throw new HttpError(500, "price_book_unreadable", "The saved price book does not match the current format. An admin must save it again.");
-  }
-  return parsed.data;
-}
-
-const recordColumns = { id: priceBook.id, document: priceBook.document, updatedAt: priceBook.updatedAt, updatedByName: user.name };
+const recordColumns = { id: priceBook.id, document: priceBook.document, version: priceBook.version, incentivesVersion: priceBook.incentivesVersion, updatedAt: priceBook.updatedAt, updatedByName: user.name };
 
 /** The company's saved price book with who changed it last, or null before the first save. */
 export async function getPriceBookRecord(companyId: string): Promise<PriceBookRecord | null> {
@@ -38,7 +28,7 @@ export async function getPriceBookRecord(companyId: string): Promise<PriceBookRe
     .leftJoin(user, eq(user.id, priceBook.updatedByUserId))
     .where(eq(priceBook.companyId, companyId))
     .limit(1);
-  return row ? { ...row, document: parseStored(row.document) } : null;
+  return row ?? null;
 }
 
 /** The company's price book document; a company that never saved one gets the empty book. */
@@ -54,7 +44,7 @@ export async function getPriceBookOrThrow(companyId: string, id: string): Promis
     .where(and(eq(priceBook.id, id), eq(priceBook.companyId, companyId)))
     .limit(1);
   if (!row) throw notFound("Price book");
-  return { ...row, document: parseStored(row.document) };
+  return row;
 }
 
 /**
@@ -65,10 +55,28 @@ export async function savePriceBook(member: Member, doc: unknown): Promise<Price
   if (!can(member.role, "pricebook:manage")) throw forbidden("changing the price book");
   const parsed = priceBookSchema.safeParse(doc);
   if (!parsed.success) throw validationError(parsed.error);
-  await db()
-    .insert(priceBook)
-    .values({ id: crypto.randomUUID(), companyId: member.companyId, document: parsed.data, updatedByUserId: member.userId })
-    .onDuplicateKeyUpdate({ set: { document: parsed.data, updatedByUserId: member.userId, updatedAt: sql`CURRENT_TIMESTAMP(3)` } });
+  await db().transaction(async (tx) => {
+    const [row] = await tx.select({ document: priceBook.document }).from(priceBook).where(eq(priceBook.companyId, member.companyId)).for("update");
+    if (!row) {
+      // A first save racing another: the later one counts as a change of everything.
+      await tx
+        .insert(priceBook)
+        .values({ id: crypto.randomUUID(), companyId: member.companyId, document: parsed.data, updatedByUserId: member.userId })
+        .onDuplicateKeyUpdate({ set: { document: parsed.data, version: sql`${priceBook.version} + 1`, incentivesVersion: sql`${priceBook.incentivesVersion} + 1`, updatedByUserId: member.userId } });
+      return;
+    }
+    const incentivesChanged = JSON.stringify(row.document.incentives) !== JSON.stringify(parsed.data.incentives);
+    await tx
+      .update(priceBook)
+      .set({
+        document: parsed.data,
+        version: sql`${priceBook.version} + 1`,
+        ...(incentivesChanged ? { incentivesVersion: sql`${priceBook.incentivesVersion} + 1` } : {}),
+        updatedByUserId: member.userId,
+        updatedAt: sql`CURRENT_TIMESTAMP(3)`,
+      })
+      .where(eq(priceBook.companyId, member.companyId));
+  });
   const saved = await getPriceBookRecord(member.companyId);
   if (!saved) throw new Error("price book vanished right after saving");
   return saved;

@@ -1,11 +1,11 @@
 import "server-only";
-import { and, asc, desc, eq } from "drizzle-orm";
+import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { ratePlan } from "@/db/schema";
-import { ratePlanSchema, type RatePlan } from "@/engine/rates";
+import type { RatePlan } from "@/engine/rates";
 import { can } from "@/lib/permissions";
 import { ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
 import { db } from "@/server/db";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { forbidden, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
@@ -16,6 +16,8 @@ export type RatePlanRow = {
   active: boolean;
   /** The engine's rate plan (src/engine/rates.ts), defaults filled in. */
   plan: RatePlan;
+  /** Every change adds one; offers record the version they were priced with. */
+  version: number;
   updatedAt: Date;
 };
 
@@ -25,17 +27,9 @@ const columns = {
   utilityName: ratePlan.utilityName,
   active: ratePlan.active,
   plan: ratePlan.plan,
+  version: ratePlan.version,
   updatedAt: ratePlan.updatedAt,
 };
-
-function parsePlan(raw: unknown): RatePlan {
-  const value = typeof raw === "string" ? JSON.parse(raw) : raw;
-  const parsed = ratePlanSchema.safeParse(value);
-  if (!parsed.success) throw new HttpError(500, "rate_plan_unreadable", "A saved rate plan does not match the current format. An admin must save it again.");
-  return parsed.data;
-}
-
-const toRow = (row: Omit<RatePlanRow, "plan"> & { plan: unknown }): RatePlanRow => ({ ...row, plan: parsePlan(row.plan) });
 
 /** The company's rate plans: active first, then by utility and name. */
 export async function listRatePlans(companyId: string): Promise<RatePlanRow[]> {
@@ -44,7 +38,7 @@ export async function listRatePlans(companyId: string): Promise<RatePlanRow[]> {
     .from(ratePlan)
     .where(eq(ratePlan.companyId, companyId))
     .orderBy(desc(ratePlan.active), asc(ratePlan.utilityName), asc(ratePlan.name));
-  return rows.map(toRow);
+  return rows;
 }
 
 export async function getRatePlanOrThrow(companyId: string, id: string): Promise<RatePlanRow> {
@@ -54,7 +48,7 @@ export async function getRatePlanOrThrow(companyId: string, id: string): Promise
     .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, companyId)))
     .limit(1);
   if (!row) throw notFound("Rate plan");
-  return toRow(row);
+  return row;
 }
 
 function parseInput(input: unknown) {
@@ -78,7 +72,7 @@ export async function updateRatePlan(member: Member, id: string, input: unknown)
   await getRatePlanOrThrow(member.companyId, id);
   await db()
     .update(ratePlan)
-    .set({ name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active })
+    .set({ name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active, version: sql`${ratePlan.version} + 1` })
     .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, member.companyId)));
   return getRatePlanOrThrow(member.companyId, id);
 }

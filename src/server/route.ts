@@ -4,9 +4,9 @@ import { z } from "zod";
 import type { Permission } from "@/lib/permissions";
 import { EngineInputError } from "@/engine/errors";
 import { BODY_CAPS, readCappedForm, readCappedText, type BodyCap } from "@/server/body-limit";
-import { engineFields, HttpError, isDatabaseDown } from "@/server/errors";
+import { engineFields, HttpError, isDatabaseDown, notFound } from "@/server/errors";
 import { TooManyRequests } from "@/server/limits";
-import { DEFAULT_BODY_TYPES, guardCookieMutation } from "@/server/request-guard";
+import { DEFAULT_BODY_TYPES, guardCookieMutation, guardPublicMutation } from "@/server/request-guard";
 import { requireMember, type Member } from "@/server/session";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -55,6 +55,22 @@ export function withMember<P = Record<string, never>>(permission: Permission, ha
 }
 
 /**
+ * The wrapper for the few routes anyone may call without a session (sign-up, accepting an
+ * invitation): a mutation must come from the app's own origin with a JSON or multipart body
+ * whether or not a cookie came with it (403/415), because each one signs a browser up or in.
+ */
+export function publicRoute(handler: (args: { req: NextRequest }) => Promise<Response>) {
+  return async (req: NextRequest): Promise<Response> => {
+    try {
+      guardPublicMutation(req);
+      return await handler({ req });
+    } catch (err) {
+      return toErrorResponse(err);
+    }
+  };
+}
+
+/**
  * Reads a JSON body within its cap (BODY_CAPS.json, 413 past it) and validates it: 400 for
  * malformed JSON, 422 naming each bad field.
  */
@@ -92,3 +108,41 @@ export function validationError(error: z.ZodError): HttpError {
 
 /** Path ids are validated like every other input (a malformed id is simply not found). */
 export const idSchema = z.string().uuid();
+
+// ── One record by its path id: the routes under /api/<things>/[id] ──
+
+type ById = { id: string };
+
+/** The id from the path; a malformed one is simply not found (404 naming what was asked for). */
+export function recordId(id: string, what: string): string {
+  if (!idSchema.safeParse(id).success) throw notFound(what);
+  return id;
+}
+
+/** GET /api/<things>/<id>: `{ data }` of one record the member may read. */
+export function readById<T>(permission: Permission, what: string, read: (member: Member, id: string) => Promise<T>) {
+  return withMember<ById>(permission, async ({ member, params }) => NextResponse.json({ data: await read(member, recordId(params.id, what)) }));
+}
+
+/** PATCH or PUT /api/<things>/<id>: the JSON body checked by `schema`, then `{ data }` of the change. */
+export function writeById<S extends z.ZodType, T>(permission: Permission, what: string, schema: S, write: (member: Member, id: string, input: z.output<S>) => Promise<T>) {
+  return withMember<ById>(permission, async ({ req, member, params }) => {
+    const id = recordId(params.id, what);
+    return NextResponse.json({ data: await write(member, id, await readJson(req, schema)) });
+  });
+}
+
+/** DELETE /api/<things>/<id>: 204 when the removal answers nothing, else `{ data }` of what it answered. */
+export function deleteById(permission: Permission, what: string, remove: (member: Member, id: string) => Promise<unknown>) {
+  return withMember<ById>(permission, async ({ member, params }) => {
+    const answer = await remove(member, recordId(params.id, what));
+    return answer === undefined ? new Response(null, { status: 204 }) : NextResponse.json({ data: answer });
+  });
+}
+
+/** A CSV file to download (never cached). */
+export function csvDownload(fileName: string, csv: string): Response {
+  return new Response(csv, {
+    headers: { "Content-Type": "text/csv; charset=utf-8", "Content-Disposition": `attachment; filename="${fileName}"`, "Cache-Control": "no-store" },
+  });
+}

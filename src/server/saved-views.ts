@@ -2,9 +2,7 @@ import "server-only";
 import { and, asc, count, eq } from "drizzle-orm";
 import { savedView } from "@/db/schema";
 import {
-  DEAL_TABLE_DEFAULT_SORT,
   SAVED_VIEWS_PER_PERSON,
-  savedViewQuerySchema,
   type SavedView,
   type SavedViewQuery,
   type savedViewCreateSchema,
@@ -20,26 +18,17 @@ const ownedBy = (member: Member) => and(eq(savedView.companyId, member.companyId
 
 type Row = typeof savedView.$inferSelect;
 
-/**
- * A stored query is read back through the table's schema: a value that no longer passes
- * (say, a filter the table dropped) leaves the view with the default sort rather than failing.
- */
-function readQuery(value: unknown): SavedViewQuery {
-  const parsed = savedViewQuerySchema.safeParse(value);
-  return parsed.success ? parsed.data : savedViewQuerySchema.parse({ sort: DEAL_TABLE_DEFAULT_SORT });
-}
-
 const toView = (r: Row): SavedView => ({
   id: r.id,
   name: r.name,
-  query: readQuery(r.query),
+  query: r.query,
   createdAt: r.createdAt.toISOString(),
   updatedAt: r.updatedAt.toISOString(),
 });
 
 /** Drops empty values so the stored JSON holds only what the view sets. */
-function storedQuery(q: SavedViewQuery): Record<string, unknown> {
-  return Object.fromEntries(Object.entries(q).filter(([, v]) => v !== undefined && v !== null && v !== ""));
+function storedQuery(q: SavedViewQuery): SavedViewQuery {
+  return Object.fromEntries(Object.entries(q).filter(([, v]) => v !== undefined && v !== null && v !== "")) as SavedViewQuery;
 }
 
 const duplicateName = (name: string) =>

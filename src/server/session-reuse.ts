@@ -16,7 +16,11 @@ import type { Member } from "@/server/member";
  */
 export const SESSION_REUSE_MS = 5_000;
 
-const members = new LRUCache<string, { member: Member; sessionExpiresAt: number }>({ max: 10_000, ttl: SESSION_REUSE_MS });
+type Kept = { member: Member; sessionExpiresAt: number };
+// On globalThis: Next bundles each page and each route handler apart, and a module-level cache
+// would be one per bundle, so a role change saved by a route handler would not reach pages.
+const globalForReuse = globalThis as unknown as { kilowrightSessionReuse?: LRUCache<string, Kept> };
+const members = (globalForReuse.kilowrightSessionReuse ??= new LRUCache<string, Kept>({ max: 10_000, ttl: SESSION_REUSE_MS }));
 
 /** The member kept for this Cookie header, if younger than SESSION_REUSE_MS and the session not expired. */
 export function reusedMember(cookie: string): Member | undefined {

@@ -18,7 +18,7 @@ import { cancelDeadline } from "@/lib/business-days";
 import { formatCents, formatDateTime } from "@/lib/format";
 import { formatIsoDateLong, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
 import { dateInZone } from "@/lib/zoned-time";
-import { MAX_VERIFY_FILE_BYTES, signProposalSchema, verifyCodeSchema } from "@/lib/schemas/proposal";
+import { MAX_VERIFY_FILE_BYTES, signProposalSchema, verifyCodeSchema, type ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import type { Stage } from "@/db/schema";
 import SignedCopyEmail from "@emails/signed-copy";
 import SigningCodeEmail from "@emails/signing-code";
@@ -209,6 +209,82 @@ export async function signaturePngBytes(dataUrl: string): Promise<Uint8Array> {
 
 export type SignedOutcome = { signedAt: Date; signedSha256: string; cancelDeadline: string | null; chosenPosition: number };
 
+/** The proposal's row, locked, once the link is live and this session confirmed its code. */
+async function lockConfirmedProposal(tx: Tx, p: ProposalRow, session: string | null, now: Date) {
+  const [row] = await tx.select().from(proposal).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId))).for("update");
+  if (!row) throw new HttpError(404, "not_found", "Proposal not found.");
+  if (row.status === "signed") throw new HttpError(409, "already_signed", "This proposal is already signed; a second signature is not accepted.");
+  requireLive(row);
+  const confirmed =
+    !!session &&
+    !!row.codeHash &&
+    !!row.codeVerifiedAt &&
+    !!row.codeExpiresAt &&
+    row.codeExpiresAt.getTime() > now.getTime() &&
+    sameHash(row.codeHash, secretHash(p.id, "session", session));
+  if (!confirmed) throw new HttpError(403, "code_required", "Confirm your e-mail with a code first (a confirmation lasts 30 minutes).");
+  return row;
+}
+
+/** Records the consent, then the certificate's lines: every event so far and the signature itself. */
+async function consentAndCertificateEvents(tx: Tx, p: ProposalRow, client: ClientMeta, now: Date) {
+  await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "consented", body: "Agreed to the electronic records disclosure", client, at: now });
+  const events = await tx
+    .select({ kind: proposalEvent.kind, body: proposalEvent.body, ip: proposalEvent.ip, createdAt: proposalEvent.createdAt })
+    .from(proposalEvent)
+    .where(and(eq(proposalEvent.companyId, p.companyId), eq(proposalEvent.proposalId, p.id)))
+    .orderBy(asc(proposalEvent.createdAt));
+  return events
+    .filter((e) => EVENT_TEXT[e.kind])
+    .map((e) => ({ at: e.createdAt, kind: e.kind, detail: EVENT_TEXT[e.kind](e) }))
+    .concat([{ at: now, kind: "signed", detail: EVENT_TEXT.signed({ body: null, ip: client.ip }) }]);
+}
+
+type Signature = { position: number; signerName: string; offer: ProposalSnapshotOffer; client: ClientMeta; now: Date; deadline: string | null; key: string; signedSha256: string };
+
+/** The proposal signed, its deal's contract and size, the timelines and the stage, all in the signing's transaction. */
+async function recordSignature(tx: Tx, p: ProposalRow, row: ProposalRow, s: Signature): Promise<void> {
+  const contractCents = s.offer.figures.summary.contractCents;
+  await tx
+    .update(proposal)
+    .set({
+      status: "signed",
+      chosenPosition: s.position,
+      consentedAt: s.now,
+      signedAt: s.now,
+      signerName: s.signerName,
+      signerEmail: row.sentToEmail,
+      signerIp: s.client.ip,
+      signerUserAgent: s.client.userAgent,
+      signedStorageKey: s.key,
+      signedSha256: s.signedSha256,
+      cancelDeadline: s.deadline,
+      codeHash: null,
+    })
+    .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
+  await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "signed", body: `${s.signerName}: "${s.offer.name}" at ${formatCents(contractCents)}`, client: s.client, at: s.now });
+  await tx
+    .update(deal)
+    .set({ contractCents, systemDcWatts: Math.round(s.offer.equipment.moduleCount * s.offer.equipment.module.stcWatts) })
+    .where(and(eq(deal.id, p.dealId), eq(deal.companyId, p.companyId)));
+  await recordEvent(tx, {
+    companyId: p.companyId,
+    dealId: p.dealId,
+    kind: "proposal.signed",
+    summary: `${s.signerName} signed proposal ${labelOf(row)}: "${s.offer.name}" at ${formatCents(contractCents)}${s.deadline ? `; may cancel until ${formatIsoDateLong(s.deadline)}` : ""}`,
+    actorUserId: null,
+    data: { proposalId: p.id, position: s.position, signedSha256: s.signedSha256, ip: s.client.ip },
+  });
+  await autoMoveStage(tx, {
+    companyId: p.companyId,
+    dealId: p.dealId,
+    from: BEFORE_SIGNED,
+    to: "signed",
+    summary: `Moved to Signed: the customer signed ${labelOf(row)}`,
+    data: { proposalId: p.id },
+  });
+}
+
 /**
  * Signs the proposal for the chosen offer. One transaction holds the proposal's row lock from
  * the check to the last write: a second signing waits, then finds it signed (409). The signed
@@ -229,31 +305,9 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
   const key = `${p.companyId}/signed/${crypto.randomUUID()}.pdf`;
   const result = await withFilesUndoneOnFailure((put) =>
     db().transaction(async (tx) => {
-      const [row] = await tx.select().from(proposal).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId))).for("update");
-      if (!row) throw new HttpError(404, "not_found", "Proposal not found.");
-      if (row.status === "signed") throw new HttpError(409, "already_signed", "This proposal is already signed; a second signature is not accepted.");
-      requireLive(row);
       const now = new Date();
-      const confirmed =
-        !!session &&
-        !!row.codeHash &&
-        !!row.codeVerifiedAt &&
-        !!row.codeExpiresAt &&
-        row.codeExpiresAt.getTime() > now.getTime() &&
-        sameHash(row.codeHash, secretHash(p.id, "session", session));
-      if (!confirmed) throw new HttpError(403, "code_required", "Confirm your e-mail with a code first (a confirmation lasts 30 minutes).");
-
-      await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "consented", body: "Agreed to the electronic records disclosure", client, at: now });
-      const events = await tx
-        .select({ kind: proposalEvent.kind, body: proposalEvent.body, ip: proposalEvent.ip, createdAt: proposalEvent.createdAt })
-        .from(proposalEvent)
-        .where(and(eq(proposalEvent.companyId, p.companyId), eq(proposalEvent.proposalId, p.id)))
-        .orderBy(asc(proposalEvent.createdAt));
-      const certificateEvents = events
-        .filter((e) => EVENT_TEXT[e.kind])
-        .map((e) => ({ at: e.createdAt, kind: e.kind, detail: EVENT_TEXT[e.kind](e) }))
-        .concat([{ at: now, kind: "signed", detail: EVENT_TEXT.signed({ body: null, ip: client.ip }) }]);
-
+      const row = await lockConfirmedProposal(tx, p, session, now);
+      const certificateEvents = await consentAndCertificateEvents(tx, p, client, now);
       // The deadline counts from the day of signing in the company's time zone (Settings → Company).
       const signedOn = dateInZone(now, timeZone);
       const deadline = row.inHomeSale ? cancelDeadline(signedOn) : null;
@@ -280,44 +334,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
       });
       const signedSha256 = sha256Hex(signed);
       await put(key, signed);
-      await tx
-        .update(proposal)
-        .set({
-          status: "signed",
-          chosenPosition: position,
-          consentedAt: now,
-          signedAt: now,
-          signerName,
-          signerEmail: row.sentToEmail,
-          signerIp: client.ip,
-          signerUserAgent: client.userAgent,
-          signedStorageKey: key,
-          signedSha256,
-          cancelDeadline: deadline,
-          codeHash: null,
-        })
-        .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
-      await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "signed", body: `${signerName}: "${offer.name}" at ${formatCents(offer.figures.summary.contractCents)}`, client, at: now });
-      await tx
-        .update(deal)
-        .set({ contractCents: offer.figures.summary.contractCents, systemDcWatts: Math.round(offer.equipment.moduleCount * offer.equipment.module.stcWatts) })
-        .where(and(eq(deal.id, p.dealId), eq(deal.companyId, p.companyId)));
-      await recordEvent(tx, {
-        companyId: p.companyId,
-        dealId: p.dealId,
-        kind: "proposal.signed",
-        summary: `${signerName} signed proposal ${labelOf(row)}: "${offer.name}" at ${formatCents(offer.figures.summary.contractCents)}${deadline ? `; may cancel until ${formatIsoDateLong(deadline)}` : ""}`,
-        actorUserId: null,
-        data: { proposalId: p.id, position, signedSha256, ip: client.ip },
-      });
-      await autoMoveStage(tx, {
-        companyId: p.companyId,
-        dealId: p.dealId,
-        from: BEFORE_SIGNED,
-        to: "signed",
-        summary: `Moved to Signed: the customer signed ${labelOf(row)}`,
-        data: { proposalId: p.id },
-      });
+      await recordSignature(tx, p, row, { position, signerName, offer, client, now, deadline, key, signedSha256 });
       const outcome = { signedAt: now, signedSha256, cancelDeadline: deadline, chosenPosition: position };
       // The copies are written with the signature, so a crash after the commit cannot lose them.
       const mailIds = await queueSignedCopies(tx, p, token, signerName, offer.name, offer.figures.summary.contractCents, outcome);

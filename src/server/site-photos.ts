@@ -3,7 +3,7 @@ import { createHash } from "node:crypto";
 import { and, desc, eq } from "drizzle-orm";
 import { upload, user } from "@/db/schema";
 import { db } from "@/server/db";
-import { getDealOrThrow } from "@/server/deals";
+import { openDeal } from "@/server/deal-scope";
 import { HttpError, notFound } from "@/server/errors";
 import { normalizePhoto } from "@/server/photos";
 import type { Member } from "@/server/session";
@@ -29,7 +29,7 @@ const columns = {
 
 /** The deal's site photos, newest first (the deal must be one the person may see). */
 export async function listSitePhotos(member: Member, dealId: string): Promise<SitePhotoView[]> {
-  await getDealOrThrow(member, dealId);
+  await openDeal(member, dealId);
   return db()
     .select(columns)
     .from(upload)
@@ -39,7 +39,7 @@ export async function listSitePhotos(member: Member, dealId: string): Promise<Si
 }
 
 async function sitePhotoRowOrThrow(member: Member, dealId: string, uploadId: string) {
-  await getDealOrThrow(member, dealId);
+  await openDeal(member, dealId);
   const [row] = await db()
     .select({ storageKey: upload.storageKey, fileName: upload.fileName })
     .from(upload)
@@ -54,7 +54,7 @@ async function sitePhotoRowOrThrow(member: Member, dealId: string, uploadId: str
  * (normalizePhoto) and kept with the deal. A refused file stores nothing.
  */
 export async function addSitePhoto(member: Member, dealId: string, file: { name: string; bytes: Uint8Array }): Promise<SitePhotoView> {
-  await getDealOrThrow(member, dealId);
+  await openDeal(member, dealId);
   const photo = await normalizePhoto(file.bytes);
   const id = crypto.randomUUID();
   const storageKey = `${member.companyId}/uploads/${id}.jpg`;

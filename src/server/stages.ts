@@ -1,10 +1,12 @@
 import "server-only";
-import { and, asc, eq, gte, inArray, isNotNull, lt, type SQL } from "drizzle-orm";
+import { and, asc, eq, inArray, isNotNull, type SQL } from "drizzle-orm";
 import { deal, household, job, membership, user, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
-import { getDealOrThrow, type DealRow } from "@/server/deals";
+import { openDeal } from "@/server/deal-scope";
+import { dealColumns, type DealRow } from "@/server/deal-audience";
+import { zoneForDays, withinDays } from "@/server/day-filters";
 import { db, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -30,7 +32,7 @@ export type StageMove = { dealId: string; from: Stage; to: Stage; reason: string
  */
 export async function moveDealStage(member: Member, dealId: string, toStage: Stage, reason?: string | null): Promise<StageMove> {
   if (!can(member.role, "deals:write")) throw new HttpError(403, "forbidden", "Your role does not allow moving deals.");
-  const found = await getDealOrThrow(member, dealId); // reps see (and so move) only their own deals
+  const found = (await openDeal(member, dealId)).deal; // reps see (and so move) only their own deals
   const from = found.stage;
   const office = can(member.role, "deals:read-all");
   if (!office && !(REP_STAGES.includes(from) && REP_STAGES.includes(toStage))) {
@@ -111,23 +113,9 @@ export async function listBoardDeals(member: Member, filter: BoardFilter): Promi
   if (!can(member.role, "deals:read-all")) conditions.push(eq(deal.ownerUserId, member.userId));
   else if (filter.rep) conditions.push(eq(deal.ownerUserId, filter.rep));
   if (filter.source) conditions.push(eq(deal.source, filter.source));
-  if (filter.from) conditions.push(gte(deal.createdAt, new Date(`${filter.from}T00:00:00Z`)));
-  if (filter.to) conditions.push(lt(deal.createdAt, new Date(new Date(`${filter.to}T00:00:00Z`).getTime() + 86_400_000)));
+  conditions.push(...withinDays(deal.createdAt, filter, await zoneForDays(member.companyId, filter)));
   return db()
-    .select({
-      id: deal.id,
-      stage: deal.stage,
-      stageChangedAt: deal.stageChangedAt,
-      source: deal.source,
-      contractCents: deal.contractCents,
-      systemDcWatts: deal.systemDcWatts,
-      householdId: household.id,
-      householdName: household.name,
-      city: household.city,
-      ownerName: user.name,
-      ownerUserId: deal.ownerUserId,
-      createdAt: deal.createdAt,
-    })
+    .select({ ...dealColumns, ownerUserId: deal.ownerUserId })
     .from(deal)
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
     .leftJoin(user, eq(user.id, deal.ownerUserId))
@@ -135,20 +123,27 @@ export async function listBoardDeals(member: Member, filter: BoardFilter): Promi
     .orderBy(asc(deal.stageChangedAt));
 }
 
-/** People who own deals (for the rep filter): the company's active sellers. */
-export async function listBoardOwners(member: Member): Promise<{ id: string; name: string }[]> {
+const DEAL_OWNER_ROLES: ("owner" | "admin" | "office_manager" | "sales_rep")[] = ["owner", "admin", "office_manager", "sales_rep"];
+
+/** The company's active members who may own deals (its sellers); with `userId`, that one only. */
+export function activeDealOwners(companyId: string, userId?: string) {
   return db()
     .select({ id: user.id, name: user.name })
     .from(membership)
     .innerJoin(user, eq(user.id, membership.userId))
     .where(
       and(
-        eq(membership.companyId, member.companyId),
+        eq(membership.companyId, companyId),
         eq(membership.status, "active"),
-        inArray(membership.role, ["owner", "admin", "office_manager", "sales_rep"]),
+        inArray(membership.role, DEAL_OWNER_ROLES),
+        userId === undefined ? undefined : eq(membership.userId, userId),
       ),
-    )
-    .orderBy(asc(user.name));
+    );
+}
+
+/** People who own deals (for the rep filter). */
+export async function listBoardOwners(member: Member): Promise<{ id: string; name: string }[]> {
+  return activeDealOwners(member.companyId).orderBy(asc(user.name));
 }
 
 /** The lead sources used on the company's deals. */

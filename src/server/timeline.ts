@@ -1,8 +1,9 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { timelineEvent, user } from "@/db/schema";
+import { companyRowOrThrow } from "@/server/records";
 import { db, type Tx } from "@/server/db";
-import { notFound } from "@/server/errors";
+
 import type { Member } from "@/server/session";
 
 export type TimelineEntry = {
@@ -17,7 +18,7 @@ export type TimelineEntry = {
 /** Writes one event; call it inside the transaction of the change it describes. */
 export async function recordEvent(
   tx: Tx,
-  event: { companyId: string; dealId: string; kind: string; summary: string; actorUserId: string | null; data?: unknown },
+  event: { companyId: string; dealId: string; kind: string; summary: string; actorUserId: string | null; data?: Record<string, unknown> },
 ): Promise<void> {
   await tx.insert(timelineEvent).values({ id: crypto.randomUUID(), ...event, data: event.data ?? null });
 }
@@ -39,11 +40,5 @@ export async function listTimeline(member: Member, dealId: string): Promise<Time
 }
 
 export async function getTimelineEventOrThrow(member: Member, eventId: string) {
-  const [row] = await db()
-    .select()
-    .from(timelineEvent)
-    .where(and(eq(timelineEvent.id, eventId), eq(timelineEvent.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Timeline event");
-  return row;
+  return companyRowOrThrow(timelineEvent, member.companyId, eventId, "Timeline event");
 }

@@ -4,6 +4,7 @@ import { and, asc, count, desc, eq, gt, gte, isNotNull, isNull, lte, ne, notInAr
 import { deal, household, job, membership, payment, proposal, proposalEvent, STAGES, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { getCompanySettings } from "@/server/company-settings";
+import { crewIdOfMember } from "@/server/crews";
 import { db } from "@/server/db";
 import type { Member } from "@/server/session";
 
@@ -276,16 +277,6 @@ async function crewVisits(member: Member, crewId: string, from: string, to: stri
   return visits.sort((a, b) => a.date.localeCompare(b.date) || order[a.kind] - order[b.kind] || a.householdName.localeCompare(b.householdName));
 }
 
-/** The person's crew (installers only). */
-async function crewOf(member: Member): Promise<string | null> {
-  const [row] = await db()
-    .select({ crewId: membership.crewId })
-    .from(membership)
-    .where(and(eq(membership.id, member.membershipId), eq(membership.companyId, member.companyId)))
-    .limit(1);
-  return row?.crewId ?? null;
-}
-
 /**
  * Each person's own queue (issue #7, "Today"): a rep's follow-ups, opened proposals and
  * customers' questions on their own deals; the office's stalled deals, flagged deposits,
@@ -315,7 +306,7 @@ export async function getTodayQueues(member: Member, now = new Date()): Promise<
     can(member.role, "jobs:manage") ? jobsToSchedule(member) : null,
     isCrew
       ? (async () => {
-          const crewId = await crewOf(member);
+          const crewId = await crewIdOfMember(member);
           if (!crewId) return { crewId: null, today: [], thisWeek: [] };
           const visits = await crewVisits(member, crewId, today, addDaysToDate(today, 6));
           return { crewId, today: visits.filter((v) => v.date === today), thisWeek: visits.filter((v) => v.date !== today) };

@@ -8,7 +8,7 @@ import { detectWeatherFormat, parseWeather, type WeatherFormat, type WeatherSite
 import { can } from "@/lib/permissions";
 import { WEATHER_FILE_MAX_BYTES, WEATHER_FILE_MAX_LABEL, type StationFields } from "@/lib/schemas/weather";
 import { db } from "@/server/db";
-import { getDealOrThrow } from "@/server/deals";
+import { openDealOf } from "@/server/deal-scope";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { storage } from "@/server/storage";
@@ -341,12 +341,7 @@ function cachePut(key: string, value: WeatherYear): void {
 export async function loadStationWeather(companyId: string, stationId: string): Promise<WeatherYear> {
   const [row] = await db()
     .select({
-      name: weatherStation.name,
-      format: weatherStation.format,
-      latitude: weatherStation.latitude,
-      longitude: weatherStation.longitude,
-      elevationM: weatherStation.elevationM,
-      utcOffsetHours: weatherStation.utcOffsetHours,
+      ...stationColumns,
       sha256: upload.sha256,
       storageKey: upload.storageKey,
     })
@@ -407,9 +402,7 @@ export async function getUploadMetadataOrThrow(member: Member, uploadId: string)
     .limit(1);
   if (!row) throw notFound("Upload");
   if (row.dealId) {
-    await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-      throw err instanceof HttpError && err.status === 404 ? notFound("Upload") : err;
-    });
+    await openDealOf(member, row.dealId, "Upload");
   } else if (row.purpose === "weather" && !can(member.role, "weather:read")) throw forbidden("reading weather files");
   return row;
 }

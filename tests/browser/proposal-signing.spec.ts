@@ -215,8 +215,8 @@ test("a replaced version says so and offers nothing to sign; the verify page mat
   // Revoked: the rep withdraws v2, and its link shows that.
   const second = linkIn(await waitForMail(deal.email, /solar proposal/), "/p/");
   expect(second).not.toBe(first);
-  page.once("dialog", (d) => void d.accept());
   await page.getByRole("article", { name: /^Proposal P-\d+ v2$/ }).getByRole("button", { name: "Revoke link" }).click();
+  await page.getByRole("dialog", { name: /^Revoke the link of P-\d+ v2\?$/ }).getByRole("button", { name: "Revoke the link" }).click();
   await expect(page.getByRole("article", { name: /^Proposal P-\d+ v2$/ }).getByTestId("proposal-status")).toHaveText("Revoked");
   await phone.goto(second);
   await expect(phone.getByTestId("state-revoked")).toBeVisible();

@@ -3,7 +3,7 @@
 // schemas the app uses, so a bad edit here fails the seed instead of the page.
 import { eq } from "drizzle-orm";
 import { company, savedView } from "../../../src/db/schema";
-import { companySettingsSchema, DEFAULT_STALL_SETTINGS } from "../../../src/lib/schemas/company-settings";
+import { companySettingsSchema, DEFAULT_STALL_SETTINGS, storedCompanySettingsSchema } from "../../../src/lib/schemas/company-settings";
 import { savedViewCreateSchema } from "../../../src/lib/schemas/deal-table";
 import type { SeedContext } from "../seed-demo";
 
@@ -30,16 +30,15 @@ export async function seed(ctx: SeedContext): Promise<void> {
   });
   // Other areas may keep their own keys in company.settings: keep them.
   const [row] = await ctx.tx.select({ settings: company.settings }).from(company).where(eq(company.id, ctx.companyId));
-  const previous = row?.settings && typeof row.settings === "object" ? (row.settings as Record<string, unknown>) : {};
   await ctx.tx
     .update(company)
-    .set({ settings: { ...previous, timeZone: settings.timeZone, stallDays: settings.stallDays } })
+    .set({ settings: storedCompanySettingsSchema.parse({ ...row?.settings, timeZone: settings.timeZone, stallDays: settings.stallDays }) })
     .where(eq(company.id, ctx.companyId));
 
   for (const v of VIEWS) {
     const person = ctx.people.find((p) => p.email === v.email);
     if (!person) throw new Error(`Board seed: no demo person ${v.email}`);
     const input = savedViewCreateSchema.parse({ name: v.name, query: v.query });
-    await ctx.tx.insert(savedView).values({ id: uid(v.id), companyId: ctx.companyId, userId: person.id, name: input.name, query: v.query });
+    await ctx.tx.insert(savedView).values({ id: uid(v.id), companyId: ctx.companyId, userId: person.id, name: input.name, query: input.query });
   }
 }

@@ -6,7 +6,8 @@ import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { and, eq } from "drizzle-orm";
-import { bill, deal, design, discountRequest, inverterModel, moduleModel, offer, priceBook, ratePlan, timelineEvent } from "../../../src/db/schema";
+import { bill, company, deal, dealUsage, design, discountRequest, inverterModel, moduleModel, offer, priceBook, ratePlan, timelineEvent } from "../../../src/db/schema";
+import type { OfferBasis } from "../../../src/lib/offer-basis";
 import { usageFromBills } from "../../../src/engine/bills";
 import { spreadMonthlyToHourly } from "../../../src/engine/load-shape";
 import { estimateProduction } from "../../../src/engine/production";
@@ -124,6 +125,30 @@ export async function seed(ctx: SeedContext): Promise<void> {
   const book = priceBookSchema.parse(json(bookRow.document));
   const plan = ratePlanSchema.parse(json(planRow.plan));
   const asOf = new Date().toISOString().slice(0, 10);
+  // What the offers are computed from, as the app records it (src/lib/offer-basis.ts).
+  const [usageRow] = await tx.select().from(dealUsage).where(and(eq(dealUsage.companyId, companyId), eq(dealUsage.dealId, dealId)));
+  const [designRow] = await tx.select({ revision: design.revision }).from(design).where(and(eq(design.companyId, companyId), eq(design.dealId, dealId)));
+  const [companyRow] = await tx.select({ financeVersion: company.financeVersion }).from(company).where(eq(company.id, companyId));
+  const inverterRow = inverterRows.find((r) => r.id === DEMO_INVERTER_IDS[d.inverter]);
+  const basis: OfferBasis | null =
+    usageRow && designRow && companyRow && inverterRow
+      ? {
+          usage: {
+            version: usageRow.version,
+            monthlyKwh: json(usageRow.monthlyKwh) as number[],
+            annualKwh: usageRow.annualKwh,
+            source: usageRow.source,
+            estimatedMonths: (json(usageRow.estimatedMonths) as boolean[]).filter(Boolean).length,
+            fillMethod: usageRow.fillMethod,
+          },
+          design: { revision: designRow.revision, lossesPct: 14, faces: d.faces.map((f, i) => ({ id: `face-${i + 1}`, name: f.name, tiltDeg: f.tiltDeg, azimuthDeg: f.azimuthDeg, solarAccessPct: f.solarAccessPct, moduleCount: f.moduleCount })) },
+          ratePlan: { id: planRow.id, version: planRow.version },
+          priceBook: { version: bookRow.version, incentivesVersion: bookRow.incentivesVersion, document: book },
+          assumptionsVersion: companyRow.financeVersion,
+          module: { manufacturer: pl410.manufacturer, model: pl410.model, stcWatts: pl410.stcWatts },
+          inverter: { manufacturer: inverterRow.manufacturer, model: inverterRow.model, kind: inverterRow.kind, acWatts: inverterRow.acWatts },
+        }
+      : null;
 
   const offers: { id: string; position: number; inputs: OfferInputsInput }[] = [
     { id: DEMO_OFFER_IDS.dunmoreCash, position: 1, inputs: { name: "Whole roof, cash", adderIds: ["optimizers"], lineItemIds: ["critter-guard"], payment: { kind: "cash" } } },
@@ -158,7 +183,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
       notes: [`Weather: ${weather.sourceLabel}.`, ...(bills.length ? [] : ["Usage: the demo household's invented monthly figures."])],
     });
     const status = inputs.discountCents === 0 ? "none" : figures.discountNeedsApproval ? "pending" : "within_limit";
-    await tx.insert(offer).values({ id: o.id, companyId, dealId, position: o.position, name: inputs.name, inputs, results: figures, discountCents: inputs.discountCents, discountStatus: status, createdAt });
+    await tx.insert(offer).values({ id: o.id, companyId, dealId, position: o.position, name: inputs.name, inputs, results: figures, basis, discountCents: inputs.discountCents, discountStatus: status, createdAt });
     await tx.insert(timelineEvent).values({
       id: uid(3300 + o.position),
       companyId,

@@ -1,12 +1,14 @@
 // Demo energy: twelve invented monthly bills for every household past the first visit, and
-// one household with Green Button interval data (the invented fixture of tests/fixtures).
+// one household with Green Button interval data (the invented fixture of tests/fixtures), and
+// each deal's stored usage year derived from them as the app derives it (version 1).
 import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { bill, intervalProfile, upload } from "../../../src/db/schema";
+import { bill, dealUsage, intervalProfile, upload } from "../../../src/db/schema";
 import { importIntervalData } from "../../../src/engine/green-button";
 import { referenceMonthlyShape } from "../../../src/engine/load-shape";
+import { deriveUsageYear, type StoredBill, type StoredInterval } from "../../../src/lib/usage-year";
 import { putSeedFile, seedStorageDir } from "../seed-files";
 import type { SeedContext } from "../seed-demo";
 
@@ -26,18 +28,20 @@ export async function seed(ctx: SeedContext): Promise<void> {
   // Households 1…11 (Bills in onward; not the lead, not the lost deal) have a year of bills.
   for (let i = 1; i < ctx.dealIds.length - 1; i++) {
     const annualKwh = 9_000 + 700 * i;
+    const bills: StoredBill[] = [];
     for (let m = 0; m < 12; m++) {
       const kwh = Math.round((annualKwh * shape[m]) / shapeTotal);
-      await ctx.tx.insert(bill).values({
+      const row = {
         id: `7a11a55e-0000-4000-8000-${String(7000 + i * 100 + m).padStart(12, "0")}`,
-        companyId: ctx.companyId,
-        dealId: ctx.dealIds[i],
         periodStart: new Date(Date.UTC(2025, m, 1)).toISOString().slice(0, 10),
         periodEnd: new Date(Date.UTC(2025, m + 1, 1)).toISOString().slice(0, 10),
         kwh,
         costCents: Math.round(kwh * CENTS_PER_KWH + FIXED_CENTS),
-      });
+      };
+      bills.push(row);
+      await ctx.tx.insert(bill).values({ ...row, companyId: ctx.companyId, dealId: ctx.dealIds[i] });
     }
+    await storeUsage(ctx, ctx.dealIds[i], usageId(i), bills, null);
   }
 
   // The household whose deal was lost had sent its utility's Green Button download.
@@ -67,4 +71,11 @@ export async function seed(ctx: SeedContext): Promise<void> {
     annualKwh: profile.annualKwh,
     coveragePct: profile.coverage * 100,
   });
+  await storeUsage(ctx, dealId, usageId(ctx.dealIds.length - 1), [], { hourlyKwh: profile.hourlyKwh, coveragePct: profile.coverage * 100 });
+}
+
+const usageId = (dealIndex: number) => `7a11a55e-0000-4000-8000-${String(6100 + dealIndex).padStart(12, "0")}`;
+
+async function storeUsage(ctx: SeedContext, dealId: string, id: string, bills: StoredBill[], interval: StoredInterval | null): Promise<void> {
+  await ctx.tx.insert(dealUsage).values({ id, companyId: ctx.companyId, dealId, version: 1, ...deriveUsageYear(bills, interval) });
 }

@@ -6,7 +6,6 @@ import { ROLE_LABELS } from "@/lib/permissions";
 import { sectionsFor } from "@/lib/sections";
 import { getMember } from "@/server/session";
 import { NavLinks } from "./nav-links";
-import { Providers } from "./providers";
 import { SignOutButton } from "./sign-out-button";
 
 export default async function OfficeLayout({ children }: { children: ReactNode }) {
@@ -41,7 +40,7 @@ export default async function OfficeLayout({ children }: { children: ReactNode }
           <SignOutButton />
         </div>
         <main className="mx-auto max-w-6xl px-4 py-6 md:px-8">
-          <Providers>{children}</Providers>
+          {children}
         </main>
       </div>
     </div>

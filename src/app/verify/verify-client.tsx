@@ -1,7 +1,7 @@
 "use client";
 import { useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
-import { ApiError } from "@/lib/api-client";
+import { FormMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import { MAX_VERIFY_FILE_BYTES } from "@/lib/schemas/proposal";
 
 type Answer = { match: true; label: string; signedOn: string } | { match: false };
@@ -13,27 +13,25 @@ export function VerifyClient() {
   const [file, setFile] = useState<File | null>(null);
   const [answer, setAnswer] = useState<Answer | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  // Nothing on this page changes: the answer is shown, no refresh.
+  const check = useSave<File, Answer>({
+    request: (pdf) => {
+      const body = new FormData();
+      body.set("file", pdf);
+      return { url: "/api/public/verify", method: "POST", body };
+    },
+    refresh: false,
+    notify: (n) => setError(n?.tone === "error" ? n.text : null),
+    onSaved: setAnswer,
+  });
 
-  async function submit(e: FormEvent) {
+  function submit(e: FormEvent) {
     e.preventDefault();
     setAnswer(null);
     setError(null);
     if (!file) return setError("Choose a PDF file");
     if (file.size > MAX_BYTES) return setError("Files up to 25 MB are checked.");
-    setBusy(true);
-    try {
-      const form = new FormData();
-      form.set("file", file);
-      const res = await fetch("/api/public/verify", { method: "POST", body: form });
-      const body = (await res.json().catch(() => null)) as { data?: Answer; error?: { code: string; message: string } } | null;
-      if (!res.ok || !body?.data) throw new ApiError(res.status, body?.error?.code ?? "http_error", body?.error?.message ?? `The server answered ${res.status}.`);
-      setAnswer(body.data);
-    } catch (err) {
-      setError(err instanceof Error ? err.message : "The file could not be checked.");
-    } finally {
-      setBusy(false);
-    }
+    check.save(file);
   }
 
   return (
@@ -54,8 +52,8 @@ export function VerifyClient() {
           }}
         />
       </div>
-      <button type="submit" className="btn-primary w-full" disabled={busy}>
-        {busy ? "Checking…" : "Check the file"}
+      <button type="submit" className="btn-primary w-full" disabled={check.pending}>
+        {check.pending ? "Checking…" : "Check the file"}
       </button>
       {error ? <FormMessage tone="error">{error}</FormMessage> : null}
       {answer ? (

@@ -78,28 +78,21 @@ const financeValue = (k: keyof FinanceAssumptions) => {
   return l.integer ? n.int(message) : n;
 };
 
+const objectOrEmpty = (v: unknown) => (v && typeof v === "object" && !Array.isArray(v) ? v : {});
+
 /**
- * Reads company.settings defensively: a missing or damaged entry falls back to its default,
- * one stage at a time, so a bad value never hides the rest.
+ * company.settings as stored, read forgivingly: a missing or damaged entry falls back to its
+ * default, one stage (one assumption) at a time, so a bad value never hides the rest. Keys other
+ * areas keep there pass through untouched.
  */
-export function parseStoredSettings(value: unknown): { stallDays: StallDays; timeZone: CompanyTimeZone; finance: FinanceAssumptions } {
-  const raw = (value && typeof value === "object" ? value : {}) as { stallDays?: unknown; timeZone?: unknown; finance?: unknown };
-  const stored = (raw.stallDays && typeof raw.stallDays === "object" ? raw.stallDays : {}) as Record<string, unknown>;
-  const stallDays = { ...DEFAULT_STALL_SETTINGS };
-  for (const stage of STALL_STAGES) {
-    if (!(stage in stored)) continue;
-    const parsed = stallDayValue.safeParse(stored[stage]);
-    if (parsed.success) stallDays[stage] = parsed.data;
-  }
-  const tz = z.enum(TIME_ZONE_IDS).safeParse(raw.timeZone);
-  const storedFinance = (raw.finance && typeof raw.finance === "object" ? raw.finance : {}) as Record<string, unknown>;
-  const finance = { ...DEFAULT_FINANCE };
-  for (const k of FINANCE_KEYS) {
-    const parsed = financeValue(k).safeParse(storedFinance[k]);
-    if (parsed.success) finance[k] = parsed.data;
-  }
-  return { stallDays, timeZone: tz.success ? tz.data : DEFAULT_TIME_ZONE, finance };
-}
+export const storedCompanySettingsSchema = z.preprocess(
+  objectOrEmpty,
+  z.looseObject({
+    stallDays: z.preprocess(objectOrEmpty, z.object(Object.fromEntries(STALL_STAGES.map((s) => [s, stallDayValue.catch(DEFAULT_STALL_SETTINGS[s])])) as Record<StallStage, z.ZodCatch<typeof stallDayValue>>)),
+    timeZone: z.enum(TIME_ZONE_IDS).catch(DEFAULT_TIME_ZONE),
+    finance: z.preprocess(objectOrEmpty, z.object(Object.fromEntries(FINANCE_KEYS.map((k) => [k, financeValue(k).catch(DEFAULT_FINANCE[k])])) as Record<keyof FinanceAssumptions, z.ZodCatch<z.ZodNumber>>)),
+  }),
+);
 
 /** The limits as the Board and Today use them: stages without a limit are never flagged. */
 export function stallLimits(stallDays: StallDays): Partial<Record<Stage, number>> {

@@ -3,6 +3,7 @@
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
 import { STAGES, type Stage } from "@/lib/enums";
+import { stageMoveReason } from "@/lib/stage-rules";
 
 export const DEAL_TABLE_SORT_COLUMNS = [
   "household",
@@ -162,13 +163,7 @@ export const dealBulkSchema = z.object({
       z.object({
         kind: z.literal("move"),
         to: z.enum(STAGES, "Pick a stage"),
-        reason: z
-          .string()
-          .trim()
-          .max(300, "Keep the reason under 300 characters")
-          .optional()
-          .nullable()
-          .transform((v) => (v ? v : null)),
+        reason: stageMoveReason,
       }),
       z.object({ kind: z.literal("reassign"), ownerUserId: z.uuid("Pick a rep from the list") }),
     ],

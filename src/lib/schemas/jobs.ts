@@ -16,26 +16,12 @@ const checklistItemSchema = z.object({
 });
 const storedTemplateItemSchema = z.object({ id: z.string().min(1).max(64), label: z.string() });
 
-/** MariaDB keeps JSON as text, so the driver may hand back a string. */
-function jsonish(value: unknown): unknown {
-  if (typeof value !== "string") return value;
-  try {
-    return JSON.parse(value);
-  } catch {
-    return null;
-  }
-}
-
-/** Reads a stored checklist defensively (JSON column): anything malformed reads as empty. */
-export function parseJobChecklist(value: unknown): JobChecklistItem[] {
-  const parsed = z.array(checklistItemSchema).safeParse(jsonish(value));
-  return parsed.success ? parsed.data : [];
-}
-
-export function parseTemplateItems(value: unknown): ChecklistTemplateItem[] {
-  const parsed = z.array(storedTemplateItemSchema).safeParse(jsonish(value));
-  return parsed.success ? parsed.data : [];
-}
+/**
+ * A stored checklist (column job.checklist, copied from a template) and a template's items
+ * (checklist_template.items), read forgivingly: anything malformed reads as empty.
+ */
+export const storedJobChecklistSchema = z.array(checklistItemSchema).catch([]);
+export const storedTemplateItemsSchema = z.array(storedTemplateItemSchema).catch([]);
 
 // ── Jobs (office) ───────────────────────────────────────────────────────────────────────
 

@@ -51,3 +51,4 @@ export type AcceptInvitationInput = z.input<typeof acceptInvitationSchema>;
 export const updatePersonSchema = z
   .object({ role: roleSchema.optional(), status: z.enum(["active", "deactivated"]).optional() })
   .refine((v) => v.role !== undefined || v.status !== undefined, { message: "Give a role or a status to change" });
+export type UpdatePersonInput = z.input<typeof updatePersonSchema>;

@@ -4,6 +4,7 @@ import ical from "ical-generator";
 import { env } from "@/env";
 import { company, deal, household, job } from "@/db/schema";
 import { findCrewByFeedToken } from "@/server/crews";
+import { householdAddress } from "@/server/records";
 import { db } from "@/server/db";
 import { addDaysToDate } from "@/lib/zoned-time";
 import { companyToday, JOB_DATE_LABELS, type JobDateKind } from "./dates";
@@ -30,12 +31,7 @@ export async function crewCalendarIcs(token: string, now = new Date()): Promise<
       inspectionOn: job.inspectionOn,
       updatedAt: job.updatedAt,
       householdName: household.name,
-      street: household.street,
-      city: household.city,
-      region: household.region,
-      postalCode: household.postalCode,
-      latitude: household.latitude,
-      longitude: household.longitude,
+      ...householdAddress,
     })
     .from(job)
     .innerJoin(deal, and(eq(deal.id, job.dealId), eq(deal.companyId, job.companyId)))

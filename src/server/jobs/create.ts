@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { checklistTemplate, job } from "@/db/schema";
-import { parseTemplateItems, type JobChecklistItem } from "@/lib/schemas/jobs";
+import type { JobChecklistItem } from "@/lib/schemas/jobs";
 import type { Tx } from "@/server/db";
 import { recordEvent } from "@/server/timeline";
 
@@ -27,7 +27,7 @@ export async function createJobForDeal(
     .where(and(eq(checklistTemplate.companyId, j.companyId), eq(checklistTemplate.active, true)))
     .orderBy(asc(checklistTemplate.name), asc(checklistTemplate.id))
     .limit(1);
-  const checklist: JobChecklistItem[] = parseTemplateItems(template?.items).map((item) => ({
+  const checklist: JobChecklistItem[] = (template?.items ?? []).map((item) => ({
     id: item.id,
     label: item.label,
     doneAt: null,

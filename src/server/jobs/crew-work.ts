@@ -1,8 +1,9 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { checklistTemplate, job, jobPhoto, user } from "@/db/schema";
-import { parseJobChecklist, parseTemplateItems, type JobChecklistItem } from "@/lib/schemas/jobs";
+import type { JobChecklistItem } from "@/lib/schemas/jobs";
 import { can } from "@/lib/permissions";
+import { hiddenWithParent } from "@/server/records";
 import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { normalizePhoto } from "@/server/photos";
@@ -26,7 +27,7 @@ export async function setChecklistItem(member: Member, jobId: string, input: { i
       .where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)))
       .for("update");
     if (!row) throw notFound("Job");
-    const items = parseJobChecklist(row.checklist);
+    const items = (row.checklist ?? []);
     const item = items.find((i) => i.id === input.itemId);
     if (!item) throw new HttpError(422, "validation_failed", "itemId: This item is not on the job's checklist", { itemId: ["This item is not on the job's checklist"] });
     if (input.done && !item.doneAt) {
@@ -51,7 +52,7 @@ export async function applyActiveChecklist(member: Member, jobId: string): Promi
   return db().transaction(async (tx) => {
     const [row] = await tx.select({ checklist: job.checklist }).from(job).where(and(eq(job.id, jobId), eq(job.companyId, member.companyId))).for("update");
     if (!row) throw notFound("Job");
-    if (parseJobChecklist(row.checklist).length > 0) throw new HttpError(409, "checklist_exists", "This job already has its checklist.");
+    if ((row.checklist ?? []).length > 0) throw new HttpError(409, "checklist_exists", "This job already has its checklist.");
     const [template] = await tx
       .select({ items: checklistTemplate.items })
       .from(checklistTemplate)
@@ -59,7 +60,7 @@ export async function applyActiveChecklist(member: Member, jobId: string): Promi
       .orderBy(asc(checklistTemplate.name), asc(checklistTemplate.id))
       .limit(1);
     if (!template) throw new HttpError(409, "no_active_checklist", "No checklist is active. An admin can activate one under Settings → Checklists.");
-    const items = parseTemplateItems(template.items).map((i) => ({ id: i.id, label: i.label, doneAt: null, doneByUserId: null }));
+    const items = template.items.map((i) => ({ id: i.id, label: i.label, doneAt: null, doneByUserId: null }));
     await tx.update(job).set({ checklist: items }).where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)));
     return items;
   });
@@ -77,7 +78,7 @@ export async function markJobInstalled(member: Member, jobId: string): Promise<J
       .where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)));
     if (changed[0].affectedRows !== 1) throw notFound("Job");
     const name = await dealHouseholdName(tx, member.companyId, current.dealId);
-    const items = parseJobChecklist(current.checklist);
+    const items = (current.checklist ?? []);
     const open = items.filter((i) => !i.doneAt).length;
     await recordEvent(tx, {
       companyId: member.companyId,
@@ -131,9 +132,7 @@ export async function getJobPhotoOrThrow(member: Member, photoId: string): Promi
     .where(and(eq(jobPhoto.id, photoId), eq(jobPhoto.companyId, member.companyId)))
     .limit(1);
   if (!row) throw notFound("Photo");
-  await getJobRowOrThrow(member, row.jobId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Photo") : err;
-  });
+  await hiddenWithParent(getJobRowOrThrow(member, row.jobId), "Photo");
   return row;
 }
 

@@ -2,9 +2,10 @@ import "server-only";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { company, deal, design, household, proposal, upload } from "@/db/schema";
 import { checkStringPlan, inverterAcKw, STRING_CAUTION } from "@/lib/offer-figures";
-import { designDocumentSchema, type DesignDocument } from "@/lib/schemas/design";
-import type { ProposalSnapshot, ProposalSnapshotOffer } from "@/lib/schemas/proposal";
+import type { DesignDocument } from "@/lib/schemas/design";
+import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import { getInverterOrThrow, getModuleOrThrow, type InverterModel, type ModuleModel } from "@/server/catalog";
+import { householdAddress } from "@/server/records";
 import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -15,19 +16,6 @@ import { getJobOrThrow, getJobRowOrThrow } from "./read";
 
 // ── The job packet (web and PDF) ─────────────────────────────────────────────────────────
 
-function jsonValue(raw: unknown): unknown {
-  return typeof raw === "string" ? JSON.parse(raw) : raw;
-}
-
-function snapshotOf(raw: unknown): ProposalSnapshot | null {
-  try {
-    const v = jsonValue(raw) as ProposalSnapshot | null;
-    return v && Array.isArray(v.offers) ? v : null;
-  } catch {
-    return null;
-  }
-}
-
 async function signedOffer(companyId: string, j: JobRecord): Promise<{ offer: ProposalSnapshotOffer; label: string } | null> {
   const rows = await db()
     .select({ id: proposal.id, number: proposal.number, version: proposal.version, status: proposal.status, snapshot: proposal.snapshot, chosenPosition: proposal.chosenPosition })
@@ -36,8 +24,7 @@ async function signedOffer(companyId: string, j: JobRecord): Promise<{ offer: Pr
     .orderBy(desc(proposal.signedAt));
   const chosen = rows.find((r) => r.id === j.proposalId) ?? rows[0];
   if (!chosen || chosen.chosenPosition == null) return null;
-  const snap = snapshotOf(chosen.snapshot);
-  const offer = snap?.offers.find((o) => o.position === chosen.chosenPosition);
+  const offer = chosen.snapshot.offers.find((o) => o.position === chosen.chosenPosition);
   return offer ? { offer, label: `Signed proposal ${chosen.number} v${chosen.version}, offer “${offer.name}”` } : null;
 }
 
@@ -47,9 +34,7 @@ async function designOf(companyId: string, dealId: string): Promise<DesignDocume
     .from(design)
     .where(and(eq(design.companyId, companyId), eq(design.dealId, dealId)))
     .limit(1);
-  if (!row) return null;
-  const parsed = designDocumentSchema.safeParse(jsonValue(row.document));
-  return parsed.success ? parsed.data : null;
+  return row?.document ?? null;
 }
 
 async function catalogPair(companyId: string, moduleId: string | null | undefined, inverterId: string | null | undefined): Promise<{ mod: ModuleModel | null; inv: InverterModel | null }> {
@@ -72,12 +57,7 @@ async function siteOf(companyId: string, dealId: string) {
       email: household.email,
       secondContactName: household.secondContactName,
       secondContactPhone: household.secondContactPhone,
-      street: household.street,
-      city: household.city,
-      region: household.region,
-      postalCode: household.postalCode,
-      latitude: household.latitude,
-      longitude: household.longitude,
+      ...householdAddress,
       utilityName: deal.utilityName,
     })
     .from(deal)

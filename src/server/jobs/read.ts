@@ -1,7 +1,6 @@
 import "server-only";
 import { and, desc, eq, type SQL } from "drizzle-orm";
 import { crew, deal, household, job, type Stage } from "@/db/schema";
-import { parseJobChecklist } from "@/lib/schemas/jobs";
 import { crewIdOfMember } from "@/server/crews";
 import { db } from "@/server/db";
 import { notFound } from "@/server/errors";
@@ -83,7 +82,7 @@ export async function listJobs(member: Member, now = new Date()): Promise<JobLis
     .where(await jobScope(member))
     .orderBy(desc(job.createdAt));
   const out: JobListRow[] = rows.map(({ checklist, ...r }) => {
-    const items = parseJobChecklist(checklist);
+    const items = checklist ?? [];
     const next = nextJobDate(r, today);
     return { ...r, checklistDone: items.filter((i) => i.doneAt).length, checklistTotal: items.length, next, bucket: jobBucket(next, today) };
   });
@@ -115,7 +114,7 @@ export async function getJobOrThrow(member: Member, jobId: string): Promise<JobV
     const [c] = await db().select({ name: crew.name }).from(crew).where(and(eq(crew.id, row.crewId), eq(crew.companyId, member.companyId))).limit(1);
     crewName = c?.name ?? null;
   }
-  return { ...row, checklist: parseJobChecklist(row.checklist), stage: d?.stage ?? "deposit_paid", householdName: d?.householdName ?? "", crewName };
+  return { ...row, checklist: row.checklist ?? [], stage: d?.stage ?? "deposit_paid", householdName: d?.householdName ?? "", crewName };
 }
 
 /** The job of a deal, if it has one (for the deal room and the customer's project page). */

@@ -1,10 +1,9 @@
 import "server-only";
-import { createHash } from "node:crypto";
 import Stripe from "stripe";
+import { v5 as uuidv5 } from "uuid";
 import { payment, paymentAlert, proposal, refund, type PaymentStatus } from "@/db/schema";
 import { proposalLabel as shortProposalLabel } from "@/lib/proposal-snapshot";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
-import { jsonValue } from "@/server/designs";
 import { HttpError } from "@/server/errors";
 
 export type PaymentRow = typeof payment.$inferSelect;
@@ -36,28 +35,25 @@ export const SESSION_LIFETIME_MS = 23 * HOUR_MS;
 
 export const proposalLabelOf = (p: { number: number; version: number }): string => shortProposalLabel(p.number, p.version);
 
-export function snapshotOf(p: { snapshot: unknown }): ProposalSnapshot {
-  return jsonValue(p.snapshot) as ProposalSnapshot;
-}
-
-export function chosenOffer(p: { snapshot: unknown; chosenPosition: number | null }) {
+export function chosenOffer(p: { snapshot: ProposalSnapshot; chosenPosition: number | null }) {
   if (p.chosenPosition == null) return null;
-  const offers = snapshotOf(p).offers;
-  return Array.isArray(offers) ? (offers.find((o) => o.position === p.chosenPosition) ?? null) : null;
+  return p.snapshot.offers.find((o) => o.position === p.chosenPosition) ?? null;
 }
 
 /** The deposit of a signed proposal: the chosen offer's `depositCents` in the snapshot (company policy at sending). */
-export function depositCentsOf(p: { snapshot: unknown; chosenPosition: number | null }): number | null {
+export function depositCentsOf(p: { snapshot: ProposalSnapshot; chosenPosition: number | null }): number | null {
   const cents = chosenOffer(p)?.depositCents;
   return typeof cents === "number" && Number.isInteger(cents) && cents > 0 ? cents : null;
 }
 
-/** A UUID derived from a text, so a retried checkout writes the same payment id (and sends the same metadata). */
-export function derivedUuid(text: string): string {
-  const h = createHash("sha256").update(text).digest("hex");
-  const variant = ((parseInt(h[16], 16) & 0x3) | 0x8).toString(16);
-  return `${h.slice(0, 8)}-${h.slice(8, 12)}-5${h.slice(13, 16)}-${variant}${h.slice(17, 20)}-${h.slice(20, 32)}`;
-}
+/** The namespace of Kilowright's name-based ids (a random UUID fixed once; our choice). */
+const KILOWRIGHT_ID_NAMESPACE = "0b7c8f52-3a61-4f0e-9d2b-6c1e5a7f4d90";
+
+/**
+ * A UUID derived from a text (version 5, RFC 9562 §5.5), so a retried checkout writes the same
+ * payment id (and sends the same metadata).
+ */
+export const derivedUuid = (text: string): string => uuidv5(text, KILOWRIGHT_ID_NAMESPACE);
 
 /** Stripe's errors as the person should read them; anything else is rethrown as it is. */
 export function providerError(err: unknown): unknown {

@@ -126,7 +126,7 @@ export async function getDepositForCustomer(token: string): Promise<CustomerDepo
 
 /** The same for a proposal already looked up by its token (the customer's page). */
 export async function depositForProposal(
-  p: Pick<ProposalRow, "id" | "companyId" | "status" | "chosenPosition"> & { snapshot: unknown },
+  p: Pick<ProposalRow, "id" | "companyId" | "status" | "chosenPosition"> & { snapshot: ProposalRow["snapshot"] },
 ): Promise<CustomerDeposit | null> {
   if (p.status !== "signed" && p.status !== "cancelled") return null;
   const amountCents = depositCentsOf(p);

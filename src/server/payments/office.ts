@@ -1,9 +1,9 @@
 import "server-only";
 import { and, asc, desc, eq } from "drizzle-orm";
 import { payment, proposal, refund, user } from "@/db/schema";
+import { companyRowOrThrow, hiddenWithParent } from "@/server/records";
 import { db } from "@/server/db";
-import { getDealOrThrow } from "@/server/deals";
-import { HttpError, notFound } from "@/server/errors";
+import { openDeal, openDealOf } from "@/server/deal-scope";
 import type { Member } from "@/server/session";
 import type { PaymentRow, RefundRow } from "./common";
 
@@ -11,28 +11,14 @@ import type { PaymentRow, RefundRow } from "./common";
 
 /** A payment of the member's company (reps: of their own deals only); another company's is not found. */
 export async function getPaymentOrThrow(member: Member, paymentId: string): Promise<PaymentRow> {
-  const [row] = await db()
-    .select()
-    .from(payment)
-    .where(and(eq(payment.id, paymentId), eq(payment.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Payment");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Payment") : err;
-  });
+  const row = await companyRowOrThrow(payment, member.companyId, paymentId, "Payment");
+  await openDealOf(member, row.dealId, "Payment");
   return row;
 }
 
 export async function getRefundOrThrow(member: Member, refundId: string): Promise<RefundRow> {
-  const [row] = await db()
-    .select()
-    .from(refund)
-    .where(and(eq(refund.id, refundId), eq(refund.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Refund");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Refund") : err;
-  });
+  const row = await companyRowOrThrow(refund, member.companyId, refundId, "Refund");
+  await openDealOf(member, row.dealId, "Refund");
   return row;
 }
 
@@ -41,7 +27,7 @@ export type LedgerPayment = PaymentRow & { proposalNumber: number; proposalVersi
 
 /** The deal's payments, newest first, each with its refunds (the Money tab). */
 export async function listDealPayments(member: Member, dealId: string): Promise<LedgerPayment[]> {
-  await getDealOrThrow(member, dealId);
+  await openDeal(member, dealId);
   const rows = await db()
     .select({ p: payment, number: proposal.number, version: proposal.version })
     .from(payment)

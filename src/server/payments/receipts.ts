@@ -9,7 +9,7 @@ import { HttpError, notFound } from "@/server/errors";
 import { MailSendError, sendEmail } from "@/server/mail";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
-import { BOOKED_STATUSES, chosenOffer, proposalLabelOf, snapshotOf } from "./common";
+import { BOOKED_STATUSES, chosenOffer, proposalLabelOf } from "./common";
 import { getPaymentOrThrow } from "./office";
 
 // ── Office: receipts ─────────────────────────────────────────────────────────────────────
@@ -25,7 +25,7 @@ export async function receiptContext(q: Db | Tx, paymentId: string) {
     .where(eq(payment.id, paymentId))
     .limit(1);
   if (!row) throw notFound("Payment");
-  const snapshot = snapshotOf(row.prop);
+  const snapshot = row.prop.snapshot;
   return { ...row, snapshot, to: row.prop.signerEmail ?? row.prop.sentToEmail, name: row.prop.signerName ?? row.customerName ?? row.householdName };
 }
 
@@ -50,8 +50,8 @@ export async function depositReceiptMail(q: Db | Tx, paymentId: string) {
       contractPrice: formatCentsExact(offer?.figures?.summary?.contractCents ?? null),
       reference: c.p.chargeId ?? c.p.paymentIntentId ?? c.p.checkoutSessionId,
       cancelUntil: c.prop.inHomeSale && c.prop.cancelDeadline && !c.prop.cancelledAt ? formatDate(new Date(`${c.prop.cancelDeadline}T12:00:00Z`)) : null,
-      repName: snapshotOf(c.prop).rep.name,
-      repEmail: snapshotOf(c.prop).rep.email,
+      repName: c.prop.snapshot.rep.name,
+      repEmail: c.prop.snapshot.rep.email,
     }),
   };
 }

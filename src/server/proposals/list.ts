@@ -3,8 +3,7 @@ import { and, desc, eq } from "drizzle-orm";
 import { proposal, user } from "@/db/schema";
 import { proposalDisplayStatus, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
 import { db } from "@/server/db";
-import { getDealOrThrow } from "@/server/deals";
-import type { Member } from "@/server/session";
+import type { DealScope } from "@/server/deal-scope";
 import { eventsOf, type ProposalEventView } from "./events";
 import { labelOf, toRow } from "./rows";
 
@@ -35,8 +34,8 @@ export type ProposalListItem = {
 };
 
 /** Every version of the deal's proposal, newest first, with its events. */
-export async function listProposalsForDeal(member: Member, dealId: string): Promise<ProposalListItem[]> {
-  await getDealOrThrow(member, dealId);
+export async function listProposalsForDeal(scope: DealScope): Promise<ProposalListItem[]> {
+  const { member, dealId } = scope;
   const rows = await db()
     .select({ p: proposal, sentByName: user.name })
     .from(proposal)

@@ -5,9 +5,8 @@ import { proposal, proposalEvent } from "@/db/schema";
 import { proposalDisplayStatus, proposalLabel, proposalLinkState } from "@/lib/proposal-snapshot";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { db } from "@/server/db";
-import { getDealOrThrow } from "@/server/deals";
+import { inDealOrThrow } from "@/server/deal-scope";
 import { jsonValue } from "@/server/designs";
-import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { hashToken } from "@/server/tokens";
 
@@ -40,29 +39,18 @@ export async function findProposalByToken(token: string): Promise<ProposalRow | 
 
 /** A proposal by id for staff: company-scoped in the query, reps only on deals they own. */
 export async function getProposalOrThrow(member: Member, proposalId: string): Promise<ProposalRow> {
-  const [row] = await db()
-    .select()
-    .from(proposal)
-    .where(and(eq(proposal.id, proposalId), eq(proposal.companyId, member.companyId)))
-    .limit(1);
-  if (!row) throw notFound("Proposal");
-  await getDealOrThrow(member, row.dealId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Proposal") : err;
-  });
-  return toRow(row);
+  return toRow(await inDealOrThrow(member, "Proposal", await db().select().from(proposal).where(and(eq(proposal.id, proposalId), eq(proposal.companyId, member.companyId))).limit(1)));
 }
 
+/** A proposal's event by id, seen through its proposal's deal (reps: their own deals only). */
 export async function getProposalEventOrThrow(member: Member, eventId: string) {
-  const [row] = await db()
-    .select()
+  const rows = await db()
+    .select({ event: proposalEvent, dealId: proposal.dealId })
     .from(proposalEvent)
+    .innerJoin(proposal, and(eq(proposal.id, proposalEvent.proposalId), eq(proposal.companyId, proposalEvent.companyId)))
     .where(and(eq(proposalEvent.id, eventId), eq(proposalEvent.companyId, member.companyId)))
     .limit(1);
-  if (!row) throw notFound("Proposal event");
-  await getProposalOrThrow(member, row.proposalId).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? notFound("Proposal event") : err;
-  });
-  return row;
+  return (await inDealOrThrow(member, "Proposal event", rows)).event;
 }
 
 /** What the staff API answers for one proposal: no hashes, the label and the link state. */

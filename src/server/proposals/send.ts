@@ -2,24 +2,21 @@ import "server-only";
 import { createHash } from "node:crypto";
 import { createElement } from "react";
 import { and, eq, inArray, max } from "drizzle-orm";
-import { company, deal, proposal, user, type Stage } from "@/db/schema";
+import { company, proposal, type Stage } from "@/db/schema";
 import { renderProposalPdf } from "@/documents/proposal-pdf";
 import { env } from "@/env";
 import { formatDate } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { buildProposalSnapshot, FIRST_PROPOSAL_NUMBER, proposalLabel, type SnapshotSource } from "@/lib/proposal-snapshot";
+import { describeStale, type OfferBasis } from "@/lib/offer-basis";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
-import { getInverterOrThrow, getModuleOrThrow } from "@/server/catalog";
 import { db, type Tx } from "@/server/db";
-import { getDealOrThrow, getDealRoom } from "@/server/deals";
-import { getDesignForDeal } from "@/server/designs";
-import { getDealUsage } from "@/server/energy";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { openDeal, type DealScope } from "@/server/deal-scope";
+import { forbidden, HttpError } from "@/server/errors";
 import { sendEmail } from "@/server/mail";
 import { listOffers } from "@/server/offers";
-import { getPriceBook } from "@/server/price-book";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
@@ -33,10 +30,14 @@ import { labelOf } from "./rows";
 
 const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
 
-/** Everything the snapshot copies, read from the deal's stored offers, design, usage, catalog and price book. */
-export async function snapshotSourceFor(member: Member, dealId: string, offerIds: string[] | undefined, takenAt: Date): Promise<SnapshotSource> {
-  const room = await getDealRoom(member, dealId);
-  const all = await listOffers(member, dealId);
+/**
+ * Everything the snapshot copies, taken from the chosen offers themselves: their figures and
+ * the usage, design, equipment and price book they were computed from. Only offers whose inputs
+ * are all current may be frozen (409 offers_stale naming each offer and what changed), so the
+ * usage a proposal shows is the usage its savings were figured with.
+ */
+export async function snapshotSourceFor(scope: DealScope, offerIds: string[] | undefined, takenAt: Date): Promise<SnapshotSource> {
+  const all = await listOffers(scope);
   if (all.length === 0) throw fieldError("offerIds", "This deal has no offers yet: make one on the Offers tab first");
   let chosen = all;
   if (offerIds) {
@@ -53,63 +54,25 @@ export async function snapshotSourceFor(member: Member, dealId: string, offerIds
     if (o.discountStatus === "pending") throw fieldError("offerIds", `"${o.name}" has a discount waiting for the office's approval; send it once it is decided, or leave it out`);
     if (o.discountStatus === "declined") throw fieldError("offerIds", `The office declined the discount on "${o.name}"; save the offer again with an allowed discount, or leave it out`);
   }
-  const saved = await getDesignForDeal(member, dealId);
-  if (!saved) throw new HttpError(422, "no_design", "Save a design on the Design tab before sending a proposal.");
-  const doc = saved.document;
-
-  const [usage, book, [co], [owner]] = await Promise.all([
-    getDealUsage(member, dealId),
-    getPriceBook(member.companyId),
-    db().select({ name: company.name, licenseNumber: company.licenseNumber }).from(company).where(eq(company.id, member.companyId)).limit(1),
-    db()
-      .select({ name: user.name, email: user.email })
-      .from(deal)
-      .innerJoin(user, eq(user.id, deal.ownerUserId))
-      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)))
-      .limit(1),
-  ]);
-  if (!co) throw notFound("Company");
-
-  const offers: SnapshotSource["offers"] = [];
-  for (const o of chosen) {
-    const mod = await getModuleOrThrow(member.companyId, o.inputs.moduleId ?? doc.moduleId);
-    const inv = await getInverterOrThrow(member.companyId, o.inputs.inverterId ?? doc.inverterId);
-    // The figures were computed when the offer was saved; a design changed since would not match them.
-    const modules = doc.faces.reduce((s, f) => s + (o.inputs.faceCounts?.find((c) => c.faceId === f.id)?.moduleCount ?? f.moduleCount), 0);
-    if (modules !== o.results.summary.moduleCount || Math.abs(o.results.summary.kwDc - (modules * mod.stcWatts) / 1000) > 0.001) {
-      throw fieldError("offerIds", `The design changed after "${o.name}" was computed; open the Offers tab and save that offer again`);
-    }
-    offers.push({
-      position: o.position,
-      name: o.name,
-      inputs: o.inputs,
-      figures: o.results,
-      module: { manufacturer: mod.manufacturer, model: mod.model, stcWatts: mod.stcWatts },
-      inverter: { manufacturer: inv.manufacturer, model: inv.model, kind: inv.kind, acWatts: inv.acWatts },
-    });
+  const stale = chosen.filter((o) => o.stale.length > 0 || !o.basis);
+  if (stale.length > 0) {
+    throw new HttpError(409, "offers_stale", `Recompute these offers: ${stale.map((o) => `"${o.name}" (${describeStale(o.stale)} changed)`).join("; ")}. Open the Offers tab and recompute them.`);
   }
-  const h = room.household;
+  const bases = chosen.map((o) => o.basis as OfferBasis);
+  // Current offers share the deal's one usage year and design revision; the first stands for all.
+  const { usage, design: saved, priceBook } = bases[0];
+  const h = scope.household;
+  const d = scope.deal;
   return {
     takenAt,
-    company: { name: co.name, licenseNumber: co.licenseNumber },
-    rep: owner ?? { name: member.name, email: member.email },
-    household: {
-      name: h.name,
-      contactName: h.contactName,
-      email: h.email,
-      phone: h.phone,
-      street: h.street,
-      city: h.city,
-      region: h.region,
-      postalCode: h.postalCode,
-      latitude: h.latitude,
-      longitude: h.longitude,
-    },
-    utilityName: room.deal.utilityName ?? null,
-    usage: { monthlyKwh: usage.monthlyKwh, source: usage.source, estimatedMonths: usage.estimatedMonths.filter(Boolean).length, fillMethod: usage.fillMethod },
-    design: { lossesPct: doc.lossesPct, faces: doc.faces },
-    offers,
-    book,
+    company: { name: scope.settings.name, licenseNumber: scope.settings.licenseNumber },
+    rep: d.ownerName && d.ownerEmail ? { name: d.ownerName, email: d.ownerEmail } : { name: scope.member.name, email: scope.member.email },
+    household: { name: h.name, contactName: h.contactName, email: h.email, phone: h.phone, street: h.street, city: h.city, region: h.region, postalCode: h.postalCode, latitude: h.latitude, longitude: h.longitude },
+    utilityName: d.utilityName ?? null,
+    usage: { monthlyKwh: usage.monthlyKwh, source: usage.source, estimatedMonths: usage.estimatedMonths, fillMethod: usage.fillMethod },
+    design: { lossesPct: saved.lossesPct, faces: saved.faces },
+    offers: chosen.map((o, i) => ({ position: o.position, name: o.name, inputs: o.inputs, figures: o.results, module: bases[i].module, inverter: bases[i].inverter })),
+    book: priceBook.document,
   };
 }
 
@@ -186,10 +149,10 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   const parsed = sendProposalSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
   const { dealId, offerIds, toEmail, message, validDays, inHomeSale } = parsed.data;
-  await getDealOrThrow(member, dealId); // reps: only their own deals
+  const scope = await openDeal(member, dealId); // reps: only their own deals
 
   const sentAt = new Date();
-  const snapshot = buildProposalSnapshot(await snapshotSourceFor(member, dealId, offerIds, sentAt));
+  const snapshot = buildProposalSnapshot(await snapshotSourceFor(scope, offerIds, sentAt));
   const expiresAt = new Date(sentAt.getTime() + validDays * 86_400_000);
   const { token, hash } = newLinkToken();
   const id = crypto.randomUUID();

@@ -1,10 +1,10 @@
 // Settings → Company against a real MariaDB: defaults until set, validation of the form's
 // schema, damaged JSON falling back per stage, tenancy; and the permit rule of Install booked
 // reading the job's permit approval date.
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { company, job } from "@/db/schema";
-import { companySettingsSchema, DEFAULT_FINANCE, DEFAULT_STALL_SETTINGS } from "@/lib/schemas/company-settings";
+import { companySettingsSchema, DEFAULT_FINANCE, DEFAULT_STALL_SETTINGS, storedCompanySettingsSchema } from "@/lib/schemas/company-settings";
 import { DEFAULT_STALL_DAYS } from "@/lib/stage-rules";
 import { getCompanyOrThrow, getCompanySettings, updateCompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
@@ -54,7 +54,7 @@ describe("company settings", () => {
   it("keeps keys of company.settings that other areas own", async () => {
     await db()
       .update(company)
-      .set({ settings: { depositPolicy: { kind: "fixed" }, stallDays: { lead: 3 } } })
+      .set({ settings: storedCompanySettingsSchema.parse({ depositPolicy: { kind: "fixed" }, stallDays: { lead: 3 } }) })
       .where(eq(company.id, stranger.companyId));
     const input = companySettingsSchema.parse({ name: "Elsewhere Solar", licenseNumber: "", timeZone: "America/Chicago", stallDays: { ...DEFAULT_STALL_SETTINGS, lead: 4 } });
     await updateCompanySettings(stranger, input);
@@ -77,7 +77,7 @@ describe("company settings", () => {
     const other = await newCompany("Damaged Settings Solar");
     await db()
       .update(company)
-      .set({ settings: { stallDays: { lead: "seven", survey: 9, permitting: 9999, signed: null }, timeZone: "Mars/Olympus" } })
+      .set({ settings: sql`${JSON.stringify({ stallDays: { lead: "seven", survey: 9, permitting: 9999, signed: null }, timeZone: "Mars/Olympus" })}` })
       .where(eq(company.id, other.companyId));
     const s = await getCompanySettings(other.companyId);
     expect(s.stallDays).toEqual({ ...DEFAULT_STALL_SETTINGS, survey: 9, signed: null });
@@ -121,7 +121,7 @@ describe("company settings", () => {
     const other = await newCompany("Damaged Assumptions Solar");
     await db()
       .update(company)
-      .set({ settings: { finance: { years: 99, degradationPctPerYear: "0.7", utilityEscalationPctPerYear: 3, discountRatePct: null } } })
+      .set({ settings: sql`${JSON.stringify({ finance: { years: 99, degradationPctPerYear: "0.7", utilityEscalationPctPerYear: 3, discountRatePct: null } })}` })
       .where(eq(company.id, other.companyId));
     expect((await getCompanySettings(other.companyId)).finance).toEqual({ ...DEFAULT_FINANCE, utilityEscalationPctPerYear: 3 });
   });

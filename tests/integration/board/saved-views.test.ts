@@ -1,6 +1,6 @@
 // Saved views of the deals table against a real MariaDB: each person's own, validated with the
 // table's query schema, names unique per person, another person's or company's view not found.
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { savedView } from "@/db/schema";
 import { dealTableQuerySchema, SAVED_VIEWS_PER_PERSON, savedViewCreateSchema, savedViewUpdateSchema } from "@/lib/schemas/deal-table";
@@ -88,7 +88,7 @@ describe("saved views", () => {
 
   it("reads a stored query that no longer passes as the default view", async () => {
     const id = crypto.randomUUID();
-    await db().insert(savedView).values({ id, companyId: owner.companyId, userId: owner.userId, name: "Old", query: { stage: "archived" } });
+    await db().insert(savedView).values({ id, companyId: owner.companyId, userId: owner.userId, name: "Old", query: sql`${JSON.stringify({ stage: "archived" })}` });
     expect((await getSavedViewOrThrow(owner, id)).query).toEqual({ sort: "stageChangedAt:desc" });
   });
 

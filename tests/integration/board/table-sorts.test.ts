@@ -121,7 +121,7 @@ describe("deals table page queries", () => {
     const cases: { input: Record<string, string>; where: string; params: unknown[] }[] = [
       { input: { stage: "lead" }, where: "AND d.stage = 'lead'", params: [] },
       { input: { owner: reps[1].userId }, where: "AND d.owner_user_id = ?", params: [reps[1].userId] },
-      { input: { source: "Website", from: "2025-02-01", to: "2025-02-28" }, where: "AND d.source = 'Website' AND d.created_at >= '2025-02-01' AND d.created_at < '2025-03-01'", params: [] },
+      { input: { source: "Website", from: "2025-02-01", to: "2025-02-28" }, where: "AND d.source = 'Website' AND d.created_at >= '2025-02-01 05:00:00' AND d.created_at < '2025-03-01 05:00:00'", params: [] },
       {
         input: { q: "Ridge" },
         where: "AND (h.name LIKE '%Ridge%' OR h.contact_name LIKE '%Ridge%' OR h.street LIKE '%Ridge%' OR h.city LIKE '%Ridge%')",

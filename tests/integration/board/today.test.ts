@@ -1,10 +1,10 @@
 // Each person's Today against a real MariaDB: a rep's follow-ups, opened proposals and
 // customers' questions; the office's stalled deals (by the company's limits), flagged deposits,
 // refunds due and jobs to schedule; a crew member's visits today and this week. Company-scoped.
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { company, crew, job, membership, payment, proposal, proposalEvent } from "@/db/schema";
-import { DEFAULT_STALL_SETTINGS } from "@/lib/schemas/company-settings";
+import { DEFAULT_STALL_SETTINGS, storedCompanySettingsSchema } from "@/lib/schemas/company-settings";
 import { db } from "@/server/db";
 import type { Member } from "@/server/session";
 import { addDaysToDate, todayInZone } from "@/lib/zoned-time";
@@ -31,7 +31,7 @@ async function newProposal(by: Member, dealId: string, p: Partial<typeof proposa
       dealId,
       number: proposalNumber++,
       version: 1,
-      snapshot: {},
+      snapshot: sql`${JSON.stringify({})}`,
       pdfStorageKey: `proposals/${id}.pdf`,
       pdfSha256: "0".repeat(64),
       tokenHash: crypto.randomUUID().replaceAll("-", "").padEnd(64, "0"),
@@ -76,7 +76,7 @@ beforeAll(async () => {
   // Stall limits of this company: Lead after 3 days, Designing never, Survey after 10.
   await db()
     .update(company)
-    .set({ settings: { stallDays: { ...DEFAULT_STALL_SETTINGS, lead: 3, designing: null, survey: 10 } } })
+    .set({ settings: storedCompanySettingsSchema.parse({ stallDays: { ...DEFAULT_STALL_SETTINGS, lead: 3, designing: null, survey: 10 } }) })
     .where(eq(company.id, owner.companyId));
 });
 

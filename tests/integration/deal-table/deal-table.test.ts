@@ -144,11 +144,11 @@ describe("deals table over 10,000 deals", () => {
     expect(seen.size).toBe(TOTAL);
   });
 
-  it("combines source, created dates and search like SQL does", async () => {
+  it("combines source, created dates (the company's days: New York's) and search like SQL does", async () => {
     const input = { source: "Website", from: "2025-03-01", to: "2025-06-30", q: "Pine", sort: "household:asc" };
     const page = await dealTablePage(office, query({ ...input, pageSize: "200" }));
     const expected = await sqlCount(
-      "d.company_id = ? AND d.source = 'Website' AND d.created_at >= '2025-03-01' AND d.created_at < '2025-07-01' AND (h.name LIKE '%Pine%' OR h.contact_name LIKE '%Pine%' OR h.street LIKE '%Pine%' OR h.city LIKE '%Pine%')",
+      "d.company_id = ? AND d.source = 'Website' AND d.created_at >= '2025-03-01 05:00:00' AND d.created_at < '2025-07-01 04:00:00' AND (h.name LIKE '%Pine%' OR h.contact_name LIKE '%Pine%' OR h.street LIKE '%Pine%' OR h.city LIKE '%Pine%')",
       [owner.companyId],
     );
     expect(expected).toBeGreaterThan(0);

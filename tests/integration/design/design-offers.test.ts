@@ -13,6 +13,7 @@ import { offerInputsSchema, type OfferInputsInput } from "@/lib/schemas/offer";
 import { updateCompanySettings } from "@/server/company-settings";
 import type { Member } from "@/server/session";
 import { addMember, newCompany, rejects, uniqueEmail } from "../support/fixtures";
+import { openDeal } from "@/server/deal-scope";
 
 let fake: MailFake | null = null;
 let owner: Member;
@@ -139,7 +140,7 @@ beforeAll(async () => {
     const end = new Date(Date.UTC(2025, m + 1, 0));
     return { periodStart: start.toISOString().slice(0, 10), periodEnd: end.toISOString().slice(0, 10), kwh: [1100, 950, 850, 700, 800, 1100, 1300, 1250, 1000, 750, 800, 1050][m], costCents: null };
   });
-  await saveBills(rep, dealId, { bills } as Parameters<typeof saveBills>[2]);
+  await saveBills(await openDeal(rep, dealId), { bills } as Parameters<typeof saveBills>[1]);
 }, 120_000);
 
 afterAll(async () => {
@@ -151,7 +152,7 @@ describe("design", () => {
     const bad = { ...designDoc(), faces: [{ ...faces[0], tiltDeg: 95 }] };
     const err = await rejects(s.designs.saveDesign(rep, { dealId, document: bad }), 422);
     expect(err.fields?.["document.faces.0.tiltDeg"]?.[0]).toMatch(/Tilt must be 0–90°/);
-    expect(await s.designs.getDesignForDeal(rep, dealId)).toBeNull();
+    expect(await s.designs.getDesignForDeal(await openDeal(rep, dealId))).toBeNull();
   });
 
   it("refuses more modules than slots and equipment of another company", async () => {
@@ -173,10 +174,10 @@ describe("design", () => {
   });
 
   it("gives the Design tab its inputs: usage, catalog and the nearest station", async () => {
-    const inputs = await s.designs.getDesignInputs(rep, dealId);
+    const inputs = await s.designs.getDesignInputs(await openDeal(rep, dealId));
     expect(inputs.usage.annualKwh).toBeGreaterThan(10_000);
     expect(inputs.nearest?.distanceKm).toBeLessThan(50);
-    const weather = await s.designs.getWeatherColumns(rep, dealId, inputs.nearest?.stationId ?? "");
+    const weather = await s.designs.getWeatherColumns(await openDeal(rep, dealId), inputs.nearest?.stationId ?? "");
     expect(weather.ghi).toHaveLength(8760);
   });
 });

@@ -10,6 +10,7 @@ import { acceptDealUpload, getDealUsage, saveBills } from "@/server/energy";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { newCompany } from "../support/fixtures";
+import { openDeal } from "@/server/deal-scope";
 
 async function newDeal(member: Member): Promise<string> {
   const { dealId } = await createLead(member, {
@@ -67,7 +68,7 @@ describe("bill uploads are checked by content", () => {
     const member = await newCompany();
     const dealId = await newDeal(member);
     const bytes = await textPdf(["Piedmont Electric Cooperative", "Billing period 01/03/2026 - 02/02/2026", "Energy used 1,024 kWh", "Amount due $142.37"]);
-    const outcome = await acceptDealUpload(member, dealId, { name: "january.pdf", bytes });
+    const outcome = await acceptDealUpload(await openDeal(member, dealId), { name: "january.pdf", bytes });
     expect(outcome.kind).toBe("bill-text");
     if (outcome.kind !== "bill-text") return;
     expect(outcome.suggestions).toEqual([expect.objectContaining({ periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024, costCents: 14237 })]);
@@ -77,10 +78,10 @@ describe("bill uploads are checked by content", () => {
   it("a scanned PDF and a photo are kept, with the request to type the numbers", async () => {
     const member = await newCompany();
     const dealId = await newDeal(member);
-    const scan = await acceptDealUpload(member, dealId, { name: "scan.pdf", bytes: await scannedPdf() });
+    const scan = await acceptDealUpload(await openDeal(member, dealId), { name: "scan.pdf", bytes: await scannedPdf() });
     expect(scan).toMatchObject({ kind: "bill-image" });
     expect(scan.message).toMatch(/scanned PDF with no text/);
-    const photo = await acceptDealUpload(member, dealId, { name: "photo.png", bytes: new Uint8Array(PNG_1PX) });
+    const photo = await acceptDealUpload(await openDeal(member, dealId), { name: "photo.png", bytes: new Uint8Array(PNG_1PX) });
     expect(photo.kind).toBe("bill-image");
     const rows = await db().select().from(upload).where(eq(upload.dealId, dealId));
     expect(rows.map((r) => r.mimeType).sort()).toEqual(["application/pdf", "image/png"]);
@@ -92,14 +93,14 @@ describe("bill uploads are checked by content", () => {
     // ELF header (the start of a Linux program), named like a bill.
     const elf = new Uint8Array(4096);
     elf.set([0x7f, 0x45, 0x4c, 0x46, 0x02, 0x01, 0x01, 0x00]);
-    await refused(acceptDealUpload(member, dealId, { name: "bill.pdf", bytes: elf }), 415, /is a program/);
-    await refused(acceptDealUpload(member, dealId, { name: "huge.csv", bytes: new Uint8Array(21 * 1024 * 1024) }), 413, /MB; files up to 20 MB/);
+    await refused(acceptDealUpload(await openDeal(member, dealId), { name: "bill.pdf", bytes: elf }), 415, /is a program/);
+    await refused(acceptDealUpload(await openDeal(member, dealId), { name: "huge.csv", bytes: new Uint8Array(21 * 1024 * 1024) }), 413, /MB; files up to 20 MB/);
     const bigPdf = new Uint8Array(11 * 1024 * 1024);
     bigPdf.set(new TextEncoder().encode("%PDF-1.7\n"));
-    await refused(acceptDealUpload(member, dealId, { name: "big.pdf", bytes: bigPdf }), 413, /bill files up to 10 MB/);
+    await refused(acceptDealUpload(await openDeal(member, dealId), { name: "big.pdf", bytes: bigPdf }), 413, /bill files up to 10 MB/);
     const corrupt = new TextEncoder().encode("%PDF-1.7\n1 0 obj << /Type /Catalog /Pages 2 0 R >>\nthis is not a real pdf body\n%%EOF");
-    await refused(acceptDealUpload(member, dealId, { name: "damaged.pdf", bytes: corrupt }), 422, /cannot be read/);
-    await refused(acceptDealUpload(member, dealId, { name: "notes.csv", bytes: new TextEncoder().encode("hello,world\n1,2\n") }), 422, /could not be read as interval CSV/);
+    await refused(acceptDealUpload(await openDeal(member, dealId), { name: "damaged.pdf", bytes: corrupt }), 422, /cannot be read/);
+    await refused(acceptDealUpload(await openDeal(member, dealId), { name: "notes.csv", bytes: new TextEncoder().encode("hello,world\n1,2\n") }), 422, /could not be read as interval CSV/);
     expect(await db().select().from(upload).where(eq(upload.dealId, dealId))).toEqual([]);
     expect(await storedFiles(member.companyId)).toEqual([]);
   });
@@ -109,11 +110,11 @@ describe("bill uploads are checked by content", () => {
     const member = await newCompany();
     const dealId = await newDeal(member);
     const xml = await readFile(path.join(process.cwd(), "tests/fixtures/green-button/espi-two-days-invented.xml"));
-    const outcome = await acceptDealUpload(member, dealId, { name: "usage.xml", bytes: new Uint8Array(xml) });
+    const outcome = await acceptDealUpload(await openDeal(member, dealId), { name: "usage.xml", bytes: new Uint8Array(xml) });
     expect(outcome.kind).toBe("interval");
     const [profile] = await db().select().from(intervalProfile).where(and(eq(intervalProfile.dealId, dealId), eq(intervalProfile.companyId, member.companyId)));
     expect(profile.hourlyKwh).toHaveLength(8760);
-    const usage = await getDealUsage(member, dealId);
+    const usage = await getDealUsage(await openDeal(member, dealId));
     expect(usage.source).toBe("interval");
   });
 });
@@ -122,8 +123,8 @@ describe("the bills table", () => {
   it("overlapping bills are refused naming the bill, and what was saved stays", async () => {
     const member = await newCompany();
     const dealId = await newDeal(member);
-    await saveBills(member, dealId, { bills: [{ periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024, costCents: 14237 }] });
-    const err = await saveBills(member, dealId, {
+    await saveBills(await openDeal(member, dealId), { bills: [{ periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024, costCents: 14237 }] });
+    const err = await saveBills(await openDeal(member, dealId), {
       bills: [
         { periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024 },
         { periodStart: "2026-01-20", periodEnd: "2026-02-20", kwh: 900 },
@@ -144,8 +145,8 @@ describe("the bills table", () => {
       const end = new Date(Date.UTC(2025, m + 1, 1)).toISOString().slice(0, 10);
       return { periodStart: start, periodEnd: end, kwh: 800 + 50 * Math.abs(6 - m), costCents: 12_000 };
     });
-    await saveBills(member, dealId, { bills });
-    const usage = await getDealUsage(member, dealId);
+    await saveBills(await openDeal(member, dealId), { bills });
+    const usage = await getDealUsage(await openDeal(member, dealId));
     expect(usage.estimatedMonths.filter(Boolean)).toHaveLength(0);
     // Σ (800 + 50·|6 − m|) for m = 0..11 = 9600 + 50·(6+5+4+3+2+1+0+1+2+3+4+5) = 9600 + 1800 (hand-worked)
     expect(usage.annualKwh).toBeCloseTo(11_400, 6);

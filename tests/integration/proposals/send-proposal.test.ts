@@ -8,6 +8,7 @@ import { deal, proposal, proposalEvent, timelineEvent } from "@/db/schema";
 import type { MailFake } from "@/fakes/mail-server";
 import { newCompany } from "../support/fixtures";
 import { client, latestToken, mailTo, newDeal, newWorld, rejection, startMailIfNeeded, type World } from "./support";
+import { openDeal } from "@/server/deal-scope";
 
 let fake: MailFake | null = null;
 let w: World;
@@ -103,7 +104,7 @@ describe("sending", () => {
     const old = await row(a1.id);
     expect(old.status).toBe("replaced");
     expect(old.replacedByProposalId).toBe(a2.id);
-    const list = await m.proposals.listProposalsForDeal(w.rep, a.dealId);
+    const list = await m.proposals.listProposalsForDeal(await openDeal(w.rep, a.dealId));
     expect(list.map((v) => [v.label, v.status])).toEqual([
       [`P-${a1.number} v2`, "sent"],
       [`P-${a1.number} v1`, "replaced"],
@@ -232,7 +233,7 @@ describe("the customer's page", () => {
     const timeline = await m.db.db().select().from(timelineEvent).where(and(eq(timelineEvent.dealId, d.dealId)));
     expect(timeline.filter((e) => e.kind === "proposal.opened")).toHaveLength(1);
     expect(timeline.filter((e) => e.kind === "proposal.viewed")).toHaveLength(1);
-    const list = await m.proposals.listProposalsForDeal(w.rep, d.dealId);
+    const list = await m.proposals.listProposalsForDeal(await openDeal(w.rep, d.dealId));
     expect(list[0].status).toBe("viewed");
   });
 
@@ -259,7 +260,7 @@ describe("tenancy", () => {
     await rejection(m.proposals.getProposalOrThrow(other, sent.id), 404);
     await rejection(m.proposals.revokeProposal(other, sent.id), 404);
     await rejection(m.proposals.resendProposal(other, sent.id), 404);
-    await rejection(m.proposals.listProposalsForDeal(other, d.dealId), 404);
+    await rejection(openDeal(other, d.dealId).then(m.proposals.listProposalsForDeal), 404);
     await rejection(m.proposals.sendProposal(other, { dealId: d.dealId, toEmail: d.email }), 404);
     await rejection(m.proposals.getProposalOrThrow(w.rep2, sent.id), 404);
     const [event] = await m.db.db().select().from(proposalEvent).where(eq(proposalEvent.proposalId, sent.id));

@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { deal, proposal, proposalEvent, timelineEvent } from "@/db/schema";
 import type { MailFake } from "@/fakes/mail-server";
 import { client, latestCode, latestToken, mailTo, newDeal, newWorld, rejection, signatureDataUrl, startMailIfNeeded, type World } from "./support";
+import { openDeal } from "@/server/deal-scope";
 
 let fake: MailFake | null = null;
 let w: World;
@@ -181,7 +182,7 @@ describe("signing", () => {
     const customerCopy = (await mailTo(x.email)).find((mm) => /Your signed agreement/.test(mm.subject));
     expect(customerCopy?.html).toContain(`/p/${x.token}`);
     expect((await mailTo(w.rep.email)).some((mm) => mm.subject === `Signed: the Testwell household (${x.label})`)).toBe(true);
-    const list = await m.proposals.listProposalsForDeal(w.rep, x.dealId);
+    const list = await m.proposals.listProposalsForDeal(await openDeal(w.rep, x.dealId));
     expect(list[0].status).toBe("signed");
     // A signed agreement is not replaced by a new version.
     await rejection(m.proposals.sendProposal(w.rep, { dealId: x.dealId, toEmail: x.email }), 409);

@@ -135,6 +135,7 @@ export type TestDeal = { dealId: string; email: string; cashOfferId: string; loa
 export async function newDeal(w: World, rep: Member = w.rep): Promise<TestDeal> {
   const { createLead } = await import("@/server/deals");
   const { saveBills } = await import("@/server/energy");
+  const { openDeal } = await import("@/server/deal-scope");
   const { saveDesign } = await import("@/server/designs");
   const { createOffer } = await import("@/server/offers");
   const email = uniqueEmail("home");
@@ -158,7 +159,7 @@ export async function newDeal(w: World, rep: Member = w.rep): Promise<TestDeal> 
     kwh: k,
     costCents: null,
   }));
-  await saveBills(rep, dealId, { bills } as Parameters<typeof saveBills>[2]);
+  await saveBills(await openDeal(rep, dealId), { bills } as Parameters<typeof saveBills>[1]);
   await saveDesign(rep, {
     dealId,
     document: {

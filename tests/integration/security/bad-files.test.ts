@@ -15,6 +15,7 @@ import { addSitePhoto } from "@/server/site-photos";
 import { MAX_SIGNATURE_PIXELS, signaturePngBytes } from "@/server/signing";
 import { newCompany, rejects } from "../support/fixtures";
 import { signedInHeaders } from "../support/sign-in";
+import { openDeal } from "@/server/deal-scope";
 
 let owner: Member;
 let dealId: string;
@@ -51,9 +52,9 @@ describe("images", () => {
   it("refuses the same PNG as a bill photo, and a file that claims to be a PNG but does not decode", async () => {
     const rows = await uploadRows();
     const started = performance.now();
-    expect((await rejects(acceptDealUpload(owner, dealId, { name: "bill.png", bytes: bombPng }), 422, "image_too_large")).message).toMatch(/16000 × 16000 px/);
+    expect((await rejects(acceptDealUpload(await openDeal(owner, dealId), { name: "bill.png", bytes: bombPng }), 422, "image_too_large")).message).toMatch(/16000 × 16000 px/);
     expect(performance.now() - started).toBeLessThan(2_000);
-    expect((await rejects(acceptDealUpload(owner, dealId, { name: "bill.png", bytes: fakePng() }), 422, "unreadable_image")).message).toMatch(/could not be read/);
+    expect((await rejects(acceptDealUpload(await openDeal(owner, dealId), { name: "bill.png", bytes: fakePng() }), 422, "unreadable_image")).message).toMatch(/could not be read/);
     expect(await uploadRows()).toBe(rows);
   });
 
@@ -62,7 +63,7 @@ describe("images", () => {
       .withExif({ IFD0: { Copyright: "someone's phone", Artist: "GPS here" } })
       .jpeg()
       .toBuffer();
-    const outcome = await acceptDealUpload(owner, dealId, { name: "bill.jpg", bytes: new Uint8Array(photo) });
+    const outcome = await acceptDealUpload(await openDeal(owner, dealId), { name: "bill.jpg", bytes: new Uint8Array(photo) });
     expect(outcome.kind).toBe("bill-image");
     const [row] = await db().select({ storageKey: upload.storageKey, mimeType: upload.mimeType }).from(upload).where(eq(upload.id, outcome.upload.id));
     expect(row.mimeType).toBe("image/jpeg");
@@ -88,7 +89,7 @@ describe("Green Button XML", () => {
   it("answers 422 with the reason for an invalid character, storing nothing", async () => {
     const rows = await uploadRows();
     const xml = '<?xml version="1.0"?>\n<feed xmlns="http://www.w3.org/2005/Atom">\n<entry>\u0001</entry>\n</feed>';
-    const err = await rejects(acceptDealUpload(owner, dealId, { name: "usage.xml", bytes: new TextEncoder().encode(xml) }), 422, "invalid_input");
+    const err = await rejects(acceptDealUpload(await openDeal(owner, dealId), { name: "usage.xml", bytes: new TextEncoder().encode(xml) }), 422, "invalid_input");
     expect(err.message).toMatch(/Green Button XML: invalid character U\+0001/);
     expect(err.fields).toEqual({ "line 3": [expect.stringMatching(/invalid character U\+0001/)] });
     expect(await uploadRows()).toBe(rows);
@@ -98,7 +99,7 @@ describe("Green Button XML", () => {
     const rows = await uploadRows();
     const xml = "<feed>" + "<entry>".repeat(60_000) + "</entry>".repeat(60_000) + "</feed>";
     const started = performance.now();
-    const err = await rejects(acceptDealUpload(owner, dealId, { name: "deep.xml", bytes: new TextEncoder().encode(xml) }), 422, "invalid_input");
+    const err = await rejects(acceptDealUpload(await openDeal(owner, dealId), { name: "deep.xml", bytes: new TextEncoder().encode(xml) }), 422, "invalid_input");
     expect(performance.now() - started).toBeLessThan(5_000);
     expect(err.message).toMatch(/nest deeper than 64 levels/);
     expect(await uploadRows()).toBe(rows);

@@ -2,7 +2,7 @@ import { createHash } from "node:crypto";
 import { existsSync, readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { deal, design, household, upload, weatherStation } from "@/db/schema";
 import { stationFieldsSchema, type StationFieldsInput } from "@/lib/schemas/weather";
@@ -216,7 +216,7 @@ describe("deleting a station", () => {
     const designId = crypto.randomUUID();
     await db().insert(household).values({ id: householdId, companyId: owner.companyId, name: "Test household", street: "1 Test Road", city: "Golden", region: "CO", postalCode: "80401", latitude: 39.75, longitude: -105.2 });
     await db().insert(deal).values({ id: dealId, companyId: owner.companyId, householdId });
-    await db().insert(design).values({ id: designId, companyId: owner.companyId, dealId, document: {}, weatherStationId: station.id });
+    await db().insert(design).values({ id: designId, companyId: owner.companyId, dealId, document: sql`${JSON.stringify({})}`, weatherStationId: station.id });
 
     const inUse = await rejection(deleteStation(owner, station.id));
     expect(inUse.status).toBe(409);

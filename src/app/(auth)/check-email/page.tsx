@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import Link from "next/link";
+import { BackToSignIn } from "../auth-page";
 
 export const metadata: Metadata = { title: "Check your e-mail" };
 
@@ -12,11 +12,7 @@ export default async function CheckEmailPage({ searchParams }: { searchParams: P
         We sent a confirmation link to <strong className="text-graphite">{email ?? "your address"}</strong>. Open it to
         finish setting up your company; it signs you in.
       </p>
-      <p className="mt-6 text-sm">
-        <Link href="/sign-in" className="text-copper underline-offset-2 hover:underline">
-          Back to sign in
-        </Link>
-      </p>
+      <BackToSignIn />
     </>
   );
 }

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import Link from "next/link";
+import { BackToSignIn } from "../auth-page";
 import { ForgotPasswordForm } from "./forgot-password-form";
 
 export const metadata: Metadata = { title: "Reset your password" };
@@ -10,11 +10,7 @@ export default function ForgotPasswordPage() {
       <h1 className="text-xl font-semibold">Reset your password</h1>
       <p className="mt-1 text-sm text-graphite-soft">We will e-mail you a link to choose a new one.</p>
       <ForgotPasswordForm />
-      <p className="mt-6 text-sm">
-        <Link href="/sign-in" className="text-copper underline-offset-2 hover:underline">
-          Back to sign in
-        </Link>
-      </p>
+      <BackToSignIn />
     </>
   );
 }

@@ -1,48 +1,23 @@
 "use client";
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useForm } from "react-hook-form";
-import type { z } from "zod";
-import { Field, FormMessage } from "@/components/field";
+import type { Notice } from "@/components/ui/field";
 import { authClient } from "@/lib/auth-client";
-import { PASSWORD_MIN, resetPasswordSchema } from "@/lib/schemas/people";
+import { resetPasswordSchema } from "@/lib/schemas/people";
+import { AuthForm, CONFIRM_PASSWORD, NEW_PASSWORD, useAuthForm } from "../auth-form";
 
+const FIELDS = [{ ...NEW_PASSWORD, label: "New password" }, CONFIRM_PASSWORD];
+
+/** Through better-auth's own endpoint (its client), like sign-in and the reset link. */
 export function ResetPasswordForm({ token }: { token: string }) {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const {
-    register,
-    handleSubmit,
-    formState: { errors, isSubmitting },
-  } = useForm<z.input<typeof resetPasswordSchema>>({ resolver: zodResolver(resetPasswordSchema) });
-
-  const onSubmit = handleSubmit(async ({ password }) => {
-    setError(null);
-    const { error: failure } = await authClient.resetPassword({ newPassword: password, token });
-    if (failure) {
-      setError(failure.code === "INVALID_TOKEN" ? "This link has expired or was used. Ask for a new one." : (failure.message ?? "The password was not changed."));
-      return;
-    }
-    router.push("/sign-in?notice=password-reset");
-  });
-
-  return (
-    <form onSubmit={onSubmit} noValidate className="mt-6 space-y-4">
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
-      <Field
-        id="password"
-        label="New password"
-        type="password"
-        autoComplete="new-password"
-        hint={`At least ${PASSWORD_MIN} characters.`}
-        error={errors.password?.message}
-        {...register("password")}
-      />
-      <Field id="confirm" label="The same again" type="password" autoComplete="new-password" error={errors.confirm?.message} {...register("confirm")} />
-      <button type="submit" className="btn-primary w-full" disabled={isSubmitting}>
-        {isSubmitting ? "Saving…" : "Save the new password"}
-      </button>
-    </form>
-  );
+  const [notice, setNotice] = useState<Notice | null>(null);
+  const form = useAuthForm(resetPasswordSchema);
+  async function submit({ password }: { password: string }) {
+    setNotice(null);
+    const { error } = await authClient.resetPassword({ newPassword: password, token });
+    if (!error) return router.push("/sign-in?notice=password-reset");
+    setNotice({ tone: "error", text: error.code === "INVALID_TOKEN" ? "This link has expired or was used. Ask for a new one." : (error.message ?? "The password was not changed.") });
+  }
+  return <AuthForm form={form} fields={FIELDS} submit={submit} notice={notice} submitLabel="Save the new password" pendingLabel="Saving…" />;
 }

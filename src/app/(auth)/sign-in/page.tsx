@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
-import Link from "next/link";
 import { redirect } from "next/navigation";
 import { getMember } from "@/server/session";
+import { AuthLink } from "../auth-page";
 import { SignInForm } from "./sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
@@ -19,12 +19,8 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       <h1 className="text-xl font-semibold">Sign in</h1>
       <SignInForm notice={notice ? NOTICES[notice] : undefined} />
       <div className="mt-6 flex flex-wrap justify-between gap-2 text-sm">
-        <Link href="/forgot-password" className="text-copper underline-offset-2 hover:underline">
-          Forgot your password?
-        </Link>
-        <Link href="/sign-up" className="text-copper underline-offset-2 hover:underline">
-          New company? Create an account
-        </Link>
+        <AuthLink href="/forgot-password">Forgot your password?</AuthLink>
+        <AuthLink href="/sign-up">New company? Create an account</AuthLink>
       </div>
     </>
   );

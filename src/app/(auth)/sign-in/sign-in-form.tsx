@@ -1,11 +1,15 @@
 "use client";
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useForm } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
+import type { Notice } from "@/components/ui/field";
 import { authClient } from "@/lib/auth-client";
 import { signInSchema, type SignInInput } from "@/lib/schemas/people";
+import { AuthForm, useAuthForm } from "../auth-form";
+
+const FIELDS = [
+  { name: "email", label: "E-mail", type: "email", autoComplete: "email" },
+  { name: "password", label: "Password", type: "password", autoComplete: "current-password" },
+] as const;
 
 function messageFor(status: number, code: string | undefined, message: string | undefined): string {
   if (status === 401) return "Wrong e-mail or password. Check both and try again.";
@@ -16,42 +20,16 @@ function messageFor(status: number, code: string | undefined, message: string | 
   return message ?? "Sign-in failed.";
 }
 
-export function SignInForm({ notice }: { notice?: string }) {
+/** Through better-auth's own endpoint (its client): it sets the session cookie and takes the sign-in turns. */
+export function SignInForm({ notice: shownFirst }: { notice?: string }) {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const {
-    register,
-    handleSubmit,
-    formState: { errors, isSubmitting },
-  } = useForm<SignInInput>({ resolver: zodResolver(signInSchema) });
-
-  const onSubmit = handleSubmit(async (values) => {
-    setError(null);
-    const { error: failure } = await authClient.signIn.email({ email: values.email, password: values.password });
-    if (failure) {
-      setError(messageFor(failure.status, failure.code, failure.message));
-      return;
-    }
+  const [notice, setNotice] = useState<Notice | null>(shownFirst ? { tone: "success", text: shownFirst } : null);
+  const form = useAuthForm(signInSchema);
+  async function submit({ email, password }: SignInInput) {
+    const { error } = await authClient.signIn.email({ email, password });
+    if (error) return setNotice({ tone: "error", text: messageFor(error.status, error.code, error.message) });
     router.replace("/today");
     router.refresh();
-  });
-
-  return (
-    <form onSubmit={onSubmit} noValidate className="mt-6 space-y-4">
-      {notice && !error ? <FormMessage tone="success">{notice}</FormMessage> : null}
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
-      <Field id="email" label="E-mail" type="email" autoComplete="email" error={errors.email?.message} {...register("email")} />
-      <Field
-        id="password"
-        label="Password"
-        type="password"
-        autoComplete="current-password"
-        error={errors.password?.message}
-        {...register("password")}
-      />
-      <button type="submit" className="btn-primary w-full" disabled={isSubmitting}>
-        {isSubmitting ? "Signing in…" : "Sign in"}
-      </button>
-    </form>
-  );
+  }
+  return <AuthForm form={form} fields={FIELDS} submit={submit} notice={notice} submitLabel="Sign in" pendingLabel="Signing in…" />;
 }

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import Link from "next/link";
+import { AuthLink } from "../auth-page";
 import { SignUpForm } from "./sign-up-form";
 
 export const metadata: Metadata = { title: "Create your company" };
@@ -12,9 +12,7 @@ export default function SignUpPage() {
       <SignUpForm />
       <p className="mt-6 text-sm">
         Already have an account?{" "}
-        <Link href="/sign-in" className="text-copper underline-offset-2 hover:underline">
-          Sign in
-        </Link>
+        <AuthLink href="/sign-in">Sign in</AuthLink>
       </p>
     </>
   );

@@ -1,51 +1,24 @@
 "use client";
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
-import { useForm } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
-import { applyFieldErrors } from "@/lib/form-errors";
-import { PASSWORD_MIN, signUpSchema, type SignUpInput } from "@/lib/schemas/people";
-import { signUpAction } from "./actions";
+import { useSave } from "@/components/ui/use-save";
+import { signUpSchema, type SignUpInput } from "@/lib/schemas/people";
+import { AuthForm, NEW_PASSWORD, useAuthForm } from "../auth-form";
+
+const FIELDS = [
+  { name: "companyName", label: "Company name", autoComplete: "organization" },
+  { name: "name", label: "Your name", autoComplete: "name" },
+  { name: "email", label: "Work e-mail", type: "email", autoComplete: "email" },
+  NEW_PASSWORD,
+] as const;
 
 export function SignUpForm() {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const {
-    register,
-    handleSubmit,
-    setError: setFieldError,
-    formState: { errors, isSubmitting },
-  } = useForm<SignUpInput>({ resolver: zodResolver(signUpSchema) });
-
-  const onSubmit = handleSubmit(async (values) => {
-    setError(null);
-    const result = await signUpAction(values);
-    if (!result.ok) {
-      if (!applyFieldErrors(result.fieldErrors, setFieldError)) setError(result.message);
-      return;
-    }
-    router.push(`/check-email?email=${encodeURIComponent(result.data.email)}`);
+  const form = useAuthForm(signUpSchema);
+  const save = useSave<SignUpInput, { email: string }, SignUpInput>({
+    request: (json) => ({ url: "/api/public/sign-up", method: "POST", json }),
+    setError: form.setError,
+    refresh: false,
+    onSaved: ({ email }) => router.push(`/check-email?email=${encodeURIComponent(email)}`),
   });
-
-  return (
-    <form onSubmit={onSubmit} noValidate className="mt-6 space-y-4">
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
-      <Field id="companyName" label="Company name" autoComplete="organization" error={errors.companyName?.message} {...register("companyName")} />
-      <Field id="name" label="Your name" autoComplete="name" error={errors.name?.message} {...register("name")} />
-      <Field id="email" label="Work e-mail" type="email" autoComplete="email" error={errors.email?.message} {...register("email")} />
-      <Field
-        id="password"
-        label="Password"
-        type="password"
-        autoComplete="new-password"
-        hint={`At least ${PASSWORD_MIN} characters.`}
-        error={errors.password?.message}
-        {...register("password")}
-      />
-      <button type="submit" className="btn-primary w-full" disabled={isSubmitting}>
-        {isSubmitting ? "Creating…" : "Create company"}
-      </button>
-    </form>
-  );
+  return <AuthForm form={form} fields={FIELDS} submit={save.saveAndWait} notice={save.notice} submitLabel="Create company" pendingLabel="Creating…" />;
 }

@@ -18,7 +18,9 @@ import {
   type KeyboardCoordinateGetter,
 } from "@dnd-kit/core";
 import Link from "next/link";
-import { useEffect, useId, useRef, useState, type FormEvent } from "react";
+import { useId, useRef, useState, type FormEvent } from "react";
+import { Dialog } from "@/components/ui/dialog";
+import { useSave } from "@/components/ui/use-save";
 import type { Stage } from "@/lib/enums";
 import { formatCents, formatKwFromWatts } from "@/lib/format";
 import { PIPELINE, SIDE_STAGES } from "@/lib/stage-rules";
@@ -38,21 +40,29 @@ export type BoardCard = {
 
 const COLUMNS: readonly Stage[] = [...PIPELINE, ...SIDE_STAGES];
 
-type MoveResult = { ok: true } | { ok: false; message: string; needs?: "reason" | "admin_reason" };
+type MoveResult = { ok: true } | { ok: false; message: string; needsReason: boolean };
+type MoveInput = { dealId: string; stage: Stage; reason: string | null };
 
-async function requestMove(dealId: string, stage: Stage, reason: string | null): Promise<MoveResult> {
-  try {
-    const res = await fetch(`/api/deals/${dealId}/stage`, {
-      method: "PATCH",
-      headers: { "Content-Type": "application/json" },
-      body: JSON.stringify({ stage, reason }),
-    });
-    if (res.ok) return { ok: true };
-    const body = (await res.json().catch(() => null)) as { error?: { message?: string; needs?: "reason" | "admin_reason" } } | null;
-    return { ok: false, message: body?.error?.message ?? "The move did not go through. Try again.", needs: body?.error?.needs };
-  } catch {
-    return { ok: false, message: "The server cannot be reached right now. Try again shortly." };
-  }
+/**
+ * A move through the stage route (useSave); the answer says whether it went, and when the rules
+ * refused it, their message and whether a reason would let it pass (the 422's `reason` field).
+ */
+function useStageMove(): (input: MoveInput) => Promise<MoveResult> {
+  const refusal = useRef({ message: "", needsReason: false });
+  const save = useSave<MoveInput>({
+    request: ({ dealId, stage, reason }) => ({ url: `/api/deals/${dealId}/stage`, method: "PATCH", json: { stage, reason } }),
+    refresh: false,
+    notify: (n) => {
+      if (n?.tone === "error") refusal.current.message = n.text;
+    },
+    onFieldErrors: (fields) => {
+      refusal.current.needsReason = Boolean(fields.reason);
+    },
+  });
+  return async (input) => {
+    refusal.current = { message: "The move did not go through. Try again.", needsReason: false };
+    return (await save.saveAndWait(input)) ? { ok: true } : { ok: false, ...refusal.current };
+  };
 }
 
 /** Arrow keys jump a picked-up card to the neighbouring column (left/right, also up/down). */
@@ -80,6 +90,7 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
   const [error, setError] = useState<string | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
   const [ask, setAsk] = useState<{ deal: BoardCard; to: Stage; message: string } | null>(null);
+  const requestMove = useStageMove();
 
   const sensors = useSensors(
     useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
@@ -102,7 +113,7 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
 
   async function move(deal: BoardCard, to: Stage, reason: string | null): Promise<MoveResult> {
     place(deal.id, to, false); // shown in the new column while the server decides
-    const result = await requestMove(deal.id, to, reason);
+    const result = await requestMove({ dealId: deal.id, stage: to, reason });
     if (result.ok) {
       place(deal.id, to, true);
       setNotice(`${deal.householdName} moved to ${STAGE_LABELS[to]}.`);
@@ -125,7 +136,7 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
     if (!deal || !to || to === deal.stage) return;
     const result = await move(deal, to, null);
     if (result.ok) return;
-    if (result.needs) setAsk({ deal, to, message: result.message });
+    if (result.needsReason) setAsk({ deal, to, message: result.message });
     else setError(result.message);
   }
 
@@ -271,19 +282,10 @@ function ReasonDialog({
   onCancel: () => void;
   onSubmit: (reason: string) => Promise<string | null>;
 }) {
-  const ref = useRef<HTMLDialogElement>(null);
-  const titleId = useId();
-  const messageId = useId();
   const fieldId = useId();
   const [reason, setReason] = useState("");
   const [failure, setFailure] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
-
-  useEffect(() => {
-    const dialog = ref.current;
-    if (dialog && !dialog.open) dialog.showModal(); // modal: focus stays inside, Escape closes
-    return () => dialog?.close();
-  }, []);
 
   async function submit(event: FormEvent) {
     event.preventDefault();
@@ -297,23 +299,8 @@ function ReasonDialog({
   }
 
   return (
-    <dialog
-      ref={ref}
-      aria-labelledby={titleId}
-      aria-describedby={messageId}
-      onCancel={(e) => {
-        e.preventDefault();
-        onCancel();
-      }}
-      className="m-auto w-full max-w-md rounded-card border border-paper-line bg-white p-5 text-graphite shadow-card backdrop:bg-graphite/40"
-    >
+    <Dialog title={title} description={message} onClose={onCancel}>
       <form onSubmit={submit}>
-        <h2 id={titleId} className="text-lg font-semibold">
-          {title}
-        </h2>
-        <p id={messageId} className="mt-2 text-sm text-graphite-soft">
-          {message}
-        </p>
         <label htmlFor={fieldId} className="field-label mt-4">
           Reason
         </label>
@@ -341,6 +328,6 @@ function ReasonDialog({
           </button>
         </div>
       </form>
-    </dialog>
+    </Dialog>
   );
 }

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { NoAccess } from "@/components/no-access";
+import { Field, SelectField } from "@/components/ui/field";
 import { daysSince } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { boardFilterSchema, isStalled } from "@/lib/stage-rules";
@@ -61,45 +62,11 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
       </div>
       <form action="/board" className="mt-3 flex flex-wrap items-end gap-3 px-2 md:px-4" aria-label="Filter the board">
         {office ? (
-          <div className="w-44">
-            <label htmlFor="board-rep" className="field-label">
-              Rep
-            </label>
-            <select id="board-rep" name="rep" defaultValue={filter.rep ?? ""} className="field-input">
-              <option value="">Everyone</option>
-              {owners.map((o) => (
-                <option key={o.id} value={o.id}>
-                  {o.name}
-                </option>
-              ))}
-            </select>
-          </div>
+          <SelectField id="board-rep" name="rep" label="Rep" className="w-44" defaultValue={filter.rep ?? ""} options={[{ value: "", label: "Everyone" }, ...owners.map((o) => ({ value: o.id, label: o.name }))]} />
         ) : null}
-        <div className="w-44">
-          <label htmlFor="board-source" className="field-label">
-            Source
-          </label>
-          <select id="board-source" name="source" defaultValue={filter.source ?? ""} className="field-input">
-            <option value="">Any source</option>
-            {sources.map((s) => (
-              <option key={s} value={s}>
-                {s}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="w-44">
-          <label htmlFor="board-from" className="field-label">
-            Created from
-          </label>
-          <input id="board-from" type="date" name="from" defaultValue={filter.from ?? ""} className="field-input" />
-        </div>
-        <div className="w-44">
-          <label htmlFor="board-to" className="field-label">
-            Created to
-          </label>
-          <input id="board-to" type="date" name="to" defaultValue={filter.to ?? ""} className="field-input" />
-        </div>
+        <SelectField id="board-source" name="source" label="Source" className="w-44" defaultValue={filter.source ?? ""} options={[{ value: "", label: "Any source" }, ...sources.map((s) => ({ value: s, label: s }))]} />
+        <Field id="board-from" name="from" label="Created from" type="date" className="w-44" defaultValue={filter.from ?? ""} />
+        <Field id="board-to" name="to" label="Created to" type="date" className="w-44" defaultValue={filter.to ?? ""} />
         <button type="submit" className="btn-quiet">
           Apply filters
         </button>

@@ -1,5 +1,5 @@
-// What the catalog's table and forms show of a module or an inverter, and one helper both forms
-// use. Its own module so the table and the forms do not import each other.
+// What the catalog's table and forms show of a module or an inverter. Its own module so the
+// page, the table and the forms do not import each other.
 import type { CellTechnology, Construction, InverterKind } from "@/lib/schemas/catalog";
 
 export type ModuleView = {
@@ -38,9 +38,3 @@ export type InverterView = {
   modulesPerUnit: number | null;
   active: boolean;
 };
-
-/** Server field errors of an update arrive as "values.<field>"; the form's fields have no prefix. */
-export function withoutPrefix(fields: Record<string, string[]> | undefined): Record<string, string[]> | undefined {
-  if (!fields) return fields;
-  return Object.fromEntries(Object.entries(fields).map(([k, v]) => [k.replace(/^values\./, ""), v]));
-}

@@ -1,7 +1,8 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useId, useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
+import { RadioGroup } from "@/components/ui/radio-group";
 import { CSV_MAX_BYTES, INVERTER_CSV_COLUMNS, MODULE_CSV_COLUMNS, type CsvImportReport, type ImportMode } from "@/lib/schemas/catalog";
 
 type Kind = "modules" | "inverters";
@@ -68,19 +69,17 @@ export function CsvImport({ kind }: { kind: Kind }) {
             onChange={(e) => setFile(e.target.files?.[0] ?? null)}
           />
         </div>
-        <fieldset>
-          <legend className="field-label">If a row is bad</legend>
-          <div className="flex flex-wrap gap-x-6 gap-y-1">
-            <label className="flex min-h-touch items-center gap-2 text-sm">
-              <input type="radio" name={`${formId}-mode`} value="all_or_nothing" checked={mode === "all_or_nothing"} onChange={() => setMode("all_or_nothing")} />
-              Import nothing if any row is bad
-            </label>
-            <label className="flex min-h-touch items-center gap-2 text-sm">
-              <input type="radio" name={`${formId}-mode`} value="good_rows" checked={mode === "good_rows"} onChange={() => setMode("good_rows")} />
-              Import only the good rows
-            </label>
-          </div>
-        </fieldset>
+        <RadioGroup
+          name={`${formId}-mode`}
+          label="If a row is bad"
+          legend
+          options={[
+            ["all_or_nothing", "Import nothing if any row is bad"],
+            ["good_rows", "Import only the good rows"],
+          ]}
+          value={mode}
+          onChange={setMode}
+        />
         <button type="submit" className="btn-primary" disabled={busy}>
           {busy ? "Importing…" : `Import ${kind}`}
         </button>

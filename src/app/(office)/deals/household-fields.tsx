@@ -1,8 +1,15 @@
 "use client";
 import type { FieldErrors, UseFormRegister } from "react-hook-form";
-import { Field } from "@/components/field";
+import { Field } from "@/components/ui/field";
 import type { HouseholdInput } from "@/lib/schemas/deal";
 import { numberFromField } from "@/lib/schemas/text";
+
+export type RatePlanOption = { id: string; name: string; utilityName: string };
+
+/** The company's rate plans for a select, "not known yet" first (the new-lead form and the Household tab). */
+export function ratePlanOptions(plans: readonly RatePlanOption[]) {
+  return [{ value: "", label: "Not known yet" }, ...plans.map((p) => ({ value: p.id, label: `${p.utilityName} — ${p.name}` }))];
+}
 
 /** The household's fields, shared by the new-lead form and the Household tab. */
 export function HouseholdFields({ register, errors }: { register: UseFormRegister<HouseholdInput>; errors: FieldErrors<HouseholdInput> }) {

@@ -1,7 +1,9 @@
 "use client";
-import { useMemo, useState, useTransition, type ReactNode } from "react";
+import { useMemo, useState, type ReactNode } from "react";
 import type { Role } from "@/lib/enums";
-import { FormMessage } from "@/components/field";
+import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { RadioGroup } from "@/components/ui/radio-group";
+import { useSave } from "@/components/ui/use-save";
 import { formatDateTime } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";
 import { priceOffer, PricingInputError, type OfferPrice } from "@/lib/pricing";
@@ -16,8 +18,8 @@ import {
   type PriceBook,
   type PriceBookIncentive,
 } from "@/lib/schemas/price-book";
-import { fieldErrorsToErrors, issuesToErrors, NumberInput, type PathErrors } from "./_components/number-input";
-import { savePriceBookAction } from "./actions";
+import { MoneyInput, NumberInput, PercentInput } from "@/components/ui/number-input";
+import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
 
 const ADDER_KIND_LABELS: Record<AdderKind, string> = { per_watt: "per watt DC", per_module: "per module", fixed: "per job" };
 type Amount = PriceBookIncentive["amount"];
@@ -42,10 +44,18 @@ function incentiveStatus(rule: PriceBookIncentive, today: string): { label: stri
 export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string }) {
   const [doc, setDoc] = useState<PriceBook>(props.initial);
   const [errors, setErrors] = useState<PathErrors>({});
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
   const [saved, setSaved] = useState({ at: props.savedAt, by: props.savedBy });
   const [dirty, setDirty] = useState(false);
-  const [pending, startTransition] = useTransition();
+  const { save: send, pending, notice, setNotice } = useSave<PriceBook, { updatedAt: string; updatedByName: string | null }>({
+    request: (json) => ({ url: "/api/price-books", method: "POST", json }),
+    success: "Price book saved.",
+    onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
+    onSaved: (record) => {
+      setErrors({});
+      setDirty(false);
+      setSaved({ at: record.updatedAt, by: record.updatedByName });
+    },
+  });
   const edit = props.canEdit;
   // Items already saved keep their id (offers refer to it); a new item's id follows its name.
   const savedIds = useMemo(
@@ -79,18 +89,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
       setNotice({ tone: "error", text: `Not saved: ${parsed.error.issues.length} field(s) need attention.` });
       return;
     }
-    startTransition(async () => {
-      const result = await savePriceBookAction(parsed.data);
-      if (!result.ok) {
-        setErrors(fieldErrorsToErrors(result.fieldErrors));
-        setNotice({ tone: "error", text: result.message });
-        return;
-      }
-      setErrors({});
-      setDirty(false);
-      setSaved({ at: result.data.updatedAt, by: result.data.updatedByName });
-      setNotice({ tone: "success", text: "Price book saved." });
-    });
+    send(parsed.data);
   }
 
   return (
@@ -105,7 +104,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
           </button>
         ) : null}
       </div>
-      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+      <StatusMessage notice={notice} />
       {errors._ ? <FormMessage tone="error">{errors._}</FormMessage> : null}
 
       <fieldset disabled={!edit || pending} className="space-y-6">
@@ -223,9 +222,9 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
                 {adder.kind === "per_watt" ? (
                   <NumberInput id={`adder-${i}-amount`} label="$ per watt" scale={100} storedDecimals={2} value={adder.centsPerWattDc} error={err(`adders.${i}.centsPerWattDc`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "per_watt" }>).centsPerWattDc = nn(v)))} />
                 ) : adder.kind === "per_module" ? (
-                  <NumberInput id={`adder-${i}-amount`} label="$ per module" scale={100} value={adder.centsPerModule} error={err(`adders.${i}.centsPerModule`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "per_module" }>).centsPerModule = nn(v)))} />
+                  <MoneyInput id={`adder-${i}-amount`} label="$ per module" value={adder.centsPerModule} error={err(`adders.${i}.centsPerModule`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "per_module" }>).centsPerModule = nn(v)))} />
                 ) : (
-                  <NumberInput id={`adder-${i}-amount`} label="$ per job" scale={100} value={adder.amountCents} error={err(`adders.${i}.amountCents`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "fixed" }>).amountCents = nn(v)))} />
+                  <MoneyInput id={`adder-${i}-amount`} label="$ per job" value={adder.amountCents} error={err(`adders.${i}.amountCents`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "fixed" }>).amountCents = nn(v)))} />
                 )}
                 {edit ? <RemoveButton label={`Remove adder ${adder.name}`} onClick={() => update((d) => void d.adders.splice(i, 1))} /> : null}
               </div>
@@ -244,7 +243,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
             {doc.lineItems.map((item, i) => (
               <div key={i} className="grid items-start gap-2 md:grid-cols-[3fr_1fr_auto]" data-testid={`line-item-${item.id}`}>
                 <TextInput id={`line-${i}-name`} label="Name" value={item.name} error={err(`lineItems.${i}.name`) ?? err(`lineItems.${i}.id`)} onText={(t) => update((d) => rename(d.lineItems, i, t))} hint={`id: ${item.id}`} />
-                <NumberInput id={`line-${i}-amount`} label="Price ($)" scale={100} value={item.amountCents} error={err(`lineItems.${i}.amountCents`)} onValue={(v) => update((d) => void (d.lineItems[i].amountCents = nn(v)))} />
+                <MoneyInput id={`line-${i}-amount`} label="Price ($)" value={item.amountCents} error={err(`lineItems.${i}.amountCents`)} onValue={(v) => update((d) => void (d.lineItems[i].amountCents = nn(v)))} />
                 {edit ? <RemoveButton label={`Remove line item ${item.name}`} onClick={() => update((d) => void d.lineItems.splice(i, 1))} /> : null}
               </div>
             ))}
@@ -261,8 +260,8 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
             {LIMITED_ROLES.map((role) => (
               <div key={role} className="grid grid-cols-2 gap-2" data-testid={`limit-${role}`}>
                 <p className="col-span-2 text-sm font-medium">{ROLE_LABELS[role]}</p>
-                <NumberInput id={`limit-${role}-cents`} label="Up to ($)" placeholder="no $ limit" scale={100} value={doc.discountLimits[role].maxCents} error={err(`discountLimits.${role}.maxCents`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxCents = v))} />
-                <NumberInput id={`limit-${role}-pct`} label="Up to (%)" placeholder="no % limit" storedDecimals={2} value={doc.discountLimits[role].maxPct} error={err(`discountLimits.${role}.maxPct`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxPct = v))} />
+                <MoneyInput id={`limit-${role}-cents`} label="Up to ($)" placeholder="no $ limit" value={doc.discountLimits[role].maxCents} error={err(`discountLimits.${role}.maxCents`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxCents = v))} />
+                <PercentInput id={`limit-${role}-pct`} label="Up to (%)" placeholder="no % limit" storedDecimals={2} value={doc.discountLimits[role].maxPct} error={err(`discountLimits.${role}.maxPct`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxPct = v))} />
               </div>
             ))}
           </div>
@@ -311,23 +310,25 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
         </Section>
 
         <Section id="deposit" title="Deposit" hint="Asked when the customer signs; never more than the contract.">
-          <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="Deposit kind">
-            <label className="flex min-h-touch items-center gap-2">
-              <input type="radio" name="deposit-kind" checked={doc.deposit.kind === "fixed"} onChange={() => update((d) => void (d.deposit = { kind: "fixed", amountCents: 50_000 }))} />
-              A fixed amount
-            </label>
-            <label className="flex min-h-touch items-center gap-2">
-              <input type="radio" name="deposit-kind" checked={doc.deposit.kind === "percent"} onChange={() => update((d) => void (d.deposit = { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 }))} />
-              A percentage of the contract
-            </label>
-          </div>
+          <RadioGroup
+            name="deposit-kind"
+            label="Deposit kind"
+            options={[
+              ["fixed", "A fixed amount"],
+              ["percent", "A percentage of the contract"],
+            ]}
+            value={doc.deposit.kind}
+            onChange={(kind) =>
+              update((d) => void (d.deposit = kind === "fixed" ? { kind: "fixed", amountCents: 50_000 } : { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 }))
+            }
+          />
           {doc.deposit.kind === "fixed" ? (
-            <NumberInput id="deposit-amount" className="mt-2 max-w-48" label="Deposit ($)" scale={100} value={doc.deposit.amountCents} error={err("deposit.amountCents")} onValue={(v) => update((d) => void (d.deposit.kind === "fixed" && (d.deposit.amountCents = nn(v))))} />
+            <MoneyInput id="deposit-amount" className="mt-2 max-w-48" label="Deposit ($)" value={doc.deposit.amountCents} error={err("deposit.amountCents")} onValue={(v) => update((d) => void (d.deposit.kind === "fixed" && (d.deposit.amountCents = nn(v))))} />
           ) : (
             <div className="mt-2 grid max-w-xl grid-cols-3 gap-2">
-              <NumberInput id="deposit-pct" label="Percent (%)" storedDecimals={2} value={doc.deposit.pct} error={err("deposit.pct")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.pct = nn(v))))} />
-              <NumberInput id="deposit-min" label="At least ($)" scale={100} value={doc.deposit.minCents} error={err("deposit.minCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.minCents = nn(v))))} />
-              <NumberInput id="deposit-max" label="At most ($)" scale={100} value={doc.deposit.maxCents} error={err("deposit.maxCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.maxCents = nn(v))))} />
+              <PercentInput id="deposit-pct" label="Percent (%)" storedDecimals={2} value={doc.deposit.pct} error={err("deposit.pct")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.pct = nn(v))))} />
+              <MoneyInput id="deposit-min" label="At least ($)" value={doc.deposit.minCents} error={err("deposit.minCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.minCents = nn(v))))} />
+              <MoneyInput id="deposit-max" label="At most ($)" value={doc.deposit.maxCents} error={err("deposit.maxCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.maxCents = nn(v))))} />
             </div>
           )}
         </Section>
@@ -401,12 +402,12 @@ function IncentiveEditor(props: {
         {a.kind === "per-watt" ? (
           <>
             <NumberInput id={`inc-${i}-cpw`} label="$ per watt" scale={100} storedDecimals={2} value={a.centsPerWattDc} error={err("amount.centsPerWattDc")} onValue={(v) => onChange((r) => void (r.amount.kind === "per-watt" && (r.amount.centsPerWattDc = nn(v))))} />
-            <NumberInput id={`inc-${i}-cap`} label="Cap ($, optional)" scale={100} value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "per-watt" && (r.amount.capCents = v ?? undefined)))} />
+            <MoneyInput id={`inc-${i}-cap`} label="Cap ($, optional)" value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "per-watt" && (r.amount.capCents = v ?? undefined)))} />
           </>
         ) : a.kind === "percent" ? (
           <>
-            <NumberInput id={`inc-${i}-pct`} label="Percent (%)" storedDecimals={4} value={a.pct} error={err("amount.pct")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.pct = nn(v))))} />
-            <NumberInput id={`inc-${i}-cap`} label="Cap ($, optional)" scale={100} value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.capCents = v ?? undefined)))} />
+            <PercentInput id={`inc-${i}-pct`} label="Percent (%)" storedDecimals={4} value={a.pct} error={err("amount.pct")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.pct = nn(v))))} />
+            <MoneyInput id={`inc-${i}-cap`} label="Cap ($, optional)" value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.capCents = v ?? undefined)))} />
             <div className="md:col-start-2">
               <label htmlFor={`inc-${i}-basis`} className="field-label">
                 Of
@@ -418,7 +419,7 @@ function IncentiveEditor(props: {
             </div>
           </>
         ) : (
-          <NumberInput id={`inc-${i}-fixed`} label="Amount ($)" scale={100} value={a.amountCents} error={err("amount.amountCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "fixed" && (r.amount.amountCents = nn(v))))} />
+          <MoneyInput id={`inc-${i}-fixed`} label="Amount ($)" value={a.amountCents} error={err("amount.amountCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "fixed" && (r.amount.amountCents = nn(v))))} />
         )}
       </div>
       <div className="mt-2 grid gap-2 md:grid-cols-4">
@@ -506,7 +507,7 @@ function PriceCheck({ book, role }: { book: PriceBook; role: Role }) {
       <div className="grid gap-2 md:grid-cols-4">
         <NumberInput id="check-kw" label="Size (kW DC)" scale={1000} value={kw} onValue={setKw} />
         <NumberInput id="check-modules" label="Modules" value={modules} onValue={setModules} />
-        <NumberInput id="check-discount" label="Discount ($)" scale={100} value={discount} onValue={setDiscount} />
+        <MoneyInput id="check-discount" label="Discount ($)" value={discount} onValue={setDiscount} />
         <div>
           <label htmlFor="check-role" className="field-label">
             Given by

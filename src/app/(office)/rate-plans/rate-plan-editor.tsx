@@ -1,13 +1,15 @@
 "use client";
 import { useRouter } from "next/navigation";
-import { useMemo, useState, useTransition, type ReactNode } from "react";
-import { FormMessage } from "@/components/field";
+import { useMemo, useState, type ReactNode } from "react";
+import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { RadioGroup } from "@/components/ui/radio-group";
+import { useSave } from "@/components/ui/use-save";
 import { EngineInputError } from "@/engine/errors";
 import { ratePlanSchema, touPeriodByHour, type AnnualBill, type RatePlan } from "@/engine/rates";
 import { MONTH_START_DAY, weekdayOfJanuaryFirst } from "@/engine/year-calendar";
 import { PREVIEW_MONTHLY_KWH, ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
-import { fieldErrorsToErrors, issuesToErrors, NumberInput, type PathErrors } from "../price-book/_components/number-input";
-import { createRatePlanAction, updateRatePlanAction } from "./actions";
+import { MoneyInput, NumberInput } from "@/components/ui/number-input";
+import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
 import { ALL_MONTHS, compensationTemplate, energyTemplate, type EditorRecord } from "./plan-templates";
 import { sampleBill } from "./sample-bill";
 
@@ -26,8 +28,17 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
   const router = useRouter();
   const [record, setRecord] = useState<EditorRecord>(initial);
   const [errors, setErrors] = useState<PathErrors>({});
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const [pending, startTransition] = useTransition();
+  const { save: send, pending, notice, setNotice } = useSave<EditorRecord, { id: string }>({
+    request: (json) => (id ? { url: `/api/rate-plans/${id}`, method: "PUT", json } : { url: "/api/rate-plans", method: "POST", json }),
+    // A new plan opens at its own address; a saved one stays here.
+    success: id ? "Rate plan saved." : undefined,
+    refresh: id !== null,
+    onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
+    onSaved: (saved) => {
+      setErrors({});
+      if (!id) router.push(`/rate-plans/${saved.id}`);
+    },
+  });
   const plan = record.plan;
 
   function update(change: (draft: EditorRecord) => void) {
@@ -47,23 +58,7 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
       setNotice({ tone: "error", text: "Not saved: fix the fields listed below." });
       return;
     }
-    startTransition(async () => {
-      const result = id ? await updateRatePlanAction({ id, record: parsed.data }) : await createRatePlanAction(parsed.data);
-      if (!result.ok) {
-        // The update action nests the record under "record.".
-        const fields = Object.fromEntries(Object.entries(result.fieldErrors ?? {}).map(([k, v]) => [k.replace(/^record\./, ""), v]));
-        setErrors(fieldErrorsToErrors(fields));
-        setNotice({ tone: "error", text: result.message });
-        return;
-      }
-      setErrors({});
-      if (!id) {
-        router.push(`/rate-plans/${result.data.id}`);
-        return;
-      }
-      setNotice({ tone: "success", text: "Rate plan saved." });
-      router.refresh();
-    });
+    send(parsed.data as EditorRecord);
   }
 
   const errorList = Object.entries(errors);
@@ -71,7 +66,7 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="space-y-6">
-        {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+        <StatusMessage notice={notice} />
         {errorList.length > 0 ? (
           <ul className="rounded-md border border-danger/30 bg-danger-light px-4 py-2 text-sm text-danger" aria-label="Problems">
             {errorList.map(([path, message]) => (
@@ -87,8 +82,8 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
             <div className="grid gap-3 md:grid-cols-2">
               <TextField id="plan-utility" label="Utility" value={record.utilityName} error={errors.utilityName} onText={(t) => update((d) => void (d.utilityName = t))} />
               <TextField id="plan-name" label="Plan name" value={plan.name} error={err("name")} onText={(t) => update((d) => void (d.plan.name = t))} />
-              <NumberInput id="plan-fixed" label="Fixed charge ($ / month)" scale={100} value={plan.fixedMonthlyCents} error={err("fixedMonthlyCents")} onValue={(v) => update((d) => void (d.plan.fixedMonthlyCents = nn(v)))} />
-              <NumberInput id="plan-minimum" label="Minimum bill ($ / month, fixed charge included)" scale={100} value={plan.minimumBillCents} error={err("minimumBillCents")} onValue={(v) => update((d) => void (d.plan.minimumBillCents = nn(v)))} />
+              <MoneyInput id="plan-fixed" label="Fixed charge ($ / month)" value={plan.fixedMonthlyCents} error={err("fixedMonthlyCents")} onValue={(v) => update((d) => void (d.plan.fixedMonthlyCents = nn(v)))} />
+              <MoneyInput id="plan-minimum" label="Minimum bill ($ / month, fixed charge included)" value={plan.minimumBillCents} error={err("minimumBillCents")} onValue={(v) => update((d) => void (d.plan.minimumBillCents = nn(v)))} />
             </div>
             <label className="mt-3 flex min-h-touch items-center gap-2 text-sm">
               <input type="checkbox" checked={record.active} onChange={(e) => update((d) => void (d.active = e.target.checked))} />
@@ -97,20 +92,17 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
           </Card>
 
           <Card title="Energy charges">
-            <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="Energy pricing">
-              {(
-                [
-                  ["flat", "Flat"],
-                  ["tiered", "Tiered (monthly kWh)"],
-                  ["tou", "Time-of-use"],
-                ] as const
-              ).map(([kind, label]) => (
-                <label key={kind} className="flex min-h-touch items-center gap-2">
-                  <input type="radio" name="energy-kind" checked={plan.energy.kind === kind} onChange={() => update((d) => void (d.plan.energy = energyTemplate(kind)))} />
-                  {label}
-                </label>
-              ))}
-            </div>
+            <RadioGroup
+              name="energy-kind"
+              label="Energy pricing"
+              options={[
+                ["flat", "Flat"],
+                ["tiered", "Tiered (monthly kWh)"],
+                ["tou", "Time-of-use"],
+              ]}
+              value={plan.energy.kind}
+              onChange={(kind) => update((d) => void (d.plan.energy = energyTemplate(kind)))}
+            />
             <div className="mt-3">
               {plan.energy.kind === "flat" ? (
                 <NumberInput
@@ -131,20 +123,17 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
           </Card>
 
           <Card title="Exported energy">
-            <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="Export compensation">
-              {(
-                [
-                  ["net-metering", "Net metering"],
-                  ["net-billing", "Net billing"],
-                  ["no-export", "No export"],
-                ] as const
-              ).map(([kind, label]) => (
-                <label key={kind} className="flex min-h-touch items-center gap-2">
-                  <input type="radio" name="compensation-kind" checked={plan.compensation.kind === kind} onChange={() => update((d) => void (d.plan.compensation = compensationTemplate(kind)))} />
-                  {label}
-                </label>
-              ))}
-            </div>
+            <RadioGroup
+              name="compensation-kind"
+              label="Export compensation"
+              options={[
+                ["net-metering", "Net metering"],
+                ["net-billing", "Net billing"],
+                ["no-export", "No export"],
+              ]}
+              value={plan.compensation.kind}
+              onChange={(kind) => update((d) => void (d.plan.compensation = compensationTemplate(kind)))}
+            />
             <p className="mt-1 text-sm text-graphite-soft">
               {plan.compensation.kind === "net-metering"
                 ? "Imports and exports are netted each month (per period on time-of-use); surplus becomes a credit at the retail price. At the annual true-up the year's net surplus kWh is paid at the surplus rate and leftover credit lapses."

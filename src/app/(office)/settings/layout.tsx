@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { can, type Permission } from "@/lib/permissions";
 import { getMember } from "@/server/session";
-import { SettingsNav } from "./company/settings-nav";
+import { LinkTabs } from "@/components/ui/tabs";
 
 /** Settings pages, each behind its own permission; the sub-nav lists those the person may open. */
 const SETTINGS_PAGES: readonly { href: string; label: string; permission: Permission }[] = [
@@ -15,7 +15,7 @@ export default async function SettingsLayout({ children }: { children: ReactNode
   const pages = member ? SETTINGS_PAGES.filter((p) => can(member.role, p.permission)).map(({ href, label }) => ({ href, label })) : [];
   return (
     <>
-      {pages.length > 1 ? <SettingsNav pages={pages} /> : null}
+      {pages.length > 1 ? <LinkTabs label="Settings" pages={pages} /> : null}
       {children}
     </>
   );

@@ -1,10 +1,13 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
-import { useRef, useState, useTransition } from "react";
-import { useForm, type Path } from "react-hook-form";
+import { useRef, useState } from "react";
+import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/field";
+import { EmptyState } from "@/components/ui/empty-state";
+import { describedBy, Field, FieldShell, FormMessage, optionsOf, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
+import { TableShell, Td, Th } from "@/components/ui/table";
+import { useSave } from "@/components/ui/use-save";
+import { api } from "@/lib/api-client";
 import { formatDate } from "@/lib/format";
 import {
   nearestQuerySchema,
@@ -17,7 +20,6 @@ import {
   type StationFields,
   type StationFieldsInput,
 } from "@/lib/schemas/weather";
-import { deleteStationAction } from "./actions";
 
 export type StationView = {
   id: string;
@@ -42,14 +44,12 @@ const deg = (v: number, pos: string, neg: string) => `${Math.abs(v).toFixed(3)}�
 const utc = (h: number) => `UTC${h >= 0 ? "+" : "−"}${Math.abs(h)}`;
 const km = (d: number) => `${d < 10 ? d.toFixed(1) : kwh.format(d)} km`;
 
-type ErrorBody = { error?: { code?: string; message?: string; fields?: Record<string, string[]> } };
-
 export function WeatherClient(props: { stations: StationView[]; canManage: boolean; seesAllSites: boolean; maxDistanceKm: number }) {
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
+  const [notice, setNotice] = useState<Notice | null>(null);
   return (
     <div className="mt-6 space-y-8">
-      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
-      {props.canManage ? <UploadStationForm onAdded={(text) => setNotice({ tone: "success", text })} /> : null}
+      <StatusMessage notice={notice?.tone === "success" ? notice : null} />
+      {props.canManage ? <UploadStationForm notify={setNotice} error={notice?.tone === "error" ? notice : null} /> : null}
       <StationsTable stations={props.stations} canManage={props.canManage} seesAllSites={props.seesAllSites} onNotice={setNotice} />
       <NearestCheck maxDistanceKm={props.maxDistanceKm} />
     </div>
@@ -62,53 +62,45 @@ type StationFormValues = StationFieldsInput;
 const EMPTY: StationFormValues = { name: "", format: "auto", latitude: "", longitude: "", elevationM: "", utcOffsetHours: "", attribution: "" };
 const FORM_FIELDS = ["name", "format", "latitude", "longitude", "elevationM", "utcOffsetHours", "attribution"] as const satisfies readonly (keyof StationFields)[];
 
-function UploadStationForm({ onAdded }: { onAdded: (text: string) => void }) {
-  const router = useRouter();
+function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => void; error: Notice | null }) {
   const fileRef = useRef<HTMLInputElement>(null);
   const [fileError, setFileError] = useState<string | null>(null);
   const [fileIssues, setFileIssues] = useState<string[]>([]);
-  const [error, setError] = useState<string | null>(null);
   const {
     register,
     handleSubmit,
     reset,
     watch,
-    setError: setFieldError,
-    formState: { errors, isSubmitting },
+    setError,
+    formState: { errors },
   } = useForm<StationFormValues, unknown, StationFields>({ resolver: zodResolver(stationFieldsSchema), defaultValues: EMPTY });
   const format = watch("format");
+  const upload = useSave<{ values: StationFields; file: File }, { name: string; annualGhiKwhPerM2: number }, StationFormValues>({
+    request: ({ values, file }) => {
+      const body = new FormData();
+      body.set("file", file);
+      // The checked values go to the server, which validates them again with the same schema.
+      for (const key of FORM_FIELDS) if (values[key] !== undefined) body.set(key, String(values[key]));
+      return { url: "/api/weather-stations", method: "POST", body };
+    },
+    setError,
+    onFieldErrors: (fields) => setFileIssues(fields.file ?? []),
+    notify,
+    success: (station) => `${station.name} added: ${kwh.format(station.annualGhiKwhPerM2)} kWh/m² of sun on the horizontal a year.`,
+    onSaved: () => {
+      reset(EMPTY);
+      if (fileRef.current) fileRef.current.value = "";
+    },
+  });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setError(null);
+  const onSubmit = handleSubmit((values) => {
+    notify(null);
     setFileError(null);
     setFileIssues([]);
     const file = fileRef.current?.files?.[0];
     if (!file) return setFileError("Choose a weather file to upload");
     if (file.size > WEATHER_FILE_MAX_BYTES) return setFileError(`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`);
-    const body = new FormData();
-    body.set("file", file);
-    // The checked values go to the server, which validates them again with the same schema.
-    for (const key of FORM_FIELDS) if (values[key] !== undefined) body.set(key, String(values[key]));
-    let res: Response;
-    try {
-      res = await fetch("/api/weather-stations", { method: "POST", body });
-    } catch {
-      return setError("The upload did not reach the server. Check the connection and try again; nothing was stored.");
-    }
-    const json = (await res.json().catch(() => ({}))) as ErrorBody & { data?: { name: string; annualGhiKwhPerM2: number } };
-    if (!res.ok || !json.data) {
-      const fields = json.error?.fields ?? {};
-      for (const [name, messages] of Object.entries(fields)) {
-        if (name === "file") setFileIssues(messages);
-        else if ((FORM_FIELDS as readonly string[]).includes(name) && messages[0]) setFieldError(name as Path<StationFormValues>, { type: "server", message: messages[0] });
-      }
-      setError(json.error?.message ?? `The upload failed (HTTP ${res.status}); nothing was stored.`);
-      return;
-    }
-    reset(EMPTY);
-    if (fileRef.current) fileRef.current.value = "";
-    onAdded(`${json.data.name} added: ${kwh.format(json.data.annualGhiKwhPerM2)} kWh/m² of sun on the horizontal a year.`);
-    router.refresh();
+    upload.save({ values, file });
   });
 
   const siteHint = format === "csv" ? "Required: an hourly CSV does not say where it was measured." : "Leave empty to use the file header.";
@@ -123,12 +115,9 @@ function UploadStationForm({ onAdded }: { onAdded: (text: string) => void }) {
         notes). The whole file is checked first; nothing is stored unless every hour reads correctly.
       </p>
       <form onSubmit={onSubmit} noValidate className="mt-4 space-y-4">
-        {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+        <StatusMessage notice={error} />
         <div className="grid gap-4 md:grid-cols-[2fr_1.3fr_2fr]">
-          <div>
-            <label htmlFor="station-file" className="field-label">
-              Weather file
-            </label>
+          <FieldShell id="station-file" label="Weather file" error={fileError ?? undefined}>
             <input
               id="station-file"
               ref={fileRef}
@@ -136,30 +125,14 @@ function UploadStationForm({ onAdded }: { onAdded: (text: string) => void }) {
               accept=".epw,.csv,text/csv,text/plain"
               className="block min-h-touch w-full text-sm file:mr-3 file:min-h-touch file:rounded-md file:border file:border-paper-line file:bg-white file:px-4 file:text-sm file:font-medium"
               aria-invalid={fileError || fileIssues.length ? true : undefined}
-              aria-describedby={fileIssues.length ? "station-file-issues" : fileError ? "station-file-error" : undefined}
+              aria-describedby={fileIssues.length ? "station-file-issues" : describedBy("station-file", fileError ?? undefined)}
               onChange={() => {
                 setFileError(null);
                 setFileIssues([]);
               }}
             />
-            {fileError ? (
-              <p id="station-file-error" className="field-error" role="alert">
-                {fileError}
-              </p>
-            ) : null}
-          </div>
-          <div>
-            <label htmlFor="station-format" className="field-label">
-              Format
-            </label>
-            <select id="station-format" className="field-input" {...register("format")}>
-              {WEATHER_FORMAT_CHOICES.map((f) => (
-                <option key={f} value={f}>
-                  {WEATHER_FORMAT_LABELS[f]}
-                </option>
-              ))}
-            </select>
-          </div>
+          </FieldShell>
+          <SelectField id="station-format" label="Format" options={optionsOf(WEATHER_FORMAT_CHOICES, WEATHER_FORMAT_LABELS)} {...register("format")} />
           <Field id="station-name" label="Name" autoComplete="off" hint="Empty: the name in the file header." error={errors.name?.message} {...register("name")} />
         </div>
         {fileIssues.length ? (
@@ -182,29 +155,18 @@ function UploadStationForm({ onAdded }: { onAdded: (text: string) => void }) {
             <Field id="station-utc" label="UTC offset (h, standard time)" inputMode="decimal" autoComplete="off" error={errors.utcOffsetHours?.message} {...register("utcOffsetHours")} />
           </div>
         </fieldset>
-        <div>
-          <label htmlFor="station-attribution" className="field-label">
-            Attribution
-          </label>
+        <FieldShell id="station-attribution" label="Attribution" hint="Where the data comes from and its licence; shown beside every estimate. Empty: taken from the file header (or the # lines of an hourly CSV)." error={errors.attribution?.message}>
           <textarea
             id="station-attribution"
             rows={2}
             className="field-input py-2"
             aria-invalid={errors.attribution ? true : undefined}
-            aria-describedby={errors.attribution ? "station-attribution-error" : "station-attribution-hint"}
+            aria-describedby={describedBy("station-attribution", errors.attribution?.message, true)}
             {...register("attribution")}
           />
-          <p id="station-attribution-hint" className="mt-1 text-sm text-graphite-soft">
-            Where the data comes from and its licence; shown beside every estimate. Empty: taken from the file header (or the # lines of an hourly CSV).
-          </p>
-          {errors.attribution ? (
-            <p id="station-attribution-error" className="field-error" role="alert">
-              {errors.attribution.message}
-            </p>
-          ) : null}
-        </div>
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>
-          {isSubmitting ? "Checking the file…" : "Check and add station"}
+        </FieldShell>
+        <button type="submit" className="btn-primary" disabled={upload.pending}>
+          {upload.pending ? "Checking the file…" : "Check and add station"}
         </button>
       </form>
     </section>
@@ -215,73 +177,64 @@ function UploadStationForm({ onAdded }: { onAdded: (text: string) => void }) {
 
 const SITES_SHOWN = 6;
 
-function StationsTable(props: {
-  stations: StationView[];
-  canManage: boolean;
-  seesAllSites: boolean;
-  onNotice: (n: { tone: "error" | "success"; text: string } | null) => void;
-}) {
-  const router = useRouter();
+function StationsTable(props: { stations: StationView[]; canManage: boolean; seesAllSites: boolean; onNotice: (n: Notice | null) => void }) {
   const [confirming, setConfirming] = useState<string | null>(null);
-  const [pending, startTransition] = useTransition();
-
-  function remove(s: StationView) {
-    props.onNotice(null);
-    startTransition(async () => {
-      const result = await deleteStationAction({ stationId: s.id });
-      setConfirming(null);
-      props.onNotice(result.ok ? { tone: "success", text: `${s.name} and its file are deleted.` } : { tone: "error", text: result.message });
-      if (result.ok) router.refresh();
-    });
-  }
+  const remove = useSave<StationView>({
+    request: (s) => ({ url: `/api/weather-stations/${s.id}`, method: "DELETE" }),
+    success: (_, s) => `${s.name} and its file are deleted.`,
+    notify: props.onNotice,
+    onSaved: () => setConfirming(null),
+  });
+  const pending = remove.pending;
 
   return (
-    <section aria-labelledby="stations-heading">
+    <section aria-labelledby="stations-heading" className="space-y-2">
       <h2 id="stations-heading" className="text-lg font-semibold">
         Stations
       </h2>
       {props.stations.length === 0 ? (
-        <p className="mt-1 text-graphite-soft">
+        <EmptyState>
           No weather stations yet. {props.canManage ? "Add a weather file above." : "Ask an admin to add a weather file."} Until then, production comes from a
           figure entered by hand.
-        </p>
+        </EmptyState>
       ) : (
-        <div className="mt-2 overflow-x-auto rounded-card border border-paper-line bg-white">
-          <table className="w-full min-w-[900px] text-left text-sm">
-            <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
-              <tr>
-                <th scope="col" className="px-3 py-2 font-semibold">Station</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Location</th>
-                <th scope="col" className="px-3 py-2 text-right font-semibold">Annual GHI</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Attribution</th>
-                <th scope="col" className="px-3 py-2 font-semibold">{props.seesAllSites ? "Sites using it" : "Your sites using it"}</th>
-                {props.canManage ? (
-                  <th scope="col" className="px-3 py-2">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                ) : null}
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-paper-line align-top">
+        <TableShell
+          minWidth={900}
+          alignTop
+          head={
+            <>
+              <Th>Station</Th>
+              <Th>Location</Th>
+              <Th numeric>Annual GHI</Th>
+              <Th>Attribution</Th>
+              <Th>{props.seesAllSites ? "Sites using it" : "Your sites using it"}</Th>
+              {props.canManage ? (
+                <Th>
+                  <span className="sr-only">Actions</span>
+                </Th>
+              ) : null}
+            </>
+          }
+        >
               {props.stations.map((s) => (
                 <tr key={s.id} data-testid={`station-${s.id}`}>
-                  <td className="px-3 py-2">
+                  <Td>
                     <span className="font-medium">{s.name}</span>
                     <span className="block text-xs text-graphite-soft">
                       {FORMAT_NAMES[s.format]} · {s.fileName} · added {formatDate(new Date(s.createdAt))}
                     </span>
-                  </td>
-                  <td className="figure whitespace-nowrap px-3 py-2 text-xs">
+                  </Td>
+                  <Td className="figure whitespace-nowrap text-xs">
                     {deg(s.latitude, "N", "S")}, {deg(s.longitude, "E", "W")}
                     <span className="block text-graphite-soft">
                       {kwh.format(s.elevationM)} m · {utc(s.utcOffsetHours)}
                     </span>
-                  </td>
-                  <td className="whitespace-nowrap px-3 py-2 text-right">
+                  </Td>
+                  <Td className="whitespace-nowrap text-right">
                     <span className="figure">{kwh.format(s.annualGhiKwhPerM2)}</span> <span className="text-xs text-graphite-soft">kWh/m²</span>
-                  </td>
-                  <td className="max-w-xs px-3 py-2 text-xs text-graphite-soft">{s.attribution}</td>
-                  <td className="px-3 py-2 text-xs">
+                  </Td>
+                  <Td className="max-w-xs text-xs text-graphite-soft">{s.attribution}</Td>
+                  <Td className="text-xs">
                     {s.sites.length === 0 ? (
                       <span className="text-graphite-soft">None</span>
                     ) : (
@@ -295,16 +248,16 @@ function StationsTable(props: {
                         {s.sites.length > SITES_SHOWN ? <li className="text-graphite-soft">and {s.sites.length - SITES_SHOWN} more</li> : null}
                       </ul>
                     )}
-                  </td>
+                  </Td>
                   {props.canManage ? (
-                    <td className="whitespace-nowrap px-3 py-2 text-right">
+                    <Td className="whitespace-nowrap text-right">
                       {s.designCount > 0 ? (
                         <span className="text-xs text-graphite-soft">
                           Used by <span className="figure">{s.designCount}</span> {s.designCount === 1 ? "design" : "designs"}
                         </span>
                       ) : confirming === s.id ? (
                         <span className="inline-flex gap-2">
-                          <button type="button" className="btn-danger" disabled={pending} onClick={() => remove(s)}>
+                          <button type="button" className="btn-danger" disabled={pending} onClick={() => remove.save(s)}>
                             {pending ? "Deleting…" : "Delete for good"}
                           </button>
                           <button type="button" className="btn-quiet" disabled={pending} onClick={() => setConfirming(null)}>
@@ -316,13 +269,11 @@ function StationsTable(props: {
                           Delete
                         </button>
                       )}
-                    </td>
+                    </Td>
                   ) : null}
                 </tr>
               ))}
-            </tbody>
-          </table>
-        </div>
+        </TableShell>
       )}
     </section>
   );
@@ -348,12 +299,9 @@ function NearestCheck({ maxDistanceKm }: { maxDistanceKm: number }) {
     setAnswer(null);
     const params = new URLSearchParams({ lat: String(values.lat), lon: String(values.lon) });
     try {
-      const res = await fetch(`/api/weather-stations/nearest?${params}`);
-      const json = (await res.json()) as ErrorBody & { data?: NearestAnswer };
-      if (!res.ok || !json.data) return setError(json.error?.message ?? `The lookup failed (HTTP ${res.status}).`);
-      setAnswer(json.data);
-    } catch {
-      setError("The lookup did not reach the server. Check the connection and try again.");
+      setAnswer(await api<NearestAnswer>(`/api/weather-stations/nearest?${params}`));
+    } catch (err) {
+      setError((err as Error).message);
     }
   });
 

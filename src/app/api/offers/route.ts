@@ -1,15 +1,11 @@
 import { NextResponse } from "next/server";
 import { createOfferSchema } from "@/lib/schemas/offer";
-import { notFound } from "@/server/errors";
+import { withDeal } from "@/server/deal-route";
 import { createOffer, listOffers } from "@/server/offers";
-import { idSchema, readJson, withMember } from "@/server/route";
+import { readJson, withMember } from "@/server/route";
 
 /** The deal's offers (?dealId=). */
-export const GET = withMember("deals:read-own", async ({ req, member }) => {
-  const dealId = req.nextUrl.searchParams.get("dealId") ?? "";
-  if (!idSchema.safeParse(dealId).success) throw notFound("Deal");
-  return NextResponse.json({ data: await listOffers(member, dealId) });
-});
+export const GET = withDeal("deals:read-own", async ({ scope }) => NextResponse.json({ data: await listOffers(scope) }), { from: "query" });
 
 /** A new offer (body: { dealId, inputs }); every figure is computed here, never taken from the browser. */
 export const POST = withMember("deals:write", async ({ req, member }) => {

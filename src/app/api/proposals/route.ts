@@ -1,15 +1,11 @@
 import { NextResponse } from "next/server";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
-import { notFound } from "@/server/errors";
+import { withDeal } from "@/server/deal-route";
 import { listProposalsForDeal, sendProposal } from "@/server/proposals";
-import { idSchema, readJson, withMember } from "@/server/route";
+import { readJson, withMember } from "@/server/route";
 
 /** Every version of a deal's proposal (?dealId=), newest first, with events. */
-export const GET = withMember("proposals:send", async ({ req, member }) => {
-  const dealId = req.nextUrl.searchParams.get("dealId") ?? "";
-  if (!idSchema.safeParse(dealId).success) throw notFound("Deal");
-  return NextResponse.json({ data: await listProposalsForDeal(member, dealId) });
-});
+export const GET = withDeal("proposals:send", async ({ scope }) => NextResponse.json({ data: await listProposalsForDeal(scope) }), { from: "query" });
 
 /**
  * Freezes the deal's offers into a new proposal version and e-mails its link (body:

@@ -1,27 +1,14 @@
 "use client";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { FormMessage } from "@/components/field";
-import { api } from "@/lib/api-client";
+import { StatusMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 
 /** "Cancel this agreement", with a second step so a stray tap cancels nothing. Shown only inside the window. */
 export function CancelForm({ token, deadlineText }: { token: string; deadlineText: string }) {
-  const router = useRouter();
   const [confirming, setConfirming] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  async function cancel() {
-    setBusy(true);
-    setError(null);
-    try {
-      await api(`/api/public/proposals/${token}/cancel`, { method: "POST" });
-      router.refresh();
-    } catch (err) {
-      setError(err instanceof Error ? err.message : "The cancellation could not be recorded.");
-      setBusy(false);
-    }
-  }
+  // On success the page shows the cancelled agreement (router.refresh).
+  const cancel = useSave<void>({ request: () => ({ url: `/api/public/proposals/${token}/cancel`, method: "POST" }) });
+  const busy = cancel.pending;
 
   if (!confirming) {
     return (
@@ -36,14 +23,14 @@ export function CancelForm({ token, deadlineText }: { token: string; deadlineTex
         This cancels the agreement you signed, without any penalty. Any deposit you paid is returned. You can do this until the end of {deadlineText}.
       </p>
       <div className="flex flex-col gap-2 sm:flex-row">
-        <button type="button" className="btn-danger flex-1" onClick={cancel} disabled={busy}>
+        <button type="button" className="btn-danger flex-1" onClick={() => cancel.save()} disabled={busy}>
           Yes, cancel the agreement
         </button>
         <button type="button" className="btn-quiet flex-1" onClick={() => setConfirming(false)} disabled={busy}>
           Keep the agreement
         </button>
       </div>
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <StatusMessage notice={cancel.notice} />
     </div>
   );
 }

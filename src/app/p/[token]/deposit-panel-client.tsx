@@ -1,6 +1,7 @@
 "use client";
-import { useCallback, useEffect, useState } from "react";
-import { FormMessage } from "@/components/field";
+import { useEffect, useState } from "react";
+import { FormMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import { api, ApiError } from "@/lib/api-client";
 import type { CustomerDeposit } from "@/server/payments";
 
@@ -62,22 +63,25 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
     };
   }, [pollForMs, url]);
 
-  const pay = useCallback(async () => {
-    setPaying(true);
-    setError(null);
-    try {
-      const { url: checkoutUrl } = await api<{ url: string }>(url, { method: "POST" });
+  // Success leaves for the provider's page; "already paid" or "confirming" means wait for the webhook instead.
+  const checkout = useSave<void, { url: string }>({
+    request: () => ({ url, method: "POST" }),
+    refresh: false,
+    notify: (n) => setError(n?.tone === "error" ? n.text : null),
+    onSaved: ({ url: checkoutUrl }) => {
+      setPaying(true);
       window.location.assign(checkoutUrl);
-    } catch (err) {
-      setPaying(false);
+    },
+    onError: (err) => {
       if (err instanceof ApiError && (err.code === "already_paid" || err.code === "payment_confirming")) {
+        setError(null);
         setReturned("returned");
         setGaveUp(false);
-        return;
       }
-      setError(err instanceof Error ? err.message : "The payment page could not be opened. Try again.");
-    }
-  }, [url]);
+    },
+  });
+  const pay = () => checkout.save();
+  const busy = paying || checkout.pending;
 
   return (
     <section aria-labelledby="deposit-heading" className="card p-4" data-testid="deposit-panel">
@@ -111,8 +115,8 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
               {companyName} asks for a deposit of <span className="figure text-xl font-semibold">{deposit.amountText}</span> to start the project. It counts toward the
               contract price.
             </p>
-            <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={!ready || paying} aria-busy={paying}>
-              {paying ? "Opening the payment page…" : deposit.status === "failed" ? `Try again: pay ${deposit.amountText}` : `Pay the deposit: ${deposit.amountText}`}
+            <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={!ready || busy} aria-busy={busy}>
+              {busy ? "Opening the payment page…" : deposit.status === "failed" ? `Try again: pay ${deposit.amountText}` : `Pay the deposit: ${deposit.amountText}`}
             </button>
             <p className="mt-2 text-xs text-graphite-soft">You pay by card on the payment provider&apos;s secure page and come back here afterwards.</p>
             {error ? (

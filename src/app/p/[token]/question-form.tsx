@@ -1,32 +1,33 @@
 "use client";
 import { useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
+import { FormMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
+import { ApiError } from "@/lib/api-client";
 
 /** Ask the rep a question; it is kept with the proposal and e-mailed to them. */
 export function QuestionForm({ token, repName }: { token: string; repName: string }) {
   const [question, setQuestion] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [sent, setSent] = useState(false);
-  const [busy, setBusy] = useState(false);
+  // The refusal belongs to the one field (its own message, or the request's).
+  const ask = useSave<string>({
+    request: (text) => ({ url: `/api/public/proposals/${token}/question`, method: "POST", json: { question: text } }),
+    refresh: false,
+    onError: (err) => setError(err instanceof ApiError && err.fields?.question ? err.fields.question[0] : err.message),
+    onSaved: () => {
+      setSent(true);
+      setQuestion("");
+    },
+  });
 
-  async function submit(e: FormEvent) {
+  function submit(e: FormEvent) {
     e.preventDefault();
+    setError(null);
     if (question.trim().length < 3) {
       setError("Write your question");
       return;
     }
-    setBusy(true);
-    setError(null);
-    try {
-      await api(`/api/public/proposals/${token}/question`, { method: "POST", json: { question: question.trim() } });
-      setSent(true);
-      setQuestion("");
-    } catch (err) {
-      setError(err instanceof ApiError && err.fields?.question ? err.fields.question[0] : err instanceof Error ? err.message : "The question could not be sent.");
-    } finally {
-      setBusy(false);
-    }
+    ask.save(question.trim());
   }
 
   return (
@@ -57,7 +58,7 @@ export function QuestionForm({ token, repName }: { token: string; repName: strin
             </p>
           ) : null}
         </div>
-        <button type="submit" className="btn-quiet w-full" disabled={busy}>
+        <button type="submit" className="btn-quiet w-full" disabled={ask.pending}>
           Send question
         </button>
         {sent ? <FormMessage tone="success">Sent. {repName} answers by e-mail.</FormMessage> : null}

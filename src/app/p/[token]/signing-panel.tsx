@@ -2,11 +2,12 @@
 // Signing on the customer's phone: confirm the e-mail with a one-time code, read and accept the
 // electronic-records disclosure, type the name, draw the signature (signature_pad, pointer
 // events), sign. The server checks everything again; this screen only guides.
-import { useRouter } from "next/navigation";
 import { useEffect, useRef, useState, type FormEvent } from "react";
 import type SignaturePad from "signature_pad";
-import { FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
+import { Field, StatusMessage, type Notice } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
+import { ApiError } from "@/lib/api-client";
+import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { formatCents } from "@/lib/format";
 
 type Chosen = { position: number; name: string; contractCents: number };
@@ -20,47 +21,45 @@ export function SigningPanel({ token, label, companyName, repName, repEmail, cho
   const [sentTo, setSentTo] = useState<string | null>(null);
   const [code, setCode] = useState("");
   const [codeError, setCodeError] = useState<string | null>(null);
-  const [message, setMessage] = useState<{ tone: "error" | "success" | "info"; text: string } | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  async function requestCode() {
-    setBusy(true);
-    setMessage(null);
-    setCodeError(null);
-    try {
-      const r = await api<{ sentTo: string; expiresAt: string }>(`${base}/code`, { method: "POST" });
+  const [message, setMessage] = useState<Notice | null>(null);
+  // The page is this panel's state until the signature: no refresh between the steps.
+  const sendCode = useSave<void, { sentTo: string; expiresAt: string }>({
+    request: () => ({ url: `${base}/code`, method: "POST" }),
+    refresh: false,
+    notify: (n) => {
+      setMessage(n);
+      if (!n) setCodeError(null);
+    },
+    success: (r) => `We e-mailed a 6-digit code to ${r.sentTo}. It works for 10 minutes.`,
+    onSaved: (r) => {
       setSentTo(r.sentTo);
       setCode("");
       setStep("code");
-      setMessage({ tone: "success", text: `We e-mailed a 6-digit code to ${r.sentTo}. It works for 10 minutes.` });
-    } catch (err) {
-      setMessage({ tone: "error", text: err instanceof Error ? err.message : "The code could not be sent." });
-    } finally {
-      setBusy(false);
-    }
-  }
+    },
+  });
+  // A wrong code belongs to the field; a used-up, expired or missing one to the panel.
+  const checkCode = useSave<string>({
+    request: (value) => ({ url: `${base}/verify-code`, method: "POST", json: { code: value } }),
+    refresh: false,
+    notify: (n) => n?.tone !== "error" && setMessage(n),
+    success: "E-mail confirmed. You have 30 minutes to sign.",
+    onSaved: () => setStep("sign"),
+    onError: (err) => {
+      if (err instanceof ApiError && ["code_locked", "code_expired", "no_code"].includes(err.code)) setMessage({ tone: "error", text: err.message });
+      else setCodeError(err.message);
+    },
+  });
+  const busy = sendCode.pending || checkCode.pending;
+  const requestCode = () => sendCode.save();
 
-  async function verify(e: FormEvent) {
+  function verify(e: FormEvent) {
     e.preventDefault();
     if (!/^\d{6}$/.test(code.trim())) {
       setCodeError("Enter the 6 digits from the e-mail");
       return;
     }
-    setBusy(true);
     setCodeError(null);
-    setMessage(null);
-    try {
-      await api(`${base}/verify-code`, { method: "POST", json: { code: code.trim() } });
-      setStep("sign");
-      setMessage({ tone: "success", text: "E-mail confirmed. You have 30 minutes to sign." });
-    } catch (err) {
-      const text = err instanceof Error ? err.message : "The code could not be checked.";
-      if (err instanceof ApiError && (err.code === "code_locked" || err.code === "code_expired" || err.code === "no_code")) {
-        setMessage({ tone: "error", text });
-      } else setCodeError(text);
-    } finally {
-      setBusy(false);
-    }
+    checkCode.save(code.trim());
   }
 
   return (
@@ -84,27 +83,17 @@ export function SigningPanel({ token, label, companyName, repName, repEmail, cho
 
       {step === "code" ? (
         <form className="mt-4 space-y-3" onSubmit={verify} noValidate>
-          <div>
-            <label htmlFor="signing-code" className="field-label">
-              6-digit code
-            </label>
-            <input
-              id="signing-code"
-              className="field-input figure tracking-[0.3em]"
-              inputMode="numeric"
-              autoComplete="one-time-code"
-              maxLength={6}
-              value={code}
-              onChange={(e) => setCode(e.target.value.replace(/\D/g, "").slice(0, 6))}
-              aria-invalid={codeError ? true : undefined}
-              aria-describedby={codeError ? "signing-code-error" : undefined}
-            />
-            {codeError ? (
-              <p id="signing-code-error" className="field-error" role="alert">
-                {codeError}
-              </p>
-            ) : null}
-          </div>
+          <Field
+            id="signing-code"
+            label="6-digit code"
+            inputClassName="figure tracking-[0.3em]"
+            inputMode="numeric"
+            autoComplete="one-time-code"
+            maxLength={6}
+            value={code}
+            error={codeError ?? undefined}
+            onChange={(e) => setCode(e.target.value.replace(/\D/g, "").slice(0, 6))}
+          />
           <div className="flex flex-col gap-2 sm:flex-row">
             <button type="submit" className="btn-primary flex-1" disabled={busy}>
               Confirm code
@@ -119,7 +108,7 @@ export function SigningPanel({ token, label, companyName, repName, repEmail, cho
 
       {message ? (
         <div className="mt-3">
-          <FormMessage tone={message.tone}>{message.text}</FormMessage>
+          <StatusMessage notice={message} />
         </div>
       ) : null}
 
@@ -186,15 +175,19 @@ function SignForm({
   chosen: Chosen;
   onNeedCode: (message: string) => void;
 }) {
-  const router = useRouter();
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const padRef = useRef<SignaturePad | null>(null);
   const [empty, setEmpty] = useState(true);
   const [consent, setConsent] = useState(false);
   const [name, setName] = useState("");
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const signing = useSave<{ position: number; signerName: string; consent: true; signaturePng: string }>({
+    request: (json) => ({ url: `${base}/sign`, method: "POST", json }),
+    onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
+    onError: (err) => {
+      if (err instanceof ApiError && err.code === "code_required") onNeedCode(err.message);
+    },
+  });
 
   useEffect(() => {
     let pad: SignaturePad | null = null;
@@ -231,7 +224,7 @@ function SignForm({
     setEmpty(true);
   }
 
-  async function sign(e: FormEvent) {
+  function sign(e: FormEvent) {
     e.preventDefault();
     const found: Record<string, string> = {};
     if (!consent) found.consent = "Agree to sign electronically to continue";
@@ -239,23 +232,8 @@ function SignForm({
     const pad = padRef.current;
     if (!pad || pad.isEmpty()) found.signaturePng = "Draw your signature in the box";
     setErrors(found);
-    setFormError(null);
     if (Object.keys(found).length > 0 || !pad) return;
-    setBusy(true);
-    try {
-      await api(`${base}/sign`, {
-        method: "POST",
-        json: { position: chosen.position, signerName: name.trim(), consent: true, signaturePng: pad.toDataURL("image/png") },
-      });
-      router.refresh();
-    } catch (err) {
-      setBusy(false);
-      if (err instanceof ApiError && err.code === "code_required") return onNeedCode(err.message);
-      if (err instanceof ApiError && err.fields) {
-        setErrors(Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k, v[0] ?? err.message])));
-      }
-      setFormError(err instanceof Error ? err.message : "The signature could not be saved.");
-    }
+    signing.save({ position: chosen.position, signerName: name.trim(), consent: true, signaturePng: pad.toDataURL("image/png") });
   }
 
   return (
@@ -279,25 +257,7 @@ function SignForm({
           </p>
         ) : null}
       </div>
-      <div>
-        <label htmlFor="signer-name" className="field-label">
-          Your full name
-        </label>
-        <input
-          id="signer-name"
-          className="field-input"
-          autoComplete="name"
-          value={name}
-          onChange={(e) => setName(e.target.value)}
-          aria-invalid={errors.signerName ? true : undefined}
-          aria-describedby={errors.signerName ? "signer-name-error" : undefined}
-        />
-        {errors.signerName ? (
-          <p id="signer-name-error" className="field-error" role="alert">
-            {errors.signerName}
-          </p>
-        ) : null}
-      </div>
+      <Field id="signer-name" label="Your full name" autoComplete="name" value={name} error={errors.signerName} onChange={(e) => setName(e.target.value)} />
       <div>
         <p id="signature-label" className="field-label">
           Your signature
@@ -328,9 +288,9 @@ function SignForm({
         By pressing <strong>Sign</strong> you sign proposal {label} for &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>, and you
         intend your typed name and drawn signature to be your signature.
       </p>
-      {formError ? <FormMessage tone="error">{formError}</FormMessage> : null}
-      <button type="submit" className="btn-primary w-full" disabled={busy}>
-        {busy ? "Signing…" : "Sign"}
+      <StatusMessage notice={signing.notice} />
+      <button type="submit" className="btn-primary w-full" disabled={signing.pending}>
+        {signing.pending ? "Signing…" : "Sign"}
       </button>
     </form>
   );

@@ -1,8 +1,7 @@
 import type { Metadata } from "next";
-import Link from "next/link";
-import { FormMessage } from "@/components/field";
 import { ROLE_LABELS } from "@/lib/permissions";
 import { findOpenInvitation } from "@/server/people";
+import { ClosedLink } from "../../auth-page";
 import { AcceptInvitationForm } from "./accept-invitation-form";
 
 export const metadata: Metadata = { title: "Join your company" };
@@ -18,17 +17,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
   const { token } = await params;
   const found = await findOpenInvitation(token);
   if (found.state !== "open") {
-    return (
-      <>
-        <h1 className="text-xl font-semibold">Invitation</h1>
-        <div className="mt-4">
-          <FormMessage tone="error">{CLOSED[found.state]}</FormMessage>
-        </div>
-        <Link href="/sign-in" className="btn-quiet mt-6">
-          Go to sign in
-        </Link>
-      </>
-    );
+    return <ClosedLink title="Invitation" message={CLOSED[found.state]} href="/sign-in" action="Go to sign in" />;
   }
   const inv = found.invitation;
   return (

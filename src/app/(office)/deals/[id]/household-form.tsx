@@ -1,41 +1,26 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { FormMessage } from "@/components/field";
-import { applyFieldErrors } from "@/lib/form-errors";
+import { StatusMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import { householdSchema, type HouseholdInput } from "@/lib/schemas/deal";
-import { updateHouseholdAction } from "../actions";
 import { HouseholdFields } from "../household-fields";
 
 export function HouseholdForm({ dealId, defaults, readOnly }: { dealId: string; defaults: HouseholdInput; readOnly: boolean }) {
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const {
-    register,
-    handleSubmit,
-    setError,
-    formState: { errors, isSubmitting, isDirty },
-    reset,
-  } = useForm<HouseholdInput>({ resolver: zodResolver(householdSchema), defaultValues: defaults });
-
-  const onSubmit = handleSubmit(async (values) => {
-    setNotice(null);
-    const result = await updateHouseholdAction({ dealId, household: values });
-    if (!result.ok) {
-      const mapped: Record<string, string[]> = {};
-      for (const [k, v] of Object.entries(result.fieldErrors ?? {})) mapped[k.replace(/^household\./, "")] = v;
-      if (!applyFieldErrors(mapped, setError)) setNotice({ tone: "error", text: result.message });
-      return;
-    }
-    reset(values);
-    setNotice({ tone: "success", text: "Saved." });
+  const form = useForm<HouseholdInput>({ resolver: zodResolver(householdSchema), defaultValues: defaults });
+  const save = useSave<HouseholdInput, { dealId: string }, HouseholdInput>({
+    request: (json) => ({ url: `/api/deals/${dealId}/household`, method: "PUT", json }),
+    setError: form.setError,
+    success: "Saved.",
+    onSaved: (_data, values) => form.reset(values),
   });
+  const { isSubmitting, isDirty } = form.formState;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-6 p-5">
-      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+    <form onSubmit={form.handleSubmit(save.saveAndWait)} noValidate className="card space-y-6 p-5">
+      <StatusMessage notice={save.notice} />
       <fieldset disabled={readOnly} className="space-y-6">
-        <HouseholdFields register={register} errors={errors} />
+        <HouseholdFields register={form.register} errors={form.formState.errors} />
       </fieldset>
       {readOnly ? null : (
         <button type="submit" className="btn-primary" disabled={isSubmitting || !isDirty}>

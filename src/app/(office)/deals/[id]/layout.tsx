@@ -2,22 +2,13 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import type { ReactNode } from "react";
 import { DEAL_TABS } from "@/lib/deal-tabs";
-import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
-import { HttpError } from "@/server/errors";
-import { getDealRoom } from "@/server/deals";
-import { getMember } from "@/server/session";
-import { idSchema } from "@/server/route";
+import { dealPageScope } from "./deal-page";
 import { DealTabs } from "./deal-tabs";
 
 export default async function DealRoomLayout({ children, params }: { children: ReactNode; params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member || !can(member.role, "deals:read-own") || !idSchema.safeParse(id).success) notFound();
-  const room = await getDealRoom(member, id).catch((err: unknown) => {
-    if (err instanceof HttpError && err.status === 404) notFound();
-    throw err;
-  });
+  const room = await dealPageScope(params);
+  if (!room) notFound();
   const { deal, household } = room;
   return (
     <div>

@@ -1,40 +1,31 @@
 import type { Metadata } from "next";
-import { can } from "@/lib/permissions";
-import { getDealRoom, listRatePlanOptions } from "@/server/deals";
-import { getMember } from "@/server/session";
+import { listRatePlanOptions } from "@/server/deals";
 import { listSitePhotos } from "@/server/site-photos";
+import { dealPageScope } from "./deal-page";
 import { HouseholdForm } from "./household-form";
 import { SitePhotos } from "./site-photos";
 import { UtilityForm } from "./utility-form";
 
 export const metadata: Metadata = { title: "Household" };
 
+const CONTACT_FIELDS = ["contactName", "email", "phone", "secondContactName", "secondContactEmail", "secondContactPhone"] as const;
+
 export default async function HouseholdTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  const [{ household, deal }, plans, sitePhotos] = await Promise.all([getDealRoom(member, id), listRatePlanOptions(member), listSitePhotos(member, id)]);
-  const readOnly = !can(member.role, "deals:write");
+  const scope = await dealPageScope(params);
+  if (!scope) return null;
+  const { dealId: id, household, deal, rights } = scope;
+  const [plans, sitePhotos] = await Promise.all([listRatePlanOptions(scope.member), listSitePhotos(scope.member, id)]);
+  const readOnly = !rights.edit;
+  const { name, street, city, region, postalCode, latitude, longitude } = household;
+  const site = { name, street, city, region, postalCode, latitude, longitude };
+  // The form's text fields take "" for a contact detail not given.
+  const contacts = Object.fromEntries(CONTACT_FIELDS.map((k) => [k, household[k] ?? ""])) as Record<(typeof CONTACT_FIELDS)[number], string>;
   return (
     <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
       <HouseholdForm
         dealId={id}
         readOnly={readOnly}
-        defaults={{
-          name: household.name,
-          contactName: household.contactName ?? "",
-          email: household.email ?? "",
-          phone: household.phone ?? "",
-          secondContactName: household.secondContactName ?? "",
-          secondContactEmail: household.secondContactEmail ?? "",
-          secondContactPhone: household.secondContactPhone ?? "",
-          street: household.street,
-          city: household.city,
-          region: household.region,
-          postalCode: household.postalCode,
-          latitude: household.latitude,
-          longitude: household.longitude,
-        }}
+        defaults={{ ...site, ...contacts }}
       />
       <aside className="card h-fit p-5 text-sm">
         <h2 className="font-semibold">Deal</h2>

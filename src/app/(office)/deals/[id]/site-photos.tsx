@@ -1,8 +1,8 @@
 "use client";
 import { useState } from "react";
 import { CameraInput } from "@/components/camera-input";
-import { FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
+import { StatusMessage, type Notice } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 
 export type SitePhotoThumb = { id: string; fileName: string; uploadedByName: string | null };
 
@@ -13,39 +13,28 @@ export type SitePhotoThumb = { id: string; fileName: string; uploadedByName: str
  */
 export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; canEdit: boolean }) {
   const [photos, setPhotos] = useState(props.photos);
-  const [busy, setBusy] = useState(false);
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
+  const [notice, setNotice] = useState<Notice | null>(null);
   const fileUrl = (id: string) => `/api/deals/${props.dealId}/site-photos/${id}`;
-
-  async function add(file: File) {
-    setBusy(true);
-    setNotice(null);
-    const form = new FormData();
-    form.set("file", file);
-    try {
-      const photo = await api<SitePhotoThumb>(`/api/deals/${props.dealId}/site-photos`, { method: "POST", body: form });
-      setPhotos((list) => [photo, ...list]);
-      setNotice({ tone: "success", text: `Site photo saved as “${photo.fileName}”. The install crew will see it in the job packet.` });
-    } catch (err) {
-      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "The photo was not saved. Try again." });
-    } finally {
-      setBusy(false);
-    }
-  }
-
-  async function remove(photo: SitePhotoThumb) {
-    setBusy(true);
-    setNotice(null);
-    try {
-      await api<null>(fileUrl(photo.id), { method: "DELETE" });
-      setPhotos((list) => list.filter((p) => p.id !== photo.id));
-      setNotice({ tone: "success", text: `Removed “${photo.fileName}”.` });
-    } catch (err) {
-      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "Not removed. Try again." });
-    } finally {
-      setBusy(false);
-    }
-  }
+  // The list is this component's own state: a save updates it, no page refresh.
+  const add = useSave<File, SitePhotoThumb>({
+    request: (file) => {
+      const body = new FormData();
+      body.set("file", file);
+      return { url: `/api/deals/${props.dealId}/site-photos`, method: "POST", body };
+    },
+    notify: setNotice,
+    refresh: false,
+    success: (photo) => `Site photo saved as “${photo.fileName}”. The install crew will see it in the job packet.`,
+    onSaved: (photo) => setPhotos((list) => [photo, ...list]),
+  });
+  const remove = useSave<SitePhotoThumb>({
+    request: (photo) => ({ url: fileUrl(photo.id), method: "DELETE" }),
+    notify: setNotice,
+    refresh: false,
+    success: (_data, photo) => `Removed “${photo.fileName}”.`,
+    onSaved: (_data, photo) => setPhotos((list) => list.filter((p) => p.id !== photo.id)),
+  });
+  const busy = add.pending || remove.pending;
 
   return (
     <section className="card p-5 lg:col-span-2" aria-labelledby="site-photos-heading">
@@ -54,7 +43,7 @@ export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; ca
       </h2>
       <p className="mt-1 text-sm text-graphite-soft">The roof, the electrical panel and the meter, as you saw them. The install crew sees these in the job packet.</p>
       <div aria-live="polite" className="mt-2">
-        {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+        <StatusMessage notice={notice} />
       </div>
       {photos.length === 0 ? <p className="mt-2 text-sm text-graphite-soft">No site photos yet.</p> : null}
       <ul className="mt-3 grid grid-cols-2 gap-3 sm:grid-cols-4" data-testid="site-photos">
@@ -68,7 +57,7 @@ export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; ca
                 {p.fileName}
               </span>
               {props.canEdit ? (
-                <button type="button" className="text-danger underline" disabled={busy} onClick={() => void remove(p)} aria-label={`Remove site photo ${p.fileName}`}>
+                <button type="button" className="text-danger underline" disabled={busy} onClick={() => remove.save(p)} aria-label={`Remove site photo ${p.fileName}`}>
                   Remove
                 </button>
               ) : null}
@@ -78,7 +67,7 @@ export function SitePhotos(props: { dealId: string; photos: SitePhotoThumb[]; ca
       </ul>
       {props.canEdit ? (
         <div className="mt-3">
-          <CameraInput id="site-photo-input" label="Take or add a site photo" busyLabel="Saving…" busy={busy} buttonClass="btn-quiet" onPhoto={(file) => void add(file)} />
+          <CameraInput id="site-photo-input" label="Take or add a site photo" busyLabel="Saving…" busy={busy} buttonClass="btn-quiet" onPhoto={add.save} />
           <span className="ml-2 text-xs text-graphite-soft">JPEG, PNG or WebP; kept at up to 2048 px, location data removed.</span>
         </div>
       ) : null}

@@ -1,56 +1,45 @@
 "use client";
-import { useRouter } from "next/navigation";
-import { useState, useTransition } from "react";
-import { FormMessage } from "@/components/field";
-import { updateDealUtilityAction } from "../actions";
+import { useState } from "react";
+import { Field, SelectField, StatusMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
+import { ratePlanOptions, type RatePlanOption } from "../household-fields";
 
-type Plan = { id: string; name: string; utilityName: string };
+type Utility = { utilityName: string; ratePlanId: string };
 
 /** The deal's utility and rate plan: the plan prices every bill before and after solar. */
-export function UtilityForm(props: { dealId: string; utilityName: string; ratePlanId: string; plans: Plan[]; readOnly: boolean }) {
-  const router = useRouter();
-  const [utilityName, setUtilityName] = useState(props.utilityName);
-  const [ratePlanId, setRatePlanId] = useState(props.ratePlanId);
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const [pending, start] = useTransition();
+export function UtilityForm(props: Utility & { dealId: string; plans: RatePlanOption[]; readOnly: boolean }) {
+  const [utility, setUtility] = useState<Utility>({ utilityName: props.utilityName, ratePlanId: props.ratePlanId });
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const save = useSave<Utility>({
+    request: (json) => ({ url: `/api/deals/${props.dealId}/utility`, method: "PUT", json }),
+    success: "Saved.",
+    onFieldErrors: setErrors,
+    onSaved: () => setErrors({}),
+  });
 
   return (
     <form
       className="mt-4 space-y-3"
       onSubmit={(e) => {
         e.preventDefault();
-        start(async () => {
-          const result = await updateDealUtilityAction({ dealId: props.dealId, utility: { utilityName, ratePlanId } });
-          setNotice(result.ok ? { tone: "success", text: "Saved." } : { tone: "error", text: result.message });
-          if (result.ok) router.refresh();
-        });
+        save.save(utility);
       }}
     >
-      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
-      <fieldset disabled={props.readOnly || pending} className="space-y-3">
-        <div>
-          <label htmlFor="deal-utility" className="field-label">
-            Utility
-          </label>
-          <input id="deal-utility" className="field-input" value={utilityName} onChange={(e) => setUtilityName(e.target.value)} />
-        </div>
-        <div>
-          <label htmlFor="deal-rate-plan" className="field-label">
-            Rate plan
-          </label>
-          <select id="deal-rate-plan" className="field-input" value={ratePlanId} onChange={(e) => setRatePlanId(e.target.value)}>
-            <option value="">Not known yet</option>
-            {props.plans.map((p) => (
-              <option key={p.id} value={p.id}>
-                {p.utilityName} — {p.name}
-              </option>
-            ))}
-          </select>
-        </div>
+      <StatusMessage notice={save.notice} />
+      <fieldset disabled={props.readOnly || save.pending} className="space-y-3">
+        <Field id="deal-utility" label="Utility" error={errors.utilityName?.[0]} value={utility.utilityName} onChange={(e) => setUtility({ ...utility, utilityName: e.target.value })} />
+        <SelectField
+          id="deal-rate-plan"
+          label="Rate plan"
+          error={errors.ratePlanId?.[0]}
+          options={ratePlanOptions(props.plans)}
+          value={utility.ratePlanId}
+          onChange={(e) => setUtility({ ...utility, ratePlanId: e.target.value })}
+        />
       </fieldset>
       {props.readOnly ? null : (
-        <button type="submit" className="btn-quiet" disabled={pending}>
-          {pending ? "Saving…" : "Save utility and plan"}
+        <button type="submit" className="btn-quiet" disabled={save.pending}>
+          {save.pending ? "Saving…" : "Save utility and plan"}
         </button>
       )}
     </form>

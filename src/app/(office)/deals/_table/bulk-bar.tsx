@@ -1,8 +1,8 @@
 "use client";
-import { useMutation } from "@tanstack/react-query";
 import { useId, useState, type FormEvent } from "react";
+import { Field, optionsOf, SelectField } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import type { Stage } from "@/lib/enums";
-import { api, ApiError } from "@/lib/api-client";
 import { BULK_MAX_DEALS, type BulkAnswer, type DealBulkInput } from "@/lib/schemas/deal-table";
 import { PIPELINE, SIDE_STAGES } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
@@ -10,6 +10,7 @@ import { STAGE_LABELS } from "@/lib/stages";
 /** Stages that happen by themselves (e-sign, Stripe, the customer's cancellation) are not offered. */
 const AUTOMATIC: readonly Stage[] = ["signed", "deposit_paid", "cancelled"];
 const TARGETS = [...PIPELINE, ...SIDE_STAGES].filter((s) => !AUTOMATIC.includes(s));
+const PICK = { value: "", label: "Pick…" };
 
 type Mode = "move" | "reassign" | null;
 
@@ -41,15 +42,17 @@ export function BulkBar({
   const count = selectedIds.length;
   const tooMany = count > BULK_MAX_DEALS;
 
-  const run = useMutation({
-    mutationFn: (input: DealBulkInput) => api<BulkAnswer>("/api/deals/bulk", { method: "POST", json: input }),
-    onSuccess: (result, input) => {
+  // The table reads through useQuery: onDone invalidates it (no page refresh).
+  const run = useSave<DealBulkInput, BulkAnswer>({
+    request: (json) => ({ url: "/api/deals/bulk", method: "POST", json }),
+    refresh: false,
+    notify: (n) => setError(n?.tone === "error" ? n.text : null),
+    onSaved: (result, input) => {
       setAnswer({ ...result, kind: input.action.kind });
       setMode(null);
       setReason("");
       onDone(result);
     },
-    onError: (err) => setError(err instanceof ApiError ? err.message : "The server did not answer. Nothing was changed; try again."),
   });
 
   function submit(e: FormEvent) {
@@ -58,10 +61,10 @@ export function BulkBar({
     setAnswer(null);
     if (mode === "move") {
       if (!stage) return setError("Pick the stage to move the deals to.");
-      run.mutate({ dealIds: selectedIds, action: { kind: "move", to: stage, reason: reason.trim() || null } });
+      run.save({ dealIds: selectedIds, action: { kind: "move", to: stage, reason: reason.trim() || null } });
     } else if (mode === "reassign") {
       if (!ownerId) return setError("Pick the rep who takes the deals over.");
-      run.mutate({ dealIds: selectedIds, action: { kind: "reassign", ownerUserId: ownerId } });
+      run.save({ dealIds: selectedIds, action: { kind: "reassign", ownerUserId: ownerId } });
     }
   }
 
@@ -99,43 +102,21 @@ export function BulkBar({
             <form onSubmit={submit} className="flex flex-1 flex-wrap items-end gap-3" aria-label={mode === "move" ? "Move the selected deals" : "Reassign the selected deals"}>
               {mode === "move" ? (
                 <>
-                  <div>
-                    <label htmlFor={`${ids}-to`} className="field-label">
-                      Move the selected deals to
-                    </label>
-                    <select id={`${ids}-to`} className="field-input" value={stage} onChange={(e) => setStage(e.target.value as Stage | "")}>
-                      <option value="">Pick…</option>
-                      {TARGETS.map((s) => (
-                        <option key={s} value={s}>
-                          {STAGE_LABELS[s]}
-                        </option>
-                      ))}
-                    </select>
-                  </div>
-                  <div className="min-w-64 flex-1">
-                    <label htmlFor={`${ids}-reason`} className="field-label">
-                      Reason (for the Timeline; needed for Lost, On hold, moving back, and booking an install without a permit date)
-                    </label>
-                    <input id={`${ids}-reason`} className="field-input" value={reason} maxLength={300} onChange={(e) => setReason(e.target.value)} />
-                  </div>
+                  <SelectField id={`${ids}-to`} label="Move the selected deals to" value={stage} onChange={(e) => setStage(e.target.value as Stage | "")} options={[PICK, ...optionsOf(TARGETS, STAGE_LABELS)]} />
+                  <Field
+                    id={`${ids}-reason`}
+                    className="min-w-64 flex-1"
+                    label="Reason (for the Timeline; needed for Lost, On hold, moving back, and booking an install without a permit date)"
+                    value={reason}
+                    maxLength={300}
+                    onChange={(e) => setReason(e.target.value)}
+                  />
                 </>
               ) : (
-                <div>
-                  <label htmlFor={`${ids}-rep`} className="field-label">
-                    Reassign to
-                  </label>
-                  <select id={`${ids}-rep`} className="field-input" value={ownerId} onChange={(e) => setOwnerId(e.target.value)}>
-                    <option value="">Pick…</option>
-                    {owners.map((o) => (
-                      <option key={o.id} value={o.id}>
-                        {o.name}
-                      </option>
-                    ))}
-                  </select>
-                </div>
+                <SelectField id={`${ids}-rep`} label="Reassign to" value={ownerId} onChange={(e) => setOwnerId(e.target.value)} options={[PICK, ...owners.map((o) => ({ value: o.id, label: o.name }))]} />
               )}
-              <button type="submit" className="btn-primary" disabled={run.isPending || tooMany}>
-                {run.isPending ? "Working…" : `${mode === "move" ? "Move" : "Reassign"} ${plural(count)}`}
+              <button type="submit" className="btn-primary" disabled={run.pending || tooMany}>
+                {run.pending ? "Working…" : `${mode === "move" ? "Move" : "Reassign"} ${plural(count)}`}
               </button>
               <button
                 type="button"

@@ -16,6 +16,7 @@ import {
   type SavedViewQuery,
 } from "@/lib/schemas/deal-table";
 import { STAGE_LABELS } from "@/lib/stages";
+import { Field, optionsOf, SelectField } from "@/components/ui/field";
 import { BulkBar } from "./bulk-bar";
 import { allColumns, Checkbox, features, repColumns } from "./columns";
 import { SavedViewsMenu } from "./saved-views-menu";
@@ -230,59 +231,13 @@ export function DealsTable({
       </form>
 
       <div className="mt-3 flex flex-wrap items-end gap-3">
-        <div>
-          <label htmlFor={`${ids}-stage`} className="field-label">
-            Stage
-          </label>
-          <select id={`${ids}-stage`} className="field-input" value={view.stage} onChange={(e) => setFilter("stage", e.target.value)}>
-            <option value="">All stages</option>
-            {STAGES.map((s) => (
-              <option key={s} value={s}>
-                {STAGE_LABELS[s]}
-              </option>
-            ))}
-          </select>
-        </div>
+        <SelectField id={`${ids}-stage`} label="Stage" value={view.stage} onChange={(e) => setFilter("stage", e.target.value)} options={[{ value: "", label: "All stages" }, ...optionsOf(STAGES, STAGE_LABELS)]} />
         {showOwner ? (
-          <div>
-            <label htmlFor={`${ids}-owner`} className="field-label">
-              Owner
-            </label>
-            <select id={`${ids}-owner`} className="field-input" value={view.owner} onChange={(e) => setFilter("owner", e.target.value)}>
-              <option value="">Everyone</option>
-              {owners.map((o) => (
-                <option key={o.id} value={o.id}>
-                  {o.name}
-                </option>
-              ))}
-            </select>
-          </div>
+          <SelectField id={`${ids}-owner`} label="Owner" value={view.owner} onChange={(e) => setFilter("owner", e.target.value)} options={[{ value: "", label: "Everyone" }, ...owners.map((o) => ({ value: o.id, label: o.name }))]} />
         ) : null}
-        <div>
-          <label htmlFor={`${ids}-source`} className="field-label">
-            Source
-          </label>
-          <select id={`${ids}-source`} className="field-input" value={view.source} onChange={(e) => setFilter("source", e.target.value)}>
-            <option value="">Any source</option>
-            {sources.map((s) => (
-              <option key={s} value={s}>
-                {s}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label htmlFor={`${ids}-from`} className="field-label">
-            Created from
-          </label>
-          <input id={`${ids}-from`} type="date" className="field-input" value={view.from} max={view.to || undefined} onChange={(e) => setFilter("from", e.target.value)} />
-        </div>
-        <div>
-          <label htmlFor={`${ids}-to`} className="field-label">
-            Created to
-          </label>
-          <input id={`${ids}-to`} type="date" className="field-input" value={view.to} min={view.from || undefined} onChange={(e) => setFilter("to", e.target.value)} />
-        </div>
+        <SelectField id={`${ids}-source`} label="Source" value={view.source} onChange={(e) => setFilter("source", e.target.value)} options={[{ value: "", label: "Any source" }, ...sources.map((s) => ({ value: s, label: s }))]} />
+        <Field id={`${ids}-from`} label="Created from" type="date" value={view.from} max={view.to || undefined} onChange={(e) => setFilter("from", e.target.value)} />
+        <Field id={`${ids}-to`} label="Created to" type="date" value={view.to} min={view.from || undefined} onChange={(e) => setFilter("to", e.target.value)} />
         {filtered ? (
           <button
             type="button"

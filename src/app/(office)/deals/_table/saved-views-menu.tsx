@@ -1,7 +1,9 @@
 "use client";
-import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useQuery } from "@tanstack/react-query";
 import { useId, useState, type FormEvent } from "react";
-import { api, ApiError } from "@/lib/api-client";
+import { Field, StatusMessage, type Notice } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
+import { api } from "@/lib/api-client";
 import type { SavedView, SavedViewQuery } from "@/lib/schemas/deal-table";
 
 const VIEWS_KEY = ["saved-views"] as const;
@@ -34,45 +36,40 @@ export function SavedViewsMenu({
   onActiveChange: (id: string | null) => void;
 }) {
   const ids = useId();
-  const client = useQueryClient();
   const views = useQuery({ queryKey: VIEWS_KEY, queryFn: () => api<SavedView[]>("/api/saved-views") });
   const [naming, setNaming] = useState(false);
   const [name, setName] = useState("");
   const [confirmDelete, setConfirmDelete] = useState<string | null>(null);
-  const [message, setMessage] = useState<{ tone: "error" | "success"; text: string } | null>(null);
+  const [message, setMessage] = useState<Notice | null>(null);
 
   const active = views.data?.find((v) => v.id === activeId) ?? null;
   const changed = active ? !sameQuery(active.query, current) : false;
 
-  const done = (text: string) => {
-    setMessage({ tone: "success", text });
-    return client.invalidateQueries({ queryKey: VIEWS_KEY });
-  };
-  const failed = (err: unknown) => setMessage({ tone: "error", text: err instanceof ApiError ? err.message : "The view was not saved. Try again." });
-
-  const create = useMutation({
-    mutationFn: (input: { name: string; query: SavedViewQuery }) => api<SavedView>("/api/saved-views", { method: "POST", json: input }),
-    onSuccess: async (view) => {
+  // The three saves share one status message and refresh the list they change (useQuery).
+  const shared = { notify: setMessage, invalidate: [VIEWS_KEY], refresh: false as const };
+  const create = useSave<{ name: string; query: SavedViewQuery }, SavedView>({
+    ...shared,
+    request: (json) => ({ url: "/api/saved-views", method: "POST", json }),
+    success: (view) => `Saved the view “${view.name}”.`,
+    onSaved: (view) => {
       setNaming(false);
       setName("");
       onActiveChange(view.id);
-      await done(`Saved the view “${view.name}”.`);
     },
-    onError: failed,
   });
-  const update = useMutation({
-    mutationFn: (input: { id: string; query: SavedViewQuery }) => api<SavedView>(`/api/saved-views/${input.id}`, { method: "PUT", json: { query: input.query } }),
-    onSuccess: (view) => done(`Saved the changes to “${view.name}”.`),
-    onError: failed,
+  const update = useSave<{ id: string; query: SavedViewQuery }, SavedView>({
+    ...shared,
+    request: ({ id, query }) => ({ url: `/api/saved-views/${id}`, method: "PUT", json: { query } }),
+    success: (view) => `Saved the changes to “${view.name}”.`,
   });
-  const remove = useMutation({
-    mutationFn: (view: SavedView) => api<{ id: string }>(`/api/saved-views/${view.id}`, { method: "DELETE" }).then(() => view),
-    onSuccess: async (view) => {
+  const remove = useSave<SavedView>({
+    ...shared,
+    request: (view) => ({ url: `/api/saved-views/${view.id}`, method: "DELETE" }),
+    success: (_data, view) => `Deleted the view “${view.name}”.`,
+    onSaved: (_data, view) => {
       setConfirmDelete(null);
       if (view.id === activeId) onActiveChange(null);
-      await done(`Deleted the view “${view.name}”.`);
     },
-    onError: failed,
   });
 
   function save(e: FormEvent) {
@@ -82,7 +79,7 @@ export function SavedViewsMenu({
       setMessage({ tone: "error", text: "Name the view first." });
       return;
     }
-    create.mutate({ name: name.trim(), query: current });
+    create.save({ name: name.trim(), query: current });
   }
 
   return (
@@ -106,7 +103,7 @@ export function SavedViewsMenu({
                   <span className="flex min-h-touch flex-1 items-center justify-between gap-2 px-2 text-sm">
                     Delete “{v.name}”?
                     <span className="flex gap-1">
-                      <button type="button" className="btn-danger px-3" onClick={() => remove.mutate(v)} disabled={remove.isPending}>
+                      <button type="button" className="btn-danger px-3" onClick={() => remove.save(v)} disabled={remove.pending}>
                         Delete
                       </button>
                       <button type="button" className="btn-quiet px-3" onClick={() => setConfirmDelete(null)}>
@@ -144,27 +141,15 @@ export function SavedViewsMenu({
         </div>
       </details>
       {active && changed ? (
-        <button type="button" className="btn-quiet" onClick={() => update.mutate({ id: active.id, query: current })} disabled={update.isPending}>
+        <button type="button" className="btn-quiet" onClick={() => update.save({ id: active.id, query: current })} disabled={update.pending}>
           Save changes to “{active.name}”
         </button>
       ) : null}
       {naming ? (
         <form onSubmit={save} className="flex items-end gap-2" aria-label="Save this view">
-          <div>
-            <label htmlFor={`${ids}-name`} className="field-label">
-              View name
-            </label>
-            <input
-              id={`${ids}-name`}
-              className="field-input w-48"
-              value={name}
-              maxLength={100}
-              autoFocus
-              onChange={(e) => setName(e.target.value)}
-            />
-          </div>
-          <button type="submit" className="btn-primary" disabled={create.isPending}>
-            {create.isPending ? "Saving…" : "Save"}
+          <Field id={`${ids}-name`} label="View name" inputClassName="w-48" value={name} maxLength={100} autoFocus onChange={(e) => setName(e.target.value)} />
+          <button type="submit" className="btn-primary" disabled={create.pending}>
+            {create.pending ? "Saving…" : "Save"}
           </button>
           <button type="button" className="btn-quiet" onClick={() => setNaming(false)}>
             Cancel
@@ -182,11 +167,9 @@ export function SavedViewsMenu({
           Save view
         </button>
       )}
-      {message ? (
-        <p role={message.tone === "error" ? "alert" : "status"} className={`basis-full text-sm ${message.tone === "error" ? "text-danger" : "text-sage"}`}>
-          {message.text}
-        </p>
-      ) : null}
+      <div className="basis-full">
+        <StatusMessage notice={message} />
+      </div>
     </div>
   );
 }

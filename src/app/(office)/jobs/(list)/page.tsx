@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { NoAccess } from "@/components/no-access";
+import { SelectField } from "@/components/ui/field";
+import { TableShell, Td, Th } from "@/components/ui/table";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
 import { getOwnCrew, listCrewOptions } from "@/server/crews";
@@ -38,76 +40,70 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
         ) : null}
       </div>
       <form action="/jobs" className="mt-4 flex flex-wrap items-end gap-3" aria-label="Filter jobs">
-        <div className="w-52">
-          <label htmlFor="jobs-crew" className="field-label">
-            Crew
-          </label>
-          <select id="jobs-crew" name="crew" defaultValue={crewFilter} className="field-input">
-            <option value="">Every crew</option>
-            <option value="none">No crew yet</option>
-            {crews.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        <SelectField
+          id="jobs-crew"
+          name="crew"
+          label="Crew"
+          className="w-52"
+          defaultValue={crewFilter}
+          options={[{ value: "", label: "Every crew" }, { value: "none", label: "No crew yet" }, ...crews.map((c) => ({ value: c.id, label: c.name }))]}
+        />
         <button type="submit" className="btn-quiet">
           Show
         </button>
       </form>
-      <div className="mt-4 overflow-x-auto rounded-card border border-paper-line bg-white">
-        <table className="w-full min-w-[900px] text-left text-sm" data-testid="jobs-table">
-          <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
-            <tr>
-              <th scope="col" className="px-3 py-2">Household</th>
-              <th scope="col" className="px-3 py-2">Stage</th>
-              <th scope="col" className="px-3 py-2">Crew</th>
-              <th scope="col" className="px-3 py-2">Survey</th>
-              <th scope="col" className="px-3 py-2">Permit</th>
-              <th scope="col" className="px-3 py-2">Install</th>
-              <th scope="col" className="px-3 py-2">Inspection</th>
-              <th scope="col" className="px-3 py-2">PTO</th>
-              <th scope="col" className="px-3 py-2">Checklist</th>
-            </tr>
-          </thead>
-          <tbody className="divide-y divide-paper-line">
-            {shown.map((j) => (
-              <tr key={j.id} data-testid={`job-row-${j.id}`}>
-                <td className="px-3 py-2">
-                  <Link href={`/jobs/${j.id}`} className="font-medium text-copper underline-offset-2 hover:underline">
-                    {j.householdName}
-                  </Link>
-                  <span className="block text-xs text-graphite-soft">{j.city}</span>
-                </td>
-                <td className="px-3 py-2 whitespace-nowrap">{STAGE_LABELS[j.stage]}</td>
-                <td className="px-3 py-2 whitespace-nowrap">{j.crewName ?? <span className="text-caution">Not assigned</span>}</td>
-                <td className="figure px-3 py-2 whitespace-nowrap">{dateCell(j.surveyDate, today)}</td>
-                <td className="px-3 py-2 whitespace-nowrap">
-                  {j.permitApprovedOn ? (
-                    <span className="text-sage">Approved {shortDate(j.permitApprovedOn)}</span>
-                  ) : j.permitSubmittedOn ? (
-                    `Submitted ${shortDate(j.permitSubmittedOn)}`
-                  ) : (
-                    "—"
-                  )}
-                </td>
-                <td className="figure px-3 py-2 whitespace-nowrap">{j.installedAt ? <span className="text-sage">Installed</span> : dateCell(j.installDate, today)}</td>
-                <td className="figure px-3 py-2 whitespace-nowrap">{dateCell(j.inspectionOn, today)}</td>
-                <td className="figure px-3 py-2 whitespace-nowrap">{dateCell(j.ptoOn, today)}</td>
-                <td className="figure px-3 py-2 whitespace-nowrap">{j.checklistTotal ? `${j.checklistDone}/${j.checklistTotal}` : "—"}</td>
-              </tr>
-            ))}
-            {shown.length === 0 ? (
-              <tr>
-                <td colSpan={9} className="px-3 py-6 text-center text-graphite-soft">
-                  {jobs.length === 0 ? "No jobs yet. A job appears here when a customer pays their deposit." : "No job matches this filter."}
-                </td>
-              </tr>
-            ) : null}
-          </tbody>
-        </table>
-      </div>
+      <TableShell
+        className="mt-4"
+        minWidth={900}
+        testId="jobs-table"
+        head={
+          <>
+            <Th>Household</Th>
+            <Th>Stage</Th>
+            <Th>Crew</Th>
+            <Th>Survey</Th>
+            <Th>Permit</Th>
+            <Th>Install</Th>
+            <Th>Inspection</Th>
+            <Th>PTO</Th>
+            <Th>Checklist</Th>
+          </>
+        }
+      >
+        {shown.map((j) => (
+          <tr key={j.id} data-testid={`job-row-${j.id}`}>
+            <Td>
+              <Link href={`/jobs/${j.id}`} className="font-medium text-copper underline-offset-2 hover:underline">
+                {j.householdName}
+              </Link>
+              <span className="block text-xs text-graphite-soft">{j.city}</span>
+            </Td>
+            <Td className="whitespace-nowrap">{STAGE_LABELS[j.stage]}</Td>
+            <Td className="whitespace-nowrap">{j.crewName ?? <span className="text-caution">Not assigned</span>}</Td>
+            <Td className="figure whitespace-nowrap">{dateCell(j.surveyDate, today)}</Td>
+            <Td className="whitespace-nowrap">
+              {j.permitApprovedOn ? (
+                <span className="text-sage">Approved {shortDate(j.permitApprovedOn)}</span>
+              ) : j.permitSubmittedOn ? (
+                `Submitted ${shortDate(j.permitSubmittedOn)}`
+              ) : (
+                "—"
+              )}
+            </Td>
+            <Td className="figure whitespace-nowrap">{j.installedAt ? <span className="text-sage">Installed</span> : dateCell(j.installDate, today)}</Td>
+            <Td className="figure whitespace-nowrap">{dateCell(j.inspectionOn, today)}</Td>
+            <Td className="figure whitespace-nowrap">{dateCell(j.ptoOn, today)}</Td>
+            <Td className="figure whitespace-nowrap">{j.checklistTotal ? `${j.checklistDone}/${j.checklistTotal}` : "—"}</Td>
+          </tr>
+        ))}
+        {shown.length === 0 ? (
+          <tr>
+            <Td colSpan={9} className="py-6 text-center text-graphite-soft">
+              {jobs.length === 0 ? "No jobs yet. A job appears here when a customer pays their deposit." : "No job matches this filter."}
+            </Td>
+          </tr>
+        ) : null}
+      </TableShell>
     </>
   );
 }

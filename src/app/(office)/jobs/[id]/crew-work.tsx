@@ -1,9 +1,10 @@
 "use client";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { CameraInput } from "@/components/camera-input";
-import { FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
+import { ConfirmButton } from "@/components/ui/dialog";
+import { EmptyState } from "@/components/ui/empty-state";
+import { StatusMessage, type Notice } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import type { JobChecklistItem } from "@/lib/schemas/jobs";
 
 type PhotoThumb = { id: string; caption: string | null; widthPx: number; heightPx: number; uploadedByName: string | null };
@@ -11,66 +12,52 @@ type PhotoThumb = { id: string; caption: string | null; widthPx: number; heightP
 
 /** The crew's work on a job: the install checklist, photos from the phone's camera, and "installed". */
 export function CrewWork(props: { jobId: string; canWork: boolean; checklist: JobChecklistItem[]; photos: PhotoThumb[]; installedAt: string | null; timeZone: string }) {
-  const router = useRouter();
   const [items, setItems] = useState(props.checklist);
   const [photos, setPhotos] = useState(props.photos);
   const [installedAt, setInstalledAt] = useState(props.installedAt);
   // The company's zone, not the runtime's: the server render and the browser then print the same time.
   const timeFmt = new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", hour: "numeric", minute: "2-digit", timeZone: props.timeZone, timeZoneName: "short" });
-  const [busyItem, setBusyItem] = useState<string | null>(null);
-  const [uploading, setUploading] = useState(false);
-  const [confirming, setConfirming] = useState(false);
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
+  const [before, setBefore] = useState(items);
+  const [notice, setNotice] = useState<Notice | null>(null);
   const open = items.filter((i) => !i.doneAt).length;
 
-  async function tick(item: JobChecklistItem, done: boolean) {
-    const before = items;
-    // Shown ticked at once (a roof's mobile data is slow); put back if the server refuses.
+  // The checklist and photos are this screen's own state (a roof's mobile data is slow): no page refresh.
+  const tick = useSave<{ item: JobChecklistItem; done: boolean }, JobChecklistItem[]>({
+    request: ({ item, done }) => ({ url: `/api/jobs/${props.jobId}/checklist`, method: "PATCH", json: { itemId: item.id, done } }),
+    refresh: false,
+    notify: setNotice,
+    onSaved: setItems,
+    onError: () => setItems(before),
+  });
+  function toggle(item: JobChecklistItem, done: boolean) {
+    setBefore(items);
+    // Shown ticked at once; put back if the server refuses.
     setItems((list) => list.map((i) => (i.id === item.id ? { ...i, doneAt: done ? new Date().toISOString() : null } : i)));
-    setBusyItem(item.id);
-    setNotice(null);
-    try {
-      setItems(await api<JobChecklistItem[]>(`/api/jobs/${props.jobId}/checklist`, { method: "PATCH", json: { itemId: item.id, done } }));
-    } catch (err) {
-      setItems(before);
-      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "Not saved. Try again." });
-    } finally {
-      setBusyItem(null);
-    }
+    tick.save({ item, done });
   }
-
-  async function upload(file: File) {
-    setUploading(true);
-    setNotice(null);
-    const form = new FormData();
-    form.set("file", file);
-    try {
-      const photo = await api<PhotoThumb>(`/api/jobs/${props.jobId}/photos`, { method: "POST", body: form });
-      setPhotos((p) => [...p, photo]);
-      setNotice({ tone: "success", text: "Photo saved." });
-    } catch (err) {
-      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "The photo was not saved. Try again." });
-    } finally {
-      setUploading(false);
-    }
-  }
-
-  async function markInstalled() {
-    setNotice(null);
-    try {
-      const job = await api<{ installedAt: string | null }>(`/api/jobs/${props.jobId}/installed`, { method: "POST" });
-      setInstalledAt(job.installedAt);
-      setConfirming(false);
-      setNotice({ tone: "success", text: "Marked installed. The office has been updated." });
-      router.refresh();
-    } catch (err) {
-      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "Not saved. Try again." });
-    }
-  }
+  const upload = useSave<File, PhotoThumb>({
+    request: (file) => {
+      const body = new FormData();
+      body.set("file", file);
+      return { url: `/api/jobs/${props.jobId}/photos`, method: "POST", body };
+    },
+    refresh: false,
+    notify: setNotice,
+    success: "Photo saved.",
+    onSaved: (photo) => setPhotos((p) => [...p, photo]),
+  });
+  const install = useSave<void, { installedAt: string | null }>({
+    request: () => ({ url: `/api/jobs/${props.jobId}/installed`, method: "POST" }),
+    notify: setNotice,
+    success: "Marked installed. The office has been updated.",
+    onSaved: (job) => setInstalledAt(job.installedAt),
+  });
 
   return (
     <>
-      <div aria-live="polite">{notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}</div>
+      <div aria-live="polite">
+        <StatusMessage notice={notice} />
+      </div>
       <section className="card p-4" aria-labelledby="checklist-heading">
         <h2 id="checklist-heading" className="text-lg font-semibold">
           Install checklist{" "}
@@ -89,8 +76,8 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
                   type="checkbox"
                   className="h-6 w-6 shrink-0 accent-sage"
                   checked={!!item.doneAt}
-                  disabled={!props.canWork || busyItem === item.id}
-                  onChange={(e) => void tick(item, e.target.checked)}
+                  disabled={!props.canWork || tick.pending}
+                  onChange={(e) => toggle(item, e.target.checked)}
                 />
                 <span className={item.doneAt ? "text-graphite-soft line-through decoration-sage" : ""}>{item.label}</span>
                 {item.doneAt ? <span className="figure ml-auto shrink-0 text-xs text-graphite-soft">{timeFmt.format(new Date(item.doneAt))}</span> : null}
@@ -104,7 +91,7 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
         <h2 id="photos-heading" className="text-lg font-semibold">
           Job photos
         </h2>
-        {photos.length === 0 ? <p className="mt-1 text-sm text-graphite-soft">No photos yet.</p> : null}
+        {photos.length === 0 ? <EmptyState>No photos yet.</EmptyState> : null}
         <ul className="mt-2 grid grid-cols-3 gap-2" data-testid="job-photos">
           {photos.map((p) => (
             <li key={p.id}>
@@ -127,9 +114,9 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
               id="job-photo-input"
               label="Take or add a photo"
               busyLabel="Saving the photo…"
-              busy={uploading}
+              busy={upload.pending}
               buttonClass="btn-primary w-full"
-              onPhoto={(file) => void upload(file)}
+              onPhoto={upload.save}
             />
             <p className="mt-1 text-xs text-graphite-soft">JPEG, PNG or WebP; stored at up to 2048 px.</p>
           </div>
@@ -145,25 +132,15 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
             Installed {timeFmt.format(new Date(installedAt))}.
           </p>
         ) : props.canWork ? (
-          confirming ? (
-            <div className="mt-2 space-y-2">
-              <p className="text-sm">
-                {open > 0 ? `${open} checklist item${open === 1 ? " is" : "s are"} still open. ` : ""}Mark this job installed?
-              </p>
-              <div className="flex gap-2">
-                <button type="button" className="btn-primary flex-1" onClick={() => void markInstalled()}>
-                  Yes, installed
-                </button>
-                <button type="button" className="btn-quiet flex-1" onClick={() => setConfirming(false)}>
-                  Not yet
-                </button>
-              </div>
-            </div>
-          ) : (
-            <button type="button" className="btn-primary mt-2 w-full" onClick={() => setConfirming(true)}>
-              Mark installed
-            </button>
-          )
+          <ConfirmButton
+            label="Mark installed"
+            title="Mark this job installed?"
+            message={`${open > 0 ? `${open} checklist item${open === 1 ? " is" : "s are"} still open. ` : ""}The office sees it at once.`}
+            confirmLabel="Yes, installed"
+            className="btn-primary mt-2 w-full"
+            disabled={install.pending}
+            onConfirm={() => install.save()}
+          />
         ) : (
           <p className="mt-1 text-graphite-soft">Not installed yet.</p>
         )}

@@ -1,11 +1,11 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
-import { applyFieldErrors } from "@/lib/form-errors";
+import { ConfirmButton } from "@/components/ui/dialog";
+import { EmptyState } from "@/components/ui/empty-state";
+import { Field, StatusMessage, type Notice } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import { createCrewSchema, type CreateCrewInput } from "@/lib/schemas/jobs";
 
 type CrewRow = { id: string; name: string; feedUrl: string; openJobs: number; memberIds: string[] };
@@ -15,7 +15,7 @@ export function CrewsClient({ crews, installers }: { crews: CrewRow[]; installer
   return (
     <div className="mt-6 space-y-6">
       <NewCrewForm />
-      {crews.length === 0 ? <p className="text-graphite-soft">No crews yet.</p> : null}
+      {crews.length === 0 ? <EmptyState>No crews yet.</EmptyState> : null}
       {crews.map((c) => (
         <CrewCard key={c.id} crew={c} installers={installers} crews={crews} />
       ))}
@@ -29,67 +29,45 @@ export function CrewsClient({ crews, installers }: { crews: CrewRow[]; installer
 }
 
 function NewCrewForm() {
-  const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const {
-    register,
-    handleSubmit,
-    reset,
-    setError: setFieldError,
-    formState: { errors, isSubmitting },
-  } = useForm<CreateCrewInput>({ resolver: zodResolver(createCrewSchema), defaultValues: { name: "" } });
-  const onSubmit = handleSubmit(async (values) => {
-    setError(null);
-    try {
-      await api("/api/crews", { method: "POST", json: values });
-      reset();
-      router.refresh();
-    } catch (err) {
-      if (err instanceof ApiError && applyFieldErrors(err.fields, setFieldError)) return;
-      setError(err instanceof ApiError ? err.message : "Not saved. Try again.");
-    }
+  const { register, handleSubmit, reset, setError, formState } = useForm<CreateCrewInput>({ resolver: zodResolver(createCrewSchema), defaultValues: { name: "" } });
+  const add = useSave<CreateCrewInput, unknown, CreateCrewInput>({
+    request: (json) => ({ url: "/api/crews", method: "POST", json }),
+    setError,
+    onSaved: () => reset(),
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="card flex flex-wrap items-start gap-3 p-4" aria-label="New crew">
-      {error ? (
+    <form onSubmit={handleSubmit(add.save)} noValidate className="card flex flex-wrap items-start gap-3 p-4" aria-label="New crew">
+      {add.notice ? (
         <div className="w-full">
-          <FormMessage tone="error">{error}</FormMessage>
+          <StatusMessage notice={add.notice} />
         </div>
       ) : null}
-      <div className="w-72">
-        <Field id="new-crew-name" label="New crew" placeholder="e.g. Crew East" autoComplete="off" error={errors.name?.message} {...register("name")} />
-      </div>
-      <button type="submit" className="btn-primary mt-6" disabled={isSubmitting}>
-        {isSubmitting ? "Adding…" : "Add crew"}
+      <Field id="new-crew-name" label="New crew" className="w-72 max-w-full" placeholder="e.g. Crew East" autoComplete="off" error={formState.errors.name?.message} {...register("name")} />
+      <button type="submit" className="btn-primary mt-6" disabled={add.pending}>
+        {add.pending ? "Adding…" : "Add crew"}
       </button>
     </form>
   );
 }
 
 function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Installer[]; crews: CrewRow[] }) {
-  const router = useRouter();
   const [name, setName] = useState(crew.name);
   const [members, setMembers] = useState<string[]>(crew.memberIds);
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [confirmRotate, setConfirmRotate] = useState(false);
+  const [notice, setNotice] = useState<Notice | null>(null);
   const [copied, setCopied] = useState(false);
+  const save = useSave<{ name: string; memberIds: string[] }>({
+    request: (json) => ({ url: `/api/crews/${crew.id}`, method: "PATCH", json }),
+    success: "Crew saved.",
+    notify: setNotice,
+  });
+  const renew = useSave<void>({
+    request: () => ({ url: `/api/crews/${crew.id}/feed-token`, method: "POST" }),
+    success: "New calendar address made; the old one no longer works.",
+    notify: setNotice,
+  });
+  const busy = save.pending || renew.pending;
   const dirty = name.trim() !== crew.name || members.slice().sort().join() !== crew.memberIds.slice().sort().join();
   const crewName = (id: string | null) => crews.find((c) => c.id === id)?.name;
-
-  async function run(task: () => Promise<unknown>, done: string) {
-    setBusy(true);
-    setNotice(null);
-    try {
-      await task();
-      setNotice({ tone: "success", text: done });
-      router.refresh();
-    } catch (err) {
-      setNotice({ tone: "error", text: err instanceof ApiError ? err.message : "Not saved. Try again." });
-    } finally {
-      setBusy(false);
-    }
-  }
 
   return (
     <section className="card p-5" aria-labelledby={`crew-${crew.id}`} data-testid={`crew-${crew.name}`}>
@@ -101,17 +79,12 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
       </h2>
       {notice ? (
         <div className="mt-2">
-          <FormMessage tone={notice.tone}>{notice.text}</FormMessage>
+          <StatusMessage notice={notice} />
         </div>
       ) : null}
       <div className="mt-3 grid gap-6 md:grid-cols-2">
         <div className="space-y-3">
-          <div>
-            <label htmlFor={`crew-name-${crew.id}`} className="field-label">
-              Name
-            </label>
-            <input id={`crew-name-${crew.id}`} className="field-input" value={name} maxLength={100} onChange={(e) => setName(e.target.value)} />
-          </div>
+          <Field id={`crew-name-${crew.id}`} label="Name" value={name} maxLength={100} onChange={(e) => setName(e.target.value)} />
           <fieldset>
             <legend className="field-label">Installers in this crew</legend>
             <ul className="space-y-1">
@@ -141,7 +114,7 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
             type="button"
             className="btn-primary"
             disabled={busy || !dirty || name.trim().length < 2}
-            onClick={() => void run(() => api(`/api/crews/${crew.id}`, { method: "PATCH", json: { name: name.trim(), memberIds: members } }), "Crew saved.")}
+            onClick={() => save.save({ name: name.trim(), memberIds: members })}
           >
             Save crew
           </button>
@@ -162,32 +135,17 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
             >
               {copied ? "Copied" : "Copy"}
             </button>
-            {confirmRotate ? (
-              <>
-                <button
-                  type="button"
-                  className="btn-danger"
-                  disabled={busy}
-                  onClick={() =>
-                    void run(async () => {
-                      await api(`/api/crews/${crew.id}/feed-token`, { method: "POST" });
-                      setConfirmRotate(false);
-                    }, "New calendar address made; the old one no longer works.")
-                  }
-                >
-                  Yes, renew it
-                </button>
-                <button type="button" className="btn-quiet" onClick={() => setConfirmRotate(false)}>
-                  Keep it
-                </button>
-              </>
-            ) : (
-              <button type="button" className="btn-quiet" onClick={() => setConfirmRotate(true)}>
-                Renew address
-              </button>
-            )}
+            <ConfirmButton
+              label="Renew address"
+              title="Renew the calendar address?"
+              message="Phones subscribed to the current address will stop updating until they subscribe again."
+              confirmLabel="Yes, renew it"
+              danger
+              className="btn-quiet"
+              disabled={busy}
+              onConfirm={() => renew.save()}
+            />
           </div>
-          {confirmRotate ? <p className="mt-2 text-sm text-caution">Phones subscribed to the current address will stop updating until they subscribe again.</p> : null}
         </div>
       </div>
     </section>

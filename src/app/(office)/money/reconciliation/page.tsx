@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { FormMessage } from "@/components/field";
+import { FormMessage } from "@/components/ui/field";
 import { NoAccess } from "@/components/no-access";
 import { formatCentsExact, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";

@@ -1,6 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { NoAccess } from "@/components/no-access";
+import { Badge } from "@/components/ui/badge";
+import { EmptyState } from "@/components/ui/empty-state";
+import { TableShell, Td, Th } from "@/components/ui/table";
 import type { RatePlan } from "@/engine/rates";
 import { formatCents } from "@/lib/format";
 import { can } from "@/lib/permissions";
@@ -38,39 +41,40 @@ export default async function RatePlansPage() {
         ) : null}
       </div>
       {plans.length === 0 ? (
-        <p className="card mt-6 p-5 text-graphite-soft">{canEdit ? "No rate plans yet. Add the plans of the utilities you work with." : "No rate plans yet. An owner or admin adds them."}</p>
-      ) : (
-        <div className="mt-6 overflow-x-auto rounded-card border border-paper-line bg-white">
-          <table className="w-full min-w-[760px] text-left text-sm">
-            <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
-              <tr>
-                <th scope="col" className="px-4 py-2">Plan</th>
-                <th scope="col" className="px-4 py-2">Energy</th>
-                <th scope="col" className="px-4 py-2">Exports</th>
-                <th scope="col" className="px-4 py-2 text-right">Fixed / month</th>
-                <th scope="col" className="px-4 py-2 text-right">Sample bill ({PREVIEW_MONTHLY_KWH} kWh)</th>
-                <th scope="col" className="px-4 py-2">Status</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-paper-line">
-              {plans.map((p) => (
-                <tr key={p.id} data-testid={`rate-plan-${p.id}`}>
-                  <td className="px-4 py-2">
-                    <Link href={`/rate-plans/${p.id}`} className="font-medium text-copper hover:underline">
-                      {p.name}
-                    </Link>
-                    <span className="block text-xs text-graphite-soft">{p.utilityName}</span>
-                  </td>
-                  <td className="px-4 py-2">{ENERGY_LABELS[p.plan.energy.kind]}</td>
-                  <td className="px-4 py-2">{COMPENSATION_LABELS[p.plan.compensation.kind]}</td>
-                  <td className="figure px-4 py-2 text-right">{formatCents(p.plan.fixedMonthlyCents)}</td>
-                  <td className="figure px-4 py-2 text-right">{formatCents(sampleBill(p.plan).totalCents / 12)} avg</td>
-                  <td className="px-4 py-2">{p.active ? <span className="text-sage">In use</span> : <span className="text-graphite-soft">Retired</span>}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+        <div className="mt-6">
+          <EmptyState>{canEdit ? "No rate plans yet. Add the plans of the utilities you work with." : "No rate plans yet. An owner or admin adds them."}</EmptyState>
         </div>
+      ) : (
+        <TableShell
+          className="mt-6"
+          minWidth={760}
+          head={
+            <>
+              <Th>Plan</Th>
+              <Th>Energy</Th>
+              <Th>Exports</Th>
+              <Th numeric>Fixed / month</Th>
+              <Th numeric>Sample bill ({PREVIEW_MONTHLY_KWH} kWh)</Th>
+              <Th>Status</Th>
+            </>
+          }
+        >
+          {plans.map((p) => (
+            <tr key={p.id} data-testid={`rate-plan-${p.id}`}>
+              <Td>
+                <Link href={`/rate-plans/${p.id}`} className="font-medium text-copper hover:underline">
+                  {p.name}
+                </Link>
+                <span className="block text-xs text-graphite-soft">{p.utilityName}</span>
+              </Td>
+              <Td>{ENERGY_LABELS[p.plan.energy.kind]}</Td>
+              <Td>{COMPENSATION_LABELS[p.plan.compensation.kind]}</Td>
+              <Td numeric>{formatCents(p.plan.fixedMonthlyCents)}</Td>
+              <Td numeric>{formatCents(sampleBill(p.plan).totalCents / 12)} avg</Td>
+              <Td>{p.active ? <Badge tone="success">In use</Badge> : <Badge>Retired</Badge>}</Td>
+            </tr>
+          ))}
+        </TableShell>
       )}
     </>
   );

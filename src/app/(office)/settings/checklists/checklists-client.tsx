@@ -1,11 +1,11 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useFieldArray, useForm } from "react-hook-form";
-import { FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
-import { applyFieldErrors } from "@/lib/form-errors";
+import { Badge } from "@/components/ui/badge";
+import { ConfirmButton } from "@/components/ui/dialog";
+import { Field, StatusMessage } from "@/components/ui/field";
+import { useSave, type SaveRequest } from "@/components/ui/use-save";
 import { checklistTemplateSchema, type ChecklistTemplateInput } from "@/lib/schemas/jobs";
 
 type Template = { id: string; name: string; items: { id: string; label: string }[]; active: boolean };
@@ -33,66 +33,48 @@ export function ChecklistsClient({ templates }: { templates: Template[] }) {
 }
 
 function TemplateCard({ template, onEdit }: { template: Template; onEdit: () => void }) {
-  const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [confirmDelete, setConfirmDelete] = useState(false);
-
-  async function run(task: () => Promise<unknown>) {
-    setBusy(true);
-    setError(null);
-    try {
-      await task();
-      router.refresh();
-    } catch (err) {
-      setError(err instanceof ApiError ? err.message : "Not saved. Try again.");
-    } finally {
-      setBusy(false);
-    }
-  }
+  const url = `/api/checklist-templates/${template.id}`;
+  const change = useSave<SaveRequest>({ request: (r) => r });
 
   return (
     <section className="card p-5" aria-labelledby={`tpl-${template.id}`} data-testid={`checklist-${template.name}`}>
       <div className="flex flex-wrap items-start justify-between gap-3">
         <h2 id={`tpl-${template.id}`} className="text-lg font-semibold">
           {template.name}{" "}
-          {template.active ? <span className="ml-1 rounded-full bg-sage-light px-2 py-0.5 text-xs font-medium text-graphite">Active: new jobs get this</span> : null}
+          {template.active ? (
+            <Badge tone="success" className="ml-1">
+              Active: new jobs get this
+            </Badge>
+          ) : null}
         </h2>
         <div className="flex flex-wrap gap-2">
           <button type="button" className="btn-quiet" onClick={onEdit}>
             Edit
           </button>
-          {template.active ? (
-            <button type="button" className="btn-quiet" disabled={busy} onClick={() => void run(() => api(`/api/checklist-templates/${template.id}`, { method: "PATCH", json: { active: false } }))}>
-              Deactivate
-            </button>
-          ) : (
-            <button type="button" className="btn-primary" disabled={busy} onClick={() => void run(() => api(`/api/checklist-templates/${template.id}`, { method: "PATCH", json: { active: true } }))}>
-              Activate
-            </button>
-          )}
-          {confirmDelete ? (
-            <>
-              <button type="button" className="btn-danger" disabled={busy} onClick={() => void run(() => api(`/api/checklist-templates/${template.id}`, { method: "DELETE" }))}>
-                Yes, delete
-              </button>
-              <button type="button" className="btn-quiet" onClick={() => setConfirmDelete(false)}>
-                Keep
-              </button>
-            </>
-          ) : (
-            <button type="button" className="btn-danger" onClick={() => setConfirmDelete(true)}>
-              Delete
-            </button>
-          )}
+          <button
+            type="button"
+            className={template.active ? "btn-quiet" : "btn-primary"}
+            disabled={change.pending}
+            onClick={() => change.save({ url, method: "PATCH", json: { active: !template.active } })}
+          >
+            {template.active ? "Deactivate" : "Activate"}
+          </button>
+          <ConfirmButton
+            label="Delete"
+            title={`Delete ${template.name}?`}
+            message="Jobs keep their own copy; only new jobs are affected."
+            confirmLabel="Yes, delete"
+            danger
+            disabled={change.pending}
+            onConfirm={() => change.save({ url, method: "DELETE" })}
+          />
         </div>
       </div>
-      {error ? (
+      {change.notice ? (
         <div className="mt-2">
-          <FormMessage tone="error">{error}</FormMessage>
+          <StatusMessage notice={change.notice} />
         </div>
       ) : null}
-      {confirmDelete ? <p className="mt-2 text-sm text-caution">Jobs keep their own copy; only new jobs are affected.</p> : null}
       <ol className="mt-3 list-decimal space-y-1 pl-6 text-sm">
         {template.items.map((i) => (
           <li key={i.id}>{i.label}</li>
@@ -103,43 +85,27 @@ function TemplateCard({ template, onEdit }: { template: Template; onEdit: () => 
 }
 
 function TemplateEditor({ template, onDone }: { template: Template | null; onDone: () => void }) {
-  const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
   const {
     register,
     control,
     handleSubmit,
-    setError: setFieldError,
-    formState: { errors, isSubmitting },
+    setError,
+    formState: { errors },
   } = useForm<ChecklistTemplateInput>({
     resolver: zodResolver(checklistTemplateSchema),
     defaultValues: template ? { name: template.name, items: template.items } : { name: "", items: [{ id: "", label: "" }] },
   });
   const { fields, append, remove, move } = useFieldArray({ control, name: "items", keyName: "key" });
-
-  const onSubmit = handleSubmit(async (values) => {
-    setError(null);
-    try {
-      if (template) await api(`/api/checklist-templates/${template.id}`, { method: "PATCH", json: values });
-      else await api("/api/checklist-templates", { method: "POST", json: values });
-      router.refresh();
-      onDone();
-    } catch (err) {
-      if (err instanceof ApiError && applyFieldErrors(err.fields, setFieldError)) return;
-      setError(err instanceof ApiError ? err.message : "Not saved. Try again.");
-    }
+  const save = useSave<ChecklistTemplateInput, unknown, ChecklistTemplateInput>({
+    request: (json) => (template ? { url: `/api/checklist-templates/${template.id}`, method: "PATCH", json } : { url: "/api/checklist-templates", method: "POST", json }),
+    setError,
+    onSaved: onDone,
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-4 p-5" aria-label={template ? `Edit ${template.name}` : "New checklist"}>
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
-      <div className="max-w-md">
-        <label htmlFor="tpl-name" className="field-label">
-          Checklist name
-        </label>
-        <input id="tpl-name" className="field-input" autoComplete="off" aria-invalid={errors.name ? true : undefined} {...register("name")} />
-        {errors.name ? <p className="field-error">{errors.name.message}</p> : null}
-      </div>
+    <form onSubmit={handleSubmit(save.save)} noValidate className="card space-y-4 p-5" aria-label={template ? `Edit ${template.name}` : "New checklist"}>
+      <StatusMessage notice={save.notice} />
+      <Field id="tpl-name" label="Checklist name" className="max-w-md" autoComplete="off" error={errors.name?.message} {...register("name")} />
       <fieldset>
         <legend className="field-label">Items, in the order the crew works</legend>
         {errors.items?.message ? <p className="field-error">{errors.items.message}</p> : null}
@@ -148,13 +114,7 @@ function TemplateEditor({ template, onDone }: { template: Template | null; onDon
             <li key={f.key} className="flex flex-wrap items-start gap-2">
               <span className="figure mt-3 w-6 text-right text-sm text-graphite-soft">{i + 1}.</span>
               <input type="hidden" {...register(`items.${i}.id`)} />
-              <div className="min-w-64 flex-1">
-                <label htmlFor={`tpl-item-${i}`} className="sr-only">
-                  Item {i + 1}
-                </label>
-                <input id={`tpl-item-${i}`} className="field-input" aria-invalid={errors.items?.[i]?.label ? true : undefined} {...register(`items.${i}.label`)} />
-                {errors.items?.[i]?.label ? <p className="field-error">{errors.items[i]?.label?.message}</p> : null}
-              </div>
+              <Field id={`tpl-item-${i}`} label={`Item ${i + 1}`} srLabel className="min-w-0 flex-1 basis-64" error={errors.items?.[i]?.label?.message} {...register(`items.${i}.label`)} />
               <button type="button" className="btn-quiet" aria-label={`Move item ${i + 1} up`} disabled={i === 0} onClick={() => move(i, i - 1)}>
                 ↑
               </button>
@@ -172,8 +132,8 @@ function TemplateEditor({ template, onDone }: { template: Template | null; onDon
         </button>
       </fieldset>
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>
-          {isSubmitting ? "Saving…" : template ? "Save checklist" : "Create checklist"}
+        <button type="submit" className="btn-primary" disabled={save.pending}>
+          {save.pending ? "Saving…" : template ? "Save checklist" : "Create checklist"}
         </button>
         <button type="button" className="btn-quiet" onClick={onDone}>
           Cancel

@@ -1,10 +1,9 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
-import { useState } from "react";
+import type { ReactNode } from "react";
 import { useForm } from "react-hook-form";
-import { Field, FormMessage } from "@/components/field";
-import { applyFieldErrors } from "@/lib/form-errors";
+import { Field, FieldShell, SelectField, StatusMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import {
   COMPANY_TIME_ZONES,
   companySettingsSchema,
@@ -22,7 +21,6 @@ import {
   type StallDays,
 } from "@/lib/schemas/company-settings";
 import { STAGE_LABELS } from "@/lib/stages";
-import { updateCompanySettingsAction } from "./actions";
 
 type Initial = { name: string; licenseNumber: string; timeZone: CompanyTimeZone; stallDays: StallDays; finance: FinanceAssumptions };
 
@@ -37,15 +35,13 @@ const FINANCE_ROWS: { key: keyof FinanceAssumptions; label: string; hint: string
   { key: "discountRatePct", label: "Discount rate for NPV (%)", hint: "How much less a dollar later is worth than a dollar now, for the NPV and LCOE. Our default." },
 ];
 
-export function CompanySettingsClient({ initial }: { initial: Initial }) {
-  const router = useRouter();
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
+export function CompanySettingsClient({ companyId, initial }: { companyId: string; initial: Initial }) {
   const {
     register,
     handleSubmit,
     setValue,
     setError,
-    formState: { errors, isSubmitting, isDirty },
+    formState: { errors, isDirty },
     reset,
   } = useForm<CompanySettingsInput, unknown, CompanySettingsValues>({
     resolver: zodResolver(companySettingsSchema),
@@ -58,17 +54,12 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
     },
   });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setNotice(null);
-    const result = await updateCompanySettingsAction(values);
-    if (!result.ok) {
-      applyFieldErrors(result.fieldErrors, setError);
-      setNotice({ tone: "error", text: result.message });
-      return;
-    }
-    reset({ ...values, licenseNumber: values.licenseNumber ?? "", stallDays: asText(values.stallDays), finance: values.finance ? financeText(values.finance) : undefined });
-    setNotice({ tone: "success", text: "Company settings saved." });
-    router.refresh();
+  const { save, pending, notice } = useSave<CompanySettingsValues, unknown, CompanySettingsInput>({
+    request: (json) => ({ url: `/api/companies/${companyId}`, method: "PATCH", json }),
+    success: "Company settings saved.",
+    setError,
+    onSaved: (_, values) =>
+      reset({ ...values, licenseNumber: values.licenseNumber ?? "", stallDays: asText(values.stallDays), finance: values.finance ? financeText(values.finance) : undefined }),
   });
 
   function applyDefaults() {
@@ -83,8 +74,8 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
   }
 
   return (
-    <form onSubmit={onSubmit} noValidate className="mt-6 max-w-3xl space-y-8" aria-label="Company settings">
-      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+    <form onSubmit={handleSubmit(save)} noValidate className="mt-6 max-w-3xl space-y-8" aria-label="Company settings">
+      <StatusMessage notice={notice} />
 
       <section aria-labelledby="company-identity" className="card space-y-4 p-5">
         <h2 id="company-identity" className="text-lg font-semibold">
@@ -99,43 +90,23 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
           error={errors.licenseNumber?.message}
           {...register("licenseNumber")}
         />
-        <div>
-          <label htmlFor="company-timezone" className="field-label">
-            Time zone
-          </label>
-          <select
-            id="company-timezone"
-            className="field-input"
-            aria-describedby="company-timezone-hint"
-            aria-invalid={errors.timeZone ? true : undefined}
-            {...register("timeZone")}
-          >
-            {COMPANY_TIME_ZONES.map((z) => (
-              <option key={z.id} value={z.id}>
-                {z.label} ({z.id})
-              </option>
-            ))}
-          </select>
-          <p id="company-timezone-hint" className="mt-1 text-sm text-graphite-soft">
-            Where your working day starts and ends: the crews&apos; jobs for today and this week follow it.
-          </p>
-          {errors.timeZone ? <p className="field-error">{errors.timeZone.message}</p> : null}
-        </div>
+        <SelectField
+          id="company-timezone"
+          label="Time zone"
+          options={COMPANY_TIME_ZONES.map((z) => ({ value: z.id, label: `${z.label} (${z.id})` }))}
+          hint="Where your working day starts and ends: the crews' jobs for today and this week follow it."
+          error={errors.timeZone?.message}
+          {...register("timeZone")}
+        />
       </section>
 
-      <section aria-labelledby="company-stall" className="card p-5">
-        <div className="flex flex-wrap items-baseline justify-between gap-2">
-          <h2 id="company-stall" className="text-lg font-semibold">
-            Stalled deals
-          </h2>
-          <button type="button" className="btn-quiet" onClick={applyDefaults}>
-            Use the defaults
-          </button>
-        </div>
-        <p className="mt-1 text-sm text-graphite-soft">
-          Days a deal may sit in a stage before the Board and Today flag it, from {STALL_DAYS_MIN} to {STALL_DAYS_MAX}. Leave a stage empty to
-          never flag it.
-        </p>
+      <SettingsSection
+        id="company-stall"
+        title="Stalled deals"
+        defaultsLabel="Use the defaults"
+        onDefaults={applyDefaults}
+        intro={`Days a deal may sit in a stage before the Board and Today flag it, from ${STALL_DAYS_MIN} to ${STALL_DAYS_MAX}. Leave a stage empty to never flag it.`}
+      >
         <table className="mt-3 w-full text-left text-sm">
           <thead className="text-xs uppercase tracking-wide text-graphite-soft">
             <tr>
@@ -157,25 +128,21 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
               return (
                 <tr key={stage}>
                   <th scope="row" className="py-1.5 pr-3 font-medium">
-                    <label htmlFor={id}>{STAGE_LABELS[stage]}</label>
+                    {STAGE_LABELS[stage]}
                   </th>
                   <td className="py-1.5 pr-3">
-                    <input
+                    <Field
                       id={id}
+                      label={STAGE_LABELS[stage]}
+                      srLabel
                       type="text"
                       inputMode="numeric"
                       autoComplete="off"
                       placeholder="never"
-                      className="field-input figure w-28"
-                      aria-invalid={error ? true : undefined}
-                      aria-describedby={error ? `${id}-error` : undefined}
+                      inputClassName="figure w-28"
+                      error={error}
                       {...register(`stallDays.${stage}`)}
                     />
-                    {error ? (
-                      <p id={`${id}-error`} className="field-error" role="alert">
-                        {error}
-                      </p>
-                    ) : null}
                   </td>
                   <td className="py-1.5 text-graphite-soft">
                     <span className="figure">{DEFAULT_STALL_SETTINGS[stage] ?? "never"}</span>
@@ -185,21 +152,15 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
             })}
           </tbody>
         </table>
-      </section>
+      </SettingsSection>
 
-      <section aria-labelledby="company-finance" className="card p-5">
-        <div className="flex flex-wrap items-baseline justify-between gap-2">
-          <h2 id="company-finance" className="text-lg font-semibold">
-            Savings assumptions
-          </h2>
-          <button type="button" className="btn-quiet" onClick={applyFinanceDefaults} aria-label="Use the default savings assumptions">
-            Use the defaults
-          </button>
-        </div>
-        <p className="mt-1 text-sm text-graphite-soft">
-          Every new offer&apos;s savings, payback, ROI and NPV are figured with these, and the customer&apos;s page and proposal PDF state them.
-          They are assumptions, not forecasts. Proposals already sent keep the figures they were made with; re-save an offer to figure it again.
-        </p>
+      <SettingsSection
+        id="company-finance"
+        title="Savings assumptions"
+        defaultsLabel="Use the default savings assumptions"
+        onDefaults={applyFinanceDefaults}
+        intro="Every new offer's savings, payback, ROI and NPV are figured with these, and the customer's page and proposal PDF state them. They are assumptions, not forecasts. Proposals already sent keep the figures they were made with; re-save an offer to figure it again."
+      >
         <div className="mt-3 grid gap-4 sm:grid-cols-2">
           {FINANCE_ROWS.map((row) => {
             const l = FINANCE_LIMITS[row.key];
@@ -217,14 +178,32 @@ export function CompanySettingsClient({ initial }: { initial: Initial }) {
             );
           })}
         </div>
-      </section>
+      </SettingsSection>
 
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>
-          {isSubmitting ? "Saving…" : "Save company settings"}
+        <button type="submit" className="btn-primary" disabled={pending}>
+          {pending ? "Saving…" : "Save company settings"}
         </button>
         {isDirty ? <span className="self-center text-sm text-graphite-soft">Unsaved changes</span> : null}
       </div>
     </form>
+  );
+}
+
+/** A card of the settings form with a button that fills in the defaults. */
+function SettingsSection(props: { id: string; title: string; defaultsLabel: string; onDefaults: () => void; intro: string; children: ReactNode }) {
+  return (
+    <section aria-labelledby={props.id} className="card p-5">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h2 id={props.id} className="text-lg font-semibold">
+          {props.title}
+        </h2>
+        <button type="button" className="btn-quiet" onClick={props.onDefaults} aria-label={props.defaultsLabel === "Use the defaults" ? undefined : props.defaultsLabel}>
+          Use the defaults
+        </button>
+      </div>
+      <p className="mt-1 text-sm text-graphite-soft">{props.intro}</p>
+      {props.children}
+    </section>
   );
 }

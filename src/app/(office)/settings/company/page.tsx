@@ -18,6 +18,7 @@ export default async function CompanySettingsPage() {
       <h1 className="text-2xl font-semibold">Company</h1>
       <p className="mt-1 text-graphite-soft">How {settings.name} appears on proposals, its working day, when the Board flags a deal as stalled, and the savings assumptions of its offers.</p>
       <CompanySettingsClient
+        companyId={member.companyId}
         initial={{ name: settings.name, licenseNumber: settings.licenseNumber ?? "", timeZone: settings.timeZone, stallDays: settings.stallDays, finance: settings.finance }}
       />
     </>

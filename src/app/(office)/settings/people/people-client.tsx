@@ -1,123 +1,117 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useState, useTransition } from "react";
+import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { Role } from "@/lib/enums";
-import { Field, FormMessage } from "@/components/field";
-import { applyFieldErrors } from "@/lib/form-errors";
+import { Badge } from "@/components/ui/badge";
+import { EmptyState } from "@/components/ui/empty-state";
+import { Field, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
+import { TableShell, Td, Th } from "@/components/ui/table";
+import { useSave } from "@/components/ui/use-save";
 import { formatDate } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";
-import { inviteSchema, type InviteInput } from "@/lib/schemas/people";
-import { invitePersonAction, revokeInvitationAction, updatePersonAction } from "./actions";
+import { inviteSchema, type InviteInput, type UpdatePersonInput } from "@/lib/schemas/people";
 
 type PersonView = { id: string; userId: string; name: string; email: string; role: Role; status: "active" | "deactivated"; joinedAt: string };
 type InvitationView = { id: string; email: string; name: string | null; role: Role; expiresAt: string; createdAt: string };
 
-export function PeopleClient(props: { me: string; myRole: Role; roles: Role[]; people: PersonView[]; invitations: InvitationView[] }) {
-  const [notice, setNotice] = useState<{ tone: "error" | "success"; text: string } | null>(null);
-  const [pending, startTransition] = useTransition();
+const roleOptions = (roles: readonly Role[]) => roles.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
-  function run(task: () => Promise<{ ok: boolean; message?: string }>, done: string) {
-    setNotice(null);
-    startTransition(async () => {
-      const result = await task();
-      setNotice(result.ok ? { tone: "success", text: done } : { tone: "error", text: result.message ?? "Not saved." });
-    });
-  }
+export function PeopleClient(props: { me: string; myRole: Role; roles: Role[]; people: PersonView[]; invitations: InvitationView[] }) {
+  const [notice, setNotice] = useState<Notice | null>(null);
+  const change = useSave<{ person: PersonView; change: UpdatePersonInput; done: string }>({
+    request: ({ person, change }) => ({ url: `/api/people/${person.id}`, method: "PATCH", json: change }),
+    success: (_, { done }) => done,
+    notify: setNotice,
+  });
+  const withdraw = useSave<InvitationView>({
+    request: (i) => ({ url: `/api/invitations/${i.id}`, method: "DELETE" }),
+    success: (_, i) => `The invitation to ${i.email} is withdrawn.`,
+    notify: setNotice,
+  });
+  const pending = change.pending || withdraw.pending;
 
   return (
     <div className="mt-6 space-y-8">
-      {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
-      <InviteForm roles={props.roles} onSent={(email) => setNotice({ tone: "success", text: `Invitation sent to ${email}.` })} />
+      <StatusMessage notice={notice} />
+      <InviteForm roles={props.roles} notify={setNotice} />
 
-      <section aria-labelledby="people-heading">
+      <section aria-labelledby="people-heading" className="space-y-2">
         <h2 id="people-heading" className="text-lg font-semibold">
           People
         </h2>
-        <div className="mt-2 overflow-x-auto rounded-card border border-paper-line bg-white">
-          <table className="w-full min-w-[640px] text-left text-sm">
-            <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
-              <tr>
-                <th scope="col" className="px-4 py-2">Name</th>
-                <th scope="col" className="px-4 py-2">Role</th>
-                <th scope="col" className="px-4 py-2">Status</th>
-                <th scope="col" className="px-4 py-2">Since</th>
-                <th scope="col" className="px-4 py-2"><span className="sr-only">Actions</span></th>
+        <TableShell
+          minWidth={640}
+          head={
+            <>
+              <Th>Name</Th>
+              <Th>Role</Th>
+              <Th>Status</Th>
+              <Th>Since</Th>
+              <Th>
+                <span className="sr-only">Actions</span>
+              </Th>
+            </>
+          }
+        >
+          {props.people.map((p) => {
+            const isMe = p.userId === props.me;
+            const locked = isMe || (p.role === "owner" && props.myRole !== "owner");
+            const roles = locked ? [p.role] : props.roles.includes(p.role) ? props.roles : [p.role, ...props.roles];
+            return (
+              <tr key={p.id} data-testid={`person-${p.email}`}>
+                <Td>
+                  <span className="font-medium">{p.name}</span>
+                  {isMe ? <span className="ml-2 text-xs text-graphite-soft">(you)</span> : null}
+                  <span className="block text-xs text-graphite-soft">{p.email}</span>
+                </Td>
+                <Td>
+                  <SelectField
+                    id={`role-${p.id}`}
+                    label={`Role of ${p.name}`}
+                    srLabel
+                    selectClassName="min-w-40"
+                    options={roleOptions(roles)}
+                    value={p.role}
+                    disabled={locked || pending}
+                    onChange={(e) => {
+                      const role = e.target.value as Role;
+                      change.save({ person: p, change: { role }, done: `${p.name} is now ${ROLE_LABELS[role]}.` });
+                    }}
+                  />
+                </Td>
+                <Td>{p.status === "active" ? <Badge tone="success">Active</Badge> : <Badge tone="danger">Deactivated</Badge>}</Td>
+                <Td>{formatDate(new Date(p.joinedAt))}</Td>
+                <Td className="text-right">
+                  {locked ? null : (
+                    <button
+                      type="button"
+                      className={p.status === "active" ? "btn-danger" : "btn-quiet"}
+                      disabled={pending}
+                      onClick={() =>
+                        p.status === "active"
+                          ? change.save({ person: p, change: { status: "deactivated" }, done: `${p.name} is deactivated and signed out.` })
+                          : change.save({ person: p, change: { status: "active" }, done: `${p.name} can sign in again.` })
+                      }
+                    >
+                      {p.status === "active" ? "Deactivate" : "Reactivate"}
+                    </button>
+                  )}
+                </Td>
               </tr>
-            </thead>
-            <tbody className="divide-y divide-paper-line">
-              {props.people.map((p) => {
-                const isMe = p.userId === props.me;
-                const locked = isMe || (p.role === "owner" && props.myRole !== "owner");
-                return (
-                  <tr key={p.id} data-testid={`person-${p.email}`}>
-                    <td className="px-4 py-2">
-                      <span className="font-medium">{p.name}</span>
-                      {isMe ? <span className="ml-2 text-xs text-graphite-soft">(you)</span> : null}
-                      <span className="block text-xs text-graphite-soft">{p.email}</span>
-                    </td>
-                    <td className="px-4 py-2">
-                      <label className="sr-only" htmlFor={`role-${p.id}`}>Role of {p.name}</label>
-                      <select
-                        id={`role-${p.id}`}
-                        className="field-input min-w-40"
-                        value={p.role}
-                        disabled={locked || pending}
-                        onChange={(e) =>
-                          run(
-                            () => updatePersonAction({ membershipId: p.id, change: { role: e.target.value as Role } }),
-                            `${p.name} is now ${ROLE_LABELS[e.target.value as Role]}.`,
-                          )
-                        }
-                      >
-                        {(locked ? [p.role] : props.roles.includes(p.role) ? props.roles : [p.role, ...props.roles]).map((r) => (
-                          <option key={r} value={r}>
-                            {ROLE_LABELS[r]}
-                          </option>
-                        ))}
-                      </select>
-                    </td>
-                    <td className="px-4 py-2">
-                      <span className={p.status === "active" ? "text-sage" : "text-danger"}>{p.status === "active" ? "Active" : "Deactivated"}</span>
-                    </td>
-                    <td className="px-4 py-2">{formatDate(new Date(p.joinedAt))}</td>
-                    <td className="px-4 py-2 text-right">
-                      {locked ? null : p.status === "active" ? (
-                        <button
-                          type="button"
-                          className="btn-danger"
-                          disabled={pending}
-                          onClick={() => run(() => updatePersonAction({ membershipId: p.id, change: { status: "deactivated" } }), `${p.name} is deactivated and signed out.`)}
-                        >
-                          Deactivate
-                        </button>
-                      ) : (
-                        <button
-                          type="button"
-                          className="btn-quiet"
-                          disabled={pending}
-                          onClick={() => run(() => updatePersonAction({ membershipId: p.id, change: { status: "active" } }), `${p.name} can sign in again.`)}
-                        >
-                          Reactivate
-                        </button>
-                      )}
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
+            );
+          })}
+        </TableShell>
       </section>
 
-      <section aria-labelledby="invitations-heading">
+      <section aria-labelledby="invitations-heading" className="space-y-2">
         <h2 id="invitations-heading" className="text-lg font-semibold">
           Open invitations
         </h2>
         {props.invitations.length === 0 ? (
-          <p className="mt-1 text-graphite-soft">None.</p>
+          <EmptyState>None.</EmptyState>
         ) : (
-          <ul className="mt-2 divide-y divide-paper-line rounded-card border border-paper-line bg-white">
+          <ul className="divide-y divide-paper-line rounded-card border border-paper-line bg-white">
             {props.invitations.map((i) => (
               <li key={i.id} className="flex flex-wrap items-center justify-between gap-2 px-4 py-2" data-testid={`invitation-${i.email}`}>
                 <span>
@@ -126,7 +120,7 @@ export function PeopleClient(props: { me: string; myRole: Role; roles: Role[]; p
                     {ROLE_LABELS[i.role]} · valid until {formatDate(new Date(i.expiresAt))}
                   </span>
                 </span>
-                <button type="button" className="btn-quiet" disabled={pending} onClick={() => run(() => revokeInvitationAction({ invitationId: i.id }), `The invitation to ${i.email} is withdrawn.`)}>
+                <button type="button" className="btn-quiet" disabled={pending} onClick={() => withdraw.save(i)}>
                   Withdraw
                 </button>
               </li>
@@ -138,25 +132,18 @@ export function PeopleClient(props: { me: string; myRole: Role; roles: Role[]; p
   );
 }
 
-function InviteForm({ roles, onSent }: { roles: Role[]; onSent: (email: string) => void }) {
-  const [error, setError] = useState<string | null>(null);
-  const {
-    register,
-    handleSubmit,
-    reset,
-    setError: setFieldError,
-    formState: { errors, isSubmitting },
-  } = useForm<InviteInput>({ resolver: zodResolver(inviteSchema), defaultValues: { email: "", name: "", role: "sales_rep" } });
-
-  const onSubmit = handleSubmit(async (values) => {
-    setError(null);
-    const result = await invitePersonAction(values);
-    if (!result.ok) {
-      if (!applyFieldErrors(result.fieldErrors, setFieldError)) setError(result.message);
-      return;
-    }
-    reset();
-    onSent(values.email.trim().toLowerCase());
+function InviteForm({ roles, notify }: { roles: Role[]; notify: (notice: Notice | null) => void }) {
+  const { register, handleSubmit, reset, setError, formState } = useForm<InviteInput>({
+    resolver: zodResolver(inviteSchema),
+    defaultValues: { email: "", name: "", role: "sales_rep" },
+  });
+  const { errors } = formState;
+  const invite = useSave<InviteInput, unknown, InviteInput>({
+    request: (json) => ({ url: "/api/people", method: "POST", json }),
+    success: (_, v) => `Invitation sent to ${v.email.trim().toLowerCase()}.`,
+    setError,
+    notify,
+    onSaved: () => reset(),
   });
 
   return (
@@ -165,29 +152,12 @@ function InviteForm({ roles, onSent }: { roles: Role[]; onSent: (email: string) 
         Invite someone
       </h2>
       <p className="mt-1 text-sm text-graphite-soft">They get an e-mail with a link to set their password. The link works for 7 days.</p>
-      <form onSubmit={onSubmit} noValidate className="mt-4 grid gap-4 md:grid-cols-[2fr_2fr_1.5fr_auto] md:items-start">
-        {error ? (
-          <div className="md:col-span-4">
-            <FormMessage tone="error">{error}</FormMessage>
-          </div>
-        ) : null}
+      <form onSubmit={handleSubmit(invite.save)} noValidate className="mt-4 grid gap-4 md:grid-cols-[2fr_2fr_1.5fr_auto] md:items-start">
         <Field id="invite-email" label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...register("email")} />
         <Field id="invite-name" label="Name (optional)" autoComplete="off" error={errors.name?.message} {...register("name")} />
-        <div>
-          <label htmlFor="invite-role" className="field-label">
-            Role
-          </label>
-          <select id="invite-role" className="field-input" aria-invalid={errors.role ? true : undefined} {...register("role")}>
-            {roles.map((r) => (
-              <option key={r} value={r}>
-                {ROLE_LABELS[r]}
-              </option>
-            ))}
-          </select>
-          {errors.role ? <p className="field-error">{errors.role.message}</p> : null}
-        </div>
-        <button type="submit" className="btn-primary md:mt-6" disabled={isSubmitting}>
-          {isSubmitting ? "Sending…" : "Send invitation"}
+        <SelectField id="invite-role" label="Role" options={roleOptions(roles)} error={errors.role?.message} {...register("role")} />
+        <button type="submit" className="btn-primary md:mt-6" disabled={invite.pending}>
+          {invite.pending ? "Sending…" : "Send invitation"}
         </button>
       </form>
     </section>

@@ -1,9 +1,4 @@
 import { NextResponse } from "next/server";
-import { getDealOrThrow } from "@/server/deals";
-import { notFound } from "@/server/errors";
-import { idSchema, withMember } from "@/server/route";
+import { withDeal } from "@/server/deal-route";
 
-export const GET = withMember<{ id: string }>("deals:read-own", async ({ member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
-  return NextResponse.json({ data: await getDealOrThrow(member, params.id) });
-});
+export const GET = withDeal("deals:read-own", async ({ scope }) => NextResponse.json({ data: scope.deal }));

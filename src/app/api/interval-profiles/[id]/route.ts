@@ -1,9 +1,4 @@
-import { NextResponse } from "next/server";
 import { getIntervalProfileOrThrow } from "@/server/energy";
-import { notFound } from "@/server/errors";
-import { idSchema, withMember } from "@/server/route";
+import { readById } from "@/server/route";
 
-export const GET = withMember<{ id: string }>("deals:read-own", async ({ member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Interval profile");
-  return NextResponse.json({ data: await getIntervalProfileOrThrow(member, params.id) });
-});
+export const GET = readById("deals:read-own", "Interval profile", getIntervalProfileOrThrow);

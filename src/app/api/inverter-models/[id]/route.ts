@@ -1,25 +1,11 @@
-import { NextResponse } from "next/server";
 import { inverterPatchSchema } from "@/lib/schemas/catalog";
 import { getInverterOrThrow, patchInverter, setInverterActive } from "@/server/catalog";
-import { notFound } from "@/server/errors";
-import { idSchema, readJson, withMember } from "@/server/route";
+import { deleteById, readById, writeById } from "@/server/route";
 
-type Params = { id: string };
-
-export const GET = withMember<Params>("catalog:read", async ({ member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Inverter");
-  return NextResponse.json({ data: await getInverterOrThrow(member.companyId, params.id) });
-});
+export const GET = readById("catalog:read", "Inverter", (member, id) => getInverterOrThrow(member.companyId, id));
 
 /** Changes some fields (the result is checked as a whole) and/or `active`. */
-export const PATCH = withMember<Params>("catalog:manage", async ({ req, member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Inverter");
-  const patch = await readJson(req, inverterPatchSchema);
-  return NextResponse.json({ data: await patchInverter(member, params.id, patch) });
-});
+export const PATCH = writeById("catalog:manage", "Inverter", inverterPatchSchema, patchInverter);
 
 /** Equipment is never deleted (designs keep their datasheets): DELETE deactivates. */
-export const DELETE = withMember<Params>("catalog:manage", async ({ member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Inverter");
-  return NextResponse.json({ data: await setInverterActive(member, params.id, false) });
-});
+export const DELETE = deleteById("catalog:manage", "Inverter", (member, id) => setInverterActive(member, id, false));

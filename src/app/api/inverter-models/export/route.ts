@@ -1,14 +1,3 @@
-import { exportInvertersCsv } from "@/server/catalog";
-import { withMember } from "@/server/route";
+import { exportEquipment } from "@/server/catalog-routes";
 
-/** The company's inverters as CSV (columns documented on the Catalog page). */
-export const GET = withMember("catalog:read", async ({ member }) => {
-  const csv = await exportInvertersCsv(member.companyId);
-  return new Response(csv, {
-    headers: {
-      "Content-Type": "text/csv; charset=utf-8",
-      "Content-Disposition": 'attachment; filename="inverters.csv"',
-      "Cache-Control": "no-store",
-    },
-  });
-});
+export const GET = exportEquipment("inverters");

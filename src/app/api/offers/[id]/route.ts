@@ -6,19 +6,18 @@ import { idSchema, readJson, withMember } from "@/server/route";
 
 type Params = { id: string };
 
-export const GET = withMember<Params>("deals:read-own", async ({ member, params }) => {
+/** The offer's id from the path; a malformed one is simply not found. */
+function offerId(params: Params): string {
   if (!idSchema.safeParse(params.id).success) throw notFound("Offer");
-  return NextResponse.json({ data: await getOfferOrThrow(member, params.id) });
-});
+  return params.id;
+}
 
-/** Replaces the offer's inputs (body: { inputs }) and recomputes its figures. */
+export const GET = withMember<Params>("deals:read-own", async ({ member, params }) => NextResponse.json({ data: await getOfferOrThrow(member, offerId(params)) }));
+
+/** Replaces the offer's inputs (body: { inputs }) and recomputes its figures from the deal's current inputs. */
 export const PUT = withMember<Params>("deals:write", async ({ req, member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Offer");
-  const body = await readJson(req, updateOfferSchema);
-  return NextResponse.json({ data: await updateOffer(member, params.id, body) });
+  const id = offerId(params);
+  return NextResponse.json({ data: await updateOffer(member, id, await readJson(req, updateOfferSchema)) });
 });
 
-export const DELETE = withMember<Params>("deals:write", async ({ member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Offer");
-  return NextResponse.json({ data: await deleteOffer(member, params.id) });
-});
+export const DELETE = withMember<Params>("deals:write", async ({ member, params }) => NextResponse.json({ data: await deleteOffer(member, offerId(params)) }));

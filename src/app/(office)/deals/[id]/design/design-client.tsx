@@ -2,12 +2,14 @@
 // The Design tab: roof faces, equipment, weather, sizing, the live production estimate against
 // usage, and the string check. The station's hourly weather and the deal's usage are fetched
 // once; the engine then runs here, in the browser, on every edit.
-import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useQuery } from "@tanstack/react-query";
 import { useDeferredValue, useMemo, useState } from "react";
-import { FormMessage } from "@/components/field";
+import { Field, FormMessage, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
 import { estimateProduction } from "@/engine/production";
 import type { WeatherYear } from "@/engine/weather";
-import { api, ApiError } from "@/lib/api-client";
+import { api } from "@/lib/api-client";
+import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { checkStringPlan, engineSystem, inverterAcKw, manualProductionHourly, sizeDesign, STRING_CAUTION, suggestStrings, type InverterSpec, type ModuleSpec } from "@/lib/offer-figures";
 import { DEFAULT_HIGHEST_TEMP_C, DEFAULT_LOWEST_TEMP_C, DEFAULT_SYSTEM_LOSSES_PCT, designDocumentSchema, type DesignDocument, type DesignDocumentInput } from "@/lib/schemas/design";
 import type { DesignInputs, DesignRecord, WeatherColumns } from "@/server/designs";
@@ -165,9 +167,8 @@ export function DesignClient({ dealId, canEdit, initialInputs }: { dealId: strin
 }
 
 function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: DesignInputs; canEdit: boolean }) {
-  const queryClient = useQueryClient();
   const [draft, setDraft] = useState<Draft>(() => draftFrom(inputs));
-  const [notice, setNotice] = useState<{ tone: "error" | "success" | "info"; text: string } | null>(null);
+  const [notice, setNotice] = useState<Notice | null>(null);
   const [serverErrors, setServerErrors] = useState<Record<string, string>>({});
 
   const mod = inputs.modules.find((m) => m.id === draft.moduleId) ?? null;
@@ -223,19 +224,16 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
     return checkStringPlan(mod as ModuleSpec, inv as InverterSpec, validDoc.inverterCount, validDoc.stringPlan);
   }, [validDoc, mod, inv]);
 
-  const save = useMutation({
-    mutationFn: () => api<DesignRecord>("/api/designs", { method: "PUT", json: { dealId, document: doc } }),
-    onSuccess: () => {
-      setServerErrors({});
-      setNotice({ tone: "success", text: "Design saved." });
-      void queryClient.invalidateQueries({ queryKey: ["design-inputs", dealId] });
-    },
-    onError: (err: Error) => {
-      if (err instanceof ApiError && err.fields) {
-        setServerErrors(Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.replace(/^document\./, ""), v[0]])));
-      }
-      setNotice({ tone: "error", text: err.message });
-    },
+  // The tab reads through useQuery: a save refreshes that query, not the server-rendered page.
+  const save = useSave<DesignDocumentInput, DesignRecord>({
+    request: (document) => ({ url: "/api/designs", method: "PUT", json: { dealId, document } }),
+    notify: setNotice,
+    success: "Design saved.",
+    fieldPrefix: "document.",
+    onFieldErrors: (fields) => setServerErrors(fieldErrorsToErrors(fields)),
+    onSaved: () => setServerErrors({}),
+    invalidate: [["design-inputs", dealId]],
+    refresh: false,
   });
 
   const setFace = (i: number, patch: Partial<FaceDraft>) => {
@@ -291,34 +289,26 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
             Equipment
           </h2>
           <div className="mt-3 grid gap-4 sm:grid-cols-2">
-            <div>
-              <label htmlFor="module" className="field-label">
-                Module
-              </label>
-              <select id="module" className="field-input" value={draft.moduleId} disabled={disabled} onChange={(e) => set({ moduleId: e.target.value })}>
-                {inputs.modules.map((m) => (
-                  <option key={m.id} value={m.id}>
-                    {m.manufacturer} {m.model} · {m.stcWatts} W
-                  </option>
-                ))}
-              </select>
-            </div>
-            <div>
-              <label htmlFor="inverter" className="field-label">
-                Inverter
-              </label>
-              <select id="inverter" className="field-input" value={draft.inverterId} disabled={disabled} onChange={(e) => set({ inverterId: e.target.value })}>
-                {inputs.inverters.map((i) => (
-                  <option key={i.id} value={i.id}>
-                    {i.manufacturer} {i.model} · {i.kind === "micro" ? `micro, ${i.acWatts} W` : `string, ${fmt(i.acWatts / 1000, 1)} kW`}
-                  </option>
-                ))}
-              </select>
-            </div>
+            <SelectField
+              id="module"
+              label="Module"
+              value={draft.moduleId}
+              disabled={disabled}
+              onChange={(e) => set({ moduleId: e.target.value })}
+              options={inputs.modules.map((m) => ({ value: m.id, label: `${m.manufacturer} ${m.model} · ${m.stcWatts} W` }))}
+            />
+            <SelectField
+              id="inverter"
+              label="Inverter"
+              value={draft.inverterId}
+              disabled={disabled}
+              onChange={(e) => set({ inverterId: e.target.value })}
+              options={inputs.inverters.map((i) => ({ value: i.id, label: `${i.manufacturer} ${i.model} · ${i.kind === "micro" ? `micro, ${i.acWatts} W` : `string, ${fmt(i.acWatts / 1000, 1)} kW`}` }))}
+            />
             {inv?.kind === "string" ? (
-              <NumberInput id="inverter-count" label="Inverters of this model" value={draft.inverterCount} error={errors.inverterCount} disabled={disabled} onChange={(v) => set({ inverterCount: v })} />
+              <Field inputMode="decimal" id="inverter-count" label="Inverters of this model" value={draft.inverterCount} error={errors.inverterCount} disabled={disabled} onChange={(ev) => set({ inverterCount: ev.target.value })} />
             ) : null}
-            <NumberInput id="losses" label="System losses (%)" value={draft.lossesPct} error={errors.lossesPct} disabled={disabled} onChange={(v) => set({ lossesPct: v })} hint="Wiring, soiling, mismatch, light-induced and age losses combined; shading goes in solar access." />
+            <Field inputMode="decimal" id="losses" label="System losses (%)" value={draft.lossesPct} error={errors.lossesPct} disabled={disabled} onChange={(ev) => set({ lossesPct: ev.target.value })} hint="Wiring, soiling, mismatch, light-induced and age losses combined; shading goes in solar access." />
           </div>
         </section>
 
@@ -341,21 +331,21 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
               return (
                 <li key={f.id} className="rounded-md border border-paper-line p-3" data-testid={`face-${n}`}>
                   <div className="grid gap-3 sm:grid-cols-3">
-                    <TextInput id={`face-${n}-name`} label={`Face ${n} name`} value={f.name} error={e("name")} disabled={disabled} onChange={(v) => setFace(i, { name: v })} />
-                    <NumberInput id={`face-${n}-tilt`} label={`Face ${n} tilt (°)`} value={f.tiltDeg} error={e("tiltDeg")} disabled={disabled} onChange={(v) => setFace(i, { tiltDeg: v })} />
-                    <NumberInput id={`face-${n}-azimuth`} label={`Face ${n} azimuth (°)`} value={f.azimuthDeg} error={e("azimuthDeg")} disabled={disabled} onChange={(v) => setFace(i, { azimuthDeg: v })} hint="180 south, 90 east, 270 west" />
-                    <NumberInput id={`face-${n}-slots`} label={`Face ${n} usable module slots`} value={f.usableSlots} error={e("usableSlots")} disabled={disabled} onChange={(v) => setFace(i, { usableSlots: v })} />
-                    <TextInput
+                    <Field id={`face-${n}-name`} label={`Face ${n} name`} value={f.name} error={e("name")} disabled={disabled} onChange={(ev) => setFace(i, { name: ev.target.value })} />
+                    <Field inputMode="decimal" id={`face-${n}-tilt`} label={`Face ${n} tilt (°)`} value={f.tiltDeg} error={e("tiltDeg")} disabled={disabled} onChange={(ev) => setFace(i, { tiltDeg: ev.target.value })} />
+                    <Field inputMode="decimal" id={`face-${n}-azimuth`} label={`Face ${n} azimuth (°)`} value={f.azimuthDeg} error={e("azimuthDeg")} disabled={disabled} onChange={(ev) => setFace(i, { azimuthDeg: ev.target.value })} hint="180 south, 90 east, 270 west" />
+                    <Field inputMode="decimal" id={`face-${n}-slots`} label={`Face ${n} usable module slots`} value={f.usableSlots} error={e("usableSlots")} disabled={disabled} onChange={(ev) => setFace(i, { usableSlots: ev.target.value })} />
+                    <Field
                       id={`face-${n}-access`}
                       label={`Face ${n} solar access (%)`}
                       value={f.solarAccess}
                       error={e("solarAccessPct") ?? Object.entries(errors).find(([k]) => k.startsWith(`faces.${i}.solarAccessPct.`))?.[1]}
                       disabled={disabled}
-                      onChange={(v) => setFace(i, { solarAccess: v })}
+                      onChange={(ev) => setFace(i, { solarAccess: ev.target.value })}
                       hint="One annual value, or 12 monthly values (Jan first) separated by commas"
                       inputMode="decimal"
                     />
-                    <NumberInput id={`face-${n}-modules`} label={`Face ${n} modules`} value={f.moduleCount} error={e("moduleCount")} disabled={disabled} onChange={(v) => setFace(i, { moduleCount: v })} />
+                    <Field inputMode="decimal" id={`face-${n}-modules`} label={`Face ${n} modules`} value={f.moduleCount} error={e("moduleCount")} disabled={disabled} onChange={(ev) => setFace(i, { moduleCount: ev.target.value })} />
                   </div>
                   {canEdit && draft.faces.length > 1 ? (
                     <button type="button" className="btn-danger mt-3" onClick={() => update((d) => ({ faces: d.faces.filter((_, k) => k !== i) }))}>
@@ -368,7 +358,7 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
           </ul>
           <div className="mt-4 flex flex-wrap items-end gap-3 border-t border-paper-line pt-4">
             <div className="w-40">
-              <NumberInput id="target-offset" label="Target offset (%)" value={draft.targetOffsetPct} error={errors.targetOffsetPct} disabled={disabled} onChange={(v) => set({ targetOffsetPct: v })} />
+              <Field inputMode="decimal" id="target-offset" label="Target offset (%)" value={draft.targetOffsetPct} error={errors.targetOffsetPct} disabled={disabled} onChange={(ev) => set({ targetOffsetPct: ev.target.value })} />
             </div>
             {canEdit ? (
               <button type="button" className="btn-quiet" onClick={runSizing} disabled={sizingBlocked !== null}>
@@ -419,9 +409,9 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
           </fieldset>
           {draft.weatherKind === "manual" ? (
             <div className="mt-3 grid gap-3 sm:grid-cols-2">
-              <NumberInput id="manual-annual" label="Annual production from another source (kWh)" value={draft.manualAnnualKwh} error={errors["weather.annualKwh"]} disabled={disabled} onChange={(v) => set({ manualAnnualKwh: v })} />
-              <TextInput id="manual-source" label="Where the figure comes from" value={draft.manualSource} error={errors["weather.source"]} disabled={disabled} onChange={(v) => set({ manualSource: v })} hint="e.g. the utility's solar calculator, a site survey report" />
-              <TextInput id="manual-monthly" label="Monthly figures (optional, 12 values, Jan first)" value={draft.manualMonthlyKwh} error={errors["weather.monthlyKwh"]} disabled={disabled} onChange={(v) => set({ manualMonthlyKwh: v })} />
+              <Field inputMode="decimal" id="manual-annual" label="Annual production from another source (kWh)" value={draft.manualAnnualKwh} error={errors["weather.annualKwh"]} disabled={disabled} onChange={(ev) => set({ manualAnnualKwh: ev.target.value })} />
+              <Field id="manual-source" label="Where the figure comes from" value={draft.manualSource} error={errors["weather.source"]} disabled={disabled} onChange={(ev) => set({ manualSource: ev.target.value })} hint="e.g. the utility's solar calculator, a site survey report" />
+              <Field id="manual-monthly" label="Monthly figures (optional, 12 values, Jan first)" value={draft.manualMonthlyKwh} error={errors["weather.monthlyKwh"]} disabled={disabled} onChange={(ev) => set({ manualMonthlyKwh: ev.target.value })} />
             </div>
           ) : station ? (
             <p className="mt-2 text-sm text-graphite-soft">
@@ -437,9 +427,9 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
               String check
             </h2>
             <div className="mt-3 grid gap-3 sm:grid-cols-3">
-              <TextInput id="string-sizes" label="Modules per string" value={draft.stringSizes} error={errors["stringPlan.stringSizes"] ?? Object.entries(errors).find(([k]) => k.startsWith("stringPlan.stringSizes."))?.[1]} disabled={disabled} onChange={(v) => set({ stringSizes: v })} hint="One number per string, e.g. 10, 10" />
-              <NumberInput id="lowest-temp" label="Site record low (°C)" value={draft.lowestTempC} error={errors["stringPlan.lowestTempC"]} disabled={disabled} onChange={(v) => set({ lowestTempC: v })} hint={`Use the site's record or extreme-minimum low.${coldestHourC !== null ? ` The typical year's coldest hour is ${fmt(coldestHourC, 1)} °C; records go lower.` : ""}`} />
-              <NumberInput id="highest-temp" label="Hot design temperature (°C)" value={draft.highestTempC} error={errors["stringPlan.highestTempC"]} disabled={disabled} onChange={(v) => set({ highestTempC: v })} />
+              <Field id="string-sizes" label="Modules per string" value={draft.stringSizes} error={errors["stringPlan.stringSizes"] ?? Object.entries(errors).find(([k]) => k.startsWith("stringPlan.stringSizes."))?.[1]} disabled={disabled} onChange={(ev) => set({ stringSizes: ev.target.value })} hint="One number per string, e.g. 10, 10" />
+              <Field inputMode="decimal" id="lowest-temp" label="Site record low (°C)" value={draft.lowestTempC} error={errors["stringPlan.lowestTempC"]} disabled={disabled} onChange={(ev) => set({ lowestTempC: ev.target.value })} hint={`Use the site's record or extreme-minimum low.${coldestHourC !== null ? ` The typical year's coldest hour is ${fmt(coldestHourC, 1)} °C; records go lower.` : ""}`} />
+              <Field inputMode="decimal" id="highest-temp" label="Hot design temperature (°C)" value={draft.highestTempC} error={errors["stringPlan.highestTempC"]} disabled={disabled} onChange={(ev) => set({ highestTempC: ev.target.value })} />
             </div>
             {canEdit ? (
               <button type="button" className="btn-quiet mt-3" onClick={suggest} disabled={!totalModules}>
@@ -453,13 +443,13 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
 
         {canEdit ? (
           <div className="flex flex-wrap items-center gap-3">
-            <button type="button" className="btn-primary" onClick={() => save.mutate()} disabled={save.isPending}>
-              {save.isPending ? "Saving…" : "Save design"}
+            <button type="button" className="btn-primary" onClick={() => save.save(doc)} disabled={save.pending}>
+              {save.pending ? "Saving…" : "Save design"}
             </button>
             {!parsed.success ? <p className="text-sm text-danger">Fix the marked fields before saving.</p> : null}
           </div>
         ) : null}
-        {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+        <StatusMessage notice={notice} />
       </div>
 
       <aside className="space-y-4 xl:sticky xl:top-4 xl:self-start" aria-label="Production estimate">
@@ -544,32 +534,4 @@ function Figure({ label, value, testId }: { label: string; value: string; testId
       </dd>
     </div>
   );
-}
-
-type InputProps = { id: string; label: string; value: string; error?: string; hint?: string; disabled?: boolean; onChange: (v: string) => void; inputMode?: "decimal" | "numeric" | "text" };
-
-function TextInput({ id, label, value, error, hint, disabled, onChange, inputMode = "text" }: InputProps) {
-  const describedBy = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        {label}
-      </label>
-      <input id={id} className="field-input" value={value} inputMode={inputMode} disabled={disabled} aria-invalid={error ? true : undefined} aria-describedby={describedBy} onChange={(e) => onChange(e.target.value)} />
-      {hint ? (
-        <p id={`${id}-hint`} className="mt-1 text-xs text-graphite-soft">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={`${id}-error`} className="field-error" role="alert">
-          {error}
-        </p>
-      ) : null}
-    </div>
-  );
-}
-
-function NumberInput(props: InputProps) {
-  return <TextInput {...props} inputMode="decimal" />;
 }

@@ -1,25 +1,22 @@
 import type { Metadata } from "next";
 import { preload } from "react-dom";
 import { NoAccess } from "@/components/no-access";
-import { can } from "@/lib/permissions";
-import { getDealOrThrow } from "@/server/deals";
 import { getDesignInputs } from "@/server/designs";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { DesignClient } from "./design-client";
 
 export const metadata: Metadata = { title: "Design" };
 
 export default async function DesignTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  if (!can(member.role, "catalog:read") || !can(member.role, "weather:read")) return <NoAccess section="Design" />;
-  await getDealOrThrow(member, id);
+  const scope = await dealPageScope(params);
+  if (!scope) return null;
+  if (!scope.rights.design) return <NoAccess section="Design" />;
+  const id = scope.dealId;
   // Rendered with the page, so the editor does not wait for a second round trip (LCP).
-  const inputs = JSON.parse(JSON.stringify(await getDesignInputs(member, id))) as Awaited<ReturnType<typeof getDesignInputs>>;
+  const inputs = JSON.parse(JSON.stringify(await getDesignInputs(scope))) as Awaited<ReturnType<typeof getDesignInputs>>;
   // The station's hourly weather starts downloading with the page's scripts, not after them.
   const saved = inputs.design?.document.weather;
   const stationId = saved?.kind === "station" ? saved.stationId : (inputs.nearest?.stationId ?? inputs.stations[0]?.id);
   if (stationId && saved?.kind !== "manual") preload(`/api/deals/${id}/design-inputs/weather?stationId=${stationId}`, { as: "fetch" });
-  return <DesignClient dealId={id} canEdit={can(member.role, "deals:write")} initialInputs={inputs} />;
+  return <DesignClient dealId={id} canEdit={scope.rights.edit} initialInputs={inputs} />;
 }

@@ -1,23 +1,19 @@
 "use client";
-import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useRef, useState } from "react";
-import { FormMessage } from "@/components/field";
+import { StatusMessage, type Notice } from "@/components/ui/field";
+import { Th } from "@/components/ui/table";
+import { useSave } from "@/components/ui/use-save";
 import { api, ApiError } from "@/lib/api-client";
+import { fieldErrorsToErrors } from "@/lib/form-errors";
 import type { BillSuggestion } from "@/lib/bill-text";
 import { billsTableSchema } from "@/lib/schemas/energy";
+import type { UsageYear } from "@/lib/usage-year";
 import { UsageChart } from "./usage-chart";
 
 type BillValue = { periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null };
 type Row = { key: string; periodStart: string; periodEnd: string; kwh: string; cost: string; uploadId: string | null };
-type Usage = {
-  monthlyKwh: number[];
-  annualKwh: number;
-  source: "bills" | "interval" | "none";
-  estimatedMonths: boolean[];
-  warnings: string[];
-  averageCentsPerKwh: number | null;
-  fillMethod: string;
-};
+type Usage = Omit<UsageYear, "hourlyKwh">;
 type UploadView = { id: string; fileName: string; mimeType: string; purpose: string; createdAt: string };
 type Outcome =
   | { kind: "bill-text"; upload: { id: string; fileName: string }; suggestions: BillSuggestion[]; message: string }
@@ -76,7 +72,7 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
   const queryClient = useQueryClient();
   const [rows, setRows] = useState<Row[]>(() => (props.initialBills.length ? props.initialBills.map(toRow) : [emptyRow()]));
   const [rowErrors, setRowErrors] = useState<Record<string, string>>({});
-  const [notice, setNotice] = useState<{ tone: "error" | "success" | "info"; text: string } | null>(null);
+  const [notice, setNotice] = useState<Notice | null>(null);
   const [progress, setProgress] = useState<number | null>(null);
   const [suggestions, setSuggestions] = useState<{ uploadId: string; items: (BillSuggestion & { pick: boolean })[] } | null>(null);
   const fileInput = useRef<HTMLInputElement>(null);
@@ -92,18 +88,17 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
     initialData: props.uploads,
   });
 
-  const save = useMutation({
-    mutationFn: (payload: ReturnType<typeof toPayload>) => api<{ bills: BillValue[]; usage: Usage }>(`/api/deals/${props.dealId}/bills`, { method: "PUT", json: payload }),
-    onSuccess: (data) => {
+  // The tab reads usage through useQuery: the answer carries the new usage year, put straight into it.
+  const save = useSave<ReturnType<typeof toPayload>, { bills: BillValue[]; usage: Usage }>({
+    request: (json) => ({ url: `/api/deals/${props.dealId}/bills`, method: "PUT", json }),
+    notify: setNotice,
+    refresh: false,
+    success: (data) => `Saved ${data.bills.length} bill${data.bills.length === 1 ? "" : "s"}.`,
+    onFieldErrors: (fields) => setRowErrors(fieldErrorsToErrors(fields)),
+    onSaved: (data) => {
       queryClient.setQueryData(["usage", props.dealId], data.usage);
       setRows(data.bills.length ? data.bills.map(toRow) : [emptyRow()]);
       setRowErrors({});
-      setNotice({ tone: "success", text: `Saved ${data.bills.length} bill${data.bills.length === 1 ? "" : "s"}.` });
-    },
-    onError: (err) => {
-      const fields = err instanceof ApiError ? (err.fields ?? {}) : {};
-      setRowErrors(Object.fromEntries(Object.entries(fields).map(([k, v]) => [k, v[0]])));
-      setNotice({ tone: "error", text: `${err.message} Nothing was changed.` });
     },
   });
 
@@ -118,7 +113,7 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
       setNotice({ tone: "error", text: "Some bills need a look (marked below). Nothing was saved yet." });
       return;
     }
-    save.mutate(payload);
+    save.save(payload);
   }
 
   async function onFile(file: File) {
@@ -159,7 +154,7 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
   return (
     <div className="grid gap-6 xl:grid-cols-[3fr_2fr]">
       <div className="space-y-6">
-        {notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null}
+        <StatusMessage notice={notice} />
 
         {props.canEdit ? (
           <section className="card p-5" aria-labelledby="upload-heading">
@@ -235,11 +230,13 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
             <table className="w-full min-w-[560px] text-sm">
               <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-graphite-soft">
                 <tr>
-                  <th scope="col" className="px-3 py-2">From</th>
-                  <th scope="col" className="px-3 py-2">To</th>
-                  <th scope="col" className="px-3 py-2">kWh</th>
-                  <th scope="col" className="px-3 py-2">Amount ($)</th>
-                  <th scope="col" className="px-3 py-2"><span className="sr-only">Remove</span></th>
+                  <Th>From</Th>
+                  <Th>To</Th>
+                  <Th>kWh</Th>
+                  <Th>Amount ($)</Th>
+                  <Th>
+                    <span className="sr-only">Remove</span>
+                  </Th>
                 </tr>
               </thead>
               <tbody>
@@ -283,8 +280,8 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
               <button type="button" className="btn-quiet" onClick={() => setRows((rs) => [...rs, emptyRow()])}>
                 Add a bill
               </button>
-              <button type="button" className="btn-primary" onClick={onSave} disabled={save.isPending}>
-                {save.isPending ? "Saving…" : "Save bills"}
+              <button type="button" className="btn-primary" onClick={onSave} disabled={save.pending}>
+                {save.pending ? "Saving…" : "Save bills"}
               </button>
             </div>
           ) : null}

@@ -1,20 +1,19 @@
 import type { Metadata } from "next";
-import { can } from "@/lib/permissions";
 import { getDealUsage, listBills, listDealUploads } from "@/server/energy";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { EnergyClient } from "./energy-client";
 
 export const metadata: Metadata = { title: "Energy" };
 
 export default async function EnergyTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  const [bills, usage, uploads] = await Promise.all([listBills(member, id), getDealUsage(member, id), listDealUploads(member, id)]);
+  const scope = await dealPageScope(params);
+  if (!scope) return null;
+  const id = scope.dealId;
+  const [bills, usage, uploads] = await Promise.all([listBills(scope), getDealUsage(scope), listDealUploads(scope)]);
   return (
     <EnergyClient
       dealId={id}
-      canEdit={can(member.role, "deals:write")}
+      canEdit={scope.rights.edit}
       initialBills={bills.map(({ periodStart, periodEnd, kwh, costCents, uploadId }) => ({ periodStart, periodEnd, kwh, costCents, uploadId }))}
       initialUsage={{ monthlyKwh: usage.monthlyKwh, annualKwh: usage.annualKwh, source: usage.source, estimatedMonths: usage.estimatedMonths, warnings: usage.warnings, averageCentsPerKwh: usage.averageCentsPerKwh, fillMethod: usage.fillMethod }}
       uploads={uploads.map((u) => ({ id: u.id, fileName: u.fileName, mimeType: u.mimeType, purpose: u.purpose, createdAt: u.createdAt.toISOString() }))}

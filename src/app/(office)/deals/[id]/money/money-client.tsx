@@ -2,16 +2,15 @@
 // The deal's Money tab: the deposit's ledger rows with the provider's ids, refunds with their
 // reasons, and the office's actions (refund, re-send the receipt).
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useMutation } from "@tanstack/react-query";
 import Link from "next/link";
-import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import type { PaymentStatus } from "@/lib/enums";
-import { FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
-import { applyFieldErrors } from "@/lib/form-errors";
-import { dollarsToCents, refundPaymentSchema, type RefundPaymentInput } from "./refund-schema";
+import { Badge, type BadgeTone } from "@/components/ui/badge";
+import { Field, FormMessage, StatusMessage } from "@/components/ui/field";
+import { Th } from "@/components/ui/table";
+import { useSave } from "@/components/ui/use-save";
+import { dollarsToCents, refundPaymentSchema, type RefundPaymentInput } from "@/lib/schemas/refund";
 
 export type RefundView = { id: string; amountText: string; reason: string; status: string; stripeRefundId: string; byName: string | null; createdAtText: string };
 export type PaymentView = {
@@ -33,14 +32,14 @@ export type PaymentView = {
   refunds: RefundView[];
 };
 
-const STATUS: Record<PaymentStatus, { label: string; tone: string }> = {
-  open: { label: "Checkout open", tone: "bg-paper-deep text-graphite" },
-  paid: { label: "Paid", tone: "bg-sage-light text-graphite" },
-  failed: { label: "Card failed", tone: "bg-danger-light text-danger" },
-  expired: { label: "Checkout expired", tone: "bg-paper-deep text-graphite-soft" },
-  flagged: { label: "Flagged: check it", tone: "bg-caution-light text-caution" },
-  refunded: { label: "Refunded", tone: "bg-slate-light text-slate-usage" },
-  partially_refunded: { label: "Partly refunded", tone: "bg-slate-light text-slate-usage" },
+const STATUS: Record<PaymentStatus, { label: string; tone: BadgeTone }> = {
+  open: { label: "Checkout open", tone: "neutral" },
+  paid: { label: "Paid", tone: "success" },
+  failed: { label: "Card failed", tone: "danger" },
+  expired: { label: "Checkout expired", tone: "neutral" },
+  flagged: { label: "Flagged: check it", tone: "caution" },
+  refunded: { label: "Refunded", tone: "usage" },
+  partially_refunded: { label: "Partly refunded", tone: "usage" },
 };
 const RECEIPT_STATUSES: PaymentStatus[] = ["paid", "partially_refunded", "refunded"];
 
@@ -83,9 +82,9 @@ function PaymentCard({ p, canRefund }: { p: PaymentView; canRefund: boolean }) {
         <h3 className="font-semibold">
           Deposit · proposal <span className="figure">{p.proposalLabel}</span>
         </h3>
-        <span className={`rounded-full px-3 py-1 text-sm font-medium ${s.tone}`} data-testid="payment-status">
+        <Badge tone={s.tone} size="md" testId="payment-status">
           {s.label}
-        </span>
+        </Badge>
       </header>
       {p.flagReason ? (
         <div className="mt-3">
@@ -122,12 +121,12 @@ function PaymentCard({ p, canRefund }: { p: PaymentView; canRefund: boolean }) {
             <caption className="mb-1 text-left font-medium">Refunds</caption>
             <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
               <tr>
-                <th scope="col" className="px-3 py-2">When</th>
-                <th scope="col" className="px-3 py-2">Amount</th>
-                <th scope="col" className="px-3 py-2">Reason</th>
-                <th scope="col" className="px-3 py-2">By</th>
-                <th scope="col" className="px-3 py-2">State</th>
-                <th scope="col" className="px-3 py-2">Refund id</th>
+                <Th>When</Th>
+                <Th>Amount</Th>
+                <Th>Reason</Th>
+                <Th>By</Th>
+                <Th>State</Th>
+                <Th>Refund id</Th>
               </tr>
             </thead>
             <tbody className="divide-y divide-paper-line">
@@ -154,20 +153,22 @@ function PaymentCard({ p, canRefund }: { p: PaymentView; canRefund: boolean }) {
 }
 
 function ResendReceipt({ paymentId }: { paymentId: string }) {
-  const resend = useMutation({ mutationFn: () => api<{ to: string }>(`/api/payments/${paymentId}/receipt`, { method: "POST" }) });
+  const resend = useSave<void, { to: string }>({
+    request: () => ({ url: `/api/payments/${paymentId}/receipt`, method: "POST" }),
+    refresh: false,
+    success: ({ to }) => `Receipt sent to ${to}.`,
+  });
   return (
     <div className="space-y-2">
-      <button type="button" className="btn-quiet" onClick={() => resend.mutate()} disabled={resend.isPending}>
-        {resend.isPending ? "Sending…" : "Re-send receipt"}
+      <button type="button" className="btn-quiet" onClick={() => resend.save()} disabled={resend.pending}>
+        {resend.pending ? "Sending…" : "Re-send receipt"}
       </button>
-      {resend.isSuccess ? <FormMessage tone="success">Receipt sent to {resend.data.to}.</FormMessage> : null}
-      {resend.isError ? <FormMessage tone="error">{resend.error.message}</FormMessage> : null}
+      <StatusMessage notice={resend.notice} />
     </div>
   );
 }
 
 function RefundForm({ p }: { p: PaymentView }) {
-  const router = useRouter();
   const [open, setOpen] = useState(false);
   const [done, setDone] = useState<string | null>(null);
   const form = useForm<RefundPaymentInput>({ resolver: zodResolver(refundPaymentSchema), defaultValues: { reason: "" } });
@@ -181,17 +182,14 @@ function RefundForm({ p }: { p: PaymentView }) {
     setAmountText(text);
     form.setValue("amountCents", dollarsToCents(text), { shouldValidate: form.formState.isSubmitted });
   };
-  const refund = useMutation({
-    mutationFn: (input: RefundPaymentInput) => api<{ amountCents: number }>(`/api/payments/${p.id}/refunds`, { method: "POST", json: input }),
-    onSuccess: () => {
+  const refund = useSave<RefundPaymentInput, { amountCents: number }, RefundPaymentInput>({
+    request: (json) => ({ url: `/api/payments/${p.id}/refunds`, method: "POST", json }),
+    setError: form.setError,
+    onSaved: () => {
       setDone("Refund sent to the payment provider and recorded.");
       form.reset({ reason: "" });
       setAmountText("");
       setOpen(false);
-      router.refresh();
-    },
-    onError: (err) => {
-      if (err instanceof ApiError) applyFieldErrors(err.fields, form.setError);
     },
   });
 
@@ -216,65 +214,36 @@ function RefundForm({ p }: { p: PaymentView }) {
     <form
       className="w-full max-w-md space-y-3 rounded-md border border-danger/30 p-3"
       aria-label="Refund this deposit"
-      onSubmit={form.handleSubmit((input) => refund.mutate(input))}
+      onSubmit={form.handleSubmit(refund.saveAndWait)}
       noValidate
     >
       <p className="text-sm">
         Up to <span className="figure font-semibold">{p.refundableText}</span> can be refunded. The money goes back to the customer&apos;s card, and they receive an e-mail with the
         reason.
       </p>
-      <div>
-        <label htmlFor={`refund-amount-${p.id}`} className="field-label">
-          Amount (USD)
-        </label>
-        <div className="flex gap-2">
-          <input
-            id={`refund-amount-${p.id}`}
-            className="field-input figure"
-            inputMode="decimal"
-            placeholder="250.00"
-            aria-invalid={errors.amountCents ? true : undefined}
-            aria-describedby={errors.amountCents ? `refund-amount-${p.id}-error` : undefined}
-            value={amountText}
-            onChange={(e) => setAmount(e.target.value)}
-          />
-          <button
-            type="button"
-            className="btn-quiet shrink-0"
-            onClick={() => setAmount((p.refundableCents / 100).toFixed(2))}
-          >
-            All of it
-          </button>
-        </div>
-        {errors.amountCents ? (
-          <p id={`refund-amount-${p.id}-error`} className="field-error" role="alert">
-            {errors.amountCents.message}
-          </p>
-        ) : null}
-      </div>
-      <div>
-        <label htmlFor={`refund-reason-${p.id}`} className="field-label">
-          Reason (the customer sees it)
-        </label>
-        <input
-          id={`refund-reason-${p.id}`}
-          className="field-input"
-          aria-invalid={errors.reason ? true : undefined}
-          aria-describedby={errors.reason ? `refund-reason-${p.id}-error` : undefined}
-          {...form.register("reason")}
+      <div className="flex items-end gap-2">
+        <Field
+          id={`refund-amount-${p.id}`}
+          label="Amount (USD)"
+          className="flex-1"
+          inputClassName="figure"
+          inputMode="decimal"
+          placeholder="250.00"
+          error={errors.amountCents?.message}
+          value={amountText}
+          onChange={(e) => setAmount(e.target.value)}
         />
-        {errors.reason ? (
-          <p id={`refund-reason-${p.id}-error`} className="field-error" role="alert">
-            {errors.reason.message}
-          </p>
-        ) : null}
-      </div>
-      {refund.isError && !(refund.error instanceof ApiError && refund.error.fields) ? <FormMessage tone="error">{refund.error.message}</FormMessage> : null}
-      <div className="flex gap-2">
-        <button type="submit" className="btn-danger" disabled={refund.isPending}>
-          {refund.isPending ? "Refunding…" : "Refund"}
+        <button type="button" className="btn-quiet mb-px shrink-0" onClick={() => setAmount((p.refundableCents / 100).toFixed(2))}>
+          All of it
         </button>
-        <button type="button" className="btn-quiet" onClick={() => setOpen(false)} disabled={refund.isPending}>
+      </div>
+      <Field id={`refund-reason-${p.id}`} label="Reason (the customer sees it)" error={errors.reason?.message} {...form.register("reason")} />
+      <StatusMessage notice={refund.notice} />
+      <div className="flex gap-2">
+        <button type="submit" className="btn-danger" disabled={refund.pending}>
+          {refund.pending ? "Refunding…" : "Refund"}
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => setOpen(false)} disabled={refund.pending}>
           Don&apos;t refund
         </button>
       </div>

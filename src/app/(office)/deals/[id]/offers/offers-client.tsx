@@ -2,21 +2,25 @@
 // The Offers tab: 1–3 offers side by side, each priced from the price book and computed by the
 // server (never from figures typed here), the cumulative cash-flow chart, and discount requests.
 import Link from "next/link";
-import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
-import { FormMessage } from "@/components/field";
+import { ConfirmButton } from "@/components/ui/dialog";
+import { Field, FormMessage, SelectField, StatusMessage } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
+import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { api, ApiError } from "@/lib/api-client";
 import { formatCents } from "@/lib/format";
 import { OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { MAX_OFFERS_PER_DEAL, type OfferInputs, type OfferInputsInput } from "@/lib/schemas/offer";
+import type { StaleInput } from "@/lib/offer-basis";
 import { CashflowChart, OFFER_COLORS } from "./cashflow-chart";
+import { OfferInputsStatus } from "./offer-inputs-status";
 
 type DiscountStatus = "none" | "within_limit" | "pending" | "approved" | "declined";
 /** The server's figures for the form's inputs before saving (POST /api/offers/preview). */
 type Preview = Pick<OfferFigures, "summary" | "discountNeedsApproval" | "discountLimitCents" | "assumptions">;
 /** How long typing must pause before the preview is figured again. */
 const PREVIEW_DELAY_MS = 400;
-type OfferView = { id: string; position: number; name: string; inputs: OfferInputs; results: OfferFigures; discountStatus: DiscountStatus };
+type OfferView = { id: string; position: number; name: string; inputs: OfferInputs; results: OfferFigures; discountStatus: DiscountStatus; stale: StaleInput[] };
 type DesignView = { faces: { id: string; name: string; usableSlots: number; moduleCount: number }[]; moduleId: string; inverterId: string };
 type Option = { id: string; label: string };
 type RequestView = { id: string; offerId: string; offerName: string; amountCents: number; reason: string; status: "pending" | "approved" | "declined"; requestedByName: string | null; decisionNote: string | null; createdAt: string };
@@ -45,12 +49,12 @@ const STATUS_TEXT: Record<DiscountStatus, string> = {
 };
 
 const years = (y: number | null, horizon: number) => (y === null ? `not within ${horizon} years` : `${y.toFixed(1)} years`);
+const optionsOf = (list: Option[]) => list.map((o) => ({ value: o.id, label: o.label }));
 const pct = (r: number | null) => (r === null ? "—" : `${(r * 100).toFixed(0)} %`);
 
 export function OffersClient(props: Props) {
   const { dealId, canEdit, canApprove, offers, design } = props;
   const [editing, setEditing] = useState<string | "new" | null>(null);
-  const router = useRouter();
 
   if (!design) {
     return (
@@ -78,7 +82,7 @@ export function OffersClient(props: Props) {
           </h2>
           <ul className="mt-3 space-y-3">
             {pending.map((r) => (
-              <DiscountRequestItem key={r.id} request={r} canApprove={canApprove} onDone={() => router.refresh()} />
+              <DiscountRequestItem key={r.id} request={r} canApprove={canApprove} />
             ))}
           </ul>
         </section>
@@ -104,7 +108,7 @@ export function OffersClient(props: Props) {
           editing === o.id ? (
             <OfferForm key={o.id} {...props} existing={o} onClose={() => setEditing(null)} />
           ) : (
-            <OfferCard key={o.id} offer={o} color={OFFER_COLORS[i % OFFER_COLORS.length]} canEdit={canEdit} onEdit={() => setEditing(o.id)} onDeleted={() => router.refresh()} />
+            <OfferCard key={o.id} offer={o} color={OFFER_COLORS[i % OFFER_COLORS.length]} canEdit={canEdit} onEdit={() => setEditing(o.id)} />
           ),
         )}
         {editing === "new" ? <OfferForm {...props} existing={null} onClose={() => setEditing(null)} /> : null}
@@ -164,21 +168,9 @@ function Comparison({ offers }: { offers: OfferView[] }) {
   );
 }
 
-function OfferCard({ offer, color, canEdit, onEdit, onDeleted }: { offer: OfferView; color: string; canEdit: boolean; onEdit: () => void; onDeleted: () => void }) {
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+function OfferCard({ offer, color, canEdit, onEdit }: { offer: OfferView; color: string; canEdit: boolean; onEdit: () => void }) {
+  const remove = useSave<void>({ request: () => ({ url: `/api/offers/${offer.id}`, method: "DELETE" }) });
   const r = offer.results;
-  async function remove() {
-    if (!window.confirm(`Delete the offer "${offer.name}"?`)) return;
-    setBusy(true);
-    try {
-      await api(`/api/offers/${offer.id}`, { method: "DELETE" });
-      onDeleted();
-    } catch (err) {
-      setError(err instanceof Error ? err.message : "Could not delete the offer.");
-      setBusy(false);
-    }
-  }
   return (
     <article className="card p-4" style={{ borderTop: `4px solid ${color}` }} aria-label={`Offer ${offer.name}`}>
       <h3 className="text-lg font-semibold">{offer.name}</h3>
@@ -208,6 +200,7 @@ function OfferCard({ offer, color, canEdit, onEdit, onDeleted }: { offer: OfferV
           {STATUS_TEXT[offer.discountStatus]}
         </p>
       ) : null}
+      <OfferInputsStatus offer={offer} canEdit={canEdit} />
       {r.notes.length > 0 ? (
         <details className="mt-3 text-xs text-graphite-soft">
           <summary className="cursor-pointer">Assumptions and notes</summary>
@@ -226,12 +219,10 @@ function OfferCard({ offer, color, canEdit, onEdit, onDeleted }: { offer: OfferV
           <button type="button" className="btn-quiet" onClick={onEdit}>
             Change
           </button>
-          <button type="button" className="btn-danger" onClick={remove} disabled={busy}>
-            Delete
-          </button>
+          <ConfirmButton danger label="Delete" title={`Delete the offer “${offer.name}”?`} message="Its figures are gone; a proposal already sent keeps its own copy." confirmLabel="Delete the offer" disabled={remove.pending} onConfirm={() => remove.save()} />
         </div>
       ) : null}
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <StatusMessage notice={remove.notice} />
     </article>
   );
 }
@@ -256,7 +247,6 @@ const toNumber = (s: string) => (s.trim() === "" ? Number.NaN : Number(s));
 
 function OfferForm(props: Props & { existing: OfferView | null; onClose: () => void }) {
   const { existing, design, dealId } = props;
-  const router = useRouter();
   const faces = design?.faces ?? [];
   const [state, setState] = useState<FormState>(() => {
     const i = existing?.inputs;
@@ -277,8 +267,13 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
     };
   });
   const [fields, setFields] = useState<Record<string, string>>({});
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const save = useSave<OfferInputsInput>({
+    request: (inputs) => (existing ? { url: `/api/offers/${existing.id}`, method: "PUT", json: { inputs } } : { url: "/api/offers", method: "POST", json: { dealId, inputs } }),
+    fieldPrefix: "inputs.",
+    onFieldErrors: (f) => setFields(fieldErrorsToErrors(f)),
+    onSaved: () => props.onClose(),
+  });
+  const busy = save.pending;
   const set = (patch: Partial<FormState>) => setState((s) => ({ ...s, ...patch }));
   const toggle = (list: string[], id: string) => (list.includes(id) ? list.filter((x) => x !== id) : [...list, id]);
 
@@ -326,21 +321,10 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
     // inputs() reads only `state` (and props that do not change while the form is open).
   }, [state]);
 
-  async function submit(e: React.FormEvent) {
+  function submit(e: React.FormEvent) {
     e.preventDefault();
-    setBusy(true);
-    setError(null);
     setFields({});
-    try {
-      if (existing) await api(`/api/offers/${existing.id}`, { method: "PUT", json: { inputs: inputs() } });
-      else await api("/api/offers", { method: "POST", json: { dealId, inputs: inputs() } });
-      props.onClose();
-      router.refresh();
-    } catch (err) {
-      if (err instanceof ApiError && err.fields) setFields(Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.replace(/^inputs\./, ""), v[0]])));
-      setError(err instanceof Error ? err.message : "The offer could not be saved.");
-      setBusy(false);
-    }
+    save.save(inputs());
   }
 
   const err = (k: string) => fields[k];
@@ -348,47 +332,23 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
     <form className="card space-y-4 p-4 lg:col-span-3" onSubmit={submit} aria-label={existing ? `Change offer ${existing.name}` : "New offer"} noValidate>
       <h3 className="text-lg font-semibold">{existing ? `Change “${existing.name}”` : "New offer"}</h3>
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-        <Input id="offer-name" label="Offer name" value={state.name} error={err("name")} onChange={(v) => set({ name: v })} />
-        <div>
-          <label htmlFor="offer-module" className="field-label">
-            Module
-          </label>
-          <select id="offer-module" className="field-input" value={state.moduleId} onChange={(e) => set({ moduleId: e.target.value })}>
-            {props.modules.map((m) => (
-              <option key={m.id} value={m.id}>
-                {m.label}
-              </option>
-            ))}
-          </select>
-          {err("moduleId") ? <p className="field-error">{err("moduleId")}</p> : null}
-        </div>
-        <div>
-          <label htmlFor="offer-inverter" className="field-label">
-            Inverter
-          </label>
-          <select id="offer-inverter" className="field-input" value={state.inverterId} onChange={(e) => set({ inverterId: e.target.value })}>
-            {props.inverters.map((m) => (
-              <option key={m.id} value={m.id}>
-                {m.label}
-              </option>
-            ))}
-          </select>
-          {err("inverterId") ? <p className="field-error">{err("inverterId")}</p> : null}
-        </div>
+        <Field id="offer-name" label="Offer name" value={state.name} error={err("name")} onChange={(e) => set({ name: e.target.value })} />
+        <SelectField id="offer-module" label="Module" value={state.moduleId} error={err("moduleId")} options={optionsOf(props.modules)} onChange={(e) => set({ moduleId: e.target.value })} />
+        <SelectField id="offer-inverter" label="Inverter" value={state.inverterId} error={err("inverterId")} options={optionsOf(props.inverters)} onChange={(e) => set({ inverterId: e.target.value })} />
       </div>
 
       <fieldset>
         <legend className="field-label">Modules per roof face</legend>
         <div className="grid gap-3 sm:grid-cols-3">
           {faces.map((f, i) => (
-            <Input
+            <Field
               key={f.id}
               id={`offer-face-${i + 1}`}
               label={`${f.name} (of ${f.usableSlots} slots)`}
               value={state.counts[f.id] ?? ""}
               error={err(`faceCounts.${i}.moduleCount`)}
               inputMode="numeric"
-              onChange={(v) => set({ counts: { ...state.counts, [f.id]: v } })}
+              onChange={(e) => set({ counts: { ...state.counts, [f.id]: e.target.value } })}
             />
           ))}
         </div>
@@ -416,8 +376,8 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
       ) : null}
 
       <div className="grid gap-4 sm:grid-cols-2">
-        <Input id="offer-discount" label="Discount ($)" value={state.discountDollars} error={err("discountCents")} inputMode="decimal" onChange={(v) => set({ discountDollars: v })} hint="Beyond your limit it goes to the office for approval." />
-        <Input id="offer-discount-reason" label="Reason for the discount" value={state.discountReason} error={err("discountReason")} onChange={(v) => set({ discountReason: v })} />
+        <Field id="offer-discount" label="Discount ($)" value={state.discountDollars} error={err("discountCents")} inputMode="decimal" onChange={(e) => set({ discountDollars: e.target.value })} hint="Beyond your limit it goes to the office for approval." />
+        <Field id="offer-discount-reason" label="Reason for the discount" value={state.discountReason} error={err("discountReason")} onChange={(e) => set({ discountReason: e.target.value })} />
       </div>
 
       <fieldset>
@@ -432,31 +392,26 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
         </div>
         {state.paymentKind === "loan" ? (
           <div className="mt-2 grid gap-4 sm:grid-cols-3">
-            <Input id="offer-apr" label="APR (%)" value={state.aprPct} error={err("payment.aprPct")} inputMode="decimal" onChange={(v) => set({ aprPct: v })} />
-            <Input id="offer-term" label="Term (months)" value={state.termMonths} error={err("payment.termMonths")} inputMode="numeric" onChange={(v) => set({ termMonths: v })} />
-            <Input id="offer-dealer-fee" label="Dealer fee (%)" value={state.dealerFeePct} error={err("payment.dealerFeePct")} inputMode="decimal" onChange={(v) => set({ dealerFeePct: v })} />
+            <Field id="offer-apr" label="APR (%)" value={state.aprPct} error={err("payment.aprPct")} inputMode="decimal" onChange={(e) => set({ aprPct: e.target.value })} />
+            <Field id="offer-term" label="Term (months)" value={state.termMonths} error={err("payment.termMonths")} inputMode="numeric" onChange={(e) => set({ termMonths: e.target.value })} />
+            <Field id="offer-dealer-fee" label="Dealer fee (%)" value={state.dealerFeePct} error={err("payment.dealerFeePct")} inputMode="decimal" onChange={(e) => set({ dealerFeePct: e.target.value })} />
           </div>
         ) : null}
       </fieldset>
 
-      <div className="max-w-md">
-        <label htmlFor="offer-rate-plan" className="field-label">
-          Rate plan {props.dealRatePlanId ? "" : "(the deal has none yet)"}
-        </label>
-        <select id="offer-rate-plan" className="field-input" value={state.ratePlanId} onChange={(e) => set({ ratePlanId: e.target.value })}>
-          {!props.dealRatePlanId ? <option value="">Pick the household&apos;s rate plan</option> : null}
-          {props.ratePlans.map((p) => (
-            <option key={p.id} value={p.id}>
-              {p.label}
-            </option>
-          ))}
-        </select>
-        {err("ratePlanId") ? <p className="field-error">{err("ratePlanId")}</p> : null}
-      </div>
+      <SelectField
+        id="offer-rate-plan"
+        className="max-w-md"
+        label={`Rate plan ${props.dealRatePlanId ? "" : "(the deal has none yet)"}`}
+        value={state.ratePlanId}
+        error={err("ratePlanId")}
+        options={[...(props.dealRatePlanId ? [] : [{ value: "", label: "Pick the household's rate plan" }]), ...optionsOf(props.ratePlans)]}
+        onChange={(e) => set({ ratePlanId: e.target.value })}
+      />
 
       <OfferPreviewPanel preview={preview} error={previewError} busy={previewBusy} />
 
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <StatusMessage notice={save.notice} />
       <div className="flex gap-2">
         <button type="submit" className="btn-primary" disabled={busy}>
           {busy ? "Computing…" : existing ? "Save and compute" : "Create and compute"}
@@ -516,21 +471,13 @@ function OfferPreviewPanel({ preview, error, busy }: { preview: Preview | null; 
   );
 }
 
-function DiscountRequestItem({ request, canApprove, onDone }: { request: RequestView; canApprove: boolean; onDone: () => void }) {
+function DiscountRequestItem({ request, canApprove }: { request: RequestView; canApprove: boolean }) {
   const [note, setNote] = useState("");
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  async function decide(decision: "approve" | "decline") {
-    setBusy(true);
-    setError(null);
-    try {
-      await api(`/api/discount-requests/${request.id}/decision`, { method: "POST", json: { decision, note } });
-      onDone();
-    } catch (err) {
-      setError(err instanceof Error ? err.message : "Could not record the decision.");
-      setBusy(false);
-    }
-  }
+  const decision = useSave<"approve" | "decline">({
+    request: (kind) => ({ url: `/api/discount-requests/${request.id}/decision`, method: "POST", json: { decision: kind, note } }),
+  });
+  const busy = decision.pending;
+  const decide = decision.save;
   return (
     <li className="rounded-md border border-paper-line p-3" data-testid="discount-request">
       <p>
@@ -539,7 +486,7 @@ function DiscountRequestItem({ request, canApprove, onDone }: { request: Request
       {canApprove ? (
         <div className="mt-2 flex flex-wrap items-end gap-2">
           <div className="min-w-64 flex-1">
-            <Input id={`note-${request.id}`} label="Note to the rep" value={note} onChange={setNote} />
+            <Field id={`note-${request.id}`} label="Note to the rep" value={note} onChange={(e) => setNote(e.target.value)} />
           </div>
           <button type="button" className="btn-primary" disabled={busy} onClick={() => decide("approve")}>
             Approve discount
@@ -551,29 +498,7 @@ function DiscountRequestItem({ request, canApprove, onDone }: { request: Request
       ) : (
         <p className="mt-1 text-sm text-graphite-soft">Waiting for an office manager.</p>
       )}
-      {error ? <FormMessage tone="error">{error}</FormMessage> : null}
+      <StatusMessage notice={decision.notice} />
     </li>
-  );
-}
-
-function Input({ id, label, value, error, hint, onChange, inputMode = "text" }: { id: string; label: string; value: string; error?: string; hint?: string; onChange: (v: string) => void; inputMode?: "text" | "decimal" | "numeric" }) {
-  const describedBy = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        {label}
-      </label>
-      <input id={id} className="field-input" value={value} inputMode={inputMode} aria-invalid={error ? true : undefined} aria-describedby={describedBy} onChange={(e) => onChange(e.target.value)} />
-      {hint ? (
-        <p id={`${id}-hint`} className="mt-1 text-xs text-graphite-soft">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={`${id}-error`} className="field-error" role="alert">
-          {error}
-        </p>
-      ) : null}
-    </div>
   );
 }

@@ -1,39 +1,36 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
-import { can } from "@/lib/permissions";
 import { listActiveInverters, listActiveModules } from "@/server/catalog";
-import { getDealRoom } from "@/server/deals";
 import { getDesignForDeal } from "@/server/designs";
 import { listDiscountRequestsForDeal, listOffers } from "@/server/offers";
 import { getPriceBook } from "@/server/price-book";
 import { listRatePlans } from "@/server/rate-plans";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { OffersClient } from "./offers-client";
 
 export const metadata: Metadata = { title: "Offers" };
 
 export default async function OffersTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  if (!can(member.role, "pricebook:read") || !can(member.role, "catalog:read")) return <NoAccess section="Offers" />;
-  const room = await getDealRoom(member, id);
+  const room = await dealPageScope(params);
+  if (!room) return null;
+  const { member, dealId: id } = room;
+  if (!room.rights.price) return <NoAccess section="Offers" />;
   const [offers, design, book, modules, inverters, ratePlans, requests] = await Promise.all([
-    listOffers(member, id),
-    getDesignForDeal(member, id),
+    listOffers(room),
+    getDesignForDeal(room),
     getPriceBook(member.companyId),
     listActiveModules(member.companyId),
     listActiveInverters(member.companyId),
     listRatePlans(member.companyId),
-    listDiscountRequestsForDeal(member, id),
+    listDiscountRequestsForDeal(room),
   ]);
   return (
     <OffersClient
       dealId={id}
-      canEdit={can(member.role, "deals:write")}
-      canApprove={can(member.role, "discounts:approve")}
+      canEdit={room.rights.edit}
+      canApprove={room.rights.approveDiscounts}
       dealRatePlanId={room.deal.ratePlanId ?? null}
-      offers={offers.map((o) => ({ id: o.id, position: o.position, name: o.name, inputs: o.inputs, results: o.results, discountStatus: o.discountStatus }))}
+      offers={offers.map((o) => ({ id: o.id, position: o.position, name: o.name, inputs: o.inputs, results: o.results, discountStatus: o.discountStatus, stale: o.stale }))}
       design={design ? { faces: design.document.faces.map((f) => ({ id: f.id, name: f.name, usableSlots: f.usableSlots, moduleCount: f.moduleCount })), moduleId: design.document.moduleId, inverterId: design.document.inverterId } : null}
       adders={book.adders.map((a) => ({ id: a.id, name: a.name }))}
       lineItems={book.lineItems.map((l) => ({ id: l.id, name: l.name, amountCents: l.amountCents }))}

@@ -1,22 +1,20 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
-import { can } from "@/lib/permissions";
-import { getDealRoom } from "@/server/deals";
+import { describeStale } from "@/lib/offer-basis";
 import { getDesignForDeal } from "@/server/designs";
 import { listOffers } from "@/server/offers";
 import { listProposalsForDeal } from "@/server/proposals";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { ProposalClient, type OfferChoice, type VersionView } from "./proposal-client";
 
 export const metadata: Metadata = { title: "Proposal" };
 
 export default async function ProposalTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  if (!can(member.role, "proposals:send")) return <NoAccess section="Proposal" />;
-  const room = await getDealRoom(member, id);
-  const [offers, versions, design] = await Promise.all([listOffers(member, id), listProposalsForDeal(member, id), getDesignForDeal(member, id)]);
+  const room = await dealPageScope(params);
+  if (!room) return null;
+  const id = room.dealId;
+  if (!room.rights.send) return <NoAccess section="Proposal" />;
+  const [offers, versions, design] = await Promise.all([listOffers(room), listProposalsForDeal(room), getDesignForDeal(room)]);
   const choices: OfferChoice[] = offers.map((o) => ({
     id: o.id,
     position: o.position,
@@ -28,7 +26,9 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
         ? "Discount waiting for the office's approval"
         : o.discountStatus === "declined"
           ? "Discount declined: change the offer before sending it"
-          : null,
+          : o.stale.length > 0
+            ? `Recompute it on the Offers tab: the ${describeStale(o.stale)} changed`
+            : null,
   }));
   const views: VersionView[] = versions.map((v) => ({
     ...v,

@@ -2,10 +2,12 @@
 // The deal's Proposal tab (tablet first): freeze 1–3 offers into a proposal and e-mail its link;
 // every version with its state, expiry and what the customer did; revoke, re-send, download.
 import Link from "next/link";
-import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/field";
-import { api, ApiError } from "@/lib/api-client";
+import { Badge, type BadgeTone } from "@/components/ui/badge";
+import { ConfirmButton } from "@/components/ui/dialog";
+import { Field, FormMessage, StatusMessage, type Notice } from "@/components/ui/field";
+import { useSave } from "@/components/ui/use-save";
+import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { formatCents, formatDate, formatDateTime } from "@/lib/format";
 import { formatIsoDateLong } from "@/lib/proposal-snapshot";
 import { DEFAULT_PROPOSAL_LINK_DAYS } from "@/lib/schemas/proposal";
@@ -46,15 +48,15 @@ const STATUS_LABELS: Record<Status, string> = {
   cancelled: "Cancelled",
   expired: "Expired",
 };
-const STATUS_STYLES: Record<Status, string> = {
-  sent: "bg-paper-deep text-graphite",
-  opened: "bg-slate-light text-graphite",
-  viewed: "bg-slate-light text-graphite",
-  signed: "bg-sage-light text-graphite",
-  replaced: "bg-paper-deep text-graphite-soft",
-  revoked: "bg-danger-light text-danger",
-  cancelled: "bg-danger-light text-danger",
-  expired: "bg-caution-light text-graphite",
+const STATUS_TONES: Record<Status, BadgeTone> = {
+  sent: "neutral",
+  opened: "usage",
+  viewed: "usage",
+  signed: "success",
+  replaced: "neutral",
+  revoked: "danger",
+  cancelled: "danger",
+  expired: "caution",
 };
 const EVENT_LABELS: Record<string, string> = {
   sent: "Sent",
@@ -105,21 +107,32 @@ export function ProposalClient({ dealId, householdEmail, hasDesign, offers, vers
 }
 
 function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; householdEmail: string; offers: OfferChoice[]; live: VersionView | null }) {
-  const router = useRouter();
   const [picked, setPicked] = useState<string[]>(() => offers.filter((o) => !o.blockedReason).map((o) => o.id));
   const [toEmail, setToEmail] = useState(householdEmail);
   const [validDays, setValidDays] = useState(String(DEFAULT_PROPOSAL_LINK_DAYS));
   const [inHomeSale, setInHomeSale] = useState(true);
   const [message, setMessage] = useState("");
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const [outcome, setOutcome] = useState<{ tone: "success" | "error"; text: string } | null>(null);
-  const [busy, setBusy] = useState(false);
+  const [outcome, setOutcome] = useState<Notice | null>(null);
+  const send = useSave<object, { label: string; mailSent: boolean; mailError: string | null }>({
+    request: (json) => ({ url: "/api/proposals", method: "POST", json }),
+    notify: setOutcome,
+    onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
+    onSaved: (sent) => {
+      setOutcome(
+        sent.mailSent
+          ? { tone: "success", text: `Proposal ${sent.label} sent to ${toEmail.trim()}.` }
+          : { tone: "error", text: `Proposal ${sent.label} was saved, but ${sent.mailError ?? "the e-mail could not be sent."}` },
+      );
+      setMessage("");
+    },
+  });
 
   function toggle(id: string, on: boolean) {
     setPicked((p) => (on ? [...p, id] : p.filter((x) => x !== id)));
   }
 
-  async function send(e: FormEvent) {
+  function submit(e: FormEvent) {
     e.preventDefault();
     setOutcome(null);
     const days = Number(validDays);
@@ -130,29 +143,11 @@ function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; ho
     if (!Number.isInteger(days) || days < 1 || days > 90) found.validDays = "1 to 90 whole days";
     setErrors(found);
     if (Object.keys(found).length > 0) return;
-    setBusy(true);
-    try {
-      const sent = await api<{ label: string; mailSent: boolean; mailError: string | null }>("/api/proposals", {
-        method: "POST",
-        json: { dealId, offerIds: offers.filter((o) => picked.includes(o.id)).map((o) => o.id), toEmail: toEmail.trim(), message, validDays: days, inHomeSale },
-      });
-      setOutcome(
-        sent.mailSent
-          ? { tone: "success", text: `Proposal ${sent.label} sent to ${toEmail.trim()}.` }
-          : { tone: "error", text: `Proposal ${sent.label} was saved, but ${sent.mailError ?? "the e-mail could not be sent."}` },
-      );
-      setMessage("");
-      router.refresh();
-    } catch (err) {
-      if (err instanceof ApiError && err.fields) setErrors(Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k, v[0] ?? err.message])));
-      setOutcome({ tone: "error", text: err instanceof Error ? err.message : "The proposal could not be sent." });
-    } finally {
-      setBusy(false);
-    }
+    send.save({ dealId, offerIds: offers.filter((o) => picked.includes(o.id)).map((o) => o.id), toEmail: toEmail.trim(), message, validDays: days, inHomeSale });
   }
 
   return (
-    <form className="card space-y-4 p-4" onSubmit={send} noValidate aria-labelledby="send-heading">
+    <form className="card space-y-4 p-4" onSubmit={submit} noValidate aria-labelledby="send-heading">
       <h2 id="send-heading" className="text-lg font-semibold">
         Send a proposal
       </h2>
@@ -184,47 +179,19 @@ function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; ho
         ) : null}
       </fieldset>
       <div className="grid gap-4 sm:grid-cols-2">
-        <div>
-          <label htmlFor="proposal-to" className="field-label">
-            Send to (e-mail)
-          </label>
-          <input
-            id="proposal-to"
-            type="email"
-            className="field-input"
-            value={toEmail}
-            onChange={(e) => setToEmail(e.target.value)}
-            aria-invalid={errors.toEmail ? true : undefined}
-            aria-describedby={errors.toEmail ? "proposal-to-error" : undefined}
-          />
-          {errors.toEmail ? (
-            <p id="proposal-to-error" className="field-error" role="alert">
-              {errors.toEmail}
-            </p>
-          ) : null}
-        </div>
-        <div>
-          <label htmlFor="proposal-days" className="field-label">
-            Link valid for (days)
-          </label>
-          <input
-            id="proposal-days"
-            type="number"
-            inputMode="numeric"
-            min={1}
-            max={90}
-            className="field-input figure"
-            value={validDays}
-            onChange={(e) => setValidDays(e.target.value)}
-            aria-invalid={errors.validDays ? true : undefined}
-            aria-describedby={errors.validDays ? "proposal-days-error" : undefined}
-          />
-          {errors.validDays ? (
-            <p id="proposal-days-error" className="field-error" role="alert">
-              {errors.validDays}
-            </p>
-          ) : null}
-        </div>
+        <Field id="proposal-to" label="Send to (e-mail)" type="email" value={toEmail} error={errors.toEmail} onChange={(e) => setToEmail(e.target.value)} />
+        <Field
+          id="proposal-days"
+          label="Link valid for (days)"
+          type="number"
+          inputMode="numeric"
+          min={1}
+          max={90}
+          inputClassName="figure"
+          value={validDays}
+          error={errors.validDays}
+          onChange={(e) => setValidDays(e.target.value)}
+        />
       </div>
       <label className="flex min-h-touch items-center gap-3 text-sm">
         <input type="checkbox" className="h-5 w-5 accent-copper" checked={inHomeSale} onChange={(e) => setInHomeSale(e.target.checked)} />
@@ -236,49 +203,35 @@ function SendForm({ dealId, householdEmail, offers, live }: { dealId: string; ho
         </label>
         <textarea id="proposal-message" className="field-input min-h-20 py-2" maxLength={2000} value={message} onChange={(e) => setMessage(e.target.value)} />
       </div>
-      <button type="submit" className="btn-primary w-full sm:w-auto" disabled={busy}>
-        {busy ? "Sending…" : "Send proposal"}
+      <button type="submit" className="btn-primary w-full sm:w-auto" disabled={send.pending}>
+        {send.pending ? "Sending…" : "Send proposal"}
       </button>
-      {outcome ? <FormMessage tone={outcome.tone}>{outcome.text}</FormMessage> : null}
+      <StatusMessage notice={outcome} />
     </form>
   );
 }
 
 function VersionCard({ v }: { v: VersionView }) {
-  const router = useRouter();
-  const [busy, setBusy] = useState(false);
-  const [note, setNote] = useState<{ tone: "success" | "error"; text: string } | null>(null);
+  const [note, setNote] = useState<Notice | null>(null);
   const chosen = v.offers.find((o) => o.position === v.chosenPosition) ?? null;
   const canRevoke = v.state === "live";
   const canResend = v.state === "live" || v.state === "signed" || v.state === "cancelled";
-
-  async function act(kind: "revoke" | "resend") {
-    if (kind === "revoke" && !window.confirm(`Revoke the link of ${v.label}? The customer can no longer open or sign it.`)) return;
-    setBusy(true);
-    setNote(null);
-    try {
-      if (kind === "revoke") {
-        await api(`/api/proposals/${v.id}/revoke`, { method: "POST" });
-        setNote({ tone: "success", text: "Link revoked." });
-      } else {
-        const r = await api<{ mailSent: boolean; mailError: string | null }>(`/api/proposals/${v.id}/resend`, { method: "POST" });
-        setNote(r.mailSent ? { tone: "success", text: `New link sent to ${v.sentToEmail}; the earlier link no longer opens.` } : { tone: "error", text: r.mailError ?? "The e-mail could not be sent." });
-      }
-      router.refresh();
-    } catch (err) {
-      setNote({ tone: "error", text: err instanceof Error ? err.message : "That did not work." });
-    } finally {
-      setBusy(false);
-    }
-  }
+  const revoke = useSave<void>({ request: () => ({ url: `/api/proposals/${v.id}/revoke`, method: "POST" }), notify: setNote, success: "Link revoked." });
+  const resend = useSave<void, { mailSent: boolean; mailError: string | null }>({
+    request: () => ({ url: `/api/proposals/${v.id}/resend`, method: "POST" }),
+    notify: setNote,
+    onSaved: (r) =>
+      setNote(r.mailSent ? { tone: "success", text: `New link sent to ${v.sentToEmail}; the earlier link no longer opens.` } : { tone: "error", text: r.mailError ?? "The e-mail could not be sent." }),
+  });
+  const busy = revoke.pending || resend.pending;
 
   return (
     <article className="card p-4" aria-label={`Proposal ${v.label}`} data-testid="proposal-version">
       <header className="flex flex-wrap items-center justify-between gap-2">
         <h3 className="figure text-lg font-semibold">{v.label}</h3>
-        <span className={`rounded-full px-3 py-1 text-sm font-medium ${STATUS_STYLES[v.status]}`} data-testid="proposal-status">
+        <Badge tone={STATUS_TONES[v.status]} size="md" testId="proposal-status">
           {STATUS_LABELS[v.status]}
-        </span>
+        </Badge>
       </header>
       <dl className="mt-2 grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[auto_1fr]">
         <dt className="text-graphite-soft">Sent</dt>
@@ -346,19 +299,25 @@ function VersionCard({ v }: { v: VersionView }) {
           </a>
         ) : null}
         {canResend ? (
-          <button type="button" className="btn-quiet" onClick={() => act("resend")} disabled={busy}>
+          <button type="button" className="btn-quiet" onClick={() => resend.save()} disabled={busy}>
             Re-send link
           </button>
         ) : null}
         {canRevoke ? (
-          <button type="button" className="btn-danger" onClick={() => act("revoke")} disabled={busy}>
-            Revoke link
-          </button>
+          <ConfirmButton
+            danger
+            label="Revoke link"
+            title={`Revoke the link of ${v.label}?`}
+            message="The customer can no longer open or sign it."
+            confirmLabel="Revoke the link"
+            disabled={busy}
+            onConfirm={() => revoke.save()}
+          />
         ) : null}
       </div>
       {note ? (
         <div className="mt-3">
-          <FormMessage tone={note.tone}>{note.text}</FormMessage>
+          <StatusMessage notice={note} />
         </div>
       ) : null}
       <details className="mt-3" open={v.state === "live" || v.state === "signed"}>

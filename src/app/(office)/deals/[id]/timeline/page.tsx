@@ -1,17 +1,14 @@
 import type { Metadata } from "next";
 import { formatDateTime } from "@/lib/format";
-import { getDealOrThrow } from "@/server/deals";
-import { getMember } from "@/server/session";
+import { dealPageScope } from "../deal-page";
 import { listTimeline } from "@/server/timeline";
 
 export const metadata: Metadata = { title: "Timeline" };
 
 export default async function TimelineTab({ params }: { params: Promise<{ id: string }> }) {
-  const { id } = await params;
-  const member = await getMember();
-  if (!member) return null;
-  await getDealOrThrow(member, id);
-  const events = await listTimeline(member, id);
+  const scope = await dealPageScope(params);
+  if (!scope) return null;
+  const events = await listTimeline(scope.member, scope.dealId);
   return (
     <ol className="relative space-y-4 border-l-2 border-paper-line pl-6" aria-label="What happened">
       {events.map((e) => (

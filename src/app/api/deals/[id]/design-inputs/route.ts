@@ -1,10 +1,6 @@
 import { NextResponse } from "next/server";
+import { withDeal } from "@/server/deal-route";
 import { getDesignInputs } from "@/server/designs";
-import { notFound } from "@/server/errors";
-import { idSchema, withMember } from "@/server/route";
 
 /** What the Design tab loads once: usage, the active catalog, stations with distances, the saved design. */
-export const GET = withMember<{ id: string }>("deals:read-own", async ({ member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
-  return NextResponse.json({ data: await getDesignInputs(member, params.id) });
-});
+export const GET = withDeal("deals:read-own", async ({ scope }) => NextResponse.json({ data: await getDesignInputs(scope) }));

@@ -1,10 +1,6 @@
 import { NextResponse } from "next/server";
+import { withDeal } from "@/server/deal-route";
 import { getDealUsage } from "@/server/energy";
-import { notFound } from "@/server/errors";
-import { idSchema, withMember } from "@/server/route";
 
-/** The household's usage year (12 months, measured or estimated, and 8760 hours). */
-export const GET = withMember<{ id: string }>("deals:read-own", async ({ member, params }) => {
-  if (!idSchema.safeParse(params.id).success) throw notFound("Deal");
-  return NextResponse.json({ data: await getDealUsage(member, params.id) });
-});
+/** The household's stored usage year (12 months, measured or estimated, and 8760 hours) with its version. */
+export const GET = withDeal("deals:read-own", async ({ scope }) => NextResponse.json({ data: await getDealUsage(scope) }));

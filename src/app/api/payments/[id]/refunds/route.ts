@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { refundPaymentSchema } from "@/app/(office)/deals/[id]/money/refund-schema";
+import { refundPaymentSchema } from "@/lib/schemas/refund";
 import { notFound } from "@/server/errors";
 import { refundPayment } from "@/server/payments";
 import { idSchema, readJson, withMember } from "@/server/route";

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { dollarsToCents, refundPaymentSchema } from "./refund-schema";
+import { dollarsToCents, refundPaymentSchema } from "@/lib/schemas/refund";
 
 describe("dollarsToCents", () => {
   it("reads dollars as people type them into integer cents", () => {

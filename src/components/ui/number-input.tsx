@@ -1,5 +1,6 @@
 "use client";
 import { useEffect, useState, type InputHTMLAttributes } from "react";
+import { describedBy, FieldShell } from "./field";
 
 type Props = {
   id: string;
@@ -32,16 +33,13 @@ export function NumberInput({ id, value, onValue, scale = 1, storedDecimals = 0,
     // Only an outside change of the value (not the typing that produced it) resets the text.
   }, [value]);
   return (
-    <div className={className}>
-      <label htmlFor={id} className={srLabel ? "sr-only" : "field-label"}>
-        {label}
-      </label>
+    <FieldShell id={id} label={label} error={error} srLabel={srLabel} className={className}>
       <input
         id={id}
         inputMode="decimal"
         className="field-input figure min-h-9 py-1 text-sm"
         aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : undefined}
+        aria-describedby={describedBy(id, error)}
         value={text}
         onChange={(e) => {
           setText(e.target.value);
@@ -52,29 +50,19 @@ export function NumberInput({ id, value, onValue, scale = 1, storedDecimals = 0,
         }}
         {...rest}
       />
-      {error ? (
-        <p id={`${id}-error`} className="field-error text-xs" role="alert">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    </FieldShell>
   );
 }
 
-/** Zod issues or server field errors keyed by dotted path ("bands.1.minWatts"). */
-export type PathErrors = Record<string, string>;
-
-export function issuesToErrors(issues: { path: PropertyKey[]; message: string }[]): PathErrors {
-  const out: PathErrors = {};
-  for (const i of issues) {
-    const key = i.path.map(String).join(".") || "_";
-    out[key] ??= i.message;
-  }
-  return out;
+/** Money typed in dollars, kept as integer cents. */
+export function MoneyInput(props: Omit<Props, "scale" | "storedDecimals">) {
+  return <NumberInput {...props} scale={100} storedDecimals={0} />;
 }
 
-export function fieldErrorsToErrors(fields: Record<string, string[]> | undefined): PathErrors {
-  const out: PathErrors = {};
-  for (const [k, v] of Object.entries(fields ?? {})) if (v[0]) out[k] = v[0];
-  return out;
+/**
+ * A percent typed as people say it ("7.5") and kept as the stored unit: `fraction` keeps
+ * 0.075, otherwise the percent itself (with `storedDecimals` places).
+ */
+export function PercentInput({ fraction, ...props }: Omit<Props, "scale"> & { fraction?: boolean }) {
+  return <NumberInput {...props} scale={fraction ? 0.01 : 1} storedDecimals={props.storedDecimals ?? (fraction ? 6 : 2)} />;
 }

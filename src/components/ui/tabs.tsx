@@ -1,0 +1,42 @@
+"use client";
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+
+const tabClass = (active: boolean) =>
+  `flex min-h-touch items-center whitespace-nowrap border-b-2 px-3 text-sm font-medium ${
+    active ? "border-copper text-copper" : "border-transparent text-graphite-soft hover:text-graphite"
+  }`;
+
+/** Tabs that are pages: the current one is marked for screen readers (aria-current). */
+export function LinkTabs({ label, pages }: { label: string; pages: readonly { href: string; label: string }[] }) {
+  const pathname = usePathname();
+  return (
+    <nav aria-label={label} className="mb-5 border-b border-paper-line">
+      <ul className="-mb-px flex gap-1 overflow-x-auto">
+        {pages.map((p) => {
+          const active = pathname === p.href || pathname.startsWith(`${p.href}/`);
+          return (
+            <li key={p.href}>
+              <Link href={p.href} aria-current={active ? "page" : undefined} className={tabClass(active)}>
+                {p.label}
+              </Link>
+            </li>
+          );
+        })}
+      </ul>
+    </nav>
+  );
+}
+
+/** Tabs inside one screen (WAI-ARIA tabs pattern: tablist, tab, aria-selected). */
+export function Tabs<T extends string>({ label, tabs, value, onChange }: { label: string; tabs: readonly { value: T; label: string }[]; value: T; onChange: (value: T) => void }) {
+  return (
+    <div role="tablist" aria-label={label} className="mb-4 flex gap-1 overflow-x-auto border-b border-paper-line">
+      {tabs.map((t) => (
+        <button key={t.value} type="button" role="tab" aria-selected={t.value === value} className={`-mb-px ${tabClass(t.value === value)}`} onClick={() => onChange(t.value)}>
+          {t.label}
+        </button>
+      ))}
+    </div>
+  );
+}
