@@ -322,6 +322,90 @@ function addDays(isoDate: string, days: number): string {
   return new Date(Date.UTC(y, m - 1, d + days)).toISOString().slice(0, 10);
 }
 
+/** The figures a person reads first, rounded as shown. */
+function summaryOf(x: {
+  input: OfferFiguresInput;
+  kwDc: number;
+  price: OfferPrice;
+  incentives: IncentiveResult;
+  cashflow: ReturnType<typeof buildCashflow>;
+  downPaymentCents: number;
+  annualProductionKwh: number;
+  annualUsageKwh: number;
+  year1SavingsCents: number;
+}): OfferSummary {
+  const { price, incentives } = x;
+  const s = x.cashflow.summary;
+  const roundOrNull = (v: number | null, digits: number) => (v === null ? null : round(v, digits));
+  return {
+    moduleCount: x.input.moduleCount,
+    kwDc: x.kwDc,
+    annualProductionKwh: round(x.annualProductionKwh),
+    offsetPct: x.annualUsageKwh > 0 ? round((x.annualProductionKwh / x.annualUsageKwh) * 100, 1) : 0,
+    grossCents: price.grossCents,
+    discountCents: price.discountCents,
+    contractCents: price.contractCents,
+    incentivesCents: incentives.totalCents,
+    netCostCents: price.contractCents - incentives.totalCents,
+    monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
+    year1SavingsCents: x.year1SavingsCents,
+    paybackYears: roundOrNull(s.paybackYears, 2),
+    simplePaybackYears: roundOrNull(s.simplePaybackYears, 2),
+    downPaymentCents: x.input.payment.kind === "loan" ? x.downPaymentCents : null,
+    roiBasisCents: s.netCostCents,
+    simpleRoi: roundOrNull(s.simpleRoi, 4),
+    lifetimeSavingsCents: s.lifetimeSavingsCents,
+    lifetimeNetCents: x.cashflow.rows[x.cashflow.rows.length - 1].cumulativeCents,
+    npvCents: s.npvCents,
+    irr: roundOrNull(s.irr, 6),
+    irrNote: s.irrNote,
+    lcoeCentsPerKwh: roundOrNull(s.lcoeCentsPerKwh, 2),
+  };
+}
+
+/** What a loan takes off the amount borrowed at signing: at least the deposit, never more than the price. */
+function downPaymentFor(payment: PaymentInput, price: OfferPrice): number {
+  if (payment.kind !== "loan") return 0;
+  const downPaymentCents = payment.downPaymentCents ?? price.depositCents;
+  if (downPaymentCents < price.depositCents) {
+    throw new PricingInputError("payment.downPaymentCents", `the ${formatCents(price.depositCents)} deposit is paid at signing and counts toward the price, so the down payment is at least that`);
+  }
+  if (downPaymentCents > price.contractCents) throw new PricingInputError("payment.downPaymentCents", "the down payment is more than the price");
+  return downPaymentCents;
+}
+
+/** The bill without solar, and with solar for each year of the table (re-billed with that year's degraded output). */
+function billsByYear(input: OfferFiguresInput, calendarYear: number, a: OfferAssumptions) {
+  const bill = makeBillCalculator(input.ratePlan, { calendarYear, timeZone: input.timeZone });
+  const without = bill(input.usageHourlyKwh, null);
+  const produced = Float64Array.from(input.productionHourlyKwh);
+  const degraded = new Float64Array(HOURS_PER_YEAR);
+  const withByYear = [];
+  for (let n = 1; n <= a.years; n++) {
+    const f = Math.pow(1 - a.degradationPctPerYear / 100, n - 1);
+    for (let h = 0; h < HOURS_PER_YEAR; h++) degraded[h] = produced[h] * f;
+    withByYear.push(bill(input.usageHourlyKwh, degraded));
+  }
+  return { without, withByYear, produced };
+}
+
+/**
+ * Credits that count at installation are judged on the expected install date; a dealer fee
+ * inside the loan is part of what the homeowner pays for the system (the credit's basis). The
+ * fee depends on the amount borrowed, which upfront incentives lower: one pass without it finds
+ * those, the second prices the fee in.
+ */
+function offerIncentives(input: OfferFiguresInput, price: OfferPrice, kwDc: number, downPaymentCents: number): IncentiveResult {
+  const installDate = input.expectedInstallDate ?? addDays(input.asOf, DEFAULT_INSTALL_LEAD_DAYS);
+  const incentivesWith = (dealerFeeCents: number) =>
+    evaluateIncentives({ rules: incentiveRulesForEngine(input.book), asOf: input.asOf, installDate, grossPriceCents: price.contractCents, dealerFeeCents, systemKwDc: kwDc, payment: input.payment.kind });
+  const first = incentivesWith(0);
+  if (input.payment.kind !== "loan" || input.payment.dealerFeePct <= 0) return first;
+  const borrowed = Math.max(0, price.contractCents - downPaymentCents - first.upfrontCents);
+  const { dealerFeeCents } = amortizeLoan({ amountCents: borrowed, aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added" });
+  return incentivesWith(dealerFeeCents);
+}
+
 /** Price, bills, incentives and the 25-year table for one offer. Throws PricingInputError / EngineInputError on bad input. */
 export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
   const a: OfferAssumptions = { ...DEFAULT_OFFER_ASSUMPTIONS, ...input.assumptions };
@@ -343,37 +427,10 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     notes.push(`The table runs ${loanYears} years, the loan's term, instead of the usual ${a.years}, so every loan payment is counted.`);
     a.years = loanYears;
   }
-  const downPaymentCents = input.payment.kind === "loan" ? (input.payment.downPaymentCents ?? price.depositCents) : 0;
-  if (input.payment.kind === "loan" && downPaymentCents < price.depositCents) {
-    throw new PricingInputError("payment.downPaymentCents", `the ${formatCents(price.depositCents)} deposit is paid at signing and counts toward the price, so the down payment is at least that`);
-  }
-  if (downPaymentCents > price.contractCents) throw new PricingInputError("payment.downPaymentCents", "the down payment is more than the price");
-
+  const downPaymentCents = downPaymentFor(input.payment, price);
   const calendarYear = Number(input.asOf.slice(0, 4));
-  const bill = makeBillCalculator(input.ratePlan, { calendarYear, timeZone: input.timeZone });
-  const without = bill(input.usageHourlyKwh, null);
-  const produced = Float64Array.from(input.productionHourlyKwh);
-  const degraded = new Float64Array(HOURS_PER_YEAR);
-  const withByYear = [];
-  for (let n = 1; n <= a.years; n++) {
-    const f = Math.pow(1 - a.degradationPctPerYear / 100, n - 1);
-    for (let h = 0; h < HOURS_PER_YEAR; h++) degraded[h] = produced[h] * f;
-    withByYear.push(bill(input.usageHourlyKwh, degraded));
-  }
-
-  // Credits that count at installation are judged on the expected install date; a dealer fee
-  // inside the loan is part of what the homeowner pays for the system (the credit's basis). The
-  // fee depends on the amount borrowed, which upfront incentives lower: one pass without it
-  // finds those, the second prices the fee in.
-  const installDate = input.expectedInstallDate ?? addDays(input.asOf, DEFAULT_INSTALL_LEAD_DAYS);
-  const incentivesWith = (dealerFeeCents: number) =>
-    evaluateIncentives({ rules: incentiveRulesForEngine(input.book), asOf: input.asOf, installDate, grossPriceCents: price.contractCents, dealerFeeCents, systemKwDc: kwDc, payment: input.payment.kind });
-  let incentives = incentivesWith(0);
-  if (input.payment.kind === "loan" && input.payment.dealerFeePct > 0) {
-    const borrowed = Math.max(0, price.contractCents - downPaymentCents - incentives.upfrontCents);
-    const { dealerFeeCents } = amortizeLoan({ amountCents: borrowed, aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added" });
-    incentives = incentivesWith(dealerFeeCents);
-  }
+  const { without, withByYear, produced } = billsByYear(input, calendarYear, a);
+  const incentives = offerIncentives(input, price, kwDc, downPaymentCents);
   if (incentives.byYear.length > a.years + 1) notes.push(`Incentives paid after year ${a.years} are left out.`);
 
   const productionMonthly = monthlySums(produced);
@@ -397,36 +454,11 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     discountRatePct: a.discountRatePct,
   });
   notes.push(...cashflow.summary.notes);
-  const s = cashflow.summary;
-  const last = cashflow.rows[cashflow.rows.length - 1];
 
   return {
     version: 1,
     asOf: input.asOf,
-    summary: {
-      moduleCount: input.moduleCount,
-      kwDc,
-      annualProductionKwh: round(annualProduction),
-      offsetPct: annualUsage > 0 ? round((annualProduction / annualUsage) * 100, 1) : 0,
-      grossCents: price.grossCents,
-      discountCents: price.discountCents,
-      contractCents: price.contractCents,
-      incentivesCents: incentives.totalCents,
-      netCostCents: price.contractCents - incentives.totalCents,
-      monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
-      year1SavingsCents: without.totalCents - withByYear[0].totalCents,
-      paybackYears: s.paybackYears === null ? null : round(s.paybackYears, 2),
-      simplePaybackYears: s.simplePaybackYears === null ? null : round(s.simplePaybackYears, 2),
-      downPaymentCents: input.payment.kind === "loan" ? downPaymentCents : null,
-      roiBasisCents: s.netCostCents,
-      simpleRoi: s.simpleRoi === null ? null : round(s.simpleRoi, 4),
-      lifetimeSavingsCents: s.lifetimeSavingsCents,
-      lifetimeNetCents: last.cumulativeCents,
-      npvCents: s.npvCents,
-      irr: s.irr === null ? null : round(s.irr, 6),
-      irrNote: s.irrNote,
-      lcoeCentsPerKwh: s.lcoeCentsPerKwh === null ? null : round(s.lcoeCentsPerKwh, 2),
-    },
+    summary: summaryOf({ input, kwDc, price, incentives, cashflow, downPaymentCents, annualProductionKwh: annualProduction, annualUsageKwh: annualUsage, year1SavingsCents: without.totalCents - withByYear[0].totalCents }),
     price,
     discountNeedsApproval: price.discountNeedsApproval,
     discountLimitCents: price.discountLimitCents,
