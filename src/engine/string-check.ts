@@ -175,55 +175,20 @@ export type StringCheckResult = {
 
 const round = (x: number, digits: number) => Math.round(x * 10 ** digits) / 10 ** digits;
 
-/** Run the string check. Voltages are rounded to 0.01 V and currents to 0.01 A in the output. */
-export function checkString(input: StringCheckInput): StringCheckResult {
-  const v = parseOrThrow(stringCheckInputSchema, input, "string check");
-  const { inverter: inv } = v;
-  const mod = { ...v.module, vocCoeffPctPerC: v.module.vocCoeffPctPerC ?? (v.module.vocCoeff && vocCoefficientPctPerC(v.module.vocCoeff.value, v.module.vocCoeff.unit, v.module.vocV)) };
-  const n = v.modulesInSeries;
-  const notes: string[] = [];
-
-  // NEC 690.7(A)(1) with the coefficient, else (A)(2) with the table.
-  let factor: number;
-  let method: StringCheckResult["method"];
-  if (mod.vocCoeffPctPerC !== undefined) {
-    factor = 1 + ((v.lowestTempC - STC_TEMP_C) * mod.vocCoeffPctPerC) / 100;
-    method = "coefficient";
-  } else {
-    const tableFactor = table690_7AFactor(v.lowestTempC);
-    if (tableFactor === null) {
-      throw new EngineInputError(
-        [{ path: "module.vocCoeffPctPerC", message: `NEC Table 690.7(A) stops at −40 °C; a Voc coefficient is needed for ${v.lowestTempC} °C` }],
-        "string check",
-      );
-    }
-    factor = tableFactor;
-    method = "table-690.7(A)";
-    notes.push("No Voc temperature coefficient given: used the NEC Table 690.7(A) factor (crystalline silicon).");
-  }
-  // Above 25 °C the coefficient would lower Voc; the code maximum is never taken below STC Voc.
-  factor = Math.max(1, factor);
-  const moduleVocMax = mod.vocV * factor;
-  const stringVocMax = moduleVocMax * n;
-
-  const vmpCoeff = mod.vmpCoeffPctPerC ?? mod.vocCoeffPctPerC ?? DEFAULT_VMP_COEFF_PCT_PER_C;
-  if (mod.vmpCoeffPctPerC === undefined) {
-    notes.push(
-      mod.vocCoeffPctPerC !== undefined
-        ? "No Vmp coefficient given: the Voc coefficient was used for Vmp (Vmp usually falls faster with heat)."
-        : `No temperature coefficients given: Vmp used ${DEFAULT_VMP_COEFF_PCT_PER_C} %/°C.`,
-    );
-  }
-  const noct = mod.noctC ?? DEFAULT_NOCT_C;
-  const hotCell = v.hotCellTempC ?? v.highestTempC + ((noct - NOCT_AIR_C) * HOT_CELL_IRRADIANCE) / NOCT_IRRADIANCE;
-  const vmpAt = (cellC: number) => mod.vmpV * n * (1 + ((cellC - STC_TEMP_C) * vmpCoeff) / 100);
-  const stringVmpHot = vmpAt(hotCell);
-  // Cold and bright: the cell sits near ambient; the highest Vmp the MPPT must follow.
-  const stringVmpCold = vmpAt(Math.min(STC_TEMP_C, v.lowestTempC));
-
-  const maxCurrent = mod.iscA * v.stringsInParallel * NEC_690_8_A_FACTOR;
-  const conductorAmps = mod.iscA * NEC_690_8_A_FACTOR * NEC_690_8_B_FACTOR;
-
+/** NEC 690.7 voltage limits and the MPPT window (design practice), one line each. */
+function voltageChecks(x: {
+  v: z.output<typeof stringCheckInputSchema>;
+  mod: { vocV: number; vmpV: number; vocCoeffPctPerC?: number };
+  n: number;
+  factor: number;
+  method: StringCheckResult["method"];
+  stringVocMax: number;
+  stringVmpHot: number;
+  stringVmpCold: number;
+  hotCell: number;
+}): CheckLine[] {
+  const { v, mod, n, factor, method, stringVocMax, stringVmpHot, stringVmpCold, hotCell } = x;
+  const inv = v.inverter;
   const checks: CheckLine[] = [];
   const volts = (x: number) => `${round(x, 2)} V`;
   const factorText = method === "coefficient" ? `(1 + (${v.lowestTempC} − 25) × ${mod.vocCoeffPctPerC} %) = ${round(factor, 5)} →` : `Table 690.7(A) factor ${factor} →`;
@@ -263,6 +228,57 @@ export function checkString(input: StringCheckInput): StringCheckResult {
     rule: "design practice: Vmp at the cold extreme stays in the MPPT window",
     detail: `Vmp at ${Math.min(STC_TEMP_C, v.lowestTempC)} °C = ${volts(stringVmpCold)} against the MPPT maximum ${inv.mpptMaxV} V`,
   });
+  return checks;
+}
+
+/**
+ * NEC 690.7(A)(1) with the coefficient, else (A)(2) with the table. Above 25 °C the coefficient
+ * would lower Voc; the code maximum is never taken below STC Voc.
+ */
+function vocCorrection(vocCoeffPctPerC: number | undefined, lowestTempC: number, notes: string[]): { factor: number; method: StringCheckResult["method"] } {
+  if (vocCoeffPctPerC !== undefined) return { factor: Math.max(1, 1 + ((lowestTempC - STC_TEMP_C) * vocCoeffPctPerC) / 100), method: "coefficient" };
+  const tableFactor = table690_7AFactor(lowestTempC);
+  if (tableFactor === null) {
+    throw new EngineInputError(
+      [{ path: "module.vocCoeffPctPerC", message: `NEC Table 690.7(A) stops at −40 °C; a Voc coefficient is needed for ${lowestTempC} °C` }],
+      "string check",
+    );
+  }
+  notes.push("No Voc temperature coefficient given: used the NEC Table 690.7(A) factor (crystalline silicon).");
+  return { factor: Math.max(1, tableFactor), method: "table-690.7(A)" };
+}
+
+/** Run the string check. Voltages are rounded to 0.01 V and currents to 0.01 A in the output. */
+export function checkString(input: StringCheckInput): StringCheckResult {
+  const v = parseOrThrow(stringCheckInputSchema, input, "string check");
+  const { inverter: inv } = v;
+  const mod = { ...v.module, vocCoeffPctPerC: v.module.vocCoeffPctPerC ?? (v.module.vocCoeff && vocCoefficientPctPerC(v.module.vocCoeff.value, v.module.vocCoeff.unit, v.module.vocV)) };
+  const n = v.modulesInSeries;
+  const notes: string[] = [];
+
+  const { factor, method } = vocCorrection(mod.vocCoeffPctPerC, v.lowestTempC, notes);
+  const moduleVocMax = mod.vocV * factor;
+  const stringVocMax = moduleVocMax * n;
+
+  const vmpCoeff = mod.vmpCoeffPctPerC ?? mod.vocCoeffPctPerC ?? DEFAULT_VMP_COEFF_PCT_PER_C;
+  if (mod.vmpCoeffPctPerC === undefined) {
+    notes.push(
+      mod.vocCoeffPctPerC !== undefined
+        ? "No Vmp coefficient given: the Voc coefficient was used for Vmp (Vmp usually falls faster with heat)."
+        : `No temperature coefficients given: Vmp used ${DEFAULT_VMP_COEFF_PCT_PER_C} %/°C.`,
+    );
+  }
+  const noct = mod.noctC ?? DEFAULT_NOCT_C;
+  const hotCell = v.hotCellTempC ?? v.highestTempC + ((noct - NOCT_AIR_C) * HOT_CELL_IRRADIANCE) / NOCT_IRRADIANCE;
+  const vmpAt = (cellC: number) => mod.vmpV * n * (1 + ((cellC - STC_TEMP_C) * vmpCoeff) / 100);
+  const stringVmpHot = vmpAt(hotCell);
+  // Cold and bright: the cell sits near ambient; the highest Vmp the MPPT must follow.
+  const stringVmpCold = vmpAt(Math.min(STC_TEMP_C, v.lowestTempC));
+
+  const maxCurrent = mod.iscA * v.stringsInParallel * NEC_690_8_A_FACTOR;
+  const conductorAmps = mod.iscA * NEC_690_8_A_FACTOR * NEC_690_8_B_FACTOR;
+
+  const checks: CheckLine[] = voltageChecks({ v, mod, n, factor, method, stringVocMax, stringVmpHot, stringVmpCold, hotCell });
   checks.push(maxCurrentCheck(mod, v.stringsInParallel, maxCurrent));
   if (inv.maxInputIscA !== undefined) {
     const isc = mod.iscA * v.stringsInParallel;
