@@ -293,6 +293,48 @@ export function makeBillCalculator(plan: RatePlanInput, clock: YearClock = { cal
   };
 }
 
+/**
+ * One month's fixed charge, energy lines and the credit its exports earn (banked; applied to
+ * energy charges by the caller): net metering nets each period's imports and exports at its
+ * retail price; net billing buys every import and credits exports at the export rate.
+ */
+function monthLines(plan: RatePlan, info: PeriodInfo, imp: Float64Array, exp: Float64Array, exportKwh: number): { lines: BillLine[]; creditEarned: number } {
+  const comp = plan.compensation;
+  const nPeriods = info.prices.length;
+  const chargeable = new Array<number>(nPeriods);
+  let creditEarned = 0;
+  const lines: BillLine[] = [];
+  if (plan.fixedMonthlyCents > 0) lines.push({ kind: "fixed", label: "fixed monthly charge", amountCents: plan.fixedMonthlyCents });
+
+  if (comp.kind === "net-metering") {
+    let excessKwh = 0;
+    let excessValue = 0;
+    for (let p = 0; p < nPeriods; p++) {
+      const net = imp[p] - exp[p];
+      chargeable[p] = Math.max(0, net);
+      if (net < 0) {
+        excessKwh -= net;
+        excessValue -= net * info.prices[p];
+      }
+    }
+    lines.push(...energyLines(plan, info, chargeable));
+    creditEarned = Math.round(excessValue);
+    if (creditEarned > 0) {
+      lines.push({ kind: "export-credit", label: "net excess credit earned (banked)", kwh: excessKwh, amountCents: 0 });
+    }
+    return { lines, creditEarned };
+  }
+  for (let p = 0; p < nPeriods; p++) chargeable[p] = imp[p];
+  lines.push(...energyLines(plan, info, chargeable));
+  if (comp.kind === "net-billing") {
+    creditEarned = Math.round(exportKwh * comp.exportCentsPerKwh);
+    if (exportKwh > 0) {
+      lines.push({ kind: "export-credit", label: "export credit earned (banked)", kwh: exportKwh, centsPerKwh: comp.exportCentsPerKwh, amountCents: 0 });
+    }
+  }
+  return { lines, creditEarned };
+}
+
 function billYearParsed(plan: RatePlan, usage: ArrayLike<number>, production: ArrayLike<number> | null, info: PeriodInfo): AnnualBill {
   const nPeriods = info.prices.length;
   const imports = Array.from({ length: 12 }, () => new Float64Array(nPeriods));
@@ -321,37 +363,7 @@ function billYearParsed(plan: RatePlan, usage: ArrayLike<number>, production: Ar
     cycleImport += importKwh;
     cycleExport += exportKwh;
 
-    const chargeable = new Array<number>(nPeriods);
-    let creditEarned = 0;
-    const lines: BillLine[] = [];
-    if (plan.fixedMonthlyCents > 0) lines.push({ kind: "fixed", label: "fixed monthly charge", amountCents: plan.fixedMonthlyCents });
-
-    if (comp.kind === "net-metering") {
-      let excessKwh = 0;
-      let excessValue = 0;
-      for (let p = 0; p < nPeriods; p++) {
-        const net = imp[p] - exp[p];
-        chargeable[p] = Math.max(0, net);
-        if (net < 0) {
-          excessKwh -= net;
-          excessValue -= net * info.prices[p];
-        }
-      }
-      lines.push(...energyLines(plan, info, chargeable));
-      creditEarned = Math.round(excessValue);
-      if (creditEarned > 0) {
-        lines.push({ kind: "export-credit", label: "net excess credit earned (banked)", kwh: excessKwh, amountCents: 0 });
-      }
-    } else {
-      for (let p = 0; p < nPeriods; p++) chargeable[p] = imp[p];
-      lines.push(...energyLines(plan, info, chargeable));
-      if (comp.kind === "net-billing") {
-        creditEarned = Math.round(exportKwh * comp.exportCentsPerKwh);
-        if (exportKwh > 0) {
-          lines.push({ kind: "export-credit", label: "export credit earned (banked)", kwh: exportKwh, centsPerKwh: comp.exportCentsPerKwh, amountCents: 0 });
-        }
-      }
-    }
+    const { lines, creditEarned } = monthLines(plan, info, imp, exp, exportKwh);
 
     const energyCents = lines.filter((l) => l.kind === "energy").reduce((a, l) => a + l.amountCents, 0);
     const available = carried + creditEarned;
