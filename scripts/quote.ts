@@ -11,6 +11,10 @@ import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { EngineInputError } from "../src/engine/errors";
 import { parseWeather, type WeatherYear } from "../src/engine/weather";
+import { haversineKm } from "../src/engine/geo";
+
+/** Past this, the report says how far the station is (our choice; the app refuses stations past 200 km). */
+const STATION_DISTANCE_NOTE_KM = 50;
 import { estimateProduction } from "../src/engine/production";
 import { buildQuote, type ProduceFn, type QuoteCaseInput, type QuoteResult } from "../src/engine/quote";
 
@@ -86,7 +90,14 @@ function main(): void {
   const weatherPath = resolve(base, weatherRef);
   const usageRef = (caseInput as { usage?: { kind?: unknown; file?: unknown } }).usage;
   try {
-    const weather = parseWeather(readText(weatherPath, "weather file"));
+    // The sun is placed at the case's own site; the file's station supplies the weather (and
+    // its clock: its UTC offset stays). A station far from the site is said in the notes.
+    const weatherText = readText(weatherPath, "weather file");
+    const station = parseWeather(weatherText).site;
+    const caseSite = (caseInput as { site?: { latitude?: unknown; longitude?: unknown } }).site;
+    const siteOverride = typeof caseSite?.latitude === "number" && typeof caseSite.longitude === "number" ? { latitude: caseSite.latitude, longitude: caseSite.longitude } : undefined;
+    const weather = siteOverride ? parseWeather(weatherText, { site: siteOverride }) : parseWeather(weatherText);
+    const distanceKm = siteOverride ? haversineKm(station, siteOverride) : 0;
     const intervalText = usageRef?.kind === "interval" && typeof usageRef.file === "string" ? readText(resolve(base, usageRef.file), "interval file") : undefined;
     const quote = buildQuote(caseInput, {
       weather,
@@ -95,6 +106,12 @@ function main(): void {
       intervalText,
       weatherLabel: `${weather.sourceLabel} (${weatherRef})`,
       weatherUtcOffsetHours: weather.site.utcOffsetHours,
+      weatherNotes: [
+        ...weather.notes.filter((n) => n.startsWith("The sunshine in this file")),
+        ...(distanceKm > STATION_DISTANCE_NOTE_KM
+          ? [`The weather station is ${Math.round(distanceKm)} km from the site (more than ${STATION_DISTANCE_NOTE_KM} km): its climate may differ from the site's.`]
+          : []),
+      ],
     });
     if (json) console.log(JSON.stringify(quote, null, 2));
     else printText(quote);

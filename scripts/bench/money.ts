@@ -44,7 +44,7 @@ const touPlan: RatePlanInput = {
   },
   compensation: { kind: "net-billing", exportCentsPerKwh: 6 },
 };
-const rebill = makeBillCalculator(touPlan, 2025);
+const rebill = makeBillCalculator(touPlan, { calendarYear: 2025, timeZone: "America/Los_Angeles" });
 
 let exampleCase: QuoteCaseInput | null = null;
 let weather: WeatherYear | null = null;

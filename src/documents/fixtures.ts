@@ -130,7 +130,7 @@ const OFFERS: OfferSpec[] = [
     adderIds: ["steep-roof"],
     lineItemIds: ["critter-guard"],
     discountCents: 0,
-    payment: { kind: "loan", aprPct: 6.99, termMonths: 240, dealerFeePct: 12 },
+    payment: { kind: "loan", aprPct: 6.99, termMonths: 240, dealerFeePct: 12, downPaymentCents: null },
   },
   {
     position: 3,
@@ -162,6 +162,7 @@ function buildOffer(spec: OfferSpec, usageHourly: readonly number[], perKw: Floa
     productionHourlyKwh: production,
     usageHourlyKwh: usageHourly,
     ratePlan: RATE_PLAN,
+    timeZone: "America/New_York",
     payment: spec.payment,
     adderIds: spec.adderIds,
     lineItemIds: spec.lineItemIds,

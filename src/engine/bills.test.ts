@@ -14,23 +14,23 @@ function issuesOf(fn: () => unknown): { path: string; message: string }[] {
   throw new Error("expected an EngineInputError");
 }
 
-/** One bill per calendar month of 2023 (start inclusive, end = first of next month, exclusive). */
+const pad = (n: number) => String(n).padStart(2, "0");
+/** One bill per calendar month of 2023, first to last day (both days included). */
 function calendarBill(month: number, kwh: number): Bill {
-  const pad = (n: number) => String(n).padStart(2, "0");
-  const end = month === 12 ? "2024-01-01" : `2023-${pad(month + 1)}-01`;
-  return { id: `m${month}`, startDate: `2023-${pad(month)}-01`, endDate: end, kwh };
+  return { id: `m${month}`, startDate: `2023-${pad(month)}-01`, endDate: `2023-${pad(month)}-${MONTH_DAYS[month - 1]}`, kwh };
 }
 
 describe("usageFromBills — spreading by day", () => {
   it("spreads two bills straddling month boundaries by day (hand-worked)", () => {
-    // Hand-worked (our convention: start inclusive, end exclusive):
-    // Bill A 2023-01-15 → 2023-02-14: 30 days (Jan 15–31 = 17, Feb 1–13 = 13), 600 kWh → 20 kWh/day
-    //   Jan: 17 × 20 = 340 kWh; Feb: 13 × 20 = 260 kWh
-    // Bill B 2023-02-14 → 2023-03-16: 30 days (Feb 14–28 = 15, Mar 1–15 = 15), 450 kWh → 15 kWh/day
-    //   Feb: 15 × 15 = 225 kWh; Mar: 15 × 15 = 225 kWh
-    // February: 28 of 28 days covered → measured, 260 + 225 = 485 kWh
-    // January: 17 of 31 days (54.8 % ≥ 50 %) → measured, scaled: 340 / 17 × 31 = 620 kWh
-    // March: 15 of 31 days (48.4 % < 50 %) → estimated from the seasonal shape
+    // Hand-worked (our convention: both dates included; a bill starting on another's end date
+    // takes that day, as with meter-read dates):
+    // Bill A 2023-01-15 → 2023-02-14, and B starts 2023-02-14, so A covers Jan 15 – Feb 13:
+    //   30 days (Jan 15–31 = 17, Feb 1–13 = 13), 600 kWh → 20 kWh/day: Jan 340, Feb 260
+    // Bill B 2023-02-14 → 2023-03-16, nothing starts on 16 March, so Feb 14 – Mar 16 inclusive:
+    //   31 days (Feb 14–28 = 15, Mar 1–16 = 16), 450 kWh → 450/31 kWh/day: Feb 217.742, Mar 232.258
+    // February: 28 of 28 days → measured, 260 + 15 × 450/31 = 477.742 kWh
+    // January: 17 of 31 days (54.8 % > 50 %) → measured, scaled: 340 / 17 × 31 = 620 kWh
+    // March: 16 of 31 days (51.6 % > 50 %) → measured, scaled: 16 × 450/31 / 16 × 31 = 450 kWh
     const result = usageFromBills({
       bills: [
         { id: "A", startDate: "2023-01-15", endDate: "2023-02-14", kwh: 600, costCents: 9000 },
@@ -40,13 +40,52 @@ describe("usageFromBills — spreading by day", () => {
     expect(result.months[0]).toMatchObject({ month: 1, status: "measured", coveredDays: 17 });
     expect(result.months[0].kwh).toBeCloseTo(620, 9);
     expect(result.months[1]).toMatchObject({ month: 2, status: "measured", coveredDays: 28, coverage: 1 });
-    expect(result.months[1].kwh).toBeCloseTo(485, 9);
-    expect(result.months[2]).toMatchObject({ month: 3, status: "estimated", coveredDays: 15 });
-    expect(result.measuredMonths).toBe(2);
+    expect(result.months[1].kwh).toBeCloseTo(260 + (15 * 450) / 31, 9);
+    expect(result.months[2]).toMatchObject({ month: 3, status: "measured", coveredDays: 16 });
+    expect(result.months[2].kwh).toBeCloseTo(450, 9);
+    expect(result.measuredMonths).toBe(3);
     expect(result.fillMethod).toBe("seasonal");
     // Average price: (9000 + 7200) / (600 + 450) = 15.43 ¢/kWh
     expect(result.averageCentsPerKwh).toBeCloseTo(16200 / 1050, 9);
-    expect(result.warnings.some((w) => w.includes("Only 2 month(s) measured"))).toBe(true);
+    expect(result.warnings).toContain("3 month(s) measured; estimated: April, May, June, July, August, September, October, November, December (billed days kept, the rest filled in).");
+  });
+
+  it("a bill from 1 to 31 January is a full January: nothing scaled", () => {
+    const result = usageFromBills({ bills: [{ startDate: "2023-01-01", endDate: "2023-01-31", kwh: 744 }] });
+    expect(result.months[0]).toMatchObject({ status: "measured", coveredDays: 31, coverage: 1, kwh: 744 });
+    expect(result.warnings.some((w) => w.includes("scaled up"))).toBe(false);
+    // Printed with meter-read dates (same day of the month at both ends): 1 March – 1 April is March.
+    const read = usageFromBills({ bills: [{ startDate: "2023-03-01", endDate: "2023-04-01", kwh: 620 }] });
+    expect(read.months[2]).toMatchObject({ coveredDays: 31, coverage: 1, kwh: 620 });
+    expect(read.months[3].coveredDays).toBe(0);
+  });
+
+  it("a month covered half or less keeps its billed kWh and fills only the uncovered days", () => {
+    // January full (744 kWh); February 1–10 (100 kWh, 10 of 28 days = 35.7 % → estimated).
+    // Seasonal fill: scale = 744 / ref[Jan]; February = 100 + ref[Feb] × scale × 18/28.
+    const ref = referenceMonthlyKwh();
+    const result = usageFromBills({
+      bills: [
+        { startDate: "2023-01-01", endDate: "2023-01-31", kwh: 744 },
+        { startDate: "2023-02-01", endDate: "2023-02-10", kwh: 100 },
+      ],
+    });
+    expect(result.months[1]).toMatchObject({ status: "estimated", coveredDays: 10 });
+    expect(result.months[1].kwh).toBeCloseTo(100 + ((ref[1] * 744) / ref[0]) * (18 / 28), 9);
+    expect(result.warnings.find((w) => w.startsWith("1 month(s) measured; estimated: February,"))).toBeDefined();
+  });
+
+  it("twelve monthly bills on meter-read dates are a year, not more; thirteen are more", () => {
+    // Reads on the 14th from 2023-01-14 to 2024-01-14: 12 bills, 365 days in all.
+    const reads = Array.from({ length: 14 }, (_, k) => `${2023 + Math.floor(k / 12)}-${pad((k % 12) + 1)}-14`);
+    const bills = (n: number) => Array.from({ length: n }, (_, k) => ({ startDate: reads[k], endDate: reads[k + 1], kwh: 900 }));
+    const year = usageFromBills({ bills: bills(12) });
+    expect(year.measuredMonths).toBe(12);
+    expect(year.warnings.some((w) => w.includes("more than a year"))).toBe(false);
+    // The last bill (2023-12-14 – 2024-01-14) has the same day of the month at both ends: read dates too.
+    expect(year.months.reduce((a, m) => a + m.coveredDays, 0)).toBe(365);
+    const more = usageFromBills({ bills: bills(13) });
+    expect(more.warnings.some((w) => w.includes("more than a year"))).toBe(true);
   });
 
   it("fills missing months from the reference load's monthly shape", () => {
@@ -65,7 +104,7 @@ describe("usageFromBills — spreading by day", () => {
 
   it("reports gaps between bills", () => {
     const result = usageFromBills({ bills: [calendarBill(1, 500), calendarBill(3, 500)] });
-    expect(result.warnings.some((w) => w.includes("No bill covers 2023-02-01 to 2023-03-01"))).toBe(true);
+    expect(result.warnings).toContain("No bill covers 28 day(s) between 2023-01-31 and 2023-03-01.");
   });
 });
 
@@ -74,7 +113,7 @@ describe("usageFromBills — errors name the bills", () => {
     const issues = issuesOf(() =>
       usageFromBills({
         bills: [
-          { id: "Jan", startDate: "2023-01-01", endDate: "2023-02-01", kwh: 500 },
+          { id: "Jan", startDate: "2023-01-01", endDate: "2023-01-31", kwh: 500 },
           { id: "Late Jan", startDate: "2023-01-25", endDate: "2023-02-25", kwh: 500 },
         ],
       }),
@@ -83,7 +122,7 @@ describe("usageFromBills — errors name the bills", () => {
     expect(issues[0].path).toBe("bills.1.startDate");
     expect(issues[0].message).toContain('"Late Jan"');
     expect(issues[0].message).toContain('"Jan"');
-    expect(issues[0].message).toContain("7 day(s)");
+    expect(issues[0].message).toContain("7 day(s)"); // 25 – 31 January
   });
 
   it("rejects impossible periods and kWh, every bad bill at once", () => {
@@ -91,7 +130,7 @@ describe("usageFromBills — errors name the bills", () => {
       usageFromBills({
         bills: [
           { startDate: "2023-03-01", endDate: "2023-02-01", kwh: 500 },
-          { startDate: "2023-04-01", endDate: "2023-09-01", kwh: 500 },
+          { startDate: "2023-04-01", endDate: "2023-09-02", kwh: 500 },
           { startDate: "2023-10-01", endDate: "2023-11-01", kwh: 0 },
           { startDate: "2023-11-01", endDate: "2023-12-01", kwh: -4 },
         ],
@@ -99,7 +138,7 @@ describe("usageFromBills — errors name the bills", () => {
     );
     expect(issues.map((i) => i.path)).toEqual(["bills.0.endDate", "bills.1.endDate", "bills.2.kwh", "bills.3.kwh"]);
     expect(issues[0].message).toContain("bill 1");
-    expect(issues[1].message).toContain("153-day");
+    expect(issues[1].message).toContain("155-day"); // 1 April – 2 September, both included
   });
 
   it("rejects malformed dates via the schema", () => {

@@ -1,17 +1,21 @@
 /**
  * Utility bills → 12 monthly kWh for a typical usage year.
  *
- * Day counting: a billing period runs from its start date (inclusive) to its end date
- * (exclusive), as meter-read dates: a bill read on 14 February is followed by one starting on
- * 14 February, and the two do not overlap. Each bill's kWh is spread evenly over its days
- * (kWh per day = kWh / days) and each day's share is added to its calendar month.
+ * Day counting: a bill covers its start date through its end date, both days included, as a
+ * person reads "1 January – 31 January" (31 days, a full January). Bills printed with meter-read
+ * dates (read on 14 January, next read on 14 February, the next bill starting 14 February) are
+ * recognised two ways, and then their end date is the next period's first day, not theirs: the
+ * end date falls on the same day of the month as the start (14 January – 14 February, 1 March –
+ * 1 April), or another bill starts on it (the boundary day counts once, in the later bill). Each bill's kWh is spread evenly over its days (kWh per day = kWh /
+ * days) and each day's share is added to its calendar month.
  *
- * A calendar month is "measured" when bills cover at least half of its days
+ * A calendar month is "measured" when bills cover more than half of its days
  * (MIN_MEASURED_COVERAGE); its kWh is then the average kWh per covered day × the days of that
  * month in the typical 365-day year (so a partly covered month is scaled up to a full month,
- * and a leap-year February is scaled to 28 days). Months covered less than that are
- * "estimated" by the fill model and their few measured days are not used. When bills span more
- * than a year, the same calendar month from different years is pooled (kWh per covered day).
+ * and a leap-year February is scaled to 28 days). A month covered half or less is "estimated":
+ * it keeps the energy billed on its covered days, and the fill model supplies only its
+ * uncovered share (estimate × uncovered fraction). When bills cover more than a year, the same
+ * calendar month from different years is pooled (kWh per covered day).
  *
  * Fill models for estimated months:
  * - "seasonal": the measured months set the level, a monthly shape sets the pattern
@@ -31,7 +35,7 @@ import { DAYS_PER_YEAR, HOURS_PER_YEAR, MONTH_DAYS, MONTH_START_DAY } from "./ye
 
 /** Longest billing period accepted, days (monthly bills run 28–35 days; bi-monthly ≈ 61). */
 export const MAX_BILL_DAYS = 100;
-/** A month counts as measured when bills cover at least this fraction of its days. */
+/** A month counts as measured when bills cover more than this fraction of its days (our choice). */
 export const MIN_MEASURED_COVERAGE = 0.5;
 /** PRISM-style fitting needs at least this many measured months (3 parameters + 3 degrees of freedom). */
 export const MIN_MONTHS_FOR_DEGREE_DAY = 6;
@@ -105,6 +109,8 @@ export type UsageYear = {
   warnings: string[];
 };
 
+const MONTH_NAMES = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
+
 function isRealDate(s: string): boolean {
   const [y, m, d] = s.split("-").map(Number);
   const t = new Date(Date.UTC(y, m - 1, d));
@@ -121,12 +127,28 @@ function billName(bill: Bill, index: number): string {
   return bill.id ? `bill ${index + 1} ("${bill.id}", ${bill.startDate} → ${bill.endDate})` : `bill ${index + 1} (${bill.startDate} → ${bill.endDate})`;
 }
 
+/**
+ * The days each bill covers, [first, end) as day numbers: start through end date inclusive,
+ * except for meter-read dates (same day of the month at both ends, or the end date is another
+ * bill's start), whose end date is the next period's first day.
+ */
+function billSpans(bills: readonly Bill[]): { first: number; end: number }[] {
+  const starts = new Set(bills.map((b) => b.startDate));
+  return bills.map((b) => {
+    const first = dayNumber(b.startDate);
+    const last = dayNumber(b.endDate);
+    const readDates = last > first && (starts.has(b.endDate) || b.endDate.slice(8) === b.startDate.slice(8));
+    return { first, end: readDates ? last : last + 1 };
+  });
+}
+
 /** Check periods and kWh; throws one EngineInputError naming every bad bill. */
 function checkBills(bills: Bill[]): void {
   const issues: EngineIssue[] = [];
+  const spans = billSpans(bills);
   bills.forEach((bill, i) => {
-    const days = dayNumber(bill.endDate) - dayNumber(bill.startDate);
-    if (days <= 0) {
+    const days = spans[i].end - spans[i].first;
+    if (dayNumber(bill.endDate) <= dayNumber(bill.startDate)) {
       issues.push({ path: `bills.${i}.endDate`, message: `${billName(bill, i)}: the end date must be after the start date` });
     } else if (days > MAX_BILL_DAYS) {
       issues.push({ path: `bills.${i}.endDate`, message: `${billName(bill, i)}: a ${days}-day billing period is longer than ${MAX_BILL_DAYS} days` });
@@ -135,13 +157,13 @@ function checkBills(bills: Bill[]): void {
       issues.push({ path: `bills.${i}.kwh`, message: `${billName(bill, i)}: kWh must be greater than 0` });
     }
   });
-  const order = bills.map((_, i) => i).sort((a, b) => dayNumber(bills[a].startDate) - dayNumber(bills[b].startDate));
+  const order = bills.map((_, i) => i).sort((a, b) => spans[a].first - spans[b].first);
   for (let k = 1; k < order.length; k++) {
     for (let j = 0; j < k; j++) {
       const a = order[j];
       const b = order[k];
-      const overlapStart = Math.max(dayNumber(bills[a].startDate), dayNumber(bills[b].startDate));
-      const overlapEnd = Math.min(dayNumber(bills[a].endDate), dayNumber(bills[b].endDate));
+      const overlapStart = Math.max(spans[a].first, spans[b].first);
+      const overlapEnd = Math.min(spans[a].end, spans[b].end);
       if (overlapEnd > overlapStart) {
         issues.push({
           path: `bills.${b}.startDate`,
@@ -290,53 +312,52 @@ export function predictMonthlyKwh(fit: DegreeDayFit, hourlyTempC: readonly numbe
   );
 }
 
-/** Spreads each bill over its days and pools them by calendar month of year. */
-function spreadOverMonths(bills: readonly { startDate: string; endDate: string; kwh: number }[]) {
+/** Spreads each bill over its days (billSpans) and pools them by calendar month of year. */
+function spreadOverMonths(bills: readonly Bill[]) {
   const kwhByMonth = new Array<number>(12).fill(0);
   const daysByMonth = new Array<number>(12).fill(0);
-  const yearsByMonth = Array.from({ length: 12 }, () => new Set<number>());
-  for (const bill of bills) {
-    const start = dayNumber(bill.startDate);
-    const end = dayNumber(bill.endDate);
-    const perDay = bill.kwh / (end - start);
-    for (let d = start; d < end; d++) {
-      const date = new Date(d * 86_400_000);
-      const m = date.getUTCMonth();
+  const spans = billSpans(bills);
+  bills.forEach((bill, i) => {
+    const { first, end } = spans[i];
+    const perDay = bill.kwh / (end - first);
+    for (let d = first; d < end; d++) {
+      const m = new Date(d * 86_400_000).getUTCMonth();
       kwhByMonth[m] += perDay;
       daysByMonth[m] += 1;
-      yearsByMonth[m].add(date.getUTCFullYear());
     }
-  }
-
-  return { kwhByMonth, daysByMonth, yearsByMonth };
+  });
+  return { kwhByMonth, daysByMonth, spans };
 }
 
-/** What the bills leave out: months averaged over years, gaps between bills, months scaled up or estimated. */
-function coverageWarnings(bills: readonly { startDate: string; endDate: string }[], months: MonthUsage[], yearsByMonth: Set<number>[], measuredCount: number): string[] {
+/** What the bills leave out: more than a year pooled, gaps between bills, months scaled up or estimated (named). */
+function coverageWarnings(bills: readonly Bill[], spans: { first: number; end: number }[], months: MonthUsage[], measuredCount: number): string[] {
   const warnings: string[] = [];
-  if (yearsByMonth.some((years) => years.size > 1)) {
-    warnings.push("Bills span more than a year: the same calendar month from different years was averaged per day.");
+  const coveredDays = spans.reduce((a, s) => a + (s.end - s.first), 0);
+  if (coveredDays > 366) {
+    warnings.push(`Bills cover ${coveredDays} days, more than a year: the same calendar month from different years was averaged per day.`);
   }
-  const sorted = [...bills].sort((a, b) => dayNumber(a.startDate) - dayNumber(b.startDate));
-  for (let i = 1; i < sorted.length; i++) {
-    const gap = dayNumber(sorted[i].startDate) - dayNumber(sorted[i - 1].endDate);
-    if (gap > 0) warnings.push(`No bill covers ${sorted[i - 1].endDate} to ${sorted[i].startDate} (${gap} day(s)).`);
+  const sorted = [...bills.keys()].sort((a, b) => spans[a].first - spans[b].first);
+  for (let k = 1; k < sorted.length; k++) {
+    const gap = spans[sorted[k]].first - spans[sorted[k - 1]].end;
+    if (gap > 0) warnings.push(`No bill covers ${gap} day(s) between ${bills[sorted[k - 1]].endDate} and ${bills[sorted[k]].startDate}.`);
   }
   months.forEach((mu) => {
     if (mu.status === "measured" && mu.coverage < 1) {
-      warnings.push(`Month ${mu.month} is ${Math.round(mu.coverage * 100)} % covered by bills; its kWh is scaled up from the covered days.`);
+      warnings.push(`${MONTH_NAMES[mu.month - 1]} is ${Math.round(mu.coverage * 100)} % covered by bills; its kWh is scaled up from the covered days.`);
     }
   });
-  if (measuredCount < 12) {
-    warnings.push(`Only ${measuredCount} month(s) measured; ${12 - measuredCount} estimated.`);
+  const estimatedNames = months.filter((mu) => mu.status === "estimated").map((mu) => MONTH_NAMES[mu.month - 1]);
+  if (estimatedNames.length > 0) {
+    warnings.push(`${measuredCount} month(s) measured; estimated: ${estimatedNames.join(", ")} (billed days kept, the rest filled in).`);
   }
   return warnings;
 }
 
 /**
- * Fills the estimated months (changed in place): from a degree-day fit to the site's
- * temperatures when asked for and good enough, else from the seasonal shape scaled to the
- * measured months. Says in `warnings` why a fit was not used.
+ * Fills the estimated months (changed in place): each keeps its billed kWh and gets the fill's
+ * estimate for its uncovered share, from a degree-day fit to the site's temperatures when asked
+ * for and good enough, else from the seasonal shape scaled to the measured months. Says in
+ * `warnings` why a fit was not used.
  */
 function fillEstimatedMonths(
   parsed: z.output<typeof billsInputSchema>,
@@ -344,7 +365,6 @@ function fillEstimatedMonths(
   measuredIdx: number[],
   warnings: string[],
 ): { fillMethod: UsageYear["fillMethod"]; degreeDayFit: DegreeDayFit | null } {
-  let fillMethod: UsageYear["fillMethod"];
   let degreeDayFit: DegreeDayFit | null = null;
   const wantsDegreeDay = parsed.fill === "degree-day" || parsed.fill === "auto";
   if (wantsDegreeDay) {
@@ -367,25 +387,23 @@ function fillEstimatedMonths(
     }
   }
   if (degreeDayFit && parsed.hourlyTempC) {
-    fillMethod = "degree-day";
     const predicted = predictMonthlyKwh(degreeDayFit, parsed.hourlyTempC);
     months.forEach((mu, m) => {
-      if (mu.status === "estimated") mu.kwh = predicted[m];
+      if (mu.status === "estimated") mu.kwh += predicted[m] * (1 - mu.coverage);
     });
-  } else {
-    fillMethod = "seasonal";
-    const shape = parsed.seasonalShape ?? referenceMonthlyKwh();
-    const measuredShape = measuredIdx.reduce((a, m) => a + shape[m], 0);
-    const measuredKwh = measuredIdx.reduce((a, m) => a + months[m].kwh, 0);
-    if (measuredShape <= 0) {
-      throw new EngineInputError([{ path: "seasonalShape", message: "the shape is zero in every measured month" }], "bills");
-    }
-    const scale = measuredKwh / measuredShape;
-    months.forEach((mu, m) => {
-      if (mu.status === "estimated") mu.kwh = shape[m] * scale;
-    });
+    return { fillMethod: "degree-day", degreeDayFit };
   }
-  return { fillMethod, degreeDayFit };
+  const shape = parsed.seasonalShape ?? referenceMonthlyKwh();
+  const measuredShape = measuredIdx.reduce((a, m) => a + shape[m], 0);
+  const measuredKwh = measuredIdx.reduce((a, m) => a + months[m].kwh, 0);
+  if (measuredShape <= 0) {
+    throw new EngineInputError([{ path: "seasonalShape", message: "the shape is zero in every measured month" }], "bills");
+  }
+  const scale = measuredKwh / measuredShape;
+  months.forEach((mu, m) => {
+    if (mu.status === "estimated") mu.kwh += shape[m] * scale * (1 - mu.coverage);
+  });
+  return { fillMethod: "seasonal", degreeDayFit: null };
 }
 
 /** Bills → the household's 12 monthly kWh (Jan–Dec of a typical year), each flagged measured or estimated. */
@@ -393,16 +411,15 @@ export function usageFromBills(input: BillsInput): UsageYear {
   const parsed = parseOrThrow(billsInputSchema, input, "bills");
   const bills = parsed.bills;
   checkBills(bills);
-  const warnings: string[] = [];
-
-  const { kwhByMonth, daysByMonth, yearsByMonth } = spreadOverMonths(bills);
+  const { kwhByMonth, daysByMonth, spans } = spreadOverMonths(bills);
 
   const months: MonthUsage[] = MONTH_DAYS.map((days, m) => {
     const coverage = Math.min(1, daysByMonth[m] / days);
-    const measured = coverage >= MIN_MEASURED_COVERAGE;
+    const measured = coverage > MIN_MEASURED_COVERAGE;
     return {
       month: m + 1,
-      kwh: measured ? (kwhByMonth[m] / daysByMonth[m]) * days : 0,
+      // An estimated month keeps its billed kWh; the fill adds its uncovered share.
+      kwh: measured ? (kwhByMonth[m] / daysByMonth[m]) * days : kwhByMonth[m],
       status: measured ? "measured" : "estimated",
       coveredDays: daysByMonth[m],
       coverage,
@@ -411,12 +428,11 @@ export function usageFromBills(input: BillsInput): UsageYear {
   const measuredIdx = months.flatMap((mu, m) => (mu.status === "measured" ? [m] : []));
   if (measuredIdx.length === 0) {
     throw new EngineInputError(
-      [{ path: "bills", message: `no calendar month is covered for at least ${MIN_MEASURED_COVERAGE * 100} % of its days` }],
+      [{ path: "bills", message: `no calendar month is covered for more than ${MIN_MEASURED_COVERAGE * 100} % of its days` }],
       "bills",
     );
   }
-  warnings.push(...coverageWarnings(bills, months, yearsByMonth, measuredIdx.length));
-
+  const warnings = coverageWarnings(bills, spans, months, measuredIdx.length);
   const { fillMethod, degreeDayFit } = measuredIdx.length < 12 ? fillEstimatedMonths(parsed, months, measuredIdx, warnings) : { fillMethod: "none" as const, degreeDayFit: null };
 
   const monthlyKwh = months.map((mu) => mu.kwh);

@@ -17,11 +17,16 @@
  *   amortizeLoan). Loan payments fall in the years they are due (12 a year).
  * - Cash flow, year n = savings + incentives paid that year − loan payments − O&M.
  * - Payback: the fractional year at which the cumulative cash flow turns non-negative for the
- *   last time (linear within the year); null when it ends negative.
+ *   last time (linear within the year), so with escalation, degradation, loan payments and
+ *   incentives as they fall; null when it ends negative. Simple payback, for comparison: net
+ *   cost ÷ year-1 savings (no escalation, no degradation); null when year-1 savings are not positive.
  * - Net cost = everything paid for the system (year-0 outlay, loan payments, O&M) − incentives
  *   received after year 0. Simple ROI = (lifetime savings − net cost) / net cost; null when the
  *   net cost is not positive (no money at risk: the ratio has no meaning).
- * - NPV: numpy-financial convention (year 0 undiscounted) at the discount rate; IRR: finance.ts.
+ * - NPV: numpy-financial convention (year 0 undiscounted) at the discount rate; IRR: finance.ts,
+ *   given only when exactly one rate makes the NPV zero (irrNote says why not otherwise).
+ * - A loan must be paid off within the table: a term longer than the analysis years is refused
+ *   (callers lengthen the analysis to the term, never drop payments).
  * - LCOE, discounted (Short, Packey & Holt 1995, "A Manual for the Economic Evaluation of Energy
  *   Efficiency and Renewable Energy Technologies", NREL/TP-462-5173, levelized cost of energy):
  *   LCOE = Σ_t cost_t/(1+r)^t ÷ Σ_t kWh_t/(1+r)^t, with cost_t the homeowner's net system cost
@@ -29,7 +34,7 @@
  */
 import { z } from "zod";
 import { parseOrThrow } from "./errors";
-import { amortizeLoan, dealerFeeModeSchema, irr, npv } from "./finance";
+import { amortizeLoan, dealerFeeModeSchema, irrVerdict, npv } from "./finance";
 
 /** Jordan & Kurtz (2013): median degradation of PV modules, %/yr. */
 export const DEFAULT_DEGRADATION_PCT = 0.5;
@@ -81,6 +86,13 @@ export const cashflowInputSchema = z
     }
     const incentives = v.incentivesByYear.reduce((a, b) => a + b, 0);
     if (incentives > v.grossPriceCents) ctx.addIssue({ code: "custom", path: ["incentivesByYear"], message: "incentives exceed the price" });
+    if (v.payment.kind === "loan" && v.payment.termMonths > v.years * 12) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["payment", "termMonths"],
+        message: `the loan's ${v.payment.termMonths}-month term runs past the ${v.years}-year analysis: analyse at least ${Math.ceil(v.payment.termMonths / 12)} years so every payment is counted`,
+      });
+    }
     if (v.payment.kind === "loan" && v.payment.downPaymentCents + (v.incentivesByYear[0] ?? 0) > v.grossPriceCents) {
       ctx.addIssue({ code: "custom", path: ["payment", "downPaymentCents"], message: "down payment plus upfront incentives exceed the price" });
     }
@@ -106,10 +118,16 @@ export type CashflowSummary = {
   netCostCents: number;
   lifetimeSavingsCents: number;
   lifetimeProductionKwh: number;
+  /** Year the cumulative cash flow turns positive for good (escalation, degradation, loan payments included). */
   paybackYears: number | null;
+  /** Net cost ÷ year-1 savings; null when year-1 savings are not positive. */
+  simplePaybackYears: number | null;
+  /** (Lifetime savings − net cost) ÷ net cost; net cost is what the homeowner pays (see above). */
   simpleRoi: number | null;
   npvCents: number;
   irr: number | null;
+  /** Why irr is null ("not meaningful: …"), else null. */
+  irrNote: string | null;
   /** Discounted LCOE (Short, Packey & Holt 1995), ¢/kWh; null without production. */
   lcoeCentsPerKwh: number | null;
   /** Net cost ÷ lifetime kWh, ¢/kWh; null without production. */
@@ -136,7 +154,6 @@ function outlays(v: z.output<typeof cashflowInputSchema>, upfront: number, notes
       const year = Math.ceil(row.month / 12);
       if (year <= v.years) loanByYear[year] += row.paymentCents;
     }
-    if (p.termMonths > v.years * 12) notes.push(`The loan runs past year ${v.years}; later payments are left out of the table.`);
     loan = {
       financedCents: result.financedCents,
       monthlyPaymentCents: result.monthlyPaymentCents,
@@ -235,15 +252,21 @@ export function buildCashflow(input: CashflowInput): CashflowResult {
       lifetimeSavingsCents: lifetimeSavings,
       lifetimeProductionKwh: Math.round(lifetimeKwh * 10) / 10,
       paybackYears: paybackYears(flows),
+      simplePaybackYears: rows[1] && rows[1].savingsCents > 0 ? Math.max(0, netCost) / rows[1].savingsCents : null,
       simpleRoi: netCost > 0 ? (lifetimeSavings - netCost) / netCost : null,
       npvCents: Math.round(npv(rate, flows)),
-      irr: irr(flows),
+      ...irrOf(flows),
       lcoeCentsPerKwh: lcoe,
       simpleLcoeCentsPerKwh: lifetimeKwh > 0 ? netCost / lifetimeKwh : null,
       loan,
       notes,
     },
   };
+}
+
+function irrOf(flows: readonly number[]): { irr: number | null; irrNote: string | null } {
+  const verdict = irrVerdict(flows);
+  return { irr: verdict.irr, irrNote: verdict.reason };
 }
 
 /**

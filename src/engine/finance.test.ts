@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import * as financial from "financial";
-import { amortizeLoan, irr, npv, pmt } from "./finance";
+import { amortizeLoan, irr, irrVerdict, npv, pmt } from "./finance";
 import { EngineInputError } from "./errors";
 
 describe("pmt", () => {
@@ -124,10 +124,33 @@ describe("amortizeLoan", () => {
 
   it("rejects bad input naming the field", () => {
     expect(() => amortizeLoan({ amountCents: -5, aprPct: 5, termMonths: 12 })).toThrow(EngineInputError);
-    try {
-      amortizeLoan({ amountCents: 100, aprPct: 5, termMonths: 0 });
-    } catch (e) {
-      expect((e as EngineInputError).issues[0].path).toBe("termMonths");
-    }
+    // Fails when nothing is thrown, or something else is.
+    const err = (() => {
+      try {
+        amortizeLoan({ amountCents: 100, aprPct: 5, termMonths: 0 });
+      } catch (e) {
+        return e;
+      }
+      return null;
+    })();
+    expect(err).toBeInstanceOf(EngineInputError);
+    expect((err as EngineInputError).issues[0].path).toBe("termMonths");
+  });
+});
+
+describe("irrVerdict: an IRR only when it means something", () => {
+  it("one root: the IRR (numpy-financial docs example, 0.28095)", () => {
+    const v = irrVerdict([-100, 39, 59, 55, 20]);
+    expect(v.irr).toBeCloseTo(0.28095, 5);
+    expect(v.reason).toBeNull();
+  });
+  it("two roots: not meaningful, both named (−100, +230, −132 has NPV 0 at 10 % and 20 %, hand-worked: 1.1² = 1.21, 1.2² = 1.44)", () => {
+    const v = irrVerdict([-100, 230, -132]);
+    expect(v.irr).toBeNull();
+    expect(v.reason).toBe("not meaningful: the yearly cash flow changes sign more than once and 2 rates (10.0 %, 20.0 %) each bring the net present value to zero");
+  });
+  it("no sign change: not meaningful, with the reason", () => {
+    expect(irrVerdict([0, 10, 10]).reason).toContain("no money is paid out");
+    expect(irrVerdict([-10, -1, 0]).reason).toContain("never turn positive");
   });
 });

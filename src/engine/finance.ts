@@ -75,32 +75,59 @@ const IRR_TOLERANCE = 1e-12;
  * Example (numpy-financial docs): irr([−100, 39, 59, 55, 20]) = 0.28095.
  */
 export function irr(values: readonly number[]): number | null {
+  const roots = irrRoots(values);
+  return roots.reduce<number | null>((best, r) => pickCloserToZero(best, r), null);
+}
+
+/**
+ * Every rate in (−99 %, 10 000 %) where the NPV of the values is zero, lowest first (found as
+ * irr() finds one). More than one appears when the flows change sign more than once (Descartes'
+ * rule of signs bounds their number by the sign changes).
+ */
+export function irrRoots(values: readonly number[]): number[] {
   values.forEach((v, t) => {
     if (!Number.isFinite(v)) throw new EngineInputError([{ path: `values.${t}`, message: "must be a finite number" }]);
   });
-  const hasPositive = values.some((v) => v > 0);
-  const hasNegative = values.some((v) => v < 0);
-  if (!hasPositive || !hasNegative) return null;
-
+  if (!values.some((v) => v > 0) || !values.some((v) => v < 0)) return [];
   // Scan a grid that is fine near 0 and coarser further out.
   const grid: number[] = [];
   for (let r = IRR_LOWEST_RATE; r < 1; r += 0.01) grid.push(r);
   for (let r = 1; r <= IRR_HIGHEST_RATE; r *= 1.05) grid.push(r);
-  let best: number | null = null;
+  const roots: number[] = [];
   let prevRate = grid[0];
   let prevNpv = npv(prevRate, values);
   for (let i = 1; i < grid.length; i++) {
     const rate = grid[i];
     const value = npv(rate, values);
-    if (prevNpv === 0) {
-      best = pickCloserToZero(best, prevRate);
-    } else if (Math.sign(value) !== Math.sign(prevNpv) && Number.isFinite(value) && Number.isFinite(prevNpv)) {
-      best = pickCloserToZero(best, refineRoot(values, prevRate, rate, prevNpv));
-    }
+    const root =
+      prevNpv === 0 ? prevRate : Math.sign(value) !== Math.sign(prevNpv) && Number.isFinite(value) && Number.isFinite(prevNpv) ? refineRoot(values, prevRate, rate, prevNpv) : null;
+    // A root on a grid point is seen from both sides: keep it once.
+    if (root !== null && !roots.some((r) => Math.abs(r - root) <= 1e-9 * Math.max(1, Math.abs(root)))) roots.push(root);
     prevRate = rate;
     prevNpv = value;
   }
-  return best;
+  return roots;
+}
+
+/**
+ * The IRR when it means something: exactly one rate makes the NPV zero. Otherwise null with the
+ * reason a person can read (no rate at all, or several, as with a loan whose payments outlast
+ * the savings and turn the flows negative again: the "multiple IRR" problem, e.g. Brealey, Myers
+ * & Allen, "Principles of Corporate Finance", ch. 5, from memory).
+ */
+export function irrVerdict(values: readonly number[]): { irr: number | null; reason: string | null } {
+  const roots = irrRoots(values);
+  if (roots.length === 1) return { irr: roots[0], reason: null };
+  if (roots.length === 0) {
+    const reason = !values.some((v) => v < 0)
+      ? "not meaningful: no money is paid out, so there is nothing to earn a return on"
+      : !values.some((v) => v > 0)
+        ? "not meaningful: the cash flows never turn positive"
+        : "not meaningful: no rate between −99 % and 10,000 % brings the net present value to zero";
+    return { irr: null, reason };
+  }
+  const list = roots.map((r) => `${(r * 100).toFixed(1)} %`).join(", ");
+  return { irr: null, reason: `not meaningful: the yearly cash flow changes sign more than once and ${roots.length} rates (${list}) each bring the net present value to zero` };
 }
 
 function pickCloserToZero(current: number | null, candidate: number): number {

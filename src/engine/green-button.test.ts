@@ -128,6 +128,26 @@ describe("interval CSV", () => {
     expect(p.hourlyKwh[181 * 24 + 11]).toBeCloseTo(1.5, 12);
   });
 
+  it("reads stamps without an offset as the site's clock time, daylight saving included", () => {
+    // A summer export in New York clock time: 15:00 EDT is 14:00 EST. 1 July = day 181.
+    const summer = "timestamp,kWh\n2023-07-01T15:00,2.0\n2023-07-01T16:00,3.0\n";
+    const p = importIntervalData(summer, { utcOffsetHours: -5, timeZone: "America/New_York" });
+    expect(p.hourlyKwh[181 * 24 + 14]).toBeCloseTo(2, 12);
+    expect(p.hourlyKwh[181 * 24 + 15]).toBeCloseTo(3, 12);
+    expect(p.notes.some((n) => n.includes("clock time in America/New_York"))).toBe(true);
+    // Winter stamps are standard time already: 15:00 EST on 10 January (day 9).
+    const winter = importIntervalData("timestamp,kWh\n2023-01-10T15:00,1.0\n", { timeZone: "America/New_York" });
+    expect(winter.hourlyKwh[9 * 24 + 15]).toBeCloseTo(1, 12);
+  });
+
+  it("the hour repeated when daylight saving ends lands twice, an hour apart", () => {
+    // 5 November 2023, New York: 01:00–02:00 happens twice (EDT, then EST). Day 308.
+    const text = "timestamp,kWh\n2023-11-05T00:00,1\n2023-11-05T01:00,2\n2023-11-05T01:00,3\n2023-11-05T02:00,4\n";
+    const p = importIntervalData(text, { timeZone: "America/New_York" });
+    // In standard time: 00:00 EDT = 23:00 EST the day before; 01:00 EDT = 00:00 EST; 01:00 EST; 02:00 EST.
+    expect(Array.from(p.hourlyKwh.slice(307 * 24 + 23, 307 * 24 + 27))).toEqual([1, 2, 3, 4]);
+  });
+
   it("reads date + start time + end time + usage + units columns after preamble lines", () => {
     const text = [
       "Name,Invented Household",

@@ -31,12 +31,13 @@
  * calendar month; where that month has none at that hour, the reference residential load
  * (load-shape.ts) scaled to the measured hours. Every filled hour is counted as estimated.
  */
+import { TZDate, tzOffset } from "@date-fns/tz";
 import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { z } from "zod";
 import { isBlankRecord, readCsvRecords } from "./csv";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
 import { REFERENCE_LOAD_HOURLY_KWH } from "./data/reference-load-8760";
-import { HOURS_PER_YEAR, HOUR_MONTH, MONTH_DAYS, MONTH_START_DAY } from "./year-calendar";
+import { HOURS_PER_YEAR, HOUR_MONTH, isTimeZone, MONTH_DAYS, MONTH_START_DAY, standardOffsetMinutes } from "./year-calendar";
 
 /** ESPI UnitSymbolKind for watt-hours. */
 export const ESPI_UOM_WH = 72;
@@ -390,7 +391,8 @@ function normaliseDate(s: string): string | null {
  * Each row is an interval starting at its timestamp; its length comes from the end-time column
  * or from the most common step between consecutive timestamps.
  */
-export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number } = {}): { readings: IntervalReading[]; notes: string[] } {
+export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number; timeZone?: string } = {}): { readings: IntervalReading[]; notes: string[] } {
+  const wallClock = options.timeZone ? wallClockReader(options.timeZone) : null;
   const records = readCsvRecords(text);
   const norm = (s: string) => s.trim().toLowerCase();
   let headerIdx = -1;
@@ -468,7 +470,10 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
         break;
       }
       sec = ts.sec - ts.offsetSec + options.utcOffsetHours * 3600;
-    } else withoutOffset++;
+    } else {
+      withoutOffset++;
+      if (wallClock) sec = wallClock(ts.sec);
+    }
     let endSec: number | null = null;
     if (endCol >= 0 && tsCol < 0 && f[endCol]) {
       const end = parseTimestamp(`${stamp.slice(0, 10)}T${f[endCol].padStart(5, "0")}`);
@@ -483,7 +488,13 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
   }
   if (issues.length > 0) throw new EngineInputError(issues, "interval CSV");
   if (rows.length === 0) throw new EngineInputError([{ path: `line ${headerIdx + 2}`, message: "no data rows" }], "interval CSV");
-  if (withoutOffset > 0) notes.push("Timestamps without a UTC offset were read as local standard time.");
+  if (withoutOffset > 0) {
+    notes.push(
+      options.timeZone
+        ? `Timestamps without a UTC offset were read as clock time in ${options.timeZone} (daylight saving included) and placed in local standard time.`
+        : "Timestamps without a UTC offset were read as local standard time.",
+    );
+  }
   if (withOffset > 0 && withoutOffset > 0) notes.push("Some timestamps carry a UTC offset and some do not.");
 
   rows.sort((a, b) => a.sec - b.sec);
@@ -506,6 +517,24 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
     return { startSec: r.sec, durationSec: Math.min(Math.max(duration, 1), MAX_READING_SECONDS), kwh: r.kwh };
   });
   return { readings, notes };
+}
+
+/**
+ * Wall-clock stamps in a zone → seconds in local standard time (the grid's time). Meter exports
+ * without an offset are wall-clock: in summer their "15:00" is 14:00 standard time. The hour
+ * repeated when daylight saving ends appears twice; its second appearance is the later one.
+ */
+function wallClockReader(timeZone: string): (naiveSec: number) => number {
+  const seen = new Set<number>();
+  return (naiveSec) => {
+    const wall = new Date(naiveSec * 1000);
+    const instant = new TZDate(wall.getUTCFullYear(), wall.getUTCMonth(), wall.getUTCDate(), wall.getUTCHours(), wall.getUTCMinutes(), wall.getUTCSeconds(), timeZone).getTime();
+    const standardMin = standardOffsetMinutes(timeZone, wall.getUTCFullYear());
+    let ms = instant;
+    if (seen.has(ms) && tzOffset(timeZone, new Date(ms + 3_600_000)) < tzOffset(timeZone, new Date(ms))) ms += 3_600_000;
+    seen.add(ms);
+    return ms / 1000 + standardMin * 60;
+  };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -702,6 +731,8 @@ export const intervalImportOptionsSchema = z.object({
   format: z.enum(["auto", "espi-xml", "csv"]).default("auto"),
   /** The site's standard UTC offset, hours (e.g. −5); used when the file does not give one. */
   utcOffsetHours: z.number().finite().min(-12).max(14).optional(),
+  /** The site's IANA time zone: CSV stamps without an offset are its clock time (daylight saving included). */
+  timeZone: z.string().refine(isTimeZone, { message: "is not a known time zone" }).optional(),
 });
 export type IntervalImportOptions = z.input<typeof intervalImportOptionsSchema>;
 
@@ -714,6 +745,6 @@ export function importIntervalData(text: string, options: IntervalImportOptions 
     const parsed = parseEspiXml(text, { utcOffsetHours: opts.utcOffsetHours });
     return readingsToProfile(parsed.readings, parsed.notes, parsed.receivedKwh);
   }
-  const parsed = parseIntervalCsv(text, { utcOffsetHours: opts.utcOffsetHours });
+  const parsed = parseIntervalCsv(text, { utcOffsetHours: opts.utcOffsetHours, timeZone: opts.timeZone });
   return readingsToProfile(parsed.readings, parsed.notes);
 }

@@ -41,8 +41,8 @@ describe("evaluateIncentives", () => {
     const late = evaluateIncentives({ rules: [rebate, taxCredit, cityGrant], asOf: "2025-01-02", grossPriceCents: 2_400_000, systemKwDc: 8, payment: "cash" });
     expect(late.applied.map((a) => a.id)).toEqual(["tax-30"]);
     expect(late.skipped.map((s) => [s.id, s.reason])).toEqual([
-      ["utility-rebate", "ended 2024-12-31, before 2025-01-02"],
-      ["city", "ended 2024-06-30, before 2025-01-02"],
+      ["utility-rebate", "ended 2024-12-31, before the offer on 2025-01-02"],
+      ["city", "ended 2024-06-30, before the offer on 2025-01-02"],
     ]);
     // Percent of the full price now: 30 % × 2,400,000 = 720,000
     expect(late.totalCents).toBe(720_000);
@@ -51,6 +51,25 @@ describe("evaluateIncentives", () => {
     // The end date itself is inside the window.
     const lastDay = evaluateIncentives({ rules: [cityGrant], asOf: "2024-06-30", grossPriceCents: 2_400_000, systemKwDc: 1, payment: "cash" });
     expect(lastDay.totalCents).toBe(50_000);
+  });
+
+  it("a credit that counts at installation is judged on the install date, not the offer date (26 U.S.C. §25D(e)(8))", () => {
+    // A dated rule as data: 30 % for systems installed through 2025-12-31 (the residential credit's
+    // end for expenditures after 2025, from memory).
+    const federal: IncentiveRuleInput = { id: "25d", name: "Federal residential clean energy credit", amount: { kind: "percent", pct: 30 }, startDate: "2022-01-01", endDate: "2025-12-31", timing: { year: 1 }, countsOn: "installation" };
+    const offeredInTime = evaluateIncentives({ rules: [federal], asOf: "2025-11-20", installDate: "2026-01-15", grossPriceCents: 2_400_000, systemKwDc: 8, payment: "cash" });
+    expect(offeredInTime.applied).toHaveLength(0);
+    expect(offeredInTime.skipped[0].reason).toBe("ended 2025-12-31, before installation on 2026-01-15");
+    const installedInTime = evaluateIncentives({ rules: [federal], asOf: "2025-10-01", installDate: "2025-12-10", grossPriceCents: 2_400_000, systemKwDc: 8, payment: "cash" });
+    expect(installedInTime.totalCents).toBe(720_000);
+    expect(installedInTime.applied[0].detail).toContain("counts at installation on 2025-12-10");
+  });
+
+  it("a percent credit's basis includes a dealer fee the homeowner pays inside the loan", () => {
+    // 30 % × ($24,000 price + $2,880 dealer fee) = $8,064.00
+    const r = evaluateIncentives({ rules: [taxCredit], asOf: "2025-01-02", grossPriceCents: 2_400_000, dealerFeeCents: 288_000, systemKwDc: 8, payment: "loan" });
+    expect(r.totalCents).toBe(806_400);
+    expect(r.applied[0].detail).toContain("incl. the $2,880.00 dealer fee in the loan");
   });
 
   it("checks size and payment eligibility", () => {

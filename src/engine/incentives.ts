@@ -3,15 +3,19 @@
  * and end date and optional eligibility. Nothing is hard-coded here; a company keeps its own
  * list (e.g. a federal tax credit of 30 % of the system cost, a utility rebate per watt).
  *
- * A rule applies when the evaluation date (usually the offer or contract date) lies within
- * [startDate, endDate], both inclusive, and the system meets its eligibility. An ended or
- * not-yet-started rule never appears among the applied incentives; it is listed as skipped
- * with the reason.
+ * Each rule says which date it counts on (`countsOn`): the offer date (a rebate reserved when
+ * the contract is signed) or the installation date (a credit that counts when the system is
+ * installed, e.g. the U.S. federal residential clean energy credit, 26 U.S.C. §25D, whose
+ * expenditures count when installation is complete, §25D(e)(8)). A rule applies when its date
+ * lies within [startDate, endDate], both inclusive, and the system meets its eligibility. An
+ * ended or not-yet-started rule never appears among the applied incentives; it is listed as
+ * skipped with the reason.
  *
- * Percent rules take a percentage of a basis: the gross price, or the price net of the
- * incentives applied before them in list order (e.g. a tax credit whose basis excludes a
- * utility rebate). Each amount is capped (optional cap) and never exceeds what is left of the
- * price, so incentives never sum above the price.
+ * Percent rules take a percentage of a basis: the system cost (the price, plus a lender's dealer
+ * fee the homeowner pays inside the loan: what the homeowner pays for the system), or that cost
+ * net of the incentives applied before them in list order (e.g. a tax credit whose basis
+ * excludes a utility rebate). Each amount is capped (optional cap) and never exceeds what is
+ * left of the price, so incentives never sum above the price.
  */
 import { z } from "zod";
 import { parseOrThrow } from "./errors";
@@ -49,6 +53,8 @@ export const incentiveRuleSchema = z
      * first tax return: year 1).
      */
     timing: z.union([z.literal("upfront"), z.object({ year: z.number().int().min(1).max(50) })]).default("upfront"),
+    /** Which date must fall within [startDate, endDate]: the offer's or the (expected) installation's. */
+    countsOn: z.enum(["offer", "installation"]).default("offer"),
     eligibility: z
       .object({
         minKwDc: z.number().finite().min(0).optional(),
@@ -64,7 +70,11 @@ export const incentiveContextSchema = z.object({
   rules: z.array(incentiveRuleSchema),
   /** The date the rules are evaluated at (offer date), YYYY-MM-DD. */
   asOf: isoDate,
+  /** Expected (or actual) installation date, for rules that count on it; default: asOf. */
+  installDate: isoDate.optional(),
   grossPriceCents: z.number().int().min(0),
+  /** A lender's dealer fee the homeowner pays inside the loan: part of the system cost a percent rule takes. */
+  dealerFeeCents: z.number().int().min(0).default(0),
   systemKwDc: z.number().finite().min(0),
   payment: z.enum(["cash", "loan"]),
 });
@@ -90,6 +100,48 @@ export type IncentiveResult = {
 
 const dollars = (cents: number) => `$${(cents / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
 
+type Context = z.output<typeof incentiveContextSchema>;
+type Rule = Context["rules"][number];
+
+/** The date a rule is judged on, as words for the reasons ("installation on 2026-01-15"). */
+function ruleDate(rule: Rule, ctx: Context): { on: string; onWhat: string } {
+  const on = rule.countsOn === "installation" ? (ctx.installDate ?? ctx.asOf) : ctx.asOf;
+  return { on, onWhat: rule.countsOn === "installation" ? `installation on ${on}` : `the offer on ${on}` };
+}
+
+/** Why a rule does not apply (dates, size, payment), or null when it does. */
+function skipReason(rule: Rule, ctx: Context): string | null {
+  const { on, onWhat } = ruleDate(rule, ctx);
+  // ISO dates compare correctly as strings.
+  if (on < rule.startDate) return `starts ${rule.startDate}, after ${onWhat}`;
+  if (on > rule.endDate) return `ended ${rule.endDate}, before ${onWhat}`;
+  const el = rule.eligibility;
+  if (el.minKwDc !== undefined && ctx.systemKwDc < el.minKwDc) return `system ${ctx.systemKwDc} kW DC is below the ${el.minKwDc} kW minimum`;
+  if (el.maxKwDc !== undefined && ctx.systemKwDc > el.maxKwDc) return `system ${ctx.systemKwDc} kW DC is above the ${el.maxKwDc} kW maximum`;
+  if (el.payment && !el.payment.includes(ctx.payment)) return `not available for ${ctx.payment} payment`;
+  return null;
+}
+
+/** A rule's amount before the remaining-price limit, with how it was worked out. */
+function ruleAmount(rule: Rule, ctx: Context, appliedSoFar: number): { raw: number; detail: string } {
+  const a = rule.amount;
+  const capped = (raw: number, detail: string, capCents: number | undefined) =>
+    capCents !== undefined && raw > capCents ? { raw: capCents, detail: `${detail}, capped at ${dollars(capCents)}` } : { raw, detail };
+  if (a.kind === "per-watt") {
+    return capped(ctx.systemKwDc * 1000 * a.centsPerWattDc, `${Math.round(ctx.systemKwDc * 1000)} W × ${a.centsPerWattDc} ¢/W`, a.capCents);
+  }
+  if (a.kind === "percent") {
+    const cost = ctx.grossPriceCents + ctx.dealerFeeCents;
+    const basis = a.basis === "gross-price" ? cost : cost - appliedSoFar;
+    const parts = [
+      ...(ctx.dealerFeeCents > 0 ? [`incl. the ${dollars(ctx.dealerFeeCents)} dealer fee in the loan`] : []),
+      ...(a.basis === "net-of-earlier" ? ["net of earlier incentives"] : []),
+    ];
+    return capped((basis * a.pct) / 100, `${a.pct} % of ${dollars(basis)}${parts.length ? ` (system cost ${parts.join(", ")})` : ""}`, a.capCents);
+  }
+  return { raw: a.amountCents, detail: "fixed amount" };
+}
+
 /** Evaluate the incentive rules for one offer at a date. */
 export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
   const ctx = parseOrThrow(incentiveContextSchema, input, "incentives");
@@ -98,53 +150,14 @@ export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
   let appliedSoFar = 0;
 
   for (const rule of ctx.rules) {
-    const skip = (reason: string) => skipped.push({ id: rule.id, name: rule.name, reason });
-    // ISO dates compare correctly as strings.
-    if (ctx.asOf < rule.startDate) {
-      skip(`starts ${rule.startDate}, after ${ctx.asOf}`);
+    const reason = skipReason(rule, ctx);
+    if (reason) {
+      skipped.push({ id: rule.id, name: rule.name, reason });
       continue;
     }
-    if (ctx.asOf > rule.endDate) {
-      skip(`ended ${rule.endDate}, before ${ctx.asOf}`);
-      continue;
-    }
-    const el = rule.eligibility;
-    if (el.minKwDc !== undefined && ctx.systemKwDc < el.minKwDc) {
-      skip(`system ${ctx.systemKwDc} kW DC is below the ${el.minKwDc} kW minimum`);
-      continue;
-    }
-    if (el.maxKwDc !== undefined && ctx.systemKwDc > el.maxKwDc) {
-      skip(`system ${ctx.systemKwDc} kW DC is above the ${el.maxKwDc} kW maximum`);
-      continue;
-    }
-    if (el.payment && !el.payment.includes(ctx.payment)) {
-      skip(`not available for ${ctx.payment} payment`);
-      continue;
-    }
-
-    let raw: number;
-    let detail: string;
-    const a = rule.amount;
-    if (a.kind === "per-watt") {
-      raw = ctx.systemKwDc * 1000 * a.centsPerWattDc;
-      detail = `${Math.round(ctx.systemKwDc * 1000)} W × ${a.centsPerWattDc} ¢/W`;
-      if (a.capCents !== undefined && raw > a.capCents) {
-        raw = a.capCents;
-        detail += `, capped at ${dollars(a.capCents)}`;
-      }
-    } else if (a.kind === "percent") {
-      const basis = a.basis === "gross-price" ? ctx.grossPriceCents : ctx.grossPriceCents - appliedSoFar;
-      raw = (basis * a.pct) / 100;
-      detail = `${a.pct} % of ${dollars(basis)}${a.basis === "net-of-earlier" ? " (price net of earlier incentives)" : ""}`;
-      if (a.capCents !== undefined && raw > a.capCents) {
-        raw = a.capCents;
-        detail += `, capped at ${dollars(a.capCents)}`;
-      }
-    } else {
-      raw = a.amountCents;
-      detail = "fixed amount";
-    }
-    let amountCents = Math.round(raw);
+    const amount = ruleAmount(rule, ctx, appliedSoFar);
+    let detail = rule.countsOn === "installation" ? `${amount.detail}; counts at ${ruleDate(rule, ctx).onWhat}` : amount.detail;
+    let amountCents = Math.round(amount.raw);
     const room = ctx.grossPriceCents - appliedSoFar;
     if (amountCents > room) {
       amountCents = Math.max(0, room);

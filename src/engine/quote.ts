@@ -12,11 +12,13 @@ import { billSchema, fillMethodSchema, usageFromBills } from "./bills";
 import { spreadMonthlyToHourly } from "./load-shape";
 import { importIntervalData } from "./green-button";
 import { makeBillCalculator, ratePlanSchema, type AnnualBill } from "./rates";
-import { sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "./sizing";
+import { siteTimeZone } from "./site-time-zone";
+import { amortizeLoan } from "./finance";
+import { dcAcRatioWarning, sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "./sizing";
 import { evaluateIncentives, incentiveRuleSchema, type IncentiveResult } from "./incentives";
-import { buildCashflow, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowResult } from "./cashflow";
+import { buildCashflow, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowResult, type CashflowSummary } from "./cashflow";
 import { checkString, stringCheckInputSchema, CAUTION, type StringCheckResult } from "./string-check";
-import { HOURS_PER_YEAR, monthlySums } from "./year-calendar";
+import { HOURS_PER_YEAR, isTimeZone, monthlySums } from "./year-calendar";
 
 const isoDate = z
   .string()
@@ -44,10 +46,14 @@ export const quoteCaseSchema = z
     name: z.string().min(1).max(200),
     /** Offer date: incentives are evaluated at it. */
     asOf: isoDate,
+    /** Expected installation date, for incentives that count at installation (default: asOf). */
+    installDate: isoDate.optional(),
     site: z.object({
       latitude: z.number().finite().min(-90).max(90),
       longitude: z.number().finite().min(-180).max(180),
       utcOffsetHours: z.number().finite().min(-12).max(14).optional(),
+      /** IANA time zone for time-of-use clock hours; default: looked up from the coordinates. */
+      timeZone: z.string().refine(isTimeZone, { message: "is not a known time zone (IANA name, e.g. America/New_York)" }).optional(),
     }),
     /** Weather file, path relative to the case file (read by the caller). */
     weather: z.object({ file: z.string().min(1) }),
@@ -107,6 +113,7 @@ export const quoteCaseSchema = z
     });
   });
 export type QuoteCaseInput = z.input<typeof quoteCaseSchema>;
+type QuoteCase = z.output<typeof quoteCaseSchema>;
 
 /** What the production model is asked for: faces with module counts, the inverter, losses. */
 export type ProductionDesign = {
@@ -139,6 +146,8 @@ export type QuoteContext<W> = {
   weatherLabel?: string;
   /** The weather file's standard UTC offset, used for interval data when neither the file nor the case gives one. */
   weatherUtcOffsetHours?: number;
+  /** What the caller found about the weather (timing against the sun, distance to the station), for the notes. */
+  weatherNotes?: string[];
 };
 
 type MonthlyBillSummary = { month: number; withoutSolarCents: number; withSolarCents: number; importKwh: number; exportKwh: number };
@@ -169,10 +178,17 @@ export type QuoteResult = {
     netPriceCents: number;
     year1SavingsCents: number;
     lifetimeSavingsCents: number;
+    /** Year the cumulative cash flow turns positive (escalation, degradation, loan payments included). */
     paybackYears: number | null;
+    /** Net cost ÷ year-1 savings. */
+    simplePaybackYears: number | null;
+    /** ROI's denominator: down payment or price, loan payments and upkeep, less incentives received. */
+    roiBasisCents: number;
     simpleRoi: number | null;
     npvCents: number;
     irr: number | null;
+    /** Why irr is null ("not meaningful: …"). */
+    irrNote: string | null;
     lcoeCentsPerKwh: number | null;
     monthlyLoanPaymentCents: number | null;
   };
@@ -197,13 +213,8 @@ function checkHourly(name: string, series: ArrayLike<number>): void {
 }
 
 /** Run the whole chain for one case. */
-export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): QuoteResult {
-  const c = parseOrThrow(quoteCaseSchema, input, "quote case");
-  const notes: string[] = [];
-  const a = c.assumptions;
-  const calendarYear = a.calendarYear ?? Number(c.asOf.slice(0, 4));
-
-  // 1. Usage: 8760 hourly kWh.
+/** Step 1 of a quote: the 8760 hourly kWh of usage, from bills, twelve months or interval data. */
+function quoteUsage<W>(c: QuoteCase, ctx: QuoteContext<W>): { usageHourly: number[]; usageSource: string; usageEstimated: boolean; usageNotes: string[] } {
   let usageHourly: number[];
   let usageSource: string;
   let usageEstimated: boolean;
@@ -227,11 +238,11 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
     usageEstimated = profile.coverage < 1;
     usageNotes.push(...profile.notes);
   }
-  const usageMonthly = monthlySums(usageHourly);
-  const annualUsage = sum(usageMonthly);
-  if (!(annualUsage > 0)) throw new EngineInputError([{ path: "usage", message: "annual usage must be greater than 0 kWh" }], "quote");
+  return { usageHourly, usageSource, usageEstimated, usageNotes };
+}
 
-  // 2. Design: sizing when a target offset is given.
+/** Step 2 of a quote: the faces' module counts (sized to the target offset when one is given) and the production model's design. */
+function quoteLayout<W>(c: QuoteCase, ctx: QuoteContext<W>, annualUsage: number, notes: string[]) {
   const d = c.design;
   const inverter: ProductionDesign["inverter"] =
     d.inverter.kind === "string"
@@ -277,32 +288,63 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
   const totalModules = placed.reduce((s, x) => s + x.n, 0);
   const kwDc = (totalModules * d.module.watts) / 1000;
 
-  // 3. Production.
-  const production = ctx.produce({ faces: placed.map((x) => faceFor(x.f, x.n)), inverter, losses }, ctx.weather);
-  checkHourly("production.hourlyAcKwh", production.hourlyAcKwh);
-  const productionHourly = Float64Array.from(production.hourlyAcKwh);
-  const productionMonthly = monthlySums(productionHourly);
-  const annualProduction = sum(productionMonthly);
-  const dcAcRatio = d.inverter.kind === "string" ? kwDc / d.inverter.acKw : null;
-  if (dcAcRatio !== null && dcAcRatio > d.maxDcAcRatio) notes.push(`DC/AC ratio ${dcAcRatio.toFixed(2)} exceeds ${d.maxDcAcRatio}.`);
+  return { d, inverter, losses, faceFor, counts, sizing, specificYield, placed, totalModules, kwDc };
+}
 
-  // 4. Bills: year 1 without and with solar; with solar re-billed for each year's degraded output.
-  const bill = makeBillCalculator(c.ratePlan, calendarYear);
+/** The quote's headline figures, rounded as reported. */
+function quoteSummary(x: { kwDc: number; annualProduction: number; offsetPct: number; grossCents: number; incentives: IncentiveResult; year1SavingsCents: number; s: CashflowSummary }): QuoteResult["summary"] {
+  const { kwDc, annualProduction, offsetPct, grossCents, incentives, s } = x;
+return {
+    kwDc,
+    annualProductionKwh: round(annualProduction),
+    offsetPct: round(offsetPct, 2),
+    grossPriceCents: grossCents,
+    incentivesCents: incentives.totalCents,
+    netPriceCents: grossCents - incentives.totalCents,
+    year1SavingsCents: x.year1SavingsCents,
+    lifetimeSavingsCents: s.lifetimeSavingsCents,
+    paybackYears: s.paybackYears === null ? null : round(s.paybackYears, 2),
+    simplePaybackYears: s.simplePaybackYears === null ? null : round(s.simplePaybackYears, 2),
+    simpleRoi: s.simpleRoi === null ? null : round(s.simpleRoi, 4),
+    roiBasisCents: s.netCostCents,
+    npvCents: s.npvCents,
+    irr: s.irr === null ? null : round(s.irr, 6),
+    irrNote: s.irrNote,
+    lcoeCentsPerKwh: s.lcoeCentsPerKwh === null ? null : round(s.lcoeCentsPerKwh, 2),
+    monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
+  };
+}
+
+/** Step 4 of a quote: the bill without solar, and with solar for each year of the table (re-billed with that year's degraded output). */
+function quoteBills(c: QuoteCase, years: number, degradationPctPerYear: number, calendarYear: number, usageHourly: number[], productionHourly: Float64Array) {
+  const bill = makeBillCalculator(c.ratePlan, { calendarYear, timeZone: c.site.timeZone ?? siteTimeZone(c.site.latitude, c.site.longitude) });
   const without = bill(usageHourly, null);
   const degraded = new Float64Array(HOURS_PER_YEAR);
   const withByYear: AnnualBill[] = [];
-  for (let n = 1; n <= a.years; n++) {
-    const f = Math.pow(1 - a.degradationPctPerYear / 100, n - 1);
+  for (let n = 1; n <= years; n++) {
+    const f = Math.pow(1 - degradationPctPerYear / 100, n - 1);
     for (let h = 0; h < HOURS_PER_YEAR; h++) degraded[h] = productionHourly[h] * f;
     withByYear.push(bill(usageHourly, degraded));
   }
-  const withYear1 = withByYear[0];
+  return { without, withByYear };
+}
 
-  // 5. Price, incentives, cash flow.
-  const addersCents = c.price.adders.reduce((s, x) => s + x.amountCents, 0);
-  const grossCents = Math.max(0, Math.round(kwDc * 1000 * c.price.perWattCents) + addersCents - c.price.discountCents);
-  const incentives = evaluateIncentives({ rules: c.incentives, asOf: c.asOf, grossPriceCents: grossCents, systemKwDc: kwDc, payment: c.financing.kind });
-  const cashflow = buildCashflow({
+/** Step 5 of a quote: the incentives; a dealer fee inside the loan is part of the system cost a percent credit takes (see incentives.ts). */
+function quoteIncentives(c: QuoteCase, grossCents: number, kwDc: number): IncentiveResult {
+  const incentivesWith = (dealerFeeCents: number) =>
+    evaluateIncentives({ rules: c.incentives, asOf: c.asOf, installDate: c.installDate, grossPriceCents: grossCents, dealerFeeCents, systemKwDc: kwDc, payment: c.financing.kind });
+  const first = incentivesWith(0);
+  if (c.financing.kind === "loan" && c.financing.dealerFeePct > 0 && c.financing.dealerFeeMode === "added") {
+    const f = c.financing;
+    const borrowed = Math.max(0, grossCents - f.downPaymentCents - first.upfrontCents);
+    return incentivesWith(amortizeLoan({ amountCents: borrowed, aprPct: f.aprPct, termMonths: f.termMonths, dealerFeePct: f.dealerFeePct, dealerFeeMode: "added" }).dealerFeeCents);
+  }
+  return first;
+}
+
+/** Step 5's table: the cash flow over the analysis years. */
+function quoteCashflow(c: QuoteCase, a: QuoteCase["assumptions"], grossCents: number, incentives: IncentiveResult, annualProduction: number, without: AnnualBill, withByYear: AnnualBill[]) {
+  return buildCashflow({
     years: a.years,
     grossPriceCents: grossCents,
     incentivesByYear: incentives.byYear.slice(0, a.years + 1),
@@ -315,14 +357,74 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
     discountRatePct: a.discountRatePct,
     omCentsPerYear: a.omCentsPerYear,
   });
+}
+
+const pickAssumptions = (a: QuoteCase["assumptions"]) => ({
+  years: a.years,
+  degradationPctPerYear: a.degradationPctPerYear,
+  utilityEscalationPctPerYear: a.utilityEscalationPctPerYear,
+  discountRatePct: a.discountRatePct,
+  omCentsPerYear: a.omCentsPerYear,
+});
+
+/** Year 1's bills without and with solar, month by month. */
+function billsReport(without: AnnualBill, withYear1: AnnualBill): QuoteResult["bills"] {
+return {
+    year1WithoutSolarCents: without.totalCents,
+    year1WithSolarCents: withYear1.totalCents,
+    year1SavingsCents: without.totalCents - withYear1.totalCents,
+    months: without.months.map((m, i) => ({
+      month: m.month,
+      withoutSolarCents: m.totalCents,
+      withSolarCents: withYear1.months[i].totalCents,
+      importKwh: round(withYear1.months[i].importKwh),
+      exportKwh: round(withYear1.months[i].exportKwh),
+    })),
+  };
+}
+
+export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): QuoteResult {
+  const c = parseOrThrow(quoteCaseSchema, input, "quote case");
+  const notes: string[] = [...(ctx.weatherNotes ?? [])];
+  // A loan is counted to its last payment: the analysis runs at least its term.
+  const loanYears = c.financing.kind === "loan" ? Math.ceil(c.financing.termMonths / 12) : 0;
+  const a = { ...c.assumptions, years: Math.max(c.assumptions.years, loanYears) };
+  const calendarYear = a.calendarYear ?? Number(c.asOf.slice(0, 4));
+
+  // 1. Usage: 8760 hourly kWh.
+  const { usageHourly, usageSource, usageEstimated, usageNotes } = quoteUsage(c, ctx);
+  const usageMonthly = monthlySums(usageHourly);
+  const annualUsage = sum(usageMonthly);
+  if (!(annualUsage > 0)) throw new EngineInputError([{ path: "usage", message: "annual usage must be greater than 0 kWh" }], "quote");
+
+  // 2. Design: sizing when a target offset is given.
+  const { d, inverter, losses, faceFor, counts, sizing, specificYield, placed, totalModules, kwDc } = quoteLayout(c, ctx, annualUsage, notes);
+
+  // 3. Production.
+  const production = ctx.produce({ faces: placed.map((x) => faceFor(x.f, x.n)), inverter, losses }, ctx.weather);
+  checkHourly("production.hourlyAcKwh", production.hourlyAcKwh);
+  const productionHourly = Float64Array.from(production.hourlyAcKwh);
+  const productionMonthly = monthlySums(productionHourly);
+  const annualProduction = sum(productionMonthly);
+  const dcAcRatio = d.inverter.kind === "string" ? kwDc / d.inverter.acKw : d.module.watts / d.inverter.acWattsPerModule;
+  const dcAcNote = dcAcRatioWarning(d.inverter.kind, dcAcRatio, d.inverter.kind === "string" ? d.maxDcAcRatio : undefined);
+  if (dcAcNote) notes.push(dcAcNote);
+
+  // 4. Bills: year 1 without and with solar; with solar re-billed for each year's degraded output.
+  const { without, withByYear } = quoteBills(c, a.years, a.degradationPctPerYear, calendarYear, usageHourly, productionHourly);
+  const withYear1 = withByYear[0];
+  if (a.years > c.assumptions.years) notes.push(`The table runs ${a.years} years, the loan's term, instead of ${c.assumptions.years}, so every loan payment is counted.`);
+
+  // 5. Price, incentives, cash flow.
+  const addersCents = c.price.adders.reduce((s, x) => s + x.amountCents, 0);
+  const grossCents = Math.max(0, Math.round(kwDc * 1000 * c.price.perWattCents) + addersCents - c.price.discountCents);
+  const incentives = quoteIncentives(c, grossCents, kwDc);
+  const cashflow = quoteCashflow(c, a, grossCents, incentives, annualProduction, without, withByYear);
   if (incentives.byYear.length > a.years + 1) notes.push(`Incentives paid after year ${a.years} are left out.`);
   notes.push(...cashflow.summary.notes);
 
   // 6. String check (optional).
-  let stringCheck: StringCheckResult | null = null;
-  if (d.stringCheck !== undefined) {
-    stringCheck = checkString(parseOrThrow(stringCheckInputSchema, d.stringCheck, "design.stringCheck"));
-  }
+  const stringCheck: StringCheckResult | null = d.stringCheck === undefined ? null : checkString(parseOrThrow(stringCheckInputSchema, d.stringCheck, "design.stringCheck"));
 
   const s = cashflow.summary;
   const offsetPct = (annualProduction / annualUsage) * 100;
@@ -345,48 +447,13 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
       offsetPct: round(offsetPct, 2),
       weather: ctx.weatherLabel ?? null,
     },
-    bills: {
-      year1WithoutSolarCents: without.totalCents,
-      year1WithSolarCents: withYear1.totalCents,
-      year1SavingsCents: without.totalCents - withYear1.totalCents,
-      months: without.months.map((m, i) => ({
-        month: m.month,
-        withoutSolarCents: m.totalCents,
-        withSolarCents: withYear1.months[i].totalCents,
-        importKwh: round(withYear1.months[i].importKwh),
-        exportKwh: round(withYear1.months[i].exportKwh),
-      })),
-    },
+    bills: billsReport(without, withYear1),
     price: { grossCents, perWattCents: c.price.perWattCents, adders: c.price.adders, discountCents: c.price.discountCents },
     incentives,
     cashflow,
-    summary: {
-      kwDc,
-      annualProductionKwh: round(annualProduction),
-      offsetPct: round(offsetPct, 2),
-      grossPriceCents: grossCents,
-      incentivesCents: incentives.totalCents,
-      netPriceCents: grossCents - incentives.totalCents,
-      year1SavingsCents: without.totalCents - withYear1.totalCents,
-      lifetimeSavingsCents: s.lifetimeSavingsCents,
-      paybackYears: s.paybackYears === null ? null : round(s.paybackYears, 2),
-      simpleRoi: s.simpleRoi === null ? null : round(s.simpleRoi, 4),
-      npvCents: s.npvCents,
-      irr: s.irr === null ? null : round(s.irr, 6),
-      lcoeCentsPerKwh: s.lcoeCentsPerKwh === null ? null : round(s.lcoeCentsPerKwh, 2),
-      monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
-    },
+    summary: quoteSummary({ kwDc, annualProduction, offsetPct, grossCents, incentives, year1SavingsCents: without.totalCents - withYear1.totalCents, s }),
     stringCheck,
-    assumptions: {
-      years: a.years,
-      degradationPctPerYear: a.degradationPctPerYear,
-      utilityEscalationPctPerYear: a.utilityEscalationPctPerYear,
-      discountRatePct: a.discountRatePct,
-      omCentsPerYear: a.omCentsPerYear,
-      calendarYear,
-      lcoe: "discounted LCOE (Short, Packey & Holt 1995, NREL/TP-462-5173)",
-      degradation: "Jordan & Kurtz 2013 median, compounded yearly",
-    },
+    assumptions: { ...pickAssumptions(a), calendarYear, lcoe: "discounted LCOE (Short, Packey & Holt 1995, NREL/TP-462-5173)", degradation: "Jordan & Kurtz 2013 median, compounded yearly" },
     notes,
     caution: CAUTION,
   };

@@ -17,15 +17,18 @@
  * - no export: exported energy is worth 0.
  *
  * Hours are those of the typical year (see year-calendar.ts): 8760 values, hour 0 = 1 January
- * 00:00 local standard time. Weekdays come from `calendarYear` (default 2023, 1 January a
- * Sunday); public holidays are treated as ordinary days. Each bill line is rounded to the cent.
+ * 00:00 local standard time. Time-of-use windows are clock hours: they are applied on the wall
+ * clock of the site's time zone, daylight saving included, when one is given. Weekdays come from
+ * `calendarYear` (default 2023, 1 January a Sunday), with 29 February skipped; public holidays are
+ * treated as ordinary days. Each bill line is rounded to the cent.
  */
 import { z } from "zod";
 import { EngineInputError, parseOrThrow } from "./errors";
-import { HOURS_PER_YEAR, HOUR_MONTH, weekdayOfJanuaryFirst } from "./year-calendar";
+import { clockOfTypicalHours, HOURS_PER_YEAR, HOUR_MONTH, isTimeZone, type YearClock } from "./year-calendar";
 
 const centsPerKwhSchema = z.number().finite().min(0).max(10_000);
 const monthSchema = z.number().int().min(1).max(12);
+const timeZoneSchema = z.string().refine(isTimeZone, { message: "is not a known time zone (IANA name, e.g. America/Denver)" });
 
 export const flatEnergySchema = z.object({ kind: z.literal("flat"), centsPerKwh: centsPerKwhSchema });
 
@@ -138,6 +141,8 @@ export const billInputSchema = z.object({
   /** Omit (or null) for the bill without solar. */
   productionHourlyKwh: z.array(z.number().finite().min(0)).length(HOURS_PER_YEAR).nullable().optional(),
   calendarYear: z.number().int().min(1900).max(2200).default(2023),
+  /** IANA zone whose wall clock the TOU hours are read on; null: local standard time. */
+  timeZone: timeZoneSchema.nullable().default(null),
 });
 export type BillInput = z.input<typeof billInputSchema>;
 
@@ -173,8 +178,13 @@ export type BillComparison = {
   annualSavingsCents: number;
 };
 
-/** Period index (into `periods`) of every hour of the typical year for a TOU plan. */
-export function touPeriodByHour(energy: z.output<typeof touEnergySchema>, calendarYear = 2023): Uint8Array {
+/**
+ * Period index (into `periods`) of every hour of the typical year for a TOU plan. The plan's
+ * hours, weekdays and seasons are read on the wall clock of `clock.timeZone` (utilities state
+ * "4–9 pm" in the local clock time, daylight saving included) with weekdays of
+ * `clock.calendarYear`; without a zone, in local standard time.
+ */
+export function touPeriodByHour(energy: z.output<typeof touEnergySchema>, clock: YearClock = { calendarYear: 2023, timeZone: null }): Uint8Array {
   const idIndex = new Map(energy.periods.map((p, i) => [p.id, i]));
   const seasonOfMonth = new Array<z.output<typeof touEnergySchema>["seasons"][number]>(12);
   for (const season of energy.seasons) for (const month of season.months) seasonOfMonth[month - 1] = season;
@@ -193,22 +203,21 @@ export function touPeriodByHour(energy: z.output<typeof touEnergySchema>, calend
       return day;
     }),
   );
-  const jan1 = weekdayOfJanuaryFirst(calendarYear);
+  const wall = clockOfTypicalHours(clock);
   const out = new Uint8Array(HOURS_PER_YEAR);
-  for (let d = 0; d < 365; d++) {
-    const weekday = (jan1 + d) % 7;
-    const template = templates[HOUR_MONTH[d * 24]][weekday === 0 || weekday === 6 ? 1 : 0];
-    out.set(template, d * 24);
+  for (let h = 0; h < HOURS_PER_YEAR; h++) {
+    const weekday = wall.weekday[h];
+    out[h] = templates[wall.month[h]][weekday === 0 || weekday === 6 ? 1 : 0][wall.hour[h]];
   }
   return out;
 }
 
 type PeriodInfo = { labels: string[]; prices: number[]; byHour: Uint8Array | null };
 
-function periodsOf(plan: RatePlan, calendarYear: number): PeriodInfo {
+function periodsOf(plan: RatePlan, clock: YearClock): PeriodInfo {
   const e = plan.energy;
   if (e.kind === "tou") {
-    return { labels: e.periods.map((p) => p.label ?? p.id), prices: e.periods.map((p) => p.centsPerKwh), byHour: touPeriodByHour(e, calendarYear) };
+    return { labels: e.periods.map((p) => p.label ?? p.id), prices: e.periods.map((p) => p.centsPerKwh), byHour: touPeriodByHour(e, clock) };
   }
   // Flat and tiered: one period; for a net-metering credit a tiered kWh is valued at the first tier's price.
   return { labels: ["all hours"], prices: [e.kind === "flat" ? e.centsPerKwh : e.tiers[0].centsPerKwh], byHour: null };
@@ -247,14 +256,14 @@ function energyLines(plan: RatePlan, info: PeriodInfo, chargeableKwh: number[]):
 /** Twelve monthly bills (January first) for one year of hourly usage and, optionally, production. */
 export function billYear(input: BillInput): AnnualBill {
   const parsed = parseOrThrow(billInputSchema, input, "bill");
-  return billYearParsed(parsed.plan, parsed.usageHourlyKwh, parsed.productionHourlyKwh ?? null, periodsOf(parsed.plan, parsed.calendarYear));
+  return billYearParsed(parsed.plan, parsed.usageHourlyKwh, parsed.productionHourlyKwh ?? null, periodsOf(parsed.plan, parsed));
 }
 
 /** Bills without and with solar under one plan. */
 export function compareBills(input: BillInput & { productionHourlyKwh: number[] }): BillComparison {
   const parsed = parseOrThrow(billInputSchema, input, "bill");
   if (!parsed.productionHourlyKwh) throw new EngineInputError([{ path: "productionHourlyKwh", message: "is required" }], "bill");
-  const info = periodsOf(parsed.plan, parsed.calendarYear);
+  const info = periodsOf(parsed.plan, parsed);
   const withoutSolar = billYearParsed(parsed.plan, parsed.usageHourlyKwh, null, info);
   const withSolar = billYearParsed(parsed.plan, parsed.usageHourlyKwh, parsed.productionHourlyKwh, info);
   return { withoutSolar, withSolar, annualSavingsCents: withoutSolar.totalCents - withSolar.totalCents };
@@ -264,9 +273,10 @@ export function compareBills(input: BillInput & { productionHourlyKwh: number[] 
  * A reusable bill calculator for one plan: validates the plan once and precomputes the TOU
  * calendar, for callers that bill many production series (e.g. each year of degradation).
  */
-export function makeBillCalculator(plan: RatePlanInput, calendarYear = 2023): (usageHourlyKwh: ArrayLike<number>, productionHourlyKwh: ArrayLike<number> | null) => AnnualBill {
+export function makeBillCalculator(plan: RatePlanInput, clock: YearClock = { calendarYear: 2023, timeZone: null }): (usageHourlyKwh: ArrayLike<number>, productionHourlyKwh: ArrayLike<number> | null) => AnnualBill {
   const parsedPlan = parseOrThrow(ratePlanSchema, plan, "rate plan");
-  const info = periodsOf(parsedPlan, calendarYear);
+  if (clock.timeZone !== null && !isTimeZone(clock.timeZone)) throw new EngineInputError([{ path: "timeZone", message: `"${clock.timeZone}" is not a known time zone` }], "bill");
+  const info = periodsOf(parsedPlan, clock);
   return (usage, production) => {
     const lengthIssues = [
       ...(usage.length !== HOURS_PER_YEAR ? [{ path: "usageHourlyKwh", message: `must have ${HOURS_PER_YEAR} values, got ${usage.length}` }] : []),
@@ -281,6 +291,48 @@ export function makeBillCalculator(plan: RatePlanInput, calendarYear = 2023): (u
     }
     return billYearParsed(parsedPlan, usage, production, info);
   };
+}
+
+/**
+ * One month's fixed charge, energy lines and the credit its exports earn (banked; applied to
+ * energy charges by the caller): net metering nets each period's imports and exports at its
+ * retail price; net billing buys every import and credits exports at the export rate.
+ */
+function monthLines(plan: RatePlan, info: PeriodInfo, imp: Float64Array, exp: Float64Array, exportKwh: number): { lines: BillLine[]; creditEarned: number } {
+  const comp = plan.compensation;
+  const nPeriods = info.prices.length;
+  const chargeable = new Array<number>(nPeriods);
+  let creditEarned = 0;
+  const lines: BillLine[] = [];
+  if (plan.fixedMonthlyCents > 0) lines.push({ kind: "fixed", label: "fixed monthly charge", amountCents: plan.fixedMonthlyCents });
+
+  if (comp.kind === "net-metering") {
+    let excessKwh = 0;
+    let excessValue = 0;
+    for (let p = 0; p < nPeriods; p++) {
+      const net = imp[p] - exp[p];
+      chargeable[p] = Math.max(0, net);
+      if (net < 0) {
+        excessKwh -= net;
+        excessValue -= net * info.prices[p];
+      }
+    }
+    lines.push(...energyLines(plan, info, chargeable));
+    creditEarned = Math.round(excessValue);
+    if (creditEarned > 0) {
+      lines.push({ kind: "export-credit", label: "net excess credit earned (banked)", kwh: excessKwh, amountCents: 0 });
+    }
+    return { lines, creditEarned };
+  }
+  for (let p = 0; p < nPeriods; p++) chargeable[p] = imp[p];
+  lines.push(...energyLines(plan, info, chargeable));
+  if (comp.kind === "net-billing") {
+    creditEarned = Math.round(exportKwh * comp.exportCentsPerKwh);
+    if (exportKwh > 0) {
+      lines.push({ kind: "export-credit", label: "export credit earned (banked)", kwh: exportKwh, centsPerKwh: comp.exportCentsPerKwh, amountCents: 0 });
+    }
+  }
+  return { lines, creditEarned };
 }
 
 function billYearParsed(plan: RatePlan, usage: ArrayLike<number>, production: ArrayLike<number> | null, info: PeriodInfo): AnnualBill {
@@ -311,37 +363,7 @@ function billYearParsed(plan: RatePlan, usage: ArrayLike<number>, production: Ar
     cycleImport += importKwh;
     cycleExport += exportKwh;
 
-    const chargeable = new Array<number>(nPeriods);
-    let creditEarned = 0;
-    const lines: BillLine[] = [];
-    if (plan.fixedMonthlyCents > 0) lines.push({ kind: "fixed", label: "fixed monthly charge", amountCents: plan.fixedMonthlyCents });
-
-    if (comp.kind === "net-metering") {
-      let excessKwh = 0;
-      let excessValue = 0;
-      for (let p = 0; p < nPeriods; p++) {
-        const net = imp[p] - exp[p];
-        chargeable[p] = Math.max(0, net);
-        if (net < 0) {
-          excessKwh -= net;
-          excessValue -= net * info.prices[p];
-        }
-      }
-      lines.push(...energyLines(plan, info, chargeable));
-      creditEarned = Math.round(excessValue);
-      if (creditEarned > 0) {
-        lines.push({ kind: "export-credit", label: "net excess credit earned (banked)", kwh: excessKwh, amountCents: 0 });
-      }
-    } else {
-      for (let p = 0; p < nPeriods; p++) chargeable[p] = imp[p];
-      lines.push(...energyLines(plan, info, chargeable));
-      if (comp.kind === "net-billing") {
-        creditEarned = Math.round(exportKwh * comp.exportCentsPerKwh);
-        if (exportKwh > 0) {
-          lines.push({ kind: "export-credit", label: "export credit earned (banked)", kwh: exportKwh, centsPerKwh: comp.exportCentsPerKwh, amountCents: 0 });
-        }
-      }
-    }
+    const { lines, creditEarned } = monthLines(plan, info, imp, exp, exportKwh);
 
     const energyCents = lines.filter((l) => l.kind === "energy").reduce((a, l) => a + l.amountCents, 0);
     const available = carried + creditEarned;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { sizeSystem, type SizingInput } from "./sizing";
+import { dcAcRatioWarning, sizeSystem, type SizingInput } from "./sizing";
 import { EngineInputError } from "./errors";
 
 // Hand-worked cases: 400 W modules; south face 1,400 kWh/kW → 560 kWh per module,
@@ -84,5 +84,14 @@ describe("sizeSystem", () => {
       expect(e).toBeInstanceOf(EngineInputError);
       expect((e as EngineInputError).issues.map((i) => i.path)).toEqual(["annualUsageKwh", "faces.0.usableSlots"]);
     }
+  });
+});
+
+describe("dcAcRatioWarning", () => {
+  it("warns for a microinverter above the common-practice 1.35 (e.g. 480 W modules on 290 W micros = 1.66)", () => {
+    expect(dcAcRatioWarning("micro", 480 / 290)).toContain("Microinverter DC/AC ratio 1.66");
+    expect(dcAcRatioWarning("micro", 410 / 320)).toBeNull(); // 1.28
+    expect(dcAcRatioWarning("string", 1.4)).toBe("DC/AC ratio 1.40 exceeds 1.35.");
+    expect(dcAcRatioWarning("string", 1.4, 1.5)).toBeNull();
   });
 });

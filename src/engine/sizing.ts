@@ -19,6 +19,20 @@ import { parseOrThrow } from "./errors";
 
 /** Common-practice ceiling for the DC/AC ratio of a string-inverter system (see above). */
 export const DEFAULT_MAX_DC_AC_RATIO = 1.35;
+/**
+ * Common-practice ceiling for a microinverter's DC/AC ratio (module STC watts ÷ the unit's AC
+ * watts per module): above about 1.35 a micro clips much of a clear day's midday output (common
+ * practice, from memory; microinverter makers publish their own recommended module range).
+ */
+export const MICRO_MAX_DC_AC_RATIO = 1.35;
+
+/** A warning when the DC/AC ratio passes the common-practice ceiling for the inverter kind, else null. */
+export function dcAcRatioWarning(kind: "string" | "micro", ratio: number, maxRatio = kind === "micro" ? MICRO_MAX_DC_AC_RATIO : DEFAULT_MAX_DC_AC_RATIO): string | null {
+  if (!(ratio > maxRatio)) return null;
+  return kind === "micro"
+    ? `Microinverter DC/AC ratio ${ratio.toFixed(2)} (module STC watts ÷ AC watts per module) is above ${maxRatio}, a common-practice ceiling: expect midday clipping; check the maker's recommended module range.`
+    : `DC/AC ratio ${ratio.toFixed(2)} exceeds ${maxRatio}.`;
+}
 
 export const sizingInputSchema = z
   .object({

@@ -68,19 +68,50 @@ describe("MPPT window and NEC 690.8 currents", () => {
     expect(r.caution).toContain("AHJ");
   });
 
-  it("warns when a short string falls below the MPPT window, fails an undersized conductor", () => {
-    // 4 modules: 4 × 41.5 × 0.85975 = 142.7 V < 200 V → warn; conductor 20 A < 21.72 A → fail
+  it("warns when a short string falls below the MPPT window", () => {
+    // 4 modules: 4 × 41.5 × 0.85975 = 142.7 V < 200 V → warn
     const short = checkString({ ...base, modulesInSeries: 4 });
     expect(short.checks.find((c) => c.id === "mppt-low")?.status).toBe("warn");
     expect(short.status).toBe("warn");
-    const thin = checkString({ ...base, conductorAmpacityA: 20 });
-    expect(thin.checks.find((c) => c.id === "conductor")?.status).toBe("fail");
+  });
+
+  it("conductor per NEC 690.8(B): 13.9 A × 1.56 = 21.72 A from the table, 13.9 A × 1.25 = 17.38 A after correction", () => {
+    const conductor = (input: Partial<StringCheckInput>) => checkString({ ...base, ...input }).checks.find((c) => c.id === "conductor");
+    expect(conductor({ conductorTableAmpacityA: 20 })?.status).toBe("fail"); // 20 < 21.72: (B)(1)
+    expect(conductor({ conductorTableAmpacityA: 20 })?.detail).toContain("690.8(B)(1)");
+    expect(conductor({ conductorAmpacityA: 16 })?.status).toBe("fail"); // 16 < 17.38: (B)(2)
+    expect(conductor({ conductorAmpacityA: 20 })?.status).toBe("pass"); // 20 ≥ 17.38 after correction
+    expect(conductor({ conductorTableAmpacityA: 30, conductorAmpacityA: 18 })?.status).toBe("pass");
+  });
+
+  it("maximum current can fail: back-feed into a faulted string against the module's series fuse rating (NEC 690.9(A))", () => {
+    const maxCurrent = (parallel: number, maxSeriesFuseA?: number) =>
+      checkString({ ...base, stringsInParallel: parallel, module: { ...base.module, maxSeriesFuseA } }).checks.find((c) => c.id === "max-current");
+    expect(maxCurrent(1, 25)?.status).toBe("pass"); // nothing else feeds one string
+    expect(maxCurrent(2, 25)?.status).toBe("pass"); // 1 × 13.9 × 1.25 = 17.38 A ≤ 25 A
+    expect(maxCurrent(3, 25)?.status).toBe("fail"); // 2 × 13.9 × 1.25 = 34.75 A > 25 A: string fuses needed
+    expect(maxCurrent(3, 25)?.detail).toContain("each string needs its own fuse");
+    expect(maxCurrent(2)?.status).toBe("warn"); // rating unknown
   });
 
   it("fails two parallel strings over the inverter's input Isc (2 × 13.9 = 27.8 A > 18 A)", () => {
     const r = checkString({ ...base, stringsInParallel: 2 });
     expect(r.checks.find((c) => c.id === "inverter-current")?.status).toBe("fail");
     expect(r.maxCircuitCurrentA).toBeCloseTo(34.75, 2);
+  });
+});
+
+describe("Voc coefficient in other units", () => {
+  it("gives the same check for −0.28 %/°C, −138.6 mV/°C and −0.1386 V/°C (49.5 V × 0.28 % = 0.1386 V)", () => {
+    const pct = checkString(base);
+    const mv = checkString({ ...base, module: { ...base.module, vocCoeffPctPerC: undefined, vocCoeff: { value: -138.6, unit: "mV/°C" } } });
+    const v = checkString({ ...base, module: { ...base.module, vocCoeffPctPerC: undefined, vocCoeff: { value: -0.1386, unit: "V/°C" } } });
+    expect(mv.stringVocMaxV).toBeCloseTo(pct.stringVocMaxV, 6);
+    expect(v.stringVocMaxV).toBeCloseTo(pct.stringVocMaxV, 6);
+    expect(mv.method).toBe("coefficient");
+  });
+  it("refuses a coefficient that is not one once converted (−138.6 read as V/°C = −280 %/°C)", () => {
+    expect(() => checkString({ ...base, module: { ...base.module, vocCoeffPctPerC: undefined, vocCoeff: { value: -138.6, unit: "V/°C" } } })).toThrow(/module.vocCoeff/);
   });
 });
 

@@ -10,7 +10,12 @@
  *   modules use the table's correction factor for the lowest expected ambient temperature.
  * - NEC 690.7: in one- and two-family dwellings the maximum PV system voltage is 600 V.
  * - NEC 690.8(A)(1): maximum circuit current = sum of parallel modules' Isc × 1.25.
- * - NEC 690.8(B)(1): conductors sized for 125 % of that maximum current: Isc × 1.25 × 1.25 = Isc × 1.56.
+ * - NEC 690.8(B): conductor ampacity not less than the larger of (1) 125 % of the 690.8(A)
+ *   current before correction and adjustment factors (Isc × 1.25 × 1.25 = Isc × 1.56), and
+ *   (2) the 690.8(A) current itself after correction and adjustment factors (Isc × 1.25).
+ * - NEC 690.9(A): with strings in parallel and no string fuses, the current the other strings
+ *   can feed into a faulted string ((strings − 1) × Isc × 1.25) must not exceed the module's
+ *   maximum series fuse rating, else each string needs overcurrent protection.
  *
  * The MPPT window check (Vmp at a hot cell temperature, and at the cold extreme) is not a code
  * rule but common design practice: a string whose voltage leaves the window still works, but
@@ -22,6 +27,7 @@
  */
 import { z } from "zod";
 import { EngineInputError, parseOrThrow } from "./errors";
+import { COEFFICIENT_UNITS, vocCoefficientPctPerC } from "./module-coefficients";
 
 export const CAUTION =
   "Design aid only: the final design must be checked by a licensed professional against the local code and the authority having jurisdiction (AHJ).";
@@ -89,8 +95,12 @@ export const stringCheckInputSchema = z
       vmpV: positive.max(200),
       iscA: positive.max(50),
       impA: positive.max(50).optional(),
-      /** Voc temperature coefficient, %/°C (negative for silicon), from the data sheet. */
+      /** Voc temperature coefficient, %/°C (negative for silicon), from the data sheet (see module-coefficients.ts for mV/°C and V/°C). */
       vocCoeffPctPerC: z.number().finite().min(-1).max(0).optional(),
+      /** The Voc coefficient as the data sheet prints it (%/°C, mV/°C or V/°C), when vocCoeffPctPerC is not given. */
+      vocCoeff: z.object({ value: z.number().finite(), unit: z.enum(COEFFICIENT_UNITS) }).optional(),
+      /** The data sheet's maximum series fuse rating, A (NEC 690.9(A)). */
+      maxSeriesFuseA: positive.max(100).optional(),
       /** Vmp (or Pmax) temperature coefficient, %/°C; falls back to the Voc coefficient. */
       vmpCoeffPctPerC: z.number().finite().min(-1).max(0).optional(),
       noctC: z.number().finite().min(30).max(70).optional(),
@@ -113,7 +123,9 @@ export const stringCheckInputSchema = z
     hotCellTempC: z.number().finite().min(0).max(100).optional(),
     /** Code voltage limit, V (default 600 V for one- and two-family dwellings). */
     systemVoltageLimitV: positive.max(1500).default(DWELLING_MAX_SYSTEM_VOLTAGE),
-    /** Ampacity of the chosen string conductor after correction and adjustment, A (optional). */
+    /** Ampacity of the chosen string conductor from the ampacity table, before correction and adjustment, A (optional). */
+    conductorTableAmpacityA: positive.max(1000).optional(),
+    /** Ampacity of the chosen string conductor after correction and adjustment factors, A (optional). */
     conductorAmpacityA: positive.max(1000).optional(),
   })
   .superRefine((v, ctx) => {
@@ -121,6 +133,12 @@ export const stringCheckInputSchema = z
       ctx.addIssue({ code: "custom", path: ["inverter", "mpptMaxV"], message: "must be above mpptMinV" });
     }
     if (v.module.vmpV >= v.module.vocV) ctx.addIssue({ code: "custom", path: ["module", "vmpV"], message: "must be below vocV" });
+    if (v.module.vocCoeff && v.module.vocCoeffPctPerC === undefined) {
+      const pct = vocCoefficientPctPerC(v.module.vocCoeff.value, v.module.vocCoeff.unit, v.module.vocV);
+      if (!(pct >= -1 && pct <= 0)) {
+        ctx.addIssue({ code: "custom", path: ["module", "vocCoeff"], message: `${v.module.vocCoeff.value} ${v.module.vocCoeff.unit} is ${pct.toFixed(3)} %/°C of a ${v.module.vocV} V Voc; expected between −1 and 0 %/°C` });
+      }
+    }
     if (v.highestTempC <= v.lowestTempC) ctx.addIssue({ code: "custom", path: ["highestTempC"], message: "must be above lowestTempC" });
   });
 export type StringCheckInput = z.input<typeof stringCheckInputSchema>;
@@ -157,54 +175,20 @@ export type StringCheckResult = {
 
 const round = (x: number, digits: number) => Math.round(x * 10 ** digits) / 10 ** digits;
 
-/** Run the string check. Voltages are rounded to 0.01 V and currents to 0.01 A in the output. */
-export function checkString(input: StringCheckInput): StringCheckResult {
-  const v = parseOrThrow(stringCheckInputSchema, input, "string check");
-  const { module: mod, inverter: inv } = v;
-  const n = v.modulesInSeries;
-  const notes: string[] = [];
-
-  // NEC 690.7(A)(1) with the coefficient, else (A)(2) with the table.
-  let factor: number;
-  let method: StringCheckResult["method"];
-  if (mod.vocCoeffPctPerC !== undefined) {
-    factor = 1 + ((v.lowestTempC - STC_TEMP_C) * mod.vocCoeffPctPerC) / 100;
-    method = "coefficient";
-  } else {
-    const tableFactor = table690_7AFactor(v.lowestTempC);
-    if (tableFactor === null) {
-      throw new EngineInputError(
-        [{ path: "module.vocCoeffPctPerC", message: `NEC Table 690.7(A) stops at −40 °C; a Voc coefficient is needed for ${v.lowestTempC} °C` }],
-        "string check",
-      );
-    }
-    factor = tableFactor;
-    method = "table-690.7(A)";
-    notes.push("No Voc temperature coefficient given: used the NEC Table 690.7(A) factor (crystalline silicon).");
-  }
-  // Above 25 °C the coefficient would lower Voc; the code maximum is never taken below STC Voc.
-  factor = Math.max(1, factor);
-  const moduleVocMax = mod.vocV * factor;
-  const stringVocMax = moduleVocMax * n;
-
-  const vmpCoeff = mod.vmpCoeffPctPerC ?? mod.vocCoeffPctPerC ?? DEFAULT_VMP_COEFF_PCT_PER_C;
-  if (mod.vmpCoeffPctPerC === undefined) {
-    notes.push(
-      mod.vocCoeffPctPerC !== undefined
-        ? "No Vmp coefficient given: the Voc coefficient was used for Vmp (Vmp usually falls faster with heat)."
-        : `No temperature coefficients given: Vmp used ${DEFAULT_VMP_COEFF_PCT_PER_C} %/°C.`,
-    );
-  }
-  const noct = mod.noctC ?? DEFAULT_NOCT_C;
-  const hotCell = v.hotCellTempC ?? v.highestTempC + ((noct - NOCT_AIR_C) * HOT_CELL_IRRADIANCE) / NOCT_IRRADIANCE;
-  const vmpAt = (cellC: number) => mod.vmpV * n * (1 + ((cellC - STC_TEMP_C) * vmpCoeff) / 100);
-  const stringVmpHot = vmpAt(hotCell);
-  // Cold and bright: the cell sits near ambient; the highest Vmp the MPPT must follow.
-  const stringVmpCold = vmpAt(Math.min(STC_TEMP_C, v.lowestTempC));
-
-  const maxCurrent = mod.iscA * v.stringsInParallel * NEC_690_8_A_FACTOR;
-  const conductorAmps = mod.iscA * NEC_690_8_A_FACTOR * NEC_690_8_B_FACTOR;
-
+/** NEC 690.7 voltage limits and the MPPT window (design practice), one line each. */
+function voltageChecks(x: {
+  v: z.output<typeof stringCheckInputSchema>;
+  mod: { vocV: number; vmpV: number; vocCoeffPctPerC?: number };
+  n: number;
+  factor: number;
+  method: StringCheckResult["method"];
+  stringVocMax: number;
+  stringVmpHot: number;
+  stringVmpCold: number;
+  hotCell: number;
+}): CheckLine[] {
+  const { v, mod, n, factor, method, stringVocMax, stringVmpHot, stringVmpCold, hotCell } = x;
+  const inv = v.inverter;
   const checks: CheckLine[] = [];
   const volts = (x: number) => `${round(x, 2)} V`;
   const factorText = method === "coefficient" ? `(1 + (${v.lowestTempC} − 25) × ${mod.vocCoeffPctPerC} %) = ${round(factor, 5)} →` : `Table 690.7(A) factor ${factor} →`;
@@ -244,15 +228,58 @@ export function checkString(input: StringCheckInput): StringCheckResult {
     rule: "design practice: Vmp at the cold extreme stays in the MPPT window",
     detail: `Vmp at ${Math.min(STC_TEMP_C, v.lowestTempC)} °C = ${volts(stringVmpCold)} against the MPPT maximum ${inv.mpptMaxV} V`,
   });
-  checks.push({
-    id: "max-current",
-    status: "pass",
-    value: round(maxCurrent, 2),
-    limit: null,
-    unit: "A",
-    rule: "NEC 690.8(A)(1): Isc × 1.25",
-    detail: `${v.stringsInParallel} × ${mod.iscA} A × 1.25 = ${round(maxCurrent, 2)} A`,
-  });
+  return checks;
+}
+
+/**
+ * NEC 690.7(A)(1) with the coefficient, else (A)(2) with the table. Above 25 °C the coefficient
+ * would lower Voc; the code maximum is never taken below STC Voc.
+ */
+function vocCorrection(vocCoeffPctPerC: number | undefined, lowestTempC: number, notes: string[]): { factor: number; method: StringCheckResult["method"] } {
+  if (vocCoeffPctPerC !== undefined) return { factor: Math.max(1, 1 + ((lowestTempC - STC_TEMP_C) * vocCoeffPctPerC) / 100), method: "coefficient" };
+  const tableFactor = table690_7AFactor(lowestTempC);
+  if (tableFactor === null) {
+    throw new EngineInputError(
+      [{ path: "module.vocCoeffPctPerC", message: `NEC Table 690.7(A) stops at −40 °C; a Voc coefficient is needed for ${lowestTempC} °C` }],
+      "string check",
+    );
+  }
+  notes.push("No Voc temperature coefficient given: used the NEC Table 690.7(A) factor (crystalline silicon).");
+  return { factor: Math.max(1, tableFactor), method: "table-690.7(A)" };
+}
+
+/** Run the string check. Voltages are rounded to 0.01 V and currents to 0.01 A in the output. */
+export function checkString(input: StringCheckInput): StringCheckResult {
+  const v = parseOrThrow(stringCheckInputSchema, input, "string check");
+  const { inverter: inv } = v;
+  const mod = { ...v.module, vocCoeffPctPerC: v.module.vocCoeffPctPerC ?? (v.module.vocCoeff && vocCoefficientPctPerC(v.module.vocCoeff.value, v.module.vocCoeff.unit, v.module.vocV)) };
+  const n = v.modulesInSeries;
+  const notes: string[] = [];
+
+  const { factor, method } = vocCorrection(mod.vocCoeffPctPerC, v.lowestTempC, notes);
+  const moduleVocMax = mod.vocV * factor;
+  const stringVocMax = moduleVocMax * n;
+
+  const vmpCoeff = mod.vmpCoeffPctPerC ?? mod.vocCoeffPctPerC ?? DEFAULT_VMP_COEFF_PCT_PER_C;
+  if (mod.vmpCoeffPctPerC === undefined) {
+    notes.push(
+      mod.vocCoeffPctPerC !== undefined
+        ? "No Vmp coefficient given: the Voc coefficient was used for Vmp (Vmp usually falls faster with heat)."
+        : `No temperature coefficients given: Vmp used ${DEFAULT_VMP_COEFF_PCT_PER_C} %/°C.`,
+    );
+  }
+  const noct = mod.noctC ?? DEFAULT_NOCT_C;
+  const hotCell = v.hotCellTempC ?? v.highestTempC + ((noct - NOCT_AIR_C) * HOT_CELL_IRRADIANCE) / NOCT_IRRADIANCE;
+  const vmpAt = (cellC: number) => mod.vmpV * n * (1 + ((cellC - STC_TEMP_C) * vmpCoeff) / 100);
+  const stringVmpHot = vmpAt(hotCell);
+  // Cold and bright: the cell sits near ambient; the highest Vmp the MPPT must follow.
+  const stringVmpCold = vmpAt(Math.min(STC_TEMP_C, v.lowestTempC));
+
+  const maxCurrent = mod.iscA * v.stringsInParallel * NEC_690_8_A_FACTOR;
+  const conductorAmps = mod.iscA * NEC_690_8_A_FACTOR * NEC_690_8_B_FACTOR;
+
+  const checks: CheckLine[] = voltageChecks({ v, mod, n, factor, method, stringVocMax, stringVmpHot, stringVmpCold, hotCell });
+  checks.push(maxCurrentCheck(mod, v.stringsInParallel, maxCurrent));
   if (inv.maxInputIscA !== undefined) {
     const isc = mod.iscA * v.stringsInParallel;
     checks.push({
@@ -265,18 +292,7 @@ export function checkString(input: StringCheckInput): StringCheckResult {
       detail: `${v.stringsInParallel} × ${mod.iscA} A = ${round(isc, 2)} A against ${inv.maxInputIscA} A`,
     });
   }
-  checks.push({
-    id: "conductor",
-    status: v.conductorAmpacityA === undefined ? "pass" : v.conductorAmpacityA >= conductorAmps ? "pass" : "fail",
-    value: round(conductorAmps, 2),
-    limit: v.conductorAmpacityA ?? null,
-    unit: "A",
-    rule: "NEC 690.8(B)(1): conductor ampacity ≥ Isc × 1.25 × 1.25 (1.56)",
-    detail:
-      v.conductorAmpacityA === undefined
-        ? `each string conductor needs at least ${round(conductorAmps, 2)} A after correction and adjustment`
-        : `${mod.iscA} A × 1.56 = ${round(conductorAmps, 2)} A against the conductor's ${v.conductorAmpacityA} A`,
-  });
+  checks.push(conductorCheck(mod.iscA, v.conductorTableAmpacityA, v.conductorAmpacityA));
 
   const status: CheckStatus = checks.some((c) => c.status === "fail") ? "fail" : checks.some((c) => c.status === "warn") ? "warn" : "pass";
   return {
@@ -293,6 +309,56 @@ export function checkString(input: StringCheckInput): StringCheckResult {
     requiredConductorAmpacityA: round(conductorAmps, 2),
     notes,
     caution: CAUTION,
+  };
+}
+
+/** NEC 690.8(A)(1) current, and the back-feed into one faulted string against the module's fuse rating (690.9(A)). */
+function maxCurrentCheck(mod: { iscA: number; maxSeriesFuseA?: number }, parallel: number, maxCurrent: number): CheckLine {
+  const line = { id: "max-current" as const, value: round(maxCurrent, 2), unit: "A" as const };
+  const perString = mod.iscA * NEC_690_8_A_FACTOR;
+  if (parallel === 1) {
+    return { ...line, status: "pass", limit: null, rule: "NEC 690.8(A)(1): Isc × 1.25", detail: `one string: ${mod.iscA} A × 1.25 = ${round(perString, 2)} A; no other string can feed it` };
+  }
+  const backFeed = (parallel - 1) * perString;
+  if (mod.maxSeriesFuseA === undefined) {
+    return {
+      ...line,
+      status: "warn",
+      limit: null,
+      rule: "NEC 690.8(A)(1) and 690.9(A)",
+      detail: `${parallel} strings in parallel can feed ${round(backFeed, 2)} A into one faulted string; the module's maximum series fuse rating is not in the catalog, so whether string fuses are needed is not known`,
+    };
+  }
+  return {
+    ...line,
+    status: backFeed <= mod.maxSeriesFuseA ? "pass" : "fail",
+    limit: mod.maxSeriesFuseA,
+    rule: "NEC 690.8(A)(1) and 690.9(A): back-feed into a string ≤ the module's maximum series fuse rating",
+    detail: `(${parallel} − 1) × ${mod.iscA} A × 1.25 = ${round(backFeed, 2)} A against the module's ${mod.maxSeriesFuseA} A series fuse rating${backFeed > mod.maxSeriesFuseA ? ": each string needs its own fuse" : ""}`,
+  };
+}
+
+/** NEC 690.8(B): the larger of 125 % of the 690.8(A) current before correction and adjustment, and the 690.8(A) current after them. */
+function conductorCheck(iscA: number, tableAmpacityA: number | undefined, adjustedAmpacityA: number | undefined): CheckLine {
+  const maxCurrent = iscA * NEC_690_8_A_FACTOR;
+  const unadjustedNeed = maxCurrent * NEC_690_8_B_FACTOR;
+  const shortOf = [
+    ...(tableAmpacityA !== undefined && tableAmpacityA < unadjustedNeed ? [`the table ampacity ${tableAmpacityA} A is below ${round(unadjustedNeed, 2)} A (690.8(B)(1))`] : []),
+    ...(adjustedAmpacityA !== undefined && adjustedAmpacityA < maxCurrent ? [`the corrected and adjusted ampacity ${adjustedAmpacityA} A is below ${round(maxCurrent, 2)} A (690.8(B)(2))`] : []),
+  ];
+  const given = tableAmpacityA !== undefined || adjustedAmpacityA !== undefined;
+  return {
+    id: "conductor",
+    status: shortOf.length > 0 ? "fail" : "pass",
+    value: round(unadjustedNeed, 2),
+    limit: tableAmpacityA ?? null,
+    unit: "A",
+    rule: "NEC 690.8(B): ampacity ≥ 125 % of the 690.8(A) current before correction and adjustment (Isc × 1.56), and ≥ the 690.8(A) current after them (Isc × 1.25)",
+    detail: !given
+      ? `each string conductor needs at least ${round(unadjustedNeed, 2)} A from the ampacity table (${iscA} A × 1.56) and at least ${round(maxCurrent, 2)} A after correction and adjustment (${iscA} A × 1.25)`
+      : shortOf.length > 0
+        ? shortOf.join("; ")
+        : `${iscA} A × 1.56 = ${round(unadjustedNeed, 2)} A before and ${iscA} A × 1.25 = ${round(maxCurrent, 2)} A after correction and adjustment: met`,
   };
 }
 

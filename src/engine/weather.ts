@@ -15,6 +15,7 @@
  * 29 February is dropped. Rows are placed by their month/day/hour, so every hour of the
  * 365-day year must appear exactly once.
  */
+import { offsetContradiction, sunTimingShiftHours, sunTimingWarning } from "./weather-timing";
 import { z } from "zod";
 import { isBlankRecord, readCsvRecords, type CsvRecord } from "./csv";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
@@ -57,6 +58,8 @@ export type WeatherYear = {
   ghiDerived: boolean;
   /** Hours whose albedo came from the file (the rest use DEFAULT_ALBEDO). */
   albedoFromFileHours: number;
+  /** How far (h, + = later) the sunshine sits from solar noon at the stated offset (weather-timing.ts); null without sun. */
+  timingShiftHours?: number | null;
   /** Notes for the user, e.g. "dropped 24 rows of 29 February". */
   notes: string[];
 };
@@ -343,7 +346,45 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
 
   // Site: header values, overridden by explicit options.
   const site = parseOrThrow(weatherSiteSchema, { ...parsed.site, ...stripUndefined(options.site ?? {}) }, `${context}: site`);
+  const contradiction = offsetContradiction(site.longitude, site.utcOffsetHours);
+  if (contradiction) throw new EngineInputError([{ path: "site.utcOffsetHours", message: contradiction }], context);
 
+  const { out, leapRows, albedoFromFileHours } = placeOnGrid(parsed.rows, issues, context);
+  const tempMean = checkUnits(out, issues, context);
+  const n = HOURS_PER_YEAR;
+
+  const ghiDerived = !parsed.hasGhi;
+  if (ghiDerived) {
+    // GHI = DNI·cos(zenith) + DHI, the closure relation, with the zenith at each hour's evaluation instant.
+    const sun = sunPositionsForYear(site, { temperatureC: tempMean });
+    for (let i = 0; i < n; i++) {
+      const cz = Math.cos((sun.zenithDeg[i] * Math.PI) / 180);
+      out.ghi[i] = out.dni[i] * (cz > 0 ? cz : 0) + out.dhi[i];
+    }
+  }
+
+  const notes: string[] = [];
+  const timingShiftHours = sunTimingShiftHours(out.ghi, site.longitude, site.utcOffsetHours);
+  const timingWarning = sunTimingWarning(timingShiftHours, site.utcOffsetHours);
+  if (timingWarning) notes.push(timingWarning);
+  if (leapRows) notes.push(`dropped ${leapRows} rows of 29 February`);
+  if (ghiDerived) notes.push("GHI derived as DNI·cos(zenith) + DHI");
+  if (albedoFromFileHours < n) notes.push(`albedo ${DEFAULT_ALBEDO} used for ${n - albedoFromFileHours} hours without a valid file value`);
+
+  return {
+    format,
+    sourceLabel: options.sourceLabel ?? parsed.label,
+    site,
+    ...out,
+    ghiDerived,
+    albedoFromFileHours,
+    timingShiftHours,
+    notes,
+  };
+}
+
+/** Rows onto the 8760-hour grid: 29 February dropped, each hour exactly once (issues name the lines). */
+function placeOnGrid(rows: RawRow[], issues: IssueList, context: string) {
   // Place rows on the grid; drop 29 February; require each hour exactly once.
   const n = HOURS_PER_YEAR;
   const seenAt = new Int32Array(n).fill(0);
@@ -360,7 +401,7 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
   };
   let leapRows = 0;
   let albedoFromFileHours = 0;
-  for (const r of parsed.rows) {
+  for (const r of rows) {
     if (r.month === 2 && r.day === 29) {
       leapRows++;
       continue;
@@ -399,8 +440,16 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
   if (missing > 10) issues.add(null, `${missing} hours missing in all (expected ${n} hourly rows, 29 February excluded)`);
   issues.throwIfAny(context);
 
-  // Unit sanity on the whole year: catches kW/m², kWh/m² or MJ/m² columns and °F temperatures
-  // that fall inside the per-value limits.
+  return { out, leapRows, albedoFromFileHours };
+}
+
+/**
+ * Unit sanity on the whole year (catches kW/m², kWh/m² or MJ/m² columns and °F temperatures that
+ * fall inside the per-value limits), then each row's month, day and hour. Returns the mean air
+ * temperature.
+ */
+function checkUnits(out: ReturnType<typeof placeOnGrid>["out"], issues: IssueList, context: string): number {
+  const n = HOURS_PER_YEAR;
   let maxIrr = 0;
   let tempSum = 0;
   for (let i = 0; i < n; i++) {
@@ -419,30 +468,7 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
     out.hour[i] = i % 24;
   }
 
-  const ghiDerived = !parsed.hasGhi;
-  if (ghiDerived) {
-    // GHI = DNI·cos(zenith) + DHI, the closure relation, with the zenith at each hour's evaluation instant.
-    const sun = sunPositionsForYear(site, { temperatureC: tempSum / n });
-    for (let i = 0; i < n; i++) {
-      const cz = Math.cos((sun.zenithDeg[i] * Math.PI) / 180);
-      out.ghi[i] = out.dni[i] * (cz > 0 ? cz : 0) + out.dhi[i];
-    }
-  }
-
-  const notes: string[] = [];
-  if (leapRows) notes.push(`dropped ${leapRows} rows of 29 February`);
-  if (ghiDerived) notes.push("GHI derived as DNI·cos(zenith) + DHI");
-  if (albedoFromFileHours < n) notes.push(`albedo ${DEFAULT_ALBEDO} used for ${n - albedoFromFileHours} hours without a valid file value`);
-
-  return {
-    format,
-    sourceLabel: options.sourceLabel ?? parsed.label,
-    site,
-    ...out,
-    ghiDerived,
-    albedoFromFileHours,
-    notes,
-  };
+  return tempSum / n;
 }
 
 function stripUndefined<T extends object>(o: T): Partial<T> {

@@ -12,7 +12,7 @@ const book: PriceBook = {
   lineItems: [],
   discountLimits: { sales_rep: { maxCents: 50_000, maxPct: null }, office_manager: { maxCents: 200_000, maxPct: null } },
   incentives: [
-    { id: "credit", name: "Tax credit", source: "federal", amount: { kind: "percent", pct: 30, basis: "gross-price" }, startDate: "2020-01-01", endDate: "2040-12-31", timing: { year: 1 }, eligibility: {} },
+    { id: "credit", name: "Tax credit", source: "federal", amount: { kind: "percent", pct: 30, basis: "gross-price" }, startDate: "2020-01-01", endDate: "2040-12-31", timing: { year: 1 }, countsOn: "installation", eligibility: {} },
   ],
   deposit: { kind: "fixed", amountCents: 100_000 },
 };
@@ -32,6 +32,7 @@ describe("computeOfferFigures (hand-worked)", () => {
     productionHourlyKwh: production,
     usageHourlyKwh: usage,
     ratePlan: flatPlan,
+    timeZone: "America/Denver",
     payment: { kind: "cash" as const },
     adderIds: ["trench"],
     lineItemIds: [],
@@ -62,10 +63,55 @@ describe("computeOfferFigures (hand-worked)", () => {
     expect(f.discountNeedsApproval).toBe(false);
   });
 
-  it("a 0 % loan over 120 months pays the contract less upfront incentives in equal parts", () => {
-    const f = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0 } });
-    // $12,500 / 120 = $104.1667 → 10,417 ¢ (rounded to the cent).
-    expect(f.summary.monthlyLoanPaymentCents).toBe(10_417);
+  it("a 0 % loan over 120 months pays the contract less the deposit (the down payment) in equal parts", () => {
+    const f = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0, downPaymentCents: null } });
+    // The $1,000 deposit paid at signing is the down payment: ($12,500 − $1,000) / 120 = $95.8333 → 9,583 ¢.
+    expect(f.summary.monthlyLoanPaymentCents).toBe(9_583);
+    expect(f.summary.downPaymentCents).toBe(100_000);
+    // Year 0 shows the down payment.
+    expect(f.rows[0]).toMatchObject({ year: 0, systemPaymentCents: 100_000, cashFlowCents: -100_000 });
+    // A larger down payment: ($12,500 − $3,000) / 120 = $79.1667 → 7,917 ¢.
+    const more = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0, downPaymentCents: 300_000 } });
+    expect(more.summary.monthlyLoanPaymentCents).toBe(7_917);
+  });
+
+  it("the tax credit's basis includes the dealer fee inside the loan; its date is the expected installation", () => {
+    const loan = { kind: "loan" as const, aprPct: 5, termMonths: 120, dealerFeePct: 10, downPaymentCents: null };
+    const f = computeOfferFigures({ ...base, payment: loan });
+    // Borrowed $12,500 − $1,000 deposit = $11,500; grossed up for a 10 % fee: 11,500 / 0.9 = $12,777.78, fee $1,277.78.
+    // Credit: 30 % × ($12,500 + $1,277.78) = $4,133.33.
+    expect(f.incentives.applied[0].amountCents).toBe(413_333);
+    expect(f.incentives.applied[0].detail).toContain("dealer fee in the loan");
+    // Installation expected after the credit's end: no credit, with the reason.
+    const late = computeOfferFigures({ ...base, book: { ...book, incentives: [{ ...book.incentives[0], endDate: "2026-03-31" }] }, expectedInstallDate: "2026-04-15" });
+    expect(late.incentives.applied).toHaveLength(0);
+    expect(late.incentives.skipped[0].reason).toBe("ended 2026-03-31, before installation on 2026-04-15");
+    // No install date planned: the offer date + 60 days (2026-03-02 → 2026-05-01).
+    const assumed = computeOfferFigures({ ...base, book: { ...book, incentives: [{ ...book.incentives[0], endDate: "2026-04-30" }] } });
+    expect(assumed.incentives.skipped[0].reason).toBe("ended 2026-04-30, before installation on 2026-05-01");
+  });
+
+  it("refuses a down payment below the deposit paid at signing", () => {
+    expect(() => computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 5, termMonths: 120, dealerFeePct: 0, downPaymentCents: 50_000 } })).toThrow(
+      /payment.downPaymentCents: the \$1,000(\.00)? deposit is paid at signing/,
+    );
+  });
+
+  it("a loan longer than the analysis lengthens the table instead of dropping payments", () => {
+    const f = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 4, termMonths: 360, dealerFeePct: 0, downPaymentCents: null } });
+    // noDrift keeps 25 years; the 30-year loan makes the table 30 years (rows 0–30).
+    expect(f.rows).toHaveLength(31);
+    expect(f.rows[30].systemPaymentCents).toBeGreaterThan(0);
+    expect(f.notes.some((n) => n.startsWith("The table runs 30 years"))).toBe(true);
+    expect(f.assumptions.years).toBe(30);
+  });
+
+  it("simple payback = net cost ÷ year-1 savings; ROI's basis is what the homeowner pays", () => {
+    const f = computeOfferFigures(base);
+    // Cash: net cost = the year-0 outlay less incentives received later (no loan, no upkeep here).
+    const laterIncentives = f.rows.slice(1).reduce((a, r) => a + r.incentivesCents, 0);
+    expect(f.summary.roiBasisCents).toBe(-f.rows[0].cashFlowCents - laterIncentives);
+    expect(f.summary.simplePaybackYears).toBeCloseTo(f.summary.roiBasisCents! / f.summary.year1SavingsCents, 2);
   });
 
   it("flags a discount beyond the rep's limit and still prices it", () => {

@@ -7,13 +7,15 @@
 // (incentives.ts) and the 25-year table (cashflow.ts); quote.ts chains them the same way.
 import type { Role } from "@/lib/enums";
 import { buildCashflow, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowRow } from "@/engine/cashflow";
+import { amortizeLoan } from "@/engine/finance";
 import { evaluateIncentives, type IncentiveResult } from "@/engine/incentives";
 import type { SystemDesign } from "@/engine/production";
 import { makeBillCalculator, type RatePlanInput } from "@/engine/rates";
 import { sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "@/engine/sizing";
 import { checkString, maxModulesInSeries, CAUTION as STRING_CAUTION, type StringCheckResult } from "@/engine/string-check";
 import { HOURS_PER_YEAR, HOUR_MONTH, MONTH_DAYS, monthlySums } from "@/engine/year-calendar";
-import { priceOffer, type OfferPrice } from "@/lib/pricing";
+import { formatCents } from "@/lib/format";
+import { priceOffer, PricingInputError, type OfferPrice } from "@/lib/pricing";
 import type { DesignFace } from "@/lib/schemas/design";
 import type { PaymentInput } from "@/lib/schemas/offer";
 import { incentiveRulesForEngine, type PriceBook } from "@/lib/schemas/price-book";
@@ -242,6 +244,8 @@ export type OfferFiguresInput = {
   role: Role;
   /** Offer date, YYYY-MM-DD: incentives are evaluated at it. */
   asOf: string;
+  /** Expected installation date, YYYY-MM-DD, for credits that count at installation; default: asOf + DEFAULT_INSTALL_LEAD_DAYS. */
+  expectedInstallDate?: string;
   moduleCount: number;
   moduleWatts: number;
   /** Year-1 production, 8760 hourly kWh AC. */
@@ -249,6 +253,8 @@ export type OfferFiguresInput = {
   /** Usage, 8760 hourly kWh. */
   usageHourlyKwh: ArrayLike<number>;
   ratePlan: RatePlanInput;
+  /** The site's IANA time zone: time-of-use hours are read on its wall clock. */
+  timeZone: string;
   payment: PaymentInput;
   adderIds: readonly string[];
   lineItemIds: readonly string[];
@@ -271,7 +277,14 @@ export type OfferSummary = {
   netCostCents: number;
   monthlyLoanPaymentCents: number | null;
   year1SavingsCents: number;
+  /** Year the cumulative cash flow turns positive (escalation, degradation and loan payments included). */
   paybackYears: number | null;
+  /** Net cost ÷ year-1 savings (figures saved before this field have none). */
+  simplePaybackYears?: number | null;
+  /** Paid at signing and taken off the loan (loans only). */
+  downPaymentCents?: number | null;
+  /** ROI's denominator: what the homeowner pays for the system over the table (down payment or price, loan payments, upkeep) less incentives received. */
+  roiBasisCents?: number;
   simpleRoi: number | null;
   /** Bill savings over the table's years. */
   lifetimeSavingsCents: number;
@@ -279,6 +292,8 @@ export type OfferSummary = {
   lifetimeNetCents: number;
   npvCents: number;
   irr: number | null;
+  /** Why there is no IRR ("not meaningful: …"). */
+  irrNote?: string | null;
   lcoeCentsPerKwh: number | null;
 };
 
@@ -299,6 +314,98 @@ export type OfferFigures = {
 
 const round = (x: number, digits = 1) => Math.round(x * 10 ** digits) / 10 ** digits;
 
+/** Days from offer to installation assumed when no install date is planned yet (our choice; typical permitting and scheduling). */
+export const DEFAULT_INSTALL_LEAD_DAYS = 60;
+
+function addDays(isoDate: string, days: number): string {
+  const [y, m, d] = isoDate.split("-").map(Number);
+  return new Date(Date.UTC(y, m - 1, d + days)).toISOString().slice(0, 10);
+}
+
+/** The figures a person reads first, rounded as shown. */
+function summaryOf(x: {
+  input: OfferFiguresInput;
+  kwDc: number;
+  price: OfferPrice;
+  incentives: IncentiveResult;
+  cashflow: ReturnType<typeof buildCashflow>;
+  downPaymentCents: number;
+  annualProductionKwh: number;
+  annualUsageKwh: number;
+  year1SavingsCents: number;
+}): OfferSummary {
+  const { price, incentives } = x;
+  const s = x.cashflow.summary;
+  const roundOrNull = (v: number | null, digits: number) => (v === null ? null : round(v, digits));
+  return {
+    moduleCount: x.input.moduleCount,
+    kwDc: x.kwDc,
+    annualProductionKwh: round(x.annualProductionKwh),
+    offsetPct: x.annualUsageKwh > 0 ? round((x.annualProductionKwh / x.annualUsageKwh) * 100, 1) : 0,
+    grossCents: price.grossCents,
+    discountCents: price.discountCents,
+    contractCents: price.contractCents,
+    incentivesCents: incentives.totalCents,
+    netCostCents: price.contractCents - incentives.totalCents,
+    monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
+    year1SavingsCents: x.year1SavingsCents,
+    paybackYears: roundOrNull(s.paybackYears, 2),
+    simplePaybackYears: roundOrNull(s.simplePaybackYears, 2),
+    downPaymentCents: x.input.payment.kind === "loan" ? x.downPaymentCents : null,
+    roiBasisCents: s.netCostCents,
+    simpleRoi: roundOrNull(s.simpleRoi, 4),
+    lifetimeSavingsCents: s.lifetimeSavingsCents,
+    lifetimeNetCents: x.cashflow.rows[x.cashflow.rows.length - 1].cumulativeCents,
+    npvCents: s.npvCents,
+    irr: roundOrNull(s.irr, 6),
+    irrNote: s.irrNote,
+    lcoeCentsPerKwh: roundOrNull(s.lcoeCentsPerKwh, 2),
+  };
+}
+
+/** What a loan takes off the amount borrowed at signing: at least the deposit, never more than the price. */
+function downPaymentFor(payment: PaymentInput, price: OfferPrice): number {
+  if (payment.kind !== "loan") return 0;
+  const downPaymentCents = payment.downPaymentCents ?? price.depositCents;
+  if (downPaymentCents < price.depositCents) {
+    throw new PricingInputError("payment.downPaymentCents", `the ${formatCents(price.depositCents)} deposit is paid at signing and counts toward the price, so the down payment is at least that`);
+  }
+  if (downPaymentCents > price.contractCents) throw new PricingInputError("payment.downPaymentCents", "the down payment is more than the price");
+  return downPaymentCents;
+}
+
+/** The bill without solar, and with solar for each year of the table (re-billed with that year's degraded output). */
+function billsByYear(input: OfferFiguresInput, calendarYear: number, a: OfferAssumptions) {
+  const bill = makeBillCalculator(input.ratePlan, { calendarYear, timeZone: input.timeZone });
+  const without = bill(input.usageHourlyKwh, null);
+  const produced = Float64Array.from(input.productionHourlyKwh);
+  const degraded = new Float64Array(HOURS_PER_YEAR);
+  const withByYear = [];
+  for (let n = 1; n <= a.years; n++) {
+    const f = Math.pow(1 - a.degradationPctPerYear / 100, n - 1);
+    for (let h = 0; h < HOURS_PER_YEAR; h++) degraded[h] = produced[h] * f;
+    withByYear.push(bill(input.usageHourlyKwh, degraded));
+  }
+  return { without, withByYear, produced };
+}
+
+/**
+ * Credits that count at installation are judged on the expected install date; a dealer fee
+ * inside the loan is part of what the homeowner pays for the system (the credit's basis). The
+ * fee depends on the amount borrowed, which upfront incentives lower: one pass without it finds
+ * those, the second prices the fee in.
+ */
+function offerIncentives(input: OfferFiguresInput, price: OfferPrice, kwDc: number, downPaymentCents: number): IncentiveResult {
+  const installDate = input.expectedInstallDate ?? addDays(input.asOf, DEFAULT_INSTALL_LEAD_DAYS);
+  const incentivesWith = (dealerFeeCents: number) =>
+    evaluateIncentives({ rules: incentiveRulesForEngine(input.book), asOf: input.asOf, installDate, grossPriceCents: price.contractCents, dealerFeeCents, systemKwDc: kwDc, payment: input.payment.kind });
+  const first = incentivesWith(0);
+  if (input.payment.kind !== "loan" || input.payment.dealerFeePct <= 0) return first;
+  const borrowed = Math.max(0, price.contractCents - downPaymentCents - first.upfrontCents);
+  const { dealerFeeCents } = amortizeLoan({ amountCents: borrowed, aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added" });
+  return incentivesWith(dealerFeeCents);
+}
+
 /** Price, bills, incentives and the 25-year table for one offer. Throws PricingInputError / EngineInputError on bad input. */
 export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
   const a: OfferAssumptions = { ...DEFAULT_OFFER_ASSUMPTIONS, ...input.assumptions };
@@ -314,25 +421,16 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     role: input.role,
   });
 
-  const calendarYear = Number(input.asOf.slice(0, 4));
-  const bill = makeBillCalculator(input.ratePlan, calendarYear);
-  const without = bill(input.usageHourlyKwh, null);
-  const produced = Float64Array.from(input.productionHourlyKwh);
-  const degraded = new Float64Array(HOURS_PER_YEAR);
-  const withByYear = [];
-  for (let n = 1; n <= a.years; n++) {
-    const f = Math.pow(1 - a.degradationPctPerYear / 100, n - 1);
-    for (let h = 0; h < HOURS_PER_YEAR; h++) degraded[h] = produced[h] * f;
-    withByYear.push(bill(input.usageHourlyKwh, degraded));
+  // A loan is counted to its last payment: the analysis runs at least its term.
+  const loanYears = input.payment.kind === "loan" ? Math.ceil(input.payment.termMonths / 12) : 0;
+  if (loanYears > a.years) {
+    notes.push(`The table runs ${loanYears} years, the loan's term, instead of the usual ${a.years}, so every loan payment is counted.`);
+    a.years = loanYears;
   }
-
-  const incentives = evaluateIncentives({
-    rules: incentiveRulesForEngine(input.book),
-    asOf: input.asOf,
-    grossPriceCents: price.contractCents,
-    systemKwDc: kwDc,
-    payment: input.payment.kind,
-  });
+  const downPaymentCents = downPaymentFor(input.payment, price);
+  const calendarYear = Number(input.asOf.slice(0, 4));
+  const { without, withByYear, produced } = billsByYear(input, calendarYear, a);
+  const incentives = offerIncentives(input, price, kwDc, downPaymentCents);
   if (incentives.byYear.length > a.years + 1) notes.push(`Incentives paid after year ${a.years} are left out.`);
 
   const productionMonthly = monthlySums(produced);
@@ -347,7 +445,7 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     payment:
       input.payment.kind === "cash"
         ? { kind: "cash" }
-        : { kind: "loan", aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added", downPaymentCents: 0 },
+        : { kind: "loan", aprPct: input.payment.aprPct, termMonths: input.payment.termMonths, dealerFeePct: input.payment.dealerFeePct, dealerFeeMode: "added", downPaymentCents },
     year1ProductionKwh: annualProduction,
     degradationPctPerYear: a.degradationPctPerYear,
     billWithoutSolarCents: without.totalCents,
@@ -356,32 +454,11 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
     discountRatePct: a.discountRatePct,
   });
   notes.push(...cashflow.summary.notes);
-  const s = cashflow.summary;
-  const last = cashflow.rows[cashflow.rows.length - 1];
 
   return {
     version: 1,
     asOf: input.asOf,
-    summary: {
-      moduleCount: input.moduleCount,
-      kwDc,
-      annualProductionKwh: round(annualProduction),
-      offsetPct: annualUsage > 0 ? round((annualProduction / annualUsage) * 100, 1) : 0,
-      grossCents: price.grossCents,
-      discountCents: price.discountCents,
-      contractCents: price.contractCents,
-      incentivesCents: incentives.totalCents,
-      netCostCents: price.contractCents - incentives.totalCents,
-      monthlyLoanPaymentCents: s.loan ? s.loan.monthlyPaymentCents : null,
-      year1SavingsCents: without.totalCents - withByYear[0].totalCents,
-      paybackYears: s.paybackYears === null ? null : round(s.paybackYears, 2),
-      simpleRoi: s.simpleRoi === null ? null : round(s.simpleRoi, 4),
-      lifetimeSavingsCents: s.lifetimeSavingsCents,
-      lifetimeNetCents: last.cumulativeCents,
-      npvCents: s.npvCents,
-      irr: s.irr === null ? null : round(s.irr, 6),
-      lcoeCentsPerKwh: s.lcoeCentsPerKwh === null ? null : round(s.lcoeCentsPerKwh, 2),
-    },
+    summary: summaryOf({ input, kwDc, price, incentives, cashflow, downPaymentCents, annualProductionKwh: annualProduction, annualUsageKwh: annualUsage, year1SavingsCents: without.totalCents - withByYear[0].totalCents }),
     price,
     discountNeedsApproval: price.discountNeedsApproval,
     discountLimitCents: price.discountLimitCents,

@@ -1,4 +1,6 @@
 import "server-only";
+import { siteTimeZone } from "@/engine/site-time-zone";
+import { standardOffsetMinutes } from "@/engine/year-calendar";
 import { createHash } from "node:crypto";
 import { and, asc, desc, eq, getTableColumns, sql } from "drizzle-orm";
 import { fileTypeFromBuffer } from "file-type";
@@ -280,8 +282,10 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
   const isXml = text.trimStart().replace(/^\uFEFF/, "").startsWith("<");
   let profile;
   try {
-    // The site's standard UTC offset, approximated from its longitude (15° per hour).
-    profile = importIntervalData(text, { format: isXml ? "espi-xml" : "csv", utcOffsetHours: Math.round(household.longitude / 15) });
+    // The site's own zone, not longitude ÷ 15: stamps without an offset are its clock time.
+    const timeZone = siteTimeZone(household.latitude, household.longitude);
+    const utcOffsetHours = standardOffsetMinutes(timeZone, new Date().getUTCFullYear()) / 60;
+    profile = importIntervalData(text, { format: isXml ? "espi-xml" : "csv", utcOffsetHours, timeZone });
   } catch (err) {
     engineToHttp(err, `“${file.name}” could not be read as ${isXml ? "Green Button XML" : "interval CSV"}`);
   }

@@ -1,4 +1,5 @@
 import "server-only";
+import { siteTimeZone } from "@/engine/site-time-zone";
 import { createElement } from "react";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { deal, dealUsage, design, discountRequest, household, membership, offer, priceBook, ratePlan, user, type Role } from "@/db/schema";
@@ -197,6 +198,7 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
       productionHourlyKwh: production.hourlyKwh,
       usageHourlyKwh: usage.hourlyKwh,
       ratePlan: plan.plan,
+      timeZone: siteTimeZone(site.latitude, site.longitude),
       payment: inputs.payment,
       adderIds: inputs.adderIds,
       lineItemIds: inputs.lineItemIds,

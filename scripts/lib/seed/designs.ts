@@ -17,6 +17,7 @@ import { designDocumentSchema, type DesignDocumentInput } from "../../../src/lib
 import { offerInputsSchema, type OfferInputsInput } from "../../../src/lib/schemas/offer";
 import { priceBookSchema } from "../../../src/lib/schemas/price-book";
 import { ratePlanSchema } from "../../../src/engine/rates";
+import { siteTimeZone } from "../../../src/engine/site-time-zone";
 import type { SeedContext } from "../seed-demo";
 import { DEMO_INVERTER_IDS, DEMO_MODULE_IDS } from "./catalog";
 import { DEMO_RATE_PLAN_IDS } from "./pricing";
@@ -174,6 +175,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
       productionHourlyKwh,
       usageHourlyKwh,
       ratePlan: plan,
+      timeZone: siteTimeZone(weather.site.latitude, weather.site.longitude),
       payment: inputs.payment,
       adderIds: inputs.adderIds,
       lineItemIds: inputs.lineItemIds,

@@ -48,6 +48,20 @@ const PRICE_BOOK: PriceBookInput = {
       eligibility: {},
     },
     {
+      // Dated data, not a rule in code: 30 % for systems installed by the end of 2025 (the
+      // residential credit of 26 U.S.C. §25D ended for expenditures after 2025, from memory).
+      // It counts at installation, so an offer made in 2025 for a 2026 install gets none.
+      id: "federal-25d",
+      name: "Federal residential clean energy credit (§25D)",
+      source: "federal",
+      amount: { kind: "percent", pct: 30, basis: "gross-price" },
+      startDate: "2022-01-01",
+      endDate: "2025-12-31",
+      timing: { year: 1 },
+      countsOn: "installation",
+      eligibility: {},
+    },
+    {
       // Already ended: it shows in the price book but never in an offer.
       id: "piedmont-coop-early-bonus",
       name: "Piedmont Cooperative early-adopter bonus",

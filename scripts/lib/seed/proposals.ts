@@ -33,6 +33,7 @@ import { usageFromBills } from "../../../src/engine/bills";
 import { spreadMonthlyToHourly } from "../../../src/engine/load-shape";
 import { estimateProduction } from "../../../src/engine/production";
 import { ratePlanSchema } from "../../../src/engine/rates";
+import { siteTimeZone } from "../../../src/engine/site-time-zone";
 import { parseWeather, type WeatherYear } from "../../../src/engine/weather";
 import { cancelDeadline } from "../../../src/lib/business-days";
 import { formatCents } from "../../../src/lib/format";
@@ -159,6 +160,7 @@ async function sourceFor(c: Ctx, dealId: string, offers: { position: number; inp
           productionHourlyKwh,
           usageHourlyKwh,
           ratePlan: plan,
+          timeZone: siteTimeZone(h.latitude, h.longitude),
           payment: inputs.payment,
           adderIds: inputs.adderIds,
           lineItemIds: inputs.lineItemIds,

@@ -15,6 +15,8 @@ export const paymentInputSchema = z.discriminatedUnion("kind", [
     aprPct: num("APR").min(0, "APR must be 0–40 %").max(40, "APR must be 0–40 %"),
     termMonths: z.number({ error: "Term must be a number" }).int("Term must be whole months").min(12, "Term must be 12–360 months").max(360, "Term must be 12–360 months"),
     dealerFeePct: num("Dealer fee").min(0, "Dealer fee must be 0–40 %").max(40, "Dealer fee must be 0–40 %").default(0),
+    /** Paid at signing and taken off the amount borrowed, cents; null = the deposit the price book asks at signing. */
+    downPaymentCents: z.number({ error: "Down payment must be a number" }).int("Down payment must be whole cents").min(0, "Down payment must not be negative").max(100_000_000).nullable().default(null),
   }),
 ]);
 export type PaymentInput = z.output<typeof paymentInputSchema>;

@@ -144,6 +144,7 @@ export function incentiveRulesForEngine(book: PriceBook): IncentiveRuleInput[] {
     startDate: rule.startDate,
     endDate: rule.endDate,
     timing: rule.timing,
+    countsOn: rule.countsOn,
     eligibility: rule.eligibility,
   }));
 }

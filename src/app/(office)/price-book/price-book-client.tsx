@@ -294,6 +294,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
                     id: newId("new incentive", d.incentives.map((r) => r.id)),
                     name: "New incentive",
                     source: "utility",
+                    countsOn: "offer",
                     amount: { kind: "fixed", amountCents: 0 },
                     startDate: props.today,
                     endDate: `${Number(props.today.slice(0, 4)) + 1}-12-31`,
