@@ -47,8 +47,6 @@ export const ALLOWED: { file: string; name: string; reason: string }[] = [
   { file: "src/app/(office)/deals/_table/bulk-bar.tsx", name: "BulkBar", reason: UI_BRANCH },
   { file: "src/app/(office)/deals/_table/deals-table-client.tsx", name: "DealsTable", reason: UI_BRANCH },
   { file: "src/app/(office)/deals/_table/saved-views-menu.tsx", name: "SavedViewsMenu", reason: UI_BRANCH },
-  { file: "src/app/p/[token]/signing-panel.tsx", name: "SigningPanel", reason: UI_BRANCH },
-  { file: "src/app/p/[token]/signing-panel.tsx", name: "SignForm", reason: UI_BRANCH },
 ];
 
 function nameOf(node: ts.Node): string {
