@@ -41,6 +41,15 @@ function incentiveStatus(rule: PriceBookIncentive, today: string): { label: stri
   return { label: "in effect today", tone: "bg-sage-light text-sage" };
 }
 
+/** What each section of the editor needs: the book on screen, whether it may change, its errors, and the ways to change it. */
+type BookEditor = {
+  doc: PriceBook;
+  edit: boolean;
+  err: (path: string) => string | undefined;
+  update: (change: (draft: PriceBook) => void) => void;
+  rename: <T extends { id: string; name: string }>(list: T[], i: number, name: string) => void;
+};
+
 export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string }) {
   const [doc, setDoc] = useState<PriceBook>(props.initial);
   const [errors, setErrors] = useState<PathErrors>({});
@@ -80,6 +89,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
     setDirty(true);
   }
   const err = (path: string) => errors[path];
+  const book: BookEditor = { doc, edit, err, update, rename };
 
   function save() {
     setNotice(null);
@@ -94,244 +104,24 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
 
   return (
     <div className="mt-6 space-y-6">
-      <div className="flex flex-wrap items-center justify-between gap-3">
-        <p className="text-sm text-graphite-soft" data-testid="price-book-saved">
-          {saved.at ? `Last saved ${formatDateTime(new Date(saved.at))}${saved.by ? ` by ${saved.by}` : ""}.` : "Not set up yet: offers use the starting values below until it is saved."}
-        </p>
-        {edit ? (
-          <button type="button" className="btn-primary" onClick={save} disabled={pending}>
-            {pending ? "Saving…" : dirty ? "Save changes" : "Save price book"}
-          </button>
-        ) : null}
-      </div>
+      <SaveBar saved={saved} edit={edit} pending={pending} dirty={dirty} onSave={save} />
       <StatusMessage notice={notice} />
       {errors._ ? <FormMessage tone="error">{errors._}</FormMessage> : null}
 
       <fieldset disabled={!edit || pending} className="space-y-6">
         <legend className="sr-only">Price book</legend>
 
-        <Section id="bands" title="Price per watt by system size" hint="The whole system is priced at the rate of the band its DC size falls in. A size exactly on a boundary takes the higher band.">
-          <table className="w-full text-sm">
-            <thead className="text-left text-xs uppercase tracking-wide text-graphite-soft">
-              <tr>
-                <th className="py-1 pr-3">From</th>
-                <th className="py-1 pr-3">Up to (kW DC)</th>
-                <th className="py-1 pr-3">Price ($/W DC)</th>
-                <th className="py-1" />
-              </tr>
-            </thead>
-            <tbody>
-              {doc.bands.map((band, i) => {
-                const last = i === doc.bands.length - 1;
-                return (
-                  <tr key={i} className="align-top" data-testid={`band-${i}`}>
-                    <td className="figure py-2 pr-3">
-                      {(band.minWatts / 1000).toLocaleString("en-US", { maximumFractionDigits: 3 })} kW
-                      {err(`bands.${i}.minWatts`) ? <p className="field-error text-xs" role="alert">{err(`bands.${i}.minWatts`)}</p> : null}
-                    </td>
-                    <td className="py-1 pr-3">
-                      {last ? (
-                        <span className="text-graphite-soft">and up</span>
-                      ) : (
-                        <NumberInput
-                          id={`band-${i}-max`}
-                          label={`Band ${i + 1} up to, kW DC`}
-                          srLabel
-                          scale={1000}
-                          value={band.maxWatts}
-                          error={err(`bands.${i}.maxWatts`)}
-                          onValue={(v) => update((d) => void (d.bands[i].maxWatts = nn(v)))}
-                        />
-                      )}
-                    </td>
-                    <td className="py-1 pr-3">
-                      <NumberInput
-                        id={`band-${i}-price`}
-                        label={`Band ${i + 1} price, $ per watt`}
-                        srLabel
-                        scale={100}
-                        storedDecimals={2}
-                        value={band.centsPerWattDc}
-                        error={err(`bands.${i}.centsPerWattDc`)}
-                        onValue={(v) => update((d) => void (d.bands[i].centsPerWattDc = nn(v)))}
-                      />
-                    </td>
-                    <td className="py-1 text-right">
-                      {edit && doc.bands.length > 1 ? (
-                        <button
-                          type="button"
-                          className="btn-quiet min-h-9 px-3"
-                          aria-label={`Remove band ${i + 1}`}
-                          onClick={() =>
-                            update((d) => {
-                              d.bands.splice(i, 1);
-                              d.bands[d.bands.length - 1].maxWatts = null;
-                            })
-                          }
-                        >
-                          Remove
-                        </button>
-                      ) : null}
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-          {err("bands") ? <p className="field-error" role="alert">{err("bands")}</p> : null}
-          {edit ? (
-            <button
-              type="button"
-              className="btn-quiet mt-2"
-              onClick={() =>
-                update((d) => {
-                  const lastBand = d.bands[d.bands.length - 1];
-                  lastBand.maxWatts = lastBand.minWatts + 4_000;
-                  d.bands.push({ minWatts: lastBand.maxWatts, maxWatts: null, centsPerWattDc: lastBand.centsPerWattDc });
-                })
-              }
-            >
-              Add a size band
-            </button>
-          ) : null}
-        </Section>
+        <BandsSection {...book} />
 
-        <Section id="adders" title="Adders" hint="Equipment and site conditions the rep ticks on an offer: priced per watt DC, per module, or once per job.">
-          {doc.adders.length === 0 ? <p className="text-sm text-graphite-soft">No adders yet.</p> : null}
-          <div className="space-y-2">
-            {doc.adders.map((adder, i) => (
-              <div key={i} className="grid items-start gap-2 md:grid-cols-[2fr_1fr_1fr_auto]" data-testid={`adder-${adder.id}`}>
-                <TextInput id={`adder-${i}-name`} label="Name" value={adder.name} error={err(`adders.${i}.name`) ?? err(`adders.${i}.id`)} onText={(t) => update((d) => rename(d.adders, i, t))} hint={`id: ${adder.id}`} />
-                <div>
-                  <label htmlFor={`adder-${i}-kind`} className="field-label">
-                    Priced
-                  </label>
-                  <select
-                    id={`adder-${i}-kind`}
-                    className="field-input min-h-9 py-1 text-sm"
-                    value={adder.kind}
-                    onChange={(e) => update((d) => void (d.adders[i] = adderOfKind(e.target.value as AdderKind, adder)))}
-                  >
-                    {ADDER_KINDS.map((k) => (
-                      <option key={k} value={k}>
-                        {ADDER_KIND_LABELS[k]}
-                      </option>
-                    ))}
-                  </select>
-                </div>
-                {adder.kind === "per_watt" ? (
-                  <NumberInput id={`adder-${i}-amount`} label="$ per watt" scale={100} storedDecimals={2} value={adder.centsPerWattDc} error={err(`adders.${i}.centsPerWattDc`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "per_watt" }>).centsPerWattDc = nn(v)))} />
-                ) : adder.kind === "per_module" ? (
-                  <MoneyInput id={`adder-${i}-amount`} label="$ per module" value={adder.centsPerModule} error={err(`adders.${i}.centsPerModule`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "per_module" }>).centsPerModule = nn(v)))} />
-                ) : (
-                  <MoneyInput id={`adder-${i}-amount`} label="$ per job" value={adder.amountCents} error={err(`adders.${i}.amountCents`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "fixed" }>).amountCents = nn(v)))} />
-                )}
-                {edit ? <RemoveButton label={`Remove adder ${adder.name}`} onClick={() => update((d) => void d.adders.splice(i, 1))} /> : null}
-              </div>
-            ))}
-          </div>
-          {edit ? (
-            <button type="button" className="btn-quiet mt-3" onClick={() => update((d) => void d.adders.push({ id: newId("new adder", d.adders.map((a) => a.id)), name: "New adder", kind: "fixed", amountCents: 0 }))}>
-              Add an adder
-            </button>
-          ) : null}
-        </Section>
+        <AddersSection {...book} />
 
-        <Section id="line-items" title="Line items" hint="Fixed extras added to an offer as their own line.">
-          {doc.lineItems.length === 0 ? <p className="text-sm text-graphite-soft">No line items yet.</p> : null}
-          <div className="space-y-2">
-            {doc.lineItems.map((item, i) => (
-              <div key={i} className="grid items-start gap-2 md:grid-cols-[3fr_1fr_auto]" data-testid={`line-item-${item.id}`}>
-                <TextInput id={`line-${i}-name`} label="Name" value={item.name} error={err(`lineItems.${i}.name`) ?? err(`lineItems.${i}.id`)} onText={(t) => update((d) => rename(d.lineItems, i, t))} hint={`id: ${item.id}`} />
-                <MoneyInput id={`line-${i}-amount`} label="Price ($)" value={item.amountCents} error={err(`lineItems.${i}.amountCents`)} onValue={(v) => update((d) => void (d.lineItems[i].amountCents = nn(v)))} />
-                {edit ? <RemoveButton label={`Remove line item ${item.name}`} onClick={() => update((d) => void d.lineItems.splice(i, 1))} /> : null}
-              </div>
-            ))}
-          </div>
-          {edit ? (
-            <button type="button" className="btn-quiet mt-3" onClick={() => update((d) => void d.lineItems.push({ id: newId("new item", d.lineItems.map((l) => l.id)), name: "New item", amountCents: 0 }))}>
-              Add a line item
-            </button>
-          ) : null}
-        </Section>
+        <LineItemsSection {...book} />
 
-        <Section id="discounts" title="Discount limits" hint="The most each role may take off without an office approval, as dollars and/or a percentage of the price before discount. With both, the smaller applies; with neither, every discount needs approval. Owners and admins have no limit.">
-          <div className="grid gap-4 md:grid-cols-2">
-            {LIMITED_ROLES.map((role) => (
-              <div key={role} className="grid grid-cols-2 gap-2" data-testid={`limit-${role}`}>
-                <p className="col-span-2 text-sm font-medium">{ROLE_LABELS[role]}</p>
-                <MoneyInput id={`limit-${role}-cents`} label="Up to ($)" placeholder="no $ limit" value={doc.discountLimits[role].maxCents} error={err(`discountLimits.${role}.maxCents`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxCents = v))} />
-                <PercentInput id={`limit-${role}-pct`} label="Up to (%)" placeholder="no % limit" storedDecimals={2} value={doc.discountLimits[role].maxPct} error={err(`discountLimits.${role}.maxPct`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxPct = v))} />
-              </div>
-            ))}
-          </div>
-        </Section>
+        <DiscountsSection {...book} />
 
-        <Section id="incentives" title="Incentives" hint="Rebates and credits as data, each with its dates: an offer applies a rule only on days within them. Nothing is built in; enter federal, state or utility programs here as they change.">
-          {doc.incentives.length === 0 ? <p className="text-sm text-graphite-soft">No incentives yet.</p> : null}
-          <div className="space-y-3">
-            {doc.incentives.map((rule, i) => (
-              <IncentiveEditor
-                key={i}
-                index={i}
-                rule={rule}
-                today={props.today}
-                err={(p) => err(`incentives.${i}.${p}`)}
-                edit={edit}
-                onChange={(change) => update((d) => change(d.incentives[i]))}
-                onRename={(name) => update((d) => rename(d.incentives, i, name))}
-                onRemove={() => update((d) => void d.incentives.splice(i, 1))}
-              />
-            ))}
-          </div>
-          {edit ? (
-            <button
-              type="button"
-              className="btn-quiet mt-3"
-              onClick={() =>
-                update((d) =>
-                  void d.incentives.push({
-                    id: newId("new incentive", d.incentives.map((r) => r.id)),
-                    name: "New incentive",
-                    source: "utility",
-                    countsOn: "offer",
-                    amount: { kind: "fixed", amountCents: 0 },
-                    startDate: props.today,
-                    endDate: `${Number(props.today.slice(0, 4)) + 1}-12-31`,
-                    timing: "upfront",
-                    eligibility: {},
-                  }),
-                )
-              }
-            >
-              Add an incentive
-            </button>
-          ) : null}
-        </Section>
+        <IncentivesSection {...book} today={props.today} />
 
-        <Section id="deposit" title="Deposit" hint="Asked when the customer signs; never more than the contract.">
-          <RadioGroup
-            name="deposit-kind"
-            label="Deposit kind"
-            options={[
-              ["fixed", "A fixed amount"],
-              ["percent", "A percentage of the contract"],
-            ]}
-            value={doc.deposit.kind}
-            onChange={(kind) =>
-              update((d) => void (d.deposit = kind === "fixed" ? { kind: "fixed", amountCents: 50_000 } : { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 }))
-            }
-          />
-          {doc.deposit.kind === "fixed" ? (
-            <MoneyInput id="deposit-amount" className="mt-2 max-w-48" label="Deposit ($)" value={doc.deposit.amountCents} error={err("deposit.amountCents")} onValue={(v) => update((d) => void (d.deposit.kind === "fixed" && (d.deposit.amountCents = nn(v))))} />
-          ) : (
-            <div className="mt-2 grid max-w-xl grid-cols-3 gap-2">
-              <PercentInput id="deposit-pct" label="Percent (%)" storedDecimals={2} value={doc.deposit.pct} error={err("deposit.pct")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.pct = nn(v))))} />
-              <MoneyInput id="deposit-min" label="At least ($)" value={doc.deposit.minCents} error={err("deposit.minCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.minCents = nn(v))))} />
-              <MoneyInput id="deposit-max" label="At most ($)" value={doc.deposit.maxCents} error={err("deposit.maxCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.maxCents = nn(v))))} />
-            </div>
-          )}
-        </Section>
+        <DepositSection {...book} />
       </fieldset>
 
       <PriceCheck book={doc} role={props.role} />
@@ -352,6 +142,8 @@ function amountOfKind(kind: Amount["kind"]): Amount {
   return { kind, amountCents: 0 };
 }
 
+type IncentiveFieldProps = { rule: PriceBookIncentive; i: number; err: (path: string) => string | undefined; onChange: (change: (rule: PriceBookIncentive) => void) => void };
+
 function IncentiveEditor(props: {
   index: number;
   rule: PriceBookIncentive;
@@ -364,7 +156,6 @@ function IncentiveEditor(props: {
 }) {
   const { rule, index: i, err, onChange } = props;
   const status = incentiveStatus(rule, props.today);
-  const a = rule.amount;
   return (
     <div className="rounded-md border border-paper-line p-3" data-testid={`incentive-${rule.id}`}>
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -388,40 +179,7 @@ function IncentiveEditor(props: {
         <TextInput id={`inc-${i}-start`} type="date" label="From" value={rule.startDate} error={err("startDate")} onText={(t) => onChange((r) => void (r.startDate = t))} />
         <TextInput id={`inc-${i}-end`} type="date" label="Until (inclusive)" value={rule.endDate} error={err("endDate")} onText={(t) => onChange((r) => void (r.endDate = t))} />
       </div>
-      <div className="mt-2 grid gap-2 md:grid-cols-4">
-        <div>
-          <label htmlFor={`inc-${i}-kind`} className="field-label">
-            Amount
-          </label>
-          <select id={`inc-${i}-kind`} className="field-input min-h-9 py-1 text-sm" value={a.kind} onChange={(e) => onChange((r) => void (r.amount = amountOfKind(e.target.value as Amount["kind"])))}>
-            <option value="per-watt">per watt DC, with a cap</option>
-            <option value="percent">percent of the price, with a cap</option>
-            <option value="fixed">a fixed amount</option>
-          </select>
-        </div>
-        {a.kind === "per-watt" ? (
-          <>
-            <NumberInput id={`inc-${i}-cpw`} label="$ per watt" scale={100} storedDecimals={2} value={a.centsPerWattDc} error={err("amount.centsPerWattDc")} onValue={(v) => onChange((r) => void (r.amount.kind === "per-watt" && (r.amount.centsPerWattDc = nn(v))))} />
-            <MoneyInput id={`inc-${i}-cap`} label="Cap ($, optional)" value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "per-watt" && (r.amount.capCents = v ?? undefined)))} />
-          </>
-        ) : a.kind === "percent" ? (
-          <>
-            <PercentInput id={`inc-${i}-pct`} label="Percent (%)" storedDecimals={4} value={a.pct} error={err("amount.pct")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.pct = nn(v))))} />
-            <MoneyInput id={`inc-${i}-cap`} label="Cap ($, optional)" value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.capCents = v ?? undefined)))} />
-            <div className="md:col-start-2">
-              <label htmlFor={`inc-${i}-basis`} className="field-label">
-                Of
-              </label>
-              <select id={`inc-${i}-basis`} className="field-input min-h-9 py-1 text-sm" value={a.basis} onChange={(e) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.basis = e.target.value as "gross-price" | "net-of-earlier")))}>
-                <option value="gross-price">the contract price</option>
-                <option value="net-of-earlier">the price less the incentives listed above it</option>
-              </select>
-            </div>
-          </>
-        ) : (
-          <MoneyInput id={`inc-${i}-fixed`} label="Amount ($)" value={a.amountCents} error={err("amount.amountCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "fixed" && (r.amount.amountCents = nn(v))))} />
-        )}
-      </div>
+      <IncentiveAmountFields rule={rule} i={i} err={err} onChange={onChange} />
       <div className="mt-2 grid gap-2 md:grid-cols-4">
         <div>
           <label htmlFor={`inc-${i}-timing`} className="field-label">
@@ -443,31 +201,7 @@ function IncentiveEditor(props: {
         <NumberInput id={`inc-${i}-minkw`} label="Min size (kW DC, optional)" storedDecimals={3} value={rule.eligibility.minKwDc ?? null} error={err("eligibility.minKwDc")} onValue={(v) => onChange((r) => void (r.eligibility.minKwDc = v ?? undefined))} />
         <NumberInput id={`inc-${i}-maxkw`} label="Max size (kW DC, optional)" storedDecimals={3} value={rule.eligibility.maxKwDc ?? null} error={err("eligibility.maxKwDc")} onValue={(v) => onChange((r) => void (r.eligibility.maxKwDc = v ?? undefined))} />
       </div>
-      <fieldset className="mt-2 flex flex-wrap items-center gap-4 text-sm">
-        <legend className="sr-only">Payment types</legend>
-        <span className="text-graphite-soft">For</span>
-        {(["cash", "loan"] as const).map((p) => {
-          const list = rule.eligibility.payment;
-          const checked = !list || list.includes(p);
-          return (
-            <label key={p} className="flex min-h-touch items-center gap-2">
-              <input
-                type="checkbox"
-                checked={checked}
-                onChange={(e) =>
-                  onChange((r) => {
-                    const current = r.eligibility.payment ?? ["cash", "loan"];
-                    const next = e.target.checked ? [...new Set([...current, p])] : current.filter((x) => x !== p);
-                    r.eligibility.payment = next.length === 2 ? undefined : next;
-                  })
-                }
-              />
-              {p === "cash" ? "cash buyers" : "loan buyers"}
-            </label>
-          );
-        })}
-        {err("eligibility.payment") ? <span className="field-error" role="alert">{err("eligibility.payment")}</span> : null}
-      </fieldset>
+      <PaymentTypesField rule={rule} i={i} err={err} onChange={onChange} />
     </div>
   );
 }
@@ -540,40 +274,7 @@ function PriceCheck({ book, role }: { book: PriceBook; role: Role }) {
           {result.error}
         </p>
       ) : (
-        <table className="mt-3 w-full max-w-2xl text-sm" data-testid="price-check">
-          <tbody className="divide-y divide-paper-line">
-            {result.price.lines.map((l, i) => (
-              <tr key={i}>
-                <td className="py-1 pr-3">{l.label}</td>
-                <td className="py-1 pr-3 text-graphite-soft">{l.detail}</td>
-                <td className="figure py-1 text-right">{money(l.amountCents)}</td>
-              </tr>
-            ))}
-            <tr className="font-semibold">
-              <td className="py-1 pr-3" colSpan={2}>
-                Contract
-              </td>
-              <td className="figure py-1 text-right" data-testid="price-check-contract">
-                {money(result.price.contractCents)}
-              </td>
-            </tr>
-            <tr>
-              <td className="py-1 pr-3" colSpan={2}>
-                Deposit at signing
-              </td>
-              <td className="figure py-1 text-right">{money(result.price.depositCents)}</td>
-            </tr>
-            <tr>
-              <td className="py-1 pr-3" colSpan={3}>
-                {result.price.discountLimitCents === null
-                  ? "No discount limit for this role."
-                  : result.price.discountNeedsApproval
-                    ? `Needs office approval: above this role's limit of ${money(result.price.discountLimitCents)}.`
-                    : `Within this role's limit of ${money(result.price.discountLimitCents)}.`}
-              </td>
-            </tr>
-          </tbody>
-        </table>
+        <PriceCheckTable price={result.price} />
       )}
     </Section>
   );
@@ -621,5 +322,384 @@ function RemoveButton({ label, onClick }: { label: string; onClick: () => void }
     <button type="button" className="btn-quiet min-h-9 self-end px-3" aria-label={label} onClick={onClick}>
       Remove
     </button>
+  );
+}
+
+/** One size band: where it starts, where it ends (the last runs on), its price per watt. */
+function BandRow({ band, i, last, canRemove, err, update }: { band: PriceBook["bands"][number]; i: number; last: boolean; canRemove: boolean; err: BookEditor["err"]; update: BookEditor["update"] }) {
+  return (
+    <tr className="align-top" data-testid={`band-${i}`}>
+      <td className="figure py-2 pr-3">
+        {(band.minWatts / 1000).toLocaleString("en-US", { maximumFractionDigits: 3 })} kW
+        {err(`bands.${i}.minWatts`) ? <p className="field-error text-xs" role="alert">{err(`bands.${i}.minWatts`)}</p> : null}
+      </td>
+      <td className="py-1 pr-3">
+        {last ? (
+          <span className="text-graphite-soft">and up</span>
+        ) : (
+          <NumberInput
+            id={`band-${i}-max`}
+            label={`Band ${i + 1} up to, kW DC`}
+            srLabel
+            scale={1000}
+            value={band.maxWatts}
+            error={err(`bands.${i}.maxWatts`)}
+            onValue={(v) => update((d) => void (d.bands[i].maxWatts = nn(v)))}
+          />
+        )}
+      </td>
+      <td className="py-1 pr-3">
+        <NumberInput
+          id={`band-${i}-price`}
+          label={`Band ${i + 1} price, $ per watt`}
+          srLabel
+          scale={100}
+          storedDecimals={2}
+          value={band.centsPerWattDc}
+          error={err(`bands.${i}.centsPerWattDc`)}
+          onValue={(v) => update((d) => void (d.bands[i].centsPerWattDc = nn(v)))}
+        />
+      </td>
+      <td className="py-1 text-right">
+        {canRemove ? (
+          <button
+            type="button"
+            className="btn-quiet min-h-9 px-3"
+            aria-label={`Remove band ${i + 1}`}
+            onClick={() =>
+              update((d) => {
+                d.bands.splice(i, 1);
+                d.bands[d.bands.length - 1].maxWatts = null;
+              })
+            }
+          >
+            Remove
+          </button>
+        ) : null}
+      </td>
+    </tr>
+  );
+}
+
+/** How much the incentive is: per watt or a percentage (each with an optional cap), or a fixed amount. */
+function IncentiveAmountFields({ rule, i, err, onChange }: IncentiveFieldProps) {
+  const a = rule.amount;
+  return (
+    <div className="mt-2 grid gap-2 md:grid-cols-4">
+      <div>
+        <label htmlFor={`inc-${i}-kind`} className="field-label">
+          Amount
+        </label>
+        <select id={`inc-${i}-kind`} className="field-input min-h-9 py-1 text-sm" value={a.kind} onChange={(e) => onChange((r) => void (r.amount = amountOfKind(e.target.value as Amount["kind"])))}>
+          <option value="per-watt">per watt DC, with a cap</option>
+          <option value="percent">percent of the price, with a cap</option>
+          <option value="fixed">a fixed amount</option>
+        </select>
+      </div>
+      {a.kind === "per-watt" ? (
+        <>
+          <NumberInput id={`inc-${i}-cpw`} label="$ per watt" scale={100} storedDecimals={2} value={a.centsPerWattDc} error={err("amount.centsPerWattDc")} onValue={(v) => onChange((r) => void (r.amount.kind === "per-watt" && (r.amount.centsPerWattDc = nn(v))))} />
+          <MoneyInput id={`inc-${i}-cap`} label="Cap ($, optional)" value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "per-watt" && (r.amount.capCents = v ?? undefined)))} />
+        </>
+      ) : a.kind === "percent" ? (
+        <>
+          <PercentInput id={`inc-${i}-pct`} label="Percent (%)" storedDecimals={4} value={a.pct} error={err("amount.pct")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.pct = nn(v))))} />
+          <MoneyInput id={`inc-${i}-cap`} label="Cap ($, optional)" value={a.capCents ?? null} error={err("amount.capCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.capCents = v ?? undefined)))} />
+          <div className="md:col-start-2">
+            <label htmlFor={`inc-${i}-basis`} className="field-label">
+              Of
+            </label>
+            <select id={`inc-${i}-basis`} className="field-input min-h-9 py-1 text-sm" value={a.basis} onChange={(e) => onChange((r) => void (r.amount.kind === "percent" && (r.amount.basis = e.target.value as "gross-price" | "net-of-earlier")))}>
+              <option value="gross-price">the contract price</option>
+              <option value="net-of-earlier">the price less the incentives listed above it</option>
+            </select>
+          </div>
+        </>
+      ) : (
+        <MoneyInput id={`inc-${i}-fixed`} label="Amount ($)" value={a.amountCents} error={err("amount.amountCents")} onValue={(v) => onChange((r) => void (r.amount.kind === "fixed" && (r.amount.amountCents = nn(v))))} />
+      )}
+    </div>
+  );
+}
+
+/** Which buyers the incentive is for; both ticked is stored as no limit. */
+function PaymentTypesField({ rule, err, onChange }: IncentiveFieldProps) {
+  return (
+    <fieldset className="mt-2 flex flex-wrap items-center gap-4 text-sm">
+      <legend className="sr-only">Payment types</legend>
+      <span className="text-graphite-soft">For</span>
+      {(["cash", "loan"] as const).map((p) => {
+        const list = rule.eligibility.payment;
+        const checked = !list || list.includes(p);
+        return (
+          <label key={p} className="flex min-h-touch items-center gap-2">
+            <input
+              type="checkbox"
+              checked={checked}
+              onChange={(e) =>
+                onChange((r) => {
+                  const current = r.eligibility.payment ?? ["cash", "loan"];
+                  const next = e.target.checked ? [...new Set([...current, p])] : current.filter((x) => x !== p);
+                  r.eligibility.payment = next.length === 2 ? undefined : next;
+                })
+              }
+            />
+            {p === "cash" ? "cash buyers" : "loan buyers"}
+          </label>
+        );
+      })}
+      {err("eligibility.payment") ? <span className="field-error" role="alert">{err("eligibility.payment")}</span> : null}
+    </fieldset>
+  );
+}
+
+/** The sample offer's lines, contract, deposit and where its discount stands against the role's limit. */
+function PriceCheckTable({ price }: { price: OfferPrice }) {
+  return (
+    <table className="mt-3 w-full max-w-2xl text-sm" data-testid="price-check">
+      <tbody className="divide-y divide-paper-line">
+        {price.lines.map((l, i) => (
+          <tr key={i}>
+            <td className="py-1 pr-3">{l.label}</td>
+            <td className="py-1 pr-3 text-graphite-soft">{l.detail}</td>
+            <td className="figure py-1 text-right">{money(l.amountCents)}</td>
+          </tr>
+        ))}
+        <tr className="font-semibold">
+          <td className="py-1 pr-3" colSpan={2}>
+            Contract
+          </td>
+          <td className="figure py-1 text-right" data-testid="price-check-contract">
+            {money(price.contractCents)}
+          </td>
+        </tr>
+        <tr>
+          <td className="py-1 pr-3" colSpan={2}>
+            Deposit at signing
+          </td>
+          <td className="figure py-1 text-right">{money(price.depositCents)}</td>
+        </tr>
+        <tr>
+          <td className="py-1 pr-3" colSpan={3}>
+            {price.discountLimitCents === null
+              ? "No discount limit for this role."
+              : price.discountNeedsApproval
+                ? `Needs office approval: above this role's limit of ${money(price.discountLimitCents)}.`
+                : `Within this role's limit of ${money(price.discountLimitCents)}.`}
+          </td>
+        </tr>
+      </tbody>
+    </table>
+  );
+}
+
+/** When the book was last saved and by whom, and the save button. */
+function SaveBar({ saved, edit, pending, dirty, onSave }: { saved: { at: string | null; by: string | null }; edit: boolean; pending: boolean; dirty: boolean; onSave: () => void }) {
+  return (
+    <div className="flex flex-wrap items-center justify-between gap-3">
+      <p className="text-sm text-graphite-soft" data-testid="price-book-saved">
+        {saved.at ? `Last saved ${formatDateTime(new Date(saved.at))}${saved.by ? ` by ${saved.by}` : ""}.` : "Not set up yet: offers use the starting values below until it is saved."}
+      </p>
+      {edit ? (
+        <button type="button" className="btn-primary" onClick={onSave} disabled={pending}>
+          {pending ? "Saving…" : dirty ? "Save changes" : "Save price book"}
+        </button>
+      ) : null}
+    </div>
+  );
+}
+
+function BandsSection({ doc, edit, err, update }: BookEditor) {
+  return (
+    <Section id="bands" title="Price per watt by system size" hint="The whole system is priced at the rate of the band its DC size falls in. A size exactly on a boundary takes the higher band.">
+      <table className="w-full text-sm">
+        <thead className="text-left text-xs uppercase tracking-wide text-graphite-soft">
+          <tr>
+            <th className="py-1 pr-3">From</th>
+            <th className="py-1 pr-3">Up to (kW DC)</th>
+            <th className="py-1 pr-3">Price ($/W DC)</th>
+            <th className="py-1" />
+          </tr>
+        </thead>
+        <tbody>
+          {doc.bands.map((band, i) => (
+            <BandRow key={i} band={band} i={i} last={i === doc.bands.length - 1} canRemove={edit && doc.bands.length > 1} err={err} update={update} />
+          ))}
+        </tbody>
+      </table>
+      {err("bands") ? <p className="field-error" role="alert">{err("bands")}</p> : null}
+      {edit ? (
+        <button
+          type="button"
+          className="btn-quiet mt-2"
+          onClick={() =>
+            update((d) => {
+              const lastBand = d.bands[d.bands.length - 1];
+              lastBand.maxWatts = lastBand.minWatts + 4_000;
+              d.bands.push({ minWatts: lastBand.maxWatts, maxWatts: null, centsPerWattDc: lastBand.centsPerWattDc });
+            })
+          }
+        >
+          Add a size band
+        </button>
+      ) : null}
+    </Section>
+  );
+}
+
+function AddersSection({ doc, edit, err, update, rename }: BookEditor) {
+  return (
+    <Section id="adders" title="Adders" hint="Equipment and site conditions the rep ticks on an offer: priced per watt DC, per module, or once per job.">
+      {doc.adders.length === 0 ? <p className="text-sm text-graphite-soft">No adders yet.</p> : null}
+      <div className="space-y-2">
+        {doc.adders.map((adder, i) => (
+          <div key={i} className="grid items-start gap-2 md:grid-cols-[2fr_1fr_1fr_auto]" data-testid={`adder-${adder.id}`}>
+            <TextInput id={`adder-${i}-name`} label="Name" value={adder.name} error={err(`adders.${i}.name`) ?? err(`adders.${i}.id`)} onText={(t) => update((d) => rename(d.adders, i, t))} hint={`id: ${adder.id}`} />
+            <div>
+              <label htmlFor={`adder-${i}-kind`} className="field-label">
+                Priced
+              </label>
+              <select
+                id={`adder-${i}-kind`}
+                className="field-input min-h-9 py-1 text-sm"
+                value={adder.kind}
+                onChange={(e) => update((d) => void (d.adders[i] = adderOfKind(e.target.value as AdderKind, adder)))}
+              >
+                {ADDER_KINDS.map((k) => (
+                  <option key={k} value={k}>
+                    {ADDER_KIND_LABELS[k]}
+                  </option>
+                ))}
+              </select>
+            </div>
+            {adder.kind === "per_watt" ? (
+              <NumberInput id={`adder-${i}-amount`} label="$ per watt" scale={100} storedDecimals={2} value={adder.centsPerWattDc} error={err(`adders.${i}.centsPerWattDc`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "per_watt" }>).centsPerWattDc = nn(v)))} />
+            ) : adder.kind === "per_module" ? (
+              <MoneyInput id={`adder-${i}-amount`} label="$ per module" value={adder.centsPerModule} error={err(`adders.${i}.centsPerModule`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "per_module" }>).centsPerModule = nn(v)))} />
+            ) : (
+              <MoneyInput id={`adder-${i}-amount`} label="$ per job" value={adder.amountCents} error={err(`adders.${i}.amountCents`)} onValue={(v) => update((d) => void ((d.adders[i] as Extract<Adder, { kind: "fixed" }>).amountCents = nn(v)))} />
+            )}
+            {edit ? <RemoveButton label={`Remove adder ${adder.name}`} onClick={() => update((d) => void d.adders.splice(i, 1))} /> : null}
+          </div>
+        ))}
+      </div>
+      {edit ? (
+        <button type="button" className="btn-quiet mt-3" onClick={() => update((d) => void d.adders.push({ id: newId("new adder", d.adders.map((a) => a.id)), name: "New adder", kind: "fixed", amountCents: 0 }))}>
+          Add an adder
+        </button>
+      ) : null}
+    </Section>
+  );
+}
+
+function LineItemsSection({ doc, edit, err, update, rename }: BookEditor) {
+  return (
+    <Section id="line-items" title="Line items" hint="Fixed extras added to an offer as their own line.">
+      {doc.lineItems.length === 0 ? <p className="text-sm text-graphite-soft">No line items yet.</p> : null}
+      <div className="space-y-2">
+        {doc.lineItems.map((item, i) => (
+          <div key={i} className="grid items-start gap-2 md:grid-cols-[3fr_1fr_auto]" data-testid={`line-item-${item.id}`}>
+            <TextInput id={`line-${i}-name`} label="Name" value={item.name} error={err(`lineItems.${i}.name`) ?? err(`lineItems.${i}.id`)} onText={(t) => update((d) => rename(d.lineItems, i, t))} hint={`id: ${item.id}`} />
+            <MoneyInput id={`line-${i}-amount`} label="Price ($)" value={item.amountCents} error={err(`lineItems.${i}.amountCents`)} onValue={(v) => update((d) => void (d.lineItems[i].amountCents = nn(v)))} />
+            {edit ? <RemoveButton label={`Remove line item ${item.name}`} onClick={() => update((d) => void d.lineItems.splice(i, 1))} /> : null}
+          </div>
+        ))}
+      </div>
+      {edit ? (
+        <button type="button" className="btn-quiet mt-3" onClick={() => update((d) => void d.lineItems.push({ id: newId("new item", d.lineItems.map((l) => l.id)), name: "New item", amountCents: 0 }))}>
+          Add a line item
+        </button>
+      ) : null}
+    </Section>
+  );
+}
+
+function DiscountsSection({ doc, err, update }: BookEditor) {
+  return (
+    <Section id="discounts" title="Discount limits" hint="The most each role may take off without an office approval, as dollars and/or a percentage of the price before discount. With both, the smaller applies; with neither, every discount needs approval. Owners and admins have no limit.">
+      <div className="grid gap-4 md:grid-cols-2">
+        {LIMITED_ROLES.map((role) => (
+          <div key={role} className="grid grid-cols-2 gap-2" data-testid={`limit-${role}`}>
+            <p className="col-span-2 text-sm font-medium">{ROLE_LABELS[role]}</p>
+            <MoneyInput id={`limit-${role}-cents`} label="Up to ($)" placeholder="no $ limit" value={doc.discountLimits[role].maxCents} error={err(`discountLimits.${role}.maxCents`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxCents = v))} />
+            <PercentInput id={`limit-${role}-pct`} label="Up to (%)" placeholder="no % limit" storedDecimals={2} value={doc.discountLimits[role].maxPct} error={err(`discountLimits.${role}.maxPct`)} onValue={(v) => update((d) => void (d.discountLimits[role].maxPct = v))} />
+          </div>
+        ))}
+      </div>
+    </Section>
+  );
+}
+
+function IncentivesSection({ doc, edit, err, update, rename, ...props }: BookEditor & { today: string }) {
+  return (
+    <Section id="incentives" title="Incentives" hint="Rebates and credits as data, each with its dates: an offer applies a rule only on days within them. Nothing is built in; enter federal, state or utility programs here as they change.">
+      {doc.incentives.length === 0 ? <p className="text-sm text-graphite-soft">No incentives yet.</p> : null}
+      <div className="space-y-3">
+        {doc.incentives.map((rule, i) => (
+          <IncentiveEditor
+            key={i}
+            index={i}
+            rule={rule}
+            today={props.today}
+            err={(p) => err(`incentives.${i}.${p}`)}
+            edit={edit}
+            onChange={(change) => update((d) => change(d.incentives[i]))}
+            onRename={(name) => update((d) => rename(d.incentives, i, name))}
+            onRemove={() => update((d) => void d.incentives.splice(i, 1))}
+          />
+        ))}
+      </div>
+      {edit ? (
+        <button
+          type="button"
+          className="btn-quiet mt-3"
+          onClick={() =>
+            update((d) =>
+              void d.incentives.push({
+                id: newId("new incentive", d.incentives.map((r) => r.id)),
+                name: "New incentive",
+                source: "utility",
+                countsOn: "offer",
+                amount: { kind: "fixed", amountCents: 0 },
+                startDate: props.today,
+                endDate: `${Number(props.today.slice(0, 4)) + 1}-12-31`,
+                timing: "upfront",
+                eligibility: {},
+              }),
+            )
+          }
+        >
+          Add an incentive
+        </button>
+      ) : null}
+    </Section>
+  );
+}
+
+function DepositSection({ doc, err, update }: BookEditor) {
+  return (
+    <Section id="deposit" title="Deposit" hint="Asked when the customer signs; never more than the contract.">
+      <RadioGroup
+        name="deposit-kind"
+        label="Deposit kind"
+        options={[
+          ["fixed", "A fixed amount"],
+          ["percent", "A percentage of the contract"],
+        ]}
+        value={doc.deposit.kind}
+        onChange={(kind) =>
+          update((d) => void (d.deposit = kind === "fixed" ? { kind: "fixed", amountCents: 50_000 } : { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 }))
+        }
+      />
+      {doc.deposit.kind === "fixed" ? (
+        <MoneyInput id="deposit-amount" className="mt-2 max-w-48" label="Deposit ($)" value={doc.deposit.amountCents} error={err("deposit.amountCents")} onValue={(v) => update((d) => void (d.deposit.kind === "fixed" && (d.deposit.amountCents = nn(v))))} />
+      ) : (
+        <div className="mt-2 grid max-w-xl grid-cols-3 gap-2">
+          <PercentInput id="deposit-pct" label="Percent (%)" storedDecimals={2} value={doc.deposit.pct} error={err("deposit.pct")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.pct = nn(v))))} />
+          <MoneyInput id="deposit-min" label="At least ($)" value={doc.deposit.minCents} error={err("deposit.minCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.minCents = nn(v))))} />
+          <MoneyInput id="deposit-max" label="At most ($)" value={doc.deposit.maxCents} error={err("deposit.maxCents")} onValue={(v) => update((d) => void (d.deposit.kind === "percent" && (d.deposit.maxCents = nn(v))))} />
+        </div>
+      )}
+    </Section>
   );
 }

@@ -24,6 +24,11 @@ const money = (cents: number) => `$${(cents / 100).toLocaleString("en-US", { min
 const hh = (h: number) => `${String(h).padStart(2, "0")}:00`;
 const nn = (v: number | null) => v ?? Number.NaN;
 
+/** What each card of the editor needs: the record on screen, whether it may change, its errors, and the way to change it. */
+type PlanEditorProps = { record: EditorRecord; canEdit: boolean; err: (path: string) => string | undefined; update: (change: (draft: EditorRecord) => void) => void };
+type TouProps = { energy: Tou; err: (p: string) => string | undefined; canEdit: boolean; update: (f: (e: Tou) => void) => void };
+type SeasonProps = TouProps & { s: number; season: Season; periodOptions: { id: string; label: string }[]; byHour: Uint8Array | null };
+
 export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; initial: EditorRecord; canEdit: boolean }) {
   const router = useRouter();
   const [record, setRecord] = useState<EditorRecord>(initial);
@@ -67,121 +72,14 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
     <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="space-y-6">
         <StatusMessage notice={notice} />
-        {errorList.length > 0 ? (
-          <ul className="rounded-md border border-danger/30 bg-danger-light px-4 py-2 text-sm text-danger" aria-label="Problems">
-            {errorList.map(([path, message]) => (
-              <li key={path}>
-                <span className="figure">{path.replace(/^plan\./, "")}</span>: {message}
-              </li>
-            ))}
-          </ul>
-        ) : null}
+        {errorList.length > 0 ? <ProblemList errorList={errorList} /> : null}
         <fieldset disabled={!canEdit || pending} className="space-y-6">
           <legend className="sr-only">Rate plan</legend>
-          <Card title="Plan">
-            <div className="grid gap-3 md:grid-cols-2">
-              <TextField id="plan-utility" label="Utility" value={record.utilityName} error={errors.utilityName} onText={(t) => update((d) => void (d.utilityName = t))} />
-              <TextField id="plan-name" label="Plan name" value={plan.name} error={err("name")} onText={(t) => update((d) => void (d.plan.name = t))} />
-              <MoneyInput id="plan-fixed" label="Fixed charge ($ / month)" value={plan.fixedMonthlyCents} error={err("fixedMonthlyCents")} onValue={(v) => update((d) => void (d.plan.fixedMonthlyCents = nn(v)))} />
-              <MoneyInput id="plan-minimum" label="Minimum bill ($ / month, fixed charge included)" value={plan.minimumBillCents} error={err("minimumBillCents")} onValue={(v) => update((d) => void (d.plan.minimumBillCents = nn(v)))} />
-            </div>
-            <label className="mt-3 flex min-h-touch items-center gap-2 text-sm">
-              <input type="checkbox" checked={record.active} onChange={(e) => update((d) => void (d.active = e.target.checked))} />
-              In use (reps can pick it for a household)
-            </label>
-          </Card>
+          <PlanCard record={record} canEdit={canEdit} err={err} update={update} utilityError={errors.utilityName} />
 
-          <Card title="Energy charges">
-            <RadioGroup
-              name="energy-kind"
-              label="Energy pricing"
-              options={[
-                ["flat", "Flat"],
-                ["tiered", "Tiered (monthly kWh)"],
-                ["tou", "Time-of-use"],
-              ]}
-              value={plan.energy.kind}
-              onChange={(kind) => update((d) => void (d.plan.energy = energyTemplate(kind)))}
-            />
-            <div className="mt-3">
-              {plan.energy.kind === "flat" ? (
-                <NumberInput
-                  id="flat-price"
-                  className="max-w-48"
-                  label="Price (¢/kWh)"
-                  storedDecimals={4}
-                  value={plan.energy.centsPerKwh}
-                  error={err("energy.centsPerKwh")}
-                  onValue={(v) => update((d) => void (d.plan.energy.kind === "flat" && (d.plan.energy.centsPerKwh = nn(v))))}
-                />
-              ) : plan.energy.kind === "tiered" ? (
-                <TiersEditor energy={plan.energy} err={err} canEdit={canEdit} update={(f) => update((d) => void (d.plan.energy.kind === "tiered" && f(d.plan.energy)))} />
-              ) : (
-                <TouEditor energy={plan.energy} err={err} canEdit={canEdit} update={(f) => update((d) => void (d.plan.energy.kind === "tou" && f(d.plan.energy)))} />
-              )}
-            </div>
-          </Card>
+          <EnergyCard record={record} canEdit={canEdit} err={err} update={update} />
 
-          <Card title="Exported energy">
-            <RadioGroup
-              name="compensation-kind"
-              label="Export compensation"
-              options={[
-                ["net-metering", "Net metering"],
-                ["net-billing", "Net billing"],
-                ["no-export", "No export"],
-              ]}
-              value={plan.compensation.kind}
-              onChange={(kind) => update((d) => void (d.plan.compensation = compensationTemplate(kind)))}
-            />
-            <p className="mt-1 text-sm text-graphite-soft">
-              {plan.compensation.kind === "net-metering"
-                ? "Imports and exports are netted each month (per period on time-of-use); surplus becomes a credit at the retail price. At the annual true-up the year's net surplus kWh is paid at the surplus rate and leftover credit lapses."
-                : plan.compensation.kind === "net-billing"
-                  ? "Every kWh bought is charged at the retail price; every kWh exported earns the export rate as a credit against energy charges. Leftover credit lapses at the true-up."
-                  : "Exported energy earns nothing."}
-            </p>
-            {plan.compensation.kind !== "no-export" ? (
-              <div className="mt-3 grid gap-3 md:grid-cols-2">
-                <div>
-                  <label htmlFor="true-up-month" className="field-label">
-                    True-up at the end of
-                  </label>
-                  <select
-                    id="true-up-month"
-                    className="field-input"
-                    value={plan.compensation.trueUpMonth}
-                    onChange={(e) => update((d) => void (d.plan.compensation.kind !== "no-export" && (d.plan.compensation.trueUpMonth = Number(e.target.value))))}
-                  >
-                    {MONTH_LONG.map((m, i) => (
-                      <option key={m} value={i + 1}>
-                        {m}
-                      </option>
-                    ))}
-                  </select>
-                </div>
-                {plan.compensation.kind === "net-metering" ? (
-                  <NumberInput
-                    id="surplus-rate"
-                    label="Surplus paid at true-up (¢/kWh)"
-                    storedDecimals={4}
-                    value={plan.compensation.surplusCentsPerKwh}
-                    error={err("compensation.surplusCentsPerKwh")}
-                    onValue={(v) => update((d) => void (d.plan.compensation.kind === "net-metering" && (d.plan.compensation.surplusCentsPerKwh = nn(v))))}
-                  />
-                ) : (
-                  <NumberInput
-                    id="export-rate"
-                    label="Export credit (¢/kWh)"
-                    storedDecimals={4}
-                    value={plan.compensation.exportCentsPerKwh}
-                    error={err("compensation.exportCentsPerKwh")}
-                    onValue={(v) => update((d) => void (d.plan.compensation.kind === "net-billing" && (d.plan.compensation.exportCentsPerKwh = nn(v))))}
-                  />
-                )}
-              </div>
-            ) : null}
-          </Card>
+          <ExportCard record={record} canEdit={canEdit} err={err} update={update} />
         </fieldset>
         {canEdit ? (
           <button type="button" className="btn-primary" onClick={save} disabled={pending}>
@@ -251,7 +149,7 @@ function TiersEditor({ energy, err, canEdit, update }: { energy: Extract<RatePla
   );
 }
 
-function TouEditor({ energy, err, canEdit, update }: { energy: Tou; err: (p: string) => string | undefined; canEdit: boolean; update: (f: (e: Tou) => void) => void }) {
+function TouEditor({ energy, err, canEdit, update }: TouProps) {
   const periodOptions = energy.periods.map((p) => ({ id: p.id, label: p.label || p.id }));
   const parsed = useMemo(() => {
     const r = ratePlanSchema.shape.energy.safeParse(energy);
@@ -261,116 +159,14 @@ function TouEditor({ energy, err, canEdit, update }: { energy: Tou; err: (p: str
 
   return (
     <div className="space-y-4">
-      <div>
-        <h3 className="text-sm font-semibold">Periods</h3>
-        <div className="mt-1 space-y-2">
-          {energy.periods.map((p, i) => (
-            <div key={p.id} className="grid items-end gap-2 md:grid-cols-[auto_2fr_1fr_auto]" data-testid={`period-${i}`}>
-              <span className={`mb-3 inline-block h-4 w-4 rounded-sm ${PERIOD_COLORS[i % PERIOD_COLORS.length]}`} aria-hidden />
-              <TextField id={`period-${i}-label`} label="Name" value={p.label ?? ""} error={err(`energy.periods.${i}.label`) ?? err(`energy.periods.${i}.id`)} onText={(t) => update((e) => void (e.periods[i].label = t))} />
-              <NumberInput id={`period-${i}-price`} label="Price (¢/kWh)" storedDecimals={4} value={p.centsPerKwh} error={err(`energy.periods.${i}.centsPerKwh`)} onValue={(v) => update((e) => void (e.periods[i].centsPerKwh = nn(v)))} />
-              {canEdit && energy.periods.length > 1 ? (
-                <button type="button" className="btn-quiet min-h-9 px-3" aria-label={`Remove period ${p.label || p.id}`} onClick={() => update((e) => void e.periods.splice(i, 1))}>
-                  Remove
-                </button>
-              ) : null}
-            </div>
-          ))}
-        </div>
-        {canEdit ? (
-          <button
-            type="button"
-            className="btn-quiet mt-2"
-            onClick={() =>
-              update((e) => {
-                let n = e.periods.length + 1;
-                while (e.periods.some((p) => p.id === `period-${n}`)) n++;
-                e.periods.push({ id: `period-${n}`, label: `Period ${n}`, centsPerKwh: 14 });
-              })
-            }
-          >
-            Add a period
-          </button>
-        ) : null}
-      </div>
+      <TouPeriods energy={energy} err={err} canEdit={canEdit} update={update} />
 
       <div>
         <h3 className="text-sm font-semibold">Seasons</h3>
         <p className="text-sm text-graphite-soft">Every month belongs to one season. Hours no range names take the season&apos;s other-hours period; a later range wins where ranges overlap.</p>
         <div className="mt-2 space-y-3">
           {energy.seasons.map((season, s) => (
-            <div key={s} className="rounded-md border border-paper-line p-3" data-testid={`season-${s}`}>
-              <div className="grid items-end gap-2 md:grid-cols-[2fr_2fr_auto]">
-                <TextField id={`season-${s}-name`} label="Season" value={season.name} error={err(`energy.seasons.${s}.name`)} onText={(t) => update((e) => void (e.seasons[s].name = t))} />
-                <PeriodSelect id={`season-${s}-other`} label="Other hours" value={season.otherHoursPeriodId} options={periodOptions} error={err(`energy.seasons.${s}.otherHoursPeriodId`)} onPick={(v) => update((e) => void (e.seasons[s].otherHoursPeriodId = v))} />
-                {canEdit && energy.seasons.length > 1 ? (
-                  <button type="button" className="btn-quiet min-h-9 px-3" aria-label={`Remove season ${season.name}`} onClick={() => update((e) => void e.seasons.splice(s, 1))}>
-                    Remove
-                  </button>
-                ) : null}
-              </div>
-              <fieldset className="mt-2">
-                <legend className="field-label">Months</legend>
-                <div className="flex flex-wrap gap-1">
-                  {ALL_MONTHS.map((m) => {
-                    const on = season.months.includes(m);
-                    return (
-                      <label key={m} className={`flex min-h-9 cursor-pointer items-center gap-1 rounded border px-2 text-sm ${on ? "border-copper bg-copper-light" : "border-paper-line bg-white"}`}>
-                        <input
-                          type="checkbox"
-                          className="sr-only"
-                          checked={on}
-                          onChange={(ev) =>
-                            update((e) => {
-                              const months = e.seasons[s].months.filter((x) => x !== m);
-                              e.seasons[s].months = ev.target.checked ? [...months, m].sort((a, b) => a - b) : months;
-                            })
-                          }
-                        />
-                        {MONTH_NAMES[m - 1]}
-                      </label>
-                    );
-                  })}
-                </div>
-                {[err(`energy.seasons.${s}.months`), ...season.months.map((_, i) => err(`energy.seasons.${s}.months.${i}`))]
-                  .filter((v): v is string => Boolean(v))
-                  .map((v) => (
-                    <p key={v} className="field-error text-xs" role="alert">
-                      {v}
-                    </p>
-                  ))}
-              </fieldset>
-              {(["weekday", "weekend"] as const).map((dayType) => (
-                <div key={dayType} className="mt-3">
-                  <div className="flex items-center gap-3">
-                    <h4 className="text-sm font-medium">{dayType === "weekday" ? "Weekdays (Mon–Fri)" : "Weekends (Sat–Sun)"}</h4>
-                    {byHour ? <HourStrip hours={dayHours(byHour, season.months[0], dayType)} periods={energy.periods.map((p) => p.label || p.id)} /> : null}
-                  </div>
-                  {season[dayType].length === 0 ? <p className="text-xs text-graphite-soft">All hours: other hours period.</p> : null}
-                  {season[dayType].map((range, r) => (
-                    <RangeRow
-                      key={r}
-                      id={`season-${s}-${dayType}-${r}`}
-                      range={range}
-                      options={periodOptions}
-                      canEdit={canEdit}
-                      err={(p) => err(`energy.seasons.${s}.${dayType}.${r}.${p}`)}
-                      onChange={(f) => update((e) => f(e.seasons[s][dayType][r]))}
-                      onRemove={() => update((e) => void e.seasons[s][dayType].splice(r, 1))}
-                    />
-                  ))}
-                  {canEdit ? (
-                    <button
-                      type="button"
-                      className="btn-quiet mt-1 min-h-9 px-3"
-                      onClick={() => update((e) => void e.seasons[s][dayType].push({ startHour: 16, endHour: 21, periodId: e.periods[0].id }))}
-                    >
-                      Add {dayType} hours
-                    </button>
-                  ) : null}
-                </div>
-              ))}
-            </div>
+            <SeasonCard key={s} s={s} season={season} energy={energy} periodOptions={periodOptions} byHour={byHour} canEdit={canEdit} err={err} update={update} />
           ))}
         </div>
         {err("energy.seasons") ? (
@@ -532,26 +328,7 @@ function Preview({ plan }: { plan: RatePlan }) {
               </dd>
             </div>
           </dl>
-          <table className="mt-3 w-full text-sm">
-            <thead className="text-left text-xs uppercase tracking-wide text-graphite-soft">
-              <tr>
-                <th className="py-1">Month</th>
-                <th className="py-1 text-right">Bill</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-paper-line">
-              {result.bill.months.map((m, i) => (
-                <tr key={m.month} className={i === month ? "bg-paper-deep" : undefined}>
-                  <td className="py-0.5">
-                    <button type="button" className="text-left hover:underline" aria-pressed={i === month} onClick={() => setMonth(i)}>
-                      {MONTH_LONG[i]}
-                    </button>
-                  </td>
-                  <td className="figure py-0.5 text-right">{money(m.totalCents)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <BillMonths bill={result.bill} month={month} onPick={setMonth} />
           <h3 className="mt-4 text-sm font-semibold">{MONTH_LONG[month]} in detail</h3>
           <table className="mt-1 w-full text-sm" data-testid="preview-lines">
             <tbody className="divide-y divide-paper-line">
@@ -602,5 +379,296 @@ function TextField(props: { id: string; label: string; value: string; onText: (t
         </p>
       ) : null}
     </div>
+  );
+}
+
+/** A season's hour ranges for weekdays or for weekends, with the periods they make on the month's first such day. */
+function DayTypeHours({ dayType, s, season, energy, periodOptions, byHour, canEdit, err, update }: SeasonProps & { dayType: "weekday" | "weekend" }) {
+  return (
+    <div className="mt-3">
+      <div className="flex items-center gap-3">
+        <h4 className="text-sm font-medium">{dayType === "weekday" ? "Weekdays (Mon–Fri)" : "Weekends (Sat–Sun)"}</h4>
+        {byHour ? <HourStrip hours={dayHours(byHour, season.months[0], dayType)} periods={energy.periods.map((p) => p.label || p.id)} /> : null}
+      </div>
+      {season[dayType].length === 0 ? <p className="text-xs text-graphite-soft">All hours: other hours period.</p> : null}
+      {season[dayType].map((range, r) => (
+        <RangeRow
+          key={r}
+          id={`season-${s}-${dayType}-${r}`}
+          range={range}
+          options={periodOptions}
+          canEdit={canEdit}
+          err={(p) => err(`energy.seasons.${s}.${dayType}.${r}.${p}`)}
+          onChange={(f) => update((e) => f(e.seasons[s][dayType][r]))}
+          onRemove={() => update((e) => void e.seasons[s][dayType].splice(r, 1))}
+        />
+      ))}
+      {canEdit ? (
+        <button
+          type="button"
+          className="btn-quiet mt-1 min-h-9 px-3"
+          onClick={() => update((e) => void e.seasons[s][dayType].push({ startHour: 16, endHour: 21, periodId: e.periods[0].id }))}
+        >
+          Add {dayType} hours
+        </button>
+      ) : null}
+    </div>
+  );
+}
+
+/** The months a season covers, as toggles. */
+function SeasonMonths({ s, season, err, update }: { s: number; season: Season; err: TouProps["err"]; update: TouProps["update"] }) {
+  return (
+    <fieldset className="mt-2">
+      <legend className="field-label">Months</legend>
+      <div className="flex flex-wrap gap-1">
+        {ALL_MONTHS.map((m) => {
+          const on = season.months.includes(m);
+          return (
+            <label key={m} className={`flex min-h-9 cursor-pointer items-center gap-1 rounded border px-2 text-sm ${on ? "border-copper bg-copper-light" : "border-paper-line bg-white"}`}>
+              <input
+                type="checkbox"
+                className="sr-only"
+                checked={on}
+                onChange={(ev) =>
+                  update((e) => {
+                    const months = e.seasons[s].months.filter((x) => x !== m);
+                    e.seasons[s].months = ev.target.checked ? [...months, m].sort((a, b) => a - b) : months;
+                  })
+                }
+              />
+              {MONTH_NAMES[m - 1]}
+            </label>
+          );
+        })}
+      </div>
+      {[err(`energy.seasons.${s}.months`), ...season.months.map((_, i) => err(`energy.seasons.${s}.months.${i}`))]
+        .filter((v): v is string => Boolean(v))
+        .map((v) => (
+          <p key={v} className="field-error text-xs" role="alert">
+            {v}
+          </p>
+        ))}
+    </fieldset>
+  );
+}
+
+/** Every field error at once, named by its path in the plan. */
+function ProblemList({ errorList }: { errorList: [string, string][] }) {
+  return (
+    <ul className="rounded-md border border-danger/30 bg-danger-light px-4 py-2 text-sm text-danger" aria-label="Problems">
+      {errorList.map(([path, message]) => (
+        <li key={path}>
+          <span className="figure">{path.replace(/^plan\./, "")}</span>: {message}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+function PlanCard({ record, err, update, utilityError }: PlanEditorProps & { utilityError: string | undefined }) {
+  const plan = record.plan;
+  return (
+    <Card title="Plan">
+      <div className="grid gap-3 md:grid-cols-2">
+        <TextField id="plan-utility" label="Utility" value={record.utilityName} error={utilityError} onText={(t) => update((d) => void (d.utilityName = t))} />
+        <TextField id="plan-name" label="Plan name" value={plan.name} error={err("name")} onText={(t) => update((d) => void (d.plan.name = t))} />
+        <MoneyInput id="plan-fixed" label="Fixed charge ($ / month)" value={plan.fixedMonthlyCents} error={err("fixedMonthlyCents")} onValue={(v) => update((d) => void (d.plan.fixedMonthlyCents = nn(v)))} />
+        <MoneyInput id="plan-minimum" label="Minimum bill ($ / month, fixed charge included)" value={plan.minimumBillCents} error={err("minimumBillCents")} onValue={(v) => update((d) => void (d.plan.minimumBillCents = nn(v)))} />
+      </div>
+      <label className="mt-3 flex min-h-touch items-center gap-2 text-sm">
+        <input type="checkbox" checked={record.active} onChange={(e) => update((d) => void (d.active = e.target.checked))} />
+        In use (reps can pick it for a household)
+      </label>
+    </Card>
+  );
+}
+
+/** How imported energy is priced: flat, tiered by monthly use, or by time of use. */
+function EnergyCard({ record, canEdit, err, update }: PlanEditorProps) {
+  const plan = record.plan;
+  return (
+    <Card title="Energy charges">
+      <RadioGroup
+        name="energy-kind"
+        label="Energy pricing"
+        options={[
+          ["flat", "Flat"],
+          ["tiered", "Tiered (monthly kWh)"],
+          ["tou", "Time-of-use"],
+        ]}
+        value={plan.energy.kind}
+        onChange={(kind) => update((d) => void (d.plan.energy = energyTemplate(kind)))}
+      />
+      <div className="mt-3">
+        {plan.energy.kind === "flat" ? (
+          <NumberInput
+            id="flat-price"
+            className="max-w-48"
+            label="Price (¢/kWh)"
+            storedDecimals={4}
+            value={plan.energy.centsPerKwh}
+            error={err("energy.centsPerKwh")}
+            onValue={(v) => update((d) => void (d.plan.energy.kind === "flat" && (d.plan.energy.centsPerKwh = nn(v))))}
+          />
+        ) : plan.energy.kind === "tiered" ? (
+          <TiersEditor energy={plan.energy} err={err} canEdit={canEdit} update={(f) => update((d) => void (d.plan.energy.kind === "tiered" && f(d.plan.energy)))} />
+        ) : (
+          <TouEditor energy={plan.energy} err={err} canEdit={canEdit} update={(f) => update((d) => void (d.plan.energy.kind === "tou" && f(d.plan.energy)))} />
+        )}
+      </div>
+    </Card>
+  );
+}
+
+/** How exported energy is credited, and when the year is trued up. */
+function ExportCard({ record, err, update }: PlanEditorProps) {
+  const plan = record.plan;
+  return (
+    <Card title="Exported energy">
+      <RadioGroup
+        name="compensation-kind"
+        label="Export compensation"
+        options={[
+          ["net-metering", "Net metering"],
+          ["net-billing", "Net billing"],
+          ["no-export", "No export"],
+        ]}
+        value={plan.compensation.kind}
+        onChange={(kind) => update((d) => void (d.plan.compensation = compensationTemplate(kind)))}
+      />
+      <p className="mt-1 text-sm text-graphite-soft">
+        {plan.compensation.kind === "net-metering"
+          ? "Imports and exports are netted each month (per period on time-of-use); surplus becomes a credit at the retail price. At the annual true-up the year's net surplus kWh is paid at the surplus rate and leftover credit lapses."
+          : plan.compensation.kind === "net-billing"
+            ? "Every kWh bought is charged at the retail price; every kWh exported earns the export rate as a credit against energy charges. Leftover credit lapses at the true-up."
+            : "Exported energy earns nothing."}
+      </p>
+      {plan.compensation.kind !== "no-export" ? (
+        <div className="mt-3 grid gap-3 md:grid-cols-2">
+          <div>
+            <label htmlFor="true-up-month" className="field-label">
+              True-up at the end of
+            </label>
+            <select
+              id="true-up-month"
+              className="field-input"
+              value={plan.compensation.trueUpMonth}
+              onChange={(e) => update((d) => void (d.plan.compensation.kind !== "no-export" && (d.plan.compensation.trueUpMonth = Number(e.target.value))))}
+            >
+              {MONTH_LONG.map((m, i) => (
+                <option key={m} value={i + 1}>
+                  {m}
+                </option>
+              ))}
+            </select>
+          </div>
+          {plan.compensation.kind === "net-metering" ? (
+            <NumberInput
+              id="surplus-rate"
+              label="Surplus paid at true-up (¢/kWh)"
+              storedDecimals={4}
+              value={plan.compensation.surplusCentsPerKwh}
+              error={err("compensation.surplusCentsPerKwh")}
+              onValue={(v) => update((d) => void (d.plan.compensation.kind === "net-metering" && (d.plan.compensation.surplusCentsPerKwh = nn(v))))}
+            />
+          ) : (
+            <NumberInput
+              id="export-rate"
+              label="Export credit (¢/kWh)"
+              storedDecimals={4}
+              value={plan.compensation.exportCentsPerKwh}
+              error={err("compensation.exportCentsPerKwh")}
+              onValue={(v) => update((d) => void (d.plan.compensation.kind === "net-billing" && (d.plan.compensation.exportCentsPerKwh = nn(v))))}
+            />
+          )}
+        </div>
+      ) : null}
+    </Card>
+  );
+}
+
+/** The plan's time-of-use periods, each with its price. */
+function TouPeriods({ energy, err, canEdit, update }: TouProps) {
+  return (
+    <div>
+      <h3 className="text-sm font-semibold">Periods</h3>
+      <div className="mt-1 space-y-2">
+        {energy.periods.map((p, i) => (
+          <div key={p.id} className="grid items-end gap-2 md:grid-cols-[auto_2fr_1fr_auto]" data-testid={`period-${i}`}>
+            <span className={`mb-3 inline-block h-4 w-4 rounded-sm ${PERIOD_COLORS[i % PERIOD_COLORS.length]}`} aria-hidden />
+            <TextField id={`period-${i}-label`} label="Name" value={p.label ?? ""} error={err(`energy.periods.${i}.label`) ?? err(`energy.periods.${i}.id`)} onText={(t) => update((e) => void (e.periods[i].label = t))} />
+            <NumberInput id={`period-${i}-price`} label="Price (¢/kWh)" storedDecimals={4} value={p.centsPerKwh} error={err(`energy.periods.${i}.centsPerKwh`)} onValue={(v) => update((e) => void (e.periods[i].centsPerKwh = nn(v)))} />
+            {canEdit && energy.periods.length > 1 ? (
+              <button type="button" className="btn-quiet min-h-9 px-3" aria-label={`Remove period ${p.label || p.id}`} onClick={() => update((e) => void e.periods.splice(i, 1))}>
+                Remove
+              </button>
+            ) : null}
+          </div>
+        ))}
+      </div>
+      {canEdit ? (
+        <button
+          type="button"
+          className="btn-quiet mt-2"
+          onClick={() =>
+            update((e) => {
+              let n = e.periods.length + 1;
+              while (e.periods.some((p) => p.id === `period-${n}`)) n++;
+              e.periods.push({ id: `period-${n}`, label: `Period ${n}`, centsPerKwh: 14 });
+            })
+          }
+        >
+          Add a period
+        </button>
+      ) : null}
+    </div>
+  );
+}
+
+/** One season: its name, other-hours period, months, and weekday and weekend hours. */
+function SeasonCard({ s, season, energy, periodOptions, byHour, canEdit, err, update }: SeasonProps) {
+  return (
+    <div className="rounded-md border border-paper-line p-3" data-testid={`season-${s}`}>
+      <div className="grid items-end gap-2 md:grid-cols-[2fr_2fr_auto]">
+        <TextField id={`season-${s}-name`} label="Season" value={season.name} error={err(`energy.seasons.${s}.name`)} onText={(t) => update((e) => void (e.seasons[s].name = t))} />
+        <PeriodSelect id={`season-${s}-other`} label="Other hours" value={season.otherHoursPeriodId} options={periodOptions} error={err(`energy.seasons.${s}.otherHoursPeriodId`)} onPick={(v) => update((e) => void (e.seasons[s].otherHoursPeriodId = v))} />
+        {canEdit && energy.seasons.length > 1 ? (
+          <button type="button" className="btn-quiet min-h-9 px-3" aria-label={`Remove season ${season.name}`} onClick={() => update((e) => void e.seasons.splice(s, 1))}>
+            Remove
+          </button>
+        ) : null}
+      </div>
+      <SeasonMonths s={s} season={season} err={err} update={update} />
+      {(["weekday", "weekend"] as const).map((dayType) => (
+        <DayTypeHours key={dayType} dayType={dayType} s={s} season={season} energy={energy} periodOptions={periodOptions} byHour={byHour} canEdit={canEdit} err={err} update={update} />
+      ))}
+    </div>
+  );
+}
+
+/** The sample year's bill month by month; picking a month shows its lines below. */
+function BillMonths({ bill, month, onPick }: { bill: AnnualBill; month: number; onPick: (month: number) => void }) {
+  return (
+    <table className="mt-3 w-full text-sm">
+      <thead className="text-left text-xs uppercase tracking-wide text-graphite-soft">
+        <tr>
+          <th className="py-1">Month</th>
+          <th className="py-1 text-right">Bill</th>
+        </tr>
+      </thead>
+      <tbody className="divide-y divide-paper-line">
+        {bill.months.map((m, i) => (
+          <tr key={m.month} className={i === month ? "bg-paper-deep" : undefined}>
+            <td className="py-0.5">
+              <button type="button" className="text-left hover:underline" aria-pressed={i === month} onClick={() => onPick(i)}>
+                {MONTH_LONG[i]}
+              </button>
+            </td>
+            <td className="figure py-0.5 text-right">{money(m.totalCents)}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }

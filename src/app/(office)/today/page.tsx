@@ -7,10 +7,12 @@ import { daysSince, formatCents, formatDate, formatDateTime, formatKwFromWatts }
 import { listPendingDiscountRequests } from "@/server/offers";
 import { listPendingInvitations } from "@/server/people";
 import { getMember } from "@/server/session";
-import { getTodayQueues, getTodaySummary, type CrewVisit, type StalledDeal } from "@/server/today";
+import { getTodayQueues, getTodaySummary, type CrewVisit, type StalledDeal, type TodayQueues, type TodaySummary } from "@/server/today";
 import { QueueItem, QueueSection } from "./queue-section";
 
 export const metadata: Metadata = { title: "Today" };
+
+type PendingDiscount = Awaited<ReturnType<typeof listPendingDiscountRequests>>[number];
 
 const linkClass = "font-medium underline-offset-2 hover:text-copper hover:underline";
 const day = (iso: string) => formatDate(new Date(`${iso}T00:00:00Z`));
@@ -52,43 +54,7 @@ export default async function TodayPage() {
   const q = await getTodayQueues(member);
 
   if (member.role === "crew") {
-    const crew = q.crew ?? { crewId: null, today: [], thisWeek: [] };
-    return (
-      <>
-        <h1 className="text-2xl font-semibold">Good day, {first}</h1>
-        <p className="mt-1 text-graphite-soft">{day(q.today)}</p>
-        {crew.crewId ? (
-          <>
-            <QueueSection id="crew-today" title="Your jobs today" total={crew.today.length} shown={crew.today.length} empty="Nothing is booked for your crew today.">
-              {crew.today.map((v) => (
-                <VisitItem key={`${v.jobId}-${v.kind}`} v={v} withDate={false} />
-              ))}
-            </QueueSection>
-            <QueueSection
-              id="crew-week"
-              title="This week"
-              total={crew.thisWeek.length}
-              shown={crew.thisWeek.length}
-              empty="Nothing else is booked for your crew in the next six days."
-            >
-              {crew.thisWeek.map((v) => (
-                <VisitItem key={`${v.jobId}-${v.kind}-${v.date}`} v={v} withDate />
-              ))}
-            </QueueSection>
-            <Link href="/jobs" className="mt-4 inline-block text-sm text-copper underline-offset-2 hover:underline">
-              All your crew&apos;s jobs
-            </Link>
-          </>
-        ) : (
-          <section className="card mt-6 p-5">
-            <h2 className="font-semibold">Your jobs</h2>
-            <p className="mt-1 text-graphite-soft">
-              You are not on a crew yet, so no jobs reach you here. The office adds you to a crew; its jobs then show here with their dates.
-            </p>
-          </section>
-        )}
-      </>
-    );
+    return <CrewToday first={first} today={q.today} crew={q.crew ?? { crewId: null, today: [], thisWeek: [] }} />;
   }
 
   const office = can(member.role, "deals:read-all");
@@ -99,8 +65,6 @@ export default async function TodayPage() {
   ]);
   const approver = can(member.role, "discounts:approve");
   const scope = office ? "The company's deals" : "Your deals";
-  const now = new Date();
-
   return (
     <>
       <h1 className="text-2xl font-semibold">Good day, {first}</h1>
@@ -109,65 +73,11 @@ export default async function TodayPage() {
         signed and priced contracts.
       </p>
 
-      {discounts.length > 0 ? (
-        <QueueSection
-          id="pending-discounts"
-          title={approver ? "Discounts waiting for your decision" : "Your discounts waiting for the office"}
-          total={discounts.length}
-          shown={discounts.length}
-          tone="caution"
-        >
-          {discounts.map((d) => (
-            <QueueItem key={d.id} aside={<span className="figure text-graphite">{formatCents(d.amountCents)}</span>}>
-              <Link href={`/deals/${d.dealId}/offers`} className={linkClass}>
-                {d.householdName}
-              </Link>
-              <span className="block text-sm text-graphite-soft">
-                {d.offerName} · asked by {d.requestedByName ?? "a former colleague"}: “{d.reason}”
-              </span>
-            </QueueItem>
-          ))}
-        </QueueSection>
-      ) : null}
+      <DiscountsWaiting discounts={discounts} approver={approver} />
 
-      {q.questions ? (
-        <QueueSection id="customer-questions" title="Questions from your customers" total={q.questions.total} shown={q.questions.items.length} tone="caution">
-          {q.questions.items.map((x) => (
-            <QueueItem key={x.eventId} aside={formatDateTime(x.askedAt)}>
-              <Link href={`/deals/${x.dealId}/proposal`} className={linkClass}>
-                {x.householdName}
-              </Link>
-              <span className="block max-w-xl text-sm text-graphite-soft">
-                Proposal <span className="figure">{x.proposalNumber}</span>: “{x.body.length > 200 ? `${x.body.slice(0, 199)}…` : x.body}”
-              </span>
-            </QueueItem>
-          ))}
-        </QueueSection>
-      ) : null}
+      <QuestionsQueue questions={q.questions} />
 
-      {q.proposalsOpened ? (
-        <QueueSection id="proposals-opened" title="Proposals opened, not signed" total={q.proposalsOpened.total} shown={q.proposalsOpened.items.length}>
-          {q.proposalsOpened.items.map((p) => (
-            <QueueItem
-              key={p.proposalId}
-              aside={
-                <>
-                  opened {formatDate(p.firstOpenedAt)}
-                  {p.lastViewedAt ? <>, last seen {formatDate(p.lastViewedAt)}</> : null}
-                  {p.expiresAt < now ? <span className="text-danger"> · link expired</span> : <> · link until {formatDate(p.expiresAt)}</>}
-                </>
-              }
-            >
-              <Link href={`/deals/${p.dealId}/proposal`} className={linkClass}>
-                {p.householdName}
-              </Link>
-              <span className="block text-sm text-graphite-soft">
-                Proposal <span className="figure">{p.number}</span>, version <span className="figure">{p.version}</span>
-              </span>
-            </QueueItem>
-          ))}
-        </QueueSection>
-      ) : null}
+      <ProposalsOpenedQueue proposalsOpened={q.proposalsOpened} />
 
       {q.followUps ? (
         <QueueSection id="follow-ups" title="Your follow-ups" total={q.followUps.total} shown={q.followUps.items.length}>
@@ -177,59 +87,11 @@ export default async function TodayPage() {
         </QueueSection>
       ) : null}
 
-      {q.depositsFlagged ? (
-        <QueueSection id="deposits-flagged" title="Deposits flagged" total={q.depositsFlagged.total} shown={q.depositsFlagged.items.length} tone="danger">
-          {q.depositsFlagged.items.map((p) => (
-            <QueueItem key={p.paymentId} aside={<span className="figure text-graphite">{formatCents(p.paidCents ?? p.amountCents)}</span>}>
-              <Link href={`/deals/${p.dealId}/money`} className={linkClass}>
-                {p.householdName}
-              </Link>
-              <span className="block text-sm text-graphite-soft">
-                Asked <span className="figure">{formatCents(p.amountCents)}</span>
-                {p.flagReason ? ` · ${p.flagReason}` : ""}
-              </span>
-            </QueueItem>
-          ))}
-        </QueueSection>
-      ) : null}
+      <DepositsFlaggedQueue depositsFlagged={q.depositsFlagged} />
 
-      {q.refundsDue ? (
-        <QueueSection id="refunds-due" title="Deposits to refund" total={q.refundsDue.total} shown={q.refundsDue.items.length} tone="danger">
-          {q.refundsDue.items.map((p) => (
-            <QueueItem
-              key={p.paymentId}
-              aside={
-                <>
-                  <span className="figure text-graphite">{formatCents((p.paidCents ?? 0) - p.refundedCents)}</span> to refund
-                </>
-              }
-            >
-              <Link href={`/deals/${p.dealId}/money`} className={linkClass}>
-                {p.householdName}
-              </Link>
-              <span className="block text-sm text-graphite-soft">
-                Cancelled; paid <span className="figure">{formatCents(p.paidCents)}</span>, refunded <span className="figure">{formatCents(p.refundedCents)}</span>
-              </span>
-            </QueueItem>
-          ))}
-        </QueueSection>
-      ) : null}
+      <RefundsDueQueue refundsDue={q.refundsDue} />
 
-      {q.jobsToSchedule ? (
-        <QueueSection id="jobs-to-schedule" title="Jobs to schedule" total={q.jobsToSchedule.total} shown={q.jobsToSchedule.items.length}>
-          {q.jobsToSchedule.items.map((j) => (
-            <QueueItem
-              key={j.jobId}
-              aside={[j.installDate ? `install ${day(j.installDate)}` : "no install date", j.hasCrew ? "crew assigned" : "no crew"].join(" · ")}
-            >
-              <Link href={`/jobs/${j.jobId}`} className={linkClass}>
-                {j.householdName}
-              </Link>
-              <span className="block text-sm text-graphite-soft">{j.city}</span>
-            </QueueItem>
-          ))}
-        </QueueSection>
-      ) : null}
+      <JobsToScheduleQueue jobsToSchedule={q.jobsToSchedule} />
 
       {q.stalled ? (
         <QueueSection
@@ -249,6 +111,200 @@ export default async function TodayPage() {
         </QueueSection>
       ) : null}
 
+      <DealSummary summary={summary} />
+      {invitations.length > 0 ? (
+        <section className="mt-8">
+          <h2 className="text-sm font-semibold uppercase tracking-wide text-graphite-soft">Waiting to join</h2>
+          <p className="mt-1 text-graphite-soft">
+            {invitations.length} invitation{invitations.length === 1 ? "" : "s"} not yet accepted.{" "}
+            <Link href="/settings/people" className="text-copper underline-offset-2 hover:underline">
+              People
+            </Link>
+          </p>
+        </section>
+      ) : null}
+    </>
+  );
+}
+
+/** The installer's day: their crew's visits today and in the next six days. */
+function CrewToday({ first, today, crew }: { first: string; today: string; crew: NonNullable<TodayQueues["crew"]> }) {
+  return (
+    <>
+      <h1 className="text-2xl font-semibold">Good day, {first}</h1>
+      <p className="mt-1 text-graphite-soft">{day(today)}</p>
+      {crew.crewId ? (
+        <>
+          <QueueSection id="crew-today" title="Your jobs today" total={crew.today.length} shown={crew.today.length} empty="Nothing is booked for your crew today.">
+            {crew.today.map((v) => (
+              <VisitItem key={`${v.jobId}-${v.kind}`} v={v} withDate={false} />
+            ))}
+          </QueueSection>
+          <QueueSection
+            id="crew-week"
+            title="This week"
+            total={crew.thisWeek.length}
+            shown={crew.thisWeek.length}
+            empty="Nothing else is booked for your crew in the next six days."
+          >
+            {crew.thisWeek.map((v) => (
+              <VisitItem key={`${v.jobId}-${v.kind}-${v.date}`} v={v} withDate />
+            ))}
+          </QueueSection>
+          <Link href="/jobs" className="mt-4 inline-block text-sm text-copper underline-offset-2 hover:underline">
+            All your crew&apos;s jobs
+          </Link>
+        </>
+      ) : (
+        <section className="card mt-6 p-5">
+          <h2 className="font-semibold">Your jobs</h2>
+          <p className="mt-1 text-graphite-soft">
+            You are not on a crew yet, so no jobs reach you here. The office adds you to a crew; its jobs then show here with their dates.
+          </p>
+        </section>
+      )}
+    </>
+  );
+}
+
+/** Discount requests over a rep's limit: the approver's to decide, or the rep's own still waiting. */
+function DiscountsWaiting({ discounts, approver }: { discounts: PendingDiscount[]; approver: boolean }) {
+  if (discounts.length === 0) return null;
+  return (
+    <QueueSection
+      id="pending-discounts"
+      title={approver ? "Discounts waiting for your decision" : "Your discounts waiting for the office"}
+      total={discounts.length}
+      shown={discounts.length}
+      tone="caution"
+    >
+      {discounts.map((d) => (
+        <QueueItem key={d.id} aside={<span className="figure text-graphite">{formatCents(d.amountCents)}</span>}>
+          <Link href={`/deals/${d.dealId}/offers`} className={linkClass}>
+            {d.householdName}
+          </Link>
+          <span className="block text-sm text-graphite-soft">
+            {d.offerName} · asked by {d.requestedByName ?? "a former colleague"}: “{d.reason}”
+          </span>
+        </QueueItem>
+      ))}
+    </QueueSection>
+  );
+}
+
+function QuestionsQueue({ questions }: { questions: TodayQueues["questions"] }) {
+  if (!questions) return null;
+  return (
+    <QueueSection id="customer-questions" title="Questions from your customers" total={questions.total} shown={questions.items.length} tone="caution">
+      {questions.items.map((x) => (
+        <QueueItem key={x.eventId} aside={formatDateTime(x.askedAt)}>
+          <Link href={`/deals/${x.dealId}/proposal`} className={linkClass}>
+            {x.householdName}
+          </Link>
+          <span className="block max-w-xl text-sm text-graphite-soft">
+            Proposal <span className="figure">{x.proposalNumber}</span>: “{x.body.length > 200 ? `${x.body.slice(0, 199)}…` : x.body}”
+          </span>
+        </QueueItem>
+      ))}
+    </QueueSection>
+  );
+}
+
+function ProposalsOpenedQueue({ proposalsOpened }: { proposalsOpened: TodayQueues["proposalsOpened"] }) {
+  if (!proposalsOpened) return null;
+  const now = new Date();
+  return (
+    <QueueSection id="proposals-opened" title="Proposals opened, not signed" total={proposalsOpened.total} shown={proposalsOpened.items.length}>
+      {proposalsOpened.items.map((p) => (
+        <QueueItem
+          key={p.proposalId}
+          aside={
+            <>
+              opened {formatDate(p.firstOpenedAt)}
+              {p.lastViewedAt ? <>, last seen {formatDate(p.lastViewedAt)}</> : null}
+              {p.expiresAt < now ? <span className="text-danger"> · link expired</span> : <> · link until {formatDate(p.expiresAt)}</>}
+            </>
+          }
+        >
+          <Link href={`/deals/${p.dealId}/proposal`} className={linkClass}>
+            {p.householdName}
+          </Link>
+          <span className="block text-sm text-graphite-soft">
+            Proposal <span className="figure">{p.number}</span>, version <span className="figure">{p.version}</span>
+          </span>
+        </QueueItem>
+      ))}
+    </QueueSection>
+  );
+}
+
+function DepositsFlaggedQueue({ depositsFlagged }: { depositsFlagged: TodayQueues["depositsFlagged"] }) {
+  if (!depositsFlagged) return null;
+  return (
+    <QueueSection id="deposits-flagged" title="Deposits flagged" total={depositsFlagged.total} shown={depositsFlagged.items.length} tone="danger">
+      {depositsFlagged.items.map((p) => (
+        <QueueItem key={p.paymentId} aside={<span className="figure text-graphite">{formatCents(p.paidCents ?? p.amountCents)}</span>}>
+          <Link href={`/deals/${p.dealId}/money`} className={linkClass}>
+            {p.householdName}
+          </Link>
+          <span className="block text-sm text-graphite-soft">
+            Asked <span className="figure">{formatCents(p.amountCents)}</span>
+            {p.flagReason ? ` · ${p.flagReason}` : ""}
+          </span>
+        </QueueItem>
+      ))}
+    </QueueSection>
+  );
+}
+
+function RefundsDueQueue({ refundsDue }: { refundsDue: TodayQueues["refundsDue"] }) {
+  if (!refundsDue) return null;
+  return (
+    <QueueSection id="refunds-due" title="Deposits to refund" total={refundsDue.total} shown={refundsDue.items.length} tone="danger">
+      {refundsDue.items.map((p) => (
+        <QueueItem
+          key={p.paymentId}
+          aside={
+            <>
+              <span className="figure text-graphite">{formatCents((p.paidCents ?? 0) - p.refundedCents)}</span> to refund
+            </>
+          }
+        >
+          <Link href={`/deals/${p.dealId}/money`} className={linkClass}>
+            {p.householdName}
+          </Link>
+          <span className="block text-sm text-graphite-soft">
+            Cancelled; paid <span className="figure">{formatCents(p.paidCents)}</span>, refunded <span className="figure">{formatCents(p.refundedCents)}</span>
+          </span>
+        </QueueItem>
+      ))}
+    </QueueSection>
+  );
+}
+
+function JobsToScheduleQueue({ jobsToSchedule }: { jobsToSchedule: TodayQueues["jobsToSchedule"] }) {
+  if (!jobsToSchedule) return null;
+  return (
+    <QueueSection id="jobs-to-schedule" title="Jobs to schedule" total={jobsToSchedule.total} shown={jobsToSchedule.items.length}>
+      {jobsToSchedule.items.map((j) => (
+        <QueueItem
+          key={j.jobId}
+          aside={[j.installDate ? `install ${day(j.installDate)}` : "no install date", j.hasCrew ? "crew assigned" : "no crew"].join(" · ")}
+        >
+          <Link href={`/jobs/${j.jobId}`} className={linkClass}>
+            {j.householdName}
+          </Link>
+          <span className="block text-sm text-graphite-soft">{j.city}</span>
+        </QueueItem>
+      ))}
+    </QueueSection>
+  );
+}
+
+/** Open deals counted by stage, and the ones that moved last. */
+function DealSummary({ summary }: { summary: TodaySummary }) {
+  return (
+    <>
       <section className="mt-8" aria-labelledby="stages-heading">
         <h2 id="stages-heading" className="text-sm font-semibold uppercase tracking-wide text-graphite-soft">
           By stage
@@ -283,17 +339,6 @@ export default async function TodayPage() {
           All deals
         </Link>
       </section>
-      {invitations.length > 0 ? (
-        <section className="mt-8">
-          <h2 className="text-sm font-semibold uppercase tracking-wide text-graphite-soft">Waiting to join</h2>
-          <p className="mt-1 text-graphite-soft">
-            {invitations.length} invitation{invitations.length === 1 ? "" : "s"} not yet accepted.{" "}
-            <Link href="/settings/people" className="text-copper underline-offset-2 hover:underline">
-              People
-            </Link>
-          </p>
-        </section>
-      ) : null}
     </>
   );
 }

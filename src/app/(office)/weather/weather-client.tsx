@@ -1,7 +1,7 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRef, useState } from "react";
-import { useForm } from "react-hook-form";
+import { useRef, useState, type RefObject } from "react";
+import { useForm, type FieldErrors, type UseFormRegister } from "react-hook-form";
 import type { z } from "zod";
 import { EmptyState } from "@/components/ui/empty-state";
 import { describedBy, Field, FieldShell, FormMessage, optionsOf, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
@@ -62,6 +62,8 @@ type StationFormValues = StationFieldsInput;
 const EMPTY: StationFormValues = { name: "", format: "auto", latitude: "", longitude: "", elevationM: "", utcOffsetHours: "", attribution: "" };
 const FORM_FIELDS = ["name", "format", "latitude", "longitude", "elevationM", "utcOffsetHours", "attribution"] as const satisfies readonly (keyof StationFields)[];
 
+type StationFormParts = { register: UseFormRegister<StationFormValues>; errors: FieldErrors<StationFormValues> };
+
 function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => void; error: Notice | null }) {
   const fileRef = useRef<HTMLInputElement>(null);
   const [fileError, setFileError] = useState<string | null>(null);
@@ -93,10 +95,13 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
     },
   });
 
-  const onSubmit = handleSubmit((values) => {
-    notify(null);
+  function clearFileProblems() {
     setFileError(null);
     setFileIssues([]);
+  }
+  const onSubmit = handleSubmit((values) => {
+    notify(null);
+    clearFileProblems();
     const file = fileRef.current?.files?.[0];
     if (!file) return setFileError("Choose a weather file to upload");
     if (file.size > WEATHER_FILE_MAX_BYTES) return setFileError(`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`);
@@ -117,54 +122,13 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
       <form onSubmit={onSubmit} noValidate className="mt-4 space-y-4">
         <StatusMessage notice={error} />
         <div className="grid gap-4 md:grid-cols-[2fr_1.3fr_2fr]">
-          <FieldShell id="station-file" label="Weather file" error={fileError ?? undefined}>
-            <input
-              id="station-file"
-              ref={fileRef}
-              type="file"
-              accept=".epw,.csv,text/csv,text/plain"
-              className="block min-h-touch w-full text-sm file:mr-3 file:min-h-touch file:rounded-md file:border file:border-paper-line file:bg-white file:px-4 file:text-sm file:font-medium"
-              aria-invalid={fileError || fileIssues.length ? true : undefined}
-              aria-describedby={fileIssues.length ? "station-file-issues" : describedBy("station-file", fileError ?? undefined)}
-              onChange={() => {
-                setFileError(null);
-                setFileIssues([]);
-              }}
-            />
-          </FieldShell>
+          <StationFileInput fileRef={fileRef} fileError={fileError} hasIssues={fileIssues.length > 0} onPick={clearFileProblems} />
           <SelectField id="station-format" label="Format" options={optionsOf(WEATHER_FORMAT_CHOICES, WEATHER_FORMAT_LABELS)} {...register("format")} />
           <Field id="station-name" label="Name" autoComplete="off" hint="Empty: the name in the file header." error={errors.name?.message} {...register("name")} />
         </div>
-        {fileIssues.length ? (
-          <div id="station-file-issues" role="alert" className="rounded-md border border-danger/30 bg-danger-light px-3 py-2 text-sm text-danger">
-            <p className="font-medium">Problems in the file{fileIssues.length > 1 ? ` (${fileIssues.length} listed)` : ""}:</p>
-            <ul className="mt-1 max-h-48 list-disc overflow-y-auto pl-5" data-testid="file-issues">
-              {fileIssues.map((issue, i) => (
-                <li key={i}>{issue}</li>
-              ))}
-            </ul>
-          </div>
-        ) : null}
-        <fieldset>
-          <legend className="field-label">Site of the station</legend>
-          <p className="mb-2 text-sm text-graphite-soft">{siteHint}</p>
-          <div className="grid gap-4 sm:grid-cols-2 md:grid-cols-4">
-            <Field id="station-latitude" label="Latitude (° N)" inputMode="decimal" autoComplete="off" error={errors.latitude?.message} {...register("latitude")} />
-            <Field id="station-longitude" label="Longitude (° E, west negative)" inputMode="decimal" autoComplete="off" error={errors.longitude?.message} {...register("longitude")} />
-            <Field id="station-elevation" label="Elevation (m)" inputMode="decimal" autoComplete="off" error={errors.elevationM?.message} {...register("elevationM")} />
-            <Field id="station-utc" label="UTC offset (h, standard time)" inputMode="decimal" autoComplete="off" error={errors.utcOffsetHours?.message} {...register("utcOffsetHours")} />
-          </div>
-        </fieldset>
-        <FieldShell id="station-attribution" label="Attribution" hint="Where the data comes from and its licence; shown beside every estimate. Empty: taken from the file header (or the # lines of an hourly CSV)." error={errors.attribution?.message}>
-          <textarea
-            id="station-attribution"
-            rows={2}
-            className="field-input py-2"
-            aria-invalid={errors.attribution ? true : undefined}
-            aria-describedby={describedBy("station-attribution", errors.attribution?.message, true)}
-            {...register("attribution")}
-          />
-        </FieldShell>
+        {fileIssues.length ? <FileIssues issues={fileIssues} /> : null}
+        <StationSiteFields register={register} errors={errors} hint={siteHint} />
+        <AttributionField register={register} errors={errors} />
         <button type="submit" className="btn-primary" disabled={upload.pending}>
           {upload.pending ? "Checking the file…" : "Check and add station"}
         </button>
@@ -216,63 +180,9 @@ function StationsTable(props: { stations: StationView[]; canManage: boolean; see
             </>
           }
         >
-              {props.stations.map((s) => (
-                <tr key={s.id} data-testid={`station-${s.id}`}>
-                  <Td>
-                    <span className="font-medium">{s.name}</span>
-                    <span className="block text-xs text-graphite-soft">
-                      {FORMAT_NAMES[s.format]} · {s.fileName} · added {formatDate(new Date(s.createdAt))}
-                    </span>
-                  </Td>
-                  <Td className="figure whitespace-nowrap text-xs">
-                    {deg(s.latitude, "N", "S")}, {deg(s.longitude, "E", "W")}
-                    <span className="block text-graphite-soft">
-                      {kwh.format(s.elevationM)} m · {utc(s.utcOffsetHours)}
-                    </span>
-                  </Td>
-                  <Td className="whitespace-nowrap text-right">
-                    <span className="figure">{kwh.format(s.annualGhiKwhPerM2)}</span> <span className="text-xs text-graphite-soft">kWh/m²</span>
-                  </Td>
-                  <Td className="max-w-xs text-xs text-graphite-soft">{s.attribution}</Td>
-                  <Td className="text-xs">
-                    {s.sites.length === 0 ? (
-                      <span className="text-graphite-soft">None</span>
-                    ) : (
-                      <ul className="space-y-0.5">
-                        {s.sites.slice(0, SITES_SHOWN).map((site) => (
-                          <li key={site.householdId}>
-                            {site.name}, {site.city} · <span className="figure">{km(site.distanceKm)}</span>
-                            {site.how === "chosen" ? <span className="text-graphite-soft"> (chosen on the design)</span> : null}
-                          </li>
-                        ))}
-                        {s.sites.length > SITES_SHOWN ? <li className="text-graphite-soft">and {s.sites.length - SITES_SHOWN} more</li> : null}
-                      </ul>
-                    )}
-                  </Td>
-                  {props.canManage ? (
-                    <Td className="whitespace-nowrap text-right">
-                      {s.designCount > 0 ? (
-                        <span className="text-xs text-graphite-soft">
-                          Used by <span className="figure">{s.designCount}</span> {s.designCount === 1 ? "design" : "designs"}
-                        </span>
-                      ) : confirming === s.id ? (
-                        <span className="inline-flex gap-2">
-                          <button type="button" className="btn-danger" disabled={pending} onClick={() => remove.save(s)}>
-                            {pending ? "Deleting…" : "Delete for good"}
-                          </button>
-                          <button type="button" className="btn-quiet" disabled={pending} onClick={() => setConfirming(null)}>
-                            Keep
-                          </button>
-                        </span>
-                      ) : (
-                        <button type="button" className="btn-quiet" aria-label={`Delete ${s.name}`} onClick={() => setConfirming(s.id)}>
-                          Delete
-                        </button>
-                      )}
-                    </Td>
-                  ) : null}
-                </tr>
-              ))}
+          {props.stations.map((s) => (
+            <StationRow key={s.id} station={s} canManage={props.canManage} confirming={confirming} setConfirming={setConfirming} pending={pending} onRemove={remove.save} />
+          ))}
         </TableShell>
       )}
     </section>
@@ -335,5 +245,128 @@ function NearestCheck({ maxDistanceKm }: { maxDistanceKm: number }) {
         ) : null}
       </div>
     </section>
+  );
+}
+
+/** One station: its file, place, yearly sun, attribution, the sites it serves, and (for managers) deleting it when no design uses it. */
+function StationRow({ station: s, canManage, confirming, setConfirming, pending, onRemove }: { station: StationView; canManage: boolean; confirming: string | null; setConfirming: (id: string | null) => void; pending: boolean; onRemove: (station: StationView) => void }) {
+  return (
+    <tr data-testid={`station-${s.id}`}>
+      <Td>
+        <span className="font-medium">{s.name}</span>
+        <span className="block text-xs text-graphite-soft">
+          {FORMAT_NAMES[s.format]} · {s.fileName} · added {formatDate(new Date(s.createdAt))}
+        </span>
+      </Td>
+      <Td className="figure whitespace-nowrap text-xs">
+        {deg(s.latitude, "N", "S")}, {deg(s.longitude, "E", "W")}
+        <span className="block text-graphite-soft">
+          {kwh.format(s.elevationM)} m · {utc(s.utcOffsetHours)}
+        </span>
+      </Td>
+      <Td className="whitespace-nowrap text-right">
+        <span className="figure">{kwh.format(s.annualGhiKwhPerM2)}</span> <span className="text-xs text-graphite-soft">kWh/m²</span>
+      </Td>
+      <Td className="max-w-xs text-xs text-graphite-soft">{s.attribution}</Td>
+      <Td className="text-xs">
+        {s.sites.length === 0 ? (
+          <span className="text-graphite-soft">None</span>
+        ) : (
+          <ul className="space-y-0.5">
+            {s.sites.slice(0, SITES_SHOWN).map((site) => (
+              <li key={site.householdId}>
+                {site.name}, {site.city} · <span className="figure">{km(site.distanceKm)}</span>
+                {site.how === "chosen" ? <span className="text-graphite-soft"> (chosen on the design)</span> : null}
+              </li>
+            ))}
+            {s.sites.length > SITES_SHOWN ? <li className="text-graphite-soft">and {s.sites.length - SITES_SHOWN} more</li> : null}
+          </ul>
+        )}
+      </Td>
+      {canManage ? (
+        <Td className="whitespace-nowrap text-right">
+          {s.designCount > 0 ? (
+            <span className="text-xs text-graphite-soft">
+              Used by <span className="figure">{s.designCount}</span> {s.designCount === 1 ? "design" : "designs"}
+            </span>
+          ) : confirming === s.id ? (
+            <span className="inline-flex gap-2">
+              <button type="button" className="btn-danger" disabled={pending} onClick={() => onRemove(s)}>
+                {pending ? "Deleting…" : "Delete for good"}
+              </button>
+              <button type="button" className="btn-quiet" disabled={pending} onClick={() => setConfirming(null)}>
+                Keep
+              </button>
+            </span>
+          ) : (
+            <button type="button" className="btn-quiet" aria-label={`Delete ${s.name}`} onClick={() => setConfirming(s.id)}>
+              Delete
+            </button>
+          )}
+        </Td>
+      ) : null}
+    </tr>
+  );
+}
+
+/** The weather file picker; a new pick clears the last file's problems. */
+function StationFileInput({ fileRef, fileError, hasIssues, onPick }: { fileRef: RefObject<HTMLInputElement | null>; fileError: string | null; hasIssues: boolean; onPick: () => void }) {
+  return (
+    <FieldShell id="station-file" label="Weather file" error={fileError ?? undefined}>
+      <input
+        id="station-file"
+        ref={fileRef}
+        type="file"
+        accept=".epw,.csv,text/csv,text/plain"
+        className="block min-h-touch w-full text-sm file:mr-3 file:min-h-touch file:rounded-md file:border file:border-paper-line file:bg-white file:px-4 file:text-sm file:font-medium"
+        aria-invalid={fileError || hasIssues ? true : undefined}
+        aria-describedby={hasIssues ? "station-file-issues" : describedBy("station-file", fileError ?? undefined)}
+        onChange={onPick}
+      />
+    </FieldShell>
+  );
+}
+
+/** Every problem the server found in the file, listed. */
+function FileIssues({ issues: fileIssues }: { issues: string[] }) {
+  return (
+    <div id="station-file-issues" role="alert" className="rounded-md border border-danger/30 bg-danger-light px-3 py-2 text-sm text-danger">
+      <p className="font-medium">Problems in the file{fileIssues.length > 1 ? ` (${fileIssues.length} listed)` : ""}:</p>
+      <ul className="mt-1 max-h-48 list-disc overflow-y-auto pl-5" data-testid="file-issues">
+        {fileIssues.map((issue, i) => (
+          <li key={i}>{issue}</li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+function StationSiteFields({ register, errors, hint: siteHint }: StationFormParts & { hint: string }) {
+  return (
+    <fieldset>
+      <legend className="field-label">Site of the station</legend>
+      <p className="mb-2 text-sm text-graphite-soft">{siteHint}</p>
+      <div className="grid gap-4 sm:grid-cols-2 md:grid-cols-4">
+        <Field id="station-latitude" label="Latitude (° N)" inputMode="decimal" autoComplete="off" error={errors.latitude?.message} {...register("latitude")} />
+        <Field id="station-longitude" label="Longitude (° E, west negative)" inputMode="decimal" autoComplete="off" error={errors.longitude?.message} {...register("longitude")} />
+        <Field id="station-elevation" label="Elevation (m)" inputMode="decimal" autoComplete="off" error={errors.elevationM?.message} {...register("elevationM")} />
+        <Field id="station-utc" label="UTC offset (h, standard time)" inputMode="decimal" autoComplete="off" error={errors.utcOffsetHours?.message} {...register("utcOffsetHours")} />
+      </div>
+    </fieldset>
+  );
+}
+
+function AttributionField({ register, errors }: StationFormParts) {
+  return (
+    <FieldShell id="station-attribution" label="Attribution" hint="Where the data comes from and its licence; shown beside every estimate. Empty: taken from the file header (or the # lines of an hourly CSV)." error={errors.attribution?.message}>
+      <textarea
+        id="station-attribution"
+        rows={2}
+        className="field-input py-2"
+        aria-invalid={errors.attribution ? true : undefined}
+        aria-describedby={describedBy("station-attribution", errors.attribution?.message, true)}
+        {...register("attribution")}
+      />
+    </FieldShell>
   );
 }

@@ -13,13 +13,16 @@ const POLL_FOR_MS = 120_000;
 /** After leaving checkout unpaid, a declined card's webhook may still be on its way: ask for a while. */
 const POLL_AFTER_CANCEL_MS = 30_000;
 
+/** What the redirect back from checkout said, if the page was opened by it. */
+type Returned = "returned" | "cancelled" | null;
+
 /**
  * The redirect back from checkout only says the customer came back: the page shows
  * "confirming" and asks the server until the provider's webhook has booked the payment.
  */
 export function DepositPanelClient({ token, initial, companyName }: { token: string; initial: CustomerDeposit; companyName: string }) {
   const [deposit, setDeposit] = useState(initial);
-  const [returned, setReturned] = useState<"returned" | "cancelled" | null>(null);
+  const [returned, setReturned] = useState<Returned>(null);
   const [paying, setPaying] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [gaveUp, setGaveUp] = useState(false);
@@ -39,29 +42,7 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
   const quiet = returned === "cancelled" && deposit.status === "open" && !quietDone;
   const pollForMs = waiting ? POLL_FOR_MS : quiet ? POLL_AFTER_CANCEL_MS : 0;
 
-  useEffect(() => {
-    if (pollForMs === 0) return;
-    const started = Date.now();
-    let timer: ReturnType<typeof setTimeout> | undefined;
-    let stopped = false;
-    const tick = async () => {
-      try {
-        const next = await api<CustomerDeposit>(url, { cache: "no-store" });
-        if (!stopped) setDeposit(next);
-      } catch {
-        // A dropped connection: keep asking until the time is up.
-      }
-      if (stopped) return;
-      if (Date.now() - started <= pollForMs) timer = setTimeout(tick, POLL_EVERY_MS);
-      else if (pollForMs === POLL_FOR_MS) setGaveUp(true);
-      else setQuietDone(true);
-    };
-    timer = setTimeout(tick, 500);
-    return () => {
-      stopped = true;
-      if (timer) clearTimeout(timer);
-    };
-  }, [pollForMs, url]);
+  usePollDeposit(url, pollForMs, setDeposit, setGaveUp, setQuietDone);
 
   // Success leaves for the provider's page; "already paid" or "confirming" means wait for the webhook instead.
   const checkout = useSave<void, { url: string }>({
@@ -97,34 +78,7 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
         ) : settled ? (
           <Settled deposit={deposit} companyName={companyName} />
         ) : !deposit.canPay ? null : (
-          <>
-            {deposit.status === "failed" ? (
-              <FormMessage tone="error">
-                <strong>Your payment did not go through.</strong> {deposit.failureMessage} No money was taken. You can try again with the same or another card.
-              </FormMessage>
-            ) : null}
-            {returned === "cancelled" && deposit.status !== "failed" ? (
-              <FormMessage tone="info">You left the payment page before paying; nothing was charged. Pay whenever you are ready.</FormMessage>
-            ) : null}
-            {gaveUp ? (
-              <FormMessage tone="info">
-                We have not heard from the card processor yet. If you paid, your receipt will arrive by e-mail; reload this page later to see it here.
-              </FormMessage>
-            ) : null}
-            <p className="mt-3">
-              {companyName} asks for a deposit of <span className="figure text-xl font-semibold">{deposit.amountText}</span> to start the project. It counts toward the
-              contract price.
-            </p>
-            <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={!ready || busy} aria-busy={busy}>
-              {busy ? "Opening the payment page…" : deposit.status === "failed" ? `Try again: pay ${deposit.amountText}` : `Pay the deposit: ${deposit.amountText}`}
-            </button>
-            <p className="mt-2 text-xs text-graphite-soft">You pay by card on the payment provider&apos;s secure page and come back here afterwards.</p>
-            {error ? (
-              <div className="mt-3">
-                <FormMessage tone="error">{error}</FormMessage>
-              </div>
-            ) : null}
-          </>
+          <PayDeposit deposit={deposit} companyName={companyName} returned={returned} gaveUp={gaveUp} error={error} ready={ready} busy={busy} onPay={pay} />
         )}
       </div>
     </section>
@@ -162,4 +116,68 @@ function Settled({ deposit, companyName }: { deposit: CustomerDeposit; companyNa
       ) : null}
     </div>
   );
+}
+
+/** The deposit still to pay: why the last try did not go through, if it did not, and the button to the payment page. */
+function PayDeposit({ deposit, companyName, returned, gaveUp, error, ready, busy, onPay: pay }: { deposit: CustomerDeposit; companyName: string; returned: Returned; gaveUp: boolean; error: string | null; ready: boolean; busy: boolean; onPay: () => void }) {
+  return (
+    <>
+      {deposit.status === "failed" ? (
+        <FormMessage tone="error">
+          <strong>Your payment did not go through.</strong> {deposit.failureMessage} No money was taken. You can try again with the same or another card.
+        </FormMessage>
+      ) : null}
+      {returned === "cancelled" && deposit.status !== "failed" ? (
+        <FormMessage tone="info">You left the payment page before paying; nothing was charged. Pay whenever you are ready.</FormMessage>
+      ) : null}
+      {gaveUp ? (
+        <FormMessage tone="info">
+          We have not heard from the card processor yet. If you paid, your receipt will arrive by e-mail; reload this page later to see it here.
+        </FormMessage>
+      ) : null}
+      <p className="mt-3">
+        {companyName} asks for a deposit of <span className="figure text-xl font-semibold">{deposit.amountText}</span> to start the project. It counts toward the
+        contract price.
+      </p>
+      <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={!ready || busy} aria-busy={busy}>
+        {busy ? "Opening the payment page…" : deposit.status === "failed" ? `Try again: pay ${deposit.amountText}` : `Pay the deposit: ${deposit.amountText}`}
+      </button>
+      <p className="mt-2 text-xs text-graphite-soft">You pay by card on the payment provider&apos;s secure page and come back here afterwards.</p>
+      {error ? (
+        <div className="mt-3">
+          <FormMessage tone="error">{error}</FormMessage>
+        </div>
+      ) : null}
+    </>
+  );
+}
+
+/**
+ * Asks the server for the deposit every POLL_EVERY_MS for pollForMs (0: not at all); when the
+ * time is up, gives up on a return from checkout, or stops the quiet watch after a cancel.
+ */
+function usePollDeposit(url: string, pollForMs: number, setDeposit: (d: CustomerDeposit) => void, setGaveUp: (v: boolean) => void, setQuietDone: (v: boolean) => void) {
+  useEffect(() => {
+    if (pollForMs === 0) return;
+    const started = Date.now();
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    let stopped = false;
+    const tick = async () => {
+      try {
+        const next = await api<CustomerDeposit>(url, { cache: "no-store" });
+        if (!stopped) setDeposit(next);
+      } catch {
+        // A dropped connection: keep asking until the time is up.
+      }
+      if (stopped) return;
+      if (Date.now() - started <= pollForMs) timer = setTimeout(tick, POLL_EVERY_MS);
+      else if (pollForMs === POLL_FOR_MS) setGaveUp(true);
+      else setQuietDone(true);
+    };
+    timer = setTimeout(tick, 500);
+    return () => {
+      stopped = true;
+      if (timer) clearTimeout(timer);
+    };
+  }, [pollForMs, url, setDeposit, setGaveUp, setQuietDone]);
 }

@@ -2,7 +2,7 @@
 // Signing on the customer's phone: confirm the e-mail with a one-time code, read and accept the
 // electronic-records disclosure, type the name, draw the signature (signature_pad, pointer
 // events), sign. The server checks everything again; this screen only guides.
-import { useEffect, useRef, useState, type FormEvent } from "react";
+import { useEffect, useRef, useState, type FormEvent, type RefObject } from "react";
 import type SignaturePad from "signature_pad";
 import { Field, StatusMessage, type Notice } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
@@ -17,50 +17,7 @@ type Step = "start" | "code" | "sign";
 
 export function SigningPanel({ token, label, companyName, repName, repEmail, chosen }: Props) {
   const base = `/api/public/proposals/${token}`;
-  const [step, setStep] = useState<Step>("start");
-  const [sentTo, setSentTo] = useState<string | null>(null);
-  const [code, setCode] = useState("");
-  const [codeError, setCodeError] = useState<string | null>(null);
-  const [message, setMessage] = useState<Notice | null>(null);
-  // The page is this panel's state until the signature: no refresh between the steps.
-  const sendCode = useSave<void, { sentTo: string; expiresAt: string }>({
-    request: () => ({ url: `${base}/code`, method: "POST" }),
-    refresh: false,
-    notify: (n) => {
-      setMessage(n);
-      if (!n) setCodeError(null);
-    },
-    success: (r) => `We e-mailed a 6-digit code to ${r.sentTo}. It works for 10 minutes.`,
-    onSaved: (r) => {
-      setSentTo(r.sentTo);
-      setCode("");
-      setStep("code");
-    },
-  });
-  // A wrong code belongs to the field; a used-up, expired or missing one to the panel.
-  const checkCode = useSave<string>({
-    request: (value) => ({ url: `${base}/verify-code`, method: "POST", json: { code: value } }),
-    refresh: false,
-    notify: (n) => n?.tone !== "error" && setMessage(n),
-    success: "E-mail confirmed. You have 30 minutes to sign.",
-    onSaved: () => setStep("sign"),
-    onError: (err) => {
-      if (err instanceof ApiError && ["code_locked", "code_expired", "no_code"].includes(err.code)) setMessage({ tone: "error", text: err.message });
-      else setCodeError(err.message);
-    },
-  });
-  const busy = sendCode.pending || checkCode.pending;
-  const requestCode = () => sendCode.save();
-
-  function verify(e: FormEvent) {
-    e.preventDefault();
-    if (!/^\d{6}$/.test(code.trim())) {
-      setCodeError("Enter the 6 digits from the e-mail");
-      return;
-    }
-    setCodeError(null);
-    checkCode.save(code.trim());
-  }
+  const { step, setStep, sentTo, code, setCode, codeError, message, setMessage, busy, requestCode, verify } = useCodeStep(base);
 
   return (
     <section aria-labelledby="sign-heading" className="card p-4" data-testid="signing-panel">
@@ -82,28 +39,7 @@ export function SigningPanel({ token, label, companyName, repName, repEmail, cho
       ) : null}
 
       {step === "code" ? (
-        <form className="mt-4 space-y-3" onSubmit={verify} noValidate>
-          <Field
-            id="signing-code"
-            label="6-digit code"
-            inputClassName="figure tracking-[0.3em]"
-            inputMode="numeric"
-            autoComplete="one-time-code"
-            maxLength={6}
-            value={code}
-            error={codeError ?? undefined}
-            onChange={(e) => setCode(e.target.value.replace(/\D/g, "").slice(0, 6))}
-          />
-          <div className="flex flex-col gap-2 sm:flex-row">
-            <button type="submit" className="btn-primary flex-1" disabled={busy}>
-              Confirm code
-            </button>
-            <button type="button" className="btn-quiet flex-1" onClick={requestCode} disabled={busy}>
-              Send a new code
-            </button>
-          </div>
-          {sentTo ? <p className="text-xs text-graphite-soft">Sent to {sentTo}. Not there? Check the spam folder, or send a new code.</p> : null}
-        </form>
+        <CodeForm code={code} setCode={setCode} codeError={codeError} busy={busy} sentTo={sentTo} onSubmit={verify} onResend={requestCode} />
       ) : null}
 
       {message ? (
@@ -175,9 +111,7 @@ function SignForm({
   chosen: Chosen;
   onNeedCode: (message: string) => void;
 }) {
-  const canvasRef = useRef<HTMLCanvasElement>(null);
-  const padRef = useRef<SignaturePad | null>(null);
-  const [empty, setEmpty] = useState(true);
+  const { canvasRef, padRef, empty, clear } = useSignaturePad();
   const [consent, setConsent] = useState(false);
   const [name, setName] = useState("");
   const [errors, setErrors] = useState<Record<string, string>>({});
@@ -188,6 +122,175 @@ function SignForm({
       if (err instanceof ApiError && err.code === "code_required") onNeedCode(err.message);
     },
   });
+
+  function sign(e: FormEvent) {
+    e.preventDefault();
+    const found: Record<string, string> = {};
+    if (!consent) found.consent = "Agree to sign electronically to continue";
+    if (name.trim().length < 2) found.signerName = "Type your full name";
+    const pad = padRef.current;
+    if (!pad || pad.isEmpty()) found.signaturePng = "Draw your signature in the box";
+    setErrors(found);
+    if (Object.keys(found).length > 0 || !pad) return;
+    signing.save({ position: chosen.position, signerName: name.trim(), consent: true, signaturePng: pad.toDataURL("image/png") });
+  }
+
+  return (
+    <form className="mt-4 space-y-4" onSubmit={sign} noValidate>
+      <EsignDisclosure companyName={companyName} repName={repName} repEmail={repEmail} />
+      <ConsentField consent={consent} setConsent={setConsent} error={errors.consent} />
+      <Field id="signer-name" label="Your full name" autoComplete="name" value={name} error={errors.signerName} onChange={(e) => setName(e.target.value)} />
+      <SignatureField canvasRef={canvasRef} empty={empty} onClear={clear} error={errors.signaturePng} />
+      <p className="text-sm">
+        By pressing <strong>Sign</strong> you sign proposal {label} for &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>, and you
+        intend your typed name and drawn signature to be your signature.
+      </p>
+      <StatusMessage notice={signing.notice} />
+      <button type="submit" className="btn-primary w-full" disabled={signing.pending}>
+        {signing.pending ? "Signing…" : "Sign"}
+      </button>
+    </form>
+  );
+}
+
+/** The one-time code from the e-mail, with a button for a new one. */
+function CodeForm({ code, setCode, codeError, busy, sentTo, onSubmit: verify, onResend: requestCode }: { code: string; setCode: (code: string) => void; codeError: string | null; busy: boolean; sentTo: string | null; onSubmit: (e: FormEvent) => void; onResend: () => void }) {
+  return (
+    <form className="mt-4 space-y-3" onSubmit={verify} noValidate>
+      <Field
+        id="signing-code"
+        label="6-digit code"
+        inputClassName="figure tracking-[0.3em]"
+        inputMode="numeric"
+        autoComplete="one-time-code"
+        maxLength={6}
+        value={code}
+        error={codeError ?? undefined}
+        onChange={(e) => setCode(e.target.value.replace(/\D/g, "").slice(0, 6))}
+      />
+      <div className="flex flex-col gap-2 sm:flex-row">
+        <button type="submit" className="btn-primary flex-1" disabled={busy}>
+          Confirm code
+        </button>
+        <button type="button" className="btn-quiet flex-1" onClick={requestCode} disabled={busy}>
+          Send a new code
+        </button>
+      </div>
+      {sentTo ? <p className="text-xs text-graphite-soft">Sent to {sentTo}. Not there? Check the spam folder, or send a new code.</p> : null}
+    </form>
+  );
+}
+
+/** The customer's consent to electronic records and signatures (ESIGN Act, 15 U.S.C. 7001(c)(1)(A)). */
+function ConsentField({ consent, setConsent, error }: { consent: boolean; setConsent: (consent: boolean) => void; error: string | undefined }) {
+  return (
+    <div>
+      <label className="flex min-h-touch items-start gap-3 text-sm">
+        <input
+          type="checkbox"
+          className="mt-1 h-5 w-5 accent-copper"
+          checked={consent}
+          onChange={(e) => setConsent(e.target.checked)}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={error ? "consent-error" : undefined}
+        />
+        <span>I have read the above, I can open and keep these records, and I agree to use electronic records and signatures for this agreement.</span>
+      </label>
+      {error ? (
+        <p id="consent-error" className="field-error" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** The box to draw the signature in, and the button to clear it. */
+function SignatureField({ canvasRef, empty, onClear: clear, error }: { canvasRef: RefObject<HTMLCanvasElement | null>; empty: boolean; onClear: () => void; error: string | undefined }) {
+  return (
+    <div>
+      <p id="signature-label" className="field-label">
+        Your signature
+      </p>
+      <canvas
+        ref={canvasRef}
+        className="block h-40 w-full touch-none rounded-md border border-dashed border-graphite-faint bg-white"
+        role="img"
+        aria-labelledby="signature-label"
+        aria-describedby="signature-hint"
+        data-testid="signature-pad"
+      />
+      <div className="mt-1 flex items-center justify-between gap-2">
+        <p id="signature-hint" className="text-xs text-graphite-soft">
+          {empty ? "Draw with your finger, a stylus or the mouse." : "Signature drawn."}
+        </p>
+        <button type="button" className="btn-quiet" onClick={clear}>
+          Clear
+        </button>
+      </div>
+      {error ? (
+        <p className="field-error" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** The steps before signing: e-mail a one-time code, then check it. */
+function useCodeStep(base: string) {
+  const [step, setStep] = useState<Step>("start");
+  const [sentTo, setSentTo] = useState<string | null>(null);
+  const [code, setCode] = useState("");
+  const [codeError, setCodeError] = useState<string | null>(null);
+  const [message, setMessage] = useState<Notice | null>(null);
+  // The page is this panel's state until the signature: no refresh between the steps.
+  const sendCode = useSave<void, { sentTo: string; expiresAt: string }>({
+    request: () => ({ url: `${base}/code`, method: "POST" }),
+    refresh: false,
+    notify: (n) => {
+      setMessage(n);
+      if (!n) setCodeError(null);
+    },
+    success: (r) => `We e-mailed a 6-digit code to ${r.sentTo}. It works for 10 minutes.`,
+    onSaved: (r) => {
+      setSentTo(r.sentTo);
+      setCode("");
+      setStep("code");
+    },
+  });
+  // A wrong code belongs to the field; a used-up, expired or missing one to the panel.
+  const checkCode = useSave<string>({
+    request: (value) => ({ url: `${base}/verify-code`, method: "POST", json: { code: value } }),
+    refresh: false,
+    notify: (n) => n?.tone !== "error" && setMessage(n),
+    success: "E-mail confirmed. You have 30 minutes to sign.",
+    onSaved: () => setStep("sign"),
+    onError: (err) => {
+      if (err instanceof ApiError && ["code_locked", "code_expired", "no_code"].includes(err.code)) setMessage({ tone: "error", text: err.message });
+      else setCodeError(err.message);
+    },
+  });
+  const busy = sendCode.pending || checkCode.pending;
+  const requestCode = () => sendCode.save();
+
+  function verify(e: FormEvent) {
+    e.preventDefault();
+    if (!/^\d{6}$/.test(code.trim())) {
+      setCodeError("Enter the 6 digits from the e-mail");
+      return;
+    }
+    setCodeError(null);
+    checkCode.save(code.trim());
+  }
+  return { step, setStep, sentTo, code, setCode, codeError, message, setMessage, busy, requestCode, verify };
+}
+
+/** The signature pad on the canvas: loaded in the browser only, refitted to the canvas when the window resizes. */
+function useSignaturePad() {
+  const canvasRef = useRef<HTMLCanvasElement>(null);
+  const padRef = useRef<SignaturePad | null>(null);
+  const [empty, setEmpty] = useState(true);
 
   useEffect(() => {
     let pad: SignaturePad | null = null;
@@ -223,75 +326,5 @@ function SignForm({
     padRef.current?.clear();
     setEmpty(true);
   }
-
-  function sign(e: FormEvent) {
-    e.preventDefault();
-    const found: Record<string, string> = {};
-    if (!consent) found.consent = "Agree to sign electronically to continue";
-    if (name.trim().length < 2) found.signerName = "Type your full name";
-    const pad = padRef.current;
-    if (!pad || pad.isEmpty()) found.signaturePng = "Draw your signature in the box";
-    setErrors(found);
-    if (Object.keys(found).length > 0 || !pad) return;
-    signing.save({ position: chosen.position, signerName: name.trim(), consent: true, signaturePng: pad.toDataURL("image/png") });
-  }
-
-  return (
-    <form className="mt-4 space-y-4" onSubmit={sign} noValidate>
-      <EsignDisclosure companyName={companyName} repName={repName} repEmail={repEmail} />
-      <div>
-        <label className="flex min-h-touch items-start gap-3 text-sm">
-          <input
-            type="checkbox"
-            className="mt-1 h-5 w-5 accent-copper"
-            checked={consent}
-            onChange={(e) => setConsent(e.target.checked)}
-            aria-invalid={errors.consent ? true : undefined}
-            aria-describedby={errors.consent ? "consent-error" : undefined}
-          />
-          <span>I have read the above, I can open and keep these records, and I agree to use electronic records and signatures for this agreement.</span>
-        </label>
-        {errors.consent ? (
-          <p id="consent-error" className="field-error" role="alert">
-            {errors.consent}
-          </p>
-        ) : null}
-      </div>
-      <Field id="signer-name" label="Your full name" autoComplete="name" value={name} error={errors.signerName} onChange={(e) => setName(e.target.value)} />
-      <div>
-        <p id="signature-label" className="field-label">
-          Your signature
-        </p>
-        <canvas
-          ref={canvasRef}
-          className="block h-40 w-full touch-none rounded-md border border-dashed border-graphite-faint bg-white"
-          role="img"
-          aria-labelledby="signature-label"
-          aria-describedby="signature-hint"
-          data-testid="signature-pad"
-        />
-        <div className="mt-1 flex items-center justify-between gap-2">
-          <p id="signature-hint" className="text-xs text-graphite-soft">
-            {empty ? "Draw with your finger, a stylus or the mouse." : "Signature drawn."}
-          </p>
-          <button type="button" className="btn-quiet" onClick={clear}>
-            Clear
-          </button>
-        </div>
-        {errors.signaturePng ? (
-          <p className="field-error" role="alert">
-            {errors.signaturePng}
-          </p>
-        ) : null}
-      </div>
-      <p className="text-sm">
-        By pressing <strong>Sign</strong> you sign proposal {label} for &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>, and you
-        intend your typed name and drawn signature to be your signature.
-      </p>
-      <StatusMessage notice={signing.notice} />
-      <button type="submit" className="btn-primary w-full" disabled={signing.pending}>
-        {signing.pending ? "Signing…" : "Sign"}
-      </button>
-    </form>
-  );
+  return { canvasRef, padRef, empty, clear };
 }

@@ -52,58 +52,7 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
           Show
         </button>
       </form>
-      <TableShell
-        className="mt-4"
-        minWidth={900}
-        testId="jobs-table"
-        head={
-          <>
-            <Th>Household</Th>
-            <Th>Stage</Th>
-            <Th>Crew</Th>
-            <Th>Survey</Th>
-            <Th>Permit</Th>
-            <Th>Install</Th>
-            <Th>Inspection</Th>
-            <Th>PTO</Th>
-            <Th>Checklist</Th>
-          </>
-        }
-      >
-        {shown.map((j) => (
-          <tr key={j.id} data-testid={`job-row-${j.id}`}>
-            <Td>
-              <Link href={`/jobs/${j.id}`} className="font-medium text-copper underline-offset-2 hover:underline">
-                {j.householdName}
-              </Link>
-              <span className="block text-xs text-graphite-soft">{j.city}</span>
-            </Td>
-            <Td className="whitespace-nowrap">{STAGE_LABELS[j.stage]}</Td>
-            <Td className="whitespace-nowrap">{j.crewName ?? <span className="text-caution">Not assigned</span>}</Td>
-            <Td className="figure whitespace-nowrap">{dateCell(j.surveyDate, today)}</Td>
-            <Td className="whitespace-nowrap">
-              {j.permitApprovedOn ? (
-                <span className="text-sage">Approved {shortDate(j.permitApprovedOn)}</span>
-              ) : j.permitSubmittedOn ? (
-                `Submitted ${shortDate(j.permitSubmittedOn)}`
-              ) : (
-                "—"
-              )}
-            </Td>
-            <Td className="figure whitespace-nowrap">{j.installedAt ? <span className="text-sage">Installed</span> : dateCell(j.installDate, today)}</Td>
-            <Td className="figure whitespace-nowrap">{dateCell(j.inspectionOn, today)}</Td>
-            <Td className="figure whitespace-nowrap">{dateCell(j.ptoOn, today)}</Td>
-            <Td className="figure whitespace-nowrap">{j.checklistTotal ? `${j.checklistDone}/${j.checklistTotal}` : "—"}</Td>
-          </tr>
-        ))}
-        {shown.length === 0 ? (
-          <tr>
-            <Td colSpan={9} className="py-6 text-center text-graphite-soft">
-              {jobs.length === 0 ? "No jobs yet. A job appears here when a customer pays their deposit." : "No job matches this filter."}
-            </Td>
-          </tr>
-        ) : null}
-      </TableShell>
+      <JobsTable jobs={jobs} shown={shown} today={today} />
     </>
   );
 }
@@ -170,5 +119,63 @@ async function CrewJobs() {
       {crew && jobs.length === 0 ? <p className="mt-6 text-graphite-soft">No jobs are assigned to {crew.name} right now.</p> : null}
       {crew ? <FeedLink feedUrl={crew.feedUrl} crewName={crew.name} /> : null}
     </div>
+  );
+}
+
+/** The office's jobs table: one row a job, its dates against the company's today. */
+function JobsTable({ jobs, shown, today }: { jobs: JobListRow[]; shown: JobListRow[]; today: string }) {
+  return (
+    <TableShell
+      className="mt-4"
+      minWidth={900}
+      testId="jobs-table"
+      head={
+        <>
+          <Th>Household</Th>
+          <Th>Stage</Th>
+          <Th>Crew</Th>
+          <Th>Survey</Th>
+          <Th>Permit</Th>
+          <Th>Install</Th>
+          <Th>Inspection</Th>
+          <Th>PTO</Th>
+          <Th>Checklist</Th>
+        </>
+      }
+    >
+      {shown.map((j) => (
+        <tr key={j.id} data-testid={`job-row-${j.id}`}>
+          <Td>
+            <Link href={`/jobs/${j.id}`} className="font-medium text-copper underline-offset-2 hover:underline">
+              {j.householdName}
+            </Link>
+            <span className="block text-xs text-graphite-soft">{j.city}</span>
+          </Td>
+          <Td className="whitespace-nowrap">{STAGE_LABELS[j.stage]}</Td>
+          <Td className="whitespace-nowrap">{j.crewName ?? <span className="text-caution">Not assigned</span>}</Td>
+          <Td className="figure whitespace-nowrap">{dateCell(j.surveyDate, today)}</Td>
+          <Td className="whitespace-nowrap">
+            {j.permitApprovedOn ? (
+              <span className="text-sage">Approved {shortDate(j.permitApprovedOn)}</span>
+            ) : j.permitSubmittedOn ? (
+              `Submitted ${shortDate(j.permitSubmittedOn)}`
+            ) : (
+              "—"
+            )}
+          </Td>
+          <Td className="figure whitespace-nowrap">{j.installedAt ? <span className="text-sage">Installed</span> : dateCell(j.installDate, today)}</Td>
+          <Td className="figure whitespace-nowrap">{dateCell(j.inspectionOn, today)}</Td>
+          <Td className="figure whitespace-nowrap">{dateCell(j.ptoOn, today)}</Td>
+          <Td className="figure whitespace-nowrap">{j.checklistTotal ? `${j.checklistDone}/${j.checklistTotal}` : "—"}</Td>
+        </tr>
+      ))}
+      {shown.length === 0 ? (
+        <tr>
+          <Td colSpan={9} className="py-6 text-center text-graphite-soft">
+            {jobs.length === 0 ? "No jobs yet. A job appears here when a customer pays their deposit." : "No job matches this filter."}
+          </Td>
+        </tr>
+      ) : null}
+    </TableShell>
   );
 }

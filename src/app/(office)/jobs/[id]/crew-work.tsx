@@ -13,8 +13,6 @@ type PhotoThumb = { id: string; caption: string | null; widthPx: number; heightP
 /** The crew's work on a job: the install checklist, photos from the phone's camera, and "installed". */
 export function CrewWork(props: { jobId: string; canWork: boolean; checklist: JobChecklistItem[]; photos: PhotoThumb[]; installedAt: string | null; timeZone: string }) {
   const [items, setItems] = useState(props.checklist);
-  const [photos, setPhotos] = useState(props.photos);
-  const [installedAt, setInstalledAt] = useState(props.installedAt);
   // The company's zone, not the runtime's: the server render and the browser then print the same time.
   const timeFmt = new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", hour: "numeric", minute: "2-digit", timeZone: props.timeZone, timeZoneName: "short" });
   const [before, setBefore] = useState(items);
@@ -35,23 +33,6 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
     setItems((list) => list.map((i) => (i.id === item.id ? { ...i, doneAt: done ? new Date().toISOString() : null } : i)));
     tick.save({ item, done });
   }
-  const upload = useSave<File, PhotoThumb>({
-    request: (file) => {
-      const body = new FormData();
-      body.set("file", file);
-      return { url: `/api/jobs/${props.jobId}/photos`, method: "POST", body };
-    },
-    refresh: false,
-    notify: setNotice,
-    success: "Photo saved.",
-    onSaved: (photo) => setPhotos((p) => [...p, photo]),
-  });
-  const install = useSave<void, { installedAt: string | null }>({
-    request: () => ({ url: `/api/jobs/${props.jobId}/installed`, method: "POST" }),
-    notify: setNotice,
-    success: "Marked installed. The office has been updated.",
-    onSaved: (job) => setInstalledAt(job.installedAt),
-  });
 
   return (
     <>
@@ -87,64 +68,97 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
         </ul>
       </section>
 
-      <section className="card p-4" aria-labelledby="photos-heading">
-        <h2 id="photos-heading" className="text-lg font-semibold">
-          Job photos
-        </h2>
-        {photos.length === 0 ? <EmptyState>No photos yet.</EmptyState> : null}
-        <ul className="mt-2 grid grid-cols-3 gap-2" data-testid="job-photos">
-          {photos.map((p) => (
-            <li key={p.id}>
-              <a href={`/api/job-photos/${p.id}/file`} target="_blank" rel="noreferrer">
-                <img
-                  src={`/api/job-photos/${p.id}/file`}
-                  alt={p.caption ?? `Job photo${p.uploadedByName ? ` by ${p.uploadedByName}` : ""}`}
-                  width={p.widthPx}
-                  height={p.heightPx}
-                  className="aspect-square w-full rounded-md object-cover"
-                  loading="lazy"
-                />
-              </a>
-            </li>
-          ))}
-        </ul>
-        {props.canWork ? (
-          <div className="mt-3">
-            <CameraInput
-              id="job-photo-input"
-              label="Take or add a photo"
-              busyLabel="Saving the photo…"
-              busy={upload.pending}
-              buttonClass="btn-primary w-full"
-              onPhoto={upload.save}
-            />
-            <p className="mt-1 text-xs text-graphite-soft">JPEG, PNG or WebP; stored at up to 2048 px.</p>
-          </div>
-        ) : null}
-      </section>
+      <PhotosSection jobId={props.jobId} canWork={props.canWork} initial={props.photos} notify={setNotice} />
 
-      <section className="card p-4" aria-labelledby="installed-heading">
-        <h2 id="installed-heading" className="text-lg font-semibold">
-          Install
-        </h2>
-        {installedAt ? (
-          <p className="mt-1 text-sage" data-testid="installed-status">
-            Installed {timeFmt.format(new Date(installedAt))}.
-          </p>
-        ) : props.canWork ? (
-          <ConfirmButton
-            label="Mark installed"
-            title="Mark this job installed?"
-            message={`${open > 0 ? `${open} checklist item${open === 1 ? " is" : "s are"} still open. ` : ""}The office sees it at once.`}
-            confirmLabel="Yes, installed"
-            className="btn-primary mt-2 w-full"
-            disabled={install.pending}
-            onConfirm={() => install.save()}
-          />
-        ) : (
-          <p className="mt-1 text-graphite-soft">Not installed yet.</p>
-        )}
-      </section>
+      <InstallSection jobId={props.jobId} canWork={props.canWork} initial={props.installedAt} openItems={open} notify={setNotice} timeFmt={timeFmt} />
     </>
+  );
+}
+
+/** The job's photos, and the camera button for the crew; a new photo shows at once, without a page refresh. */
+function PhotosSection({ jobId, canWork, initial, notify }: { jobId: string; canWork: boolean; initial: PhotoThumb[]; notify: (notice: Notice | null) => void }) {
+  const [photos, setPhotos] = useState(initial);
+  const upload = useSave<File, PhotoThumb>({
+    request: (file) => {
+      const body = new FormData();
+      body.set("file", file);
+      return { url: `/api/jobs/${jobId}/photos`, method: "POST", body };
+    },
+    refresh: false,
+    notify,
+    success: "Photo saved.",
+    onSaved: (photo) => setPhotos((p) => [...p, photo]),
+  });
+  return (
+    <section className="card p-4" aria-labelledby="photos-heading">
+      <h2 id="photos-heading" className="text-lg font-semibold">
+        Job photos
+      </h2>
+      {photos.length === 0 ? <EmptyState>No photos yet.</EmptyState> : null}
+      <ul className="mt-2 grid grid-cols-3 gap-2" data-testid="job-photos">
+        {photos.map((p) => (
+          <li key={p.id}>
+            <a href={`/api/job-photos/${p.id}/file`} target="_blank" rel="noreferrer">
+              <img
+                src={`/api/job-photos/${p.id}/file`}
+                alt={p.caption ?? `Job photo${p.uploadedByName ? ` by ${p.uploadedByName}` : ""}`}
+                width={p.widthPx}
+                height={p.heightPx}
+                className="aspect-square w-full rounded-md object-cover"
+                loading="lazy"
+              />
+            </a>
+          </li>
+        ))}
+      </ul>
+      {canWork ? (
+        <div className="mt-3">
+          <CameraInput
+            id="job-photo-input"
+            label="Take or add a photo"
+            busyLabel="Saving the photo…"
+            busy={upload.pending}
+            buttonClass="btn-primary w-full"
+            onPhoto={upload.save}
+          />
+          <p className="mt-1 text-xs text-graphite-soft">JPEG, PNG or WebP; stored at up to 2048 px.</p>
+        </div>
+      ) : null}
+    </section>
+  );
+}
+
+/** When the job was installed, or the crew's button to say it is. */
+function InstallSection({ jobId, canWork, initial, openItems: open, notify, timeFmt }: { jobId: string; canWork: boolean; initial: string | null; openItems: number; notify: (notice: Notice | null) => void; timeFmt: Intl.DateTimeFormat }) {
+  const [installedAt, setInstalledAt] = useState(initial);
+  const install = useSave<void, { installedAt: string | null }>({
+    request: () => ({ url: `/api/jobs/${jobId}/installed`, method: "POST" }),
+    notify,
+    success: "Marked installed. The office has been updated.",
+    onSaved: (job) => setInstalledAt(job.installedAt),
+  });
+  return (
+    <section className="card p-4" aria-labelledby="installed-heading">
+      <h2 id="installed-heading" className="text-lg font-semibold">
+        Install
+      </h2>
+      {installedAt ? (
+        <p className="mt-1 text-sage" data-testid="installed-status">
+          Installed {timeFmt.format(new Date(installedAt))}.
+        </p>
+      ) : canWork ? (
+        <ConfirmButton
+          label="Mark installed"
+          title="Mark this job installed?"
+          message={`${open > 0 ? `${open} checklist item${open === 1 ? " is" : "s are"} still open. ` : ""}The office sees it at once.`}
+          confirmLabel="Yes, installed"
+          className="btn-primary mt-2 w-full"
+          disabled={install.pending}
+          onConfirm={() => install.save()}
+        />
+      ) : (
+        <p className="mt-1 text-graphite-soft">Not installed yet.</p>
+      )}
+    </section>
   );
 }

@@ -6,7 +6,7 @@ import { STAGE_LABELS } from "@/lib/stages";
 import { getCompanySettings } from "@/server/company-settings";
 import { listCrewOptions } from "@/server/crews";
 import { HttpError } from "@/server/errors";
-import { getJobPacket } from "@/server/jobs";
+import { getJobPacket, type JobPacket } from "@/server/jobs";
 import { idSchema } from "@/server/route";
 import { getMember } from "@/server/session";
 import { AddChecklistButton } from "./add-checklist-button";
@@ -30,7 +30,43 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   // Times the crew records are shown on the company's clock, the same on the server and in the browser.
   const { timeZone } = await getCompanySettings(member.companyId);
 
-  const header = (
+  const header = <JobHeader packet={packet} />;
+
+  if (!office) {
+    return (
+      <div className="mx-auto max-w-xl space-y-4">
+        {header}
+        <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
+      </div>
+    );
+  }
+
+  const crews = await listCrewOptions(member.companyId);
+  return (
+    <div className="space-y-6">
+      {header}
+      <p className="text-sm">
+        <Link href={`/deals/${job.dealId}`} className="text-copper underline-offset-2 hover:underline">
+          Open the deal
+        </Link>{" "}
+        · its Timeline shows every change below.
+      </p>
+      <JobForm jobId={job.id} crews={crews} defaults={jobFormDefaults(job)} />
+      {job.checklist.length === 0 ? <AddChecklistButton jobId={job.id} /> : null}
+      <div>
+        <h2 className="text-xl font-semibold">Job packet</h2>
+        <p className="text-sm text-graphite-soft">What the crew sees on their phone.</p>
+        <div className="mt-3 max-w-2xl">
+          <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function JobHeader({ packet }: { packet: JobPacket }) {
+  const { job } = packet;
+  return (
     <header className="flex flex-wrap items-start justify-between gap-3">
       <div>
         <Link href="/jobs" className="inline-flex min-h-touch items-center text-sm text-copper underline-offset-2 hover:underline">
@@ -46,53 +82,23 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
       </p>
     </header>
   );
+}
 
-  if (!office) {
-    return (
-      <div className="mx-auto max-w-xl space-y-4">
-        {header}
-        <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
-      </div>
-    );
-  }
-
-  const crews = await listCrewOptions(member.companyId);
+/** The job form's starting values: the job's own, empty where it has none yet. */
+function jobFormDefaults(job: JobPacket["job"]) {
   const v = (x: string | null) => x ?? "";
-  return (
-    <div className="space-y-6">
-      {header}
-      <p className="text-sm">
-        <Link href={`/deals/${job.dealId}`} className="text-copper underline-offset-2 hover:underline">
-          Open the deal
-        </Link>{" "}
-        · its Timeline shows every change below.
-      </p>
-      <JobForm
-        jobId={job.id}
-        crews={crews}
-        defaults={{
-          crewId: v(job.crewId),
-          surveyDate: v(job.surveyDate),
-          installDate: v(job.installDate),
-          permitNumber: v(job.permitNumber),
-          permitSubmittedOn: v(job.permitSubmittedOn),
-          permitApprovedOn: v(job.permitApprovedOn),
-          interconnectionNumber: v(job.interconnectionNumber),
-          interconnectionSubmittedOn: v(job.interconnectionSubmittedOn),
-          interconnectionApprovedOn: v(job.interconnectionApprovedOn),
-          inspectionOn: v(job.inspectionOn),
-          ptoOn: v(job.ptoOn),
-          notes: v(job.notes),
-        }}
-      />
-      {job.checklist.length === 0 ? <AddChecklistButton jobId={job.id} /> : null}
-      <div>
-        <h2 className="text-xl font-semibold">Job packet</h2>
-        <p className="text-sm text-graphite-soft">What the crew sees on their phone.</p>
-        <div className="mt-3 max-w-2xl">
-          <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
-        </div>
-      </div>
-    </div>
-  );
+  return {
+    crewId: v(job.crewId),
+    surveyDate: v(job.surveyDate),
+    installDate: v(job.installDate),
+    permitNumber: v(job.permitNumber),
+    permitSubmittedOn: v(job.permitSubmittedOn),
+    permitApprovedOn: v(job.permitApprovedOn),
+    interconnectionNumber: v(job.interconnectionNumber),
+    interconnectionSubmittedOn: v(job.interconnectionSubmittedOn),
+    interconnectionApprovedOn: v(job.interconnectionApprovedOn),
+    inspectionOn: v(job.inspectionOn),
+    ptoOn: v(job.ptoOn),
+    notes: v(job.notes),
+  };
 }

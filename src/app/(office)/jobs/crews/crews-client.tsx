@@ -1,6 +1,6 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useState } from "react";
+import { useState, type Dispatch, type SetStateAction } from "react";
 import { useForm } from "react-hook-form";
 import { ConfirmButton } from "@/components/ui/dialog";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -54,7 +54,6 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
   const [name, setName] = useState(crew.name);
   const [members, setMembers] = useState<string[]>(crew.memberIds);
   const [notice, setNotice] = useState<Notice | null>(null);
-  const [copied, setCopied] = useState(false);
   const save = useSave<{ name: string; memberIds: string[] }>({
     request: (json) => ({ url: `/api/crews/${crew.id}`, method: "PATCH", json }),
     success: "Crew saved.",
@@ -67,8 +66,6 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
   });
   const busy = save.pending || renew.pending;
   const dirty = name.trim() !== crew.name || members.slice().sort().join() !== crew.memberIds.slice().sort().join();
-  const crewName = (id: string | null) => crews.find((c) => c.id === id)?.name;
-
   return (
     <section className="card p-5" aria-labelledby={`crew-${crew.id}`} data-testid={`crew-${crew.name}`}>
       <h2 id={`crew-${crew.id}`} className="text-lg font-semibold">
@@ -85,31 +82,7 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
       <div className="mt-3 grid gap-6 md:grid-cols-2">
         <div className="space-y-3">
           <Field id={`crew-name-${crew.id}`} label="Name" value={name} maxLength={100} onChange={(e) => setName(e.target.value)} />
-          <fieldset>
-            <legend className="field-label">Installers in this crew</legend>
-            <ul className="space-y-1">
-              {installers.map((i) => (
-                <li key={i.id}>
-                  <label className="flex min-h-touch items-center gap-3">
-                    <input
-                      type="checkbox"
-                      className="h-5 w-5 accent-copper"
-                      checked={members.includes(i.id)}
-                      onChange={(e) => setMembers((m) => (e.target.checked ? [...m, i.id] : m.filter((x) => x !== i.id)))}
-                    />
-                    <span>
-                      {i.name}
-                      <span className="block text-xs text-graphite-soft">
-                        {i.email}
-                        {!i.active ? " · deactivated" : ""}
-                        {i.crewId && i.crewId !== crew.id ? ` · now in ${crewName(i.crewId) ?? "another crew"} (moves here when saved)` : ""}
-                      </span>
-                    </span>
-                  </label>
-                </li>
-              ))}
-            </ul>
-          </fieldset>
+          <CrewMembersField crew={crew} installers={installers} crews={crews} members={members} setMembers={setMembers} />
           <button
             type="button"
             className="btn-primary"
@@ -119,35 +92,75 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
             Save crew
           </button>
         </div>
-        <div>
-          <p className="field-label">Calendar address</p>
-          <p className="figure break-all rounded-md border border-paper-line bg-paper px-3 py-2 text-xs" data-testid="feed-url">
-            {crew.feedUrl}
-          </p>
-          <div className="mt-2 flex flex-wrap gap-2">
-            <button
-              type="button"
-              className="btn-quiet"
-              onClick={async () => {
-                await navigator.clipboard.writeText(crew.feedUrl).catch(() => undefined);
-                setCopied(true);
-              }}
-            >
-              {copied ? "Copied" : "Copy"}
-            </button>
-            <ConfirmButton
-              label="Renew address"
-              title="Renew the calendar address?"
-              message="Phones subscribed to the current address will stop updating until they subscribe again."
-              confirmLabel="Yes, renew it"
-              danger
-              className="btn-quiet"
-              disabled={busy}
-              onConfirm={() => renew.save()}
-            />
-          </div>
-        </div>
+        <CalendarAddress feedUrl={crew.feedUrl} busy={busy} onRenew={() => renew.save()} />
       </div>
     </section>
+  );
+}
+
+/** One checkbox per installer; one already in another crew moves here when the crew is saved. */
+function CrewMembersField({ crew, installers, crews, members, setMembers }: { crew: CrewRow; installers: Installer[]; crews: CrewRow[]; members: string[]; setMembers: Dispatch<SetStateAction<string[]>> }) {
+  const crewName = (id: string | null) => crews.find((c) => c.id === id)?.name;
+  return (
+    <fieldset>
+      <legend className="field-label">Installers in this crew</legend>
+      <ul className="space-y-1">
+        {installers.map((i) => (
+          <li key={i.id}>
+            <label className="flex min-h-touch items-center gap-3">
+              <input
+                type="checkbox"
+                className="h-5 w-5 accent-copper"
+                checked={members.includes(i.id)}
+                onChange={(e) => setMembers((m) => (e.target.checked ? [...m, i.id] : m.filter((x) => x !== i.id)))}
+              />
+              <span>
+                {i.name}
+                <span className="block text-xs text-graphite-soft">
+                  {i.email}
+                  {!i.active ? " · deactivated" : ""}
+                  {i.crewId && i.crewId !== crew.id ? ` · now in ${crewName(i.crewId) ?? "another crew"} (moves here when saved)` : ""}
+                </span>
+              </span>
+            </label>
+          </li>
+        ))}
+      </ul>
+    </fieldset>
+  );
+}
+
+/** The crew's calendar feed address, to copy to a phone, or to renew when it leaked. */
+function CalendarAddress({ feedUrl, busy, onRenew }: { feedUrl: string; busy: boolean; onRenew: () => void }) {
+  const [copied, setCopied] = useState(false);
+  return (
+    <div>
+      <p className="field-label">Calendar address</p>
+      <p className="figure break-all rounded-md border border-paper-line bg-paper px-3 py-2 text-xs" data-testid="feed-url">
+        {feedUrl}
+      </p>
+      <div className="mt-2 flex flex-wrap gap-2">
+        <button
+          type="button"
+          className="btn-quiet"
+          onClick={async () => {
+            await navigator.clipboard.writeText(feedUrl).catch(() => undefined);
+            setCopied(true);
+          }}
+        >
+          {copied ? "Copied" : "Copy"}
+        </button>
+        <ConfirmButton
+          label="Renew address"
+          title="Renew the calendar address?"
+          message="Phones subscribed to the current address will stop updating until they subscribe again."
+          confirmLabel="Yes, renew it"
+          danger
+          className="btn-quiet"
+          disabled={busy}
+          onConfirm={onRenew}
+        />
+      </div>
+    </div>
   );
 }

@@ -1,7 +1,7 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { ReactNode } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, type FieldErrors, type UseFormRegister } from "react-hook-form";
 import { Field, FieldShell, SelectField, StatusMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import {
@@ -34,6 +34,9 @@ const FINANCE_ROWS: { key: keyof FinanceAssumptions; label: string; hint: string
   { key: "utilityEscalationPctPerYear", label: "Utility prices rise (%/yr)", hint: "Applied to the whole bill, with and without solar. Our default; look at your utility's recent rate cases." },
   { key: "discountRatePct", label: "Discount rate for NPV (%)", hint: "How much less a dollar later is worth than a dollar now, for the NPV and LCOE. Our default." },
 ];
+
+/** What a part of the form needs from it: its fields' registration and their errors. */
+type FormParts = { register: UseFormRegister<CompanySettingsInput>; errors: FieldErrors<CompanySettingsInput> };
 
 export function CompanySettingsClient({ companyId, initial }: { companyId: string; initial: Initial }) {
   const {
@@ -77,28 +80,7 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
     <form onSubmit={handleSubmit(save)} noValidate className="mt-6 max-w-3xl space-y-8" aria-label="Company settings">
       <StatusMessage notice={notice} />
 
-      <section aria-labelledby="company-identity" className="card space-y-4 p-5">
-        <h2 id="company-identity" className="text-lg font-semibold">
-          On proposals
-        </h2>
-        <Field id="company-name" label="Company name" autoComplete="organization" error={errors.name?.message} {...register("name")} />
-        <Field
-          id="company-license"
-          label="Contractor licence number"
-          autoComplete="off"
-          hint="Printed on every proposal and its PDF beside the company's name. Leave empty if your state issues none."
-          error={errors.licenseNumber?.message}
-          {...register("licenseNumber")}
-        />
-        <SelectField
-          id="company-timezone"
-          label="Time zone"
-          options={COMPANY_TIME_ZONES.map((z) => ({ value: z.id, label: `${z.label} (${z.id})` }))}
-          hint="Where your working day starts and ends: the crews' jobs for today and this week follow it."
-          error={errors.timeZone?.message}
-          {...register("timeZone")}
-        />
-      </section>
+      <IdentitySection register={register} errors={errors} />
 
       <SettingsSection
         id="company-stall"
@@ -107,51 +89,7 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
         onDefaults={applyDefaults}
         intro={`Days a deal may sit in a stage before the Board and Today flag it, from ${STALL_DAYS_MIN} to ${STALL_DAYS_MAX}. Leave a stage empty to never flag it.`}
       >
-        <table className="mt-3 w-full text-left text-sm">
-          <thead className="text-xs uppercase tracking-wide text-graphite-soft">
-            <tr>
-              <th scope="col" className="py-1 pr-3">
-                Stage
-              </th>
-              <th scope="col" className="py-1 pr-3">
-                Flag after (days)
-              </th>
-              <th scope="col" className="py-1">
-                Default
-              </th>
-            </tr>
-          </thead>
-          <tbody className="divide-y divide-paper-line">
-            {STALL_STAGES.map((stage) => {
-              const error = errors.stallDays?.[stage]?.message;
-              const id = `stall-${stage}`;
-              return (
-                <tr key={stage}>
-                  <th scope="row" className="py-1.5 pr-3 font-medium">
-                    {STAGE_LABELS[stage]}
-                  </th>
-                  <td className="py-1.5 pr-3">
-                    <Field
-                      id={id}
-                      label={STAGE_LABELS[stage]}
-                      srLabel
-                      type="text"
-                      inputMode="numeric"
-                      autoComplete="off"
-                      placeholder="never"
-                      inputClassName="figure w-28"
-                      error={error}
-                      {...register(`stallDays.${stage}`)}
-                    />
-                  </td>
-                  <td className="py-1.5 text-graphite-soft">
-                    <span className="figure">{DEFAULT_STALL_SETTINGS[stage] ?? "never"}</span>
-                  </td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+        <StallTable register={register} errors={errors} />
       </SettingsSection>
 
       <SettingsSection
@@ -161,23 +99,7 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
         onDefaults={applyFinanceDefaults}
         intro="Every new offer's savings, payback, ROI and NPV are figured with these, and the customer's page and proposal PDF state them. They are assumptions, not forecasts. Proposals already sent keep the figures they were made with; re-save an offer to figure it again."
       >
-        <div className="mt-3 grid gap-4 sm:grid-cols-2">
-          {FINANCE_ROWS.map((row) => {
-            const l = FINANCE_LIMITS[row.key];
-            return (
-              <Field
-                key={row.key}
-                id={`finance-${row.key}`}
-                label={row.label}
-                inputMode="decimal"
-                autoComplete="off"
-                hint={`${row.hint} Default ${DEFAULT_FINANCE[row.key]}; from ${l.min} to ${l.max}.`}
-                error={errors.finance?.[row.key]?.message}
-                {...register(`finance.${row.key}`)}
-              />
-            );
-          })}
-        </div>
+        <FinanceFields register={register} errors={errors} />
       </SettingsSection>
 
       <div className="flex gap-2">
@@ -205,5 +127,106 @@ function SettingsSection(props: { id: string; title: string; defaultsLabel: stri
       <p className="mt-1 text-sm text-graphite-soft">{props.intro}</p>
       {props.children}
     </section>
+  );
+}
+
+/** The company's name, licence number and time zone. */
+function IdentitySection({ register, errors }: FormParts) {
+  return (
+    <section aria-labelledby="company-identity" className="card space-y-4 p-5">
+      <h2 id="company-identity" className="text-lg font-semibold">
+        On proposals
+      </h2>
+      <Field id="company-name" label="Company name" autoComplete="organization" error={errors.name?.message} {...register("name")} />
+      <Field
+        id="company-license"
+        label="Contractor licence number"
+        autoComplete="off"
+        hint="Printed on every proposal and its PDF beside the company's name. Leave empty if your state issues none."
+        error={errors.licenseNumber?.message}
+        {...register("licenseNumber")}
+      />
+      <SelectField
+        id="company-timezone"
+        label="Time zone"
+        options={COMPANY_TIME_ZONES.map((z) => ({ value: z.id, label: `${z.label} (${z.id})` }))}
+        hint="Where your working day starts and ends: the crews' jobs for today and this week follow it."
+        error={errors.timeZone?.message}
+        {...register("timeZone")}
+      />
+    </section>
+  );
+}
+
+/** One row a stage: the days before a deal in it is flagged, beside the default. */
+function StallTable({ register, errors }: FormParts) {
+  return (
+    <table className="mt-3 w-full text-left text-sm">
+      <thead className="text-xs uppercase tracking-wide text-graphite-soft">
+        <tr>
+          <th scope="col" className="py-1 pr-3">
+            Stage
+          </th>
+          <th scope="col" className="py-1 pr-3">
+            Flag after (days)
+          </th>
+          <th scope="col" className="py-1">
+            Default
+          </th>
+        </tr>
+      </thead>
+      <tbody className="divide-y divide-paper-line">
+        {STALL_STAGES.map((stage) => {
+          const error = errors.stallDays?.[stage]?.message;
+          const id = `stall-${stage}`;
+          return (
+            <tr key={stage}>
+              <th scope="row" className="py-1.5 pr-3 font-medium">
+                {STAGE_LABELS[stage]}
+              </th>
+              <td className="py-1.5 pr-3">
+                <Field
+                  id={id}
+                  label={STAGE_LABELS[stage]}
+                  srLabel
+                  type="text"
+                  inputMode="numeric"
+                  autoComplete="off"
+                  placeholder="never"
+                  inputClassName="figure w-28"
+                  error={error}
+                  {...register(`stallDays.${stage}`)}
+                />
+              </td>
+              <td className="py-1.5 text-graphite-soft">
+                <span className="figure">{DEFAULT_STALL_SETTINGS[stage] ?? "never"}</span>
+              </td>
+            </tr>
+          );
+        })}
+      </tbody>
+    </table>
+  );
+}
+
+function FinanceFields({ register, errors }: FormParts) {
+  return (
+    <div className="mt-3 grid gap-4 sm:grid-cols-2">
+      {FINANCE_ROWS.map((row) => {
+        const l = FINANCE_LIMITS[row.key];
+        return (
+          <Field
+            key={row.key}
+            id={`finance-${row.key}`}
+            label={row.label}
+            inputMode="decimal"
+            autoComplete="off"
+            hint={`${row.hint} Default ${DEFAULT_FINANCE[row.key]}; from ${l.min} to ${l.max}.`}
+            error={errors.finance?.[row.key]?.message}
+            {...register(`finance.${row.key}`)}
+          />
+        );
+      })}
+    </div>
   );
 }

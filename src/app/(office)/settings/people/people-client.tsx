@@ -17,9 +17,11 @@ type InvitationView = { id: string; email: string; name: string | null; role: Ro
 
 const roleOptions = (roles: readonly Role[]) => roles.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
+type PersonChange = { person: PersonView; change: UpdatePersonInput; done: string };
+
 export function PeopleClient(props: { me: string; myRole: Role; roles: Role[]; people: PersonView[]; invitations: InvitationView[] }) {
   const [notice, setNotice] = useState<Notice | null>(null);
-  const change = useSave<{ person: PersonView; change: UpdatePersonInput; done: string }>({
+  const change = useSave<PersonChange>({
     request: ({ person, change }) => ({ url: `/api/people/${person.id}`, method: "PATCH", json: change }),
     success: (_, { done }) => done,
     notify: setNotice,
@@ -54,80 +56,13 @@ export function PeopleClient(props: { me: string; myRole: Role; roles: Role[]; p
             </>
           }
         >
-          {props.people.map((p) => {
-            const isMe = p.userId === props.me;
-            const locked = isMe || (p.role === "owner" && props.myRole !== "owner");
-            const roles = locked ? [p.role] : props.roles.includes(p.role) ? props.roles : [p.role, ...props.roles];
-            return (
-              <tr key={p.id} data-testid={`person-${p.email}`}>
-                <Td>
-                  <span className="font-medium">{p.name}</span>
-                  {isMe ? <span className="ml-2 text-xs text-graphite-soft">(you)</span> : null}
-                  <span className="block text-xs text-graphite-soft">{p.email}</span>
-                </Td>
-                <Td>
-                  <SelectField
-                    id={`role-${p.id}`}
-                    label={`Role of ${p.name}`}
-                    srLabel
-                    selectClassName="min-w-40"
-                    options={roleOptions(roles)}
-                    value={p.role}
-                    disabled={locked || pending}
-                    onChange={(e) => {
-                      const role = e.target.value as Role;
-                      change.save({ person: p, change: { role }, done: `${p.name} is now ${ROLE_LABELS[role]}.` });
-                    }}
-                  />
-                </Td>
-                <Td>{p.status === "active" ? <Badge tone="success">Active</Badge> : <Badge tone="danger">Deactivated</Badge>}</Td>
-                <Td>{formatDate(new Date(p.joinedAt))}</Td>
-                <Td className="text-right">
-                  {locked ? null : (
-                    <button
-                      type="button"
-                      className={p.status === "active" ? "btn-danger" : "btn-quiet"}
-                      disabled={pending}
-                      onClick={() =>
-                        p.status === "active"
-                          ? change.save({ person: p, change: { status: "deactivated" }, done: `${p.name} is deactivated and signed out.` })
-                          : change.save({ person: p, change: { status: "active" }, done: `${p.name} can sign in again.` })
-                      }
-                    >
-                      {p.status === "active" ? "Deactivate" : "Reactivate"}
-                    </button>
-                  )}
-                </Td>
-              </tr>
-            );
-          })}
+          {props.people.map((p) => (
+            <PersonRow key={p.id} person={p} me={props.me} myRole={props.myRole} roles={props.roles} pending={pending} onChange={change.save} />
+          ))}
         </TableShell>
       </section>
 
-      <section aria-labelledby="invitations-heading" className="space-y-2">
-        <h2 id="invitations-heading" className="text-lg font-semibold">
-          Open invitations
-        </h2>
-        {props.invitations.length === 0 ? (
-          <EmptyState>None.</EmptyState>
-        ) : (
-          <ul className="divide-y divide-paper-line rounded-card border border-paper-line bg-white">
-            {props.invitations.map((i) => (
-              <li key={i.id} className="flex flex-wrap items-center justify-between gap-2 px-4 py-2" data-testid={`invitation-${i.email}`}>
-                <span>
-                  <span className="font-medium">{i.email}</span>
-                  <span className="block text-xs text-graphite-soft">
-                    {ROLE_LABELS[i.role]} · valid until {formatDate(new Date(i.expiresAt))}
-                  </span>
-                </span>
-                <button type="button" className="btn-quiet" disabled={pending} onClick={() => withdraw.save(i)}>
-                  Withdraw
-                </button>
-              </li>
-            ))}
-          </ul>
-        )}
-      </section>
+      <InvitationsSection invitations={props.invitations} pending={pending} onWithdraw={withdraw.save} />
     </div>
   );
 }
@@ -160,6 +95,85 @@ function InviteForm({ roles, notify }: { roles: Role[]; notify: (notice: Notice 
           {invite.pending ? "Sending…" : "Send invitation"}
         </button>
       </form>
+    </section>
+  );
+}
+
+/** One person: their role (locked for oneself, and for an owner unless an owner changes it), status and the button to (re)activate them. */
+function PersonRow({ person: p, me, myRole, roles: allowed, pending, onChange }: { person: PersonView; me: string; myRole: Role; roles: Role[]; pending: boolean; onChange: (change: PersonChange) => void }) {
+  const isMe = p.userId === me;
+  const locked = isMe || (p.role === "owner" && myRole !== "owner");
+  const roles = locked ? [p.role] : allowed.includes(p.role) ? allowed : [p.role, ...allowed];
+  return (
+    <tr data-testid={`person-${p.email}`}>
+      <Td>
+        <span className="font-medium">{p.name}</span>
+        {isMe ? <span className="ml-2 text-xs text-graphite-soft">(you)</span> : null}
+        <span className="block text-xs text-graphite-soft">{p.email}</span>
+      </Td>
+      <Td>
+        <SelectField
+          id={`role-${p.id}`}
+          label={`Role of ${p.name}`}
+          srLabel
+          selectClassName="min-w-40"
+          options={roleOptions(roles)}
+          value={p.role}
+          disabled={locked || pending}
+          onChange={(e) => {
+            const role = e.target.value as Role;
+            onChange({ person: p, change: { role }, done: `${p.name} is now ${ROLE_LABELS[role]}.` });
+          }}
+        />
+      </Td>
+      <Td>{p.status === "active" ? <Badge tone="success">Active</Badge> : <Badge tone="danger">Deactivated</Badge>}</Td>
+      <Td>{formatDate(new Date(p.joinedAt))}</Td>
+      <Td className="text-right">
+        {locked ? null : (
+          <button
+            type="button"
+            className={p.status === "active" ? "btn-danger" : "btn-quiet"}
+            disabled={pending}
+            onClick={() =>
+              p.status === "active"
+                ? onChange({ person: p, change: { status: "deactivated" }, done: `${p.name} is deactivated and signed out.` })
+                : onChange({ person: p, change: { status: "active" }, done: `${p.name} can sign in again.` })
+            }
+          >
+            {p.status === "active" ? "Deactivate" : "Reactivate"}
+          </button>
+        )}
+      </Td>
+    </tr>
+  );
+}
+
+/** Invitations not yet taken up, each with a button to withdraw it. */
+function InvitationsSection({ invitations, pending, onWithdraw }: { invitations: InvitationView[]; pending: boolean; onWithdraw: (invitation: InvitationView) => void }) {
+  return (
+    <section aria-labelledby="invitations-heading" className="space-y-2">
+      <h2 id="invitations-heading" className="text-lg font-semibold">
+        Open invitations
+      </h2>
+      {invitations.length === 0 ? (
+        <EmptyState>None.</EmptyState>
+      ) : (
+        <ul className="divide-y divide-paper-line rounded-card border border-paper-line bg-white">
+          {invitations.map((i) => (
+            <li key={i.id} className="flex flex-wrap items-center justify-between gap-2 px-4 py-2" data-testid={`invitation-${i.email}`}>
+              <span>
+                <span className="font-medium">{i.email}</span>
+                <span className="block text-xs text-graphite-soft">
+                  {ROLE_LABELS[i.role]} · valid until {formatDate(new Date(i.expiresAt))}
+                </span>
+              </span>
+              <button type="button" className="btn-quiet" disabled={pending} onClick={() => onWithdraw(i)}>
+                Withdraw
+              </button>
+            </li>
+          ))}
+        </ul>
+      )}
     </section>
   );
 }
