@@ -219,33 +219,35 @@ function intOf(el: XmlElement, name: string, issues: EngineIssue[]): number | nu
   return v;
 }
 
-/** Read the delivered-energy interval readings of an ESPI (Green Button) XML document. */
-export function parseEspiXml(text: string, options: { utcOffsetHours?: number } = {}): EspiParse {
-  const root = parseXml(text);
-  const issues: EngineIssue[] = [];
-  const notes: string[] = [];
-
-  // Time zone: LocalTimeParameters.tzOffset (seconds), else the caller's site offset.
+/** The file's UTC offset in seconds: LocalTimeParameters.tzOffset, else the caller's site offset (null: neither). */
+function espiTzOffsetSec(root: XmlElement, utcOffsetHours: number | undefined, issues: EngineIssue[], notes: string[]): number | null {
   let tzOffsetSec: number | null = null;
   for (const ltp of descendants(root, "LocalTimeParameters")) tzOffsetSec = intOf(ltp, "tzOffset", issues);
   if (tzOffsetSec === null && root.name === "LocalTimeParameters") tzOffsetSec = intOf(root, "tzOffset", issues);
   if (tzOffsetSec === null) {
-    if (options.utcOffsetHours === undefined) {
+    if (utcOffsetHours === undefined) {
       issues.push({ path: "utcOffsetHours", message: "the file has no LocalTimeParameters.tzOffset; give the site's UTC offset" });
     } else {
-      tzOffsetSec = options.utcOffsetHours * 3600;
-      notes.push(`No LocalTimeParameters in the file: used the site's UTC offset (${options.utcOffsetHours} h).`);
+      tzOffsetSec = utcOffsetHours * 3600;
+      notes.push(`No LocalTimeParameters in the file: used the site's UTC offset (${utcOffsetHours} h).`);
     }
-  } else if (options.utcOffsetHours !== undefined && Math.abs(options.utcOffsetHours * 3600 - tzOffsetSec) > 1) {
-    notes.push(`The file's time zone (UTC${tzOffsetSec >= 0 ? "+" : ""}${tzOffsetSec / 3600}) differs from the site's (${options.utcOffsetHours} h); the file's was used.`);
+  } else if (utcOffsetHours !== undefined && Math.abs(utcOffsetHours * 3600 - tzOffsetSec) > 1) {
+    notes.push(`The file's time zone (UTC${tzOffsetSec >= 0 ? "+" : ""}${tzOffsetSec / 3600}) differs from the site's (${utcOffsetHours} h); the file's was used.`);
   }
+  return tzOffsetSec;
+}
 
-  // ReadingTypes by their self link; MeterReadings' links to ReadingTypes.
+const linksOf = (entry: XmlElement) => entry.children.filter((c) => c.name === "link").map((l) => ({ rel: l.attributes.rel ?? "", href: l.attributes.href ?? "" }));
+
+/**
+ * The document's Atom entries, and how to find an IntervalBlock's ReadingType: ReadingTypes by
+ * their self link, MeterReadings' links to ReadingTypes (or the only ReadingType there is).
+ */
+function espiReadingTypes(root: XmlElement, issues: EngineIssue[]): { entries: XmlElement[]; typeForBlock: (entry: XmlElement | null) => ReadingTypeInfo | null } {
   const readingTypes = new Map<string, ReadingTypeInfo>();
   const allTypes: ReadingTypeInfo[] = [];
   const meterReadingType = new Map<string, string[]>();
   const entries = root.name === "entry" ? [root] : [...descendants(root, "entry")];
-  const linksOf = (entry: XmlElement) => entry.children.filter((c) => c.name === "link").map((l) => ({ rel: l.attributes.rel ?? "", href: l.attributes.href ?? "" }));
   const readType = (rt: XmlElement): ReadingTypeInfo => ({
     uom: intOf(rt, "uom", issues),
     powerOfTen: intOf(rt, "powerOfTenMultiplier", issues) ?? 0,
@@ -282,9 +284,11 @@ export function parseEspiXml(text: string, options: { utcOffsetHours?: number } 
     }
     return allTypes.length === 1 ? allTypes[0] : null;
   };
+  return { entries, typeForBlock };
+}
 
-  const readings: IntervalReading[] = [];
-  let receivedKwh: number | null = null;
+/** The IntervalBlocks, each with the Atom entry holding it (null in a bare document). */
+function espiIntervalBlocks(root: XmlElement, entries: XmlElement[], issues: EngineIssue[]): { block: XmlElement; entry: XmlElement | null }[] {
   const blocks: { block: XmlElement; entry: XmlElement | null }[] = [];
   if (entries.length > 0) {
     for (const entry of entries) {
@@ -295,49 +299,72 @@ export function parseEspiXml(text: string, options: { utcOffsetHours?: number } 
     for (const block of root.name === "IntervalBlock" ? [root] : descendants(root, "IntervalBlock")) blocks.push({ block, entry: null });
   }
   if (blocks.length === 0) issues.push({ path: "IntervalBlock", message: "the file holds no IntervalBlock" });
+  return blocks;
+}
 
+/** Whether a block's ReadingType is interval energy in Wh; an issue says why not. */
+function isIntervalEnergy(block: XmlElement, type: ReadingTypeInfo | null, issues: EngineIssue[]): type is ReadingTypeInfo {
+  if (!type) {
+    issues.push({ path: `line ${block.line}`, message: "cannot tell which ReadingType (unit) this IntervalBlock uses" });
+    return false;
+  }
+  if (type.uom !== null && type.uom !== ESPI_UOM_WH) {
+    issues.push({ path: `line ${type.line}`, message: `ReadingType uom ${type.uom} is not energy in Wh (${ESPI_UOM_WH}); only Wh readings are accepted` });
+    return false;
+  }
+  if (type.accumulation !== null && ESPI_ACCUMULATION_RUNNING.has(type.accumulation)) {
+    issues.push({ path: `line ${type.line}`, message: `accumulationBehaviour ${type.accumulation} is a running register total; interval energy (deltaData, ${ESPI_ACCUMULATION_DELTA}) is needed` });
+    return false;
+  }
+  return true;
+}
+
+/** One block's IntervalReadings: delivered ones into `acc.readings`, received ones (reverse) summed into `acc.receivedKwh`. */
+function readEspiBlock(block: XmlElement, kwhPerUnit: number, reverse: boolean, offset: number, issues: EngineIssue[], acc: { readings: IntervalReading[]; receivedKwh: number | null }): void {
+  for (const ir of block.children) {
+    if (ir.name !== "IntervalReading") continue;
+    const period = child(ir, "timePeriod");
+    const start = period ? intOf(period, "start", issues) : null;
+    const duration = period ? intOf(period, "duration", issues) : null;
+    const value = intOf(ir, "value", issues);
+    if (start === null || duration === null || value === null) {
+      if (issues.length < MAX_ISSUES) issues.push({ path: `line ${ir.line}`, message: "IntervalReading needs timePeriod start, duration and value" });
+      continue;
+    }
+    if (duration <= 0 || duration > MAX_READING_SECONDS) {
+      issues.push({ path: `line ${ir.line}`, message: `duration ${duration} s is outside 1 s … ${MAX_READING_SECONDS} s` });
+      continue;
+    }
+    const kwh = value * kwhPerUnit;
+    if (reverse) acc.receivedKwh = (acc.receivedKwh ?? 0) + kwh;
+    else acc.readings.push({ startSec: start + offset, durationSec: duration, kwh });
+  }
+}
+
+/** Read the delivered-energy interval readings of an ESPI (Green Button) XML document. */
+export function parseEspiXml(text: string, options: { utcOffsetHours?: number } = {}): EspiParse {
+  const root = parseXml(text);
+  const issues: EngineIssue[] = [];
+  const notes: string[] = [];
+  const tzOffsetSec = espiTzOffsetSec(root, options.utcOffsetHours, issues, notes);
+  const { entries, typeForBlock } = espiReadingTypes(root, issues);
+  const blocks = espiIntervalBlocks(root, entries, issues);
+
+  const acc: { readings: IntervalReading[]; receivedKwh: number | null } = { readings: [], receivedKwh: null };
   const offset = tzOffsetSec ?? 0;
   let skippedOther = 0;
   for (const { block, entry } of blocks) {
     const type = typeForBlock(entry);
-    if (!type) {
-      issues.push({ path: `line ${block.line}`, message: "cannot tell which ReadingType (unit) this IntervalBlock uses" });
-      continue;
-    }
-    if (type.uom !== null && type.uom !== ESPI_UOM_WH) {
-      issues.push({ path: `line ${type.line}`, message: `ReadingType uom ${type.uom} is not energy in Wh (${ESPI_UOM_WH}); only Wh readings are accepted` });
-      continue;
-    }
-    if (type.accumulation !== null && ESPI_ACCUMULATION_RUNNING.has(type.accumulation)) {
-      issues.push({ path: `line ${type.line}`, message: `accumulationBehaviour ${type.accumulation} is a running register total; interval energy (deltaData, ${ESPI_ACCUMULATION_DELTA}) is needed` });
-      continue;
-    }
+    if (!isIntervalEnergy(block, type, issues)) continue;
     const reverse = type.flowDirection === ESPI_FLOW_REVERSE;
     if (type.flowDirection !== null && type.flowDirection !== ESPI_FLOW_FORWARD && !reverse) {
       skippedOther++;
       continue;
     }
-    const kwhPerUnit = Math.pow(10, type.powerOfTen) / 1000;
-    for (const ir of block.children) {
-      if (ir.name !== "IntervalReading") continue;
-      const period = child(ir, "timePeriod");
-      const start = period ? intOf(period, "start", issues) : null;
-      const duration = period ? intOf(period, "duration", issues) : null;
-      const value = intOf(ir, "value", issues);
-      if (start === null || duration === null || value === null) {
-        if (issues.length < MAX_ISSUES) issues.push({ path: `line ${ir.line}`, message: "IntervalReading needs timePeriod start, duration and value" });
-        continue;
-      }
-      if (duration <= 0 || duration > MAX_READING_SECONDS) {
-        issues.push({ path: `line ${ir.line}`, message: `duration ${duration} s is outside 1 s … ${MAX_READING_SECONDS} s` });
-        continue;
-      }
-      const kwh = value * kwhPerUnit;
-      if (reverse) receivedKwh = (receivedKwh ?? 0) + kwh;
-      else readings.push({ startSec: start + offset, durationSec: duration, kwh });
-    }
+    readEspiBlock(block, Math.pow(10, type.powerOfTen) / 1000, reverse, offset, issues, acc);
     if (issues.length >= MAX_ISSUES) break;
   }
+  const { readings, receivedKwh } = acc;
   if (receivedKwh !== null) notes.push(`The feed also has ${round1(receivedKwh)} kWh received from the customer (flowDirection 19); it is not counted as usage.`);
   if (skippedOther > 0) notes.push(`${skippedOther} IntervalBlock(s) with another flow direction (e.g. net) were left out.`);
   if (issues.length > 0) throw new EngineInputError(issues.slice(0, MAX_ISSUES), "Green Button XML");
