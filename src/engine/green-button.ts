@@ -34,7 +34,7 @@
 import { TZDate, tzOffset } from "@date-fns/tz";
 import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { z } from "zod";
-import { isBlankRecord, readCsvRecords } from "./csv";
+import { isBlankRecord, readCsvRecords, type CsvRecord } from "./csv";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
 import { REFERENCE_LOAD_HOURLY_KWH } from "./data/reference-load-8760";
 import { HOURS_PER_YEAR, HOUR_MONTH, isTimeZone, MONTH_DAYS, MONTH_START_DAY, standardOffsetMinutes } from "./year-calendar";
@@ -413,14 +413,11 @@ function normaliseDate(s: string): string | null {
   return /^\d{4}-\d{2}-\d{2}$/.test(s.trim()) ? s.trim() : null;
 }
 
-/**
- * Read interval CSV: timestamp + kWh columns, or date + start time (+ end time, units) + usage.
- * Each row is an interval starting at its timestamp; its length comes from the end-time column
- * or from the most common step between consecutive timestamps.
- */
-export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number; timeZone?: string } = {}): { readings: IntervalReading[]; notes: string[] } {
-  const wallClock = options.timeZone ? wallClockReader(options.timeZone) : null;
-  const records = readCsvRecords(text);
+type CsvColumns = { ts: number; date: number; start: number; end: number; kwh: number; unit: number };
+type CsvRow = { sec: number; endSec: number | null; kwh: number };
+
+/** The header row in the first 50 lines (a time column and an energy column) and where each column is. */
+function findCsvHeader(records: CsvRecord[]): { headerIdx: number; col: CsvColumns } {
   const norm = (s: string) => s.trim().toLowerCase();
   let headerIdx = -1;
   let cols: string[] = [];
@@ -440,90 +437,96 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
     );
   }
   const find = (names: string[]) => cols.findIndex((c) => names.includes(c));
-  const tsCol = find(TIMESTAMP_HEADERS);
-  const dateCol = find(DATE_HEADERS);
-  const startCol = find(START_TIME_HEADERS);
-  const endCol = find(END_TIME_HEADERS);
-  const kwhCol = find(ENERGY_HEADERS);
-  const unitCol = find(UNIT_HEADERS);
+  return {
+    headerIdx,
+    col: { ts: find(TIMESTAMP_HEADERS), date: find(DATE_HEADERS), start: find(START_TIME_HEADERS), end: find(END_TIME_HEADERS), kwh: find(ENERGY_HEADERS), unit: find(UNIT_HEADERS) },
+  };
+}
 
-  const issues: EngineIssue[] = [];
-  const notes: string[] = [];
-  const rows: { sec: number; endSec: number | null; kwh: number }[] = [];
-  let withOffset = 0;
-  let withoutOffset = 0;
-  for (let i = headerIdx + 1; i < records.length && issues.length < MAX_ISSUES; i++) {
-    if (isBlankRecord(records[i])) continue;
-    const f = records[i].cells.map((c) => c.trim());
-    const lineNo = `line ${records[i].line}`;
-    if (records[i].problem) {
-      issues.push({ path: lineNo, message: `this row cannot be read: ${records[i].problem}` });
-      continue;
-    }
-    let stamp: string;
-    if (tsCol >= 0) stamp = f[tsCol] ?? "";
-    else {
-      const date = normaliseDate(f[dateCol] ?? "");
-      if (!date) {
-        issues.push({ path: lineNo, message: `date "${f[dateCol] ?? ""}" is not YYYY-MM-DD or M/D/YYYY` });
-        continue;
-      }
-      stamp = `${date}T${(f[startCol] ?? "").padStart(5, "0")}`;
-    }
-    const ts = parseTimestamp(stamp);
-    if (!ts) {
-      issues.push({ path: lineNo, message: `timestamp "${stamp}" is not an ISO 8601 date and time` });
-      continue;
-    }
-    const raw = (f[kwhCol] ?? "").replace(/,/g, "");
-    let kwh = Number(raw);
-    if (raw === "" || !Number.isFinite(kwh) || kwh < 0) {
-      issues.push({ path: lineNo, message: `kWh "${f[kwhCol] ?? ""}" must be a number ≥ 0` });
-      continue;
-    }
-    if (unitCol >= 0) {
-      const unit = (f[unitCol] ?? "").trim().toLowerCase();
-      if (unit === "wh") kwh /= 1000;
-      else if (unit !== "kwh" && unit !== "") {
-        issues.push({ path: lineNo, message: `unit "${f[unitCol]}" is not kWh or Wh` });
-        continue;
-      }
-    }
-    let sec = ts.sec;
-    if (ts.offsetSec !== null) {
-      withOffset++;
-      if (options.utcOffsetHours === undefined) {
-        issues.push({ path: "utcOffsetHours", message: "timestamps carry a UTC offset; give the site's standard UTC offset to place them in local standard time" });
-        break;
-      }
-      sec = ts.sec - ts.offsetSec + options.utcOffsetHours * 3600;
-    } else {
-      withoutOffset++;
-      if (wallClock) sec = wallClock(ts.sec);
-    }
-    let endSec: number | null = null;
-    if (endCol >= 0 && tsCol < 0 && f[endCol]) {
-      const end = parseTimestamp(`${stamp.slice(0, 10)}T${f[endCol].padStart(5, "0")}`);
-      if (end) {
-        // "00:59" style end times name the last minute of the interval.
-        endSec = end.sec + (end.sec % 3600 === 3540 || end.sec % 900 === 840 ? 60 : 0);
-        if (endSec <= ts.sec) endSec += 86_400; // an interval ending after midnight
-        endSec = sec + (endSec - ts.sec);
-      }
-    }
-    rows.push({ sec, endSec, kwh });
+/** A row's start as written: the timestamp column, or the date and start time joined (null: an issue says why). */
+function rowStamp(f: string[], col: CsvColumns, lineNo: string, issues: EngineIssue[]): string | null {
+  if (col.ts >= 0) return f[col.ts] ?? "";
+  const date = normaliseDate(f[col.date] ?? "");
+  if (!date) {
+    issues.push({ path: lineNo, message: `date "${f[col.date] ?? ""}" is not YYYY-MM-DD or M/D/YYYY` });
+    return null;
   }
-  if (issues.length > 0) throw new EngineInputError(issues, "interval CSV");
-  if (rows.length === 0) throw new EngineInputError([{ path: `line ${headerIdx + 2}`, message: "no data rows" }], "interval CSV");
-  if (withoutOffset > 0) {
-    notes.push(
-      options.timeZone
-        ? `Timestamps without a UTC offset were read as clock time in ${options.timeZone} (daylight saving included) and placed in local standard time.`
-        : "Timestamps without a UTC offset were read as local standard time.",
-    );
-  }
-  if (withOffset > 0 && withoutOffset > 0) notes.push("Some timestamps carry a UTC offset and some do not.");
+  return `${date}T${(f[col.start] ?? "").padStart(5, "0")}`;
+}
 
+/** A row's energy in kWh, Wh converted by the unit column (null: an issue says why). */
+function rowKwh(f: string[], col: CsvColumns, lineNo: string, issues: EngineIssue[]): number | null {
+  const raw = (f[col.kwh] ?? "").replace(/,/g, "");
+  let kwh = Number(raw);
+  if (raw === "" || !Number.isFinite(kwh) || kwh < 0) {
+    issues.push({ path: lineNo, message: `kWh "${f[col.kwh] ?? ""}" must be a number ≥ 0` });
+    return null;
+  }
+  if (col.unit >= 0) {
+    const unit = (f[col.unit] ?? "").trim().toLowerCase();
+    if (unit === "wh") kwh /= 1000;
+    else if (unit !== "kwh" && unit !== "") {
+      issues.push({ path: lineNo, message: `unit "${f[col.unit]}" is not kWh or Wh` });
+      return null;
+    }
+  }
+  return kwh;
+}
+
+/**
+ * One data row: its start in local standard seconds, its end when an end-time column gives it, and
+ * its kWh. null: an issue says why; "stop": stamps carry offsets but no site offset was given.
+ */
+function readCsvRow(
+  record: CsvRecord,
+  col: CsvColumns,
+  utcOffsetHours: number | undefined,
+  wallClock: ((naiveSec: number) => number) | null,
+  counts: { withOffset: number; withoutOffset: number },
+  issues: EngineIssue[],
+): CsvRow | null | "stop" {
+  const f = record.cells.map((c) => c.trim());
+  const lineNo = `line ${record.line}`;
+  if (record.problem) {
+    issues.push({ path: lineNo, message: `this row cannot be read: ${record.problem}` });
+    return null;
+  }
+  const stamp = rowStamp(f, col, lineNo, issues);
+  if (stamp === null) return null;
+  const ts = parseTimestamp(stamp);
+  if (!ts) {
+    issues.push({ path: lineNo, message: `timestamp "${stamp}" is not an ISO 8601 date and time` });
+    return null;
+  }
+  const kwh = rowKwh(f, col, lineNo, issues);
+  if (kwh === null) return null;
+  let sec = ts.sec;
+  if (ts.offsetSec !== null) {
+    counts.withOffset++;
+    if (utcOffsetHours === undefined) {
+      issues.push({ path: "utcOffsetHours", message: "timestamps carry a UTC offset; give the site's standard UTC offset to place them in local standard time" });
+      return "stop";
+    }
+    sec = ts.sec - ts.offsetSec + utcOffsetHours * 3600;
+  } else {
+    counts.withoutOffset++;
+    if (wallClock) sec = wallClock(ts.sec);
+  }
+  let endSec: number | null = null;
+  if (col.end >= 0 && col.ts < 0 && f[col.end]) {
+    const end = parseTimestamp(`${stamp.slice(0, 10)}T${f[col.end].padStart(5, "0")}`);
+    if (end) {
+      // "00:59" style end times name the last minute of the interval.
+      endSec = end.sec + (end.sec % 3600 === 3540 || end.sec % 900 === 840 ? 60 : 0);
+      if (endSec <= ts.sec) endSec += 86_400; // an interval ending after midnight
+      endSec = sec + (endSec - ts.sec);
+    }
+  }
+  return { sec, endSec, kwh };
+}
+
+/** The rows in time order as readings, each as long as its end time says or else the common step. */
+function csvReadings(rows: CsvRow[]): IntervalReading[] {
   rows.sort((a, b) => a.sec - b.sec);
   // Interval length: the most common step between consecutive starts (rows without an end time).
   const steps = new Map<number, number>();
@@ -534,7 +537,7 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
   let commonStep = 3600;
   let bestCount = 0;
   for (const [step, count] of steps) if (count > bestCount || (count === bestCount && step < commonStep)) [commonStep, bestCount] = [step, count];
-  const readings = rows.map((r, i) => {
+  return rows.map((r, i) => {
     let duration = r.endSec !== null ? r.endSec - r.sec : commonStep;
     // A row followed sooner than the common step (e.g. 15-minute rows inside hourly data) ends at the next row.
     if (r.endSec === null && i + 1 < rows.length) {
@@ -543,7 +546,38 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
     }
     return { startSec: r.sec, durationSec: Math.min(Math.max(duration, 1), MAX_READING_SECONDS), kwh: r.kwh };
   });
-  return { readings, notes };
+}
+
+/**
+ * Read interval CSV: timestamp + kWh columns, or date + start time (+ end time, units) + usage.
+ * Each row is an interval starting at its timestamp; its length comes from the end-time column
+ * or from the most common step between consecutive timestamps.
+ */
+export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number; timeZone?: string } = {}): { readings: IntervalReading[]; notes: string[] } {
+  const wallClock = options.timeZone ? wallClockReader(options.timeZone) : null;
+  const records = readCsvRecords(text);
+  const { headerIdx, col } = findCsvHeader(records);
+  const issues: EngineIssue[] = [];
+  const notes: string[] = [];
+  const rows: CsvRow[] = [];
+  const counts = { withOffset: 0, withoutOffset: 0 };
+  for (let i = headerIdx + 1; i < records.length && issues.length < MAX_ISSUES; i++) {
+    if (isBlankRecord(records[i])) continue;
+    const row = readCsvRow(records[i], col, options.utcOffsetHours, wallClock, counts, issues);
+    if (row === "stop") break;
+    if (row) rows.push(row);
+  }
+  if (issues.length > 0) throw new EngineInputError(issues, "interval CSV");
+  if (rows.length === 0) throw new EngineInputError([{ path: `line ${headerIdx + 2}`, message: "no data rows" }], "interval CSV");
+  if (counts.withoutOffset > 0) {
+    notes.push(
+      options.timeZone
+        ? `Timestamps without a UTC offset were read as clock time in ${options.timeZone} (daylight saving included) and placed in local standard time.`
+        : "Timestamps without a UTC offset were read as local standard time.",
+    );
+  }
+  if (counts.withOffset > 0 && counts.withoutOffset > 0) notes.push("Some timestamps carry a UTC offset and some do not.");
+  return { readings: csvReadings(rows), notes };
 }
 
 /**
