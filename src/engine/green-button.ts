@@ -643,10 +643,8 @@ function gridLabel(h: number): string {
   return `${pad2(m + 1)}-${pad2(day - MONTH_START_DAY[m] + 1)} ${pad2(h % 24)}:00`;
 }
 
-/** Put interval readings (local standard seconds) onto the typical-year grid and fill the gaps. */
-export function readingsToProfile(readings: readonly IntervalReading[], notesIn: string[] = [], receivedKwh: number | null = null): IntervalProfile {
-  const notes = [...notesIn];
-  // Split each reading over the clock hours it touches.
+/** Each reading split over the clock hours it touches: kWh and seconds covered per hour since 1970, and the first and last start. */
+function spreadOverClockHours(readings: readonly IntervalReading[], notes: string[]): { kwhByHour: Map<number, number>; secByHour: Map<number, number>; first: number; last: number } {
   const kwhByHour = new Map<number, number>();
   const secByHour = new Map<number, number>();
   let first = Infinity;
@@ -669,7 +667,14 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
     }
   }
   if (longReadings > 0) notes.push(`${longReadings} reading(s) longer than an hour were spread evenly over their hours.`);
+  return { kwhByHour, secByHour, first, last };
+}
 
+/**
+ * The clock hours at least half covered, scaled to a full hour and placed on the typical-year
+ * grid: per grid hour the sum and the count of years (29 February left out).
+ */
+function ontoTypicalYear(kwhByHour: Map<number, number>, secByHour: Map<number, number>, notes: string[]): { sum: Float64Array; count: Uint16Array } {
   const sum = new Float64Array(HOURS_PER_YEAR);
   const count = new Uint16Array(HOURS_PER_YEAR);
   let duplicates = 0;
@@ -694,7 +699,11 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
   if (duplicates > 0) notes.push(`${duplicates} hour(s) had overlapping readings; they were averaged.`);
   if (leapDayHours > 0) notes.push(`${leapDayHours} hour(s) of 29 February were left out (the typical year has 365 days).`);
   if (years.size > 1) notes.push(`Readings span ${years.size} calendar years; the same hour of different years was averaged.`);
+  return { sum, count };
+}
 
+/** The measured hours' kWh (the mean over the years) and which hours they are; at least one is needed. */
+function measuredHoursOf(sum: Float64Array, count: Uint16Array): { measured: Uint8Array; hourly: number[]; measuredHours: number } {
   const measured = new Uint8Array(HOURS_PER_YEAR);
   const hourly = new Array<number>(HOURS_PER_YEAR).fill(0);
   let measuredHours = 0;
@@ -708,8 +717,11 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
   if (measuredHours === 0) {
     throw new EngineInputError([{ path: "readings", message: "no hour is at least half covered by readings" }], "interval data");
   }
+  return { measured, hourly, measuredHours };
+}
 
-  // Fill: same month, same hour of day; else the reference load scaled to the measured hours.
+/** Fills the unmeasured hours of `hourly`: same month, same hour of day; else the reference load scaled to the measured hours. */
+function fillUnmeasured(hourly: number[], measured: Uint8Array, measuredHours: number, notes: string[]): void {
   const slotSum = new Float64Array(12 * 24);
   const slotCount = new Uint16Array(12 * 24);
   let measuredKwh = 0;
@@ -738,7 +750,10 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
       `${HOURS_PER_YEAR - measuredHours} of ${HOURS_PER_YEAR} hours were estimated: ${HOURS_PER_YEAR - measuredHours - fromReference} from the same month and hour of day, ${fromReference} from the reference load scaled to the measured hours.`,
     );
   }
+}
 
+/** The runs of unmeasured hours: all counted, the first MAX_REPORTED_GAPS listed. */
+function gapRuns(measured: Uint8Array): { gaps: IntervalProfile["gaps"]; gapCount: number } {
   const gaps: IntervalProfile["gaps"] = [];
   let gapCount = 0;
   for (let h = 0; h < HOURS_PER_YEAR; ) {
@@ -751,8 +766,12 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
     gapCount++;
     if (gaps.length < MAX_REPORTED_GAPS) gaps.push({ from: gridLabel(start), to: gridLabel(h - 1), hours: h - start });
   }
+  return { gaps, gapCount };
+}
 
-  const months: IntervalMonth[] = MONTH_DAYS.map((days, m) => {
+/** Each month's kWh and how much of it was measured. */
+function intervalMonths(hourly: number[], measured: Uint8Array): IntervalMonth[] {
+  return MONTH_DAYS.map((days, m) => {
     let kwh = 0;
     let mh = 0;
     for (let h = MONTH_START_DAY[m] * 24; h < (MONTH_START_DAY[m] + days) * 24; h++) {
@@ -769,6 +788,17 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
       status: coverage >= MEASURED_MONTH_COVERAGE ? "measured" : mh > 0 ? "partly estimated" : "estimated",
     };
   });
+}
+
+/** Put interval readings (local standard seconds) onto the typical-year grid and fill the gaps. */
+export function readingsToProfile(readings: readonly IntervalReading[], notesIn: string[] = [], receivedKwh: number | null = null): IntervalProfile {
+  const notes = [...notesIn];
+  const { kwhByHour, secByHour, first, last } = spreadOverClockHours(readings, notes);
+  const { sum, count } = ontoTypicalYear(kwhByHour, secByHour, notes);
+  const { measured, hourly, measuredHours } = measuredHoursOf(sum, count);
+  fillUnmeasured(hourly, measured, measuredHours, notes);
+  const { gaps, gapCount } = gapRuns(measured);
+  const months = intervalMonths(hourly, measured);
   const monthlyKwh = months.map((m) => m.kwh);
   return {
     hourlyKwh: hourly,
