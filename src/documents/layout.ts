@@ -271,6 +271,77 @@ export type Flow = {
   space(points: number): void;
 };
 
+/** Flow.paragraph: wrapped lines, a new page whenever the next line would reach the footer. */
+function flowParagraph(flow: Flow, text: string, style: Partial<TextStyle> & { gapAfter?: number; indent?: number }): void {
+  const font = style.font ?? flow.fonts.sans;
+  const size = style.size ?? TEXT_SIZE;
+  const indent = style.indent ?? 0;
+  const lead = size * LINE_GAP;
+  let runs: TextRun[] = [];
+  for (const line of wrapText(text, font, size, CONTENT_WIDTH - indent)) {
+    if (flow.y - lead < MARGIN_BOTTOM) {
+      drawTextRuns(flow.page, runs);
+      runs = [];
+      flow.newPage();
+    }
+    flow.y -= size;
+    runs.push({ text: line, x: MARGIN_X + indent, y: flow.y, font, size, color: style.color ?? COLORS.graphite });
+    flow.y -= lead - size;
+  }
+  drawTextRuns(flow.page, runs);
+  flow.y -= style.gapAfter ?? size * 0.6;
+}
+
+/** Flow.bullets: a copper dot before each item's first line, the rest indented under it. */
+function flowBullets(flow: Flow, items: readonly string[], style: Partial<TextStyle>): void {
+  const font = style.font ?? flow.fonts.sans;
+  const size = style.size ?? TEXT_SIZE;
+  const lead = size * LINE_GAP;
+  for (const item of items) {
+    wrapText(item, font, size, CONTENT_WIDTH - 14).forEach((line, i) => {
+      flow.ensure(lead);
+      flow.y -= size;
+      if (i === 0) flow.page.drawCircle({ x: MARGIN_X + 4, y: flow.y + size * 0.33, size: 1.6, color: COLORS.copper });
+      drawLine(flow.page, line, MARGIN_X + 14, flow.y, { font, size, color: style.color });
+      flow.y -= lead - size;
+    });
+    flow.y -= size * 0.3;
+  }
+  flow.y -= size * 0.3;
+}
+
+/** Flow.facts: label / value pairs, each pair kept on one page. */
+function flowFacts(flow: Flow, rows: readonly { label: string; value: string; mono?: boolean }[], labelWidth: number): void {
+  const { fonts } = flow;
+  const size = TEXT_SIZE;
+  const lead = size * LINE_GAP;
+  for (const r of rows) {
+    const lines = wrapText(r.value, r.mono ? fonts.mono : fonts.sans, size, CONTENT_WIDTH - labelWidth);
+    flow.ensure(lines.length * lead + 4);
+    flow.y -= size;
+    drawTextRuns(flow.page, [
+      textRun(r.label, MARGIN_X, flow.y, { font: fonts.sans, size, color: COLORS.muted }),
+      ...lines.map((line, i) => textRun(line, MARGIN_X + labelWidth, flow.y - i * lead, { font: r.mono ? fonts.mono : fonts.sans, size })),
+    ]);
+    flow.y -= (lines.length - 1) * lead + (lead - size) + 3;
+  }
+  flow.y -= 4;
+}
+
+/** Flow.table: shaded every other row, the header repeated on each new page. */
+function flowTable(flow: Flow, columns: readonly TableColumn[], rows: readonly { cells: readonly string[]; bold?: boolean }[]): void {
+  flow.ensure(ROW_HEIGHT * 3);
+  flow.y = drawTableHeader(flow.page, columns, MARGIN_X, flow.y, flow.fonts);
+  rows.forEach((r, i) => {
+    if (flow.y - ROW_HEIGHT < MARGIN_BOTTOM) {
+      flow.newPage();
+      flow.y = drawTableHeader(flow.page, columns, MARGIN_X, flow.y, flow.fonts);
+    }
+    flow.y = drawTableRow(flow.page, columns, r.cells, MARGIN_X, flow.y, flow.fonts, { bold: r.bold, shade: i % 2 === 1 });
+  });
+  flow.y -= 12;
+}
+
 /** A flow of content over as many pages as it needs, starting on a new page. */
 export function createFlow(pdf: PDFDocument, fonts: DocFonts): Flow {
   const flow: Flow = {
@@ -294,68 +365,10 @@ export function createFlow(pdf: PDFDocument, fonts: DocFonts): Flow {
       drawLine(flow.page, text, MARGIN_X, flow.y, { font: fonts.sansBold, size });
       flow.y -= size * 0.9;
     },
-    paragraph(text, style = {}) {
-      const font = style.font ?? fonts.sans;
-      const size = style.size ?? TEXT_SIZE;
-      const indent = style.indent ?? 0;
-      const lead = size * LINE_GAP;
-      let runs: TextRun[] = [];
-      for (const line of wrapText(text, font, size, CONTENT_WIDTH - indent)) {
-        if (flow.y - lead < MARGIN_BOTTOM) {
-          drawTextRuns(flow.page, runs);
-          runs = [];
-          flow.newPage();
-        }
-        flow.y -= size;
-        runs.push({ text: line, x: MARGIN_X + indent, y: flow.y, font, size, color: style.color ?? COLORS.graphite });
-        flow.y -= lead - size;
-      }
-      drawTextRuns(flow.page, runs);
-      flow.y -= style.gapAfter ?? size * 0.6;
-    },
-    bullets(items, style = {}) {
-      const font = style.font ?? fonts.sans;
-      const size = style.size ?? TEXT_SIZE;
-      const lead = size * LINE_GAP;
-      for (const item of items) {
-        wrapText(item, font, size, CONTENT_WIDTH - 14).forEach((line, i) => {
-          flow.ensure(lead);
-          flow.y -= size;
-          if (i === 0) flow.page.drawCircle({ x: MARGIN_X + 4, y: flow.y + size * 0.33, size: 1.6, color: COLORS.copper });
-          drawLine(flow.page, line, MARGIN_X + 14, flow.y, { font, size, color: style.color });
-          flow.y -= lead - size;
-        });
-        flow.y -= size * 0.3;
-      }
-      flow.y -= size * 0.3;
-    },
-    facts(rows, labelWidth = 170) {
-      const size = TEXT_SIZE;
-      const lead = size * LINE_GAP;
-      for (const r of rows) {
-        const lines = wrapText(r.value, r.mono ? fonts.mono : fonts.sans, size, CONTENT_WIDTH - labelWidth);
-        flow.ensure(lines.length * lead + 4);
-        flow.y -= size;
-        drawTextRuns(flow.page, [
-          textRun(r.label, MARGIN_X, flow.y, { font: fonts.sans, size, color: COLORS.muted }),
-          ...lines.map((line, i) => textRun(line, MARGIN_X + labelWidth, flow.y - i * lead, { font: r.mono ? fonts.mono : fonts.sans, size })),
-        ]);
-        flow.y -= (lines.length - 1) * lead + (lead - size) + 3;
-      }
-      flow.y -= 4;
-    },
-    table(columns, rows) {
-      flow.ensure(ROW_HEIGHT * 3);
-      flow.y = drawTableHeader(flow.page, columns, MARGIN_X, flow.y, fonts);
-      rows.forEach((r, i) => {
-        if (flow.y - ROW_HEIGHT < MARGIN_BOTTOM) {
-          flow.newPage();
-          flow.y = drawTableHeader(flow.page, columns, MARGIN_X, flow.y, fonts);
-        }
-        flow.y = drawTableRow(flow.page, columns, r.cells, MARGIN_X, flow.y, fonts, { bold: r.bold, shade: i % 2 === 1 });
-      });
-      flow.y -= 12;
-    },
+    paragraph: (text, style = {}) => flowParagraph(flow, text, style),
+    bullets: (items, style = {}) => flowBullets(flow, items, style),
+    facts: (rows, labelWidth = 170) => flowFacts(flow, rows, labelWidth),
+    table: (columns, rows) => flowTable(flow, columns, rows),
     space(points) {
       flow.y -= points;
     },

@@ -5,7 +5,7 @@
 // U.S. ESIGN Act and UETA ask of an electronic signature). Deterministic for the same input.
 import { PDFBool, PDFDict, PDFDocument, PDFHexString, PDFName, PDFString, type PDFImage, type PDFPage } from "pdf-lib";
 import { formatCents, formatDate } from "@/lib/format";
-import { embedFonts } from "./fonts";
+import { embedFonts, type DocFonts } from "./fonts";
 import { COLORS, SAVE_OPTIONS, compressContentStreams, createFlow, drawLine, drawPageFrames, fitText, type FrameInfo, type TableColumn } from "./layout";
 import {
   CHOSEN_OFFER_BOX,
@@ -102,18 +102,8 @@ function drawFitted(page: PDFPage, image: PDFImage, box: Rect, padding: number):
   page.drawImage(image, { x: box.x + padding + (w - dw) / 2, y: box.y + padding + (h - dh) / 2, width: dw, height: dh });
 }
 
-/** Stamps the signature into the unsigned proposal and appends the signing certificate. */
-export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): Promise<Uint8Array> {
-  const pdf = await PDFDocument.load(unsigned, { updateMetadata: false });
-  const image = await embedSignature(pdf, s.signaturePng);
-  const fonts = await embedFonts(pdf, { subsetTag: "KS" });
-  const pages = pdf.getPages();
-  const originalCount = pages.length;
-  const sigPage = pages.find((p) => pageRole(p) === PAGE_ROLE.signature) ?? pages[originalCount - 1];
-  const offerLine = `Offer ${s.chosenPosition}: ${s.chosenOfferName}`;
-  const priceLine = `Contract price ${formatCents(s.chosenContractCents)}`;
-
-  // The signature page's boxes.
+/** The signature page's boxes: the chosen offer and price, the drawn signature, the typed name and the date. */
+function stampSignaturePage(sigPage: PDFPage, image: PDFImage, fonts: DocFonts, s: SignatureStamp, offerLine: string, priceLine: string): void {
   const ob = CHOSEN_OFFER_BOX;
   drawLine(sigPage, fitText(offerLine, fonts.sansBold, 13, ob.width - 16), ob.x + 8, ob.y + ob.height - 32, { font: fonts.sansBold, size: 13 });
   drawLine(sigPage, priceLine, ob.x + 8, ob.y + 9, { font: fonts.mono, size: 11 });
@@ -127,8 +117,10 @@ export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): P
     SIGNATURE_BOX.y - 22,
     { font: fonts.sans, size: 7.5, color: COLORS.copper },
   );
+}
 
-  // The notice of cancellation's blanks (each copy).
+/** The notice of cancellation's blanks (each copy): the date of transaction, and the deadline where it was not printed. */
+function fillCancelNotices(pages: PDFPage[], fonts: DocFonts, s: SignatureStamp): void {
   for (const page of pages) {
     if (pageRole(page) !== PAGE_ROLE.cancelNotice) continue;
     drawLine(page, s.signedOnText ?? `${formatDate(s.signedAt)} (UTC)`, NOTICE_TRANSACTION_DATE_BOX.x + 4, NOTICE_TRANSACTION_DATE_BOX.y + 7, { font: fonts.sans, size: 10 });
@@ -137,8 +129,10 @@ export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): P
       drawLine(page, s.cancelDeadlineText, NOTICE_DEADLINE_BOX.x + 4, NOTICE_DEADLINE_BOX.y + 7, { font: fonts.sans, size: 10 });
     }
   }
+}
 
-  // The signing certificate.
+/** The signing certificate, appended on new pages: who, when, from where, the fingerprint, the events and the law. */
+function appendCertificate(pdf: PDFDocument, fonts: DocFonts, s: SignatureStamp, offerLine: string): void {
   const flow = createFlow(pdf, fonts);
   flow.heading("Signing certificate");
   flow.paragraph(`How ${s.proposalLabel} was signed electronically. This page was added when the signature was applied; the pages before it are the proposal as sent, with the signature stamped in.`, {
@@ -181,6 +175,21 @@ export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): P
     ],
     { size: 9 },
   );
+}
+
+/** Stamps the signature into the unsigned proposal and appends the signing certificate. */
+export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): Promise<Uint8Array> {
+  const pdf = await PDFDocument.load(unsigned, { updateMetadata: false });
+  const image = await embedSignature(pdf, s.signaturePng);
+  const fonts = await embedFonts(pdf, { subsetTag: "KS" });
+  const pages = pdf.getPages();
+  const originalCount = pages.length;
+  const sigPage = pages.find((p) => pageRole(p) === PAGE_ROLE.signature) ?? pages[originalCount - 1];
+  const offerLine = `Offer ${s.chosenPosition}: ${s.chosenOfferName}`;
+  const priceLine = `Contract price ${formatCents(s.chosenContractCents)}`;
+  stampSignaturePage(sigPage, image, fonts, s, offerLine, priceLine);
+  fillCancelNotices(pages, fonts, s);
+  appendCertificate(pdf, fonts, s, offerLine);
 
   const frame = readFrame(pdf, s.proposalLabel);
   const certPages = pdf.getPageCount() - originalCount;

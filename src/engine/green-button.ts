@@ -34,7 +34,7 @@
 import { TZDate, tzOffset } from "@date-fns/tz";
 import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { z } from "zod";
-import { isBlankRecord, readCsvRecords } from "./csv";
+import { isBlankRecord, readCsvRecords, type CsvRecord } from "./csv";
 import { EngineInputError, parseOrThrow, type EngineIssue } from "./errors";
 import { REFERENCE_LOAD_HOURLY_KWH } from "./data/reference-load-8760";
 import { HOURS_PER_YEAR, HOUR_MONTH, isTimeZone, MONTH_DAYS, MONTH_START_DAY, standardOffsetMinutes } from "./year-calendar";
@@ -219,33 +219,35 @@ function intOf(el: XmlElement, name: string, issues: EngineIssue[]): number | nu
   return v;
 }
 
-/** Read the delivered-energy interval readings of an ESPI (Green Button) XML document. */
-export function parseEspiXml(text: string, options: { utcOffsetHours?: number } = {}): EspiParse {
-  const root = parseXml(text);
-  const issues: EngineIssue[] = [];
-  const notes: string[] = [];
-
-  // Time zone: LocalTimeParameters.tzOffset (seconds), else the caller's site offset.
+/** The file's UTC offset in seconds: LocalTimeParameters.tzOffset, else the caller's site offset (null: neither). */
+function espiTzOffsetSec(root: XmlElement, utcOffsetHours: number | undefined, issues: EngineIssue[], notes: string[]): number | null {
   let tzOffsetSec: number | null = null;
   for (const ltp of descendants(root, "LocalTimeParameters")) tzOffsetSec = intOf(ltp, "tzOffset", issues);
   if (tzOffsetSec === null && root.name === "LocalTimeParameters") tzOffsetSec = intOf(root, "tzOffset", issues);
   if (tzOffsetSec === null) {
-    if (options.utcOffsetHours === undefined) {
+    if (utcOffsetHours === undefined) {
       issues.push({ path: "utcOffsetHours", message: "the file has no LocalTimeParameters.tzOffset; give the site's UTC offset" });
     } else {
-      tzOffsetSec = options.utcOffsetHours * 3600;
-      notes.push(`No LocalTimeParameters in the file: used the site's UTC offset (${options.utcOffsetHours} h).`);
+      tzOffsetSec = utcOffsetHours * 3600;
+      notes.push(`No LocalTimeParameters in the file: used the site's UTC offset (${utcOffsetHours} h).`);
     }
-  } else if (options.utcOffsetHours !== undefined && Math.abs(options.utcOffsetHours * 3600 - tzOffsetSec) > 1) {
-    notes.push(`The file's time zone (UTC${tzOffsetSec >= 0 ? "+" : ""}${tzOffsetSec / 3600}) differs from the site's (${options.utcOffsetHours} h); the file's was used.`);
+  } else if (utcOffsetHours !== undefined && Math.abs(utcOffsetHours * 3600 - tzOffsetSec) > 1) {
+    notes.push(`The file's time zone (UTC${tzOffsetSec >= 0 ? "+" : ""}${tzOffsetSec / 3600}) differs from the site's (${utcOffsetHours} h); the file's was used.`);
   }
+  return tzOffsetSec;
+}
 
-  // ReadingTypes by their self link; MeterReadings' links to ReadingTypes.
+const linksOf = (entry: XmlElement) => entry.children.filter((c) => c.name === "link").map((l) => ({ rel: l.attributes.rel ?? "", href: l.attributes.href ?? "" }));
+
+/**
+ * The document's Atom entries, and how to find an IntervalBlock's ReadingType: ReadingTypes by
+ * their self link, MeterReadings' links to ReadingTypes (or the only ReadingType there is).
+ */
+function espiReadingTypes(root: XmlElement, issues: EngineIssue[]): { entries: XmlElement[]; typeForBlock: (entry: XmlElement | null) => ReadingTypeInfo | null } {
   const readingTypes = new Map<string, ReadingTypeInfo>();
   const allTypes: ReadingTypeInfo[] = [];
   const meterReadingType = new Map<string, string[]>();
   const entries = root.name === "entry" ? [root] : [...descendants(root, "entry")];
-  const linksOf = (entry: XmlElement) => entry.children.filter((c) => c.name === "link").map((l) => ({ rel: l.attributes.rel ?? "", href: l.attributes.href ?? "" }));
   const readType = (rt: XmlElement): ReadingTypeInfo => ({
     uom: intOf(rt, "uom", issues),
     powerOfTen: intOf(rt, "powerOfTenMultiplier", issues) ?? 0,
@@ -282,9 +284,11 @@ export function parseEspiXml(text: string, options: { utcOffsetHours?: number } 
     }
     return allTypes.length === 1 ? allTypes[0] : null;
   };
+  return { entries, typeForBlock };
+}
 
-  const readings: IntervalReading[] = [];
-  let receivedKwh: number | null = null;
+/** The IntervalBlocks, each with the Atom entry holding it (null in a bare document). */
+function espiIntervalBlocks(root: XmlElement, entries: XmlElement[], issues: EngineIssue[]): { block: XmlElement; entry: XmlElement | null }[] {
   const blocks: { block: XmlElement; entry: XmlElement | null }[] = [];
   if (entries.length > 0) {
     for (const entry of entries) {
@@ -295,49 +299,72 @@ export function parseEspiXml(text: string, options: { utcOffsetHours?: number } 
     for (const block of root.name === "IntervalBlock" ? [root] : descendants(root, "IntervalBlock")) blocks.push({ block, entry: null });
   }
   if (blocks.length === 0) issues.push({ path: "IntervalBlock", message: "the file holds no IntervalBlock" });
+  return blocks;
+}
 
+/** Whether a block's ReadingType is interval energy in Wh; an issue says why not. */
+function isIntervalEnergy(block: XmlElement, type: ReadingTypeInfo | null, issues: EngineIssue[]): type is ReadingTypeInfo {
+  if (!type) {
+    issues.push({ path: `line ${block.line}`, message: "cannot tell which ReadingType (unit) this IntervalBlock uses" });
+    return false;
+  }
+  if (type.uom !== null && type.uom !== ESPI_UOM_WH) {
+    issues.push({ path: `line ${type.line}`, message: `ReadingType uom ${type.uom} is not energy in Wh (${ESPI_UOM_WH}); only Wh readings are accepted` });
+    return false;
+  }
+  if (type.accumulation !== null && ESPI_ACCUMULATION_RUNNING.has(type.accumulation)) {
+    issues.push({ path: `line ${type.line}`, message: `accumulationBehaviour ${type.accumulation} is a running register total; interval energy (deltaData, ${ESPI_ACCUMULATION_DELTA}) is needed` });
+    return false;
+  }
+  return true;
+}
+
+/** One block's IntervalReadings: delivered ones into `acc.readings`, received ones (reverse) summed into `acc.receivedKwh`. */
+function readEspiBlock(block: XmlElement, kwhPerUnit: number, reverse: boolean, offset: number, issues: EngineIssue[], acc: { readings: IntervalReading[]; receivedKwh: number | null }): void {
+  for (const ir of block.children) {
+    if (ir.name !== "IntervalReading") continue;
+    const period = child(ir, "timePeriod");
+    const start = period ? intOf(period, "start", issues) : null;
+    const duration = period ? intOf(period, "duration", issues) : null;
+    const value = intOf(ir, "value", issues);
+    if (start === null || duration === null || value === null) {
+      if (issues.length < MAX_ISSUES) issues.push({ path: `line ${ir.line}`, message: "IntervalReading needs timePeriod start, duration and value" });
+      continue;
+    }
+    if (duration <= 0 || duration > MAX_READING_SECONDS) {
+      issues.push({ path: `line ${ir.line}`, message: `duration ${duration} s is outside 1 s … ${MAX_READING_SECONDS} s` });
+      continue;
+    }
+    const kwh = value * kwhPerUnit;
+    if (reverse) acc.receivedKwh = (acc.receivedKwh ?? 0) + kwh;
+    else acc.readings.push({ startSec: start + offset, durationSec: duration, kwh });
+  }
+}
+
+/** Read the delivered-energy interval readings of an ESPI (Green Button) XML document. */
+export function parseEspiXml(text: string, options: { utcOffsetHours?: number } = {}): EspiParse {
+  const root = parseXml(text);
+  const issues: EngineIssue[] = [];
+  const notes: string[] = [];
+  const tzOffsetSec = espiTzOffsetSec(root, options.utcOffsetHours, issues, notes);
+  const { entries, typeForBlock } = espiReadingTypes(root, issues);
+  const blocks = espiIntervalBlocks(root, entries, issues);
+
+  const acc: { readings: IntervalReading[]; receivedKwh: number | null } = { readings: [], receivedKwh: null };
   const offset = tzOffsetSec ?? 0;
   let skippedOther = 0;
   for (const { block, entry } of blocks) {
     const type = typeForBlock(entry);
-    if (!type) {
-      issues.push({ path: `line ${block.line}`, message: "cannot tell which ReadingType (unit) this IntervalBlock uses" });
-      continue;
-    }
-    if (type.uom !== null && type.uom !== ESPI_UOM_WH) {
-      issues.push({ path: `line ${type.line}`, message: `ReadingType uom ${type.uom} is not energy in Wh (${ESPI_UOM_WH}); only Wh readings are accepted` });
-      continue;
-    }
-    if (type.accumulation !== null && ESPI_ACCUMULATION_RUNNING.has(type.accumulation)) {
-      issues.push({ path: `line ${type.line}`, message: `accumulationBehaviour ${type.accumulation} is a running register total; interval energy (deltaData, ${ESPI_ACCUMULATION_DELTA}) is needed` });
-      continue;
-    }
+    if (!isIntervalEnergy(block, type, issues)) continue;
     const reverse = type.flowDirection === ESPI_FLOW_REVERSE;
     if (type.flowDirection !== null && type.flowDirection !== ESPI_FLOW_FORWARD && !reverse) {
       skippedOther++;
       continue;
     }
-    const kwhPerUnit = Math.pow(10, type.powerOfTen) / 1000;
-    for (const ir of block.children) {
-      if (ir.name !== "IntervalReading") continue;
-      const period = child(ir, "timePeriod");
-      const start = period ? intOf(period, "start", issues) : null;
-      const duration = period ? intOf(period, "duration", issues) : null;
-      const value = intOf(ir, "value", issues);
-      if (start === null || duration === null || value === null) {
-        if (issues.length < MAX_ISSUES) issues.push({ path: `line ${ir.line}`, message: "IntervalReading needs timePeriod start, duration and value" });
-        continue;
-      }
-      if (duration <= 0 || duration > MAX_READING_SECONDS) {
-        issues.push({ path: `line ${ir.line}`, message: `duration ${duration} s is outside 1 s … ${MAX_READING_SECONDS} s` });
-        continue;
-      }
-      const kwh = value * kwhPerUnit;
-      if (reverse) receivedKwh = (receivedKwh ?? 0) + kwh;
-      else readings.push({ startSec: start + offset, durationSec: duration, kwh });
-    }
+    readEspiBlock(block, Math.pow(10, type.powerOfTen) / 1000, reverse, offset, issues, acc);
     if (issues.length >= MAX_ISSUES) break;
   }
+  const { readings, receivedKwh } = acc;
   if (receivedKwh !== null) notes.push(`The feed also has ${round1(receivedKwh)} kWh received from the customer (flowDirection 19); it is not counted as usage.`);
   if (skippedOther > 0) notes.push(`${skippedOther} IntervalBlock(s) with another flow direction (e.g. net) were left out.`);
   if (issues.length > 0) throw new EngineInputError(issues.slice(0, MAX_ISSUES), "Green Button XML");
@@ -386,14 +413,11 @@ function normaliseDate(s: string): string | null {
   return /^\d{4}-\d{2}-\d{2}$/.test(s.trim()) ? s.trim() : null;
 }
 
-/**
- * Read interval CSV: timestamp + kWh columns, or date + start time (+ end time, units) + usage.
- * Each row is an interval starting at its timestamp; its length comes from the end-time column
- * or from the most common step between consecutive timestamps.
- */
-export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number; timeZone?: string } = {}): { readings: IntervalReading[]; notes: string[] } {
-  const wallClock = options.timeZone ? wallClockReader(options.timeZone) : null;
-  const records = readCsvRecords(text);
+type CsvColumns = { ts: number; date: number; start: number; end: number; kwh: number; unit: number };
+type CsvRow = { sec: number; endSec: number | null; kwh: number };
+
+/** The header row in the first 50 lines (a time column and an energy column) and where each column is. */
+function findCsvHeader(records: CsvRecord[]): { headerIdx: number; col: CsvColumns } {
   const norm = (s: string) => s.trim().toLowerCase();
   let headerIdx = -1;
   let cols: string[] = [];
@@ -413,90 +437,96 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
     );
   }
   const find = (names: string[]) => cols.findIndex((c) => names.includes(c));
-  const tsCol = find(TIMESTAMP_HEADERS);
-  const dateCol = find(DATE_HEADERS);
-  const startCol = find(START_TIME_HEADERS);
-  const endCol = find(END_TIME_HEADERS);
-  const kwhCol = find(ENERGY_HEADERS);
-  const unitCol = find(UNIT_HEADERS);
+  return {
+    headerIdx,
+    col: { ts: find(TIMESTAMP_HEADERS), date: find(DATE_HEADERS), start: find(START_TIME_HEADERS), end: find(END_TIME_HEADERS), kwh: find(ENERGY_HEADERS), unit: find(UNIT_HEADERS) },
+  };
+}
 
-  const issues: EngineIssue[] = [];
-  const notes: string[] = [];
-  const rows: { sec: number; endSec: number | null; kwh: number }[] = [];
-  let withOffset = 0;
-  let withoutOffset = 0;
-  for (let i = headerIdx + 1; i < records.length && issues.length < MAX_ISSUES; i++) {
-    if (isBlankRecord(records[i])) continue;
-    const f = records[i].cells.map((c) => c.trim());
-    const lineNo = `line ${records[i].line}`;
-    if (records[i].problem) {
-      issues.push({ path: lineNo, message: `this row cannot be read: ${records[i].problem}` });
-      continue;
-    }
-    let stamp: string;
-    if (tsCol >= 0) stamp = f[tsCol] ?? "";
-    else {
-      const date = normaliseDate(f[dateCol] ?? "");
-      if (!date) {
-        issues.push({ path: lineNo, message: `date "${f[dateCol] ?? ""}" is not YYYY-MM-DD or M/D/YYYY` });
-        continue;
-      }
-      stamp = `${date}T${(f[startCol] ?? "").padStart(5, "0")}`;
-    }
-    const ts = parseTimestamp(stamp);
-    if (!ts) {
-      issues.push({ path: lineNo, message: `timestamp "${stamp}" is not an ISO 8601 date and time` });
-      continue;
-    }
-    const raw = (f[kwhCol] ?? "").replace(/,/g, "");
-    let kwh = Number(raw);
-    if (raw === "" || !Number.isFinite(kwh) || kwh < 0) {
-      issues.push({ path: lineNo, message: `kWh "${f[kwhCol] ?? ""}" must be a number ≥ 0` });
-      continue;
-    }
-    if (unitCol >= 0) {
-      const unit = (f[unitCol] ?? "").trim().toLowerCase();
-      if (unit === "wh") kwh /= 1000;
-      else if (unit !== "kwh" && unit !== "") {
-        issues.push({ path: lineNo, message: `unit "${f[unitCol]}" is not kWh or Wh` });
-        continue;
-      }
-    }
-    let sec = ts.sec;
-    if (ts.offsetSec !== null) {
-      withOffset++;
-      if (options.utcOffsetHours === undefined) {
-        issues.push({ path: "utcOffsetHours", message: "timestamps carry a UTC offset; give the site's standard UTC offset to place them in local standard time" });
-        break;
-      }
-      sec = ts.sec - ts.offsetSec + options.utcOffsetHours * 3600;
-    } else {
-      withoutOffset++;
-      if (wallClock) sec = wallClock(ts.sec);
-    }
-    let endSec: number | null = null;
-    if (endCol >= 0 && tsCol < 0 && f[endCol]) {
-      const end = parseTimestamp(`${stamp.slice(0, 10)}T${f[endCol].padStart(5, "0")}`);
-      if (end) {
-        // "00:59" style end times name the last minute of the interval.
-        endSec = end.sec + (end.sec % 3600 === 3540 || end.sec % 900 === 840 ? 60 : 0);
-        if (endSec <= ts.sec) endSec += 86_400; // an interval ending after midnight
-        endSec = sec + (endSec - ts.sec);
-      }
-    }
-    rows.push({ sec, endSec, kwh });
+/** A row's start as written: the timestamp column, or the date and start time joined (null: an issue says why). */
+function rowStamp(f: string[], col: CsvColumns, lineNo: string, issues: EngineIssue[]): string | null {
+  if (col.ts >= 0) return f[col.ts] ?? "";
+  const date = normaliseDate(f[col.date] ?? "");
+  if (!date) {
+    issues.push({ path: lineNo, message: `date "${f[col.date] ?? ""}" is not YYYY-MM-DD or M/D/YYYY` });
+    return null;
   }
-  if (issues.length > 0) throw new EngineInputError(issues, "interval CSV");
-  if (rows.length === 0) throw new EngineInputError([{ path: `line ${headerIdx + 2}`, message: "no data rows" }], "interval CSV");
-  if (withoutOffset > 0) {
-    notes.push(
-      options.timeZone
-        ? `Timestamps without a UTC offset were read as clock time in ${options.timeZone} (daylight saving included) and placed in local standard time.`
-        : "Timestamps without a UTC offset were read as local standard time.",
-    );
-  }
-  if (withOffset > 0 && withoutOffset > 0) notes.push("Some timestamps carry a UTC offset and some do not.");
+  return `${date}T${(f[col.start] ?? "").padStart(5, "0")}`;
+}
 
+/** A row's energy in kWh, Wh converted by the unit column (null: an issue says why). */
+function rowKwh(f: string[], col: CsvColumns, lineNo: string, issues: EngineIssue[]): number | null {
+  const raw = (f[col.kwh] ?? "").replace(/,/g, "");
+  let kwh = Number(raw);
+  if (raw === "" || !Number.isFinite(kwh) || kwh < 0) {
+    issues.push({ path: lineNo, message: `kWh "${f[col.kwh] ?? ""}" must be a number ≥ 0` });
+    return null;
+  }
+  if (col.unit >= 0) {
+    const unit = (f[col.unit] ?? "").trim().toLowerCase();
+    if (unit === "wh") kwh /= 1000;
+    else if (unit !== "kwh" && unit !== "") {
+      issues.push({ path: lineNo, message: `unit "${f[col.unit]}" is not kWh or Wh` });
+      return null;
+    }
+  }
+  return kwh;
+}
+
+/**
+ * One data row: its start in local standard seconds, its end when an end-time column gives it, and
+ * its kWh. null: an issue says why; "stop": stamps carry offsets but no site offset was given.
+ */
+function readCsvRow(
+  record: CsvRecord,
+  col: CsvColumns,
+  utcOffsetHours: number | undefined,
+  wallClock: ((naiveSec: number) => number) | null,
+  counts: { withOffset: number; withoutOffset: number },
+  issues: EngineIssue[],
+): CsvRow | null | "stop" {
+  const f = record.cells.map((c) => c.trim());
+  const lineNo = `line ${record.line}`;
+  if (record.problem) {
+    issues.push({ path: lineNo, message: `this row cannot be read: ${record.problem}` });
+    return null;
+  }
+  const stamp = rowStamp(f, col, lineNo, issues);
+  if (stamp === null) return null;
+  const ts = parseTimestamp(stamp);
+  if (!ts) {
+    issues.push({ path: lineNo, message: `timestamp "${stamp}" is not an ISO 8601 date and time` });
+    return null;
+  }
+  const kwh = rowKwh(f, col, lineNo, issues);
+  if (kwh === null) return null;
+  let sec = ts.sec;
+  if (ts.offsetSec !== null) {
+    counts.withOffset++;
+    if (utcOffsetHours === undefined) {
+      issues.push({ path: "utcOffsetHours", message: "timestamps carry a UTC offset; give the site's standard UTC offset to place them in local standard time" });
+      return "stop";
+    }
+    sec = ts.sec - ts.offsetSec + utcOffsetHours * 3600;
+  } else {
+    counts.withoutOffset++;
+    if (wallClock) sec = wallClock(ts.sec);
+  }
+  let endSec: number | null = null;
+  if (col.end >= 0 && col.ts < 0 && f[col.end]) {
+    const end = parseTimestamp(`${stamp.slice(0, 10)}T${f[col.end].padStart(5, "0")}`);
+    if (end) {
+      // "00:59" style end times name the last minute of the interval.
+      endSec = end.sec + (end.sec % 3600 === 3540 || end.sec % 900 === 840 ? 60 : 0);
+      if (endSec <= ts.sec) endSec += 86_400; // an interval ending after midnight
+      endSec = sec + (endSec - ts.sec);
+    }
+  }
+  return { sec, endSec, kwh };
+}
+
+/** The rows in time order as readings, each as long as its end time says or else the common step. */
+function csvReadings(rows: CsvRow[]): IntervalReading[] {
   rows.sort((a, b) => a.sec - b.sec);
   // Interval length: the most common step between consecutive starts (rows without an end time).
   const steps = new Map<number, number>();
@@ -507,7 +537,7 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
   let commonStep = 3600;
   let bestCount = 0;
   for (const [step, count] of steps) if (count > bestCount || (count === bestCount && step < commonStep)) [commonStep, bestCount] = [step, count];
-  const readings = rows.map((r, i) => {
+  return rows.map((r, i) => {
     let duration = r.endSec !== null ? r.endSec - r.sec : commonStep;
     // A row followed sooner than the common step (e.g. 15-minute rows inside hourly data) ends at the next row.
     if (r.endSec === null && i + 1 < rows.length) {
@@ -516,7 +546,38 @@ export function parseIntervalCsv(text: string, options: { utcOffsetHours?: numbe
     }
     return { startSec: r.sec, durationSec: Math.min(Math.max(duration, 1), MAX_READING_SECONDS), kwh: r.kwh };
   });
-  return { readings, notes };
+}
+
+/**
+ * Read interval CSV: timestamp + kWh columns, or date + start time (+ end time, units) + usage.
+ * Each row is an interval starting at its timestamp; its length comes from the end-time column
+ * or from the most common step between consecutive timestamps.
+ */
+export function parseIntervalCsv(text: string, options: { utcOffsetHours?: number; timeZone?: string } = {}): { readings: IntervalReading[]; notes: string[] } {
+  const wallClock = options.timeZone ? wallClockReader(options.timeZone) : null;
+  const records = readCsvRecords(text);
+  const { headerIdx, col } = findCsvHeader(records);
+  const issues: EngineIssue[] = [];
+  const notes: string[] = [];
+  const rows: CsvRow[] = [];
+  const counts = { withOffset: 0, withoutOffset: 0 };
+  for (let i = headerIdx + 1; i < records.length && issues.length < MAX_ISSUES; i++) {
+    if (isBlankRecord(records[i])) continue;
+    const row = readCsvRow(records[i], col, options.utcOffsetHours, wallClock, counts, issues);
+    if (row === "stop") break;
+    if (row) rows.push(row);
+  }
+  if (issues.length > 0) throw new EngineInputError(issues, "interval CSV");
+  if (rows.length === 0) throw new EngineInputError([{ path: `line ${headerIdx + 2}`, message: "no data rows" }], "interval CSV");
+  if (counts.withoutOffset > 0) {
+    notes.push(
+      options.timeZone
+        ? `Timestamps without a UTC offset were read as clock time in ${options.timeZone} (daylight saving included) and placed in local standard time.`
+        : "Timestamps without a UTC offset were read as local standard time.",
+    );
+  }
+  if (counts.withOffset > 0 && counts.withoutOffset > 0) notes.push("Some timestamps carry a UTC offset and some do not.");
+  return { readings: csvReadings(rows), notes };
 }
 
 /**
@@ -582,10 +643,8 @@ function gridLabel(h: number): string {
   return `${pad2(m + 1)}-${pad2(day - MONTH_START_DAY[m] + 1)} ${pad2(h % 24)}:00`;
 }
 
-/** Put interval readings (local standard seconds) onto the typical-year grid and fill the gaps. */
-export function readingsToProfile(readings: readonly IntervalReading[], notesIn: string[] = [], receivedKwh: number | null = null): IntervalProfile {
-  const notes = [...notesIn];
-  // Split each reading over the clock hours it touches.
+/** Each reading split over the clock hours it touches: kWh and seconds covered per hour since 1970, and the first and last start. */
+function spreadOverClockHours(readings: readonly IntervalReading[], notes: string[]): { kwhByHour: Map<number, number>; secByHour: Map<number, number>; first: number; last: number } {
   const kwhByHour = new Map<number, number>();
   const secByHour = new Map<number, number>();
   let first = Infinity;
@@ -608,7 +667,14 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
     }
   }
   if (longReadings > 0) notes.push(`${longReadings} reading(s) longer than an hour were spread evenly over their hours.`);
+  return { kwhByHour, secByHour, first, last };
+}
 
+/**
+ * The clock hours at least half covered, scaled to a full hour and placed on the typical-year
+ * grid: per grid hour the sum and the count of years (29 February left out).
+ */
+function ontoTypicalYear(kwhByHour: Map<number, number>, secByHour: Map<number, number>, notes: string[]): { sum: Float64Array; count: Uint16Array } {
   const sum = new Float64Array(HOURS_PER_YEAR);
   const count = new Uint16Array(HOURS_PER_YEAR);
   let duplicates = 0;
@@ -633,7 +699,11 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
   if (duplicates > 0) notes.push(`${duplicates} hour(s) had overlapping readings; they were averaged.`);
   if (leapDayHours > 0) notes.push(`${leapDayHours} hour(s) of 29 February were left out (the typical year has 365 days).`);
   if (years.size > 1) notes.push(`Readings span ${years.size} calendar years; the same hour of different years was averaged.`);
+  return { sum, count };
+}
 
+/** The measured hours' kWh (the mean over the years) and which hours they are; at least one is needed. */
+function measuredHoursOf(sum: Float64Array, count: Uint16Array): { measured: Uint8Array; hourly: number[]; measuredHours: number } {
   const measured = new Uint8Array(HOURS_PER_YEAR);
   const hourly = new Array<number>(HOURS_PER_YEAR).fill(0);
   let measuredHours = 0;
@@ -647,8 +717,11 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
   if (measuredHours === 0) {
     throw new EngineInputError([{ path: "readings", message: "no hour is at least half covered by readings" }], "interval data");
   }
+  return { measured, hourly, measuredHours };
+}
 
-  // Fill: same month, same hour of day; else the reference load scaled to the measured hours.
+/** Fills the unmeasured hours of `hourly`: same month, same hour of day; else the reference load scaled to the measured hours. */
+function fillUnmeasured(hourly: number[], measured: Uint8Array, measuredHours: number, notes: string[]): void {
   const slotSum = new Float64Array(12 * 24);
   const slotCount = new Uint16Array(12 * 24);
   let measuredKwh = 0;
@@ -677,7 +750,10 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
       `${HOURS_PER_YEAR - measuredHours} of ${HOURS_PER_YEAR} hours were estimated: ${HOURS_PER_YEAR - measuredHours - fromReference} from the same month and hour of day, ${fromReference} from the reference load scaled to the measured hours.`,
     );
   }
+}
 
+/** The runs of unmeasured hours: all counted, the first MAX_REPORTED_GAPS listed. */
+function gapRuns(measured: Uint8Array): { gaps: IntervalProfile["gaps"]; gapCount: number } {
   const gaps: IntervalProfile["gaps"] = [];
   let gapCount = 0;
   for (let h = 0; h < HOURS_PER_YEAR; ) {
@@ -690,8 +766,12 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
     gapCount++;
     if (gaps.length < MAX_REPORTED_GAPS) gaps.push({ from: gridLabel(start), to: gridLabel(h - 1), hours: h - start });
   }
+  return { gaps, gapCount };
+}
 
-  const months: IntervalMonth[] = MONTH_DAYS.map((days, m) => {
+/** Each month's kWh and how much of it was measured. */
+function intervalMonths(hourly: number[], measured: Uint8Array): IntervalMonth[] {
+  return MONTH_DAYS.map((days, m) => {
     let kwh = 0;
     let mh = 0;
     for (let h = MONTH_START_DAY[m] * 24; h < (MONTH_START_DAY[m] + days) * 24; h++) {
@@ -708,6 +788,17 @@ export function readingsToProfile(readings: readonly IntervalReading[], notesIn:
       status: coverage >= MEASURED_MONTH_COVERAGE ? "measured" : mh > 0 ? "partly estimated" : "estimated",
     };
   });
+}
+
+/** Put interval readings (local standard seconds) onto the typical-year grid and fill the gaps. */
+export function readingsToProfile(readings: readonly IntervalReading[], notesIn: string[] = [], receivedKwh: number | null = null): IntervalProfile {
+  const notes = [...notesIn];
+  const { kwhByHour, secByHour, first, last } = spreadOverClockHours(readings, notes);
+  const { sum, count } = ontoTypicalYear(kwhByHour, secByHour, notes);
+  const { measured, hourly, measuredHours } = measuredHoursOf(sum, count);
+  fillUnmeasured(hourly, measured, measuredHours, notes);
+  const { gaps, gapCount } = gapRuns(measured);
+  const months = intervalMonths(hourly, measured);
   const monthlyKwh = months.map((m) => m.kwh);
   return {
     hourlyKwh: hourly,

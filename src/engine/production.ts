@@ -188,6 +188,118 @@ function faceScratch(g: number): Float64Array[] {
   return perFace[g];
 }
 
+type ParsedSystem = z.output<typeof systemSchema>;
+type ParsedFace = ParsedSystem["faces"][number];
+type MicroInverter = Extract<ParsedSystem["inverter"], { kind: "micro" }>;
+type StringInverter = Extract<ParsedSystem["inverter"], { kind: "string" }>;
+/** One face's hourly columns: POA, transmitted POA, cell temperature, DC; `own` when they are handed back to the caller. */
+type FaceColumns = { poa: Float64Array; tr: Float64Array; cellTempC: Float64Array; dcW: Float64Array; own: Float64Array[] | null };
+
+/** Scales a face's POA and transmitted POA by its solar access (one value, or one per month). */
+function applySolarAccess(poa: Float64Array, tr: Float64Array, access: number | number[]): void {
+  const n = HOURS_PER_YEAR;
+  if (typeof access === "number") {
+    if (access !== 100) {
+      const f = access / 100;
+      for (let i = 0; i < n; i++) {
+        poa[i] *= f;
+        tr[i] *= f;
+      }
+    }
+  } else {
+    const monthF = access.map((a) => a / 100);
+    for (let i = 0; i < n; i++) {
+      const f = monthF[HOUR_MONTH[i]];
+      poa[i] *= f;
+      tr[i] *= f;
+    }
+  }
+}
+
+/** The g-th face of a group: its POA after solar access, in scratch columns or (faceHours) its own. */
+function faceColumns(sky: SkyYear, face: ParsedFace, albedo: number | undefined, gi: number, faceHours: boolean, work: Float64Array[]): FaceColumns {
+  const cols = faceScratch(gi);
+  const own = faceHours ? allocateColumns(3, HOURS_PER_YEAR) : null;
+  const plane = planeOfArray(sky, face.tiltDeg, face.azimuthDeg, albedo, {
+    poa: own ? own[0] : cols[0],
+    poaTransmitted: cols[1],
+    beam: work[0],
+    skyDiffuse: work[1],
+    ground: work[2],
+  });
+  applySolarAccess(plane.poa, plane.poaTransmitted, face.solarAccessPct);
+  return { poa: plane.poa, tr: plane.poaTransmitted, cellTempC: own ? own[1] : cols[2], dcW: own ? own[2] : work[3], own };
+}
+
+/**
+ * A face's DC after losses, added into the system's hourly DC (and, with microinverters, its
+ * hourly AC); `k` is the face's index, for its default name.
+ */
+function faceDc(face: ParsedFace, k: number, c: FaceColumns, keep: number, micro: MicroInverter | null, hourlyDcW: Float64Array, hourlyAcW: Float64Array): FaceResult {
+  const n = HOURS_PER_YEAR;
+  const { poa, tr, cellTempC, dcW, own } = c;
+  const faceDcW0 = face.moduleCount * face.moduleWatts;
+  const gamma = face.gammaPctPerC !== undefined ? face.gammaPctPerC / 100 : MODULE_GAMMA_PER_C[face.moduleType];
+  let poaSum = 0;
+  let dcSum = 0;
+  // monthly DC summed in the same loop (same order of additions as monthlySums)
+  const monthlyDcWh = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
+  const scale = (faceDcW0 / 1000) * keep;
+  for (let i = 0; i < n; i++) {
+    poaSum += poa[i];
+    const t = tr[i];
+    if (t <= 0) {
+      dcW[i] = 0;
+      continue;
+    }
+    let p = t * scale * (1 + gamma * (cellTempC[i] - 25));
+    if (p < 0) p = 0;
+    dcW[i] = p;
+    dcSum += p;
+    hourlyDcW[i] += p;
+    monthlyDcWh[HOUR_MONTH[i]] += p;
+  }
+  if (micro) {
+    // Every module on a face sees the same irradiance: one module's inverter times the count.
+    const eta = micro.efficiencyPct / 100;
+    const pdc0 = micro.acWattsPerModule / eta;
+    const m = face.moduleCount;
+    for (let i = 0; i < n; i++) if (dcW[i] > 0) hourlyAcW[i] += m * pvwattsInverter(dcW[i] / m, pdc0, eta, PVWATTS_ETA_REFERENCE);
+  }
+  return {
+    name: face.name ?? `Face ${k + 1}`,
+    dcKw: faceDcW0 / 1000,
+    annualPoaKwhPerM2: poaSum / 1000,
+    annualDcKwh: dcSum / 1000,
+    monthlyDcKwh: monthlyDcWh.map((wh) => wh / 1000),
+    ...(own && { hours: { poa, cellTempC, dcW } }),
+  };
+}
+
+/** One string inverter for the whole system: hourly AC into `hourlyAcW`, its rating, monthly AC and the energy clipped. */
+function stringInverterAc(inv: StringInverter | null, dcKw: number, hourlyDcW: Float64Array, hourlyAcW: Float64Array): { acKw: number; monthlyAcWh: number[]; clippedWh: number } {
+  const eta = (inv?.efficiencyPct ?? 96) / 100;
+  const acKw = inv?.acKw ?? dcKw / (inv?.dcAcRatio ?? 1.2);
+  const pac0 = acKw * 1000;
+  const pdc0 = pac0 / eta;
+  const monthlyAcWh = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0]; // summed in the loop, in monthlySums' order
+  let clippedWh = 0;
+  for (let i = 0; i < HOURS_PER_YEAR; i++) {
+    const dc = hourlyDcW[i];
+    if (dc <= 0) continue;
+    const ac = pvwattsInverter(dc, pdc0, eta, PVWATTS_ETA_REFERENCE);
+    hourlyAcW[i] = ac;
+    monthlyAcWh[HOUR_MONTH[i]] += ac;
+    if (ac >= pac0) {
+      // what the efficiency curve would have given without the limit
+      const zeta = dc / pdc0;
+      const unclipped = (eta / PVWATTS_ETA_REFERENCE) * (-0.0162 * zeta - 0.0059 / zeta + 0.9858) * dc;
+      clippedWh += unclipped - pac0;
+    }
+  }
+  return { acKw, monthlyAcWh, clippedWh };
+}
+
 /** Hourly production of a system on a weather year. Throws EngineInputError naming each bad field. */
 export function estimateProduction(weather: WeatherYear, design: SystemDesign, options: EstimateOptions = {}): ProductionResult {
   const sys = parseOrThrow(systemSchema, design, "system design");
@@ -197,9 +309,8 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign, o
   const lossPct = "totalPct" in sys.losses ? sys.losses.totalPct : combinedLossPct(sys.losses);
   const keep = 1 - lossPct / 100;
   const sky = skyForWeather(weather, sys.transposition);
-  const n = HOURS_PER_YEAR;
 
-  const [hourlyDcW, hourlyAcW] = allocateColumns(2, n);
+  const [hourlyDcW, hourlyAcW] = allocateColumns(2, HOURS_PER_YEAR);
   const work = sharedScratch();
   const faces: FaceResult[] = [];
   let dcKw = 0;
@@ -210,37 +321,7 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign, o
   // cell temperatures side by side (fuentesCellTemperatureMany), then each face's DC in order.
   for (let g0 = 0; g0 < sys.faces.length; g0 += FACE_GROUP) {
     const group = sys.faces.slice(g0, g0 + FACE_GROUP);
-    const groupCols = group.map((face, gi) => {
-      const cols = faceScratch(gi);
-      const own = options.faceHours ? allocateColumns(3, n) : null;
-      const plane = planeOfArray(sky, face.tiltDeg, face.azimuthDeg, sys.albedo, {
-        poa: own ? own[0] : cols[0],
-        poaTransmitted: cols[1],
-        beam: work[0],
-        skyDiffuse: work[1],
-        ground: work[2],
-      });
-      const access = face.solarAccessPct;
-      const poa = plane.poa;
-      const tr = plane.poaTransmitted;
-      if (typeof access === "number") {
-        if (access !== 100) {
-          const f = access / 100;
-          for (let i = 0; i < n; i++) {
-            poa[i] *= f;
-            tr[i] *= f;
-          }
-        }
-      } else {
-        const monthF = access.map((a) => a / 100);
-        for (let i = 0; i < n; i++) {
-          const f = monthF[HOUR_MONTH[i]];
-          poa[i] *= f;
-          tr[i] *= f;
-        }
-      }
-      return { poa, tr, cellTempC: own ? own[1] : cols[2], dcW: own ? own[2] : work[3], own };
-    });
+    const groupCols = group.map((face, gi) => faceColumns(sky, face, sys.albedo, gi, options.faceHours ?? false, work));
     fuentesCellTemperatureMany(
       groupCols.map((c) => c.poa),
       weather.tempAirC,
@@ -249,46 +330,11 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign, o
       groupCols.map((c) => c.cellTempC),
     );
     group.forEach((face, gi) => {
-      const k = g0 + gi;
-      const { poa, tr, cellTempC, dcW, own } = groupCols[gi];
       const faceDcW0 = face.moduleCount * face.moduleWatts;
       dcKw += faceDcW0 / 1000;
-      const gamma = face.gammaPctPerC !== undefined ? face.gammaPctPerC / 100 : MODULE_GAMMA_PER_C[face.moduleType];
-      let poaSum = 0;
-      let dcSum = 0;
-      // monthly DC summed in the same loop (same order of additions as monthlySums)
-      const monthlyDcWh = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
-      const scale = (faceDcW0 / 1000) * keep;
-      for (let i = 0; i < n; i++) {
-        poaSum += poa[i];
-        const t = tr[i];
-        if (t <= 0) {
-          dcW[i] = 0;
-          continue;
-        }
-        let p = t * scale * (1 + gamma * (cellTempC[i] - 25));
-        if (p < 0) p = 0;
-        dcW[i] = p;
-        dcSum += p;
-        hourlyDcW[i] += p;
-        monthlyDcWh[HOUR_MONTH[i]] += p;
-      }
-      if (micro) {
-        // Every module on a face sees the same irradiance: one module's inverter times the count.
-        const eta = micro.efficiencyPct / 100;
-        const pdc0 = micro.acWattsPerModule / eta;
-        const m = face.moduleCount;
-        for (let i = 0; i < n; i++) if (dcW[i] > 0) hourlyAcW[i] += m * pvwattsInverter(dcW[i] / m, pdc0, eta, PVWATTS_ETA_REFERENCE);
-      }
-      weightedPoa += (poaSum / 1000) * faceDcW0;
-      faces.push({
-        name: face.name ?? `Face ${k + 1}`,
-        dcKw: faceDcW0 / 1000,
-        annualPoaKwhPerM2: poaSum / 1000,
-        annualDcKwh: dcSum / 1000,
-        monthlyDcKwh: monthlyDcWh.map((wh) => wh / 1000),
-        ...(own && { hours: { poa, cellTempC, dcW } }),
-      });
+      const result = faceDc(face, g0 + gi, groupCols[gi], keep, micro, hourlyDcW, hourlyAcW);
+      weightedPoa += result.annualPoaKwhPerM2 * faceDcW0;
+      faces.push(result);
     });
   }
 
@@ -299,25 +345,7 @@ export function estimateProduction(weather: WeatherYear, design: SystemDesign, o
     monthlyAcWh = monthlySums(hourlyAcW);
     acKw = (micro.acWattsPerModule * sys.faces.reduce((s, f) => s + f.moduleCount, 0)) / 1000;
   } else {
-    const inv = sys.inverter.kind === "string" ? sys.inverter : null;
-    const eta = (inv?.efficiencyPct ?? 96) / 100;
-    acKw = inv?.acKw ?? dcKw / (inv?.dcAcRatio ?? 1.2);
-    const pac0 = acKw * 1000;
-    const pdc0 = pac0 / eta;
-    monthlyAcWh = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0]; // summed in the loop, in monthlySums' order
-    for (let i = 0; i < n; i++) {
-      const dc = hourlyDcW[i];
-      if (dc <= 0) continue;
-      const ac = pvwattsInverter(dc, pdc0, eta, PVWATTS_ETA_REFERENCE);
-      hourlyAcW[i] = ac;
-      monthlyAcWh[HOUR_MONTH[i]] += ac;
-      if (ac >= pac0) {
-        // what the efficiency curve would have given without the limit
-        const zeta = dc / pdc0;
-        const unclipped = (eta / PVWATTS_ETA_REFERENCE) * (-0.0162 * zeta - 0.0059 / zeta + 0.9858) * dc;
-        clippedWh += unclipped - pac0;
-      }
-    }
+    ({ acKw, monthlyAcWh, clippedWh } = stringInverterAc(sys.inverter.kind === "string" ? sys.inverter : null, dcKw, hourlyDcW, hourlyAcW));
   }
   const monthlyAcKwh = monthlyAcWh.map((wh) => wh / 1000);
   const annualAcKwh = monthlyAcKwh.reduce((s, v) => s + v, 0);

@@ -712,6 +712,52 @@ function isLeapYear(y: number): boolean {
 }
 
 /**
+ * The sunrise and sunset hours of `out` (filled at the hours' middles) re-evaluated at the middle
+ * of their sunlit part; every other hour is left as it is.
+ */
+function refineHorizonHours(nodes: SunNodes, yearStartMs: number, latitude: number, out: SunPositionsYear): void {
+  const evaluate = evaluatorFor(nodes);
+  const a = newSunAngles();
+  let b = newSunAngles();
+  let c = newSunAngles();
+  let cAtHour = -1; // the hour whose start `c` holds (the previous guarded hour's end, when adjacent)
+  // Near the horizon the sun's elevation changes by at most 15.04°·cos(latitude) per hour (plus
+  // refraction's own change, under 1°): hours whose middle is farther from the horizon than half
+  // of that cannot contain sunrise or sunset.
+  const guardDeg = Math.min(HORIZON_GUARD_DEG, (15.05 * Math.cos(latitude * (Math.PI / 180))) / 2 + 1);
+  for (let i = 0; i < HOURS_PER_YEAR; i++) {
+    if (!(Math.abs(90 - out.zenithDeg[i]) < guardDeg)) continue;
+    const hourStartMs = yearStartMs + i * MS_PER_HOUR;
+    if (cAtHour !== i) evaluate(hourStartMs, c);
+    evaluate(hourStartMs + MS_PER_HOUR, b);
+    // this hour's end is the next hour's start
+    const t = c;
+    c = b;
+    b = t;
+    cAtHour = i + 1;
+    const eStart = b.elevationDeg;
+    const eEnd = c.elevationDeg;
+    const upStart = eStart > 0;
+    const upEnd = eEnd > 0;
+    if (upStart === upEnd) continue;
+    // Elevation is close to linear in time near the horizon: one secant step places the
+    // crossing within seconds, which is ample for choosing an evaluation instant.
+    const f = eStart / (eStart - eEnd);
+    const crossMs = hourStartMs + f * MS_PER_HOUR;
+    const evalMs = upStart ? (hourStartMs + crossMs) / 2 : (crossMs + hourStartMs + MS_PER_HOUR) / 2;
+    evaluate(evalMs, a);
+    out.zenithDeg[i] = a.zenithDeg;
+    out.airlessZenithDeg[i] = a.airlessZenithDeg;
+    out.azimuthDeg[i] = a.azimuthDeg;
+    out.earthSunDistanceAu[i] = a.earthSunDistanceAu;
+    out.cosZenith[i] = a.cosZenith;
+    out.sinZenithCosAz[i] = a.sinZenithCosAz;
+    out.sinZenithSinAz[i] = a.sinZenithSinAz;
+    out.evaluatedAtLocalHour[i] = (i % 24) + (evalMs - hourStartMs) / MS_PER_HOUR;
+  }
+}
+
+/**
  * 8760 sun positions for the typical year (hour 0 = 1 January 00:00–01:00 local standard time,
  * no 29 February), each at the middle of its hour — or, for sunrise and sunset hours, at the
  * middle of the sunlit part (see `sunUpMidpoint`). Local standard time → UT by the UTC offset.
@@ -757,45 +803,7 @@ export function sunPositionsForYear(site: YearSite, options: YearPositionOptions
   fillHourly(nodes, yearStartMs + MS_PER_HOUR / 2, n, out);
   for (let i = 0; i < n; i++) out.evaluatedAtLocalHour[i] = (i % 24) + 0.5;
   if (!(options.sunUpMidpoint ?? true)) return out;
-  const evaluate = evaluatorFor(nodes);
-  const a = newSunAngles();
-  let b = newSunAngles();
-  let c = newSunAngles();
-  let cAtHour = -1; // the hour whose start `c` holds (the previous guarded hour's end, when adjacent)
-  // Near the horizon the sun's elevation changes by at most 15.04°·cos(latitude) per hour (plus
-  // refraction's own change, under 1°): hours whose middle is farther from the horizon than half
-  // of that cannot contain sunrise or sunset.
-  const guardDeg = Math.min(HORIZON_GUARD_DEG, (15.05 * Math.cos(s.latitude * (Math.PI / 180))) / 2 + 1);
-  for (let i = 0; i < n; i++) {
-    if (!(Math.abs(90 - out.zenithDeg[i]) < guardDeg)) continue;
-    const hourStartMs = yearStartMs + i * MS_PER_HOUR;
-    if (cAtHour !== i) evaluate(hourStartMs, c);
-    evaluate(hourStartMs + MS_PER_HOUR, b);
-    // this hour's end is the next hour's start
-    const t = c;
-    c = b;
-    b = t;
-    cAtHour = i + 1;
-    const eStart = b.elevationDeg;
-    const eEnd = c.elevationDeg;
-    const upStart = eStart > 0;
-    const upEnd = eEnd > 0;
-    if (upStart === upEnd) continue;
-    // Elevation is close to linear in time near the horizon: one secant step places the
-    // crossing within seconds, which is ample for choosing an evaluation instant.
-    const f = eStart / (eStart - eEnd);
-    const crossMs = hourStartMs + f * MS_PER_HOUR;
-    const evalMs = upStart ? (hourStartMs + crossMs) / 2 : (crossMs + hourStartMs + MS_PER_HOUR) / 2;
-    evaluate(evalMs, a);
-    out.zenithDeg[i] = a.zenithDeg;
-    out.airlessZenithDeg[i] = a.airlessZenithDeg;
-    out.azimuthDeg[i] = a.azimuthDeg;
-    out.earthSunDistanceAu[i] = a.earthSunDistanceAu;
-    out.cosZenith[i] = a.cosZenith;
-    out.sinZenithCosAz[i] = a.sinZenithCosAz;
-    out.sinZenithSinAz[i] = a.sinZenithSinAz;
-    out.evaluatedAtLocalHour[i] = (i % 24) + (evalMs - hourStartMs) / MS_PER_HOUR;
-  }
+  refineHorizonHours(nodes, yearStartMs, s.latitude, out);
   return out;
 }
 

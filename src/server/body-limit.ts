@@ -23,8 +23,7 @@ const file = (maxFileBytes: number, what: string): BodyCap => ({
 /**
  * Every request body the app reads is capped here, before it is read (our choices; OWASP ASVS
  * 4.0 V12.1.1 / V13.1 ask for a size limit on every input). A body over its cap answers 413
- * without the rest being buffered. Server actions have Next's own cap (serverActions.bodySizeLimit,
- * 1 MB by default), which is kept.
+ * without the rest being buffered. (The app has no server actions.)
  */
 export const BODY_CAPS = {
   /** JSON route handlers (withMember + readJson, the public proposal routes). */

@@ -27,16 +27,3 @@ export function LinkTabs({ label, pages }: { label: string; pages: readonly { hr
     </nav>
   );
 }
-
-/** Tabs inside one screen (WAI-ARIA tabs pattern: tablist, tab, aria-selected). */
-export function Tabs<T extends string>({ label, tabs, value, onChange }: { label: string; tabs: readonly { value: T; label: string }[]; value: T; onChange: (value: T) => void }) {
-  return (
-    <div role="tablist" aria-label={label} className="mb-4 flex gap-1 overflow-x-auto border-b border-paper-line">
-      {tabs.map((t) => (
-        <button key={t.value} type="button" role="tab" aria-selected={t.value === value} className={`-mb-px ${tabClass(t.value === value)}`} onClick={() => onChange(t.value)}>
-          {t.label}
-        </button>
-      ))}
-    </div>
-  );
-}

@@ -50,19 +50,8 @@ function paymentIntentFor(ctx: FakeContext, session: CheckoutSession, request: R
   return pi;
 }
 
-/**
- * One payment attempt with a card that passed the form's checks. On success the session is
- * complete and paid; on a decline the PaymentIntent carries last_payment_error and the
- * session stays open for another card.
- * (Over 80 lines on purpose: most of it is the one Charge object, field by field as the service
- * shows it; splitting it would scatter the object.)
- */
-export function pay(ctx: FakeContext, session: CheckoutSession, card: CheckedCard, email: string | null, request: RequestInfo): { ok: true } | { ok: false; decline: CardDecline } {
-  const pi = paymentIntentFor(ctx, session, request);
-  const decline = outcomeOf(card.digits);
-  const pmId = newId("pm_");
-  const details = cardDetails(card);
-  const payerEmail = session.customer_email ?? email;
+/** The Charge of one attempt, field by field as the service shows it: captured, or failed with the decline. */
+function chargeFor(pi: PaymentIntent, card: CheckedCard, decline: CardDecline | null, pmId: string, details: CardDetails, payerEmail: string | null): Charge {
   const charge: Charge = {
     id: newId("ch_"),
     object: "charge",
@@ -100,24 +89,28 @@ export function pay(ctx: FakeContext, session: CheckoutSession, card: CheckedCar
     status: decline ? "failed" : "succeeded",
   };
   charge.refunds.url = `/v1/charges/${charge.id}/refunds`;
-  ctx.store.charges.add(charge);
-  pi.latest_charge = charge.id;
-  if (decline) {
-    pi.status = "requires_payment_method";
-    pi.payment_method = null;
-    pi.last_payment_error = {
-      type: "card_error",
-      code: decline.code,
-      ...(decline.declineCode ? { decline_code: decline.declineCode } : {}),
-      message: decline.message,
-      doc_url: `https://stripe.com/docs/error-codes/${decline.code.replace(/_/g, "-")}`,
-      charge: charge.id,
-      payment_method: { id: pmId, object: "payment_method", type: "card", card: details },
-    };
-    emit(ctx, "charge.failed", charge, request);
-    emit(ctx, "payment_intent.payment_failed", pi, request);
-    return { ok: false, decline };
-  }
+  return charge;
+}
+
+/** A declined attempt: the PaymentIntent carries last_payment_error and waits for another card. */
+function recordDecline(ctx: FakeContext, pi: PaymentIntent, charge: Charge, decline: CardDecline, pmId: string, details: CardDetails, request: RequestInfo): void {
+  pi.status = "requires_payment_method";
+  pi.payment_method = null;
+  pi.last_payment_error = {
+    type: "card_error",
+    code: decline.code,
+    ...(decline.declineCode ? { decline_code: decline.declineCode } : {}),
+    message: decline.message,
+    doc_url: `https://stripe.com/docs/error-codes/${decline.code.replace(/_/g, "-")}`,
+    charge: charge.id,
+    payment_method: { id: pmId, object: "payment_method", type: "card", card: details },
+  };
+  emit(ctx, "charge.failed", charge, request);
+  emit(ctx, "payment_intent.payment_failed", pi, request);
+}
+
+/** A successful attempt: the PaymentIntent succeeded and the session is complete and paid. */
+function recordSuccess(ctx: FakeContext, session: CheckoutSession, pi: PaymentIntent, charge: Charge, card: CheckedCard, pmId: string, payerEmail: string | null, request: RequestInfo): void {
   pi.status = "succeeded";
   pi.amount_received = pi.amount;
   pi.payment_method = pmId;
@@ -136,6 +129,27 @@ export function pay(ctx: FakeContext, session: CheckoutSession, card: CheckedCar
   emit(ctx, "charge.succeeded", charge, request);
   emit(ctx, "payment_intent.succeeded", pi, request);
   emit(ctx, "checkout.session.completed", session, request);
+}
+
+/**
+ * One payment attempt with a card that passed the form's checks. On success the session is
+ * complete and paid; on a decline the PaymentIntent carries last_payment_error and the
+ * session stays open for another card.
+ */
+export function pay(ctx: FakeContext, session: CheckoutSession, card: CheckedCard, email: string | null, request: RequestInfo): { ok: true } | { ok: false; decline: CardDecline } {
+  const pi = paymentIntentFor(ctx, session, request);
+  const decline = outcomeOf(card.digits);
+  const pmId = newId("pm_");
+  const details = cardDetails(card);
+  const payerEmail = session.customer_email ?? email;
+  const charge = chargeFor(pi, card, decline, pmId, details, payerEmail);
+  ctx.store.charges.add(charge);
+  pi.latest_charge = charge.id;
+  if (decline) {
+    recordDecline(ctx, pi, charge, decline, pmId, details, request);
+    return { ok: false, decline };
+  }
+  recordSuccess(ctx, session, pi, charge, card, pmId, payerEmail, request);
   return { ok: true };
 }
 

@@ -91,19 +91,18 @@ function lineItemOf(raw: ParamValue, index: number, now: number): LineItem {
   };
 }
 
-/**
- * POST /v1/checkout/sessions. (Over 80 lines on purpose: half of it is the session object, field
- * by field as the service shows it, next to the checks that fill it.)
- */
-export function createSession(ctx: FakeContext, params: Params): CheckoutSession {
-  onlyKnown(params, SESSION_CREATE_PARAMS);
-  const now = nowSeconds();
+/** The session's mode: the service's three are known, only payment is served. */
+function checkMode(params: Params): void {
   const mode = str(params, "mode");
   if (mode === null) throw missingParam("mode");
   if (!["payment", "subscription", "setup"].includes(mode)) {
     throw invalidParam("mode", `Invalid mode: must be one of payment, setup, or subscription`, "parameter_invalid_string");
   }
   if (mode !== "payment") throw invalidParam("mode", `The dev payments server supports only mode=payment (got ${mode}).`);
+}
+
+/** The line items, their one currency and their total, checked against the service's limits. */
+function sessionItems(params: Params, now: number): { items: LineItem[]; currency: string; amount: number } {
   const rawItems = list(params, "line_items");
   if (!rawItems || rawItems.length === 0) throw missingParam("line_items");
   if (rawItems.length > 100) throw invalidParam("line_items", "You may only specify up to 100 line items.");
@@ -119,18 +118,33 @@ export function createSession(ctx: FakeContext, params: Params): CheckoutSession
     throw invalidRequest(`The Checkout Session's total amount due must add up to at least $0.50 usd`, "line_items", "amount_too_small");
   }
   if (amount > 99_999_999) throw invalidRequest("Amount must be no more than $999,999.99", "line_items", "amount_too_large");
+  return { items, currency, amount };
+}
+
+/** expires_at: 24 hours when not given, else between 30 minutes and 24 hours from now (a minute's slack each way). */
+function expiresAtOf(params: Params, now: number): number {
+  const expiresAt = int(params, "expires_at");
+  if (expiresAt === null) return now + MAX_EXPIRY_S;
+  if (expiresAt < now + MIN_EXPIRY_S - 60) {
+    throw invalidParam("expires_at", "The `expires_at` timestamp must be at least 30 minutes from Checkout Session creation.", "parameter_invalid_integer");
+  } else if (expiresAt > now + MAX_EXPIRY_S + 60) {
+    throw invalidParam("expires_at", "The `expires_at` timestamp must be less than 24 hours from Checkout Session creation.", "parameter_invalid_integer");
+  }
+  return expiresAt;
+}
+
+/** POST /v1/checkout/sessions: the session object, field by field as the service shows it. */
+export function createSession(ctx: FakeContext, params: Params): CheckoutSession {
+  onlyKnown(params, SESSION_CREATE_PARAMS);
+  const now = nowSeconds();
+  checkMode(params);
+  const { items, currency, amount } = sessionItems(params, now);
   const successUrl = urlOf(str(params, "success_url", { max: 5000 }), "success_url");
   const cancelUrl = urlOf(str(params, "cancel_url", { max: 5000 }), "cancel_url");
   const customerEmail = str(params, "customer_email", { max: 800 });
   if (customerEmail !== null && !/^[^\s@]+@[^\s@]+\.[^\s@]+$/.test(customerEmail)) throw invalidParam("customer_email", `Invalid email address: ${customerEmail}`, "email_invalid");
   const clientReferenceId = str(params, "client_reference_id", { max: 200 });
-  let expiresAt = int(params, "expires_at");
-  if (expiresAt === null) expiresAt = now + MAX_EXPIRY_S;
-  else if (expiresAt < now + MIN_EXPIRY_S - 60) {
-    throw invalidParam("expires_at", "The `expires_at` timestamp must be at least 30 minutes from Checkout Session creation.", "parameter_invalid_integer");
-  } else if (expiresAt > now + MAX_EXPIRY_S + 60) {
-    throw invalidParam("expires_at", "The `expires_at` timestamp must be less than 24 hours from Checkout Session creation.", "parameter_invalid_integer");
-  }
+  const expiresAt = expiresAtOf(params, now);
   const piData = obj(params, "payment_intent_data") ?? {};
   onlyKnown(piData, PI_DATA_PARAMS, "payment_intent_data");
   const id = newId("cs_test_a1", 56);
