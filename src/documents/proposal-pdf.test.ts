@@ -73,7 +73,7 @@ describe("renderProposalPdf (3 offers, sold in the home)", () => {
     expect(all).toContain("authority having jurisdiction (AHJ)");
     expect(all).toContain("Estimates, not a guarantee");
     // An incentive that ended before the offer date is listed with its dates, never applied.
-    expect(all).toContain("ended 2025-12-31, before the offer on 2026-03-02");
+    expect(all.replace(/\s+/g, " ")).toContain("ended 2025-12-31, before the offer on 2026-03-02");
   });
 
   it("carries the notice of the right to cancel (16 CFR 429.1) and its form twice", () => {
