@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { cancelWindowClosesAt, canStillCancel, formatIsoDateLong, proposalDisplayStatus, proposalLabel, proposalLinkState } from "./proposal-snapshot";
+import { cancelWindowClosesAt, canStillCancel, cautionsFor, formatIsoDateLong, NO_INCENTIVES_NOTE, PROPOSAL_CAUTIONS, proposalDisplayStatus, proposalLabel, proposalLinkState } from "./proposal-snapshot";
 import { dateInZone } from "./zoned-time";
 
 const future = new Date(Date.now() + 86_400_000);
@@ -45,5 +45,18 @@ describe("the cancellation window (16 CFR 429.1(a): prior to midnight of the dea
     expect(canStillCancel({ ...p, inHomeSale: false }, "America/New_York", new Date("2026-12-02T12:00:00Z"))).toBe(false);
     expect(canStillCancel({ ...p, status: "cancelled" }, "America/New_York", new Date("2026-12-02T12:00:00Z"))).toBe(false);
     expect(formatIsoDateLong("2026-12-04")).toBe("Friday, December 4, 2026");
+  });
+});
+
+describe("cautions", () => {
+  const offer = (applied: number) => ({ figures: { incentives: { applied: Array.from({ length: applied }, () => ({})) } } });
+  it("says plainly when no offer has any incentive or tax credit, instead of the tax-liability line", () => {
+    const none = cautionsFor([offer(0), offer(0)]);
+    expect(none).toContain(NO_INCENTIVES_NOTE);
+    expect(none.some((c) => c.includes("tax liability"))).toBe(false);
+    const some = cautionsFor([offer(0), offer(1)]);
+    expect(some).not.toContain(NO_INCENTIVES_NOTE);
+    expect(some.some((c) => c.includes("tax liability"))).toBe(true);
+    expect(some).toHaveLength(PROPOSAL_CAUTIONS.length);
   });
 });

@@ -47,15 +47,25 @@ export type SnapshotSource = {
 const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / Math.max(1, xs.length);
 const round1 = (x: number) => Math.round(x * 10) / 10;
 
+const INCENTIVES_CAUTION = "Incentives depend on the programme's rules and budget on the day they are claimed; tax credits depend on your own tax liability.";
+/** Said plainly instead when no offer has any incentive or tax credit. */
+export const NO_INCENTIVES_NOTE = "No incentive or tax credit applies to these offers: the prices and savings shown are without any.";
+
 /** The usual cautions shown with every proposal (our wording). */
 export const PROPOSAL_CAUTIONS: readonly string[] = [
   OFFER_CAUTION,
   STRING_CAUTION,
   "Production figures are for a typical weather year; any single year can be sunnier or cloudier.",
   "Utility prices, rate plans and net-metering rules can change; savings follow them.",
-  "Incentives depend on the programme's rules and budget on the day they are claimed; tax credits depend on your own tax liability.",
+  INCENTIVES_CAUTION,
   "Site conditions found during the survey (roof structure, electrical panel, shading) can change the design and the price; any change comes to you as a new proposal.",
 ];
+
+/** The usual cautions; when no offer has any incentive, the incentives line says so plainly. */
+export function cautionsFor(offers: readonly { figures: { incentives: { applied: readonly unknown[] } } }[]): string[] {
+  const none = offers.every((o) => o.figures.incentives.applied.length === 0);
+  return PROPOSAL_CAUTIONS.map((c) => (c === INCENTIVES_CAUTION && none ? NO_INCENTIVES_NOTE : c));
+}
 
 /** Faces of one offer: the design's faces with the offer's own module counts where it sets them. */
 function offerFaces(faces: SnapshotFace[], inputs: OfferInputs): ProposalSnapshotOffer["equipment"]["faces"] {
@@ -150,7 +160,7 @@ export function buildProposalSnapshot(src: SnapshotSource): ProposalSnapshot {
     usage: { monthlyKwh: src.usage.monthlyKwh.map((v) => Math.round(v * 10) / 10), source: src.usage.source },
     assumptions: assumptionSentences(src),
     offers,
-    cautions: [...PROPOSAL_CAUTIONS],
+    cautions: cautionsFor(offers),
   };
 }
 

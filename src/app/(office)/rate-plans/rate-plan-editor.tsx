@@ -163,7 +163,7 @@ function TouEditor({ energy, err, canEdit, update }: TouProps) {
 
       <div>
         <h3 className="text-sm font-semibold">Seasons</h3>
-        <p className="text-sm text-graphite-soft">Every month belongs to one season. Hours no range names take the season&apos;s other-hours period; a later range wins where ranges overlap.</p>
+        <p className="text-sm text-graphite-soft">Every month belongs to one season. Hours no range names take the season&apos;s other-hours period; a later range wins where ranges overlap. Hours are clock hours at the site, daylight saving included: 4–9 pm means 4–9 pm on the wall clock in summer too.</p>
         <div className="mt-2 space-y-3">
           {energy.seasons.map((season, s) => (
             <SeasonCard key={s} s={s} season={season} energy={energy} periodOptions={periodOptions} byHour={byHour} canEdit={canEdit} err={err} update={update} />
