@@ -1,9 +1,8 @@
 "use client";
-import { useState } from "react";
+import { CopyButton } from "@/components/ui/copy-button";
 
 /** The crew's calendar feed: subscribe on the phone (webcal:) or copy the address. */
 export function FeedLink({ feedUrl, crewName }: { feedUrl: string; crewName: string }) {
-  const [copied, setCopied] = useState(false);
   const webcal = feedUrl.replace(/^https?:/, "webcal:");
   return (
     <section className="card mt-8 p-4" aria-labelledby="feed-heading">
@@ -15,16 +14,7 @@ export function FeedLink({ feedUrl, crewName }: { feedUrl: string; crewName: str
         <a href={webcal} className="btn-quiet">
           Subscribe
         </a>
-        <button
-          type="button"
-          className="btn-quiet"
-          onClick={async () => {
-            await navigator.clipboard.writeText(feedUrl).catch(() => undefined);
-            setCopied(true);
-          }}
-        >
-          {copied ? "Address copied" : "Copy address"}
-        </button>
+        <CopyButton text={feedUrl} label="Copy address" copiedLabel="Address copied" />
       </div>
     </section>
   );

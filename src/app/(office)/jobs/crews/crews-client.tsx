@@ -1,4 +1,5 @@
 "use client";
+import { CopyButton } from "@/components/ui/copy-button";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useState, type Dispatch, type SetStateAction } from "react";
 import { useForm } from "react-hook-form";
@@ -132,7 +133,6 @@ function CrewMembersField({ crew, installers, crews, members, setMembers }: { cr
 
 /** The crew's calendar feed address, to copy to a phone, or to renew when it leaked. */
 function CalendarAddress({ feedUrl, busy, onRenew }: { feedUrl: string; busy: boolean; onRenew: () => void }) {
-  const [copied, setCopied] = useState(false);
   return (
     <div>
       <p className="field-label">Calendar address</p>
@@ -140,16 +140,7 @@ function CalendarAddress({ feedUrl, busy, onRenew }: { feedUrl: string; busy: bo
         {feedUrl}
       </p>
       <div className="mt-2 flex flex-wrap gap-2">
-        <button
-          type="button"
-          className="btn-quiet"
-          onClick={async () => {
-            await navigator.clipboard.writeText(feedUrl).catch(() => undefined);
-            setCopied(true);
-          }}
-        >
-          {copied ? "Copied" : "Copy"}
-        </button>
+        <CopyButton text={feedUrl} label="Copy" copiedLabel="Copied" />
         <ConfirmButton
           label="Renew address"
           title="Renew the calendar address?"
