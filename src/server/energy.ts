@@ -123,19 +123,17 @@ const usageColumns = {
   fillMethod: dealUsage.fillMethod,
 };
 
-/** MariaDB keeps JSON as text, so the driver may hand back a string. */
-const parsed = <T>(raw: T | string): T => (typeof raw === "string" ? (JSON.parse(raw) as T) : raw);
 
 function toUsage(r: Pick<typeof dealUsage.$inferSelect, keyof typeof usageColumns>): DealUsage {
   return {
     id: r.id,
     version: r.version,
-    monthlyKwh: parsed(r.monthlyKwh),
-    hourlyKwh: parsed(r.hourlyKwh),
+    monthlyKwh: r.monthlyKwh,
+    hourlyKwh: r.hourlyKwh,
     annualKwh: r.annualKwh,
     source: r.source,
-    estimatedMonths: parsed(r.estimatedMonths).map(Boolean),
-    warnings: parsed(r.warnings),
+    estimatedMonths: r.estimatedMonths,
+    warnings: r.warnings,
     averageCentsPerKwh: r.averageCentsPerKwh,
     fillMethod: r.fillMethod,
   };
@@ -158,7 +156,7 @@ export async function rebuildDealUsage(tx: Tx, companyId: string, dealId: string
     .where(and(eq(intervalProfile.companyId, companyId), eq(intervalProfile.dealId, dealId)))
     .orderBy(desc(intervalProfile.createdAt))
     .limit(1);
-  const year = deriveUsageYear(await billsOf(tx, companyId, dealId), profile ? { hourlyKwh: parsed(profile.hourlyKwh), coveragePct: profile.coveragePct } : null);
+  const year = deriveUsageYear(await billsOf(tx, companyId, dealId), profile ? { hourlyKwh: profile.hourlyKwh, coveragePct: profile.coveragePct } : null);
   if (current) {
     await tx
       .update(dealUsage)

@@ -6,7 +6,6 @@ import { proposalDisplayStatus, proposalLabel, proposalLinkState } from "@/lib/p
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { db } from "@/server/db";
 import { inDealOrThrow } from "@/server/deal-scope";
-import { jsonValue } from "@/server/designs";
 import type { Member } from "@/server/session";
 import { hashToken } from "@/server/tokens";
 
@@ -19,7 +18,7 @@ export type ProposalRow = Omit<StoredProposal, "snapshot" | "tokenHash" | "codeH
 
 export function toRow(row: StoredProposal): ProposalRow {
   const { tokenHash: _t, codeHash: _c, snapshot, ...rest } = row;
-  return { ...rest, snapshot: jsonValue(snapshot) as ProposalSnapshot };
+  return { ...rest, snapshot };
 }
 
 export const labelOf = (p: { number: number; version: number }) => proposalLabel(p.number, p.version);
