@@ -24,8 +24,11 @@ test("the rep corrects the household and sets the rate plan; bad input is named 
   expect(values.length).toBeGreaterThan(0);
   const chosen = values[0];
   await plan.selectOption(chosen);
+  const saved = page.waitForResponse((r) => r.url().endsWith("/utility") && r.request().method() === "PUT");
   await page.getByRole("button", { name: "Save utility and plan" }).click();
-  await expect(page.getByText("Saved.").last()).toBeVisible();
+  expect((await saved).status()).toBe(200);
+  // Both forms now say so: the household's earlier notice and the utility form's own.
+  await expect(page.getByText("Saved.")).toHaveCount(2);
   await page.reload();
   await expect(page.getByLabel("Phone")).toHaveValue("336-555-0199");
   await expect(page.getByLabel("Rate plan")).toHaveValue(chosen);

@@ -23,9 +23,12 @@ let stranger: Member;
  * Waits until one of the app's connections is running its UPDATE of a deal (blocked on the row
  * lock), up to 10 s: the process list shows a user's own threads without extra privileges.
  */
-async function waitForBlockedDealUpdate(): Promise<void> {
+/** Waits until an UPDATE of this deal's row (found by its id in the statement) waits on the row lock. */
+async function waitForBlockedDealUpdate(dealId: string): Promise<void> {
   for (const start = Date.now(); Date.now() - start < 10_000; await new Promise((r) => setTimeout(r, 20))) {
-    const [rows] = await s.db.pool().query("SELECT COUNT(*) AS n FROM information_schema.PROCESSLIST WHERE INFO LIKE 'update `deal`%'");
+    const [rows] = await s.db
+      .pool()
+      .query("SELECT COUNT(*) AS n FROM information_schema.PROCESSLIST WHERE INFO LIKE 'update `deal`%' AND INFO LIKE ? AND ID <> CONNECTION_ID()", [`%${dealId}%`]);
     if (Number((rows as { n: number }[])[0].n) > 0) return;
   }
   throw new Error("the move's UPDATE did not come to wait on the row lock within 10 s");
@@ -144,7 +147,7 @@ describe("moveDealStage", () => {
         () => null,
         (e: unknown) => e,
       );
-      await waitForBlockedDealUpdate(); // ours has read "Survey" and waits on the row lock
+      await waitForBlockedDealUpdate(id); // ours has read "Survey" and waits on the row lock
       await other.query("UPDATE deal SET stage = 'on_hold' WHERE id = ?", [id]);
       await other.commit();
       const err = await ours;
