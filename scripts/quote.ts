@@ -93,11 +93,10 @@ function main(): void {
     // The sun is placed at the case's own site; the file's station supplies the weather (and
     // its clock: its UTC offset stays). A station far from the site is said in the notes.
     const weatherText = readText(weatherPath, "weather file");
-    const station = parseWeather(weatherText).site;
     const caseSite = (caseInput as { site?: { latitude?: unknown; longitude?: unknown } }).site;
     const siteOverride = typeof caseSite?.latitude === "number" && typeof caseSite.longitude === "number" ? { latitude: caseSite.latitude, longitude: caseSite.longitude } : undefined;
-    const weather = siteOverride ? parseWeather(weatherText, { site: siteOverride }) : parseWeather(weatherText);
-    const distanceKm = siteOverride ? haversineKm(station, siteOverride) : 0;
+    const weather = parseWeather(weatherText, { site: siteOverride });
+    const distanceKm = siteOverride && weather.station ? haversineKm(weather.station, siteOverride) : 0;
     const intervalText = usageRef?.kind === "interval" && typeof usageRef.file === "string" ? readText(resolve(base, usageRef.file), "interval file") : undefined;
     const quote = buildQuote(caseInput, {
       weather,

@@ -39,6 +39,8 @@ export type WeatherYear = {
   /** Where the data came from, e.g. "TMY3 723170 GREENSBORO PIEDMONT TRIAD INT, NC". */
   sourceLabel: string;
   site: WeatherSite;
+  /** Where the file's header puts its station, before any site given in the options (null when it names none). */
+  station?: { latitude: number; longitude: number } | null;
   month: Uint8Array; // 1–12
   day: Uint8Array; // 1–31
   hour: Uint8Array; // 0–23, the hour's start
@@ -375,6 +377,7 @@ export function parseWeather(text: string, options: ParseWeatherOptions = {}): W
     format,
     sourceLabel: options.sourceLabel ?? parsed.label,
     site,
+    station: typeof parsed.site.latitude === "number" && typeof parsed.site.longitude === "number" ? { latitude: parsed.site.latitude, longitude: parsed.site.longitude } : null,
     ...out,
     ghiDerived,
     albedoFromFileHours,
