@@ -77,7 +77,7 @@ export const config = {
   // Pages only: not /api (see above), not the build's static files; prefetches carry no scripts to nonce (Next.js docs).
   matcher: [
     {
-      source: "/((?!api/|_next/static|_next/image|favicon.ico).*)",
+      source: "/((?!api/|_next/static|_next/image|favicon.ico|icon.svg|icon-192.png|icon-512.png|apple-touch-icon.png|manifest.webmanifest).*)",
       missing: [
         { type: "header", key: "next-router-prefetch" },
         { type: "header", key: "purpose", value: "prefetch" },

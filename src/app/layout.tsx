@@ -9,6 +9,13 @@ import { ZodJitless } from "@/components/zod-jitless";
 export const metadata: Metadata = {
   title: { default: "Kilowright", template: "%s · Kilowright" },
   description: "From utility bills to a live solar system: design, price, sign, build.",
+  icons: {
+    icon: [
+      { url: "/favicon.ico", sizes: "16x16 32x32 48x48" },
+      { url: "/icon.svg", type: "image/svg+xml" },
+    ],
+    apple: "/apple-touch-icon.png",
+  },
 };
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#FAF7F2" };
