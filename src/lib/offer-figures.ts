@@ -283,6 +283,8 @@ export type OfferSummary = {
   simplePaybackYears?: number | null;
   /** Paid at signing and taken off the loan (loans only). */
   downPaymentCents?: number | null;
+  /** Borrowed: price − down payment − incentives applied at signing, before any dealer fee (loans only). */
+  loanAmountCents?: number | null;
   /** ROI's denominator: what the homeowner pays for the system over the table (down payment or price, loan payments, upkeep) less incentives received. */
   roiBasisCents?: number;
   simpleRoi: number | null;
@@ -352,6 +354,7 @@ function summaryOf(x: {
     paybackYears: roundOrNull(s.paybackYears, 2),
     simplePaybackYears: roundOrNull(s.simplePaybackYears, 2),
     downPaymentCents: x.input.payment.kind === "loan" ? x.downPaymentCents : null,
+    loanAmountCents: x.input.payment.kind === "loan" ? price.contractCents - x.downPaymentCents - incentives.upfrontCents : null,
     roiBasisCents: s.netCostCents,
     simpleRoi: roundOrNull(s.simpleRoi, 4),
     lifetimeSavingsCents: s.lifetimeSavingsCents,
