@@ -11,7 +11,7 @@ import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { api, ApiError } from "@/lib/api-client";
 import { formatCents } from "@/lib/format";
 import { figureDefinitions, type FigureDefinitions } from "@/lib/figure-definitions";
-import { OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";
+import { describeExpectedInstall, OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { MAX_OFFERS_PER_DEAL, type OfferInputs, type OfferInputsInput } from "@/lib/schemas/offer";
 import type { StaleInput } from "@/lib/offer-basis";
 import { CashflowChart, OFFER_COLORS } from "./cashflow-chart";
@@ -205,6 +205,11 @@ function OfferCard({ offer, color, canEdit, onEdit }: { offer: OfferView; color:
           </li>
         ))}
       </ul>
+      {r.assumptions.installDate ? (
+        <p className="mt-2 text-xs text-graphite-soft" data-testid="install-date">
+          Credits that count at installation assume it on {describeExpectedInstall(r.assumptions.installDate)}.
+        </p>
+      ) : null}
       {offer.discountStatus !== "none" ? (
         <p className={`mt-3 rounded px-2 py-1 text-sm ${offer.discountStatus === "pending" ? "bg-caution-light" : offer.discountStatus === "declined" ? "bg-danger-light" : "bg-sage-light"}`} data-testid="discount-status">
           {STATUS_TEXT[offer.discountStatus]}
