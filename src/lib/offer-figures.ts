@@ -36,6 +36,8 @@ export type ModuleSpec = {
   impA: number;
   gammaPmaxPctPerC: number;
   betaVocPctPerC: number;
+  /** The datasheet's maximum series fuse rating, A (NEC 690.9(A)); null when not in the catalog. */
+  maxSeriesFuseA?: number | null;
 };
 
 /** The inverter fields the figures need (a catalog row fits). */
@@ -176,7 +178,15 @@ export type StringPlanCheck = {
 
 function stringBase(mod: ModuleSpec, inv: InverterSpec, lowestTempC: number, highestTempC: number) {
   return {
-    module: { vocV: mod.vocV, vmpV: mod.vmpV, iscA: mod.iscA, impA: mod.impA, vocCoeffPctPerC: mod.betaVocPctPerC, vmpCoeffPctPerC: mod.gammaPmaxPctPerC },
+    module: {
+      vocV: mod.vocV,
+      vmpV: mod.vmpV,
+      iscA: mod.iscA,
+      impA: mod.impA,
+      vocCoeffPctPerC: mod.betaVocPctPerC,
+      vmpCoeffPctPerC: mod.gammaPmaxPctPerC,
+      ...(mod.maxSeriesFuseA ? { maxSeriesFuseA: mod.maxSeriesFuseA } : {}),
+    },
     inverter: {
       maxDcInputV: inv.maxDcVoltageV ?? 0,
       mpptMinV: inv.mpptMinV ?? 0,
