@@ -39,7 +39,7 @@ const MODULE_SPEC = {
   defaults: (row) =>
     row
       ? { ...row, encapsulant: row.encapsulant ?? "" }
-      : { manufacturer: "", model: "", cellTechnology: "topcon", construction: "glass_glass", encapsulant: "", vocCoeff: { value: Number.NaN, unit: "%/°C" } },
+      : { manufacturer: "", model: "", cellTechnology: "topcon", construction: "glass_glass", encapsulant: "", vocCoeff: { unit: "%/°C" } as ModuleModelInput["vocCoeff"] },
   description: () =>
     "Datasheet values at STC. Temperature coefficients are negative: Pmax in %/°C, Voc in the unit the datasheet uses (%/°C, mV/°C or V/°C). The maximum series fuse rating decides whether parallel strings need fuses (NEC 690.9(A)).",
   headChoices: [],
