@@ -19,7 +19,7 @@ import {
   uniqueIndex,
   varchar,
 } from "drizzle-orm/mysql-core";
-import { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES } from "../lib/enums";
+import { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES, VOC_COEFF_UNIT_KEYS } from "../lib/enums";
 import { ratePlanSchema } from "../engine/rates";
 import { storedCompanySettingsSchema } from "../lib/schemas/company-settings";
 import { designDocumentSchema } from "../lib/schemas/design";
@@ -398,7 +398,13 @@ export const moduleModel = mysqlTable(
     vmpV: double("vmp_v").notNull(),
     impA: double("imp_a").notNull(),
     gammaPmaxPctPerC: double("gamma_pmax_pct_per_c").notNull(),
+    /** The Voc coefficient in %/°C, as the engine uses it (converted from the unit typed). */
     betaVocPctPerC: double("beta_voc_pct_per_c").notNull(),
+    /** The Voc coefficient as typed from the datasheet, in voc_coeff_unit; null for rows saved before the unit was kept (their figure is beta_voc_pct_per_c, in %/°C). */
+    vocCoeffValue: double("voc_coeff_value"),
+    vocCoeffUnit: mysqlEnum("voc_coeff_unit", VOC_COEFF_UNIT_KEYS).notNull().default("pct_per_c"),
+    /** The datasheet's maximum series fuse rating, A (NEC 690.9(A)); null when not entered. */
+    maxSeriesFuseA: double("max_series_fuse_a"),
     lengthMm: int("length_mm").notNull(),
     widthMm: int("width_mm").notNull(),
     cellTechnology: mysqlEnum("cell_technology", CELL_TECHNOLOGIES).notNull(),

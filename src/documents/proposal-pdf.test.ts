@@ -2,6 +2,7 @@ import { createHash } from "node:crypto";
 import { PDFDocument } from "pdf-lib";
 import { extractText } from "unpdf";
 import { beforeAll, describe, expect, it } from "vitest";
+import { figureDefinitions } from "@/lib/figure-definitions";
 import { formatCents } from "@/lib/format";
 import { FIXTURE_META, fixtureSnapshot } from "./fixtures";
 import { SIGNATURE_BOX, renderProposalPdf } from "./proposal-pdf";
@@ -74,6 +75,19 @@ describe("renderProposalPdf (3 offers, sold in the home)", () => {
     expect(all).toContain("Estimates, not a guarantee");
     // An incentive that ended before the offer date is listed with its dates, never applied.
     expect(all.replace(/\s+/g, " ")).toContain("ended 2025-12-31, before the offer on 2026-03-02");
+  });
+
+  it("says beside payback and ROI what each is, with each offer's own denominator, and the simple payback in the assumptions", () => {
+    const flat = all.replace(/\s+/g, " ");
+    const [cash, loan] = snapshot.offers;
+    for (const o of [cash, loan]) {
+      const d = figureDefinitions(o.figures, o.inputs.payment.kind);
+      expect(flat).toContain(d.payback);
+      expect(flat).toContain(d.roi);
+      expect(flat).toContain(d.simplePayback!);
+    }
+    expect(flat).toContain(`What you pay: ${formatCents(cash.figures.summary.roiBasisCents)}, the cash price after the incentives and credits.`);
+    expect(flat).toContain(`the ${formatCents(loan.figures.summary.downPaymentCents)} down payment plus all the loan's payments`);
   });
 
   it("carries the notice of the right to cancel (16 CFR 429.1) and its form twice", () => {

@@ -10,6 +10,7 @@
 import { PDFBool, PDFDocument, PDFHexString, PDFName, PDFString, type PDFPage } from "pdf-lib";
 import { proposalLabel as shortProposalLabel } from "@/lib/proposal-snapshot";
 import { formatCents, formatDate } from "@/lib/format";
+import { figureDefinitions } from "@/lib/figure-definitions";
 import { OFFER_CAUTION } from "@/lib/offer-figures";
 import type { ProposalSnapshot, ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import { drawCashflowChart, drawUsageProductionChart } from "./charts";
@@ -293,11 +294,14 @@ function offerMoney(flow: Flow, o: ProposalSnapshotOffer): void {
     { label: "Simple ROI", value: ratioPct(f.simpleRoi), mono: true },
     { label: `Bill savings, ${o.figures.assumptions.years} years`, value: formatCents(f.lifetimeSavingsCents), mono: true },
     { label: `Net gain, ${o.figures.assumptions.years} years`, value: signedCents(f.lifetimeNetCents), mono: true },
-    { label: "NPV · IRR", value: `${signedCents(f.npvCents)} at ${pct(o.figures.assumptions.discountRatePct, 1)} · ${ratioPct(f.irr)}`, mono: true },
+    { label: "NPV · IRR", value: `${signedCents(f.npvCents)} at ${pct(o.figures.assumptions.discountRatePct, 1)} · ${f.irr === null && f.irrNote ? "not meaningful" : ratioPct(f.irr)}`, mono: true },
     ...(f.lcoeCentsPerKwh !== null ? [{ label: "Cost per kWh (LCOE)", value: `${f.lcoeCentsPerKwh.toFixed(1)} ¢`, mono: true }] : []),
   ]);
+  const meaning = figureDefinitions(o.figures, o.inputs.payment.kind);
+  for (const text of [meaning.payback, meaning.roi, meaning.irr]) if (text) flow.paragraph(text, { size: 8.5, color: COLORS.muted });
   flow.paragraph(`Cumulative cash flow over ${o.figures.assumptions.years} years`, { font: fonts.sansBold, size: 11, gapAfter: 6 });
-  const height = 210;
+  // Leaves room on the page for the definitions above.
+  const height = 180;
   flow.ensure(height + 10);
   drawCashflowChart(flow.page, { x: MARGIN_X, y: flow.y - height, width: CONTENT_WIDTH, height }, { cumulativeCents: o.figures.rows.map((r) => r.cumulativeCents), paybackYears: f.paybackYears }, fonts);
   flow.y -= height + 10;
@@ -347,7 +351,8 @@ function assumptions(flow: Flow, s: ProposalSnapshot): void {
     `Usage: ${s.usage.source} (${kwh(sum(s.usage.monthlyKwh))} a year).`,
     ...s.offers.map((o) => {
       const a = o.figures.assumptions;
-      return `Offer ${o.position}: rate plan ${a.ratePlanName} with ${a.calendarYear} prices; panel output falls ${pct(a.degradationPctPerYear, 2)} a year; utility prices rise ${pct(a.utilityEscalationPctPerYear, 1)} a year; ${a.years} years; money discounted at ${pct(a.discountRatePct, 1)} a year for NPV.`;
+      const simple = figureDefinitions(o.figures, o.inputs.payment.kind).simplePayback;
+      return `Offer ${o.position}: rate plan ${a.ratePlanName} with ${a.calendarYear} prices; panel output falls ${pct(a.degradationPctPerYear, 2)} a year; utility prices rise ${pct(a.utilityEscalationPctPerYear, 1)} a year; ${a.years} years; money discounted at ${pct(a.discountRatePct, 1)} a year for NPV.${simple ? ` ${simple}` : ""}`;
     }),
   ]);
   flow.paragraph("Incentives", { font: fonts.sansBold, size: 11, gapAfter: 4 });

@@ -25,6 +25,8 @@ export const STAGES = [
 export type Stage = (typeof STAGES)[number];
 
 export const CELL_TECHNOLOGIES = ["mono_perc", "topcon", "heterojunction", "back_contact", "polycrystalline", "thin_film_cdte", "thin_film_cigs"] as const;
+/** How a module's Voc coefficient unit is stored: %/°C, mV/°C, V/°C (src/engine/module-coefficients.ts). */
+export const VOC_COEFF_UNIT_KEYS = ["pct_per_c", "mv_per_c", "v_per_c"] as const;
 
 export const PROPOSAL_STATUSES = ["sent", "replaced", "revoked", "signed", "cancelled"] as const;
 export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];

@@ -28,6 +28,8 @@ export const offerBasisSchema = z.object({
   assumptionsVersion: z.number().int(),
   module: z.object({ manufacturer: z.string(), model: z.string(), stcWatts: z.number() }),
   inverter: z.object({ manufacturer: z.string(), model: z.string(), kind: z.enum(["string", "micro"]), acWatts: z.number() }),
+  /** The install date credits counting at installation were judged on; absent when no rule counts at installation. */
+  installDate: z.object({ date: z.string(), source: z.enum(["job", "lead_time"]) }).nullish(),
 });
 export type OfferBasis = z.infer<typeof offerBasisSchema>;
 
@@ -40,12 +42,14 @@ export type CurrentInputs = {
   priceBookVersion: number;
   incentivesVersion: number;
   assumptionsVersion: number;
+  /** The deal's job's planned install date, if any. */
+  jobInstallDate: string | null;
 };
 
-export const STALE_INPUTS = ["usage", "design", "rate_plan", "price_book", "incentives", "assumptions"] as const;
+export const STALE_INPUTS = ["usage", "design", "rate_plan", "price_book", "incentives", "assumptions", "install_date"] as const;
 export type StaleInput = (typeof STALE_INPUTS)[number];
 
-export const STALE_INPUT_LABELS: Record<StaleInput, string> = { usage: "usage (bills or interval data)", design: "design", rate_plan: "rate plan", price_book: "price book", incentives: "incentive rules", assumptions: "savings assumptions" };
+export const STALE_INPUT_LABELS: Record<StaleInput, string> = { usage: "usage (bills or interval data)", design: "design", rate_plan: "rate plan", price_book: "price book", incentives: "incentive rules", assumptions: "savings assumptions", install_date: "planned install date" };
 
 /**
  * The inputs that changed since the offer was computed; empty when it is current. An offer
@@ -61,6 +65,11 @@ export function staleInputs(basis: OfferBasis | null, now: CurrentInputs): Stale
   if (basis.priceBook.incentivesVersion !== now.incentivesVersion) out.push("incentives");
   else if (basis.priceBook.version !== now.priceBookVersion) out.push("price_book");
   if (basis.assumptionsVersion !== now.assumptionsVersion) out.push("assumptions");
+  if (basis.installDate) {
+    // The date the credits would be judged on now: the job's, else the offer's own lead-time guess.
+    const dateNow = now.jobInstallDate ?? (basis.installDate.source === "lead_time" ? basis.installDate.date : null);
+    if (dateNow !== basis.installDate.date) out.push("install_date");
+  }
   return out;
 }
 

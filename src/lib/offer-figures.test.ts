@@ -68,11 +68,14 @@ describe("computeOfferFigures (hand-worked)", () => {
     // The $1,000 deposit paid at signing is the down payment: ($12,500 − $1,000) / 120 = $95.8333 → 9,583 ¢.
     expect(f.summary.monthlyLoanPaymentCents).toBe(9_583);
     expect(f.summary.downPaymentCents).toBe(100_000);
+    expect(f.summary.loanAmountCents).toBe(1_150_000);
     // Year 0 shows the down payment.
     expect(f.rows[0]).toMatchObject({ year: 0, systemPaymentCents: 100_000, cashFlowCents: -100_000 });
     // A larger down payment: ($12,500 − $3,000) / 120 = $79.1667 → 7,917 ¢.
     const more = computeOfferFigures({ ...base, payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0, downPaymentCents: 300_000 } });
     expect(more.summary.monthlyLoanPaymentCents).toBe(7_917);
+    expect(more.summary.loanAmountCents).toBe(950_000);
+    expect(more.rows[0].systemPaymentCents).toBe(300_000);
   });
 
   it("the tax credit's basis includes the dealer fee inside the loan; its date is the expected installation", () => {

@@ -36,6 +36,8 @@ export type ModuleSpec = {
   impA: number;
   gammaPmaxPctPerC: number;
   betaVocPctPerC: number;
+  /** The datasheet's maximum series fuse rating, A (NEC 690.9(A)); null when not in the catalog. */
+  maxSeriesFuseA?: number | null;
 };
 
 /** The inverter fields the figures need (a catalog row fits). */
@@ -176,7 +178,15 @@ export type StringPlanCheck = {
 
 function stringBase(mod: ModuleSpec, inv: InverterSpec, lowestTempC: number, highestTempC: number) {
   return {
-    module: { vocV: mod.vocV, vmpV: mod.vmpV, iscA: mod.iscA, impA: mod.impA, vocCoeffPctPerC: mod.betaVocPctPerC, vmpCoeffPctPerC: mod.gammaPmaxPctPerC },
+    module: {
+      vocV: mod.vocV,
+      vmpV: mod.vmpV,
+      iscA: mod.iscA,
+      impA: mod.impA,
+      vocCoeffPctPerC: mod.betaVocPctPerC,
+      vmpCoeffPctPerC: mod.gammaPmaxPctPerC,
+      ...(mod.maxSeriesFuseA ? { maxSeriesFuseA: mod.maxSeriesFuseA } : {}),
+    },
     inverter: {
       maxDcInputV: inv.maxDcVoltageV ?? 0,
       mpptMinV: inv.mpptMinV ?? 0,
@@ -244,7 +254,7 @@ export type OfferFiguresInput = {
   role: Role;
   /** Offer date, YYYY-MM-DD: incentives are evaluated at it. */
   asOf: string;
-  /** Expected installation date, YYYY-MM-DD, for credits that count at installation; default: asOf + DEFAULT_INSTALL_LEAD_DAYS. */
+  /** The job's planned install date, YYYY-MM-DD, for credits that count at installation; default: asOf + DEFAULT_INSTALL_LEAD_DAYS. */
   expectedInstallDate?: string;
   moduleCount: number;
   moduleWatts: number;
@@ -283,6 +293,8 @@ export type OfferSummary = {
   simplePaybackYears?: number | null;
   /** Paid at signing and taken off the loan (loans only). */
   downPaymentCents?: number | null;
+  /** Borrowed: price − down payment − incentives applied at signing, before any dealer fee (loans only). */
+  loanAmountCents?: number | null;
   /** ROI's denominator: what the homeowner pays for the system over the table (down payment or price, loan payments, upkeep) less incentives received. */
   roiBasisCents?: number;
   simpleRoi: number | null;
@@ -307,7 +319,7 @@ export type OfferFigures = {
   incentives: IncentiveResult;
   monthly: { usageKwh: number[]; productionKwh: number[]; billWithoutSolarCents: number[]; billWithSolarCents: number[] };
   rows: CashflowRow[];
-  assumptions: OfferAssumptions & { ratePlanName: string; calendarYear: number };
+  assumptions: OfferAssumptions & { ratePlanName: string; calendarYear: number; installDate?: ExpectedInstall };
   notes: string[];
   caution: string;
 };
@@ -316,6 +328,18 @@ const round = (x: number, digits = 1) => Math.round(x * 10 ** digits) / 10 ** di
 
 /** Days from offer to installation assumed when no install date is planned yet (our choice; typical permitting and scheduling). */
 export const DEFAULT_INSTALL_LEAD_DAYS = 60;
+
+/** The install date credits that count at installation were judged on, and where it came from. */
+export type ExpectedInstall = { date: string; source: "job" | "lead_time" };
+
+export function expectedInstall(input: Pick<OfferFiguresInput, "asOf" | "expectedInstallDate">): ExpectedInstall {
+  return input.expectedInstallDate ? { date: input.expectedInstallDate, source: "job" } : { date: addDays(input.asOf, DEFAULT_INSTALL_LEAD_DAYS), source: "lead_time" };
+}
+
+/** "2026-12-15, the job's planned install date" */
+export function describeExpectedInstall(e: ExpectedInstall): string {
+  return e.source === "job" ? `${e.date}, the job's planned install date` : `${e.date}, the offer date + ${DEFAULT_INSTALL_LEAD_DAYS} days (no install date planned yet)`;
+}
 
 function addDays(isoDate: string, days: number): string {
   const [y, m, d] = isoDate.split("-").map(Number);
@@ -352,6 +376,7 @@ function summaryOf(x: {
     paybackYears: roundOrNull(s.paybackYears, 2),
     simplePaybackYears: roundOrNull(s.simplePaybackYears, 2),
     downPaymentCents: x.input.payment.kind === "loan" ? x.downPaymentCents : null,
+    loanAmountCents: x.input.payment.kind === "loan" ? price.contractCents - x.downPaymentCents - incentives.upfrontCents : null,
     roiBasisCents: s.netCostCents,
     simpleRoi: roundOrNull(s.simpleRoi, 4),
     lifetimeSavingsCents: s.lifetimeSavingsCents,
@@ -396,7 +421,7 @@ function billsByYear(input: OfferFiguresInput, calendarYear: number, a: OfferAss
  * those, the second prices the fee in.
  */
 function offerIncentives(input: OfferFiguresInput, price: OfferPrice, kwDc: number, downPaymentCents: number): IncentiveResult {
-  const installDate = input.expectedInstallDate ?? addDays(input.asOf, DEFAULT_INSTALL_LEAD_DAYS);
+  const installDate = expectedInstall(input).date;
   const incentivesWith = (dealerFeeCents: number) =>
     evaluateIncentives({ rules: incentiveRulesForEngine(input.book), asOf: input.asOf, installDate, grossPriceCents: price.contractCents, dealerFeeCents, systemKwDc: kwDc, payment: input.payment.kind });
   const first = incentivesWith(0);
@@ -470,7 +495,7 @@ export function computeOfferFigures(input: OfferFiguresInput): OfferFigures {
       billWithSolarCents: withByYear[0].months.map((m) => m.totalCents),
     },
     rows: cashflow.rows,
-    assumptions: { ...a, ratePlanName: input.ratePlan.name, calendarYear },
+    assumptions: { ...a, ratePlanName: input.ratePlan.name, calendarYear, installDate: expectedInstall(input) },
     notes,
     caution: OFFER_CAUTION,
   };

@@ -3,6 +3,7 @@ import { and, asc, eq } from "drizzle-orm";
 import { fileTypeFromBuffer } from "file-type";
 import Papa from "papaparse";
 import { isBlankRecord, readCsvRecords } from "@/engine/csv";
+import { parseTemperatureCoefficient, type CoefficientUnit } from "@/engine/module-coefficients";
 import type { z } from "zod";
 import { inverterModel, moduleModel } from "@/db/schema";
 import {
@@ -21,7 +22,10 @@ import {
   type ImportMode,
   type InverterModelValues,
   type inverterPatchSchema,
+  type ModuleModelInput,
   type ModuleModelValues,
+  VOC_COEFF_UNIT_KEY,
+  VOC_COEFF_UNIT_OF_KEY,
   type modulePatchSchema,
 } from "@/lib/schemas/catalog";
 import { BODY_CAPS, readCappedBody, readCappedForm } from "@/server/body-limit";
@@ -31,28 +35,36 @@ import { HttpError } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
-export type ModuleModel = typeof moduleModel.$inferSelect;
+/** A catalog module with its Voc coefficient as typed ({ value, unit }). */
+export type ModuleModel = typeof moduleModel.$inferSelect & { vocCoeff: { value: number; unit: CoefficientUnit } };
+
+/** Rows saved before the unit was kept have only the %/°C figure. */
+function withVocCoeff(row: typeof moduleModel.$inferSelect): ModuleModel {
+  return { ...row, vocCoeff: { value: row.vocCoeffValue ?? row.betaVocPctPerC, unit: VOC_COEFF_UNIT_OF_KEY[row.vocCoeffUnit] } };
+}
 export type InverterModel = typeof inverterModel.$inferSelect;
 
 // ── Reads (every one filtered by company in the query) ───────────────────────────────
 
 /** The whole module list of a company, active and deactivated (the admin's view). */
 export async function listModules(companyId: string): Promise<ModuleModel[]> {
-  return db().select().from(moduleModel).where(eq(moduleModel.companyId, companyId)).orderBy(asc(moduleModel.manufacturer), asc(moduleModel.model));
+  const rows = await db().select().from(moduleModel).where(eq(moduleModel.companyId, companyId)).orderBy(asc(moduleModel.manufacturer), asc(moduleModel.model));
+  return rows.map(withVocCoeff);
 }
 
 /** Modules a new design may use. */
 export async function listActiveModules(companyId: string): Promise<ModuleModel[]> {
-  return db()
+  const rows = await db()
     .select()
     .from(moduleModel)
     .where(and(eq(moduleModel.companyId, companyId), eq(moduleModel.active, true)))
     .orderBy(asc(moduleModel.manufacturer), asc(moduleModel.model));
+  return rows.map(withVocCoeff);
 }
 
 /** A module of the company, active or not (an existing design may use a deactivated one). */
 export async function getModuleOrThrow(companyId: string, id: string): Promise<ModuleModel> {
-  return companyRowOrThrow(moduleModel, companyId, id, "Module");
+  return withVocCoeff(await companyRowOrThrow(moduleModel, companyId, id, "Module"));
 }
 
 export async function listInverters(companyId: string): Promise<InverterModel[]> {
@@ -103,12 +115,21 @@ function moduleColumns(v: ModuleModelValues) {
     impA: v.impA,
     gammaPmaxPctPerC: v.gammaPmaxPctPerC,
     betaVocPctPerC: v.betaVocPctPerC,
+    vocCoeffValue: v.vocCoeff.value,
+    vocCoeffUnit: VOC_COEFF_UNIT_KEY[v.vocCoeff.unit],
+    maxSeriesFuseA: v.maxSeriesFuseA,
     lengthMm: v.lengthMm,
     widthMm: v.widthMm,
     cellTechnology: v.cellTechnology,
     construction: v.construction,
     encapsulant: v.encapsulant,
   };
+}
+
+/** A stored module as the schema's input (for merging a partial change). */
+function moduleInput(row: ModuleModel): ModuleModelInput {
+  const { vocCoeffValue: _value, vocCoeffUnit: _unit, betaVocPctPerC: _pct, ...columns } = moduleColumns({ ...row, vocCoeff: row.vocCoeff });
+  return columns;
 }
 
 /** The inverter's columns; the other kind's fields are stored empty. */
@@ -127,7 +148,7 @@ function parseWhole<S extends z.ZodType>(schema: S, input: unknown): z.output<S>
   return parsed.data;
 }
 
-export async function createModule(member: Member, input: ModuleModelValues): Promise<ModuleModel> {
+export async function createModule(member: Member, input: ModuleModelInput): Promise<ModuleModel> {
   const values = parseWhole(moduleModelSchema, input);
   const id = crypto.randomUUID();
   try {
@@ -140,7 +161,7 @@ export async function createModule(member: Member, input: ModuleModelValues): Pr
 }
 
 /** Replaces a module's datasheet values (checked whole) and optionally its active flag. */
-export async function updateModule(member: Member, id: string, input: ModuleModelValues, active?: boolean): Promise<ModuleModel> {
+export async function updateModule(member: Member, id: string, input: ModuleModelInput, active?: boolean): Promise<ModuleModel> {
   await getModuleOrThrow(member.companyId, id);
   const values = parseWhole(moduleModelSchema, input);
   try {
@@ -163,7 +184,9 @@ export async function patchModule(member: Member, id: string, patch: z.output<ty
     if (active === undefined) throw new HttpError(422, "validation_failed", "Give at least one field to change.");
     return setModuleActive(member, id, active);
   }
-  const merged = { ...moduleColumns(existing), ...fields };
+  // A %/°C figure sent alone replaces the stored coefficient, whatever unit that was typed in.
+  const keep = fields.betaVocPctPerC !== undefined && fields.vocCoeff === undefined ? { betaVocPctPerC: fields.betaVocPctPerC } : { vocCoeff: existing.vocCoeff };
+  const merged = { ...moduleInput(existing), ...keep, ...fields };
   return updateModule(member, id, parseWhole(moduleModelSchema, merged), active);
 }
 
@@ -245,6 +268,7 @@ function toCsv(columns: readonly CsvColumn[], rows: Record<string, unknown>[]): 
         columns.map((c) => {
           const v = r[c.field];
           if (v === null || v === undefined) return "";
+          if (c.type === "coefficient" && typeof v === "object") return `${(v as { value: number }).value} ${(v as { unit: string }).unit}`;
           return String(v);
         }),
       ),
@@ -370,6 +394,10 @@ function rowToInput(row: CsvRow, columns: readonly CsvColumn[]): { input: Record
     } else if (c.type === "number" || c.type === "integer") {
       // Empty stays undefined (the schema asks for a number); text becomes NaN (the schema says so).
       input[c.field] = cell === "" ? undefined : Number(cell);
+    } else if (c.type === "coefficient") {
+      const coeff = cell === "" ? undefined : parseTemperatureCoefficient(cell);
+      if (coeff === null) errors.push({ line: row.line, column: c.name, message: `${c.name} must be a number with its unit, %/°C, mV/°C or V/°C (e.g. -0.26 %/°C or -104 mV/°C)` });
+      else input[c.field] = coeff;
     } else if (c.type === "enum") {
       input[c.field] = cell === "" ? undefined : cell.toLowerCase();
     } else {

@@ -2,7 +2,7 @@ import "server-only";
 import { siteTimeZone } from "@/engine/site-time-zone";
 import { createElement } from "react";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
-import { deal, dealUsage, design, discountRequest, household, membership, offer, priceBook, ratePlan, user, type Role } from "@/db/schema";
+import { deal, dealUsage, design, discountRequest, household, job, membership, offer, priceBook, ratePlan, user, type Role } from "@/db/schema";
 import { EngineInputError } from "@/engine/errors";
 import { env } from "@/env";
 import { formatCents } from "@/lib/format";
@@ -75,13 +75,14 @@ function toRecord(row: StoredOffer, now: CurrentInputs | ((ratePlanId: string | 
 export async function currentInputs(scope: DealScope, ratePlanIds: (string | null)[]): Promise<(ratePlanId: string | null) => CurrentInputs> {
   const { companyId, dealId } = scope;
   const planIds = [...new Set(ratePlanIds.map((id) => id ?? scope.deal.ratePlanId).filter((id): id is string => !!id))];
-  const [[usage], [saved], [book], plans] = await Promise.all([
+  const [[usage], [saved], [book], plans, jobInstallDate] = await Promise.all([
     db().select({ version: dealUsage.version }).from(dealUsage).where(and(eq(dealUsage.companyId, companyId), eq(dealUsage.dealId, dealId))).limit(1),
     db().select({ revision: design.revision }).from(design).where(and(eq(design.companyId, companyId), eq(design.dealId, dealId))).limit(1),
     db().select({ version: priceBook.version, incentivesVersion: priceBook.incentivesVersion }).from(priceBook).where(eq(priceBook.companyId, companyId)).limit(1),
     planIds.length
       ? db().select({ id: ratePlan.id, version: ratePlan.version }).from(ratePlan).where(and(eq(ratePlan.companyId, companyId), inArray(ratePlan.id, planIds)))
       : Promise.resolve([]),
+    plannedInstallDate(scope),
   ]);
   return (ratePlanId) => {
     const planId = ratePlanId ?? scope.deal.ratePlanId;
@@ -93,8 +94,15 @@ export async function currentInputs(scope: DealScope, ratePlanIds: (string | nul
       priceBookVersion: book?.version ?? 0,
       incentivesVersion: book?.incentivesVersion ?? 0,
       assumptionsVersion: scope.settings.financeVersion,
+      jobInstallDate,
     };
   };
+}
+
+/** The install date planned on the deal's job, if it has a job with one. */
+async function plannedInstallDate(scope: DealScope): Promise<string | null> {
+  const [row] = await db().select({ installDate: job.installDate }).from(job).where(and(eq(job.companyId, scope.companyId), eq(job.dealId, scope.dealId))).limit(1);
+  return row?.installDate ?? null;
 }
 
 async function offersOf(scope: DealScope, where: ReturnType<typeof and>): Promise<OfferRecord[]> {
@@ -169,7 +177,12 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
   });
 
   const site = { latitude: scope.household.latitude, longitude: scope.household.longitude };
-  const [production, usage, bookRecord] = await Promise.all([productionForDesign(member, site, doc, counts, mod, inv), getDealUsage(scope), getPriceBookRecord(member.companyId)]);
+  const [production, usage, bookRecord, installDate] = await Promise.all([
+    productionForDesign(member, site, doc, counts, mod, inv),
+    getDealUsage(scope),
+    getPriceBookRecord(member.companyId),
+    plannedInstallDate(scope),
+  ]);
   if (!(usage.annualKwh > 0) || !usage.hourlyKwh) throw new HttpError(422, "no_usage", "This deal has no usage yet. Add bills or interval data on the Energy tab first.");
   const book = bookRecord?.document ?? emptyPriceBook();
   const basis: OfferBasis = {
@@ -193,6 +206,7 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
       book,
       role,
       asOf: today(),
+      ...(installDate ? { expectedInstallDate: installDate } : {}),
       moduleCount,
       moduleWatts: mod.stcWatts,
       productionHourlyKwh: production.hourlyKwh,
@@ -206,7 +220,9 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
       assumptions: scope.settings.finance,
       notes: [`Weather: ${production.label}.`, ...production.notes],
     });
-    return { figures, basis };
+    // Only offers whose credits count at installation depend on (and go stale with) the install date.
+    const countsOnInstall = book.incentives.some((r) => r.countsOn === "installation");
+    return { figures, basis: { ...basis, installDate: countsOnInstall ? figures.assumptions.installDate : null } };
   } catch (err) {
     engineError(err);
   }

@@ -58,16 +58,28 @@ test("admin adds a module through the form; a physical slip is named on its fiel
     ["Vmp (V)", "39"],
     ["Imp (A)", "12.82"],
     ["Pmax temperature coefficient (%/°C)", "-0.30"],
-    ["Voc temperature coefficient (%/°C)", "-0.25"],
+    // In %/°C this is far outside any module: the unit is what the datasheet prints.
+    ["Voc temperature coefficient", "-97.5"],
+    ["Maximum series fuse (A, optional)", "25"],
     ["Length (mm)", "1722"],
     ["Width (mm)", "1134"],
   ];
   for (const [label, value] of values) await form.getByLabel(label, { exact: true }).fill(value);
   await form.getByRole("button", { name: "Add module" }).click();
   await expect(form.locator("#module-vmpV-error")).toContainText("must be below Voc");
+  await expect(form.getByRole("alert").filter({ hasText: "-97.5 %/°C is -97.5 %/°C of the 37.5 V Voc" })).toBeVisible();
   await form.getByLabel("Vmp (V)", { exact: true }).fill("31.2");
+  await form.getByLabel("Voc coefficient unit").selectOption("mV/°C");
   await form.getByRole("button", { name: "Add module" }).click();
-  await expect(page.getByTestId(`module-${model}`)).toBeVisible();
+  const added = page.getByTestId(`module-${model}`);
+  await expect(added).toBeVisible();
+  await expect(added).toContainText("-97.5 mV/°C");
+  expect(
+    await withDb(async (conn) => {
+      const [rows] = await conn.query("SELECT beta_voc_pct_per_c AS pct, voc_coeff_unit AS unit, max_series_fuse_a AS fuse FROM module_model WHERE company_id = ? AND model = ?", [DEMO_COMPANY_ID, model]);
+      return rows;
+    }),
+  ).toEqual([{ pct: -0.26, unit: "mv_per_c", fuse: 25 }]);
 
   // Deactivate: stays listed for the admin, marked deactivated, and leaves the active list.
   await page.getByRole("button", { name: `Deactivate Testfield ${model}` }).click();

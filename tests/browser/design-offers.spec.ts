@@ -90,13 +90,26 @@ test("the rep adds two roof faces, sizes to 100 % offset, then compares two offe
   await page.getByLabel("Loan").check();
   await page.getByLabel("APR (%)").fill("5.99");
   await page.getByLabel("Term (months)").fill("180");
+  // A down payment below the deposit asked at signing is refused on its field.
+  const downPayment = page.getByLabel(/Down payment/);
+  await downPayment.fill("1");
   await page.getByRole("button", { name: "Create and compute" }).click();
-  await expect(page.getByRole("article", { name: "Offer Whole roof, loan" })).toBeVisible({ timeout: 30_000 });
+  await expect(page.locator("#offer-down-payment-error")).toContainText("deposit is paid at signing");
+  await downPayment.fill("5000");
+  await expect(page.getByTestId("preview-down-payment")).toHaveText("$5,000", { timeout: 15_000 });
+  await page.getByRole("button", { name: "Create and compute" }).click();
+  const loanCard = page.getByRole("article", { name: "Offer Whole roof, loan" });
+  await expect(loanCard).toBeVisible({ timeout: 30_000 });
+  await expect(loanCard.getByTestId("loan-terms")).toContainText("$5,000 down at signing (year 0)");
+  await expect(loanCard.getByTestId("figure-definitions")).toContainText("the $5,000 down payment plus all the loan's payments");
+  await expect(page.getByRole("article", { name: "Offer Whole roof, cash" }).getByTestId("figure-definitions")).toContainText("Payback is the year in which the running total");
 
   const table = page.getByTestId("offer-comparison");
   await expect(table.getByRole("columnheader")).toHaveCount(3);
   await expect(table.getByRole("row", { name: /Payback/ })).toContainText("years");
   await expect(table.getByRole("row", { name: /Monthly loan payment/ })).toContainText("$");
+  await expect(table.getByRole("row", { name: /Down payment/ })).toContainText("$5,000");
+  await expect(table.getByRole("row", { name: /Loan amount/ })).toContainText("$");
   await expect(page.getByTestId("cashflow-chart")).toBeVisible();
   await expect(page.getByText(/Estimates, not a guarantee/)).toBeVisible();
 });

@@ -127,6 +127,11 @@ test("the customer opens the e-mailed link, confirms a code, draws a signature a
   await expect(phone.getByRole("heading", { name: "Whole roof, loan", level: 2 })).toBeVisible();
   const loanPrice = (await phone.getByTestId("price-2").textContent())?.trim() ?? "";
   expect(loanPrice).toMatch(/^\$[\d,]+$/);
+  // Beside payback and ROI, what each is; the loan's ROI counts its payments.
+  const meanings = phone.getByTestId("figure-definitions-2");
+  await expect(meanings).toContainText("Payback is the year in which the running total of bill savings");
+  await expect(meanings).toContainText(/What you pay: \$[\d,]+, the \$[\d,]+ down payment plus all the loan's payments/);
+  await expect(phone.getByRole("region", { name: "What the figures assume" })).toContainText(/Whole roof, loan: Simple payback \(net cost ÷ first-year savings/);
 
   // Confirms the e-mail with the code from a second e-mail.
   await phone.getByRole("button", { name: "E-mail me a code" }).click();

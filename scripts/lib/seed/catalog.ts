@@ -1,7 +1,9 @@
 // Demo equipment catalog for Tallgrass Bright Energy: four modules and three inverters.
 // Manufacturers and models are invented; the values are in the range of current
-// residential datasheets (Vmp × Imp within 0.1 % of the rating).
+// residential datasheets (Vmp × Imp within 0.1 % of the rating). The maximum series fuse ratings
+// and the Voc coefficients' units are invented too (datasheets print %/°C, mV/°C or V/°C).
 import { inverterModel, moduleModel } from "../../../src/db/schema";
+import { vocCoefficientPctPerC } from "../../../src/engine/module-coefficients";
 import type { SeedContext } from "../seed-demo";
 
 export const order = 10;
@@ -11,6 +13,12 @@ const uid = (n: number) => `7a11a55e-0000-4000-8000-${String(n).padStart(12, "0"
 
 export const DEMO_MODULE_IDS = { topcon410: uid(1001), perc395: uid(1002), hjt430: uid(1003), backContact370: uid(1004) } as const;
 export const DEMO_INVERTER_IDS = { string7600: uid(1011), string11400: uid(1012), micro320: uid(1013) } as const;
+
+/** A Voc coefficient typed in mV/°C or V/°C, with the %/°C figure the catalog form would store beside it. */
+function absoluteVocCoeff(value: number, unit: "mV/°C" | "V/°C", vocV: number) {
+  const pct = Math.round(vocCoefficientPctPerC(value, unit, vocV) * 1e5) / 1e5;
+  return { betaVocPctPerC: pct, vocCoeffValue: value, vocCoeffUnit: unit === "mV/°C" ? ("mv_per_c" as const) : ("v_per_c" as const) };
+}
 
 export async function seed(ctx: SeedContext): Promise<void> {
   const companyId = ctx.companyId;
@@ -27,6 +35,8 @@ export async function seed(ctx: SeedContext): Promise<void> {
       impA: 12.98,
       gammaPmaxPctPerC: -0.3,
       betaVocPctPerC: -0.25,
+      vocCoeffValue: -0.25,
+      maxSeriesFuseA: 25,
       lengthMm: 1722,
       widthMm: 1134,
       cellTechnology: "topcon",
@@ -45,6 +55,8 @@ export async function seed(ctx: SeedContext): Promise<void> {
       impA: 11.55,
       gammaPmaxPctPerC: -0.35,
       betaVocPctPerC: -0.27,
+      vocCoeffValue: -0.27,
+      maxSeriesFuseA: 20,
       lengthMm: 1879,
       widthMm: 1045,
       cellTechnology: "mono_perc",
@@ -62,7 +74,8 @@ export async function seed(ctx: SeedContext): Promise<void> {
       vmpV: 33.9,
       impA: 12.69,
       gammaPmaxPctPerC: -0.26,
-      betaVocPctPerC: -0.24,
+      ...absoluteVocCoeff(-97, "mV/°C", 40.3),
+      maxSeriesFuseA: 25,
       lengthMm: 1762,
       widthMm: 1134,
       cellTechnology: "heterojunction",
@@ -80,7 +93,8 @@ export async function seed(ctx: SeedContext): Promise<void> {
       vmpV: 36.9,
       impA: 10.03,
       gammaPmaxPctPerC: -0.29,
-      betaVocPctPerC: -0.24,
+      ...absoluteVocCoeff(-0.105, "V/°C", 43.6),
+      maxSeriesFuseA: 20,
       lengthMm: 1690,
       widthMm: 1046,
       cellTechnology: "back_contact",

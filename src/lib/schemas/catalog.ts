@@ -4,7 +4,14 @@
 // replacement for the datasheet.
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
-import { CELL_TECHNOLOGIES } from "@/lib/enums";
+import { CELL_TECHNOLOGIES, VOC_COEFF_UNIT_KEYS } from "@/lib/enums";
+import { COEFFICIENT_UNITS, vocCoefficientPctPerC, type CoefficientUnit } from "@/engine/module-coefficients";
+
+export { COEFFICIENT_UNITS, type CoefficientUnit };
+
+/** The stored key of each Voc coefficient unit (the column keeps ASCII). */
+export const VOC_COEFF_UNIT_KEY: Record<CoefficientUnit, (typeof VOC_COEFF_UNIT_KEYS)[number]> = { "%/°C": "pct_per_c", "mV/°C": "mv_per_c", "V/°C": "v_per_c" };
+export const VOC_COEFF_UNIT_OF_KEY = Object.fromEntries(Object.entries(VOC_COEFF_UNIT_KEY).map(([unit, key]) => [key, unit])) as Record<(typeof VOC_COEFF_UNIT_KEYS)[number], CoefficientUnit>;
 
 export { CELL_TECHNOLOGIES };
 export type CellTechnology = (typeof CELL_TECHNOLOGIES)[number];
@@ -56,6 +63,8 @@ export const MODULE_LIMITS = {
   // −0.35 %/°C for Voc; thin film is flatter. The ranges leave room on both sides.
   gammaPmaxPctPerC: { min: -0.7, max: -0.1, label: "Pmax temperature coefficient", unit: "%/°C" },
   betaVocPctPerC: { min: -0.6, max: -0.1, label: "Voc temperature coefficient", unit: "%/°C" },
+  // Residential modules' datasheets show 15–35 A; the range leaves room on both sides.
+  maxSeriesFuseA: { min: 1, max: 60, label: "Maximum series fuse rating", unit: "A" },
   lengthMm: { min: 300, max: 3000, label: "Length", unit: "mm" },
   widthMm: { min: 200, max: 1600, label: "Width", unit: "mm" },
 } as const;
@@ -112,7 +121,17 @@ const moduleFields = z.object({
   vmpV: measure(MODULE_LIMITS.vmpV),
   impA: measure(MODULE_LIMITS.impA),
   gammaPmaxPctPerC: measure(MODULE_LIMITS.gammaPmaxPctPerC),
-  betaVocPctPerC: measure(MODULE_LIMITS.betaVocPctPerC),
+  /** The Voc coefficient in %/°C; optional when vocCoeff gives it in its datasheet unit. */
+  betaVocPctPerC: measure(MODULE_LIMITS.betaVocPctPerC).optional(),
+  /** The Voc coefficient as the datasheet prints it: %/°C, mV/°C or V/°C. */
+  vocCoeff: z
+    .object({
+      value: z.number({ error: "Enter the Voc temperature coefficient as a number" }),
+      unit: z.enum(COEFFICIENT_UNITS, { error: `The Voc coefficient's unit must be one of: ${COEFFICIENT_UNITS.join(", ")}` }),
+    })
+    .optional(),
+  // An empty form field (NaN) or CSV cell means "not on the datasheet".
+  maxSeriesFuseA: z.preprocess((v) => (typeof v === "number" && Number.isNaN(v) ? null : v), measure(MODULE_LIMITS.maxSeriesFuseA).nullish()).transform((v) => v ?? null),
   lengthMm: measure(MODULE_LIMITS.lengthMm, { integer: true }),
   widthMm: measure(MODULE_LIMITS.widthMm, { integer: true }),
   cellTechnology: z.enum(CELL_TECHNOLOGIES, { error: `Cell technology must be one of: ${CELL_TECHNOLOGIES.join(", ")}` }),
@@ -122,7 +141,31 @@ const moduleFields = z.object({
 
 const round1 = (v: number) => Math.round(v * 10) / 10;
 
+/** The Voc coefficient in %/°C and as typed; null when none was given. */
+function vocCoefficientOf(m: { vocV: number; betaVocPctPerC?: number; vocCoeff?: { value: number; unit: CoefficientUnit } }) {
+  if (m.vocCoeff) return { pctPerC: vocCoefficientPctPerC(m.vocCoeff.value, m.vocCoeff.unit, m.vocV), typed: m.vocCoeff };
+  if (m.betaVocPctPerC !== undefined) return { pctPerC: m.betaVocPctPerC, typed: { value: m.betaVocPctPerC, unit: "%/°C" as const } };
+  return null;
+}
+
+function checkVocCoefficient(m: z.output<typeof moduleFields>, ctx: z.RefinementCtx) {
+  const coeff = vocCoefficientOf(m);
+  const path = ["vocCoeff", "value"];
+  if (!coeff) return ctx.addIssue({ code: "custom", path, message: "Enter the Voc temperature coefficient with its unit" });
+  const { min, max } = MODULE_LIMITS.betaVocPctPerC;
+  if (m.vocCoeff && !(coeff.pctPerC >= min && coeff.pctPerC <= max)) {
+    ctx.addIssue({
+      code: "custom",
+      path,
+      message: `${m.vocCoeff.value} ${m.vocCoeff.unit} is ${round3(coeff.pctPerC)} %/°C of the ${m.vocV} V Voc; expected ${min} to ${max} %/°C (check the number and its unit)`,
+    });
+  }
+}
+
+const round3 = (v: number) => Math.round(v * 1000) / 1000;
+
 export const moduleModelSchema = moduleFields.superRefine((m, ctx) => {
+  checkVocCoefficient(m, ctx);
   if (m.vmpV >= m.vocV) {
     ctx.addIssue({ code: "custom", path: ["vmpV"], message: `Vmp (${m.vmpV} V) must be below Voc (${m.vocV} V)` });
   }
@@ -146,6 +189,10 @@ export const moduleModelSchema = moduleFields.superRefine((m, ctx) => {
       message: `Length × width gives a module efficiency of ${round1(efficiencyPct)} % at ${m.stcWatts} W; expected ${MODULE_EFFICIENCY_RANGE_PCT.min}–${MODULE_EFFICIENCY_RANGE_PCT.max} % (check length, width and STC watts)`,
     });
   }
+}).transform((m) => {
+  // Checked above: a coefficient is there. The engine's %/°C figure is kept beside the typed one.
+  const coeff = vocCoefficientOf(m)!;
+  return { ...m, betaVocPctPerC: Math.round(coeff.pctPerC * 1e5) / 1e5, vocCoeff: coeff.typed };
 });
 export type ModuleModelInput = z.input<typeof moduleModelSchema>;
 export type ModuleModelValues = z.output<typeof moduleModelSchema>;
@@ -229,6 +276,8 @@ export const modulePatchSchema = z
     impA: z.number(),
     gammaPmaxPctPerC: z.number(),
     betaVocPctPerC: z.number(),
+    vocCoeff: z.object({ value: z.number(), unit: z.string() }),
+    maxSeriesFuseA: z.number().nullable(),
     lengthMm: z.number(),
     widthMm: z.number(),
     cellTechnology: z.string(),
@@ -254,7 +303,8 @@ export type CsvColumn = {
   name: string;
   /** The schema field it fills. */
   field: string;
-  type: "text" | "number" | "integer" | "enum" | "boolean";
+  /** coefficient: a number with its unit, "-0.26 %/°C", "-104 mV/°C", "-0.104 V/K" (a bare number is %/°C). */
+  type: "text" | "number" | "integer" | "enum" | "boolean" | "coefficient";
   required: boolean;
   meaning: string;
 };
@@ -268,7 +318,15 @@ export const MODULE_CSV_COLUMNS: readonly CsvColumn[] = [
   { name: "vmp_v", field: "vmpV", type: "number", required: true, meaning: "Voltage at maximum power, V (below Voc)" },
   { name: "imp_a", field: "impA", type: "number", required: true, meaning: "Current at maximum power, A (below Isc)" },
   { name: "gamma_pmax_pct_per_c", field: "gammaPmaxPctPerC", type: "number", required: true, meaning: "Temperature coefficient of Pmax, %/°C (negative, e.g. -0.30)" },
-  { name: "beta_voc_pct_per_c", field: "betaVocPctPerC", type: "number", required: true, meaning: "Temperature coefficient of Voc, %/°C (negative, e.g. -0.25)" },
+  { name: "beta_voc_pct_per_c", field: "betaVocPctPerC", type: "number", required: false, meaning: "Temperature coefficient of Voc, %/°C (negative, e.g. -0.25); may be empty when voc_coeff is given" },
+  {
+    name: "voc_coeff",
+    field: "vocCoeff",
+    type: "coefficient",
+    required: false,
+    meaning: "Temperature coefficient of Voc with its unit as the datasheet prints it: -0.26 %/°C, -104 mV/°C or -0.104 V/°C (/K reads as /°C; a bare number is %/°C); wins over beta_voc_pct_per_c",
+  },
+  { name: "max_series_fuse_a", field: "maxSeriesFuseA", type: "number", required: false, meaning: "Maximum series fuse rating, A (NEC 690.9(A)); may be empty" },
   { name: "length_mm", field: "lengthMm", type: "integer", required: true, meaning: "Module length, mm" },
   { name: "width_mm", field: "widthMm", type: "integer", required: true, meaning: "Module width, mm" },
   { name: "cell_technology", field: "cellTechnology", type: "enum", required: true, meaning: CELL_TECHNOLOGIES.join(" | ") },

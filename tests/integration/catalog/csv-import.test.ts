@@ -88,11 +88,44 @@ describe("module CSV import", () => {
   });
 });
 
+describe("the Voc coefficient's unit and the series fuse rating", () => {
+  const UNIT_HEADER = "manufacturer,model,stc_watts,voc_v,isc_a,vmp_v,imp_a,gamma_pmax_pct_per_c,voc_coeff,max_series_fuse_a,length_mm,width_mm,cell_technology,construction,encapsulant";
+  const unitRow = (model: string, coeff: string, fuse = "25") => `Testfield,${model},400,37.5,13.6,31.2,12.82,-0.30,${coeff},${fuse},1722,1134,topcon,glass_glass,POE`;
+
+  it("reads %/°C, mV/°C and V/°C (and /K), keeps the unit as typed and the engine's %/°C beside it", async () => {
+    const owner = await newCompany("CSV Units Solar");
+    const csv = [UNIT_HEADER, unitRow("TF-PCT", "-0.26 %/°C"), unitRow("TF-MV", "-97.5 mV/°C", "20"), unitRow("TF-V", "-0.0975 V/K", ""), unitRow("TF-BARE", "-0.28")].join("\n");
+    const report = await importModulesCsv(owner, csv, "all_or_nothing");
+    expect(report.errors).toEqual([]);
+    const byModel = Object.fromEntries((await listModules(owner.companyId)).map((m) => [m.model, m]));
+    expect(byModel["TF-PCT"]).toMatchObject({ vocCoeff: { value: -0.26, unit: "%/°C" }, betaVocPctPerC: -0.26, maxSeriesFuseA: 25 });
+    // −97.5 mV/°C of a 37.5 V Voc = −0.26 %/°C.
+    expect(byModel["TF-MV"]).toMatchObject({ vocCoeff: { value: -97.5, unit: "mV/°C" }, betaVocPctPerC: -0.26, maxSeriesFuseA: 20 });
+    expect(byModel["TF-V"]).toMatchObject({ vocCoeff: { value: -0.0975, unit: "V/°C" }, betaVocPctPerC: -0.26, maxSeriesFuseA: null });
+    expect(byModel["TF-BARE"]).toMatchObject({ vocCoeff: { value: -0.28, unit: "%/°C" }, betaVocPctPerC: -0.28 });
+  });
+
+  it("refuses a coefficient without a readable unit, one whose unit makes it implausible, and a row with none", async () => {
+    const owner = await newCompany("CSV Bad Units Solar");
+    const noCoeff = UNIT_HEADER.replace(",voc_coeff", "");
+    const report = await importModulesCsv(owner, [UNIT_HEADER, unitRow("TF-1", "-0.26 furlongs"), unitRow("TF-2", "-97.5 %/°C"), unitRow("TF-3", "-0.26 mV/°C")].join("\n"), "good_rows");
+    expect(report.created).toEqual([]);
+    expect(report.errors).toEqual([
+      { line: 2, column: "voc_coeff", message: expect.stringMatching(/voc_coeff must be a number with its unit/) },
+      { line: 2, column: "voc_coeff", message: "Enter the Voc temperature coefficient with its unit" },
+      { line: 3, column: "voc_coeff", message: expect.stringMatching(/-97\.5 %\/°C is -97\.5 %\/°C of the 37\.5 V Voc; expected -0\.6 to -0\.1 %\/°C/) },
+      { line: 4, column: "voc_coeff", message: expect.stringMatching(/-0\.26 mV\/°C is -0\.001 %\/°C/) },
+    ]);
+    const none = await importModulesCsv(owner, [noCoeff, "Testfield,TF-4,400,37.5,13.6,31.2,12.82,-0.30,25,1722,1134,topcon,glass_glass,POE"].join("\n"), "good_rows");
+    expect(none.errors).toEqual([{ line: 2, column: "voc_coeff", message: "Enter the Voc temperature coefficient with its unit" }]);
+  });
+});
+
 describe("CSV round trip", () => {
   it("export → import into another company → export gives the same file, for modules and inverters", async () => {
     const modulesCsv = await exportModulesCsv(DEMO_COMPANY_ID);
     const invertersCsv = await exportInvertersCsv(DEMO_COMPANY_ID);
-    expect(modulesCsv.split("\r\n")[0]).toBe(`${HEADER},active`);
+    expect(modulesCsv.split("\r\n")[0]).toBe(HEADER.replace("beta_voc_pct_per_c", "beta_voc_pct_per_c,voc_coeff,max_series_fuse_a") + ",active");
     expect(modulesCsv.split("\r\n").length).toBe(5);
 
     const other = await newCompany("Round Trip Solar");

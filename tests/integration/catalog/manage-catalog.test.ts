@@ -1,7 +1,7 @@
 import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { inverterModel, moduleModel } from "@/db/schema";
-import { inverterModelSchema, moduleModelSchema, type ModuleModelValues } from "@/lib/schemas/catalog";
+import { inverterModelSchema, moduleModelSchema, type ModuleModelInput } from "@/lib/schemas/catalog";
 import {
   createInverter,
   createModule,
@@ -22,7 +22,7 @@ import { newCompany, rejects } from "../support/fixtures";
 const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
 
 
-const goodModule: ModuleModelValues = {
+const goodModule: ModuleModelInput = {
   manufacturer: "Testfield",
   model: "TF-400",
   stcWatts: 400,
@@ -45,7 +45,7 @@ describe("module schema", () => {
   });
 
   it("names the field for each physical slip", () => {
-    const cases: [Partial<ModuleModelValues>, string, RegExp][] = [
+    const cases: [Partial<ModuleModelInput>, string, RegExp][] = [
       [{ vmpV: 38 }, "vmpV", /Vmp .* below Voc/],
       [{ impA: 14 }, "impA", /Imp .* below Isc/],
       [{ stcWatts: 430 }, "stcWatts", /3 %/],

@@ -318,6 +318,23 @@ describe("offers", () => {
     expect((await s.offers.decideDiscountRequest(owner, request.id, { decision: "decline", note: "Not this one" })).status).toBe("declined");
   });
 
+  it("a loan takes a down payment: refused below the deposit on its field, kept with the offer, off the loan amount and in year 0", async () => {
+    const loan = (downPaymentCents: number | null): OfferInputsInput => cashOffer({ name: "Loan with money down", payment: { kind: "loan", aprPct: 0, termMonths: 120, dealerFeePct: 0, downPaymentCents } });
+    const low = await rejects(s.offers.createOffer(rep, { dealId, inputs: loan(20_000) }), 422);
+    expect(low.fields?.["inputs.payment.downPaymentCents"]?.[0]).toMatch(/\$500(\.00)? deposit is paid at signing/);
+    const created = await s.offers.createOffer(rep, { dealId, inputs: loan(500_000) });
+    // 20 × 400 W × 300 ¢/W = $24,000; no incentives: $24,000 − $5,000 down = $19,000 borrowed at 0 % over 120 months.
+    expect(created.results.summary).toMatchObject({ downPaymentCents: 500_000, loanAmountCents: 1_900_000, monthlyLoanPaymentCents: Math.round(1_900_000 / 120) });
+    expect(created.results.rows[0]).toMatchObject({ year: 0, systemPaymentCents: 500_000, cashFlowCents: -500_000 });
+    const read = await s.offers.getOfferOrThrow(rep, created.id);
+    expect(read.inputs.payment).toMatchObject({ kind: "loan", downPaymentCents: 500_000 });
+    expect(read.stale).toEqual([]);
+    // Empty: the deposit at signing.
+    const updated = await s.offers.updateOffer(rep, created.id, { inputs: loan(null) });
+    expect(updated.results.summary).toMatchObject({ downPaymentCents: 50_000, loanAmountCents: 2_350_000 });
+    await s.offers.deleteOffer(rep, created.id);
+  });
+
   it("keeps to three offers a deal", async () => {
     await s.offers.createOffer(rep, { dealId, inputs: cashOffer({ name: "Third" }) });
     const err = await rejects(s.offers.createOffer(rep, { dealId, inputs: cashOffer({ name: "Fourth" }) }), 409);

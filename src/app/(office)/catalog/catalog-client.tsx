@@ -3,6 +3,7 @@ import { optionsOf } from "@/components/ui/field";
 import {
   CELL_TECHNOLOGIES,
   CELL_TECHNOLOGY_LABELS,
+  COEFFICIENT_UNITS,
   CONSTRUCTION_LABELS,
   CONSTRUCTIONS,
   INVERTER_KIND_LABELS,
@@ -25,7 +26,8 @@ const MODULE_NUMBERS: NumberField<ModuleModelInput>[] = [
   { name: "vmpV", label: "Vmp (V)", step: "any" },
   { name: "impA", label: "Imp (A)", step: "any" },
   { name: "gammaPmaxPctPerC", label: "Pmax temperature coefficient (%/°C)", step: "any" },
-  { name: "betaVocPctPerC", label: "Voc temperature coefficient (%/°C)", step: "any" },
+  { name: "vocCoeff.value", label: "Voc temperature coefficient", step: "any" },
+  { name: "maxSeriesFuseA", label: "Maximum series fuse (A, optional)", step: "any" },
   { name: "lengthMm", label: "Length (mm)", step: "1" },
   { name: "widthMm", label: "Width (mm)", step: "1" },
 ];
@@ -35,12 +37,16 @@ const MODULE_SPEC = {
   collection: "/api/module-models",
   schema: moduleModelSchema,
   defaults: (row) =>
-    row ? { ...row, encapsulant: row.encapsulant ?? "" } : { manufacturer: "", model: "", cellTechnology: "topcon", construction: "glass_glass", encapsulant: "" },
-  description: () => "Datasheet values at STC. Temperature coefficients are negative, in %/°C.",
+    row
+      ? { ...row, encapsulant: row.encapsulant ?? "" }
+      : { manufacturer: "", model: "", cellTechnology: "topcon", construction: "glass_glass", encapsulant: "", vocCoeff: { unit: "%/°C" } as ModuleModelInput["vocCoeff"] },
+  description: () =>
+    "Datasheet values at STC. Temperature coefficients are negative: Pmax in %/°C, Voc in the unit the datasheet uses (%/°C, mV/°C or V/°C). The maximum series fuse rating decides whether parallel strings need fuses (NEC 690.9(A)).",
   headChoices: [],
   numbers: () => MODULE_NUMBERS,
   numberColumns: "lg:grid-cols-5",
   tailChoices: [
+    { name: "vocCoeff.unit", label: "Voc coefficient unit", options: COEFFICIENT_UNITS.map((u) => ({ value: u, label: u })) },
     { name: "cellTechnology", label: "Cell technology", options: optionsOf(CELL_TECHNOLOGIES, CELL_TECHNOLOGY_LABELS) },
     { name: "construction", label: "Construction", options: optionsOf(CONSTRUCTIONS, CONSTRUCTION_LABELS) },
   ],
@@ -91,7 +97,8 @@ const MODULE_COLUMNS: Column<ModuleView>[] = [
   { header: "Vmp V", numeric: true, cell: (m) => m.vmpV },
   { header: "Imp A", numeric: true, cell: (m) => m.impA },
   { header: "γ Pmax %/°C", numeric: true, title: "Temperature coefficient of Pmax", cell: (m) => m.gammaPmaxPctPerC },
-  { header: "β Voc %/°C", numeric: true, title: "Temperature coefficient of Voc", cell: (m) => m.betaVocPctPerC },
+  { header: "β Voc", numeric: true, title: "Temperature coefficient of Voc, as on the datasheet", cell: (m) => `${m.vocCoeff.value} ${m.vocCoeff.unit}` },
+  { header: "Fuse A", numeric: true, title: "Maximum series fuse rating", cell: (m) => m.maxSeriesFuseA ?? "—" },
   { header: "Size mm", numeric: true, cell: (m) => `${m.lengthMm}×${m.widthMm}` },
   {
     header: "Cells · build",

@@ -1,6 +1,6 @@
 // What the catalog's table and forms show of a module or an inverter. Its own module so the
 // page, the table and the forms do not import each other.
-import type { CellTechnology, Construction, InverterKind } from "@/lib/schemas/catalog";
+import type { CellTechnology, CoefficientUnit, Construction, InverterKind } from "@/lib/schemas/catalog";
 
 export type ModuleView = {
   id: string;
@@ -13,6 +13,8 @@ export type ModuleView = {
   impA: number;
   gammaPmaxPctPerC: number;
   betaVocPctPerC: number;
+  vocCoeff: { value: number; unit: CoefficientUnit };
+  maxSeriesFuseA: number | null;
   lengthMm: number;
   widthMm: number;
   cellTechnology: CellTechnology;

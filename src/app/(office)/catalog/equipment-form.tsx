@@ -1,7 +1,7 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { ReactNode } from "react";
-import { useForm, type FieldValues, type Path, type Resolver } from "react-hook-form";
+import { get, useForm, type FieldValues, type Path, type Resolver } from "react-hook-form";
 import type { z } from "zod";
 import { Field, SelectField, StatusMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
@@ -46,8 +46,8 @@ export function EquipmentForm<F extends FieldValues, R extends F & { id: string 
     setError,
     onSaved: (_, v) => onSaved(`${v.manufacturer} ${v.model} is ${row ? "saved" : "added to the catalog"}.`),
   });
-  // The inverter's union types only the common keys' errors; every message is looked up by name.
-  const errorOf = (name: string) => (formState.errors as Record<string, { message?: string } | undefined>)[name]?.message;
+  // The inverter's union types only the common keys' errors; every message is looked up by its path (vocCoeff.value too).
+  const errorOf = (name: string) => (get(formState.errors, name) as { message?: string } | undefined)?.message;
   const id = (name: string) => `${spec.noun}-${name}`;
   const choice = (c: ChoiceField<F>) => <SelectField key={c.name} id={id(c.name)} label={c.label} options={c.options} error={errorOf(c.name)} {...register(c.name)} />;
   const title = row ? `Edit ${row.manufacturer} ${row.model}` : `Add ${spec.noun === "module" ? "a module" : "an inverter"}`;

@@ -2,6 +2,7 @@
 // One offer of the snapshot as the customer reads it: the system, production against their
 // usage, the money (price, incentives, net cost, payment, deposit), the savings and the
 // cumulative cash flow. Every figure comes from the frozen snapshot.
+import { figureDefinitions } from "@/lib/figure-definitions";
 import { formatCents } from "@/lib/format";
 import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import { CashflowChart, UsageProductionChart } from "./charts";
@@ -26,6 +27,18 @@ export function paymentText(o: ProposalSnapshotOffer): string {
   const p = o.inputs.payment;
   if (p.kind === "cash") return "Cash";
   return `Loan: ${p.aprPct} % APR over ${p.termMonths} months${p.dealerFeePct > 0 ? `, ${p.dealerFeePct} % dealer fee` : ""}`;
+}
+
+/** What payback and ROI mean for this offer (and why there is no IRR, when there is none). */
+function FigureMeanings({ offer }: { offer: ProposalSnapshotOffer }) {
+  const d = figureDefinitions(offer.figures, offer.inputs.payment.kind);
+  return (
+    <ul className="mt-2 space-y-1 text-xs text-graphite-soft" data-testid={`figure-definitions-${offer.position}`}>
+      <li>{d.payback}</li>
+      <li>{d.roi}</li>
+      {d.irr ? <li>{d.irr}</li> : null}
+    </ul>
+  );
 }
 
 export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer; usageKwh: number[] }) {
@@ -91,6 +104,7 @@ export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer
           <Row label={`Bill savings over ${f.assumptions.years} years`} value={formatCents(s.lifetimeSavingsCents)} />
           <Row label={`Ahead after ${f.assumptions.years} years`} value={formatCents(s.lifetimeNetCents)} />
         </dl>
+        <FigureMeanings offer={offer} />
         <div className="mt-3">
           <CashflowChart cumulativeCents={f.rows.map((r) => r.cumulativeCents)} />
         </div>

@@ -7,6 +7,7 @@ import { headers } from "next/headers";
 import { notFound } from "next/navigation";
 import type { ReactNode } from "react";
 import { Wordmark } from "@/components/wordmark";
+import { figureDefinitions } from "@/lib/figure-definitions";
 import { formatCents, formatDate, formatDateTime } from "@/lib/format";
 import { formatIsoDateLong, proposalLinkState } from "@/lib/proposal-snapshot";
 import { dateInZone } from "@/lib/zoned-time";
@@ -127,6 +128,10 @@ function AssumptionsCard({ s }: { s: ProposalSnapshot }) {
         {s.assumptions.map((a) => (
           <li key={a}>{a}</li>
         ))}
+        {s.offers.map((o) => {
+          const simple = figureDefinitions(o.figures, o.inputs.payment.kind).simplePayback;
+          return simple ? <li key={`simple-${o.position}`}>{s.offers.length > 1 ? `${o.name}: ${simple}` : simple}</li> : null;
+        })}
       </ul>
       <h3 className="mt-4 font-semibold">Please note</h3>
       <ul className="mt-2 list-disc space-y-1 rounded-md bg-caution-light py-2 pl-8 pr-3 text-sm">

@@ -5,11 +5,13 @@ import Link from "next/link";
 import { useEffect, useState } from "react";
 import { ConfirmButton } from "@/components/ui/dialog";
 import { Field, FormMessage, SelectField, StatusMessage } from "@/components/ui/field";
+import { MoneyInput } from "@/components/ui/number-input";
 import { useSave } from "@/components/ui/use-save";
 import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { api, ApiError } from "@/lib/api-client";
 import { formatCents } from "@/lib/format";
-import { OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";
+import { figureDefinitions, type FigureDefinitions } from "@/lib/figure-definitions";
+import { describeExpectedInstall, OFFER_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { MAX_OFFERS_PER_DEAL, type OfferInputs, type OfferInputsInput } from "@/lib/schemas/offer";
 import type { StaleInput } from "@/lib/offer-basis";
 import { CashflowChart, OFFER_COLORS } from "./cashflow-chart";
@@ -129,6 +131,8 @@ function Comparison({ offers }: { offers: OfferView[] }) {
     { label: "Price", value: (o) => formatCents(o.results.summary.contractCents) },
     { label: "Incentives", value: (o) => formatCents(o.results.summary.incentivesCents) },
     { label: "Net cost", value: (o) => formatCents(o.results.summary.netCostCents) },
+    { label: "Down payment (year 0)", value: (o) => (o.results.summary.downPaymentCents == null ? "cash" : formatCents(o.results.summary.downPaymentCents)) },
+    { label: "Loan amount", value: (o) => (o.results.summary.loanAmountCents == null ? "cash" : formatCents(o.results.summary.loanAmountCents)) },
     { label: "Monthly loan payment", value: (o) => (o.results.summary.monthlyLoanPaymentCents === null ? "cash" : formatCents(o.results.summary.monthlyLoanPaymentCents)) },
     { label: "Year-1 savings", value: (o) => formatCents(o.results.summary.year1SavingsCents) },
     { label: "Payback", value: (o) => years(o.results.summary.paybackYears, o.results.assumptions.years) },
@@ -171,12 +175,18 @@ function Comparison({ offers }: { offers: OfferView[] }) {
 function OfferCard({ offer, color, canEdit, onEdit }: { offer: OfferView; color: string; canEdit: boolean; onEdit: () => void }) {
   const remove = useSave<void>({ request: () => ({ url: `/api/offers/${offer.id}`, method: "DELETE" }) });
   const r = offer.results;
+  const definitions = figureDefinitions(r, offer.inputs.payment.kind);
   return (
     <article className="card p-4" style={{ borderTop: `4px solid ${color}` }} aria-label={`Offer ${offer.name}`}>
       <h3 className="text-lg font-semibold">{offer.name}</h3>
       <p className="text-sm text-graphite-soft">
         {r.summary.moduleCount} modules · {r.summary.kwDc.toFixed(2)} kW DC · {offer.inputs.payment.kind === "cash" ? "cash" : `loan ${offer.inputs.payment.aprPct} % APR, ${offer.inputs.payment.termMonths} months`}
       </p>
+      {r.summary.loanAmountCents != null ? (
+        <p className="text-sm" data-testid="loan-terms">
+          {formatCents(r.summary.downPaymentCents)} down at signing (year 0), {formatCents(r.summary.loanAmountCents)} borrowed
+        </p>
+      ) : null}
       <ul className="mt-3 space-y-1 text-sm">
         {r.price.lines.map((l, i) => (
           <li key={i} className="flex justify-between gap-2">
@@ -195,25 +205,30 @@ function OfferCard({ offer, color, canEdit, onEdit }: { offer: OfferView; color:
           </li>
         ))}
       </ul>
+      {r.assumptions.installDate ? (
+        <p className="mt-2 text-xs text-graphite-soft" data-testid="install-date">
+          Credits that count at installation assume it on {describeExpectedInstall(r.assumptions.installDate)}.
+        </p>
+      ) : null}
       {offer.discountStatus !== "none" ? (
         <p className={`mt-3 rounded px-2 py-1 text-sm ${offer.discountStatus === "pending" ? "bg-caution-light" : offer.discountStatus === "declined" ? "bg-danger-light" : "bg-sage-light"}`} data-testid="discount-status">
           {STATUS_TEXT[offer.discountStatus]}
         </p>
       ) : null}
       <OfferInputsStatus offer={offer} canEdit={canEdit} />
-      {r.notes.length > 0 ? (
-        <details className="mt-3 text-xs text-graphite-soft">
-          <summary className="cursor-pointer">Assumptions and notes</summary>
-          <ul className="mt-1 list-disc pl-4">
-            <li>
-              Rate plan {r.assumptions.ratePlanName}; bills rise {r.assumptions.utilityEscalationPctPerYear} %/yr; output falls {r.assumptions.degradationPctPerYear} %/yr; priced {r.asOf}.
-            </li>
-            {r.notes.map((n) => (
-              <li key={n}>{n}</li>
-            ))}
-          </ul>
-        </details>
-      ) : null}
+      <FigureMeanings figures={r} d={definitions} />
+      <details className="mt-3 text-xs text-graphite-soft">
+        <summary className="cursor-pointer">Assumptions and notes</summary>
+        <ul className="mt-1 list-disc pl-4">
+          <li>
+            Rate plan {r.assumptions.ratePlanName}; bills rise {r.assumptions.utilityEscalationPctPerYear} %/yr; output falls {r.assumptions.degradationPctPerYear} %/yr; priced {r.asOf}.
+          </li>
+          {definitions.simplePayback ? <li>{definitions.simplePayback}</li> : null}
+          {r.notes.map((n) => (
+            <li key={n}>{n}</li>
+          ))}
+        </ul>
+      </details>
       {canEdit ? (
         <div className="mt-4 flex gap-2">
           <button type="button" className="btn-quiet" onClick={onEdit}>
@@ -224,6 +239,28 @@ function OfferCard({ offer, color, canEdit, onEdit }: { offer: OfferView; color:
       ) : null}
       <StatusMessage notice={remove.notice} />
     </article>
+  );
+}
+
+/** Payback, ROI and (when it has none) IRR beside what each means. */
+function FigureMeanings({ figures: r, d }: { figures: OfferFigures; d: FigureDefinitions }) {
+  const items: [string, string, string][] = [
+    ["Payback", years(r.summary.paybackYears, r.assumptions.years), d.payback],
+    ["Simple ROI", pct(r.summary.simpleRoi), d.roi],
+    ...(d.irr ? ([["IRR", "—", d.irr]] as [string, string, string][]) : []),
+  ];
+  return (
+    <dl className="mt-3 space-y-2 text-sm" data-testid="figure-definitions">
+      {items.map(([label, value, meaning]) => (
+        <div key={label}>
+          <dt className="flex justify-between gap-2">
+            <span>{label}</span>
+            <span className="figure">{value}</span>
+          </dt>
+          <dd className="text-xs text-graphite-soft">{meaning}</dd>
+        </div>
+      ))}
+    </dl>
   );
 }
 
@@ -240,6 +277,8 @@ type FormState = {
   aprPct: string;
   termMonths: string;
   dealerFeePct: string;
+  /** Cents; null = the deposit asked at signing; NaN = not a number. */
+  downPaymentCents: number | null;
   ratePlanId: string;
 };
 
@@ -262,6 +301,7 @@ function initialFormState(props: Props & { existing: OfferView | null }, faces: 
     aprPct: i?.payment.kind === "loan" ? String(i.payment.aprPct) : "6.99",
     termMonths: i?.payment.kind === "loan" ? String(i.payment.termMonths) : "240",
     dealerFeePct: i?.payment.kind === "loan" ? String(i.payment.dealerFeePct) : "0",
+    downPaymentCents: i?.payment.kind === "loan" ? i.payment.downPaymentCents : null,
     ratePlanId: i?.ratePlanId ?? props.dealRatePlanId ?? props.ratePlans[0]?.id ?? "",
   };
 }
@@ -279,7 +319,7 @@ function formInputs(state: FormState, faces: DesignView["faces"], design: Design
     lineItemIds: state.lineItemIds,
     discountCents: Math.round(dollars * 100),
     discountReason: state.discountReason,
-    payment: state.paymentKind === "cash" ? { kind: "cash" } : { kind: "loan", aprPct: toNumber(state.aprPct), termMonths: toNumber(state.termMonths), dealerFeePct: toNumber(state.dealerFeePct) },
+    payment: state.paymentKind === "cash" ? { kind: "cash" } : { kind: "loan", aprPct: toNumber(state.aprPct), termMonths: toNumber(state.termMonths), dealerFeePct: toNumber(state.dealerFeePct), downPaymentCents: state.downPaymentCents },
     ratePlanId: state.ratePlanId === dealRatePlanId || state.ratePlanId === "" ? null : state.ratePlanId,
   };
 }
@@ -332,6 +372,8 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
 
   function submit(e: React.FormEvent) {
     e.preventDefault();
+    // JSON has no NaN (it would arrive as "empty", the deposit): say so here.
+    if (state.paymentKind === "loan" && Number.isNaN(state.downPaymentCents)) return setFields({ "payment.downPaymentCents": "Down payment must be a number" });
     setFields({});
     save.save(inputs());
   }
@@ -444,10 +486,17 @@ function PaymentFields({ state, set, err }: FormParts) {
         </label>
       </div>
       {state.paymentKind === "loan" ? (
-        <div className="mt-2 grid gap-4 sm:grid-cols-3">
+        <div className="mt-2 grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
           <Field id="offer-apr" label="APR (%)" value={state.aprPct} error={err("payment.aprPct")} inputMode="decimal" onChange={(e) => set({ aprPct: e.target.value })} />
           <Field id="offer-term" label="Term (months)" value={state.termMonths} error={err("payment.termMonths")} inputMode="numeric" onChange={(e) => set({ termMonths: e.target.value })} />
           <Field id="offer-dealer-fee" label="Dealer fee (%)" value={state.dealerFeePct} error={err("payment.dealerFeePct")} inputMode="decimal" onChange={(e) => set({ dealerFeePct: e.target.value })} />
+          <MoneyInput
+            id="offer-down-payment"
+            label="Down payment ($; empty: the deposit)"
+            value={state.downPaymentCents}
+            error={err("payment.downPaymentCents")}
+            onValue={(v) => set({ downPaymentCents: v })}
+          />
         </div>
       ) : null}
     </fieldset>
@@ -464,7 +513,13 @@ function OfferPreviewPanel({ preview, error, busy }: { preview: Preview | null; 
         ["Net cost", formatCents(f.netCostCents)],
         ["Year-1 savings", formatCents(f.year1SavingsCents)],
         ["Payback", years(f.paybackYears, preview.assumptions.years)],
-        ...(f.monthlyLoanPaymentCents === null ? [] : ([["Monthly loan payment", formatCents(f.monthlyLoanPaymentCents)]] as [string, string][])),
+        ...(f.monthlyLoanPaymentCents === null
+          ? []
+          : ([
+              ["Down payment", formatCents(f.downPaymentCents)],
+              ["Loan amount", formatCents(f.loanAmountCents)],
+              ["Monthly loan payment", formatCents(f.monthlyLoanPaymentCents)],
+            ] as [string, string][])),
       ]
     : [];
   return (
