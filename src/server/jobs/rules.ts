@@ -75,13 +75,3 @@ export async function cancelJobOfDeal(tx: Tx, c: { companyId: string; dealId: st
   });
   return true;
 }
-
-/** Whether the deal's job is installed (a cancellation must then be refused: the work is done). */
-export async function jobInstalledAt(tx: Tx, companyId: string, dealId: string): Promise<Date | null> {
-  const [row] = await tx
-    .select({ installedAt: job.installedAt })
-    .from(job)
-    .where(and(eq(job.companyId, companyId), eq(job.dealId, dealId)))
-    .limit(1);
-  return row?.installedAt ?? null;
-}

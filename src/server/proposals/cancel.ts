@@ -1,7 +1,7 @@
 import "server-only";
 import { createElement } from "react";
 import { and, eq } from "drizzle-orm";
-import { deal, proposal, STAGES, type Stage } from "@/db/schema";
+import { deal, job, proposal, STAGES, type Stage } from "@/db/schema";
 import { formatDateTime } from "@/lib/format";
 import { dateInZone } from "@/lib/zoned-time";
 import { canStillCancel, cancelWindowClosesAt, formatIsoDateLong } from "@/lib/proposal-snapshot";
@@ -11,7 +11,7 @@ import { db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { ClientMeta } from "@/server/client-address";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
-import { cancelJobOfDeal, jobInstalledAt } from "@/server/jobs";
+import { cancelJobOfDeal } from "@/server/jobs";
 import { autoMoveStage } from "@/server/stages";
 import { refundOnCancellation } from "@/server/payments";
 import { recordEvent } from "@/server/timeline";
@@ -105,9 +105,13 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
  * is refused anyway rather than left Installed with a cancelled agreement and a refund.
  */
 async function refuseWhenWorkDone(tx: Tx, p: ProposalRow): Promise<void> {
-  const [d] = await tx.select({ stage: deal.stage }).from(deal).where(and(eq(deal.id, p.dealId), eq(deal.companyId, p.companyId))).for("update");
-  const installed = await jobInstalledAt(tx, p.companyId, p.dealId);
-  if ((d && WORK_DONE_STAGES.includes(d.stage)) || installed) {
+  const [d] = await tx
+    .select({ stage: deal.stage, installedAt: job.installedAt })
+    .from(deal)
+    .leftJoin(job, and(eq(job.dealId, deal.id), eq(job.companyId, deal.companyId)))
+    .where(and(eq(deal.id, p.dealId), eq(deal.companyId, p.companyId)))
+    .for("update");
+  if (d && (WORK_DONE_STAGES.includes(d.stage) || d.installedAt)) {
     throw new HttpError(409, "work_done", "The system is already installed, so this agreement can no longer be cancelled here. Contact your installer.");
   }
 }

@@ -12,6 +12,7 @@ type Params = { id: string };
  */
 export const POST = withMember<Params>("jobs:work", async ({ req, member, params }) => {
   if (!idSchema.safeParse(params.id).success) throw notFound("Job");
-  const input = await readJson(req, markInstalledSchema);
+  // The crew's one tap may come with no body at all: no early reason then.
+  const input = req.headers.get("content-type")?.startsWith("application/json") ? await readJson(req, markInstalledSchema) : {};
   return NextResponse.json({ data: await markJobInstalled(member, params.id, input) });
 });
