@@ -859,7 +859,10 @@ export const job = mysqlTable(
     /** The signed proposal the job builds (its chosen offer's equipment). */
     proposalId: id("proposal_id").references(() => proposal.id, { onDelete: "set null" }),
     crewId: id("crew_id").references(() => crew.id, { onDelete: "set null" }),
+    /** Planned dates (survey_date, install_date, inspection_on) are plans and never move the deal. */
     surveyDate: date("survey_date", { mode: "string" }),
+    /** When the survey was done (a record, never after the company's today): moves the deal to Survey. */
+    surveyDoneOn: date("survey_done_on", { mode: "string" }),
     installDate: date("install_date", { mode: "string" }),
     permitNumber: varchar("permit_number", { length: 100 }),
     permitSubmittedOn: date("permit_submitted_on", { mode: "string" }),
@@ -868,11 +871,20 @@ export const job = mysqlTable(
     interconnectionSubmittedOn: date("interconnection_submitted_on", { mode: "string" }),
     interconnectionApprovedOn: date("interconnection_approved_on", { mode: "string" }),
     inspectionOn: date("inspection_on", { mode: "string" }),
+    /** When the inspection passed (a record, after the install): moves the deal to Inspected. */
+    inspectionPassedOn: date("inspection_passed_on", { mode: "string" }),
     ptoOn: date("pto_on", { mode: "string" }),
     notes: text("notes"),
     /** The checklist copied from a template: [{ id, label, doneAt, doneByUserId }]. */
     checklist: jsonColumn("job", "checklist", storedJobChecklistSchema),
     installedAt: timestamp("installed_at", { fsp: 3 }),
+    /**
+     * When the deal was cancelled (the buyer's right to cancel): the job is frozen as it was
+     * (dates, crew, checklist kept for the record, never changed again) and leaves the crew's
+     * feed, Today and the Jobs list. `cancelReason` says why and by whom.
+     */
+    cancelledAt: timestamp("cancelled_at", { fsp: 3 }),
+    cancelReason: varchar("cancel_reason", { length: 300 }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

@@ -209,6 +209,7 @@ async function jobsToSchedule(member: Member): Promise<Queue<JobToSchedule>> {
   const where = and(
     eq(job.companyId, member.companyId),
     isNull(job.installedAt),
+    isNull(job.cancelledAt),
     or(isNull(job.installDate), isNull(job.crewId)),
     notInArray(deal.stage, CLOSED_STAGES),
   );
@@ -258,6 +259,7 @@ async function crewVisits(member: Member, crewId: string, from: string, to: stri
       and(
         eq(job.companyId, member.companyId),
         eq(job.crewId, crewId),
+        isNull(job.cancelledAt),
         ne(deal.stage, "cancelled"),
         ne(deal.stage, "lost"),
         or(within(job.surveyDate), within(job.installDate), within(job.inspectionOn)),

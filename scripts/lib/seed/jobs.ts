@@ -71,6 +71,7 @@ const JOBS: DemoJob[] = [
     ticked: 0,
     fields: {
       surveyDate: day(-16),
+      surveyDoneOn: day(-16),
       permitNumber: "KRN-BP-26-0418",
       permitSubmittedOn: day(-12),
       installDate: day(12),
@@ -86,6 +87,7 @@ const JOBS: DemoJob[] = [
     ticked: 0,
     fields: {
       surveyDate: day(-24),
+      surveyDoneOn: day(-24),
       permitNumber: "GSO-BP-26-1187",
       permitSubmittedOn: day(-20),
       permitApprovedOn: day(-6),
@@ -103,6 +105,7 @@ const JOBS: DemoJob[] = [
     ticked: CHECKLIST.length,
     fields: {
       surveyDate: day(-40),
+      surveyDoneOn: day(-40),
       permitNumber: "GC-BP-26-0902",
       permitSubmittedOn: day(-36),
       permitApprovedOn: day(-15),
@@ -121,6 +124,7 @@ const JOBS: DemoJob[] = [
     ticked: CHECKLIST.length,
     fields: {
       surveyDate: day(-60),
+      surveyDoneOn: day(-60),
       permitNumber: "GSO-BP-26-0733",
       permitSubmittedOn: day(-55),
       permitApprovedOn: day(-34),
@@ -130,6 +134,7 @@ const JOBS: DemoJob[] = [
       interconnectionSubmittedOn: day(-54),
       interconnectionApprovedOn: day(-30),
       inspectionOn: day(-12),
+      inspectionPassedOn: day(-12),
     },
   },
   {
@@ -139,6 +144,7 @@ const JOBS: DemoJob[] = [
     ticked: CHECKLIST.length,
     fields: {
       surveyDate: day(-110),
+      surveyDoneOn: day(-110),
       permitNumber: "GC-BP-26-0311",
       permitSubmittedOn: day(-104),
       permitApprovedOn: day(-85),
@@ -148,6 +154,7 @@ const JOBS: DemoJob[] = [
       interconnectionSubmittedOn: day(-103),
       interconnectionApprovedOn: day(-80),
       inspectionOn: day(-60),
+      inspectionPassedOn: day(-60),
       ptoOn: day(-30),
     },
   },

@@ -51,6 +51,7 @@ export const jobFieldsSchema = z
       .transform((v) => (v ? v : null))
       .optional(),
     surveyDate: optionalDate,
+    surveyDoneOn: optionalDate,
     installDate: optionalDate,
     permitNumber: optionalText(100, "permit number"),
     permitSubmittedOn: optionalDate,
@@ -59,6 +60,7 @@ export const jobFieldsSchema = z
     interconnectionSubmittedOn: optionalDate,
     interconnectionApprovedOn: optionalDate,
     inspectionOn: optionalDate,
+    inspectionPassedOn: optionalDate,
     ptoOn: optionalDate,
     notes: optionalText(5000, "notes"),
   })
@@ -81,6 +83,7 @@ export type JobFields = z.output<typeof jobFieldsSchema>;
 export type JobFormValues = {
   crewId: string;
   surveyDate: string;
+  surveyDoneOn: string;
   installDate: string;
   permitNumber: string;
   permitSubmittedOn: string;
@@ -89,9 +92,24 @@ export type JobFormValues = {
   interconnectionSubmittedOn: string;
   interconnectionApprovedOn: string;
   inspectionOn: string;
+  inspectionPassedOn: string;
   ptoOn: string;
   notes: string;
 };
+
+/**
+ * POST /api/jobs/[id]/installed. A crew marks its job installed from the install date on; before
+ * it, only the office can, saying why (`earlyReason`, written on the Timeline).
+ */
+export const markInstalledSchema = z
+  .object({
+    earlyReason: z
+      .union([z.null(), plainText().trim().max(300, "Keep the reason under 300 characters")])
+      .transform((v) => (v ? v : null))
+      .optional(),
+  })
+  .strict();
+export type MarkInstalledInput = z.output<typeof markInstalledSchema>;
 
 /** PATCH /api/jobs/[id]/checklist — tick or untick one item. */
 export const checklistTickSchema = z.object({

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, isNull } from "drizzle-orm";
 import ical from "ical-generator";
 import { env } from "@/env";
 import { company, deal, household, job } from "@/db/schema";
@@ -36,7 +36,10 @@ export async function crewCalendarIcs(token: string, now = new Date()): Promise<
     .from(job)
     .innerJoin(deal, and(eq(deal.id, job.dealId), eq(deal.companyId, job.companyId)))
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
-    .where(and(eq(job.companyId, found.companyId), eq(job.crewId, found.id)))
+    // A cancelled job's events leave the feed (our choice over STATUS:CANCELLED, RFC 5545
+    // 3.8.1.11): a subscribed calendar replaces its copy with each fetch, so a missing UID is
+    // deleted everywhere, while a cancelled-status event is still shown by some calendar apps.
+    .where(and(eq(job.companyId, found.companyId), eq(job.crewId, found.id), isNull(job.cancelledAt)))
     .orderBy(asc(job.id));
   const [co] = await db().select({ name: company.name }).from(company).where(eq(company.id, found.companyId)).limit(1);
   const since = addDaysToDate(await companyToday(found.companyId, now), -FEED_PAST_DAYS);

@@ -5,6 +5,7 @@ export { type JobListRow, listJobs, getJobRowOrThrow, getJobOrThrow, findJobForD
 export { type JobStageMove, jobStageMoves, type JobUpdateResult, updateJob } from "./office";
 export { setChecklistItem, applyActiveChecklist, markJobInstalled, listJobPhotos, getJobPhotoOrThrow, getJobPhotoFile, addJobPhoto } from "./crew-work";
 export { getJobPacket, getJobSitePhotoFile } from "./packet";
+export { cancelJobOfDeal, cancelWindowEndOf, firstInstallDay } from "./rules";
 export { crewCalendarIcs } from "./calendar";
 export { getJobPacketPdf } from "./packet-pdf";
 export { type ProjectProgress, getProjectProgress } from "./progress";

@@ -4,6 +4,8 @@ import { crew, deal, household, job, type Stage } from "@/db/schema";
 import type { JobFields } from "@/lib/schemas/jobs";
 import { STAGE_LABELS } from "@/lib/stages";
 import { can } from "@/lib/permissions";
+import { dateInZone, todayInZone } from "@/lib/zoned-time";
+import { getCompanySettings } from "@/server/company-settings";
 import { db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -11,6 +13,7 @@ import { autoMoveStage } from "@/server/stages";
 import type { JobRecord, JobView } from "@/lib/job-packet";
 import { recordEvent } from "@/server/timeline";
 import { getJobOrThrow, getJobRowOrThrow } from "./read";
+import { assertJobOpen, cancelWindowEndOf, installInsideWindow } from "./rules";
 
 // ── The office's changes: dates, crew, permits; each may move the deal ──────────────────
 
@@ -19,6 +22,7 @@ type DateFieldKey = Exclude<keyof JobFields, "crewId" | "permitNumber" | "interc
 const FIELD_LABELS: Record<keyof JobFields, string> = {
   crewId: "crew",
   surveyDate: "survey date",
+  surveyDoneOn: "survey done",
   installDate: "install date",
   permitNumber: "permit number",
   permitSubmittedOn: "permit submitted",
@@ -27,6 +31,7 @@ const FIELD_LABELS: Record<keyof JobFields, string> = {
   interconnectionSubmittedOn: "interconnection submitted",
   interconnectionApprovedOn: "interconnection approved",
   inspectionOn: "inspection date",
+  inspectionPassedOn: "inspection passed",
   ptoOn: "PTO date",
   notes: "notes",
 };
@@ -37,14 +42,18 @@ const dateText = (iso: string) => new Intl.DateTimeFormat("en-US", { dateStyle: 
 export type JobStageMove = { from: readonly Stage[]; to: Stage; why: string };
 
 /**
- * The stage moves caused by a job change, in order (each only forward from the named stages):
- * survey date set → Survey; permit submitted → Permitting; install date with an approved
- * permit → Install booked; inspection recorded → Inspected; PTO date → Live.
+ * The stage moves caused by a job change, in order (each only forward from the named stages).
+ * Planned dates (survey, install, inspection) never move a deal by themselves: a deal moves when
+ * something is recorded as done, and records cannot be after the company's today (updateJob
+ * refuses them). Survey done → Survey; permit submitted → Permitting; an approved permit with an
+ * install date on the books → Install booked (the stage names the booking itself, and the
+ * permit's approval is what has happened); installed is the crew's (markJobInstalled);
+ * inspection passed → Inspected; PTO received → Live.
  */
 export function jobStageMoves(before: Pick<JobRecord, DateFieldKey>, after: Pick<JobRecord, DateFieldKey>): JobStageMove[] {
   const set = (k: DateFieldKey) => !!after[k] && after[k] !== before[k];
   const moves: JobStageMove[] = [];
-  if (set("surveyDate")) moves.push({ from: ["deposit_paid"], to: "survey", why: `site survey set for ${dateText(after.surveyDate!)}` });
+  if (set("surveyDoneOn")) moves.push({ from: ["deposit_paid"], to: "survey", why: `site survey done on ${dateText(after.surveyDoneOn!)}` });
   if (set("permitSubmittedOn")) moves.push({ from: ["deposit_paid", "survey"], to: "permitting", why: `permit submitted on ${dateText(after.permitSubmittedOn!)}` });
   if (after.installDate && after.permitApprovedOn && (set("installDate") || set("permitApprovedOn"))) {
     moves.push({
@@ -53,9 +62,46 @@ export function jobStageMoves(before: Pick<JobRecord, DateFieldKey>, after: Pick
       why: `install set for ${dateText(after.installDate)}, permit approved on ${dateText(after.permitApprovedOn)}`,
     });
   }
-  if (set("inspectionOn")) moves.push({ from: ["installed"], to: "inspected", why: `inspection recorded on ${dateText(after.inspectionOn!)}` });
-  if (set("ptoOn")) moves.push({ from: ["inspected"], to: "live", why: `permission to operate on ${dateText(after.ptoOn!)}` });
+  if (set("inspectionPassedOn")) moves.push({ from: ["installed"], to: "inspected", why: `inspection passed on ${dateText(after.inspectionPassedOn!)}` });
+  if (set("ptoOn")) moves.push({ from: ["inspected"], to: "live", why: `permission to operate received on ${dateText(after.ptoOn!)}` });
   return moves;
+}
+
+/** Dates that record what happened (not plans): never after the company's today. */
+const RECORD_FIELDS = ["surveyDoneOn", "permitSubmittedOn", "permitApprovedOn", "interconnectionSubmittedOn", "interconnectionApprovedOn", "inspectionPassedOn", "ptoOn"] as const;
+
+const refuse = (field: keyof JobFields, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
+
+/**
+ * The rules a change must keep, on the merged record (a field may be sent alone): records not in
+ * the future, approvals after submissions, the inspection after the install, and no install
+ * inside the buyer's right-to-cancel window (`windowEnd`, its last day).
+ */
+function checkJobChange(before: JobRecord, after: JobRecord, changed: (keyof JobFields)[], c: { today: string; timeZone: string; windowEnd: string | null }): void {
+  for (const k of RECORD_FIELDS) {
+    const v = after[k];
+    if (changed.includes(k) && v && v > c.today) {
+      throw refuse(k, `The ${FIELD_LABELS[k]} date records what has happened, so it cannot be after today (${dateText(c.today)}). Plans go in the survey, install and inspection dates.`);
+    }
+  }
+  if (after.permitSubmittedOn && after.permitApprovedOn && after.permitApprovedOn < after.permitSubmittedOn) {
+    throw refuse("permitApprovedOn", "The permit cannot be approved before it was submitted");
+  }
+  if (after.interconnectionSubmittedOn && after.interconnectionApprovedOn && after.interconnectionApprovedOn < after.interconnectionSubmittedOn) {
+    throw refuse("interconnectionApprovedOn", "Interconnection cannot be approved before it was submitted");
+  }
+  if (after.installDate && after.inspectionOn && after.inspectionOn < after.installDate && (changed.includes("inspectionOn") || changed.includes("installDate"))) {
+    throw refuse("inspectionOn", "The inspection cannot come before the install");
+  }
+  if (after.installDate && changed.includes("installDate")) {
+    const early = installInsideWindow(after.installDate, c.windowEnd);
+    if (early) throw refuse("installDate", early);
+  }
+  if (after.inspectionPassedOn && changed.includes("inspectionPassedOn")) {
+    if (!before.installedAt) throw refuse("inspectionPassedOn", "An inspection cannot be recorded before the installation: the crew has not marked this job installed yet.");
+    const installedOn = dateInZone(before.installedAt, c.timeZone);
+    if (after.inspectionPassedOn < installedOn) throw refuse("inspectionPassedOn", `The inspection cannot have passed before the installation on ${dateText(installedOn)}.`);
+  }
 }
 
 export async function dealHouseholdName(tx: Tx, companyId: string, dealId: string): Promise<string> {
@@ -76,9 +122,11 @@ export type JobUpdateResult = { job: JobView; moved: { to: Stage }[] };
  * install date before the permit's approval is allowed; the deal moves to Install booked only
  * once the permit is approved.
  */
-export async function updateJob(member: Member, jobId: string, fields: JobFields): Promise<JobUpdateResult> {
+export async function updateJob(member: Member, jobId: string, fields: JobFields, now = new Date()): Promise<JobUpdateResult> {
   if (!can(member.role, "jobs:manage")) throw new HttpError(403, "forbidden", "Your role does not allow scheduling jobs.");
-  await getJobRowOrThrow(member, jobId);
+  const current = await getJobRowOrThrow(member, jobId);
+  const { timeZone } = await getCompanySettings(member.companyId);
+  const rules = { today: todayInZone(timeZone, now), timeZone, windowEnd: await cancelWindowEndOf(member.companyId, current) };
   if (fields.crewId) {
     const [c] = await db().select({ id: crew.id }).from(crew).where(and(eq(crew.id, fields.crewId), eq(crew.companyId, member.companyId))).limit(1);
     if (!c) throw new HttpError(422, "validation_failed", "crewId: Pick a crew from the list", { crewId: ["Pick a crew from the list"] });
@@ -91,6 +139,7 @@ export async function updateJob(member: Member, jobId: string, fields: JobFields
       .where(and(eq(job.id, jobId), eq(job.companyId, member.companyId)))
       .for("update");
     if (!before) throw notFound("Job");
+    assertJobOpen(before);
     const changes: Partial<JobRecord> = {};
     const changed: (keyof JobFields)[] = [];
     for (const key of Object.keys(FIELD_LABELS) as (keyof JobFields)[]) {
@@ -100,17 +149,7 @@ export async function updateJob(member: Member, jobId: string, fields: JobFields
       changed.push(key);
     }
     const after = { ...before, ...changes };
-    // The same rules the form checks, on the merged record (a field may be sent alone).
-    if (after.permitSubmittedOn && after.permitApprovedOn && after.permitApprovedOn < after.permitSubmittedOn) {
-      throw new HttpError(422, "validation_failed", "permitApprovedOn: The permit cannot be approved before it was submitted", {
-        permitApprovedOn: ["The permit cannot be approved before it was submitted"],
-      });
-    }
-    if (after.interconnectionSubmittedOn && after.interconnectionApprovedOn && after.interconnectionApprovedOn < after.interconnectionSubmittedOn) {
-      throw new HttpError(422, "validation_failed", "interconnectionApprovedOn: Interconnection cannot be approved before it was submitted", {
-        interconnectionApprovedOn: ["Interconnection cannot be approved before it was submitted"],
-      });
-    }
+    checkJobChange(before, after, changed, rules);
     if (changed.length === 0) return;
     await tx
       .update(job)

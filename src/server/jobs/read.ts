@@ -1,5 +1,5 @@
 import "server-only";
-import { and, desc, eq, type SQL } from "drizzle-orm";
+import { and, desc, eq, isNull, type SQL } from "drizzle-orm";
 import { crew, deal, household, job, type Stage } from "@/db/schema";
 import { crewIdOfMember } from "@/server/crews";
 import { db } from "@/server/db";
@@ -79,7 +79,8 @@ export async function listJobs(member: Member, now = new Date()): Promise<JobLis
     .innerJoin(deal, and(eq(deal.id, job.dealId), eq(deal.companyId, job.companyId)))
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
     .leftJoin(crew, and(eq(crew.id, job.crewId), eq(crew.companyId, job.companyId)))
-    .where(await jobScope(member))
+    // A cancelled job leaves the list (its page stays readable by its link and from the deal).
+    .where(and(await jobScope(member), isNull(job.cancelledAt)))
     .orderBy(desc(job.createdAt));
   const out: JobListRow[] = rows.map(({ checklist, ...r }) => {
     const items = checklist ?? [];

@@ -1,15 +1,17 @@
 import "server-only";
 import { createElement } from "react";
 import { and, eq } from "drizzle-orm";
-import { proposal, type Stage } from "@/db/schema";
+import { deal, job, proposal, STAGES, type Stage } from "@/db/schema";
 import { formatDateTime } from "@/lib/format";
+import { dateInZone } from "@/lib/zoned-time";
 import { canStillCancel, cancelWindowClosesAt, formatIsoDateLong } from "@/lib/proposal-snapshot";
 import ProposalCancelledEmail from "@emails/proposal-cancelled";
 import { getCompanySettings } from "@/server/company-settings";
-import { db } from "@/server/db";
+import { db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { ClientMeta } from "@/server/client-address";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
+import { cancelJobOfDeal } from "@/server/jobs";
 import { autoMoveStage } from "@/server/stages";
 import { refundOnCancellation } from "@/server/payments";
 import { recordEvent } from "@/server/timeline";
@@ -19,8 +21,14 @@ import { dealProposalUrl } from "./send";
 
 // ── Right to cancel ─────────────────────────────────────────────────────────────────────────
 
-/** Stages a cancellation inside the window moves a deal from (it cannot have gone further in 3 business days). */
-const CANCELLABLE_STAGES: readonly Stage[] = ["signed", "deposit_paid", "survey", "permitting", "install_booked"];
+/** Stages where the system is on the roof: no cancellation can stop the work any more. */
+const WORK_DONE_STAGES: readonly Stage[] = ["installed", "inspected", "live"];
+
+/**
+ * Stages a cancellation moves a deal from: any before the work is done, side stages included (a
+ * signed deal put On hold or Lost is still the buyer's to cancel, and its job must stop too).
+ */
+const CANCELLABLE_STAGES: readonly Stage[] = STAGES.filter((s) => !WORK_DONE_STAGES.includes(s) && s !== "cancelled");
 
 export type CancelOutcome = { proposalId: string; companyId: string; dealId: string; cancelledAt: Date };
 
@@ -44,6 +52,7 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
     if (!canStillCancel(row, timeZone, now)) {
       throw new HttpError(409, "cancel_window_closed", `The time to cancel ended with ${formatIsoDateLong(row.cancelDeadline)}. Contact your installer.`);
     }
+    await refuseWhenWorkDone(tx, p);
     await tx.update(proposal).set({ status: "cancelled", cancelledAt: now }).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
     await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "cancelled", body: "The buyer cancelled inside the right-to-cancel window.", client, at: now });
     await recordEvent(tx, {
@@ -62,6 +71,7 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
       summary: `Moved to Cancelled: the buyer cancelled ${labelOf(p)} inside the 3-business-day window`,
       data: { proposalId: p.id },
     });
+    await cancelJobOfDeal(tx, { companyId: p.companyId, dealId: p.dealId, reason: `the buyer cancelled ${labelOf(p)} on ${formatIsoDateLong(dateInZone(now, timeZone))}, inside the right-to-cancel window`, at: now });
     const mailId = await queueMail(tx, {
       companyId: p.companyId,
       kind: "proposal-cancelled",
@@ -87,6 +97,23 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
   await sendQueuedNow([outcome.mailId]);
   const { mailId: _sent, ...cancelled } = outcome;
   return cancelled;
+}
+
+/**
+ * Installs wait for the buyer's window to end (updateJob, markJobInstalled), so this cannot
+ * happen through Kilowright; a deal moved by hand past the install, or a job marked installed,
+ * is refused anyway rather than left Installed with a cancelled agreement and a refund.
+ */
+async function refuseWhenWorkDone(tx: Tx, p: ProposalRow): Promise<void> {
+  const [d] = await tx
+    .select({ stage: deal.stage, installedAt: job.installedAt })
+    .from(deal)
+    .leftJoin(job, and(eq(job.dealId, deal.id), eq(job.companyId, deal.companyId)))
+    .where(and(eq(deal.id, p.dealId), eq(deal.companyId, p.companyId)))
+    .for("update");
+  if (d && (WORK_DONE_STAGES.includes(d.stage) || d.installedAt)) {
+    throw new HttpError(409, "work_done", "The system is already installed, so this agreement can no longer be cancelled here. Contact your installer.");
+  }
 }
 
 /** When the buyer's window closes, for the page (null when the sale carries no right to cancel). */

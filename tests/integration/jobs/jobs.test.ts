@@ -149,7 +149,11 @@ describe("office dates move the deal", () => {
     const { dealId, jobId } = await newJob(owner, "deposit_paid", "Copperfield household");
     const fields = (f: Parameters<typeof s.jobs.updateJob>[2]) => s.jobs.updateJob(office, jobId, f);
 
+    // The planned survey moves nothing; the survey done does.
     let r = await fields({ surveyDate: "2026-04-02" });
+    expect(r.moved).toEqual([]);
+    expect(await stageOf(dealId)).toBe("deposit_paid");
+    r = await fields({ surveyDoneOn: "2026-04-02" });
     expect(r.moved).toEqual([{ to: "survey" }]);
     expect(await stageOf(dealId)).toBe("survey");
 
@@ -167,16 +171,16 @@ describe("office dates move the deal", () => {
     expect(r.moved).toEqual([{ to: "install_booked" }]);
     expect(await stageOf(dealId)).toBe("install_booked");
 
-    // Inspection before the install is not a stage move from Install booked.
+    // A planned inspection is not a stage move.
     r = await fields({ inspectionOn: "2026-05-20" });
     expect(r.moved).toEqual([]);
     expect(await stageOf(dealId)).toBe("install_booked");
 
-    await s.jobs.markJobInstalled(installerA, jobId);
+    await s.jobs.markJobInstalled(installerA, jobId, {}, new Date("2026-05-12T20:00:00Z"));
     expect(await stageOf(dealId)).toBe("installed");
 
-    // Recording the inspection again (a new date) now moves it; then PTO.
-    r = await fields({ inspectionOn: "2026-05-21" });
+    // The inspection passed moves it; then PTO.
+    r = await fields({ inspectionPassedOn: "2026-05-21" });
     expect(r.moved).toEqual([{ to: "inspected" }]);
     r = await fields({ ptoOn: "2026-06-03" });
     expect(r.moved).toEqual([{ to: "live" }]);
@@ -185,10 +189,10 @@ describe("office dates move the deal", () => {
     const moves = await events(dealId, "stage.moved");
     expect(moves.map((m) => (m.data as { to: string }).to)).toEqual(["survey", "permitting", "install_booked", "installed", "inspected", "live"]);
     expect(moves.every((m) => (m.data as { automatic: boolean }).automatic)).toBe(true);
-    expect(moves[0].summary).toContain("site survey set for Apr 2, 2026");
+    expect(moves[0].summary).toContain("site survey done on Apr 2, 2026");
     const updates = await events(dealId, "job.updated");
-    expect(updates.length).toBe(7);
-    expect(updates[2].summary).toContain("crew: Ridge Crew");
+    expect(updates.length).toBe(8);
+    expect(updates[3].summary).toContain("crew: Ridge Crew");
   });
 
   it("refuses an approval before the submission (422) and changes nothing", async () => {
@@ -200,9 +204,9 @@ describe("office dates move the deal", () => {
     expect(await stageOf(dealId)).toBe("permitting");
   });
 
-  it("never drags a deal backwards: a survey date on a deal already in Permitting moves nothing", async () => {
+  it("never drags a deal backwards: a survey done on a deal already in Permitting moves nothing", async () => {
     const { dealId, jobId } = await newJob(owner, "permitting", "Evergreen household");
-    const r = await s.jobs.updateJob(office, jobId, { surveyDate: "2026-03-01" });
+    const r = await s.jobs.updateJob(office, jobId, { surveyDoneOn: "2026-03-01" });
     expect(r.moved).toEqual([]);
     expect(await stageOf(dealId)).toBe("permitting");
   });
@@ -296,7 +300,7 @@ describe("checklist and installed", () => {
 
   it("marking installed twice records one event", async () => {
     const { dealId, jobId } = await newJob(owner, "install_booked", "Nettle household");
-    await s.jobs.updateJob(office, jobId, { crewId: crewA });
+    await s.jobs.updateJob(office, jobId, { crewId: crewA, installDate: "2026-11-30" });
     const first = await s.jobs.markJobInstalled(installerA, jobId);
     const second = await s.jobs.markJobInstalled(installerA, jobId);
     expect(second.installedAt?.getTime()).toBe(first.installedAt?.getTime());
@@ -427,16 +431,16 @@ describe("the customer's project page", () => {
     expect(progress.stage).toBe("deposit_paid");
     expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Site survey", date: null });
 
-    await s.jobs.updateJob(office, jobId, { surveyDate: "2031-07-03", notes: "Internal: customer haggled hard", permitNumber: "SECRET-1" });
+    await s.jobs.updateJob(office, jobId, { surveyDate: "2031-07-03", notes: "Internal: customer haggled hard", permitNumber: "SECRET-1" }, now);
     progress = (await s.jobs.getProjectProgress(owner.companyId, dealId, now))!;
-    expect(progress.stage).toBe("survey");
+    expect(progress.stage).toBe("deposit_paid"); // a planned survey is a plan
     expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Site survey", date: "2031-07-03" });
     expect(JSON.stringify(progress)).not.toMatch(/haggled|SECRET|Opal/);
 
-    await s.jobs.updateJob(office, jobId, { permitSubmittedOn: "2031-07-05", installDate: "2031-07-20" });
+    await s.jobs.updateJob(office, jobId, { surveyDoneOn: "2031-07-03", permitSubmittedOn: "2031-07-05", installDate: "2031-07-20" }, new Date("2031-07-10T15:00:00Z"));
     progress = (await s.jobs.getProjectProgress(owner.companyId, dealId, new Date("2031-07-10T15:00:00Z")))!;
     expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Installation (planned)", date: "2031-07-20" });
-    await s.jobs.updateJob(office, jobId, { permitApprovedOn: "2031-07-12" });
+    await s.jobs.updateJob(office, jobId, { permitApprovedOn: "2031-07-12" }, new Date("2031-07-13T15:00:00Z"));
     progress = (await s.jobs.getProjectProgress(owner.companyId, dealId, new Date("2031-07-13T15:00:00Z")))!;
     expect(progress.stage).toBe("install_booked");
     expect(nextStep(progress, "Jobs Test Solar")).toMatchObject({ title: "Installation", date: "2031-07-20" });

@@ -1,17 +1,31 @@
 "use client";
-import { useState } from "react";
+import { type ReactNode, useState } from "react";
 import { CameraInput } from "@/components/camera-input";
 import { ConfirmButton } from "@/components/ui/dialog";
 import { EmptyState } from "@/components/ui/empty-state";
-import { StatusMessage, type Notice } from "@/components/ui/field";
+import { Field, StatusMessage, type Notice } from "@/components/ui/field";
+import { longDate } from "../dates";
 import { useSave } from "@/components/ui/use-save";
 import type { JobChecklistItem } from "@/lib/schemas/jobs";
 
 type PhotoThumb = { id: string; caption: string | null; widthPx: number; heightPx: number; uploadedByName: string | null };
 
 
+type CrewWorkProps = {
+  jobId: string;
+  canWork: boolean;
+  checklist: JobChecklistItem[];
+  photos: PhotoThumb[];
+  installedAt: string | null;
+  installDate: string | null;
+  office: boolean;
+  /** The company's today: before the install date, marking it installed is the office's. */
+  today: string;
+  timeZone: string;
+};
+
 /** The crew's work on a job: the install checklist, photos from the phone's camera, and "installed". */
-export function CrewWork(props: { jobId: string; canWork: boolean; checklist: JobChecklistItem[]; photos: PhotoThumb[]; installedAt: string | null; timeZone: string }) {
+export function CrewWork(props: CrewWorkProps) {
   const [items, setItems] = useState(props.checklist);
   // The company's zone, not the runtime's: the server render and the browser then print the same time.
   const timeFmt = new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", hour: "numeric", minute: "2-digit", timeZone: props.timeZone, timeZoneName: "short" });
@@ -70,7 +84,15 @@ export function CrewWork(props: { jobId: string; canWork: boolean; checklist: Jo
 
       <PhotosSection jobId={props.jobId} canWork={props.canWork} initial={props.photos} notify={setNotice} />
 
-      <InstallSection jobId={props.jobId} canWork={props.canWork} initial={props.installedAt} openItems={open} notify={setNotice} timeFmt={timeFmt} />
+      <InstallSection
+        jobId={props.jobId}
+        canWork={props.canWork}
+        initial={props.installedAt}
+        early={!props.installDate || props.installDate > props.today ? { installDate: props.installDate, office: props.office } : null}
+        openItems={open}
+        notify={setNotice}
+        timeFmt={timeFmt}
+      />
     </>
   );
 }
@@ -128,15 +150,59 @@ function PhotosSection({ jobId, canWork, initial, notify }: { jobId: string; can
   );
 }
 
-/** When the job was installed, or the crew's button to say it is. */
-function InstallSection({ jobId, canWork, initial, openItems: open, notify, timeFmt }: { jobId: string; canWork: boolean; initial: string | null; openItems: number; notify: (notice: Notice | null) => void; timeFmt: Intl.DateTimeFormat }) {
+type InstallProps = {
+  jobId: string;
+  canWork: boolean;
+  initial: string | null;
+  /** Set when today is before the install date (or none is booked): only the office may mark it, with a reason. */
+  early: { installDate: string | null; office: boolean } | null;
+  openItems: number;
+  notify: (notice: Notice | null) => void;
+  timeFmt: Intl.DateTimeFormat;
+};
+
+/** When the job was installed, or the crew's button to say it is (before the install date: the office's, with a reason). */
+function InstallSection({ jobId, canWork, initial, early, openItems: open, notify, timeFmt }: InstallProps) {
   const [installedAt, setInstalledAt] = useState(initial);
-  const install = useSave<void, { installedAt: string | null }>({
-    request: () => ({ url: `/api/jobs/${jobId}/installed`, method: "POST" }),
+  const [reason, setReason] = useState("");
+  const install = useSave<{ earlyReason?: string }, { installedAt: string | null }>({
+    request: (json) => ({ url: `/api/jobs/${jobId}/installed`, method: "POST", json }),
     notify,
     success: "Marked installed. The office has been updated.",
     onSaved: (job) => setInstalledAt(job.installedAt),
   });
+  const booked = early?.installDate ? `its install date, ${longDate(early.installDate)}` : "an install date is booked";
+  let action: ReactNode = <p className="mt-1 text-graphite-soft">Not installed yet.</p>;
+  if (canWork && early && !early.office) {
+    action = <p className="mt-1 text-graphite-soft" data-testid="install-early-note">The job can be marked installed from {booked}. Installing earlier needs the office&apos;s confirmation.</p>;
+  } else if (canWork && early) {
+    action = (
+      <div className="mt-2 space-y-2">
+        <Field id="install-early-reason" label={`Why was it installed before ${booked}?`} hint="Written on the deal's Timeline." value={reason} onChange={(e) => setReason(e.target.value)} />
+        <ConfirmButton
+          label="Confirm early install"
+          title="Confirm the early install?"
+          message={`${open > 0 ? `${open} checklist item${open === 1 ? " is" : "s are"} still open. ` : ""}The deal moves to Installed.`}
+          confirmLabel="Yes, installed"
+          className="btn-primary w-full"
+          disabled={install.pending}
+          onConfirm={() => install.save({ earlyReason: reason })}
+        />
+      </div>
+    );
+  } else if (canWork) {
+    action = (
+      <ConfirmButton
+        label="Mark installed"
+        title="Mark this job installed?"
+        message={`${open > 0 ? `${open} checklist item${open === 1 ? " is" : "s are"} still open. ` : ""}The office sees it at once.`}
+        confirmLabel="Yes, installed"
+        className="btn-primary mt-2 w-full"
+        disabled={install.pending}
+        onConfirm={() => install.save({})}
+      />
+    );
+  }
   return (
     <section className="card p-4" aria-labelledby="installed-heading">
       <h2 id="installed-heading" className="text-lg font-semibold">
@@ -146,18 +212,8 @@ function InstallSection({ jobId, canWork, initial, openItems: open, notify, time
         <p className="mt-1 text-sage" data-testid="installed-status">
           Installed {timeFmt.format(new Date(installedAt))}.
         </p>
-      ) : canWork ? (
-        <ConfirmButton
-          label="Mark installed"
-          title="Mark this job installed?"
-          message={`${open > 0 ? `${open} checklist item${open === 1 ? " is" : "s are"} still open. ` : ""}The office sees it at once.`}
-          confirmLabel="Yes, installed"
-          className="btn-primary mt-2 w-full"
-          disabled={install.pending}
-          onConfirm={() => install.save()}
-        />
       ) : (
-        <p className="mt-1 text-graphite-soft">Not installed yet.</p>
+        action
       )}
     </section>
   );

@@ -5,10 +5,30 @@ import { describedBy, Field, FieldShell, SelectField, StatusMessage } from "@/co
 import { useSave } from "@/components/ui/use-save";
 import type { Stage } from "@/lib/enums";
 import { STAGE_LABELS } from "@/lib/stages";
+import { longDate } from "../dates";
 import { jobFieldsSchema, type JobFields, type JobFieldsInput, type JobFormValues } from "@/lib/schemas/jobs";
 
-/** The office's schedule and records of a job. Each saved date may move the deal by itself. */
-export function JobForm({ jobId, defaults, crews }: { jobId: string; defaults: JobFormValues; crews: { id: string; name: string }[] }) {
+/** The install date's help: the buyer's window first, then what the date does to the deal. */
+function installHint(firstInstallDay: string | null, waitsForPermit: boolean): string {
+  const window = firstInstallDay ? `The buyer's right to cancel ends first: the earliest install day is ${longDate(firstInstallDay)}. ` : "";
+  return window + (waitsForPermit ? "Kept; the deal moves to Install booked once the permit is approved." : "With an approved permit, moves the deal to Install booked.");
+}
+
+type JobFormProps = {
+  jobId: string;
+  defaults: JobFormValues;
+  crews: { id: string; name: string }[];
+  /** A cancelled job: shown, never changed. */
+  readOnly: boolean;
+  /** The day after the buyer's right to cancel ends (null: the sale has no window). */
+  firstInstallDay: string | null;
+};
+
+/**
+ * The office's schedule and records of a job. Planned dates (survey, install, inspection) never
+ * move the deal; records of what happened (done, submitted, approved, passed, PTO) do.
+ */
+export function JobForm({ jobId, defaults, crews, readOnly, firstInstallDay }: JobFormProps) {
   const {
     register,
     handleSubmit,
@@ -35,28 +55,28 @@ export function JobForm({ jobId, defaults, crews }: { jobId: string; defaults: J
   );
 
   return (
-    <form onSubmit={handleSubmit(save)} noValidate className="card space-y-5 p-5" aria-label="Schedule and records">
-      <StatusMessage notice={notice} />
-      <div className="grid gap-4 md:grid-cols-3">
-        <SelectField
-          id="job-crewId"
-          label="Crew"
-          options={[{ value: "", label: "No crew yet" }, ...crews.map((c) => ({ value: c.id, label: c.name }))]}
-          error={errors.crewId?.message}
-          {...register("crewId")}
-        />
-        {date("surveyDate", "Site survey", "Setting it moves a deal from Deposit paid to Survey.")}
-        {date(
-          "installDate",
-          "Install",
-          installDate && !permitApprovedOn ? "Kept; the deal moves to Install booked once the permit is approved." : "With an approved permit, moves the deal to Install booked.",
-        )}
-      </div>
-      <fieldset className="grid gap-4 md:grid-cols-3">
-        <legend className="mb-2 text-sm font-semibold">Permit (AHJ)</legend>
-        <Field id="job-permitNumber" label="Permit number" autoComplete="off" error={errors.permitNumber?.message} {...register("permitNumber")} />
-        {date("permitSubmittedOn", "Submitted", "Moves the deal to Permitting.")}
-        {date("permitApprovedOn", "Approved")}
+    <form onSubmit={handleSubmit(save)} noValidate className="card p-5" aria-label="Schedule and records">
+      <fieldset disabled={readOnly} className="space-y-5">
+        <StatusMessage notice={notice} />
+        <div className="grid gap-4 md:grid-cols-3">
+          <SelectField
+            id="job-crewId"
+            label="Crew"
+            options={[{ value: "", label: "No crew yet" }, ...crews.map((c) => ({ value: c.id, label: c.name }))]}
+            error={errors.crewId?.message}
+            {...register("crewId")}
+          />
+          {date("surveyDate", "Site survey (planned)", "A plan: it does not move the deal.")}
+          {date("surveyDoneOn", "Survey done on", "Moves the deal from Deposit paid to Survey.")}
+        </div>
+        <div className="grid gap-4 md:grid-cols-3">
+          {date("installDate", "Install", installHint(firstInstallDay, !!installDate && !permitApprovedOn))}
+        </div>
+        <fieldset className="grid gap-4 md:grid-cols-3">
+          <legend className="mb-2 text-sm font-semibold">Permit (AHJ)</legend>
+          <Field id="job-permitNumber" label="Permit number" autoComplete="off" error={errors.permitNumber?.message} {...register("permitNumber")} />
+          {date("permitSubmittedOn", "Submitted", "Moves the deal to Permitting.")}
+          {date("permitApprovedOn", "Approved")}
       </fieldset>
       <fieldset className="grid gap-4 md:grid-cols-3">
         <legend className="mb-2 text-sm font-semibold">Utility interconnection</legend>
@@ -65,15 +85,19 @@ export function JobForm({ jobId, defaults, crews }: { jobId: string; defaults: J
         {date("interconnectionApprovedOn", "Approved")}
       </fieldset>
       <div className="grid gap-4 md:grid-cols-3">
-        {date("inspectionOn", "Inspection", "After the install, moves the deal to Inspected.")}
-        {date("ptoOn", "Permission to operate (PTO)", "After the inspection, moves the deal to Live.")}
+        {date("inspectionOn", "Inspection (planned)", "A plan: it does not move the deal.")}
+        {date("inspectionPassedOn", "Inspection passed on", "After the install, moves the deal to Inspected.")}
+        {date("ptoOn", "Permission to operate (PTO) received", "After the inspection passed, moves the deal to Live.")}
       </div>
       <FieldShell id="job-notes" label="Notes for the crew" error={errors.notes?.message}>
         <textarea id="job-notes" rows={4} className="field-input py-2" aria-invalid={errors.notes ? true : undefined} aria-describedby={describedBy("job-notes", errors.notes?.message)} {...register("notes")} />
       </FieldShell>
-      <button type="submit" className="btn-primary" disabled={pending || !isDirty}>
-        {pending ? "Saving…" : "Save job"}
-      </button>
+      {readOnly ? null : (
+        <button type="submit" className="btn-primary" disabled={pending || !isDirty}>
+          {pending ? "Saving…" : "Save job"}
+        </button>
+      )}
+      </fieldset>
     </form>
   );
 }

@@ -16,7 +16,7 @@ function compass(azimuthDeg: number): string {
  * string plan with its checks and cautions, notes, site photos, then the crew's work
  * (checklist, photos, installed).
  */
-export function PacketView({ packet, canWork, timeZone }: { packet: JobPacket; canWork: boolean; timeZone: string }) {
+export function PacketView({ packet, canWork, office, today, timeZone }: { packet: JobPacket; canWork: boolean; office: boolean; today: string; timeZone: string }) {
   const { job } = packet;
   return (
     <div className="space-y-4" data-testid="job-packet">
@@ -47,6 +47,9 @@ export function PacketView({ packet, canWork, timeZone }: { packet: JobPacket; c
         checklist={job.checklist}
         photos={packet.photos.map((p) => ({ id: p.id, caption: p.caption, widthPx: p.widthPx, heightPx: p.heightPx, uploadedByName: p.uploadedByName }))}
         installedAt={job.installedAt ? job.installedAt.toISOString() : null}
+        installDate={job.installDate}
+        office={office}
+        today={today}
         timeZone={timeZone}
       />
 

@@ -3,10 +3,12 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
+import { todayInZone } from "@/lib/zoned-time";
 import { getCompanySettings } from "@/server/company-settings";
 import { listCrewOptions } from "@/server/crews";
 import { HttpError } from "@/server/errors";
-import { getJobPacket, type JobPacket } from "@/server/jobs";
+import { cancelWindowEndOf, firstInstallDay, getJobPacket, type JobPacket } from "@/server/jobs";
+import { FormMessage } from "@/components/ui/field";
 import { idSchema } from "@/server/route";
 import { getMember } from "@/server/session";
 import { AddChecklistButton } from "./add-checklist-button";
@@ -29,19 +31,33 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   const canWork = can(member.role, "jobs:work");
   // Times the crew records are shown on the company's clock, the same on the server and in the browser.
   const { timeZone } = await getCompanySettings(member.companyId);
+  const today = todayInZone(timeZone);
 
-  const header = <JobHeader packet={packet} />;
+  const header = (
+    <>
+      <JobHeader packet={packet} />
+      {job.cancelledAt ? (
+        <div data-testid="job-cancelled">
+          <FormMessage tone="error">
+            Job cancelled: {job.cancelReason ?? "its deal was cancelled"}. It is read only and has left the crew&apos;s calendar, Today and the Jobs list.
+          </FormMessage>
+        </div>
+      ) : null}
+    </>
+  );
+  const open = !job.cancelledAt;
 
   if (!office) {
     return (
       <div className="mx-auto max-w-xl space-y-4">
         {header}
-        <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
+        <PacketView packet={packet} canWork={canWork && open} office={office} today={today} timeZone={timeZone} />
       </div>
     );
   }
 
   const crews = await listCrewOptions(member.companyId);
+  const windowEnd = await cancelWindowEndOf(member.companyId, job);
   return (
     <div className="space-y-6">
       {header}
@@ -51,13 +67,13 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
         </Link>{" "}
         · its Timeline shows every change below.
       </p>
-      <JobForm jobId={job.id} crews={crews} defaults={jobFormDefaults(job)} />
-      {job.checklist.length === 0 ? <AddChecklistButton jobId={job.id} /> : null}
+      <JobForm jobId={job.id} crews={crews} defaults={jobFormDefaults(job)} readOnly={!open} firstInstallDay={firstInstallDay(windowEnd)} />
+      {open && job.checklist.length === 0 ? <AddChecklistButton jobId={job.id} /> : null}
       <div>
         <h2 className="text-xl font-semibold">Job packet</h2>
         <p className="text-sm text-graphite-soft">What the crew sees on their phone.</p>
         <div className="mt-3 max-w-2xl">
-          <PacketView packet={packet} canWork={canWork} timeZone={timeZone} />
+          <PacketView packet={packet} canWork={canWork && open} office={office} today={today} timeZone={timeZone} />
         </div>
       </div>
     </div>
@@ -78,7 +94,7 @@ function JobHeader({ packet }: { packet: JobPacket }) {
         </p>
       </div>
       <p className="rounded-full bg-copper-light px-3 py-1 text-sm font-medium text-copper-dark" data-testid="job-stage">
-        {job.installedAt && job.stage === "install_booked" ? "Installed" : STAGE_LABELS[job.stage]}
+        {job.cancelledAt ? "Cancelled" : job.installedAt && job.stage === "install_booked" ? "Installed" : STAGE_LABELS[job.stage]}
       </p>
     </header>
   );
@@ -90,6 +106,7 @@ function jobFormDefaults(job: JobPacket["job"]) {
   return {
     crewId: v(job.crewId),
     surveyDate: v(job.surveyDate),
+    surveyDoneOn: v(job.surveyDoneOn),
     installDate: v(job.installDate),
     permitNumber: v(job.permitNumber),
     permitSubmittedOn: v(job.permitSubmittedOn),
@@ -98,6 +115,7 @@ function jobFormDefaults(job: JobPacket["job"]) {
     interconnectionSubmittedOn: v(job.interconnectionSubmittedOn),
     interconnectionApprovedOn: v(job.interconnectionApprovedOn),
     inspectionOn: v(job.inspectionOn),
+    inspectionPassedOn: v(job.inspectionPassedOn),
     ptoOn: v(job.ptoOn),
     notes: v(job.notes),
   };
