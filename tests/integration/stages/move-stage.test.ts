@@ -25,13 +25,13 @@ let stranger: Member;
  */
 /** Waits until an UPDATE of this deal's row (found by its id in the statement) waits on the row lock. */
 async function waitForBlockedDealUpdate(dealId: string): Promise<void> {
-  for (const start = Date.now(); Date.now() - start < 10_000; await new Promise((r) => setTimeout(r, 20))) {
+  for (const start = Date.now(); Date.now() - start < 20_000; await new Promise((r) => setTimeout(r, 20))) {
     const [rows] = await s.db
       .pool()
       .query("SELECT COUNT(*) AS n FROM information_schema.PROCESSLIST WHERE INFO LIKE 'update `deal`%' AND INFO LIKE ? AND ID <> CONNECTION_ID()", [`%${dealId}%`]);
     if (Number((rows as { n: number }[])[0].n) > 0) return;
   }
-  throw new Error("the move's UPDATE did not come to wait on the row lock within 10 s");
+  throw new Error("the move's UPDATE did not come to wait on the row lock within 20 s");
 }
 
 async function newDeal(by: Member, stage: Stage, name = "Testwood household"): Promise<string> {
