@@ -3,14 +3,17 @@
  * as scripts/make-bill-corpus.ts writes them): each current-bill field, each history month, and
  * whether a wrong amount was ever given without the rep being shown the right one.
  *
- *   npx tsx scripts/bill-accuracy.ts [DIR]     (default: tests/fixtures/bills/held-out)
+ *   npx tsx scripts/bill-accuracy.ts [DIR]     (default: tests/fixtures/bills, the corpus)
+ *
+ * Run it on bills written after the reader changed, before changing it again, to measure it
+ * on layouts it was not tuned on (docs/read-bill.md keeps those first runs).
  */
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { billJson, readBill, type BillJson } from "../src/lib/bill-reader";
 import { pdfPages } from "../src/lib/bill-reader/pdf-pages";
 
-const dir = path.resolve(process.argv[2] ?? "tests/fixtures/bills/held-out");
+const dir = path.resolve(process.argv[2] ?? "tests/fixtures/bills");
 const fields = ["start", "end", "kwh", "amountDueCents"] as const;
 let [right, total, monthsRight, monthsTotal, historiesRight, silentWrongAmounts] = [0, 0, 0, 0, 0, 0];
 const names = readdirSync(dir).filter((f) => f.endsWith(".pdf"));

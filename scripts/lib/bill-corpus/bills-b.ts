@@ -9,7 +9,17 @@ const northbrook = (() => {
   const months = monthsEnding("2025-10", 13);
   const kwh = seasonalKwh(months, 1250, 77);
   kwh[12] = 1380;
-  const expected = { current: { start: "2025-09-03", end: "2025-10-02", kwh: 1380, amountDueCents: 18840 }, history: history(months, kwh), source: "text" as const, warnings: [] };
+  const expected = {
+    current: {
+      start: "2025-09-03",
+      end: "2025-10-02",
+      kwh: 1380,
+      amountDueCents: 18840,
+    },
+    history: history(months, kwh),
+    source: "text" as const,
+    warnings: [],
+  };
   return {
     name: "northbrook-iso-chart",
     expected,
@@ -27,7 +37,14 @@ const northbrook = (() => {
       p.right(560, 700, "$188.40", 12, true);
       p.text(330, 684, "Late payment charge if paid after Oct 23: $5.00", 8);
       p.text(40, 620, "Your electricity use (kWh)", 10, true);
-      bars(p, 70, 450, months.map((m) => `${mon(m)} '${yy(m)}`), kwh, { barW: 28, gap: 8, height: 130, ticks: [0, 1000, 2000] });
+      bars(
+        p,
+        70,
+        450,
+        months.map((m) => `${mon(m)} '${yy(m)}`),
+        kwh,
+        { barW: 28, gap: 8, height: 130, ticks: [0, 1000, 2000] },
+      );
       return doc.save();
     },
   };
@@ -36,7 +53,17 @@ const northbrook = (() => {
 // 8. A time-of-use meter table with a total row, taxes and a facilities charge; no history printed.
 const fernwick: CorpusBill = {
   name: "fernwick-tou-table",
-  expected: { current: { start: "2025-11-04", end: "2025-12-03", kwh: 969, amountDueCents: 13115 }, history: [], source: "text", warnings: [] },
+  expected: {
+    current: {
+      start: "2025-11-04",
+      end: "2025-12-03",
+      kwh: 969,
+      amountDueCents: 13115,
+    },
+    history: [],
+    source: "text",
+    warnings: [],
+  },
   make: async () => {
     const { doc, page } = await newDoc();
     const p = page();
@@ -54,7 +81,13 @@ const fernwick: CorpusBill = {
         ["Total", "", "", "", "969"],
       ],
     );
-    const rows: [string, string][] = [["Facilities charge", "$18.00"], ["On-peak 198 kWh at $0.2450", "$48.51"], ["Mid-peak 240 kWh at $0.1400", "$33.60"], ["Off-peak 531 kWh at $0.0470", "$24.96"], ["Sales tax", "$6.08"]];
+    const rows: [string, string][] = [
+      ["Facilities charge", "$18.00"],
+      ["On-peak 198 kWh at $0.2450", "$48.51"],
+      ["Mid-peak 240 kWh at $0.1400", "$33.60"],
+      ["Off-peak 531 kWh at $0.0470", "$24.96"],
+      ["Sales tax", "$6.08"],
+    ];
     rows.forEach(([l, v], i) => (p.text(40, 580 - i * 14, l), p.right(330, 580 - i * 14, v)));
     p.text(40, 500, "Total due", 12, true);
     p.right(330, 500, "$131.15", 12, true);
@@ -69,7 +102,17 @@ const harrowgate = (() => {
   kwh[11] = 1455;
   const days = months.map((_, i) => 29 + ((i * 3) % 4));
   days[11] = 34;
-  const expected = { current: { start: "2025-12-02", end: "2026-01-05", kwh: 1455, amountDueCents: 20110 }, history: history(months, kwh), source: "text" as const, warnings: [] };
+  const expected = {
+    current: {
+      start: "2025-12-02",
+      end: "2026-01-05",
+      kwh: 1455,
+      amountDueCents: 20110,
+    },
+    history: history(months, kwh),
+    source: "text" as const,
+    warnings: [],
+  };
   return {
     name: "harrowgate-new-year",
     expected,
@@ -79,12 +122,25 @@ const harrowgate = (() => {
       p.text(40, 750, "Harrowgate Electric Membership Corp.", 14, true);
       p.text(40, 716, "Service period 12/02/2025 - 01/05/2026 (34 days)", 10);
       table(p, 690, [40, -170, -250, -330], ["Meter", "Start", "End", "kWh Used"], [["HG-1180", "61,040", "62,495", "1,455"]]);
-      const rows: [string, string][] = [["Previous balance", "$187.66"], ["Payment 12/10 - thank you", "-$187.66"], ["Customer charge", "$22.00"], ["Energy 1,455 kWh", "$171.92"], ["Sales tax", "$7.18"]];
+      const rows: [string, string][] = [
+        ["Previous balance", "$187.66"],
+        ["Payment 12/10 - thank you", "-$187.66"],
+        ["Customer charge", "$22.00"],
+        ["Energy 1,455 kWh", "$171.92"],
+        ["Sales tax", "$7.18"],
+      ];
       rows.forEach(([l, v], i) => (p.text(40, 630 - i * 14, l), p.right(330, 630 - i * 14, v)));
       p.text(40, 550, "Balance due", 12, true);
       p.right(330, 550, "$201.10", 12, true);
       p.text(380, 640, "Usage history", 10, true);
-      table(p, 622, [380, -450, -490, -550], ["Month", "kWh", "Days", "Avg Temp"], months.map((m, i) => [mon(m), fmt(kwh[i]), String(days[i]), `${40 + ((i * 7) % 35)}°`]), { size: 8, step: 12 });
+      table(
+        p,
+        622,
+        [380, -450, -490, -550],
+        ["Month", "kWh", "Days", "Avg Temp"],
+        months.map((m, i) => [mon(m), fmt(kwh[i]), String(days[i]), `${40 + ((i * 7) % 35)}°`]),
+        { size: 8, step: 12 },
+      );
       return doc.save();
     },
   };
@@ -95,7 +151,17 @@ const marrowstone = (() => {
   const months = monthsEnding("2025-09", 12);
   const kwh = seasonalKwh(months, 480, 1010);
   kwh[11] = 512;
-  const expected = { current: { start: "2025-08-30", end: "2025-09-29", kwh: 512, amountDueCents: 7643 }, history: history(months, kwh), source: "text" as const, warnings: [] };
+  const expected = {
+    current: {
+      start: "2025-08-30",
+      end: "2025-09-29",
+      kwh: 512,
+      amountDueCents: 7643,
+    },
+    history: history(months, kwh),
+    source: "text" as const,
+    warnings: [],
+  };
   return {
     name: "marrowstone-read-dates",
     expected,
@@ -116,7 +182,15 @@ const marrowstone = (() => {
       p.text(40, 556, "Pay this amount", 12, true);
       p.right(330, 556, "$76.43", 12, true);
       p.text(40, 500, "Last 12 months", 10, true);
-      across(p, 100, 484, 40, months.map((m) => `${Number(m.slice(5, 7))}/${m.slice(0, 4)}`), [["kWh", kwh.map(fmt)]], 7);
+      across(
+        p,
+        100,
+        484,
+        40,
+        months.map((m) => `${Number(m.slice(5, 7))}/${m.slice(0, 4)}`),
+        [["kWh", kwh.map(fmt)]],
+        7,
+      );
       return doc.save();
     },
   };
@@ -127,7 +201,17 @@ const pellucid = (() => {
   const months = monthsEnding("2025-12", 13);
   const kwh = seasonalKwh(months, 690, 1111);
   kwh[12] = 734;
-  const expected = { current: { start: "2025-11-03", end: "2025-12-02", kwh: 734, amountDueCents: 9712 }, history: history(months, kwh), source: "text" as const, warnings: [] };
+  const expected = {
+    current: {
+      start: "2025-11-03",
+      end: "2025-12-02",
+      kwh: 734,
+      amountDueCents: 9712,
+    },
+    history: history(months, kwh),
+    source: "text" as const,
+    warnings: [],
+  };
   return {
     name: "pellucid-budget",
     expected,
@@ -144,7 +228,14 @@ const pellucid = (() => {
       p.text(40, 640, "Account balance after this bill", 9);
       p.right(330, 640, "$0.00");
       p.text(40, 600, "Your history", 10, true);
-      table(p, 584, [40, -200, -280], ["Billing month", "Usage (kWh)", "Cost"], months.map((m, i) => [`${mon(m)} ${m.slice(0, 4)}`, fmt(kwh[i]), usd(Math.round(kwh[i] * 12.1 + 1500))]), { size: 8, step: 12 });
+      table(
+        p,
+        584,
+        [40, -200, -280],
+        ["Billing month", "Usage (kWh)", "Cost"],
+        months.map((m, i) => [`${mon(m)} ${m.slice(0, 4)}`, fmt(kwh[i]), usd(Math.round(kwh[i] * 12.1 + 1500))]),
+        { size: 8, step: 12 },
+      );
       return doc.save();
     },
   };
@@ -155,7 +246,17 @@ const gannet = (() => {
   const months = monthsEnding("2025-12", 12);
   const kwh = seasonalKwh(months, 1700, 1212);
   kwh[11] = 1842;
-  const expected = { current: { start: "2025-11-30", end: "2025-12-31", kwh: 1842, amountDueCents: 25604 }, history: history(months, kwh), source: "text" as const, warnings: [] };
+  const expected = {
+    current: {
+      start: "2025-11-30",
+      end: "2025-12-31",
+      kwh: 1842,
+      amountDueCents: 25604,
+    },
+    history: history(months, kwh),
+    source: "text" as const,
+    warnings: [],
+  };
   return {
     name: "gannet-ridge-page-two",
     expected,
@@ -175,7 +276,12 @@ const gannet = (() => {
       p2.text(40, 750, "Meter readings", 11, true);
       table(p2, 730, [40, 120, 200, -300, -380], ["Meter", "From", "To", "Days", "kWh used"], [["G-5512", "11/30/2025", "12/31/2025", "31", "1,842"]]);
       p2.text(40, 660, "Monthly kWh", 11, true);
-      bars(p2, 80, 480, months.map(mon), kwh, { barW: 24, gap: 12, height: 140, ticks: [0, 1000, 2000, 3000] });
+      bars(p2, 80, 480, months.map(mon), kwh, {
+        barW: 24,
+        gap: 12,
+        height: 140,
+        ticks: [0, 1000, 2000, 3000],
+      });
       return doc.save();
     },
   };

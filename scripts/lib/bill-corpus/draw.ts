@@ -19,18 +19,38 @@ export function pen(page: PDFPage, fonts: Fonts): Pen {
     page,
     fonts,
     text: (x, y, s, size = 9, bold) => page.drawText(s, { x, y, size, font: font(bold) }),
-    right: (x, y, s, size = 9, bold) => page.drawText(s, { x: x - font(bold).widthOfTextAtSize(s, size), y, size, font: font(bold) }),
-    box: (x, y, w, h, grey = 0.85) => page.drawRectangle({ x, y, width: w, height: h, color: rgb(grey, grey, grey) }),
+    right: (x, y, s, size = 9, bold) =>
+      page.drawText(s, {
+        x: x - font(bold).widthOfTextAtSize(s, size),
+        y,
+        size,
+        font: font(bold),
+      }),
+    box: (x, y, w, h, grey = 0.85) =>
+      page.drawRectangle({
+        x,
+        y,
+        width: w,
+        height: h,
+        color: rgb(grey, grey, grey),
+      }),
   };
 }
 
-export async function newDoc(): Promise<{ doc: PDFDocument; fonts: Fonts; page: () => Pen }> {
+export async function newDoc(): Promise<{
+  doc: PDFDocument;
+  fonts: Fonts;
+  page: () => Pen;
+}> {
   const doc = await PDFDocument.create();
   // Fixed dates: the same bill makes the same bytes.
   doc.setCreationDate(new Date("2026-01-01T00:00:00Z"));
   doc.setModificationDate(new Date("2026-01-01T00:00:00Z"));
   doc.setProducer("Kilowright bill corpus");
-  const fonts = { regular: await doc.embedFont(StandardFonts.Helvetica), bold: await doc.embedFont(StandardFonts.HelveticaBold) };
+  const fonts = {
+    regular: await doc.embedFont(StandardFonts.Helvetica),
+    bold: await doc.embedFont(StandardFonts.HelveticaBold),
+  };
   return { doc, fonts, page: () => pen(doc.addPage([612, 792]), fonts) };
 }
 
@@ -55,7 +75,20 @@ export function across(p: Pen, x0: number, y: number, colW: number, labels: stri
 }
 
 /** A bar chart: bars from a baseline, the value above each bar, the month under it, axis ticks on the left. */
-export function bars(p: Pen, x0: number, y0: number, labels: string[], values: number[], opts: { barW?: number; gap?: number; height?: number; ticks?: number[]; unit?: string } = {}) {
+export function bars(
+  p: Pen,
+  x0: number,
+  y0: number,
+  labels: string[],
+  values: number[],
+  opts: {
+    barW?: number;
+    gap?: number;
+    height?: number;
+    ticks?: number[];
+    unit?: string;
+  } = {},
+) {
   const barW = opts.barW ?? 22;
   const gap = opts.gap ?? 10;
   const height = opts.height ?? 110;
@@ -88,7 +121,7 @@ export function monthsEnding(last: string, n: number): string[] {
 /** A household's seasonal use: winter and summer peaks, a little noise from the seed. */
 export function seasonalKwh(months: string[], base: number, seed: number): number[] {
   let s = seed;
-  const rand = () => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648);
+  const rand = () => (s = (s * 1103515245 + 12345) % 2147483648) / 2147483648;
   return months.map((ym) => {
     const m = Number(ym.slice(5, 7)) - 1;
     const season = 1 + 0.35 * Math.cos(((m - 0.5) / 12) * 2 * Math.PI) ** 2 + 0.25 * Math.max(0, Math.cos(((m - 7) / 12) * 2 * Math.PI));

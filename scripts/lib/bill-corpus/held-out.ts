@@ -1,6 +1,6 @@
-// Bills written after the reader was finished, without running it on them first: they measure
-// the reader on layouts and wording it was not tuned on (scripts/bill-accuracy.ts). Invented
-// utilities, invented layouts, like the corpus.
+// The first held-out set: bills written after the reader was finished and measured before any
+// change (docs/read-bill.md has the numbers); their misses were then fixed and they joined the
+// corpus. Invented utilities, invented layouts, like the rest.
 import { across, bars, fmt, mon, monthsEnding, newDoc, seasonalKwh, table, usd } from "./draw";
 import type { CorpusBill } from "./types";
 
@@ -14,7 +14,17 @@ const ospreyvale = (() => {
   kwh[11] = 845;
   return {
     name: "ospreyvale-letters",
-    expected: { current: { start: "2025-11-01", end: "2025-12-01", kwh: 845, amountDueCents: 11840 }, history: history(months, kwh), source: "text" as const, warnings: [] },
+    expected: {
+      current: {
+        start: "2025-11-01",
+        end: "2025-12-01",
+        kwh: 845,
+        amountDueCents: 11840,
+      },
+      history: history(months, kwh),
+      source: "text" as const,
+      warnings: [],
+    },
     make: async () => {
       const { doc, page } = await newDoc();
       const p = page();
@@ -41,7 +51,17 @@ const kestrel = (() => {
   kwh[11] = 1190;
   return {
     name: "kestrel-read-dates-history",
-    expected: { current: { start: "2025-10-22", end: "2025-11-21", kwh: 1190, amountDueCents: 15230 }, history: history(months, kwh), source: "text" as const, warnings: [] },
+    expected: {
+      current: {
+        start: "2025-10-22",
+        end: "2025-11-21",
+        kwh: 1190,
+        amountDueCents: 15230,
+      },
+      history: history(months, kwh),
+      source: "text" as const,
+      warnings: [],
+    },
     make: async () => {
       const { doc, page } = await newDoc();
       const p = page();
@@ -51,7 +71,14 @@ const kestrel = (() => {
       p.text(40, 680, "Amount Due", 12, true);
       p.text(160, 680, "$152.30", 12, true);
       p.text(40, 664, "Capital credits allocated this year $41.12", 8);
-      table(p, 620, [40, -140, -200, -290], ["Read Date", "Days", "kWh", "Avg Daily kWh"], months.map((m, i) => [`${m.slice(5, 7)}/21/${m.slice(2, 4)}`, "30", fmt(kwh[i]), (kwh[i] / 30).toFixed(1)]), { size: 8, step: 12 });
+      table(
+        p,
+        620,
+        [40, -140, -200, -290],
+        ["Read Date", "Days", "kWh", "Avg Daily kWh"],
+        months.map((m, i) => [`${m.slice(5, 7)}/21/${m.slice(2, 4)}`, "30", fmt(kwh[i]), (kwh[i] / 30).toFixed(1)]),
+        { size: 8, step: 12 },
+      );
       return doc.save();
     },
   } satisfies CorpusBill;
@@ -64,7 +91,17 @@ const thornbury = (() => {
   kwh[12] = 1022;
   return {
     name: "thornbury-upon-receipt",
-    expected: { current: { start: "2025-10-05", end: "2025-11-04", kwh: 1022, amountDueCents: 15607 }, history: history(months, kwh), source: "text" as const, warnings: [] },
+    expected: {
+      current: {
+        start: "2025-10-05",
+        end: "2025-11-04",
+        kwh: 1022,
+        amountDueCents: 15607,
+      },
+      history: history(months, kwh),
+      source: "text" as const,
+      warnings: [],
+    },
     make: async () => {
       const { doc, page } = await newDoc();
       const p = page();
@@ -76,7 +113,14 @@ const thornbury = (() => {
       p.text(300, 700, "Total Amount Due Upon Receipt", 10, true);
       p.right(560, 700, "$156.07", 10, true);
       p.text(40, 640, "13 months of electricity", 10, true);
-      bars(p, 60, 470, months.map((m) => `${mon(m)} ${m.slice(2, 4)}`), kwh, { barW: 26, gap: 10, height: 120 });
+      bars(
+        p,
+        60,
+        470,
+        months.map((m) => `${mon(m)} ${m.slice(2, 4)}`),
+        kwh,
+        { barW: 26, gap: 10, height: 120 },
+      );
       return doc.save();
     },
   } satisfies CorpusBill;
@@ -89,13 +133,28 @@ const silverbeck = (() => {
   kwh[11] = 852;
   return {
     name: "silverbeck-peak",
-    expected: { current: { start: "2025-09-09", end: "2025-10-08", kwh: 852, amountDueCents: 10933 }, history: history(months, kwh), source: "text" as const, warnings: [] },
+    expected: {
+      current: {
+        start: "2025-09-09",
+        end: "2025-10-08",
+        kwh: 852,
+        amountDueCents: 10933,
+      },
+      history: history(months, kwh),
+      source: "text" as const,
+      warnings: [],
+    },
     make: async () => {
       const { doc, page } = await newDoc();
       const p = page();
       p.text(40, 750, "Silverbeck Energy", 16, true);
       p.text(40, 716, "Service Period: Sep 9, 2025 - Oct 8, 2025", 10);
-      const rows: [string, string][] = [["Peak 240 kWh", "$57.60"], ["Off Peak 612 kWh", "$42.84"], ["Total Usage 852 kWh", ""], ["Monthly charge", "$8.89"]];
+      const rows: [string, string][] = [
+        ["Peak 240 kWh", "$57.60"],
+        ["Off Peak 612 kWh", "$42.84"],
+        ["Total Usage 852 kWh", ""],
+        ["Monthly charge", "$8.89"],
+      ];
       rows.forEach(([l, v], i) => (p.text(40, 690 - i * 14, l, 9), v && p.right(300, 690 - i * 14, v, 9)));
       p.text(40, 620, "Amount of last bill", 9);
       p.right(300, 620, "$97.10", 9);
@@ -103,7 +162,14 @@ const silverbeck = (() => {
       p.right(300, 596, "$109.33", 11, true);
       const p2 = page();
       p2.text(40, 750, "Usage details", 12, true);
-      table(p2, 720, [40, -200], ["Month / Year", "Usage kWh"], months.map((m, i) => [`${m.slice(5, 7)}/${m.slice(0, 4)}`, fmt(kwh[i])]), { size: 9, step: 13 });
+      table(
+        p2,
+        720,
+        [40, -200],
+        ["Month / Year", "Usage kWh"],
+        months.map((m, i) => [`${m.slice(5, 7)}/${m.slice(0, 4)}`, fmt(kwh[i])]),
+        { size: 9, step: 13 },
+      );
       return doc.save();
     },
   } satisfies CorpusBill;
@@ -116,7 +182,17 @@ const wrenfield = (() => {
   kwh[12] = 1210;
   return {
     name: "wrenfield-estimated",
-    expected: { current: { start: "2025-08-15", end: "2025-09-14", kwh: 1210, amountDueCents: 17145 }, history: history(months, kwh), source: "text" as const, warnings: ["estimated"] },
+    expected: {
+      current: {
+        start: "2025-08-15",
+        end: "2025-09-14",
+        kwh: 1210,
+        amountDueCents: 17145,
+      },
+      history: history(months, kwh),
+      source: "text" as const,
+      warnings: ["estimated"],
+    },
     make: async () => {
       const { doc, page } = await newDoc();
       const p = page();
@@ -126,7 +202,15 @@ const wrenfield = (() => {
       p.text(40, 692, "kWh this month 1,210", 10);
       p.text(40, 660, "Amount due: $171.45     Due date: 10/05/25", 11, true);
       p.text(40, 644, "Your average monthly bill: $165.00", 9);
-      across(p, 90, 600, 36, months.map((m) => `${mon(m)} ${m.slice(2, 4)}`), [["kWh Used", kwh.map(fmt)]], 7);
+      across(
+        p,
+        90,
+        600,
+        36,
+        months.map((m) => `${mon(m)} ${m.slice(2, 4)}`),
+        [["kWh Used", kwh.map(fmt)]],
+        7,
+      );
       return doc.save();
     },
   } satisfies CorpusBill;
@@ -135,7 +219,17 @@ const wrenfield = (() => {
 // H6. Gas and electric on one bill: the electric period and kWh, the account's amount due.
 const brambleton: CorpusBill = {
   name: "brambleton-gas-electric",
-  expected: { current: { start: "2025-09-02", end: "2025-10-01", kwh: 640, amountDueCents: 19822 }, history: [], source: "text", warnings: [] },
+  expected: {
+    current: {
+      start: "2025-09-02",
+      end: "2025-10-01",
+      kwh: 640,
+      amountDueCents: 19822,
+    },
+    history: [],
+    source: "text",
+    warnings: [],
+  },
   make: async () => {
     const { doc, page } = await newDoc();
     const p = page();

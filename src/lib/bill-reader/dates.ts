@@ -1,4 +1,4 @@
-// Dates as bills print them: 10/28/2025, 10/28/25, 2025-10-28, Oct 28, 2025, October 28 2025,
+// Dates as bills print them: 10/28/2025, 10/28/25, 10-28-2025, 2025-10-28, Oct 28, 2025, October 28 2025,
 // 28 Oct 2025, 28-OCT-25. US order (month first) for numeric dates: these are US bills.
 
 export const MONTH_NAMES = ["jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec"];
@@ -17,6 +17,7 @@ const MON = String.raw`[A-Za-z]{3,9}\.?`;
 const DATE_FORMS = [
   String.raw`(?<n1>\d{1,2})/(?<n2>\d{1,2})/(?<n3>\d{4}|\d{2})(?!\d)`,
   String.raw`(?<i1>\d{4})-(?<i2>\d{2})-(?<i3>\d{2})`,
+  String.raw`(?<h1>\d{1,2})-(?<h2>\d{1,2})-(?<h3>\d{4})`,
   String.raw`(?<w1>${MON}) (?<w2>\d{1,2}),? (?<w3>\d{4})`,
   String.raw`(?<d1>\d{1,2})[ -](?<d2>${MON})[ -](?<d3>\d{4}|\d{2})(?!\d)`,
 ];
@@ -35,6 +36,7 @@ export function isoDate(y: number, m: number, d: number): string | null {
 export function dateFromGroups(g: Record<string, string | undefined>): string | null {
   if (g.n1) return isoDate(year(g.n3!), Number(g.n1), Number(g.n2));
   if (g.i1) return isoDate(Number(g.i1), Number(g.i2), Number(g.i3));
+  if (g.h1) return isoDate(Number(g.h3), Number(g.h1), Number(g.h2));
   if (g.w1) {
     const m = monthIndex(g.w1);
     return m < 0 ? null : isoDate(Number(g.w3), m + 1, Number(g.w2));

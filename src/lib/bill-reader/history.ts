@@ -7,7 +7,13 @@ import { NUMBER, toNumber, whereOf, type BillHistory, type Confidence, type Hist
 
 /** A month label: "Nov", "NOVEMBER", "Nov 2025", "Nov '25", "Nov-25", "11/2025", "2025-11". */
 type MonthLabel = { month: number; year: number | null };
-type Row = { label: MonthLabel | { start: string; end: string }; kwh: number; days: number | null; line: Line; cells: Cell[] };
+type Row = {
+  label: MonthLabel | { start: string; end: string };
+  kwh: number;
+  days: number | null;
+  line: Line;
+  cells: Cell[];
+};
 
 export function monthLabel(text: string): MonthLabel | null {
   const t = text.trim();
@@ -16,8 +22,14 @@ export function monthLabel(text: string): MonthLabel | null {
     const month = monthIndex(m[1]);
     if (month < 0) return null;
     const y = m[2]?.replace("'", "");
-    return { month, year: y ? (y.length === 2 ? 2000 + Number(y) : Number(y)) : null };
+    return {
+      month,
+      year: y ? (y.length === 2 ? 2000 + Number(y) : Number(y)) : null,
+    };
   }
+  // A read date labels its bill's month ("11/21/25" in a history keyed by read dates).
+  const dates = findDates(t);
+  if (dates.length === 1 && dates[0].index === 0 && dates[0].end === t.length) return { month: Number(dates[0].iso.slice(5, 7)) - 1, year: Number(dates[0].iso.slice(0, 4)) };
   m = t.match(/^(\d{1,2})\/(\d{4})$/);
   if (m) return Number(m[1]) >= 1 && Number(m[1]) <= 12 ? { month: Number(m[1]) - 1, year: Number(m[2]) } : null;
   m = t.match(/^(\d{4})-(\d{2})$/);
@@ -38,7 +50,8 @@ function headerKind(text: string): Kind {
   if (/days?\b/.test(t)) return "days";
   return "other";
 }
-const nearest = (cells: Cell[], x: number, half: number) => cells.reduce<Cell | null>((best, c) => (Math.abs(center(c) - x) < half && (!best || Math.abs(center(c) - x) < Math.abs(center(best) - x)) ? c : best), null);
+const nearest = (cells: Cell[], x: number, half: number) =>
+  cells.reduce<Cell | null>((best, c) => (Math.abs(center(c) - x) < half && (!best || Math.abs(center(c) - x) < Math.abs(center(best) - x)) ? c : best), null);
 
 // ── Rows: one month per line ────────────────────────────────────────────────────────────────
 
@@ -82,7 +95,14 @@ function headerAbove(lines: Line[], i: number): Line | null {
   return null;
 }
 
-type Block = { x: number; page: number; last: number; first: number; ats: number[]; lines: Line[] };
+type Block = {
+  x: number;
+  page: number;
+  last: number;
+  first: number;
+  ats: number[];
+  lines: Line[];
+};
 
 /** Runs of at least six month rows, each run in its own column (a table may sit beside other text). */
 function tableRows(lines: Line[]): { rows: Row[]; header: Line | null }[] {
@@ -92,31 +112,68 @@ function tableRows(lines: Line[]): { rows: Row[]; header: Line | null }[] {
       if (!rowOf(line, at, null)) return;
       const open = blocks.find((b) => b.page === line.page && i - b.last <= 2 && Math.abs(b.x - cell.x) < 8);
       if (open) [open.last, open.ats, open.lines] = [i, [...open.ats, at], [...open.lines, line]];
-      else blocks.push({ x: cell.x, page: line.page, last: i, first: i, ats: [at], lines: [line] });
+      else
+        blocks.push({
+          x: cell.x,
+          page: line.page,
+          last: i,
+          first: i,
+          ats: [at],
+          lines: [line],
+        });
     });
   });
   return blocks
     .filter((b) => b.lines.length >= 6)
     .map((b) => {
       const header = headerAbove(lines, b.first);
-      return { rows: b.lines.map((l, k) => rowOf(l, b.ats[k], header)).filter((r): r is Row => r !== null), header };
+      return {
+        rows: b.lines.map((l, k) => rowOf(l, b.ats[k], header)).filter((r): r is Row => r !== null),
+        header,
+      };
     });
 }
 
 // ── Months across: a row of month labels, with labelled rows below or chart labels above ──
 
-type Across = { months: MonthLabel[]; cells: Cell[]; kwh: (number | null)[]; days: (number | null)[]; lines: Line[]; chart: boolean };
+type Across = {
+  months: MonthLabel[];
+  cells: Cell[];
+  kwh: (number | null)[];
+  days: (number | null)[];
+  lines: Line[];
+  chart: boolean;
+};
 
-function monthCells(line: Line): Cell[] | null {
-  const cells = line.cells.filter((c) => monthLabel(c.text));
-  return cells.length >= 6 && cells.length >= line.cells.length - 1 ? cells : null;
+const INITIALS = "JFMAMJJASOND";
+
+/** Months printed as one letter each (J F M A …): the one place in the year where the letters fit, if only one does. */
+function initialLabels(cells: Cell[]): MonthLabel[] | null {
+  const letters = cells.map((c) => c.text.toUpperCase()).join("");
+  const fits = [...Array(12).keys()].filter((r) => [...letters].every((ch, i) => INITIALS[(r + i) % 12] === ch));
+  return letters.length >= 6 && fits.length === 1 ? cells.map((_, i) => ({ month: (fits[0] + i) % 12, year: null })) : null;
 }
 
-function acrossBlock(lines: Line[], i: number, cells: Cell[]): Across {
+function monthCells(line: Line): { cells: Cell[]; labels: MonthLabel[] } | null {
+  const cells = line.cells.filter((c) => monthLabel(c.text));
+  if (cells.length >= 6 && cells.length >= line.cells.length - 1) return { cells, labels: cells.map((c) => monthLabel(c.text)!) };
+  const letters = line.cells.filter((c) => /^[JFMASOND]$/i.test(c.text));
+  const labels = letters.length >= line.cells.length - 1 ? initialLabels(letters) : null;
+  return labels ? { cells: letters, labels } : null;
+}
+
+function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[]; labels: MonthLabel[] }): Across {
   const line = lines[i];
   const spacing = (center(cells.at(-1)!) - center(cells[0])) / (cells.length - 1);
   const half = spacing / 2;
-  const block: Across = { months: cells.map((c) => monthLabel(c.text)!), cells, kwh: cells.map(() => null), days: cells.map(() => null), lines: [line], chart: false };
+  const block: Across = {
+    months: labels,
+    cells,
+    kwh: cells.map(() => null),
+    days: cells.map(() => null),
+    lines: [line],
+    chart: false,
+  };
   const valuesOf = (l: Line) => cells.map((m) => number(nearest(l.cells, center(m), half) ?? undefined));
   for (let k = i + 1; k < Math.min(lines.length, i + 6) && lines[k].page === line.page && !monthCells(lines[k]); k++) {
     const labelCell = lines[k].cells.find((c) => center(c) < center(cells[0]) - half);
@@ -166,7 +223,11 @@ function withYears(labels: MonthLabel[], anchorMonth: string | null): string[] |
 }
 
 /** The history, and the cells it was read from (the other readers do not look at them). */
-export type HistoryRead = { history: BillHistory | null; cells: Set<Cell>; warnings: string[] };
+export type HistoryRead = {
+  history: BillHistory | null;
+  cells: Set<Cell>;
+  warnings: string[];
+};
 
 function finish(entries: HistoryMonth[], layout: BillHistory["layout"], confidence: Confidence, cells: Set<Cell>, warnings: string[]): HistoryRead {
   const byMonth = new Map<string, HistoryMonth>();
@@ -181,16 +242,34 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
   const noYear = "The usage history prints no years and the bill no period: the months' years are a guess.";
   for (const { rows: block, header } of tableRows(lines)) {
     const labels = block.map((r) => ("month" in r.label ? r.label : null));
-    const printed = labels.every((l) => l === null) ? null : withYears(labels.map((l) => l ?? { month: 0, year: 0 }), anchorMonth);
+    const printed = labels.every((l) => l === null)
+      ? null
+      : withYears(
+          labels.map((l) => l ?? { month: 0, year: 0 }),
+          anchorMonth,
+        );
     if (labels.some((l) => l !== null) && !printed) warnings.push(noYear);
     const entries = block.map((r, k): HistoryMonth | null => {
       const range = "start" in r.label ? r.label : null;
       const month = range ? periodMonth(range.start, range.end) : printed?.[k];
       if (!month) return null;
       const days = r.days ?? (range ? dayNumber(range.end) - dayNumber(range.start) : null);
-      return { month, kwh: r.kwh, days, start: range?.start ?? null, end: range?.end ?? null, where: whereOf(r.line) };
+      return {
+        month,
+        kwh: r.kwh,
+        days,
+        start: range?.start ?? null,
+        end: range?.end ?? null,
+        where: whereOf(r.line),
+      };
     });
-    return finish(entries.filter((e) => e !== null), "table", header ? "high" : "medium", new Set(block.flatMap((r) => r.cells)), warnings);
+    return finish(
+      entries.filter((e) => e !== null),
+      "table",
+      header ? "high" : "medium",
+      new Set(block.flatMap((r) => r.cells)),
+      warnings,
+    );
   }
   const blocks: Across[] = [];
   lines.forEach((l, i) => {
@@ -210,7 +289,15 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
       const month = years?.[k];
       k++;
       const kwh = b.kwh[j];
-      if (kwh !== null && month) entries.push({ month, kwh, days: b.days[j], start: null, end: null, where: whereOf(b.lines[0]) });
+      if (kwh !== null && month)
+        entries.push({
+          month,
+          kwh,
+          days: b.days[j],
+          start: null,
+          end: null,
+          where: whereOf(b.lines[0]),
+        });
     });
   }
   return finish(entries, use[0].chart ? "chart" : "months-across", use[0].chart ? "medium" : "high", new Set(use.flatMap((b) => b.lines.flatMap((l) => l.cells))), warnings);

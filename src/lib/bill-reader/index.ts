@@ -56,7 +56,12 @@ export function readBill(pages: readonly BillPage[]): BillReading {
 
 /** The reading as the command prints it (and as the corpus's expected files are written). */
 export type BillJson = {
-  current: { start: string | null; end: string | null; kwh: number | null; amountDueCents: number | null };
+  current: {
+    start: string | null;
+    end: string | null;
+    kwh: number | null;
+    amountDueCents: number | null;
+  };
   history: { month: string; kwh: number }[];
   source: "text" | "ocr";
   warnings: string[];
@@ -64,8 +69,16 @@ export type BillJson = {
 
 export function billJson(r: BillReading, source: "text" | "ocr"): BillJson {
   return {
-    current: { start: r.period?.start.value ?? null, end: r.period?.end.value ?? null, kwh: r.kwh?.value ?? null, amountDueCents: r.amountDue?.value ?? null },
-    history: (r.history?.months ?? []).map((m) => ({ month: m.month, kwh: m.kwh })),
+    current: {
+      start: r.period?.start.value ?? null,
+      end: r.period?.end.value ?? null,
+      kwh: r.kwh?.value ?? null,
+      amountDueCents: r.amountDue?.value ?? null,
+    },
+    history: (r.history?.months ?? []).map((m) => ({
+      month: m.month,
+      kwh: m.kwh,
+    })),
     source,
     warnings: r.warnings,
   };

@@ -2,7 +2,13 @@
 // lines and the lines into cells, so a table's columns and a chart's labels keep their place.
 
 /** One piece of text on a page; x, y in points from the bottom left (PDF user space), y the baseline. */
-export type TextItem = { str: string; x: number; y: number; w: number; h: number };
+export type TextItem = {
+  str: string;
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+};
 export type BillPage = { items: TextItem[] };
 
 /** A run of text with no wide gap inside: a table cell, a label, a value. */
@@ -25,10 +31,16 @@ const SAME_LINE = 0.45;
 /** A gap wider than this share of the text height starts a new cell (a word space is about 0.28). */
 const CELL_GAP = 0.9;
 
+/** A piece laid out with runs of spaces ("Previous: 10/03/2025    Present: 11/02/2025") is several cells. */
+function splitOnSpaces(it: TextItem): TextItem[] {
+  const perChar = it.str.length ? it.w / it.str.length : 0;
+  return [...it.str.matchAll(/\S+(?: \S+)*/g)].map((m) => ({ ...it, str: m[0], x: it.x + (m.index ?? 0) * perChar, w: m[0].length * perChar }));
+}
+
 function toCells(items: TextItem[]): Cell[] {
   const cells: Cell[] = [];
   let last: TextItem | null = null;
-  for (const it of [...items].sort((a, b) => a.x - b.x)) {
+  for (const it of items.flatMap(splitOnSpaces).sort((a, b) => a.x - b.x)) {
     const text = it.str.replace(/\s+/g, " ");
     const cell = cells.at(-1);
     const gap = last ? it.x - (last.x + last.w) : Infinity;
@@ -55,7 +67,14 @@ export function pageLines(page: BillPage, pageNumber: number): Line[] {
   }
   return groups.map((g, i) => {
     const cells = toCells(g);
-    return { page: pageNumber, line: i + 1, y: g[0].y, h: Math.max(...g.map((t) => t.h)), cells, text: cells.map((c) => c.text).join("  ") };
+    return {
+      page: pageNumber,
+      line: i + 1,
+      y: g[0].y,
+      h: Math.max(...g.map((t) => t.h)),
+      cells,
+      text: cells.map((c) => c.text).join("  "),
+    };
   });
 }
 
@@ -71,7 +90,13 @@ export function billLines(pages: readonly BillPage[]): Line[] {
 export function pagesFromText(text: string): BillPage[] {
   return text.split("\f").map((pageText) => ({
     items: pageText.split(/\r?\n/).flatMap((row, i) =>
-      [...row.matchAll(/\S+(?: \S+)*/g)].map((m) => ({ str: m[0], x: (m.index ?? 0) * 6, y: 10_000 - i * 14, w: m[0].length * 6, h: 10 })),
+      [...row.matchAll(/\S+(?: \S+)*/g)].map((m) => ({
+        str: m[0],
+        x: (m.index ?? 0) * 6,
+        y: 10_000 - i * 14,
+        w: m[0].length * 6,
+        h: 10,
+      })),
     ),
   }));
 }

@@ -17,7 +17,13 @@ export async function pdfPages(bytes: Uint8Array): Promise<BillPage[]> {
     for (const it of content.items) {
       if (!("str" in it) || it.str.trim() === "") continue;
       const [a, b, , d, x, y] = it.transform as number[];
-      items.push({ str: it.str, x, y, w: it.width, h: it.height || Math.hypot(a, b) || Math.abs(d) });
+      items.push({
+        str: it.str,
+        x,
+        y,
+        w: it.width,
+        h: it.height || Math.hypot(a, b) || Math.abs(d),
+      });
     }
     pages.push({ items });
   }
@@ -26,5 +32,11 @@ export async function pdfPages(bytes: Uint8Array): Promise<BillPage[]> {
 
 /** The pages' text, line by line (what is kept with the upload for search and review). */
 export function pagesText(pages: BillPage[]): string {
-  return pages.map((p, i) => pageLines(p, i + 1).map((l) => l.text).join("\n")).join("\n\f\n");
+  return pages
+    .map((p, i) =>
+      pageLines(p, i + 1)
+        .map((l) => l.text)
+        .join("\n"),
+    )
+    .join("\n\f\n");
 }

@@ -5,15 +5,22 @@ import { dayNumber, findDates, type FoundDate } from "./dates";
 import { center, type Line } from "./layout";
 import { whereOf, type BillReading, type Confidence } from "./types";
 
-type Candidate = { start: string; end: string; line: Line; score: number; days: number | null };
+type Candidate = {
+  start: string;
+  end: string;
+  line: Line;
+  score: number;
+  days: number | null;
+};
 
 const BETWEEN = /^\s*(?:-|–|—|to|through|thru|until|and)\s*$/i;
 const PERIOD_LABEL = /\b(billing|service|usage|meter|read(?:ing)?|bill)\s+(period|dates?|days|from|cycle)\b|\bservice\s+(from|dates?|period)\b|\bfor service\b|\bperiod\b/i;
+const OTHER_SERVICE = /\b(gas|water|sewer|trash|therms?|ccf|gallons?|gal)\b/i;
 const NOT_PERIOD = /\bdue\b|\bpay(ment)?\b|\bissued?\b|\bstatement date\b/i;
 const DAYS = /\(?\b(\d{1,3})\s*(?:billing\s+|service\s+)?days?\b\)?|\bdays(?:\s+(?:in|of)\s+(?:the\s+)?(?:billing\s+)?(?:period|cycle))?\s*:?\s*(\d{1,3})\b/i;
 // Read dates by their label, or a meter table's "From" / "To" columns.
-const PREVIOUS_READ = /\b(previous|prior|last|start|from)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bprevious\s+date\b|^(from|start|start\s+date|period\s+start|begin)$/i;
-const CURRENT_READ = /\b(current|present|this|end|latest|to)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bcurrent\s+date\b|^(to|end|end\s+date|period\s+end|through)$/i;
+const PREVIOUS_READ = /\b(previous|prior|last|start|from)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bprevious\s+date\b|^(from|start|start\s+date|period\s+start|begin)$|^(previous|prior|last)\s*:/i;
+const CURRENT_READ = /\b(current|present|this|end|latest|to)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bcurrent\s+date\b|^(to|end|end\s+date|period\s+end|through)$|^(present|current)\s*:/i;
 
 function printedDays(text: string): number | null {
   const m = text.match(DAYS);
@@ -38,6 +45,8 @@ function rangesOnLine(line: Line, prev: Line | undefined): Candidate[] {
     const days = printedDays(line.text.slice(b.end)) ?? printedDays(before);
     let score = labelled ? 3 : 1;
     if (NOT_PERIOD.test(before)) score -= 2;
+    // A bill for several services: the electric period, not the gas or water one.
+    if (OTHER_SERVICE.test(line.text) && !/electric/i.test(line.text)) score -= 2;
     if (daysFit(a.iso, b.iso, days)) score += 1;
     out.push({ start: a.iso, end: b.iso, line, score, days });
     i++;
@@ -76,7 +85,13 @@ function readDates(lines: Line[]): Candidate[] {
       const to = dateNear(lines, j, CURRENT_READ);
       if (!to || to.date.iso <= from.date.iso) continue;
       const days = printedDays(lines[i].text) ?? printedDays(to.line.text);
-      out.push({ start: from.date.iso, end: to.date.iso, line: to.line, score: 3 + (daysFit(from.date.iso, to.date.iso, days) ? 1 : 0), days });
+      out.push({
+        start: from.date.iso,
+        end: to.date.iso,
+        line: to.line,
+        score: 3 + (daysFit(from.date.iso, to.date.iso, days) ? 1 : 0),
+        days,
+      });
       break;
     }
   }
@@ -85,10 +100,7 @@ function readDates(lines: Line[]): Candidate[] {
 
 /** The current period: the best-labelled range, the newest one on a tie (from lines without the usage history). */
 export function readPeriod(lines: Line[]): BillReading["period"] {
-  const candidates = [
-    ...lines.flatMap((l, i) => rangesOnLine(l, lines[i - 1])),
-    ...readDates(lines),
-  ];
+  const candidates = [...lines.flatMap((l, i) => rangesOnLine(l, lines[i - 1])), ...readDates(lines)];
   if (!candidates.length) return null;
   candidates.sort((a, b) => b.score - a.score || (b.end > a.end ? 1 : b.end < a.end ? -1 : 0));
   const best = candidates[0];
@@ -96,5 +108,9 @@ export function readPeriod(lines: Line[]): BillReading["period"] {
   const confidence: Confidence = best.score >= 3 && !rivals.length ? "high" : best.score >= 2 ? "medium" : "low";
   const where = whereOf(best.line);
   const days = best.days ?? dayNumber(best.end) - dayNumber(best.start);
-  return { start: { value: best.start, where, confidence }, end: { value: best.end, where, confidence }, days };
+  return {
+    start: { value: best.start, where, confidence },
+    end: { value: best.end, where, confidence },
+    days,
+  };
 }

@@ -3,7 +3,12 @@
 /** high: a printed label says what the value is; medium: the layout suggests it; low: a guess. */
 export type Confidence = "high" | "medium" | "low";
 export type Where = { page: number; line: number; text: string };
-export type Found<T> = { value: T; where: Where; confidence: Confidence; label?: string };
+export type Found<T> = {
+  value: T;
+  where: Where;
+  confidence: Confidence;
+  label?: string;
+};
 
 export type HistoryMonth = {
   /** YYYY-MM as printed (the year worked out from the bill's dates when not printed). */
@@ -24,7 +29,11 @@ export type BillHistory = {
 };
 
 export type BillReading = {
-  period: { start: Found<string>; end: Found<string>; days: number | null } | null;
+  period: {
+    start: Found<string>;
+    end: Found<string>;
+    days: number | null;
+  } | null;
   kwh: Found<number> | null;
   /** The meter was not read this time: the utility estimated the period's kWh. */
   estimated: boolean;
