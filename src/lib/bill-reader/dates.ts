@@ -1,7 +1,7 @@
 // Dates as bills print them: 10/28/2025, 10/28/25, 10-28-2025, 2025-10-28, Oct 28, 2025, October 28 2025,
 // 28 Oct 2025, 28-OCT-25. US order (month first) for numeric dates: these are US bills.
 
-export const MONTH_NAMES = ["jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec"];
+const MONTH_NAMES = ["jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec"];
 
 /** A month name or its abbreviation ("Sept." too); -1 when it is not one. */
 export function monthIndex(word: string): number {
@@ -22,18 +22,18 @@ const DATE_FORMS = [
   String.raw`(?<d1>\d{1,2})[ -](?<d2>${MON})[ -](?<d3>\d{4}|\d{2})(?!\d)`,
 ];
 /** One date in any form; named groups tell which. */
-export const DATE_SOURCE = `(?:${DATE_FORMS.join("|")})`;
+const DATE_SOURCE = `(?:${DATE_FORMS.join("|")})`;
 
 const year = (s: string) => (s.length === 2 ? 2000 + Number(s) : Number(s));
 
-export function isoDate(y: number, m: number, d: number): string | null {
+function isoDate(y: number, m: number, d: number): string | null {
   const t = new Date(Date.UTC(y, m - 1, d));
   if (t.getUTCFullYear() !== y || t.getUTCMonth() !== m - 1 || t.getUTCDate() !== d || y < 2000 || y > 2100) return null;
   return t.toISOString().slice(0, 10);
 }
 
 /** The ISO date a match of DATE_SOURCE stands for, or null when it is no real date. */
-export function dateFromGroups(g: Record<string, string | undefined>): string | null {
+function dateFromGroups(g: Record<string, string | undefined>): string | null {
   if (g.n1) return isoDate(year(g.n3!), Number(g.n1), Number(g.n2));
   if (g.i1) return isoDate(Number(g.i1), Number(g.i2), Number(g.i3));
   if (g.h1) return isoDate(Number(g.h3), Number(g.h1), Number(g.h2));

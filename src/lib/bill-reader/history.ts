@@ -15,7 +15,7 @@ type Row = {
   cells: Cell[];
 };
 
-export function monthLabel(text: string): MonthLabel | null {
+function monthLabel(text: string): MonthLabel | null {
   const t = text.trim();
   let m = t.match(/^([A-Za-z]{3,9}\.?)(?:[\s'’-]*('?\d{4}|'?\d{2}))?$/);
   if (m) {

@@ -3,7 +3,7 @@
 import { pageLines, type BillPage } from "./layout";
 
 /** At most this many pages are read: bills are a few pages; a long document is not a bill (our choice). */
-export const MAX_BILL_PAGES = 12;
+const MAX_BILL_PAGES = 12;
 
 export async function pdfPages(bytes: Uint8Array): Promise<BillPage[]> {
   const { getDocumentProxy } = await import("unpdf");

@@ -5,6 +5,9 @@ import { billsFromReading, type ConfirmedMonth } from "./to-bills";
 const month = (m: string, kwh: number, days: number | null = null): ConfirmedMonth => ({ month: m, kwh, days, start: null, end: null });
 const thirteen = ["2024-11", "2024-12", "2025-01", "2025-02", "2025-03", "2025-04", "2025-05", "2025-06", "2025-07", "2025-08", "2025-09", "2025-10", "2025-11"];
 
+/** A bill of 10/28 to 11/25/2025 with 972 kWh and no amount. */
+const current972 = { start: "2025-10-28", end: "2025-11-25", kwh: 972, amountDueCents: null };
+
 describe("billsFromReading", () => {
   it("a 13-month history and the current bill: twelve rows, the history's periods chained back from the current start", () => {
     const rows = billsFromReading(
@@ -51,15 +54,7 @@ describe("billsFromReading", () => {
   });
 
   it("printed days set the estimated starts", () => {
-    const rows = billsFromReading(
-      {
-        start: "2025-10-28",
-        end: "2025-11-25",
-        kwh: 972,
-        amountDueCents: null,
-      },
-      [month("2025-09", 800, 30), month("2025-10", 850, 31), month("2025-11", 972, 28)],
-    );
+    const rows = billsFromReading(current972, [month("2025-09", 800, 30), month("2025-10", 850, 31), month("2025-11", 972, 28)]);
     expect(rows.map((r) => [r.periodStart, r.periodEnd])).toEqual([
       ["2025-08-28", "2025-09-27"],
       ["2025-09-27", "2025-10-28"],
@@ -68,15 +63,7 @@ describe("billsFromReading", () => {
   });
 
   it("a history labelled by the month before the read, with the current bill's kWh: that line is the current bill", () => {
-    const rows = billsFromReading(
-      {
-        start: "2025-10-28",
-        end: "2025-11-25",
-        kwh: 972,
-        amountDueCents: null,
-      },
-      [month("2025-09", 800), month("2025-10", 972)],
-    );
+    const rows = billsFromReading(current972, [month("2025-09", 800), month("2025-10", 972)]);
     expect(rows.map((r) => r.kwh)).toEqual([800, 972]);
   });
 

@@ -4,7 +4,7 @@
 // (a month long, or the printed days), or calendar months when the bill has no period.
 import { addDays, addMonths, dayNumber } from "./dates";
 
-export type ConfirmedCurrent = {
+type ConfirmedCurrent = {
   start: string;
   end: string;
   kwh: number;

@@ -1,6 +1,7 @@
 "use client";
 import { useState } from "react";
 import { Badge, type BadgeTone } from "@/components/ui/badge";
+import { FormMessage } from "@/components/ui/field";
 import { RadioGroup } from "@/components/ui/radio-group";
 import { TableShell, Td, Th } from "@/components/ui/table";
 import type { BillReading, Confidence, Found, Where } from "@/lib/bill-reader";
@@ -154,20 +155,20 @@ function HistoryRows({ draft: d, set, confidence }: { draft: Draft; set: SetDraf
 function PeriodRows({ reading: r, draft: d, set }: { reading: BillReading; draft: Draft; set: SetDraft }) {
   return (
     <>
-      <tr>
-        <Td>Period from</Td>
-        <Td>
-          <input type="date" aria-label="Period from" className="field-input" value={d.start} onChange={(e) => set({ start: e.target.value })} />
-        </Td>
-        <WhereCell where={r.period?.start.where} confidence={r.period?.start.confidence} />
-      </tr>
-      <tr>
-        <Td>Period to</Td>
-        <Td>
-          <input type="date" aria-label="Period to" className="field-input" value={d.end} onChange={(e) => set({ end: e.target.value })} />
-        </Td>
-        <WhereCell where={r.period?.end.where} confidence={r.period?.end.confidence} />
-      </tr>
+      {(
+        [
+          ["Period from", "start", r.period?.start],
+          ["Period to", "end", r.period?.end],
+        ] as const
+      ).map(([label, key, found]) => (
+        <tr key={key}>
+          <Td>{label}</Td>
+          <Td>
+            <input type="date" aria-label={label} className="field-input" value={d[key]} onChange={(e) => set({ [key]: e.target.value })} />
+          </Td>
+          <WhereCell where={found?.where} confidence={found?.confidence} />
+        </tr>
+      ))}
       <tr>
         <Td>
           kWh
@@ -235,11 +236,7 @@ export function BillReadingReview(props: { reading: BillReading; saving: boolean
           ))}
         </ul>
       ) : null}
-      {problem ? (
-        <p className="field-error" role="alert">
-          {problem}
-        </p>
-      ) : null}
+      {problem ? <FormMessage tone="error">{problem}</FormMessage> : null}
       <div className="flex flex-wrap gap-2">
         <button type="button" className="btn-primary" onClick={save} disabled={props.saving}>
           {props.saving ? "Saving…" : "Save to the bills"}
