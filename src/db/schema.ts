@@ -19,7 +19,7 @@ import {
   uniqueIndex,
   varchar,
 } from "drizzle-orm/mysql-core";
-import { CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES, VOC_COEFF_UNIT_KEYS } from "../lib/enums";
+import { BILL_SOURCES, CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES, VOC_COEFF_UNIT_KEYS } from "../lib/enums";
 import { ratePlanSchema } from "../engine/rates";
 import { storedCompanySettingsSchema } from "../lib/schemas/company-settings";
 import { designDocumentSchema } from "../lib/schemas/design";
@@ -300,6 +300,10 @@ export const bill = mysqlTable(
     kwh: double("kwh").notNull(),
     costCents: int("cost_cents"),
     uploadId: id("upload_id").references(() => upload.id, { onDelete: "set null" }),
+    /** typed by the rep; read from a bill's current period; a month of a bill's printed usage history. */
+    source: mysqlEnum("source", BILL_SOURCES).notNull().default("typed"),
+    /** The period's dates were estimated (a history that prints only months), not printed. */
+    periodEstimated: boolean("period_estimated").notNull().default(false),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

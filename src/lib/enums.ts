@@ -33,3 +33,7 @@ export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
 
 export const PAYMENT_STATUSES = ["open", "paid", "failed", "expired", "flagged", "refunded", "partially_refunded"] as const;
 export type PaymentStatus = (typeof PAYMENT_STATUSES)[number];
+
+/** Where a bill row came from: typed, a bill's current period as read, or a month of a bill's printed history. */
+export const BILL_SOURCES = ["typed", "bill", "history"] as const;
+export type BillSource = (typeof BILL_SOURCES)[number];

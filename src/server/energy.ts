@@ -9,7 +9,9 @@ import { bill, dealUsage, intervalProfile, upload } from "@/db/schema";
 import { usageFromBills } from "@/engine/bills";
 import { EngineInputError } from "@/engine/errors";
 import { importIntervalData } from "@/engine/green-button";
-import { suggestBillsFromText, type BillSuggestion } from "@/lib/bill-text";
+import { readBill, type BillReading } from "@/lib/bill-reader";
+import { pagesText, pdfPages } from "@/lib/bill-reader/pdf-pages";
+import type { BillSource } from "@/lib/enums";
 import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
 import { deriveUsageYear, type UsageYear } from "@/lib/usage-year";
 import { db, type Tx } from "@/server/db";
@@ -20,9 +22,9 @@ import { reencodeBillImage } from "@/server/photos";
 import { withFilesUndoneOnFailure } from "@/server/storage";
 import { recordEvent } from "@/server/timeline";
 
-export type BillRow = { id: string; periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null };
+export type BillRow = { id: string; periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null; source: BillSource; periodEstimated: boolean };
 
-const billColumns = { id: bill.id, periodStart: bill.periodStart, periodEnd: bill.periodEnd, kwh: bill.kwh, costCents: bill.costCents, uploadId: bill.uploadId };
+const billColumns = { id: bill.id, periodStart: bill.periodStart, periodEnd: bill.periodEnd, kwh: bill.kwh, costCents: bill.costCents, uploadId: bill.uploadId, source: bill.source, periodEstimated: bill.periodEstimated };
 
 function billsOf(q: Tx | ReturnType<typeof db>, companyId: string, dealId: string): Promise<BillRow[]> {
   return q
@@ -90,6 +92,8 @@ export async function saveBills(scope: DealScope, input: z.output<typeof billsTa
           kwh: b.kwh,
           costCents: b.costCents ?? null,
           uploadId: b.uploadId ?? null,
+          source: b.source ?? "typed",
+          periodEstimated: b.periodEstimated ?? false,
         })),
       );
     }
@@ -205,19 +209,12 @@ export async function getDealUsageOrThrow(member: Member, usageId: string): Prom
 export type UploadMeta = { id: string; fileName: string; mimeType: string; sizeBytes: number; createdAt: Date };
 
 export type UploadOutcome =
-  | { kind: "bill-text"; upload: UploadMeta; suggestions: BillSuggestion[]; message: string }
+  | { kind: "bill-text"; upload: UploadMeta; reading: BillReading; message: string }
   | { kind: "bill-image"; upload: UploadMeta; message: string }
   | { kind: "interval"; upload: UploadMeta; profileId: string; annualKwh: number; coveragePct: number; message: string };
 
 const MIN_PDF_TEXT_CHARS = 20;
 
-async function pdfText(bytes: Uint8Array): Promise<string> {
-  const { extractText, getDocumentProxy } = await import("unpdf");
-  // unpdf empties the buffer it is given, so it gets a copy.
-  const pdf = await getDocumentProxy(new Uint8Array(bytes));
-  const { text } = await extractText(pdf, { mergePages: true });
-  return text;
-}
 
 function decodeText(bytes: Uint8Array): string | null {
   try {
@@ -225,6 +222,12 @@ function decodeText(bytes: Uint8Array): string | null {
   } catch {
     return null;
   }
+}
+
+function readingMessage(r: BillReading, fileName: string): string {
+  const found = [r.period && "the period", r.kwh && "the kWh", r.amountDue && "the amount due", r.history && `${r.history.months.length} months of history`].filter(Boolean);
+  if (!found.length) return `“${fileName}” was kept, but nothing could be read from its text. Type the numbers from the bill.`;
+  return `Read ${found.join(", ").replace(/, ([^,]*)$/, " and $1")} from “${fileName}”. Check them against the bill below, then save.`;
 }
 
 const PROGRAM_TYPES = new Set(["application/x-msdownload", "application/x-elf", "application/x-mach-binary", "application/x-executable", "application/x-sharedlib", "application/vnd.microsoft.portable-executable", "application/wasm"]);
@@ -249,21 +252,17 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
   if (detected?.mime === "application/pdf" || detected?.mime === "image/jpeg" || detected?.mime === "image/png") {
     if (size > MAX_BILL_FILE_BYTES) throw new HttpError(413, "file_too_large", `“${file.name}” is ${(size / 1048576).toFixed(1)} MB; bill files up to ${MAX_BILL_FILE_BYTES / 1048576} MB are accepted.`);
     if (detected.mime === "application/pdf") {
-      let text: string;
+      let pages;
       try {
-        text = await pdfText(file.bytes);
+        pages = await pdfPages(file.bytes);
       } catch {
         throw new HttpError(422, "unreadable_pdf", `“${file.name}” looks like a PDF but cannot be read (damaged or protected). Nothing was saved; try downloading the bill again.`);
       }
+      const text = pagesText(pages);
       if (text.replace(/\s/g, "").length >= MIN_PDF_TEXT_CHARS) {
         const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", text);
-        const suggestions = suggestBillsFromText(text);
-        return {
-          kind: "bill-text",
-          upload: meta,
-          suggestions,
-          message: suggestions.length > 0 ? `Found ${suggestions.length} billing period${suggestions.length === 1 ? "" : "s"} in “${file.name}”. Check them against the bill, then add them.` : `“${file.name}” was kept, but no billing period could be read from its text. Type the numbers from the bill.`,
-        };
+        const reading = readBill(pages);
+        return { kind: "bill-text", upload: meta, reading, message: readingMessage(reading, file.name) };
       }
       const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", null);
       return { kind: "bill-image", upload: meta, message: `“${file.name}” is a scanned PDF with no text. It was kept with the deal; type the billing period, kWh and amount from it.` };

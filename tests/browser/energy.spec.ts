@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 import { expect, test, type Page } from "@playwright/test";
 import { PDFDocument, StandardFonts } from "pdf-lib";
 import { alertOf, signIn } from "./support";
@@ -44,16 +45,22 @@ test("bad files get a clear message each, and nothing is kept", async ({ page })
   await expect(page.getByTestId("upload-list")).toHaveCount(0);
 });
 
-test("a text PDF bill gives suggested values; the rest is typed; the usage year appears", async ({ page }) => {
+test("a text PDF bill is read into one table to confirm; the usage year appears", async ({ page }) => {
   await signIn(page, "rep@tallgrass.example");
   await openEnergy(page, "Abernathy household");
-  const pdf = await textPdf(["Piedmont Electric Cooperative", "Billing period 01/03/2026 - 02/02/2026", "Energy used 1,024 kWh", "Amount due $142.37"]);
+  const pdf = await textPdf(["Piedmont Electric Cooperative", "Billing period 01/03/2026 - 02/02/2026", "Energy used 1,024 kWh", "Amount due $142.37", "Total amount due $150.12"]);
   await upload(page, "january-bill.pdf", "application/pdf", pdf);
-  await expect(page.getByTestId("bill-suggestions")).toContainText("1,024 kWh");
-  await page.getByRole("button", { name: "Add to the table" }).click();
-  await expect(page.getByLabel("Bill 1 kWh")).toHaveValue("1024");
-  await page.getByRole("button", { name: "Save bills" }).click();
-  await expect(page.getByRole("status")).toContainText("Saved 1 bill");
+  const reading = page.getByTestId("bill-reading");
+  await expect(reading.getByLabel("Period kWh")).toHaveValue("1024");
+  await expect(reading.getByLabel("Period from")).toHaveValue("2026-01-03");
+  await expect(reading).toContainText("page 1, line 3");
+  // Two labelled amounts: both are offered, and the rep's pick is what is saved.
+  await expect(reading.getByTestId("amount-alternatives").getByRole("radio")).toHaveCount(2);
+  await reading.getByRole("radio", { name: /142\.37/ }).check();
+  await reading.getByRole("button", { name: "Save to the bills" }).click();
+  // The chart's tooltip is a status too once the pointer rests on it.
+  await expect(page.getByRole("status").filter({ hasText: "Saved 1 bill" })).toBeVisible();
+  await expect(page.getByLabel("Bill 1 amount")).toHaveValue("142.37");
   await expect(page.getByTestId("annual-kwh")).not.toHaveText("0");
   await expect(page.getByText("1 of 12 months from bills")).toBeVisible();
   await expect(page.getByTestId("upload-list")).toContainText("january-bill.pdf");
@@ -78,4 +85,19 @@ test("a scanned bill is kept, with the request to type the numbers", async ({ pa
   await upload(page, "scan.pdf", "application/pdf", Buffer.from(await doc.save()));
   await expect(page.getByRole("status")).toContainText("scanned PDF with no text");
   await expect(page.getByTestId("upload-list")).toContainText("scan.pdf");
+});
+
+test("a bill with a 13-month history fills the usage year in one step, its months marked", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await openEnergy(page, "Abernathy household");
+  // The test above saved a bill on this deal: start from an empty table.
+  while ((await page.getByLabel("Bill 1 kWh").inputValue()) !== "") await page.getByRole("button", { name: "Remove bill 1" }).click();
+  await upload(page, "larkhaven-classic.pdf", "application/pdf", readFileSync("tests/fixtures/bills/larkhaven-classic.pdf"));
+  const reading = page.getByTestId("bill-reading");
+  await expect(reading.getByTestId("history-month")).toHaveCount(13);
+  await expect(reading.getByLabel("Amount due")).toHaveValue("142.91");
+  await reading.getByRole("button", { name: "Save to the bills" }).click();
+  await expect(page.getByRole("status").filter({ hasText: "Saved 12 bills" })).toBeVisible();
+  await expect(page.getByTestId("from-history")).toHaveCount(11);
+  await expect(page.getByText("12 of 12 months from bills")).toBeVisible();
 });

@@ -1,4 +1,4 @@
-import { readdir } from "node:fs/promises";
+import { readdir, readFile } from "node:fs/promises";
 import path from "node:path";
 import { and, eq } from "drizzle-orm";
 import { PDFDocument, StandardFonts } from "pdf-lib";
@@ -11,6 +11,7 @@ import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { newCompany } from "../support/fixtures";
 import { openDeal } from "@/server/deal-scope";
+import { billsFromReading } from "@/lib/bill-reader/to-bills";
 
 async function newDeal(member: Member): Promise<string> {
   const { dealId } = await createLead(member, {
@@ -64,15 +65,35 @@ async function storedFiles(companyId: string): Promise<string[]> {
 }
 
 describe("bill uploads are checked by content", () => {
-  it("a text PDF is kept and yields suggested billing periods", async () => {
+  it("a text PDF is kept and read: the period, kWh and amount due with where they were printed", async () => {
     const member = await newCompany();
     const dealId = await newDeal(member);
-    const bytes = await textPdf(["Piedmont Electric Cooperative", "Billing period 01/03/2026 - 02/02/2026", "Energy used 1,024 kWh", "Amount due $142.37"]);
+    const bytes = await textPdf(["Piedmont Electric Cooperative", "Billing period 01/03/2026 - 02/02/2026", "Energy used 1,024 kWh", "Basic charge $14.00", "Amount due $142.37"]);
     const outcome = await acceptDealUpload(await openDeal(member, dealId), { name: "january.pdf", bytes });
     expect(outcome.kind).toBe("bill-text");
     if (outcome.kind !== "bill-text") return;
-    expect(outcome.suggestions).toEqual([expect.objectContaining({ periodStart: "2026-01-03", periodEnd: "2026-02-02", kwh: 1024, costCents: 14237 })]);
+    const r = outcome.reading;
+    expect([r.period?.start.value, r.period?.end.value, r.kwh?.value, r.amountDue?.value]).toEqual(["2026-01-03", "2026-02-02", 1024, 14237]);
+    expect(r.amountDue?.where).toMatchObject({ page: 1, line: 5 });
     expect(await storedFiles(member.companyId)).toHaveLength(1);
+  });
+
+  it("a bill with a 13-month history fills the usage year in one save, its months marked as from the bill's history", async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const bytes = new Uint8Array(await readFile(path.resolve("tests/fixtures/bills/larkhaven-classic.pdf")));
+    const scope = await openDeal(member, dealId);
+    const outcome = await acceptDealUpload(scope, { name: "larkhaven.pdf", bytes });
+    if (outcome.kind !== "bill-text") throw new Error(`read as ${outcome.kind}`);
+    const r = outcome.reading;
+    const rows = billsFromReading({ start: r.period!.start.value, end: r.period!.end.value, kwh: r.kwh!.value, amountDueCents: r.amountDue!.value }, r.history!.months);
+    await saveBills(scope, { bills: rows.map((b) => ({ ...b, uploadId: outcome.upload.id })) });
+    const stored = await db().select({ source: bill.source, periodEstimated: bill.periodEstimated, kwh: bill.kwh }).from(bill).where(and(eq(bill.companyId, member.companyId), eq(bill.dealId, dealId)));
+    expect(stored).toHaveLength(12);
+    expect(stored.filter((b) => b.source === "history" && b.periodEstimated)).toHaveLength(11);
+    expect(stored.filter((b) => b.source === "bill" && b.kwh === 972)).toHaveLength(1);
+    const usage = await getDealUsage(scope);
+    expect(usage.estimatedMonths.filter((e) => !e)).toHaveLength(12);
   });
 
   it("a scanned PDF and a photo are kept, with the request to type the numbers", async () => {

@@ -6,17 +6,21 @@ import { Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import { api, ApiError } from "@/lib/api-client";
 import { fieldErrorsToErrors } from "@/lib/form-errors";
-import type { BillSuggestion } from "@/lib/bill-text";
+import type { BillReading } from "@/lib/bill-reader";
+import type { BillTableRow } from "@/lib/bill-reader/to-bills";
+import type { BillSource } from "@/lib/enums";
 import { billsTableSchema } from "@/lib/schemas/energy";
 import type { UsageYear } from "@/lib/usage-year";
+import { Badge } from "@/components/ui/badge";
+import { BillReadingReview } from "./bill-reading-review";
 import { UsageChart } from "./usage-chart";
 
-type BillValue = { periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null };
-type Row = { key: string; periodStart: string; periodEnd: string; kwh: string; cost: string; uploadId: string | null };
+type BillValue = { periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null; source: BillSource; periodEstimated: boolean };
+type Row = { key: string; periodStart: string; periodEnd: string; kwh: string; cost: string; uploadId: string | null; source: BillSource; periodEstimated: boolean };
 type Usage = Omit<UsageYear, "hourlyKwh">;
 type UploadView = { id: string; fileName: string; mimeType: string; purpose: string; createdAt: string };
 type Outcome =
-  | { kind: "bill-text"; upload: { id: string; fileName: string }; suggestions: BillSuggestion[]; message: string }
+  | { kind: "bill-text"; upload: { id: string; fileName: string }; reading: BillReading; message: string }
   | { kind: "bill-image"; upload: { id: string; fileName: string }; message: string }
   | { kind: "interval"; upload: { id: string; fileName: string }; message: string };
 
@@ -28,8 +32,10 @@ const toRow = (b: BillValue): Row => ({
   kwh: String(b.kwh),
   cost: b.costCents == null ? "" : (b.costCents / 100).toFixed(2),
   uploadId: b.uploadId,
+  source: b.source,
+  periodEstimated: b.periodEstimated,
 });
-const emptyRow = (): Row => ({ key: `r${keySeq++}`, periodStart: "", periodEnd: "", kwh: "", cost: "", uploadId: null });
+const emptyRow = (): Row => ({ key: `r${keySeq++}`, periodStart: "", periodEnd: "", kwh: "", cost: "", uploadId: null, source: "typed", periodEstimated: false });
 
 function toPayload(rows: Row[]) {
   return {
@@ -41,6 +47,8 @@ function toPayload(rows: Row[]) {
         kwh: r.kwh === "" ? Number.NaN : Number(r.kwh.replaceAll(",", "")),
         costCents: r.cost.trim() === "" ? null : Math.round(Number(r.cost.replace(/[$,]/g, "")) * 100),
         uploadId: r.uploadId,
+        source: r.source,
+        periodEstimated: r.periodEstimated,
       })),
   };
 }
@@ -68,7 +76,7 @@ function uploadWithProgress(url: string, file: File, onProgress: (pct: number) =
   });
 }
 
-type Suggestions = { uploadId: string; items: (BillSuggestion & { pick: boolean })[] };
+type Review = { uploadId: string; reading: BillReading };
 type SetNotice = (notice: Notice | null) => void;
 
 /** The bills table's save: checked here first with the server's own schema, then PUT; errors land on their rows. */
@@ -89,9 +97,9 @@ function useBillsSave(dealId: string, rows: Row[], setRows: (rows: Row[]) => voi
     },
   });
 
-  function onSave() {
+  function onSave(toSave: Row[] = rows) {
     setNotice(null);
-    const payload = toPayload(rows);
+    const payload = toPayload(toSave);
     const checked = billsTableSchema.safeParse(payload);
     if (!checked.success) {
       const errs: Record<string, string> = {};
@@ -105,11 +113,11 @@ function useBillsSave(dealId: string, rows: Row[], setRows: (rows: Row[]) => voi
   return { rowErrors, onSave, saving: save.pending };
 }
 
-/** A file upload with its progress; a bill's text comes back as suggested rows, interval data as a new usage year. */
+/** A file upload with its progress; a bill's text comes back as a reading to confirm, interval data as a new usage year. */
 function useBillUpload(dealId: string, setNotice: SetNotice) {
   const queryClient = useQueryClient();
   const [progress, setProgress] = useState<number | null>(null);
-  const [suggestions, setSuggestions] = useState<Suggestions | null>(null);
+  const [review, setReview] = useState<Review | null>(null);
   const fileInput = useRef<HTMLInputElement>(null);
 
   async function onFile(file: File) {
@@ -118,9 +126,7 @@ function useBillUpload(dealId: string, setNotice: SetNotice) {
     try {
       const outcome = await uploadWithProgress(`/api/deals/${dealId}/uploads`, file, setProgress);
       setNotice({ tone: outcome.kind === "bill-image" ? "info" : "success", text: outcome.message });
-      if (outcome.kind === "bill-text" && outcome.suggestions.length > 0) {
-        setSuggestions({ uploadId: outcome.upload.id, items: outcome.suggestions.map((s) => ({ ...s, pick: true })) });
-      }
+      if (outcome.kind === "bill-text") setReview({ uploadId: outcome.upload.id, reading: outcome.reading });
       if (outcome.kind === "interval") await queryClient.invalidateQueries({ queryKey: ["usage", dealId] });
       await queryClient.invalidateQueries({ queryKey: ["uploads", dealId] });
     } catch (err) {
@@ -130,14 +136,13 @@ function useBillUpload(dealId: string, setNotice: SetNotice) {
       if (fileInput.current) fileInput.current.value = "";
     }
   }
-  return { progress, suggestions, setSuggestions, fileInput, onFile };
+  return { progress, review, setReview, fileInput, onFile };
 }
 
 export function EnergyClient(props: { dealId: string; canEdit: boolean; initialBills: BillValue[]; initialUsage: Usage; uploads: UploadView[] }) {
   const [rows, setRows] = useState<Row[]>(() => (props.initialBills.length ? props.initialBills.map(toRow) : [emptyRow()]));
   const [notice, setNotice] = useState<Notice | null>(null);
   const upload = useBillUpload(props.dealId, setNotice);
-  const { suggestions, setSuggestions } = upload;
 
   const usage = useQuery({
     queryKey: ["usage", props.dealId],
@@ -151,16 +156,13 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
   });
   const bills = useBillsSave(props.dealId, rows, setRows, setNotice);
 
-  function addSuggestions() {
-    if (!suggestions) return;
-    const picked = suggestions.items.filter((s) => s.pick);
-    const existing = rows.filter((r) => r.periodStart || r.kwh);
-    setRows([
-      ...existing,
-      ...picked.map((s) => toRow({ periodStart: s.periodStart, periodEnd: s.periodEnd, kwh: s.kwh ?? 0, costCents: s.costCents, uploadId: suggestions.uploadId })).map((r, i) => (picked[i].kwh == null ? { ...r, kwh: "" } : r)),
-    ]);
-    setSuggestions(null);
-    setNotice({ tone: "info", text: `Added ${picked.length} bill${picked.length === 1 ? "" : "s"} to the table. Check them, then save.` });
+  /** The confirmed reading joins the table and the table is saved in the same step. */
+  function saveReading(read: BillTableRow[]) {
+    const uploadId = upload.review?.uploadId ?? null;
+    const next = [...rows.filter((r) => r.periodStart || r.periodEnd || r.kwh || r.cost), ...read.map((b) => toRow({ ...b, uploadId }))];
+    setRows(next);
+    upload.setReview(null);
+    bills.onSave(next);
   }
 
   return (
@@ -168,9 +170,9 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
       <div className="space-y-6">
         <StatusMessage notice={notice} />
 
-        {props.canEdit ? <UploadSection upload={upload} onAdd={addSuggestions} /> : null}
+        {props.canEdit ? <UploadSection upload={upload} onSave={saveReading} saving={bills.saving} /> : null}
 
-        <BillsSection rows={rows} setRows={setRows} rowErrors={bills.rowErrors} canEdit={props.canEdit} onSave={bills.onSave} saving={bills.saving} />
+        <BillsSection rows={rows} setRows={setRows} rowErrors={bills.rowErrors} canEdit={props.canEdit} onSave={() => bills.onSave()} saving={bills.saving} />
       </div>
 
       <aside className="space-y-6">
@@ -181,8 +183,8 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
   );
 }
 
-function UploadSection({ upload, onAdd }: { upload: ReturnType<typeof useBillUpload>; onAdd: () => void }) {
-  const { progress, suggestions, setSuggestions, fileInput, onFile } = upload;
+function UploadSection({ upload, onSave, saving }: { upload: ReturnType<typeof useBillUpload>; onSave: (rows: BillTableRow[]) => void; saving: boolean }) {
+  const { progress, review, setReview, fileInput, onFile } = upload;
   return (
     <section className="card p-5" aria-labelledby="upload-heading">
       <h2 id="upload-heading" className="font-semibold">
@@ -209,46 +211,8 @@ function UploadSection({ upload, onAdd }: { upload: ReturnType<typeof useBillUpl
           <p className="mt-1 text-xs text-graphite-soft">{progress < 100 ? `Uploading… ${progress} %` : "Reading the file…"}</p>
         </div>
       ) : null}
-      {suggestions ? <SuggestionsPicker suggestions={suggestions} setSuggestions={setSuggestions} onAdd={onAdd} /> : null}
+      {review ? <BillReadingReview key={review.uploadId} reading={review.reading} saving={saving} onSave={onSave} onDismiss={() => setReview(null)} /> : null}
     </section>
-  );
-}
-
-/** The bills read from an uploaded bill's text, each to tick before it goes into the table. */
-function SuggestionsPicker({ suggestions, setSuggestions, onAdd }: { suggestions: Suggestions; setSuggestions: (s: Suggestions | null) => void; onAdd: () => void }) {
-  return (
-    <div className="mt-4 rounded-md border border-paper-line bg-paper p-3" data-testid="bill-suggestions">
-      <p className="text-sm font-medium">Found in the bill — tick what is right:</p>
-      <ul className="mt-2 space-y-2">
-        {suggestions.items.map((s, i) => (
-          <li key={`${s.periodStart}-${i}`}>
-            <label className="flex min-h-touch items-start gap-3">
-              <input
-                type="checkbox"
-                className="mt-1 h-5 w-5 accent-copper"
-                checked={s.pick}
-                onChange={(e) => setSuggestions({ ...suggestions, items: suggestions.items.map((x, j) => (j === i ? { ...x, pick: e.target.checked } : x)) })}
-              />
-              <span>
-                <span className="figure">
-                  {s.periodStart} → {s.periodEnd} · {s.kwh == null ? "kWh not found" : `${s.kwh.toLocaleString("en-US")} kWh`} ·{" "}
-                  {s.costCents == null ? "amount not found" : `$${(s.costCents / 100).toFixed(2)}`}
-                </span>
-                <span className="block text-xs text-graphite-soft">“{s.excerpt}”</span>
-              </span>
-            </label>
-          </li>
-        ))}
-      </ul>
-      <div className="mt-3 flex gap-2">
-        <button type="button" className="btn-primary" onClick={onAdd}>
-          Add to the table
-        </button>
-        <button type="button" className="btn-quiet" onClick={() => setSuggestions(null)}>
-          Dismiss
-        </button>
-      </div>
-    </div>
   );
 }
 
@@ -335,6 +299,11 @@ function BillRow(props: {
       </td>
       <td className="px-3 py-2">
         <input aria-label={`Bill ${i + 1} amount`} inputMode="decimal" className="field-input figure" value={r.cost} disabled={!canEdit} aria-invalid={!!err("costCents")} onChange={(e) => set("cost", e.target.value)} />
+        {r.source === "history" ? (
+          <Badge tone="usage" className="mt-1" testId="from-history">
+            from the bill&apos;s history{r.periodEstimated ? ", dates estimated" : ""}
+          </Badge>
+        ) : null}
         {rowMessage ? (
           <p className="field-error" role="alert">
             {rowMessage}

@@ -14,7 +14,7 @@ export default async function EnergyTab({ params }: { params: Promise<{ id: stri
     <EnergyClient
       dealId={id}
       canEdit={scope.rights.edit}
-      initialBills={bills.map(({ periodStart, periodEnd, kwh, costCents, uploadId }) => ({ periodStart, periodEnd, kwh, costCents, uploadId }))}
+      initialBills={bills.map(({ periodStart, periodEnd, kwh, costCents, uploadId, source, periodEstimated }) => ({ periodStart, periodEnd, kwh, costCents, uploadId, source, periodEstimated }))}
       initialUsage={{ monthlyKwh: usage.monthlyKwh, annualKwh: usage.annualKwh, source: usage.source, estimatedMonths: usage.estimatedMonths, warnings: usage.warnings, averageCentsPerKwh: usage.averageCentsPerKwh, fillMethod: usage.fillMethod }}
       uploads={uploads.map((u) => ({ id: u.id, fileName: u.fileName, mimeType: u.mimeType, purpose: u.purpose, createdAt: u.createdAt.toISOString() }))}
     />

@@ -1,0 +1,163 @@
+// The bill reader on typed bill texts (invented utilities): each form the issue lists.
+import { describe, expect, it } from "vitest";
+import { billJson, pagesFromText, readBill } from "./index";
+
+const read = (text: string) => readBill(pagesFromText(text));
+const current = (text: string) => billJson(read(text), "text").current;
+
+describe("the current period", () => {
+  it.each([
+    ["Billing period 10/28/2025 - 11/25/2025", "2025-10-28", "2025-11-25"],
+    ["Billing period: Oct 28, 2025 to Nov 25, 2025", "2025-10-28", "2025-11-25"],
+    ["Period  28-OCT-25 – 25-NOV-25", "2025-10-28", "2025-11-25"],
+    ["Service from 09/14/25 through 10/13/25", "2025-09-14", "2025-10-13"],
+    ["Service period October 28, 2025 - November 25, 2025 (28 days)", "2025-10-28", "2025-11-25"],
+    ["Billing dates 2025-10-28 to 2025-11-25", "2025-10-28", "2025-11-25"],
+    ["Service Period: 10-28-2025 to 11-25-2025", "2025-10-28", "2025-11-25"],
+  ])("%s", (text, start, end) => {
+    const r = read(`Brackenfold Electric\nStatement date Nov 27, 2025\n${text}\nAmount due  $50.00`);
+    expect([r.period?.start.value, r.period?.end.value]).toEqual([start, end]);
+    expect(r.period?.start.confidence).toBe("high");
+    expect(r.period?.start.where.line).toBe(3);
+  });
+
+  it("from the previous and current meter-read dates, on two lines or in a table", () => {
+    expect(current("Previous read date: 10/28/2025\nCurrent read date: 11/25/2025\nkWh used  972")).toMatchObject({ start: "2025-10-28", end: "2025-11-25" });
+    expect(current("Meter Reading Dates    Previous: 10/28/2025    Present: 11/25/2025")).toMatchObject({ start: "2025-10-28", end: "2025-11-25" });
+    const table = ["Meter      Previous Read Date   Current Read Date   kWh Used", "A-100      10/28/2025           11/25/2025          972"].join("\n");
+    expect(current(table)).toMatchObject({
+      start: "2025-10-28",
+      end: "2025-11-25",
+      kwh: 972,
+    });
+  });
+
+  it("a bill for electricity and gas: the electric period", () => {
+    const r = read("Electric service 09/02/2025 to 10/01/2025\nElectric usage 640 kWh\nGas service 09/03/2025 to 10/02/2025\nGas usage 42 therms");
+    expect([r.period?.start.value, r.period?.end.value]).toEqual(["2025-09-02", "2025-10-01"]);
+  });
+
+  it("a due date or a payment date range is not the period", () => {
+    const r = read("Payment due  12/01/2025 - 12/15/2025\nService period  10/28/2025 - 11/25/2025");
+    expect(r.period?.start.value).toBe("2025-10-28");
+  });
+});
+
+describe("the period's kWh", () => {
+  it.each([
+    ["Energy used 972 kWh", 972],
+    ["Total kWh  1,104", 1104],
+    ["kWh Used  972", 972],
+    ["You used 734 kWh this month.", 734],
+    ["kWh this month 1,210", 1210],
+    ["Kilowatt-hours used 1,347", 1347],
+  ])("%s", (line, kwh) => {
+    expect(current(`Average daily use 33 kWh\nSame month last year 1,290 kWh\nRate $0.1210/kWh\n${line}`).kwh).toBe(kwh);
+  });
+
+  it("a time-of-use bill: the on- and off-peak lines summed", () => {
+    const r = read("On-Peak Energy  312 kWh @ $0.2810   $87.67\nOff-Peak Energy  660 kWh @ $0.0950   $62.70");
+    expect(r.kwh).toMatchObject({ value: 972, confidence: "high" });
+  });
+
+  it("a time-of-use bill printing \"Peak\" and \"Off-Peak\"", () => {
+    expect(read("Peak Usage 301 kWh\nOff-Peak Usage 744 kWh").kwh?.value).toBe(1045);
+  });
+
+  it("flags an estimated reading, not a legend", () => {
+    expect(read("Reading type: Estimated\nTotal kWh  900").estimated).toBe(true);
+    expect(read("E = Estimated reading   A = Actual\nTotal kWh  900").estimated).toBe(false);
+    expect(read("Total kWh  900\nReading type: Estimated").warnings.join(" ")).toMatch(/estimated/);
+  });
+});
+
+describe("the amount due", () => {
+  const bill = [
+    "Previous balance              $131.20",
+    "Payment received - thank you  -$131.20",
+    "Basic charge                   $14.00",
+    "State tax                       $5.46",
+    "Budget billing amount         $120.00",
+    "Amount due                    $142.91",
+    "Amount due after Dec 15      $149.30",
+  ].join("\n");
+
+  it("is the amount due, not the balance, payment, fixed charge, tax, budget or late amount", () => {
+    const r = read(bill);
+    expect(r.amountDue).toMatchObject({ value: 14291, confidence: "high" });
+    expect(r.amountDue?.where.line).toBe(6);
+  });
+
+  it("in a box: the label above the figure", () => {
+    expect(current("PLEASE PAY\n$88.15\nBasic charge  $14.00").amountDueCents).toBe(8815);
+  });
+
+  it("two labelled amounts that differ: both shown, the reader not certain", () => {
+    const r = read("Amount due  $142.91\nTotal amount due  $150.12");
+    expect(r.amountDue?.confidence).not.toBe("high");
+    expect([r.amountDue?.value, ...r.amountAlternatives.map((a) => a.value)]).toEqual(expect.arrayContaining([14291, 15012]));
+    expect(r.warnings.join(" ")).toMatch(/not certain/);
+  });
+});
+
+describe("the usage history", () => {
+  const months = ["Nov", "Dec", "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov"];
+  const kwh = [900, 1010, 1230, 1130, 1010, 920, 940, 1180, 1260, 1240, 1050, 880, 972];
+
+  it("a table of month, days and kWh, 13 months, years from the period", () => {
+    const rows = months.map((m, i) => `${m}      ${28 + (i % 3)}      ${kwh[i].toLocaleString("en-US")}     ${(kwh[i] / 30).toFixed(1)}`);
+    const r = read(["Billing period 10/28/2025 - 11/25/2025", "Amount due  $142.91", "Month    Days    kWh     Avg/day", ...rows].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh, m.days])).toEqual(months.map((_, i) => [`${i < 2 ? 2024 : 2025}-${String(((10 + i) % 12) + 1).padStart(2, "0")}`, kwh[i], 28 + (i % 3)]));
+    expect(r.history?.layout).toBe("table");
+    expect(r.amountDue?.value).toBe(14291);
+  });
+
+  it("months across with a kWh row and a days row", () => {
+    const pad = (xs: (string | number)[]) => xs.map((x) => String(x).padStart(8)).join("");
+    const text = ["Service from 10/28/25 through 11/25/25", `          ${pad(months.slice(1))}`, `kWh       ${pad(kwh.slice(1))}`, `Days      ${pad(months.slice(1).map(() => 30))}`].join("\n");
+    const r = read(text);
+    expect(r.history?.months).toHaveLength(12);
+    expect(r.history?.months[0]).toMatchObject({
+      month: "2024-12",
+      kwh: 1010,
+      days: 30,
+    });
+    expect(r.history?.months.at(-1)).toMatchObject({
+      month: "2025-11",
+      kwh: 972,
+    });
+    expect(r.history?.layout).toBe("months-across");
+  });
+
+  it("a history keyed by read dates: each date labels its month", () => {
+    const rows = [5, 6, 7, 8, 9, 10, 11].map((m, i) => `${String(m).padStart(2, "0")}/21/25    30    ${kwh[i]}`);
+    const r = read(["Billing Period 10/22/25 - 11/21/25", "Read Date    Days    kWh", ...rows].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual([5, 6, 7, 8, 9, 10, 11].map((m, i) => [`2025-${String(m).padStart(2, "0")}`, kwh[i]]));
+  });
+
+  it("months across labelled by one letter each", () => {
+    const letters = ["D", "J", "F", "M", "A", "M", "J", "J", "A", "S", "O", "N"];
+    const pad = (xs: (string | number)[]) => xs.map((x) => String(x).padStart(8)).join("");
+    const r = read(["Service from 10/28/25 through 11/25/25", `          ${pad(letters)}`, `kWh       ${pad(kwh.slice(1))}`].join("\n"));
+    expect(r.history?.months[0]).toMatchObject({ month: "2024-12", kwh: 1010 });
+    expect(r.history?.months.at(-1)).toMatchObject({ month: "2025-11", kwh: 972 });
+  });
+
+  it("a history of billing periods keeps each period's dates", () => {
+    const rows = [0, 1, 2, 3, 4, 5].map((m) => `${m + 1}/1/2025 - ${m + 2}/1/2025   ${kwh[m]} kWh`);
+    const r = read(["Usage history", ...rows].join("\n"));
+    expect(r.history?.months[0]).toMatchObject({
+      month: "2025-01",
+      kwh: 900,
+      start: "2025-01-01",
+      end: "2025-02-01",
+      days: 31,
+    });
+  });
+
+  it("no history on the bill: none, and no warning about it", () => {
+    const r = read("Billing period 10/28/2025 - 11/25/2025\nEnergy used 972 kWh\nAmount due $142.91");
+    expect(r.history).toBeNull();
+    expect(r.warnings).toEqual([]);
+  });
+});

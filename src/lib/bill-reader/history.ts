@@ -1,0 +1,304 @@
+// The usage history most bills print: a table with a row per month (month, days, kWh …), a
+// table with the months across, or the value labels of a bar chart, 12 or 13 months, on any
+// page. Years the bill does not print are worked out from the current period.
+import { dayNumber, findDates, monthIndex, periodMonth } from "./dates";
+import { center, type Cell, type Line } from "./layout";
+import { NUMBER, toNumber, whereOf, type BillHistory, type Confidence, type HistoryMonth } from "./types";
+
+/** A month label: "Nov", "NOVEMBER", "Nov 2025", "Nov '25", "Nov-25", "11/2025", "2025-11". */
+type MonthLabel = { month: number; year: number | null };
+type Row = {
+  label: MonthLabel | { start: string; end: string };
+  kwh: number;
+  days: number | null;
+  line: Line;
+  cells: Cell[];
+};
+
+function monthLabel(text: string): MonthLabel | null {
+  const t = text.trim();
+  let m = t.match(/^([A-Za-z]{3,9}\.?)(?:[\s'’-]*('?\d{4}|'?\d{2}))?$/);
+  if (m) {
+    const month = monthIndex(m[1]);
+    if (month < 0) return null;
+    const y = m[2]?.replace("'", "");
+    return {
+      month,
+      year: y ? (y.length === 2 ? 2000 + Number(y) : Number(y)) : null,
+    };
+  }
+  // A read date labels its bill's month ("11/21/25" in a history keyed by read dates).
+  const dates = findDates(t);
+  if (dates.length === 1 && dates[0].index === 0 && dates[0].end === t.length) return { month: Number(dates[0].iso.slice(5, 7)) - 1, year: Number(dates[0].iso.slice(0, 4)) };
+  m = t.match(/^(\d{1,2})\/(\d{4})$/);
+  if (m) return Number(m[1]) >= 1 && Number(m[1]) <= 12 ? { month: Number(m[1]) - 1, year: Number(m[2]) } : null;
+  m = t.match(/^(\d{4})-(\d{2})$/);
+  if (m) return Number(m[2]) >= 1 && Number(m[2]) <= 12 ? { month: Number(m[2]) - 1, year: Number(m[1]) } : null;
+  return null;
+}
+
+const NUM_CELL = new RegExp(String.raw`^(${NUMBER})(\s*kwh)?$`, "i");
+const number = (c: Cell | undefined) => {
+  const m = c?.text.match(NUM_CELL);
+  return m ? toNumber(m[1]) : null;
+};
+type Kind = "kwh" | "days" | "other";
+function headerKind(text: string): Kind {
+  const t = text.toLowerCase();
+  if (/avg|average|per\s+day|\/\s*day|daily|temp|cost|\$|amount|charge|bill\b|degree|°/.test(t)) return "other";
+  if (/kwh|usage|use\b|used|consumption|energy/.test(t)) return "kwh";
+  if (/days?\b/.test(t)) return "days";
+  return "other";
+}
+const nearest = (cells: Cell[], x: number, half: number) =>
+  cells.reduce<Cell | null>((best, c) => (Math.abs(center(c) - x) < half && (!best || Math.abs(center(c) - x) < Math.abs(center(best) - x)) ? c : best), null);
+
+// ── Rows: one month per line ────────────────────────────────────────────────────────────────
+
+/** A row starting at cell `at`: a month label (or a date range at the line's start) and the figures right of it. */
+function rowOf(line: Line, at: number, header: Line | null): Row | null {
+  const first = line.cells[at];
+  let label: Row["label"] | null = monthLabel(first.text);
+  const next = line.cells.findIndex((c, k) => k > at && monthLabel(c.text));
+  let rest = line.cells.slice(at + 1, next < 0 ? undefined : next);
+  if (!label) {
+    const dates = findDates(line.text);
+    if (at !== 0 || dates.length < 2 || dates[0].index !== 0 || !/^\s*(-|–|—|to|through|thru)\s*$/i.test(line.text.slice(dates[0].end, dates[1].index))) return null;
+    label = { start: dates[0].iso, end: dates[1].iso };
+    rest = line.cells.filter((c) => c.x > first.x && !findDates(c.text).length);
+  }
+  if (!rest.length) return null;
+  let kwh: number | null = null;
+  let days: number | null = null;
+  if (header) {
+    for (const c of rest) {
+      const h = nearest(header.cells, center(c), 60);
+      const kind = h ? headerKind(h.text) : "other";
+      if (kind === "kwh" && kwh === null) kwh = number(c);
+      if (kind === "days" && days === null) days = number(c);
+    }
+  }
+  if (kwh === null) {
+    const tagged = rest.find((c) => /kwh$/i.test(c.text) && number(c) !== null);
+    const nums = rest.filter((c) => !c.text.includes("$") && number(c) !== null && !/\./.test(c.text));
+    if (tagged) kwh = number(tagged);
+    else if (nums.length >= 2 && number(nums[0])! >= 20 && number(nums[0])! <= 40) [days, kwh] = [number(nums[0]), number(nums[1])];
+    else if (nums.length) kwh = number(nums[0]);
+  }
+  return kwh === null ? null : { label, kwh, days, line, cells: [first, ...rest] };
+}
+
+function headerAbove(lines: Line[], i: number): Line | null {
+  for (let k = i - 1; k >= Math.max(0, i - 3) && lines[k].page === lines[i].page; k--) {
+    if (lines[k].cells.length >= 2 && lines[k].cells.some((c) => headerKind(c.text) === "kwh")) return lines[k];
+  }
+  return null;
+}
+
+type Block = {
+  x: number;
+  page: number;
+  last: number;
+  first: number;
+  ats: number[];
+  lines: Line[];
+};
+
+/** Runs of at least six month rows, each run in its own column (a table may sit beside other text). */
+function tableRows(lines: Line[]): { rows: Row[]; header: Line | null }[] {
+  const blocks: Block[] = [];
+  lines.forEach((line, i) => {
+    line.cells.forEach((cell, at) => {
+      if (!rowOf(line, at, null)) return;
+      const open = blocks.find((b) => b.page === line.page && i - b.last <= 2 && Math.abs(b.x - cell.x) < 8);
+      if (open) [open.last, open.ats, open.lines] = [i, [...open.ats, at], [...open.lines, line]];
+      else
+        blocks.push({
+          x: cell.x,
+          page: line.page,
+          last: i,
+          first: i,
+          ats: [at],
+          lines: [line],
+        });
+    });
+  });
+  return blocks
+    .filter((b) => b.lines.length >= 6)
+    .map((b) => {
+      const header = headerAbove(lines, b.first);
+      return {
+        rows: b.lines.map((l, k) => rowOf(l, b.ats[k], header)).filter((r): r is Row => r !== null),
+        header,
+      };
+    });
+}
+
+// ── Months across: a row of month labels, with labelled rows below or chart labels above ──
+
+type Across = {
+  months: MonthLabel[];
+  cells: Cell[];
+  kwh: (number | null)[];
+  days: (number | null)[];
+  lines: Line[];
+  chart: boolean;
+};
+
+const INITIALS = "JFMAMJJASOND";
+
+/** Months printed as one letter each (J F M A …): the one place in the year where the letters fit, if only one does. */
+function initialLabels(cells: Cell[]): MonthLabel[] | null {
+  const letters = cells.map((c) => c.text.toUpperCase()).join("");
+  const fits = [...Array(12).keys()].filter((r) => [...letters].every((ch, i) => INITIALS[(r + i) % 12] === ch));
+  return letters.length >= 6 && fits.length === 1 ? cells.map((_, i) => ({ month: (fits[0] + i) % 12, year: null })) : null;
+}
+
+function monthCells(line: Line): { cells: Cell[]; labels: MonthLabel[] } | null {
+  const cells = line.cells.filter((c) => monthLabel(c.text));
+  if (cells.length >= 6 && cells.length >= line.cells.length - 1) return { cells, labels: cells.map((c) => monthLabel(c.text)!) };
+  const letters = line.cells.filter((c) => /^[JFMASOND]$/i.test(c.text));
+  const labels = letters.length >= line.cells.length - 1 ? initialLabels(letters) : null;
+  return labels ? { cells: letters, labels } : null;
+}
+
+function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[]; labels: MonthLabel[] }): Across {
+  const line = lines[i];
+  const spacing = (center(cells.at(-1)!) - center(cells[0])) / (cells.length - 1);
+  const half = spacing / 2;
+  const block: Across = {
+    months: labels,
+    cells,
+    kwh: cells.map(() => null),
+    days: cells.map(() => null),
+    lines: [line],
+    chart: false,
+  };
+  const valuesOf = (l: Line) => cells.map((m) => number(nearest(l.cells, center(m), half) ?? undefined));
+  for (let k = i + 1; k < Math.min(lines.length, i + 6) && lines[k].page === line.page && !monthCells(lines[k]); k++) {
+    const labelCell = lines[k].cells.find((c) => center(c) < center(cells[0]) - half);
+    const values = valuesOf(lines[k]);
+    if (!labelCell || values.filter((v) => v !== null).length < cells.length * 0.6) continue;
+    const kind = headerKind(labelCell.text);
+    if (kind === "kwh" && block.kwh.every((v) => v === null)) [block.kwh, block.lines] = [values, [...block.lines, lines[k]]];
+    if (kind === "days" && block.days.every((v) => v === null)) [block.days, block.lines] = [values, [...block.lines, lines[k]]];
+  }
+  if (block.kwh.some((v) => v !== null)) return block;
+  // A bar chart: each month's value is the nearest number above its label, in its column.
+  block.chart = true;
+  const valuesInColumn = (l: Line) => cells.map((m) => number(nearest(l.cells, center(m), half * 0.6) ?? undefined));
+  // Up the chart until its title: a line with words ends it.
+  for (let k = i - 1; k >= 0 && lines[k].page === line.page && lines[k].y - line.y < 320 && lines[k].cells.every((c) => number(c) !== null); k--) {
+    const values = valuesInColumn(lines[k]);
+    values.forEach((v, j) => {
+      if (v !== null && block.kwh[j] === null) block.kwh[j] = v;
+    });
+    if (values.some((v) => v !== null)) block.lines.push(lines[k]);
+  }
+  return block;
+}
+
+// ── Years ───────────────────────────────────────────────────────────────────────────────────
+
+/**
+ * Gives every label a year: printed ones count; the others follow the order of the labels,
+ * the newest falling at or before the current period's month (or the bill's latest date).
+ */
+function withYears(labels: MonthLabel[], anchorMonth: string | null): string[] | null {
+  const n = labels.length;
+  const asc = labels.slice(1).filter((l, i) => (l.month - labels[i].month + 12) % 12 === 1).length >= labels.slice(1).filter((l, i) => (labels[i].month - l.month + 12) % 12 === 1).length;
+  const order = asc ? labels : [...labels].reverse();
+  const years: (number | null)[] = order.map((l) => l.year);
+  let last = years.findLastIndex((y) => y !== null);
+  if (last < 0) {
+    if (!anchorMonth) return null;
+    const [ay, am] = [Number(anchorMonth.slice(0, 4)), Number(anchorMonth.slice(5, 7)) - 1];
+    years[n - 1] = order[n - 1].month <= am ? ay : ay - 1;
+    last = n - 1;
+  }
+  for (let k = last - 1; k >= 0; k--) if (years[k] === null) years[k] = years[k + 1]! - (order[k].month >= order[k + 1].month ? 1 : 0);
+  for (let k = last + 1; k < n; k++) if (years[k] === null) years[k] = years[k - 1]! + (order[k].month <= order[k - 1].month ? 1 : 0);
+  const out = order.map((l, k) => `${years[k]}-${String(l.month + 1).padStart(2, "0")}`);
+  return asc ? out : out.reverse();
+}
+
+/** The history, and the cells it was read from (the other readers do not look at them). */
+export type HistoryRead = {
+  history: BillHistory | null;
+  cells: Set<Cell>;
+  warnings: string[];
+};
+
+function finish(entries: HistoryMonth[], layout: BillHistory["layout"], confidence: Confidence, cells: Set<Cell>, warnings: string[]): HistoryRead {
+  const byMonth = new Map<string, HistoryMonth>();
+  for (const e of entries) if (!byMonth.has(e.month)) byMonth.set(e.month, e);
+  const months = [...byMonth.values()].sort((a, b) => a.month.localeCompare(b.month));
+  if (months.length < 12) warnings.push(`The bill's usage history has ${months.length} months; the rest of the year will be estimated.`);
+  return { history: { months, layout, confidence }, cells, warnings };
+}
+
+export function readHistory(lines: Line[], anchorMonth: string | null): HistoryRead {
+  const warnings: string[] = [];
+  const noYear = "The usage history prints no years and the bill no period: the months' years are a guess.";
+  for (const { rows: block, header } of tableRows(lines)) {
+    const labels = block.map((r) => ("month" in r.label ? r.label : null));
+    const printed = labels.every((l) => l === null)
+      ? null
+      : withYears(
+          labels.map((l) => l ?? { month: 0, year: 0 }),
+          anchorMonth,
+        );
+    if (labels.some((l) => l !== null) && !printed) warnings.push(noYear);
+    const entries = block.map((r, k): HistoryMonth | null => {
+      const range = "start" in r.label ? r.label : null;
+      const month = range ? periodMonth(range.start, range.end) : printed?.[k];
+      if (!month) return null;
+      const days = r.days ?? (range ? dayNumber(range.end) - dayNumber(range.start) : null);
+      return {
+        month,
+        kwh: r.kwh,
+        days,
+        start: range?.start ?? null,
+        end: range?.end ?? null,
+        where: whereOf(r.line),
+      };
+    });
+    return finish(
+      entries.filter((e) => e !== null),
+      "table",
+      header ? "high" : "medium",
+      new Set(block.flatMap((r) => r.cells)),
+      warnings,
+    );
+  }
+  const blocks: Across[] = [];
+  lines.forEach((l, i) => {
+    const cells = monthCells(l);
+    if (cells) blocks.push(acrossBlock(lines, i, cells));
+  });
+  const tables = blocks.filter((b) => !b.chart);
+  const use = tables.length ? tables : blocks.filter((b) => b.kwh.filter((v) => v !== null).length >= b.months.length * 0.6).slice(0, 1);
+  if (!use.length) return { history: null, cells: new Set(), warnings };
+  const labels = use.flatMap((b) => b.months);
+  const years = withYears(labels, anchorMonth);
+  if (!years) warnings.push(noYear);
+  let k = 0;
+  const entries: HistoryMonth[] = [];
+  for (const b of use) {
+    b.months.forEach((_, j) => {
+      const month = years?.[k];
+      k++;
+      const kwh = b.kwh[j];
+      if (kwh !== null && month)
+        entries.push({
+          month,
+          kwh,
+          days: b.days[j],
+          start: null,
+          end: null,
+          where: whereOf(b.lines[0]),
+        });
+    });
+  }
+  return finish(entries, use[0].chart ? "chart" : "months-across", use[0].chart ? "medium" : "high", new Set(use.flatMap((b) => b.lines.flatMap((l) => l.cells))), warnings);
+}

@@ -1,0 +1,116 @@
+// The current billing period: a printed range ("10/28/2025 - 11/25/2025", "Oct 28, 2025 to
+// Nov 25, 2025", "Service from 09/14/25 through 10/13/25") or the previous and current
+// meter-read dates, with or without the days ("(29 days)").
+import { dayNumber, findDates, type FoundDate } from "./dates";
+import { center, type Line } from "./layout";
+import { whereOf, type BillReading, type Confidence } from "./types";
+
+type Candidate = {
+  start: string;
+  end: string;
+  line: Line;
+  score: number;
+  days: number | null;
+};
+
+const BETWEEN = /^\s*(?:-|–|—|to|through|thru|until|and)\s*$/i;
+const PERIOD_LABEL = /\b(billing|service|usage|meter|read(?:ing)?|bill)\s+(period|dates?|days|from|cycle)\b|\bservice\s+(from|dates?|period)\b|\bfor service\b|\bperiod\b/i;
+const OTHER_SERVICE = /\b(gas|water|sewer|trash|therms?|ccf|gallons?|gal)\b/i;
+const NOT_PERIOD = /\bdue\b|\bpay(ment)?\b|\bissued?\b|\bstatement date\b/i;
+const DAYS = /\(?\b(\d{1,3})\s*(?:billing\s+|service\s+)?days?\b\)?|\bdays(?:\s+(?:in|of)\s+(?:the\s+)?(?:billing\s+)?(?:period|cycle))?\s*:?\s*(\d{1,3})\b/i;
+// Read dates by their label, or a meter table's "From" / "To" columns.
+const PREVIOUS_READ = /\b(previous|prior|last|start|from)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bprevious\s+date\b|^(from|start|start\s+date|period\s+start|begin)$|^(previous|prior|last)\s*:/i;
+const CURRENT_READ = /\b(current|present|this|end|latest|to)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bcurrent\s+date\b|^(to|end|end\s+date|period\s+end|through)$|^(present|current)\s*:/i;
+
+function printedDays(text: string): number | null {
+  const m = text.match(DAYS);
+  const n = m ? Number(m[1] ?? m[2]) : NaN;
+  return n >= 1 && n <= 120 ? n : null;
+}
+
+function daysFit(start: string, end: string, days: number | null): boolean {
+  if (days === null) return false;
+  const span = dayNumber(end) - dayNumber(start);
+  return days === span || days === span + 1;
+}
+
+function rangesOnLine(line: Line, prev: Line | undefined): Candidate[] {
+  const dates = findDates(line.text);
+  const out: Candidate[] = [];
+  for (let i = 0; i + 1 < dates.length; i++) {
+    const [a, b] = [dates[i], dates[i + 1]];
+    if (!BETWEEN.test(line.text.slice(a.end, b.index)) || b.iso <= a.iso || dayNumber(b.iso) - dayNumber(a.iso) > 100) continue;
+    const before = line.text.slice(0, a.index);
+    const labelled = PERIOD_LABEL.test(before) || (before.trim() === "" && prev !== undefined && PERIOD_LABEL.test(prev.text) && !findDates(prev.text).length);
+    const days = printedDays(line.text.slice(b.end)) ?? printedDays(before);
+    let score = labelled ? 3 : 1;
+    if (NOT_PERIOD.test(before)) score -= 2;
+    // A bill for several services: the electric period, not the gas or water one.
+    if (OTHER_SERVICE.test(line.text) && !/electric/i.test(line.text)) score -= 2;
+    if (daysFit(a.iso, b.iso, days)) score += 1;
+    out.push({ start: a.iso, end: b.iso, line, score, days });
+    i++;
+  }
+  return out;
+}
+
+/** A date for a read-date label: after it in its own cell, in the next cell, or in the cell below it. */
+function dateNear(lines: Line[], at: number, label: RegExp): { date: FoundDate; line: Line } | null {
+  const line = lines[at];
+  const cells = line.cells;
+  for (let c = 0; c < cells.length; c++) {
+    const m = cells[c].text.match(label);
+    if (!m) continue;
+    const inCell = findDates(cells[c].text.slice((m.index ?? 0) + m[0].length));
+    if (inCell.length) return { date: inCell[0], line };
+    const next = cells[c + 1] ? findDates(cells[c + 1].text) : [];
+    if (next.length && !label.test(cells[c + 1].text)) return { date: next[0], line };
+    for (let k = at + 1; k < Math.min(lines.length, at + 4) && lines[k].page === line.page; k++) {
+      const below = lines[k].cells.find((x) => Math.abs(center(x) - center(cells[c])) < Math.max(40, (cells[c].xEnd - cells[c].x) / 2 + 10));
+      const found = below ? findDates(below.text) : [];
+      if (found.length) return { date: found[0], line: lines[k] };
+    }
+  }
+  return null;
+}
+
+function readDates(lines: Line[]): Candidate[] {
+  const out: Candidate[] = [];
+  for (let i = 0; i < lines.length; i++) {
+    if (!lines[i].cells.some((c) => PREVIOUS_READ.test(c.text))) continue;
+    const from = dateNear(lines, i, PREVIOUS_READ);
+    if (!from) continue;
+    for (let j = i; j < Math.min(lines.length, i + 4); j++) {
+      if (!lines[j].cells.some((c) => CURRENT_READ.test(c.text))) continue;
+      const to = dateNear(lines, j, CURRENT_READ);
+      if (!to || to.date.iso <= from.date.iso) continue;
+      const days = printedDays(lines[i].text) ?? printedDays(to.line.text);
+      out.push({
+        start: from.date.iso,
+        end: to.date.iso,
+        line: to.line,
+        score: 3 + (daysFit(from.date.iso, to.date.iso, days) ? 1 : 0),
+        days,
+      });
+      break;
+    }
+  }
+  return out;
+}
+
+/** The current period: the best-labelled range, the newest one on a tie (from lines without the usage history). */
+export function readPeriod(lines: Line[]): BillReading["period"] {
+  const candidates = [...lines.flatMap((l, i) => rangesOnLine(l, lines[i - 1])), ...readDates(lines)];
+  if (!candidates.length) return null;
+  candidates.sort((a, b) => b.score - a.score || (b.end > a.end ? 1 : b.end < a.end ? -1 : 0));
+  const best = candidates[0];
+  const rivals = candidates.filter((c) => c.score === best.score && (c.start !== best.start || c.end !== best.end));
+  const confidence: Confidence = best.score >= 3 && !rivals.length ? "high" : best.score >= 2 ? "medium" : "low";
+  const where = whereOf(best.line);
+  const days = best.days ?? dayNumber(best.end) - dayNumber(best.start);
+  return {
+    start: { value: best.start, where, confidence },
+    end: { value: best.end, where, confidence },
+    days,
+  };
+}
