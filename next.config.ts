@@ -3,11 +3,14 @@
 // src/proxy.ts.
 import type { NextConfig } from "next";
 
-/** The camera for job and site photos, only for our own pages; every other feature off (our choice). */
+/**
+ * The camera for job and site photos and the location for "I'm at the house", only for our own
+ * pages; every other feature off (our choice).
+ */
 const PERMISSIONS_POLICY = [
   "camera=(self)",
   "microphone=()",
-  "geolocation=()",
+  "geolocation=(self)",
   "payment=()",
   "usb=()",
   "serial=()",

@@ -139,6 +139,20 @@ function ensureDatabase(cfg: MariaDbConfig) {
   );
 }
 
+/** A second, empty database the app's user may use (tests of migrations on old data); dropped by dropScratchDatabase. */
+export function createScratchDatabase(cfg: MariaDbConfig, name: string) {
+  sql(
+    cfg,
+    `DROP DATABASE IF EXISTS \`${name}\`;
+     CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
+     GRANT ALL PRIVILEGES ON \`${name}\`.* TO '${cfg.user}'@'127.0.0.1';`,
+  );
+}
+
+export function dropScratchDatabase(cfg: MariaDbConfig, name: string) {
+  sql(cfg, `DROP DATABASE IF EXISTS \`${name}\`;`);
+}
+
 /** Drops and recreates the database (tests only). */
 export function resetDatabase(cfg: MariaDbConfig) {
   sql(cfg, `DROP DATABASE IF EXISTS \`${cfg.database}\`;`);

@@ -8,8 +8,8 @@ import { hashPassword } from "better-auth/crypto";
 import { eq } from "drizzle-orm";
 import { drizzle } from "drizzle-orm/mysql2";
 import mysql from "mysql2/promise";
-import { DEMO_RATE_PLAN_IDS } from "./seed/pricing";
-import { account, company, deal, household, membership, schema, user, type Role, type Stage } from "../../src/db/schema";
+import { DEMO_RATE_PLAN_IDS, DEMO_UTILITIES, DEMO_UTILITY_IDS } from "./seed/pricing";
+import { account, company, deal, household, membership, schema, user, utility, type Role, type Stage } from "../../src/db/schema";
 
 export const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
 export const DEMO_PASSWORD = "tallgrass-demo-2026";
@@ -102,6 +102,7 @@ export async function seedDemo(databaseUrl: string): Promise<{ created: boolean 
         await tx.insert(account).values({ id: crypto.randomUUID(), accountId: p.id, providerId: "credential", userId: p.id, password: passwordHash });
         await tx.insert(membership).values({ id: crypto.randomUUID(), companyId: DEMO_COMPANY_ID, userId: p.id, role: p.role });
       }
+      for (const u of DEMO_UTILITIES) await tx.insert(utility).values({ ...u, companyId: DEMO_COMPANY_ID });
       const now = Date.now();
       for (const [i, h] of HOUSEHOLDS.entries()) {
         const householdId = uid(201 + i);
@@ -128,7 +129,7 @@ export async function seedDemo(databaseUrl: string): Promise<{ created: boolean 
           stage: h.stage,
           stageChangedAt: new Date(now - h.daysInStage * 86_400_000),
           source: h.source,
-          utilityName: "Piedmont Electric Cooperative",
+          utilityId: DEMO_UTILITY_IDS.piedmont,
           // Every third household chose the time-of-use plan (invented).
           ratePlanId: i % 3 === 2 ? DEMO_RATE_PLAN_IDS.timeOfUse : DEMO_RATE_PLAN_IDS.residential,
           systemDcWatts: h.dcWatts,

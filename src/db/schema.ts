@@ -3,6 +3,7 @@
 // belongs to a company carries `company_id`, and every query filters on it.
 import { sql } from "drizzle-orm";
 import {
+  type AnyMySqlColumn,
   bigint,
   boolean,
   date,
@@ -222,7 +223,8 @@ export const deal = mysqlTable(
     stage: mysqlEnum("stage", STAGES).notNull().default("lead"),
     stageChangedAt: timestamp("stage_changed_at", { fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
     source: varchar("source", { length: 100 }),
-    utilityName: varchar("utility_name", { length: 200 }),
+    /** The customer's utility (src/server/utilities.ts); null until known. */
+    utilityId: id("utility_id").references((): AnyMySqlColumn => utility.id, { onDelete: "set null" }),
     ratePlanId: id("rate_plan_id"),
     /** Contract value in integer cents, once priced. */
     contractCents: int("contract_cents"),
@@ -474,6 +476,26 @@ export const priceBook = mysqlTable(
   (t) => [uniqueIndex("price_book_company_uq").on(t.companyId)],
 );
 
+/**
+ * A utility the company's customers buy power from: its rate plans and utility incentives
+ * belong to it, and a deal names its customer's one. `time_zone` is the utility's billing clock.
+ */
+export const utility = mysqlTable(
+  "utility",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    name: varchar("name", { length: 200 }).notNull(),
+    timeZone: varchar("time_zone", { length: 64 }).notNull(),
+    territoryNotes: text("territory_notes"),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("utility_company_name_uq").on(t.companyId, t.name)],
+);
+
 /** A utility rate plan; `plan` is the engine's rate plan input (src/engine/rates.ts). */
 export const ratePlan = mysqlTable(
   "rate_plan",
@@ -483,7 +505,10 @@ export const ratePlan = mysqlTable(
       .notNull()
       .references(() => company.id, { onDelete: "cascade" }),
     name: varchar("name", { length: 200 }).notNull(),
-    utilityName: varchar("utility_name", { length: 200 }).notNull(),
+    // Cascade only so a removed company takes its rows; a utility itself is never deleted.
+    utilityId: id("utility_id")
+      .notNull()
+      .references(() => utility.id, { onDelete: "cascade" }),
     plan: jsonColumn("rate_plan", "plan", ratePlanSchema).notNull(),
     active: boolean("active").notNull().default(true),
     /** Grows with every change of the plan; offers record the version they were priced with. */

@@ -179,6 +179,7 @@ function buildOffer(spec: OfferSpec, usageHourly: readonly number[], perKw: Floa
     discountReason: spec.discountCents > 0 ? "Spring install window" : "",
     payment: spec.payment,
     ratePlanId: null,
+    ratePlanOverrideReason: "",
   };
   return {
     position: spec.position,

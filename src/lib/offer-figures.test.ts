@@ -12,7 +12,7 @@ const book: PriceBook = {
   lineItems: [],
   discountLimits: { sales_rep: { maxCents: 50_000, maxPct: null }, office_manager: { maxCents: 200_000, maxPct: null } },
   incentives: [
-    { id: "credit", name: "Tax credit", source: "federal", amount: { kind: "percent", pct: 30, basis: "gross-price" }, startDate: "2020-01-01", endDate: "2040-12-31", timing: { year: 1 }, countsOn: "installation", eligibility: {} },
+    { id: "credit", name: "Tax credit", source: "federal", amount: { kind: "percent", pct: 30, basis: "gross-price" }, startDate: "2020-01-01", endDate: "2040-12-31", timing: { year: 1 }, countsOn: "installation", eligibility: {}, utilityId: null },
   ],
   deposit: { kind: "fixed", amountCents: 100_000 },
 };

@@ -12,6 +12,7 @@ export const SECTIONS: readonly Section[] = [
   { href: "/jobs", label: "Jobs", permission: "jobs:read" },
   { href: "/catalog", label: "Catalog", permission: "catalog:read" },
   { href: "/price-book", label: "Price book", permission: "pricebook:read" },
+  { href: "/utilities", label: "Utilities", permission: "rates:read" },
   { href: "/rate-plans", label: "Rate plans", permission: "rates:read" },
   { href: "/weather", label: "Weather", permission: "weather:read" },
   { href: "/settings/people", label: "Settings", permission: "people:read" },

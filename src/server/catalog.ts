@@ -31,7 +31,7 @@ import {
 import { BODY_CAPS, readCappedBody, readCappedForm } from "@/server/body-limit";
 import { companyRowOrThrow } from "@/server/records";
 import { db, type Tx } from "@/server/db";
-import { HttpError } from "@/server/errors";
+import { HttpError, isDuplicateKey } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 
@@ -89,15 +89,6 @@ export async function getInverterOrThrow(companyId: string, id: string): Promise
 }
 
 // ── Writes ───────────────────────────────────────────────────────────────────────────
-
-function isDuplicateKey(err: unknown): boolean {
-  for (let e: unknown = err, depth = 0; e && depth < 5; depth++) {
-    if (typeof e !== "object" || e === null) break;
-    if ((e as { code?: unknown }).code === "ER_DUP_ENTRY") return true;
-    e = (e as { cause?: unknown }).cause;
-  }
-  return false;
-}
 
 const duplicate = (what: string, v: { manufacturer: string; model: string }) =>
   new HttpError(409, "duplicate_model", `The catalog already has the ${what} ${v.manufacturer} ${v.model}.`, {

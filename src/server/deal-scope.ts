@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import { cache } from "react";
-import { deal, household, user } from "@/db/schema";
+import { deal, household, user, utility } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { getCompanySettings, type CompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
@@ -9,7 +9,7 @@ import { dealColumns, visibleTo, type DealRow } from "@/server/deal-audience";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/member";
 
-export type DealRecord = DealRow & { utilityName: string | null; ratePlanId: string | null; ownerUserId: string | null; ownerEmail: string | null };
+export type DealRecord = DealRow & { utilityId: string | null; utilityName: string | null; ratePlanId: string | null; ownerUserId: string | null; ownerEmail: string | null };
 
 export type HouseholdRecord = typeof household.$inferSelect;
 
@@ -60,9 +60,10 @@ export function dealRights(member: Member): DealRights {
 async function loadDeal(member: Member, dealId: string): Promise<DealScope> {
   const [[row], settings] = await Promise.all([
     db()
-      .select({ deal: { ...dealColumns, utilityName: deal.utilityName, ratePlanId: deal.ratePlanId, ownerUserId: deal.ownerUserId, ownerEmail: user.email }, household })
+      .select({ deal: { ...dealColumns, utilityId: deal.utilityId, utilityName: utility.name, ratePlanId: deal.ratePlanId, ownerUserId: deal.ownerUserId, ownerEmail: user.email }, household })
       .from(deal)
       .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+      .leftJoin(utility, and(eq(utility.id, deal.utilityId), eq(utility.companyId, deal.companyId)))
       .leftJoin(user, eq(user.id, deal.ownerUserId))
       // Tenancy and the rep's own-deals rule in the query itself: anything else is not found.
       .where(and(eq(deal.id, dealId), visibleTo(member)))

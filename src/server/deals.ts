@@ -1,7 +1,8 @@
 import "server-only";
 import { and, desc, eq, getTableColumns, like, or } from "drizzle-orm";
 import type { z } from "zod";
-import { deal, household, ratePlan, user } from "@/db/schema";
+import { deal, household, ratePlan, user, utility } from "@/db/schema";
+import { zipMismatch } from "@/engine/zip-codes";
 import type { householdSchema, leadSchema } from "@/lib/schemas/deal";
 import { db } from "@/server/db";
 import { dealColumns, visibleTo, type DealRow } from "@/server/deal-audience";
@@ -9,6 +10,7 @@ import { HttpError, notFound } from "@/server/errors";
 import type { DealScope } from "@/server/deal-scope";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
+import { utilityForField } from "@/server/utilities";
 
 export { dealAudience, visibleTo, type DealRow } from "@/server/deal-audience";
 
@@ -40,23 +42,45 @@ export async function getHouseholdOrThrow(member: Member, householdId: string) {
   return row.household;
 }
 
-/** A rate plan the deal may use: one of the company's (422 naming the field otherwise). */
-async function checkRatePlan(companyId: string, ratePlanId: string | null | undefined): Promise<void> {
-  if (!ratePlanId) return;
+/**
+ * The deal's utility and plan as the form gave them: the utility one of the company's, the plan
+ * one of that utility's (with no utility given, the plan's utility becomes the deal's). 422
+ * naming the field otherwise.
+ */
+async function checkUtilityAndPlan(companyId: string, utilityId: string | null | undefined, ratePlanId: string | null | undefined): Promise<{ utilityId: string | null; ratePlanId: string | null }> {
+  if (utilityId) await utilityForField(companyId, utilityId, "utilityId");
+  if (!ratePlanId) return { utilityId: utilityId ?? null, ratePlanId: null };
   const [plan] = await db()
-    .select({ id: ratePlan.id })
+    .select({ id: ratePlan.id, utilityId: ratePlan.utilityId, utilityName: utility.name })
     .from(ratePlan)
+    .innerJoin(utility, and(eq(utility.id, ratePlan.utilityId), eq(utility.companyId, ratePlan.companyId)))
     .where(and(eq(ratePlan.id, ratePlanId), eq(ratePlan.companyId, companyId)))
     .limit(1);
-  if (!plan) throw new HttpError(422, "validation_failed", "ratePlanId: Pick a rate plan from the list", { ratePlanId: ["Pick a rate plan from the list"] });
+  if (!plan) throw fieldError("ratePlanId", "Pick a rate plan from the list");
+  if (utilityId && plan.utilityId !== utilityId) throw fieldError("ratePlanId", `This plan belongs to ${plan.utilityName}: pick one of the household's utility's plans`);
+  return { utilityId: plan.utilityId, ratePlanId: plan.id };
+}
+
+const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
+
+/**
+ * Coordinates that contradict the ZIP code by more than MAX_ZIP_DISTANCE_KM (a dropped minus
+ * sign, swapped numbers) are refused naming both, so no estimate is made for the wrong place.
+ */
+function checkPositionAgainstZip(site: { postalCode: string; latitude: number; longitude: number }): void {
+  const far = zipMismatch(site.postalCode, site.latitude, site.longitude);
+  if (!far) return;
+  const message = `${site.latitude}, ${site.longitude} is ${Math.round(far.distanceKm).toLocaleString("en-US")} km from ZIP ${far.zip} (${far.city}, ${far.region}): check the coordinates or the ZIP`;
+  throw new HttpError(422, "validation_failed", `latitude: ${message}`, { latitude: [message], longitude: [message] });
 }
 
 /** A new lead: the household and its deal, owned by the rep who created it. */
 export async function createLead(member: Member, input: z.output<typeof leadSchema>): Promise<{ dealId: string; householdId: string }> {
-  await checkRatePlan(member.companyId, input.ratePlanId);
+  checkPositionAgainstZip(input);
+  const { utilityId, ratePlanId } = await checkUtilityAndPlan(member.companyId, input.utilityId, input.ratePlanId);
   const householdId = crypto.randomUUID();
   const dealId = crypto.randomUUID();
-  const { utilityName, ratePlanId, source, ...home } = input;
+  const { utilityId: _utility, ratePlanId: _plan, source, ...home } = input;
   await db().transaction(async (tx) => {
     await tx.insert(household).values({ id: householdId, companyId: member.companyId, ...home });
     await tx.insert(deal).values({
@@ -66,8 +90,8 @@ export async function createLead(member: Member, input: z.output<typeof leadSche
       ownerUserId: member.userId,
       stage: "lead",
       source,
-      utilityName: utilityName ?? null,
-      ratePlanId: ratePlanId ?? null,
+      utilityId,
+      ratePlanId,
     });
     await recordEvent(tx, {
       companyId: member.companyId,
@@ -82,6 +106,7 @@ export async function createLead(member: Member, input: z.output<typeof leadSche
 
 export async function updateHousehold(scope: DealScope, input: z.output<typeof householdSchema>) {
   const { member, dealId } = scope;
+  checkPositionAgainstZip(input);
   await db().transaction(async (tx) => {
     await tx.update(household).set(input).where(and(eq(household.id, scope.deal.householdId), eq(household.companyId, member.companyId)));
     await recordEvent(tx, {
@@ -105,23 +130,27 @@ export async function recentSites(member: Member, limit = 12) {
     .limit(limit);
 }
 
-/** Rate plans to pick from on the new-lead form. */
-export async function listRatePlanOptions(member: Member) {
-  return db()
-    .select({ id: ratePlan.id, name: ratePlan.name, utilityName: ratePlan.utilityName })
-    .from(ratePlan)
-    .where(and(eq(ratePlan.companyId, member.companyId), eq(ratePlan.active, true)))
-    .orderBy(ratePlan.utilityName, ratePlan.name);
+/** Utilities and their active rate plans to pick from (the new-lead form, the Household tab). */
+export async function listUtilityChoices(member: Member) {
+  const [utilities, plans] = await Promise.all([
+    db().select({ id: utility.id, name: utility.name }).from(utility).where(eq(utility.companyId, member.companyId)).orderBy(utility.name),
+    db()
+      .select({ id: ratePlan.id, name: ratePlan.name, utilityId: ratePlan.utilityId })
+      .from(ratePlan)
+      .where(and(eq(ratePlan.companyId, member.companyId), eq(ratePlan.active, true)))
+      .orderBy(ratePlan.name),
+  ]);
+  return { utilities, plans };
 }
 
-/** Changes the deal's utility and rate plan (the plan must be one of the company's). */
-export async function updateDealUtility(scope: DealScope, input: { utilityName: string | null; ratePlanId: string | null }) {
+/** Changes the deal's utility and rate plan (the plan must be one of that utility's). */
+export async function updateDealUtility(scope: DealScope, input: { utilityId: string | null; ratePlanId: string | null }) {
   const { member, dealId } = scope;
-  await checkRatePlan(member.companyId, input.ratePlanId);
+  const choice = await checkUtilityAndPlan(member.companyId, input.utilityId, input.ratePlanId);
   await db().transaction(async (tx) => {
     await tx
       .update(deal)
-      .set({ utilityName: input.utilityName, ratePlanId: input.ratePlanId })
+      .set(choice)
       .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)));
     await recordEvent(tx, {
       companyId: member.companyId,

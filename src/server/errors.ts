@@ -29,6 +29,16 @@ export function isDatabaseDown(err: unknown): boolean {
   return false;
 }
 
+/** True when a write broke a unique key (MariaDB's ER_DUP_ENTRY, possibly wrapped by drizzle). */
+export function isDuplicateKey(err: unknown): boolean {
+  for (let e: unknown = err, depth = 0; e && depth < 5; depth++) {
+    if (typeof e !== "object" || e === null) break;
+    if ((e as { code?: unknown }).code === "ER_DUP_ENTRY") return true;
+    e = (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
 /** The engine's named issues as form fields ({ "bills.2.kwh": ["…"] }). */
 export function engineFields(err: { issues: { path: string; message: string }[] }): Record<string, string[]> {
   const fields: Record<string, string[]> = {};

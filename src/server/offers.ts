@@ -8,7 +8,7 @@ import { env } from "@/env";
 import { formatCents } from "@/lib/format";
 import { offerBasisSchema, staleInputs, type CurrentInputs, type OfferBasis, type StaleInput } from "@/lib/offer-basis";
 import { computeOfferFigures, type OfferFigures } from "@/lib/offer-figures";
-import { emptyPriceBook } from "@/lib/schemas/price-book";
+import { bookForUtility, emptyPriceBook } from "@/lib/schemas/price-book";
 import { can } from "@/lib/permissions";
 import { discountDecisionRefusal, PricingInputError } from "@/lib/pricing";
 import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
@@ -21,7 +21,7 @@ import { getDealUsage } from "@/server/energy";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import { getPriceBook, getPriceBookRecord } from "@/server/price-book";
-import { getRatePlanOrThrow } from "@/server/rate-plans";
+import { getRatePlanOrThrow, type RatePlanRow } from "@/server/rate-plans";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
@@ -151,7 +151,7 @@ function engineError(err: unknown): never {
  * price book and savings assumptions, with the basis: which versions of those it used, and the
  * usage and design figures a proposal later copies.
  */
-export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: Role = scope.member.role): Promise<{ figures: OfferFigures; basis: OfferBasis }> {
+export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: Role = scope.member.role): Promise<{ figures: OfferFigures; basis: OfferBasis; foreignPlan: ForeignPlan | null }> {
   const { member } = scope;
   const saved = await getDesignForDeal(scope);
   if (!saved) throw new HttpError(422, "no_design", "Save a design on the Design tab before making offers.");
@@ -175,6 +175,7 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
   const plan = await getRatePlanOrThrow(member.companyId, ratePlanId).catch((err: unknown) => {
     throw err instanceof HttpError && err.status === 404 ? fieldError("inputs.ratePlanId", "Pick a rate plan from the list") : err;
   });
+  const foreignPlan = foreignPlanOf(scope, plan, inputs);
 
   const site = { latitude: scope.household.latitude, longitude: scope.household.longitude };
   const [production, usage, bookRecord, installDate] = await Promise.all([
@@ -184,7 +185,8 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
     plannedInstallDate(scope),
   ]);
   if (!(usage.annualKwh > 0) || !usage.hourlyKwh) throw new HttpError(422, "no_usage", "This deal has no usage yet. Add bills or interval data on the Energy tab first.");
-  const book = bookRecord?.document ?? emptyPriceBook();
+  // Only the household's utility's own rebates (with no utility on the deal yet: the plan's).
+  const book = bookForUtility(bookRecord?.document ?? emptyPriceBook(), scope.deal.utilityId ?? plan.utilityId);
   const basis: OfferBasis = {
     usage: {
       version: usage.version,
@@ -222,10 +224,39 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
     });
     // Only offers whose credits count at installation depend on (and go stale with) the install date.
     const countsOnInstall = book.incentives.some((r) => r.countsOn === "installation");
-    return { figures, basis: { ...basis, installDate: countsOnInstall ? figures.assumptions.installDate : null } };
+    return { figures, basis: { ...basis, installDate: countsOnInstall ? figures.assumptions.installDate : null }, foreignPlan };
   } catch (err) {
     engineError(err);
   }
+}
+
+/** A plan of another utility than the household's, used on purpose: who, which and why. */
+type ForeignPlan = { planName: string; planUtility: string; householdUtility: string; reason: string };
+
+/**
+ * Offers bill with the household's utility's plans. Another utility's plan (a customer moving,
+ * a plan not entered yet under the right utility) needs a reason, which the Timeline keeps.
+ */
+function foreignPlanOf(scope: DealScope, plan: RatePlanRow, inputs: OfferInputs): ForeignPlan | null {
+  const own = scope.deal.utilityId;
+  if (!own || plan.utilityId === own) return null;
+  const householdUtility = scope.deal.utilityName ?? "the household's utility";
+  if (inputs.ratePlanOverrideReason.length < 3) {
+    throw fieldError("inputs.ratePlanOverrideReason", `"${plan.name}" is a plan of ${plan.utilityName}, not of ${householdUtility}: pick one of ${householdUtility}'s plans, or say why this one applies`);
+  }
+  return { planName: plan.name, planUtility: plan.utilityName, householdUtility, reason: inputs.ratePlanOverrideReason };
+}
+
+async function recordForeignPlan(tx: Tx, member: Member, dealId: string, offerId: string, offerName: string, foreign: ForeignPlan | null): Promise<void> {
+  if (!foreign) return;
+  await recordEvent(tx, {
+    companyId: member.companyId,
+    dealId,
+    kind: "offer.foreign_rate_plan",
+    summary: `${member.name} priced "${offerName}" with ${foreign.planUtility}'s plan "${foreign.planName}", not ${foreign.householdUtility}'s: ${foreign.reason}`,
+    actorUserId: member.userId,
+    data: { offerId },
+  });
 }
 
 // ── Discount requests ────────────────────────────────────────────────────────────────────
@@ -324,10 +355,17 @@ async function queueDiscountRequest(tx: Tx, member: Member, dealId: string, hous
 
 // ── Writes ───────────────────────────────────────────────────────────────────────────────
 
-/** The rep picked a rate plan for a deal that had none: it becomes the deal's. */
-async function setDealRatePlanIfMissing(tx: Tx, member: Member, dealId: string, ratePlanId: string | null, current: string | null): Promise<void> {
-  if (current || !ratePlanId) return;
-  await tx.update(deal).set({ ratePlanId }).where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)));
+/**
+ * The rep picked a rate plan for a deal that had none: it becomes the deal's, and its utility
+ * the household's when none was set (never a plan used by override).
+ */
+async function setDealRatePlanIfMissing(tx: Tx, member: Member, dealId: string, ratePlanId: string | null, current: string | null, foreign: ForeignPlan | null): Promise<void> {
+  if (current || !ratePlanId || foreign) return;
+  const planUtility = tx.select({ id: ratePlan.utilityId }).from(ratePlan).where(and(eq(ratePlan.id, ratePlanId), eq(ratePlan.companyId, member.companyId)));
+  await tx
+    .update(deal)
+    .set({ ratePlanId, utilityId: sql`COALESCE(${deal.utilityId}, (${planUtility}))` })
+    .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId)));
 }
 
 type CreateOfferInput = { dealId: string; inputs: OfferInputs };
@@ -349,7 +387,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
   if (!parsed.success) throw validationError(parsed.error);
   const { dealId, inputs } = parsed.data;
   const scope = await openDeal(member, dealId);
-  const { figures, basis } = await computeOffer(scope, inputs);
+  const { figures, basis, foreignPlan } = await computeOffer(scope, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const id = crypto.randomUUID();
   const mailIds: string[] = [];
@@ -367,7 +405,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
       const mailId = await queueDiscountRequest(tx, member, dealId, scope.household.name, outcome.requestId, inputs, figures);
       if (mailId) mailIds.push(mailId);
     }
-    await setDealRatePlanIfMissing(tx, member, dealId, inputs.ratePlanId, scope.deal.ratePlanId);
+    await setDealRatePlanIfMissing(tx, member, dealId, inputs.ratePlanId, scope.deal.ratePlanId, foreignPlan);
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId,
@@ -376,6 +414,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
       actorUserId: member.userId,
       data: { offerId: id },
     });
+    await recordForeignPlan(tx, member, dealId, id, inputs.name, foreignPlan);
   });
   await sendQueuedNow(mailIds);
   return (await offersOf(scope, and(eq(offer.companyId, member.companyId), eq(offer.id, id))))[0];
@@ -386,7 +425,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
   const parsed = updateOfferSchema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
   const { inputs } = parsed.data;
-  const { figures, basis } = await computeOffer(scope, inputs);
+  const { figures, basis, foreignPlan } = await computeOffer(scope, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const mailIds: string[] = [];
   await db().transaction(async (tx) => {
@@ -399,7 +438,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
       .update(offer)
       .set({ name: inputs.name, inputs, results: figures, basis, discountCents: inputs.discountCents, discountStatus: outcome.status })
       .where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)));
-    await setDealRatePlanIfMissing(tx, member, existing.dealId, inputs.ratePlanId, scope.deal.ratePlanId);
+    await setDealRatePlanIfMissing(tx, member, existing.dealId, inputs.ratePlanId, scope.deal.ratePlanId, foreignPlan);
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId: existing.dealId,
@@ -408,6 +447,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
       actorUserId: member.userId,
       data: { offerId },
     });
+    await recordForeignPlan(tx, member, existing.dealId, offerId, inputs.name, foreignPlan);
   });
   await sendQueuedNow(mailIds);
   return (await offersOf(scope, and(eq(offer.companyId, member.companyId), eq(offer.id, offerId))))[0];

@@ -4,9 +4,10 @@ import { priceBook, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { emptyPriceBook, priceBookSchema, type PriceBook } from "@/lib/schemas/price-book";
 import { db } from "@/server/db";
-import { forbidden, notFound } from "@/server/errors";
+import { forbidden, HttpError, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
+import { listUtilities } from "@/server/utilities";
 
 export type PriceBookRecord = {
   id: string;
@@ -47,6 +48,16 @@ export async function getPriceBookOrThrow(companyId: string, id: string): Promis
   return row;
 }
 
+/** A utility's rebate names one of the company's utilities (422 on that rule's field otherwise). */
+async function checkIncentiveUtilities(companyId: string, book: PriceBook): Promise<void> {
+  const named = book.incentives.flatMap((rule, i) => (rule.utilityId ? [{ i, utilityId: rule.utilityId }] : []));
+  if (named.length === 0) return;
+  const known = new Set((await listUtilities(companyId)).map((u) => u.id));
+  const fields = Object.fromEntries(named.filter((n) => !known.has(n.utilityId)).map((n) => [`incentives.${n.i}.utilityId`, ["Pick the utility from the list"]]));
+  const first = Object.keys(fields)[0];
+  if (first) throw new HttpError(422, "validation_failed", `${first}: Pick the utility from the list`, fields);
+}
+
 /**
  * Replaces the company's price book with a validated document (422 naming each bad field;
  * nothing is written then). One row per company: the first save creates it.
@@ -55,6 +66,7 @@ export async function savePriceBook(member: Member, doc: unknown): Promise<Price
   if (!can(member.role, "pricebook:manage")) throw forbidden("changing the price book");
   const parsed = priceBookSchema.safeParse(doc);
   if (!parsed.success) throw validationError(parsed.error);
+  await checkIncentiveUtilities(member.companyId, parsed.data);
   await db().transaction(async (tx) => {
     const [row] = await tx.select({ document: priceBook.document }).from(priceBook).where(eq(priceBook.companyId, member.companyId)).for("update");
     if (!row) {

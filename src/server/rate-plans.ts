@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
-import { ratePlan } from "@/db/schema";
+import { ratePlan, utility } from "@/db/schema";
 import type { RatePlan } from "@/engine/rates";
 import { can } from "@/lib/permissions";
 import { ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
@@ -8,10 +8,20 @@ import { db } from "@/server/db";
 import { forbidden, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
+import { utilityForField } from "@/server/utilities";
+
+/** Plans with their utility's name (the utility of the plan's own company). */
+const plansWithUtility = () =>
+  db()
+    .select(columns)
+    .from(ratePlan)
+    .innerJoin(utility, and(eq(utility.id, ratePlan.utilityId), eq(utility.companyId, ratePlan.companyId)));
 
 export type RatePlanRow = {
   id: string;
   name: string;
+  utilityId: string;
+  /** The utility's name as it is now (the plan belongs to the utility record). */
   utilityName: string;
   active: boolean;
   /** The engine's rate plan (src/engine/rates.ts), defaults filled in. */
@@ -24,7 +34,8 @@ export type RatePlanRow = {
 const columns = {
   id: ratePlan.id,
   name: ratePlan.name,
-  utilityName: ratePlan.utilityName,
+  utilityId: ratePlan.utilityId,
+  utilityName: utility.name,
   active: ratePlan.active,
   plan: ratePlan.plan,
   version: ratePlan.version,
@@ -33,18 +44,14 @@ const columns = {
 
 /** The company's rate plans: active first, then by utility and name. */
 export async function listRatePlans(companyId: string): Promise<RatePlanRow[]> {
-  const rows = await db()
-    .select(columns)
-    .from(ratePlan)
+  const rows = await plansWithUtility()
     .where(eq(ratePlan.companyId, companyId))
-    .orderBy(desc(ratePlan.active), asc(ratePlan.utilityName), asc(ratePlan.name));
+    .orderBy(desc(ratePlan.active), asc(utility.name), asc(ratePlan.name));
   return rows;
 }
 
 export async function getRatePlanOrThrow(companyId: string, id: string): Promise<RatePlanRow> {
-  const [row] = await db()
-    .select(columns)
-    .from(ratePlan)
+  const [row] = await plansWithUtility()
     .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, companyId)))
     .limit(1);
   if (!row) throw notFound("Rate plan");
@@ -60,8 +67,9 @@ function parseInput(input: unknown) {
 export async function createRatePlan(member: Member, input: unknown): Promise<RatePlanRow> {
   if (!can(member.role, "rates:manage")) throw forbidden("changing rate plans");
   const data = parseInput(input);
+  await utilityForField(member.companyId, data.utilityId, "utilityId");
   const id = crypto.randomUUID();
-  await db().insert(ratePlan).values({ id, companyId: member.companyId, name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active });
+  await db().insert(ratePlan).values({ id, companyId: member.companyId, name: data.plan.name, utilityId: data.utilityId, plan: data.plan, active: data.active });
   return getRatePlanOrThrow(member.companyId, id);
 }
 
@@ -70,9 +78,10 @@ export async function updateRatePlan(member: Member, id: string, input: unknown)
   if (!can(member.role, "rates:manage")) throw forbidden("changing rate plans");
   const data = parseInput(input);
   await getRatePlanOrThrow(member.companyId, id);
+  await utilityForField(member.companyId, data.utilityId, "utilityId");
   await db()
     .update(ratePlan)
-    .set({ name: data.plan.name, utilityName: data.utilityName, plan: data.plan, active: data.active, version: sql`${ratePlan.version} + 1` })
+    .set({ name: data.plan.name, utilityId: data.utilityId, plan: data.plan, active: data.active, version: sql`${ratePlan.version} + 1` })
     .where(and(eq(ratePlan.id, id), eq(ratePlan.companyId, member.companyId)));
   return getRatePlanOrThrow(member.companyId, id);
 }

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, inArray, isNotNull, type SQL } from "drizzle-orm";
+import { and, asc, eq, inArray, isNotNull, sql, type SQL } from "drizzle-orm";
 import { deal, household, job, membership, user, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
@@ -50,7 +50,10 @@ export async function moveDealStage(member: Member, dealId: string, toStage: Sta
     const changed = await tx
       .update(deal)
       .set({ stage: toStage, stageChangedAt })
-      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId), eq(deal.stage, from)));
+      // The stage compared as text, so the row is found by its primary key: planned on the
+      // (company_id, stage) index, this UPDATE locked that index entry, and a concurrent move
+      // waiting on it deadlocked instead of one of them answering 409.
+      .where(and(eq(deal.id, dealId), eq(deal.companyId, member.companyId), sql`CAST(${deal.stage} AS CHAR) = ${from}`));
     if (changed[0].affectedRows !== 1) {
       throw new HttpError(409, "stage_conflict", "Someone else moved this deal a moment ago. Reload to see where it is now.");
     }

@@ -140,6 +140,26 @@ export async function nearestStation(companyId: string, lat: number, lon: number
   return pickNearest(await stationQuery(companyId), lat, lon);
 }
 
+/** The station a site's production estimate uses, and how far it is: what the Household tab shows. */
+export type SiteStation =
+  | { kind: "station"; name: string; distanceKm: number; how: "chosen" | "nearest" }
+  | { kind: "manual" }
+  | { kind: "none"; maxDistanceKm: number };
+
+/**
+ * As the estimate picks it (productionForDesign): the design's chosen station, else the
+ * nearest within MAX_STATION_DISTANCE_KM; a design with a typed figure uses none.
+ */
+export async function siteStation(companyId: string, site: { latitude: number; longitude: number }, weather: { kind: "nearest" } | { kind: "station"; stationId: string } | { kind: "manual" }): Promise<SiteStation> {
+  if (weather.kind === "manual") return { kind: "manual" };
+  if (weather.kind === "station") {
+    const station = await getStationOrThrow(companyId, weather.stationId).catch(() => null);
+    if (station) return { kind: "station", name: station.name, distanceKm: haversineKm(site, station), how: "chosen" };
+  }
+  const near = await nearestStation(companyId, site.latitude, site.longitude);
+  return near ? { kind: "station", name: near.station.name, distanceKm: near.distanceKm, how: "nearest" } : { kind: "none", maxDistanceKm: MAX_STATION_DISTANCE_KM };
+}
+
 // ── Upload ─────────────────────────────────────────────────────────────────────────────────
 
 export type WeatherFileInput = { bytes: Uint8Array; fileName: string };

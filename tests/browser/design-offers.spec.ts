@@ -112,4 +112,17 @@ test("the rep adds two roof faces, sizes to 100 % offset, then compares two offe
   await expect(table.getByRole("row", { name: /Loan amount/ })).toContainText("$");
   await expect(page.getByTestId("cashflow-chart")).toBeVisible();
   await expect(page.getByText(/Estimates, not a guarantee/)).toBeVisible();
+
+  // Another utility's plan is marked as such and needs a reason, which the Timeline keeps.
+  await page.getByRole("button", { name: "Add an offer" }).click();
+  await page.getByLabel("Offer name").fill("Town plan");
+  await page.getByLabel(/^Rate plan/).selectOption({ label: "Another utility — Cedar Fork Municipal Power: Town Residential R" });
+  await page.getByRole("button", { name: "Create and compute" }).click();
+  const reason = page.getByLabel("Why another utility's plan (kept on the Timeline)");
+  await expect(page.getByText(/"Town Residential R" is a plan of Cedar Fork Municipal Power, not of Piedmont Electric Cooperative/).first()).toBeVisible({ timeout: 30_000 });
+  await reason.fill("Annexed by the town in January; the meter moves then");
+  await page.getByRole("button", { name: "Create and compute" }).click();
+  await expect(page.getByRole("article", { name: "Offer Town plan" })).toBeVisible({ timeout: 30_000 });
+  await page.getByRole("link", { name: "Timeline" }).click();
+  await expect(page.getByText(/with Cedar Fork Municipal Power's plan "Town Residential R", not Piedmont Electric Cooperative's: Annexed by the town/)).toBeVisible();
 });

@@ -39,6 +39,7 @@ for (const width of WIDTHS) {
     const screens: [string, (() => Promise<void>)?][] = [
       ["/catalog", async () => page.getByRole("button", { name: "Add module" }).click()],
       ["/price-book"],
+      ["/utilities"],
       ["/rate-plans"],
       ["/rate-plans/new"],
       ["/weather"],

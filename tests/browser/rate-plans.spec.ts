@@ -9,7 +9,7 @@ test("an admin creates a time-of-use plan and sees the engine's sample bill", as
   await page.getByRole("link", { name: "New rate plan" }).click();
   await expect(page.getByRole("heading", { name: "New rate plan" })).toBeVisible();
 
-  await page.getByLabel("Utility").fill("Piedmont Electric Cooperative");
+  await page.getByLabel("Utility").selectOption({ label: "Piedmont Electric Cooperative" });
   await page.getByLabel("Plan name").fill(name);
   await page.getByLabel("Fixed charge ($ / month)").fill("14");
   await page.getByRole("radio", { name: "Time-of-use" }).check();
@@ -39,7 +39,7 @@ test("an admin creates a time-of-use plan and sees the engine's sample bill", as
 test("a season left without months is named and nothing is created", async ({ page }) => {
   await signIn(page, "admin@tallgrass.example");
   await page.goto("/rate-plans/new");
-  await page.getByLabel("Utility").fill("Piedmont Electric Cooperative");
+  await page.getByLabel("Utility").selectOption({ label: "Piedmont Electric Cooperative" });
   await page.getByLabel("Plan name").fill(unique("Broken TOU"));
   await page.getByRole("radio", { name: "Time-of-use" }).check();
   await page.getByText("Jan", { exact: true }).click();
@@ -59,12 +59,32 @@ test("a rep reads rate plans but the rate plan APIs refuse their writes", async 
   await apiSignIn(request, "rep@tallgrass.example");
   const list = await request.get("/api/rate-plans");
   expect(list.status()).toBe(200);
-  const plans = (await list.json()).data as { id: string; utilityName: string; active: boolean; plan: unknown }[];
+  const plans = (await list.json()).data as { id: string; utilityId: string; active: boolean; plan: unknown }[];
   expect(plans.length).toBeGreaterThanOrEqual(2);
-  const body = { utilityName: plans[0].utilityName, active: true, plan: plans[0].plan };
+  const body = { utilityId: plans[0].utilityId, active: true, plan: plans[0].plan };
   const post = await request.post("/api/rate-plans", { data: body });
   expect(post.status()).toBe(403);
   expect((await post.json()).error.code).toBe("forbidden");
   const put = await request.put(`/api/rate-plans/${plans[0].id}`, { data: body });
   expect(put.status()).toBe(403);
+});
+
+test("an admin keeps the company's utilities; a new one is at once a plan's utility to pick", async ({ page }) => {
+  const name = unique("Haw Creek Power");
+  await signIn(page, "admin@tallgrass.example");
+  await page.goto("/utilities");
+  await expect(page.getByRole("cell", { name: /^Piedmont Electric Cooperative/ })).toBeVisible();
+  await page.getByLabel("Name (as its bills print it)").fill(name);
+  await page.getByLabel("Time zone").selectOption("America/Chicago");
+  await page.getByLabel("Territory notes").fill("North of the creek only.");
+  await page.getByRole("button", { name: "Add utility" }).click();
+  await expect(page.getByRole("status")).toContainText("Utility added.");
+  await expect(page.getByRole("cell", { name: new RegExp(`^${name}`) })).toContainText("North of the creek only.");
+
+  await page.getByLabel("Name (as its bills print it)").fill("piedmont electric cooperative");
+  await page.getByRole("button", { name: "Add utility" }).click();
+  await expect(page.getByText('"piedmont electric cooperative" is already in the list')).toBeVisible();
+
+  await page.goto("/rate-plans/new");
+  await page.getByLabel("Utility").selectOption({ label: name });
 });

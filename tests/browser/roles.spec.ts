@@ -3,10 +3,10 @@ import { apiSignIn, signIn, alertOf } from "./support";
 
 // Sections each demo role sees (src/lib/sections.ts and the permission table in src/lib/permissions.ts).
 const ROLES = [
-  { email: "owner@tallgrass.example", label: "Owner", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Rate plans", "Weather", "Settings", "Dev outbox"] },
-  { email: "admin@tallgrass.example", label: "Admin", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Rate plans", "Weather", "Settings", "Dev outbox"] },
-  { email: "office@tallgrass.example", label: "Office manager", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Rate plans", "Weather"] },
-  { email: "rep@tallgrass.example", label: "Sales rep", sections: ["Today", "Deals", "Board", "Catalog", "Price book", "Rate plans", "Weather"] },
+  { email: "owner@tallgrass.example", label: "Owner", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Utilities", "Rate plans", "Weather", "Settings", "Dev outbox"] },
+  { email: "admin@tallgrass.example", label: "Admin", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Utilities", "Rate plans", "Weather", "Settings", "Dev outbox"] },
+  { email: "office@tallgrass.example", label: "Office manager", sections: ["Today", "Deals", "Board", "Jobs", "Catalog", "Price book", "Utilities", "Rate plans", "Weather"] },
+  { email: "rep@tallgrass.example", label: "Sales rep", sections: ["Today", "Deals", "Board", "Catalog", "Price book", "Utilities", "Rate plans", "Weather"] },
   { email: "crew@tallgrass.example", label: "Installer crew", sections: ["Today", "Jobs"] },
 ];
 

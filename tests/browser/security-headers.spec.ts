@@ -69,6 +69,7 @@ test("the homeowner's page carries the browser defences, with a nonce its script
   expect(h["referrer-policy"]).toBe("no-referrer");
   expect(h["permissions-policy"]).toContain("camera=(self)");
   expect(h["permissions-policy"]).toContain("microphone=()");
+  expect(h["permissions-policy"]).toContain("geolocation=(self)");
   expect(h["x-powered-by"]).toBeUndefined();
   // Served over http here: no HSTS (it is sent only when APP_URL is https).
   expect(h["strict-transport-security"]).toBeUndefined();

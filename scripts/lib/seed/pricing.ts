@@ -1,7 +1,7 @@
-// Demo price book and rate plans of Tallgrass Bright Energy. The utility, its plans and the
-// incentives are invented; the figures are of a realistic U.S. size. Validated by the same
+// Demo price book, utilities and rate plans of Tallgrass Bright Energy. The utilities, their
+// plans and the incentives are invented; the figures are of a realistic U.S. size. Validated by the same
 // schemas the app uses, so a bad edit here fails the seed instead of the page.
-import { priceBook, ratePlan } from "../../../src/db/schema";
+import { priceBook, ratePlan, utility } from "../../../src/db/schema";
 import { priceBookSchema, type PriceBookInput } from "../../../src/lib/schemas/price-book";
 import { ratePlanRecordSchema, type RatePlanRecordInput } from "../../../src/lib/schemas/rate-plan";
 import type { SeedContext } from "../seed-demo";
@@ -10,9 +10,15 @@ export const order = 20;
 
 const uid = (n: number) => `7a11a55e-0000-4000-8000-${String(n).padStart(12, "0")}`;
 export const DEMO_PRICE_BOOK_ID = uid(2001);
-export const DEMO_RATE_PLAN_IDS = { residential: uid(2011), timeOfUse: uid(2012) } as const;
+export const DEMO_RATE_PLAN_IDS = { residential: uid(2011), timeOfUse: uid(2012), cedarFork: uid(2013) } as const;
+/** The demo deals' utility, and a second one whose plan and rebate they must not get. */
+export const DEMO_UTILITY_IDS = { piedmont: uid(2021), cedarFork: uid(2022) } as const;
 
-const UTILITY = "Piedmont Electric Cooperative";
+/** Written by seed-demo.ts before the deals, which name the utility. */
+export const DEMO_UTILITIES = [
+  { id: DEMO_UTILITY_IDS.piedmont, name: "Piedmont Electric Cooperative", timeZone: "America/New_York", territoryNotes: "Guilford, Forsyth and Rockingham counties outside the city limits." },
+  { id: DEMO_UTILITY_IDS.cedarFork, name: "Cedar Fork Municipal Power", timeZone: "America/New_York", territoryNotes: "Inside the town limits of Cedar Fork only." },
+];
 
 const PRICE_BOOK: PriceBookInput = {
   version: 1,
@@ -41,6 +47,7 @@ const PRICE_BOOK: PriceBookInput = {
       id: "piedmont-coop-rebate",
       name: "Piedmont Cooperative solar rebate",
       source: "utility",
+      utilityId: DEMO_UTILITY_IDS.piedmont,
       amount: { kind: "per-watt", centsPerWattDc: 20, capCents: 150_000 },
       startDate: "2026-01-01",
       endDate: "2027-12-31",
@@ -66,6 +73,7 @@ const PRICE_BOOK: PriceBookInput = {
       id: "piedmont-coop-early-bonus",
       name: "Piedmont Cooperative early-adopter bonus",
       source: "utility",
+      utilityId: DEMO_UTILITY_IDS.piedmont,
       amount: { kind: "fixed", amountCents: 25_000 },
       startDate: "2025-01-01",
       endDate: "2025-12-31",
@@ -80,7 +88,7 @@ const RATE_PLANS: { id: string; record: RatePlanRecordInput }[] = [
   {
     id: DEMO_RATE_PLAN_IDS.residential,
     record: {
-      utilityName: UTILITY,
+      utilityId: DEMO_UTILITY_IDS.piedmont,
       active: true,
       plan: {
         name: "Residential Service RS-1",
@@ -100,7 +108,7 @@ const RATE_PLANS: { id: string; record: RatePlanRecordInput }[] = [
   {
     id: DEMO_RATE_PLAN_IDS.timeOfUse,
     record: {
-      utilityName: UTILITY,
+      utilityId: DEMO_UTILITY_IDS.piedmont,
       active: true,
       plan: {
         name: "Residential Time-of-Use RT-2",
@@ -130,6 +138,20 @@ const RATE_PLANS: { id: string; record: RatePlanRecordInput }[] = [
       },
     },
   },
+  {
+    id: DEMO_RATE_PLAN_IDS.cedarFork,
+    record: {
+      utilityId: DEMO_UTILITY_IDS.cedarFork,
+      active: true,
+      plan: {
+        name: "Town Residential R",
+        fixedMonthlyCents: 1_000,
+        minimumBillCents: 0,
+        energy: { kind: "flat", centsPerKwh: 11.9 },
+        compensation: { kind: "net-billing", exportCentsPerKwh: 4.5, trueUpMonth: 12 },
+      },
+    },
+  },
 ];
 
 export async function seed(ctx: SeedContext): Promise<void> {
@@ -142,6 +164,6 @@ export async function seed(ctx: SeedContext): Promise<void> {
   });
   for (const { id, record } of RATE_PLANS) {
     const r = ratePlanRecordSchema.parse(record);
-    await ctx.tx.insert(ratePlan).values({ id, companyId: ctx.companyId, name: r.plan.name, utilityName: r.utilityName, plan: r.plan, active: r.active });
+    await ctx.tx.insert(ratePlan).values({ id, companyId: ctx.companyId, name: r.plan.name, utilityId: r.utilityId, plan: r.plan, active: r.active });
   }
 }

@@ -26,6 +26,7 @@ import {
   ratePlan,
   timelineEvent,
   user,
+  utility,
 } from "../../../src/db/schema";
 import { renderProposalPdf } from "../../../src/documents/proposal-pdf";
 import { stampSignedPdf } from "../../../src/documents/signed-pdf";
@@ -103,8 +104,9 @@ type Ctx = {
 async function sourceFor(c: Ctx, dealId: string, offers: { position: number; inputs: OfferInputsInput; figures?: SnapshotSource["offers"][number]["figures"] }[], takenAt: Date): Promise<SnapshotSource | null> {
   const { tx, companyId } = c;
   const [d] = await tx
-    .select({ ownerUserId: deal.ownerUserId, ratePlanId: deal.ratePlanId, utilityName: deal.utilityName, householdId: deal.householdId })
+    .select({ ownerUserId: deal.ownerUserId, ratePlanId: deal.ratePlanId, utilityName: utility.name, householdId: deal.householdId })
     .from(deal)
+    .leftJoin(utility, and(eq(utility.id, deal.utilityId), eq(utility.companyId, deal.companyId)))
     .where(and(eq(deal.id, dealId), eq(deal.companyId, companyId)));
   const [designRow] = await tx.select({ document: design.document }).from(design).where(and(eq(design.dealId, dealId), eq(design.companyId, companyId)));
   if (!d || !designRow || !d.ratePlanId || !d.ownerUserId) return null;

@@ -1,14 +1,9 @@
-// The deal's utility and rate plan, changed from the Household tab.
+// The deal's utility and rate plan, changed from the Household tab: the plan must be one of
+// that utility's (src/server/deals.ts).
 import { z } from "zod";
+import { optionalIdField } from "@/lib/schemas/utility";
 
 export const dealUtilitySchema = z.object({
-  utilityName: z
-    .string()
-    .trim()
-    .max(200, "Keep it under 200 characters")
-    .transform((v) => (v === "" ? null : v)),
-  ratePlanId: z
-    .string()
-    .transform((v) => (v === "" ? null : v))
-    .pipe(z.uuid("Pick a rate plan from the list").nullable()),
+  utilityId: optionalIdField("Pick the utility from the list"),
+  ratePlanId: optionalIdField("Pick a rate plan from the list"),
 });

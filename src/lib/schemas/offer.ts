@@ -41,6 +41,8 @@ export const offerInputsSchema = z
     payment: paymentInputSchema.default({ kind: "cash" }),
     /** Rate plan for the bills; null = the deal's. */
     ratePlanId: z.string().uuid("Pick a rate plan from the list").nullable().default(null),
+    /** Why a plan of another utility than the household's is used (required then; shown on the Timeline). */
+    ratePlanOverrideReason: plainText({ multiline: true }).trim().max(300, "Keep the reason under 300 characters").default(""),
   })
   .superRefine((o, ctx) => {
     const seen = new Set<string>();

@@ -74,8 +74,14 @@ export const INCENTIVE_SOURCE_LABELS: Record<(typeof INCENTIVE_SOURCES)[number],
   other: "Other",
 };
 
-/** The engine's incentive rule plus who pays it (for the offer's wording only). */
-export const priceBookIncentiveSchema = incentiveRuleSchema.safeExtend({ source: z.enum(INCENTIVE_SOURCES) });
+/**
+ * The engine's incentive rule plus who pays it (for the offer's wording) and, for a utility's
+ * own rebate, which utility: offers to that utility's customers only (null: every customer).
+ */
+export const priceBookIncentiveSchema = incentiveRuleSchema.safeExtend({
+  source: z.enum(INCENTIVE_SOURCES),
+  utilityId: z.uuid("Pick the utility from the list").nullable().default(null),
+});
 export type PriceBookIncentive = z.output<typeof priceBookIncentiveSchema>;
 
 /** The deposit asked at signing: a fixed amount, or a percentage of the contract within a min and max. */
@@ -147,6 +153,11 @@ export function incentiveRulesForEngine(book: PriceBook): IncentiveRuleInput[] {
     countsOn: rule.countsOn,
     eligibility: rule.eligibility,
   }));
+}
+
+/** The book as one household sees it: rules of another utility than `utilityId` left out. */
+export function bookForUtility(book: PriceBook, utilityId: string | null): PriceBook {
+  return { ...book, incentives: book.incentives.filter((rule) => rule.utilityId === null || rule.utilityId === utilityId) };
 }
 
 /** A company that has not set up its price book yet starts from this (one band, nothing else). */

@@ -1,11 +1,11 @@
 // A saved utility rate plan: the engine's rate plan input (src/engine/rates.ts, reused as is)
-// plus the utility's name and whether reps may still pick it. Shared by the editor and the server.
+// plus the utility it belongs to and whether reps may still pick it. Shared by the editor and the server.
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
 import { ratePlanSchema } from "@/engine/rates";
 
 export const ratePlanRecordSchema = z.object({
-  utilityName: plainText().trim().min(1, "is required").max(200),
+  utilityId: z.uuid("Pick the plan's utility from the list"),
   active: z.boolean().default(true),
   plan: ratePlanSchema.safeExtend({ name: plainText().trim().min(1, "is required").max(200) }),
 });

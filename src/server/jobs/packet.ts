@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
-import { company, deal, design, household, proposal, upload } from "@/db/schema";
+import { company, deal, design, household, proposal, upload, utility } from "@/db/schema";
 import { checkStringPlan, inverterAcKw, STRING_CAUTION } from "@/lib/offer-figures";
 import type { DesignDocument } from "@/lib/schemas/design";
 import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
@@ -58,10 +58,11 @@ async function siteOf(companyId: string, dealId: string) {
       secondContactName: household.secondContactName,
       secondContactPhone: household.secondContactPhone,
       ...householdAddress,
-      utilityName: deal.utilityName,
+      utilityName: utility.name,
     })
     .from(deal)
     .innerJoin(household, and(eq(household.id, deal.householdId), eq(household.companyId, deal.companyId)))
+    .leftJoin(utility, and(eq(utility.id, deal.utilityId), eq(utility.companyId, deal.companyId)))
     .where(and(eq(deal.id, dealId), eq(deal.companyId, companyId)))
     .limit(1);
   return h ?? null;

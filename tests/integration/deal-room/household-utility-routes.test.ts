@@ -1,6 +1,7 @@
 // The Household tab's two saves through their route handlers (PUT /api/deals/<id>/household and
-// /utility), signed in through better-auth: a bad body is refused naming the field, a role
-// without deals:write is refused, and another company's (or another rep's) deal is not found.
+// /utility) and the new-lead route, signed in through better-auth: a bad body is refused naming
+// the field (a site without a real position above all), a role without deals:write is refused,
+// and another company's (or another rep's) deal is not found.
 import { eq } from "drizzle-orm";
 import { NextRequest } from "next/server";
 import { beforeAll, describe, expect, it } from "vitest";
@@ -9,7 +10,7 @@ import { createLead } from "@/server/deals";
 import { db } from "@/server/db";
 import { createRatePlan } from "@/server/rate-plans";
 import type { Member } from "@/server/session";
-import { addMember, newCompany } from "../support/fixtures";
+import { addMember, newCompany, newUtility } from "../support/fixtures";
 import { signedInHeaders } from "../support/sign-in";
 
 type Route = (req: NextRequest, ctx: { params: Promise<{ id: string }> }) => Promise<Response>;
@@ -99,34 +100,82 @@ describe("PUT /api/deals/<id>/household", () => {
   });
 });
 
+describe("coordinates are required and real", () => {
+  it("refuses a lead or household without a usable position, naming the reason, and stores nothing", async () => {
+    const leadRoute = (await import("@/app/api/deals/route")).POST as unknown as Route;
+    const postLead = (body: unknown) =>
+      leadRoute(new NextRequest("http://localhost/api/deals", { method: "POST", headers: { ...as.get("rep"), "content-type": "application/json" }, body: JSON.stringify(body) }), { params: Promise.resolve({ id: "" }) });
+    const lead = { ...home, name: "Nowhere household", source: "Referral" };
+    const reasons: [unknown, RegExp][] = [
+      [{ ...lead, latitude: null }, /Enter the latitude/],
+      [{ ...lead, latitude: 0, longitude: 0 }, /0, 0 is open sea/],
+      [{ ...lead, latitude: 136.1 }, /between −90 and 90/],
+      // A dropped minus sign puts a Greensboro house in China: refused against the ZIP.
+      [{ ...lead, longitude: 79.8 }, /km from ZIP 27405 \(Greensboro, NC\)/],
+    ];
+    for (const [body, reason] of reasons) {
+      const res = await postLead(body);
+      expect(res.status).toBe(422);
+      const error = ((await res.json()) as ErrorBody).error;
+      expect(Object.keys(error.fields ?? {})).toContain("latitude");
+      expect(error.fields?.latitude?.[0] ?? "").toMatch(reason);
+    }
+    expect(await db().select().from(household).where(eq(household.name, "Nowhere household"))).toEqual([]);
+    expect((await postLead(lead)).status).toBe(201);
+
+    await refusedNaming(await putJson(householdRoute, "rep", dealId, { ...home, latitude: 0, longitude: 0 }), "latitude");
+    await refusedNaming(await putJson(householdRoute, "rep", dealId, { ...home, latitude: -79.8, longitude: 36.1 }), "latitude");
+    expect(await storedHousehold()).toMatchObject({ latitude: home.latitude, longitude: home.longitude });
+  });
+});
+
 describe("PUT /api/deals/<id>/utility", () => {
-  it("sets and clears the utility and the company's rate plan", async () => {
+  it("sets the utility and one of its plans, and clears them", async () => {
+    const utilityId = await newUtility(owner, "Route Electric");
     const plan = await createRatePlan(owner, {
-      utilityName: "Route Electric",
+      utilityId,
       active: true,
       plan: { name: "Flat route", fixedMonthlyCents: 1000, energy: { kind: "flat", centsPerKwh: 14 }, compensation: { kind: "net-metering" } },
     });
-    expect((await putJson(utilityRoute, "rep", dealId, { utilityName: "Route Electric", ratePlanId: plan.id })).status).toBe(200);
-    expect(await storedDeal()).toMatchObject({ utilityName: "Route Electric", ratePlanId: plan.id });
-    expect((await putJson(utilityRoute, "rep", dealId, { utilityName: "", ratePlanId: "" })).status).toBe(200);
-    expect(await storedDeal()).toMatchObject({ utilityName: null, ratePlanId: null });
+    expect((await putJson(utilityRoute, "rep", dealId, { utilityId, ratePlanId: plan.id })).status).toBe(200);
+    expect(await storedDeal()).toMatchObject({ utilityId, ratePlanId: plan.id });
+    expect((await putJson(utilityRoute, "rep", dealId, { utilityId: "", ratePlanId: "" })).status).toBe(200);
+    expect(await storedDeal()).toMatchObject({ utilityId: null, ratePlanId: null });
+    // A plan alone names its utility.
+    expect((await putJson(utilityRoute, "rep", dealId, { utilityId: "", ratePlanId: plan.id })).status).toBe(200);
+    expect(await storedDeal()).toMatchObject({ utilityId, ratePlanId: plan.id });
+    expect((await putJson(utilityRoute, "rep", dealId, { utilityId: "", ratePlanId: "" })).status).toBe(200);
   });
 
-  it("refuses a malformed id and another company's rate plan naming ratePlanId", async () => {
-    await refusedNaming(await putJson(utilityRoute, "owner", dealId, { utilityName: "X", ratePlanId: "plan-7" }), "ratePlanId");
-    const theirs = await createRatePlan((await newCompany("Plan Owner Solar")), {
-      utilityName: "Their Electric",
+  it("refuses a malformed id, another company's utility or plan, and a plan of another utility, naming the field", async () => {
+    const ours = await newUtility(owner, "Our Electric");
+    const neighbour = await newUtility(owner, "Neighbour Electric");
+    const neighbourPlan = await createRatePlan(owner, {
+      utilityId: neighbour,
+      active: true,
+      plan: { name: "Neighbour flat", fixedMonthlyCents: 900, energy: { kind: "flat", centsPerKwh: 12 }, compensation: { kind: "net-metering" } },
+    });
+    await refusedNaming(await putJson(utilityRoute, "owner", dealId, { utilityId: ours, ratePlanId: "plan-7" }), "ratePlanId");
+    const res = await putJson(utilityRoute, "owner", dealId, { utilityId: ours, ratePlanId: neighbourPlan.id });
+    expect(((await res.clone().json()) as ErrorBody).error.fields?.ratePlanId).toEqual(["This plan belongs to Neighbour Electric: pick one of the household's utility's plans"]);
+    await refusedNaming(res, "ratePlanId");
+    const elsewhere = await newCompany("Plan Owner Solar");
+    const theirUtility = await newUtility(elsewhere, "Their Electric");
+    const theirs = await createRatePlan(elsewhere, {
+      utilityId: theirUtility,
       active: true,
       plan: { name: "Theirs", fixedMonthlyCents: 900, energy: { kind: "flat", centsPerKwh: 12 }, compensation: { kind: "net-metering" } },
     });
-    await refusedNaming(await putJson(utilityRoute, "owner", dealId, { utilityName: "X", ratePlanId: theirs.id }), "ratePlanId");
-    await refusedNaming(await putJson(utilityRoute, "owner", dealId, { utilityName: 7, ratePlanId: "" }), "utilityName");
-    expect((await storedDeal()).ratePlanId).toBeNull();
+    await refusedNaming(await putJson(utilityRoute, "owner", dealId, { utilityId: "", ratePlanId: theirs.id }), "ratePlanId");
+    await refusedNaming(await putJson(utilityRoute, "owner", dealId, { utilityId: theirUtility, ratePlanId: "" }), "utilityId");
+    await refusedNaming(await putJson(utilityRoute, "owner", dealId, { utilityId: 7, ratePlanId: "" }), "utilityId");
+    expect(await storedDeal()).toMatchObject({ utilityId: null, ratePlanId: null });
   });
 
   it("refuses a crew member (403) and another company (404)", async () => {
-    expect((await putJson(utilityRoute, "crew", dealId, { utilityName: "Crew Power", ratePlanId: "" })).status).toBe(403);
-    expect((await putJson(utilityRoute, "stranger", dealId, { utilityName: "Stranger Power", ratePlanId: "" })).status).toBe(404);
-    expect((await storedDeal()).utilityName).toBeNull();
+    const utilityId = await newUtility(owner, "Crew Power");
+    expect((await putJson(utilityRoute, "crew", dealId, { utilityId, ratePlanId: "" })).status).toBe(403);
+    expect((await putJson(utilityRoute, "stranger", dealId, { utilityId, ratePlanId: "" })).status).toBe(404);
+    expect((await storedDeal()).utilityId).toBeNull();
   });
 });

@@ -145,7 +145,7 @@ describe("deals table pages kept in memory", () => {
   it("moves the revision only for changes the table shows, and only the writer's company's", async () => {
     const ours = await revision(owner.companyId);
     const theirs = await revision(stranger.companyId);
-    await exec("UPDATE deal SET utility_name = 'Piedmont Power' WHERE id = ?", [deals[0]]);
+    await exec("UPDATE deal SET rate_plan_id = UUID() WHERE id = ?", [deals[0]]);
     expect(await revision(owner.companyId)).toBe(ours);
     await exec("UPDATE deal SET contract_cents = contract_cents + 100 WHERE id = ?", [deals[0]]);
     expect(await revision(owner.companyId)).toBe(ours + 1);

@@ -12,7 +12,7 @@ import { companySettingsSchema, DEFAULT_FINANCE, DEFAULT_STALL_SETTINGS } from "
 import { offerInputsSchema, type OfferInputsInput } from "@/lib/schemas/offer";
 import { updateCompanySettings } from "@/server/company-settings";
 import type { Member } from "@/server/session";
-import { addMember, newCompany, rejects, uniqueEmail } from "../support/fixtures";
+import { addMember, newCompany, rejects, uniqueEmail, newUtility } from "../support/fixtures";
 import { openDeal } from "@/server/deal-scope";
 
 let fake: MailFake | null = null;
@@ -115,7 +115,7 @@ beforeAll(async () => {
   });
   ratePlanId = (
     await createRatePlan(owner, {
-      utilityName: "Test Electric",
+      utilityId: await newUtility(owner),
       active: true,
       plan: { name: "Flat test", fixedMonthlyCents: 1000, energy: { kind: "flat", centsPerKwh: 14 }, compensation: { kind: "net-metering" } },
     })

@@ -119,7 +119,7 @@ describe("the freeze rule", () => {
     await recomputeAll(d);
 
     const plan = await m.ratePlans.getRatePlanOrThrow(w.owner.companyId, w.ratePlanId);
-    await m.ratePlans.updateRatePlan(w.owner, w.ratePlanId, { utilityName: plan.utilityName, active: true, plan: { ...plan.plan, fixedMonthlyCents: 1200 } });
+    await m.ratePlans.updateRatePlan(w.owner, w.ratePlanId, { utilityId: plan.utilityId, active: true, plan: { ...plan.plan, fixedMonthlyCents: 1200 } });
     expect((await stale(d)).map(([, s]) => s)).toEqual([["rate_plan"], ["rate_plan"]]);
     expect((await rejection(send(d), 409)).message).toMatch(/\(rate plan changed\)/);
     await recomputeAll(d);

@@ -8,7 +8,7 @@ import sharp from "sharp";
 import { expect } from "vitest";
 import { startMailFake, type MailFake } from "@/fakes/mail-server";
 import type { Member } from "@/server/session";
-import { addMember, newCompany, uniqueEmail } from "../support/fixtures";
+import { addMember, newCompany, uniqueEmail, newUtility } from "../support/fixtures";
 
 /** A private dev outbox when the suite runs alone (before anything reads the configuration). */
 export async function startMailIfNeeded(): Promise<MailFake | null> {
@@ -121,7 +121,7 @@ export async function newWorld(name: string): Promise<World> {
   });
   const ratePlanId = (
     await createRatePlan(owner, {
-      utilityName: "Test Electric",
+      utilityId: await newUtility(owner),
       active: true,
       plan: { name: "Flat test", fixedMonthlyCents: 1000, energy: { kind: "flat", centsPerKwh: 14 }, compensation: { kind: "net-metering" } },
     })

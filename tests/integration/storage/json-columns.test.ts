@@ -10,7 +10,7 @@ import { emptyPriceBook, type PriceBook } from "@/lib/schemas/price-book";
 import { db } from "@/server/db";
 import { getPriceBook } from "@/server/price-book";
 import { getRatePlanOrThrow } from "@/server/rate-plans";
-import { newCompany } from "../support/fixtures";
+import { newCompany, newUtility } from "../support/fixtures";
 
 async function failure(promise: Promise<unknown>): Promise<JsonColumnError> {
   const err = await promise.then(
@@ -34,7 +34,7 @@ describe("JSON columns validated by their schema", () => {
   it("refuses a stored rate plan that is valid JSON of the wrong shape", async () => {
     const owner = await newCompany("Flat Plan Solar");
     const id = crypto.randomUUID();
-    await db().insert(ratePlan).values({ id, companyId: owner.companyId, name: "Old", utilityName: "Utility", plan: sql`'[1,2,3]'` });
+    await db().insert(ratePlan).values({ id, companyId: owner.companyId, name: "Old", utilityId: await newUtility(owner), plan: sql`'[1,2,3]'` });
     const err = await failure(getRatePlanOrThrow(owner.companyId, id));
     expect(err.message).toMatch(/^rate_plan\.plan: the stored JSON does not match its schema/);
   });

@@ -7,6 +7,7 @@ import { db } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import { createCompanyForOwner } from "@/server/people";
 import type { Member } from "@/server/session";
+import { createUtility } from "@/server/utilities";
 
 export const uniqueEmail = (prefix: string) => `${prefix}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}@integration.example`;
 
@@ -45,4 +46,9 @@ export async function rejects(promise: Promise<unknown>, status: number, code?: 
   expect((err as HttpError).status).toBe(status);
   if (code) expect((err as HttpError).code).toBe(code);
   return err as HttpError;
+}
+
+/** A utility of the owner's company (rate plans belong to one). */
+export async function newUtility(owner: Member, name = "Test Electric"): Promise<string> {
+  return (await createUtility(owner, { name, timeZone: "America/New_York", territoryNotes: null })).id;
 }

@@ -1,18 +1,48 @@
 "use client";
-import type { FieldErrors, UseFormRegister } from "react-hook-form";
-import { Field } from "@/components/ui/field";
+import type { UseFormReturn } from "react-hook-form";
+import { Field, SelectField } from "@/components/ui/field";
 import type { HouseholdInput } from "@/lib/schemas/deal";
 import { numberFromField } from "@/lib/schemas/text";
+import { SitePosition } from "./site-position";
 
-export type RatePlanOption = { id: string; name: string; utilityName: string };
+export type UtilityChoices = { utilities: { id: string; name: string }[]; plans: { id: string; name: string; utilityId: string }[] };
+export type UtilityPick = { utilityId: string; ratePlanId: string };
 
-/** The company's rate plans for a select, "not known yet" first (the new-lead form and the Household tab). */
-export function ratePlanOptions(plans: readonly RatePlanOption[]) {
-  return [{ value: "", label: "Not known yet" }, ...plans.map((p) => ({ value: p.id, label: `${p.utilityName} — ${p.name}` }))];
+/**
+ * The household's utility from the company's list, and one of that utility's rate plans (the
+ * new-lead form and the Household tab). With no utility picked yet the plan list holds every
+ * utility's plans by name, and picking one picks its utility too (one tap at the door).
+ */
+export function UtilityPlanSelects({ choices, value, onChange, errors }: { choices: UtilityChoices; value: UtilityPick; onChange: (next: UtilityPick) => void; errors: { utilityId?: string; ratePlanId?: string } }) {
+  const utilityName = new Map(choices.utilities.map((u) => [u.id, u.name]));
+  const plans = value.utilityId ? choices.plans.filter((p) => p.utilityId === value.utilityId) : choices.plans;
+  return (
+    <>
+      <SelectField
+        id="utilityId"
+        label="Utility"
+        error={errors.utilityId}
+        hint={choices.utilities.length === 0 ? "The office adds utilities on the Utilities screen (Rate plans)." : undefined}
+        options={[{ value: "", label: "Not known yet" }, ...choices.utilities.map((u) => ({ value: u.id, label: u.name }))]}
+        value={value.utilityId}
+        onChange={(e) => onChange({ utilityId: e.target.value, ratePlanId: e.target.value === value.utilityId ? value.ratePlanId : "" })}
+      />
+      <SelectField
+        id="ratePlanId"
+        label="Rate plan"
+        error={errors.ratePlanId}
+        options={[{ value: "", label: "Not known yet" }, ...plans.map((p) => ({ value: p.id, label: value.utilityId ? p.name : `${utilityName.get(p.utilityId) ?? ""} — ${p.name}` }))]}
+        value={value.ratePlanId}
+        onChange={(e) => onChange({ utilityId: choices.plans.find((p) => p.id === e.target.value)?.utilityId ?? value.utilityId, ratePlanId: e.target.value })}
+      />
+    </>
+  );
 }
 
 /** The household's fields, shared by the new-lead form and the Household tab. */
-export function HouseholdFields({ register, errors }: { register: UseFormRegister<HouseholdInput>; errors: FieldErrors<HouseholdInput> }) {
+export function HouseholdFields({ form }: { form: UseFormReturn<HouseholdInput> }) {
+  const { register } = form;
+  const errors = form.formState.errors;
   return (
     <>
       <fieldset className="grid gap-4 sm:grid-cols-2">
@@ -36,6 +66,7 @@ export function HouseholdFields({ register, errors }: { register: UseFormRegiste
         </div>
         <Field id="latitude" label="Latitude (°N)" inputMode="decimal" error={errors.latitude?.message} {...register("latitude", { setValueAs: numberFromField })} />
         <Field id="longitude" label="Longitude (°E, negative in the Americas)" inputMode="decimal" error={errors.longitude?.message} {...register("longitude", { setValueAs: numberFromField })} />
+        <SitePosition form={form} />
       </fieldset>
     </>
   );

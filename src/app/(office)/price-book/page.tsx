@@ -4,6 +4,7 @@ import { can } from "@/lib/permissions";
 import { emptyPriceBook } from "@/lib/schemas/price-book";
 import { getPriceBookRecord } from "@/server/price-book";
 import { getMember } from "@/server/session";
+import { listUtilities } from "@/server/utilities";
 import { PriceBookClient } from "./price-book-client";
 
 export const metadata: Metadata = { title: "Price book" };
@@ -12,7 +13,7 @@ export default async function PriceBookPage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "pricebook:read")) return <NoAccess section="Price book" />;
-  const record = await getPriceBookRecord(member.companyId);
+  const [record, utilities] = await Promise.all([getPriceBookRecord(member.companyId), listUtilities(member.companyId)]);
   const canEdit = can(member.role, "pricebook:manage");
   return (
     <>
@@ -28,6 +29,7 @@ export default async function PriceBookPage() {
         savedAt={record ? record.updatedAt.toISOString() : null}
         savedBy={record?.updatedByName ?? null}
         today={new Date().toISOString().slice(0, 10)}
+        utilities={utilities.map((u) => ({ id: u.id, name: u.name }))}
       />
     </>
   );

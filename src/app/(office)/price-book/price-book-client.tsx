@@ -1,7 +1,7 @@
 "use client";
 import { useMemo, useState, type ReactNode } from "react";
 import type { Role } from "@/lib/enums";
-import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { FormMessage, SelectField, StatusMessage } from "@/components/ui/field";
 import { RadioGroup } from "@/components/ui/radio-group";
 import { useSave } from "@/components/ui/use-save";
 import { formatDateTime } from "@/lib/format";
@@ -50,7 +50,9 @@ type BookEditor = {
   rename: <T extends { id: string; name: string }>(list: T[], i: number, name: string) => void;
 };
 
-export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string }) {
+type UtilityOption = { id: string; name: string };
+
+export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string; utilities: UtilityOption[] }) {
   const [doc, setDoc] = useState<PriceBook>(props.initial);
   const [errors, setErrors] = useState<PathErrors>({});
   const [saved, setSaved] = useState({ at: props.savedAt, by: props.savedBy });
@@ -119,7 +121,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
 
         <DiscountsSection {...book} />
 
-        <IncentivesSection {...book} today={props.today} />
+        <IncentivesSection {...book} today={props.today} utilities={props.utilities} />
 
         <DepositSection {...book} />
       </fieldset>
@@ -142,12 +144,30 @@ function amountOfKind(kind: Amount["kind"]): Amount {
   return { kind, amountCents: 0 };
 }
 
+/** Whose customers a rule is for: everyone, or one utility's (its own rebates). */
+function IncentiveUtility({ rule, i, err, onChange, utilities }: IncentiveFieldProps & { utilities: UtilityOption[] }) {
+  return (
+    <SelectField
+      id={`inc-${i}-utility`}
+      className="mt-2 max-w-md"
+      selectClassName="min-h-9 py-1 text-sm"
+      label="For customers of"
+      value={rule.utilityId ?? ""}
+      error={err("utilityId")}
+      hint={rule.source === "utility" && !rule.utilityId ? "A utility's rebate: pick the utility, or every household will get it." : undefined}
+      options={[{ value: "", label: "Every utility" }, ...utilities.map((u) => ({ value: u.id, label: u.name }))]}
+      onChange={(e) => onChange((r) => void (r.utilityId = e.target.value || null))}
+    />
+  );
+}
+
 type IncentiveFieldProps = { rule: PriceBookIncentive; i: number; err: (path: string) => string | undefined; onChange: (change: (rule: PriceBookIncentive) => void) => void };
 
 function IncentiveEditor(props: {
   index: number;
   rule: PriceBookIncentive;
   today: string;
+  utilities: UtilityOption[];
   edit: boolean;
   err: (path: string) => string | undefined;
   onChange: (change: (rule: PriceBookIncentive) => void) => void;
@@ -179,6 +199,7 @@ function IncentiveEditor(props: {
         <TextInput id={`inc-${i}-start`} type="date" label="From" value={rule.startDate} error={err("startDate")} onText={(t) => onChange((r) => void (r.startDate = t))} />
         <TextInput id={`inc-${i}-end`} type="date" label="Until (inclusive)" value={rule.endDate} error={err("endDate")} onText={(t) => onChange((r) => void (r.endDate = t))} />
       </div>
+      <IncentiveUtility rule={rule} i={i} err={err} onChange={onChange} utilities={props.utilities} />
       <IncentiveAmountFields rule={rule} i={i} err={err} onChange={onChange} />
       <div className="mt-2 grid gap-2 md:grid-cols-4">
         <div>
@@ -630,7 +651,7 @@ function DiscountsSection({ doc, err, update }: BookEditor) {
   );
 }
 
-function IncentivesSection({ doc, edit, err, update, rename, ...props }: BookEditor & { today: string }) {
+function IncentivesSection({ doc, edit, err, update, rename, ...props }: BookEditor & { today: string; utilities: UtilityOption[] }) {
   return (
     <Section id="incentives" title="Incentives" hint="Rebates and credits as data, each with its dates: an offer applies a rule only on days within them. Nothing is built in; enter federal, state or utility programs here as they change.">
       {doc.incentives.length === 0 ? <p className="text-sm text-graphite-soft">No incentives yet.</p> : null}
@@ -641,6 +662,7 @@ function IncentivesSection({ doc, edit, err, update, rename, ...props }: BookEdi
             index={i}
             rule={rule}
             today={props.today}
+            utilities={props.utilities}
             err={(p) => err(`incentives.${i}.${p}`)}
             edit={edit}
             onChange={(change) => update((d) => change(d.incentives[i]))}
@@ -659,6 +681,7 @@ function IncentivesSection({ doc, edit, err, update, rename, ...props }: BookEdi
                 id: newId("new incentive", d.incentives.map((r) => r.id)),
                 name: "New incentive",
                 source: "utility",
+                utilityId: null,
                 countsOn: "offer",
                 amount: { kind: "fixed", amountCents: 0 },
                 startDate: props.today,

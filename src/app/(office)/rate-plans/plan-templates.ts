@@ -7,7 +7,7 @@ export type EditorRecord = Omit<RatePlanRecord, "plan"> & { plan: RatePlan };
 
 export function newRatePlanRecord(): EditorRecord {
   return {
-    utilityName: "",
+    utilityId: "",
     active: true,
     plan: {
       name: "",

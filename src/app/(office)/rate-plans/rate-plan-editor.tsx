@@ -1,7 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useMemo, useState, type ReactNode } from "react";
-import { FormMessage, StatusMessage } from "@/components/ui/field";
+import { FormMessage, SelectField, StatusMessage } from "@/components/ui/field";
 import { RadioGroup } from "@/components/ui/radio-group";
 import { useSave } from "@/components/ui/use-save";
 import { EngineInputError } from "@/engine/errors";
@@ -29,7 +29,9 @@ type PlanEditorProps = { record: EditorRecord; canEdit: boolean; err: (path: str
 type TouProps = { energy: Tou; err: (p: string) => string | undefined; canEdit: boolean; update: (f: (e: Tou) => void) => void };
 type SeasonProps = TouProps & { s: number; season: Season; periodOptions: { id: string; label: string }[]; byHour: Uint8Array | null };
 
-export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; initial: EditorRecord; canEdit: boolean }) {
+type UtilityOption = { id: string; name: string };
+
+export function RatePlanEditor({ id, initial, canEdit, utilities }: { id: string | null; initial: EditorRecord; canEdit: boolean; utilities: UtilityOption[] }) {
   const router = useRouter();
   const [record, setRecord] = useState<EditorRecord>(initial);
   const [errors, setErrors] = useState<PathErrors>({});
@@ -75,7 +77,7 @@ export function RatePlanEditor({ id, initial, canEdit }: { id: string | null; in
         {errorList.length > 0 ? <ProblemList errorList={errorList} /> : null}
         <fieldset disabled={!canEdit || pending} className="space-y-6">
           <legend className="sr-only">Rate plan</legend>
-          <PlanCard record={record} canEdit={canEdit} err={err} update={update} utilityError={errors.utilityName} />
+          <PlanCard record={record} canEdit={canEdit} err={err} update={update} utilityError={errors.utilityId} utilities={utilities} />
 
           <EnergyCard record={record} canEdit={canEdit} err={err} update={update} />
 
@@ -466,12 +468,21 @@ function ProblemList({ errorList }: { errorList: [string, string][] }) {
   );
 }
 
-function PlanCard({ record, err, update, utilityError }: PlanEditorProps & { utilityError: string | undefined }) {
+function PlanCard({ record, err, update, utilityError, utilities }: PlanEditorProps & { utilityError: string | undefined; utilities: UtilityOption[] }) {
   const plan = record.plan;
   return (
     <Card title="Plan">
       <div className="grid gap-3 md:grid-cols-2">
-        <TextField id="plan-utility" label="Utility" value={record.utilityName} error={utilityError} onText={(t) => update((d) => void (d.utilityName = t))} />
+        <SelectField
+          id="plan-utility"
+          label="Utility"
+          selectClassName="min-h-9 py-1 text-sm"
+          value={record.utilityId}
+          error={utilityError}
+          hint={utilities.length === 0 ? "Add the utility on the Utilities screen first." : undefined}
+          options={[{ value: "", label: "Pick the utility" }, ...utilities.map((u) => ({ value: u.id, label: u.name }))]}
+          onChange={(e) => update((d) => void (d.utilityId = e.target.value))}
+        />
         <TextField id="plan-name" label="Plan name" value={plan.name} error={err("name")} onText={(t) => update((d) => void (d.plan.name = t))} />
         <MoneyInput id="plan-fixed" label="Fixed charge ($ / month)" value={plan.fixedMonthlyCents} error={err("fixedMonthlyCents")} onValue={(v) => update((d) => void (d.plan.fixedMonthlyCents = nn(v)))} />
         <MoneyInput id="plan-minimum" label="Minimum bill ($ / month, fixed charge included)" value={plan.minimumBillCents} error={err("minimumBillCents")} onValue={(v) => update((d) => void (d.plan.minimumBillCents = nn(v)))} />

@@ -20,7 +20,7 @@ export function HouseholdForm({ dealId, defaults, readOnly }: { dealId: string; 
     <form onSubmit={form.handleSubmit(save.saveAndWait)} noValidate className="card space-y-6 p-5">
       <StatusMessage notice={save.notice} />
       <fieldset disabled={readOnly} className="space-y-6">
-        <HouseholdFields register={form.register} errors={form.formState.errors} />
+        <HouseholdFields form={form} />
       </fieldset>
       {readOnly ? null : (
         <button type="submit" className="btn-primary" disabled={isSubmitting || !isDirty}>

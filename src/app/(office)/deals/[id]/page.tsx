@@ -1,5 +1,9 @@
 import type { Metadata } from "next";
-import { listRatePlanOptions } from "@/server/deals";
+import { siteTimeZone } from "@/engine/site-time-zone";
+import { sitePositionProblem } from "@/engine/site-position";
+import { listUtilityChoices } from "@/server/deals";
+import { getDesignForDeal } from "@/server/designs";
+import { siteStation, type SiteStation } from "@/server/weather-stations";
 import { listSitePhotos } from "@/server/site-photos";
 import { dealPageScope } from "./deal-page";
 import { HouseholdForm } from "./household-form";
@@ -14,7 +18,9 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
   const scope = await dealPageScope(params);
   if (!scope) return null;
   const { dealId: id, household, deal, rights } = scope;
-  const [plans, sitePhotos] = await Promise.all([listRatePlanOptions(scope.member), listSitePhotos(scope.member, id)]);
+  const [choices, sitePhotos, design] = await Promise.all([listUtilityChoices(scope.member), listSitePhotos(scope.member, id), getDesignForDeal(scope)]);
+  const positionProblem = sitePositionProblem(household.latitude, household.longitude);
+  const station = positionProblem ? null : await siteStation(scope.companyId, household, design?.document.weather ?? { kind: "nearest" });
   const readOnly = !rights.edit;
   const { name, street, city, region, postalCode, latitude, longitude } = household;
   const site = { name, street, city, region, postalCode, latitude, longitude };
@@ -38,10 +44,30 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
           <dd className="figure">
             {household.latitude.toFixed(4)}, {household.longitude.toFixed(4)}
           </dd>
+          {positionProblem ? null : (
+            <>
+              <dt className="text-graphite-soft">Time zone</dt>
+              <dd data-testid="site-time-zone">{siteTimeZone(household.latitude, household.longitude)} (from the coordinates)</dd>
+              <dt className="text-graphite-soft">Weather</dt>
+              <dd data-testid="site-station">{station ? stationText(station) : null}</dd>
+            </>
+          )}
         </dl>
-        <UtilityForm dealId={id} utilityName={deal.utilityName ?? ""} ratePlanId={deal.ratePlanId ?? ""} plans={plans} readOnly={readOnly} />
+        {positionProblem ? (
+          <p role="alert" className="mt-2 text-sm text-danger">
+            {positionProblem}. Nothing can be estimated for this site until it is set.
+          </p>
+        ) : null}
+        <UtilityForm dealId={id} utilityId={deal.utilityId ?? ""} ratePlanId={deal.ratePlanId ?? ""} choices={choices} readOnly={readOnly} />
       </aside>
       <SitePhotos dealId={id} canEdit={!readOnly} photos={sitePhotos.map((p) => ({ id: p.id, fileName: p.fileName, uploadedByName: p.uploadedByName }))} />
     </div>
   );
+}
+
+function stationText(s: SiteStation): string {
+  if (s.kind === "manual") return "A production figure typed on the Design tab (no station)";
+  if (s.kind === "none") return `No weather station within ${s.maxDistanceKm} km`;
+  const km = s.distanceKm.toLocaleString("en-US", { maximumFractionDigits: 1 });
+  return `${s.name}, ${km} km away (${s.how === "chosen" ? "chosen on the design" : "the nearest"})`;
 }

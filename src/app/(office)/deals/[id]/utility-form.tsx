@@ -1,14 +1,14 @@
 "use client";
 import { useState } from "react";
-import { Field, SelectField, StatusMessage } from "@/components/ui/field";
+import { StatusMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
-import { ratePlanOptions, type RatePlanOption } from "../household-fields";
+import { UtilityPlanSelects, type UtilityChoices, type UtilityPick } from "../household-fields";
 
-type Utility = { utilityName: string; ratePlanId: string };
+type Utility = UtilityPick;
 
 /** The deal's utility and rate plan: the plan prices every bill before and after solar. */
-export function UtilityForm(props: Utility & { dealId: string; plans: RatePlanOption[]; readOnly: boolean }) {
-  const [utility, setUtility] = useState<Utility>({ utilityName: props.utilityName, ratePlanId: props.ratePlanId });
+export function UtilityForm(props: Utility & { dealId: string; choices: UtilityChoices; readOnly: boolean }) {
+  const [utility, setUtility] = useState<Utility>({ utilityId: props.utilityId, ratePlanId: props.ratePlanId });
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const save = useSave<Utility>({
     request: (json) => ({ url: `/api/deals/${props.dealId}/utility`, method: "PUT", json }),
@@ -27,15 +27,7 @@ export function UtilityForm(props: Utility & { dealId: string; plans: RatePlanOp
     >
       <StatusMessage notice={save.notice} />
       <fieldset disabled={props.readOnly || save.pending} className="space-y-3">
-        <Field id="deal-utility" label="Utility" error={errors.utilityName?.[0]} value={utility.utilityName} onChange={(e) => setUtility({ ...utility, utilityName: e.target.value })} />
-        <SelectField
-          id="deal-rate-plan"
-          label="Rate plan"
-          error={errors.ratePlanId?.[0]}
-          options={ratePlanOptions(props.plans)}
-          value={utility.ratePlanId}
-          onChange={(e) => setUtility({ ...utility, ratePlanId: e.target.value })}
-        />
+        <UtilityPlanSelects choices={props.choices} value={utility} onChange={setUtility} errors={{ utilityId: errors.utilityId?.[0], ratePlanId: errors.ratePlanId?.[0] }} />
       </fieldset>
       {props.readOnly ? null : (
         <button type="submit" className="btn-quiet" disabled={save.pending}>

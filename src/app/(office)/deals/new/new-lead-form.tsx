@@ -1,20 +1,20 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useForm, type UseFormRegister } from "react-hook-form";
-import { Field, SelectField, StatusMessage } from "@/components/ui/field";
+import { useForm, type UseFormReturn } from "react-hook-form";
+import { SelectField, StatusMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { LEAD_SOURCES, leadSchema, type HouseholdInput, type LeadInput } from "@/lib/schemas/deal";
-import { HouseholdFields, ratePlanOptions, type RatePlanOption } from "../household-fields";
+import { HouseholdFields, UtilityPlanSelects, type UtilityChoices } from "../household-fields";
 
 type Site = { name: string; street: string; city: string; region: string; postalCode: string; latitude: number; longitude: number };
 
 const SOURCE_OPTIONS = LEAD_SOURCES.map((s) => ({ value: s, label: s }));
 
-export function NewLeadForm({ plans, sites }: { plans: RatePlanOption[]; sites: Site[] }) {
+export function NewLeadForm({ choices, sites }: { choices: UtilityChoices; sites: Site[] }) {
   const router = useRouter();
-  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema), defaultValues: { region: "NC", source: "Referral", ratePlanId: "" } });
-  const { register, setValue, formState } = form;
+  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema), defaultValues: { region: "NC", source: "Referral", utilityId: "", ratePlanId: "" } });
+  const { register, setValue, formState, watch } = form;
   const errors = formState.errors;
   const save = useSave<LeadInput, { dealId: string }, LeadInput>({
     request: (json) => ({ url: "/api/deals", method: "POST", json }),
@@ -32,7 +32,7 @@ export function NewLeadForm({ plans, sites }: { plans: RatePlanOption[]; sites: 
   return (
     <form onSubmit={form.handleSubmit(save.saveAndWait)} noValidate className="card mt-6 space-y-6 p-5">
       <StatusMessage notice={save.notice} />
-      <HouseholdFields register={register as unknown as UseFormRegister<HouseholdInput>} errors={errors} />
+      <HouseholdFields form={form as unknown as UseFormReturn<HouseholdInput>} />
       {sites.length > 0 ? (
         <SelectField
           id="recent-site"
@@ -48,8 +48,15 @@ export function NewLeadForm({ plans, sites }: { plans: RatePlanOption[]; sites: 
       ) : null}
       <fieldset className="grid gap-4 sm:grid-cols-3">
         <legend className="mb-2 text-sm font-semibold uppercase tracking-wide text-graphite-soft">Utility and lead</legend>
-        <Field id="utilityName" label="Utility" error={errors.utilityName?.message} {...register("utilityName")} />
-        <SelectField id="ratePlanId" label="Rate plan" error={errors.ratePlanId?.message} options={ratePlanOptions(plans)} {...register("ratePlanId")} />
+        <UtilityPlanSelects
+          choices={choices}
+          value={{ utilityId: watch("utilityId") ?? "", ratePlanId: watch("ratePlanId") ?? "" }}
+          onChange={(next) => {
+            setValue("utilityId", next.utilityId);
+            setValue("ratePlanId", next.ratePlanId);
+          }}
+          errors={{ utilityId: errors.utilityId?.message, ratePlanId: errors.ratePlanId?.message }}
+        />
         <SelectField id="source" label="Lead source" options={SOURCE_OPTIONS} {...register("source")} />
       </fieldset>
       <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>

@@ -7,6 +7,7 @@ import { HttpError } from "@/server/errors";
 import { getRatePlanOrThrow, type RatePlanRow } from "@/server/rate-plans";
 import { idSchema } from "@/server/route";
 import { getMember } from "@/server/session";
+import { listUtilities } from "@/server/utilities";
 import { RatePlanEditor } from "../rate-plan-editor";
 
 export const metadata: Metadata = { title: "Rate plan" };
@@ -31,7 +32,7 @@ export default async function RatePlanPage({ params }: { params: Promise<{ id: s
       </Link>
       <h1 className="mt-1 text-2xl font-semibold">{row.name}</h1>
       <p className="text-graphite-soft">{row.utilityName}</p>
-      <RatePlanEditor id={row.id} initial={{ utilityName: row.utilityName, active: row.active, plan: row.plan }} canEdit={can(member.role, "rates:manage")} />
+      <RatePlanEditor id={row.id} initial={{ utilityId: row.utilityId, active: row.active, plan: row.plan }} canEdit={can(member.role, "rates:manage")} utilities={await listUtilities(member.companyId)} />
     </>
   );
 }

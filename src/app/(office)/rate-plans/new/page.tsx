@@ -3,6 +3,7 @@ import Link from "next/link";
 import { NoAccess } from "@/components/no-access";
 import { can } from "@/lib/permissions";
 import { getMember } from "@/server/session";
+import { listUtilities } from "@/server/utilities";
 import { newRatePlanRecord } from "../plan-templates";
 import { RatePlanEditor } from "../rate-plan-editor";
 
@@ -18,7 +19,7 @@ export default async function NewRatePlanPage() {
         ← Rate plans
       </Link>
       <h1 className="mt-1 text-2xl font-semibold">New rate plan</h1>
-      <RatePlanEditor id={null} initial={newRatePlanRecord()} canEdit />
+      <RatePlanEditor id={null} initial={newRatePlanRecord()} canEdit utilities={await listUtilities(member.companyId)} />
     </>
   );
 }

@@ -25,6 +25,8 @@ const PREVIEW_DELAY_MS = 400;
 type OfferView = { id: string; position: number; name: string; inputs: OfferInputs; results: OfferFigures; discountStatus: DiscountStatus; stale: StaleInput[] };
 type DesignView = { faces: { id: string; name: string; usableSlots: number; moduleCount: number }[]; moduleId: string; inverterId: string };
 type Option = { id: string; label: string };
+/** A rate plan; `otherUtility` when it is not of the household's utility (needs a reason). */
+type PlanOption = Option & { otherUtility: boolean };
 type RequestView = { id: string; offerId: string; offerName: string; amountCents: number; reason: string; status: "pending" | "approved" | "declined"; requestedByName: string | null; decisionNote: string | null; createdAt: string };
 
 type Props = {
@@ -38,7 +40,7 @@ type Props = {
   lineItems: { id: string; name: string; amountCents: number }[];
   modules: Option[];
   inverters: Option[];
-  ratePlans: Option[];
+  ratePlans: PlanOption[];
   requests: RequestView[];
 };
 
@@ -280,6 +282,7 @@ type FormState = {
   /** Cents; null = the deposit asked at signing; NaN = not a number. */
   downPaymentCents: number | null;
   ratePlanId: string;
+  ratePlanOverrideReason: string;
 };
 
 const toNumber = (s: string) => (s.trim() === "" ? Number.NaN : Number(s));
@@ -302,7 +305,8 @@ function initialFormState(props: Props & { existing: OfferView | null }, faces: 
     termMonths: i?.payment.kind === "loan" ? String(i.payment.termMonths) : "240",
     dealerFeePct: i?.payment.kind === "loan" ? String(i.payment.dealerFeePct) : "0",
     downPaymentCents: i?.payment.kind === "loan" ? i.payment.downPaymentCents : null,
-    ratePlanId: i?.ratePlanId ?? props.dealRatePlanId ?? props.ratePlans[0]?.id ?? "",
+    ratePlanId: i?.ratePlanId ?? props.dealRatePlanId ?? props.ratePlans.find((p) => !p.otherUtility)?.id ?? "",
+    ratePlanOverrideReason: i?.ratePlanOverrideReason ?? "",
   };
 }
 
@@ -321,6 +325,7 @@ function formInputs(state: FormState, faces: DesignView["faces"], design: Design
     discountReason: state.discountReason,
     payment: state.paymentKind === "cash" ? { kind: "cash" } : { kind: "loan", aprPct: toNumber(state.aprPct), termMonths: toNumber(state.termMonths), dealerFeePct: toNumber(state.dealerFeePct), downPaymentCents: state.downPaymentCents },
     ratePlanId: state.ratePlanId === dealRatePlanId || state.ratePlanId === "" ? null : state.ratePlanId,
+    ratePlanOverrideReason: state.ratePlanOverrideReason,
   };
 }
 
@@ -406,8 +411,18 @@ function OfferForm(props: Props & { existing: OfferView | null; onClose: () => v
         value={state.ratePlanId}
         error={err("ratePlanId")}
         options={[...(props.dealRatePlanId ? [] : [{ value: "", label: "Pick the household's rate plan" }]), ...optionsOf(props.ratePlans)]}
-        onChange={(e) => set({ ratePlanId: e.target.value })}
+        onChange={(e) => set({ ratePlanId: e.target.value, ratePlanOverrideReason: "" })}
       />
+      {props.ratePlans.find((p) => p.id === state.ratePlanId)?.otherUtility ? (
+        <Field
+          id="offer-rate-plan-reason"
+          className="max-w-md"
+          label="Why another utility's plan (kept on the Timeline)"
+          value={state.ratePlanOverrideReason}
+          error={err("ratePlanOverrideReason")}
+          onChange={(e) => set({ ratePlanOverrideReason: e.target.value })}
+        />
+      ) : null}
 
       <OfferPreviewPanel preview={preview} error={previewError} busy={previewBusy} />
 

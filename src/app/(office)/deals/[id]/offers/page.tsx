@@ -4,7 +4,7 @@ import { listActiveInverters, listActiveModules } from "@/server/catalog";
 import { getDesignForDeal } from "@/server/designs";
 import { listDiscountRequestsForDeal, listOffers } from "@/server/offers";
 import { getPriceBook } from "@/server/price-book";
-import { listRatePlans } from "@/server/rate-plans";
+import { listRatePlans, type RatePlanRow } from "@/server/rate-plans";
 import { dealPageScope } from "../deal-page";
 import { OffersClient } from "./offers-client";
 
@@ -36,8 +36,19 @@ export default async function OffersTab({ params }: { params: Promise<{ id: stri
       lineItems={book.lineItems.map((l) => ({ id: l.id, name: l.name, amountCents: l.amountCents }))}
       modules={modules.map((m) => ({ id: m.id, label: `${m.manufacturer} ${m.model} · ${m.stcWatts} W` }))}
       inverters={inverters.map((i) => ({ id: i.id, label: `${i.manufacturer} ${i.model} · ${i.kind === "micro" ? "micro" : `${(i.acWatts / 1000).toFixed(1)} kW string`}` }))}
-      ratePlans={ratePlans.filter((p) => p.active || p.id === room.deal.ratePlanId).map((p) => ({ id: p.id, label: `${p.utilityName}: ${p.name}` }))}
+      ratePlans={planChoices(ratePlans, room.deal)}
       requests={requests.map((r) => ({ id: r.id, offerId: r.offerId, offerName: r.offerName, amountCents: r.amountCents, reason: r.reason, status: r.status, requestedByName: r.requestedByName, decisionNote: r.decisionNote, createdAt: r.createdAt.toISOString() }))}
     />
   );
+}
+
+/** The household's utility's plans first; other utilities' plans after them, marked (they need a reason). */
+function planChoices(plans: RatePlanRow[], deal: { utilityId: string | null; ratePlanId: string | null }) {
+  const usable = plans.filter((p) => p.active || p.id === deal.ratePlanId);
+  const other = (p: RatePlanRow) => deal.utilityId !== null && p.utilityId !== deal.utilityId;
+  return [...usable.filter((p) => !other(p)), ...usable.filter(other)].map((p) => ({
+    id: p.id,
+    label: other(p) ? `Another utility — ${p.utilityName}: ${p.name}` : deal.utilityId ? p.name : `${p.utilityName}: ${p.name}`,
+    otherUtility: other(p),
+  }));
 }
