@@ -10,10 +10,12 @@ import { can } from "@/lib/permissions";
 import { buildProposalSnapshot, FIRST_PROPOSAL_NUMBER, proposalLabel, type SnapshotSource } from "@/lib/proposal-snapshot";
 import { describeStale, type OfferBasis } from "@/lib/offer-basis";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
+import { missingStringPlanReason } from "@/lib/string-plan-rule";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
 import { db, type Tx } from "@/server/db";
 import { openDeal, type DealScope } from "@/server/deal-scope";
+import { getDesignForDeal } from "@/server/designs";
 import { forbidden, HttpError } from "@/server/errors";
 import { sendEmail } from "@/server/mail";
 import { listOffers } from "@/server/offers";
@@ -59,6 +61,11 @@ export async function snapshotSourceFor(scope: DealScope, offerIds: string[] | u
     throw new HttpError(409, "offers_stale", `Recompute these offers: ${stale.map((o) => `"${o.name}" (${describeStale(o.stale)} changed)`).join("; ")}. Open the Offers tab and recompute them.`);
   }
   const bases = chosen.map((o) => o.basis as OfferBasis);
+  const stringPlan = (await getDesignForDeal(scope))?.document.stringPlan;
+  chosen.forEach((o, i) => {
+    const missing = missingStringPlanReason(bases[i].inverter, stringPlan);
+    if (missing) throw fieldError("offerIds", `"${o.name}" cannot go into a proposal yet. ${missing}.`);
+  });
   // Current offers share the deal's one usage year and design revision; the first stands for all.
   const { usage, design: saved, priceBook } = bases[0];
   const h = scope.household;
