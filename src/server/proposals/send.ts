@@ -5,7 +5,7 @@ import { and, eq, inArray, max } from "drizzle-orm";
 import { company, proposal, type Stage } from "@/db/schema";
 import { renderProposalPdf } from "@/documents/proposal-pdf";
 import { env } from "@/env";
-import { formatDate } from "@/lib/format";
+import { formatDate, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { buildProposalSnapshot, FIRST_PROPOSAL_NUMBER, proposalLabel, type SnapshotSource } from "@/lib/proposal-snapshot";
 import { describeStale, type OfferBasis } from "@/lib/offer-basis";
@@ -168,7 +168,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   try {
     numbering = await withFilesUndoneOnFailure((put) => db().transaction(async (tx) => {
       const { earlier, number, version } = await nextNumbering(tx, member.companyId, dealId);
-      const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
+      const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, timeZone: scope.settings.timeZone, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
       await put(key, pdf);
       await tx.insert(proposal).values({
         id,
@@ -196,7 +196,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
         companyId: member.companyId,
         dealId,
         kind: "proposal.sent",
-        summary: `${member.name} sent proposal ${label} to ${toEmail} (${offerNames}), link valid until ${formatDate(expiresAt)}${live.length ? `; replaces ${live.map(labelOf).join(", ")}` : ""}`,
+        summary: `${member.name} sent proposal ${label} to ${toEmail} (${offerNames}), link valid until ${formatDate(expiresAt, scope.settings.timeZone)}${live.length ? `; replaces ${live.map(labelOf).join(", ")}` : ""}`,
         actorUserId: member.userId,
         data: { proposalId: id, number, version },
       });
@@ -216,7 +216,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
     throw err;
   }
   const label = proposalLabel(numbering.number, numbering.version);
-  const mail = await mailProposalLink({ companyId: member.companyId, proposalId: id, dealId, token, snapshot, label, expiresAt, to: toEmail, message, idempotencyKey: `proposal-sent-${id}`, resent: false });
+  const mail = await mailProposalLink({ companyId: member.companyId, proposalId: id, dealId, token, snapshot, label, expiresAt, timeZone: scope.settings.timeZone, to: toEmail, message, idempotencyKey: `proposal-sent-${id}`, resent: false });
   return { id, label, ...numbering, expiresAt, ...mail };
 }
 
@@ -228,6 +228,8 @@ export async function mailProposalLink(m: {
   snapshot: ProposalSnapshot;
   label: string;
   expiresAt: Date;
+  /** The company's zone: the link's last day is its day. */
+  timeZone: string;
   to: string;
   message: string;
   idempotencyKey: string;
@@ -245,7 +247,7 @@ export async function mailProposalLink(m: {
         householdName: m.snapshot.household.name,
         label: m.label,
         offerCount: m.snapshot.offers.length,
-        validUntil: formatDate(m.expiresAt),
+        validUntil: formatDateTime(m.expiresAt, m.timeZone),
         proposalUrl: proposalUrl(m.token),
         message: m.message,
         resent: m.resent,

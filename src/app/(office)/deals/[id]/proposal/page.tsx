@@ -42,5 +42,5 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
     revokedAt: v.revokedAt?.toISOString() ?? null,
     events: v.events.map((e) => ({ ...e, createdAt: e.createdAt.toISOString() })),
   }));
-  return <ProposalClient dealId={id} householdEmail={room.household.email ?? ""} hasDesign={!!design} offers={choices} versions={views} />;
+  return <ProposalClient dealId={id} householdEmail={room.household.email ?? ""} hasDesign={!!design} offers={choices} versions={views} timeZone={room.settings.timeZone} />;
 }
