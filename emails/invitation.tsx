@@ -6,12 +6,11 @@ export interface InvitationEmailProps {
   /** The role as people read it, e.g. "Sales rep". */
   roleLabel: string;
   acceptUrl: string;
-  expiresAt: Date;
+  /** When the invitation lapses, on the company's clock with its zone (src/lib/format.ts formatDateTime). */
+  validUntil: string;
 }
 
-const expiryFormat = new Intl.DateTimeFormat("en-US", { dateStyle: "long", timeStyle: "short", timeZone: "UTC" });
-
-export function InvitationEmail({ companyName, inviterName, roleLabel, acceptUrl, expiresAt }: InvitationEmailProps) {
+export function InvitationEmail({ companyName, inviterName, roleLabel, acceptUrl, validUntil }: InvitationEmailProps) {
   return (
     <EmailLayout
       preview={`${inviterName} invited you to ${companyName} on Kilowright`}
@@ -19,7 +18,7 @@ export function InvitationEmail({ companyName, inviterName, roleLabel, acceptUrl
       action={{ label: "Accept invitation", href: acceptUrl }}
       note={
         <>
-          This invitation works until {expiryFormat.format(expiresAt)} UTC. If you were not expecting it, ignore this
+          This invitation works until {validUntil}. If you were not expecting it, ignore this
           e-mail: nothing happens unless you accept.
         </>
       }
@@ -37,7 +36,7 @@ InvitationEmail.PreviewProps = {
   inviterName: "Dana Okafor",
   roleLabel: "Sales rep",
   acceptUrl: "http://localhost:3000/invite/preview-token",
-  expiresAt: new Date("2030-05-14T17:00:00Z"),
+  validUntil: "May 14, 2030, 1:00 PM EDT",
 } satisfies InvitationEmailProps;
 
 export default InvitationEmail;

@@ -27,7 +27,7 @@ export function ProposalCancelledEmail({ householdName, label, cancelledAt, deal
 ProposalCancelledEmail.PreviewProps = {
   householdName: "Esposito household",
   label: "P-1003 v1",
-  cancelledAt: "Dec 2, 2026, 9:40 AM UTC",
+  cancelledAt: "Dec 2, 2026, 4:40 AM EST",
   dealUrl: "http://localhost:3000/deals/7a11a55e-0000-4000-8000-000000000305/proposal",
 } satisfies ProposalCancelledEmailProps;
 

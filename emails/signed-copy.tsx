@@ -64,7 +64,7 @@ SignedCopyEmail.PreviewProps = {
   label: "P-1003 v1",
   offerName: "Whole roof, cash",
   price: "$21,440",
-  signedAt: "Dec 1, 2026, 6:12 PM UTC",
+  signedAt: "Dec 1, 2026, 1:12 PM EST",
   cancelBy: "Friday, December 4, 2026",
   sha256: "3f0c…preview",
   url: "http://localhost:3000/p/preview-token",

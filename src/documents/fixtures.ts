@@ -244,6 +244,7 @@ export const FIXTURE_META: ProposalPdfMeta = {
   version: 2,
   sentAt: new Date("2026-03-02T15:30:00.000Z"),
   expiresAt: new Date("2026-04-01T15:30:00.000Z"),
+  timeZone: "America/New_York",
   inHomeSale: true,
   cancelDeadlineText: null,
 };
@@ -276,7 +277,9 @@ export function fixtureStamp(signaturePng: Uint8Array, unsignedSha256: string): 
     chosenPosition: offer.position,
     chosenOfferName: offer.name,
     chosenContractCents: offer.figures.summary.contractCents,
+    // 01:12 UTC on the 3rd is 8:12 PM on the 2nd in the company's zone: a wrong clock shows the wrong day.
     signedAt: at("2026-03-03T01:12:45.000Z"),
+    timeZone: "America/New_York",
     ip: "203.0.113.24",
     userAgent:
       "Mozilla/5.0 (iPhone; CPU iPhone OS 19_2 like Mac OS X) AppleWebKit/605.1.15 (KHTML, like Gecko) Version/19.2 Mobile/15E148 Safari/604.1",

@@ -3,6 +3,7 @@
 // with each NEC check and its numbers, the cautions, the office's notes, the install checklist
 // as tick boxes (ticked ones dated) and the photos. Same input, same bytes.
 import { PDFDocument, type PDFImage } from "pdf-lib";
+import { formatCalendarDate, formatDateTime } from "@/lib/format";
 import type { JobPacket } from "@/lib/job-packet";
 import { embedFonts } from "./fonts";
 import {
@@ -31,6 +32,8 @@ export type JobPacketPdfInput = {
   photos: JobPacketPdfPhoto[];
   /** When the packet was printed: the document's date (fixed metadata). */
   printedAt: Date;
+  /** The company's time zone: times printed (printed, installed, checklist done) are on its clock. */
+  timeZone: string;
   /** Where people can read the job online. */
   jobUrl: string;
 };
@@ -40,9 +43,7 @@ function keepHeadingWith(flow: Flow, rows: number): void {
   flow.ensure(60 + ROW_HEIGHT * (Math.min(rows, 4) + 1));
 }
 
-const longDate = (iso: string | null) =>
-  iso ? new Intl.DateTimeFormat("en-US", { weekday: "short", month: "long", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${iso}T00:00:00Z`)) : "not set";
-const stamp = (d: Date) => `${new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" }).format(d)} UTC`;
+const longDate = (iso: string | null) => (iso ? formatCalendarDate(iso, "weekday-date") : "not set");
 
 /** Compass point of an azimuth (degrees clockwise from north). */
 function compass(azimuthDeg: number): string {
@@ -54,7 +55,7 @@ function contactAndSite(flow: Flow, input: JobPacketPdfInput): void {
   const { packet } = input;
   const { customer, site, job } = packet;
   flow.heading(`Job packet: ${customer.name}`, 18);
-  flow.paragraph(`Printed ${stamp(input.printedAt)}. The current packet, with photos and the checklist, is at ${input.jobUrl}`, { size: SMALL_SIZE, color: COLORS.muted });
+  flow.paragraph(`Printed ${formatDateTime(input.printedAt, input.timeZone)}. The current packet, with photos and the checklist, is at ${input.jobUrl}`, { size: SMALL_SIZE, color: COLORS.muted });
   flow.heading("Customer and site", 13);
   flow.facts([
     { label: "Contact", value: customer.contactName ?? customer.name },
@@ -69,7 +70,7 @@ function contactAndSite(flow: Flow, input: JobPacketPdfInput): void {
   flow.facts([
     { label: "Crew", value: packet.crewName ?? "not assigned" },
     { label: "Site survey", value: longDate(job.surveyDate) },
-    { label: "Install", value: job.installedAt ? `${longDate(job.installDate)} (installed ${stamp(job.installedAt)})` : longDate(job.installDate) },
+    { label: "Install", value: job.installedAt ? `${longDate(job.installDate)} (installed ${formatDateTime(job.installedAt, input.timeZone)})` : longDate(job.installDate) },
     { label: "Inspection", value: longDate(job.inspectionOn) },
     {
       label: "Permit (AHJ)",
@@ -188,7 +189,7 @@ function checklist(flow: Flow, input: JobPacketPdfInput): void {
       page.drawLine({ start: { x: MARGIN_X + 3.8, y: flow.y + 1 }, end: { x: MARGIN_X + 7.6, y: flow.y + 7 }, thickness: 1.2, color: COLORS.sage });
     }
     lines.forEach((line, i) => drawLine(page, line, MARGIN_X + box + 8, flow.y - i * lead, { font: fonts.sans, size }));
-    if (item.doneAt) drawLine(page, `done ${stamp(new Date(item.doneAt))}`, MARGIN_X + CONTENT_WIDTH, flow.y, { font: fonts.mono, size: SMALL_SIZE, color: COLORS.muted, align: "right" });
+    if (item.doneAt) drawLine(page, `done ${formatDateTime(new Date(item.doneAt), input.timeZone)}`, MARGIN_X + CONTENT_WIDTH, flow.y, { font: fonts.mono, size: SMALL_SIZE, color: COLORS.muted, align: "right" });
     flow.y -= (lines.length - 1) * lead + (lead - size) + 4;
   }
   flow.space(6);

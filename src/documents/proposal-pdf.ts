@@ -39,6 +39,8 @@ export type ProposalPdfMeta = {
   version: number;
   sentAt: Date;
   expiresAt: Date;
+  /** The company's time zone (Settings → Company): the dates printed are its days. */
+  timeZone: string;
   /** A sale made in the home carries the buyer's right to cancel (16 CFR Part 429). */
   inHomeSale: boolean;
   /** The last day to cancel as text (e.g. "Friday, March 6, 2026"); null when not known yet. */
@@ -145,8 +147,8 @@ function cover(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
       { label: "Proposal", value: `${meta.number}-${meta.version}`, mono: true },
       { label: "Prepared for", value: [s.household.contactName, s.household.email].filter(Boolean).join(" · ") || s.household.name },
       { label: "Prepared by", value: `${s.rep.name} (${s.rep.email}), ${s.company.name}` },
-      { label: "Date", value: formatDate(meta.sentAt) },
-      { label: "Valid until", value: formatDate(meta.expiresAt) },
+      { label: "Date", value: formatDate(meta.sentAt, meta.timeZone) },
+      { label: "Valid until", value: formatDate(meta.expiresAt, meta.timeZone) },
       ...(s.company.licenseNumber ? [{ label: "Contractor license", value: s.company.licenseNumber }] : []),
     ],
     130,
@@ -504,7 +506,7 @@ function signaturePage(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): 
   page.drawLine({ start: { x: SIGNER_NAME_BOX.x, y: SIGNER_NAME_BOX.y }, end: { x: SIGNER_NAME_BOX.x + SIGNER_NAME_BOX.width, y: SIGNER_NAME_BOX.y }, thickness: 0.7, color: COLORS.graphite });
   drawLine(page, "Name of buyer", SIGNER_NAME_BOX.x, SIGNER_NAME_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
   page.drawLine({ start: { x: SIGNED_DATE_BOX.x, y: SIGNED_DATE_BOX.y }, end: { x: SIGNED_DATE_BOX.x + SIGNED_DATE_BOX.width, y: SIGNED_DATE_BOX.y }, thickness: 0.7, color: COLORS.graphite });
-  drawLine(page, "Date signed (UTC)", SIGNED_DATE_BOX.x, SIGNED_DATE_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
+  drawLine(page, "Date signed", SIGNED_DATE_BOX.x, SIGNED_DATE_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
 
   const sideX = SIGNED_DATE_BOX.x;
   let sy = SIGNATURE_BOX.y + SIGNATURE_BOX.height - 10;

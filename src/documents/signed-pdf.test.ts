@@ -43,13 +43,16 @@ describe("stampSignedPdf", () => {
     expect(sha256(unsigned)).toBe(unsignedSha);
   });
 
-  it("stamps the signer's name, the chosen offer and its price, and the UTC date on the signature page", () => {
+  it("stamps the signer's name, the chosen offer and its price, and the date on the company's clock on the signature page", () => {
     const sigPage = pages[unsignedPages - 1];
     expect(sigPage).toContain("Your agreement");
     expect(sigPage).toContain("Marisol Ventana");
     expect(sigPage).toContain(`Offer 2: ${stamp.chosenOfferName}`);
     expect(sigPage).toContain(`Contract price ${formatCents(stamp.chosenContractCents)}`);
-    expect(sigPage).toContain("2026-03-03 01:12 UTC");
+    // 01:12 UTC on March 3 is the evening of March 2 in New York, the company's zone.
+    expect(sigPage).toContain("Mar 2, 2026, 8:12 PM EST");
+    expect(sigPage).toContain("on Mar 2, 2026, 8:12:45 PM EST (2026-03-03T01:12:45.000Z)");
+    expect(sigPage).not.toContain("Mar 3, 2026");
   });
 
   it("draws the signature as an image inside the signature page", async () => {
@@ -67,7 +70,9 @@ describe("stampSignedPdf", () => {
     expect(cert).toContain("Signing certificate");
     expect(cert).toContain("Marisol Ventana");
     expect(cert).toContain("marisol.ventana@example.com");
-    expect(cert).toContain("2026-03-03T01:12:45.000Z");
+    expect(cert).toContain("Mar 2, 2026, 8:12:45 PM EST"); // the company's clock, named
+    expect(cert).toContain("2026-03-03T01:12:45.000Z"); // and UTC
+    expect(cert).toContain("Mar 2, 2026, 10:30:02 AM EST"); // the "sent" event, on the same clock
     expect(cert).toContain("203.0.113.24");
     expect(cert).toContain("Mozilla/5.0 (iPhone;");
     expect(cert).toContain(unsignedSha);
@@ -83,7 +88,8 @@ describe("stampSignedPdf", () => {
     const notices = pages.filter((p) => p.includes("NOTICE OF CANCELLATION"));
     expect(notices).toHaveLength(2);
     for (const n of notices) {
-      expect(n).toContain("Mar 3, 2026 (UTC)");
+      expect(n).toContain("Mar 2, 2026");
+      expect(n).not.toContain("Mar 3, 2026");
       expect(n).toContain("Friday, March 6, 2026");
     }
   });

@@ -1,10 +1,11 @@
 // The signed copy: the unsigned proposal PDF with the customer's drawn signature, typed name,
 // chosen offer and the signing date stamped into the signature page's boxes, the notice of
-// cancellation's blanks filled in, and a signing certificate appended (signer, e-mail, UTC
-// time, IP, user agent, the SHA-256 of the unsigned document, the event list, and what the
-// U.S. ESIGN Act and UETA ask of an electronic signature). Deterministic for the same input.
+// cancellation's blanks filled in, and a signing certificate appended (signer, e-mail, the time
+// on the company's clock and in UTC, IP, user agent, the SHA-256 of the unsigned document, the
+// event list, and what the U.S. ESIGN Act and UETA ask of an electronic signature).
+// Deterministic for the same input.
 import { PDFBool, PDFDict, PDFDocument, PDFHexString, PDFName, PDFString, type PDFImage, type PDFPage } from "pdf-lib";
-import { formatCents, formatDate } from "@/lib/format";
+import { formatCents, formatDate, formatDateTime } from "@/lib/format";
 import { embedFonts, type DocFonts } from "./fonts";
 import { COLORS, SAVE_OPTIONS, compressContentStreams, createFlow, drawLine, drawPageFrames, fitText, type FrameInfo, type TableColumn } from "./layout";
 import {
@@ -29,6 +30,8 @@ export type SignatureStamp = {
   chosenOfferName: string;
   chosenContractCents: number;
   signedAt: Date;
+  /** The company's time zone: times are printed on its clock, the certificate adds UTC. */
+  timeZone: string;
   ip: string;
   userAgent: string;
   /** Hex SHA-256 of the unsigned PDF's bytes. */
@@ -42,7 +45,7 @@ export type SignatureStamp = {
   cancelDeadlineText?: string | null;
   /**
    * The day of signing as the deadline was counted from (e.g. the company's local date), for the
-   * notice's "date of transaction"; default: the UTC date of signedAt.
+   * notice's "date of transaction"; default: the date of signedAt in `timeZone`.
    */
   signedOnText?: string | null;
 };
@@ -60,8 +63,6 @@ const PNG_MAGIC = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 const SIGNATURE_PADDING = 6;
 
 const isoUtc = (d: Date) => d.toISOString();
-/** "2026-03-03 01:12 UTC" */
-const shortUtc = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
 
 async function embedSignature(pdf: PDFDocument, png: Uint8Array): Promise<PDFImage> {
   if (png.length < PNG_MAGIC.length || PNG_MAGIC.some((b, i) => png[i] !== b)) {
@@ -109,10 +110,10 @@ function stampSignaturePage(sigPage: PDFPage, image: PDFImage, fonts: DocFonts, 
   drawLine(sigPage, priceLine, ob.x + 8, ob.y + 9, { font: fonts.mono, size: 11 });
   drawFitted(sigPage, image, SIGNATURE_BOX, SIGNATURE_PADDING);
   drawLine(sigPage, fitText(s.signerName, fonts.sans, 12, SIGNER_NAME_BOX.width - 4), SIGNER_NAME_BOX.x + 2, SIGNER_NAME_BOX.y + 7, { font: fonts.sans, size: 12 });
-  drawLine(sigPage, shortUtc(s.signedAt), SIGNED_DATE_BOX.x + 2, SIGNED_DATE_BOX.y + 7, { font: fonts.mono, size: 11 });
+  drawLine(sigPage, fitText(formatDateTime(s.signedAt, s.timeZone), fonts.mono, 10, SIGNED_DATE_BOX.width - 4), SIGNED_DATE_BOX.x + 2, SIGNED_DATE_BOX.y + 7, { font: fonts.mono, size: 10 });
   drawLine(
     sigPage,
-    fitText(`Signed electronically by ${s.signerName} <${s.signerEmail}> at ${isoUtc(s.signedAt)}; see the signing certificate.`, fonts.sans, 7.5, SIGNATURE_BOX.width + 200),
+    fitText(`Signed electronically by ${s.signerName} <${s.signerEmail}> on ${formatDateTime(s.signedAt, s.timeZone, "seconds")} (${isoUtc(s.signedAt)}); see the signing certificate.`, fonts.sans, 7.5, SIGNATURE_BOX.width + 200),
     SIGNATURE_BOX.x,
     SIGNATURE_BOX.y - 22,
     { font: fonts.sans, size: 7.5, color: COLORS.copper },
@@ -123,7 +124,7 @@ function stampSignaturePage(sigPage: PDFPage, image: PDFImage, fonts: DocFonts, 
 function fillCancelNotices(pages: PDFPage[], fonts: DocFonts, s: SignatureStamp): void {
   for (const page of pages) {
     if (pageRole(page) !== PAGE_ROLE.cancelNotice) continue;
-    drawLine(page, s.signedOnText ?? `${formatDate(s.signedAt)} (UTC)`, NOTICE_TRANSACTION_DATE_BOX.x + 4, NOTICE_TRANSACTION_DATE_BOX.y + 7, { font: fonts.sans, size: 10 });
+    drawLine(page, s.signedOnText ?? formatDate(s.signedAt, s.timeZone), NOTICE_TRANSACTION_DATE_BOX.x + 4, NOTICE_TRANSACTION_DATE_BOX.y + 7, { font: fonts.sans, size: 10 });
     const printed = page.node.get(PDFName.of(DEADLINE_PRINTED_KEY)) === PDFBool.True;
     if (!printed && s.cancelDeadlineText) {
       drawLine(page, s.cancelDeadlineText, NOTICE_DEADLINE_BOX.x + 4, NOTICE_DEADLINE_BOX.y + 7, { font: fonts.sans, size: 10 });
@@ -143,6 +144,7 @@ function appendCertificate(pdf: PDFDocument, fonts: DocFonts, s: SignatureStamp,
     { label: "Document", value: s.proposalLabel },
     { label: "Signer", value: s.signerName },
     { label: "E-mail", value: s.signerEmail },
+    { label: "Signed at", value: formatDateTime(s.signedAt, s.timeZone, "seconds"), mono: true },
     { label: "Signed at (UTC)", value: isoUtc(s.signedAt), mono: true },
     // The address is the connection's (or the trusted proxy's report); the browser names itself.
     { label: "IP address (connection)", value: s.ip, mono: true },
@@ -157,13 +159,13 @@ function appendCertificate(pdf: PDFDocument, fonts: DocFonts, s: SignatureStamp,
   );
   flow.paragraph("Events", { font: fonts.sansBold, size: 11, gapAfter: 4 });
   const columns: TableColumn[] = [
-    { label: "Time (UTC)", width: 140, mono: true },
-    { label: "Event", width: 84 },
+    { label: "Time", width: 148 },
+    { label: "Event", width: 76 },
     { label: "Detail", width: 280 },
   ];
   flow.table(
     columns,
-    [...s.events].sort((a, b) => a.at.getTime() - b.at.getTime()).map((e) => ({ cells: [isoUtc(e.at), e.kind.replace(/_/g, " "), e.detail] })),
+    [...s.events].sort((a, b) => a.at.getTime() - b.at.getTime()).map((e) => ({ cells: [formatDateTime(e.at, s.timeZone, "seconds"), e.kind.replace(/_/g, " "), e.detail] })),
   );
   flow.paragraph("Electronic signature and records", { font: fonts.sansBold, size: 11, gapAfter: 4 });
   flow.bullets(

@@ -20,7 +20,48 @@ export function daysSince(date: Date, now = new Date()): number {
   return Math.max(0, Math.floor((now.getTime() - date.getTime()) / 86_400_000));
 }
 
-const dateFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" });
-const dateTimeFmt = new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" });
-export const formatDate = (d: Date) => dateFmt.format(d);
-export const formatDateTime = (d: Date) => `${dateTimeFmt.format(d)} UTC`;
+// ── Dates and times people read ─────────────────────────────────────────────────────────────
+// Every instant is shown on the company's clock (Settings → Company time zone), so an e-mail, a
+// PDF and a page say the same day; a time names its zone ("HST", "EDT"). Calendar dates
+// (YYYY-MM-DD, no zone: install dates, deadlines) are shown as they are.
+
+const formats = new Map<string, Intl.DateTimeFormat>();
+function formatter(key: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
+  let f = formats.get(key);
+  if (!f) formats.set(key, (f = new Intl.DateTimeFormat("en-US", options)));
+  return f;
+}
+
+/** The day an instant falls on in the zone: "Dec 5, 2026". */
+export const formatDate = (at: Date, timeZone: string) => formatter(`d|${timeZone}`, { dateStyle: "medium", timeZone }).format(at);
+
+/** An instant on the zone's clock, the zone named: "Dec 5, 2026, 7:30 PM HST" (with seconds: "7:30:12 PM HST"). */
+export const formatDateTime = (at: Date, timeZone: string, precision: "minutes" | "seconds" = "minutes") =>
+  formatter(`dt|${precision}|${timeZone}`, {
+    year: "numeric",
+    month: "short",
+    day: "numeric",
+    hour: "numeric",
+    minute: "2-digit",
+    ...(precision === "seconds" ? { second: "2-digit" } : {}),
+    timeZone,
+    timeZoneName: "short",
+  }).format(at);
+
+/** The zone's short name at that instant ("HST", "EDT"; "GMT+9" where English has none). */
+export function zoneName(at: Date, timeZone: string): string {
+  return formatter(`z|${timeZone}`, { timeZone, timeZoneName: "short" }).formatToParts(at).find((p) => p.type === "timeZoneName")?.value ?? timeZone;
+}
+
+export type CalendarDateStyle = "medium" | "full" | "weekday-day" | "weekday-date";
+const CALENDAR_STYLES: Record<CalendarDateStyle, Intl.DateTimeFormatOptions> = {
+  medium: { dateStyle: "medium" }, // Dec 5, 2026
+  full: { dateStyle: "full" }, // Saturday, December 5, 2026
+  "weekday-day": { weekday: "short", month: "short", day: "numeric" }, // Sat, Dec 5
+  "weekday-date": { weekday: "short", month: "long", day: "numeric", year: "numeric" }, // Sat, December 5, 2026
+};
+
+/** A calendar date (YYYY-MM-DD, already the company's day) as people read it; no zone shift. */
+export function formatCalendarDate(isoDate: string, style: CalendarDateStyle = "medium"): string {
+  return formatter(`c|${style}`, { ...CALENDAR_STYLES[style], timeZone: "UTC" }).format(new Date(`${isoDate}T00:00:00Z`));
+}

@@ -3,6 +3,7 @@
 // assumptions behind them into sentences, so the customer's page and the PDF read only the
 // snapshot, never the live offers, catalog or price book. Also: the states a proposal link can
 // be in, and the right-to-cancel window. No server or browser imports.
+import { formatCalendarDate } from "@/lib/format";
 import { addDaysToDate, startOfDayInZone } from "@/lib/zoned-time";
 import { OFFER_CAUTION, STRING_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { depositFor } from "@/lib/pricing";
@@ -208,5 +209,5 @@ export function canStillCancel(p: { status: string; inHomeSale: boolean; cancelD
 
 /** "Friday, December 5, 2026" for an ISO date (the date itself, not shifted by any time zone). */
 export function formatIsoDateLong(isoDate: string): string {
-  return new Intl.DateTimeFormat("en-US", { dateStyle: "full", timeZone: "UTC" }).format(new Date(`${isoDate}T12:00:00Z`));
+  return formatCalendarDate(isoDate, "full");
 }

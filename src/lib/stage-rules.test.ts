@@ -63,8 +63,18 @@ describe("checkManualMove", () => {
     expect(rep.ok ? "" : rep.reason).toMatch(/Only the office/);
   });
 
+  it("refuses Proposal out by hand unless the deal has a sent proposal with an open link", () => {
+    for (const role of ["sales_rep", "owner"] as const) {
+      const r = checkManualMove(move({ from: "designing", to: "proposal_out", role, reason: "sent it by mail" }));
+      expect(r.ok ? "" : r.reason).toMatch(/^Proposal out happens by itself when a proposal is sent/);
+      expect(r.ok ? undefined : r.needs).toBeUndefined(); // no reason lets it through
+    }
+    expect(checkManualMove(move({ from: "on_hold", to: "proposal_out", hasLiveProposal: true }))).toEqual({ ok: true });
+    expect(checkManualMove(move({ from: "designing", to: "proposal_out", role: "sales_rep", hasLiveProposal: true }))).toEqual({ ok: true });
+  });
+
   it("a rep moves only among the early stages, On hold and Lost", () => {
-    expect(checkManualMove(move({ from: "lead", to: "proposal_out", role: "sales_rep" }))).toEqual({ ok: true });
+    expect(checkManualMove(move({ from: "lead", to: "designing", role: "sales_rep" }))).toEqual({ ok: true });
     expect(checkManualMove(move({ from: "designing", to: "lost", role: "sales_rep", reason: "No roof space" }))).toEqual({ ok: true });
     expect(checkManualMove(move({ from: "survey", to: "permitting", role: "sales_rep" })).ok).toBe(false);
   });

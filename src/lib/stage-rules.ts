@@ -54,12 +54,17 @@ export type MoveInput = {
    * none (or there is no job yet). Without it, Install booked needs an owner's or admin's reason.
    */
   permitApprovedAt: Date | null;
+  /**
+   * Whether the deal has a sent proposal whose link is still open (status "sent", not expired).
+   * Proposal out is where sending puts a deal; by hand it needs one.
+   */
+  hasLiveProposal?: boolean;
 };
 
 const pipelineIndex = (s: Stage) => PIPELINE.indexOf(s);
 
 /** Checks a move a person makes by hand (automatic moves by e-sign or Stripe do not come here). */
-export function checkManualMove({ from, to, role, reason, permitApprovedAt }: MoveInput): MoveCheck {
+export function checkManualMove({ from, to, role, reason, permitApprovedAt, hasLiveProposal = false }: MoveInput): MoveCheck {
   const why = reason?.trim() ?? "";
   const office = OFFICE_ROLES.includes(role);
   const admin = ADMIN_ROLES.includes(role);
@@ -74,6 +79,12 @@ export function checkManualMove({ from, to, role, reason, permitApprovedAt }: Mo
   }
   if (to === "cancelled") {
     return { ok: false, reason: "Only the customer can cancel, inside the cooling-off window; use Lost (with a reason) instead." };
+  }
+  if (to === "proposal_out" && !hasLiveProposal) {
+    return {
+      ok: false,
+      reason: "Proposal out happens by itself when a proposal is sent from the deal's Proposal tab; this deal has no sent proposal with an open link.",
+    };
   }
   if (!office && !(REP_STAGES.includes(from) && REP_STAGES.includes(to))) {
     return { ok: false, reason: `Your role can move deals only between ${REP_STAGES.map((s) => STAGE_LABELS[s]).join(", ")}.` };

@@ -20,6 +20,7 @@ import {
   type DealTableSortColumn,
 } from "@/lib/schemas/deal-table";
 import { STAGE_LABELS } from "@/lib/stages";
+import { dateInZone } from "@/lib/zoned-time";
 import { zoneForDays, withinDays } from "@/server/day-filters";
 import { db } from "@/server/db";
 import { dealAudience, visibleTo } from "@/server/deals";
@@ -357,23 +358,23 @@ export function csvLines(rows: Array<Array<string | number | null>>): string {
   return `${Papa.unparse(rows, { newline: "\r\n", escapeFormulae: true })}\r\n`;
 }
 
-function csvCells(r: DealTableRow): Array<string | null> {
+function csvCells(r: DealTableRow, timeZone: string): Array<string | null> {
   return [
     r.householdName,
     r.city,
     STAGE_LABELS[r.stage],
     r.systemDcWatts == null ? null : (r.systemDcWatts / 1000).toFixed(2),
     r.contractCents == null ? null : (r.contractCents / 100).toFixed(2),
-    r.stageChangedAt.slice(0, 10),
-    r.createdAt.slice(0, 10),
+    dateInZone(new Date(r.stageChangedAt), timeZone), // the company's days, as the table shows them
+    dateInZone(new Date(r.createdAt), timeZone),
     r.ownerName,
     r.source,
     r.id,
   ];
 }
 
-/** The whole filtered view as a CSV stream (header first), built 1,000 rows at a time. */
-export function dealTableCsvStream(member: Member, filters: DealTableFilters): ReadableStream<Uint8Array> {
+/** The whole filtered view as a CSV stream (header first), built 1,000 rows at a time; dates are days in `timeZone`. */
+export function dealTableCsvStream(member: Member, filters: DealTableFilters, timeZone: string): ReadableStream<Uint8Array> {
   const encoder = new TextEncoder();
   const chunks = dealTableChunks(member, filters);
   let headerSent = false;
@@ -387,7 +388,7 @@ export function dealTableCsvStream(member: Member, filters: DealTableFilters): R
       try {
         const next = await chunks.next();
         if (next.done) controller.close();
-        else controller.enqueue(encoder.encode(csvLines(next.value.map(csvCells))));
+        else controller.enqueue(encoder.encode(csvLines(next.value.map((r) => csvCells(r, timeZone)))));
       } catch (err) {
         controller.error(err);
       }

@@ -12,6 +12,7 @@ import { getDealUsage } from "@/server/energy";
 import { HttpError } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
+import { autoMoveStage } from "@/server/stages";
 import { recordEvent } from "@/server/timeline";
 import { haversineKm, loadStationWeather, MAX_STATION_DISTANCE_KM, nearestStation } from "@/server/weather-stations";
 
@@ -106,6 +107,16 @@ export async function saveDesign(member: Member, input: unknown): Promise<Design
       summary: `Design saved by ${member.name}: ${modules} × ${mod.manufacturer} ${mod.model} (${kw.toFixed(2)} kW DC), ${inv.manufacturer} ${inv.model}`,
       actorUserId: member.userId,
       data: { modules, kwDc: kw },
+    });
+    // The first saved design moves a lead or a deal with bills to Designing (never back from later).
+    await autoMoveStage(tx, {
+      companyId: member.companyId,
+      dealId,
+      from: ["lead", "bills_in"],
+      to: "designing",
+      summary: `Moved to Designing: design saved (${modules} modules, ${kw.toFixed(2)} kW DC)`,
+      actorUserId: member.userId,
+      data: { cause: "design" },
     });
   });
   const saved = await getDesignForDeal(scope);

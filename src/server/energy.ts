@@ -20,6 +20,7 @@ import { engineFields, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { reencodeBillImage } from "@/server/photos";
 import { withFilesUndoneOnFailure } from "@/server/storage";
+import { autoMoveStage } from "@/server/stages";
 import { recordEvent } from "@/server/timeline";
 
 export type BillRow = { id: string; periodStart: string; periodEnd: string; kwh: number; costCents: number | null; uploadId: string | null; source: BillSource; periodEstimated: boolean };
@@ -97,14 +98,16 @@ export async function saveBills(scope: DealScope, input: z.output<typeof billsTa
         })),
       );
     }
-    await rebuildDealUsage(tx, member.companyId, dealId);
+    const year = await rebuildDealUsage(tx, member.companyId, dealId);
+    const billsText = `${input.bills.length} bill${input.bills.length === 1 ? "" : "s"}`;
     await recordEvent(tx, {
       companyId: member.companyId,
       dealId,
       kind: "bills.saved",
-      summary: `${member.name} saved ${input.bills.length} bill${input.bills.length === 1 ? "" : "s"}`,
+      summary: `${member.name} saved ${billsText}`,
       actorUserId: member.userId,
     });
+    await moveToBillsIn(tx, member, dealId, year, `usage year saved from ${billsText}`);
     return billsOf(tx, member.companyId, dealId);
   });
 }
@@ -148,7 +151,7 @@ function toUsage(r: Pick<typeof dealUsage.$inferSelect, keyof typeof usageColumn
  * with the next version, in the caller's transaction (the one that changed them). The row is
  * locked first, so two saves at once number their versions one after the other.
  */
-export async function rebuildDealUsage(tx: Tx, companyId: string, dealId: string): Promise<void> {
+export async function rebuildDealUsage(tx: Tx, companyId: string, dealId: string): Promise<UsageYear> {
   const [current] = await tx
     .select({ id: dealUsage.id, version: dealUsage.version })
     .from(dealUsage)
@@ -173,6 +176,24 @@ export async function rebuildDealUsage(tx: Tx, companyId: string, dealId: string
       .values({ id: crypto.randomUUID(), companyId, dealId, version: 1, ...year })
       .onDuplicateKeyUpdate({ set: { ...year, version: sql`${dealUsage.version} + 1` } });
   }
+  return year;
+}
+
+/**
+ * A lead whose usage year now exists moves to Bills in, with the cause on the Timeline. Only
+ * from Lead: a deal already further on (or on hold, lost) stays where it is.
+ */
+async function moveToBillsIn(tx: Tx, member: Member, dealId: string, year: UsageYear, cause: string): Promise<void> {
+  if (year.source === "none") return;
+  await autoMoveStage(tx, {
+    companyId: member.companyId,
+    dealId,
+    from: ["lead"],
+    to: "bills_in",
+    summary: `Moved to Bills in: ${cause}`,
+    actorUserId: member.userId,
+    data: { cause: "usage", usageSource: year.source },
+  });
 }
 
 /**
@@ -297,7 +318,8 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
       annualKwh: profile.annualKwh,
       coveragePct: profile.coverage * 100,
     });
-    await rebuildDealUsage(tx, member.companyId, dealId);
+    const year = await rebuildDealUsage(tx, member.companyId, dealId);
+    await moveToBillsIn(tx, member, dealId, year, `usage year saved from ${isXml ? "Green Button data" : "interval data"} in “${file.name.slice(0, 120)}”`);
   });
   return {
     kind: "interval",

@@ -11,6 +11,7 @@ import { computeOfferFigures, type OfferFigures } from "@/lib/offer-figures";
 import { bookForUtility, emptyPriceBook } from "@/lib/schemas/price-book";
 import { can } from "@/lib/permissions";
 import { discountDecisionRefusal, PricingInputError } from "@/lib/pricing";
+import { todayInZone } from "@/lib/zoned-time";
 import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
 import DiscountDecisionEmail from "@emails/discount-decision";
 import DiscountRequestEmail from "@emails/discount-request";
@@ -134,7 +135,6 @@ export async function getOfferOrThrow(member: Member, offerId: string): Promise<
 
 // ── Computing an offer (always on the server, from stored data) ──────────────────────────
 
-const today = () => new Date().toISOString().slice(0, 10);
 const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
 
 function engineError(err: unknown): never {
@@ -207,7 +207,7 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
     const figures = computeOfferFigures({
       book,
       role,
-      asOf: today(),
+      asOf: todayInZone(scope.settings.timeZone), // incentive windows open and close on the company's days
       ...(installDate ? { expectedInstallDate: installDate } : {}),
       moduleCount,
       moduleWatts: mod.stcWatts,

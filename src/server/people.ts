@@ -4,9 +4,11 @@ import { and, asc, desc, eq, gt, isNull, ne } from "drizzle-orm";
 import { createElement } from "react";
 import { account, company, invitation, membership, session, user, type Role } from "@/db/schema";
 import { env } from "@/env";
+import { formatDateTime } from "@/lib/format";
 import { assignableRoles, ROLE_LABELS } from "@/lib/permissions";
 import type { z } from "zod";
 import type { acceptInvitationSchema, inviteSchema, updatePersonSchema } from "@/lib/schemas/people";
+import { getCompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { emailKey, takeTurn } from "@/server/limits";
@@ -156,7 +158,7 @@ export async function invitePerson(member: Member, input: z.output<typeof invite
       inviterName: member.name,
       roleLabel: ROLE_LABELS[input.role],
       acceptUrl: `${env().APP_URL}/invite/${token}`,
-      expiresAt,
+      validUntil: formatDateTime(expiresAt, (await getCompanySettings(member.companyId)).timeZone),
     }),
   });
   return { id };

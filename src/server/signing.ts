@@ -15,7 +15,7 @@ import { deal, proposal, proposalEvent } from "@/db/schema";
 import { SignatureImageError, stampSignedPdf } from "@/documents/signed-pdf";
 import { env } from "@/env";
 import { cancelDeadline } from "@/lib/business-days";
-import { formatCents, formatDateTime } from "@/lib/format";
+import { formatCents, formatDate, formatDateTime, zoneName } from "@/lib/format";
 import { formatIsoDateLong, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
 import { dateInZone } from "@/lib/zoned-time";
 import { MAX_VERIFY_FILE_BYTES, signProposalSchema, verifyCodeSchema, type ProposalSnapshotOffer } from "@/lib/schemas/proposal";
@@ -321,6 +321,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
         chosenOfferName: offer.name,
         chosenContractCents: offer.figures.summary.contractCents,
         signedAt: now,
+        timeZone,
         ip: client.ip,
         userAgent: client.userAgent,
         unsignedSha256: row.pdfSha256,
@@ -337,7 +338,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
       await recordSignature(tx, p, row, { position, signerName, offer, client, now, deadline, key, signedSha256 });
       const outcome = { signedAt: now, signedSha256, cancelDeadline: deadline, chosenPosition: position };
       // The copies are written with the signature, so a crash after the commit cannot lose them.
-      const mailIds = await queueSignedCopies(tx, p, token, signerName, offer.name, offer.figures.summary.contractCents, outcome);
+      const mailIds = await queueSignedCopies(tx, p, token, { signerName, offerName: offer.name, contractCents: offer.figures.summary.contractCents, timeZone }, outcome);
       return { ...outcome, mailIds };
     }),
   );
@@ -352,7 +353,13 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
  * A link rather than an attachment: the mail helper (src/server/mail.ts) sends no attachments
  * and the dev outbox drops them.
  */
-async function queueSignedCopies(tx: Tx, p: ProposalRow, token: string, signerName: string, offerName: string, contractCents: number, r: SignedOutcome): Promise<string[]> {
+async function queueSignedCopies(
+  tx: Tx,
+  p: ProposalRow,
+  token: string,
+  { signerName, offerName, contractCents, timeZone }: { signerName: string; offerName: string; contractCents: number; timeZone: string },
+  r: SignedOutcome,
+): Promise<string[]> {
   const common = {
     companyName: p.snapshot.company.name,
     householdName: p.snapshot.household.name,
@@ -360,7 +367,7 @@ async function queueSignedCopies(tx: Tx, p: ProposalRow, token: string, signerNa
     label: labelOf(p),
     offerName,
     price: formatCents(contractCents),
-    signedAt: formatDateTime(r.signedAt),
+    signedAt: formatDateTime(r.signedAt, timeZone),
     cancelBy: r.cancelDeadline ? formatIsoDateLong(r.cancelDeadline) : null,
     sha256: r.signedSha256,
   };
@@ -392,7 +399,7 @@ export type VerifyAnswer = { match: true; label: string; signedOn: string } | { 
 
 /**
  * Does this file's SHA-256 match a signed Kilowright record? Answers only the proposal's label
- * and the UTC date of signing; nothing else about it.
+ * and the day of signing (the seller's day, its zone named, as on the signed copy); nothing else about it.
  */
 export async function verifySignedPdf(bytes: Uint8Array): Promise<VerifyAnswer> {
   if (bytes.byteLength === 0) throw new HttpError(422, "empty_file", "The file is empty.");
@@ -400,10 +407,11 @@ export async function verifySignedPdf(bytes: Uint8Array): Promise<VerifyAnswer> 
   const type = await fileTypeFromBuffer(bytes);
   if (type?.mime !== "application/pdf") throw new HttpError(415, "not_pdf", "This is not a PDF file. Upload the signed PDF you received.");
   const [row] = await db()
-    .select({ number: proposal.number, version: proposal.version, signedAt: proposal.signedAt })
+    .select({ number: proposal.number, version: proposal.version, signedAt: proposal.signedAt, companyId: proposal.companyId })
     .from(proposal)
     .where(eq(proposal.signedSha256, sha256Hex(bytes)))
     .limit(1);
   if (!row || !row.signedAt) return { match: false };
-  return { match: true, label: labelOf(row), signedOn: row.signedAt.toISOString().slice(0, 10) };
+  const { timeZone } = await getCompanySettings(row.companyId);
+  return { match: true, label: labelOf(row), signedOn: `${formatDate(row.signedAt, timeZone)} (${zoneName(row.signedAt, timeZone)})` };
 }

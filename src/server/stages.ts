@@ -1,6 +1,6 @@
 import "server-only";
-import { and, asc, eq, inArray, isNotNull, sql, type SQL } from "drizzle-orm";
-import { deal, household, job, membership, user, type Stage } from "@/db/schema";
+import { and, asc, eq, gt, inArray, isNotNull, sql, type SQL } from "drizzle-orm";
+import { deal, household, job, membership, proposal, user, type Stage } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { checkManualMove, REP_STAGES, type BoardFilter } from "@/lib/stage-rules";
 import { STAGE_LABELS } from "@/lib/stages";
@@ -41,7 +41,8 @@ export async function moveDealStage(member: Member, dealId: string, toStage: Sta
   }
   const why = reason?.trim() || null;
   const permitApprovedAt = toStage === "install_booked" ? await permitApprovedOn(member.companyId, dealId) : null;
-  const check = checkManualMove({ from, to: toStage, role: member.role, reason: why, permitApprovedAt });
+  const hasLiveProposal = toStage === "proposal_out" ? await liveProposalOf(member.companyId, dealId) : false;
+  const check = checkManualMove({ from, to: toStage, role: member.role, reason: why, permitApprovedAt, hasLiveProposal });
   if (!check.ok) throw new StageRuleError(check.reason, check.needs);
 
   const stageChangedAt = new Date();
@@ -77,6 +78,16 @@ export async function permitApprovedOn(companyId: string, dealId: string): Promi
     .where(and(eq(job.companyId, companyId), eq(job.dealId, dealId)))
     .limit(1);
   return row?.approvedOn ? new Date(`${row.approvedOn}T00:00:00Z`) : null;
+}
+
+/** Whether the deal has a sent proposal whose link is still open (the only way into Proposal out). */
+async function liveProposalOf(companyId: string, dealId: string, now = new Date()): Promise<boolean> {
+  const [row] = await db()
+    .select({ id: proposal.id })
+    .from(proposal)
+    .where(and(eq(proposal.companyId, companyId), eq(proposal.dealId, dealId), eq(proposal.status, "sent"), gt(proposal.expiresAt, now)))
+    .limit(1);
+  return !!row;
 }
 
 /**

@@ -49,6 +49,8 @@ export type CrewVisit = { jobId: string; householdName: string; street: string; 
 export type TodayQueues = {
   /** The company's calendar day (its time zone) the queues were read for. */
   today: string;
+  /** The company's zone, for the times the queues show. */
+  timeZone: string;
   followUps: Queue<StalledDeal> | null;
   proposalsOpened: Queue<OpenedProposal> | null;
   questions: Queue<CustomerQuestion> | null;
@@ -315,7 +317,7 @@ export async function getTodayQueues(member: Member, now = new Date()): Promise<
         })()
       : null,
   ]);
-  return { today, followUps, proposalsOpened, questions, stalled, depositsFlagged, refundsDue: refunds, jobsToSchedule: toSchedule, crew };
+  return { today, timeZone: settings.timeZone, followUps, proposalsOpened, questions, stalled, depositsFlagged, refundsDue: refunds, jobsToSchedule: toSchedule, crew };
 }
 
 export type TodaySummary = { counts: Record<Stage, number>; open: number; pipelineCents: number; recent: { id: string; householdName: string; stage: Stage; systemDcWatts: number | null }[] };

@@ -61,7 +61,7 @@ async function prepareDeal(request: APIRequestContext): Promise<{ dealId: string
           inverterId: INVERTER_ID,
           faces: [{ id: "south", name: "South", tiltDeg: 25, azimuthDeg: 180, usableSlots: 20, solarAccessPct: 95, moduleCount: 18 }],
           weather: { kind: "nearest" },
-          stringPlan: null,
+          stringPlan: { stringSizes: [9, 9], lowestTempC: -10, highestTempC: 35 },
         },
       },
     }),

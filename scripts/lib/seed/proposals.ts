@@ -203,7 +203,7 @@ async function writeProposal(
   const id = uid(c.ids.proposal++);
   const label = proposalLabel(p.number, p.version);
   const expiresAt = new Date(p.sentAt.getTime() + 30 * DAY_MS);
-  const unsigned = await renderProposalPdf(p.snapshot, { number: p.number, version: p.version, sentAt: p.sentAt, expiresAt, inHomeSale: p.inHomeSale, cancelDeadlineText: null });
+  const unsigned = await renderProposalPdf(p.snapshot, { number: p.number, version: p.version, sentAt: p.sentAt, expiresAt, timeZone: DEFAULT_TIME_ZONE, inHomeSale: p.inHomeSale, cancelDeadlineText: null });
   const pdfKey = `${c.companyId}/proposals/${uid(c.ids.file++)}.pdf`;
   await putSeedFile(c.storageDir, pdfKey, unsigned);
   const toEmail = p.snapshot.household.email ?? "customer@homeowner.example";
@@ -242,6 +242,7 @@ async function writeProposal(
       chosenOfferName: offerSigned.name,
       chosenContractCents: offerSigned.figures.summary.contractCents,
       signedAt: p.sign.at,
+      timeZone: DEFAULT_TIME_ZONE,
       ip: CUSTOMER_IP,
       userAgent: CUSTOMER_UA,
       unsignedSha256: sha256(unsigned),

@@ -60,7 +60,7 @@ export function VerifyClient() {
         answer.match ? (
           <FormMessage tone="success">
             <span data-testid="verify-answer">
-              This file matches proposal {answer.label}, signed on {answer.signedOn} (UTC).
+              This file matches proposal {answer.label}, signed on {answer.signedOn}.
             </span>
           </FormMessage>
         ) : (

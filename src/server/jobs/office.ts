@@ -2,6 +2,7 @@ import "server-only";
 import { and, eq } from "drizzle-orm";
 import { crew, deal, household, job, type Stage } from "@/db/schema";
 import type { JobFields } from "@/lib/schemas/jobs";
+import { formatCalendarDate } from "@/lib/format";
 import { STAGE_LABELS } from "@/lib/stages";
 import { can } from "@/lib/permissions";
 import { dateInZone, todayInZone } from "@/lib/zoned-time";
@@ -36,7 +37,7 @@ const FIELD_LABELS: Record<keyof JobFields, string> = {
   notes: "notes",
 };
 
-const dateText = (iso: string) => new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" }).format(new Date(`${iso}T00:00:00Z`));
+const dateText = (iso: string) => formatCalendarDate(iso);
 
 /** A stage move a job change causes: from which stages, to which, and why. */
 export type JobStageMove = { from: readonly Stage[]; to: Stage; why: string };

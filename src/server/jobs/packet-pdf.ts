@@ -3,6 +3,7 @@ import { and, asc, desc, eq } from "drizzle-orm";
 import { renderJobPacketPdf, type JobPacketPdfPhoto } from "@/documents/job-packet-pdf";
 import { env } from "@/env";
 import { jobPhoto, upload } from "@/db/schema";
+import { getCompanySettings } from "@/server/company-settings";
 import { db } from "@/server/db";
 import type { Member } from "@/server/session";
 import { storage } from "@/server/storage";
@@ -39,7 +40,8 @@ export async function getJobPacketPdf(member: Member, jobId: string, now = new D
     const bytes = await storage().get(r.storageKey);
     if (bytes) photos.push({ caption: `Site photo: ${r.fileName}`, mimeType: r.mimeType, bytes });
   }
-  const bytes = await renderJobPacketPdf({ packet, photos, printedAt: now, jobUrl: `${env().APP_URL}/jobs/${jobId}` });
+  const { timeZone } = await getCompanySettings(member.companyId);
+  const bytes = await renderJobPacketPdf({ packet, photos, printedAt: now, timeZone, jobUrl: `${env().APP_URL}/jobs/${jobId}` });
   const slug = packet.customer.name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "job";
   return { bytes, fileName: `job-packet-${slug}.pdf` };
 }

@@ -7,6 +7,7 @@ import { db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { stripe } from "@/server/stripe";
 import { recordEvent } from "@/server/timeline";
+import { getCompanySettings } from "@/server/company-settings";
 import { hashToken } from "@/server/tokens";
 import { BOOKED_STATUSES, DEPOSIT_CURRENCY, depositCentsOf, derivedUuid, HOUR_MS, proposalLabelOf, type ProposalRow, providerError, SESSION_LIFETIME_MS, UNSETTLED_STATUSES } from "./common";
 
@@ -131,11 +132,10 @@ export async function depositForProposal(
   if (p.status !== "signed" && p.status !== "cancelled") return null;
   const amountCents = depositCentsOf(p);
   if (!amountCents) return null;
-  const rows = await db()
-    .select()
-    .from(payment)
-    .where(and(eq(payment.companyId, p.companyId), eq(payment.proposalId, p.id)))
-    .orderBy(desc(payment.createdAt));
+  const [rows, { timeZone }] = await Promise.all([
+    db().select().from(payment).where(and(eq(payment.companyId, p.companyId), eq(payment.proposalId, p.id))).orderBy(desc(payment.createdAt)),
+    getCompanySettings(p.companyId),
+  ]);
   const row = rows.find((r) => BOOKED_STATUSES.includes(r.status)) ?? rows[0] ?? null;
   const cancelled = p.status === "cancelled";
   if (cancelled && (!row || !BOOKED_STATUSES.includes(row.status))) return null;
@@ -146,7 +146,7 @@ export async function depositForProposal(
     paidCents: row?.paidCents ?? null,
     paidText: row?.paidCents != null ? formatCentsExact(row.paidCents, row.currency) : null,
     paidAt: row?.paidAt?.toISOString() ?? null,
-    paidOnText: row?.paidAt ? formatDate(row.paidAt) : null,
+    paidOnText: row?.paidAt ? formatDate(row.paidAt, timeZone) : null,
     refundedCents: row?.refundedCents ?? 0,
     refundedText: formatCentsExact(row?.refundedCents ?? 0),
     failureMessage: row?.status === "failed" ? (row.failureMessage ?? "The payment did not go through.") : null,

@@ -2,7 +2,8 @@ import "server-only";
 import { createElement } from "react";
 import { and, eq } from "drizzle-orm";
 import { company, deal, household, payment, proposal } from "@/db/schema";
-import { formatCentsExact, formatDate } from "@/lib/format";
+import { formatCalendarDate, formatCentsExact, formatDate } from "@/lib/format";
+import { getCompanySettings } from "@/server/company-settings";
 import DepositReceiptEmail from "@emails/deposit-receipt";
 import { db, type Db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
@@ -36,6 +37,7 @@ export async function depositReceiptMail(q: Db | Tx, paymentId: string) {
     throw new HttpError(409, "not_paid", "Only a booked deposit has a receipt.");
   }
   const offer = chosenOffer(c.prop);
+  const { timeZone } = await getCompanySettings(c.p.companyId);
   return {
     companyId: c.p.companyId,
     to: c.to,
@@ -44,12 +46,12 @@ export async function depositReceiptMail(q: Db | Tx, paymentId: string) {
       customerName: c.name,
       companyName: c.companyName,
       amount: formatCentsExact(c.p.paidCents, c.p.currency),
-      paidOn: c.p.paidAt ? formatDate(c.p.paidAt) : formatDate(new Date()),
+      paidOn: formatDate(c.p.paidAt ?? new Date(), timeZone),
       proposalLabel: proposalLabelOf(c.prop),
       offerName: offer?.name ?? "your chosen offer",
       contractPrice: formatCentsExact(offer?.figures?.summary?.contractCents ?? null),
       reference: c.p.chargeId ?? c.p.paymentIntentId ?? c.p.checkoutSessionId,
-      cancelUntil: c.prop.inHomeSale && c.prop.cancelDeadline && !c.prop.cancelledAt ? formatDate(new Date(`${c.prop.cancelDeadline}T12:00:00Z`)) : null,
+      cancelUntil: c.prop.inHomeSale && c.prop.cancelDeadline && !c.prop.cancelledAt ? formatCalendarDate(c.prop.cancelDeadline) : null,
       repName: c.prop.snapshot.rep.name,
       repEmail: c.prop.snapshot.rep.email,
     }),

@@ -80,7 +80,7 @@ export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, n
       react: createElement(ProposalCancelledEmail, {
         householdName: p.snapshot.household.name,
         label: labelOf(p),
-        cancelledAt: formatDateTime(now),
+        cancelledAt: formatDateTime(now, timeZone),
         dealUrl: dealProposalUrl(p.dealId),
       }),
       idempotencyKey: `proposal-cancelled-${p.id}`,

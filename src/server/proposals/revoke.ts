@@ -7,6 +7,7 @@ import { db } from "@/server/db";
 import { forbidden, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
+import { getCompanySettings } from "@/server/company-settings";
 import { newLinkToken } from "@/server/tokens";
 import { insertProposalEvent } from "./events";
 import { getProposalOrThrow, labelOf, type ProposalRow } from "./rows";
@@ -86,6 +87,7 @@ export async function resendProposal(member: Member, proposalId: string): Promis
     snapshot: p.snapshot,
     label: labelOf(p),
     expiresAt: p.expiresAt,
+    timeZone: (await getCompanySettings(member.companyId)).timeZone,
     to: p.sentToEmail,
     message: "",
     idempotencyKey: `proposal-resent-${eventId}`,

@@ -5,15 +5,17 @@ import { and, eq, inArray, max } from "drizzle-orm";
 import { company, proposal, type Stage } from "@/db/schema";
 import { renderProposalPdf } from "@/documents/proposal-pdf";
 import { env } from "@/env";
-import { formatDate } from "@/lib/format";
+import { formatDate, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { buildProposalSnapshot, FIRST_PROPOSAL_NUMBER, proposalLabel, type SnapshotSource } from "@/lib/proposal-snapshot";
 import { describeStale, type OfferBasis } from "@/lib/offer-basis";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
+import { missingStringPlanReason } from "@/lib/string-plan-rule";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
 import { db, type Tx } from "@/server/db";
 import { openDeal, type DealScope } from "@/server/deal-scope";
+import { getDesignForDeal } from "@/server/designs";
 import { forbidden, HttpError } from "@/server/errors";
 import { sendEmail } from "@/server/mail";
 import { listOffers } from "@/server/offers";
@@ -59,6 +61,11 @@ export async function snapshotSourceFor(scope: DealScope, offerIds: string[] | u
     throw new HttpError(409, "offers_stale", `Recompute these offers: ${stale.map((o) => `"${o.name}" (${describeStale(o.stale)} changed)`).join("; ")}. Open the Offers tab and recompute them.`);
   }
   const bases = chosen.map((o) => o.basis as OfferBasis);
+  const stringPlan = (await getDesignForDeal(scope))?.document.stringPlan;
+  chosen.forEach((o, i) => {
+    const missing = missingStringPlanReason(bases[i].inverter, stringPlan);
+    if (missing) throw fieldError("offerIds", `"${o.name}" cannot go into a proposal yet. ${missing}.`);
+  });
   // Current offers share the deal's one usage year and design revision; the first stands for all.
   const { usage, design: saved, priceBook } = bases[0];
   const h = scope.household;
@@ -161,7 +168,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   try {
     numbering = await withFilesUndoneOnFailure((put) => db().transaction(async (tx) => {
       const { earlier, number, version } = await nextNumbering(tx, member.companyId, dealId);
-      const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
+      const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, timeZone: scope.settings.timeZone, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
       await put(key, pdf);
       await tx.insert(proposal).values({
         id,
@@ -189,7 +196,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
         companyId: member.companyId,
         dealId,
         kind: "proposal.sent",
-        summary: `${member.name} sent proposal ${label} to ${toEmail} (${offerNames}), link valid until ${formatDate(expiresAt)}${live.length ? `; replaces ${live.map(labelOf).join(", ")}` : ""}`,
+        summary: `${member.name} sent proposal ${label} to ${toEmail} (${offerNames}), link valid until ${formatDate(expiresAt, scope.settings.timeZone)}${live.length ? `; replaces ${live.map(labelOf).join(", ")}` : ""}`,
         actorUserId: member.userId,
         data: { proposalId: id, number, version },
       });
@@ -209,7 +216,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
     throw err;
   }
   const label = proposalLabel(numbering.number, numbering.version);
-  const mail = await mailProposalLink({ companyId: member.companyId, proposalId: id, dealId, token, snapshot, label, expiresAt, to: toEmail, message, idempotencyKey: `proposal-sent-${id}`, resent: false });
+  const mail = await mailProposalLink({ companyId: member.companyId, proposalId: id, dealId, token, snapshot, label, expiresAt, timeZone: scope.settings.timeZone, to: toEmail, message, idempotencyKey: `proposal-sent-${id}`, resent: false });
   return { id, label, ...numbering, expiresAt, ...mail };
 }
 
@@ -221,6 +228,8 @@ export async function mailProposalLink(m: {
   snapshot: ProposalSnapshot;
   label: string;
   expiresAt: Date;
+  /** The company's zone: the link's last day is its day. */
+  timeZone: string;
   to: string;
   message: string;
   idempotencyKey: string;
@@ -238,7 +247,7 @@ export async function mailProposalLink(m: {
         householdName: m.snapshot.household.name,
         label: m.label,
         offerCount: m.snapshot.offers.length,
-        validUntil: formatDate(m.expiresAt),
+        validUntil: formatDateTime(m.expiresAt, m.timeZone),
         proposalUrl: proposalUrl(m.token),
         message: m.message,
         resent: m.resent,

@@ -88,7 +88,7 @@ const query = (input: Record<string, string>) => dealTableQuerySchema.parse(inpu
 const filters = (input: Record<string, string>) => dealTableFiltersSchema.parse(input);
 
 async function csvText(member: Member, input: Record<string, string>): Promise<string> {
-  return new Response(dealTableCsvStream(member, filters(input))).text();
+  return new Response(dealTableCsvStream(member, filters(input), "America/New_York")).text();
 }
 
 beforeAll(async () => {

@@ -369,6 +369,7 @@ describe("the packet as a PDF", () => {
       expect(text).toContain(expected);
     }
     expect(text).toMatch(/done Jun 1, 2031|done [A-Z][a-z]{2} \d{1,2}, \d{4}/);
+    expect(text).toContain("Printed Jun 1, 2031, 8:00 AM EDT"); // the company's clock (New York), not UTC
     // Same input, same bytes.
     const again = await s.jobs.getJobPacketPdf(installerA, jobId, new Date("2031-06-01T12:00:00Z"));
     expect(Buffer.from(again.bytes).equals(Buffer.from(bytes))).toBe(true);

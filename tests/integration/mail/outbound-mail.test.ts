@@ -34,7 +34,7 @@ async function refuseNext(n: number): Promise<void> {
 }
 
 const element = () =>
-  createElement(InvitationEmail, { companyName: "Outbox Solar", inviterName: "Olive", roleLabel: "Crew", acceptUrl: "http://localhost/invite/x", expiresAt: new Date("2031-01-01T00:00:00Z") });
+  createElement(InvitationEmail, { companyName: "Outbox Solar", inviterName: "Olive", roleLabel: "Crew", acceptUrl: "http://localhost/invite/x", validUntil: "Dec 31, 2030, 7:00 PM EST" });
 
 function queued(to: string, key: string) {
   return { companyId: owner.companyId, kind: "test", to, subject: `Outbox test ${key}`, react: element(), idempotencyKey: key };

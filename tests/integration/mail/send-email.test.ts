@@ -54,7 +54,7 @@ const templates: { name: string; element: ReactElement; url: string }[] = [
       inviterName: "Ines Inviter",
       roleLabel: "Office manager",
       acceptUrl: "http://localhost:3999/invite/tok-abc",
-      expiresAt: new Date("2031-01-02T03:04:05Z"),
+      validUntil: "Jan 1, 2031, 10:04 PM EST",
     }),
     url: "http://localhost:3999/invite/tok-abc",
   },

@@ -6,6 +6,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { PDFDocument } from "pdf-lib";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { deal, proposal, proposalEvent, timelineEvent } from "@/db/schema";
+import { formatDate, zoneName } from "@/lib/format";
 import type { MailFake } from "@/fakes/mail-server";
 import { client, latestCode, latestToken, mailTo, newDeal, newWorld, rejection, signatureDataUrl, startMailIfNeeded, type World } from "./support";
 import { openDeal } from "@/server/deal-scope";
@@ -197,7 +198,7 @@ describe("verify", () => {
     const signed = await x.load();
     const bytes = await m.proposals.readProposalPdf(signed, "signed");
     const answer = await m.signing.verifySignedPdf(bytes);
-    expect(answer).toEqual({ match: true, label: x.label, signedOn: signed.signedAt!.toISOString().slice(0, 10) });
+    expect(answer).toEqual({ match: true, label: x.label, signedOn: `${formatDate(signed.signedAt!, "America/New_York")} (${zoneName(signed.signedAt!, "America/New_York")})` }); // the company's default zone
     const tampered = new Uint8Array(bytes);
     const i = Math.floor(tampered.length / 2);
     tampered[i] = tampered[i] ^ 0x01;

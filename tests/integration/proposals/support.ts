@@ -170,7 +170,7 @@ export async function newDeal(w: World, rep: Member = w.rep): Promise<TestDeal> 
         { id: "west", name: "West", tiltDeg: 25, azimuthDeg: 270, usableSlots: 10, solarAccessPct: 90, moduleCount: 6 },
       ],
       weather: { kind: "nearest" },
-      stringPlan: null,
+      stringPlan: { stringSizes: [10, 10], lowestTempC: -10, highestTempC: 35 },
     },
   });
   const cash = await createOffer(rep, { dealId, inputs: { name: "Whole roof, cash", payment: { kind: "cash" } } });

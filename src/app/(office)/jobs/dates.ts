@@ -1,9 +1,6 @@
-// Job dates are calendar days (YYYY-MM-DD); shown in UTC so a date never slips a day.
-const short = new Intl.DateTimeFormat("en-US", { month: "short", day: "numeric", year: "numeric", timeZone: "UTC" });
-const weekday = new Intl.DateTimeFormat("en-US", { weekday: "short", month: "short", day: "numeric", timeZone: "UTC" });
-const long = new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", year: "numeric", timeZone: "UTC" });
+// Job dates are calendar days (YYYY-MM-DD), shown as they are (src/lib/format.ts).
+import { formatCalendarDate } from "@/lib/format";
 
-const asDate = (iso: string) => new Date(`${iso}T00:00:00Z`);
-export const shortDate = (iso: string) => short.format(asDate(iso));
-export const weekdayDate = (iso: string) => weekday.format(asDate(iso));
-export const longDate = (iso: string) => long.format(asDate(iso));
+export const shortDate = (iso: string) => formatCalendarDate(iso);
+export const weekdayDate = (iso: string) => formatCalendarDate(iso, "weekday-day");
+export const longDate = (iso: string) => formatCalendarDate(iso, "full");

@@ -3,6 +3,8 @@ import { NoAccess } from "@/components/no-access";
 import { can } from "@/lib/permissions";
 import { emptyPriceBook } from "@/lib/schemas/price-book";
 import { getPriceBookRecord } from "@/server/price-book";
+import { todayInZone } from "@/lib/zoned-time";
+import { getCompanySettings } from "@/server/company-settings";
 import { getMember } from "@/server/session";
 import { listUtilities } from "@/server/utilities";
 import { PriceBookClient } from "./price-book-client";
@@ -13,7 +15,7 @@ export default async function PriceBookPage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "pricebook:read")) return <NoAccess section="Price book" />;
-  const [record, utilities] = await Promise.all([getPriceBookRecord(member.companyId), listUtilities(member.companyId)]);
+  const [record, utilities, { timeZone }] = await Promise.all([getPriceBookRecord(member.companyId), listUtilities(member.companyId), getCompanySettings(member.companyId)]);
   const canEdit = can(member.role, "pricebook:manage");
   return (
     <>
@@ -28,7 +30,8 @@ export default async function PriceBookPage() {
         role={member.role}
         savedAt={record ? record.updatedAt.toISOString() : null}
         savedBy={record?.updatedByName ?? null}
-        today={new Date().toISOString().slice(0, 10)}
+        today={todayInZone(timeZone)}
+        timeZone={timeZone}
         utilities={utilities.map((u) => ({ id: u.id, name: u.name }))}
       />
     </>

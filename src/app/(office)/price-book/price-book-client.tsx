@@ -52,7 +52,7 @@ type BookEditor = {
 
 type UtilityOption = { id: string; name: string };
 
-export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string; utilities: UtilityOption[] }) {
+export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string; timeZone: string; utilities: UtilityOption[] }) {
   const [doc, setDoc] = useState<PriceBook>(props.initial);
   const [errors, setErrors] = useState<PathErrors>({});
   const [saved, setSaved] = useState({ at: props.savedAt, by: props.savedBy });
@@ -106,7 +106,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
 
   return (
     <div className="mt-6 space-y-6">
-      <SaveBar saved={saved} edit={edit} pending={pending} dirty={dirty} onSave={save} />
+      <SaveBar saved={saved} timeZone={props.timeZone} edit={edit} pending={pending} dirty={dirty} onSave={save} />
       <StatusMessage notice={notice} />
       {errors._ ? <FormMessage tone="error">{errors._}</FormMessage> : null}
 
@@ -515,11 +515,11 @@ function PriceCheckTable({ price }: { price: OfferPrice }) {
 }
 
 /** When the book was last saved and by whom, and the save button. */
-function SaveBar({ saved, edit, pending, dirty, onSave }: { saved: { at: string | null; by: string | null }; edit: boolean; pending: boolean; dirty: boolean; onSave: () => void }) {
+function SaveBar({ saved, timeZone, edit, pending, dirty, onSave }: { saved: { at: string | null; by: string | null }; timeZone: string; edit: boolean; pending: boolean; dirty: boolean; onSave: () => void }) {
   return (
     <div className="flex flex-wrap items-center justify-between gap-3">
       <p className="text-sm text-graphite-soft" data-testid="price-book-saved">
-        {saved.at ? `Last saved ${formatDateTime(new Date(saved.at))}${saved.by ? ` by ${saved.by}` : ""}.` : "Not set up yet: offers use the starting values below until it is saved."}
+        {saved.at ? `Last saved ${formatDateTime(new Date(saved.at), timeZone)}${saved.by ? ` by ${saved.by}` : ""}.` : "Not set up yet: offers use the starting values below until it is saved."}
       </p>
       {edit ? (
         <button type="button" className="btn-primary" onClick={onSave} disabled={pending}>

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { STAGES } from "@/lib/enums";
 import { can } from "@/lib/permissions";
 import { STAGE_LABELS } from "@/lib/stages";
-import { daysSince, formatCents, formatDate, formatDateTime, formatKwFromWatts } from "@/lib/format";
+import { daysSince, formatCalendarDate, formatCents, formatDate, formatDateTime, formatKwFromWatts } from "@/lib/format";
 import { listPendingDiscountRequests } from "@/server/offers";
 import { listPendingInvitations } from "@/server/people";
 import { getMember } from "@/server/session";
@@ -15,7 +15,7 @@ export const metadata: Metadata = { title: "Today" };
 type PendingDiscount = Awaited<ReturnType<typeof listPendingDiscountRequests>>[number];
 
 const linkClass = "font-medium underline-offset-2 hover:text-copper hover:underline";
-const day = (iso: string) => formatDate(new Date(`${iso}T00:00:00Z`));
+const day = (iso: string) => formatCalendarDate(iso);
 const VISIT_LABELS: Record<CrewVisit["kind"], string> = { install: "Install", survey: "Site survey", inspection: "Inspection" };
 
 function StalledItem({ d }: { d: StalledDeal }) {
@@ -75,9 +75,9 @@ export default async function TodayPage() {
 
       <DiscountsWaiting discounts={discounts} approver={approver} />
 
-      <QuestionsQueue questions={q.questions} />
+      <QuestionsQueue questions={q.questions} timeZone={q.timeZone} />
 
-      <ProposalsOpenedQueue proposalsOpened={q.proposalsOpened} />
+      <ProposalsOpenedQueue proposalsOpened={q.proposalsOpened} timeZone={q.timeZone} />
 
       {q.followUps ? (
         <QueueSection id="follow-ups" title="Your follow-ups" total={q.followUps.total} shown={q.followUps.items.length}>
@@ -192,12 +192,12 @@ function DiscountsWaiting({ discounts, approver }: { discounts: PendingDiscount[
   );
 }
 
-function QuestionsQueue({ questions }: { questions: TodayQueues["questions"] }) {
+function QuestionsQueue({ questions, timeZone }: { questions: TodayQueues["questions"]; timeZone: string }) {
   if (!questions) return null;
   return (
     <QueueSection id="customer-questions" title="Questions from your customers" total={questions.total} shown={questions.items.length} tone="caution">
       {questions.items.map((x) => (
-        <QueueItem key={x.eventId} aside={formatDateTime(x.askedAt)}>
+        <QueueItem key={x.eventId} aside={formatDateTime(x.askedAt, timeZone)}>
           <Link href={`/deals/${x.dealId}/proposal`} className={linkClass}>
             {x.householdName}
           </Link>
@@ -210,7 +210,7 @@ function QuestionsQueue({ questions }: { questions: TodayQueues["questions"] }) 
   );
 }
 
-function ProposalsOpenedQueue({ proposalsOpened }: { proposalsOpened: TodayQueues["proposalsOpened"] }) {
+function ProposalsOpenedQueue({ proposalsOpened, timeZone }: { proposalsOpened: TodayQueues["proposalsOpened"]; timeZone: string }) {
   if (!proposalsOpened) return null;
   const now = new Date();
   return (
@@ -220,9 +220,9 @@ function ProposalsOpenedQueue({ proposalsOpened }: { proposalsOpened: TodayQueue
           key={p.proposalId}
           aside={
             <>
-              opened {formatDate(p.firstOpenedAt)}
-              {p.lastViewedAt ? <>, last seen {formatDate(p.lastViewedAt)}</> : null}
-              {p.expiresAt < now ? <span className="text-danger"> · link expired</span> : <> · link until {formatDate(p.expiresAt)}</>}
+              opened {formatDate(p.firstOpenedAt, timeZone)}
+              {p.lastViewedAt ? <>, last seen {formatDate(p.lastViewedAt, timeZone)}</> : null}
+              {p.expiresAt < now ? <span className="text-danger"> · link expired</span> : <> · link until {formatDate(p.expiresAt, timeZone)}</>}
             </>
           }
         >

@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
 import { can } from "@/lib/permissions";
+import { formatDate } from "@/lib/format";
+import { getCompanySettings } from "@/server/company-settings";
 import { getMember } from "@/server/session";
 import { listStations, MAX_STATION_DISTANCE_KM } from "@/server/weather-stations";
 import { WeatherClient, type StationView } from "./weather-client";
@@ -11,7 +13,7 @@ export default async function WeatherPage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "weather:read")) return <NoAccess section="Weather" />;
-  const stations = await listStations(member);
+  const [stations, { timeZone }] = await Promise.all([listStations(member), getCompanySettings(member.companyId)]);
   const views: StationView[] = stations.map((s) => ({
     id: s.id,
     name: s.name,
@@ -25,6 +27,7 @@ export default async function WeatherPage() {
     fileName: s.fileName,
     sizeBytes: s.sizeBytes,
     createdAt: s.createdAt.toISOString(),
+    addedOn: formatDate(s.createdAt, timeZone),
     designCount: s.designCount,
     sites: s.sites,
   }));

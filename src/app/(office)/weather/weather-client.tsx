@@ -8,7 +8,6 @@ import { describedBy, Field, FieldShell, FormMessage, optionsOf, SelectField, St
 import { TableShell, Td, Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import { api } from "@/lib/api-client";
-import { formatDate } from "@/lib/format";
 import {
   nearestQuerySchema,
   stationFieldsSchema,
@@ -34,6 +33,8 @@ export type StationView = {
   fileName: string;
   sizeBytes: number;
   createdAt: string;
+  /** The day it was added, on the company's clock. */
+  addedOn: string;
   designCount: number;
   sites: { householdId: string; name: string; city: string; distanceKm: number; how: "chosen" | "nearest" }[];
 };
@@ -255,7 +256,7 @@ function StationRow({ station: s, canManage, confirming, setConfirming, pending,
       <Td>
         <span className="font-medium">{s.name}</span>
         <span className="block text-xs text-graphite-soft">
-          {FORMAT_NAMES[s.format]} · {s.fileName} · added {formatDate(new Date(s.createdAt))}
+          {FORMAT_NAMES[s.format]} · {s.fileName} · added {s.addedOn}
         </span>
       </Td>
       <Td className="figure whitespace-nowrap text-xs">

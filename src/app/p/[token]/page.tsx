@@ -13,6 +13,7 @@ import { formatIsoDateLong, proposalLinkState } from "@/lib/proposal-snapshot";
 import { dateInZone } from "@/lib/zoned-time";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { clientMeta } from "@/server/client-address";
+import { getCompanySettings } from "@/server/company-settings";
 import { cancelWindowOf, findProposalByToken, labelOf, recordProposalView, type ProposalRow } from "@/server/proposals";
 import { CancelForm } from "./cancel-form";
 import { DepositPanel } from "./deposit-panel";
@@ -41,20 +42,21 @@ export default async function CustomerProposalPage({ params }: { params: Promise
   const s = p.snapshot;
   const label = labelOf(p);
   const state = proposalLinkState(p);
+  const { timeZone } = await getCompanySettings(p.companyId); // every time on this page is on the company's clock
 
   return (
     <Shell snapshot={s} label={label}>
-      {state === "live" ? <LivePage p={p} token={token} label={label} /> : null}
-      {state === "signed" ? <SignedPage p={p} token={token} /> : null}
-      {state === "cancelled" ? <CancelledPage p={p} token={token} /> : null}
+      {state === "live" ? <LivePage p={p} token={token} label={label} timeZone={timeZone} /> : null}
+      {state === "signed" ? <SignedPage p={p} token={token} timeZone={timeZone} /> : null}
+      {state === "cancelled" ? <CancelledPage p={p} token={token} timeZone={timeZone} /> : null}
       {state === "expired" ? (
         <Notice title="This proposal has expired" testId="state-expired">
-          Its link worked until {formatDateTime(p.expiresAt)}. Prices and incentives change, so ask {s.rep.name} ({s.rep.email}) for an up-to-date proposal.
+          Its link worked until {formatDateTime(p.expiresAt, timeZone)}. Prices and incentives change, so ask {s.rep.name} ({s.rep.email}) for an up-to-date proposal.
         </Notice>
       ) : null}
       {state === "revoked" ? (
         <Notice title="This proposal was withdrawn" testId="state-revoked">
-          {s.company.name} withdrew this proposal{p.revokedAt ? ` on ${formatDate(p.revokedAt)}` : ""}, so it can no longer be read or signed. Ask {s.rep.name} ({s.rep.email}) if you
+          {s.company.name} withdrew this proposal{p.revokedAt ? ` on ${formatDate(p.revokedAt, timeZone)}` : ""}, so it can no longer be read or signed. Ask {s.rep.name} ({s.rep.email}) if you
           expected it.
         </Notice>
       ) : null}
@@ -163,12 +165,12 @@ function Downloads({ token, signed }: { token: string; signed: boolean }) {
   );
 }
 
-function LivePage({ p, token, label }: { p: ProposalRow; token: string; label: string }) {
+function LivePage({ p, token, label, timeZone }: { p: ProposalRow; token: string; label: string; timeZone: string }) {
   const s = p.snapshot;
   return (
     <>
       <p className="text-sm">
-        This proposal is open until <strong>{formatDateTime(p.expiresAt)}</strong>. Read it at your own pace, ask a question, and sign when you are ready.
+        This proposal is open until <strong>{formatDateTime(p.expiresAt, timeZone)}</strong>. Read it at your own pace, ask a question, and sign when you are ready.
       </p>
       <HouseholdCard s={s} />
       <ProposalView token={token} label={label} snapshot={s} />
@@ -179,7 +181,7 @@ function LivePage({ p, token, label }: { p: ProposalRow; token: string; label: s
   );
 }
 
-async function SignedPage({ p, token }: { p: ProposalRow; token: string }) {
+async function SignedPage({ p, token, timeZone }: { p: ProposalRow; token: string; timeZone: string }) {
   const s = p.snapshot;
   const offer = s.offers.find((o) => o.position === p.chosenPosition) ?? s.offers[0];
   const cancelWindow = await cancelWindowOf(p);
@@ -188,7 +190,7 @@ async function SignedPage({ p, token }: { p: ProposalRow; token: string }) {
       <section className="card border-sage/40 bg-sage-light p-4" data-testid="state-signed" role="status">
         <h2 className="text-xl font-semibold">Signed</h2>
         <p className="mt-1">
-          {p.signerName} signed on {p.signedAt ? formatDateTime(p.signedAt) : "—"}, choosing &ldquo;{offer.name}&rdquo; at{" "}
+          {p.signerName} signed on {p.signedAt ? formatDateTime(p.signedAt, timeZone) : "—"}, choosing &ldquo;{offer.name}&rdquo; at{" "}
           <span className="figure font-semibold">{formatCents(offer.figures.summary.contractCents)}</span>.
         </p>
         <p className="mt-1 text-sm">Deposit asked at signing: <span className="figure">{formatCents(offer.depositCents)}</span>.</p>
@@ -259,12 +261,12 @@ function RightToCancel({ p, token, cancelWindow }: { p: ProposalRow; token: stri
   );
 }
 
-function CancelledPage({ p, token }: { p: ProposalRow; token: string }) {
+function CancelledPage({ p, token, timeZone }: { p: ProposalRow; token: string; timeZone: string }) {
   const s = p.snapshot;
   return (
     <>
       <Notice title="This agreement was cancelled" testId="state-cancelled">
-        You cancelled the agreement{p.cancelledAt ? ` on ${formatDateTime(p.cancelledAt)}` : ""}, inside the time the law gives you. {s.company.name} returns any payment you made,
+        You cancelled the agreement{p.cancelledAt ? ` on ${formatDateTime(p.cancelledAt, timeZone)}` : ""}, inside the time the law gives you. {s.company.name} returns any payment you made,
         including a deposit, within ten business days. Questions: {s.rep.name} ({s.rep.email}).
       </Notice>
       {p.signedStorageKey ? <Downloads token={token} signed /> : null}

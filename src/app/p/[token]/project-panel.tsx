@@ -2,6 +2,7 @@
 // with its date when the office has set one. Phone-first. It shows the company's name only:
 // no staff names, permit numbers or internal notes.
 import type { Stage } from "@/lib/enums";
+import { formatCalendarDate } from "@/lib/format";
 import { getProjectProgress, type ProjectProgress } from "@/server/jobs";
 import { findProposalByToken } from "@/server/proposals";
 
@@ -16,8 +17,7 @@ const STEPS: { stage: Stage; label: string }[] = [
   { stage: "live", label: "Live" },
 ];
 
-const dayFmt = new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", year: "numeric", timeZone: "UTC" });
-const day = (iso: string) => dayFmt.format(new Date(`${iso}T00:00:00Z`));
+const day = (iso: string) => formatCalendarDate(iso, "full");
 
 /** The next thing the customer can expect, with its date when there is one. */
 export function nextStep(p: ProjectProgress, companyName: string): { title: string; date: string | null; text: string } {

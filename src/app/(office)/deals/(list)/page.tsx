@@ -4,6 +4,7 @@ import { NoAccess } from "@/components/no-access";
 import { can } from "@/lib/permissions";
 import { LEAD_SOURCES } from "@/lib/schemas/deal";
 import { dealTableQuerySchema, searchParamsObject } from "@/lib/schemas/deal-table";
+import { getCompanySettings } from "@/server/company-settings";
 import { dealOwnerOptions, dealTablePage } from "@/server/deal-table";
 import { getMember } from "@/server/session";
 import { DealsTable } from "../_table/deals-table-client";
@@ -18,7 +19,7 @@ export default async function DealsPage({ searchParams }: { searchParams: Promis
   const parsed = dealTableQuerySchema.safeParse(searchParamsObject(await searchParams));
   const query = parsed.success ? parsed.data : dealTableQuerySchema.parse({});
   const mine = !can(member.role, "deals:read-all");
-  const [initial, owners] = await Promise.all([dealTablePage(member, query), dealOwnerOptions(member)]);
+  const [initial, owners, { timeZone }] = await Promise.all([dealTablePage(member, query), dealOwnerOptions(member), getCompanySettings(member.companyId)]);
   return (
     <>
       <div className="flex flex-wrap items-end justify-between gap-3">
@@ -34,7 +35,7 @@ export default async function DealsPage({ searchParams }: { searchParams: Promis
           </Link>
         ) : null}
       </div>
-      <DealsTable initialQuery={query} initial={initial} showOwner={!mine} owners={owners} sources={[...LEAD_SOURCES]} />
+      <DealsTable initialQuery={query} initial={initial} showOwner={!mine} timeZone={timeZone} owners={owners} sources={[...LEAD_SOURCES]} />
     </>
   );
 }

@@ -18,7 +18,7 @@ import {
 import { STAGE_LABELS } from "@/lib/stages";
 import { Field, optionsOf, SelectField } from "@/components/ui/field";
 import { BulkBar } from "./bulk-bar";
-import { allColumns, Checkbox, features, repColumns } from "./columns";
+import { Checkbox, dealColumns, features } from "./columns";
 import { SavedViewsMenu } from "./saved-views-menu";
 
 const PAGE_SIZES = [25, 50, 100, 200];
@@ -120,15 +120,16 @@ function useDealsView(initialQuery: DealTableQuery) {
 }
 
 /** The table model: sorting and paging are the server's (they change the view); hidden columns are remembered here. */
-function useDealsTable(showOwner: boolean, data: DealTablePage, state: ReturnType<typeof useDealsView>) {
+function useDealsTable(showOwner: boolean, timeZone: string, data: DealTablePage, state: ReturnType<typeof useDealsView>) {
   const { view, setView, columnVisibility, setColumnVisibility, rowSelection, setRowSelection } = state;
   const { column: sortColumn, direction } = parseSort(view.sort);
   const sorting: SortingState = useMemo(() => [{ id: sortColumn, desc: direction === "desc" }], [sortColumn, direction]);
   const pagination: PaginationState = useMemo(() => ({ pageIndex: view.page - 1, pageSize: view.pageSize }), [view.page, view.pageSize]);
+  const columns = useMemo(() => dealColumns(timeZone, showOwner), [timeZone, showOwner]);
 
   return useTable({
     features,
-    columns: showOwner ? allColumns : repColumns,
+    columns,
     data: data.rows,
     getRowId: (row) => row.id,
     manualSorting: true,
@@ -178,12 +179,15 @@ export function DealsTable({
   initialQuery,
   initial,
   showOwner,
+  timeZone,
   owners,
   sources,
 }: {
   initialQuery: DealTableQuery;
   initial: DealTablePage;
   showOwner: boolean;
+  /** The company's zone: dates in the table are its days. */
+  timeZone: string;
   owners: Array<{ id: string; name: string; active?: boolean }>;
   sources: string[];
 }) {
@@ -201,7 +205,7 @@ export function DealsTable({
     placeholderData: keepPreviousData,
   });
   const data = result.data ?? initial;
-  const table = useDealsTable(showOwner, data, state);
+  const table = useDealsTable(showOwner, timeZone, data, state);
 
   const onSearch = (e: FormEvent) => {
     e.preventDefault();

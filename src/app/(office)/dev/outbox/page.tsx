@@ -4,6 +4,7 @@ import { devToolsEnabled } from "@/env";
 import { formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { listOutbox } from "@/server/mail";
+import { getCompanySettings } from "@/server/company-settings";
 import { getMember } from "@/server/session";
 import { notFound } from "next/navigation";
 
@@ -19,7 +20,7 @@ export default async function OutboxPage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "outbox:read")) return <NoAccess section="the dev outbox" />;
-  const messages = await listOutbox({ companyId: member.companyId, limit: 50 });
+  const [messages, { timeZone }] = await Promise.all([listOutbox({ companyId: member.companyId, limit: 50 }), getCompanySettings(member.companyId)]);
   return (
     <>
       <h1 className="text-2xl font-semibold">Dev outbox</h1>
@@ -34,7 +35,7 @@ export default async function OutboxPage() {
               <summary className="flex min-h-touch cursor-pointer flex-wrap items-center justify-between gap-2 px-4 py-2">
                 <span className="font-medium">{m.subject}</span>
                 <span className="text-sm text-graphite-soft">
-                  to {m.to.join(", ")} · {formatDateTime(new Date(m.createdAt))}
+                  to {m.to.join(", ")} · {formatDateTime(new Date(m.createdAt), timeZone)}
                 </span>
               </summary>
               {m.html ? (

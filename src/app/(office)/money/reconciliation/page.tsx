@@ -6,6 +6,7 @@ import { formatCentsExact, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { HttpError } from "@/server/errors";
 import { listPaymentAlerts, reconcileLedger, type PaymentAlertRow, type Reconciliation, type ReconciliationDifference } from "@/server/payments";
+import { getCompanySettings } from "@/server/company-settings";
 import { getMember } from "@/server/session";
 
 export const metadata: Metadata = { title: "Reconciliation" };
@@ -23,7 +24,7 @@ export default async function ReconciliationPage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "payments:reconcile")) return <NoAccess section="Money → Reconciliation" />;
-  const alerts = await listPaymentAlerts(member);
+  const [alerts, { timeZone }] = await Promise.all([listPaymentAlerts(member), getCompanySettings(member.companyId)]);
   let result: Reconciliation | null = null;
   let problem: string | null = null;
   try {
@@ -40,19 +41,19 @@ export default async function ReconciliationPage() {
         The deposit ledger of {member.companyName} compared with the payment provider&apos;s own list of Checkout Sessions and refunds. A difference usually means a webhook has
         not landed yet, or money moved outside Kilowright; open the deal&apos;s Money tab to see the payment.
       </p>
-      <Alerts alerts={alerts} />
+      <Alerts alerts={alerts} timeZone={timeZone} />
       {problem ? (
         <div className="mt-6">
           <FormMessage tone="error">{problem}</FormMessage>
         </div>
       ) : result ? (
-        <Result r={result} />
+        <Result r={result} timeZone={timeZone} />
       ) : null}
     </>
   );
 }
 
-function Result({ r }: { r: Reconciliation }) {
+function Result({ r, timeZone }: { r: Reconciliation; timeZone: string }) {
   return (
     <div className="mt-6 space-y-6">
       <div className="flex flex-wrap items-center gap-4">
@@ -70,7 +71,7 @@ function Result({ r }: { r: Reconciliation }) {
           Check again
         </Link>
       </div>
-      <p className="text-sm text-graphite-soft">Checked {formatDateTime(r.checkedAt)}.</p>
+      <p className="text-sm text-graphite-soft">Checked {formatDateTime(r.checkedAt, timeZone)}.</p>
       {r.demoRowsSkipped > 0 ? (
         <p className="text-sm text-graphite-soft">
           {r.demoRowsSkipped} demo ledger row{r.demoRowsSkipped === 1 ? "" : "s"} written by the demo seed (payments with ids starting cs_test_demo, and their refunds) have
@@ -127,7 +128,7 @@ function Result({ r }: { r: Reconciliation }) {
 }
 
 /** Refunds (and later other money) the provider reported that the ledger could not place. */
-function Alerts({ alerts }: { alerts: PaymentAlertRow[] }) {
+function Alerts({ alerts, timeZone }: { alerts: PaymentAlertRow[]; timeZone: string }) {
   if (alerts.length === 0) return null;
   return (
     <section aria-labelledby="payment-alerts" className="mt-6" data-testid="payment-alerts">
@@ -139,7 +140,7 @@ function Alerts({ alerts }: { alerts: PaymentAlertRow[] }) {
         {alerts.map((a) => (
           <li key={a.id} className="px-3 py-2" data-testid={`payment-alert-${a.id}`}>
             <span className="figure">{a.amountCents === null ? "—" : formatCentsExact(a.amountCents)}</span> · <span className="figure text-xs">{a.chargeId ?? a.paymentIntentId ?? a.webhookEventId}</span> ·{" "}
-            {formatDateTime(a.createdAt)}
+            {formatDateTime(a.createdAt, timeZone)}
             <p className="text-graphite-soft">{a.detail}</p>
           </li>
         ))}

@@ -2,6 +2,8 @@ import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
 import { assignableRoles, can } from "@/lib/permissions";
 import { listPendingInvitations, listPeople } from "@/server/people";
+import { formatDate, formatDateTime } from "@/lib/format";
+import { getCompanySettings } from "@/server/company-settings";
 import { getMember } from "@/server/session";
 import { PeopleClient } from "./people-client";
 
@@ -11,7 +13,7 @@ export default async function PeoplePage() {
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "people:read")) return <NoAccess section="Settings → People" />;
-  const [people, invitations] = await Promise.all([listPeople(member.companyId), listPendingInvitations(member.companyId)]);
+  const [people, invitations, { timeZone }] = await Promise.all([listPeople(member.companyId), listPendingInvitations(member.companyId), getCompanySettings(member.companyId)]);
   return (
     <>
       <p className="text-sm text-graphite-soft">Settings</p>
@@ -21,8 +23,8 @@ export default async function PeoplePage() {
         me={member.userId}
         myRole={member.role}
         roles={assignableRoles(member.role)}
-        people={people.map((p) => ({ ...p, joinedAt: p.joinedAt.toISOString() }))}
-        invitations={invitations.map((i) => ({ ...i, expiresAt: i.expiresAt.toISOString(), createdAt: i.createdAt.toISOString() }))}
+        people={people.map((p) => ({ ...p, joinedAt: p.joinedAt.toISOString(), joinedOn: formatDate(p.joinedAt, timeZone) }))}
+        invitations={invitations.map((i) => ({ ...i, expiresAt: i.expiresAt.toISOString(), createdAt: i.createdAt.toISOString(), validUntil: formatDateTime(i.expiresAt, timeZone) }))}
       />
     </>
   );

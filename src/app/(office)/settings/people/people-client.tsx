@@ -8,12 +8,11 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Field, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
 import { TableShell, Td, Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
-import { formatDate } from "@/lib/format";
 import { ROLE_LABELS } from "@/lib/permissions";
 import { inviteSchema, type InviteInput, type UpdatePersonInput } from "@/lib/schemas/people";
 
-type PersonView = { id: string; userId: string; name: string; email: string; role: Role; status: "active" | "deactivated"; joinedAt: string };
-type InvitationView = { id: string; email: string; name: string | null; role: Role; expiresAt: string; createdAt: string };
+type PersonView = { id: string; userId: string; name: string; email: string; role: Role; status: "active" | "deactivated"; joinedAt: string; /** The day they joined, on the company's clock. */ joinedOn: string };
+type InvitationView = { id: string; email: string; name: string | null; role: Role; expiresAt: string; createdAt: string; /** When the invitation lapses, on the company's clock. */ validUntil: string };
 
 const roleOptions = (roles: readonly Role[]) => roles.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 
@@ -127,7 +126,7 @@ function PersonRow({ person: p, me, myRole, roles: allowed, pending, onChange }:
         />
       </Td>
       <Td>{p.status === "active" ? <Badge tone="success">Active</Badge> : <Badge tone="danger">Deactivated</Badge>}</Td>
-      <Td>{formatDate(new Date(p.joinedAt))}</Td>
+      <Td>{p.joinedOn}</Td>
       <Td className="text-right">
         {locked ? null : (
           <button
@@ -164,7 +163,7 @@ function InvitationsSection({ invitations, pending, onWithdraw }: { invitations:
               <span>
                 <span className="font-medium">{i.email}</span>
                 <span className="block text-xs text-graphite-soft">
-                  {ROLE_LABELS[i.role]} · valid until {formatDate(new Date(i.expiresAt))}
+                  {ROLE_LABELS[i.role]} · valid until {i.validUntil}
                 </span>
               </span>
               <button type="button" className="btn-quiet" disabled={pending} onClick={() => onWithdraw(i)}>

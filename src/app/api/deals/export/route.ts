@@ -1,4 +1,6 @@
 import { dealTableFiltersSchema, searchParamsObject } from "@/lib/schemas/deal-table";
+import { todayInZone } from "@/lib/zoned-time";
+import { getCompanySettings } from "@/server/company-settings";
 import { dealTableCsvStream } from "@/server/deal-table";
 import { validationError, withMember } from "@/server/route";
 
@@ -6,8 +8,9 @@ import { validationError, withMember } from "@/server/route";
 export const GET = withMember("deals:read-own", async ({ req, member }) => {
   const parsed = dealTableFiltersSchema.safeParse(searchParamsObject(req.nextUrl.searchParams));
   if (!parsed.success) throw validationError(parsed.error);
-  const day = new Date().toISOString().slice(0, 10);
-  return new Response(dealTableCsvStream(member, parsed.data), {
+  const { timeZone } = await getCompanySettings(member.companyId);
+  const day = todayInZone(timeZone);
+  return new Response(dealTableCsvStream(member, parsed.data, timeZone), {
     headers: {
       "Content-Type": "text/csv; charset=utf-8",
       "Content-Disposition": `attachment; filename="kilowright-deals-${day}.csv"`,

@@ -3,6 +3,7 @@ import { NoAccess } from "@/components/no-access";
 import { formatCentsExact, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import { proposalLabel } from "@/lib/proposal-snapshot";
+import { getCompanySettings } from "@/server/company-settings";
 import { listDealPayments, refundableCents } from "@/server/payments";
 import { getMember } from "@/server/session";
 import { MoneyClient, type PaymentView } from "./money-client";
@@ -14,7 +15,7 @@ export default async function MoneyTab({ params }: { params: Promise<{ id: strin
   const member = await getMember();
   if (!member) return null;
   if (!can(member.role, "payments:read")) return <NoAccess section="Money" />;
-  const payments = await listDealPayments(member, id);
+  const [payments, { timeZone }] = await Promise.all([listDealPayments(member, id), getCompanySettings(member.companyId)]);
   const views: PaymentView[] = payments.map((p) => ({
     id: p.id,
     status: p.status,
@@ -24,8 +25,8 @@ export default async function MoneyTab({ params }: { params: Promise<{ id: strin
     refundedText: formatCentsExact(p.refundedCents, p.currency),
     refundableCents: refundableCents(p),
     refundableText: formatCentsExact(refundableCents(p), p.currency),
-    paidAtText: p.paidAt ? formatDateTime(p.paidAt) : null,
-    createdAtText: formatDateTime(p.createdAt),
+    paidAtText: p.paidAt ? formatDateTime(p.paidAt, timeZone) : null,
+    createdAtText: formatDateTime(p.createdAt, timeZone),
     checkoutSessionId: p.checkoutSessionId,
     paymentIntentId: p.paymentIntentId,
     chargeId: p.chargeId,
@@ -38,7 +39,7 @@ export default async function MoneyTab({ params }: { params: Promise<{ id: strin
       status: r.status,
       stripeRefundId: r.stripeRefundId,
       byName: r.requestedByName,
-      createdAtText: formatDateTime(r.createdAt),
+      createdAtText: formatDateTime(r.createdAt, timeZone),
     })),
   }));
   return <MoneyClient payments={views} canRefund={can(member.role, "payments:refund")} canReconcile={can(member.role, "payments:reconcile")} />;

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
 import { describeStale } from "@/lib/offer-basis";
+import { missingStringPlanReason } from "@/lib/string-plan-rule";
 import { getDesignForDeal } from "@/server/designs";
 import { listOffers } from "@/server/offers";
 import { listProposalsForDeal } from "@/server/proposals";
@@ -28,7 +29,9 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
           ? "Discount declined: change the offer before sending it"
           : o.stale.length > 0
             ? `Recompute it on the Offers tab: the ${describeStale(o.stale)} changed`
-            : null,
+            : o.basis
+              ? missingStringPlanReason(o.basis.inverter, design?.document.stringPlan)
+              : null,
   }));
   const views: VersionView[] = versions.map((v) => ({
     ...v,
@@ -39,5 +42,5 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
     revokedAt: v.revokedAt?.toISOString() ?? null,
     events: v.events.map((e) => ({ ...e, createdAt: e.createdAt.toISOString() })),
   }));
-  return <ProposalClient dealId={id} householdEmail={room.household.email ?? ""} hasDesign={!!design} offers={choices} versions={views} />;
+  return <ProposalClient dealId={id} householdEmail={room.household.email ?? ""} hasDesign={!!design} offers={choices} versions={views} timeZone={room.settings.timeZone} />;
 }

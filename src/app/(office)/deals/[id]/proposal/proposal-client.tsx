@@ -74,7 +74,7 @@ const EVENT_LABELS: Record<string, string> = {
   cancelled: "Cancelled by the buyer",
 };
 
-export function ProposalClient({ dealId, householdEmail, hasDesign, offers, versions }: { dealId: string; householdEmail: string; hasDesign: boolean; offers: OfferChoice[]; versions: VersionView[] }) {
+export function ProposalClient({ dealId, householdEmail, hasDesign, offers, versions, timeZone }: { dealId: string; householdEmail: string; hasDesign: boolean; offers: OfferChoice[]; versions: VersionView[]; timeZone: string }) {
   const signed = versions.find((v) => v.state === "signed");
   return (
     <div className="space-y-6">
@@ -99,7 +99,7 @@ export function ProposalClient({ dealId, householdEmail, hasDesign, offers, vers
         </h2>
         {versions.length === 0 ? <p className="text-graphite-soft">No proposal sent yet.</p> : null}
         {versions.map((v) => (
-          <VersionCard key={v.id} v={v} />
+          <VersionCard key={v.id} v={v} timeZone={timeZone} />
         ))}
       </section>
     </div>
@@ -224,7 +224,7 @@ function OfferPicker({ offers, picked, onToggle, error }: { offers: OfferChoice[
   );
 }
 
-function VersionCard({ v }: { v: VersionView }) {
+function VersionCard({ v, timeZone }: { v: VersionView; timeZone: string }) {
   const [note, setNote] = useState<Notice | null>(null);
   const canRevoke = v.state === "live";
   const canResend = v.state === "live" || v.state === "signed" || v.state === "cancelled";
@@ -245,7 +245,7 @@ function VersionCard({ v }: { v: VersionView }) {
           {STATUS_LABELS[v.status]}
         </Badge>
       </header>
-      <VersionFacts v={v} />
+      <VersionFacts v={v} timeZone={timeZone} />
       <div className="mt-3 flex flex-wrap gap-2">
         <a href={`/api/proposals/${v.id}/pdf`} className="btn-quiet" download>
           Download PDF
@@ -277,23 +277,23 @@ function VersionCard({ v }: { v: VersionView }) {
           <StatusMessage notice={note} />
         </div>
       ) : null}
-      <VersionActivity v={v} />
+      <VersionActivity v={v} timeZone={timeZone} />
     </article>
   );
 }
 
 /** When and to whom a version went, what it held, and what happened to it since. */
-function VersionFacts({ v }: { v: VersionView }) {
+function VersionFacts({ v, timeZone }: { v: VersionView; timeZone: string }) {
   const chosen = v.offers.find((o) => o.position === v.chosenPosition) ?? null;
   return (
     <dl className="mt-2 grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[auto_1fr]">
       <dt className="text-graphite-soft">Sent</dt>
       <dd>
-        {formatDateTime(new Date(v.sentAt))} to {v.sentToEmail}
+        {formatDateTime(new Date(v.sentAt), timeZone)} to {v.sentToEmail}
         {v.sentByName ? ` by ${v.sentByName}` : ""}
       </dd>
       <dt className="text-graphite-soft">{v.state === "expired" ? "Expired" : "Link valid until"}</dt>
-      <dd>{formatDateTime(new Date(v.expiresAt))}</dd>
+      <dd>{formatDateTime(new Date(v.expiresAt), timeZone)}</dd>
       <dt className="text-graphite-soft">Offers</dt>
       <dd>
         {v.offers.map((o) => (
@@ -308,7 +308,7 @@ function VersionFacts({ v }: { v: VersionView }) {
         <>
           <dt className="text-graphite-soft">Signed</dt>
           <dd>
-            {formatDateTime(new Date(v.signedAt))} by {v.signerName}
+            {formatDateTime(new Date(v.signedAt), timeZone)} by {v.signerName}
             {chosen ? (
               <>
                 , &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>
@@ -326,13 +326,13 @@ function VersionFacts({ v }: { v: VersionView }) {
       {v.cancelledAt ? (
         <>
           <dt className="text-graphite-soft">Cancelled</dt>
-          <dd>{formatDateTime(new Date(v.cancelledAt))}</dd>
+          <dd>{formatDateTime(new Date(v.cancelledAt), timeZone)}</dd>
         </>
       ) : null}
       {v.revokedAt ? (
         <>
           <dt className="text-graphite-soft">Revoked</dt>
-          <dd>{formatDate(new Date(v.revokedAt))}</dd>
+          <dd>{formatDate(new Date(v.revokedAt), timeZone)}</dd>
         </>
       ) : null}
       {v.replacedByLabel ? (
@@ -346,7 +346,7 @@ function VersionFacts({ v }: { v: VersionView }) {
 }
 
 /** What the customer and the office did with this version, newest first. */
-function VersionActivity({ v }: { v: VersionView }) {
+function VersionActivity({ v, timeZone }: { v: VersionView; timeZone: string }) {
   return (
     <details className="mt-3" open={v.state === "live" || v.state === "signed"}>
       <summary className="cursor-pointer text-sm font-medium">Activity ({v.events.length})</summary>
@@ -363,7 +363,7 @@ function VersionActivity({ v }: { v: VersionView }) {
               </p>
               {e.kind === "question" && e.body ? <p className="mt-1 whitespace-pre-wrap rounded bg-paper-deep px-2 py-1">&ldquo;{e.body}&rdquo;</p> : null}
               <p className="text-xs text-graphite-soft">
-                {formatDateTime(new Date(e.createdAt))}
+                {formatDateTime(new Date(e.createdAt), timeZone)}
                 {e.ip ? ` · ${e.ip}` : ""}
               </p>
             </li>

@@ -16,7 +16,7 @@ export default async function TimelineTab({ params }: { params: Promise<{ id: st
           <span aria-hidden className="absolute -left-[31px] top-1.5 h-3 w-3 rounded-full border-2 border-white bg-copper" />
           <p className="font-medium">{e.summary}</p>
           <p className="text-sm text-graphite-soft">
-            {formatDateTime(e.createdAt)}
+            {formatDateTime(e.createdAt, scope.settings.timeZone)}
             {e.actorName ? ` · ${e.actorName}` : ""}
           </p>
         </li>
