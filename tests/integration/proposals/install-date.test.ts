@@ -6,6 +6,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { job } from "@/db/schema";
 import type { MailFake } from "@/fakes/mail-server";
 import { DEFAULT_INSTALL_LEAD_DAYS } from "@/lib/offer-figures";
+import { DEFAULT_TIME_ZONE } from "@/lib/schemas/company-settings";
+import { addDaysToDate, todayInZone } from "@/lib/zoned-time";
 import { newDeal, newWorld, rejection, startMailIfNeeded, type World } from "./support";
 
 let fake: MailFake | null = null;
@@ -21,8 +23,8 @@ type Mods = {
 };
 let m: Mods;
 
-/** A calendar date `days` after today (UTC, as the offer date is taken). */
-const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
+/** A calendar date `days` after the company's today (the offer date is the company's day; new companies keep the default zone). */
+const inDays = (days: number) => addDaysToDate(todayInZone(DEFAULT_TIME_ZONE), days);
 
 beforeAll(async () => {
   fake = await startMailIfNeeded();
