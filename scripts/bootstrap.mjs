@@ -20,7 +20,9 @@ function run(cmd, args, opts = {}) {
   execFileSync(cmd, args, { stdio: "inherit", cwd: root, ...opts });
 }
 
-const wanted = ["mariadb-server", "mariadb-client", ...(withBrowser ? ["chromium"] : [])];
+// tesseract-ocr (+ its English data) reads photos and scans of bills; poppler-utils' pdftoppm
+// renders a scanned PDF's pages for it. Debian's packages: nothing is downloaded at run time.
+const wanted = ["mariadb-server", "mariadb-client", "tesseract-ocr", "tesseract-ocr-eng", "poppler-utils", ...(withBrowser ? ["chromium"] : [])];
 const missing = wanted.filter((p) => !hasDebianPackage(p));
 if (missing.length > 0) {
   const isRoot = typeof process.getuid === "function" && process.getuid() === 0;

@@ -3,12 +3,14 @@
  *
  *   npm run read-bill -- FILE [--json]
  *
- * FILE: a PDF with a text layer. --json prints only the JSON (docs/read-bill.md describes it):
+ * FILE: a PDF with a text layer, a scanned PDF or a photo (JPEG, PNG): scans and photos are read by
+ * OCR (Debian's tesseract-ocr, installed by scripts/bootstrap.mjs). --json prints only the JSON (docs/read-bill.md describes it):
  *   {"current":{"start","end","kwh","amountDueCents"},"history":[{"month","kwh"}],"source","warnings"}
  */
 import { readFileSync } from "node:fs";
 import { billJson, readBill, type BillReading, type Found } from "../src/lib/bill-reader";
-import { pdfPages } from "../src/lib/bill-reader/pdf-pages";
+import { ocrTooPoor, readBillByOcr, type OcrPages } from "../src/lib/bill-reader/ocr-pages";
+import { pdfPages, pagesText } from "../src/lib/bill-reader/pdf-pages";
 
 function usage(message: string): never {
   console.error(`${message}\nusage: npm run read-bill -- FILE [--json]`);
@@ -25,12 +27,30 @@ try {
 } catch {
   usage(`Cannot read ${files[0]}.`);
 }
-if (Buffer.from(bytes.subarray(0, 5)).toString("latin1") !== "%PDF-") usage(`${files[0]} is not a PDF (photos need OCR, which this command does not do yet).`);
+const head = Buffer.from(bytes.subarray(0, 8));
+const isPdf = head.subarray(0, 5).toString("latin1") === "%PDF-";
+const isImage = head.subarray(0, 3).equals(Buffer.from([0xff, 0xd8, 0xff])) || head.equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]));
+if (!isPdf && !isImage) usage(`${files[0]} is neither a PDF nor a photo (JPEG or PNG).`);
 
-const pages = await pdfPages(bytes).catch(() => usage(`${files[0]} cannot be read as a PDF (damaged or protected).`));
-const reading = readBill(pages);
-const out = billJson(reading, "text");
-if (pages.every((p) => p.items.length === 0)) out.warnings.unshift("The PDF has no text layer (a scan): nothing could be read.");
+/** Fewer characters than this in a PDF's text layer: a scan, read by OCR (as the app does). */
+const MIN_PDF_TEXT_CHARS = 20;
+const pages = isPdf ? await pdfPages(bytes).catch(() => usage(`${files[0]} cannot be read as a PDF (damaged or protected).`)) : [];
+let ocr: OcrPages | null = null;
+let reading = readBill(pages);
+if (!isPdf || pagesText(pages).replace(/\s/g, "").length < MIN_PDF_TEXT_CHARS) {
+  try {
+    ({ reading, ocr } = await readBillByOcr(bytes, isPdf ? "pdf" : "image"));
+  } catch (err) {
+    console.error(err instanceof Error ? err.message : String(err));
+    process.exit(1);
+  }
+}
+const out = billJson(reading, ocr ? "ocr" : "text");
+if (ocr) {
+  const found = [reading.period, reading.kwh, reading.amountDue, reading.history].filter(Boolean).length;
+  const poor = ocrTooPoor(ocr, found);
+  if (poor) out.warnings.unshift(poor);
+}
 
 if (json) {
   console.log(JSON.stringify(out));

@@ -10,6 +10,7 @@ import { usageFromBills } from "@/engine/bills";
 import { EngineInputError } from "@/engine/errors";
 import { importIntervalData } from "@/engine/green-button";
 import { readBill, type BillReading } from "@/lib/bill-reader";
+import { OcrError, ocrTooPoor, readBillByOcr } from "@/lib/bill-reader/ocr-pages";
 import { pagesText, pdfPages } from "@/lib/bill-reader/pdf-pages";
 import type { BillSource } from "@/lib/enums";
 import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
@@ -230,7 +231,7 @@ export async function getDealUsageOrThrow(member: Member, usageId: string): Prom
 export type UploadMeta = { id: string; fileName: string; mimeType: string; sizeBytes: number; createdAt: Date };
 
 export type UploadOutcome =
-  | { kind: "bill-text"; upload: UploadMeta; reading: BillReading; message: string }
+  | { kind: "bill-text"; upload: UploadMeta; reading: BillReading; source: "text" | "ocr"; message: string }
   | { kind: "bill-image"; upload: UploadMeta; message: string }
   | { kind: "interval"; upload: UploadMeta; profileId: string; annualKwh: number; coveragePct: number; message: string };
 
@@ -249,6 +250,30 @@ function readingMessage(r: BillReading, fileName: string): string {
   const found = [r.period && "the period", r.kwh && "the kWh", r.amountDue && "the amount due", r.history && `${r.history.months.length} months of history`].filter(Boolean);
   if (!found.length) return `“${fileName}” was kept, but nothing could be read from its text. Type the numbers from the bill.`;
   return `Read ${found.join(", ").replace(/, ([^,]*)$/, " and $1")} from “${fileName}”. Check them against the bill below, then save.`;
+}
+
+/**
+ * A photo or a scanned PDF of a bill: read by OCR (src/lib/bill-reader/ocr-pages.ts), then kept
+ * with the deal either way. When OCR is too slow, fails, or its text is too poor, the file is kept
+ * and the rep is told why and asked to type the numbers.
+ */
+async function acceptScannedBill(scope: DealScope, file: { name: string; bytes: Uint8Array }, bytes: Uint8Array, kind: "image" | "pdf", detected: { mime: string; ext: string }): Promise<UploadOutcome> {
+  let read: Awaited<ReturnType<typeof readBillByOcr>> | null = null;
+  let problem: string | null = null;
+  try {
+    read = await readBillByOcr(bytes, kind);
+    const r = read.reading;
+    problem = ocrTooPoor(read.ocr, [r.period, r.kwh, r.amountDue, r.history].filter(Boolean).length);
+  } catch (err) {
+    if (!(err instanceof OcrError)) throw err;
+    problem = err.message;
+  }
+  const text = read && !problem ? pagesText(read.ocr.pages) : null;
+  const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", text);
+  if (!read || problem) {
+    return { kind: "bill-image", upload: meta, message: `${kind === "pdf" ? `“${file.name}” is a scanned PDF with no text and` : `The photo “${file.name}”`} could not be read well enough to use: ${problem} It was kept with the deal; type the billing period, kWh and amount from it.` };
+  }
+  return { kind: "bill-text", upload: meta, reading: read.reading, source: "ocr", message: `${readingMessage(read.reading, file.name)} It was read from a picture: check each figure.` };
 }
 
 const PROGRAM_TYPES = new Set(["application/x-msdownload", "application/x-elf", "application/x-mach-binary", "application/x-executable", "application/x-sharedlib", "application/vnd.microsoft.portable-executable", "application/wasm"]);
@@ -283,15 +308,13 @@ export async function acceptDealUpload(scope: DealScope, file: { name: string; b
       if (text.replace(/\s/g, "").length >= MIN_PDF_TEXT_CHARS) {
         const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", text);
         const reading = readBill(pages);
-        return { kind: "bill-text", upload: meta, reading, message: readingMessage(reading, file.name) };
+        return { kind: "bill-text", upload: meta, reading, source: "text", message: readingMessage(reading, file.name) };
       }
-      const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", null);
-      return { kind: "bill-image", upload: meta, message: `“${file.name}” is a scanned PDF with no text. It was kept with the deal; type the billing period, kWh and amount from it.` };
+      return acceptScannedBill(scope, file, file.bytes, "pdf", detected);
     }
     // A photographed bill is decoded within the pixel limit and re-encoded (422 when it does not decode).
     const pixels = await reencodeBillImage(file.bytes, detected.mime, file.name);
-    const meta = await storeUpload(scope, { name: file.name, bytes: pixels }, detected.mime, detected.ext, "bill", null);
-    return { kind: "bill-image", upload: meta, message: `The photo “${file.name}” was kept with the deal; type the billing period, kWh and amount from it.` };
+    return acceptScannedBill(scope, { name: file.name, bytes: pixels }, pixels, "image", detected);
   }
 
   if (detected && detected.mime !== "application/xml" && detected.mime !== "text/xml") throw refuse(`a ${detected.ext.toUpperCase()} file (${detected.mime})`);

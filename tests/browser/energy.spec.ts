@@ -101,3 +101,17 @@ test("a bill with a 13-month history fills the usage year in one step, its month
   await expect(page.getByTestId("from-history")).toHaveCount(11);
   await expect(page.getByText("12 of 12 months from bills")).toBeVisible();
 });
+
+test("a photo of a bill is read by OCR while the rep sees it being read, then the same table to confirm", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await openEnergy(page, "Abernathy household");
+  await upload(page, "bill-photo.jpg", "image/jpeg", readFileSync("tests/fixtures/bills/photos/cobble-creek-across-photo.jpg"));
+  // The upload is quick; OCR takes seconds, and the screen says so while it runs.
+  await expect(page.getByTestId("upload-stage")).toContainText("read by OCR");
+  const reading = page.getByTestId("bill-reading");
+  await expect(reading).toHaveAttribute("data-source", "ocr", { timeout: 60_000 });
+  await expect(reading.getByText("source: ocr")).toBeVisible();
+  await expect(reading.getByLabel("Amount due")).toHaveValue("121.37");
+  await expect(reading.getByTestId("history-month")).toHaveCount(12);
+  await expect(page.getByRole("status")).toContainText("It was read from a picture: check each figure.");
+});

@@ -101,11 +101,26 @@ describe("bill uploads are checked by content", () => {
     const dealId = await newDeal(member);
     const scan = await acceptDealUpload(await openDeal(member, dealId), { name: "scan.pdf", bytes: await scannedPdf() });
     expect(scan).toMatchObject({ kind: "bill-image" });
-    expect(scan.message).toMatch(/scanned PDF with no text/);
+    expect(scan.message).toMatch(/scanned PDF with no text and could not be read well enough to use: Only 0 words could be read with confidence/);
     const photo = await acceptDealUpload(await openDeal(member, dealId), { name: "photo.png", bytes: new Uint8Array(PNG_1PX) });
     expect(photo.kind).toBe("bill-image");
+    expect(photo.message).toMatch(/^The photo “photo.png” could not be read well enough to use: .* It was kept with the deal; type the billing period, kWh and amount from it\.$/);
     const rows = await db().select().from(upload).where(eq(upload.dealId, dealId));
     expect(rows.map((r) => r.mimeType).sort()).toEqual(["application/pdf", "image/png"]);
+  });
+
+  it("a photo of a bill is read by OCR into the same reading, marked as read from a picture", { timeout: 60_000 }, async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const bytes = new Uint8Array(await readFile("tests/fixtures/bills/photos/cobble-creek-across-photo.jpg"));
+    const outcome = await acceptDealUpload(await openDeal(member, dealId), { name: "bill-photo.jpg", bytes });
+    if (outcome.kind !== "bill-text") throw new Error(`not read: ${outcome.message}`);
+    expect(outcome.source).toBe("ocr");
+    expect(outcome.message).toMatch(/It was read from a picture: check each figure\.$/);
+    expect([outcome.reading.period?.start.value, outcome.reading.kwh?.value, outcome.reading.amountDue?.value, outcome.reading.history?.months.length]).toEqual(["2025-09-14", 1086, 12137, 12]);
+    const [row] = await db().select({ mimeType: upload.mimeType, extractedText: upload.extractedText }).from(upload).where(and(eq(upload.companyId, member.companyId), eq(upload.id, outcome.upload.id)));
+    expect(row.mimeType).toBe("image/jpeg");
+    expect(row.extractedText).toContain("Energy used");
   });
 
   it("a renamed program, an oversize file and a corrupt PDF are refused and nothing is stored", async () => {

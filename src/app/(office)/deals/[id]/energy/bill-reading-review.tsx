@@ -192,7 +192,7 @@ function PeriodRows({ reading: r, draft: d, set }: { reading: BillReading; draft
  * period, kWh and amount due with where each was printed, the amount's alternatives, and the
  * usage history's months (saved as bills marked "from the bill's history").
  */
-export function BillReadingReview(props: { reading: BillReading; saving: boolean; onSave: (rows: BillTableRow[]) => void; onDismiss: () => void }) {
+export function BillReadingReview(props: { reading: BillReading; source: "text" | "ocr"; saving: boolean; onSave: (rows: BillTableRow[]) => void; onDismiss: () => void }) {
   const r = props.reading;
   const [d, setD] = useState<Draft>(() => draftOf(r));
   const [problem, setProblem] = useState<string | null>(null);
@@ -207,7 +207,12 @@ export function BillReadingReview(props: { reading: BillReading; saving: boolean
   }
 
   return (
-    <div className="mt-4 space-y-3" data-testid="bill-reading">
+    <div className="mt-4 space-y-3" data-testid="bill-reading" data-source={props.source}>
+      {props.source === "ocr" ? (
+        <p className="text-sm text-graphite-soft">
+          <Badge tone="caution">source: ocr</Badge> Read from a picture of the bill: OCR can mistake a digit, so compare each figure with the bill.
+        </p>
+      ) : null}
       <TableShell
         label="Read from the bill"
         alignTop

@@ -20,7 +20,7 @@ type Row = { key: string; periodStart: string; periodEnd: string; kwh: string; c
 type Usage = Omit<UsageYear, "hourlyKwh">;
 type UploadView = { id: string; fileName: string; mimeType: string; purpose: string; createdAt: string };
 type Outcome =
-  | { kind: "bill-text"; upload: { id: string; fileName: string }; reading: BillReading; message: string }
+  | { kind: "bill-text"; upload: { id: string; fileName: string }; reading: BillReading; source: "text" | "ocr"; message: string }
   | { kind: "bill-image"; upload: { id: string; fileName: string }; message: string }
   | { kind: "interval"; upload: { id: string; fileName: string }; message: string };
 
@@ -76,7 +76,7 @@ function uploadWithProgress(url: string, file: File, onProgress: (pct: number) =
   });
 }
 
-type Review = { uploadId: string; reading: BillReading };
+type Review = { uploadId: string; reading: BillReading; source: "text" | "ocr" };
 type SetNotice = (notice: Notice | null) => void;
 
 /** The bills table's save: checked here first with the server's own schema, then PUT; errors land on their rows. */
@@ -117,16 +117,19 @@ function useBillsSave(dealId: string, rows: Row[], setRows: (rows: Row[]) => voi
 function useBillUpload(dealId: string, setNotice: SetNotice) {
   const queryClient = useQueryClient();
   const [progress, setProgress] = useState<number | null>(null);
+  /** A photo (or a PDF that may be a scan) is read by OCR once uploaded: seconds, said while it runs. */
+  const [picture, setPicture] = useState(false);
   const [review, setReview] = useState<Review | null>(null);
   const fileInput = useRef<HTMLInputElement>(null);
 
   async function onFile(file: File) {
     setNotice(null);
+    setPicture(file.type.startsWith("image/") || file.type === "application/pdf");
     setProgress(0);
     try {
       const outcome = await uploadWithProgress(`/api/deals/${dealId}/uploads`, file, setProgress);
       setNotice({ tone: outcome.kind === "bill-image" ? "info" : "success", text: outcome.message });
-      if (outcome.kind === "bill-text") setReview({ uploadId: outcome.upload.id, reading: outcome.reading });
+      if (outcome.kind === "bill-text") setReview({ uploadId: outcome.upload.id, reading: outcome.reading, source: outcome.source });
       if (outcome.kind === "interval") await queryClient.invalidateQueries({ queryKey: ["usage", dealId] });
       await queryClient.invalidateQueries({ queryKey: ["uploads", dealId] });
     } catch (err) {
@@ -136,7 +139,7 @@ function useBillUpload(dealId: string, setNotice: SetNotice) {
       if (fileInput.current) fileInput.current.value = "";
     }
   }
-  return { progress, review, setReview, fileInput, onFile };
+  return { progress, picture, review, setReview, fileInput, onFile };
 }
 
 export function EnergyClient(props: { dealId: string; canEdit: boolean; initialBills: BillValue[]; initialUsage: Usage; uploads: UploadView[] }) {
@@ -184,7 +187,7 @@ export function EnergyClient(props: { dealId: string; canEdit: boolean; initialB
 }
 
 function UploadSection({ upload, onSave, saving }: { upload: ReturnType<typeof useBillUpload>; onSave: (rows: BillTableRow[]) => void; saving: boolean }) {
-  const { progress, review, setReview, fileInput, onFile } = upload;
+  const { progress, picture, review, setReview, fileInput, onFile } = upload;
   return (
     <section className="card p-5" aria-labelledby="upload-heading">
       <h2 id="upload-heading" className="font-semibold">
@@ -206,12 +209,14 @@ function UploadSection({ upload, onSave, saving }: { upload: ReturnType<typeof u
       {progress !== null ? (
         <div className="mt-3" role="progressbar" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} aria-label="Upload progress">
           <div className="h-2 rounded-full bg-paper-deep">
-            <div className="h-2 rounded-full bg-copper transition-all" style={{ width: `${progress}%` }} />
+            <div className={`h-2 rounded-full bg-copper transition-all ${progress === 100 ? "animate-pulse" : ""}`} style={{ width: `${progress}%` }} />
           </div>
-          <p className="mt-1 text-xs text-graphite-soft">{progress < 100 ? `Uploading… ${progress} %` : "Reading the file…"}</p>
+          <p className="mt-1 text-xs text-graphite-soft" aria-live="polite" data-testid="upload-stage">
+            {progress < 100 ? `Uploading… ${progress} %` : picture ? "Reading the bill… a photo or a scanned page is read by OCR, which takes a few seconds a page." : "Reading the file…"}
+          </p>
         </div>
       ) : null}
-      {review ? <BillReadingReview key={review.uploadId} reading={review.reading} saving={saving} onSave={onSave} onDismiss={() => setReview(null)} /> : null}
+      {review ? <BillReadingReview key={review.uploadId} reading={review.reading} source={review.source} saving={saving} onSave={onSave} onDismiss={() => setReview(null)} /> : null}
     </section>
   );
 }
