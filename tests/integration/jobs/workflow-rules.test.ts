@@ -201,6 +201,28 @@ describe("8. cancelling cancels everything", () => {
     expect(row.cancelledAt).not.toBeNull();
   });
 
+  it("a cancelled deal reopened and sold again gets its job back, open and afresh for the new sale (notes kept)", async () => {
+    const x = await signedJob();
+    expect((await patchJob(w.office, x.jobId, { surveyDate: addDaysToDate(today, 1), notes: "Side gate" })).status).toBe(200);
+    expect((await cancelByBuyer(x.token)).status).toBe(200);
+    // The office reopens the deal, the buyer signs a new proposal and pays its deposit: the
+    // deposit's transaction opens the job as it does for any deal.
+    const proposalId = (await m.proposals.sendProposal(w.rep, { dealId: x.dealId, toEmail: "again@example.test" })).id;
+    expect(proposalId).not.toBe(x.proposalId);
+    const jobId = await m.db.db().transaction(async (tx) => {
+      await tx.update(deal).set({ stage: "deposit_paid" }).where(eq(deal.id, x.dealId));
+      return m.jobs.createJobForDeal(tx, { companyId: w.owner.companyId, dealId: x.dealId, proposalId });
+    });
+    expect(jobId).toBe(x.jobId);
+    const [row] = await m.db.db().select().from(job).where(eq(job.id, jobId));
+    expect([row.cancelledAt, row.cancelReason, row.crewId, row.surveyDate, row.proposalId, row.notes]).toEqual([null, null, null, null, proposalId, "Side gate"]);
+    expect(row.checklist!.every((i) => i.doneAt === null)).toBe(true);
+    expect(await timeline(x.dealId, "job.reopened")).toHaveLength(1);
+    // Open again: the office schedules it and it is back on the Jobs list.
+    expect((await patchJob(w.office, jobId, { crewId, surveyDate: addDaysToDate(today, 3) })).status).toBe(200);
+    expect(await listJobIds(w.office)).toContain(jobId);
+  });
+
   it("no install inside the buyer's window: the route refuses an earlier date with the reason and takes the day after", async () => {
     const x = await signedJob();
     const refused = await patchJob(w.office, x.jobId, { installDate: x.windowEnd });
