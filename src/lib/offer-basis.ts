@@ -30,6 +30,8 @@ export const offerBasisSchema = z.object({
   inverter: z.object({ manufacturer: z.string(), model: z.string(), kind: z.enum(["string", "micro"]), acWatts: z.number() }),
   /** The install date credits counting at installation were judged on; absent when no rule counts at installation. */
   installDate: z.object({ date: z.string(), source: z.enum(["job", "lead_time"]) }).nullish(),
+  /** The utility whose rebates applied: the household's, else (none picked yet) the plan's; absent on offers saved before utilities were records. */
+  utilityId: z.string().nullish(),
 });
 export type OfferBasis = z.infer<typeof offerBasisSchema>;
 
@@ -44,12 +46,14 @@ export type CurrentInputs = {
   assumptionsVersion: number;
   /** The deal's job's planned install date, if any. */
   jobInstallDate: string | null;
+  /** The utility whose rebates would apply now: the household's, else the plan's. */
+  utilityId: string | null;
 };
 
-export const STALE_INPUTS = ["usage", "design", "rate_plan", "price_book", "incentives", "assumptions", "install_date"] as const;
+export const STALE_INPUTS = ["usage", "design", "rate_plan", "price_book", "incentives", "assumptions", "install_date", "utility"] as const;
 export type StaleInput = (typeof STALE_INPUTS)[number];
 
-export const STALE_INPUT_LABELS: Record<StaleInput, string> = { usage: "usage (bills or interval data)", design: "design", rate_plan: "rate plan", price_book: "price book", incentives: "incentive rules", assumptions: "savings assumptions", install_date: "planned install date" };
+export const STALE_INPUT_LABELS: Record<StaleInput, string> = { usage: "usage (bills or interval data)", design: "design", rate_plan: "rate plan", price_book: "price book", incentives: "incentive rules", assumptions: "savings assumptions", install_date: "planned install date", utility: "household's utility" };
 
 /**
  * The inputs that changed since the offer was computed; empty when it is current. An offer
@@ -70,6 +74,7 @@ export function staleInputs(basis: OfferBasis | null, now: CurrentInputs): Stale
     const dateNow = now.jobInstallDate ?? (basis.installDate.source === "lead_time" ? basis.installDate.date : null);
     if (dateNow !== basis.installDate.date) out.push("install_date");
   }
+  if (basis.utilityId !== undefined && basis.utilityId !== now.utilityId) out.push("utility");
   return out;
 }
 

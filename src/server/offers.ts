@@ -81,7 +81,10 @@ export async function currentInputs(scope: DealScope, ratePlanIds: (string | nul
     db().select({ revision: design.revision }).from(design).where(and(eq(design.companyId, companyId), eq(design.dealId, dealId))).limit(1),
     db().select({ version: priceBook.version, incentivesVersion: priceBook.incentivesVersion }).from(priceBook).where(eq(priceBook.companyId, companyId)).limit(1),
     planIds.length
-      ? db().select({ id: ratePlan.id, version: ratePlan.version }).from(ratePlan).where(and(eq(ratePlan.companyId, companyId), inArray(ratePlan.id, planIds)))
+      ? db()
+          .select({ id: ratePlan.id, version: ratePlan.version, utilityId: ratePlan.utilityId })
+          .from(ratePlan)
+          .where(and(eq(ratePlan.companyId, companyId), inArray(ratePlan.id, planIds)))
       : Promise.resolve([]),
     plannedInstallDate(scope),
   ]);
@@ -96,6 +99,7 @@ export async function currentInputs(scope: DealScope, ratePlanIds: (string | nul
       incentivesVersion: book?.incentivesVersion ?? 0,
       assumptionsVersion: scope.settings.financeVersion,
       jobInstallDate,
+      utilityId: scope.deal.utilityId ?? plan?.utilityId ?? null,
     };
   };
 }
@@ -202,6 +206,7 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
     assumptionsVersion: scope.settings.financeVersion,
     module: { manufacturer: mod.manufacturer, model: mod.model, stcWatts: mod.stcWatts },
     inverter: { manufacturer: inv.manufacturer, model: inv.model, kind: inv.kind, acWatts: inv.acWatts },
+    utilityId: scope.deal.utilityId ?? plan.utilityId,
   };
   try {
     const figures = computeOfferFigures({

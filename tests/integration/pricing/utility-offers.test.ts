@@ -4,7 +4,9 @@ import { and, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { timelineEvent } from "@/db/schema";
 import { db } from "@/server/db";
-import { createOffer, updateOffer } from "@/server/offers";
+import { openDeal } from "@/server/deal-scope";
+import { updateDealUtility } from "@/server/deals";
+import { createOffer, listOffers, updateOffer } from "@/server/offers";
 import { getPriceBook, savePriceBook } from "@/server/price-book";
 import { createRatePlan, getRatePlanOrThrow } from "@/server/rate-plans";
 import { newUtility } from "../support/fixtures";
@@ -13,6 +15,7 @@ import { newDeal, newWorld, rejection, type TestDeal, type World } from "../prop
 let w: World;
 let d: TestDeal;
 let otherPlanId: string;
+let otherUtility: string;
 
 const rebate = (id: string, utilityId: string | null, amountCents: number) => ({
   id,
@@ -29,7 +32,7 @@ const rebate = (id: string, utilityId: string | null, amountCents: number) => ({
 beforeAll(async () => {
   w = await newWorld("Utility Offers Solar");
   d = await newDeal(w);
-  const otherUtility = await newUtility(w.owner, "Across The River Power");
+  otherUtility = await newUtility(w.owner, "Across The River Power");
   otherPlanId = (
     await createRatePlan(w.owner, {
       utilityId: otherUtility,
@@ -72,5 +75,15 @@ describe("offers and the household's utility", () => {
     const [event] = await db().select().from(timelineEvent).where(and(eq(timelineEvent.dealId, d.dealId), eq(timelineEvent.kind, "offer.foreign_rate_plan")));
     expect(event.summary).toBe(`Rhea Rep priced "River plan" with Across The River Power's plan "River flat", not Test Electric's: ${reason}`);
     expect(event.data).toEqual({ offerId: offer.id });
+  });
+
+  it("a change of the household's utility makes every offer stale, also one priced with its own plan (its rebates were the old utility's)", async () => {
+    const before = await listOffers(await openDeal(w.rep, d.dealId));
+    const river = before.find((o) => o.name === "River plan")!;
+    expect(river.stale).toEqual([]);
+    await updateDealUtility(await openDeal(w.rep, d.dealId), { utilityId: otherUtility, ratePlanId: otherPlanId });
+    const after = await listOffers(await openDeal(w.rep, d.dealId));
+    expect(after.find((o) => o.name === "River plan")!.stale).toEqual(["utility"]);
+    expect(after.find((o) => o.id === d.cashOfferId)!.stale).toEqual(["rate_plan", "utility"]);
   });
 });
