@@ -19,6 +19,7 @@ import { db, type Tx } from "@/server/db";
 import { inDealOrThrow, type DealScope } from "@/server/deal-scope";
 import { engineFields, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
+import { inOcrQueue } from "@/server/ocr-queue";
 import { reencodeBillImage } from "@/server/photos";
 import { withFilesUndoneOnFailure } from "@/server/storage";
 import { autoMoveStage } from "@/server/stages";
@@ -261,7 +262,7 @@ async function acceptScannedBill(scope: DealScope, file: { name: string; bytes: 
   let read: Awaited<ReturnType<typeof readBillByOcr>> | null = null;
   let problem: string | null = null;
   try {
-    read = await readBillByOcr(bytes, kind);
+    read = await inOcrQueue(() => readBillByOcr(bytes, kind));
     const r = read.reading;
     problem = ocrTooPoor(read.ocr, [r.period, r.kwh, r.amountDue, r.history].filter(Boolean).length);
   } catch (err) {
