@@ -4,7 +4,7 @@
 // as tick boxes (ticked ones dated) and the photos. Same input, same bytes.
 import { PDFDocument, type PDFImage } from "pdf-lib";
 import { formatCalendarDate, formatDateTime } from "@/lib/format";
-import type { JobPacket } from "@/lib/job-packet";
+import { visitLines, type JobPacket } from "@/lib/job-packet";
 import { embedFonts } from "./fonts";
 import {
   COLORS,
@@ -69,9 +69,9 @@ function contactAndSite(flow: Flow, input: JobPacketPdfInput): void {
   flow.heading("Schedule and permits", 13);
   flow.facts([
     { label: "Crew", value: packet.crewName ?? "not assigned" },
-    { label: "Site survey", value: longDate(job.surveyDate) },
-    { label: "Install", value: job.installedAt ? `${longDate(job.installDate)} (installed ${formatDateTime(job.installedAt, input.timeZone)})` : longDate(job.installDate) },
-    { label: "Inspection", value: longDate(job.inspectionOn) },
+    ...visitLines(job, longDate).map(({ label, text }) =>
+      label === "Install" && job.installedAt ? { label, value: `${text} (installed ${formatDateTime(job.installedAt, input.timeZone)})` } : { label, value: text },
+    ),
     {
       label: "Permit (AHJ)",
       value: [job.permitNumber ?? "no number yet", job.permitSubmittedOn ? `submitted ${longDate(job.permitSubmittedOn)}` : null, job.permitApprovedOn ? `approved ${longDate(job.permitApprovedOn)}` : null]

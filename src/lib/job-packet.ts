@@ -49,3 +49,23 @@ export type JobPacket = {
   photos: JobPhotoView[];
   crewName: string | null;
 };
+
+/**
+ * The job's visits as the crew reads them: the planned day, and what was recorded as done
+ * (survey done, inspection passed) beside it, e.g. "done Tue, Jun 3, 2031 (planned Mon, Jun 2, 2031)".
+ * `day` formats a calendar day the way the caller's page or PDF does.
+ */
+export function visitLines(
+  j: Pick<JobRecord, "surveyDate" | "surveyDoneOn" | "installDate" | "inspectionOn" | "inspectionPassedOn">,
+  day: (iso: string) => string,
+): { label: string; text: string }[] {
+  const line = (label: string, planned: string | null, done: string | null, doneWord: string) => {
+    if (!done) return { label, text: planned ? day(planned) : "not set" };
+    return { label, text: `${doneWord} ${day(done)}${planned && planned !== done ? ` (planned ${day(planned)})` : ""}` };
+  };
+  return [
+    line("Site survey", j.surveyDate, j.surveyDoneOn, "done"),
+    line("Install", j.installDate, null, ""),
+    line("Inspection", j.inspectionOn, j.inspectionPassedOn, "passed"),
+  ];
+}

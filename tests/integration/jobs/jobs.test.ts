@@ -353,6 +353,8 @@ describe("the packet as a PDF", () => {
   it("carries the customer, the schedule, the checklist with ticks, the cautions and the photos, on framed pages", async () => {
     const { jobId } = await newJob(owner, "install_booked", "Sorrel household");
     await s.jobs.updateJob(office, jobId, { crewId: crewA, installDate: "2031-06-09", permitNumber: "BP-77", notes: "Ladder on the east side." });
+    // The survey was planned for one day and done the next: the crew reads both.
+    await s.jobs.updateJob(office, jobId, { surveyDate: "2031-05-19", surveyDoneOn: "2031-05-20" }, new Date("2031-06-01T12:00:00Z"));
     const [first] = (await s.jobs.getJobOrThrow(installerA, jobId)).checklist;
     await s.jobs.setChecklistItem(installerA, jobId, { itemId: first.id, done: true });
     const jpeg = await sharp({ create: { width: 800, height: 600, channels: 3, background: { r: 90, g: 120, b: 100 } } }).jpeg().toBuffer();
@@ -370,6 +372,7 @@ describe("the packet as a PDF", () => {
     }
     expect(text).toMatch(/done Jun 1, 2031|done [A-Z][a-z]{2} \d{1,2}, \d{4}/);
     expect(text).toContain("Printed Jun 1, 2031, 8:00 AM EDT"); // the company's clock (New York), not UTC
+    expect(text).toMatch(/Site survey\s+done Tue, May 20, 2031 \(planned Mon, May 19, 2031\)/);
     // Same input, same bytes.
     const again = await s.jobs.getJobPacketPdf(installerA, jobId, new Date("2031-06-01T12:00:00Z"));
     expect(Buffer.from(again.bytes).equals(Buffer.from(bytes))).toBe(true);

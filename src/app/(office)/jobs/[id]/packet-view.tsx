@@ -1,4 +1,5 @@
 import { STAGE_LABELS } from "@/lib/stages";
+import { visitLines } from "@/lib/job-packet";
 import type { JobPacket } from "@/server/jobs";
 import { longDate } from "../dates";
 import { CrewWork } from "./crew-work";
@@ -107,11 +108,7 @@ function CustomerSection({ packet }: { packet: JobPacket }) {
 
 function ScheduleSection({ packet }: { packet: JobPacket }) {
   const { job } = packet;
-  const visits = [
-    { label: "Site survey", date: job.surveyDate },
-    { label: "Install", date: job.installDate },
-    { label: "Inspection", date: job.inspectionOn },
-  ];
+  const visits = visitLines(job, longDate);
   return (
     <section className="card p-4" aria-labelledby="schedule-heading">
       <h2 id="schedule-heading" className="text-lg font-semibold">
@@ -121,7 +118,7 @@ function ScheduleSection({ packet }: { packet: JobPacket }) {
         {visits.map((v) => (
           <div key={v.label} className="contents">
             <dt className="text-graphite-soft">{v.label}</dt>
-            <dd>{v.date ? longDate(v.date) : "Not set"}</dd>
+            <dd>{v.text === "not set" ? "Not set" : v.text}</dd>
           </div>
         ))}
         <dt className="text-graphite-soft">Permit</dt>
