@@ -32,6 +32,14 @@ describe("the current period", () => {
     });
   });
 
+  it("read dates labelled by other words for earlier and later, or a bare \"Read Date\" for the current read", () => {
+    expect(current("Prior Read: 11/03/2025    Read Date: 12/04/2025    Billing Days: 31")).toMatchObject({ start: "2025-11-03", end: "2025-12-04" });
+    expect(current("Opening reading 11/03/2025\nClosing reading 12/04/2025")).toMatchObject({ start: "2025-11-03", end: "2025-12-04" });
+    expect(current("Beginning Read Date  11/03/2025    Meter Read Date  12/04/2025")).toMatchObject({ start: "2025-11-03", end: "2025-12-04" });
+    // A read date alone, with no earlier read printed, is no period.
+    expect(current("Read Date: 12/04/2025\nEnergy used 972 kWh").start).toBeNull();
+  });
+
   it("a bill for electricity and gas: the electric period", () => {
     const r = read("Electric service 09/02/2025 to 10/01/2025\nElectric usage 640 kWh\nGas service 09/03/2025 to 10/02/2025\nGas usage 42 therms");
     expect([r.period?.start.value, r.period?.end.value]).toEqual(["2025-09-02", "2025-10-01"]);
@@ -90,6 +98,14 @@ describe("the amount due", () => {
 
   it("in a box: the label above the figure", () => {
     expect(current("PLEASE PAY\n$88.15\nBasic charge  $14.00").amountDueCents).toBe(8815);
+  });
+
+  it("under \"remit\" wording, a figure without \"$\" is the amount; bare figures elsewhere are not", () => {
+    const bill = ["Previous Balance    102.55", "Payments           -102.55", "Current Charges     118.24      PLEASE REMIT", "                                118.24"].join("\n");
+    expect(read(bill).amountDue).toMatchObject({ value: 11824 });
+    expect(current("Remittance Amount  96.10\nFacility charge  24.00").amountDueCents).toBe(9610);
+    expect(current("Total payable  61.75\nTaxes  3.20").amountDueCents).toBe(6175);
+    expect(current("Current Charges  118.24").amountDueCents).toBeNull();
   });
 
   it("two labelled amounts that differ: both shown, the reader not certain", () => {
