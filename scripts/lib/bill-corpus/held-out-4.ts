@@ -8,17 +8,17 @@ const history = (months: string[], kwh: number[]) => months.map((month, i) => ({
 const mmyyyy = (ym: string) => `${ym.slice(5, 7)}/${ym.slice(0, 4)}`;
 
 // D1. Month names in full with "thru", "Kilowatt-hours billed", the due date inside the amount's label, MM/YYYY rows.
-const thornbury = (() => {
+const thistlecombe = (() => {
   const months = monthsEnding("2025-12", 13);
   const kwh = seasonalKwh(months, 780, 601);
   kwh[12] = 845;
   return {
-    name: "thornbury-thru",
+    name: "thistlecombe-thru",
     expected: { current: { start: "2025-11-03", end: "2025-12-02", kwh: 845, amountDueCents: 13107 }, history: history(months, kwh), source: "text" as const, warnings: [] },
     make: async () => {
       const { doc, page } = await newDoc();
       const p = page();
-      p.text(40, 750, "Thornbury Water & Light", 15, true);
+      p.text(40, 750, "Thistlecombe Water & Light", 15, true);
       p.text(40, 722, "Service Period: November 3, 2025 thru December 2, 2025", 10);
       p.text(40, 706, "Kilowatt-hours billed 845", 10);
       p.text(40, 680, "Last Payment - Thank You", 9);
@@ -33,17 +33,17 @@ const thornbury = (() => {
 })();
 
 // D2. Time-of-use lines to add up, "From ... To ..." with dashes, a budget amount beside the balance due, "Nov-24" labels across.
-const wrenfield = (() => {
+const wychbourne = (() => {
   const months = monthsEnding("2025-11", 12);
   const kwh = seasonalKwh(months, 760, 602);
   kwh[11] = 810;
   return {
-    name: "wrenfield-tou-across",
+    name: "wychbourne-tou-across",
     expected: { current: { start: "2025-10-15", end: "2025-11-13", kwh: 810, amountDueCents: 9844 }, history: history(months, kwh), source: "text" as const, warnings: [] },
     make: async () => {
       const { doc, page } = await newDoc();
       const p = page();
-      p.text(40, 750, "Wrenfield Municipal Utilities", 15, true);
+      p.text(40, 750, "Wychbourne Municipal Utilities", 15, true);
       p.text(40, 722, "Service From 10-15-2025 To 11-13-2025", 10);
       table(p, 696, [40, -260], ["Time period", "kWh"], [["On-Peak kWh", "212"], ["Off-Peak kWh", "598"]]);
       p.text(40, 630, "Budget Plan Amount", 9);
@@ -130,4 +130,4 @@ const blackthorn = {
   },
 } satisfies CorpusBill;
 
-export const heldOut4: CorpusBill[] = [thornbury, wrenfield, glenhallow, rushmere, blackthorn];
+export const heldOut4: CorpusBill[] = [thistlecombe, wychbourne, glenhallow, rushmere, blackthorn];
