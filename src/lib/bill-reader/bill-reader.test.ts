@@ -177,3 +177,34 @@ describe("the usage history", () => {
     expect(r.warnings).toEqual([]);
   });
 });
+
+describe("the usage history from OCR'd text", () => {
+  const kwh = [900, 1010, 1230, 1130, 1010, 920, 940, 1180, 1260, 1240, 1050, 880];
+  const ym = (i: number) => `${i < 1 ? 2024 : 2025}-${String(((11 + i) % 12) + 1).padStart(2, "0")}`;
+
+  it("month/year labels with the slash read as 7, l or | or lost, figures with O for 0 and l for 1", () => {
+    const labels = ["12/2024", "0172025", "02l2025", "03|2025", "042025", "05/2025", "06/2025", "07/2025", "08/2025", "09/2025", "1072025", "112025"];
+    const figures = kwh.map((k) => k.toLocaleString("en-US"));
+    [figures[1], figures[3]] = ["1,O1O", "l,13O"];
+    const rows = labels.map((l, i) => `${l}      ${figures[i]}`);
+    const r = read(["Billing period 10/28/2025 - 11/25/2025", "Month        kWh", ...rows].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [ym(i), k]));
+  });
+
+  it("month names with other quote marks, stray punctuation and a stray character, or joined by OCR", () => {
+    // Each label (or word of a joined label) centred over its column of figures, as OCR places them.
+    const row = (put: [number, string][]) => put.reduce((line, [centre, text]) => line.padEnd(centre - Math.floor(text.length / 2)) + text, "");
+    const col = (i: number) => 14 + i * 9;
+    const labels = row([[col(0), "Dec ‘24"], [col(1), "Jan'25"], [col(2), "Feb'25"], [col(3) + 3, "Mar ; Apr"], [col(5), "May'25 9"], [col(6), "jun'25"], [col(7), "Jul'25"], [col(8), "Aug '25"], [col(9), "Sep'25"], [col(10) + 3, "OcT : NOV"]]);
+    const figures = row(kwh.map((k, i) => [col(i), String(k)]));
+    const r = read(["Service from 10/28/25 through 11/25/25", labels, `kWh${figures.slice(3)}`].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [ym(i), k]));
+  });
+
+  it("a noisy label that breaks the run of months is dropped, not guessed", () => {
+    const labels = ["12/2024", "01/2025", "02/2025", "0772024", "04/2025", "05/2025", "06/2025", "07/2025", "08/2025", "09/2025", "10/2025", "11/2025"];
+    const r = read(["Month        kWh", ...labels.map((l, i) => `${l}      ${kwh[i]}`)].join("\n"));
+    expect(r.history?.months.map((m) => m.month)).toEqual(kwh.map((_, i) => ym(i)).filter((_, i) => i !== 3));
+    expect(r.warnings.join(" ")).toMatch(/11 months/);
+  });
+});
