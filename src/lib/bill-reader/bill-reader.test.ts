@@ -201,6 +201,16 @@ describe("the usage history from OCR'd text", () => {
     expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [ym(i), k]));
   });
 
+  it("month/year labels OCR joined into one cell with specks between them", () => {
+    const labels = ["10/2024 = 11/2024—S", "12/2024", "1/2025", "2/2025", "3/2025", "4/2025", "5/2025", "6/2025", "7/2025", "8/2025", "9/2025"];
+    const row = (put: [number, string][]) => put.reduce((line, [centre, text]) => line.padEnd(centre - Math.floor(text.length / 2)) + text, "");
+    const col = (i: number) => 14 + i * 12;
+    const labelRow = row([[col(0) + 6, labels[0]], ...labels.slice(1).map((l, i): [number, string] => [col(i + 2), l])]);
+    const figures = row(kwh.map((k, i) => [col(i), String(k)]));
+    const r = read(["Billing period 09/01/2025 - 09/29/2025", labelRow, `kWh${figures.slice(3)}`].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [`${i < 3 ? 2024 : 2025}-${String(((9 + i) % 12) + 1).padStart(2, "0")}`, k]));
+  });
+
   it("a noisy label that breaks the run of months is dropped, not guessed", () => {
     const labels = ["12/2024", "01/2025", "02/2025", "0772024", "04/2025", "05/2025", "06/2025", "07/2025", "08/2025", "09/2025", "10/2025", "11/2025"];
     const r = read(["Month        kWh", ...labels.map((l, i) => `${l}      ${kwh[i]}`)].join("\n"));

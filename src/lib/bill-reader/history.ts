@@ -178,12 +178,14 @@ function initialLabels(cells: Cell[]): MonthLabel[] | null {
 }
 
 /**
- * OCR joins neighbouring month labels into one cell ("Mar ;Apr", "OcT :NOV"): such a cell becomes
- * one cell per month, placed by its characters. Only when every word in it is a month name.
+ * OCR joins neighbouring month labels into one cell ("Mar ;Apr", "OcT :NOV", "10/2024 = 11/2024—S"):
+ * such a cell becomes one cell per month, placed by its characters. Only when every word of two
+ * or more characters in it is a month name or a month/year (one-character specks are dropped).
  */
 function splitJoinedMonths(cell: Cell): Cell[] {
-  const words = [...cell.text.matchAll(/[^\s;:,|]+/g)];
-  if (words.length < 2 || !words.every((w) => /^[A-Za-z]{3,9}\.?$/.test(w[0]) && monthIndex(w[0]) >= 0)) return [cell];
+  const words = [...cell.text.matchAll(/[^\s;:,|=~—–]+/g)].filter((w) => w[0].length >= 2);
+  const month = (w: string) => (/^[A-Za-z]{3,9}\.?$/.test(w) && monthIndex(w) >= 0) || /^\d{1,2}\/20\d{2}$/.test(w);
+  if (words.length < 2 || !words.every((w) => month(w[0]))) return [cell];
   const perChar = (cell.xEnd - cell.x) / cell.text.length;
   return words.map((w) => ({ text: w[0], x: cell.x + (w.index ?? 0) * perChar, xEnd: cell.x + ((w.index ?? 0) + w[0].length) * perChar }));
 }
