@@ -181,6 +181,8 @@ describe("the usage history", () => {
 describe("the usage history from OCR'd text", () => {
   const kwh = [900, 1010, 1230, 1130, 1010, 920, 940, 1180, 1260, 1240, 1050, 880];
   const ym = (i: number) => `${i < 1 ? 2024 : 2025}-${String(((11 + i) % 12) + 1).padStart(2, "0")}`;
+  // A line of text with each piece centred at a character column, as OCR places labels over figures.
+  const row = (put: [number, string][]) => put.reduce((line, [centre, text]) => line.padEnd(centre - Math.floor(text.length / 2)) + text, "");
 
   it("month/year labels with the slash read as 7, l or | or lost, figures with O for 0 and l for 1", () => {
     const labels = ["12/2024", "0172025", "02l2025", "03|2025", "042025", "05/2025", "06/2025", "07/2025", "08/2025", "09/2025", "1072025", "112025"];
@@ -192,8 +194,6 @@ describe("the usage history from OCR'd text", () => {
   });
 
   it("month names with other quote marks, stray punctuation and a stray character, or joined by OCR", () => {
-    // Each label (or word of a joined label) centred over its column of figures, as OCR places them.
-    const row = (put: [number, string][]) => put.reduce((line, [centre, text]) => line.padEnd(centre - Math.floor(text.length / 2)) + text, "");
     const col = (i: number) => 14 + i * 9;
     const labels = row([[col(0), "Dec ‘24"], [col(1), "Jan'25"], [col(2), "Feb'25"], [col(3) + 3, "Mar ; Apr"], [col(5), "May'25 9"], [col(6), "jun'25"], [col(7), "Jul'25"], [col(8), "Aug '25"], [col(9), "Sep'25"], [col(10) + 3, "OcT : NOV"]]);
     const figures = row(kwh.map((k, i) => [col(i), String(k)]));
@@ -203,7 +203,6 @@ describe("the usage history from OCR'd text", () => {
 
   it("month/year labels OCR joined into one cell with specks between them", () => {
     const labels = ["10/2024 = 11/2024—S", "12/2024", "1/2025", "2/2025", "3/2025", "4/2025", "5/2025", "6/2025", "7/2025", "8/2025", "9/2025"];
-    const row = (put: [number, string][]) => put.reduce((line, [centre, text]) => line.padEnd(centre - Math.floor(text.length / 2)) + text, "");
     const col = (i: number) => 14 + i * 12;
     const labelRow = row([[col(0) + 6, labels[0]], ...labels.slice(1).map((l, i): [number, string] => [col(i + 2), l])]);
     const figures = row(kwh.map((k, i) => [col(i), String(k)]));
