@@ -13,6 +13,7 @@ import { billsB } from "./lib/bill-corpus/bills-b";
 import { heldOut } from "./lib/bill-corpus/held-out";
 import { heldOut2 } from "./lib/bill-corpus/held-out-2";
 import { heldOut3 } from "./lib/bill-corpus/held-out-3";
+import { heldOut4 } from "./lib/bill-corpus/held-out-4";
 
 const root = path.resolve(import.meta.dirname, "../tests/fixtures/bills");
 for (const [dir, bills] of [
@@ -20,6 +21,7 @@ for (const [dir, bills] of [
   [root, [...billsA, ...billsB, ...heldOut, ...heldOut2]],
   // Measured, never tuned on: not read by the corpus test.
   [path.join(root, "held-out"), heldOut3],
+  [path.join(root, "held-out-4"), heldOut4],
 ] as const) {
   mkdirSync(dir, { recursive: true });
   for (const bill of bills) {

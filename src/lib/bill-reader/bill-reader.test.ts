@@ -32,6 +32,14 @@ describe("the current period", () => {
     });
   });
 
+  it("read dates labelled by other words for earlier and later, or a bare \"Read Date\" for the current read", () => {
+    expect(current("Prior Read: 11/03/2025    Read Date: 12/04/2025    Billing Days: 31")).toMatchObject({ start: "2025-11-03", end: "2025-12-04" });
+    expect(current("Opening reading 11/03/2025\nClosing reading 12/04/2025")).toMatchObject({ start: "2025-11-03", end: "2025-12-04" });
+    expect(current("Beginning Read Date  11/03/2025    Meter Read Date  12/04/2025")).toMatchObject({ start: "2025-11-03", end: "2025-12-04" });
+    // A read date alone, with no earlier read printed, is no period.
+    expect(current("Read Date: 12/04/2025\nEnergy used 972 kWh").start).toBeNull();
+  });
+
   it("a bill for electricity and gas: the electric period", () => {
     const r = read("Electric service 09/02/2025 to 10/01/2025\nElectric usage 640 kWh\nGas service 09/03/2025 to 10/02/2025\nGas usage 42 therms");
     expect([r.period?.start.value, r.period?.end.value]).toEqual(["2025-09-02", "2025-10-01"]);
@@ -90,6 +98,14 @@ describe("the amount due", () => {
 
   it("in a box: the label above the figure", () => {
     expect(current("PLEASE PAY\n$88.15\nBasic charge  $14.00").amountDueCents).toBe(8815);
+  });
+
+  it("under \"remit\" wording, a figure without \"$\" is the amount; bare figures elsewhere are not", () => {
+    const bill = ["Previous Balance    102.55", "Payments           -102.55", "Current Charges     118.24      PLEASE REMIT", "                                118.24"].join("\n");
+    expect(read(bill).amountDue).toMatchObject({ value: 11824 });
+    expect(current("Remittance Amount  96.10\nFacility charge  24.00").amountDueCents).toBe(9610);
+    expect(current("Total payable  61.75\nTaxes  3.20").amountDueCents).toBe(6175);
+    expect(current("Current Charges  118.24").amountDueCents).toBeNull();
   });
 
   it("two labelled amounts that differ: both shown, the reader not certain", () => {
@@ -159,5 +175,45 @@ describe("the usage history", () => {
     const r = read("Billing period 10/28/2025 - 11/25/2025\nEnergy used 972 kWh\nAmount due $142.91");
     expect(r.history).toBeNull();
     expect(r.warnings).toEqual([]);
+  });
+});
+
+describe("the usage history from OCR'd text", () => {
+  const kwh = [900, 1010, 1230, 1130, 1010, 920, 940, 1180, 1260, 1240, 1050, 880];
+  const ym = (i: number) => `${i < 1 ? 2024 : 2025}-${String(((11 + i) % 12) + 1).padStart(2, "0")}`;
+  // A line of text with each piece centred at a character column, as OCR places labels over figures.
+  const row = (put: [number, string][]) => put.reduce((line, [centre, text]) => line.padEnd(centre - Math.floor(text.length / 2)) + text, "");
+
+  it("month/year labels with the slash read as 7, l or | or lost, figures with O for 0 and l for 1", () => {
+    const labels = ["12/2024", "0172025", "02l2025", "03|2025", "042025", "05/2025", "06/2025", "07/2025", "08/2025", "09/2025", "1072025", "112025"];
+    const figures = kwh.map((k) => k.toLocaleString("en-US"));
+    [figures[1], figures[3]] = ["1,O1O", "l,13O"];
+    const rows = labels.map((l, i) => `${l}      ${figures[i]}`);
+    const r = read(["Billing period 10/28/2025 - 11/25/2025", "Month        kWh", ...rows].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [ym(i), k]));
+  });
+
+  it("month names with other quote marks, stray punctuation and a stray character, or joined by OCR", () => {
+    const col = (i: number) => 14 + i * 9;
+    const labels = row([[col(0), "Dec ‘24"], [col(1), "Jan'25"], [col(2), "Feb'25"], [col(3) + 3, "Mar ; Apr"], [col(5), "May'25 9"], [col(6), "jun'25"], [col(7), "Jul'25"], [col(8), "Aug '25"], [col(9), "Sep'25"], [col(10) + 3, "OcT : NOV"]]);
+    const figures = row(kwh.map((k, i) => [col(i), String(k)]));
+    const r = read(["Service from 10/28/25 through 11/25/25", labels, `kWh${figures.slice(3)}`].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [ym(i), k]));
+  });
+
+  it("month/year labels OCR joined into one cell with specks between them", () => {
+    const labels = ["10/2024 = 11/2024—S", "12/2024", "1/2025", "2/2025", "3/2025", "4/2025", "5/2025", "6/2025", "7/2025", "8/2025", "9/2025"];
+    const col = (i: number) => 14 + i * 12;
+    const labelRow = row([[col(0) + 6, labels[0]], ...labels.slice(1).map((l, i): [number, string] => [col(i + 2), l])]);
+    const figures = row(kwh.map((k, i) => [col(i), String(k)]));
+    const r = read(["Billing period 09/01/2025 - 09/29/2025", labelRow, `kWh${figures.slice(3)}`].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [`${i < 3 ? 2024 : 2025}-${String(((9 + i) % 12) + 1).padStart(2, "0")}`, k]));
+  });
+
+  it("a noisy label that breaks the run of months is dropped, not guessed", () => {
+    const labels = ["12/2024", "01/2025", "02/2025", "0772024", "04/2025", "05/2025", "06/2025", "07/2025", "08/2025", "09/2025", "10/2025", "11/2025"];
+    const r = read(["Month        kWh", ...labels.map((l, i) => `${l}      ${kwh[i]}`)].join("\n"));
+    expect(r.history?.months.map((m) => m.month)).toEqual(kwh.map((_, i) => ym(i)).filter((_, i) => i !== 3));
+    expect(r.warnings.join(" ")).toMatch(/11 months/);
   });
 });

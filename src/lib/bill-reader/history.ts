@@ -5,8 +5,8 @@ import { dayNumber, findDates, monthIndex, periodMonth } from "./dates";
 import { center, type Cell, type Line } from "./layout";
 import { NUMBER, toNumber, whereOf, type BillHistory, type Confidence, type HistoryMonth } from "./types";
 
-/** A month label: "Nov", "NOVEMBER", "Nov 2025", "Nov '25", "Nov-25", "11/2025", "2025-11". */
-type MonthLabel = { month: number; year: number | null };
+/** A month label: "Nov", "NOVEMBER", "Nov 2025", "Nov '25", "Nov-25", "11/2025", "2025-11". `noisy` when OCR noise had to be read past. */
+type MonthLabel = { month: number; year: number | null; noisy?: boolean };
 type Row = {
   label: MonthLabel | { start: string; end: string };
   kwh: number;
@@ -15,8 +15,7 @@ type Row = {
   cells: Cell[];
 };
 
-function monthLabel(text: string): MonthLabel | null {
-  const t = text.trim();
+function cleanMonthLabel(t: string): MonthLabel | null {
   let m = t.match(/^([A-Za-z]{3,9}\.?)(?:[\s'’-]*('?\d{4}|'?\d{2}))?$/);
   if (m) {
     const month = monthIndex(m[1]);
@@ -37,9 +36,33 @@ function monthLabel(text: string): MonthLabel | null {
   return null;
 }
 
+/**
+ * OCR noise around a month label: other quote marks ("Dec ‘24"), stray punctuation or one stray
+ * character ("Mar ;", "May'25 9"), a slash read as 7, 1, l or | or lost ("1072024" for 10/2024).
+ * Such labels are marked noisy: the history keeps them only when the months still run on.
+ */
+function noisyMonthLabel(text: string): MonthLabel | null {
+  const t = text
+    .replace(/[‘`´]/g, "'")
+    .replace(/^[^A-Za-z\d']+|[^A-Za-z\d]+$/g, "")
+    .replace(/^(\S{3,}) \S$/, "$1");
+  const clean = cleanMonthLabel(t);
+  if (clean) return { ...clean, noisy: true };
+  // Slash lost ("112025": 11/2025) before slash misread ("172025": 1/2025).
+  const m = t.match(/^(0[1-9]|1[0-2])(20\d{2})$/) ?? t.match(/^(\d{1,2}?)[71lI|\\/](20\d{2})$/);
+  return m && Number(m[1]) >= 1 && Number(m[1]) <= 12 ? { month: Number(m[1]) - 1, year: Number(m[2]), noisy: true } : null;
+}
+
+function monthLabel(text: string): MonthLabel | null {
+  const t = text.trim();
+  return cleanMonthLabel(t) ?? noisyMonthLabel(t);
+}
+
 const NUM_CELL = new RegExp(String.raw`^(${NUMBER})(\s*kwh)?$`, "i");
+/** OCR reads 0 as O and 1 as l, I or |: fixed only inside a figure that has real digits ("1,O36", "l,142"). */
+const digitsOf = (text: string) => (/\d/.test(text) && /^[\dOolI|,.]+(\s*kwh)?$/i.test(text) ? text.replace(/[Oo]/g, "0").replace(/[lI|]/g, "1") : text);
 const number = (c: Cell | undefined) => {
-  const m = c?.text.match(NUM_CELL);
+  const m = c ? digitsOf(c.text).match(NUM_CELL) : null;
   return m ? toNumber(m[1]) : null;
 };
 type Kind = "kwh" | "days" | "other";
@@ -154,7 +177,22 @@ function initialLabels(cells: Cell[]): MonthLabel[] | null {
   return letters.length >= 6 && fits.length === 1 ? cells.map((_, i) => ({ month: (fits[0] + i) % 12, year: null })) : null;
 }
 
+/**
+ * OCR joins neighbouring month labels into one cell ("Mar ;Apr", "OcT :NOV", "10/2024 = 11/2024—S"):
+ * such a cell becomes one cell per month, placed by its characters. Only when every word of two
+ * or more characters in it is a month name or a month/year (one-character specks are dropped).
+ */
+function splitJoinedMonths(cell: Cell): Cell[] {
+  const words = [...cell.text.matchAll(/[^\s;:,|=~—–]+/g)].filter((w) => w[0].length >= 2);
+  const month = (w: string) => (/^[A-Za-z]{3,9}\.?$/.test(w) && monthIndex(w) >= 0) || /^\d{1,2}\/20\d{2}$/.test(w);
+  if (words.length < 2 || !words.every((w) => month(w[0]))) return [cell];
+  const perChar = (cell.xEnd - cell.x) / cell.text.length;
+  return words.map((w) => ({ text: w[0], x: cell.x + (w.index ?? 0) * perChar, xEnd: cell.x + ((w.index ?? 0) + w[0].length) * perChar }));
+}
+
 function monthCells(line: Line): { cells: Cell[]; labels: MonthLabel[] } | null {
+  const split = line.cells.flatMap(splitJoinedMonths);
+  if (split.length > line.cells.length) line = { ...line, cells: split };
   const cells = line.cells.filter((c) => monthLabel(c.text));
   if (cells.length >= 6 && cells.length >= line.cells.length - 1) return { cells, labels: cells.map((c) => monthLabel(c.text)!) };
   const letters = line.cells.filter((c) => /^[JFMASOND]$/i.test(c.text));
@@ -229,10 +267,17 @@ export type HistoryRead = {
   warnings: string[];
 };
 
-function finish(entries: HistoryMonth[], layout: BillHistory["layout"], confidence: Confidence, cells: Set<Cell>, warnings: string[]): HistoryRead {
+const monthNumber = (ym: string) => Number(ym.slice(0, 4)) * 12 + Number(ym.slice(5, 7));
+
+/** Months that run on one after another, oldest first. */
+const consecutive = (months: string[]) => months.every((m, i) => i === 0 || monthNumber(m) - monthNumber(months[i - 1]) === 1);
+
+function finish(entries: HistoryMonth[], layout: BillHistory["layout"], confidence: Confidence, cells: Set<Cell>, warnings: string[], noisy: Set<HistoryMonth> = new Set()): HistoryRead {
   const byMonth = new Map<string, HistoryMonth>();
   for (const e of entries) if (!byMonth.has(e.month)) byMonth.set(e.month, e);
-  const months = [...byMonth.values()].sort((a, b) => a.month.localeCompare(b.month));
+  let months = [...byMonth.values()].sort((a, b) => a.month.localeCompare(b.month));
+  // A label read past OCR noise counts only if the history still runs month after month with it.
+  if (noisy.size && !consecutive(months.map((e) => e.month))) months = months.filter((e) => !noisy.has(e));
   if (months.length < 12) warnings.push(`The bill's usage history has ${months.length} months; the rest of the year will be estimated.`);
   return { history: { months, layout, confidence }, cells, warnings };
 }
@@ -269,6 +314,7 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
       header ? "high" : "medium",
       new Set(block.flatMap((r) => r.cells)),
       warnings,
+      new Set(entries.filter((e, k): e is HistoryMonth => e !== null && labels[k]?.noisy === true)),
     );
   }
   const blocks: Across[] = [];
@@ -284,21 +330,17 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
   if (!years) warnings.push(noYear);
   let k = 0;
   const entries: HistoryMonth[] = [];
+  const noisy = new Set<HistoryMonth>();
   for (const b of use) {
-    b.months.forEach((_, j) => {
+    b.months.forEach((label, j) => {
       const month = years?.[k];
       k++;
       const kwh = b.kwh[j];
-      if (kwh !== null && month)
-        entries.push({
-          month,
-          kwh,
-          days: b.days[j],
-          start: null,
-          end: null,
-          where: whereOf(b.lines[0]),
-        });
+      if (kwh === null || !month) return;
+      const entry = { month, kwh, days: b.days[j], start: null, end: null, where: whereOf(b.lines[0]) };
+      entries.push(entry);
+      if (label.noisy) noisy.add(entry);
     });
   }
-  return finish(entries, use[0].chart ? "chart" : "months-across", use[0].chart ? "medium" : "high", new Set(use.flatMap((b) => b.lines.flatMap((l) => l.cells))), warnings);
+  return finish(entries, use[0].chart ? "chart" : "months-across", use[0].chart ? "medium" : "high", new Set(use.flatMap((b) => b.lines.flatMap((l) => l.cells))), warnings, noisy);
 }

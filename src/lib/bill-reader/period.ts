@@ -19,8 +19,15 @@ const OTHER_SERVICE = /\b(gas|water|sewer|trash|therms?|ccf|gallons?|gal)\b/i;
 const NOT_PERIOD = /\bdue\b|\bpay(ment)?\b|\bissued?\b|\bstatement date\b/i;
 const DAYS = /\(?\b(\d{1,3})\s*(?:billing\s+|service\s+)?days?\b\)?|\bdays(?:\s+(?:in|of)\s+(?:the\s+)?(?:billing\s+)?(?:period|cycle))?\s*:?\s*(\d{1,3})\b/i;
 // Read dates by their label, or a meter table's "From" / "To" columns.
-const PREVIOUS_READ = /\b(previous|prior|last|start|from)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bprevious\s+date\b|^(from|start|start\s+date|period\s+start|begin)$|^(previous|prior|last)\s*:/i;
-const CURRENT_READ = /\b(current|present|this|end|latest|to)\s+(meter\s+)?read(ing)?(\s+date)?\b|\bcurrent\s+date\b|^(to|end|end\s+date|period\s+end|through)$|^(present|current)\s*:/i;
+// The words for the earlier and the later read are families ("prior", "opening", "beginning" …);
+// a read date with no such word ("Read Date: 12/04/2025") is the current read when a previous one is printed.
+const EARLIER = String.raw`previous|prior|last|start|from|opening|beginning|begin|old|earlier`;
+const LATER = String.raw`current|present|this|end|ending|latest|to|closing|new|recent`;
+const PREVIOUS_READ = new RegExp(String.raw`\b(${EARLIER})\s+(meter\s+)?read(ing)?(\s+date)?\b|\b(previous|prior)\s+date\b|^(from|start|start\s+date|period\s+start|begin)$|^(previous|prior|last)\s*:`, "i");
+const CURRENT_READ = new RegExp(
+  String.raw`\b(${LATER})\s+(meter\s+)?read(ing)?(\s+date)?\b|\bcurrent\s+date\b|^(to|end|end\s+date|period\s+end|through)$|^(present|current)\s*:|^(meter\s+)?(read(ing)?\s+date|date\s+read)\b`,
+  "i",
+);
 
 function printedDays(text: string): number | null {
   const m = text.match(DAYS);
