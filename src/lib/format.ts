@@ -12,6 +12,17 @@ export function formatCentsExact(cents: number | null | undefined, currency = "u
   return currency.toLowerCase() === "usd" ? usdExact.format(cents / 100) : `${(cents / 100).toFixed(2)} ${currency.toUpperCase()}`;
 }
 
+/**
+ * Money in thousands for chart axes: "$15k", "−$15k" (a minus sign, U+2212, before the dollar
+ * sign, never "$-15k"); under $10k with one decimal ("$0.4k").
+ */
+export function formatCentsCompact(cents: number): string {
+  const k = Math.abs(cents) / 100_000;
+  const digits = k < 10 ? 1 : 0;
+  const text = k.toLocaleString("en-US", { maximumFractionDigits: digits, useGrouping: true });
+  return `${cents < 0 && text !== "0" ? "−" : ""}$${text}k`;
+}
+
 export function formatKwFromWatts(watts: number | null | undefined): string {
   return watts == null ? "—" : `${(watts / 1000).toFixed(2)} kW`;
 }
