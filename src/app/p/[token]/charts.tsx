@@ -2,7 +2,7 @@
 // The customer's two charts, sized for a phone: monthly usage (slate blue) against estimated
 // production (copper), and the cumulative cash flow over the years of the table.
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { formatCents } from "@/lib/format";
+import { formatCents, formatCentsCompact } from "@/lib/format";
 
 const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
 const USAGE = "#3E5C76";
@@ -43,7 +43,7 @@ export function CashflowChart({ cumulativeCents }: { cumulativeCents: number[] }
           <LineChart data={data} margin={{ top: 8, right: 8, bottom: 0, left: 0 }}>
             <CartesianGrid vertical={false} stroke={GRID} />
             <XAxis dataKey="year" tickLine={false} axisLine={false} fontSize={11} />
-            <YAxis tickLine={false} axisLine={false} fontSize={11} width={52} tickFormatter={(v: number) => `${v < 0 ? "−" : ""}$${Math.abs(v / 1000).toFixed(0)}k`} />
+            <YAxis tickLine={false} axisLine={false} fontSize={11} width={52} tickFormatter={(v: number) => formatCentsCompact(v * 100)} />
             <ReferenceLine y={0} stroke="#52606D" />
             <Tooltip formatter={(v) => [formatCents(Number(v) * 100), "Ahead (or behind)"]} labelFormatter={(y) => `Year ${y}`} />
             <Line type="monotone" dataKey="dollars" stroke={PRODUCTION} strokeWidth={2} dot={false} isAnimationActive={false} />

@@ -3,12 +3,14 @@
 // usage, the money (price, incentives, net cost, payment, deposit), the savings and the
 // cumulative cash flow. Every figure comes from the frozen snapshot.
 import { figureDefinitions } from "@/lib/figure-definitions";
-import { formatCents } from "@/lib/format";
+import { formatCents, formatCentsExact } from "@/lib/format";
+import { formatAprPct } from "@/lib/plain-words";
 import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import { CashflowChart, UsageProductionChart } from "./charts";
 
 const kwh = (x: number) => `${Math.round(x).toLocaleString("en-US")} kWh`;
-export const paybackText = (y: number | null) => (y === null ? "not within the table's years" : `${y.toFixed(1)} years`);
+/** Payback in years; none within the years the figures cover says how many years those are. */
+export const paybackText = (y: number | null, years: number) => (y === null ? `more than ${years} years` : `${y.toFixed(1)} years`);
 export const roiText = (r: number | null) => (r === null ? "—" : `${(r * 100).toFixed(0)} %`);
 const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
 
@@ -26,7 +28,7 @@ function Row({ label, value, strong = false, testId }: { label: string; value: s
 export function paymentText(o: ProposalSnapshotOffer): string {
   const p = o.inputs.payment;
   if (p.kind === "cash") return "Cash";
-  return `Loan: ${p.aprPct} % APR over ${p.termMonths} months${p.dealerFeePct > 0 ? `, ${p.dealerFeePct} % dealer fee` : ""}`;
+  return `Loan: ${formatAprPct(p.aprPct)} APR over ${p.termMonths} months${p.dealerFeePct > 0 ? `, ${p.dealerFeePct} % dealer fee` : ""}`;
 }
 
 /** What payback and ROI mean for this offer (and why there is no IRR, when there is none). */
@@ -89,7 +91,7 @@ export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer
           <Row label="Net cost after incentives" value={formatCents(s.netCostCents)} strong />
           <Row label="Payment" value={paymentText(offer)} />
           {s.monthlyLoanPaymentCents !== null ? <Row label="Monthly loan payment" value={formatCents(s.monthlyLoanPaymentCents)} strong /> : null}
-          <Row label="Deposit at signing" value={formatCents(offer.depositCents)} />
+          <Row label="Deposit at signing" value={formatCentsExact(offer.depositCents)} />
         </dl>
       </section>
 
@@ -99,7 +101,7 @@ export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer
           <Row label="Electricity bills, year 1, without solar" value={formatCents(billBefore)} />
           <Row label="Electricity bills, year 1, with solar" value={formatCents(billAfter)} />
           <Row label="Savings in year 1" value={formatCents(s.year1SavingsCents)} strong />
-          <Row label="Payback" value={paybackText(s.paybackYears)} strong />
+          <Row label="Payback" value={paybackText(s.paybackYears, f.assumptions.years)} strong />
           <Row label="Simple return on investment" value={roiText(s.simpleRoi)} />
           <Row label={`Bill savings over ${f.assumptions.years} years`} value={formatCents(s.lifetimeSavingsCents)} />
           <Row label={`Ahead after ${f.assumptions.years} years`} value={formatCents(s.lifetimeNetCents)} />
