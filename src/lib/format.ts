@@ -5,6 +5,12 @@ export function formatCents(cents: number | null | undefined): string {
   return cents == null ? "—" : usd.format(Math.round(cents) / 100);
 }
 
+/** Money that may be below zero, with a minus sign (U+2212) before the dollar sign: "−$1,250", never "-$1,250" or "$-1,250". */
+export function formatSignedCents(cents: number | null | undefined): string {
+  if (cents == null) return "—";
+  return cents < 0 && Math.round(-cents / 100) !== 0 ? `−${usd.format(Math.round(-cents) / 100)}` : usd.format(Math.round(Math.abs(cents)) / 100);
+}
+
 const usdExact = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD", minimumFractionDigits: 2, maximumFractionDigits: 2 });
 /** Money to the cent ("$1,234.50"), for deposits, refunds and receipts; another currency as "12.34 EUR". */
 export function formatCentsExact(cents: number | null | undefined, currency = "usd"): string {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatCentsCompact } from "@/lib/format";
+import { formatCentsCompact, formatSignedCents } from "@/lib/format";
 import { formatAprPct, plainAssumption, plainWeatherSource } from "@/lib/plain-words";
 
 describe("plainAssumption", () => {
@@ -33,6 +33,15 @@ describe("formatAprPct", () => {
     expect(formatAprPct(7)).toBe("7 %");
     expect(formatAprPct(4.25)).toBe("4.25 %");
     expect(formatAprPct(4.5)).toBe("4.5 %");
+  });
+});
+
+describe("formatSignedCents", () => {
+  it("puts the minus sign before the dollar sign", () => {
+    expect(formatSignedCents(-1_250_000)).toBe("−$12,500");
+    expect(formatSignedCents(1_250_000)).toBe("$12,500");
+    expect(formatSignedCents(-20)).toBe("$0");
+    expect(formatSignedCents(null)).toBe("—");
   });
 });
 

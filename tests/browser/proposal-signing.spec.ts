@@ -354,6 +354,11 @@ test("keyboard only: code, consent, typed name adopted as the signature, Sign; t
   expect(aprs.length).toBeGreaterThan(1);
   expect(new Set(aprs)).toEqual(new Set(["4.25"]));
   await expect(phone.getByRole("region", { name: "How we estimated this" })).toContainText(/typical year/);
+  // Each figure says in one line what it means.
+  const loanDetails = phone.getByTestId("offer-details-2");
+  await expect(loanDetails).toContainText("What the panels should make in their first year");
+  await expect(loanDetails).toContainText("The price less the incentives and tax credits expected");
+  await expect(loanDetails).toContainText(/less everything you pay; below zero means you pay more than you save/);
 
   // Keyboard only from here: Tab to each control, Enter or Space to use it.
   await tabTo(phone, phone.getByRole("button", { name: "E-mail me a code" }));
