@@ -1,7 +1,8 @@
 import "server-only";
 import { mkdir, readFile, rename, rm, writeFile } from "node:fs/promises";
 import path from "node:path";
-import { env } from "@/env";
+import { DeleteObjectCommand, GetObjectCommand, NoSuchKey, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
+import { env, type Env } from "@/env";
 
 /**
  * Where files live (bill uploads, signed documents, photos). The app talks only to this
@@ -52,9 +53,68 @@ export class LocalDiskStorage implements FileStorage {
   }
 }
 
+export type S3Settings = { endpoint?: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string };
+
+/**
+ * Files in an S3-compatible object store (AWS S3, or a local S3-compatible server for the
+ * cluster), so every app node reads what any node wrote. An object PUT is atomic: a reader sees
+ * the old object or the new one, never half of it.
+ */
+export class S3Storage implements FileStorage {
+  private readonly client: S3Client;
+  constructor(private readonly settings: S3Settings) {
+    this.client = new S3Client({
+      region: settings.region,
+      endpoint: settings.endpoint,
+      // A self-hosted endpoint answers on one host name: buckets go in the path, not the host.
+      forcePathStyle: settings.endpoint !== undefined,
+      credentials: { accessKeyId: settings.accessKeyId, secretAccessKey: settings.secretAccessKey },
+      maxAttempts: 3,
+      // Checksums only where S3 requires them: S3-compatible servers do not all read the
+      // streamed ("aws-chunked") uploads the SDK sends when it adds checksums by default.
+      requestChecksumCalculation: "WHEN_REQUIRED",
+      responseChecksumValidation: "WHEN_REQUIRED",
+    });
+  }
+
+  async put(key: string, bytes: Uint8Array): Promise<void> {
+    assertKey(key);
+    await this.client.send(new PutObjectCommand({ Bucket: this.settings.bucket, Key: key, Body: bytes }));
+  }
+
+  async get(key: string): Promise<Uint8Array | null> {
+    assertKey(key);
+    try {
+      const out = await this.client.send(new GetObjectCommand({ Bucket: this.settings.bucket, Key: key }));
+      return out.Body ? await out.Body.transformToByteArray() : new Uint8Array();
+    } catch (err) {
+      if (err instanceof NoSuchKey || (err as { name?: string }).name === "NotFound") return null;
+      throw err;
+    }
+  }
+
+  async delete(key: string): Promise<void> {
+    assertKey(key);
+    await this.client.send(new DeleteObjectCommand({ Bucket: this.settings.bucket, Key: key }));
+  }
+}
+
+/** The store the configuration names (STORAGE_DRIVER): local disk unless `s3`. */
+export function storageFromEnv(config: Env): FileStorage {
+  if (config.STORAGE_DRIVER === "local") return new LocalDiskStorage(config.STORAGE_DIR);
+  return new S3Storage({
+    endpoint: config.S3_ENDPOINT,
+    region: config.S3_REGION,
+    // Present: the configuration schema requires them when STORAGE_DRIVER is s3.
+    bucket: config.S3_BUCKET!,
+    accessKeyId: config.S3_ACCESS_KEY_ID!,
+    secretAccessKey: config.S3_SECRET_ACCESS_KEY!,
+  });
+}
+
 let instance: FileStorage | undefined;
 export function storage(): FileStorage {
-  instance ??= new LocalDiskStorage(env().STORAGE_DIR);
+  instance ??= storageFromEnv(env());
   return instance;
 }
 
