@@ -74,12 +74,13 @@ type AutocannonInstance = PromiseLike<{ requests: { total: number; average: numb
   stop(): void;
 };
 
-/** Readers: the deals table API and the Board page, 20 connections, until stopped. */
+/** Readers: the deals table API and the Board page, 10 connections at 40 requests/s in all, until stopped. */
 function readers(cookie: string): AutocannonInstance {
   const autocannon = createRequire(import.meta.url)("autocannon") as (o: Record<string, unknown>) => AutocannonInstance;
   const inst = autocannon({
     url: c.appUrl,
-    connections: 20,
+    connections: 10,
+    overallRate: 40,
     duration: 3600,
     timeout: 10,
     requests: [
@@ -105,7 +106,9 @@ async function main(): Promise<boolean> {
   const acked: Acked[] = [];
   const writers = [1, 2, 3, 4].map((id) => writer(cookie, id, () => stop, acked));
   const load = readers(cookie);
+  const steady = at();
   await sleep(8_000);
+  windows.push({ name: "before any fault", from: steady, to: at() });
 
   const db1 = c.galera.nodes[0];
   const dbPid = nodePid(db1);
@@ -131,7 +134,9 @@ async function main(): Promise<boolean> {
   for (let i = 0; i < 180 && !(await healthy(c.ports.appNodes[0])); i++) await sleep(500);
   windows.push({ name: "restarts", from: restart, to: at() });
   log("both back; load continues 8 s");
+  const after = at();
   await sleep(8_000);
+  windows.push({ name: "after recovery", from: after, to: at() });
   stop = true;
   load.stop();
   await Promise.all(writers);
@@ -192,13 +197,14 @@ async function verify(acked: Acked[]): Promise<boolean> {
     };
     await conn.end();
   }
-  const failedIn = (w: { from: number; to: number }) => outcomes.filter((o) => !o.ok && o.at >= w.from && o.at <= w.to + 2);
+  const failedIn = (w: { from: number; to: number }) => outcomes.filter((o) => !o.ok && o.at >= w.from && o.at < w.to);
+  const countIn = (w: { from: number; to: number }) => outcomes.filter((o) => o.at >= w.from && o.at < w.to).length;
   const report = {
     acknowledgedLeads: acked.length,
     acknowledgedMoves: acked.filter((a) => a.lost).length,
     requests: outcomes.length,
     failed: outcomes.filter((o) => !o.ok).length,
-    windows: windows.map((w) => ({ ...w, failed: failedIn(w).length, kinds: countBy(failedIn(w), (o) => `${o.what} ${o.status}`) })),
+    windows: windows.map((w) => ({ ...w, requests: countIn(w), failed: failedIn(w).length, kinds: countBy(failedIn(w), (o) => `${o.what} ${o.status}`) })),
     perNode,
     duplicates,
   };

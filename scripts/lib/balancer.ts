@@ -64,7 +64,13 @@ backend next
   http-check expect status 200
   option redispatch
   retry-on conn-failure
-  default-server inter 1s fastinter 500ms fall 2 rise 2
+  # A node busy with a burst answers its check late rather than not at all: 3 s to answer,
+  # 3 misses in a row (≈ 6–9 s) before it is taken out; a refused connection (a dead node)
+  # is noticed at the next check. At most 32 requests at a time per node, the rest wait in
+  # HAProxy's queue (up to 10 s) instead of piling onto a busy process.
+  timeout check 3s
+  timeout queue 10s
+  default-server inter 2s fastinter 1s fall 3 rise 2 maxconn 32
 ${apps}
 `;
 }
