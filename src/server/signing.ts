@@ -24,7 +24,7 @@ import SignedCopyEmail from "@emails/signed-copy";
 import SigningCodeEmail from "@emails/signing-code";
 import { getCompanySettings } from "@/server/company-settings";
 import type { ClientMeta } from "@/server/client-address";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import { takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
@@ -99,7 +99,7 @@ export async function sendSigningCode(p: ProposalRow, token: string, client: Cli
   await takeTurn("signingCodeAddress", client.ip, (wait) => `Too many codes asked for from this address. Try again in ${wait}.`);
   const code = String(randomInt(0, 10 ** CODE_DIGITS)).padStart(CODE_DIGITS, "0");
   const expiresAt = new Date(now.getTime() + CODE_TTL_MS);
-  const eventId = await db().transaction(async (tx) => {
+  const eventId = await transaction(async (tx) => {
     const changed = await tx
       .update(proposal)
       .set({ codeHash: secretHash(p.id, "code", code), codeExpiresAt: expiresAt, codeAttempts: 0, codeVerifiedAt: null })
@@ -136,7 +136,7 @@ export async function verifySigningCode(p: ProposalRow, input: unknown, client: 
   if (!parsed.success) throw validationError(parsed.error);
   const code = parsed.data.code;
   const now = new Date();
-  const outcome: VerifyOutcome = await db().transaction(async (tx): Promise<VerifyOutcome> => {
+  const outcome: VerifyOutcome = await transaction(async (tx): Promise<VerifyOutcome> => {
     const [row] = await tx
       .select({ status: proposal.status, codeHash: proposal.codeHash, codeExpiresAt: proposal.codeExpiresAt, codeAttempts: proposal.codeAttempts, codeVerifiedAt: proposal.codeVerifiedAt })
       .from(proposal)
@@ -332,7 +332,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
   const { timeZone } = await getCompanySettings(p.companyId);
   const key = `${p.companyId}/signed/${crypto.randomUUID()}.pdf`;
   const result = await withFilesUndoneOnFailure((put) =>
-    db().transaction(async (tx) => {
+    transaction(async (tx) => {
       const now = new Date();
       const row = await lockConfirmedProposal(tx, p, session, now);
       const certificateEvents = await consentAndCertificateEvents(tx, p, client, now, parsed.data.signatureMethod);
