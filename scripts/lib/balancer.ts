@@ -22,6 +22,8 @@ export function haproxyConfig(c: ClusterInstance): string {
   const apps = c.ports.appNodes.map((p, i) => `  server app${i + 1} 127.0.0.1:${p} check`).join("\n");
   return `global
   maxconn 4096
+  # The runtime API (take a node out and back: the cluster benchmark's "1 app node" case).
+  stats socket ${path.join(c.dir, "haproxy.sock")} mode 600 level admin
   log stdout format raw local0 warning
 
 defaults

@@ -1,6 +1,7 @@
 // Starting and stopping a local cluster (npm run cluster, npm run test:cluster): the Galera
 // nodes and their health checks, S3-compatible storage, HAProxy, migrations once, the demo
 // company, the local fakes and the app nodes, in that order.
+import type { ChildProcess } from "node:child_process";
 import path from "node:path";
 import mysql from "mysql2/promise";
 import { APP_NODE_COUNT, type ClusterInstance } from "./cluster-instance";
@@ -42,7 +43,7 @@ export function startAppNodeOf(c: ClusterInstance, index: number) {
 }
 
 // long because: one ordered start-up sequence, each step logged
-export async function startCluster(c: ClusterInstance, log: (line: string) => void = console.log): Promise<void> {
+export async function startCluster(c: ClusterInstance, log: (line: string) => void = console.log): Promise<ChildProcess[]> {
   await startGalera(c.galera, log);
   c.galera.nodes.forEach((_, i) => startGaleraCheck(c, i));
   // HAProxy counts a server up until its first checks fail: start it only once the checks
@@ -64,12 +65,14 @@ export async function startCluster(c: ClusterInstance, log: (line: string) => vo
   startPaymentsFake(c);
   await waitForHttp(`${c.paymentsUrl}/health`, "The dev payments server");
   buildIfStale();
+  const apps: ChildProcess[] = [];
   for (let i = 0; i < APP_NODE_COUNT; i++) {
     log(`· app node ${i + 1} on 127.0.0.1:${c.ports.appNodes[i]}`);
-    startAppNodeOf(c, i);
+    apps.push(startAppNodeOf(c, i));
   }
   for (const port of c.ports.appNodes) await waitForHttp(`http://127.0.0.1:${port}/api/health`, `App node on ${port}`, 90_000);
   await waitForHttp(`${c.appUrl}/api/health`, "Kilowright through the balancer", 30_000);
+  return apps;
 }
 
 export async function stopCluster(c: ClusterInstance): Promise<void> {
