@@ -45,7 +45,12 @@ export async function latestCode(to: string): Promise<string> {
   return code;
 }
 
-export const client = { ip: "203.0.113.7", userAgent: "vitest proposal tests" };
+/**
+ * The homeowner's browser. Each test file (vitest loads this module once per file) gets its own
+ * address from the IPv6 documentation range (RFC 3849), so the per-address limits (20 signing
+ * codes an hour) count one file's requests, not the whole run's.
+ */
+export const client = { ip: `2001:db8::${crypto.randomUUID().slice(0, 4)}:${crypto.randomUUID().slice(0, 4)}`, userAgent: "vitest proposal tests" };
 
 /** A small drawn signature as the browser sends it: a PNG data URL. */
 export async function signatureDataUrl(): Promise<string> {
