@@ -1,14 +1,10 @@
-import { expect, test, type Page } from "@playwright/test";
-import { signIn, unique } from "./support";
+import { expect, test } from "@playwright/test";
+import { noSidewaysScroll, signIn, unique } from "./support";
 
 // Where the house is: a first position from the ZIP, the device's own location at the door (or
 // a plain message when it is refused), the numbers typed by hand, and never 0, 0.
 
 const AT_THE_HOUSE = { latitude: 36.0652, longitude: -79.8261 };
-
-async function noSidewaysScroll(page: Page) {
-  expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
-}
 
 test.describe("on a phone with location allowed", () => {
   test.use({ viewport: { width: 390, height: 844 }, geolocation: AT_THE_HOUSE, permissions: ["geolocation"] });
@@ -31,7 +27,7 @@ test.describe("on a phone with location allowed", () => {
     await expect(page.getByText(/Position from this device/)).toBeVisible();
     await expect(page.getByLabel("Latitude (°N)")).toHaveValue("36.0652");
     await expect(page.getByLabel(/Longitude/)).toHaveValue("-79.8261");
-    await noSidewaysScroll(page);
+    await noSidewaysScroll(page, page.url());
 
     await page.getByLabel("Rate plan").selectOption({ label: "Piedmont Electric Cooperative — Residential Service RS-1" });
     await expect(page.getByLabel("Utility")).toHaveValue(/.+/);
@@ -40,7 +36,7 @@ test.describe("on a phone with location allowed", () => {
     await page.getByRole("link", { name: "Household", exact: true }).click();
     await expect(page.getByTestId("site-time-zone")).toHaveText("America/New_York (from the coordinates)");
     await expect(page.getByTestId("site-station")).toContainText(/km away \(the nearest\)/);
-    await noSidewaysScroll(page);
+    await noSidewaysScroll(page, page.url());
   });
 });
 
@@ -73,6 +69,6 @@ test.describe("on a tablet with location refused", () => {
     await longitude.fill("-80.0101");
     await page.getByRole("button", { name: "Save household" }).click();
     await expect(page.getByRole("status")).toContainText("Saved.");
-    await noSidewaysScroll(page);
+    await noSidewaysScroll(page, page.url());
   });
 });

@@ -111,3 +111,60 @@ export async function watchBrowserProblems(context: BrowserContext): Promise<{ p
   context.on("weberror", (err) => problems.push(`page error: ${err.error().message}`));
   return { problems, expectNone: () => expect(problems, problems.join("\n")).toEqual([]) };
 }
+
+/**
+ * What scrolls sideways on the page as it is now: the page itself (naming, down from <body>, the
+ * element whose hiding narrows the page most) and any element inside that scrolls sideways
+ * without being a marked scroll region (`data-scroll-region`) whose cue (`data-scroll-cue`) shows.
+ * Form controls scroll their own text and are left out.
+ */
+export async function sidewaysScroll(page: Page): Promise<string[]> {
+  return page.evaluate(async () => {
+    await new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)));
+    const describe = (e: Element) => {
+      const cls = (e.getAttribute("class") ?? "").split(/\s+/).slice(0, 6).join(" ");
+      const id = e.getAttribute("data-testid") ?? e.getAttribute("aria-label") ?? "";
+      return `<${e.tagName.toLowerCase()}${id ? ` "${id}"` : ""} class="${cls}">`;
+    };
+    const problems: string[] = [];
+    const client = document.documentElement.clientWidth;
+    const width = () => document.documentElement.scrollWidth;
+    if (width() > client) {
+      const whole = width();
+      let culprit = "";
+      let el: Element | null = document.body;
+      while (el) {
+        const now = width();
+        let best: [Element, number] | null = null;
+        for (const c of el.children) {
+          const h = c as HTMLElement;
+          const before = h.style.display;
+          h.style.display = "none";
+          const w = width();
+          h.style.display = before;
+          if (w < now && (!best || w < best[1])) best = [c, w];
+        }
+        if (!best) break;
+        culprit = describe(best[0]);
+        el = best[0];
+      }
+      problems.push(`page is ${whole}px wide in a ${client}px window (${culprit})`);
+    }
+    for (const el of document.body.querySelectorAll("*")) {
+      if (el.scrollWidth <= el.clientWidth + 1 || el.closest("input, textarea, select")) continue;
+      const style = getComputedStyle(el);
+      if (style.overflowX !== "auto" && style.overflowX !== "scroll") continue;
+      if (!(el as HTMLElement).checkVisibility()) continue;
+      const region = el.closest("[data-scroll-region]");
+      const cue = region ? [...region.querySelectorAll("[data-scroll-cue]")].some((c) => (c as HTMLElement).checkVisibility()) : false;
+      if (!cue) problems.push(`${describe(el)} scrolls sideways (${el.scrollWidth}px in ${el.clientWidth}px)${region ? " without a visible cue" : ""}`);
+    }
+    return problems;
+  });
+}
+
+/** The page fits its window (see sidewaysScroll). */
+export async function noSidewaysScroll(page: Page, what: string): Promise<void> {
+  const problems = await sidewaysScroll(page);
+  expect(problems, `${what}: ${problems.join("; ")}`).toEqual([]);
+}

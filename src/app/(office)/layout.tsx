@@ -5,43 +5,51 @@ import { devToolsEnabled } from "@/env";
 import { ROLE_LABELS } from "@/lib/permissions";
 import { sectionsFor } from "@/lib/sections";
 import { getMember } from "@/server/session";
-import { NavLinks } from "./nav-links";
+import { NavDrawer, NavLinks } from "./nav-links";
 import { SignOutButton } from "./sign-out-button";
 
+/**
+ * The office shell. From 1024 px (Tailwind's `lg`, a tablet held sideways or a laptop) the
+ * sections sit in a 220 px side column; below it (a tablet upright, 820 px, or a phone) they
+ * fold into a drawer behind a Menu button, so the page gets the whole width. Our choice: at
+ * 820 px a side column would leave the deal room about 530 px.
+ */
 export default async function OfficeLayout({ children }: { children: ReactNode }) {
   const member = await getMember();
   if (!member) redirect("/sign-in");
   const sections = sectionsFor(member.role, devToolsEnabled()).map(({ href, label }) => ({ href, label }));
+  const person = { name: member.name, role: ROLE_LABELS[member.role], companyName: member.companyName };
   return (
-    <div className="min-h-dvh md:grid md:grid-cols-[220px_1fr]">
-      <header className="border-b border-paper-line bg-paper-deep md:min-h-dvh md:border-r md:border-b-0">
-        <div className="flex items-center justify-between gap-4 px-4 py-3 md:block md:px-5 md:py-6">
+    <div className="min-h-dvh lg:grid lg:grid-cols-[220px_1fr]">
+      <header className="hidden min-h-dvh border-r border-paper-line bg-paper-deep lg:block">
+        <div className="px-5 py-6">
           <Wordmark className="text-lg" />
-          <p className="text-xs text-graphite-soft md:mt-1" data-testid="company-name">
+          <p className="mt-1 text-xs text-graphite-soft" data-testid="company-name">
             {member.companyName}
           </p>
         </div>
-        <nav aria-label="Sections" className="overflow-x-auto px-2 pb-2 md:px-3">
+        <nav aria-label="Sections" className="px-3">
           <NavLinks sections={sections} />
         </nav>
-        <div className="hidden px-5 pt-6 md:block">
+        <div className="px-5 pt-6">
           <p className="text-sm font-medium">{member.name}</p>
           <p className="text-xs text-graphite-soft" data-testid="role-label">
-            {ROLE_LABELS[member.role]}
+            {person.role}
           </p>
           <SignOutButton />
         </div>
       </header>
       <div className="min-w-0">
-        <div className="flex items-center justify-end gap-3 border-b border-paper-line px-4 py-2 md:hidden">
-          <span className="text-sm">
-            {member.name} · {ROLE_LABELS[member.role]}
-          </span>
-          <SignOutButton />
+        <div className="flex items-center justify-between gap-3 border-b border-paper-line bg-paper-deep px-4 py-1 lg:hidden">
+          <div className="min-w-0">
+            <Wordmark />
+            <p className="truncate text-xs text-graphite-soft">{member.companyName}</p>
+          </div>
+          <NavDrawer sections={sections} person={person}>
+            <SignOutButton />
+          </NavDrawer>
         </div>
-        <main className="mx-auto max-w-6xl px-4 py-6 md:px-8">
-          {children}
-        </main>
+        <main className="mx-auto max-w-6xl px-4 py-6 md:px-8">{children}</main>
       </div>
     </div>
   );

@@ -1,19 +1,25 @@
 "use client";
 import { useEffect, useId, useRef, useState, type ReactNode } from "react";
 
-/**
- * A modal on the native <dialog> (focus trap, Escape and the backdrop come from the browser).
- * Open while mounted; Escape calls onClose.
- */
-export function Dialog({ title, description, onClose, children }: { title: string; description?: ReactNode; onClose: () => void; children: ReactNode }) {
+/** A native <dialog> shown as a modal while the component holding the ref is mounted. */
+export function useModalWhileMounted() {
   const ref = useRef<HTMLDialogElement>(null);
-  const titleId = useId();
-  const descriptionId = useId();
   useEffect(() => {
     const dialog = ref.current;
     if (dialog && !dialog.open) dialog.showModal();
     return () => dialog?.close();
   }, []);
+  return ref;
+}
+
+/**
+ * A modal on the native <dialog> (focus trap, Escape and the backdrop come from the browser).
+ * Open while mounted; Escape calls onClose.
+ */
+export function Dialog({ title, description, onClose, children }: { title: string; description?: ReactNode; onClose: () => void; children: ReactNode }) {
+  const ref = useModalWhileMounted();
+  const titleId = useId();
+  const descriptionId = useId();
   return (
     <dialog
       ref={ref}

@@ -18,6 +18,7 @@ import {
   type KeyboardCoordinateGetter,
 } from "@dnd-kit/core";
 import Link from "next/link";
+import { ScrollRegion } from "@/components/ui/scroll-region";
 import { useId, useRef, useState, type FormEvent } from "react";
 import { Dialog } from "@/components/ui/dialog";
 import { useSave } from "@/components/ui/use-save";
@@ -184,13 +185,13 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
           },
         }}
       >
-        <div className="mt-2 overflow-x-auto px-2 pb-4 md:px-4" data-testid="board-scroller">
-          <div className="flex items-start gap-2">
+        <ScrollRegion label="Pipeline columns" className="mt-2" innerClassName="px-2 pb-4 md:px-4" testId="board-scroller">
+          <div className="flex w-max items-start gap-2">
             {COLUMNS.map((stage) => (
               <Column key={stage} stage={stage} side={SIDE_STAGES.includes(stage)} limit={stallDays[stage]} cards={items.filter((c) => c.stage === stage)} />
             ))}
           </div>
-        </div>
+        </ScrollRegion>
         <DragOverlay dropAnimation={null}>{active ? <CardBody card={active} overlay /> : null}</DragOverlay>
       </DndContext>
       {ask ? (

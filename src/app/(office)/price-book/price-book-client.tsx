@@ -19,6 +19,7 @@ import {
   type PriceBookIncentive,
 } from "@/lib/schemas/price-book";
 import { MoneyInput, NumberInput, PercentInput } from "@/components/ui/number-input";
+import { FitTable } from "@/components/ui/table";
 import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
 
 const ADDER_KIND_LABELS: Record<AdderKind, string> = { per_watt: "per watt DC", per_module: "per module", fixed: "per job" };
@@ -533,7 +534,7 @@ function SaveBar({ saved, timeZone, edit, pending, dirty, onSave }: { saved: { a
 function BandsSection({ doc, edit, err, update }: BookEditor) {
   return (
     <Section id="bands" title="Price per watt by system size" hint="The whole system is priced at the rate of the band its DC size falls in. A size exactly on a boundary takes the higher band.">
-      <table className="w-full text-sm">
+      <FitTable className="text-sm">
         <thead className="text-left text-xs uppercase tracking-wide text-graphite-soft">
           <tr>
             <th className="py-1 pr-3">From</th>
@@ -547,7 +548,7 @@ function BandsSection({ doc, edit, err, update }: BookEditor) {
             <BandRow key={i} band={band} i={i} last={i === doc.bands.length - 1} canRemove={edit && doc.bands.length > 1} err={err} update={update} />
           ))}
         </tbody>
-      </table>
+      </FitTable>
       {err("bands") ? <p className="field-error" role="alert">{err("bands")}</p> : null}
       {edit ? (
         <button

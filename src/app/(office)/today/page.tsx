@@ -14,7 +14,8 @@ export const metadata: Metadata = { title: "Today" };
 
 type PendingDiscount = Awaited<ReturnType<typeof listPendingDiscountRequests>>[number];
 
-const linkClass = "font-medium underline-offset-2 hover:text-copper hover:underline";
+// wrap-anywhere: a name with no spaces breaks instead of widening the page.
+const linkClass = "font-medium wrap-anywhere underline-offset-2 hover:text-copper hover:underline";
 const day = (iso: string) => formatCalendarDate(iso);
 const VISIT_LABELS: Record<CrewVisit["kind"], string> = { install: "Install", survey: "Site survey", inspection: "Inspection" };
 

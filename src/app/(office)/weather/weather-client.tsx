@@ -117,7 +117,7 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
       </h2>
       <p className="mt-1 max-w-3xl text-sm text-graphite-soft">
         A typical year of hourly weather, up to {WEATHER_FILE_MAX_LABEL}: an EPW file, an NREL TMY3 CSV, or an hourly CSV with the columns{" "}
-        <code className="figure text-xs">month,day,hour,ghi,dni,dhi,temp_air,wind_speed</code> (ghi and albedo optional; lines starting with # are
+        <code className="figure text-xs wrap-anywhere">month,day,hour,ghi,dni,dhi,temp_air,wind_speed</code> (ghi and albedo optional; lines starting with # are
         notes). The whole file is checked first; nothing is stored unless every hour reads correctly.
       </p>
       <form onSubmit={onSubmit} noValidate className="mt-4 space-y-4">

@@ -17,7 +17,7 @@ export default async function DealRoomLayout({ children, params }: { children: R
       </Link>
       <header className="mt-2 flex flex-wrap items-start justify-between gap-3">
         <div>
-          <h1 className="text-2xl font-semibold">{household.name}</h1>
+          <h1 className="text-2xl font-semibold wrap-anywhere">{household.name}</h1>
           <p className="text-graphite-soft">
             {household.street}, {household.city}, {household.region} {household.postalCode}
           </p>

@@ -11,7 +11,7 @@ export const features = tableFeatures({
   rowPaginationFeature,
   columnVisibilityFeature,
   rowSelectionFeature,
-  columnMeta: {} as { align?: "right"; label: string },
+  columnMeta: {} as { align?: "right"; label: string; priority?: "low" },
 });
 
 const helper = createColumnHelper<typeof features, DealTableRow>();
@@ -41,13 +41,18 @@ function columnsFor(timeZone: string) {
             checked={info.row.getIsSelected()}
             onChange={info.row.getToggleSelectedHandler()}
           />
-          <Link href={`/deals/${info.row.original.id}`} className="font-medium text-graphite underline-offset-2 hover:text-copper hover:underline">
+          {/* A long name wraps anywhere and stops at two lines; the whole name is its title. */}
+          <Link
+            href={`/deals/${info.row.original.id}`}
+            title={info.getValue()}
+            className="line-clamp-2 max-w-[16rem] font-medium text-graphite wrap-anywhere underline-offset-2 hover:text-copper hover:underline"
+          >
             {info.getValue()}
           </Link>
         </span>
       ),
     }),
-    helper.accessor("city", { id: "city", header: "City", meta: { label: "City" } }),
+    helper.accessor("city", { id: "city", header: "City", meta: { label: "City", priority: "low" } }),
     helper.accessor("stage", { id: "stage", header: "Stage", meta: { label: "Stage" }, cell: (info) => STAGE_LABELS[info.getValue()] }),
     helper.accessor("systemDcWatts", {
       id: "systemDcWatts",
@@ -81,11 +86,11 @@ function columnsFor(timeZone: string) {
       id: "createdAt",
       header: "Created",
       sortDescFirst: true,
-      meta: { label: "Created" },
+      meta: { label: "Created", priority: "low" },
       cell: (info) => formatDate(new Date(info.getValue()), timeZone),
     }),
     helper.accessor("ownerName", { id: "owner", header: "Owner", meta: { label: "Owner" }, cell: (info) => info.getValue() ?? "—" }),
-    helper.accessor("source", { id: "source", header: "Source", meta: { label: "Source" }, cell: (info) => info.getValue() ?? "—" }),
+    helper.accessor("source", { id: "source", header: "Source", meta: { label: "Source", priority: "low" }, cell: (info) => info.getValue() ?? "—" }),
   ]);
 }
 

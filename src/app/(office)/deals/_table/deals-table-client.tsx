@@ -1,7 +1,7 @@
 "use client";
 import { keepPreviousData, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useTable, type ColumnVisibilityState, type PaginationState, type RowSelectionState, type SortingState, type Updater } from "@tanstack/react-table";
-import { useEffect, useId, useMemo, useState, type Dispatch, type FormEvent, type ReactNode, type SetStateAction } from "react";
+import { useEffect, useId, useMemo, useRef, useState, type Dispatch, type FormEvent, type ReactNode, type SetStateAction } from "react";
 import { STAGES } from "@/lib/enums";
 import { api } from "@/lib/api-client";
 import {
@@ -17,6 +17,7 @@ import {
 } from "@/lib/schemas/deal-table";
 import { STAGE_LABELS } from "@/lib/stages";
 import { Field, optionsOf, SelectField } from "@/components/ui/field";
+import { useFitTable } from "@/components/ui/table";
 import { BulkBar } from "./bulk-bar";
 import { Checkbox, dealColumns, features } from "./columns";
 import { SavedViewsMenu } from "./saved-views-menu";
@@ -368,10 +369,16 @@ function CountLine({ data, view, fetching, error }: { data: DealTablePage; view:
   );
 }
 
+/** Below 720 px the nine columns are too squeezed: the low-priority ones go, then rows become cards (useFitTable). */
+const FULL_TABLE_WIDTH = 720;
+
 function DealsGrid({ table, data, filtered, fetching, placeholder }: { table: DealsTableModel; data: DealTablePage; filtered: boolean; fetching: boolean; placeholder: boolean }) {
+  const frame = useRef<HTMLDivElement>(null);
+  const grid = useRef<HTMLTableElement>(null);
+  useFitTable(frame, grid, FULL_TABLE_WIDTH);
   return (
-    <div className={`mt-2 overflow-x-auto rounded-card border border-paper-line bg-white ${placeholder ? "opacity-70" : ""}`}>
-      <table className="w-full min-w-[720px] text-left text-sm" aria-busy={fetching}>
+    <div ref={frame} className={`relative mt-2 overflow-x-auto rounded-card border [contain:inline-size] border-paper-line bg-white ${placeholder ? "opacity-70" : ""}`}>
+      <table ref={grid} className="fit-table w-full text-left text-sm" aria-busy={fetching}>
         <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
           {table.getHeaderGroups().map((group) => (
             <tr key={group.id}>
@@ -385,7 +392,11 @@ function DealsGrid({ table, data, filtered, fetching, placeholder }: { table: De
           {table.getRowModel().rows.map((row) => (
             <tr key={row.id} className={row.getIsSelected() ? "bg-copper-light/40" : "hover:bg-paper"}>
               {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className={`whitespace-nowrap px-3 py-2 ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}>
+                <td
+                  key={cell.id}
+                  data-priority={cell.column.columnDef.meta?.priority}
+                  className={`px-3 py-2 ${cell.column.id === "household" ? "" : "whitespace-nowrap"} ${cell.column.columnDef.meta?.align === "right" ? "text-right" : ""}`}
+                >
                   <table.FlexRender cell={cell} />
                 </td>
               ))}
@@ -414,6 +425,8 @@ function HeaderCell({ table, header }: { table: DealsTableModel; header: HeaderM
   return (
     <th
       scope="col"
+      data-label={header.column.columnDef.meta?.label}
+      data-priority={header.column.columnDef.meta?.priority}
       aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
       className={`px-3 py-1 font-semibold ${right ? "text-right" : ""}`}
     >

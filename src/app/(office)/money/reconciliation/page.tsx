@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { FormMessage } from "@/components/ui/field";
+import { TableShell, Td, Th } from "@/components/ui/table";
 import { NoAccess } from "@/components/no-access";
 import { formatCentsExact, formatDateTime } from "@/lib/format";
 import { can } from "@/lib/permissions";
@@ -89,36 +90,30 @@ function Result({ r, timeZone }: { r: Reconciliation; timeZone: string }) {
               <h2 id={`diff-${kind}`} className="text-lg font-semibold">
                 {KIND_LABELS[kind]} <span className="figure text-graphite-soft">({rows.length})</span>
               </h2>
-              <div className="mt-2 overflow-x-auto rounded-card border border-paper-line bg-white">
-                <table className="w-full min-w-[760px] text-left text-sm">
-                  <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
-                    <tr>
-                      <th scope="col" className="px-3 py-2">What</th>
-                      <th scope="col" className="px-3 py-2">Provider id</th>
-                      <th scope="col" className="px-3 py-2">Difference</th>
-                      <th scope="col" className="px-3 py-2">Deal</th>
-                    </tr>
-                  </thead>
-                  <tbody className="divide-y divide-paper-line">
-                    {rows.map((d) => (
-                      <tr key={`${d.object}-${d.providerId}-${d.kind}`} data-testid={`difference-${d.providerId}`}>
-                        <td className="px-3 py-2">{d.object === "payment" ? "Payment" : "Refund"}</td>
-                        <td className="figure px-3 py-2 text-xs">{d.providerId}</td>
-                        <td className="px-3 py-2">{d.detail}</td>
-                        <td className="px-3 py-2">
-                          {d.dealId ? (
-                            <Link href={`/deals/${d.dealId}/money`} className="text-copper underline-offset-2 hover:underline">
-                              Money tab
-                            </Link>
-                          ) : (
-                            "—"
-                          )}
-                        </td>
-                      </tr>
-                    ))}
-                  </tbody>
-                </table>
-              </div>
+              <TableShell
+                className="mt-2"
+                minWidth={760}
+                head={["What", "Provider id", "Difference", "Deal"].map((c) => (
+                  <Th key={c}>{c}</Th>
+                ))}
+              >
+                {rows.map((d) => (
+                  <tr key={`${d.object}-${d.providerId}-${d.kind}`} data-testid={`difference-${d.providerId}`}>
+                    <Td>{d.object === "payment" ? "Payment" : "Refund"}</Td>
+                    <Td className="figure text-xs">{d.providerId}</Td>
+                    <Td>{d.detail}</Td>
+                    <Td>
+                      {d.dealId ? (
+                        <Link href={`/deals/${d.dealId}/money`} className="text-copper underline-offset-2 hover:underline">
+                          Money tab
+                        </Link>
+                      ) : (
+                        "—"
+                      )}
+                    </Td>
+                  </tr>
+                ))}
+              </TableShell>
             </section>
           );
         })

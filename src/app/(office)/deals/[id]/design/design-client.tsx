@@ -300,7 +300,7 @@ function DesignEditor({ dealId, inputs, canEdit }: { dealId: string; inputs: Des
 
   const parts: DraftParts = { draft, errors, disabled: !canEdit, set };
   return (
-    <div className="grid gap-6 xl:grid-cols-[3fr_2fr]">
+    <div className="grid grid-cols-1 gap-6 xl:grid-cols-[3fr_2fr]">
       <div className="space-y-6">
         <EquipmentCard {...parts} inputs={inputs} inv={inv} />
         <FacesCard {...parts} canEdit={canEdit} update={update} setFace={setFace} sizingBlocked={sizingBlocked} onSize={runSizing} />
@@ -461,7 +461,7 @@ function WeatherCard({ draft, errors, disabled, set, inputs, station, weatherErr
           </FormMessage>
         </div>
       ) : null}
-      <fieldset className="mt-3 space-y-2" disabled={disabled}>
+      <fieldset className="mt-3 min-w-0 space-y-2" disabled={disabled}>
         <legend className="sr-only">Where the production estimate comes from</legend>
         {inputs.nearest ? (
           <label className="flex min-h-touch items-center gap-2">
@@ -473,7 +473,7 @@ function WeatherCard({ draft, errors, disabled, set, inputs, station, weatherErr
           <label className="flex min-h-touch flex-wrap items-center gap-2">
             <input type="radio" name="weather" checked={draft.weatherKind === "station"} onChange={() => set({ weatherKind: "station" })} />
             Pick a station:
-            <select aria-label="Weather station" className="field-input w-auto" value={draft.stationId} onChange={(e) => set({ weatherKind: "station", stationId: e.target.value })}>
+            <select aria-label="Weather station" className="field-input w-full min-w-0 max-w-full sm:w-auto" value={draft.stationId} onChange={(e) => set({ weatherKind: "station", stationId: e.target.value })}>
               {inputs.stations.map((s) => (
                 <option key={s.id} value={s.id}>
                   {s.name} ({fmt(s.distanceKm, 0)} km{s.distanceKm > inputs.maxStationDistanceKm ? ", beyond the usual range" : ""})

@@ -1,4 +1,5 @@
 "use client";
+import { FIGURE_CHARS, figureWidth } from "@/components/ui/number-input";
 import { useState } from "react";
 import { Badge, type BadgeTone } from "@/components/ui/badge";
 import { FormMessage } from "@/components/ui/field";
@@ -91,7 +92,7 @@ type SetDraft = (patch: Partial<Draft>) => void;
 function AmountChoice({ draft: d, set, amounts }: { draft: Draft; set: SetDraft; amounts: Found<number>[] }) {
   return (
     <>
-      <input aria-label="Amount due" inputMode="decimal" className="field-input figure" value={d.amount} onChange={(e) => set({ amount: e.target.value })} />
+      <input aria-label="Amount due" inputMode="decimal" className="field-input figure" style={figureWidth(FIGURE_CHARS.money)} value={d.amount} onChange={(e) => set({ amount: e.target.value })} />
       {amounts.length > 1 ? (
         <div className="mt-2" data-testid="amount-alternatives">
           <RadioGroup
@@ -135,6 +136,7 @@ function HistoryRows({ draft: d, set, confidence }: { draft: Draft; set: SetDraf
                   aria-label={`${monthName(m.month)} kWh`}
                   inputMode="decimal"
                   className="field-input figure"
+                  style={figureWidth(FIGURE_CHARS.kwh)}
                   value={m.kwh}
                   onChange={(e) =>
                     set({
@@ -179,7 +181,7 @@ function PeriodRows({ reading: r, draft: d, set }: { reading: BillReading; draft
           ) : null}
         </Td>
         <Td>
-          <input aria-label="Period kWh" inputMode="decimal" className="field-input figure" value={d.kwh} onChange={(e) => set({ kwh: e.target.value })} />
+          <input aria-label="Period kWh" inputMode="decimal" className="field-input figure" style={figureWidth(FIGURE_CHARS.kwh)} value={d.kwh} onChange={(e) => set({ kwh: e.target.value })} />
         </Td>
         <WhereCell where={r.kwh?.where} confidence={r.kwh?.confidence} />
       </tr>

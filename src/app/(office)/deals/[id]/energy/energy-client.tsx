@@ -2,7 +2,8 @@
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useRef, useState } from "react";
 import { StatusMessage, type Notice } from "@/components/ui/field";
-import { Th } from "@/components/ui/table";
+import { FIGURE_CHARS, figureWidth } from "@/components/ui/number-input";
+import { FitTable, Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import { api, ApiError } from "@/lib/api-client";
 import { fieldErrorsToErrors } from "@/lib/form-errors";
@@ -239,8 +240,8 @@ function BillsSection(props: {
         </h2>
         <span className="text-sm text-graphite-soft">Billing period start and end, kWh, amount</span>
       </div>
-      <div className="mt-3 overflow-x-auto">
-        <table className="w-full min-w-[560px] text-sm">
+      {/* Under 560 px the four fields are too narrow side by side: each bill becomes a card. */}
+      <FitTable minWidth={560} frameClassName="mt-3" className="text-sm">
           <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-graphite-soft">
             <tr>
               <Th>From</Th>
@@ -265,8 +266,7 @@ function BillsSection(props: {
               />
             ))}
           </tbody>
-        </table>
-      </div>
+      </FitTable>
       {props.canEdit ? (
         <div className="flex flex-wrap gap-2 p-5">
           <button type="button" className="btn-quiet" onClick={() => setRows((rs) => [...rs, emptyRow()])}>
@@ -300,10 +300,10 @@ function BillRow(props: {
         <input aria-label={`Bill ${i + 1} to`} type="date" className="field-input" value={r.periodEnd} disabled={!canEdit} aria-invalid={!!(err("periodEnd") || err("endDate"))} onChange={(e) => set("periodEnd", e.target.value)} />
       </td>
       <td className="px-3 py-2">
-        <input aria-label={`Bill ${i + 1} kWh`} inputMode="decimal" className="field-input figure" value={r.kwh} disabled={!canEdit} aria-invalid={!!err("kwh")} onChange={(e) => set("kwh", e.target.value)} />
+        <input aria-label={`Bill ${i + 1} kWh`} inputMode="decimal" className="field-input figure" style={figureWidth(FIGURE_CHARS.kwh)} value={r.kwh} disabled={!canEdit} aria-invalid={!!err("kwh")} onChange={(e) => set("kwh", e.target.value)} />
       </td>
       <td className="px-3 py-2">
-        <input aria-label={`Bill ${i + 1} amount`} inputMode="decimal" className="field-input figure" value={r.cost} disabled={!canEdit} aria-invalid={!!err("costCents")} onChange={(e) => set("cost", e.target.value)} />
+        <input aria-label={`Bill ${i + 1} amount`} inputMode="decimal" className="field-input figure" style={figureWidth(FIGURE_CHARS.money)} value={r.cost} disabled={!canEdit} aria-invalid={!!err("costCents")} onChange={(e) => set("cost", e.target.value)} />
         {r.source === "history" ? (
           <Badge tone="usage" className="mt-1" testId="from-history">
             from the bill&apos;s history{r.periodEstimated ? ", dates estimated" : ""}

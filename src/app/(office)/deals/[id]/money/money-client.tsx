@@ -8,9 +8,11 @@ import { useForm } from "react-hook-form";
 import type { PaymentStatus } from "@/lib/enums";
 import { Badge, type BadgeTone } from "@/components/ui/badge";
 import { Field, FormMessage, StatusMessage } from "@/components/ui/field";
-import { Th } from "@/components/ui/table";
+import { TableShell, Td, Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import { dollarsToCents, refundPaymentSchema, type RefundPaymentInput } from "@/lib/schemas/refund";
+
+const REFUND_COLUMNS = ["When", "Amount", "Reason", "By", "State", "Refund id"];
 
 export type RefundView = { id: string; amountText: string; reason: string; status: string; stripeRefundId: string; byName: string | null; createdAtText: string };
 export type PaymentView = {
@@ -116,33 +118,27 @@ function PaymentCard({ p, canRefund }: { p: PaymentView; canRefund: boolean }) {
         </dl>
       </div>
       {p.refunds.length > 0 ? (
-        <div className="mt-4 overflow-x-auto">
-          <table className="w-full min-w-[640px] text-left text-sm">
-            <caption className="mb-1 text-left font-medium">Refunds</caption>
-            <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
-              <tr>
-                <Th>When</Th>
-                <Th>Amount</Th>
-                <Th>Reason</Th>
-                <Th>By</Th>
-                <Th>State</Th>
-                <Th>Refund id</Th>
+        <>
+          <p className="mb-1 mt-4 font-medium">Refunds</p>
+          <TableShell
+            label="Refunds"
+            minWidth={640}
+            head={REFUND_COLUMNS.map((c) => (
+              <Th key={c}>{c}</Th>
+            ))}
+          >
+            {p.refunds.map((r) => (
+              <tr key={r.id} data-testid={`refund-${r.stripeRefundId}`}>
+                <Td>{r.createdAtText}</Td>
+                <Td className="figure">{r.amountText}</Td>
+                <Td>{r.reason}</Td>
+                <Td>{r.byName ?? "Payment provider"}</Td>
+                <Td>{r.status}</Td>
+                <Td className="figure text-xs">{r.stripeRefundId}</Td>
               </tr>
-            </thead>
-            <tbody className="divide-y divide-paper-line">
-              {p.refunds.map((r) => (
-                <tr key={r.id} data-testid={`refund-${r.stripeRefundId}`}>
-                  <td className="px-3 py-2">{r.createdAtText}</td>
-                  <td className="figure px-3 py-2">{r.amountText}</td>
-                  <td className="px-3 py-2">{r.reason}</td>
-                  <td className="px-3 py-2">{r.byName ?? "Payment provider"}</td>
-                  <td className="px-3 py-2">{r.status}</td>
-                  <td className="figure px-3 py-2 text-xs">{r.stripeRefundId}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+            ))}
+          </TableShell>
+        </>
       ) : null}
       <div className="mt-4 flex flex-wrap items-start gap-4">
         {RECEIPT_STATUSES.includes(p.status) ? <ResendReceipt paymentId={p.id} /> : null}

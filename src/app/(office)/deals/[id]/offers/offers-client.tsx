@@ -6,6 +6,7 @@ import { useEffect, useState } from "react";
 import { ConfirmButton } from "@/components/ui/dialog";
 import { Field, FormMessage, SelectField, StatusMessage } from "@/components/ui/field";
 import { MoneyInput } from "@/components/ui/number-input";
+import { FitTable } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { api, ApiError } from "@/lib/api-client";
@@ -93,7 +94,7 @@ export function OffersClient(props: Props) {
       ) : null}
 
       {offers.length > 0 ? (
-        <section className="card overflow-x-auto p-4" aria-labelledby="compare-heading">
+        <section className="card p-4" aria-labelledby="compare-heading">
           <h2 id="compare-heading" className="text-lg font-semibold">
             Side by side
           </h2>
@@ -142,7 +143,8 @@ function Comparison({ offers }: { offers: OfferView[] }) {
     { label: "Bill savings over the period", value: (o) => `${formatCents(o.results.summary.lifetimeSavingsCents)} in ${o.results.assumptions.years} years` },
   ];
   return (
-    <table className="mt-3 w-full min-w-[32rem] text-left text-sm" data-testid="offer-comparison">
+    // Under 32rem the offers side by side are too squeezed: each figure becomes a card.
+    <FitTable minWidth={512} frameClassName="mt-3" className="text-left text-sm" data-testid="offer-comparison">
       <thead>
         <tr className="border-b border-paper-line">
           <th scope="col" className="py-2 pr-3 font-medium text-graphite-soft">
@@ -170,7 +172,7 @@ function Comparison({ offers }: { offers: OfferView[] }) {
           </tr>
         ))}
       </tbody>
-    </table>
+    </FitTable>
   );
 }
 
