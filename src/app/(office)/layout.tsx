@@ -33,7 +33,7 @@ export default async function OfficeLayout({ children }: { children: ReactNode }
         </div>
       </header>
       <div className="min-w-0">
-        <div className="flex items-center justify-end gap-3 border-b border-paper-line px-4 py-2 md:hidden">
+        <div role="region" aria-label="Your account" className="flex items-center justify-end gap-3 border-b border-paper-line px-4 py-2 md:hidden">
           <span className="text-sm">
             {member.name} · {ROLE_LABELS[member.role]}
           </span>

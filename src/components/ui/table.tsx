@@ -3,12 +3,13 @@ import type { ReactNode, ThHTMLAttributes, TdHTMLAttributes } from "react";
 /**
  * The office tables' frame: white card, scrolls sideways inside itself on a narrow screen.
  * `relative` keeps absolutely placed children (an sr-only heading) inside the frame: without
- * it they are placed against the page and widen it.
+ * it they are placed against the page and widen it. The frame takes the focus so a keyboard can
+ * scroll a table that has no link or field in it (WCAG 2.1.1; axe's scrollable-region-focusable).
  */
 export function TableShell(props: { minWidth?: number; testId?: string; head: ReactNode; children: ReactNode; label?: string; alignTop?: boolean; className?: string }) {
   const { minWidth, testId, head, children, label } = props;
   return (
-    <div className={`relative overflow-x-auto rounded-card border border-paper-line bg-white ${props.className ?? ""}`}>
+    <div tabIndex={0} className={`relative overflow-x-auto rounded-card border border-paper-line bg-white ${props.className ?? ""}`}>
       <table className="w-full text-left text-sm" style={minWidth ? { minWidth } : undefined} data-testid={testId} aria-label={label}>
         <thead className="bg-paper-deep text-xs uppercase tracking-wide text-graphite-soft">
           <tr>{head}</tr>

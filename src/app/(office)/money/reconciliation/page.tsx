@@ -107,7 +107,7 @@ function Result({ r, timeZone }: { r: Reconciliation; timeZone: string }) {
                         <td className="px-3 py-2">{d.detail}</td>
                         <td className="px-3 py-2">
                           {d.dealId ? (
-                            <Link href={`/deals/${d.dealId}/money`} className="text-copper underline-offset-2 hover:underline">
+                            <Link href={`/deals/${d.dealId}/money`} className="link">
                               Money tab
                             </Link>
                           ) : (
