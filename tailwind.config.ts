@@ -1,5 +1,7 @@
 // Kilowright's design tokens: warm paper, graphite text, copper for
 // action and production, slate blue for usage, sage for success. Loaded by src/app/globals.css.
+// Every text colour reads at 4.5:1 or more (WCAG 2.2 SC 1.4.3) on white, paper, paper-deep and
+// the light tints; tests/browser/axe.spec.ts checks every screen with axe-core.
 import type { Config } from "tailwindcss";
 
 const config: Config = {
@@ -8,14 +10,14 @@ const config: Config = {
     extend: {
       colors: {
         paper: { DEFAULT: "#FAF7F2", deep: "#F1EBE1", line: "#E2D9CB" },
-        graphite: { DEFAULT: "#1F2933", soft: "#52606D", faint: "#7B8794" },
-        copper: { DEFAULT: "#B5542D", dark: "#8F3F1F", light: "#F3DCCF" },
-        sage: { DEFAULT: "#5B7F6B", light: "#DDE8E1" },
+        graphite: { DEFAULT: "#1F2933", soft: "#52606D", faint: "#606973" },
+        copper: { DEFAULT: "#9D4927", dark: "#7A3519", light: "#F3DCCF" },
+        sage: { DEFAULT: "#4B6858", light: "#DDE8E1" },
         slate: { usage: "#3E5C76", light: "#DCE4EC" },
         production: "#B5542D",
         usage: "#3E5C76",
         danger: { DEFAULT: "#A23B3B", light: "#F5DEDE" },
-        caution: { DEFAULT: "#9A6B12", light: "#F6EAD0" },
+        caution: { DEFAULT: "#815A0F", light: "#F6EAD0" },
       },
       fontFamily: {
         sans: ['"IBM Plex Sans"', "system-ui", "sans-serif"],

@@ -41,7 +41,7 @@ test.afterAll(async () => {
 });
 
 const column = (page: Page, stage: string) => page.getByRole("region", { name: stage, exact: true });
-const card = (scope: Page | Locator) => scope.getByRole("button", { name: new RegExp(`^${name}`) });
+const card = (scope: Page | Locator) => scope.getByRole("link", { name: new RegExp(`^${name}`) });
 
 /** Drags like a person: press, move in small steps (dnd-kit needs movement), release over the column. */
 async function drag(page: Page, from: Locator, target: Locator) {
@@ -51,7 +51,7 @@ async function drag(page: Page, from: Locator, target: Locator) {
   const b = await target.boundingBox();
   if (!a || !b) throw new Error("The card or the column is not on screen");
   const startX = a.x + a.width / 2;
-  const startY = a.y + a.height - 6; // below the household link
+  const startY = a.y + a.height - 6;
   await page.mouse.move(startX, startY);
   await page.mouse.down();
   await page.mouse.move(startX + 12, startY + 4, { steps: 4 });

@@ -171,7 +171,7 @@ test("an admin sets the company's stall limit for a stage, and the Board flags b
   await page.goto("/board");
   const survey = page.getByRole("region", { name: "Survey", exact: true });
   await expect(survey).toContainText("Flag after 30 days");
-  await expect(survey.getByRole("button", { name: /^Galloway household/ })).not.toHaveAccessibleName(/stalled/);
+  await expect(survey.getByRole("link", { name: /^Galloway household/ })).not.toHaveAccessibleName(/Stalled/);
 });
 
 test("an admin sets the savings assumptions of new offers; a slip is named on its field", async ({ page }) => {
@@ -199,7 +199,7 @@ test("an admin sets the savings assumptions of new offers; a slip is named on it
   await expect(page.getByLabel("Years the savings run")).toHaveValue("30");
 
   // Back to the defaults, as the other journeys expect them.
-  await page.getByRole("button", { name: "Use the default savings assumptions" }).click();
+  await page.getByRole("button", { name: "Use the defaults for the savings assumptions" }).click();
   await expect(degradation).toHaveValue("0.5");
   await page.getByRole("button", { name: "Save company settings" }).click();
   await expect(page.getByText("Company settings saved.")).toBeVisible();

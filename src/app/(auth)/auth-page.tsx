@@ -5,7 +5,7 @@ import { FormMessage } from "@/components/ui/field";
 
 export function AuthLink({ href, children }: { href: string; children: ReactNode }) {
   return (
-    <Link href={href} className="text-copper underline-offset-2 hover:underline">
+    <Link href={href} className="link">
       {children}
     </Link>
   );

@@ -40,7 +40,7 @@ export default async function OfficeLayout({ children }: { children: ReactNode }
         </div>
       </header>
       <div className="min-w-0">
-        <div className="flex items-center justify-between gap-3 border-b border-paper-line bg-paper-deep px-4 py-1 lg:hidden">
+        <div role="region" aria-label="Menu and account" className="flex items-center justify-between gap-3 border-b border-paper-line bg-paper-deep px-4 py-1 lg:hidden">
           <div className="min-w-0">
             <Wordmark />
             <p className="truncate text-xs text-graphite-soft">{member.companyName}</p>

@@ -7,7 +7,7 @@ export const metadata: Metadata = { title: "Check a signed PDF" };
 /** Public: anyone can learn whether a PDF is a signed Kilowright record, and which, without learning anything else. */
 export default function VerifyPage() {
   return (
-    <div className="mx-auto max-w-xl px-4 pb-16 pt-8">
+    <main className="mx-auto max-w-xl px-4 pb-16 pt-8">
       <Wordmark className="text-lg" />
       <h1 className="mt-6 text-2xl font-semibold">Check a signed PDF</h1>
       <p className="mt-2 text-graphite-soft">
@@ -15,6 +15,6 @@ export default function VerifyPage() {
         does not match. We only say whether it matches, and which proposal and signing date; nothing else about it.
       </p>
       <VerifyClient />
-    </div>
+    </main>
   );
 }

@@ -29,6 +29,8 @@ function labelCells(table: HTMLTableElement) {
  * when they fit (and the frame is at least `minWidth` wide, below which they are too squeezed to
  * read); else without its low-priority columns (`data-priority="low"` on their cells); else each
  * row as a card of "heading: value" lines. Measured again when the frame's width or the rows change.
+ * The frame takes the focus so a keyboard can scroll a table that has no link or field in it
+ * (WCAG 2.1.1; axe's scrollable-region-focusable).
  */
 export function useFitTable(frame: RefObject<HTMLElement | null>, tableRef: RefObject<HTMLTableElement | null>, minWidth = 0) {
   useLayoutEffect(() => {
@@ -72,7 +74,7 @@ export function FitTable({ minWidth, frameClassName, className, children, ...res
   const table = useRef<HTMLTableElement>(null);
   useFitTable(frame, table, minWidth);
   return (
-    <div ref={frame} className={`relative overflow-x-auto [contain:inline-size] ${frameClassName ?? ""}`}>
+    <div ref={frame} tabIndex={0} className={`relative overflow-x-auto [contain:inline-size] ${frameClassName ?? ""}`}>
       <table ref={table} className={`fit-table w-full ${className ?? ""}`} {...rest}>
         {children}
       </table>

@@ -43,7 +43,7 @@ function layout(title: string, body: string): string {
 <style>${STYLE}</style>
 </head>
 <body>
-<div class="band">Dev payments · test mode · no real money moves</div>
+<header class="band">Dev payments · test mode · no real money moves</header>
 <main>
 ${body}
 </main>

@@ -19,7 +19,7 @@ import {
 } from "@dnd-kit/core";
 import Link from "next/link";
 import { ScrollRegion } from "@/components/ui/scroll-region";
-import { useId, useRef, useState, type FormEvent } from "react";
+import { useEffect, useId, useRef, useState, type FormEvent, type MouseEvent } from "react";
 import { Dialog } from "@/components/ui/dialog";
 import { useSave } from "@/components/ui/use-save";
 import type { Stage } from "@/lib/enums";
@@ -40,9 +40,12 @@ export type BoardCard = {
 };
 
 const COLUMNS: readonly Stage[] = [...PIPELINE, ...SIDE_STAGES];
+const CARD_KEYS = { start: ["Space"], cancel: ["Escape"], end: ["Space", "Tab"] };
+const columnId = (stage: Stage) => `board-column-${stage}`;
 
 type MoveResult = { ok: true } | { ok: false; message: string; needsReason: boolean };
 type MoveInput = { dealId: string; stage: Stage; reason: string | null };
+const refusalOf = (result: MoveResult) => (result.ok ? null : result.message);
 
 /**
  * A move through the stage route (useSave); the answer says whether it went, and when the rules
@@ -137,21 +140,82 @@ function BoardMessages({ error, notice }: { error: string | null; notice: string
   );
 }
 
-export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDays: Partial<Record<Stage, number>> }) {
+/**
+ * Which side columns (On hold, Lost, Cancelled) are open: closed by default, so a long Lost
+ * pile never buries the pipeline; each person's choice is kept in this browser.
+ */
+function useOpenSideStages(userId: string) {
+  const key = `kilowright:board:open-side:${userId}`;
+  const [open, setOpen] = useState<Stage[]>([]);
+  useEffect(() => {
+    try {
+      const saved: unknown = JSON.parse(localStorage.getItem(key) ?? "[]");
+      if (Array.isArray(saved)) setOpen(SIDE_STAGES.filter((s) => saved.includes(s)));
+    } catch {
+      // A stored value we cannot read: start closed.
+    }
+  }, [key]);
+  function setStageOpen(stage: Stage, value: boolean) {
+    setOpen((prev) => {
+      const next = value ? [...new Set([...prev, stage])] : prev.filter((s) => s !== stage);
+      localStorage.setItem(key, JSON.stringify(next));
+      return next;
+    });
+  }
+  return { open, setStageOpen };
+}
+
+/**
+ * Focus follows a card through a move: dropped, put back after a refusal, or after the reason
+ * dialog closes, the card is a new element in its column, so focus is placed on it again
+ * (WCAG 2.4.3); a card in a closed column gives its column the focus.
+ */
+function useCardFocus(items: BoardCard[]) {
+  const [target, setTarget] = useState<string | null>(null);
+  useEffect(() => {
+    if (!target) return;
+    const card = document.querySelector<HTMLElement>(`[data-card-id="${target}"]`);
+    const stage = items.find((c) => c.id === target)?.stage;
+    (card ?? (stage ? document.getElementById(columnId(stage)) : null))?.focus();
+    setTarget(null);
+  }, [target, items]);
+  return setTarget;
+}
+
+/**
+ * A pointer drag that ends over its own card must not also follow the card's link: the click
+ * that ends the drag is stopped by dnd-kit before React sees it, so its default is cancelled here.
+ */
+function guardClickAfterPointerDrag(event: DragStartEvent) {
+  if (!(event.activatorEvent instanceof PointerEvent)) return;
+  const cancel = (e: Event) => e.preventDefault();
+  window.addEventListener("click", cancel, { capture: true });
+  const release = () => setTimeout(() => window.removeEventListener("click", cancel, { capture: true }), 0);
+  window.addEventListener("pointerup", release, { capture: true, once: true });
+  window.addEventListener("pointercancel", release, { capture: true, once: true });
+}
+
+const KEYBOARD_HELP = "To move this deal, press Space to pick it up, use the arrow keys to change the column, then Space to drop it or Escape to cancel. Enter opens the deal.";
+
+export function BoardClient({ cards, stallDays, userId }: { cards: BoardCard[]; stallDays: Partial<Record<Stage, number>>; userId: string }) {
   const { items, notice, setNotice, move } = useBoardMoves(cards);
   const [activeId, setActiveId] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [ask, setAsk] = useState<{ deal: BoardCard; to: Stage; message: string } | null>(null);
+  const side = useOpenSideStages(userId);
+  const focusCard = useCardFocus(items);
 
   const sensors = useSensors(
     useSensor(PointerSensor, { activationConstraint: { distance: 6 } }),
-    useSensor(KeyboardSensor, { coordinateGetter: columnKeyboardCoordinates }),
+    // Space picks a card up and drops it; Enter is left to the card's link (it opens the deal).
+    useSensor(KeyboardSensor, { coordinateGetter: columnKeyboardCoordinates, keyboardCodes: CARD_KEYS }),
   );
   const byId = new Map(items.map((c) => [c.id, c]));
   const active = activeId ? byId.get(activeId) : undefined;
   const nameOf = (id: unknown) => byId.get(String(id))?.householdName ?? "The deal";
 
   function onDragStart(event: DragStartEvent) {
+    guardClickAfterPointerDrag(event);
     setActiveId(String(event.active.id));
     setError(null);
     setNotice(null);
@@ -163,13 +227,14 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
     const to = event.over?.id as Stage | undefined;
     if (!deal || !to || to === deal.stage) return;
     const result = await move(deal, to, null);
-    if (result.ok) return;
-    if (result.needsReason) setAsk({ deal, to, message: result.message });
-    else setError(result.message);
+    if (!result.ok && result.needsReason) return setAsk({ deal, to, message: result.message });
+    if (!result.ok) setError(result.message);
+    focusCard(deal.id);
   }
 
   return (
     <>
+      <StageOverview cards={items} onGo={(stage) => goToColumn(stage, side)} />
       <BoardMessages error={error} notice={notice} />
       <DndContext
         id="board"
@@ -178,17 +243,19 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
         onDragStart={onDragStart}
         onDragEnd={onDragEnd}
         onDragCancel={() => setActiveId(null)}
-        accessibility={{
-          announcements: boardAnnouncements(nameOf),
-          screenReaderInstructions: {
-            draggable: "To move this deal, press Space to pick it up, use the arrow keys to change the column, then Space to drop it or Escape to cancel.",
-          },
-        }}
+        accessibility={{ announcements: boardAnnouncements(nameOf), screenReaderInstructions: { draggable: KEYBOARD_HELP } }}
       >
         <ScrollRegion label="Pipeline columns" className="mt-2" innerClassName="px-2 pb-4 md:px-4" testId="board-scroller">
           <div className="flex w-max items-start gap-2">
             {COLUMNS.map((stage) => (
-              <Column key={stage} stage={stage} side={SIDE_STAGES.includes(stage)} limit={stallDays[stage]} cards={items.filter((c) => c.stage === stage)} />
+              <Column
+                key={stage}
+                stage={stage}
+                limit={stallDays[stage]}
+                cards={items.filter((c) => c.stage === stage)}
+                open={!SIDE_STAGES.includes(stage) || side.open.includes(stage)}
+                onToggle={SIDE_STAGES.includes(stage) ? (value) => side.setStageOpen(stage, value) : undefined}
+              />
             ))}
           </div>
         </ScrollRegion>
@@ -199,27 +266,72 @@ export function BoardClient({ cards, stallDays }: { cards: BoardCard[]; stallDay
           key={`${ask.deal.id}-${ask.to}`}
           title={`Move ${ask.deal.householdName} to ${STAGE_LABELS[ask.to]}`}
           message={ask.message}
-          onCancel={() => setAsk(null)}
-          onSubmit={async (reason) => {
-            const result = await move(ask.deal, ask.to, reason);
-            if (result.ok) setAsk(null);
-            return result.ok ? null : result.message;
+          onClose={() => {
+            setAsk(null);
+            focusCard(ask.deal.id);
           }}
+          onSubmit={async (reason) => refusalOf(await move(ask.deal, ask.to, reason))}
         />
       ) : null}
     </>
   );
 }
 
-function Column({ stage, side, limit, cards }: { stage: Stage; side: boolean; limit?: number; cards: BoardCard[] }) {
+/** Opens a closed side column if need be, scrolls the board to the column and gives it the focus. */
+function goToColumn(stage: Stage, side: ReturnType<typeof useOpenSideStages>) {
+  if (SIDE_STAGES.includes(stage) && !side.open.includes(stage)) side.setStageOpen(stage, true);
+  requestAnimationFrame(() => {
+    const column = document.getElementById(columnId(stage));
+    if (!column) return;
+    column.scrollIntoView({ block: "nearest", inline: "start" });
+    column.focus({ preventScroll: true });
+  });
+}
+
+/** Every stage with its count, in one short row: the whole pipeline at a glance, each a jump to its column. */
+function StageOverview({ cards, onGo }: { cards: BoardCard[]; onGo: (stage: Stage) => void }) {
+  const count = (stage: Stage) => cards.filter((c) => c.stage === stage).length;
+  const item = (stage: Stage) => (
+    <li key={stage}>
+      <a
+        href={`#${columnId(stage)}`}
+        onClick={(e: MouseEvent) => {
+          e.preventDefault();
+          onGo(stage);
+        }}
+        className="inline-flex min-h-8 items-center gap-1.5 rounded-md border border-paper-line bg-white px-2 text-sm hover:border-copper"
+      >
+        {STAGE_LABELS[stage]}{" "}
+        <span className="figure font-semibold">
+          {count(stage)}
+          <span className="sr-only"> deals</span>
+        </span>
+      </a>
+    </li>
+  );
+  return (
+    <nav aria-label="Stages" className="mt-3 px-2 md:px-4" data-testid="board-overview">
+      <ol className="flex flex-wrap items-center gap-1">
+        {PIPELINE.map(item)}
+        <li aria-hidden="true" className="mx-1 h-6 w-px bg-paper-line" />
+        {SIDE_STAGES.map(item)}
+      </ol>
+    </nav>
+  );
+}
+
+function Column({ stage, limit, cards, open, onToggle }: { stage: Stage; limit?: number; cards: BoardCard[]; open: boolean; onToggle?: (open: boolean) => void }) {
   const { setNodeRef, isOver } = useDroppable({ id: stage });
   const headingId = useId();
+  const listId = useId();
   return (
     <section
       ref={setNodeRef}
+      id={columnId(stage)}
+      tabIndex={-1}
       aria-labelledby={headingId}
       data-stage={stage}
-      className={`flex shrink-0 flex-col rounded-card border ${side ? "w-36 bg-paper-deep/60" : "w-44 bg-paper-deep"} ${
+      className={`flex shrink-0 flex-col rounded-card border ${onToggle ? "w-36 bg-paper-deep/60" : "w-44 bg-paper-deep"} ${
         isOver ? "border-copper ring-2 ring-copper/40" : "border-paper-line"
       }`}
     >
@@ -227,78 +339,82 @@ function Column({ stage, side, limit, cards }: { stage: Stage; side: boolean; li
         <h2 id={headingId} className="truncate text-xs font-semibold uppercase tracking-wide text-graphite-soft">
           {STAGE_LABELS[stage]}
         </h2>
-        <span className="figure text-xs text-graphite-soft" aria-label={`${cards.length} deals`}>
+        <span className="figure text-xs text-graphite-soft">
           {cards.length}
+          <span className="sr-only"> deals</span>
         </span>
       </header>
-      {limit ? <p className="px-2 pt-1 text-[11px] text-graphite-faint">Flag after {limit} days</p> : null}
-      <ul className="flex min-h-32 flex-col gap-1.5 p-1.5">
-        {cards.map((c) => (
-          <li key={c.id}>
-            <DraggableCard card={c} />
-          </li>
-        ))}
+      {limit ? <p className="px-2 pt-1 text-xs text-graphite-soft">Flag after {limit} days</p> : null}
+      {onToggle ? (
+        <button type="button" aria-expanded={open} aria-controls={listId} onClick={() => onToggle(!open)} className="mx-1.5 mt-1.5 min-h-8 rounded-md border border-paper-line bg-white px-2 text-left text-xs font-medium hover:border-copper">
+          {open ? "Hide the cards" : `Show ${cards.length} ${cards.length === 1 ? "card" : "cards"}`}
+        </button>
+      ) : null}
+      <ul id={listId} hidden={!open} className={`flex flex-col gap-1.5 p-1.5 ${onToggle ? "max-h-[70vh] overflow-y-auto" : "min-h-32"}`}>
+        {open
+          ? cards.map((c) => (
+              <li key={c.id}>
+                <DraggableCard card={c} />
+              </li>
+            ))
+          : null}
       </ul>
+      {open ? null : <div className="min-h-16" aria-hidden="true" />}
     </section>
   );
 }
 
+/**
+ * A card is one element: the link to its deal, which is also what a pointer drags and what
+ * Space picks up. Its name is its visible text (WCAG 2.5.3); how to move it is its description.
+ */
 function DraggableCard({ card }: { card: BoardCard }) {
-  const { setNodeRef, setActivatorNodeRef, attributes, listeners, isDragging } = useDraggable({ id: card.id, data: { stage: card.stage } });
+  const { setNodeRef, attributes, listeners, isDragging } = useDraggable({ id: card.id, data: { stage: card.stage } });
   return (
-    <div
-      ref={(node) => {
-        setNodeRef(node);
-        setActivatorNodeRef(node);
-      }}
-      {...attributes}
+    <Link
+      ref={setNodeRef}
+      href={`/deals/${card.id}`}
       {...listeners}
-      aria-roledescription="movable deal"
-      aria-label={`${card.householdName}, ${STAGE_LABELS[card.stage]}, ${card.daysInStage} days in stage${card.stalled ? ", stalled" : ""}`}
+      aria-describedby={attributes["aria-describedby"]}
+      draggable={false}
       data-testid="board-card"
-      className={`cursor-grab touch-none rounded-md focus:outline-none focus-visible:ring-2 focus-visible:ring-copper ${isDragging ? "opacity-40" : ""}`}
+      data-card-id={card.id}
+      className={`block cursor-grab touch-none rounded-md focus:outline-none focus-visible:ring-2 focus-visible:ring-copper ${isDragging ? "opacity-40" : ""}`}
     >
       <CardBody card={card} />
-    </div>
+    </Link>
   );
 }
 
 function CardBody({ card, overlay = false }: { card: BoardCard; overlay?: boolean }) {
   return (
-    <article className={`rounded-md border bg-white px-2 py-1.5 text-xs shadow-card ${card.stalled ? "border-caution" : "border-paper-line"} ${overlay ? "w-44 cursor-grabbing" : ""}`}>
-      <p className="truncate text-sm font-medium">
-        {overlay ? (
-          card.householdName
-        ) : (
-          <Link href={`/deals/${card.id}`} className="underline-offset-2 hover:text-copper hover:underline" draggable={false}>
-            {card.householdName}
-          </Link>
-        )}
-      </p>
-      <p className="mt-0.5 flex justify-between gap-1 text-graphite-soft">
+    <span className={`block rounded-md border bg-white px-2 py-1.5 text-xs shadow-card ${card.stalled ? "border-caution" : "border-paper-line"} ${overlay ? "w-44 cursor-grabbing" : "hover:border-copper"}`}>
+      <span className="block truncate text-sm font-medium">{card.householdName}</span>
+      <span className="mt-0.5 flex justify-between gap-1 text-graphite-soft">
         <span className="figure">{formatKwFromWatts(card.systemDcWatts)}</span>
         <span className="figure">{formatCents(card.contractCents)}</span>
-      </p>
-      <p className="mt-0.5 flex justify-between gap-1 text-graphite-soft">
+      </span>
+      <span className="mt-0.5 flex justify-between gap-1 text-graphite-soft">
         <span className="truncate">{card.ownerName ?? "No owner"}</span>
-        <span className={card.stalled ? "font-semibold text-caution" : ""}>
-          <span className="figure">{card.daysInStage}</span> d
+        <span className={`shrink-0 ${card.stalled ? "font-semibold text-caution" : ""}`}>
+          <span className="figure">{card.daysInStage}</span> {card.daysInStage === 1 ? "day" : "days"}
         </span>
-      </p>
-      {card.stalled ? <p className="mt-1 rounded-sm bg-caution-light px-1 py-0.5 font-medium text-caution">Stalled</p> : null}
-    </article>
+      </span>
+      {card.stalled ? <span className="mt-1 block rounded-sm bg-caution-light px-1 py-0.5 font-medium text-caution">Stalled</span> : null}
+    </span>
   );
 }
 
+/** Asks for the reason the rules want; closes (onClose) on Cancel, Escape or a move that went through. */
 function ReasonDialog({
   title,
   message,
-  onCancel,
+  onClose,
   onSubmit,
 }: {
   title: string;
   message: string;
-  onCancel: () => void;
+  onClose: () => void;
   onSubmit: (reason: string) => Promise<string | null>;
 }) {
   const fieldId = useId();
@@ -313,12 +429,14 @@ function ReasonDialog({
       return;
     }
     setPending(true);
-    setFailure(await onSubmit(reason.trim()));
+    const refused = await onSubmit(reason.trim());
     setPending(false);
+    if (refused) setFailure(refused);
+    else onClose();
   }
 
   return (
-    <Dialog title={title} description={message} onClose={onCancel}>
+    <Dialog title={title} description={message} onClose={onClose}>
       <form onSubmit={submit}>
         <label htmlFor={fieldId} className="field-label mt-4">
           Reason
@@ -339,7 +457,7 @@ function ReasonDialog({
           </p>
         ) : null}
         <div className="mt-4 flex justify-end gap-2">
-          <button type="button" className="btn-quiet" onClick={onCancel}>
+          <button type="button" className="btn-quiet" onClick={onClose}>
             Cancel
           </button>
           <button type="submit" className="btn-primary" disabled={pending}>

@@ -56,7 +56,7 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
           <p className="mt-1 text-sm text-graphite-soft">
             <span className="figure">{cards.length}</span> deal{cards.length === 1 ? "" : "s"}
             {filtered ? " matching the filters" : ""}. Drag a card to move it; by keyboard, focus a card, press Space to pick it up,
-            the arrow keys to change column, Space to drop (Escape cancels).
+            the arrow keys to change column, Space to drop (Escape cancels); Enter opens the deal.
           </p>
         </div>
       </div>
@@ -76,7 +76,7 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
           </Link>
         ) : null}
       </form>
-      <BoardClient key={JSON.stringify([filter, limits])} cards={cards} stallDays={limits} />
+      <BoardClient key={JSON.stringify([filter, limits])} cards={cards} stallDays={limits} userId={member.userId} />
     </div>
   );
 }

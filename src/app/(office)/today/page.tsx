@@ -101,7 +101,7 @@ export default async function TodayPage() {
           total={q.stalled.total}
           shown={q.stalled.items.length}
           more={
-            <Link href="/board" className="text-copper underline-offset-2 hover:underline">
+            <Link href="/board" className="link">
               See them all on the Board
             </Link>
           }
@@ -118,7 +118,7 @@ export default async function TodayPage() {
           <h2 className="text-sm font-semibold uppercase tracking-wide text-graphite-soft">Waiting to join</h2>
           <p className="mt-1 text-graphite-soft">
             {invitations.length} invitation{invitations.length === 1 ? "" : "s"} not yet accepted.{" "}
-            <Link href="/settings/people" className="text-copper underline-offset-2 hover:underline">
+            <Link href="/settings/people" className="link">
               People
             </Link>
           </p>

@@ -62,7 +62,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
     <div className="space-y-6">
       {header}
       <p className="text-sm">
-        <Link href={`/deals/${job.dealId}`} className="text-copper underline-offset-2 hover:underline">
+        <Link href={`/deals/${job.dealId}`} className="link">
           Open the deal
         </Link>{" "}
         · its Timeline shows every change below.

@@ -104,7 +104,7 @@ function Result({ r, timeZone }: { r: Reconciliation; timeZone: string }) {
                     <Td>{d.detail}</Td>
                     <Td>
                       {d.dealId ? (
-                        <Link href={`/deals/${d.dealId}/money`} className="text-copper underline-offset-2 hover:underline">
+                        <Link href={`/deals/${d.dealId}/money`} className="link">
                           Money tab
                         </Link>
                       ) : (

@@ -95,7 +95,7 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
       <SettingsSection
         id="company-finance"
         title="Savings assumptions"
-        defaultsLabel="Use the default savings assumptions"
+        defaultsLabel="Use the defaults for the savings assumptions"
         onDefaults={applyFinanceDefaults}
         intro="Every new offer's savings, payback, ROI and NPV are figured with these, and the customer's page and proposal PDF state them. They are assumptions, not forecasts. Proposals already sent keep the figures they were made with; re-save an offer to figure it again."
       >
@@ -120,6 +120,7 @@ function SettingsSection(props: { id: string; title: string; defaultsLabel: stri
         <h2 id={props.id} className="text-lg font-semibold">
           {props.title}
         </h2>
+        {/* A longer name starts with the visible words (WCAG 2.5.3 Label in Name). */}
         <button type="button" className="btn-quiet" onClick={props.onDefaults} aria-label={props.defaultsLabel === "Use the defaults" ? undefined : props.defaultsLabel}>
           Use the defaults
         </button>
