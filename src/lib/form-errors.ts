@@ -1,4 +1,5 @@
-import type { FieldValues, Path, UseFormSetError } from "react-hook-form";
+import type { FieldErrors, FieldValues, Path, UseFormSetError } from "react-hook-form";
+import { notSavedMessage, relabel, type FieldLabels } from "@/lib/validation-messages";
 
 /** Puts server field errors back on the form's fields; false when none matched a field. */
 export function applyFieldErrors<T extends FieldValues>(
@@ -31,4 +32,23 @@ export function fieldErrorsToErrors(fields: Record<string, string[]> | undefined
   const out: PathErrors = {};
   for (const [k, v] of Object.entries(fields ?? {})) if (v[0]) out[k] = v[0];
   return out;
+}
+
+/** react-hook-form's errors as [path, message] pairs, in the form's order ("finance.years"). */
+export function formErrorList(errors: FieldErrors, prefix = ""): [string, string][] {
+  const out: [string, string][] = [];
+  for (const [key, node] of Object.entries(errors)) {
+    if (!node || typeof node !== "object" || key === "ref" || key === "types") continue;
+    const path = prefix ? `${prefix}.${key}` : key;
+    const message = (node as { message?: unknown }).message;
+    if (typeof message === "string" && message) out.push([path, message]);
+    else out.push(...formErrorList(node as FieldErrors, path));
+  }
+  return out;
+}
+
+/** A refused client-side check: each field's message named by the form's labels, and the status line. */
+export function refusedIssues(issues: { path: PropertyKey[]; message: string }[], labels: FieldLabels): { errors: PathErrors; text: string } {
+  const named = issues.map((i) => ({ path: i.path, message: relabel(i.path, i.message, labels) }));
+  return { errors: issuesToErrors(named), text: notSavedMessage(named.map((i) => [i.path.map(String).join("."), i.message]), labels) };
 }

@@ -7,7 +7,7 @@ import { env } from "@/env";
 import type { createCrewSchema, updateCrewSchema } from "@/lib/schemas/jobs";
 import { companyRowOrThrow } from "@/server/records";
 import { db, transaction } from "@/server/db";
-import { HttpError } from "@/server/errors";
+import { fieldError, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 
 export type CrewPerson = { membershipId: string; userId: string; name: string; email: string; status: "active" | "deactivated" };
@@ -123,7 +123,7 @@ async function assertNameFree(companyId: string, name: string, exceptId?: string
     .from(crew)
     .where(eq(crew.companyId, companyId));
   if (rows.some((r) => r.id !== exceptId && r.name.toLowerCase() === name.toLowerCase())) {
-    throw new HttpError(422, "validation_failed", "name: Another crew already has this name", { name: ["Another crew already has this name"] });
+    throw fieldError("name", "Another crew already has this name");
   }
 }
 
@@ -151,7 +151,7 @@ export async function updateCrew(member: Member, crewId: string, input: z.output
     const bad = memberIds.findIndex((id) => !ok.has(id));
     if (bad >= 0) {
       const message = found.some((f) => f.id === memberIds[bad]) ? "Only installers (role Installer crew) can join a crew" : "Unknown person";
-      throw new HttpError(422, "validation_failed", `memberIds.${bad}: ${message}`, { [`memberIds.${bad}`]: [message] });
+      throw fieldError(`memberIds.${bad}`, message);
     }
   }
   await transaction(async (tx) => {

@@ -24,7 +24,7 @@ import { dateInZone } from "@/lib/zoned-time";
 import { zoneForDays, withinDays } from "@/server/day-filters";
 import { db, transaction } from "@/server/db";
 import { dealAudience, visibleTo } from "@/server/deals";
-import { HttpError } from "@/server/errors";
+import { fieldError, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { activeDealOwners, moveDealStage } from "@/server/stages";
 import { recordEvent } from "@/server/timeline";
@@ -436,7 +436,7 @@ async function newOwnerOrThrow(member: Member, ownerUserId: string): Promise<{ i
   const [row] = await activeDealOwners(member.companyId, ownerUserId).limit(1);
   if (!row) {
     const message = "Pick an active rep, office manager, admin or owner of your company";
-    throw new HttpError(422, "validation_failed", `action.ownerUserId: ${message}`, { "action.ownerUserId": [message] });
+    throw fieldError("action.ownerUserId", message);
   }
   return row;
 }

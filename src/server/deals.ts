@@ -6,7 +6,7 @@ import { zipMismatch } from "@/engine/zip-codes";
 import type { householdSchema, leadSchema } from "@/lib/schemas/deal";
 import { db, transaction } from "@/server/db";
 import { dealColumns, visibleTo, type DealRow } from "@/server/deal-audience";
-import { HttpError, notFound } from "@/server/errors";
+import { fieldError, notFound } from "@/server/errors";
 import type { DealScope } from "@/server/deal-scope";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
@@ -61,7 +61,6 @@ async function checkUtilityAndPlan(companyId: string, utilityId: string | null |
   return { utilityId: plan.utilityId, ratePlanId: plan.id };
 }
 
-const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
 
 /**
  * Coordinates that contradict the ZIP code by more than MAX_ZIP_DISTANCE_KM (a dropped minus
@@ -71,7 +70,7 @@ function checkPositionAgainstZip(site: { postalCode: string; latitude: number; l
   const far = zipMismatch(site.postalCode, site.latitude, site.longitude);
   if (!far) return;
   const message = `${site.latitude}, ${site.longitude} is ${Math.round(far.distanceKm).toLocaleString("en-US")} km from ZIP ${far.zip} (${far.city}, ${far.region}): check the coordinates or the ZIP`;
-  throw new HttpError(422, "validation_failed", `latitude: ${message}`, { latitude: [message], longitude: [message] });
+  throw fieldError("latitude", message, ["longitude"]);
 }
 
 /** A new lead: the household and its deal, owned by the rep who created it. */

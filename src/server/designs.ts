@@ -9,7 +9,7 @@ import { getInverterOrThrow, getModuleOrThrow, listActiveInverters, listActiveMo
 import { db, transaction } from "@/server/db";
 import { inDealOrThrow, openDeal, type DealScope } from "@/server/deal-scope";
 import { getDealUsage } from "@/server/energy";
-import { HttpError } from "@/server/errors";
+import { fieldError, HttpError } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
@@ -53,7 +53,6 @@ export async function getDesignOrThrow(member: Member, designId: string): Promis
   return { ...row, document: parseDocument(row.document) };
 }
 
-const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
 
 /** Equipment of the design, checked against the company's catalog (422 naming the field). */
 export async function designEquipment(member: Member, moduleId: string, inverterId: string, fieldPrefix = "document."): Promise<{ mod: ModuleModel; inv: InverterModel }> {
@@ -263,7 +262,7 @@ export async function productionForDesign(
   }
   const weather = await loadStationWeather(member.companyId, stationId);
   const sys = engineSystem(doc.faces, counts, mod, inv, { inverterCount: doc.inverterCount, lossesPct: doc.lossesPct });
-  if (!sys) throw new HttpError(422, "validation_failed", "faceCounts: Place at least one module", { faceCounts: ["Place at least one module"] });
+  if (!sys) throw fieldError("faceCounts", "Place at least one module");
   const result = estimateProduction(weather, sys);
   const hourlyKwh = new Float64Array(result.hourlyAcW.length);
   for (let i = 0; i < hourlyKwh.length; i++) hourlyKwh[i] = result.hourlyAcW[i] / 1000;

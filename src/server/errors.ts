@@ -1,5 +1,6 @@
 import "server-only";
 import { ApiError } from "@/lib/api-client";
+import { namedMessage } from "@/lib/validation-messages";
 
 /**
  * An error with an HTTP status and a stable code, shown to the person as its message: the
@@ -8,6 +9,10 @@ import { ApiError } from "@/lib/api-client";
 export class HttpError extends ApiError {
   override name = "HttpError";
 }
+
+/** 422 on one field, its message naming the field in words (never its dotted path). */
+export const fieldError = (field: string, message: string, also: string[] = []) =>
+  new HttpError(422, "validation_failed", namedMessage(field, message), Object.fromEntries([field, ...also].map((f) => [f, [message]])));
 
 export const unauthorized = () => new HttpError(401, "unauthorized", "Sign in to continue.");
 export const forbidden = (what = "this") =>

@@ -19,7 +19,7 @@ import { db, transaction, type Tx } from "@/server/db";
 import { inDealOrThrow, openDeal, openDealOf, type DealScope } from "@/server/deal-scope";
 import { designEquipment, getDesignForDeal, jsonValue, productionForDesign } from "@/server/designs";
 import { getDealUsage } from "@/server/energy";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { fieldError, forbidden, HttpError, notFound } from "@/server/errors";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import { getPriceBook, getPriceBookRecord } from "@/server/price-book";
 import { getRatePlanOrThrow, type RatePlanRow } from "@/server/rate-plans";
@@ -139,7 +139,6 @@ export async function getOfferOrThrow(member: Member, offerId: string): Promise<
 
 // ── Computing an offer (always on the server, from stored data) ──────────────────────────
 
-const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
 
 function engineError(err: unknown): never {
   if (err instanceof PricingInputError) throw fieldError(err.path === "discountCents" ? "inputs.discountCents" : `inputs.${err.path}`, err.message.replace(/^[^:]+: /, ""));

@@ -103,7 +103,20 @@ export async function getInvitationOrThrow(companyId: string, invitationId: stri
   return row;
 }
 
-/** Sends an invitation e-mail with a single-use link; a newer invitation replaces an older one. */
+/** The role of the address's open invitation, if one is open. */
+async function openInvitationRole(companyId: string, email: string): Promise<Role | null> {
+  const [open] = await db()
+    .select({ role: invitation.role })
+    .from(invitation)
+    .where(and(eq(invitation.companyId, companyId), eq(invitation.email, email), isNull(invitation.acceptedAt), isNull(invitation.revokedAt), gt(invitation.expiresAt, new Date())))
+    .limit(1);
+  return open?.role ?? null;
+}
+
+/**
+ * Sends an invitation e-mail with a single-use link. A newer invitation replaces an open one
+ * only when the request says `replace` (409 invitation_open otherwise, naming both roles).
+ */
 export async function invitePerson(member: Member, input: z.output<typeof inviteSchema>): Promise<{ id: string }> {
   if (!assignableRoles(member.role).includes(input.role)) {
     throw new HttpError(403, "forbidden", "Only an owner can invite another owner.");
@@ -120,6 +133,14 @@ export async function invitePerson(member: Member, input: z.output<typeof invite
     throw new HttpError(409, "already_member", `${input.email} is already one of your company's people.`, {
       email: ["This person is already in your company"],
     });
+  }
+  const open = await openInvitationRole(member.companyId, input.email);
+  if (open && !input.replace) {
+    throw new HttpError(
+      409,
+      "invitation_open",
+      `An invitation for ${input.email} as ${ROLE_LABELS[open]} is open. Send again with replace to replace it with ${ROLE_LABELS[input.role]}.`,
+    );
   }
   await takeTurn("invitationCompany", member.companyId);
   await takeTurn("invitationEmail", emailKey(input.email), (wait) => `Several invitations went to ${input.email} already. Try again in ${wait}.`);

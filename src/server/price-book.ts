@@ -8,6 +8,7 @@ import { forbidden, HttpError, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
 import { listUtilities } from "@/server/utilities";
+import { namedMessage } from "@/lib/validation-messages";
 
 export type PriceBookRecord = {
   id: string;
@@ -55,7 +56,7 @@ async function checkIncentiveUtilities(companyId: string, book: PriceBook): Prom
   const known = new Set((await listUtilities(companyId)).map((u) => u.id));
   const fields = Object.fromEntries(named.filter((n) => !known.has(n.utilityId)).map((n) => [`incentives.${n.i}.utilityId`, ["Pick the utility from the list"]]));
   const first = Object.keys(fields)[0];
-  if (first) throw new HttpError(422, "validation_failed", `${first}: Pick the utility from the list`, fields);
+  if (first) throw new HttpError(422, "validation_failed", namedMessage(first, "Pick the utility from the list"), fields);
 }
 
 /**

@@ -8,6 +8,8 @@ import { engineFields, HttpError, isDatabaseDown, notFound } from "@/server/erro
 import { TooManyRequests } from "@/server/limits";
 import { DEFAULT_BODY_TYPES, guardCookieMutation, guardPublicMutation } from "@/server/request-guard";
 import { requireMember, type Member } from "@/server/session";
+// Also installs the plain-words error map for every zod parse on the server.
+import { namedMessage } from "@/lib/validation-messages";
 
 export type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
 
@@ -101,8 +103,10 @@ export function validationError(error: z.ZodError): HttpError {
     const key = issue.path.join(".") || "_";
     (fields[key] ??= []).push(issue.message);
   }
+  // The message names the field in words ("Period 2 — cents per kWh must be at least 0"), never
+  // its dotted path: forms show it, and name the field again with their own labels.
   const first = Object.entries(fields)[0];
-  const message = first ? `${first[0] === "_" ? "Input" : first[0]}: ${first[1][0]}` : "Invalid input.";
+  const message = first ? namedMessage(first[0], first[1][0]) : "The input is not valid.";
   return new HttpError(422, "validation_failed", message, fields);
 }
 

@@ -4,7 +4,7 @@ import type { z } from "zod";
 import { deal, ratePlan, utility } from "@/db/schema";
 import type { utilitySchema } from "@/lib/schemas/utility";
 import { db } from "@/server/db";
-import { HttpError, isDuplicateKey } from "@/server/errors";
+import { fieldError, HttpError, isDuplicateKey } from "@/server/errors";
 import { companyRowOrThrow } from "@/server/records";
 import type { Member } from "@/server/session";
 
@@ -31,7 +31,7 @@ export function getUtilityOrThrow(companyId: string, id: string): Promise<Utilit
 /** A utility a form names: one of the company's, else 422 on that field. */
 export async function utilityForField(companyId: string, id: string, field: string): Promise<UtilityRow> {
   return getUtilityOrThrow(companyId, id).catch((err: unknown) => {
-    throw err instanceof HttpError && err.status === 404 ? new HttpError(422, "validation_failed", `${field}: Pick the utility from the list`, { [field]: ["Pick the utility from the list"] }) : err;
+    throw err instanceof HttpError && err.status === 404 ? fieldError(field, "Pick the utility from the list") : err;
   });
 }
 

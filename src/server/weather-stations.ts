@@ -9,7 +9,7 @@ import { can } from "@/lib/permissions";
 import { WEATHER_FILE_MAX_BYTES, WEATHER_FILE_MAX_LABEL, type StationFields } from "@/lib/schemas/weather";
 import { db, transaction } from "@/server/db";
 import { openDealOf } from "@/server/deal-scope";
-import { forbidden, HttpError, notFound } from "@/server/errors";
+import { fieldError, forbidden, HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { storage } from "@/server/storage";
 
@@ -253,11 +253,11 @@ export async function createStation(member: Member, file: WeatherFileInput, fiel
   }
 
   const name = (fields.name ?? weather.site.name?.trim() ?? "").slice(0, 200);
-  if (!name) throw new HttpError(422, "validation_failed", "name: Give the station a name (the file has none).", { name: ["Give the station a name (the file has none)"] });
+  if (!name) throw fieldError("name", "Give the station a name (the file has none)");
   const attribution = fields.attribution ?? attributionFromFile(text, weather);
   if (!attribution) {
     const msg = "Say where the data comes from (source and licence); the file has no header to take it from";
-    throw new HttpError(422, "validation_failed", `attribution: ${msg}.`, { attribution: [msg] });
+    throw fieldError("attribution", msg);
   }
 
   const uploadId = crypto.randomUUID();

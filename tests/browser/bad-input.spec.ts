@@ -29,7 +29,7 @@ test("a signed-in form with bad input shows field errors", async ({ page }) => {
   await page.goto("/settings/people");
   await page.getByLabel("E-mail").fill("not an address");
   await page.getByRole("button", { name: "Send invitation" }).click();
-  await expect(page.getByText("Enter a valid e-mail address")).toBeVisible();
+  await expect(page.locator("#invite-email-error")).toContainText("Enter a valid e-mail address");
 });
 
 test("a malformed JSON body gets 400 with { error: { code, message } }; an invalid one gets 422 naming the field", async ({ request }) => {
@@ -43,4 +43,62 @@ test("a malformed JSON body gets 400 with { error: { code, message } }; an inval
   const body = await invalid.json();
   expect(body.error.code).toBe("validation_failed");
   expect(Object.keys(body.error.fields).sort()).toEqual(["email", "role"]);
+});
+
+// Validation messages name the field by its label and say what is wrong in words: no dotted
+// paths ("energy.periods.1.centsPerKwh"), no zod wording ("Too small", "received NaN").
+const RAW = /energy\.periods|plan\.|Too small|Invalid input|received NaN|expected number/;
+
+test("a rate plan's bad figures are named by their labels, on the screen and in the API's answer", async ({ page, request }) => {
+  await signIn(page, "admin@tallgrass.example");
+  await page.goto("/rate-plans/new");
+  await page.getByLabel("Utility").selectOption({ label: "Piedmont Electric Cooperative" });
+  await page.getByLabel("Plan name").fill(unique("Bad figures"));
+  await page.getByLabel("Fixed charge ($ / month)").fill("");
+  await page.getByRole("radio", { name: "Time-of-use" }).check();
+  await page.locator("#period-1-price").fill("-2");
+  await page.getByRole("button", { name: "Create rate plan" }).click();
+  const problems = page.getByRole("list", { name: "Problems" });
+  await expect(problems).toContainText("Period 2 — Price (¢/kWh) must be at least 0");
+  await expect(problems).toContainText("Fixed charge ($ / month) is required");
+  await expect(page.locator("main")).not.toContainText(RAW);
+
+  await apiSignIn(request, "admin@tallgrass.example");
+  const plans = (await (await request.get("/api/rate-plans")).json()).data as { utilityId: string; plan: { energy: { kind: string; periods?: { centsPerKwh: number }[] } } }[];
+  const tou = plans.find((p) => p.plan.energy.kind === "tou")!;
+  const plan = structuredClone(tou.plan);
+  plan.energy.periods![1].centsPerKwh = -2;
+  const res = await request.post("/api/rate-plans", { data: { utilityId: tou.utilityId, active: true, plan } });
+  expect(res.status()).toBe(422);
+  const { error } = await res.json();
+  expect(error.fields["plan.energy.periods.1.centsPerKwh"]).toEqual(["Period 2 — cents per kWh must be at least 0"]);
+  expect(error.message).toBe("Period 2 — cents per kWh must be at least 0");
+});
+
+test("an emptied latitude says the field is required, by its label, beside the Save button", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await page.goto("/deals");
+  await page.getByRole("link", { name: "Esposito household" }).click();
+  await page.getByLabel("Latitude (°N)").fill("");
+  await page.getByRole("button", { name: "Save household" }).click();
+  await expect(page.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Latitude (°N)");
+  await expect(page.locator("main")).not.toContainText(RAW);
+});
+
+test("company settings out of range are named by their labels in the message beside Save", async ({ page }) => {
+  await signIn(page, "owner@tallgrass.example");
+  await page.goto("/settings/company");
+  await page.getByLabel("Years the savings run").fill("5");
+  await page.getByRole("button", { name: "Save company settings" }).click();
+  await expect(page.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Years the savings run");
+  await expect(page.locator("main")).not.toContainText(RAW);
+});
+
+test("the price book names a bad figure by its row's label", async ({ page }) => {
+  await signIn(page, "admin@tallgrass.example");
+  await page.goto("/price-book");
+  await page.locator("#band-0-price").fill("");
+  await page.getByRole("button", { name: "Save changes" }).click();
+  await expect(page.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Band 1 price, $ per watt is required");
+  await expect(page.locator("main")).not.toContainText(RAW);
 });

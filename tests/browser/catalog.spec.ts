@@ -67,7 +67,7 @@ test("admin adds a module through the form; a physical slip is named on its fiel
   for (const [label, value] of values) await form.getByLabel(label, { exact: true }).fill(value);
   await form.getByRole("button", { name: "Add module" }).click();
   await expect(form.locator("#module-vmpV-error")).toContainText("must be below Voc");
-  await expect(form.getByRole("alert").filter({ hasText: "-97.5 %/°C is -97.5 %/°C of the 37.5 V Voc" })).toBeVisible();
+  await expect(form.locator(".field-error").filter({ hasText: "-97.5 %/°C is -97.5 %/°C of the 37.5 V Voc" })).toBeVisible();
   await form.getByLabel("Vmp (V)", { exact: true }).fill("31.2");
   await form.getByLabel("Voc coefficient unit").selectOption("mV/°C");
   await form.getByRole("button", { name: "Add module" }).click();

@@ -11,7 +11,7 @@ test("the rep corrects the household and sets the rate plan; bad input is named 
 
   await page.getByLabel("ZIP").fill("2726");
   await page.getByRole("button", { name: "Save household" }).click();
-  await expect(page.getByText("Enter a ZIP code like 27401")).toBeVisible();
+  await expect(page.locator("#postalCode-error")).toHaveText("Enter a ZIP code like 27401");
   await page.getByLabel("ZIP").fill("27262");
   await page.getByLabel("Phone").fill("336-555-0199");
   await page.getByRole("button", { name: "Save household" }).click();

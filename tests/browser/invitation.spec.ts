@@ -61,8 +61,10 @@ test("an admin changes a role and deactivates a person, who can no longer sign i
   await page.reload();
   const row = page.getByTestId(`person-${email}`);
   await row.getByRole("combobox").selectOption("office_manager");
+  await page.getByRole("dialog").getByRole("button", { name: "Make Office manager" }).click();
   await expect(page.getByRole("status")).toContainText("Sol Ferreira is now Office manager");
   await row.getByRole("button", { name: "Deactivate" }).click();
+  await page.getByRole("dialog").getByRole("button", { name: "Deactivate Sol Ferreira" }).click();
   await expect(page.getByRole("status")).toContainText("deactivated");
 
   // Their open session ends at once, and signing in again is refused with the reason.

@@ -43,7 +43,7 @@ test("an overlapping or missing value is named beside its field and nothing is s
   await page.goto("/price-book");
   await page.getByLabel("Band 1 price, $ per watt").fill("");
   await page.getByRole("button", { name: /Save/ }).click();
-  await expect(page.locator("#band-0-price-error")).toHaveText("must be a number");
+  await expect(page.locator("#band-0-price-error")).toHaveText("Band 1 price, $ per watt is required");
   expect(await savedBandPrice(0)).toBe(before);
 });
 

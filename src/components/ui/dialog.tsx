@@ -75,26 +75,34 @@ export function ConfirmButton({
       <button type="button" className={className ?? (danger ? "btn-danger" : "btn-quiet")} disabled={disabled} aria-label={ariaLabel} onClick={() => setOpen(true)}>
         {label}
       </button>
-      {open ? (
-        <Dialog title={title} description={message} onClose={() => setOpen(false)}>
-          <div className="mt-4 flex justify-end gap-2">
-            <button type="button" className="btn-quiet" onClick={() => setOpen(false)}>
-              Cancel
-            </button>
-            <button
-              type="button"
-              className={danger ? "btn-danger" : "btn-primary"}
-              autoFocus
-              onClick={() => {
-                setOpen(false);
-                onConfirm();
-              }}
-            >
-              {confirmLabel}
-            </button>
-          </div>
-        </Dialog>
-      ) : null}
+      {open ? <ConfirmDialog title={title} message={message} confirmLabel={confirmLabel} danger={danger} onConfirm={onConfirm} onClose={() => setOpen(false)} /> : null}
     </>
+  );
+}
+
+/**
+ * The question itself, for an action that starts elsewhere (a picked option, a submitted
+ * form): Cancel, or the confirm button that runs `onConfirm`. Either closes it.
+ */
+export function ConfirmDialog(props: { title: string; message: ReactNode; confirmLabel: string; danger?: boolean; onConfirm: () => void; onClose: () => void }) {
+  return (
+    <Dialog title={props.title} description={props.message} onClose={props.onClose}>
+      <div className="mt-4 flex justify-end gap-2">
+        <button type="button" className="btn-quiet" onClick={props.onClose}>
+          Cancel
+        </button>
+        <button
+          type="button"
+          className={props.danger ? "btn-danger" : "btn-primary"}
+          autoFocus
+          onClick={() => {
+            props.onClose();
+            props.onConfirm();
+          }}
+        >
+          {props.confirmLabel}
+        </button>
+      </div>
+    </Dialog>
   );
 }

@@ -89,23 +89,5 @@ export function optionsOf<T extends string>(values: readonly T[], labels: Record
   return values.map((value) => ({ value, label: labels[value] }));
 }
 
-export type Notice = { tone: "error" | "success" | "info"; text: string };
-
-/** A form-level message (error or notice), read out when it appears. */
-export function FormMessage({ tone, children }: { tone: Notice["tone"]; children: ReactNode }) {
-  const styles = {
-    error: "border-danger/30 bg-danger-light text-danger",
-    success: "border-sage/30 bg-sage-light text-graphite",
-    info: "border-paper-line bg-paper-deep text-graphite",
-  }[tone];
-  return (
-    <div role={tone === "error" ? "alert" : "status"} aria-live="polite" className={`rounded-md border px-3 py-2 text-sm ${styles}`}>
-      {children}
-    </div>
-  );
-}
-
-/** The status message of a screen: nothing, or the last outcome. */
-export function StatusMessage({ notice }: { notice: Notice | null }) {
-  return notice ? <FormMessage tone={notice.tone}>{notice.text}</FormMessage> : null;
-}
+// The status line of a save lives in its own (client) module; forms import it from here too.
+export { FormMessage, SaveRow, StatusMessage, type Notice } from "./status-message";

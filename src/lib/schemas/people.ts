@@ -40,6 +40,8 @@ export const inviteSchema = z.object({
   email,
   name: plainText().trim().max(200).optional(),
   role: roleSchema,
+  /** An open invitation to the address is replaced (its link stops working) only when this says so. */
+  replace: z.boolean().optional(),
 });
 export type InviteInput = z.input<typeof inviteSchema>;
 

@@ -16,11 +16,11 @@ const idString = z
   .max(60)
   .regex(/^[a-z0-9][a-z0-9-]*$/, "use lower-case letters, digits and dashes");
 const nameString = plainText().trim().min(1, "is required").max(120);
-const cents = z.number({ error: "must be a number" }).int("must be whole cents").min(0, "must not be negative").max(100_000_000);
+const cents = z.number().int("must be whole cents").min(0, "must not be negative").max(100_000_000);
 
 /** Cents per watt DC with at most two decimals (e.g. 287.5 = $2.875/W). */
 export const centsPerWattDcSchema = z
-  .number({ error: "must be a number" })
+  .number()
   .finite()
   .min(0, "must not be negative")
   .max(10_000, "is above $100 per watt")
@@ -31,8 +31,8 @@ export const centsPerWattDcSchema = z
  * `centsPerWattDc` for every watt. The last band has `maxWatts: null` (no upper limit).
  */
 export const priceBandSchema = z.object({
-  minWatts: z.number({ error: "must be a number" }).int("must be whole watts").min(0, "must not be negative"),
-  maxWatts: z.number({ error: "must be a number" }).int("must be whole watts").positive("must be above 0").nullable(),
+  minWatts: z.number().int("must be whole watts").min(0, "must not be negative"),
+  maxWatts: z.number().int("must be whole watts").positive("must be above 0").nullable(),
   centsPerWattDc: centsPerWattDcSchema,
 });
 
@@ -57,7 +57,7 @@ export const lineItemSchema = z.object({ id: idString, name: nameString, amountC
  */
 export const discountLimitSchema = z.object({
   maxCents: cents.nullable(),
-  maxPct: z.number({ error: "must be a number" }).finite().min(0, "must not be negative").max(100, "must be at most 100").nullable(),
+  maxPct: z.number().finite().min(0, "must not be negative").max(100, "must be at most 100").nullable(),
 });
 export type DiscountLimit = z.output<typeof discountLimitSchema>;
 
@@ -90,7 +90,7 @@ export const depositPolicySchema = z.discriminatedUnion("kind", [
   z
     .object({
       kind: z.literal("percent"),
-      pct: z.number({ error: "must be a number" }).finite().min(0, "must not be negative").max(100, "must be at most 100"),
+      pct: z.number().finite().min(0, "must not be negative").max(100, "must be at most 100"),
       minCents: cents,
       maxCents: cents,
     })

@@ -6,7 +6,7 @@ import { formatIsoDateLong } from "@/lib/proposal-snapshot";
 import { can } from "@/lib/permissions";
 import { hiddenWithParent } from "@/server/records";
 import { db, transaction } from "@/server/db";
-import { HttpError, notFound } from "@/server/errors";
+import { fieldError, HttpError, notFound } from "@/server/errors";
 import { normalizePhoto } from "@/server/photos";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
@@ -33,7 +33,7 @@ export async function setChecklistItem(member: Member, jobId: string, input: { i
     assertJobOpen(row);
     const items = (row.checklist ?? []);
     const item = items.find((i) => i.id === input.itemId);
-    if (!item) throw new HttpError(422, "validation_failed", "itemId: This item is not on the job's checklist", { itemId: ["This item is not on the job's checklist"] });
+    if (!item) throw fieldError("itemId", "This item is not on the job's checklist");
     if (input.done && !item.doneAt) {
       item.doneAt = new Date().toISOString();
       item.doneByUserId = member.userId;
@@ -94,7 +94,7 @@ async function installedTiming(member: Member, current: JobRecord, earlyReason: 
   }
   if (!earlyReason) {
     const message = `Say why the job was installed before ${when}.`;
-    throw new HttpError(422, "validation_failed", `earlyReason: ${message}`, { earlyReason: [message] });
+    throw fieldError("earlyReason", message);
   }
   return ` before ${when}, confirmed by the office: ${earlyReason}`;
 }

@@ -8,7 +8,7 @@ import { can } from "@/lib/permissions";
 import { dateInZone, todayInZone } from "@/lib/zoned-time";
 import { getCompanySettings } from "@/server/company-settings";
 import { db, transaction, type Tx } from "@/server/db";
-import { HttpError, notFound } from "@/server/errors";
+import { fieldError, HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
 import type { JobRecord, JobView } from "@/lib/job-packet";
@@ -71,7 +71,7 @@ export function jobStageMoves(before: Pick<JobRecord, DateFieldKey>, after: Pick
 /** Dates that record what happened (not plans): never after the company's today. */
 const RECORD_FIELDS = ["surveyDoneOn", "permitSubmittedOn", "permitApprovedOn", "interconnectionSubmittedOn", "interconnectionApprovedOn", "inspectionPassedOn", "ptoOn"] as const;
 
-const refuse = (field: keyof JobFields, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
+const refuse = (field: keyof JobFields, message: string) => fieldError(field, message);
 
 /**
  * The rules a change must keep, on the merged record (a field may be sent alone): records not in
@@ -130,7 +130,7 @@ export async function updateJob(member: Member, jobId: string, fields: JobFields
   const rules = { today: todayInZone(timeZone, now), timeZone, windowEnd: await cancelWindowEndOf(member.companyId, current) };
   if (fields.crewId) {
     const [c] = await db().select({ id: crew.id }).from(crew).where(and(eq(crew.id, fields.crewId), eq(crew.companyId, member.companyId))).limit(1);
-    if (!c) throw new HttpError(422, "validation_failed", "crewId: Pick a crew from the list", { crewId: ["Pick a crew from the list"] });
+    if (!c) throw fieldError("crewId", "Pick a crew from the list");
   }
   const moved: { to: Stage }[] = [];
   await transaction(async (tx) => {

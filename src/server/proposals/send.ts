@@ -16,7 +16,7 @@ import ProposalSentEmail from "@emails/proposal-sent";
 import { transaction, type Tx } from "@/server/db";
 import { openDeal, type DealScope } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
-import { forbidden, HttpError } from "@/server/errors";
+import { fieldError, forbidden, HttpError } from "@/server/errors";
 import { sendEmail } from "@/server/mail";
 import { listOffers } from "@/server/offers";
 import { validationError } from "@/server/route";
@@ -30,7 +30,6 @@ import { labelOf } from "./rows";
 
 // ── Freezing the offers ─────────────────────────────────────────────────────────────────────
 
-const fieldError = (field: string, message: string) => new HttpError(422, "validation_failed", `${field}: ${message}`, { [field]: [message] });
 
 /**
  * Everything the snapshot copies, taken from the chosen offers themselves: their figures and

@@ -63,7 +63,7 @@ describe("PATCH /api/companies/[id]", () => {
     const body = (await res.json()) as { error: { code: string; message: string; fields: Record<string, string[]> } };
     expect(body.error.code).toBe("validation_failed");
     expect(Object.keys(body.error.fields)).toEqual(["stallDays.survey"]);
-    expect(body.error.message).toMatch(/^stallDays\.survey: Whole days from 1 to 365/);
+    expect(body.error.message).toMatch(/^Survey: Whole days from 1 to 365/);
     expect((await getCompanySettings(owner.companyId)).name).toBe("Route Settings Solar");
   });
 });

@@ -12,6 +12,7 @@ import { createRatePlan } from "@/server/rate-plans";
 import type { Member } from "@/server/session";
 import { addMember, newCompany, newUtility } from "../support/fixtures";
 import { signedInHeaders } from "../support/sign-in";
+import { labelOf } from "@/lib/validation-messages";
 
 type Route = (req: NextRequest, ctx: { params: Promise<{ id: string }> }) => Promise<Response>;
 type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string[]> } };
@@ -47,7 +48,8 @@ async function refusedNaming(res: Response, field: string): Promise<void> {
   const body = (await res.json()) as ErrorBody;
   expect(body.error.code).toBe("validation_failed");
   expect(Object.keys(body.error.fields ?? {})).toContain(field);
-  expect(body.error.message.startsWith(`${field}:`)).toBe(true);
+  // The message names the field in words, never by its dotted path.
+  expect(body.error.message.startsWith(labelOf(field))).toBe(true);
 }
 
 const storedHousehold = async () => (await db().select().from(household).where(eq(household.id, householdId)))[0];

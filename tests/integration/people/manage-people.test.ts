@@ -50,12 +50,23 @@ describe("invitations", () => {
     const email = uniqueEmail("twice");
     await invitePerson(owner, { email, role: "crew" });
     const first = tokenFrom((await latestMailTo(email)).html);
-    const { id } = await invitePerson(owner, { email, role: "office_manager" });
+    const { id } = await invitePerson(owner, { email, role: "office_manager", replace: true });
     const second = tokenFrom((await latestMailTo(email)).html);
     expect((await findOpenInvitation(first)).state).toBe("revoked");
     expect((await findOpenInvitation(second)).state).toBe("open");
     await revokeInvitation(owner, id);
     expect((await findOpenInvitation(second)).state).toBe("revoked");
+  });
+
+  it("replaces an open invitation only when asked to: 409 invitation_open naming both roles, nothing sent", async () => {
+    const owner = await newCompany();
+    const email = uniqueEmail("open");
+    await invitePerson(owner, { email, role: "crew" });
+    const first = tokenFrom((await latestMailTo(email)).html);
+    const err = await rejects(invitePerson(owner, { email, role: "admin" }), 409, "invitation_open");
+    expect(err.message).toBe(`An invitation for ${email} as Installer crew is open. Send again with replace to replace it with Admin.`);
+    expect(tokenFrom((await latestMailTo(email)).html)).toBe(first);
+    expect((await findOpenInvitation(first)).state).toBe("open");
   });
 
   it("refuses an address that already has an account, and owner invitations from admins", async () => {

@@ -3,6 +3,7 @@ import type { UseFormReturn } from "react-hook-form";
 import { Field, SelectField } from "@/components/ui/field";
 import type { HouseholdInput } from "@/lib/schemas/deal";
 import { numberFromField } from "@/lib/schemas/text";
+import type { FieldLabels } from "@/lib/validation-messages";
 import { SitePosition } from "./site-position";
 
 export type UtilityChoices = { utilities: { id: string; name: string }[]; plans: { id: string; name: string; utilityId: string }[] };
@@ -71,3 +72,22 @@ export function HouseholdFields({ form }: { form: UseFormReturn<HouseholdInput> 
     </>
   );
 }
+
+/** The household's labels as the fields show them, for messages that name a field. */
+export const HOUSEHOLD_LABELS: FieldLabels = {
+  name: "Household name",
+  contactName: "Main contact",
+  email: "E-mail",
+  phone: "Phone",
+  secondContactName: "Second contact",
+  secondContactEmail: "Second contact e-mail",
+  secondContactPhone: "Second contact phone",
+  street: "Street address",
+  city: "City",
+  region: "State",
+  postalCode: "ZIP",
+  latitude: "Latitude (°N)",
+  longitude: "Longitude (°E)",
+  utilityId: "Utility",
+  ratePlanId: "Rate plan",
+};

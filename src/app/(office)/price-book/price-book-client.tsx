@@ -1,7 +1,7 @@
 "use client";
 import { useMemo, useState, type ReactNode } from "react";
 import type { Role } from "@/lib/enums";
-import { FormMessage, SelectField, StatusMessage } from "@/components/ui/field";
+import { FormMessage, SaveRow, SelectField, type Notice } from "@/components/ui/field";
 import { RadioGroup } from "@/components/ui/radio-group";
 import { useSave } from "@/components/ui/use-save";
 import { formatDateTime } from "@/lib/format";
@@ -20,7 +20,8 @@ import {
 } from "@/lib/schemas/price-book";
 import { MoneyInput, NumberInput, PercentInput } from "@/components/ui/number-input";
 import { FitTable } from "@/components/ui/table";
-import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
+import { fieldErrorsToErrors, refusedIssues, type PathErrors } from "@/lib/form-errors";
+import type { FieldLabels } from "@/lib/validation-messages";
 
 const ADDER_KIND_LABELS: Record<AdderKind, string> = { per_watt: "per watt DC", per_module: "per module", fixed: "per job" };
 type Amount = PriceBookIncentive["amount"];
@@ -53,6 +54,43 @@ type BookEditor = {
 
 type UtilityOption = { id: string; name: string };
 
+/** The editor's labels by the book's paths, for the messages that name a field. */
+const PRICE_BOOK_LABELS: FieldLabels = {
+  "bands.#.minWatts": "Band {n} start, kW DC",
+  "bands.#.maxWatts": "Band {n} up to, kW DC",
+  "bands.#.centsPerWattDc": "Band {n} price, $ per watt",
+  "adders.#": "Adder {n}",
+  "adders.#.id": "name",
+  "adders.#.name": "name",
+  "adders.#.centsPerWattDc": "$ per watt",
+  "adders.#.centsPerModule": "$ per module",
+  "adders.#.amountCents": "$ per job",
+  "lineItems.#": "Line item {n}",
+  "lineItems.#.id": "name",
+  "lineItems.#.name": "name",
+  "lineItems.#.amountCents": "price ($)",
+  ...Object.fromEntries(LIMITED_ROLES.flatMap((role) => [
+    [`discountLimits.${role}.maxCents`, `${ROLE_LABELS[role]} discount up to ($)`],
+    [`discountLimits.${role}.maxPct`, `${ROLE_LABELS[role]} discount up to (%)`],
+  ])),
+  "incentives.#": "Incentive {n}",
+  "incentives.#.id": "name",
+  "incentives.#.name": "name",
+  "incentives.#.startDate": "from",
+  "incentives.#.endDate": "until",
+  "incentives.#.timing.year": "in year",
+  "incentives.#.eligibility.minKwDc": "min size (kW DC)",
+  "incentives.#.eligibility.maxKwDc": "max size (kW DC)",
+  "incentives.#.amount.centsPerWattDc": "$ per watt",
+  "incentives.#.amount.capCents": "cap ($)",
+  "incentives.#.amount.pct": "percent (%)",
+  "incentives.#.amount.amountCents": "amount ($)",
+  "deposit.amountCents": "Deposit ($)",
+  "deposit.pct": "Deposit percent (%)",
+  "deposit.minCents": "Deposit at least ($)",
+  "deposit.maxCents": "Deposit at most ($)",
+};
+
 export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; role: Role; savedAt: string | null; savedBy: string | null; today: string; timeZone: string; utilities: UtilityOption[] }) {
   const [doc, setDoc] = useState<PriceBook>(props.initial);
   const [errors, setErrors] = useState<PathErrors>({});
@@ -61,6 +99,7 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
   const { save: send, pending, notice, setNotice } = useSave<PriceBook, { updatedAt: string; updatedByName: string | null }>({
     request: (json) => ({ url: "/api/price-books", method: "POST", json }),
     success: "Price book saved.",
+    labels: PRICE_BOOK_LABELS,
     onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
     onSaved: (record) => {
       setErrors({});
@@ -98,17 +137,17 @@ export function PriceBookClient(props: { initial: PriceBook; canEdit: boolean; r
     setNotice(null);
     const parsed = priceBookSchema.safeParse(doc);
     if (!parsed.success) {
-      setErrors(issuesToErrors(parsed.error.issues));
-      setNotice({ tone: "error", text: `Not saved: ${parsed.error.issues.length} field(s) need attention.` });
+      const refused = refusedIssues(parsed.error.issues, PRICE_BOOK_LABELS);
+      setErrors(refused.errors);
+      setNotice({ tone: "error", text: refused.text });
       return;
     }
     send(parsed.data);
   }
 
   return (
-    <div className="mt-6 space-y-6">
-      <SaveBar saved={saved} timeZone={props.timeZone} edit={edit} pending={pending} dirty={dirty} onSave={save} />
-      <StatusMessage notice={notice} />
+    <div className="mt-6 space-y-6" data-edit-scope>
+      <SaveBar saved={saved} timeZone={props.timeZone} edit={edit} pending={pending} dirty={dirty} onSave={save} notice={notice} />
       {errors._ ? <FormMessage tone="error">{errors._}</FormMessage> : null}
 
       <fieldset disabled={!edit || pending} className="space-y-6">
@@ -516,16 +555,18 @@ function PriceCheckTable({ price }: { price: OfferPrice }) {
 }
 
 /** When the book was last saved and by whom, and the save button. */
-function SaveBar({ saved, timeZone, edit, pending, dirty, onSave }: { saved: { at: string | null; by: string | null }; timeZone: string; edit: boolean; pending: boolean; dirty: boolean; onSave: () => void }) {
+function SaveBar({ saved, timeZone, edit, pending, dirty, onSave, notice }: { saved: { at: string | null; by: string | null }; timeZone: string; edit: boolean; pending: boolean; dirty: boolean; onSave: () => void; notice: Notice | null }) {
   return (
     <div className="flex flex-wrap items-center justify-between gap-3">
       <p className="text-sm text-graphite-soft" data-testid="price-book-saved">
         {saved.at ? `Last saved ${formatDateTime(new Date(saved.at), timeZone)}${saved.by ? ` by ${saved.by}` : ""}.` : "Not set up yet: offers use the starting values below until it is saved."}
       </p>
       {edit ? (
-        <button type="button" className="btn-primary" onClick={onSave} disabled={pending}>
-          {pending ? "Saving…" : dirty ? "Save changes" : "Save price book"}
-        </button>
+        <SaveRow notice={notice}>
+          <button type="button" className="btn-primary" onClick={onSave} disabled={pending}>
+            {pending ? "Saving…" : dirty ? "Save changes" : "Save price book"}
+          </button>
+        </SaveRow>
       ) : null}
     </div>
   );

@@ -1,7 +1,7 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useMemo, useState, type ReactNode } from "react";
-import { FormMessage, SelectField, StatusMessage } from "@/components/ui/field";
+import { FormMessage, SaveRow, SelectField } from "@/components/ui/field";
 import { RadioGroup } from "@/components/ui/radio-group";
 import { useSave } from "@/components/ui/use-save";
 import { EngineInputError } from "@/engine/errors";
@@ -9,8 +9,9 @@ import { ratePlanSchema, touPeriodByHour, type AnnualBill, type RatePlan } from 
 import { MONTH_START_DAY, weekdayOfJanuaryFirst } from "@/engine/year-calendar";
 import { PREVIEW_MONTHLY_KWH, ratePlanRecordSchema } from "@/lib/schemas/rate-plan";
 import { MoneyInput, NumberInput } from "@/components/ui/number-input";
-import { fieldErrorsToErrors, issuesToErrors, type PathErrors } from "@/lib/form-errors";
-import { ALL_MONTHS, compensationTemplate, energyTemplate, type EditorRecord } from "./plan-templates";
+import { fieldErrorsToErrors, refusedIssues, type PathErrors } from "@/lib/form-errors";
+import { namedMessage, relabel } from "@/lib/validation-messages";
+import { ALL_MONTHS, compensationTemplate, energyTemplate, RATE_PLAN_LABELS, type EditorRecord } from "./plan-templates";
 import { sampleBill } from "./sample-bill";
 
 type Tou = Extract<RatePlan["energy"], { kind: "tou" }>;
@@ -40,6 +41,7 @@ export function RatePlanEditor({ id, initial, canEdit, utilities }: { id: string
     // A new plan opens at its own address; a saved one stays here.
     success: id ? "Rate plan saved." : undefined,
     refresh: id !== null,
+    labels: RATE_PLAN_LABELS,
     onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
     onSaved: (saved) => {
       setErrors({});
@@ -61,8 +63,9 @@ export function RatePlanEditor({ id, initial, canEdit, utilities }: { id: string
     setNotice(null);
     const parsed = ratePlanRecordSchema.safeParse(record);
     if (!parsed.success) {
-      setErrors(issuesToErrors(parsed.error.issues));
-      setNotice({ tone: "error", text: "Not saved: fix the fields listed below." });
+      const refused = refusedIssues(parsed.error.issues, RATE_PLAN_LABELS);
+      setErrors(refused.errors);
+      setNotice({ tone: "error", text: refused.text });
       return;
     }
     send(parsed.data as EditorRecord);
@@ -72,8 +75,7 @@ export function RatePlanEditor({ id, initial, canEdit, utilities }: { id: string
 
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-      <div className="space-y-6">
-        <StatusMessage notice={notice} />
+      <div className="space-y-6" data-edit-scope>
         {errorList.length > 0 ? <ProblemList errorList={errorList} /> : null}
         <fieldset disabled={!canEdit || pending} className="space-y-6">
           <legend className="sr-only">Rate plan</legend>
@@ -84,9 +86,11 @@ export function RatePlanEditor({ id, initial, canEdit, utilities }: { id: string
           <ExportCard record={record} canEdit={canEdit} err={err} update={update} />
         </fieldset>
         {canEdit ? (
-          <button type="button" className="btn-primary" onClick={save} disabled={pending}>
-            {pending ? "Saving…" : id ? "Save rate plan" : "Create rate plan"}
-          </button>
+          <SaveRow notice={notice}>
+            <button type="button" className="btn-primary" onClick={save} disabled={pending}>
+              {pending ? "Saving…" : id ? "Save rate plan" : "Create rate plan"}
+            </button>
+          </SaveRow>
         ) : (
           <p className="text-sm text-graphite-soft">Only an owner or admin can change rate plans.</p>
         )}
@@ -294,7 +298,7 @@ function Preview({ plan }: { plan: RatePlan }) {
       // The name does not change the bill; an unnamed draft still previews.
       return { bill: sampleBill({ ...plan, name: plan.name.trim() || "draft" }) };
     } catch (e) {
-      if (e instanceof EngineInputError) return { problems: e.issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)) };
+      if (e instanceof EngineInputError) return { problems: e.issues.map((i) => namedMessage(`plan.${i.path}`, relabel(`plan.${i.path}`, i.message, RATE_PLAN_LABELS), RATE_PLAN_LABELS)) };
       return { problems: ["This plan cannot be billed."] };
     }
   }, [plan]);
@@ -455,14 +459,12 @@ function SeasonMonths({ s, season, err, update }: { s: number; season: Season; e
   );
 }
 
-/** Every field error at once, named by its path in the plan. */
+/** Every field error at once, each naming its field as the editor labels it. */
 function ProblemList({ errorList }: { errorList: [string, string][] }) {
   return (
     <ul className="rounded-md border border-danger/30 bg-danger-light px-4 py-2 text-sm text-danger" aria-label="Problems">
       {errorList.map(([path, message]) => (
-        <li key={path}>
-          <span className="figure">{path.replace(/^plan\./, "")}</span>: {message}
-        </li>
+        <li key={path}>{namedMessage(path, message, RATE_PLAN_LABELS)}</li>
       ))}
     </ul>
   );

@@ -1,8 +1,8 @@
 "use client";
 import { useState } from "react";
-import { StatusMessage } from "@/components/ui/field";
+import { SaveRow } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
-import { UtilityPlanSelects, type UtilityChoices, type UtilityPick } from "../household-fields";
+import { HOUSEHOLD_LABELS as UTILITY_LABELS, UtilityPlanSelects, type UtilityChoices, type UtilityPick } from "../household-fields";
 
 type Utility = UtilityPick;
 
@@ -12,6 +12,7 @@ export function UtilityForm(props: Utility & { dealId: string; choices: UtilityC
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const save = useSave<Utility>({
     request: (json) => ({ url: `/api/deals/${props.dealId}/utility`, method: "PUT", json }),
+    labels: UTILITY_LABELS,
     success: "Saved.",
     onFieldErrors: setErrors,
     onSaved: () => setErrors({}),
@@ -25,15 +26,10 @@ export function UtilityForm(props: Utility & { dealId: string; choices: UtilityC
         save.save(utility);
       }}
     >
-      <StatusMessage notice={save.notice} />
       <fieldset disabled={props.readOnly || save.pending} className="space-y-3">
         <UtilityPlanSelects choices={props.choices} value={utility} onChange={setUtility} errors={{ utilityId: errors.utilityId?.[0], ratePlanId: errors.ratePlanId?.[0] }} />
       </fieldset>
-      {props.readOnly ? null : (
-        <button type="submit" className="btn-quiet" disabled={save.pending}>
-          {save.pending ? "Saving…" : "Save utility and plan"}
-        </button>
-      )}
+      {props.readOnly ? null : <SaveRow notice={save.notice} submit={{ label: "Save utility and plan", pending: save.pending, quiet: true }} />}
     </form>
   );
 }

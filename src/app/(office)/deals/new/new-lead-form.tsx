@@ -2,23 +2,27 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useForm, type UseFormReturn } from "react-hook-form";
-import { SelectField, StatusMessage } from "@/components/ui/field";
+import { SaveRow, SelectField } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { LEAD_SOURCES, leadSchema, type HouseholdInput, type LeadInput } from "@/lib/schemas/deal";
-import { HouseholdFields, UtilityPlanSelects, type UtilityChoices } from "../household-fields";
+import { plainError } from "@/lib/validation-messages";
+import { HOUSEHOLD_LABELS, HouseholdFields, UtilityPlanSelects, type UtilityChoices } from "../household-fields";
 
 type Site = { name: string; street: string; city: string; region: string; postalCode: string; latitude: number; longitude: number };
 
 const SOURCE_OPTIONS = LEAD_SOURCES.map((s) => ({ value: s, label: s }));
 
+const LEAD_LABELS = { ...HOUSEHOLD_LABELS, source: "Lead source" };
+
 export function NewLeadForm({ choices, sites }: { choices: UtilityChoices; sites: Site[] }) {
   const router = useRouter();
-  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema), defaultValues: { region: "NC", source: "Referral", utilityId: "", ratePlanId: "" } });
+  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema, { error: plainError(LEAD_LABELS) }), defaultValues: { region: "NC", source: "Referral", utilityId: "", ratePlanId: "" } });
   const { register, setValue, formState, watch } = form;
   const errors = formState.errors;
   const save = useSave<LeadInput, { dealId: string }, LeadInput>({
     request: (json) => ({ url: "/api/deals", method: "POST", json }),
     setError: form.setError,
+    labels: LEAD_LABELS,
     refresh: false,
     onSaved: ({ dealId }) => router.push(`/deals/${dealId}/energy`),
   });
@@ -30,8 +34,7 @@ export function NewLeadForm({ choices, sites }: { choices: UtilityChoices; sites
   }
 
   return (
-    <form onSubmit={form.handleSubmit(save.saveAndWait)} noValidate className="card mt-6 space-y-6 p-5">
-      <StatusMessage notice={save.notice} />
+    <form onSubmit={form.handleSubmit(save.saveAndWait, save.invalid)} noValidate className="card mt-6 space-y-6 p-5">
       <HouseholdFields form={form as unknown as UseFormReturn<HouseholdInput>} />
       {sites.length > 0 ? (
         <SelectField
@@ -59,9 +62,7 @@ export function NewLeadForm({ choices, sites }: { choices: UtilityChoices; sites
         />
         <SelectField id="source" label="Lead source" options={SOURCE_OPTIONS} {...register("source")} />
       </fieldset>
-      <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
-        {formState.isSubmitting ? "Saving…" : "Create lead and add bills"}
-      </button>
+      <SaveRow notice={save.notice} submit={{ label: "Create lead and add bills", pending: formState.isSubmitting }} />
     </form>
   );
 }

@@ -1,7 +1,8 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { describedBy, Field, FieldShell, SelectField, StatusMessage } from "@/components/ui/field";
+import { describedBy, Field, FieldShell, SaveRow, SelectField } from "@/components/ui/field";
+import { plainError, type FieldLabels } from "@/lib/validation-messages";
 import { useSave } from "@/components/ui/use-save";
 import type { Stage } from "@/lib/enums";
 import { STAGE_LABELS } from "@/lib/stages";
@@ -13,6 +14,24 @@ function installHint(firstInstallDay: string | null, waitsForPermit: boolean): s
   const window = firstInstallDay ? `The buyer's right to cancel ends first: the earliest install day is ${longDate(firstInstallDay)}. ` : "";
   return window + (waitsForPermit ? "Kept; the deal moves to Install booked once the permit is approved." : "With an approved permit, moves the deal to Install booked.");
 }
+
+/** The form's labels, for the messages that name a field. */
+const JOB_LABELS = {
+  crewId: "Crew",
+  surveyDate: "Site survey (planned)",
+  surveyDoneOn: "Survey done on",
+  installDate: "Install",
+  permitNumber: "Permit number",
+  permitSubmittedOn: "Permit submitted",
+  permitApprovedOn: "Permit approved",
+  interconnectionNumber: "Application number",
+  interconnectionSubmittedOn: "Interconnection submitted",
+  interconnectionApprovedOn: "Interconnection approved",
+  inspectionOn: "Inspection (planned)",
+  inspectionPassedOn: "Inspection passed on",
+  ptoOn: "Permission to operate (PTO) received",
+  notes: "Notes for the crew",
+} satisfies FieldLabels;
 
 type JobFormProps = {
   jobId: string;
@@ -36,13 +55,14 @@ export function JobForm({ jobId, defaults, crews, readOnly, firstInstallDay }: J
     reset,
     watch,
     formState: { errors, isDirty },
-  } = useForm<JobFieldsInput, unknown, JobFields>({ resolver: zodResolver(jobFieldsSchema), defaultValues: defaults });
+  } = useForm<JobFieldsInput, unknown, JobFields>({ resolver: zodResolver(jobFieldsSchema, { error: plainError(JOB_LABELS) }), defaultValues: defaults });
   const installDate = watch("installDate");
   const permitApprovedOn = watch("permitApprovedOn");
 
-  const { save, pending, notice } = useSave<JobFields, { moved: { to: string }[] }, JobFieldsInput>({
+  const { save, invalid, pending, notice } = useSave<JobFields, { moved: { to: string }[] }, JobFieldsInput>({
     request: (json) => ({ url: `/api/jobs/${jobId}`, method: "PATCH", json }),
     setError,
+    labels: JOB_LABELS,
     success: (result) => {
       const moved = result.moved.map((m) => STAGE_LABELS[m.to as Stage] ?? m.to);
       return moved.length ? `Saved. The deal moved to ${moved.join(", then ")}.` : "Saved.";
@@ -55,9 +75,8 @@ export function JobForm({ jobId, defaults, crews, readOnly, firstInstallDay }: J
   );
 
   return (
-    <form onSubmit={handleSubmit(save)} noValidate className="card p-5" aria-label="Schedule and records">
+    <form onSubmit={handleSubmit(save, invalid)} noValidate className="card p-5" aria-label="Schedule and records">
       <fieldset disabled={readOnly} className="space-y-5">
-        <StatusMessage notice={notice} />
         <div className="grid gap-4 md:grid-cols-3">
           <SelectField
             id="job-crewId"
@@ -93,9 +112,7 @@ export function JobForm({ jobId, defaults, crews, readOnly, firstInstallDay }: J
         <textarea id="job-notes" rows={4} className="field-input py-2" aria-invalid={errors.notes ? true : undefined} aria-describedby={describedBy("job-notes", errors.notes?.message)} {...register("notes")} />
       </FieldShell>
       {readOnly ? null : (
-        <button type="submit" className="btn-primary" disabled={pending || !isDirty}>
-          {pending ? "Saving…" : "Save job"}
-        </button>
+        <SaveRow notice={notice} submit={{ label: "Save job", pending, disabled: !isDirty }} />
       )}
       </fieldset>
     </form>

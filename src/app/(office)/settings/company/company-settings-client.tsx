@@ -2,7 +2,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { ReactNode } from "react";
 import { useForm, type FieldErrors, type UseFormRegister } from "react-hook-form";
-import { Field, FieldShell, SelectField, StatusMessage } from "@/components/ui/field";
+import { Field, FieldShell, SaveRow, SelectField } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import {
   COMPANY_TIME_ZONES,
@@ -21,6 +21,7 @@ import {
   type StallDays,
 } from "@/lib/schemas/company-settings";
 import { STAGE_LABELS } from "@/lib/stages";
+import { plainError, type FieldLabels } from "@/lib/validation-messages";
 
 type Initial = { name: string; licenseNumber: string; timeZone: CompanyTimeZone; stallDays: StallDays; finance: FinanceAssumptions };
 
@@ -35,6 +36,15 @@ const FINANCE_ROWS: { key: keyof FinanceAssumptions; label: string; hint: string
   { key: "discountRatePct", label: "Discount rate for NPV (%)", hint: "How much less a dollar later is worth than a dollar now, for the NPV and LCOE. Our default." },
 ];
 
+/** The form's labels, for the messages that name a field. */
+const COMPANY_LABELS: FieldLabels = {
+  name: "Company name",
+  licenseNumber: "Contractor licence number",
+  timeZone: "Time zone",
+  ...Object.fromEntries(STALL_STAGES.map((s) => [`stallDays.${s}`, `${STAGE_LABELS[s]}: flag after (days)`])),
+  ...Object.fromEntries(FINANCE_ROWS.map((r) => [`finance.${r.key}`, r.label])),
+};
+
 /** What a part of the form needs from it: its fields' registration and their errors. */
 type FormParts = { register: UseFormRegister<CompanySettingsInput>; errors: FieldErrors<CompanySettingsInput> };
 
@@ -47,7 +57,7 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
     formState: { errors, isDirty },
     reset,
   } = useForm<CompanySettingsInput, unknown, CompanySettingsValues>({
-    resolver: zodResolver(companySettingsSchema),
+    resolver: zodResolver(companySettingsSchema, { error: plainError(COMPANY_LABELS) }),
     defaultValues: {
       name: initial.name,
       licenseNumber: initial.licenseNumber,
@@ -57,10 +67,11 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
     },
   });
 
-  const { save, pending, notice } = useSave<CompanySettingsValues, unknown, CompanySettingsInput>({
+  const { save, invalid, pending, notice } = useSave<CompanySettingsValues, unknown, CompanySettingsInput>({
     request: (json) => ({ url: `/api/companies/${companyId}`, method: "PATCH", json }),
     success: "Company settings saved.",
     setError,
+    labels: COMPANY_LABELS,
     onSaved: (_, values) =>
       reset({ ...values, licenseNumber: values.licenseNumber ?? "", stallDays: asText(values.stallDays), finance: values.finance ? financeText(values.finance) : undefined }),
   });
@@ -77,8 +88,7 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
   }
 
   return (
-    <form onSubmit={handleSubmit(save)} noValidate className="mt-6 max-w-3xl space-y-8" aria-label="Company settings">
-      <StatusMessage notice={notice} />
+    <form onSubmit={handleSubmit(save, invalid)} noValidate className="mt-6 max-w-3xl space-y-8" aria-label="Company settings">
 
       <IdentitySection register={register} errors={errors} />
 
@@ -102,12 +112,12 @@ export function CompanySettingsClient({ companyId, initial }: { companyId: strin
         <FinanceFields register={register} errors={errors} />
       </SettingsSection>
 
-      <div className="flex gap-2">
+      <SaveRow notice={notice}>
         <button type="submit" className="btn-primary" disabled={pending}>
           {pending ? "Saving…" : "Save company settings"}
         </button>
-        {isDirty ? <span className="self-center text-sm text-graphite-soft">Unsaved changes</span> : null}
-      </div>
+        {isDirty ? <span className="text-sm text-graphite-soft">Unsaved changes</span> : null}
+      </SaveRow>
     </form>
   );
 }
