@@ -13,7 +13,7 @@ const SOURCE_OPTIONS = LEAD_SOURCES.map((s) => ({ value: s, label: s }));
 
 export function NewLeadForm({ choices, sites }: { choices: UtilityChoices; sites: Site[] }) {
   const router = useRouter();
-  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema), defaultValues: { region: "NC", source: "Referral", utilityId: "", ratePlanId: "" } });
+  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema), defaultValues: { region: "NC", source: "Referral", utilityId: "", ratePlanId: "", language: "en" } });
   const { register, setValue, formState, watch } = form;
   const errors = formState.errors;
   const save = useSave<LeadInput, { dealId: string }, LeadInput>({
