@@ -112,7 +112,7 @@ const sum = (xs: readonly number[]) => xs.reduce((a, b) => a + b, 0);
 /** The document's language: its messages, money and month names. */
 type Lang = { locale: Locale; t: ReturnType<typeof translator<"pdf">>; money: (c: number) => string; signed: (c: number) => string; months: string[] };
 const langs = new Map<Locale, Lang>();
-export function pdfLang(locale: Locale = "en"): Lang {
+function pdfLang(locale: Locale = "en"): Lang {
   let l = langs.get(locale);
   if (!l) {
     const money = (c: number) => formatCents(c, locale);

@@ -13,8 +13,3 @@ export const INTL_LOCALE: Record<Locale, string> = { en: "en-US", es: "es-US" };
 export function isLocale(v: unknown): v is Locale {
   return typeof v === "string" && (LOCALES as readonly string[]).includes(v);
 }
-
-/** A stored or asked-for language, anything unknown read as the default. */
-export function localeOr(v: unknown, fallback: Locale = DEFAULT_LOCALE): Locale {
-  return isLocale(v) ? v : fallback;
-}

@@ -10,7 +10,7 @@ import { db } from "@/server/db";
 import { validationError } from "@/server/route";
 import type { ProposalRow } from "./rows";
 
-export const proposalLocaleSchema = z.object({ locale: z.enum(LOCALES, { message: "Choose English or Español" }) });
+const proposalLocaleSchema = z.object({ locale: z.enum(LOCALES, { message: "Choose English or Español" }) });
 
 /** Stores the homeowner's choice; any state of the link may switch (the page shows in every state). */
 export async function setProposalLocale(p: ProposalRow, input: unknown): Promise<{ locale: Locale }> {
