@@ -328,7 +328,7 @@ function offerMoney(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
     },
     ...(f.lcoeCentsPerKwh !== null ? [{ label: t("money.lcoe"), value: `${f.lcoeCentsPerKwh.toFixed(1)} ¢`, mono: true }] : []),
   ]);
-  const meaning = figureDefinitions(o.figures, o.inputs.payment.kind);
+  const meaning = figureDefinitions(o.figures, o.inputs.payment.kind, L.locale);
   for (const text of [meaning.payback, meaning.roi, meaning.irr]) if (text) flow.paragraph(text, { size: 8.5, color: COLORS.muted });
   flow.paragraph(t("money.cashflowTitle", { years }), { font: fonts.sansBold, size: 11, gapAfter: 6 });
   // Leaves room on the page for the definitions above.
@@ -383,7 +383,7 @@ function assumptions(flow: Flow, s: ProposalSnapshot, L: Lang): void {
     t("assumptions.usage", { source: s.usage.source, kwh: kwh(sum(s.usage.monthlyKwh)) }),
     ...s.offers.map((o) => {
       const a = o.figures.assumptions;
-      const simple = figureDefinitions(o.figures, o.inputs.payment.kind).simplePayback;
+      const simple = figureDefinitions(o.figures, o.inputs.payment.kind, L.locale).simplePayback;
       const line = t("assumptions.offer", {
         n: o.position,
         plan: a.ratePlanName,

@@ -41,6 +41,12 @@ describe("the proposal PDF in Spanish", () => {
     for (const english of ["Your energy today", "Assumptions and disclosures", "Your agreement", "Solar proposal", "January"]) expect(all).not.toContain(english);
   });
 
+  it("says what payback and ROI mean in Spanish", () => {
+    expect(all.replace(/\s+/g, " ")).toContain("La recuperación de la inversión es el año en que el total acumulado");
+    expect(all).toContain("Retorno simple (ROI) =");
+    expect(all).not.toContain("Payback is the year");
+  });
+
   it("prints money as es-US writes it", () => {
     for (const o of snapshot.offers) expect(all).toContain(formatCents(o.figures.summary.contractCents, "es"));
   });
