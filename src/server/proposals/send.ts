@@ -15,7 +15,7 @@ import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
 import type { Locale } from "@/lib/i18n/locales";
 import { translator } from "@/lib/i18n/translator";
-import { db, type Tx } from "@/server/db";
+import { transaction, type Tx } from "@/server/db";
 import { openDeal, type DealScope } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
 import { forbidden, HttpError } from "@/server/errors";
@@ -168,7 +168,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   const key = `${member.companyId}/proposals/${crypto.randomUUID()}.pdf`;
   let numbering: { number: number; version: number };
   try {
-    numbering = await withFilesUndoneOnFailure((put) => db().transaction(async (tx) => {
+    numbering = await withFilesUndoneOnFailure((put) => transaction(async (tx) => {
       const { earlier, number, version } = await nextNumbering(tx, member.companyId, dealId);
       const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, timeZone: scope.settings.timeZone, locale: scope.household.language, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
       await put(key, pdf);
@@ -264,8 +264,7 @@ export async function mailProposalLink(m: {
   } catch (err) {
     console.error("proposal saved; its e-mail could not be sent", m.proposalId, err);
     const reason = err instanceof Error ? err.message : "unknown error";
-    await db()
-      .transaction((tx) => insertProposalEvent(tx, { companyId: m.companyId, proposalId: m.proposalId, kind: "send_failed", body: reason.slice(0, 500) }))
+    await transaction((tx) => insertProposalEvent(tx, { companyId: m.companyId, proposalId: m.proposalId, kind: "send_failed", body: reason.slice(0, 500) }))
       .catch(() => undefined);
     return { mailSent: false, mailError: `The e-mail could not be sent (${reason}). Use "Re-send link" to try again.` };
   }
