@@ -9,7 +9,7 @@ import { CATALOGS } from "@/lib/i18n/translator";
 export function HomeownerIntl({ locale, timeZone, children }: { locale: Locale; timeZone: string; children: ReactNode }) {
   // Only the page's messages travel to the browser.
   return (
-    <NextIntlClientProvider locale={locale} messages={{ page: CATALOGS[locale].page }} timeZone={timeZone} now={new Date()} formats={{}}>
+    <NextIntlClientProvider locale={locale} messages={{ page: CATALOGS[locale].page, legal: CATALOGS[locale].legal }} timeZone={timeZone} now={new Date()} formats={{}}>
       {children}
     </NextIntlClientProvider>
   );

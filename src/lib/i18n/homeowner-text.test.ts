@@ -20,12 +20,25 @@ const HOMEOWNER_TSX = [
   "emails/signed-copy.tsx",
   "emails/deposit-receipt.tsx",
   "emails/refund-issued.tsx",
+  "src/app/p/[token]/page.tsx",
+  "src/app/p/[token]/not-found.tsx",
+  "src/app/p/[token]/proposal-view.tsx",
+  "src/app/p/[token]/offer-details.tsx",
+  "src/app/p/[token]/charts.tsx",
+  "src/app/p/[token]/signing-panel.tsx",
+  "src/app/p/[token]/signed-heading.tsx",
+  "src/app/p/[token]/cancel-form.tsx",
+  "src/app/p/[token]/question-form.tsx",
+  "src/app/p/[token]/deposit-panel-client.tsx",
+  "src/app/p/[token]/project-panel.tsx",
+  "src/components/language-switch.tsx",
 ];
 const HOMEOWNER_PDF = ["src/documents/proposal-pdf.ts", "src/documents/signed-pdf.ts", "src/documents/charts.ts", "src/documents/layout.ts"];
 
 /** Text allowed to stay, by file: the exact literal and why. */
 const ALLOWED: Record<string, Record<string, string>> = {
   "emails/components/layout.tsx": { Kilowright: "the product's name, not a word" },
+  "src/app/p/[token]/proposal-view.tsx": { kW: "a unit, written the same in every language" },
   "src/documents/layout.ts": { "Kilowright documents (pdf-lib)": "the PDF's Producer field, read by software" },
 };
 
