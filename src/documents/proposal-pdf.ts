@@ -322,8 +322,8 @@ function offerMoney(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
     { label: t("money.billSavings", { years }), value: money(f.lifetimeSavingsCents), mono: true },
     { label: t("money.netGain", { years }), value: signed(f.lifetimeNetCents), mono: true },
     {
-      label: t("money.npvIrr"),
-      value: t("money.npvIrrValue", { npv: signed(f.npvCents), rate: pct(o.figures.assumptions.discountRatePct, 1), irr: f.irr === null && f.irrNote ? t("money.notMeaningful") : ratioPct(f.irr) }),
+      label: t("money.npv"),
+      value: t("money.npvValue", { npv: signed(f.npvCents), rate: pct(o.figures.assumptions.discountRatePct, 1), irr: f.irr === null && f.irrNote ? t("money.notMeaningful") : ratioPct(f.irr) }),
       mono: true,
     },
     ...(f.lcoeCentsPerKwh !== null ? [{ label: t("money.lcoe"), value: `${f.lcoeCentsPerKwh.toFixed(1)} ¢`, mono: true }] : []),
