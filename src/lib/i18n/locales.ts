@@ -9,7 +9,3 @@ export const LOCALE_NAMES: Record<Locale, string> = { en: "English", es: "Españ
 
 /** The Intl locale for money, numbers and dates: US conventions in both languages ("$1,000", "5 dic 2026"). */
 export const INTL_LOCALE: Record<Locale, string> = { en: "en-US", es: "es-US" };
-
-export function isLocale(v: unknown): v is Locale {
-  return typeof v === "string" && (LOCALES as readonly string[]).includes(v);
-}
