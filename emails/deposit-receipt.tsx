@@ -1,15 +1,18 @@
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { EmailLayout, Paragraph } from "./components/layout";
 
 export interface DepositReceiptEmailProps {
   customerName: string;
   companyName: string;
-  /** Money already formatted with cents, e.g. "$1,000.00". */
+  /** Money already formatted with cents in `locale`, e.g. "$1,000.00". */
   amount: string;
   /** The day it was paid, already formatted. */
   paidOn: string;
   /** e.g. "P-1042 version 2". */
   proposalLabel: string;
-  offerName: string;
+  /** The chosen offer's name; null when none is recorded. */
+  offerName: string | null;
   contractPrice: string;
   /** The provider's reference for the payment (pi_… or ch_…). */
   reference: string;
@@ -17,24 +20,35 @@ export interface DepositReceiptEmailProps {
   cancelUntil: string | null;
   repName: string;
   repEmail: string;
+  /** The homeowner's language for this proposal. */
+  locale?: Locale;
 }
 
 export function DepositReceiptEmail(props: DepositReceiptEmailProps) {
+  const locale = props.locale ?? "en";
+  const t = translator(locale, "email.depositReceipt");
+  const common = translator(locale, "email.common");
   return (
     <EmailLayout
-      preview={`${props.companyName} received your deposit of ${props.amount}`}
-      heading={`Deposit received: ${props.amount}`}
-      action={{ label: `Write to ${props.repName}`, href: `mailto:${props.repEmail}` }}
-      note={<>Keep this e-mail as your receipt. Reference: {props.reference}.</>}
+      locale={locale}
+      preview={t("preview", { company: props.companyName, amount: props.amount })}
+      heading={t("heading", { amount: props.amount })}
+      action={{ label: common("writeTo", { name: props.repName }), href: `mailto:${props.repEmail}` }}
+      note={t("note", { reference: props.reference })}
     >
       <Paragraph>
-        Hello {props.customerName}, {props.companyName} received your deposit of <strong>{props.amount}</strong> on {props.paidOn} for
-        proposal {props.proposalLabel}, &ldquo;{props.offerName}&rdquo;.
+        {t.rich("body", {
+          customer: props.customerName,
+          company: props.companyName,
+          amount: props.amount,
+          paidOn: props.paidOn,
+          label: props.proposalLabel,
+          offer: props.offerName ?? t("offerFallback"),
+          b: (chunks) => <strong>{chunks}</strong>,
+        })}
       </Paragraph>
-      <Paragraph>The deposit counts toward the contract price of {props.contractPrice}. The office will be in touch to schedule the site survey.</Paragraph>
-      {props.cancelUntil ? (
-        <Paragraph>You may still cancel the agreement until the end of {props.cancelUntil}; the deposit would then be refunded in full.</Paragraph>
-      ) : null}
+      <Paragraph>{t("counts", { price: props.contractPrice })}</Paragraph>
+      {props.cancelUntil ? <Paragraph>{t("cancel", { cancelUntil: props.cancelUntil })}</Paragraph> : null}
     </EmailLayout>
   );
 }

@@ -1,3 +1,5 @@
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { EmailLayout, Paragraph } from "./components/layout";
 
 export interface ProposalSentEmailProps {
@@ -7,34 +9,31 @@ export interface ProposalSentEmailProps {
   /** "P-1001 v2" */
   label: string;
   offerCount: number;
-  /** The link's last day, already formatted. */
+  /** The link's last day, already formatted in `locale`. */
   validUntil: string;
   proposalUrl: string;
   /** The rep's own words, if any. */
   message: string;
   /** True when this is a new link for a proposal already sent (the earlier link stops working). */
   resent?: boolean;
+  /** The household's language. */
+  locale?: Locale;
 }
 
-export function ProposalSentEmail({ companyName, repName, householdName, label, offerCount, validUntil, proposalUrl, message, resent = false }: ProposalSentEmailProps) {
-  const options = offerCount === 1 ? "one option" : `${offerCount} options to compare`;
+export function ProposalSentEmail({ companyName, repName, householdName, label, offerCount, validUntil, proposalUrl, message, resent = false, locale = "en" }: ProposalSentEmailProps) {
+  const t = translator(locale, "email.proposalSent");
+  const common = translator(locale, "email.common");
   return (
     <EmailLayout
-      preview={`${companyName} sent your solar proposal (${label})`}
-      heading={`Your solar proposal from ${companyName}`}
-      action={{ label: "Open your proposal", href: proposalUrl }}
-      note={
-        <>
-          This link is personal to the {householdName} and works until {validUntil}. {resent ? "It replaces the link we sent before, which no longer opens. " : ""}If you did not expect this e-mail,
-          you can ignore it.
-        </>
-      }
+      locale={locale}
+      preview={t("preview", { company: companyName, label })}
+      heading={t("heading", { company: companyName })}
+      action={{ label: t("action"), href: proposalUrl }}
+      note={[t("noteLink", { household: householdName, validUntil }), resent ? t("noteResent") : null, t("noteIgnore")].filter(Boolean).join(" ")}
     >
-      <Paragraph>
-        {repName} prepared proposal {label} for the {householdName}: {options}, with the system, the price, the incentives, your estimated savings and every assumption behind them.
-      </Paragraph>
-      {message ? <Paragraph>&ldquo;{message}&rdquo; — {repName}</Paragraph> : null}
-      <Paragraph>You can read it on your phone, ask {repName} a question, download it as a PDF, and sign it online when you are ready.</Paragraph>
+      <Paragraph>{t("body", { rep: repName, label, household: householdName, count: offerCount })}</Paragraph>
+      {message ? <Paragraph>{common("quote", { message, name: repName })}</Paragraph> : null}
+      <Paragraph>{t("closing", { rep: repName })}</Paragraph>
     </EmailLayout>
   );
 }

@@ -1,4 +1,6 @@
 import { Text } from "@react-email/components";
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { EmailLayout, Paragraph } from "./components/layout";
 
 export interface SigningCodeEmailProps {
@@ -8,24 +10,22 @@ export interface SigningCodeEmailProps {
   /** Six digits. */
   code: string;
   minutes: number;
+  /** Wrong tries before the code locks. */
+  tries: number;
   proposalUrl: string;
+  /** The homeowner's language for this proposal. */
+  locale?: Locale;
 }
 
-export function SigningCodeEmail({ companyName, label, code, minutes, proposalUrl }: SigningCodeEmailProps) {
+export function SigningCodeEmail({ companyName, label, code, minutes, tries, proposalUrl, locale = "en" }: SigningCodeEmailProps) {
+  const t = translator(locale, "email.signingCode");
   return (
-    <EmailLayout
-      preview={`Your signing code is ${code}`}
-      heading="Your code to sign"
-      action={{ label: "Back to your proposal", href: proposalUrl }}
-      note="If you did not ask for a code, someone may have your proposal link: do not share this code, and tell your installer."
-    >
-      <Paragraph>
-        Enter this code on the proposal page to confirm your e-mail address before signing {label} from {companyName}:
-      </Paragraph>
+    <EmailLayout locale={locale} preview={t("preview", { code })} heading={t("heading")} action={{ label: t("action"), href: proposalUrl }} note={t("note")}>
+      <Paragraph>{t("intro", { label, company: companyName })}</Paragraph>
       <Text style={{ fontSize: "32px", lineHeight: "40px", letterSpacing: "0.3em", fontFamily: "'IBM Plex Mono', Menlo, monospace", fontWeight: 600, margin: "0 0 16px" }}>
         {code}
       </Text>
-      <Paragraph>It works for {minutes} minutes and for 5 tries. After that, ask for a new code on the page.</Paragraph>
+      <Paragraph>{t("validity", { minutes, tries })}</Paragraph>
     </EmailLayout>
   );
 }
@@ -35,6 +35,7 @@ SigningCodeEmail.PreviewProps = {
   label: "P-1001 v1",
   code: "482913",
   minutes: 10,
+  tries: 5,
   proposalUrl: "http://localhost:3000/p/preview-token",
 } satisfies SigningCodeEmailProps;
 

@@ -3,6 +3,8 @@
 // never loads a web font.
 import { Body, Button, Container, Head, Heading, Hr, Html, Link, Preview, Section, Text } from "@react-email/components";
 import type { CSSProperties, ReactNode } from "react";
+import { DEFAULT_LOCALE, type Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 
 export const colors = {
   paper: "#FAF7F2",
@@ -49,11 +51,14 @@ export interface EmailLayoutProps {
   children: ReactNode;
   /** A short note under the button: expiry, what to do if unexpected. */
   note?: ReactNode;
+  /** The reader's language: a homeowner's e-mail passes theirs; staff mail stays English. */
+  locale?: Locale;
 }
 
-export function EmailLayout({ preview, heading, action, children, note }: EmailLayoutProps) {
+export function EmailLayout({ preview, heading, action, children, note, locale = DEFAULT_LOCALE }: EmailLayoutProps) {
+  const t = translator(locale, "email.layout");
   return (
-    <Html lang="en">
+    <Html lang={locale}>
       <Head />
       <Preview>{preview}</Preview>
       <Body style={styles.body}>
@@ -70,7 +75,7 @@ export function EmailLayout({ preview, heading, action, children, note }: EmailL
               </Button>
             </Section>
             <Text style={styles.fallback}>
-              If the button does not open, copy this address into your browser:{" "}
+              {t("fallback")}{" "}
               <Link href={action.href} style={styles.fallbackLink}>
                 {action.href}
               </Link>
@@ -78,9 +83,7 @@ export function EmailLayout({ preview, heading, action, children, note }: EmailL
             {note ? <Text style={styles.fallback}>{note}</Text> : null}
           </Section>
           <Hr style={{ borderColor: colors.line, margin: "24px 0 12px" }} />
-          <Text style={styles.footer}>
-            Sent automatically by Kilowright, the software your solar installer uses for quotes and projects.
-          </Text>
+          <Text style={styles.footer}>{t("footer")}</Text>
         </Container>
       </Body>
     </Html>

@@ -20,6 +20,7 @@ import {
   uniqueIndex,
   varchar,
 } from "drizzle-orm/mysql-core";
+import { LOCALES } from "../lib/i18n/locales";
 import { BILL_SOURCES, CELL_TECHNOLOGIES, PAYMENT_STATUSES, PROPOSAL_STATUSES, ROLES, STAGES, VOC_COEFF_UNIT_KEYS } from "../lib/enums";
 import { ratePlanSchema } from "../engine/rates";
 import { storedCompanySettingsSchema } from "../lib/schemas/company-settings";
@@ -198,6 +199,8 @@ export const household = mysqlTable(
     postalCode: varchar("postal_code", { length: 20 }).notNull(),
     latitude: decimal("latitude", { precision: 9, scale: 6, mode: "number" }).notNull(),
     longitude: decimal("longitude", { precision: 9, scale: 6, mode: "number" }).notNull(),
+    /** The language the homeowner reads (their page, PDF, e-mails), chosen by the rep. */
+    language: mysqlEnum("language", LOCALES).notNull().default("en"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -652,6 +655,12 @@ export const proposal = mysqlTable(
     sentByUserId: id("sent_by_user_id").references(() => user.id, { onDelete: "set null" }),
     /** A sale made in the customer's home carries the 3-business-day right to cancel (16 CFR 429). */
     inHomeSale: boolean("in_home_sale").notNull().default(true),
+    /**
+     * The homeowner's language for this proposal's page and e-mails: the household's when sent,
+     * then whatever the homeowner switches to on the page. The PDF keeps the language it was
+     * sent in (snapshot.household.language).
+     */
+    locale: mysqlEnum("locale", LOCALES).notNull().default("en"),
     firstOpenedAt: timestamp("first_opened_at", { fsp: 3 }),
     lastViewedAt: timestamp("last_viewed_at", { fsp: 3 }),
     /** The offer the customer chose (snapshot offer position). */

@@ -7,7 +7,8 @@ import { COLORS, drawLine } from "./layout";
 
 export type Box = { x: number; y: number; width: number; height: number };
 
-const MONTH_LETTERS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+/** The charts' words in the document's language (the proposal PDF passes them from its catalog). */
+export type ChartLabels = { usage: string; production: string; year: string; months: string[]; paybackAt: (years: string) => string; notPaidBack: string; paidBack: string };
 
 /** A round step (1, 2, 2.5 or 5 × 10ⁿ) giving about `targetTicks` ticks over `span`. */
 export function niceStep(span: number, targetTicks = 5): number {
@@ -34,7 +35,7 @@ function legend(page: PDFPage, items: { label: string; color: RGB }[], x: number
  * Grouped monthly bars: usage (slate blue) beside production (copper), kWh on the y axis with
  * round ticks, month names below, a legend above.
  */
-export function drawUsageProductionChart(page: PDFPage, box: Box, data: { usageKwh: readonly number[]; productionKwh: readonly number[] }, fonts: DocFonts): void {
+export function drawUsageProductionChart(page: PDFPage, box: Box, data: { usageKwh: readonly number[]; productionKwh: readonly number[] }, fonts: DocFonts, labels: ChartLabels): void {
   const axisLeft = 44;
   const plot = { x: box.x + axisLeft, y: box.y + 18, width: box.width - axisLeft - 4, height: box.height - 18 - 22 };
   const max = Math.max(1, ...data.usageKwh, ...data.productionKwh);
@@ -57,13 +58,13 @@ export function drawUsageProductionChart(page: PDFPage, box: Box, data: { usageK
     const p = data.productionKwh[m] ?? 0;
     if (u > 0) page.drawRectangle({ x: cx - barW - 1, y: plot.y, width: barW, height: yOf(u) - plot.y, color: COLORS.usage });
     if (p > 0) page.drawRectangle({ x: cx + 1, y: plot.y, width: barW, height: yOf(p) - plot.y, color: COLORS.production });
-    drawLine(page, MONTH_LETTERS[m], cx, plot.y - 11, { font: fonts.sans, size: 7.5, color: COLORS.muted, align: "center" });
+    drawLine(page, labels.months[m], cx, plot.y - 11, { font: fonts.sans, size: 7.5, color: COLORS.muted, align: "center" });
   }
   legend(
     page,
     [
-      { label: "Usage (kWh)", color: COLORS.usage },
-      { label: "Solar production (kWh)", color: COLORS.production },
+      { label: labels.usage, color: COLORS.usage },
+      { label: labels.production, color: COLORS.production },
     ],
     plot.x,
     box.y + box.height - 9,
@@ -76,7 +77,7 @@ export function drawUsageProductionChart(page: PDFPage, box: Box, data: { usageK
  * (graphite while the system has not paid for itself, sage after), dollars on the y axis, a
  * marker at the payback year when there is one.
  */
-export function drawCashflowChart(page: PDFPage, box: Box, data: { cumulativeCents: readonly number[]; paybackYears: number | null }, fonts: DocFonts): void {
+export function drawCashflowChart(page: PDFPage, box: Box, data: { cumulativeCents: readonly number[]; paybackYears: number | null }, fonts: DocFonts, labels: ChartLabels): void {
   const axisLeft = 54;
   const plot = { x: box.x + axisLeft, y: box.y + 18, width: box.width - axisLeft - 4, height: box.height - 18 - 22 };
   const dollars = data.cumulativeCents.map((c) => c / 100);
@@ -106,21 +107,21 @@ export function drawCashflowChart(page: PDFPage, box: Box, data: { cumulativeCen
     if (h > 0.01) page.drawRectangle({ x, y: Math.min(y, y0), width: barW, height: h, color: v < 0 ? COLORS.graphite : COLORS.sage });
     if (i % 5 === 0 || i === n - 1) drawLine(page, String(i), x + barW / 2, plot.y - 11, { font: fonts.mono, size: 7.5, color: COLORS.muted, align: "center" });
   });
-  drawLine(page, "year", plot.x + plot.width, plot.y - 11 - 9, { font: fonts.sans, size: 7, color: COLORS.muted, align: "right" });
+  drawLine(page, labels.year, plot.x + plot.width, plot.y - 11 - 9, { font: fonts.sans, size: 7, color: COLORS.muted, align: "right" });
 
   if (data.paybackYears !== null && data.paybackYears <= n - 1) {
     // Bar i stands for the end of year i; payback at fractional year t falls between bars.
     const px = plot.x + slot * data.paybackYears + slot / 2;
     page.drawLine({ start: { x: px, y: plot.y }, end: { x: px, y: plot.y + plot.height }, thickness: 1, color: COLORS.copper, dashArray: [3, 2] });
-    const label = `payback ${data.paybackYears.toFixed(1)} years`;
+    const label = labels.paybackAt(data.paybackYears.toFixed(1));
     const right = px > plot.x + plot.width * 0.7;
     drawLine(page, label, right ? px - 4 : px + 4, plot.y + plot.height - 8, { font: fonts.sans, size: 7.5, color: COLORS.copper, align: right ? "right" : "left" });
   }
   legend(
     page,
     [
-      { label: "Cumulative, not yet paid back", color: COLORS.graphite },
-      { label: "Cumulative, paid back", color: COLORS.sage },
+      { label: labels.notPaidBack, color: COLORS.graphite },
+      { label: labels.paidBack, color: COLORS.sage },
     ],
     plot.x,
     box.y + box.height - 9,

@@ -23,6 +23,8 @@ import {
   type PDFPage,
   type RGB,
 } from "pdf-lib";
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import type { DocFonts } from "./fonts";
 
 // ── Page geometry (PDF points, 72 per inch; origin at the bottom left) ───────────────────
@@ -387,8 +389,8 @@ export type FrameInfo = {
 };
 
 /** "License no. X" or nothing when the company has not set one. */
-export function licenseText(licenseNumber: string | null): string {
-  return licenseNumber ? `License no. ${licenseNumber}` : "";
+export function licenseText(licenseNumber: string | null, locale: Locale = "en"): string {
+  return licenseNumber ? translator(locale, "pdf.frame")("license", { number: licenseNumber }) : "";
 }
 
 /**
@@ -401,12 +403,13 @@ export function drawPageFrames(
   pdf: PDFDocument,
   fonts: DocFonts,
   info: FrameInfo,
-  opts: { fromPage?: number; pageLabel?: (index: number, total: number) => string } = {},
+  opts: { fromPage?: number; pageLabel?: (index: number, total: number) => string; locale?: Locale } = {},
 ): void {
   const pages = pdf.getPages();
   const total = pages.length;
   const fromPage = opts.fromPage ?? 0;
-  const pageLabel = opts.pageLabel ?? ((i: number, n: number) => `page ${i + 1} of ${n}`);
+  const t = translator(opts.locale ?? "en", "pdf.frame");
+  const pageLabel = opts.pageLabel ?? ((i: number, n: number) => t("pageOf", { n: i + 1, total: n }));
   pages.forEach((page, i) => {
     if (i < fromPage) return;
     const { width } = page.getSize();
@@ -419,7 +422,7 @@ export function drawPageFrames(
 
     const footY = 34;
     page.drawLine({ start: { x: MARGIN_X, y: footY + 12 }, end: { x: width - MARGIN_X, y: footY + 12 }, thickness: 0.5, color: COLORS.rule });
-    const left = [info.companyName, licenseText(info.licenseNumber)].filter(Boolean).join("  ·  ");
+    const left = [info.companyName, licenseText(info.licenseNumber, opts.locale)].filter(Boolean).join("  ·  ");
     drawTextRuns(page, [
       textRun(left, MARGIN_X, footY, { font: fonts.sans, size: SMALL_SIZE, color: COLORS.muted }),
       textRun(pageLabel(i, total), width - MARGIN_X, footY, { font: fonts.mono, size: SMALL_SIZE, color: COLORS.muted, align: "right" }),

@@ -10,10 +10,12 @@
 import { PDFBool, PDFDocument, PDFHexString, PDFName, PDFString, type PDFPage } from "pdf-lib";
 import { proposalLabel as shortProposalLabel } from "@/lib/proposal-snapshot";
 import { formatCents, formatDate } from "@/lib/format";
+import { INTL_LOCALE, type Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { figureDefinitions } from "@/lib/figure-definitions";
 import { OFFER_CAUTION } from "@/lib/offer-figures";
 import type { ProposalSnapshot, ProposalSnapshotOffer } from "@/lib/schemas/proposal";
-import { drawCashflowChart, drawUsageProductionChart } from "./charts";
+import { drawCashflowChart, drawUsageProductionChart, type ChartLabels } from "./charts";
 import { embedFonts, type DocFonts } from "./fonts";
 import {
   COLORS,
@@ -41,6 +43,8 @@ export type ProposalPdfMeta = {
   expiresAt: Date;
   /** The company's time zone (Settings → Company): the dates printed are its days. */
   timeZone: string;
+  /** The household's language; English when not given. */
+  locale?: Locale;
   /** A sale made in the home carries the buyer's right to cancel (16 CFR Part 429). */
   inHomeSale: boolean;
   /** The last day to cancel as text (e.g. "Friday, March 6, 2026"); null when not known yet. */
@@ -97,72 +101,98 @@ function storeFrame(pdf: PDFDocument, frame: FrameInfo): void {
 
 // ── Formatting ─────────────────────────────────────────────────────────────────────────────
 
+// Numbers keep US grouping in both languages ("12,345"; es-US writes them the same way).
 const int = new Intl.NumberFormat("en-US", { maximumFractionDigits: 0 });
 const kwh = (v: number) => `${int.format(v)} kWh`;
 const pct = (v: number, digits = 1) => `${v < 0 ? "−" : ""}${Math.abs(v).toFixed(digits)} %`;
 const ratioPct = (r: number | null, digits = 1) => (r === null ? "—" : pct(r * 100, digits));
 const kw = (v: number) => `${v.toFixed(2)} kW`;
-const signedCents = (c: number) => (c < 0 ? `−${formatCents(-c)}` : formatCents(c));
 const sum = (xs: readonly number[]) => xs.reduce((a, b) => a + b, 0);
-const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
 
-/** "Proposal P-1042 v2": the same number and version the customer's page and e-mails show. */
-export function proposalLabel(meta: Pick<ProposalPdfMeta, "number" | "version">): string {
-  return `Proposal ${shortProposalLabel(meta.number, meta.version)}`;
+/** The document's language: its messages, money and month names. */
+type Lang = { locale: Locale; t: ReturnType<typeof translator<"pdf">>; money: (c: number) => string; signed: (c: number) => string; months: string[] };
+const langs = new Map<Locale, Lang>();
+function pdfLang(locale: Locale = "en"): Lang {
+  let l = langs.get(locale);
+  if (!l) {
+    const money = (c: number) => formatCents(c, locale);
+    const monthName = new Intl.DateTimeFormat(INTL_LOCALE[locale], { month: "long", timeZone: "UTC" });
+    // Spanish month names are written in lower case; a table's first column starts with a capital.
+    const months = Array.from({ length: 12 }, (_, m) => monthName.format(Date.UTC(2026, m, 15))).map((n) => n.charAt(0).toLocaleUpperCase(INTL_LOCALE[locale]) + n.slice(1));
+    langs.set(locale, (l = { locale, t: translator(locale, "pdf"), money, signed: (c) => (c < 0 ? `−${money(-c)}` : money(c)), months }));
+  }
+  return l;
 }
 
-function paymentText(o: ProposalSnapshotOffer): string {
+/** "Proposal P-1042 v2": the same number and version the customer's page and e-mails show. */
+export function proposalLabel(meta: Pick<ProposalPdfMeta, "number" | "version" | "locale">): string {
+  return pdfLang(meta.locale).t("frame.proposalLabel", { label: shortProposalLabel(meta.number, meta.version) });
+}
+
+function paymentText(o: ProposalSnapshotOffer, { t }: Lang): string {
   const p = o.inputs.payment;
-  if (p.kind === "cash") return "Cash";
-  const fee = p.dealerFeePct > 0 ? `, dealer fee ${pct(p.dealerFeePct, 2)} added to the amount financed` : "";
-  return `Loan: ${pct(p.aprPct, 2)} APR over ${p.termMonths} months${fee}`;
+  if (p.kind === "cash") return t("money.cash");
+  const loan = { apr: pct(p.aprPct, 2), months: p.termMonths };
+  return p.dealerFeePct > 0 ? t("money.loanWithFee", { ...loan, fee: pct(p.dealerFeePct, 2) }) : t("money.loan", loan);
 }
 
 /** "25 years", or "20 to 25 years" when the offers were figured over different periods. */
-function savingsYears(offers: readonly ProposalSnapshotOffer[]): string {
+function savingsYears(offers: readonly ProposalSnapshotOffer[], { t }: Lang): string {
   const ys = offers.map((o) => o.figures.assumptions.years);
   const lo = Math.min(...ys);
   const hi = Math.max(...ys);
-  return lo === hi ? `${lo} years` : `${lo} to ${hi} years`;
+  return lo === hi ? t("frame.years", { n: lo }) : t("frame.yearsRange", { lo, hi });
 }
 
-const whenPaid = (year: number) => (year === 0 ? "at signing" : `in year ${year}`);
+const chartLabels = ({ t, months }: Lang): ChartLabels => ({
+  usage: t("chart.usage"),
+  production: t("chart.production"),
+  year: t("chart.year"),
+  months: months.map((m) => m.slice(0, 3)),
+  paybackAt: (years) => t("chart.paybackAt", { years }),
+  notPaidBack: t("chart.notPaidBack"),
+  paidBack: t("chart.paidBack"),
+});
+
+const whenPaid = (year: number, { t }: Lang) => (year === 0 ? t("frame.atSigning") : t("frame.inYear", { year }));
 
 // ── Pages ──────────────────────────────────────────────────────────────────────────────────
 
 function cover(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
   const { page, fonts } = flow;
+  const L = pdfLang(meta.locale);
+  const { t, money } = L;
   let y = CONTENT_TOP - 30;
   page.drawRectangle({ x: MARGIN_X, y, width: 56, height: 4, color: COLORS.copper });
   y -= 34;
-  drawLine(page, "Solar proposal", MARGIN_X, y, { font: fonts.sansBold, size: 28 });
+  drawLine(page, t("cover.title"), MARGIN_X, y, { font: fonts.sansBold, size: 28 });
   y -= 26;
-  drawLine(page, `for ${s.household.name}`, MARGIN_X, y, { font: fonts.sans, size: 16 });
+  drawLine(page, t("cover.for", { household: s.household.name }), MARGIN_X, y, { font: fonts.sans, size: 16 });
   y -= 20;
   drawLine(page, `${s.household.street}, ${s.household.city}, ${s.household.region} ${s.household.postalCode}`, MARGIN_X, y, { font: fonts.sans, size: 11, color: COLORS.muted });
   y -= 44;
   flow.y = y;
   flow.facts(
     [
-      { label: "Proposal", value: `${meta.number}-${meta.version}`, mono: true },
-      { label: "Prepared for", value: [s.household.contactName, s.household.email].filter(Boolean).join(" · ") || s.household.name },
-      { label: "Prepared by", value: `${s.rep.name} (${s.rep.email}), ${s.company.name}` },
-      { label: "Date", value: formatDate(meta.sentAt, meta.timeZone) },
-      { label: "Valid until", value: formatDate(meta.expiresAt, meta.timeZone) },
-      ...(s.company.licenseNumber ? [{ label: "Contractor license", value: s.company.licenseNumber }] : []),
+      { label: t("cover.proposal"), value: `${meta.number}-${meta.version}`, mono: true },
+      { label: t("cover.preparedFor"), value: [s.household.contactName, s.household.email].filter(Boolean).join(" · ") || s.household.name },
+      { label: t("cover.preparedBy"), value: `${s.rep.name} (${s.rep.email}), ${s.company.name}` },
+      { label: t("cover.date"), value: formatDate(meta.sentAt, meta.timeZone, L.locale) },
+      { label: t("cover.validUntil"), value: formatDate(meta.expiresAt, meta.timeZone, L.locale) },
+      ...(s.company.licenseNumber ? [{ label: t("cover.license"), value: s.company.licenseNumber }] : []),
     ],
     130,
   );
   flow.space(14);
-  flow.heading(s.offers.length === 1 ? "The offer at a glance" : `${s.offers.length} offers at a glance`, 13);
+  flow.heading(t("cover.glance", { count: s.offers.length }), 13);
   flow.space(6);
   const cols: TableColumn[] = [
-    { label: "Offer", width: 150 },
-    { label: "System", width: 62, align: "right", mono: true },
-    { label: "Contract price", width: 82, align: "right", mono: true },
-    { label: "Net cost", width: 76, align: "right", mono: true },
-    { label: "Year-1 savings", width: 76, align: "right", mono: true },
-    { label: "Payback", width: 58, align: "right", mono: true },
+    { label: t("cover.colOffer"), width: 150 },
+    { label: t("cover.colSystem"), width: 62, align: "right", mono: true },
+    { label: t("cover.colContract"), width: 82, align: "right", mono: true },
+    { label: t("cover.colNet"), width: 76, align: "right", mono: true },
+    { label: t("cover.colYear1"), width: 76, align: "right", mono: true },
+    { label: t("cover.colPayback"), width: 58, align: "right", mono: true },
   ];
   flow.table(
     cols,
@@ -170,259 +200,259 @@ function cover(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
       cells: [
         `${o.position}. ${o.name}`,
         kw(o.figures.summary.kwDc),
-        formatCents(o.figures.summary.contractCents),
-        formatCents(o.figures.summary.netCostCents),
-        formatCents(o.figures.summary.year1SavingsCents),
-        o.figures.summary.paybackYears === null ? "—" : `${o.figures.summary.paybackYears.toFixed(1)} yr`,
+        money(o.figures.summary.contractCents),
+        money(o.figures.summary.netCostCents),
+        money(o.figures.summary.year1SavingsCents),
+        o.figures.summary.paybackYears === null ? "—" : t("cover.yearsShort", { years: o.figures.summary.paybackYears.toFixed(1) }),
       ],
     })),
   );
-  flow.paragraph(
-    `Inside: your energy today, each offer's system and expected production, what it costs and saves over ${savingsYears(s.offers)}, every assumption behind the figures` +
-      (meta.inHomeSale ? ", your right to cancel," : ",") +
-      " and the page to sign. All figures are estimates; see “Assumptions and disclosures”.",
-    { size: 9.5, color: COLORS.muted },
-  );
+  flow.paragraph(t(meta.inHomeSale ? "cover.insideWithCancel" : "cover.inside", { years: savingsYears(s.offers, L) }), { size: 9.5, color: COLORS.muted });
 }
 
-function energyToday(flow: Flow, s: ProposalSnapshot): void {
+function energyToday(flow: Flow, s: ProposalSnapshot, { t, money, months }: Lang): void {
   flow.newPage();
-  flow.heading("Your energy today");
+  flow.heading(t("energy.heading"));
   const first = s.offers[0];
   const usage = s.usage.monthlyKwh;
   const bills = first?.figures.monthly.billWithoutSolarCents ?? [];
   const planNames = [...new Set(s.offers.map((o) => o.figures.assumptions.ratePlanName))];
   flow.facts([
-    { label: "Utility", value: s.utilityName ?? "Not given" },
-    { label: "Rate plan", value: planNames.join("; ") || "Not given" },
-    { label: "Usage from", value: s.usage.source },
-    { label: "Annual usage", value: kwh(sum(usage)), mono: true },
-    ...(bills.length === 12 ? [{ label: "Annual bill without solar", value: formatCents(sum(bills)), mono: true }] : []),
+    { label: t("energy.utility"), value: s.utilityName ?? t("energy.notGiven") },
+    { label: t("energy.ratePlan"), value: planNames.join("; ") || t("energy.notGiven") },
+    { label: t("energy.usageFrom"), value: s.usage.source },
+    { label: t("energy.annualUsage"), value: kwh(sum(usage)), mono: true },
+    ...(bills.length === 12 ? [{ label: t("energy.annualBill"), value: money(sum(bills)), mono: true }] : []),
   ]);
   flow.space(6);
   flow.table(
     [
-      { label: "Month", width: 160 },
-      { label: "Usage", width: 110, align: "right", mono: true },
-      { label: bills.length === 12 ? `Bill without solar (${first.figures.assumptions.calendarYear})` : "Bill without solar", width: 180, align: "right", mono: true },
+      { label: t("energy.month"), width: 160 },
+      { label: t("energy.usage"), width: 110, align: "right", mono: true },
+      { label: bills.length === 12 ? t("energy.billWithoutYear", { year: first.figures.assumptions.calendarYear }) : t("energy.billWithout"), width: 180, align: "right", mono: true },
     ],
     [
-      ...MONTHS.map((m, i) => ({ cells: [m, kwh(usage[i] ?? 0), bills.length === 12 ? formatCents(bills[i]) : "—"] })),
-      { cells: ["Year", kwh(sum(usage)), bills.length === 12 ? formatCents(sum(bills)) : "—"], bold: true },
+      ...months.map((m, i) => ({ cells: [m, kwh(usage[i] ?? 0), bills.length === 12 ? money(bills[i]) : "—"] })),
+      { cells: [t("energy.year"), kwh(sum(usage)), bills.length === 12 ? money(sum(bills)) : "—"], bold: true },
     ],
   );
   if (planNames.length > 1) {
-    flow.paragraph(`The bills above use ${first.figures.assumptions.ratePlanName}; each offer's own rate plan is named with its figures.`, { size: 9, color: COLORS.muted });
+    flow.paragraph(t("energy.otherPlans", { plan: first.figures.assumptions.ratePlanName }), { size: 9, color: COLORS.muted });
   }
 }
 
-function offerSystem(flow: Flow, s: ProposalSnapshot, o: ProposalSnapshotOffer): void {
+function offerSystem(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
   const { fonts } = flow;
+  const { t } = L;
   flow.newPage();
-  flow.heading(`Offer ${o.position}: ${o.name}`);
-  flow.paragraph("The system", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  flow.heading(t("frame.offerHeading", { n: o.position, name: o.name }));
+  flow.paragraph(t("system.theSystem"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
   const e = o.equipment;
   const f = o.figures.summary;
   const acKw = e.inverter.kind === "micro" ? (e.inverter.acWatts * e.moduleCount) / 1000 : e.inverter.acWatts / 1000;
   flow.facts([
-    { label: "Modules", value: `${e.moduleCount} × ${e.module.manufacturer} ${e.module.model} (${int.format(e.module.stcWatts)} W STC)` },
+    { label: t("system.modules"), value: t("system.modulesValue", { count: e.moduleCount, make: e.module.manufacturer, model: e.module.model, watts: int.format(e.module.stcWatts) }) },
     {
-      label: "Inverter",
-      value:
-        e.inverter.kind === "micro"
-          ? `${e.inverter.manufacturer} ${e.inverter.model}, microinverters (${int.format(e.inverter.acWatts)} W AC each)`
-          : `${e.inverter.manufacturer} ${e.inverter.model}, string inverter (${int.format(e.inverter.acWatts)} W AC)`,
+      label: t("system.inverter"),
+      value: t(e.inverter.kind === "micro" ? "system.micro" : "system.string", { make: e.inverter.manufacturer, model: e.inverter.model, watts: int.format(e.inverter.acWatts) }),
     },
-    { label: "Size", value: `${kw(f.kwDc)} DC${e.inverter.kind === "string" ? ` · ${kw(acKw)} AC` : ""}`, mono: true },
-    { label: "Production, year 1", value: kwh(f.annualProductionKwh), mono: true },
-    { label: "Share of your usage", value: pct(f.offsetPct, 0), mono: true },
+    { label: t("system.size"), value: e.inverter.kind === "string" ? t("system.sizeDcAc", { dc: kw(f.kwDc), ac: kw(acKw) }) : t("system.sizeDc", { dc: kw(f.kwDc) }), mono: true },
+    { label: t("system.production"), value: kwh(f.annualProductionKwh), mono: true },
+    { label: t("system.share"), value: pct(f.offsetPct, 0), mono: true },
   ]);
   flow.space(4);
   flow.table(
     [
-      { label: "Roof face", width: 180 },
-      { label: "Tilt", width: 70, align: "right", mono: true },
-      { label: "Azimuth", width: 80, align: "right", mono: true },
-      { label: "Modules", width: 80, align: "right", mono: true },
-      { label: "Solar access", width: 94, align: "right", mono: true },
+      { label: t("system.face"), width: 180 },
+      { label: t("system.tilt"), width: 70, align: "right", mono: true },
+      { label: t("system.azimuth"), width: 80, align: "right", mono: true },
+      { label: t("system.modules"), width: 80, align: "right", mono: true },
+      { label: t("system.solarAccess"), width: 94, align: "right", mono: true },
     ],
     e.faces.map((face) => ({ cells: [face.name, `${face.tiltDeg.toFixed(1)}°`, `${face.azimuthDeg.toFixed(0)}°`, String(face.moduleCount), pct(face.solarAccessPct, 0)] })),
   );
-  flow.paragraph("Azimuth in degrees from true north, clockwise (180° faces south).", { size: 8.5, color: COLORS.muted });
+  flow.paragraph(t("system.azimuthNote"), { size: 8.5, color: COLORS.muted });
   flow.space(4);
-  flow.paragraph("Production against your usage, month by month", { font: fonts.sansBold, size: 11, gapAfter: 6 });
+  flow.paragraph(t("system.chartTitle"), { font: fonts.sansBold, size: 11, gapAfter: 6 });
   const height = 220;
   flow.ensure(height + 10);
-  drawUsageProductionChart(flow.page, { x: MARGIN_X, y: flow.y - height, width: CONTENT_WIDTH, height }, { usageKwh: o.figures.monthly.usageKwh, productionKwh: o.figures.monthly.productionKwh }, fonts);
+  drawUsageProductionChart(flow.page, { x: MARGIN_X, y: flow.y - height, width: CONTENT_WIDTH, height }, { usageKwh: o.figures.monthly.usageKwh, productionKwh: o.figures.monthly.productionKwh }, fonts, chartLabels(L));
   flow.y -= height + 14;
   flow.table(
     [
       { label: "", width: 72 },
-      ...MONTHS.map((m) => ({ label: m.slice(0, 3), width: 36, align: "right" as const, mono: true })),
+      ...L.months.map((m) => ({ label: m.slice(0, 3), width: 36, align: "right" as const, mono: true })),
     ],
     [
-      { cells: ["Usage kWh", ...o.figures.monthly.usageKwh.map((v) => int.format(v))] },
-      { cells: ["Solar kWh", ...o.figures.monthly.productionKwh.map((v) => int.format(v))] },
+      { cells: [t("system.usageKwh"), ...o.figures.monthly.usageKwh.map((v) => int.format(v))] },
+      { cells: [t("system.solarKwh"), ...o.figures.monthly.productionKwh.map((v) => int.format(v))] },
     ],
   );
 }
 
-function offerMoney(flow: Flow, o: ProposalSnapshotOffer): void {
+function offerMoney(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
   const { fonts } = flow;
+  const { t, money, signed } = L;
   const f = o.figures.summary;
+  const years = o.figures.assumptions.years;
   flow.newPage();
-  flow.heading(`Offer ${o.position}: what it costs and saves`);
+  flow.heading(t("money.heading", { n: o.position }));
   flow.table(
     [
-      { label: "Price", width: 214 },
-      { label: "How", width: 206 },
-      { label: "Amount", width: 84, align: "right", mono: true },
+      { label: t("money.price"), width: 214 },
+      { label: t("money.how"), width: 206 },
+      { label: t("money.amount"), width: 84, align: "right", mono: true },
     ],
     [
-      ...o.figures.price.lines.map((l) => ({ cells: [l.label, l.detail, signedCents(l.amountCents)] })),
-      { cells: ["Contract price", "what you sign for", formatCents(f.contractCents)], bold: true },
-      ...o.figures.incentives.applied.map((a) => ({ cells: [`${a.name}, paid ${whenPaid(a.year)}`, a.detail, signedCents(-a.amountCents)] })),
-      { cells: ["Net cost after incentives", "", formatCents(f.netCostCents)], bold: true },
+      ...o.figures.price.lines.map((l) => ({ cells: [l.label, l.detail, signed(l.amountCents)] })),
+      { cells: [t("money.contractPrice"), t("money.whatYouSign"), money(f.contractCents)], bold: true },
+      ...o.figures.incentives.applied.map((a) => ({ cells: [t("money.incentivePaid", { name: a.name, when: whenPaid(a.year, L) }), a.detail, signed(-a.amountCents)] })),
+      { cells: [t("money.netCost"), "", money(f.netCostCents)], bold: true },
     ],
   );
   const bills = o.figures.monthly;
   flow.facts([
-    { label: "Payment", value: paymentText(o) },
-    ...(f.monthlyLoanPaymentCents !== null ? [{ label: "Monthly loan payment", value: formatCents(f.monthlyLoanPaymentCents), mono: true }] : []),
-    { label: "Deposit at signing", value: formatCents(o.depositCents), mono: true },
-    { label: "Bills, year 1", value: `${formatCents(sum(bills.billWithoutSolarCents))} without solar, ${formatCents(sum(bills.billWithSolarCents))} with solar`, mono: true },
-    { label: "Savings, year 1", value: formatCents(f.year1SavingsCents), mono: true },
-    { label: "Payback", value: f.paybackYears === null ? `not within ${o.figures.assumptions.years} years` : `${f.paybackYears.toFixed(1)} years`, mono: true },
-    { label: "Simple ROI", value: ratioPct(f.simpleRoi), mono: true },
-    { label: `Bill savings, ${o.figures.assumptions.years} years`, value: formatCents(f.lifetimeSavingsCents), mono: true },
-    { label: `Net gain, ${o.figures.assumptions.years} years`, value: signedCents(f.lifetimeNetCents), mono: true },
-    { label: "NPV · IRR", value: `${signedCents(f.npvCents)} at ${pct(o.figures.assumptions.discountRatePct, 1)} · ${f.irr === null && f.irrNote ? "not meaningful" : ratioPct(f.irr)}`, mono: true },
-    ...(f.lcoeCentsPerKwh !== null ? [{ label: "Cost per kWh (LCOE)", value: `${f.lcoeCentsPerKwh.toFixed(1)} ¢`, mono: true }] : []),
+    { label: t("money.payment"), value: paymentText(o, L) },
+    ...(f.monthlyLoanPaymentCents !== null ? [{ label: t("money.monthlyLoan"), value: money(f.monthlyLoanPaymentCents), mono: true }] : []),
+    { label: t("money.deposit"), value: money(o.depositCents), mono: true },
+    { label: t("money.bills"), value: t("money.billsValue", { without: money(sum(bills.billWithoutSolarCents)), with: money(sum(bills.billWithSolarCents)) }), mono: true },
+    { label: t("money.savings1"), value: money(f.year1SavingsCents), mono: true },
+    { label: t("money.payback"), value: f.paybackYears === null ? t("money.paybackNot", { years }) : t("frame.years", { n: f.paybackYears.toFixed(1) }), mono: true },
+    { label: t("money.roi"), value: ratioPct(f.simpleRoi), mono: true },
+    { label: t("money.billSavings", { years }), value: money(f.lifetimeSavingsCents), mono: true },
+    { label: t("money.netGain", { years }), value: signed(f.lifetimeNetCents), mono: true },
+    {
+      label: t("money.npv"),
+      value: t("money.npvValue", { npv: signed(f.npvCents), rate: pct(o.figures.assumptions.discountRatePct, 1), irr: f.irr === null && f.irrNote ? t("money.notMeaningful") : ratioPct(f.irr) }),
+      mono: true,
+    },
+    ...(f.lcoeCentsPerKwh !== null ? [{ label: t("money.lcoe"), value: `${f.lcoeCentsPerKwh.toFixed(1)} ¢`, mono: true }] : []),
   ]);
-  const meaning = figureDefinitions(o.figures, o.inputs.payment.kind);
+  const meaning = figureDefinitions(o.figures, o.inputs.payment.kind, L.locale);
   for (const text of [meaning.payback, meaning.roi, meaning.irr]) if (text) flow.paragraph(text, { size: 8.5, color: COLORS.muted });
-  flow.paragraph(`Cumulative cash flow over ${o.figures.assumptions.years} years`, { font: fonts.sansBold, size: 11, gapAfter: 6 });
+  flow.paragraph(t("money.cashflowTitle", { years }), { font: fonts.sansBold, size: 11, gapAfter: 6 });
   // Leaves room on the page for the definitions above.
   const height = 180;
   flow.ensure(height + 10);
-  drawCashflowChart(flow.page, { x: MARGIN_X, y: flow.y - height, width: CONTENT_WIDTH, height }, { cumulativeCents: o.figures.rows.map((r) => r.cumulativeCents), paybackYears: f.paybackYears }, fonts);
+  drawCashflowChart(flow.page, { x: MARGIN_X, y: flow.y - height, width: CONTENT_WIDTH, height }, { cumulativeCents: o.figures.rows.map((r) => r.cumulativeCents), paybackYears: f.paybackYears }, fonts, chartLabels(L));
   flow.y -= height + 10;
   flow.paragraph(o.figures.caution || OFFER_CAUTION, { size: 8.5, color: COLORS.muted });
 }
 
-function offerTable(flow: Flow, o: ProposalSnapshotOffer): void {
+function offerTable(flow: Flow, o: ProposalSnapshotOffer, { t, money, signed }: Lang): void {
   flow.newPage();
-  flow.heading(`Offer ${o.position}: year by year`);
+  flow.heading(t("table.heading", { n: o.position }));
   flow.table(
     [
-      { label: "Year", width: 34, align: "right", mono: true },
-      { label: "Solar kWh", width: 60, align: "right", mono: true },
-      { label: "Bill without", width: 68, align: "right", mono: true },
-      { label: "Bill with", width: 62, align: "right", mono: true },
-      { label: "Savings", width: 62, align: "right", mono: true },
-      { label: "Incentives", width: 62, align: "right", mono: true },
-      { label: "System", width: 70, align: "right", mono: true },
-      { label: "Cumulative", width: 86, align: "right", mono: true },
+      { label: t("table.year"), width: 34, align: "right", mono: true },
+      { label: t("table.solarKwh"), width: 60, align: "right", mono: true },
+      { label: t("table.billWithout"), width: 68, align: "right", mono: true },
+      { label: t("table.billWith"), width: 62, align: "right", mono: true },
+      { label: t("table.savings"), width: 62, align: "right", mono: true },
+      { label: t("table.incentives"), width: 62, align: "right", mono: true },
+      { label: t("table.system"), width: 70, align: "right", mono: true },
+      { label: t("table.cumulative"), width: 86, align: "right", mono: true },
     ],
     o.figures.rows.map((r) => ({
       cells: [
         String(r.year),
         r.year === 0 ? "" : int.format(r.productionKwh),
-        r.year === 0 ? "" : formatCents(r.billWithoutSolarCents),
-        r.year === 0 ? "" : formatCents(r.billWithSolarCents),
-        r.year === 0 ? "" : formatCents(r.savingsCents),
-        r.incentivesCents ? formatCents(r.incentivesCents) : "",
-        r.systemPaymentCents ? signedCents(-r.systemPaymentCents) : "",
-        signedCents(r.cumulativeCents),
+        r.year === 0 ? "" : money(r.billWithoutSolarCents),
+        r.year === 0 ? "" : money(r.billWithSolarCents),
+        r.year === 0 ? "" : money(r.savingsCents),
+        r.incentivesCents ? money(r.incentivesCents) : "",
+        r.systemPaymentCents ? signed(-r.systemPaymentCents) : "",
+        signed(r.cumulativeCents),
       ],
     })),
   );
-  flow.paragraph("Year 0 is the day of signing. “System” is what you pay for the system that year: the price less upfront incentives for cash, the loan's payments for a loan.", {
+  flow.paragraph(t("table.note"), {
     size: 8.5,
     color: COLORS.muted,
   });
 }
 
-function assumptions(flow: Flow, s: ProposalSnapshot): void {
+function assumptions(flow: Flow, s: ProposalSnapshot, L: Lang): void {
   const { fonts } = flow;
+  const { t, money } = L;
   flow.newPage();
-  flow.heading("Assumptions and disclosures");
-  flow.paragraph("How the figures were made", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  flow.heading(t("assumptions.heading"));
+  flow.paragraph(t("assumptions.how"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
   flow.bullets([
     ...s.assumptions,
-    `Usage: ${s.usage.source} (${kwh(sum(s.usage.monthlyKwh))} a year).`,
+    t("assumptions.usage", { source: s.usage.source, kwh: kwh(sum(s.usage.monthlyKwh)) }),
     ...s.offers.map((o) => {
       const a = o.figures.assumptions;
-      const simple = figureDefinitions(o.figures, o.inputs.payment.kind).simplePayback;
-      return `Offer ${o.position}: rate plan ${a.ratePlanName} with ${a.calendarYear} prices; panel output falls ${pct(a.degradationPctPerYear, 2)} a year; utility prices rise ${pct(a.utilityEscalationPctPerYear, 1)} a year; ${a.years} years; money discounted at ${pct(a.discountRatePct, 1)} a year for NPV.${simple ? ` ${simple}` : ""}`;
+      const simple = figureDefinitions(o.figures, o.inputs.payment.kind, L.locale).simplePayback;
+      const line = t("assumptions.offer", {
+        n: o.position,
+        plan: a.ratePlanName,
+        year: a.calendarYear,
+        degradation: pct(a.degradationPctPerYear, 2),
+        escalation: pct(a.utilityEscalationPctPerYear, 1),
+        years: a.years,
+        discount: pct(a.discountRatePct, 1),
+      });
+      return simple ? `${line} ${simple}` : line;
     }),
   ]);
-  flow.paragraph("Incentives", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  flow.paragraph(t("assumptions.incentives"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
   const incentiveLines: string[] = [];
   for (const o of s.offers) {
     const inc = o.figures.incentives;
-    const asOf = `as of ${o.figures.asOf}`;
-    for (const a of inc.applied) incentiveLines.push(`Offer ${o.position}: ${a.name}, ${formatCents(a.amountCents)} (${a.detail}), paid ${whenPaid(a.year)}; in force ${asOf}.`);
-    for (const k of inc.skipped) incentiveLines.push(`Offer ${o.position}: ${k.name} does not apply: ${k.reason}.`);
-    if (inc.applied.length === 0 && inc.skipped.length === 0) incentiveLines.push(`Offer ${o.position}: no incentives.`);
+    const n = o.position;
+    for (const a of inc.applied) incentiveLines.push(t("assumptions.applied", { n, name: a.name, amount: money(a.amountCents), detail: a.detail, when: whenPaid(a.year, L), asOf: o.figures.asOf }));
+    for (const k of inc.skipped) incentiveLines.push(t("assumptions.skipped", { n, name: k.name, reason: k.reason }));
+    if (inc.applied.length === 0 && inc.skipped.length === 0) incentiveLines.push(t("assumptions.none", { n }));
   }
   flow.bullets(incentiveLines);
-  flow.paragraph(
-    "Incentives depend on the program's rules and funds at the time you apply; tax credits depend on your own tax situation. The dates above are the programs' dates as entered in our price book.",
-    { size: 9, color: COLORS.muted },
-  );
+  flow.paragraph(t("assumptions.incentivesNote"), { size: 9, color: COLORS.muted });
   const notes = [...new Set(s.offers.flatMap((o) => o.figures.notes))];
   if (notes.length > 0) {
-    flow.paragraph("Notes on the figures", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+    flow.paragraph(t("assumptions.notes"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
     flow.bullets(notes);
   }
-  flow.paragraph("Cautions", { font: fonts.sansBold, size: 11, gapAfter: 4 });
-  const cautions = [
-    ...s.cautions,
-    OFFER_CAUTION,
-    "Electrical and structural figures (string sizes, voltages, currents, roof loads) are preliminary: the final design is checked by a licensed professional against the local code and the authority having jurisdiction (AHJ), and may change the system.",
-    "The utility's approval to connect (interconnection and permission to operate) and the local permit are needed before the system runs.",
-  ];
+  flow.paragraph(t("assumptions.cautions"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  const cautions = [...s.cautions, OFFER_CAUTION, t("assumptions.cautionDesign"), t("assumptions.cautionUtility")];
   flow.bullets([...new Set(cautions)]);
 }
 
-const RULE_STATEMENT =
-  "You, the buyer, may cancel this transaction at any time prior to midnight of the third business day after the date of this transaction. See the attached notice of cancellation form for an explanation of this right.";
-
-function deadlineText(meta: ProposalPdfMeta): string {
-  return meta.cancelDeadlineText ?? "three business days after you sign";
+/**
+ * The right to cancel in the document's language. 16 CFR 429.1 asks for the contract and the
+ * notice in the language of the sales presentation; a Spanish document says its legal text is a
+ * translation and prints the English text after it (our choice: the English text prevails).
+ */
+function rightToCancel(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
+  const L = pdfLang(meta.locale);
+  cancelSection(flow, s, meta, L);
+  if (L.locale !== "en") {
+    flow.paragraph(translator(L.locale, "legal")("translationNotice"), { font: flow.fonts.sansBold, size: 10 });
+    flow.paragraph(L.t("cancel.englishFollows"), { size: 10 });
+    cancelSection(flow, s, meta, pdfLang("en"));
+  }
 }
 
-function rightToCancel(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
+function cancelSection(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta, L: Lang): void {
   const { fonts } = flow;
+  const { t } = L;
   flow.newPage();
-  flow.heading("Your right to cancel");
-  flow.paragraph(
-    `This proposal was presented to you in your home. Under the U.S. Federal Trade Commission's rule on sales made at home or away from the seller's place of business (16 CFR Part 429), you may cancel the agreement you sign, without any penalty or obligation, until midnight of the third business day after the day you sign.`,
-  );
-  flow.paragraph(
-    `${s.company.name} counts business days as Monday to Friday and leaves out U.S. federal holidays. That never gives you less time than the rule does, which counts Saturdays.`,
-  );
-  flow.facts(
-    [
-      {
-        label: "Last day to cancel",
-        value: meta.cancelDeadlineText
-          ? `${deadlineText(meta)}, until midnight`
-          : `${deadlineText(meta)}, until midnight (the date is filled in on the signed copy and shown on your proposal page)`,
-      },
-    ],
-    130,
-  );
-  flow.paragraph("How to cancel", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  flow.heading(t("cancel.heading"));
+  if (L.locale !== "en") flow.paragraph(translator(L.locale, "legal")("translationNotice"), { font: fonts.sansBold, size: 9.5, color: COLORS.copper });
+  flow.paragraph(t("cancel.intro"));
+  flow.paragraph(t("cancel.businessDays", { company: s.company.name }));
+  const deadline = meta.cancelDeadlineText ?? t("cancel.deadlineFallback");
+  flow.facts([{ label: t("cancel.lastDay"), value: t(meta.cancelDeadlineText ? "cancel.deadlineValue" : "cancel.deadlineValuePending", { deadline }) }], 130);
+  flow.paragraph(t("cancel.howTo"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
   flow.bullets([
-    `Sign and date one copy of the Notice of Cancellation on the next pages (or write your own notice) and mail or deliver it to ${s.company.name}${meta.sellerAddress ? ` at ${meta.sellerAddress}` : ""}, or e-mail it to ${s.rep.email}, before the deadline.`,
-    "Or use “Cancel this agreement” on your proposal page while the window is open; the page shows the deadline and confirms the cancellation.",
-    `If you cancel, ${s.company.name} returns every payment you made, including any deposit, within 10 business days of receiving your notice, and cancels any security interest arising from the sale.`,
+    meta.sellerAddress
+      ? t("cancel.howMailAddress", { company: s.company.name, address: meta.sellerAddress, email: s.rep.email })
+      : t("cancel.howMail", { company: s.company.name, email: s.rep.email }),
+    t("cancel.howPage"),
+    t("cancel.refund", { company: s.company.name }),
   ]);
-  flow.paragraph(RULE_STATEMENT, { font: fonts.sansBold, size: 10 });
-  noticeForm(flow, s, meta, "Copy 1 of 2: keep this copy");
-  noticeForm(flow, s, meta, "Copy 2 of 2: sign, date and send this copy to cancel");
+  flow.paragraph(t("cancel.ruleStatement"), { font: fonts.sansBold, size: 10 });
+  noticeForm(flow, s, meta, L, t("cancel.copy1"));
+  noticeForm(flow, s, meta, L, t("cancel.copy2"));
 }
 
 /**
@@ -431,41 +461,42 @@ function rightToCancel(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): 
  * deadline filled in. The statements are the rule's required wording; the explanation before
  * the form is our own.
  */
-function noticeForm(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta, copyLabel: string): void {
+function noticeForm(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta, L: Lang, copyLabel: string): void {
   const { fonts } = flow;
+  const { t } = L;
   const page = flow.newPage();
   markPage(page, PAGE_ROLE.cancelNotice);
   page.node.set(PDFName.of(DEADLINE_PRINTED_KEY), meta.cancelDeadlineText !== null ? PDFBool.True : PDFBool.False);
   let y = CONTENT_TOP - 16;
-  drawLine(page, "NOTICE OF CANCELLATION", PAGE_WIDTH / 2, y, { font: fonts.sansBold, size: 15, align: "center" });
+  drawLine(page, t("cancel.noticeTitle"), PAGE_WIDTH / 2, y, { font: fonts.sansBold, size: 15, align: "center" });
   y -= 16;
   drawLine(page, copyLabel, PAGE_WIDTH / 2, y, { font: fonts.sans, size: 9, color: COLORS.muted, align: "center" });
   for (const [box, label] of [
-    [NOTICE_TRANSACTION_DATE_BOX, "Date of transaction"],
-    [NOTICE_DEADLINE_BOX, "Last day to cancel (until midnight)"],
+    [NOTICE_TRANSACTION_DATE_BOX, t("cancel.transactionDate")],
+    [NOTICE_DEADLINE_BOX, t("cancel.lastDayMidnight")],
   ] as const) {
     drawLine(page, label, MARGIN_X, box.y + 7, { font: fonts.sansBold, size: 10 });
     page.drawLine({ start: { x: box.x, y: box.y + 3 }, end: { x: box.x + box.width, y: box.y + 3 }, thickness: 0.6, color: COLORS.graphite });
   }
   if (meta.cancelDeadlineText) drawLine(page, meta.cancelDeadlineText, NOTICE_DEADLINE_BOX.x + 4, NOTICE_DEADLINE_BOX.y + 7, { font: fonts.sans, size: 10 });
 
-  const seller = `${s.company.name}${meta.sellerAddress ? `, at ${meta.sellerAddress}` : ` (or by e-mail to ${s.rep.email})`}`;
+  const seller = meta.sellerAddress ? t("cancel.sellerAddress", { company: s.company.name, address: meta.sellerAddress }) : t("cancel.sellerEmail", { company: s.company.name, email: s.rep.email });
   const statements = [
-    "You may CANCEL this transaction, without any Penalty or Obligation, within THREE BUSINESS DAYS from the above date.",
-    "If you cancel, any property traded in, any payments made by you under the contract or sale, and any negotiable instrument executed by you will be returned within TEN BUSINESS DAYS following receipt by the seller of your cancellation notice, and any security interest arising out of the transaction will be cancelled.",
-    "If you cancel, you must make available to the seller at your residence, in substantially as good condition as when received, any goods delivered to you under this contract or sale, or you may, if you wish, comply with the instructions of the seller regarding the return shipment of the goods at the seller's expense and risk.",
-    "If you do make the goods available to the seller and the seller does not pick them up within 20 days of the date of your notice of cancellation, you may retain or dispose of the goods without any further obligation. If you fail to make the goods available to the seller, or if you agree to return the goods to the seller and fail to do so, then you remain liable for performance of all obligations under the contract.",
-    `To cancel this transaction, mail or deliver a signed and dated copy of this cancellation notice or any other written notice, or send a telegram, to ${seller}, NOT LATER THAN MIDNIGHT OF ${meta.cancelDeadlineText ?? "the last day to cancel shown above"}.`,
+    t("cancel.s1"),
+    t("cancel.s2"),
+    t("cancel.s3"),
+    t("cancel.s4"),
+    t("cancel.s5", { seller, deadline: meta.cancelDeadlineText ?? t("cancel.deadlineShownAbove") }),
   ];
   y = NOTICE_DEADLINE_BOX.y - 30;
   for (const st of statements) y = drawWrapped(page, st, MARGIN_X, y, CONTENT_WIDTH, { font: fonts.sansBold, size: 10 }) - 6;
   y -= 10;
-  drawLine(page, "I HEREBY CANCEL THIS TRANSACTION.", MARGIN_X, y, { font: fonts.sansBold, size: 11 });
+  drawLine(page, t("cancel.iCancel"), MARGIN_X, y, { font: fonts.sansBold, size: 11 });
   y -= 52;
   page.drawLine({ start: { x: MARGIN_X, y }, end: { x: MARGIN_X + 170, y }, thickness: 0.6, color: COLORS.graphite });
   page.drawLine({ start: { x: 290, y }, end: { x: 290 + 268, y }, thickness: 0.6, color: COLORS.graphite });
-  drawLine(page, "(Date)", MARGIN_X, y - 12, { font: fonts.sans, size: 9, color: COLORS.muted });
-  drawLine(page, "(Buyer's signature)", 290, y - 12, { font: fonts.sans, size: 9, color: COLORS.muted });
+  drawLine(page, t("cancel.date"), MARGIN_X, y - 12, { font: fonts.sans, size: 9, color: COLORS.muted });
+  drawLine(page, t("cancel.buyerSignature"), 290, y - 12, { font: fonts.sans, size: 9, color: COLORS.muted });
   y -= 40;
   drawWrapped(page, `${s.household.name}, ${s.household.street}, ${s.household.city}, ${s.household.region} ${s.household.postalCode} · ${proposalLabel(meta)}`, MARGIN_X, y, CONTENT_WIDTH, {
     font: fonts.sans,
@@ -481,51 +512,47 @@ function boxOutline(page: PDFPage, r: { x: number; y: number; width: number; hei
 
 function signaturePage(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
   const { fonts } = flow;
+  const { t, money } = pdfLang(meta.locale);
   const page = flow.newPage();
   markPage(page, PAGE_ROLE.signature);
-  flow.heading("Your agreement");
-  flow.paragraph(
-    `By signing below, I agree to buy the system of the offer named in the box below from ${s.company.name} for its contract price, as described in this proposal (${proposalLabel(meta)}). I have read the assumptions and disclosures and understand that production and savings are estimates.`,
-  );
-  flow.paragraph(
-    `Offers in this proposal: ${s.offers.map((o) => `${o.position}. ${o.name}, ${formatCents(o.figures.summary.contractCents)}`).join("; ")}.`,
-    { size: 9.5, color: COLORS.muted },
-  );
+  flow.heading(t("signature.heading"));
+  flow.paragraph(t("signature.agree", { company: s.company.name, label: proposalLabel(meta) }));
+  flow.paragraph(t("signature.offers", { list: s.offers.map((o) => `${o.position}. ${o.name}, ${money(o.figures.summary.contractCents)}`).join("; ") }), { size: 9.5, color: COLORS.muted });
 
   boxOutline(page, CHOSEN_OFFER_BOX);
-  drawLine(page, "Offer chosen", CHOSEN_OFFER_BOX.x + 8, CHOSEN_OFFER_BOX.y + CHOSEN_OFFER_BOX.height - 13, { font: fonts.sans, size: 8.5, color: COLORS.muted });
+  drawLine(page, t("signature.offerChosen"), CHOSEN_OFFER_BOX.x + 8, CHOSEN_OFFER_BOX.y + CHOSEN_OFFER_BOX.height - 13, { font: fonts.sans, size: 8.5, color: COLORS.muted });
 
   let y = CHOSEN_OFFER_BOX.y - 24;
   if (meta.inHomeSale) {
     // 16 CFR 429.1(a): in the contract, next to the buyer's signature, in bold of at least 10 points.
-    y = drawWrapped(page, RULE_STATEMENT, MARGIN_X, y, CONTENT_WIDTH, { font: fonts.sansBold, size: 10 });
+    y = drawWrapped(page, t("cancel.ruleStatement"), MARGIN_X, y, CONTENT_WIDTH, { font: fonts.sansBold, size: 10 });
   }
 
   boxOutline(page, SIGNATURE_BOX);
-  drawLine(page, "Signature of buyer", SIGNATURE_BOX.x, SIGNATURE_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
+  drawLine(page, t("signature.buyerSignature"), SIGNATURE_BOX.x, SIGNATURE_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
   page.drawLine({ start: { x: SIGNER_NAME_BOX.x, y: SIGNER_NAME_BOX.y }, end: { x: SIGNER_NAME_BOX.x + SIGNER_NAME_BOX.width, y: SIGNER_NAME_BOX.y }, thickness: 0.7, color: COLORS.graphite });
-  drawLine(page, "Name of buyer", SIGNER_NAME_BOX.x, SIGNER_NAME_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
+  drawLine(page, t("signature.buyerName"), SIGNER_NAME_BOX.x, SIGNER_NAME_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
   page.drawLine({ start: { x: SIGNED_DATE_BOX.x, y: SIGNED_DATE_BOX.y }, end: { x: SIGNED_DATE_BOX.x + SIGNED_DATE_BOX.width, y: SIGNED_DATE_BOX.y }, thickness: 0.7, color: COLORS.graphite });
-  drawLine(page, "Date signed", SIGNED_DATE_BOX.x, SIGNED_DATE_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
+  drawLine(page, t("signature.dateSigned"), SIGNED_DATE_BOX.x, SIGNED_DATE_BOX.y - 11, { font: fonts.sans, size: 8.5, color: COLORS.muted });
 
   const sideX = SIGNED_DATE_BOX.x;
   let sy = SIGNATURE_BOX.y + SIGNATURE_BOX.height - 10;
-  drawLine(page, "Seller", sideX, sy, { font: fonts.sans, size: 8.5, color: COLORS.muted });
+  drawLine(page, t("signature.seller"), sideX, sy, { font: fonts.sans, size: 8.5, color: COLORS.muted });
   sy -= 15;
   drawLine(page, s.company.name, sideX, sy, { font: fonts.sansBold, size: 10 });
   sy -= 14;
-  const lic = licenseText(s.company.licenseNumber);
+  const lic = licenseText(s.company.licenseNumber, meta.locale);
   if (lic) {
     drawLine(page, lic, sideX, sy, { font: fonts.sans, size: 9 });
     sy -= 14;
   }
-  drawLine(page, `Sales representative: ${s.rep.name}`, sideX, sy, { font: fonts.sans, size: 9 });
+  drawLine(page, t("signature.rep", { name: s.rep.name }), sideX, sy, { font: fonts.sans, size: 9 });
   sy -= 14;
   drawLine(page, s.rep.email, sideX, sy, { font: fonts.sans, size: 9, color: COLORS.muted });
 
   drawWrapped(
     page,
-    "Signed electronically on the proposal page after confirming the buyer's e-mail address; the signed copy carries a signing certificate after this page. Keep a copy for your records.",
+    t("signature.esignNote"),
     MARGIN_X,
     SIGNER_NAME_BOX.y - 40,
     CONTENT_WIDTH,
@@ -540,28 +567,29 @@ export async function renderProposalPdf(snapshot: ProposalSnapshot, meta: Propos
   const pdf = await PDFDocument.create({ updateMetadata: false });
   const fonts: DocFonts = await embedFonts(pdf);
   const flow = createFlow(pdf, fonts);
+  const L = pdfLang(meta.locale);
 
   cover(flow, snapshot, meta);
-  energyToday(flow, snapshot);
+  energyToday(flow, snapshot, L);
   for (const o of snapshot.offers) {
-    offerSystem(flow, snapshot, o);
-    offerMoney(flow, o);
-    offerTable(flow, o);
+    offerSystem(flow, o, L);
+    offerMoney(flow, o, L);
+    offerTable(flow, o, L);
   }
-  assumptions(flow, snapshot);
+  assumptions(flow, snapshot, L);
   if (meta.inHomeSale) rightToCancel(flow, snapshot, meta);
   signaturePage(flow, snapshot, meta);
 
   const frame: FrameInfo = { companyName: snapshot.company.name, licenseNumber: snapshot.company.licenseNumber, documentLabel: `${proposalLabel(meta)} · ${snapshot.household.name}` };
-  drawPageFrames(pdf, fonts, frame);
+  drawPageFrames(pdf, fonts, frame, { locale: L.locale });
   storeFrame(pdf, frame);
   setFixedMetadata(pdf, {
-    title: `Solar proposal ${meta.number}-${meta.version} for ${snapshot.household.name}`,
-    subject: `${snapshot.offers.length} offer${snapshot.offers.length === 1 ? "" : "s"} from ${snapshot.company.name}`,
+    title: L.t("frame.title", { number: meta.number, version: meta.version, household: snapshot.household.name }),
+    subject: L.t("frame.subject", { count: snapshot.offers.length, company: snapshot.company.name }),
     author: snapshot.company.name,
     date: meta.sentAt,
   });
-  pdf.setLanguage("en-US");
+  pdf.setLanguage(INTL_LOCALE[L.locale]);
   compressContentStreams(pdf);
   return pdf.save(SAVE_OPTIONS);
 }

@@ -6,6 +6,8 @@
 // Deterministic for the same input.
 import { PDFBool, PDFDict, PDFDocument, PDFHexString, PDFName, PDFString, type PDFImage, type PDFPage } from "pdf-lib";
 import { formatCents, formatDate, formatDateTime } from "@/lib/format";
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { embedFonts, type DocFonts } from "./fonts";
 import { COLORS, SAVE_OPTIONS, compressContentStreams, createFlow, drawLine, drawPageFrames, fitText, type FrameInfo, type TableColumn } from "./layout";
 import {
@@ -23,6 +25,8 @@ import {
 } from "./proposal-pdf";
 
 export type SignatureStamp = {
+  /** The document's language (the proposal PDF's): the stamp and the certificate speak it. */
+  locale?: Locale;
   signaturePng: Uint8Array;
   signerName: string;
   signerEmail: string;
@@ -105,15 +109,17 @@ function drawFitted(page: PDFPage, image: PDFImage, box: Rect, padding: number):
 
 /** The signature page's boxes: the chosen offer and price, the drawn signature, the typed name and the date. */
 function stampSignaturePage(sigPage: PDFPage, image: PDFImage, fonts: DocFonts, s: SignatureStamp, offerLine: string, priceLine: string): void {
+  const locale = s.locale ?? "en";
+  const t = translator(locale, "pdf.certificate");
   const ob = CHOSEN_OFFER_BOX;
   drawLine(sigPage, fitText(offerLine, fonts.sansBold, 13, ob.width - 16), ob.x + 8, ob.y + ob.height - 32, { font: fonts.sansBold, size: 13 });
   drawLine(sigPage, priceLine, ob.x + 8, ob.y + 9, { font: fonts.mono, size: 11 });
   drawFitted(sigPage, image, SIGNATURE_BOX, SIGNATURE_PADDING);
   drawLine(sigPage, fitText(s.signerName, fonts.sans, 12, SIGNER_NAME_BOX.width - 4), SIGNER_NAME_BOX.x + 2, SIGNER_NAME_BOX.y + 7, { font: fonts.sans, size: 12 });
-  drawLine(sigPage, fitText(formatDateTime(s.signedAt, s.timeZone), fonts.mono, 10, SIGNED_DATE_BOX.width - 4), SIGNED_DATE_BOX.x + 2, SIGNED_DATE_BOX.y + 7, { font: fonts.mono, size: 10 });
+  drawLine(sigPage, fitText(formatDateTime(s.signedAt, s.timeZone, "minutes", locale), fonts.mono, 10, SIGNED_DATE_BOX.width - 4), SIGNED_DATE_BOX.x + 2, SIGNED_DATE_BOX.y + 7, { font: fonts.mono, size: 10 });
   drawLine(
     sigPage,
-    fitText(`Signed electronically by ${s.signerName} <${s.signerEmail}> on ${formatDateTime(s.signedAt, s.timeZone, "seconds")} (${isoUtc(s.signedAt)}); see the signing certificate.`, fonts.sans, 7.5, SIGNATURE_BOX.width + 200),
+    fitText(t("stampLine", { name: s.signerName, email: s.signerEmail, at: formatDateTime(s.signedAt, s.timeZone, "seconds", locale), utc: isoUtc(s.signedAt) }), fonts.sans, 7.5, SIGNATURE_BOX.width + 200),
     SIGNATURE_BOX.x,
     SIGNATURE_BOX.y - 22,
     { font: fonts.sans, size: 7.5, color: COLORS.copper },
@@ -124,7 +130,7 @@ function stampSignaturePage(sigPage: PDFPage, image: PDFImage, fonts: DocFonts, 
 function fillCancelNotices(pages: PDFPage[], fonts: DocFonts, s: SignatureStamp): void {
   for (const page of pages) {
     if (pageRole(page) !== PAGE_ROLE.cancelNotice) continue;
-    drawLine(page, s.signedOnText ?? formatDate(s.signedAt, s.timeZone), NOTICE_TRANSACTION_DATE_BOX.x + 4, NOTICE_TRANSACTION_DATE_BOX.y + 7, { font: fonts.sans, size: 10 });
+    drawLine(page, s.signedOnText ?? formatDate(s.signedAt, s.timeZone, s.locale), NOTICE_TRANSACTION_DATE_BOX.x + 4, NOTICE_TRANSACTION_DATE_BOX.y + 7, { font: fonts.sans, size: 10 });
     const printed = page.node.get(PDFName.of(DEADLINE_PRINTED_KEY)) === PDFBool.True;
     if (!printed && s.cancelDeadlineText) {
       drawLine(page, s.cancelDeadlineText, NOTICE_DEADLINE_BOX.x + 4, NOTICE_DEADLINE_BOX.y + 7, { font: fonts.sans, size: 10 });
@@ -134,49 +140,45 @@ function fillCancelNotices(pages: PDFPage[], fonts: DocFonts, s: SignatureStamp)
 
 /** The signing certificate, appended on new pages: who, when, from where, the fingerprint, the events and the law. */
 function appendCertificate(pdf: PDFDocument, fonts: DocFonts, s: SignatureStamp, offerLine: string): void {
+  const locale = s.locale ?? "en";
+  const t = translator(locale, "pdf.certificate");
   const flow = createFlow(pdf, fonts);
-  flow.heading("Signing certificate");
-  flow.paragraph(`How ${s.proposalLabel} was signed electronically. This page was added when the signature was applied; the pages before it are the proposal as sent, with the signature stamped in.`, {
-    size: 9.5,
-    color: COLORS.muted,
-  });
+  flow.heading(t("heading"));
+  flow.paragraph(t("intro", { label: s.proposalLabel }), { size: 9.5, color: COLORS.muted });
   flow.facts([
-    { label: "Document", value: s.proposalLabel },
-    { label: "Signer", value: s.signerName },
-    { label: "E-mail", value: s.signerEmail },
-    { label: "Signed at", value: formatDateTime(s.signedAt, s.timeZone, "seconds"), mono: true },
-    { label: "Signed at (UTC)", value: isoUtc(s.signedAt), mono: true },
+    { label: t("document"), value: s.proposalLabel },
+    { label: t("signer"), value: s.signerName },
+    { label: t("email"), value: s.signerEmail },
+    { label: t("signedAt"), value: formatDateTime(s.signedAt, s.timeZone, "seconds", locale), mono: true },
+    { label: t("signedAtUtc"), value: isoUtc(s.signedAt), mono: true },
     // The address is the connection's (or the trusted proxy's report); the browser names itself.
-    { label: "IP address (connection)", value: s.ip, mono: true },
-    { label: "Browser (self-reported)", value: s.userAgent },
-    { label: "Offer chosen", value: `${offerLine}, ${formatCents(s.chosenContractCents)}` },
+    { label: t("ip"), value: s.ip, mono: true },
+    { label: t("browser"), value: s.userAgent },
+    { label: t("offerChosen"), value: `${offerLine}, ${formatCents(s.chosenContractCents, locale)}` },
   ]);
-  flow.paragraph("SHA-256 of the unsigned document", { size: 10, color: COLORS.muted, gapAfter: 2 });
+  flow.paragraph(t("sha"), { size: 10, color: COLORS.muted, gapAfter: 2 });
   flow.paragraph(s.unsignedSha256, { font: fonts.mono, size: 9 });
-  flow.paragraph(
-    "The fingerprint of this signed file cannot be printed inside it (printing it would change it); it is recorded with the signature and can be checked on the verify page.",
-    { size: 8.5, color: COLORS.muted },
-  );
-  flow.paragraph("Events", { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  flow.paragraph(t("shaNote"), { size: 8.5, color: COLORS.muted });
+  flow.paragraph(t("events"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
   const columns: TableColumn[] = [
-    { label: "Time", width: 148 },
-    { label: "Event", width: 76 },
-    { label: "Detail", width: 280 },
+    { label: t("time"), width: 148 },
+    { label: t("event"), width: 76 },
+    { label: t("detail"), width: 280 },
   ];
   flow.table(
     columns,
-    [...s.events].sort((a, b) => a.at.getTime() - b.at.getTime()).map((e) => ({ cells: [formatDateTime(e.at, s.timeZone, "seconds"), e.kind.replace(/_/g, " "), e.detail] })),
+    [...s.events].sort((a, b) => a.at.getTime() - b.at.getTime()).map((e) => ({ cells: [formatDateTime(e.at, s.timeZone, "seconds", locale), e.kind.replace(/_/g, " "), e.detail] })),
   );
-  flow.paragraph("Electronic signature and records", { font: fonts.sansBold, size: 11, gapAfter: 4 });
-  flow.bullets(
-    [
-      "Consent: before signing, the signer was shown the disclosure for electronic records and agreed to receive and sign this agreement electronically, as the U.S. ESIGN Act (15 U.S.C. 7001(c)) and the Uniform Electronic Transactions Act ask for consumers; the signer may withdraw consent or ask for a paper copy by writing to the seller.",
-      "Intent: the signer confirmed their e-mail address with a one-time code, typed their name, drew their signature and chose to sign.",
-      "Association: the signature, the typed name, the chosen offer and the date are stamped into this document, and the SHA-256 above ties them to the exact unsigned document that was sent.",
-      "Retention: the signed file is stored unchanged with its own SHA-256 recorded; the signer can download it from their proposal page for as long as the record is kept.",
-    ],
-    { size: 9 },
-  );
+  flow.paragraph(t("law"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  const law = ["consent", "intent", "association", "retention"] as const;
+  flow.bullets(law.map((k) => t(k)), { size: 9 });
+  if (locale !== "en") {
+    // Legal text in translation: say so and keep the English text (our choice: the English prevails).
+    const en = translator("en", "pdf.certificate");
+    flow.paragraph(translator(locale, "legal")("translationNotice"), { font: fonts.sansBold, size: 9.5 });
+    flow.paragraph(en("law"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
+    flow.bullets(law.map((k) => en(k)), { size: 9 });
+  }
 }
 
 /** Stamps the signature into the unsigned proposal and appends the signing certificate. */
@@ -187,17 +189,21 @@ export async function stampSignedPdf(unsigned: Uint8Array, s: SignatureStamp): P
   const pages = pdf.getPages();
   const originalCount = pages.length;
   const sigPage = pages.find((p) => pageRole(p) === PAGE_ROLE.signature) ?? pages[originalCount - 1];
-  const offerLine = `Offer ${s.chosenPosition}: ${s.chosenOfferName}`;
-  const priceLine = `Contract price ${formatCents(s.chosenContractCents)}`;
+  const locale = s.locale ?? "en";
+  const t = translator(locale, "pdf.certificate");
+  const offerLine = t("offerLine", { n: s.chosenPosition, name: s.chosenOfferName });
+  const priceLine = t("priceLine", { price: formatCents(s.chosenContractCents, locale) });
   stampSignaturePage(sigPage, image, fonts, s, offerLine, priceLine);
   fillCancelNotices(pages, fonts, s);
   appendCertificate(pdf, fonts, s, offerLine);
 
   const frame = readFrame(pdf, s.proposalLabel);
   const certPages = pdf.getPageCount() - originalCount;
+  const frameT = translator(locale, "pdf.frame");
   drawPageFrames(pdf, fonts, frame, {
     fromPage: originalCount,
-    pageLabel: (i) => `signing certificate, page ${i - originalCount + 1} of ${certPages}`,
+    locale,
+    pageLabel: (i) => frameT("certificatePage", { n: i - originalCount + 1, total: certPages }),
   });
   pdf.setModificationDate(s.signedAt);
   compressContentStreams(pdf);

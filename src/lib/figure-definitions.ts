@@ -2,6 +2,8 @@
 // numbers. The Offers tab, the homeowner's page and the proposal PDF all print these strings,
 // so the three never explain a figure differently. The definitions follow src/engine/cashflow.ts.
 import { formatCents } from "@/lib/format";
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import type { OfferAssumptions, OfferSummary } from "@/lib/offer-figures";
 
 type Figures = {
@@ -20,28 +22,25 @@ export type FigureDefinitions = {
 
 const pct = (v: number) => `${v.toLocaleString("en-US", { maximumFractionDigits: 2 })} %`;
 
+type T = ReturnType<typeof translator<"figures">>;
+
 /** Who pays what, in the ROI's denominator: the price net of credits for cash; the down payment and the loan's payments for a loan. */
-function roiBasisText(kind: "cash" | "loan", s: Figures["summary"]): string {
-  const basis = formatCents(s.roiBasisCents ?? s.netCostCents);
-  if (kind === "cash") return `${basis}, the cash price after the incentives and credits`;
-  const down = s.downPaymentCents ? `the ${formatCents(s.downPaymentCents)} down payment plus ` : "";
-  return `${basis}, ${down}all the loan's payments, less incentives paid back to you later`;
+function roiBasisText(kind: "cash" | "loan", s: Figures["summary"], t: T, locale: Locale): string {
+  const amount = formatCents(s.roiBasisCents ?? s.netCostCents, locale);
+  if (kind === "cash") return t("basisCash", { amount });
+  return s.downPaymentCents ? t("basisLoanDown", { amount, down: formatCents(s.downPaymentCents, locale) }) : t("basisLoan", { amount });
 }
 
-export function figureDefinitions(f: Figures, paymentKind: "cash" | "loan"): FigureDefinitions {
+/** The definitions in the reader's language (the homeowner's page and PDF pass theirs; the Offers tab English). */
+export function figureDefinitions(f: Figures, paymentKind: "cash" | "loan", locale: Locale = "en"): FigureDefinitions {
   const { summary: s, assumptions: a } = f;
-  const loanPart = paymentKind === "loan" ? ", loan payments as they fall due" : "";
-  const payback =
-    `Payback is the year in which the running total of bill savings, incentives and what you pay turns positive` +
-    ` (electricity prices rising ${pct(a.utilityEscalationPctPerYear)} a year, panel output falling ${pct(a.degradationPctPerYear)} a year${loanPart}).`;
-  const roi = `Simple ROI = (bill savings over ${a.years} years − what you pay) ÷ what you pay. What you pay: ${roiBasisText(paymentKind, s)}.`;
+  const t = translator(locale, "figures");
+  const rates = { escalation: pct(a.utilityEscalationPctPerYear), degradation: pct(a.degradationPctPerYear) };
+  const payback = t(paymentKind === "loan" ? "paybackLoan" : "payback", rates);
+  const roi = t("roi", { years: a.years, basis: roiBasisText(paymentKind, s, t, locale) });
   const simplePayback =
-    s.simplePaybackYears === undefined
-      ? null
-      : s.simplePaybackYears === null
-        ? "Simple payback (net cost ÷ first-year savings): none, as the first year saves nothing."
-        : `Simple payback (net cost ÷ first-year savings, without price rises or panel wear): ${s.simplePaybackYears.toFixed(1)} years.`;
-  const irr = s.irr === null && s.irrNote ? `IRR ${s.irrNote}.` : null;
+    s.simplePaybackYears === undefined ? null : s.simplePaybackYears === null ? t("simpleNone") : t("simple", { years: s.simplePaybackYears.toFixed(1) });
+  const irr = s.irr === null && s.irrNote ? t("irr", { note: s.irrNote }) : null;
   return { payback, roi, simplePayback, irr };
 }
 
@@ -49,19 +48,8 @@ export function figureDefinitions(f: Figures, paymentKind: "cash" | "loan"): Fig
  * One line on what each other figure of an offer means, for the homeowner's page (payback and
  * ROI have their own, above). Our wording; `years` is how many years the figures cover.
  */
-export function figureMeanings(years: number) {
-  return {
-    production: "What the panels should make in their first year, in a typical year's weather.",
-    usage: "What your home uses in a year, from your bills or meter readings.",
-    offset: "How much of your yearly use the panels make; over 100 % means they make more than you use.",
-    price: "What you pay for the system, before any incentive or tax credit.",
-    netCost: "The price less the incentives and tax credits expected for this system.",
-    monthlyLoan: "The loan's monthly payment.",
-    deposit: "Paid after you sign; it counts toward the price.",
-    billWithout: "Your electricity bills for a year at your utility's rates, without solar.",
-    billWith: "The same year's bills with the panels making part of your electricity.",
-    year1Savings: "The difference between those two bills.",
-    lifetimeSavings: `Bill savings added up over ${years} years, with electricity prices rising as assumed below.`,
-    ahead: `Bill savings and incentives over ${years} years, less everything you pay; below zero means you pay more than you save.`,
-  } as const;
+export function figureMeanings(years: number, locale: Locale = "en") {
+  const t = translator(locale, "figures.meanings");
+  const keys = ["production", "usage", "offset", "price", "netCost", "monthlyLoan", "deposit", "billWithout", "billWith", "year1Savings"] as const;
+  return { ...Object.fromEntries(keys.map((k) => [k, t(k)])), lifetimeSavings: t("lifetimeSavings", { years }), ahead: t("ahead", { years }) } as Record<(typeof keys)[number] | "lifetimeSavings" | "ahead", string>;
 }

@@ -1,20 +1,30 @@
 // Display formatting. Money is stored and passed in integer cents; only here does it become text.
-const usd = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD", maximumFractionDigits: 0 });
+// Every helper takes the reader's language (src/lib/i18n/locales.ts), English by default: the
+// homeowner's e-mails, PDFs and page pass theirs; staff screens stay English.
+import { DEFAULT_LOCALE, INTL_LOCALE, type Locale } from "@/lib/i18n/locales";
 
-export function formatCents(cents: number | null | undefined): string {
-  return cents == null ? "—" : usd.format(Math.round(cents) / 100);
+const numberFormats = new Map<string, Intl.NumberFormat>();
+function numberFormat(key: string, locale: Locale, options: Intl.NumberFormatOptions): Intl.NumberFormat {
+  let f = numberFormats.get(`${locale}|${key}`);
+  if (!f) numberFormats.set(`${locale}|${key}`, (f = new Intl.NumberFormat(INTL_LOCALE[locale], options)));
+  return f;
+}
+
+export function formatCents(cents: number | null | undefined, locale: Locale = DEFAULT_LOCALE): string {
+  return cents == null ? "—" : numberFormat("usd", locale, { style: "currency", currency: "USD", maximumFractionDigits: 0 }).format(Math.round(cents) / 100);
 }
 
 /** Money that may be below zero, with a minus sign (U+2212) before the dollar sign: "−$1,250", never "-$1,250" or "$-1,250". */
-export function formatSignedCents(cents: number | null | undefined): string {
+export function formatSignedCents(cents: number | null | undefined, locale: Locale = DEFAULT_LOCALE): string {
   if (cents == null) return "—";
+  const usd = numberFormat("usd", locale, { style: "currency", currency: "USD", maximumFractionDigits: 0 });
   return cents < 0 && Math.round(-cents / 100) !== 0 ? `−${usd.format(Math.round(-cents) / 100)}` : usd.format(Math.round(Math.abs(cents)) / 100);
 }
 
-const usdExact = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD", minimumFractionDigits: 2, maximumFractionDigits: 2 });
 /** Money to the cent ("$1,234.50"), for deposits, refunds and receipts; another currency as "12.34 EUR". */
-export function formatCentsExact(cents: number | null | undefined, currency = "usd"): string {
+export function formatCentsExact(cents: number | null | undefined, currency = "usd", locale: Locale = DEFAULT_LOCALE): string {
   if (cents == null) return "—";
+  const usdExact = numberFormat("usd-exact", locale, { style: "currency", currency: "USD", minimumFractionDigits: 2, maximumFractionDigits: 2 });
   return currency.toLowerCase() === "usd" ? usdExact.format(cents / 100) : `${(cents / 100).toFixed(2)} ${currency.toUpperCase()}`;
 }
 
@@ -43,17 +53,17 @@ export function daysSince(date: Date, now = new Date()): number {
 // (YYYY-MM-DD, no zone: install dates, deadlines) are shown as they are.
 
 const formats = new Map<string, Intl.DateTimeFormat>();
-function formatter(key: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
-  let f = formats.get(key);
-  if (!f) formats.set(key, (f = new Intl.DateTimeFormat("en-US", options)));
+function formatter(key: string, options: Intl.DateTimeFormatOptions, locale: Locale = DEFAULT_LOCALE): Intl.DateTimeFormat {
+  let f = formats.get(`${locale}|${key}`);
+  if (!f) formats.set(`${locale}|${key}`, (f = new Intl.DateTimeFormat(INTL_LOCALE[locale], options)));
   return f;
 }
 
-/** The day an instant falls on in the zone: "Dec 5, 2026". */
-export const formatDate = (at: Date, timeZone: string) => formatter(`d|${timeZone}`, { dateStyle: "medium", timeZone }).format(at);
+/** The day an instant falls on in the zone: "Dec 5, 2026" ("5 dic 2026" in Spanish). */
+export const formatDate = (at: Date, timeZone: string, locale: Locale = DEFAULT_LOCALE) => formatter(`d|${timeZone}`, { dateStyle: "medium", timeZone }, locale).format(at);
 
 /** An instant on the zone's clock, the zone named: "Dec 5, 2026, 7:30 PM HST" (with seconds: "7:30:12 PM HST"). */
-export const formatDateTime = (at: Date, timeZone: string, precision: "minutes" | "seconds" = "minutes") =>
+export const formatDateTime = (at: Date, timeZone: string, precision: "minutes" | "seconds" = "minutes", locale: Locale = DEFAULT_LOCALE) =>
   formatter(`dt|${precision}|${timeZone}`, {
     year: "numeric",
     month: "short",
@@ -63,7 +73,7 @@ export const formatDateTime = (at: Date, timeZone: string, precision: "minutes" 
     ...(precision === "seconds" ? { second: "2-digit" } : {}),
     timeZone,
     timeZoneName: "short",
-  }).format(at);
+  }, locale).format(at);
 
 /** The zone's short name at that instant ("HST", "EDT"; "GMT+9" where English has none). */
 export function zoneName(at: Date, timeZone: string): string {
@@ -79,6 +89,6 @@ const CALENDAR_STYLES: Record<CalendarDateStyle, Intl.DateTimeFormatOptions> = {
 };
 
 /** A calendar date (YYYY-MM-DD, already the company's day) as people read it; no zone shift. */
-export function formatCalendarDate(isoDate: string, style: CalendarDateStyle = "medium"): string {
-  return formatter(`c|${style}`, { ...CALENDAR_STYLES[style], timeZone: "UTC" }).format(new Date(`${isoDate}T00:00:00Z`));
+export function formatCalendarDate(isoDate: string, style: CalendarDateStyle = "medium", locale: Locale = DEFAULT_LOCALE): string {
+  return formatter(`c|${style}`, { ...CALENDAR_STYLES[style], timeZone: "UTC" }, locale).format(new Date(`${isoDate}T00:00:00Z`));
 }

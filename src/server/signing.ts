@@ -15,12 +15,15 @@ import { deal, proposal, proposalEvent } from "@/db/schema";
 import { SignatureImageError, stampSignedPdf } from "@/documents/signed-pdf";
 import { env } from "@/env";
 import { cancelDeadline } from "@/lib/business-days";
-import { formatCents, formatDate, formatDateTime, zoneName } from "@/lib/format";
+import { formatCalendarDate, formatCents, formatDate, formatDateTime, zoneName } from "@/lib/format";
+import { type Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { formatIsoDateLong, proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
 import { dateInZone } from "@/lib/zoned-time";
 import { MAX_VERIFY_FILE_BYTES, signProposalSchema, verifyCodeSchema, type ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import type { Stage } from "@/db/schema";
 import SignedCopyEmail from "@emails/signed-copy";
+import SignedNoticeEmail from "@emails/signed-notice";
 import SigningCodeEmail from "@emails/signing-code";
 import { getCompanySettings } from "@/server/company-settings";
 import type { ClientMeta } from "@/server/client-address";
@@ -111,8 +114,16 @@ export async function sendSigningCode(p: ProposalRow, token: string, client: Cli
     await sendEmail({
       companyId: p.companyId,
       to: p.sentToEmail,
-      subject: `Your signing code: ${code}`,
-      react: createElement(SigningCodeEmail, { companyName: p.snapshot.company.name, label: labelOf(p), code, minutes: CODE_TTL_MS / 60_000, proposalUrl: proposalUrl(token) }),
+      subject: translator(p.locale, "email.signingCode")("subject", { code }),
+      react: createElement(SigningCodeEmail, {
+        companyName: p.snapshot.company.name,
+        label: labelOf(p),
+        code,
+        minutes: CODE_TTL_MS / 60_000,
+        tries: MAX_CODE_ATTEMPTS,
+        proposalUrl: proposalUrl(token),
+        locale: p.locale,
+      }),
       idempotencyKey: `signing-code-${eventId}`,
     });
   } catch (err) {
@@ -341,7 +352,10 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
       const deadline = row.inHomeSale ? cancelDeadline(signedOn) : null;
       const unsigned = await readProposalPdf(row, "unsigned");
       if (sha256Hex(unsigned) !== row.pdfSha256) throw new Error(`proposal ${p.id}: the stored PDF does not match its recorded SHA-256`);
+      // The signed copy is the document as sent: its stamp and certificate speak the PDF's language.
+      const docLocale = row.snapshot.household.language ?? "en";
       const signed = await stampSignedPdf(unsigned, {
+        locale: docLocale,
         signaturePng,
         signerName,
         signerEmail: row.sentToEmail,
@@ -355,8 +369,8 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
         unsignedSha256: row.pdfSha256,
         proposalLabel: labelOf(row),
         events: certificateEvents,
-        cancelDeadlineText: deadline ? formatIsoDateLong(deadline) : null,
-        signedOnText: formatIsoDateLong(signedOn),
+        cancelDeadlineText: deadline ? formatCalendarDate(deadline, "full", docLocale) : null,
+        signedOnText: formatCalendarDate(signedOn, "full", docLocale),
       }).catch((err: unknown) => {
         if (err instanceof SignatureImageError) throw new HttpError(422, "validation_failed", `signaturePng: ${err.message}`, { signaturePng: [err.message] });
         throw err;
@@ -366,7 +380,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
       await recordSignature(tx, p, row, { position, signerName, offer, client, now, deadline, key, signedSha256 });
       const outcome = { signedAt: now, signedSha256, cancelDeadline: deadline, chosenPosition: position };
       // The copies are written with the signature, so a crash after the commit cannot lose them.
-      const mailIds = await queueSignedCopies(tx, p, token, { signerName, offerName: offer.name, contractCents: offer.figures.summary.contractCents, timeZone }, outcome);
+      const mailIds = await queueSignedCopies(tx, p, token, { signerName, offerName: offer.name, contractCents: offer.figures.summary.contractCents, timeZone, locale: row.locale }, outcome);
       return { ...outcome, mailIds };
     }),
   );
@@ -385,28 +399,27 @@ async function queueSignedCopies(
   tx: Tx,
   p: ProposalRow,
   token: string,
-  { signerName, offerName, contractCents, timeZone }: { signerName: string; offerName: string; contractCents: number; timeZone: string },
+  { signerName, offerName, contractCents, timeZone, locale }: { signerName: string; offerName: string; contractCents: number; timeZone: string; locale: Locale },
   r: SignedOutcome,
 ): Promise<string[]> {
-  const common = {
-    companyName: p.snapshot.company.name,
-    householdName: p.snapshot.household.name,
+  // The homeowner's copy in their language for this proposal; the rep's news in English.
+  const inLocale = (l: Locale) => ({
     signerName,
     label: labelOf(p),
     offerName,
-    price: formatCents(contractCents),
-    signedAt: formatDateTime(r.signedAt, timeZone),
-    cancelBy: r.cancelDeadline ? formatIsoDateLong(r.cancelDeadline) : null,
+    price: formatCents(contractCents, l),
+    signedAt: formatDateTime(r.signedAt, timeZone, "minutes", l),
+    cancelBy: r.cancelDeadline ? formatCalendarDate(r.cancelDeadline, "full", l) : null,
     sha256: r.signedSha256,
-  };
+  });
   return [
     await queueMail(tx, {
       companyId: p.companyId,
       kind: "signed-copy-customer",
       to: p.sentToEmail,
       replyTo: p.snapshot.rep.email,
-      subject: `Your signed agreement with ${p.snapshot.company.name} (${labelOf(p)})`,
-      react: createElement(SignedCopyEmail, { ...common, audience: "customer", url: proposalUrl(token) }),
+      subject: translator(locale, "email.signedCopy")("subject", { company: p.snapshot.company.name, label: labelOf(p) }),
+      react: createElement(SignedCopyEmail, { ...inLocale(locale), companyName: p.snapshot.company.name, url: proposalUrl(token), locale }),
       idempotencyKey: `signed-copy-customer-${p.id}`,
     }),
     await queueMail(tx, {
@@ -414,7 +427,7 @@ async function queueSignedCopies(
       kind: "signed-copy-rep",
       to: p.snapshot.rep.email,
       subject: `Signed: the ${p.snapshot.household.name} (${labelOf(p)})`,
-      react: createElement(SignedCopyEmail, { ...common, audience: "rep", url: dealProposalUrl(p.dealId) }),
+      react: createElement(SignedNoticeEmail, { ...inLocale("en"), householdName: p.snapshot.household.name, url: dealProposalUrl(p.dealId) }),
       idempotencyKey: `signed-copy-rep-${p.id}`,
     }),
   ];

@@ -1,6 +1,7 @@
 // The new-lead and household forms: one schema, used by the form and by the server.
 import { z } from "zod";
 import { sitePositionProblem } from "@/engine/site-position";
+import { LOCALES } from "@/lib/i18n/locales";
 import { plainText } from "@/lib/schemas/text";
 import { optionalIdField } from "@/lib/schemas/utility";
 
@@ -36,6 +37,8 @@ const householdFields = z.object({
   postalCode: z.string().trim().regex(/^[0-9]{5}(-[0-9]{4})?$/, "Enter a ZIP code like 27401"),
   latitude: z.number({ error: "Enter the latitude in degrees" }).min(-90, "Latitude is between −90 and 90").max(90, "Latitude is between −90 and 90"),
   longitude: z.number({ error: "Enter the longitude in degrees" }).min(-180, "Longitude is between −180 and 180").max(180, "Longitude is between −180 and 180"),
+  /** The homeowner's language for their page, PDF and e-mails; left out: unchanged (a new household: English). */
+  language: z.enum(LOCALES, { message: "Pick the homeowner's language: English or Español" }).optional(),
 });
 
 /** A blank or failed position must never be stored as 0, 0 (sitePositionProblem). */

@@ -2,6 +2,7 @@
 // inputs of sending, signing, asking and cancelling. The snapshot copies every figure, so the
 // customer's page and the PDF read only it, never the live offers, catalog or price book.
 import { z } from "zod";
+import type { Locale } from "@/lib/i18n/locales";
 import { plainText } from "@/lib/schemas/text";
 import type { OfferFigures } from "@/lib/offer-figures";
 import type { OfferInputs } from "@/lib/schemas/offer";
@@ -41,6 +42,8 @@ export type ProposalSnapshot = {
     postalCode: string;
     latitude: number;
     longitude: number;
+    /** The language the proposal was sent in (its PDF's); absent on proposals sent before there was a choice: English. */
+    language?: Locale;
   };
   utilityName: string | null;
   /** Monthly usage the offers were computed from (kWh, Jan–Dec) and where it came from. */

@@ -127,7 +127,7 @@ export async function getDepositForCustomer(token: string): Promise<CustomerDepo
 
 /** The same for a proposal already looked up by its token (the customer's page). */
 export async function depositForProposal(
-  p: Pick<ProposalRow, "id" | "companyId" | "status" | "chosenPosition"> & { snapshot: ProposalRow["snapshot"] },
+  p: Pick<ProposalRow, "id" | "companyId" | "status" | "chosenPosition" | "locale"> & { snapshot: ProposalRow["snapshot"] },
 ): Promise<CustomerDeposit | null> {
   if (p.status !== "signed" && p.status !== "cancelled") return null;
   const amountCents = depositCentsOf(p);
@@ -139,16 +139,17 @@ export async function depositForProposal(
   const row = rows.find((r) => BOOKED_STATUSES.includes(r.status)) ?? rows[0] ?? null;
   const cancelled = p.status === "cancelled";
   if (cancelled && (!row || !BOOKED_STATUSES.includes(row.status))) return null;
+  const locale = p.locale; // the homeowner's language for this proposal: money and the day paid as they read them
   return {
     status: row ? row.status : "due",
     amountCents,
-    amountText: formatCentsExact(amountCents),
+    amountText: formatCentsExact(amountCents, "usd", locale),
     paidCents: row?.paidCents ?? null,
-    paidText: row?.paidCents != null ? formatCentsExact(row.paidCents, row.currency) : null,
+    paidText: row?.paidCents != null ? formatCentsExact(row.paidCents, row.currency, locale) : null,
     paidAt: row?.paidAt?.toISOString() ?? null,
-    paidOnText: row?.paidAt ? formatDate(row.paidAt, timeZone) : null,
+    paidOnText: row?.paidAt ? formatDate(row.paidAt, timeZone, locale) : null,
     refundedCents: row?.refundedCents ?? 0,
-    refundedText: formatCentsExact(row?.refundedCents ?? 0),
+    refundedText: formatCentsExact(row?.refundedCents ?? 0, "usd", locale),
     failureMessage: row?.status === "failed" ? (row.failureMessage ?? "The payment did not go through.") : null,
     canPay: !cancelled && (!row || !BOOKED_STATUSES.includes(row.status)),
   };

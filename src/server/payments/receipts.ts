@@ -3,6 +3,7 @@ import { createElement } from "react";
 import { and, eq } from "drizzle-orm";
 import { company, deal, household, payment, proposal } from "@/db/schema";
 import { formatCalendarDate, formatCentsExact, formatDate } from "@/lib/format";
+import { translator } from "@/lib/i18n/translator";
 import { getCompanySettings } from "@/server/company-settings";
 import DepositReceiptEmail from "@emails/deposit-receipt";
 import { db, transaction, type Db, type Tx } from "@/server/db";
@@ -38,22 +39,26 @@ export async function depositReceiptMail(q: Db | Tx, paymentId: string) {
   }
   const offer = chosenOffer(c.prop);
   const { timeZone } = await getCompanySettings(c.p.companyId);
+  // The homeowner's language for this proposal (the household's, or what they chose on the page).
+  const locale = c.prop.locale;
+  const amount = formatCentsExact(c.p.paidCents, c.p.currency, locale);
   return {
     companyId: c.p.companyId,
     to: c.to,
-    subject: `Deposit received: ${formatCentsExact(c.p.paidCents, c.p.currency)} — ${c.companyName}`,
+    subject: translator(locale, "email.depositReceipt")("subject", { amount, company: c.companyName }),
     react: createElement(DepositReceiptEmail, {
       customerName: c.name,
       companyName: c.companyName,
-      amount: formatCentsExact(c.p.paidCents, c.p.currency),
-      paidOn: formatDate(c.p.paidAt ?? new Date(), timeZone),
+      amount,
+      paidOn: formatDate(c.p.paidAt ?? new Date(), timeZone, locale),
       proposalLabel: proposalLabelOf(c.prop),
-      offerName: offer?.name ?? "your chosen offer",
-      contractPrice: formatCentsExact(offer?.figures?.summary?.contractCents ?? null),
+      offerName: offer?.name ?? null,
+      contractPrice: formatCentsExact(offer?.figures?.summary?.contractCents ?? null, "usd", locale),
       reference: c.p.chargeId ?? c.p.paymentIntentId ?? c.p.checkoutSessionId,
-      cancelUntil: c.prop.inHomeSale && c.prop.cancelDeadline && !c.prop.cancelledAt ? formatCalendarDate(c.prop.cancelDeadline) : null,
+      cancelUntil: c.prop.inHomeSale && c.prop.cancelDeadline && !c.prop.cancelledAt ? formatCalendarDate(c.prop.cancelDeadline, "medium", locale) : null,
       repName: c.prop.snapshot.rep.name,
       repEmail: c.prop.snapshot.rep.email,
+      locale,
     }),
   };
 }

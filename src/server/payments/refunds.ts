@@ -4,6 +4,7 @@ import { and, eq, inArray } from "drizzle-orm";
 import Stripe from "stripe";
 import { payment, refund, type PaymentStatus } from "@/db/schema";
 import { formatCentsExact } from "@/lib/format";
+import { translator } from "@/lib/i18n/translator";
 import { can } from "@/lib/permissions";
 import RefundIssuedEmail from "@emails/refund-issued";
 import { db, transaction, type Tx } from "@/server/db";
@@ -169,16 +170,21 @@ export async function refundOnCancellation(companyId: string, dealId: string, re
 async function refundNoticeMail(tx: Tx, r: RefundRow) {
   const c = await receiptContext(tx, r.paymentId);
   const paid = c.p.paidCents ?? 0;
+  const locale = c.prop.locale;
+  const amount = formatCentsExact(r.amountCents, c.p.currency, locale);
+  const remainingCents = Math.max(0, paid - c.p.refundedCents);
   return {
     companyId: c.p.companyId,
     to: c.to,
-    subject: `Refund of ${formatCentsExact(r.amountCents, c.p.currency)} — ${c.companyName}`,
+    subject: translator(locale, "email.refundIssued")("subject", { amount, company: c.companyName }),
     react: createElement(RefundIssuedEmail, {
       customerName: c.name,
       companyName: c.companyName,
-      amount: formatCentsExact(r.amountCents, c.p.currency),
-      paid: formatCentsExact(paid, c.p.currency),
-      remaining: formatCentsExact(Math.max(0, paid - c.p.refundedCents), c.p.currency),
+      amount,
+      paid: formatCentsExact(paid, c.p.currency, locale),
+      remaining: formatCentsExact(remainingCents, c.p.currency, locale),
+      fullyRefunded: remainingCents === 0,
+      locale,
       reason: r.reason,
       proposalLabel: proposalLabelOf(c.prop),
       reference: r.stripeRefundId,

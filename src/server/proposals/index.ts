@@ -12,3 +12,4 @@ export { VIEW_THROTTLE_MS, recordProposalView, askQuestion } from "./customer-pa
 export { type CancelOutcome, cancelSignedProposal, cancelWindowOf } from "./cancel";
 export { withProposalToken } from "./public-routes";
 // The caller's address comes from the connection (client-address.ts), never from their headers.
+export { setProposalLocale } from "./language";

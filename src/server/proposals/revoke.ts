@@ -92,6 +92,7 @@ export async function resendProposal(member: Member, proposalId: string): Promis
     message: "",
     idempotencyKey: `proposal-resent-${eventId}`,
     resent: true,
+    locale: p.locale,
   });
   return { id: p.id, label: labelOf(p), number: p.number, version: p.version, expiresAt: p.expiresAt, ...mail };
 }

@@ -13,6 +13,8 @@ import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { missingStringPlanReason } from "@/lib/string-plan-rule";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { transaction, type Tx } from "@/server/db";
 import { openDeal, type DealScope } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
@@ -73,7 +75,7 @@ export async function snapshotSourceFor(scope: DealScope, offerIds: string[] | u
     takenAt,
     company: { name: scope.settings.name, licenseNumber: scope.settings.licenseNumber },
     rep: d.ownerName && d.ownerEmail ? { name: d.ownerName, email: d.ownerEmail } : { name: scope.member.name, email: scope.member.email },
-    household: { name: h.name, contactName: h.contactName, email: h.email, phone: h.phone, street: h.street, city: h.city, region: h.region, postalCode: h.postalCode, latitude: h.latitude, longitude: h.longitude },
+    household: { name: h.name, contactName: h.contactName, email: h.email, phone: h.phone, street: h.street, city: h.city, region: h.region, postalCode: h.postalCode, latitude: h.latitude, longitude: h.longitude, language: h.language },
     utilityName: d.utilityName ?? null,
     usage: { monthlyKwh: usage.monthlyKwh, source: usage.source, estimatedMonths: usage.estimatedMonths, fillMethod: usage.fillMethod },
     design: { lossesPct: saved.lossesPct, faces: saved.faces },
@@ -167,7 +169,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   try {
     numbering = await withFilesUndoneOnFailure((put) => transaction(async (tx) => {
       const { earlier, number, version } = await nextNumbering(tx, member.companyId, dealId);
-      const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, timeZone: scope.settings.timeZone, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
+      const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, timeZone: scope.settings.timeZone, locale: scope.household.language, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
       await put(key, pdf);
       await tx.insert(proposal).values({
         id,
@@ -184,6 +186,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
         sentToEmail: toEmail,
         sentByUserId: member.userId,
         inHomeSale,
+        locale: scope.household.language,
         createdAt: sentAt,
       });
       const live = earlier.filter((p) => p.status === "sent");
@@ -215,7 +218,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
     throw err;
   }
   const label = proposalLabel(numbering.number, numbering.version);
-  const mail = await mailProposalLink({ companyId: member.companyId, proposalId: id, dealId, token, snapshot, label, expiresAt, timeZone: scope.settings.timeZone, to: toEmail, message, idempotencyKey: `proposal-sent-${id}`, resent: false });
+  const mail = await mailProposalLink({ companyId: member.companyId, proposalId: id, dealId, token, snapshot, label, expiresAt, timeZone: scope.settings.timeZone, to: toEmail, message, idempotencyKey: `proposal-sent-${id}`, resent: false, locale: scope.household.language });
   return { id, label, ...numbering, expiresAt, ...mail };
 }
 
@@ -233,12 +236,14 @@ export async function mailProposalLink(m: {
   message: string;
   idempotencyKey: string;
   resent: boolean;
+  /** The homeowner's language for this proposal. */
+  locale: Locale;
 }): Promise<{ mailSent: boolean; mailError: string | null }> {
   try {
     await sendEmail({
       companyId: m.companyId,
       to: m.to,
-      subject: `${m.resent ? "New link: " : ""}Your solar proposal from ${m.snapshot.company.name} (${m.label})`,
+      subject: translator(m.locale, "email.proposalSent")(m.resent ? "subjectResent" : "subject", { company: m.snapshot.company.name, label: m.label }),
       replyTo: m.snapshot.rep.email,
       react: createElement(ProposalSentEmail, {
         companyName: m.snapshot.company.name,
@@ -246,10 +251,11 @@ export async function mailProposalLink(m: {
         householdName: m.snapshot.household.name,
         label: m.label,
         offerCount: m.snapshot.offers.length,
-        validUntil: formatDateTime(m.expiresAt, m.timeZone),
+        validUntil: formatDateTime(m.expiresAt, m.timeZone, "minutes", m.locale),
         proposalUrl: proposalUrl(m.token),
         message: m.message,
         resent: m.resent,
+        locale: m.locale,
       }),
       idempotencyKey: m.idempotencyKey,
     });

@@ -77,6 +77,18 @@ describe("PUT /api/deals/<id>/household", () => {
     expect((await storedHousehold()).city).toBe("High Point");
   });
 
+  it("keeps the homeowner's language: English for a new household, the rep's choice when saved, unchanged when left out", async () => {
+    expect((await storedHousehold()).language).toBe("en");
+    expect((await putJson(householdRoute, "rep", dealId, { ...home, language: "es" })).status).toBe(200);
+    expect((await storedHousehold()).language).toBe("es");
+    expect((await putJson(householdRoute, "rep", dealId, home)).status).toBe(200);
+    expect((await storedHousehold()).language).toBe("es");
+    await refusedNaming(await putJson(householdRoute, "rep", dealId, { ...home, language: "fr" }), "language");
+    expect((await storedHousehold()).language).toBe("es");
+    expect((await putJson(householdRoute, "rep", dealId, { ...home, language: "en" })).status).toBe(200);
+    expect((await storedHousehold()).language).toBe("en");
+  });
+
   it("refuses a bad body naming the field (422), and malformed JSON (400), saving nothing", async () => {
     await refusedNaming(await putJson(householdRoute, "owner", dealId, { ...home, name: "x" }), "name");
     await refusedNaming(await putJson(householdRoute, "owner", dealId, { ...home, latitude: "36.1" }), "latitude");

@@ -177,7 +177,10 @@ export async function waitFor<T>(what: string, probe: () => Promise<T | null | u
 export type SignedProposal = { token: string; proposalId: string; dealId: string; number: number; email: string };
 
 /** A deal at Signed with a signed proposal whose chosen offer asks `depositCents`. */
-export async function signedProposal(owner: Member, opts: { depositCents?: number; stage?: Stage; status?: "signed" | "sent" | "cancelled"; rep?: Member } = {}): Promise<SignedProposal> {
+export async function signedProposal(
+  owner: Member,
+  opts: { depositCents?: number; stage?: Stage; status?: "signed" | "sent" | "cancelled"; rep?: Member; locale?: "en" | "es" } = {},
+): Promise<SignedProposal> {
   const { db } = await import("@/server/db");
   const { newLinkToken } = await import("@/server/tokens");
   const rep = opts.rep ?? owner;
@@ -237,6 +240,7 @@ export async function signedProposal(owner: Member, opts: { depositCents?: numbe
     expiresAt: new Date(Date.now() + 30 * 86_400_000),
     sentToEmail: email,
     inHomeSale: true,
+    locale: opts.locale ?? "en",
     chosenPosition: status === "sent" ? null : 1,
     signedAt: status === "sent" ? null : new Date(),
     signerName: status === "sent" ? null : "Wren Testfield",

@@ -1,6 +1,7 @@
 "use client";
 import type { UseFormReturn } from "react-hook-form";
-import { Field, SelectField } from "@/components/ui/field";
+import { Field, SelectField, optionsOf } from "@/components/ui/field";
+import { LOCALES, LOCALE_NAMES } from "@/lib/i18n/locales";
 import type { HouseholdInput } from "@/lib/schemas/deal";
 import { numberFromField } from "@/lib/schemas/text";
 import type { FieldLabels } from "@/lib/validation-messages";
@@ -54,6 +55,14 @@ export function HouseholdFields({ form }: { form: UseFormReturn<HouseholdInput> 
         <Field id="phone" label="Phone" type="tel" autoComplete="off" error={errors.phone?.message} {...register("phone")} />
         <Field id="secondContactName" label="Second contact (optional)" error={errors.secondContactName?.message} {...register("secondContactName")} />
         <Field id="secondContactEmail" label="Second contact e-mail" type="email" error={errors.secondContactEmail?.message} {...register("secondContactEmail")} />
+        <SelectField
+          id="language"
+          label="Homeowner's language"
+          hint="Their proposal page, PDF and e-mails."
+          options={optionsOf(LOCALES, LOCALE_NAMES)}
+          error={errors.language?.message}
+          {...register("language")}
+        />
       </fieldset>
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-sm font-semibold uppercase tracking-wide text-graphite-soft">Site</legend>

@@ -1,4 +1,5 @@
 "use client";
+import { useTranslations } from "next-intl";
 import { useState } from "react";
 import { StatusMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
@@ -6,6 +7,7 @@ import { useSave } from "@/components/ui/use-save";
 /** "Cancel this agreement", with a second step so a stray tap cancels nothing. Shown only inside the window. */
 export function CancelForm({ token, deadlineText }: { token: string; deadlineText: string }) {
   const [confirming, setConfirming] = useState(false);
+  const t = useTranslations("page.cancel");
   // On success the page shows the cancelled agreement (router.refresh).
   const cancel = useSave<void>({ request: () => ({ url: `/api/public/proposals/${token}/cancel`, method: "POST" }) });
   const busy = cancel.pending;
@@ -13,21 +15,19 @@ export function CancelForm({ token, deadlineText }: { token: string; deadlineTex
   if (!confirming) {
     return (
       <button type="button" className="btn-danger w-full" onClick={() => setConfirming(true)}>
-        Cancel this agreement
+        {t("button")}
       </button>
     );
   }
   return (
-    <div className="space-y-3 rounded-md border border-danger/30 bg-danger-light p-3" role="group" aria-label="Confirm the cancellation">
-      <p className="text-sm">
-        This cancels the agreement you signed, without any penalty. Any deposit you paid is returned. You can do this until the end of {deadlineText}.
-      </p>
+    <div className="space-y-3 rounded-md border border-danger/30 bg-danger-light p-3" role="group" aria-label={t("confirmGroup")}>
+      <p className="text-sm">{t("confirmText", { deadline: deadlineText })}</p>
       <div className="flex flex-col gap-2 sm:flex-row">
         <button type="button" className="btn-danger flex-1" onClick={() => cancel.save()} disabled={busy}>
-          Yes, cancel the agreement
+          {t("yes")}
         </button>
         <button type="button" className="btn-quiet flex-1" onClick={() => setConfirming(false)} disabled={busy}>
-          Keep the agreement
+          {t("keep")}
         </button>
       </div>
       <StatusMessage notice={cancel.notice} />

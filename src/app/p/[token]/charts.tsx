@@ -1,17 +1,20 @@
 "use client";
 // The customer's two charts, sized for a phone: monthly usage (slate blue) against estimated
 // production (copper), and the cumulative cash flow over the years of the table.
+import { useLocale, useTranslations } from "next-intl";
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatCentsCompact, formatSignedCents } from "@/lib/format";
+import type { Locale } from "@/lib/i18n/locales";
 
-const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
 const USAGE = "#3E5C76";
 const PRODUCTION = "#B5542D";
 const GRID = "#E2D9CB";
 
 export function UsageProductionChart({ usageKwh, productionKwh }: { usageKwh: number[]; productionKwh: number[] }) {
+  const t = useTranslations("page.charts");
+  const MONTHS = t("months").split(",");
   const data = MONTHS.map((month, i) => ({ month, usage: Math.round(usageKwh[i] ?? 0), production: Math.round(productionKwh[i] ?? 0) }));
-  const label = `Monthly electricity use and estimated solar production: ${data.map((d) => `${d.month} ${d.usage} kWh used, ${d.production} kWh produced`).join("; ")}`;
+  const label = t("usageLabel", { months: data.map((d) => t("usageMonth", d)).join("; ") });
   return (
     <figure data-testid="usage-production-chart">
       <div className="h-56 w-full" role="img" aria-label={label}>
@@ -20,14 +23,14 @@ export function UsageProductionChart({ usageKwh, productionKwh }: { usageKwh: nu
             <CartesianGrid vertical={false} stroke={GRID} />
             <XAxis dataKey="month" tickLine={false} axisLine={false} fontSize={11} interval={0} tickFormatter={(m: string) => m.slice(0, 1)} />
             <YAxis tickLine={false} axisLine={false} fontSize={11} width={44} />
-            <Tooltip formatter={(v, name) => [`${Number(v).toLocaleString("en-US")} kWh`, name === "usage" ? "You use" : "Solar makes"]} />
-            <Legend formatter={(v) => (v === "usage" ? "You use" : "Solar makes (estimate)")} wrapperStyle={{ fontSize: 12 }} />
+            <Tooltip formatter={(v, name) => [`${Number(v).toLocaleString("en-US")} kWh`, name === "usage" ? t("youUse") : t("solarMakes")]} />
+            <Legend formatter={(v) => (v === "usage" ? t("youUse") : t("solarMakesEstimate"))} wrapperStyle={{ fontSize: 12 }} />
             <Bar dataKey="usage" fill={USAGE} radius={[2, 2, 0, 0]} isAnimationActive={false} />
             <Bar dataKey="production" fill={PRODUCTION} radius={[2, 2, 0, 0]} isAnimationActive={false} />
           </BarChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="mt-1 text-xs text-graphite-soft">kWh per month: your usage against the system&apos;s estimated production in year 1.</figcaption>
+      <figcaption className="mt-1 text-xs text-graphite-soft">{t("usageCaption")}</figcaption>
     </figure>
   );
 }
@@ -35,7 +38,9 @@ export function UsageProductionChart({ usageKwh, productionKwh }: { usageKwh: nu
 export function CashflowChart({ cumulativeCents }: { cumulativeCents: number[] }) {
   const data = cumulativeCents.map((c, year) => ({ year, dollars: Math.round(c / 100) }));
   const last = cumulativeCents[cumulativeCents.length - 1] ?? 0;
-  const label = `Cumulative cash flow over ${data.length - 1} years, ending at ${formatSignedCents(last)}`;
+  const t = useTranslations("page.charts");
+  const locale = useLocale() as Locale;
+  const label = t("cashflowLabel", { years: data.length - 1, amount: formatSignedCents(last, locale) });
   return (
     <figure data-testid="cashflow-chart">
       <div className="h-56 w-full" role="img" aria-label={label}>
@@ -45,14 +50,12 @@ export function CashflowChart({ cumulativeCents }: { cumulativeCents: number[] }
             <XAxis dataKey="year" tickLine={false} axisLine={false} fontSize={11} />
             <YAxis tickLine={false} axisLine={false} fontSize={11} width={52} tickFormatter={(v: number) => formatCentsCompact(v * 100)} />
             <ReferenceLine y={0} stroke="#52606D" />
-            <Tooltip formatter={(v) => [formatSignedCents(Number(v) * 100), "Ahead (or behind)"]} labelFormatter={(y) => `Year ${y}`} />
+            <Tooltip formatter={(v) => [formatSignedCents(Number(v) * 100, locale), t("ahead")]} labelFormatter={(y) => t("year", { year: String(y) })} />
             <Line type="monotone" dataKey="dollars" stroke={PRODUCTION} strokeWidth={2} dot={false} isAnimationActive={false} />
           </LineChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="mt-1 text-xs text-graphite-soft">
-        Cumulative cash flow: how far ahead (or behind) you are after each year, counting the price, incentives, loan payments and bill savings.
-      </figcaption>
+      <figcaption className="mt-1 text-xs text-graphite-soft">{t("cashflowCaption")}</figcaption>
     </figure>
   );
 }

@@ -1,6 +1,8 @@
 "use client";
+import { useTranslations } from "next-intl";
 import { useRouter } from "next/navigation";
-import { startTransition, useCallback, useEffect, useState } from "react";
+import { useHomeownerError } from "@/components/homeowner-errors";
+import { startTransition, type ReactNode, useCallback, useEffect, useState } from "react";
 import { FormMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { api, ApiError } from "@/lib/api-client";
@@ -31,6 +33,8 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
   // The button works only once this script runs (no dead press before the page is interactive).
   const [ready, setReady] = useState(false);
   const url = `/api/public/proposals/${encodeURIComponent(token)}/deposit`;
+  const t = useTranslations("page.deposit");
+  const errorText = useHomeownerError();
 
   useEffect(() => {
     const said = new URLSearchParams(window.location.search).get("deposit");
@@ -63,12 +67,13 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
   const checkout = useSave<void, { url: string }>({
     request: () => ({ url, method: "POST" }),
     refresh: false,
-    notify: (n) => setError(n?.tone === "error" ? n.text : null),
+    notify: (n) => n?.tone !== "error" && setError(null),
     onSaved: ({ url: checkoutUrl }) => {
       setPaying(true);
       window.location.assign(checkoutUrl);
     },
     onError: (err) => {
+      setError(errorText(err));
       if (err instanceof ApiError && (err.code === "already_paid" || err.code === "payment_confirming")) {
         setError(null);
         setReturned("returned");
@@ -81,13 +86,11 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
 
   return (
     <section id="deposit-panel" aria-labelledby="deposit-heading" className="card scroll-mt-4 p-4" data-testid="deposit-panel">
-      <h2 id="deposit-heading" className="text-lg font-semibold">
-        Deposit
-      </h2>
+      <h2 id="deposit-heading" className="text-lg font-semibold">{t("heading")}</h2>
       <div className="mt-2" aria-live="polite" data-testid="deposit-status" data-status={!ready && !settled ? "loading" : waiting ? "confirming" : deposit.status}>
         {!ready && !settled ? (
           // Until the page knows whether the customer just came back from checkout, say nothing that may be stale.
-          <p className="text-graphite-soft">Checking the deposit…</p>
+          <p className="text-graphite-soft">{t("checking")}</p>
         ) : waiting ? (
           <Confirming />
         ) : settled ? (
@@ -101,32 +104,34 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
 }
 
 function Confirming() {
+  const t = useTranslations("page.deposit");
   return (
     <p className="flex items-center gap-3" role="status">
       <span aria-hidden className="inline-block h-4 w-4 animate-spin rounded-full border-2 border-copper border-t-transparent" />
-      Confirming your payment… This takes a few seconds; you can keep this page open.
+      {t("confirming")}
     </p>
   );
 }
 
 function Settled({ deposit, companyName }: { deposit: CustomerDeposit; companyName: string }) {
+  const t = useTranslations("page.deposit");
+  const figure = (chunks: ReactNode) => <span className="figure font-semibold">{chunks}</span>;
   if (deposit.status === "flagged") {
     return (
       <FormMessage tone="info">
-        <strong>Payment received.</strong> {companyName} is checking the amount ({deposit.paidText}) against the deposit asked ({deposit.amountText}) and will contact you.
+        {t.rich("flagged", { company: companyName, paid: deposit.paidText ?? "", amount: deposit.amountText, strong: (chunks) => <strong>{chunks}</strong> })}
       </FormMessage>
     );
   }
   return (
     <div className="rounded-md border border-sage/40 bg-sage-light px-3 py-3">
-      <p className="font-semibold">Deposit received</p>
+      <p className="font-semibold">{t("received")}</p>
       <p className="mt-1">
-        <span className="figure font-semibold">{deposit.paidText}</span>
-        {deposit.paidOnText ? <> on {deposit.paidOnText}</> : null}. A receipt was e-mailed to you.
+        {deposit.paidOnText ? t.rich("receivedOn", { paid: deposit.paidText ?? "", date: deposit.paidOnText, figure }) : t.rich("receivedText", { paid: deposit.paidText ?? "", figure })}
       </p>
       {deposit.refundedCents > 0 ? (
         <p className="mt-1 text-sm">
-          {deposit.status === "refunded" ? "Refunded in full" : "Refunded so far"}: <span className="figure">{deposit.refundedText}</span>.
+          {t.rich(deposit.status === "refunded" ? "refundedFull" : "refundedSoFar", { amount: deposit.refundedText, figure: (chunks) => <span className="figure">{chunks}</span> })}
         </p>
       ) : null}
     </div>
@@ -135,29 +140,29 @@ function Settled({ deposit, companyName }: { deposit: CustomerDeposit; companyNa
 
 /** The deposit still to pay: why the last try did not go through, if it did not, and the button to the payment page. */
 function PayDeposit({ deposit, companyName, returned, gaveUp, error, ready, busy, onPay: pay }: { deposit: CustomerDeposit; companyName: string; returned: Returned; gaveUp: boolean; error: string | null; ready: boolean; busy: boolean; onPay: () => void }) {
+  const t = useTranslations("page.deposit");
   return (
     <>
       {deposit.status === "failed" ? (
         <FormMessage tone="error">
-          <strong>Your payment did not go through.</strong> {deposit.failureMessage} No money was taken. You can try again with the same or another card.
+          {t.rich("failed", { reason: deposit.failureMessage ?? "", strong: (chunks) => <strong>{chunks}</strong> })}
         </FormMessage>
       ) : null}
       {returned === "cancelled" && deposit.status !== "failed" ? (
-        <FormMessage tone="info">You left the payment page before paying; nothing was charged. Pay whenever you are ready.</FormMessage>
+        <FormMessage tone="info">{t("left")}</FormMessage>
       ) : null}
       {gaveUp ? (
         <FormMessage tone="info">
-          We have not heard from the card processor yet. If you paid, your receipt will arrive by e-mail; reload this page later to see it here.
+          {t("gaveUp")}
         </FormMessage>
       ) : null}
       <p className="mt-3">
-        {companyName} asks for a deposit of <span className="figure text-xl font-semibold">{deposit.amountText}</span> to start the project. It counts toward the
-        contract price.
+        {t.rich("ask", { company: companyName, amount: deposit.amountText, figure: (chunks) => <span className="figure text-xl font-semibold">{chunks}</span> })}
       </p>
       <button type="button" className="btn-primary mt-3 w-full" onClick={pay} disabled={!ready || busy} aria-busy={busy}>
-        {busy ? "Opening the payment page…" : deposit.status === "failed" ? `Try again: pay ${deposit.amountText}` : `Pay the deposit: ${deposit.amountText}`}
+        {busy ? t("opening") : deposit.status === "failed" ? t("tryAgain", { amount: deposit.amountText }) : t("pay", { amount: deposit.amountText })}
       </button>
-      <p className="mt-2 text-xs text-graphite-soft">You pay by card on the payment provider&apos;s secure page and come back here afterwards.</p>
+      <p className="mt-2 text-xs text-graphite-soft">{t("byCard")}</p>
       {error ? (
         <div className="mt-3">
           <FormMessage tone="error">{error}</FormMessage>

@@ -2,16 +2,22 @@
 // One offer of the snapshot as the customer reads it: the system, production against their
 // usage, the money (price, incentives, net cost, payment, deposit), the savings and the
 // cumulative cash flow. Every figure comes from the frozen snapshot.
+import { useLocale, useTranslations } from "next-intl";
+import type { ReactNode } from "react";
 import { figureDefinitions, figureMeanings } from "@/lib/figure-definitions";
 import { formatCents, formatCentsExact, formatSignedCents } from "@/lib/format";
 import { formatAprPct } from "@/lib/plain-words";
+import type { Locale } from "@/lib/i18n/locales";
 import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import { CashflowChart, UsageProductionChart } from "./charts";
 
 const kwh = (x: number) => `${Math.round(x).toLocaleString("en-US")} kWh`;
 /** Payback in years; none within the years the figures cover says how many years those are. */
-export const paybackText = (y: number | null, years: number) => (y === null ? `more than ${years} years` : `${y.toFixed(1)} years`);
-export const roiText = (r: number | null) => (r === null ? "—" : `${(r * 100).toFixed(0)} %`);
+export function usePaybackText(): (y: number | null, years: number) => string {
+  const t = useTranslations("page.offer");
+  return (y, years) => (y === null ? t("paybackNone", { years }) : t("paybackYears", { years: y.toFixed(1) }));
+}
+const roiText = (r: number | null) => (r === null ? "—" : `${(r * 100).toFixed(0)} %`);
 const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
 
 /** One figure: its label, its value and, where given, a line on what it means. */
@@ -29,15 +35,20 @@ function Row({ label, value, strong = false, testId, meaning }: { label: string;
   );
 }
 
-export function paymentText(o: ProposalSnapshotOffer): string {
+type T = ReturnType<typeof useTranslations<"page.offer">>;
+
+function paymentText(o: ProposalSnapshotOffer, t: T): string {
   const p = o.inputs.payment;
-  if (p.kind === "cash") return "Cash";
-  return `Loan: ${formatAprPct(p.aprPct)} APR over ${p.termMonths} months${p.dealerFeePct > 0 ? `, ${p.dealerFeePct} % dealer fee` : ""}`;
+  if (p.kind === "cash") return t("cash");
+  const loan = { apr: formatAprPct(p.aprPct), months: p.termMonths };
+  return p.dealerFeePct > 0 ? t("loanFee", { ...loan, fee: p.dealerFeePct }) : t("loan", loan);
 }
+
+const figure = (chunks: ReactNode) => <span className="figure">{chunks}</span>;
 
 /** What payback and ROI mean for this offer (and why there is no IRR, when there is none). */
 function FigureMeanings({ offer }: { offer: ProposalSnapshotOffer }) {
-  const d = figureDefinitions(offer.figures, offer.inputs.payment.kind);
+  const d = figureDefinitions(offer.figures, offer.inputs.payment.kind, useLocale() as Locale);
   return (
     <ul className="mt-2 space-y-1 text-xs text-graphite-soft" data-testid={`figure-definitions-${offer.position}`}>
       <li>{d.payback}</li>
@@ -47,69 +58,90 @@ function FigureMeanings({ offer }: { offer: ProposalSnapshotOffer }) {
   );
 }
 
-export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer; usageKwh: number[] }) {
+/** The system: modules, inverter, roof faces, production against usage. */
+function SystemSection({ offer, usageKwh, means }: { offer: ProposalSnapshotOffer; usageKwh: number[]; means: ReturnType<typeof figureMeanings> }) {
+  const t = useTranslations("page.offer");
   const f = offer.figures;
   const s = f.summary;
   const eq = offer.equipment;
+  return (
+    <section aria-label={t("system")} className="card p-4">
+      <h3 className="font-semibold">{t("system")}</h3>
+      <p className="mt-1 text-sm">
+        {t.rich("modules", {
+          count: eq.moduleCount,
+          make: eq.module.manufacturer,
+          model: eq.module.model,
+          watts: eq.module.stcWatts,
+          kw: s.kwDc.toFixed(2),
+          figure,
+          strong: (chunks) => <span className="figure font-semibold">{chunks}</span>,
+        })}
+      </p>
+      <p className="text-sm">
+        {eq.inverter.kind === "micro"
+          ? t("micro", { make: eq.inverter.manufacturer, model: eq.inverter.model })
+          : t("string", { make: eq.inverter.manufacturer, model: eq.inverter.model, kw: (eq.inverter.acWatts / 1000).toFixed(1) })}
+      </p>
+      <ul className="mt-2 space-y-0.5 text-sm text-graphite-soft">
+        {eq.faces.map((face) => (
+          <li key={face.name}>{t.rich("face", { name: face.name, count: face.moduleCount, tilt: face.tiltDeg, azimuth: face.azimuthDeg, access: face.solarAccessPct, figure })}</li>
+        ))}
+      </ul>
+      <dl className="mt-3 divide-y divide-paper-line text-sm">
+        <Row label={t("production")} value={kwh(s.annualProductionKwh)} meaning={means.production} />
+        <Row label={t("usage")} value={kwh(sum(usageKwh))} meaning={means.usage} />
+        <Row label={t("share")} value={`${s.offsetPct.toFixed(0)} %`} meaning={means.offset} />
+      </dl>
+      <div className="mt-3">
+        <UsageProductionChart usageKwh={usageKwh} productionKwh={f.monthly.productionKwh} />
+      </div>
+    </section>
+  );
+}
+
+export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer; usageKwh: number[] }) {
+  const f = offer.figures;
+  const s = f.summary;
   const billBefore = sum(f.monthly.billWithoutSolarCents);
   const billAfter = sum(f.monthly.billWithSolarCents);
-  const means = figureMeanings(f.assumptions.years);
+  const t = useTranslations("page.offer");
+  const locale = useLocale() as Locale;
+  const money = (c: number) => formatCents(c, locale);
+  const paybackText = usePaybackText();
+  const years = f.assumptions.years;
+  const means = figureMeanings(years, locale);
   return (
     <div className="space-y-5" data-testid={`offer-details-${offer.position}`}>
-      <section aria-label="The system" className="card p-4">
-        <h3 className="font-semibold">The system</h3>
-        <p className="mt-1 text-sm">
-          <span className="figure">{eq.moduleCount}</span> × {eq.module.manufacturer} {eq.module.model} (<span className="figure">{eq.module.stcWatts} W</span>) ={" "}
-          <span className="figure font-semibold">{s.kwDc.toFixed(2)} kW DC</span>
-        </p>
-        <p className="text-sm">
-          {eq.inverter.manufacturer} {eq.inverter.model}, {eq.inverter.kind === "micro" ? "microinverters (one per module group)" : `${(eq.inverter.acWatts / 1000).toFixed(1)} kW string inverter`}
-        </p>
-        <ul className="mt-2 space-y-0.5 text-sm text-graphite-soft">
-          {eq.faces.map((face) => (
-            <li key={face.name}>
-              {face.name}: <span className="figure">{face.moduleCount}</span> modules, tilt <span className="figure">{face.tiltDeg}°</span>, facing{" "}
-              <span className="figure">{face.azimuthDeg}°</span>, <span className="figure">{face.solarAccessPct} %</span> sun after shading
-            </li>
-          ))}
-        </ul>
-        <dl className="mt-3 divide-y divide-paper-line text-sm">
-          <Row label="Estimated production, year 1" value={kwh(s.annualProductionKwh)} meaning={means.production} />
-          <Row label="Your usage, a year" value={kwh(sum(usageKwh))} meaning={means.usage} />
-          <Row label="Share of your usage covered" value={`${s.offsetPct.toFixed(0)} %`} meaning={means.offset} />
-        </dl>
-        <div className="mt-3">
-          <UsageProductionChart usageKwh={usageKwh} productionKwh={f.monthly.productionKwh} />
-        </div>
-      </section>
+      <SystemSection offer={offer} usageKwh={usageKwh} means={means} />
 
-      <section aria-label="The price" className="card p-4">
-        <h3 className="font-semibold">The price</h3>
+      <section aria-label={t("price")} className="card p-4">
+        <h3 className="font-semibold">{t("price")}</h3>
         <dl className="mt-2 divide-y divide-paper-line text-sm">
           {f.price.lines.map((l, i) => (
-            <Row key={`${l.kind}-${l.id ?? i}`} label={`${l.label}${l.detail ? ` (${l.detail})` : ""}`} value={formatCents(l.amountCents)} />
+            <Row key={`${l.kind}-${l.id ?? i}`} label={`${l.label}${l.detail ? ` (${l.detail})` : ""}`} value={money(l.amountCents)} />
           ))}
-          <Row label="Price" value={formatCents(s.contractCents)} strong testId={`price-${offer.position}`} meaning={means.price} />
+          <Row label={t("priceTotal")} value={money(s.contractCents)} strong testId={`price-${offer.position}`} meaning={means.price} />
           {f.incentives.applied.map((a) => (
-            <Row key={a.id} label={`${a.name} (${a.year === 0 ? "at signing" : `year ${a.year}`})`} value={`−${formatCents(a.amountCents)}`} />
+            <Row key={a.id} label={a.year === 0 ? t("incentiveAtSigning", { name: a.name }) : t("incentiveYear", { name: a.name, year: a.year })} value={`−${money(a.amountCents)}`} />
           ))}
-          <Row label="Net cost after incentives" value={formatCents(s.netCostCents)} strong meaning={means.netCost} />
-          <Row label="Payment" value={paymentText(offer)} />
-          {s.monthlyLoanPaymentCents !== null ? <Row label="Monthly loan payment" value={formatCents(s.monthlyLoanPaymentCents)} strong meaning={means.monthlyLoan} /> : null}
-          <Row label="Deposit at signing" value={formatCentsExact(offer.depositCents)} meaning={means.deposit} />
+          <Row label={t("netCost")} value={money(s.netCostCents)} strong meaning={means.netCost} />
+          <Row label={t("payment")} value={paymentText(offer, t)} />
+          {s.monthlyLoanPaymentCents !== null ? <Row label={t("monthlyLoan")} value={money(s.monthlyLoanPaymentCents)} strong meaning={means.monthlyLoan} /> : null}
+          <Row label={t("deposit")} value={formatCentsExact(offer.depositCents, "usd", locale)} meaning={means.deposit} />
         </dl>
       </section>
 
-      <section aria-label="What it saves" className="card p-4">
-        <h3 className="font-semibold">What it saves</h3>
+      <section aria-label={t("saves")} className="card p-4">
+        <h3 className="font-semibold">{t("saves")}</h3>
         <dl className="mt-2 divide-y divide-paper-line text-sm">
-          <Row label="Electricity bills, year 1, without solar" value={formatCents(billBefore)} meaning={means.billWithout} />
-          <Row label="Electricity bills, year 1, with solar" value={formatCents(billAfter)} meaning={means.billWith} />
-          <Row label="Savings in year 1" value={formatCents(s.year1SavingsCents)} strong meaning={means.year1Savings} />
-          <Row label="Payback" value={paybackText(s.paybackYears, f.assumptions.years)} strong />
-          <Row label="Simple return on investment" value={roiText(s.simpleRoi)} />
-          <Row label={`Bill savings over ${f.assumptions.years} years`} value={formatCents(s.lifetimeSavingsCents)} meaning={means.lifetimeSavings} />
-          <Row label={`Ahead after ${f.assumptions.years} years`} value={formatSignedCents(s.lifetimeNetCents)} meaning={means.ahead} />
+          <Row label={t("billWithout")} value={money(billBefore)} meaning={means.billWithout} />
+          <Row label={t("billWith")} value={money(billAfter)} meaning={means.billWith} />
+          <Row label={t("savings1")} value={money(s.year1SavingsCents)} strong meaning={means.year1Savings} />
+          <Row label={t("payback")} value={paybackText(s.paybackYears, years)} strong />
+          <Row label={t("roi")} value={roiText(s.simpleRoi)} />
+          <Row label={t("billSavings", { years })} value={money(s.lifetimeSavingsCents)} meaning={means.lifetimeSavings} />
+          <Row label={t("ahead", { years })} value={formatSignedCents(s.lifetimeNetCents, locale)} meaning={means.ahead} />
         </dl>
         <FigureMeanings offer={offer} />
         <div className="mt-3">

@@ -6,11 +6,15 @@ import type { Metadata, Viewport } from "next";
 import { headers } from "next/headers";
 import { notFound } from "next/navigation";
 import type { ReactNode } from "react";
+import { HomeownerIntl } from "@/components/homeowner-intl";
+import { LanguageSwitch } from "@/components/language-switch";
 import { Wordmark } from "@/components/wordmark";
 import { figureDefinitions } from "@/lib/figure-definitions";
-import { formatCents, formatDate, formatDateTime } from "@/lib/format";
+import { formatCalendarDate, formatCents, formatDate, formatDateTime } from "@/lib/format";
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { plainAssumptions } from "@/lib/plain-words";
-import { formatIsoDateLong, proposalLinkState } from "@/lib/proposal-snapshot";
+import { proposalLinkState } from "@/lib/proposal-snapshot";
 import { dateInZone } from "@/lib/zoned-time";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { clientMeta } from "@/server/client-address";
@@ -25,11 +29,24 @@ import { ProposalView } from "./proposal-view";
 import { QuestionForm } from "./question-form";
 import { SignedHeading } from "./signed-heading";
 
-export const metadata: Metadata = {
-  title: "Your solar proposal",
-  robots: { index: false, follow: false },
-  // The token is in the address: never send it on to other sites.
-  referrer: "no-referrer",
+export async function generateMetadata({ params }: { params: Promise<{ token: string }> }): Promise<Metadata> {
+  const p = await findProposalByToken((await params).token);
+  return {
+    title: translator(p?.locale ?? "en", "page.meta")("title"),
+    robots: { index: false, follow: false },
+    // The token is in the address: never send it on to other sites.
+    referrer: "no-referrer",
+  };
+}
+
+/** The page's messages on the server, in the proposal's language. */
+type T = ReturnType<typeof translator<"page">>;
+
+/** Rich-text tags the page's messages use. */
+const tags = {
+  figure: (chunks: ReactNode) => <span className="figure font-semibold">{chunks}</span>,
+  b: (chunks: ReactNode) => <strong>{chunks}</strong>,
+  strong: (chunks: ReactNode) => <strong>{chunks}</strong>,
 };
 export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#FAF7F2" };
 
@@ -46,48 +63,55 @@ export default async function CustomerProposalPage({ params }: { params: Promise
   const label = labelOf(p);
   const state = proposalLinkState(p);
   const { timeZone } = await getCompanySettings(p.companyId); // every time on this page is on the company's clock
+  // The homeowner's language for this proposal: the household's, or their choice on this page.
+  const locale = p.locale;
+  const t = translator(locale, "page");
+  const rep = { rep: s.rep.name, email: s.rep.email, company: s.company.name };
+  const at = (d: Date) => formatDateTime(d, timeZone, "minutes", locale);
 
   return (
-    <Shell snapshot={s} label={label}>
-      {state === "live" ? <LivePage p={p} token={token} label={label} timeZone={timeZone} /> : null}
-      {state === "signed" ? <SignedPage p={p} token={token} timeZone={timeZone} /> : null}
-      {state === "cancelled" ? <CancelledPage p={p} token={token} timeZone={timeZone} /> : null}
-      {state === "expired" ? (
-        <Notice title="This proposal has expired" testId="state-expired">
-          Its link worked until {formatDateTime(p.expiresAt, timeZone)}. Prices and incentives change, so ask {s.rep.name} ({s.rep.email}) for an up-to-date proposal.
-        </Notice>
-      ) : null}
-      {state === "revoked" ? (
-        <Notice title="This proposal was withdrawn" testId="state-revoked">
-          {s.company.name} withdrew this proposal{p.revokedAt ? ` on ${formatDate(p.revokedAt, timeZone)}` : ""}, so it can no longer be read or signed. Ask {s.rep.name} ({s.rep.email}) if you
-          expected it.
-        </Notice>
-      ) : null}
-      {state === "replaced" ? (
-        <Notice title="This proposal was replaced by a newer version" testId="state-replaced">
-          {s.company.name} sent you a newer version of this proposal. Use the link in the newest e-mail from {s.rep.name}; this one can no longer be signed.
-        </Notice>
-      ) : null}
-    </Shell>
+    <HomeownerIntl locale={locale} timeZone={timeZone}>
+      <Shell snapshot={s} label={label} token={token} t={t} locale={locale}>
+        {state === "live" ? <LivePage p={p} token={token} label={label} timeZone={timeZone} t={t} /> : null}
+        {state === "signed" ? <SignedPage p={p} token={token} timeZone={timeZone} t={t} /> : null}
+        {state === "cancelled" ? <CancelledPage p={p} token={token} timeZone={timeZone} t={t} /> : null}
+        {state === "expired" ? (
+          <Notice title={t("states.expiredTitle")} testId="state-expired">
+            {t("states.expired", { until: at(p.expiresAt), ...rep })}
+          </Notice>
+        ) : null}
+        {state === "revoked" ? (
+          <Notice title={t("states.revokedTitle")} testId="state-revoked">
+            {p.revokedAt ? t("states.revokedOn", { date: formatDate(p.revokedAt, timeZone, locale), ...rep }) : t("states.revoked", rep)}
+          </Notice>
+        ) : null}
+        {state === "replaced" ? (
+          <Notice title={t("states.replacedTitle")} testId="state-replaced">
+            {t("states.replaced", rep)}
+          </Notice>
+        ) : null}
+      </Shell>
+    </HomeownerIntl>
   );
 }
 
-function Shell({ snapshot: s, label, children }: { snapshot: ProposalSnapshot; label: string; children: ReactNode }) {
+function Shell({ snapshot: s, label, token, t, locale, children }: { snapshot: ProposalSnapshot; label: string; token: string; t: T; locale: Locale; children: ReactNode }) {
   return (
-    <div className="mx-auto max-w-2xl px-4 pb-16 pt-5">
+    <div lang={locale} className="mx-auto max-w-2xl px-4 pb-16 pt-5">
       <header className="border-b border-paper-line pb-4">
-        <p className="text-lg font-semibold">{s.company.name}</p>
-        {s.company.licenseNumber ? <p className="text-xs text-graphite-soft">License {s.company.licenseNumber}</p> : null}
-        <h1 className="mt-3 text-2xl font-semibold">Solar proposal for the {s.household.name}</h1>
-        <p className="text-sm text-graphite-soft">
-          Proposal <span className="figure">{label}</span> · prepared by {s.rep.name} ({s.rep.email})
-        </p>
+        <div className="flex flex-wrap items-start justify-between gap-2">
+          <p className="text-lg font-semibold">{s.company.name}</p>
+          <LanguageSwitch token={token} />
+        </div>
+        {s.company.licenseNumber ? <p className="text-xs text-graphite-soft">{t("shell.license", { number: s.company.licenseNumber })}</p> : null}
+        <h1 className="mt-3 text-2xl font-semibold">{t("shell.title", { household: s.household.name })}</h1>
+        <p className="text-sm text-graphite-soft">{t.rich("shell.prepared", { label, rep: s.rep.name, email: s.rep.email, figure: (chunks) => <span className="figure">{chunks}</span> })}</p>
       </header>
       <main className="mt-5 space-y-5">{children}</main>
       <footer className="mt-10 flex items-center justify-between gap-3 border-t border-paper-line pt-4 text-xs text-graphite-soft">
         <Wordmark className="text-sm" />
         <a href="/verify" className="underline underline-offset-2">
-          Check a signed PDF
+          {t("shell.verifyLink")}
         </a>
       </footer>
     </div>
@@ -103,22 +127,20 @@ function Notice({ title, children, testId }: { title: string; children: ReactNod
   );
 }
 
-function HouseholdCard({ s }: { s: ProposalSnapshot }) {
+function HouseholdCard({ s, t }: { s: ProposalSnapshot; t: T }) {
   const h = s.household;
   const annual = Math.round(s.usage.monthlyKwh.reduce((a, b) => a + b, 0));
   return (
     <section aria-labelledby="household-heading" className="card p-4">
       <h2 id="household-heading" className="text-lg font-semibold">
-        Your home
+        {t("home.heading")}
       </h2>
       <p className="mt-1">{h.contactName ?? h.name}</p>
       <p className="text-sm text-graphite-soft">
         {h.street}, {h.city}, {h.region} {h.postalCode}
       </p>
-      {s.utilityName ? <p className="text-sm text-graphite-soft">Utility: {s.utilityName}</p> : null}
-      <p className="mt-2 text-sm">
-        You use about <span className="figure font-semibold">{annual.toLocaleString("en-US")} kWh</span> of electricity a year.
-      </p>
+      {s.utilityName ? <p className="text-sm text-graphite-soft">{t("home.utility", { name: s.utilityName })}</p> : null}
+      <p className="mt-2 text-sm">{t.rich("home.usage", { kwh: annual.toLocaleString("en-US"), figure: tags.figure })}</p>
     </section>
   );
 }
@@ -127,26 +149,24 @@ function HouseholdCard({ s }: { s: ProposalSnapshot }) {
  * How the figures were made, in words: the assumption sentences without station ids or method
  * citations (src/lib/plain-words.ts), then the methods named the way a homeowner can look them up.
  */
-function AssumptionsCard({ s }: { s: ProposalSnapshot }) {
+function AssumptionsCard({ s, t, locale }: { s: ProposalSnapshot; t: T; locale: Locale }) {
   return (
     <section aria-labelledby="assumptions-heading" className="card p-4">
       <h2 id="assumptions-heading" className="text-lg font-semibold">
-        How we estimated this
+        {t("assumptions.heading")}
       </h2>
       <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">
         {plainAssumptions(s.assumptions, s.offers).map((a) => (
           <li key={a}>{a}</li>
         ))}
         {s.offers.map((o) => {
-          const simple = figureDefinitions(o.figures, o.inputs.payment.kind).simplePayback;
+          const simple = figureDefinitions(o.figures, o.inputs.payment.kind, locale).simplePayback;
           return simple ? <li key={`simple-${o.position}`}>{s.offers.length > 1 ? `${o.name}: ${simple}` : simple}</li> : null;
         })}
       </ul>
-      <p className="mt-3 text-sm text-graphite-soft">
-        Production is estimated hour by hour over a typical year with the method of the U.S. National Renewable Energy Laboratory&apos;s free PVWatts calculator; bills with and
-        without solar follow your utility&apos;s published rates.
-      </p>
-      <h3 className="mt-4 font-semibold">Please note</h3>
+      <p className="mt-3 text-sm text-graphite-soft">{t("assumptions.method")}</p>
+      {locale !== "en" ? <p className="mt-1 text-xs text-graphite-soft">{t("assumptions.dataNote")}</p> : null}
+      <h3 className="mt-4 font-semibold">{t("assumptions.note")}</h3>
       <ul className="mt-2 list-disc space-y-1 rounded-md bg-caution-light py-2 pl-8 pr-3 text-sm">
         {s.cautions.map((c) => (
           <li key={c}>{c}</li>
@@ -157,43 +177,41 @@ function AssumptionsCard({ s }: { s: ProposalSnapshot }) {
 }
 
 /** The PDFs to keep; `signed` adds the signed copy (the signed page offers it in its confirmation instead). */
-function Downloads({ token, signed }: { token: string; signed: boolean }) {
+function Downloads({ token, signed, t }: { token: string; signed: boolean; t: T }) {
   return (
     <section aria-labelledby="downloads-heading" className="card p-4">
       <h2 id="downloads-heading" className="text-lg font-semibold">
-        Keep a copy
+        {t("downloads.heading")}
       </h2>
       <div className="mt-3 flex flex-col gap-2">
         {signed ? (
           <a href={`/api/public/proposals/${token}/signed-pdf`} className="btn-primary" download>
-            Download the signed PDF
+            {t("downloads.signed")}
           </a>
         ) : null}
         <a href={`/api/public/proposals/${token}/pdf`} className={signed ? "btn-quiet" : "btn-primary"} download>
-          Download the proposal PDF
+          {t("downloads.proposal")}
         </a>
       </div>
     </section>
   );
 }
 
-function LivePage({ p, token, label, timeZone }: { p: ProposalRow; token: string; label: string; timeZone: string }) {
+function LivePage({ p, token, label, timeZone, t }: { p: ProposalRow; token: string; label: string; timeZone: string; t: T }) {
   const s = p.snapshot;
   return (
     <>
-      <p className="text-sm">
-        This proposal is open until <strong>{formatDateTime(p.expiresAt, timeZone)}</strong>. Read it at your own pace, ask a question, and sign when you are ready.
-      </p>
-      <HouseholdCard s={s} />
+      <p className="text-sm">{t.rich("live.open", { until: formatDateTime(p.expiresAt, timeZone, "minutes", p.locale), b: tags.b })}</p>
+      <HouseholdCard s={s} t={t} />
       <ProposalView token={token} label={label} snapshot={s} />
-      <AssumptionsCard s={s} />
+      <AssumptionsCard s={s} t={t} locale={p.locale} />
       <QuestionForm token={token} repName={s.rep.name} />
-      <Downloads token={token} signed={false} />
+      <Downloads token={token} signed={false} t={t} />
     </>
   );
 }
 
-async function SignedPage({ p, token, timeZone }: { p: ProposalRow; token: string; timeZone: string }) {
+async function SignedPage({ p, token, timeZone, t }: { p: ProposalRow; token: string; timeZone: string; t: T }) {
   const s = p.snapshot;
   const offer = s.offers.find((o) => o.position === p.chosenPosition) ?? s.offers[0];
   const cancelWindow = await cancelWindowOf(p);
@@ -204,83 +222,68 @@ async function SignedPage({ p, token, timeZone }: { p: ProposalRow; token: strin
       <section aria-labelledby="signed-heading" className="card border-sage/40 bg-sage-light p-4" data-testid="state-signed">
         <SignedHeading token={token} />
         <p className="mt-1">
-          {p.signerName} signed on {p.signedAt ? formatDateTime(p.signedAt, timeZone) : "—"}, choosing &ldquo;{offer.name}&rdquo; at{" "}
-          <span className="figure font-semibold">{formatCents(offer.figures.summary.contractCents)}</span>. A copy was also e-mailed to you.
+          {t.rich("signed.text", {
+            signer: p.signerName ?? "",
+            date: p.signedAt ? formatDateTime(p.signedAt, timeZone, "minutes", p.locale) : "—",
+            offer: offer.name,
+            price: formatCents(offer.figures.summary.contractCents, p.locale),
+            figure: tags.figure,
+          })}
         </p>
         <a href={`/api/public/proposals/${token}/signed-pdf`} className="btn-primary mt-3 w-full" download>
-          Download the signed PDF
+          {t("downloads.signed")}
         </a>
         {depositDue && deposit ? (
           <div className="mt-4 border-t border-sage/40 pt-3">
-            <p className="font-semibold">Next: the deposit</p>
-            <p className="mt-1 text-sm">
-              {s.company.name} asks for a deposit of <span className="figure">{deposit.amountText}</span> to start your project. It counts toward the price.
-            </p>
+            <p className="font-semibold">{t("signed.nextDeposit")}</p>
+            <p className="mt-1 text-sm">{t.rich("signed.depositAsk", { company: s.company.name, amount: deposit.amountText, figure: (chunks) => <span className="figure">{chunks}</span> })}</p>
             <a href="#deposit-panel" className="btn-quiet mt-2 w-full">
-              Pay the deposit: {deposit.amountText}
+              {t("signed.payDeposit", { amount: deposit.amountText })}
             </a>
           </div>
         ) : null}
         <p className="mt-3 break-all text-xs text-graphite-soft">
-          Fingerprint (SHA-256) of the signed PDF: <span className="figure">{p.signedSha256}</span>. Anyone can check a copy on the{" "}
-          <a href="/verify" className="underline">
-            verify page
-          </a>
-          .
+          {t.rich("signed.fingerprint", {
+            sha256: p.signedSha256 ?? "",
+            figure: (chunks) => <span className="figure">{chunks}</span>,
+            verify: (chunks) => (
+              <a href="/verify" className="underline">
+                {chunks}
+              </a>
+            ),
+          })}
         </p>
       </section>
-      <Downloads token={token} signed={false} />
+      <Downloads token={token} signed={false} t={t} />
       <DepositPanel token={token} />
       <ProjectPanel token={token} />
-      {cancelWindow ? <RightToCancel p={p} token={token} cancelWindow={cancelWindow} /> : null}
-      <section aria-label={`Your offer ${offer.name}`}>
+      {cancelWindow ? <RightToCancel p={p} token={token} cancelWindow={cancelWindow} t={t} /> : null}
+      <section aria-label={t("signed.offerRegion", { name: offer.name })}>
         <h2 className="mb-3 text-xl font-semibold">{offer.name}</h2>
         <OfferDetails offer={offer} usageKwh={s.usage.monthlyKwh} />
       </section>
-      <AssumptionsCard s={s} />
+      <AssumptionsCard s={s} t={t} locale={p.locale} />
       <QuestionForm token={token} repName={s.rep.name} />
     </>
   );
 }
 
-function RightToCancel({ p, token, cancelWindow }: { p: ProposalRow; token: string; cancelWindow: { deadline: string; timeZone: string; open: boolean } }) {
-  const s = p.snapshot;
-  const deadlineText = formatIsoDateLong(cancelWindow.deadline);
-  const signedOn = p.signedAt ? formatIsoDateLong(dateInZone(p.signedAt, cancelWindow.timeZone)) : "—";
+function RightToCancel({ p, token, cancelWindow, t }: { p: ProposalRow; token: string; cancelWindow: { deadline: string; timeZone: string; open: boolean }; t: T }) {
+  const deadlineText = formatCalendarDate(cancelWindow.deadline, "full", p.locale);
   return (
     <section aria-labelledby="cancel-heading" className="card p-4" data-testid="right-to-cancel">
       <h2 id="cancel-heading" className="text-lg font-semibold">
-        Your right to cancel
+        {t("cancel.heading")}
       </h2>
-      <p className="mt-2 text-sm">
-        You signed this agreement in your home, so U.S. law (the Federal Trade Commission&apos;s rule, 16 CFR Part 429) lets you cancel it without any penalty or obligation
-        until midnight at the end of <strong data-testid="cancel-deadline">{deadlineText}</strong>. {s.company.name} counts business days as Monday to Friday without federal
-        holidays, which never gives you less time than the rule.
-      </p>
-      <div className="mt-3 rounded-md border border-paper-line p-3 text-sm">
-        <h3 className="text-center font-semibold tracking-wide">NOTICE OF CANCELLATION</h3>
-        <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1">
-          <dt className="text-graphite-soft">Date of transaction</dt>
-          <dd>{signedOn}</dd>
-          <dt className="text-graphite-soft">Last day to cancel</dt>
-          <dd>{deadlineText}</dd>
-        </dl>
-        <p className="mt-2 font-semibold">You may CANCEL this transaction, without any Penalty or Obligation, within THREE BUSINESS DAYS from the above date.</p>
-        <p className="mt-2 font-semibold">
-          If you cancel, any property traded in, any payments made by you under the contract or sale, and any negotiable instrument executed by you will be returned within TEN
-          BUSINESS DAYS following receipt by the seller of your cancellation notice, and any security interest arising out of the transaction will be cancelled.
-        </p>
-        <p className="mt-2">
-          To cancel, use the button below, or mail or deliver a signed and dated copy of the notice in your signed PDF (or any other written notice) to {s.company.name}, or e-mail{" "}
-          {s.rep.email}, not later than midnight of {deadlineText}.
-        </p>
-      </div>
+      <LegalInTranslation locale={p.locale} t={t}>
+        {(lt, l) => <CancelNotice p={p} cancelWindow={cancelWindow} t={lt} locale={l} testIds={l === p.locale} />}
+      </LegalInTranslation>
       <div className="mt-3">
         {cancelWindow.open ? (
           <CancelForm token={token} deadlineText={deadlineText} />
         ) : (
           <p className="text-sm text-graphite-soft" data-testid="cancel-closed">
-            The time to cancel ended with {deadlineText}.
+            {t("cancel.closed", { deadline: deadlineText })}
           </p>
         )}
       </div>
@@ -288,15 +291,65 @@ function RightToCancel({ p, token, cancelWindow }: { p: ProposalRow; token: stri
   );
 }
 
-function CancelledPage({ p, token, timeZone }: { p: ProposalRow; token: string; timeZone: string }) {
-  const s = p.snapshot;
+/**
+ * Legal text in the homeowner's language; in a translation it says so and keeps the English
+ * text, which prevails (our choice), one tap away.
+ */
+function LegalInTranslation({ locale, t, children }: { locale: Locale; t: T; children: (t: T, locale: Locale) => ReactNode }) {
+  if (locale === "en") return <>{children(t, locale)}</>;
   return (
     <>
-      <Notice title="This agreement was cancelled" testId="state-cancelled">
-        You cancelled the agreement{p.cancelledAt ? ` on ${formatDateTime(p.cancelledAt, timeZone)}` : ""}, inside the time the law gives you. {s.company.name} returns any payment you made,
-        including a deposit, within ten business days. Questions: {s.rep.name} ({s.rep.email}).
+      <p className="mt-2 text-xs font-semibold text-copper-dark">{translator(locale, "legal")("translationNotice")}</p>
+      {children(t, locale)}
+      <details className="mt-3 text-sm" lang="en">
+        <summary className="min-h-touch cursor-pointer py-2 underline" lang={locale}>
+          {t("esign.englishText")}
+        </summary>
+        {children(translator("en", "page"), "en")}
+      </details>
+    </>
+  );
+}
+
+/** The rule's explanation and the notice of cancellation (16 CFR 429.1), with this sale's dates. */
+function CancelNotice({ p, cancelWindow, t, locale, testIds }: { p: ProposalRow; cancelWindow: { deadline: string; timeZone: string }; t: T; locale: Locale; testIds: boolean }) {
+  const s = p.snapshot;
+  const deadline = formatCalendarDate(cancelWindow.deadline, "full", locale);
+  const signedOn = p.signedAt ? formatCalendarDate(dateInZone(p.signedAt, cancelWindow.timeZone), "full", locale) : "—";
+  return (
+    <>
+      <p className="mt-2 text-sm">
+        {t.rich("cancel.intro", {
+          deadline,
+          company: s.company.name,
+          b: (chunks) => <strong data-testid={testIds ? "cancel-deadline" : undefined}>{chunks}</strong>,
+        })}
+      </p>
+      <div className="mt-3 rounded-md border border-paper-line p-3 text-sm">
+        <h3 className="text-center font-semibold tracking-wide">{t("cancel.noticeTitle")}</h3>
+        <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1">
+          <dt className="text-graphite-soft">{t("cancel.transactionDate")}</dt>
+          <dd>{signedOn}</dd>
+          <dt className="text-graphite-soft">{t("cancel.lastDay")}</dt>
+          <dd>{deadline}</dd>
+        </dl>
+        <p className="mt-2 font-semibold">{t("cancel.s1")}</p>
+        <p className="mt-2 font-semibold">{t("cancel.s2")}</p>
+        <p className="mt-2">{t("cancel.how", { company: s.company.name, email: s.rep.email, deadline })}</p>
+      </div>
+    </>
+  );
+}
+
+function CancelledPage({ p, token, timeZone, t }: { p: ProposalRow; token: string; timeZone: string; t: T }) {
+  const s = p.snapshot;
+  const who = { company: s.company.name, rep: s.rep.name, email: s.rep.email };
+  return (
+    <>
+      <Notice title={t("states.cancelledTitle")} testId="state-cancelled">
+        {p.cancelledAt ? t("states.cancelledOn", { date: formatDateTime(p.cancelledAt, timeZone, "minutes", p.locale), ...who }) : t("states.cancelled", who)}
       </Notice>
-      {p.signedStorageKey ? <Downloads token={token} signed /> : null}
+      {p.signedStorageKey ? <Downloads token={token} signed t={t} /> : null}
       <DepositPanel token={token} />
     </>
   );

@@ -3,45 +3,40 @@
 // no staff names, permit numbers or internal notes.
 import type { Stage } from "@/lib/enums";
 import { formatCalendarDate } from "@/lib/format";
+import type { Locale } from "@/lib/i18n/locales";
+import { translator } from "@/lib/i18n/translator";
 import { getProjectProgress, type ProjectProgress } from "@/server/jobs";
 import { findProposalByToken } from "@/server/proposals";
 
-const STEPS: { stage: Stage; label: string }[] = [
-  { stage: "signed", label: "Signed" },
-  { stage: "deposit_paid", label: "Deposit paid" },
-  { stage: "survey", label: "Site survey" },
-  { stage: "permitting", label: "Permitting" },
-  { stage: "install_booked", label: "Install booked" },
-  { stage: "installed", label: "Installed" },
-  { stage: "inspected", label: "Inspected" },
-  { stage: "live", label: "Live" },
-];
+/** The stages the homeowner sees, in order (their names: page.project.stage in the catalogs). */
+const STEPS = ["signed", "deposit_paid", "survey", "permitting", "install_booked", "installed", "inspected", "live"] as const satisfies readonly Stage[];
 
-const day = (iso: string) => formatCalendarDate(iso, "full");
+type Step = { title: string; date: string | null; text: string };
 
-/** The next thing the customer can expect, with its date when there is one. */
-export function nextStep(p: ProjectProgress, companyName: string): { title: string; date: string | null; text: string } {
+/** The next thing the customer can expect, with its date when there is one, in their language. */
+export function nextStep(p: ProjectProgress, companyName: string, locale: Locale = "en"): Step {
+  const t = translator(locale, "page.project.steps");
+  const company = { company: companyName };
+  const step = (key: StepKey, date: string | null = null): Step => ({ title: t(`${key}Title`), date, text: t(`${key}Text`, company) });
   const j = p.job;
   const ahead = (iso: string | null | undefined): iso is string => !!iso && iso >= p.today;
-  const index = STEPS.findIndex((s) => s.stage === p.stage);
-  const before = (stage: Stage) => index >= 0 && index < STEPS.findIndex((s) => s.stage === stage);
-  if (p.stage === "signed") return { title: "Pay your deposit", date: null, text: `Once the deposit is paid, ${companyName} books a visit to survey your roof.` };
-  if (before("permitting") && ahead(j?.surveyDate)) return { title: "Site survey", date: j.surveyDate, text: "Someone from the crew measures the roof and checks the electrical panel. Please make sure they can reach both." };
-  if (p.stage === "deposit_paid") return { title: "Site survey", date: null, text: `${companyName} will contact you to pick a day for the site survey.` };
-  if (before("installed") && ahead(j?.installDate)) {
-    return j.permitApproved
-      ? { title: "Installation", date: j.installDate, text: "The crew installs the system; most homes take one to two days." }
-      : { title: "Installation (planned)", date: j.installDate, text: "The day is planned; it is confirmed once the permit is approved." };
-  }
-  if (p.stage === "survey") return { title: "Permit", date: null, text: `${companyName} prepares the plans and applies for your building permit.` };
-  if (p.stage === "permitting") return { title: "Permit approval", date: null, text: "The plans are with your local building department. We book the install once they approve them." };
-  if (p.stage === "install_booked") return { title: "Installation", date: null, text: "The install is booked; the crew will confirm the day." };
-  if (before("inspected") && ahead(j?.inspectionOn)) return { title: "Inspection", date: j.inspectionOn, text: "The local inspector checks the installation. Someone should be home to let them in." };
-  if (p.stage === "installed") return { title: "Inspection", date: null, text: `${companyName} books the inspection with your local building department.` };
-  if (p.stage === "inspected") return { title: "Permission to operate", date: null, text: "The utility reviews the inspection and gives permission to turn the system on. Please keep it switched off until then." };
-  if (p.stage === "live") return { title: "Your system is live", date: j?.ptoOn ?? null, text: "The utility has given permission to operate. Enjoy your solar power." };
-  return { title: "On hold", date: null, text: `${companyName} will be in touch about the next step.` };
+  const index = STEPS.findIndex((s) => s === p.stage);
+  const before = (stage: Stage) => index >= 0 && index < STEPS.findIndex((s) => s === stage);
+  if (p.stage === "signed") return step("payDeposit");
+  if (before("permitting") && ahead(j?.surveyDate)) return step("surveyDated", j.surveyDate);
+  if (p.stage === "deposit_paid") return step("survey");
+  if (before("installed") && ahead(j?.installDate)) return j.permitApproved ? step("install", j.installDate) : step("installPlanned", j.installDate);
+  if (p.stage === "survey") return step("permit");
+  if (p.stage === "permitting") return step("permitApproval");
+  if (p.stage === "install_booked") return step("installBooked");
+  if (before("inspected") && ahead(j?.inspectionOn)) return step("inspectionDated", j.inspectionOn);
+  if (p.stage === "installed") return step("inspection");
+  if (p.stage === "inspected") return step("pto");
+  if (p.stage === "live") return step("live", j?.ptoOn ?? null);
+  return step("onHold");
 }
+
+type StepKey = "payDeposit" | "surveyDated" | "survey" | "install" | "installPlanned" | "permit" | "permitApproval" | "installBooked" | "inspectionDated" | "inspection" | "pto" | "live" | "onHold";
 
 /** Shown on the customer's page under the signed proposal (src/app/p/[token]/page.tsx). */
 export async function ProjectPanel({ token }: { token: string }) {
@@ -50,37 +45,37 @@ export async function ProjectPanel({ token }: { token: string }) {
   const progress = await getProjectProgress(p.companyId, p.dealId);
   if (!progress) return null;
   const companyName = p.snapshot.company.name;
+  const locale = p.locale;
+  const t = translator(locale, "page.project");
   // A paused or closed deal shows no stage track.
-  const current = STEPS.findIndex((s) => s.stage === progress.stage);
+  const current = STEPS.findIndex((s) => s === progress.stage);
   if (current < 0) {
     return (
       <section className="card p-5" aria-labelledby="project-heading" data-testid="project-panel">
         <h2 id="project-heading" className="text-lg font-semibold">
-          Your project
+          {t("heading")}
         </h2>
-        <p className="mt-1 text-graphite-soft">
-          {progress.stage === "on_hold" ? `Your project is paused. ${companyName} will be in touch.` : `${companyName} will be in touch about your project.`}
-        </p>
+        <p className="mt-1 text-graphite-soft">{progress.stage === "on_hold" ? t("paused", { company: companyName }) : t("inTouch", { company: companyName })}</p>
       </section>
     );
   }
-  const next = nextStep(progress, companyName);
+  const next = nextStep(progress, companyName, locale);
   return (
     <section className="card p-5" aria-labelledby="project-heading" data-testid="project-panel">
       <h2 id="project-heading" className="text-lg font-semibold">
-        Your project
+        {t("heading")}
       </h2>
       <div className="mt-3 rounded-md border border-copper/30 bg-copper-light/40 p-4" data-testid="project-next">
-        <p className="text-sm text-graphite-soft">Next</p>
+        <p className="text-sm text-graphite-soft">{t("next")}</p>
         <p className="text-lg font-semibold">{next.title}</p>
-        {next.date ? <p className="figure text-copper-dark">{day(next.date)}</p> : null}
+        {next.date ? <p className="figure text-copper-dark">{formatCalendarDate(next.date, "full", locale)}</p> : null}
         <p className="mt-1 text-sm">{next.text}</p>
       </div>
-      <ol className="mt-4 space-y-0" aria-label="Project stages">
+      <ol className="mt-4 space-y-0" aria-label={t("stages")}>
         {STEPS.map((s, i) => {
           const state = i < current ? "done" : i === current ? "current" : "next";
           return (
-            <li key={s.stage} className="flex min-h-touch items-center gap-3" aria-current={state === "current" ? "step" : undefined} data-state={state}>
+            <li key={s} className="flex min-h-touch items-center gap-3" aria-current={state === "current" ? "step" : undefined} data-state={state}>
               <span
                 aria-hidden
                 className={`flex h-7 w-7 shrink-0 items-center justify-center rounded-full border-2 text-xs font-semibold ${
@@ -90,8 +85,8 @@ export async function ProjectPanel({ token }: { token: string }) {
                 {state === "done" ? "✓" : i + 1}
               </span>
               <span className={state === "next" ? "text-graphite-soft" : state === "current" ? "font-semibold" : ""}>
-                {s.label}
-                <span className="sr-only">{state === "done" ? " (done)" : state === "current" ? " (where your project is now)" : " (to come)"}</span>
+                {t(`stage.${s}`)}
+                <span className="sr-only">{state === "done" ? t("done") : state === "current" ? t("current") : t("toCome")}</span>
               </span>
             </li>
           );

@@ -1,20 +1,25 @@
 "use client";
 // The live proposal: choose one of the offers, read it, and sign it.
+import { useLocale, useTranslations } from "next-intl";
 import { useState } from "react";
 import { formatCents } from "@/lib/format";
+import type { Locale } from "@/lib/i18n/locales";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
-import { OfferDetails, paybackText } from "./offer-details";
+import { OfferDetails, usePaybackText } from "./offer-details";
 import { SigningPanel } from "./signing-panel";
 
 export function ProposalView({ token, label, snapshot }: { token: string; label: string; snapshot: ProposalSnapshot }) {
   const [position, setPosition] = useState(snapshot.offers[0]?.position ?? 1);
+  const t = useTranslations("page.choose");
+  const locale = useLocale() as Locale;
+  const paybackText = usePaybackText();
   const offer = snapshot.offers.find((o) => o.position === position) ?? snapshot.offers[0];
   if (!offer) return null;
   const many = snapshot.offers.length > 1;
   return (
     <div className="space-y-5">
       <fieldset className="card p-4">
-        <legend className="float-left w-full text-lg font-semibold">{many ? `Choose one of ${snapshot.offers.length} offers` : "Your offer"}</legend>
+        <legend className="float-left w-full text-lg font-semibold">{many ? t("legendMany", { count: snapshot.offers.length }) : t("legendOne")}</legend>
         <div className="clear-both space-y-2 pt-3">
           {snapshot.offers.map((o) => {
             const s = o.figures.summary;
@@ -28,13 +33,13 @@ export function ProposalView({ token, label, snapshot }: { token: string; label:
                 <span className="flex-1">
                   <span className="block font-medium">{o.name}</span>
                   <span className="block text-sm text-graphite-soft">
-                    <span className="figure">{s.kwDc.toFixed(2)} kW</span> · <span className="figure">{formatCents(s.contractCents)}</span> ·{" "}
+                    <span className="figure">{s.kwDc.toFixed(2)} kW</span> · <span className="figure">{formatCents(s.contractCents, locale)}</span> ·{" "}
                     {s.monthlyLoanPaymentCents !== null ? (
                       <>
-                        <span className="figure">{formatCents(s.monthlyLoanPaymentCents)}</span>/month ·{" "}
+                        <span className="figure">{t("perMonth", { amount: formatCents(s.monthlyLoanPaymentCents, locale) })}</span> ·{" "}
                       </>
                     ) : null}
-                    payback <span className="figure">{paybackText(s.paybackYears, o.figures.assumptions.years)}</span>
+                    {t("payback", { years: paybackText(s.paybackYears, o.figures.assumptions.years) })}
                   </span>
                 </span>
               </label>
@@ -43,7 +48,7 @@ export function ProposalView({ token, label, snapshot }: { token: string; label:
         </div>
       </fieldset>
 
-      <section aria-label={`Offer ${offer.name}`}>
+      <section aria-label={t("offerRegion", { name: offer.name })}>
         <h2 className="mb-3 text-xl font-semibold">{offer.name}</h2>
         <OfferDetails offer={offer} usageKwh={snapshot.usage.monthlyKwh} />
       </section>

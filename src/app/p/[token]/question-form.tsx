@@ -1,5 +1,7 @@
 "use client";
+import { useLocale, useTranslations } from "next-intl";
 import { useState, type FormEvent } from "react";
+import { useHomeownerError } from "@/components/homeowner-errors";
 import { FormMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { ApiError } from "@/lib/api-client";
@@ -9,11 +11,14 @@ export function QuestionForm({ token, repName }: { token: string; repName: strin
   const [question, setQuestion] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [sent, setSent] = useState(false);
+  const t = useTranslations("page.question");
+  const errorText = useHomeownerError();
+  const locale = useLocale();
   // The refusal belongs to the one field (its own message, or the request's).
   const ask = useSave<string>({
     request: (text) => ({ url: `/api/public/proposals/${token}/question`, method: "POST", json: { question: text } }),
     refresh: false,
-    onError: (err) => setError(err instanceof ApiError && err.fields?.question ? err.fields.question[0] : err.message),
+    onError: (err) => setError(err instanceof ApiError && err.fields?.question && locale === "en" ? err.fields.question[0] : errorText(err)),
     onSaved: () => {
       setSent(true);
       setQuestion("");
@@ -24,7 +29,7 @@ export function QuestionForm({ token, repName }: { token: string; repName: strin
     e.preventDefault();
     setError(null);
     if (question.trim().length < 3) {
-      setError("Write your question");
+      setError(t("empty"));
       return;
     }
     ask.save(question.trim());
@@ -33,12 +38,12 @@ export function QuestionForm({ token, repName }: { token: string; repName: strin
   return (
     <section aria-labelledby="question-heading" className="card p-4">
       <h2 id="question-heading" className="text-lg font-semibold">
-        Ask {repName} a question
+        {t("heading", { rep: repName })}
       </h2>
       <form className="mt-3 space-y-3" onSubmit={submit} noValidate>
         <div>
           <label htmlFor="question" className="field-label">
-            Your question
+            {t("label")}
           </label>
           <textarea
             id="question"
@@ -59,9 +64,9 @@ export function QuestionForm({ token, repName }: { token: string; repName: strin
           ) : null}
         </div>
         <button type="submit" className="btn-quiet w-full" disabled={ask.pending}>
-          Send question
+          {t("send")}
         </button>
-        {sent ? <FormMessage tone="success">Sent. {repName} answers by e-mail.</FormMessage> : null}
+        {sent ? <FormMessage tone="success">{t("sent", { rep: repName })}</FormMessage> : null}
       </form>
     </section>
   );

@@ -5,12 +5,16 @@
 // this screen only guides. A phone's resizes (rotation, browser bars) keep the drawing, and a
 // reload within the confirmation's 30 minutes goes straight back to the signing form.
 import { useCallback, useEffect, useRef, useState, type FormEvent, type RefObject } from "react";
+import { createTranslator, useLocale, useTranslations } from "next-intl";
 import type SignaturePad from "signature_pad";
+import { useHomeownerError } from "@/components/homeowner-errors";
 import { Field, StatusMessage, type Notice } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { api, ApiError } from "@/lib/api-client";
 import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { formatCents } from "@/lib/format";
+import type { Locale } from "@/lib/i18n/locales";
+import english from "@/lib/i18n/messages/en.json";
 
 type Chosen = { position: number; name: string; contractCents: number };
 type Props = { token: string; label: string; companyName: string; repName: string; repEmail: string; chosen: Chosen };
@@ -26,24 +30,30 @@ export const JUST_SIGNED_KEY = "kw-just-signed";
 export function SigningPanel({ token, label, companyName, repName, repEmail, chosen }: Props) {
   const base = `/api/public/proposals/${token}`;
   const { step, setStep, sentTo, code, setCode, codeError, message, setMessage, busy, requestCode, verify } = useCodeStep(base);
+  const t = useTranslations("page.sign");
+  const locale = useLocale() as Locale;
 
   return (
     <section aria-labelledby="sign-heading" className="card p-4" data-testid="signing-panel">
       <h2 id="sign-heading" className="text-lg font-semibold">
-        Sign this proposal
+        {t("heading")}
       </h2>
       <p className="mt-1 text-sm text-graphite-soft">
-        You are signing for <strong className="text-graphite">&ldquo;{chosen.name}&rdquo;</strong> at <span className="figure font-semibold text-graphite">{formatCents(chosen.contractCents)}</span>. To choose
-        another option, pick it above.
+        {t.rich("signingFor", {
+          offer: chosen.name,
+          price: formatCents(chosen.contractCents, locale),
+          strong: (chunks) => <strong className="text-graphite">{chunks}</strong>,
+          figure: (chunks) => <span className="figure font-semibold text-graphite">{chunks}</span>,
+        })}
       </p>
 
-      {step === "checking" ? <p className="mt-4 text-sm text-graphite-soft">Checking whether you already confirmed your e-mail…</p> : null}
+      {step === "checking" ? <p className="mt-4 text-sm text-graphite-soft">{t("checking")}</p> : null}
 
       {step === "start" ? (
         <div className="mt-4">
-          <p className="text-sm">First, confirm it is you: we e-mail a one-time code to the address this proposal was sent to.</p>
+          <p className="text-sm">{t("confirmFirst")}</p>
           <button type="button" className="btn-primary mt-3 w-full" onClick={requestCode} disabled={busy}>
-            E-mail me a code
+            {t("emailMeCode")}
           </button>
         </div>
       ) : null}
@@ -77,31 +87,43 @@ export function SigningPanel({ token, label, companyName, repName, repEmail, cho
   );
 }
 
-/** Our own wording of the consumer disclosures of the ESIGN Act, 15 U.S.C. 7001(c)(1). */
+/** Our own wording of the consumer disclosures of the ESIGN Act, 15 U.S.C. 7001(c)(1); in a translation, the English text (which prevails) one tap away. */
 export function EsignDisclosure({ companyName, repName, repEmail }: { companyName: string; repName: string; repEmail: string }) {
+  const locale = useLocale();
+  const t = useTranslations("page.esign");
+  const legal = useTranslations("legal");
   return (
     <div className="space-y-2 rounded-md border border-paper-line bg-paper-deep p-3 text-sm" data-testid="esign-disclosure">
-      <h3 className="font-semibold">Before you sign electronically</h3>
-      <p>
-        <strong>What you agree to.</strong> This proposal, the agreement you sign, its signed copy and the notices about it are given to you electronically: on this page and
-        by e-mail to the address the proposal was sent to. Your consent covers this agreement only.
-      </p>
-      <p>
-        <strong>Paper instead.</strong> You do not have to sign electronically. If you would rather sign on paper, do not sign here: ask {repName} for a paper agreement. You can
-        also ask {companyName} for a paper copy of any record at any time, free of charge.
-      </p>
-      <p>
-        <strong>Withdrawing your consent.</strong> You may withdraw your consent to electronic records at any time, free of charge, by writing to {repEmail}. From then on we send
-        records on paper; a signature you already gave stays valid.
-      </p>
-      <p>
-        <strong>Keeping your contact details current.</strong> If your e-mail address changes, tell {repName} at {repEmail} so notices keep reaching you.
-      </p>
-      <p>
-        <strong>What you need.</strong> A phone or computer with an up-to-date web browser, access to your e-mail, and a program that opens PDF files, plus room on your device
-        or a printer to keep a copy. Reading this page and opening the PDF shows you can open the records in the form we use.
-      </p>
+      <h3 className="font-semibold">{t("heading")}</h3>
+      {locale !== "en" ? <p className="text-xs font-semibold text-copper-dark">{legal("translationNotice")}</p> : null}
+      <EsignParagraphs t={t} companyName={companyName} repName={repName} repEmail={repEmail} />
+      {locale !== "en" ? (
+        <details lang="en">
+          <summary className="min-h-touch cursor-pointer py-2 underline" lang={locale}>
+            {t("englishText")}
+          </summary>
+          <EsignParagraphs t={ENGLISH_ESIGN} companyName={companyName} repName={repName} repEmail={repEmail} />
+        </details>
+      ) : null}
     </div>
+  );
+}
+
+type EsignT = (key: "agreeTitle" | "agree" | "paperTitle" | "paper" | "withdrawTitle" | "withdraw" | "contactTitle" | "contact" | "needTitle" | "need", values?: Record<string, string>) => string;
+
+/** The English disclosure, for the translation's "English text" (the client has only its own language's catalog). */
+const ENGLISH_ESIGN: EsignT = (key, values) => createTranslator({ locale: "en", messages: english, namespace: "page.esign" })(key, values);
+
+function EsignParagraphs({ t, companyName, repName, repEmail }: { t: EsignT; companyName: string; repName: string; repEmail: string }) {
+  const values = { company: companyName, rep: repName, email: repEmail };
+  return (
+    <>
+      {(["agree", "paper", "withdraw", "contact", "need"] as const).map((k) => (
+        <p key={k}>
+          <strong>{t(`${k}Title`)}</strong> {t(k, values)}
+        </p>
+      ))}
+    </>
   );
 }
 
@@ -129,24 +151,27 @@ function SignForm({
   const [typed, setTyped] = useState(false);
   const { canvasRef, padRef, empty, clear } = useSignaturePad(typed ? name.trim() : null);
   const [errors, setErrors] = useState<Record<string, string>>({});
+  const t = useTranslations("page.sign");
+  const locale = useLocale() as Locale;
+  const errorText = useHomeownerError();
   const signing = useSave<{ position: number; signerName: string; consent: true; signaturePng: string; signatureMethod: "drawn" | "typed" }>({
     request: (json) => ({ url: `${base}/sign`, method: "POST", json }),
     onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
     // The page refreshes into its signed state; its confirmation takes the focus (SignedHeading).
     onSaved: () => sessionStorage.setItem(JUST_SIGNED_KEY, token),
     onError: (err) => {
-      if (err instanceof ApiError && err.code === "code_required") onNeedCode(err.message);
+      if (err instanceof ApiError && err.code === "code_required") onNeedCode(errorText(err));
     },
   });
 
   function sign(e: FormEvent) {
     e.preventDefault();
     const found: Record<string, string> = {};
-    if (!consent) found.consent = "Agree to sign electronically to continue";
-    if (name.trim().length < 2) found.signerName = "Type your full name";
+    if (!consent) found.consent = t("consentNeeded");
+    if (name.trim().length < 2) found.signerName = t("nameNeeded");
     const pad = padRef.current;
     const canvas = canvasRef.current;
-    if (!typed && (!pad || pad.isEmpty())) found.signaturePng = "Draw your signature in the box, or use your typed name as your signature";
+    if (!typed && (!pad || pad.isEmpty())) found.signaturePng = t("signatureNeeded");
     setErrors(found);
     if (Object.keys(found).length > 0 || !canvas) return;
     signing.save({ position: chosen.position, signerName: name.trim(), consent: true, signaturePng: canvas.toDataURL("image/png"), signatureMethod: typed ? "typed" : "drawn" });
@@ -156,15 +181,20 @@ function SignForm({
     <form className="mt-4 space-y-4" onSubmit={sign} noValidate>
       <EsignDisclosure companyName={companyName} repName={repName} repEmail={repEmail} />
       <ConsentField consent={consent} setConsent={setConsent} error={errors.consent} />
-      <Field id="signer-name" label="Your full name" autoComplete="name" value={name} error={errors.signerName} onChange={(e) => setName(e.target.value)} />
+      <Field id="signer-name" label={t("nameLabel")} autoComplete="name" value={name} error={errors.signerName} onChange={(e) => setName(e.target.value)} />
       <SignatureField canvasRef={canvasRef} empty={empty} typed={typed} setTyped={setTyped} onClear={clear} error={errors.signaturePng} />
       <p className="text-sm">
-        By pressing <strong>Sign</strong> you sign proposal {label} for &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>, and you
-        intend your typed name and {typed ? "the signature made from it" : "drawn signature"} to be your signature.
+        {t.rich(typed ? "byPressingTyped" : "byPressing", {
+          label,
+          offer: chosen.name,
+          price: formatCents(chosen.contractCents, locale),
+          strong: (chunks) => <strong>{chunks}</strong>,
+          figure: (chunks) => <span className="figure">{chunks}</span>,
+        })}
       </p>
       <StatusMessage notice={signing.notice} />
       <button type="submit" className="btn-primary w-full" disabled={signing.pending}>
-        {signing.pending ? "Signing…" : "Sign"}
+        {signing.pending ? t("signing") : t("sign")}
       </button>
     </form>
   );
@@ -172,11 +202,12 @@ function SignForm({
 
 /** The one-time code from the e-mail, with a button for a new one. */
 function CodeForm({ code, setCode, codeError, busy, sentTo, onSubmit: verify, onResend: requestCode }: { code: string; setCode: (code: string) => void; codeError: string | null; busy: boolean; sentTo: string | null; onSubmit: (e: FormEvent) => void; onResend: () => void }) {
+  const t = useTranslations("page.sign");
   return (
     <form className="mt-4 space-y-3" onSubmit={verify} noValidate>
       <Field
         id="signing-code"
-        label="6-digit code"
+        label={t("codeLabel")}
         inputClassName="figure tracking-[0.3em]"
         inputMode="numeric"
         autoComplete="one-time-code"
@@ -187,19 +218,20 @@ function CodeForm({ code, setCode, codeError, busy, sentTo, onSubmit: verify, on
       />
       <div className="flex flex-col gap-2 sm:flex-row">
         <button type="submit" className="btn-primary flex-1" disabled={busy}>
-          Confirm code
+          {t("confirmCode")}
         </button>
         <button type="button" className="btn-quiet flex-1" onClick={requestCode} disabled={busy}>
-          Send a new code
+          {t("newCode")}
         </button>
       </div>
-      {sentTo ? <p className="text-xs text-graphite-soft">Sent to {sentTo}. Not there? Check the spam folder, or send a new code.</p> : null}
+      {sentTo ? <p className="text-xs text-graphite-soft">{t("sentTo", { to: sentTo })}</p> : null}
     </form>
   );
 }
 
 /** The customer's consent to electronic records and signatures (ESIGN Act, 15 U.S.C. 7001(c)(1)(A)). */
 function ConsentField({ consent, setConsent, error }: { consent: boolean; setConsent: (consent: boolean) => void; error: string | undefined }) {
+  const t = useTranslations("page.sign");
   return (
     <div>
       <label className="flex min-h-touch items-start gap-3 text-sm">
@@ -211,7 +243,7 @@ function ConsentField({ consent, setConsent, error }: { consent: boolean; setCon
           aria-invalid={error ? true : undefined}
           aria-describedby={error ? "consent-error" : undefined}
         />
-        <span>I have read the above, I can open and keep these records, and I agree to use electronic records and signatures for this agreement.</span>
+        <span>{t("consent")}</span>
       </label>
       {error ? (
         <p id="consent-error" className="field-error" role="alert">
@@ -238,10 +270,11 @@ function SignatureField({
   onClear: () => void;
   error: string | undefined;
 }) {
+  const t = useTranslations("page.sign");
   return (
     <div>
       <p id="signature-label" className="field-label">
-        Your signature
+        {t("signatureLabel")}
       </p>
       <canvas
         ref={canvasRef}
@@ -253,17 +286,17 @@ function SignatureField({
       />
       <div className="mt-1 flex items-center justify-between gap-2">
         <p id="signature-hint" className="text-xs text-graphite-soft">
-          {typed ? "Your typed name is your signature." : empty ? "Draw with your finger, a stylus or the mouse." : "Signature drawn."}
+          {typed ? t("hintTyped") : empty ? t("hintEmpty") : t("hintDrawn")}
         </p>
         {typed ? null : (
           <button type="button" className="btn-quiet" onClick={clear}>
-            Clear
+            {t("clear")}
           </button>
         )}
       </div>
       <label className="mt-2 flex min-h-touch items-start gap-3 text-sm">
         <input type="checkbox" className="mt-1 h-5 w-5 accent-copper" checked={typed} onChange={(e) => setTyped(e.target.checked)} />
-        <span>Use my typed name as my signature</span>
+        <span>{t("useTyped")}</span>
       </label>
       {error ? (
         <p className="field-error" role="alert">
@@ -289,6 +322,8 @@ function useCodeState(base: string, apply: (state: CodeState | null) => void) {
 
 /** The steps before signing: e-mail a one-time code, then check it. */
 function useCodeStep(base: string) {
+  const t = useTranslations("page.sign");
+  const errorText = useHomeownerError();
   const [step, setStep] = useState<Step>("checking");
   const [sentTo, setSentTo] = useState<string | null>(null);
   const [code, setCode] = useState("");
@@ -299,22 +334,24 @@ function useCodeStep(base: string) {
     useCallback((state: CodeState | null) => {
       if (state?.verified) {
         setStep("sign");
-        setMessage({ tone: "success", text: `E-mail confirmed. You have ${state.minutesLeft} ${state.minutesLeft === 1 ? "minute" : "minutes"} left to sign.` });
+        setMessage({ tone: "success", text: t("confirmedLeft", { minutes: state.minutesLeft }) });
       } else if (state?.codePending) {
         setSentTo(state.sentTo);
         setStep("code");
       } else setStep("start");
-    }, []),
+    }, [t]),
   );
   // The page is this panel's state until the signature: no refresh between the steps.
   const sendCode = useSave<void, { sentTo: string; expiresAt: string }>({
     request: () => ({ url: `${base}/code`, method: "POST" }),
     refresh: false,
+    // A refusal is worded in the page's language (onError runs after notify).
     notify: (n) => {
-      setMessage(n);
+      if (n?.tone !== "error") setMessage(n);
       if (!n) setCodeError(null);
     },
-    success: (r) => `We e-mailed a 6-digit code to ${r.sentTo}. It works for 10 minutes.`,
+    onError: (err) => setMessage({ tone: "error", text: errorText(err) }),
+    success: (r) => t("codeSent", { to: r.sentTo }),
     onSaved: (r) => {
       setSentTo(r.sentTo);
       setCode("");
@@ -326,11 +363,11 @@ function useCodeStep(base: string) {
     request: (value) => ({ url: `${base}/verify-code`, method: "POST", json: { code: value } }),
     refresh: false,
     notify: (n) => n?.tone !== "error" && setMessage(n),
-    success: "E-mail confirmed. You have 30 minutes to sign.",
+    success: t("confirmed"),
     onSaved: () => setStep("sign"),
     onError: (err) => {
-      if (err instanceof ApiError && ["code_locked", "code_expired", "no_code"].includes(err.code)) setMessage({ tone: "error", text: err.message });
-      else setCodeError(err.message);
+      if (err instanceof ApiError && ["code_locked", "code_expired", "no_code"].includes(err.code)) setMessage({ tone: "error", text: errorText(err) });
+      else setCodeError(errorText(err));
     },
   });
   const busy = sendCode.pending || checkCode.pending;
@@ -339,7 +376,7 @@ function useCodeStep(base: string) {
   function verify(e: FormEvent) {
     e.preventDefault();
     if (!/^\d{6}$/.test(code.trim())) {
-      setCodeError("Enter the 6 digits from the e-mail");
+      setCodeError(t("codeDigits"));
       return;
     }
     setCodeError(null);

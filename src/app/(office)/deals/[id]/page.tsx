@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { siteTimeZone } from "@/engine/site-time-zone";
+import { LOCALE_NAMES } from "@/lib/i18n/locales";
 import { sitePositionProblem } from "@/engine/site-position";
 import { listUtilityChoices } from "@/server/deals";
 import { getDesignForDeal } from "@/server/designs";
@@ -22,8 +23,8 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
   const positionProblem = sitePositionProblem(household.latitude, household.longitude);
   const station = positionProblem ? null : await siteStation(scope.companyId, household, design?.document.weather ?? { kind: "nearest" });
   const readOnly = !rights.edit;
-  const { name, street, city, region, postalCode, latitude, longitude } = household;
-  const site = { name, street, city, region, postalCode, latitude, longitude };
+  const { name, street, city, region, postalCode, latitude, longitude, language } = household;
+  const site = { name, street, city, region, postalCode, latitude, longitude, language };
   // The form's text fields take "" for a contact detail not given.
   const contacts = Object.fromEntries(CONTACT_FIELDS.map((k) => [k, household[k] ?? ""])) as Record<(typeof CONTACT_FIELDS)[number], string>;
   return (
@@ -40,6 +41,8 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
           <dd>{deal.ownerName ?? "—"}</dd>
           <dt className="text-graphite-soft">Source</dt>
           <dd>{deal.source ?? "—"}</dd>
+          <dt className="text-graphite-soft">Language</dt>
+          <dd data-testid="household-language">{LOCALE_NAMES[household.language]}</dd>
           <dt className="text-graphite-soft">Coordinates</dt>
           <dd className="figure">
             {household.latitude.toFixed(4)}, {household.longitude.toFixed(4)}

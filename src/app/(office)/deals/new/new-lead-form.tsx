@@ -16,7 +16,7 @@ const LEAD_LABELS = { ...HOUSEHOLD_LABELS, source: "Lead source" };
 
 export function NewLeadForm({ choices, sites }: { choices: UtilityChoices; sites: Site[] }) {
   const router = useRouter();
-  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema, { error: plainError(LEAD_LABELS) }), defaultValues: { region: "NC", source: "Referral", utilityId: "", ratePlanId: "" } });
+  const form = useForm<LeadInput>({ resolver: zodResolver(leadSchema, { error: plainError(LEAD_LABELS) }), defaultValues: { region: "NC", source: "Referral", utilityId: "", ratePlanId: "", language: "en" } });
   const { register, setValue, formState, watch } = form;
   const errors = formState.errors;
   const save = useSave<LeadInput, { dealId: string }, LeadInput>({
