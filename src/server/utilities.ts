@@ -1,10 +1,11 @@
 import "server-only";
 import { and, asc, count, eq } from "drizzle-orm";
 import type { z } from "zod";
-import { deal, ratePlan, utility } from "@/db/schema";
+import { deal, priceBook, ratePlan, utility } from "@/db/schema";
 import type { utilitySchema } from "@/lib/schemas/utility";
 import { db } from "@/server/db";
-import { HttpError, isDuplicateKey } from "@/server/errors";
+import { forbidden, HttpError, isDuplicateKey } from "@/server/errors";
+import { can } from "@/lib/permissions";
 import { companyRowOrThrow } from "@/server/records";
 import type { Member } from "@/server/session";
 
@@ -59,4 +60,38 @@ export async function updateUtility(member: Member, id: string, input: UtilityFi
     throw err;
   }
   return getUtilityOrThrow(member.companyId, id);
+}
+
+const counted = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+
+/**
+ * Deletes a utility nothing uses. A utility named by a deal's household, a rate plan or a price
+ * book incentive stays (409 naming what uses it and how many): deleting it would drop the rate
+ * plans with it and leave households and rebates without their utility. Inside one transaction
+ * with the utility's row locked, so a plan or household cannot take it up in between (their
+ * foreign keys wait for the lock).
+ */
+export async function deleteUtility(member: Member, id: string): Promise<{ id: string }> {
+  if (!can(member.role, "rates:manage")) throw forbidden("deleting utilities");
+  const u = await getUtilityOrThrow(member.companyId, id);
+  await db().transaction(async (tx) => {
+    await tx.select({ id: utility.id }).from(utility).where(and(eq(utility.id, id), eq(utility.companyId, member.companyId))).for("update");
+    const [[deals], [plans], books] = await Promise.all([
+      tx.select({ n: count() }).from(deal).where(and(eq(deal.companyId, member.companyId), eq(deal.utilityId, id))),
+      tx.select({ n: count() }).from(ratePlan).where(and(eq(ratePlan.companyId, member.companyId), eq(ratePlan.utilityId, id))),
+      tx.select({ document: priceBook.document }).from(priceBook).where(eq(priceBook.companyId, member.companyId)).for("update"),
+    ]);
+    const incentives = books.flatMap((b) => b.document.incentives).filter((rule) => rule.utilityId === id).length;
+    const uses = [
+      deals.n ? counted(deals.n, "household", "households") : null,
+      plans.n ? counted(plans.n, "rate plan", "rate plans") : null,
+      incentives ? counted(incentives, "price book incentive", "price book incentives") : null,
+    ].filter((x) => x !== null);
+    if (uses.length) {
+      const list = uses.length > 1 ? `${uses.slice(0, -1).join(", ")} and ${uses.at(-1)}` : uses[0];
+      throw new HttpError(409, "utility_in_use", `${u.name} is used by ${list}, so it cannot be deleted. Give ${deals.n + plans.n + incentives === 1 ? "it" : "them"} another utility first.`);
+    }
+    await tx.delete(utility).where(and(eq(utility.id, id), eq(utility.companyId, member.companyId)));
+  });
+  return { id };
 }
