@@ -64,7 +64,21 @@ function tsvWords(tsv: string): Word[] {
     const [block, par, line, , left, top, width, height, conf] = f.slice(2, 11).map(Number);
     words.push({ block, par, line, left, top, width, height, conf, text: f[11].trim() });
   }
-  return words;
+  return withoutSpecks(words);
+}
+
+/**
+ * Marks that are not words: specks read as ";", ":" or "|", and a bar's edge or a rule read as
+ * "|", "l", "dl" in a box far taller than the page's letters. Left in, they join a chart's month
+ * labels into one cell and, being tall, pull the lines around them into one. Dashes, "$", "&"
+ * and "%" stay (a period's "-", amounts).
+ */
+function withoutSpecks(words: Word[]): Word[] {
+  const heights = words.map((w) => w.height).sort((a, b) => a - b);
+  const typical = heights[Math.floor(heights.length / 2)] ?? 0;
+  const speck = (w: Word) => !/[\p{L}\p{N}$&%\-–—]/u.test(w.text);
+  const stroke = (w: Word) => w.height > typical * 2.5 && (w.text.length <= 2 || /^[|lI1!()[\]{}]+$/.test(w.text));
+  return words.filter((w) => !speck(w) && !stroke(w));
 }
 
 /**
@@ -83,7 +97,33 @@ function pageSlope(lines: Word[][]): number {
   return slopes.length >= 3 ? slopes[Math.floor(slopes.length / 2)] : 0;
 }
 
-/** tesseract's word boxes as the reader's text items: a word per item, every word of a line on the line's (deskewed) baseline. */
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
+type Band = { words: Word[]; top: number; bottom: number };
+
+/**
+ * tesseract's lines regrouped by where their words sit: lines whose (deskewed) boxes overlap by
+ * at least half the shorter one's height are one printed row. Sparse reading (psm 11) returns a
+ * chart's month labels as separate lines, and a label with a descender ("Jan") sits a little
+ * lower than its neighbours; apart, the reader would see two rows of months.
+ */
+function rows(lines: Word[][], slope: number): Band[] {
+  const bands = lines
+    .map((ws) => ({ words: ws, top: median(ws.map((w) => w.top - slope * (w.left + w.width / 2))), bottom: median(ws.map((w) => w.top + w.height - slope * (w.left + w.width / 2))) }))
+    .sort((a, b) => a.top + a.bottom - (b.top + b.bottom));
+  const out: Band[] = [];
+  for (const band of bands) {
+    const last = out.at(-1);
+    const overlap = last ? Math.min(last.bottom, band.bottom) - Math.max(last.top, band.top) : 0;
+    if (last && overlap >= 0.5 * Math.min(last.bottom - last.top, band.bottom - band.top)) {
+      last.words.push(...band.words);
+      [last.top, last.bottom] = [Math.min(last.top, band.top), Math.max(last.bottom, band.bottom)];
+    } else out.push({ ...band, words: [...band.words] });
+  }
+  return out;
+}
+
+/** tesseract's word boxes as the reader's text items: a word per item, every word of a row on the row's (deskewed) baseline. */
 export function tsvToPage(tsv: string, imageHeightPx: number, imageWidthPx: number): { page: BillPage; words: number; confidentWords: number } {
   const words = tsvWords(tsv);
   const byLine = new Map<string, Word[]>();
@@ -91,16 +131,13 @@ export function tsvToPage(tsv: string, imageHeightPx: number, imageWidthPx: numb
     const key = `${w.block}.${w.par}.${w.line}`;
     byLine.set(key, [...(byLine.get(key) ?? []), w]);
   }
-  const lines = [...byLine.values()];
-  const slope = pageSlope(lines);
+  const slope = pageSlope([...byLine.values()]);
   const scale = PAGE_WIDTH_PT / imageWidthPx;
   const items: TextItem[] = [];
-  for (const ws of lines) {
-    const heights = ws.map((w) => w.height).sort((a, b) => a - b);
-    const h = heights[Math.floor(heights.length / 2)];
-    // The line's baseline: the lowest bottom of its words without descenders is near enough the median bottom.
-    const bottoms = ws.map((w) => w.top + w.height - slope * (w.left + w.width / 2)).sort((a, b) => a - b);
-    const base = bottoms[Math.floor(bottoms.length / 2)];
+  for (const { words: ws } of rows([...byLine.values()], slope)) {
+    const h = median(ws.map((w) => w.height));
+    // The row's baseline: the median bottom of its words (words with descenders are the fewer).
+    const base = median(ws.map((w) => w.top + w.height - slope * (w.left + w.width / 2)));
     for (const w of ws) {
       items.push({ str: w.text, x: w.left * scale, y: (imageHeightPx - base) * scale, w: w.width * scale, h: h * scale * 0.8 });
     }
@@ -109,10 +146,12 @@ export function tsvToPage(tsv: string, imageHeightPx: number, imageWidthPx: numb
 }
 
 /**
- * Page segmentation: 3 lets tesseract find the page's blocks and columns (its default); 6 reads the
- * page as one block, which keeps table rows that 3 drops next to a dark corner of a photo.
+ * Page segmentation: 3 lets tesseract find the page's blocks and columns (its default); 11 looks
+ * for every piece of text wherever it is (sparse text), which keeps a bar chart's small value and
+ * month labels that 3 takes for part of a picture; 6 reads the page as one block, which keeps
+ * table rows that 3 drops next to a dark corner of a photo.
  */
-export type Psm = 3 | 6;
+export type Psm = 3 | 6 | 11;
 
 async function ocrPng(png: Buffer, dir: string, name: string, what: string, timeoutMs: number, psm: Psm) {
   const { default: sharp } = await import("sharp");
@@ -173,20 +212,26 @@ function filled(r: BillReading): number {
   return [r.period, r.kwh, r.amountDue].filter(Boolean).length + (r.history?.months.length ?? 0);
 }
 
+const complete = (r: BillReading) => Boolean(r.period && r.kwh && r.amountDue && (r.history?.months.length ?? 0) >= 12);
+
 /**
- * A photo or a scanned PDF read by OCR and then by the bill reader. When the first reading misses
- * a field or has under 12 months of history, the page is read again as one block (psm 6) and the
- * fuller reading is kept: a second run costs a few seconds, a missed field costs the rep typing.
+ * A photo or a scanned PDF read by OCR and then by the bill reader. When a reading misses a field
+ * or has under 12 months of history, the page is read again, as sparse text (psm 11) and then as
+ * one block (psm 6), and the fullest reading is kept: each run costs a few seconds, a missed
+ * field costs the rep typing.
  */
 export async function readBillByOcr(bytes: Uint8Array, kind: "image" | "pdf", opts: { timeoutMs?: number } = {}): Promise<{ reading: BillReading; ocr: OcrPages }> {
   const ocrOf = (psm: Psm) => (kind === "pdf" ? ocrScannedPdf(bytes, { ...opts, psm }) : ocrImage(bytes, { ...opts, psm }));
   const first = await ocrOf(3);
-  const reading = readBill(first.pages);
-  const complete = reading.period && reading.kwh && reading.amountDue && (reading.history?.months.length ?? 0) >= 12;
-  if (complete || first.confidentWords < MIN_CONFIDENT_WORDS) return { reading, ocr: first };
-  const second = await ocrOf(6);
-  const again = readBill(second.pages);
-  return filled(again) > filled(reading) ? { reading: again, ocr: second } : { reading, ocr: first };
+  let best = { reading: readBill(first.pages), ocr: first };
+  if (first.confidentWords < MIN_CONFIDENT_WORDS) return best;
+  for (const psm of [11, 6] as const) {
+    if (complete(best.reading)) break;
+    const ocr = await ocrOf(psm);
+    const reading = readBill(ocr.pages);
+    if (filled(reading) > filled(best.reading)) best = { reading, ocr };
+  }
+  return best;
 }
 
 /** Fewer confident words than this on a bill: the photo is too blurred, dark or small to read (our choice). */
