@@ -59,8 +59,11 @@ function monthLabel(text: string): MonthLabel | null {
 }
 
 const NUM_CELL = new RegExp(String.raw`^(${NUMBER})(\s*kwh)?$`, "i");
-/** OCR reads 0 as O and 1 as l, I or |: fixed only inside a figure that has real digits ("1,O36", "l,142"). */
-const digitsOf = (text: string) => (/\d/.test(text) && /^[\dOolI|,.]+(\s*kwh)?$/i.test(text) ? text.replace(/[Oo]/g, "0").replace(/[lI|]/g, "1") : text);
+/**
+ * OCR reads 0 as O and 1 as l, I or |: fixed only inside a figure that has real digits ("1,O36",
+ * "l,142"); and a thousands comma as a point ("1.148"): a month's kWh never has three decimals.
+ */
+const digitsOf = (text: string) => (/\d/.test(text) && /^[\dOolI|,.]+(\s*kwh)?$/i.test(text) ? text.replace(/[Oo]/g, "0").replace(/[lI|]/g, "1").replace(/^(\d{1,3})\.(\d{3})\b/, "$1,$2") : text);
 const number = (c: Cell | undefined) => {
   const m = c ? digitsOf(c.text).match(NUM_CELL) : null;
   return m ? toNumber(m[1]) : null;
