@@ -5,22 +5,36 @@
  *
  *   npx tsx scripts/bill-accuracy.ts [DIR]     (default: tests/fixtures/bills, the corpus)
  *
+ * Photos (NAME.jpg / .png) and scanned PDFs (no text layer) in DIR are read by OCR first, as
+ * `npm run read-bill` and the app do; they are counted the same way.
+ *
  * Run it on bills written after the reader changed, before changing it again, to measure it
  * on layouts it was not tuned on (docs/read-bill.md keeps those first runs).
  */
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { billJson, readBill, type BillJson } from "../src/lib/bill-reader";
-import { pdfPages } from "../src/lib/bill-reader/pdf-pages";
+import { readBillByOcr } from "../src/lib/bill-reader/ocr-pages";
+import { pdfPages, pagesText } from "../src/lib/bill-reader/pdf-pages";
 
 const dir = path.resolve(process.argv[2] ?? "tests/fixtures/bills");
 const fields = ["start", "end", "kwh", "amountDueCents"] as const;
 let [right, total, monthsRight, monthsTotal, historiesRight, silentWrongAmounts] = [0, 0, 0, 0, 0, 0];
-const names = readdirSync(dir).filter((f) => f.endsWith(".pdf"));
+/** Fewer characters than this in a PDF's text layer: a scan, read by OCR (as scripts/read-bill.ts does). */
+const MIN_PDF_TEXT_CHARS = 20;
+async function read(file: string) {
+  const bytes = new Uint8Array(readFileSync(path.join(dir, file)));
+  const pages = file.endsWith(".pdf") ? await pdfPages(bytes) : [];
+  if (file.endsWith(".pdf") && pagesText(pages).replace(/\s/g, "").length >= MIN_PDF_TEXT_CHARS) return { reading: readBill(pages), source: "text" as const };
+  const { reading } = await readBillByOcr(bytes, file.endsWith(".pdf") ? "pdf" : "image");
+  return { reading, source: "ocr" as const };
+}
+
+const names = readdirSync(dir).filter((f) => /\.(pdf|jpe?g|png)$/.test(f));
 for (const file of names) {
-  const expected = JSON.parse(readFileSync(path.join(dir, file.replace(/\.pdf$/, ".json")), "utf8")) as BillJson;
-  const reading = readBill(await pdfPages(new Uint8Array(readFileSync(path.join(dir, file)))));
-  const got = billJson(reading, "text");
+  const expected = JSON.parse(readFileSync(path.join(dir, file.replace(/\.(pdf|jpe?g|png)$/, ".json")), "utf8")) as BillJson;
+  const { reading, source } = await read(file);
+  const got = billJson(reading, source);
   const misses: string[] = [];
   for (const f of fields) {
     total++;

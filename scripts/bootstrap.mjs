@@ -9,6 +9,7 @@ import path from "node:path";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const withBrowser = process.argv.includes("--with-browser");
+const withCluster = process.argv.includes("--with-cluster");
 
 function hasDebianPackage(name) {
   const r = spawnSync("dpkg-query", ["-W", "-f=${Status}", name], { encoding: "utf8" });
@@ -22,7 +23,13 @@ function run(cmd, args, opts = {}) {
 
 // tesseract-ocr (+ its English data) reads photos and scans of bills; poppler-utils' pdftoppm
 // renders a scanned PDF's pages for it. Debian's packages: nothing is downloaded at run time.
-const wanted = ["mariadb-server", "mariadb-client", "tesseract-ocr", "tesseract-ocr-eng", "poppler-utils", ...(withBrowser ? ["chromium"] : [])];
+// The local cluster (npm run cluster, the cluster fault test) adds HAProxy and rsync (Galera's
+// state transfer); galera-4 comes with mariadb-server.
+const wanted = [
+  "mariadb-server", "mariadb-client", "tesseract-ocr", "tesseract-ocr-eng", "poppler-utils",
+  ...(withBrowser ? ["chromium"] : []),
+  ...(withCluster ? ["galera-4", "haproxy", "rsync"] : []),
+];
 const missing = wanted.filter((p) => !hasDebianPackage(p));
 if (missing.length > 0) {
   const isRoot = typeof process.getuid === "function" && process.getuid() === 0;

@@ -26,6 +26,23 @@ export const envSchema = z.object({
     .optional(),
   MAIL_FROM: z.string().regex(/^.+<[^@\s]+@[^@\s]+>$|^[^@\s]+@[^@\s]+$/, "must be an address or Name <address>"),
   STORAGE_DIR: z.string().min(1),
+  /**
+   * Where files (bills, photos, signed copies) are kept: `local` (the default) writes under
+   * STORAGE_DIR; `s3` uses an S3-compatible object store named by the S3_* variables, so every
+   * app node of a cluster sees the same files.
+   */
+  STORAGE_DRIVER: z.enum(["local", "s3"]).default("local"),
+  S3_ENDPOINT: z
+    .url()
+    .transform((u) => u.replace(/\/$/, ""))
+    .optional(),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z
+    .string()
+    .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, "must be an S3 bucket name (3–63 lower-case letters, digits, dots, hyphens)")
+    .optional(),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
   /** Stripe secret key (test mode: sk_test_…). */
   STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_\w+/, "must be a Stripe secret key (sk_test_… or sk_live_…)"),
   /** Signing secret of the webhook endpoint (whsec_…). */
@@ -43,6 +60,11 @@ export const envSchema = z.object({
     .string()
     .default("")
     .refine((v) => trustListValid(v), "must be a comma list of IP addresses or CIDR ranges, e.g. 10.0.0.5,10.1.0.0/16"),
+}).superRefine((v, ctx) => {
+  if (v.STORAGE_DRIVER !== "s3") return;
+  for (const name of ["S3_BUCKET", "S3_ACCESS_KEY_ID", "S3_SECRET_ACCESS_KEY"] as const) {
+    if (!v[name]) ctx.addIssue({ code: "custom", path: [name], message: "is required when STORAGE_DRIVER=s3" });
+  }
 });
 
 export type Env = z.infer<typeof envSchema>;

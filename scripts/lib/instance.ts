@@ -38,7 +38,7 @@ function port(profile: Profile, name: PortName): number {
 }
 
 /** Secrets are generated on first run and kept in the ignored data folder. */
-function loadSecrets(dir: string) {
+export function loadSecrets(dir: string) {
   const file = path.join(dir, "secrets.json");
   const fresh = {
     authSecret: randomBytes(32).toString("hex"),

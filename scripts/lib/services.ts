@@ -5,6 +5,12 @@ import { existsSync, mkdirSync, openSync, readdirSync, statSync } from "node:fs"
 import path from "node:path";
 import { projectRoot, type Instance } from "./instance";
 
+/** What the local fakes need to know of the instance they serve (a demo, test or cluster instance). */
+export type FakesHost = Pick<Instance, "mailDir" | "paymentsDir" | "secrets" | "appUrl" | "dir"> & {
+  profile: string;
+  ports: { mail: number; payments: number };
+};
+
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const children: { name: string; child: ChildProcess }[] = [];
 
@@ -60,7 +66,7 @@ export async function stopServices(): Promise<void> {
   children.length = 0;
 }
 
-export function startMailFake(inst: Instance): ChildProcess {
+export function startMailFake(inst: FakesHost): ChildProcess {
   return startService(
     "mail",
     process.execPath,
@@ -75,7 +81,7 @@ export function startMailFake(inst: Instance): ChildProcess {
  * POSTs webhooks to the app's /api/webhooks/stripe, retrying while the app is not up yet. The
  * test profile retries at most every 2 s so browser tests do not wait on a long back-off.
  */
-export function startPaymentsFake(inst: Instance): ChildProcess {
+export function startPaymentsFake(inst: FakesHost): ChildProcess {
   return startService(
     "payments",
     process.execPath,
@@ -98,12 +104,17 @@ export function startPaymentsFake(inst: Instance): ChildProcess {
  * on loopback. One Node process: stopping its group stops it.
  */
 export function startApp(inst: Instance): ChildProcess {
+  return startAppNode("app", inst.ports.app, inst.appEnv, path.join(inst.dir, "logs"));
+}
+
+/** One app process (`next start` behind scripts/app-server.ts) on a loopback port. */
+export function startAppNode(name: string, port: number, appEnv: Record<string, string>, logDir: string): ChildProcess {
   return startService(
-    "app",
+    name,
     process.execPath,
-    ["--import", "tsx", "scripts/app-server.ts", "-H", "127.0.0.1", "-p", String(inst.ports.app)],
-    { ...inst.appEnv, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
-    path.join(inst.dir, "logs"),
+    ["--import", "tsx", "scripts/app-server.ts", "-H", "127.0.0.1", "-p", String(port)],
+    { ...appEnv, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" },
+    logDir,
   );
 }
 

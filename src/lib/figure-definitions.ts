@@ -44,3 +44,24 @@ export function figureDefinitions(f: Figures, paymentKind: "cash" | "loan"): Fig
   const irr = s.irr === null && s.irrNote ? `IRR ${s.irrNote}.` : null;
   return { payback, roi, simplePayback, irr };
 }
+
+/**
+ * One line on what each other figure of an offer means, for the homeowner's page (payback and
+ * ROI have their own, above). Our wording; `years` is how many years the figures cover.
+ */
+export function figureMeanings(years: number) {
+  return {
+    production: "What the panels should make in their first year, in a typical year's weather.",
+    usage: "What your home uses in a year, from your bills or meter readings.",
+    offset: "How much of your yearly use the panels make; over 100 % means they make more than you use.",
+    price: "What you pay for the system, before any incentive or tax credit.",
+    netCost: "The price less the incentives and tax credits expected for this system.",
+    monthlyLoan: "The loan's monthly payment.",
+    deposit: "Paid after you sign; it counts toward the price.",
+    billWithout: "Your electricity bills for a year at your utility's rates, without solar.",
+    billWith: "The same year's bills with the panels making part of your electricity.",
+    year1Savings: "The difference between those two bills.",
+    lifetimeSavings: `Bill savings added up over ${years} years, with electricity prices rising as assumed below.`,
+    ahead: `Bill savings and incentives over ${years} years, less everything you pay; below zero means you pay more than you save.`,
+  } as const;
+}

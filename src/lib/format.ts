@@ -5,11 +5,28 @@ export function formatCents(cents: number | null | undefined): string {
   return cents == null ? "—" : usd.format(Math.round(cents) / 100);
 }
 
+/** Money that may be below zero, with a minus sign (U+2212) before the dollar sign: "−$1,250", never "-$1,250" or "$-1,250". */
+export function formatSignedCents(cents: number | null | undefined): string {
+  if (cents == null) return "—";
+  return cents < 0 && Math.round(-cents / 100) !== 0 ? `−${usd.format(Math.round(-cents) / 100)}` : usd.format(Math.round(Math.abs(cents)) / 100);
+}
+
 const usdExact = new Intl.NumberFormat("en-US", { style: "currency", currency: "USD", minimumFractionDigits: 2, maximumFractionDigits: 2 });
 /** Money to the cent ("$1,234.50"), for deposits, refunds and receipts; another currency as "12.34 EUR". */
 export function formatCentsExact(cents: number | null | undefined, currency = "usd"): string {
   if (cents == null) return "—";
   return currency.toLowerCase() === "usd" ? usdExact.format(cents / 100) : `${(cents / 100).toFixed(2)} ${currency.toUpperCase()}`;
+}
+
+/**
+ * Money in thousands for chart axes: "$15k", "−$15k" (a minus sign, U+2212, before the dollar
+ * sign, never "$-15k"); under $10k with one decimal ("$0.4k").
+ */
+export function formatCentsCompact(cents: number): string {
+  const k = Math.abs(cents) / 100_000;
+  const digits = k < 10 ? 1 : 0;
+  const text = k.toLocaleString("en-US", { maximumFractionDigits: digits, useGrouping: true });
+  return `${cents < 0 && text !== "0" ? "−" : ""}$${text}k`;
 }
 
 export function formatKwFromWatts(watts: number | null | undefined): string {

@@ -49,6 +49,10 @@ describe("the cancellation window (16 CFR 429.1(a): prior to midnight of the dea
 });
 
 describe("cautions", () => {
+  it("are in US English (issue #18: the homeowner's page mixed \"programme\" with US spelling)", () => {
+    expect(PROPOSAL_CAUTIONS.join(" ")).not.toMatch(/programme|licence/i);
+  });
+
   const offer = (applied: number) => ({ figures: { incentives: { applied: Array.from({ length: applied }, () => ({})) } } });
   it("says plainly when no offer has any incentive or tax credit, instead of the tax-liability line", () => {
     const none = cautionsFor([offer(0), offer(0)]);

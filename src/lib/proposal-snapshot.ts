@@ -4,6 +4,7 @@
 // snapshot, never the live offers, catalog or price book. Also: the states a proposal link can
 // be in, and the right-to-cancel window. No server or browser imports.
 import { formatCalendarDate } from "@/lib/format";
+import { formatAprPct, plainAssumption } from "@/lib/plain-words";
 import { addDaysToDate, startOfDayInZone } from "@/lib/zoned-time";
 import { OFFER_CAUTION, STRING_CAUTION, type OfferFigures } from "@/lib/offer-figures";
 import { depositFor } from "@/lib/pricing";
@@ -48,7 +49,7 @@ export type SnapshotSource = {
 const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / Math.max(1, xs.length);
 const round1 = (x: number) => Math.round(x * 10) / 10;
 
-const INCENTIVES_CAUTION = "Incentives depend on the programme's rules and budget on the day they are claimed; tax credits depend on your own tax liability.";
+const INCENTIVES_CAUTION = "Incentives depend on the program's rules and budget on the day they are claimed; tax credits depend on your own tax liability.";
 /** Said plainly instead when no offer has any incentive or tax credit. */
 export const NO_INCENTIVES_NOTE = "No incentive or tax credit applies to these offers: the prices and savings shown are without any.";
 
@@ -87,7 +88,7 @@ function usageSentence(u: SnapshotSource["usage"]): string {
   if (u.source === "none") return "Usage: no bills or interval data were recorded.";
   const filled =
     u.estimatedMonths > 0
-      ? ` ${u.estimatedMonths} of the 12 months had no bill and were estimated ${u.fillMethod === "degree-day" ? "from a degree-day regression against the site's weather (PRISM method, Fels 1986)" : "from a seasonal usage shape"}.`
+      ? ` ${u.estimatedMonths} of the 12 months had no bill and were estimated ${u.fillMethod === "degree-day" ? "from how the household's usage follows the weather at the site" : "from a seasonal usage shape"}.`
       : "";
   return `Usage: ${annual} kWh a year from the household's utility bills, spread to calendar months by day.${filled}`;
 }
@@ -104,8 +105,8 @@ export function assumptionSentences(src: SnapshotSource): string[] {
     }
   };
   // Notes carry the weather source ("Weather: …") and anything the engine had to assume.
-  for (const o of src.offers) for (const note of o.figures.notes) add(note);
-  add(`System losses: ${pct(src.design.lossesPct)} combined (wiring, soiling, mismatch, connections, availability and others; PVWatts method, Dobos 2014).`);
+  for (const o of src.offers) for (const note of o.figures.notes) add(plainAssumption(note));
+  add(`System losses: ${pct(src.design.lossesPct)} combined (wiring, soiling, mismatch, connections, availability and others).`);
   for (const f of src.design.faces.filter((x) => x.moduleCount > 0 || src.offers.some((o) => o.inputs.faceCounts?.some((c) => c.faceId === x.id && c.moduleCount > 0)))) {
     const access = Array.isArray(f.solarAccessPct) ? `${round1(mean(f.solarAccessPct))} % on average (12 monthly values)` : pct(f.solarAccessPct);
     add(`Roof face "${f.name}": tilt ${f.tiltDeg}°, azimuth ${f.azimuthDeg}° (clockwise from north), solar access ${access} after shading.`);
@@ -121,11 +122,11 @@ export function assumptionSentences(src: SnapshotSource): string[] {
   for (const o of src.offers) {
     for (const inc of o.figures.incentives.applied) {
       const rule = src.book.incentives.find((r) => r.id === inc.id);
-      add(`Incentive "${inc.name}": ${inc.detail}${rule ? `; the programme runs ${rule.startDate} to ${rule.endDate}` : ""}${inc.year === 0 ? ", counted at signing" : `, counted in year ${inc.year}`}.`);
+      add(`Incentive "${inc.name}": ${inc.detail}${rule ? `; the program runs ${rule.startDate} to ${rule.endDate}` : ""}${inc.year === 0 ? ", counted at signing" : `, counted in year ${inc.year}`}.`);
     }
     if (o.inputs.payment.kind === "loan") {
       const p = o.inputs.payment;
-      add(`"${o.name}" is paid with a loan: ${pct(p.aprPct)} APR over ${p.termMonths} months${p.dealerFeePct > 0 ? `, with a ${pct(p.dealerFeePct)} dealer fee added to the amount financed` : ""}.`);
+      add(`"${o.name}" is paid with a loan: ${formatAprPct(p.aprPct)} APR over ${p.termMonths} months${p.dealerFeePct > 0 ? `, with a ${pct(p.dealerFeePct)} dealer fee added to the amount financed` : ""}.`);
     }
   }
   add("Deposits follow the installer's deposit policy and count toward the contract price.");

@@ -10,7 +10,7 @@ import { createElement } from "react";
 import { account, membership, session, user, verification } from "@/db/schema";
 import { env } from "@/env";
 import { CLIENT_HEADER, clientAddress } from "@/server/client-address";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { clearTurns, emailKey, giveBack, isMarked, mark, takeTurn, TooManyRequests, tryTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
 import { mailCompanyOfUser } from "@/server/mail-company";
@@ -81,7 +81,7 @@ async function resetWorkForNobody(email: string): Promise<void> {
   const message = resetEmail("there", `${env().APP_URL}/reset-password/${"x".repeat(24)}?callbackURL=`);
   await Promise.all([render(message), render(message, { plainText: true })]);
   // A real reset commits a token row; this commits one that is gone again in the same transaction.
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const id = crypto.randomUUID();
     await tx.insert(verification).values({ id, identifier: `reset-password:none-${id}`, value: "none", expiresAt: new Date() });
     await tx.delete(verification).where(eq(verification.id, id));

@@ -30,7 +30,7 @@ import {
 } from "@/lib/schemas/catalog";
 import { BODY_CAPS, readCappedBody, readCappedForm } from "@/server/body-limit";
 import { companyRowOrThrow } from "@/server/records";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { HttpError, isDuplicateKey } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
@@ -440,7 +440,7 @@ async function importCsv<V extends { manufacturer: string; model: string }>(
   if (fileLevel || (mode === "all_or_nothing" && report.errors.length > 0) || good.length === 0) return report;
 
   // One transaction: either every good row is written or, on any failure, none.
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     for (const g of good) {
       const outcome = await spec.upsert(tx, member.companyId, g.value, g.active);
       report[outcome].push({ line: g.line, manufacturer: g.value.manufacturer, model: g.value.model });

@@ -5,7 +5,7 @@ import type { z } from "zod";
 import { checklistTemplate } from "@/db/schema";
 import { type ChecklistTemplateItem, type checklistTemplateSchema, type updateChecklistTemplateSchema } from "@/lib/schemas/jobs";
 import { companyRowOrThrow } from "@/server/records";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 
 import type { Member } from "@/server/session";
 
@@ -47,7 +47,7 @@ export async function getChecklistTemplateOrThrow(member: Member, id: string): P
  */
 export async function createChecklistTemplate(member: Member, input: z.output<typeof checklistTemplateSchema>): Promise<ChecklistTemplateView> {
   const id = crypto.randomUUID();
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [any] = await tx.select({ id: checklistTemplate.id }).from(checklistTemplate).where(eq(checklistTemplate.companyId, member.companyId)).limit(1);
     await tx.insert(checklistTemplate).values({ id, companyId: member.companyId, name: input.name, items: withIds(input.items), active: !any });
   });
@@ -64,7 +64,7 @@ export async function updateChecklistTemplate(
   input: z.output<typeof updateChecklistTemplateSchema>,
 ): Promise<ChecklistTemplateView> {
   await getChecklistTemplateOrThrow(member, id);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const set: Partial<typeof checklistTemplate.$inferInsert> = {};
     if (input.name !== undefined) set.name = input.name;
     if (input.items !== undefined) set.items = withIds(input.items);

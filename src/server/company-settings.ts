@@ -2,7 +2,7 @@ import "server-only";
 import { eq, sql } from "drizzle-orm";
 import { company, type Stage } from "@/db/schema";
 import { stallLimits, storedCompanySettingsSchema, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 
@@ -48,7 +48,7 @@ export async function getCompanyOrThrow(member: Member, companyId: string): Prom
  * another area's settings survive an edit here.
  */
 export async function updateCompanySettings(member: Member, input: CompanySettingsValues): Promise<CompanySettings> {
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [row] = await tx.select({ settings: company.settings }).from(company).where(eq(company.id, member.companyId)).for("update");
     if (!row) throw notFound("Company");
     const previous = row.settings ?? storedCompanySettingsSchema.parse({});

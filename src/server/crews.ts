@@ -6,7 +6,7 @@ import { crew, job, membership, user } from "@/db/schema";
 import { env } from "@/env";
 import type { createCrewSchema, updateCrewSchema } from "@/lib/schemas/jobs";
 import { companyRowOrThrow } from "@/server/records";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 
@@ -154,7 +154,7 @@ export async function updateCrew(member: Member, crewId: string, input: z.output
       throw new HttpError(422, "validation_failed", `memberIds.${bad}: ${message}`, { [`memberIds.${bad}`]: [message] });
     }
   }
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     if (input.name !== undefined) {
       await tx
         .update(crew)

@@ -29,3 +29,43 @@ export function db(): Db {
 }
 
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+
+/**
+ * MariaDB error numbers after which the whole transaction may simply run again:
+ * 1213 ER_LOCK_DEADLOCK — a deadlock, and also how a Galera cluster reports a certification
+ * conflict at COMMIT (another node committed a write to the same rows first; row locks are not
+ * cluster-wide); 1047 ER_UNKNOWN_COM_ERROR — "WSREP has not yet prepared node for application
+ * use": the node left the cluster's primary component, a new connection reaches another.
+ */
+const RETRYABLE_ERRNOS = new Set([1213, 1047]);
+
+/** The MariaDB error number under Drizzle's wrapper (DrizzleQueryError keeps it in `cause`). */
+export function mariaDbErrno(err: unknown): number | null {
+  for (let e: unknown = err, depth = 0; e && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+    const errno = (e as { errno?: unknown }).errno;
+    if (typeof errno === "number") return errno;
+  }
+  return null;
+}
+
+export const TRANSACTION_ATTEMPTS = 4;
+
+/**
+ * Runs `work` in one transaction, and runs it again (up to TRANSACTION_ATTEMPTS times in all,
+ * after a short random pause) when the database answers with a deadlock or a cluster
+ * certification conflict — both roll the whole transaction back, so nothing of the failed
+ * attempt is kept. `work` must therefore be safe to run twice: it reads what it needs inside
+ * the transaction, and any call outside the database is a read or carries an idempotency key.
+ */
+export async function transaction<T>(work: (tx: Tx) => Promise<T>): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await db().transaction(work);
+    } catch (err) {
+      const errno = mariaDbErrno(err);
+      if (attempt >= TRANSACTION_ATTEMPTS || errno === null || !RETRYABLE_ERRNOS.has(errno)) throw err;
+      // 10–40 ms, doubling: long enough for the winner to commit, short for a person waiting.
+      await new Promise((r) => setTimeout(r, (5 + Math.random() * 15) * 2 ** attempt));
+    }
+  }
+}

@@ -22,7 +22,7 @@ import {
 import { STAGE_LABELS } from "@/lib/stages";
 import { dateInZone } from "@/lib/zoned-time";
 import { zoneForDays, withinDays } from "@/server/day-filters";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { dealAudience, visibleTo } from "@/server/deals";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -443,7 +443,7 @@ async function newOwnerOrThrow(member: Member, ownerUserId: string): Promise<{ i
 
 /** Gives one deal a new owner, with its "owner.changed" Timeline event in the same transaction. */
 async function reassignOne(member: Member, dealId: string, to: { id: string; name: string }): Promise<BulkResult> {
-  return db().transaction(async (tx) => {
+  return transaction(async (tx) => {
     const [row] = await tx
       .select({ ownerUserId: deal.ownerUserId, householdName: household.name, ownerName: user.name })
       .from(deal)

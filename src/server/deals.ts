@@ -4,7 +4,7 @@ import type { z } from "zod";
 import { deal, household, ratePlan, user, utility } from "@/db/schema";
 import { zipMismatch } from "@/engine/zip-codes";
 import type { householdSchema, leadSchema } from "@/lib/schemas/deal";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { dealColumns, visibleTo, type DealRow } from "@/server/deal-audience";
 import { HttpError, notFound } from "@/server/errors";
 import type { DealScope } from "@/server/deal-scope";
@@ -81,7 +81,7 @@ export async function createLead(member: Member, input: z.output<typeof leadSche
   const householdId = crypto.randomUUID();
   const dealId = crypto.randomUUID();
   const { utilityId: _utility, ratePlanId: _plan, source, ...home } = input;
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx.insert(household).values({ id: householdId, companyId: member.companyId, ...home });
     await tx.insert(deal).values({
       id: dealId,
@@ -107,7 +107,7 @@ export async function createLead(member: Member, input: z.output<typeof leadSche
 export async function updateHousehold(scope: DealScope, input: z.output<typeof householdSchema>) {
   const { member, dealId } = scope;
   checkPositionAgainstZip(input);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx.update(household).set(input).where(and(eq(household.id, scope.deal.householdId), eq(household.companyId, member.companyId)));
     await recordEvent(tx, {
       companyId: member.companyId,
@@ -147,7 +147,7 @@ export async function listUtilityChoices(member: Member) {
 export async function updateDealUtility(scope: DealScope, input: { utilityId: string | null; ratePlanId: string | null }) {
   const { member, dealId } = scope;
   const choice = await checkUtilityAndPlan(member.companyId, input.utilityId, input.ratePlanId);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx
       .update(deal)
       .set(choice)

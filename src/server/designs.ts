@@ -6,7 +6,7 @@ import type { WeatherYear } from "@/engine/weather";
 import { engineSystem, manualProductionHourly, MANUAL_SHAPE_NOTE, type InverterSpec, type ModuleSpec } from "@/lib/offer-figures";
 import { designDocumentSchema, saveDesignSchema, type DesignDocument } from "@/lib/schemas/design";
 import { getInverterOrThrow, getModuleOrThrow, listActiveInverters, listActiveModules, type InverterModel, type ModuleModel } from "@/server/catalog";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { inDealOrThrow, openDeal, type DealScope } from "@/server/deal-scope";
 import { getDealUsage } from "@/server/energy";
 import { HttpError } from "@/server/errors";
@@ -86,7 +86,7 @@ export async function saveDesign(member: Member, input: unknown): Promise<Design
   const stationId = document.weather.kind === "station" ? document.weather.stationId : null;
   const modules = document.faces.reduce((s, f) => s + f.moduleCount, 0);
   const kw = (modules * mod.stcWatts) / 1000;
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [existing] = await tx
       .select({ id: design.id })
       .from(design)

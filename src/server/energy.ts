@@ -15,7 +15,7 @@ import { pagesText, pdfPages } from "@/lib/bill-reader/pdf-pages";
 import type { BillSource } from "@/lib/enums";
 import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
 import { deriveUsageYear, type UsageYear } from "@/lib/usage-year";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { inDealOrThrow, type DealScope } from "@/server/deal-scope";
 import { engineFields, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -82,7 +82,7 @@ export async function saveBills(scope: DealScope, input: z.output<typeof billsTa
     const [u] = await db().select({ id: upload.id }).from(upload).where(and(eq(upload.id, id), eq(upload.companyId, member.companyId), eq(upload.dealId, dealId))).limit(1);
     if (!u) throw new HttpError(422, "validation_failed", "A bill refers to a file that is not part of this deal.");
   }
-  return db().transaction(async (tx) => {
+  return transaction(async (tx) => {
     await tx.delete(bill).where(and(eq(bill.companyId, member.companyId), eq(bill.dealId, dealId)));
     if (input.bills.length > 0) {
       await tx.insert(bill).values(
@@ -211,7 +211,7 @@ export async function getDealUsage(scope: DealScope): Promise<DealUsage> {
     ? [anyBill]
     : await db().select({ id: intervalProfile.id }).from(intervalProfile).where(and(eq(intervalProfile.companyId, scope.companyId), eq(intervalProfile.dealId, scope.dealId))).limit(1);
   if (!anyProfile) return { ...deriveUsageYear([], null), id: null, version: 0 };
-  await db().transaction((tx) => rebuildDealUsage(tx, scope.companyId, scope.dealId));
+  await transaction((tx) => rebuildDealUsage(tx, scope.companyId, scope.dealId));
   const [built] = await read();
   return toUsage(built);
 }
@@ -371,7 +371,7 @@ async function storeUpload(
   const fileName = file.name.slice(0, 255) || `upload.${ext}`;
   const [sizeBytes, sha256] = [file.bytes.byteLength, createHash("sha256").update(file.bytes).digest("hex")];
   await withFilesUndoneOnFailure((put) =>
-    db().transaction(async (tx) => {
+    transaction(async (tx) => {
       await put(storageKey, file.bytes);
       await tx.insert(upload).values({ id, companyId, dealId, purpose, fileName, mimeType, sizeBytes, sha256, storageKey, extractedText, uploadedByUserId: member.userId });
       if (extra) await extra(tx, id);

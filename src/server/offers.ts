@@ -15,7 +15,7 @@ import { todayInZone } from "@/lib/zoned-time";
 import { createOfferSchema, discountDecisionSchema, MAX_OFFERS_PER_DEAL, offerInputsSchema, updateOfferSchema, type OfferInputs } from "@/lib/schemas/offer";
 import DiscountDecisionEmail from "@emails/discount-decision";
 import DiscountRequestEmail from "@emails/discount-request";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { inDealOrThrow, openDeal, openDealOf, type DealScope } from "@/server/deal-scope";
 import { designEquipment, getDesignForDeal, jsonValue, productionForDesign } from "@/server/designs";
 import { getDealUsage } from "@/server/energy";
@@ -397,7 +397,7 @@ export async function createOffer(member: Member, input: unknown): Promise<Offer
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const id = crypto.randomUUID();
   const mailIds: string[] = [];
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const taken = await tx
       .select({ position: offer.position })
       .from(offer)
@@ -434,7 +434,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
   const { figures, basis, foreignPlan } = await computeOffer(scope, inputs);
   if (figures.discountNeedsApproval && inputs.discountReason.length < 3) throw fieldError("inputs.discountReason", "Say why: this discount needs the office's approval");
   const mailIds: string[] = [];
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const outcome = await settleDiscount(tx, member, existing.dealId, offerId, inputs, figures);
     if (outcome.mailNeeded && outcome.requestId) {
       const mailId = await queueDiscountRequest(tx, member, existing.dealId, scope.household.name, outcome.requestId, inputs, figures);
@@ -461,7 +461,7 @@ export async function updateOffer(member: Member, offerId: string, input: unknow
 
 export async function deleteOffer(member: Member, offerId: string): Promise<{ id: string }> {
   const existing = await getOfferOrThrow(member, offerId);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx.delete(offer).where(and(eq(offer.id, offerId), eq(offer.companyId, member.companyId)));
     await recordEvent(tx, {
       companyId: member.companyId,
@@ -587,7 +587,7 @@ export async function decideDiscountRequest(member: Member, requestId: string, i
   let declinedBasis: OfferBasis | null = null;
   if (decision === "decline") ({ figures: declinedFigures, basis: declinedBasis } = await computeOffer(scope, inputsWithout));
 
-  const mailIds = await db().transaction(async (tx): Promise<string[]> => {
+  const mailIds = await transaction(async (tx): Promise<string[]> => {
     const changed = await tx
       .update(discountRequest)
       .set({ status: decision === "approve" ? "approved" : "declined", decidedByUserId: member.userId, decidedAt: new Date(), decisionNote: note || null })

@@ -11,7 +11,7 @@ import { render } from "@react-email/render";
 import { and, asc, eq, inArray, lte, sql } from "drizzle-orm";
 import type { ReactElement } from "react";
 import { outboundMail } from "@/db/schema";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { notFound } from "@/server/errors";
 import { MailSendError, sendRendered } from "@/server/mail";
 
@@ -81,7 +81,7 @@ async function claimDue(limit: number, ids?: string[]): Promise<string[]> {
 }
 
 async function claimOnce(limit: number, ids?: string[]): Promise<string[]> {
-  return db().transaction(async (tx) => {
+  return transaction(async (tx) => {
     const due = and(
       eq(outboundMail.status, "pending"),
       lte(outboundMail.nextAttemptAt, sql`CURRENT_TIMESTAMP(3)`),

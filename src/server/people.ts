@@ -9,7 +9,7 @@ import { assignableRoles, ROLE_LABELS } from "@/lib/permissions";
 import type { z } from "zod";
 import type { acceptInvitationSchema, inviteSchema, updatePersonSchema } from "@/lib/schemas/people";
 import { getCompanySettings } from "@/server/company-settings";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { emailKey, takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
@@ -126,7 +126,7 @@ export async function invitePerson(member: Member, input: z.output<typeof invite
   const { token, hash } = newLinkToken();
   const id = crypto.randomUUID();
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 24 * 3600_000);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx
       .update(invitation)
       .set({ revokedAt: new Date() })
@@ -189,7 +189,7 @@ export async function updatePerson(
   if (input.role && !assignableRoles(member.role).includes(input.role)) {
     throw new HttpError(403, "forbidden", "Only an owner can make someone an owner.");
   }
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx
       .update(membership)
       .set({ ...(input.role ? { role: input.role } : {}), ...(input.status ? { status: input.status } : {}) })
@@ -248,7 +248,7 @@ export async function acceptInvitation(input: z.output<typeof acceptInvitationSc
   const inv = found.invitation;
   const passwordHash = await hashPassword(input.password);
   const userId = crypto.randomUUID();
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [taken] = await tx.select({ id: user.id }).from(user).where(eq(user.email, inv.email)).limit(1);
     if (taken) throw new HttpError(409, "already_member", `${inv.email} already has a Kilowright account, and a person belongs to one company. Sign in with it, or ask for an invitation to another address.`);
     await tx.insert(user).values({ id: userId, name: input.name, email: inv.email, emailVerified: true });
@@ -271,7 +271,7 @@ export async function acceptInvitation(input: z.output<typeof acceptInvitationSc
 
 /** Sign-up: the company and its owner. The user row comes from better-auth (which sends the verification e-mail). */
 export async function createCompanyForOwner(userId: string, companyName: string, companyId: string = crypto.randomUUID()): Promise<string> {
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx.insert(company).values({ id: companyId, name: companyName });
     await tx.insert(membership).values({ id: crypto.randomUUID(), companyId, userId, role: "owner" });
   });

@@ -3,7 +3,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { priceBook, user } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { emptyPriceBook, priceBookSchema, type PriceBook } from "@/lib/schemas/price-book";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import { validationError } from "@/server/route";
 import type { Member } from "@/server/session";
@@ -67,7 +67,7 @@ export async function savePriceBook(member: Member, doc: unknown): Promise<Price
   const parsed = priceBookSchema.safeParse(doc);
   if (!parsed.success) throw validationError(parsed.error);
   await checkIncentiveUtilities(member.companyId, parsed.data);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [row] = await tx.select({ document: priceBook.document }).from(priceBook).where(eq(priceBook.companyId, member.companyId)).for("update");
     if (!row) {
       // A first save racing another: the later one counts as a change of everything.

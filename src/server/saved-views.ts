@@ -8,7 +8,7 @@ import {
   type savedViewCreateSchema,
   type savedViewUpdateSchema,
 } from "@/lib/schemas/deal-table";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import type { z } from "zod";
@@ -61,7 +61,7 @@ export async function getSavedViewOrThrow(member: Member, id: string): Promise<S
 export async function createSavedView(member: Member, input: z.output<typeof savedViewCreateSchema>): Promise<SavedView> {
   const id = crypto.randomUUID();
   try {
-    await db().transaction(async (tx) => {
+    await transaction(async (tx) => {
       const [{ n }] = await tx.select({ n: count() }).from(savedView).where(ownedBy(member));
       if (Number(n) >= SAVED_VIEWS_PER_PERSON) {
         throw new HttpError(409, "too_many_views", `You can keep up to ${SAVED_VIEWS_PER_PERSON} views; delete one first.`);

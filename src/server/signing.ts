@@ -24,7 +24,7 @@ import SignedCopyEmail from "@emails/signed-copy";
 import SigningCodeEmail from "@emails/signing-code";
 import { getCompanySettings } from "@/server/company-settings";
 import type { ClientMeta } from "@/server/client-address";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import { takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
@@ -99,7 +99,7 @@ export async function sendSigningCode(p: ProposalRow, token: string, client: Cli
   await takeTurn("signingCodeAddress", client.ip, (wait) => `Too many codes asked for from this address. Try again in ${wait}.`);
   const code = String(randomInt(0, 10 ** CODE_DIGITS)).padStart(CODE_DIGITS, "0");
   const expiresAt = new Date(now.getTime() + CODE_TTL_MS);
-  const eventId = await db().transaction(async (tx) => {
+  const eventId = await transaction(async (tx) => {
     const changed = await tx
       .update(proposal)
       .set({ codeHash: secretHash(p.id, "code", code), codeExpiresAt: expiresAt, codeAttempts: 0, codeVerifiedAt: null })
@@ -136,7 +136,7 @@ export async function verifySigningCode(p: ProposalRow, input: unknown, client: 
   if (!parsed.success) throw validationError(parsed.error);
   const code = parsed.data.code;
   const now = new Date();
-  const outcome: VerifyOutcome = await db().transaction(async (tx): Promise<VerifyOutcome> => {
+  const outcome: VerifyOutcome = await transaction(async (tx): Promise<VerifyOutcome> => {
     const [row] = await tx
       .select({ status: proposal.status, codeHash: proposal.codeHash, codeExpiresAt: proposal.codeExpiresAt, codeAttempts: proposal.codeAttempts, codeVerifiedAt: proposal.codeVerifiedAt })
       .from(proposal)
@@ -169,6 +169,29 @@ export async function verifySigningCode(p: ProposalRow, input: unknown, client: 
   });
   if (!outcome.ok) throw outcome.error;
   return { session: outcome.session, validUntil: outcome.validUntil };
+}
+
+/** What a reload may skip (GET …/verify-code). Nothing secret: whether this browser's confirmation still holds, or a code waits to be typed. */
+export type SigningCodeState = { verified: boolean; minutesLeft: number; codePending: boolean; sentTo: string | null };
+
+/**
+ * Where this browser stands with the code. The confirmation stays server-side (the HMAC of the
+ * cookie's secret in code_hash, good until code_expires_at: 30 minutes from the right code);
+ * the browser only holds the httpOnly cookie, which expires with it. Nothing new is stored.
+ */
+export async function signingCodeState(p: ProposalRow, session: string | null, now = new Date()): Promise<SigningCodeState> {
+  const none: SigningCodeState = { verified: false, minutesLeft: 0, codePending: false, sentTo: null };
+  if (proposalLinkState(p, now) !== "live") return none;
+  const [row] = await db()
+    .select({ codeHash: proposal.codeHash, codeExpiresAt: proposal.codeExpiresAt, codeAttempts: proposal.codeAttempts, codeVerifiedAt: proposal.codeVerifiedAt })
+    .from(proposal)
+    .where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId)));
+  if (!row?.codeHash || !row.codeExpiresAt || row.codeExpiresAt.getTime() <= now.getTime()) return none;
+  if (row.codeVerifiedAt) {
+    if (!session || !sameHash(row.codeHash, secretHash(p.id, "session", session))) return none;
+    return { ...none, verified: true, minutesLeft: Math.max(1, Math.floor((row.codeExpiresAt.getTime() - now.getTime()) / 60_000)) };
+  }
+  return row.codeAttempts < MAX_CODE_ATTEMPTS ? { ...none, codePending: true, sentTo: maskEmail(p.sentToEmail) } : none;
 }
 
 // ── Signing ────────────────────────────────────────────────────────────────────────────────
@@ -227,7 +250,7 @@ async function lockConfirmedProposal(tx: Tx, p: ProposalRow, session: string | n
 }
 
 /** Records the consent, then the certificate's lines: every event so far and the signature itself. */
-async function consentAndCertificateEvents(tx: Tx, p: ProposalRow, client: ClientMeta, now: Date) {
+async function consentAndCertificateEvents(tx: Tx, p: ProposalRow, client: ClientMeta, now: Date, method: "drawn" | "typed") {
   await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "consented", body: "Agreed to the electronic records disclosure", client, at: now });
   const events = await tx
     .select({ kind: proposalEvent.kind, body: proposalEvent.body, ip: proposalEvent.ip, createdAt: proposalEvent.createdAt })
@@ -237,7 +260,12 @@ async function consentAndCertificateEvents(tx: Tx, p: ProposalRow, client: Clien
   return events
     .filter((e) => EVENT_TEXT[e.kind])
     .map((e) => ({ at: e.createdAt, kind: e.kind, detail: EVENT_TEXT[e.kind](e) }))
-    .concat([{ at: now, kind: "signed", detail: EVENT_TEXT.signed({ body: null, ip: client.ip }) }]);
+    .concat([{ at: now, kind: "signed", detail: signedDetail(method, client.ip) }]);
+}
+
+/** The certificate's signing line; a typed name adopted as the signature says so (ESIGN 15 U.S.C. 7006(5): any symbol adopted with intent to sign). */
+function signedDetail(method: "drawn" | "typed", ip: string | null): string {
+  return method === "typed" ? `Signed, typed name adopted as the signature${ip ? ` from ${ip}` : ""}` : EVENT_TEXT.signed({ body: null, ip });
 }
 
 type Signature = { position: number; signerName: string; offer: ProposalSnapshotOffer; client: ClientMeta; now: Date; deadline: string | null; key: string; signedSha256: string };
@@ -304,10 +332,10 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
   const { timeZone } = await getCompanySettings(p.companyId);
   const key = `${p.companyId}/signed/${crypto.randomUUID()}.pdf`;
   const result = await withFilesUndoneOnFailure((put) =>
-    db().transaction(async (tx) => {
+    transaction(async (tx) => {
       const now = new Date();
       const row = await lockConfirmedProposal(tx, p, session, now);
-      const certificateEvents = await consentAndCertificateEvents(tx, p, client, now);
+      const certificateEvents = await consentAndCertificateEvents(tx, p, client, now, parsed.data.signatureMethod);
       // The deadline counts from the day of signing in the company's time zone (Settings → Company).
       const signedOn = dateInZone(now, timeZone);
       const deadline = row.inHomeSale ? cancelDeadline(signedOn) : null;

@@ -2,7 +2,7 @@ import "server-only";
 import { createHash } from "node:crypto";
 import { and, desc, eq } from "drizzle-orm";
 import { upload, user } from "@/db/schema";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { openDeal } from "@/server/deal-scope";
 import { HttpError, notFound } from "@/server/errors";
 import { normalizePhoto } from "@/server/photos";
@@ -63,7 +63,7 @@ export async function addSitePhoto(member: Member, dealId: string, file: { name:
   const fileName = `${base}.jpg`;
   await storage().put(storageKey, photo.jpeg);
   try {
-    await db().transaction(async (tx) => {
+    await transaction(async (tx) => {
       await tx.insert(upload).values({
         id,
         companyId: member.companyId,
@@ -97,7 +97,7 @@ export async function getSitePhotoFile(member: Member, dealId: string, uploadId:
 /** Removes a site photo (a wrong or blurred shot): the row and the timeline note in one transaction, then the file. */
 export async function deleteSitePhoto(member: Member, dealId: string, uploadId: string): Promise<void> {
   const row = await sitePhotoRowOrThrow(member, dealId, uploadId);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx.delete(upload).where(and(eq(upload.id, uploadId), eq(upload.companyId, member.companyId)));
     await recordEvent(tx, { companyId: member.companyId, dealId, kind: "upload.removed", summary: `${member.name} removed the site photo “${row.fileName}”`, actorUserId: member.userId });
   });

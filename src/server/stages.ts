@@ -7,7 +7,7 @@ import { STAGE_LABELS } from "@/lib/stages";
 import { openDeal } from "@/server/deal-scope";
 import { dealColumns, type DealRow } from "@/server/deal-audience";
 import { zoneForDays, withinDays } from "@/server/day-filters";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
@@ -47,7 +47,7 @@ export async function moveDealStage(member: Member, dealId: string, toStage: Sta
 
   const stageChangedAt = new Date();
   const summary = `${member.name} moved ${found.householdName} from ${STAGE_LABELS[from]} to ${STAGE_LABELS[toStage]}${why ? `: ${why}` : ""}`;
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const changed = await tx
       .update(deal)
       .set({ stage: toStage, stageChangedAt })

@@ -7,7 +7,7 @@ import { EngineInputError } from "@/engine/errors";
 import { detectWeatherFormat, parseWeather, type WeatherFormat, type WeatherSite, type WeatherYear } from "@/engine/weather";
 import { can } from "@/lib/permissions";
 import { WEATHER_FILE_MAX_BYTES, WEATHER_FILE_MAX_LABEL, type StationFields } from "@/lib/schemas/weather";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { openDealOf } from "@/server/deal-scope";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
@@ -268,7 +268,7 @@ export async function createStation(member: Member, file: WeatherFileInput, fiel
 
   await storage().put(storageKey, file.bytes);
   try {
-    await db().transaction(async (tx) => {
+    await transaction(async (tx) => {
       await tx.insert(upload).values({
         id: uploadId,
         companyId: member.companyId,
@@ -311,7 +311,7 @@ export async function deleteStation(member: Member, stationId: string): Promise<
     .select({ storageKey: upload.storageKey })
     .from(upload)
     .where(and(eq(upload.id, station.uploadId), eq(upload.companyId, member.companyId)));
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [used] = await tx
       .select({ n: count() })
       .from(design)

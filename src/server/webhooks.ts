@@ -9,7 +9,7 @@ import type Stripe from "stripe";
 import { z } from "zod";
 import { company, paymentAlert, webhookEvent } from "@/db/schema";
 import { formatCentsExact } from "@/lib/format";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import {
   applyChargeRefunded,
   bookPayment,
@@ -216,7 +216,7 @@ export async function recordRejectedEvent(id: string, type: string, reason: stri
 export async function processStripeEvent(event: Stripe.Event): Promise<WebhookResult> {
   if (!isHandled(event)) return { status: "ignored", note: `event type ${event.type} is not handled` };
   const after: AfterCommit[] = [];
-  const result = await db().transaction(async (tx): Promise<WebhookResult> => {
+  const result = await transaction(async (tx): Promise<WebhookResult> => {
     // The id first: a concurrent delivery of the same event waits here for our commit, then finds it.
     const inserted = await tx.insert(webhookEvent).ignore().values({ id: event.id, type: event.type, outcome: "processing" });
     if (inserted[0].affectedRows !== 1) return { status: "duplicate" };

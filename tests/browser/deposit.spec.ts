@@ -3,7 +3,7 @@
 // page, the webhook books it, the office sees Deposit paid and the receipt is in the dev outbox.
 // A declined card shows a clear message, and a second try with a good card goes through.
 import { createHash, randomBytes } from "node:crypto";
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test, type BrowserContext, type Page } from "@playwright/test";
 import { apiSignIn, unique, waitForMail, withDb } from "./support";
 
 const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
@@ -100,6 +100,25 @@ async function expectDepositReceived(page: Page, d: SignedDeal): Promise<void> {
   await expect(status).toHaveAttribute("data-status", "paid", SLOW);
   await expect(status).toContainText("Deposit received");
   await expect(status).toContainText(d.depositText);
+  // The rest of the page follows without a reload: the stage and the next step move on.
+  const next = page.getByTestId("project-next");
+  await expect(next).toContainText("Site survey", SLOW);
+  await expect(page.getByTestId("project-panel").locator("[aria-current='step']")).toContainText("Deposit paid");
+  expect(await page.evaluate(() => (window as unknown as { __kwBoth?: boolean }).__kwBoth ?? false), "the page said Deposit received beside Next: Pay your deposit").toBe(false);
+}
+
+/**
+ * Watches every page of the context for the contradiction of a paid deposit beside the
+ * "Pay your deposit" next step (window.__kwBoth), checked at expectDepositReceived.
+ */
+async function watchContradiction(context: BrowserContext): Promise<void> {
+  await context.addInitScript(() => {
+    const w = window as unknown as { __kwBoth?: boolean };
+    setInterval(() => {
+      const text = document.body?.innerText ?? "";
+      if (text.includes("Deposit received") && text.includes("Pay your deposit")) w.__kwBoth = true;
+    }, 50);
+  });
 }
 
 async function expectOfficeSeesPaid(page: Page, d: SignedDeal): Promise<void> {
@@ -117,6 +136,7 @@ test("the customer pays the deposit with 4242…; the deal shows Deposit paid an
   test.setTimeout(180_000);
   const d = await signedDeal("paid");
   const customer = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true });
+  await watchContradiction(customer);
   const page = await customer.newPage();
   await page.goto(`/p/${d.token}`);
   const panel = page.getByTestId("deposit-panel");
@@ -139,6 +159,7 @@ test("a declined card shows a clear message, and a second try with 4242… goes 
   test.setTimeout(240_000);
   const d = await signedDeal("declined");
   const customer = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true });
+  await watchContradiction(customer);
   const page = await customer.newPage();
   await page.goto(`/p/${d.token}`);
   await page.getByRole("button", { name: `Pay the deposit: ${d.depositText}` }).click();

@@ -118,7 +118,7 @@ test("the customer opens the e-mailed link, confirms a code, draws a signature a
   await phone.goto(link);
   await expect(phone.getByRole("heading", { name: "Solar proposal for the Fennimore household" })).toBeVisible();
   await expect(phone.getByRole("group", { name: "Choose one of 2 offers" })).toBeVisible();
-  await expect(phone.getByRole("heading", { name: "What the figures assume" })).toBeVisible();
+  await expect(phone.getByRole("heading", { name: "How we estimated this" })).toBeVisible();
   await expect(phone.getByTestId("usage-production-chart")).toBeVisible();
   await expect(phone.getByTestId("cashflow-chart")).toBeVisible();
 
@@ -131,7 +131,7 @@ test("the customer opens the e-mailed link, confirms a code, draws a signature a
   const meanings = phone.getByTestId("figure-definitions-2");
   await expect(meanings).toContainText("Payback is the year in which the running total of bill savings");
   await expect(meanings).toContainText(/What you pay: \$[\d,]+, the \$[\d,]+ down payment plus all the loan's payments/);
-  await expect(phone.getByRole("region", { name: "What the figures assume" })).toContainText(/Whole roof, loan: Simple payback \(net cost ÷ first-year savings/);
+  await expect(phone.getByRole("region", { name: "How we estimated this" })).toContainText(/Whole roof, loan: Simple payback \(net cost ÷ first-year savings/);
 
   // Confirms the e-mail with the code from a second e-mail.
   await phone.getByRole("button", { name: "E-mail me a code" }).click();
@@ -248,5 +248,142 @@ test("a replaced version says so and offers nothing to sign; the verify page mat
   await phone.getByLabel("Signed PDF").setInputFiles({ name: "changed.pdf", mimeType: "application/pdf", buffer: changed });
   await phone.getByRole("button", { name: "Check the file" }).click();
   await expect(phone.getByTestId("verify-answer")).toHaveText("No signed Kilowright record matches this file.");
+  await customer.close();
+});
+
+/** Sends the deal's offers as a proposal through the API (the rep's request context) and returns the customer's link. */
+async function sendByApi(request: APIRequestContext, deal: { dealId: string; email: string }): Promise<string> {
+  await ok(await request.post("/api/proposals", { data: { dealId: deal.dealId, toEmail: deal.email } }));
+  return linkIn(await waitForMail(deal.email, /solar proposal/), "/p/");
+}
+
+/** Asks for a code, reads it from the outbox and types it in (pointer or keyboard, as `press` does). */
+async function codeFromMail(email: string): Promise<string> {
+  const codeMail = await waitForMail(email, /signing code/);
+  const code = codeMail.subject.match(/(\d{6})/)?.[1] ?? "";
+  expect(code).toMatch(/^\d{6}$/);
+  return code;
+}
+
+/** How many pixels of the signature canvas hold ink (not transparent, not white). */
+async function inkPixels(page: Page): Promise<number> {
+  return page.getByTestId("signature-pad").evaluate((node) => {
+    const canvas = node as HTMLCanvasElement;
+    const data = canvas.getContext("2d")?.getImageData(0, 0, canvas.width, canvas.height).data ?? new Uint8ClampedArray();
+    let ink = 0;
+    for (let i = 0; i < data.length; i += 4) if (data[i + 3] > 0 && data[i] < 200) ink++;
+    return ink;
+  });
+}
+
+/** Presses Tab until the element has the focus (keyboard only: never a click). */
+async function tabTo(page: Page, target: ReturnType<Page["getByRole"]>, max = 120): Promise<void> {
+  for (let i = 0; i < max; i++) {
+    if (await target.evaluate((el) => el === document.activeElement)) return;
+    await page.keyboard.press("Tab");
+  }
+  throw new Error(`Tab never reached ${target.toString()}`);
+}
+
+test("on a phone: the drawn signature survives resizes and rotation, a reload keeps the confirmed code, and signing ends on a confirmation with the copy and the deposit next", async ({ browser, request }) => {
+  test.setTimeout(180_000);
+  const deal = await prepareDeal(request);
+  const link = await sendByApi(request, deal);
+  const customer = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true });
+  const problems = await watchBrowserProblems(customer);
+  const phone = await customer.newPage();
+  await phone.goto(link);
+  await phone.getByRole("button", { name: "E-mail me a code" }).click();
+  await phone.getByLabel("6-digit code").fill(await codeFromMail(deal.email));
+  await phone.getByRole("button", { name: "Confirm code" }).click();
+  await expect(phone.getByLabel("Your full name")).toBeVisible();
+
+  // A reload within the 30 minutes keeps the confirmation: straight back to the signing form.
+  await phone.reload();
+  await expect(phone.getByLabel("Your full name")).toBeVisible();
+  await expect(phone.getByText(/E-mail confirmed/)).toBeVisible();
+  await expect(phone.getByRole("button", { name: "E-mail me a code" })).toHaveCount(0);
+
+  await phone.getByRole("checkbox", { name: /agree to use electronic records and signatures/ }).check();
+  await phone.getByLabel("Your full name").fill(deal.contactName);
+  await drawSignature(phone);
+  await expect(phone.getByText("Signature drawn.")).toBeVisible();
+  const drawn = await inkPixels(phone);
+  expect(drawn).toBeGreaterThan(50);
+
+  // Rotation to landscape and back, and the browser bars hiding (a taller window): the strokes stay.
+  for (const size of [
+    { width: 844, height: 390 },
+    { width: 390, height: 844 },
+    { width: 390, height: 900 },
+  ]) {
+    await phone.setViewportSize(size);
+    await phone.waitForTimeout(300);
+    expect(await inkPixels(phone), `ink after resizing to ${size.width}×${size.height}`).toBeGreaterThan(50);
+    await expect(phone.getByText("Signature drawn.")).toBeVisible();
+  }
+
+  await phone.getByRole("button", { name: "Sign", exact: true }).click();
+  // The confirmation: its heading takes the focus, with the signed copy and the deposit as the next step.
+  const done = phone.getByTestId("state-signed");
+  await expect(done.getByRole("heading", { name: /Signed — here is your copy/ })).toBeFocused({ timeout: 30_000 });
+  await expect(done.getByRole("link", { name: "Download the signed PDF" })).toBeVisible();
+  await expect(done).toContainText("Next: the deposit");
+  await expect(done.getByRole("link", { name: /Pay the deposit/ })).toHaveAttribute("href", "#deposit-panel");
+  problems.expectNone();
+  await customer.close();
+});
+
+/** Words from inside the office that must never reach the homeowner's page. */
+const NOT_FOR_HOMEOWNERS = [/TMY3/, /\b7\d{5}\b/, /Dobos/, /Fels 1986/, /PRISM/, /NPV · IRR/, /table's years/, /Licence/, /programme/, /\$-/, /-\$/];
+
+test("keyboard only: code, consent, typed name adopted as the signature, Sign; the page speaks plainly and the signed copy says the typed name was adopted", async ({ browser, request }) => {
+  test.setTimeout(180_000);
+  const deal = await prepareDeal(request);
+  const link = await sendByApi(request, deal);
+  const customer = await browser.newContext({ viewport: { width: 390, height: 844 } });
+  const phone = await customer.newPage();
+  await phone.goto(link);
+  await expect(phone.getByRole("heading", { name: "Solar proposal for the Fennimore household" })).toBeVisible();
+
+  // Plain words: no station ids or method citations, one spelling, the same APR everywhere.
+  await phone.getByRole("radio", { name: /Whole roof, loan/ }).check();
+  const body = await phone.locator("body").innerText();
+  for (const word of NOT_FOR_HOMEOWNERS) expect(body, `the page shows ${word}`).not.toMatch(word);
+  const aprs = [...body.matchAll(/([\d.]+) % APR/g)].map((m) => m[1]);
+  expect(aprs.length).toBeGreaterThan(1);
+  expect(new Set(aprs)).toEqual(new Set(["4.25"]));
+  await expect(phone.getByRole("region", { name: "How we estimated this" })).toContainText(/typical year/);
+  // Each figure says in one line what it means.
+  const loanDetails = phone.getByTestId("offer-details-2");
+  await expect(loanDetails).toContainText("What the panels should make in their first year");
+  await expect(loanDetails).toContainText("The price less the incentives and tax credits expected");
+  await expect(loanDetails).toContainText(/less everything you pay; below zero means you pay more than you save/);
+
+  // Keyboard only from here: Tab to each control, Enter or Space to use it.
+  await tabTo(phone, phone.getByRole("button", { name: "E-mail me a code" }));
+  await phone.keyboard.press("Enter");
+  const code = await codeFromMail(deal.email);
+  await tabTo(phone, phone.getByRole("textbox", { name: "6-digit code" }));
+  await phone.keyboard.type(code);
+  await phone.keyboard.press("Enter");
+  await expect(phone.getByText("E-mail confirmed. You have 30 minutes to sign.")).toBeVisible();
+  await tabTo(phone, phone.getByRole("checkbox", { name: /agree to use electronic records and signatures/ }));
+  await phone.keyboard.press("Space");
+  await tabTo(phone, phone.getByRole("textbox", { name: "Your full name" }));
+  await phone.keyboard.type(deal.contactName);
+  await tabTo(phone, phone.getByRole("checkbox", { name: "Use my typed name as my signature" }));
+  await phone.keyboard.press("Space");
+  await expect(phone.getByText("Your typed name is your signature.")).toBeVisible();
+  expect(await inkPixels(phone)).toBeGreaterThan(50);
+  await tabTo(phone, phone.getByRole("button", { name: "Sign", exact: true }));
+  await phone.keyboard.press("Enter");
+  await expect(phone.getByRole("heading", { name: /Signed — here is your copy/ })).toBeFocused({ timeout: 30_000 });
+
+  // The signed copy's certificate says how the signature was given.
+  const signedPdf = await customer.request.get(`${link.replace("/p/", "/api/public/proposals/")}/signed-pdf`);
+  expect(signedPdf.status()).toBe(200);
+  const { text } = await extractText(await getDocumentProxy(new Uint8Array(await signedPdf.body())), { mergePages: true });
+  expect(text.replace(/\s+/g, " ")).toContain("typed name adopted as the signature");
   await customer.close();
 });

@@ -9,7 +9,7 @@ import { bill, dealUsage, intervalProfile, upload } from "../../../src/db/schema
 import { importIntervalData } from "../../../src/engine/green-button";
 import { referenceMonthlyShape } from "../../../src/engine/load-shape";
 import { deriveUsageYear, type StoredBill, type StoredInterval } from "../../../src/lib/usage-year";
-import { putSeedFile, seedStorageDir } from "../seed-files";
+import { seedStore } from "../seed-files";
 import type { SeedContext } from "../seed-demo";
 
 export const order = 15;
@@ -48,7 +48,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
   const bytes = new Uint8Array(await readFile(GREEN_BUTTON_FIXTURE));
   const profile = importIntervalData(new TextDecoder().decode(bytes), { format: "espi-xml", utcOffsetHours: -5 });
   const storageKey = `${ctx.companyId}/uploads/${INTERVAL_UPLOAD_ID}.xml`;
-  await putSeedFile(seedStorageDir("demo interval data"), storageKey, bytes);
+  await seedStore("demo interval data").put(storageKey, bytes);
   const dealId = ctx.dealIds[ctx.dealIds.length - 1];
   await ctx.tx.insert(upload).values({
     id: INTERVAL_UPLOAD_ID,

@@ -11,7 +11,7 @@ import { DEFAULT_TIME_ZONE } from "../../../src/lib/schemas/company-settings";
 import { addDaysToDate, todayInZone } from "../../../src/lib/zoned-time";
 import type { ChecklistTemplateItem, JobChecklistItem } from "../../../src/lib/schemas/jobs";
 import type { SeedContext } from "../seed-demo";
-import { putSeedFile, seedStorageDir } from "../seed-files";
+import { seedStore } from "../seed-files";
 
 export const order = 80;
 
@@ -178,7 +178,7 @@ async function demoJpeg(width: number, height: number, sky: string): Promise<Uin
 
 export async function seed(ctx: SeedContext): Promise<void> {
   const { tx, companyId } = ctx;
-  const storageDir = seedStorageDir("job photos");
+  const store = seedStore("job photos");
 
   await tx.insert(crew).values([
     { id: DEMO_CREW_IDS.north, companyId, name: "Crew North", feedToken: randomBytes(32).toString("base64url") },
@@ -243,7 +243,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
   const jablonski = await tx.select({ id: job.id }).from(job).where(and(eq(job.companyId, companyId), eq(job.dealId, ctx.dealIds[9]))).limit(1);
   const photoBytes = await demoJpeg(1024, 768, "#dce4ec");
   const photoKey = `${companyId}/jobs/${DEMO_JOB_PHOTO_ID}.jpg`;
-  await putSeedFile(storageDir, photoKey, photoBytes);
+  await store.put(photoKey, photoBytes);
   const crew2 = doneBy.south ?? null;
   await tx.insert(jobPhoto).values({
     id: DEMO_JOB_PHOTO_ID,
@@ -262,7 +262,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
   // The rep's photo of the Iwasaki roof from the first visit, for today's packet.
   const siteBytes = await demoJpeg(800, 600, "#f3dccf");
   const siteKey = `${companyId}/uploads/${DEMO_SITE_PHOTO_UPLOAD_ID}.jpg`;
-  await putSeedFile(storageDir, siteKey, siteBytes);
+  await store.put(siteKey, siteBytes);
   const rep = ctx.people.find((p) => p.email === "rep@tallgrass.example");
   await tx.insert(upload).values({
     id: DEMO_SITE_PHOTO_UPLOAD_ID,

@@ -46,7 +46,8 @@ import { designDocumentSchema, type DesignDocument } from "../../../src/lib/sche
 import { offerInputsSchema, type OfferInputs, type OfferInputsInput } from "../../../src/lib/schemas/offer";
 import { priceBookSchema, type PriceBook } from "../../../src/lib/schemas/price-book";
 import type { ProposalSnapshot } from "../../../src/lib/schemas/proposal";
-import { putSeedFile, seedStorageDir } from "../seed-files";
+import { seedStore } from "../seed-files";
+import type { FileStorage } from "../../../src/server/file-stores";
 import type { SeedContext } from "../seed-demo";
 
 export const order = 60;
@@ -95,7 +96,7 @@ type Ctx = {
   weather: WeatherYear;
   book: PriceBook;
   companyRow: { name: string; licenseNumber: string | null };
-  storageDir: string;
+  store: FileStorage;
   signaturePng: Uint8Array;
   ids: { proposal: number; event: number; timeline: number; file: number };
 };
@@ -205,7 +206,7 @@ async function writeProposal(
   const expiresAt = new Date(p.sentAt.getTime() + 30 * DAY_MS);
   const unsigned = await renderProposalPdf(p.snapshot, { number: p.number, version: p.version, sentAt: p.sentAt, expiresAt, timeZone: DEFAULT_TIME_ZONE, inHomeSale: p.inHomeSale, cancelDeadlineText: null });
   const pdfKey = `${c.companyId}/proposals/${uid(c.ids.file++)}.pdf`;
-  await putSeedFile(c.storageDir, pdfKey, unsigned);
+  await c.store.put(pdfKey, unsigned);
   const toEmail = p.snapshot.household.email ?? "customer@homeowner.example";
 
   const eventRows = p.events.map((e) => ({
@@ -252,7 +253,7 @@ async function writeProposal(
       signedOnText: formatIsoDateLong(signedOn),
     });
     const signedKey = `${c.companyId}/signed/${uid(c.ids.file++)}.pdf`;
-    await putSeedFile(c.storageDir, signedKey, stamped);
+    await c.store.put(signedKey, stamped);
     signed = {
       chosenPosition: offerSigned.position,
       codeVerifiedAt: new Date(p.sign.at.getTime() - 3 * 60_000),
@@ -341,7 +342,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
     weather: parseWeather(await readFile(GREENSBORO_FILE, "utf8"), { format: "tmy3" }),
     book: priceBookSchema.parse(json(bookRow.document)),
     companyRow,
-    storageDir: seedStorageDir("demo proposals"),
+    store: seedStore("demo proposals"),
     signaturePng: await demoSignaturePng(),
     // Ids: proposals …0601+, their events …0621+, Timeline lines …6601+, file names …6501+.
     ids: { proposal: 601, event: 621, timeline: 6601, file: 6501 },

@@ -10,7 +10,7 @@ import { fileURLToPath } from "node:url";
 import { upload, weatherStation } from "../../../src/db/schema";
 import { parseWeather, type WeatherFormat, type WeatherSite } from "../../../src/engine/weather";
 import type { SeedContext } from "../seed-demo";
-import { putSeedFile, seedStorageDir } from "../seed-files";
+import { seedStore } from "../seed-files";
 
 export const order = 5;
 
@@ -60,7 +60,7 @@ const STATIONS: DemoStation[] = [
 ];
 
 export async function seed(ctx: SeedContext): Promise<void> {
-  const storageDir = seedStorageDir("weather stations");
+  const store = seedStore("weather stations");
   for (const s of STATIONS) {
     const bytes = new Uint8Array(await readFile(s.file));
     const weather = parseWeather(new TextDecoder("utf-8").decode(bytes), { format: s.format, site: s.site });
@@ -68,7 +68,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
     let ghiWh = 0;
     for (let i = 0; i < weather.ghi.length; i++) ghiWh += weather.ghi[i];
     const storageKey = `${ctx.companyId}/weather/${s.uploadId}.${s.format === "epw" ? "epw" : "csv"}`;
-    await putSeedFile(storageDir, storageKey, bytes);
+    await store.put(storageKey, bytes);
     await ctx.tx.insert(upload).values({
       id: s.uploadId,
       companyId: ctx.companyId,

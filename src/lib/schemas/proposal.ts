@@ -78,6 +78,8 @@ export const signProposalSchema = z.object({
     .string()
     .startsWith("data:image/png;base64,", "Draw your signature")
     .max(400_000, "The signature drawing is too large; clear it and draw again"),
+  /** How the signature image was made: drawn on the pad, or the typed name adopted as the signature (the keyboard's way). */
+  signatureMethod: z.enum(["drawn", "typed"], { error: "Draw your signature, or use your typed name as your signature" }).default("drawn"),
 });
 
 /** POST /p/[token]/questions */

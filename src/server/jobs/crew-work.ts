@@ -5,7 +5,7 @@ import type { JobChecklistItem, MarkInstalledInput } from "@/lib/schemas/jobs";
 import { formatIsoDateLong } from "@/lib/proposal-snapshot";
 import { can } from "@/lib/permissions";
 import { hiddenWithParent } from "@/server/records";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { normalizePhoto } from "@/server/photos";
 import type { Member } from "@/server/session";
@@ -23,7 +23,7 @@ import { assertJobOpen, cancelWindowEndOf, firstInstallDay } from "./rules";
 /** Ticks or unticks one checklist item, recording who and when (row locked against a lost update). */
 export async function setChecklistItem(member: Member, jobId: string, input: { itemId: string; done: boolean }): Promise<JobChecklistItem[]> {
   await getJobRowOrThrow(member, jobId);
-  return db().transaction(async (tx) => {
+  return transaction(async (tx) => {
     const [row] = await tx
       .select({ checklist: job.checklist, cancelledAt: job.cancelledAt, cancelReason: job.cancelReason })
       .from(job)
@@ -53,7 +53,7 @@ export async function setChecklistItem(member: Member, jobId: string, input: { i
 export async function applyActiveChecklist(member: Member, jobId: string): Promise<JobChecklistItem[]> {
   if (!can(member.role, "jobs:manage")) throw new HttpError(403, "forbidden", "Your role does not allow changing a job's checklist.");
   await getJobRowOrThrow(member, jobId);
-  return db().transaction(async (tx) => {
+  return transaction(async (tx) => {
     const [row] = await tx
       .select({ checklist: job.checklist, cancelledAt: job.cancelledAt, cancelReason: job.cancelReason })
       .from(job)
@@ -105,7 +105,7 @@ export async function markJobInstalled(member: Member, jobId: string, input: Mar
   assertJobOpen(current);
   if (current.installedAt) return getJobOrThrow(member, jobId);
   const early = await installedTiming(member, current, input.earlyReason ?? null, now);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const changed = await tx
       .update(job)
       .set({ installedAt: now })
@@ -190,7 +190,7 @@ export async function addJobPhoto(member: Member, jobId: string, file: { bytes: 
   const storageKey = `${member.companyId}/jobs/${id}.jpg`;
   await storage().put(storageKey, photo.jpeg);
   try {
-    await db().transaction(async (tx) => {
+    await transaction(async (tx) => {
       await tx.insert(jobPhoto).values({
         id,
         companyId: member.companyId,

@@ -7,7 +7,7 @@ import { STAGE_LABELS } from "@/lib/stages";
 import { can } from "@/lib/permissions";
 import { dateInZone, todayInZone } from "@/lib/zoned-time";
 import { getCompanySettings } from "@/server/company-settings";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { autoMoveStage } from "@/server/stages";
@@ -133,7 +133,7 @@ export async function updateJob(member: Member, jobId: string, fields: JobFields
     if (!c) throw new HttpError(422, "validation_failed", "crewId: Pick a crew from the list", { crewId: ["Pick a crew from the list"] });
   }
   const moved: { to: Stage }[] = [];
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [before] = await tx
       .select()
       .from(job)

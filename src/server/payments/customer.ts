@@ -3,7 +3,7 @@ import { and, asc, desc, eq } from "drizzle-orm";
 import { payment, proposal, type PaymentStatus } from "@/db/schema";
 import { env } from "@/env";
 import { formatCentsExact, formatDate } from "@/lib/format";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { stripe } from "@/server/stripe";
 import { recordEvent } from "@/server/timeline";
@@ -31,7 +31,7 @@ function payable(p: ProposalRow): void {
  */
 export async function startDepositCheckout(token: string): Promise<{ url: string; paymentId: string; reused: boolean }> {
   const { APP_URL } = env();
-  return db().transaction(async (tx) => {
+  return transaction(async (tx) => {
     const p = await lockProposalByToken(tx, token);
     if (!p) throw notFound("Proposal");
     payable(p);

@@ -5,7 +5,7 @@ import { company, deal, household, payment, proposal } from "@/db/schema";
 import { formatCalendarDate, formatCentsExact, formatDate } from "@/lib/format";
 import { getCompanySettings } from "@/server/company-settings";
 import DepositReceiptEmail from "@emails/deposit-receipt";
-import { db, type Db, type Tx } from "@/server/db";
+import { db, transaction, type Db, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import { MailSendError, sendEmail } from "@/server/mail";
 import type { Member } from "@/server/session";
@@ -75,7 +75,7 @@ export async function resendDepositReceipt(member: Member, paymentId: string): P
     if (err instanceof MailSendError) throw new HttpError(502, "mail_failed", `The receipt could not be sent: ${err.message}`);
     throw err;
   }
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await recordEvent(tx, {
       companyId: row.companyId,
       dealId: row.dealId,

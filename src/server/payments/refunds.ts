@@ -6,7 +6,7 @@ import { payment, refund, type PaymentStatus } from "@/db/schema";
 import { formatCentsExact } from "@/lib/format";
 import { can } from "@/lib/permissions";
 import RefundIssuedEmail from "@emails/refund-issued";
-import { db, type Tx } from "@/server/db";
+import { db, transaction, type Tx } from "@/server/db";
 import { forbidden, HttpError, notFound } from "@/server/errors";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import type { Member } from "@/server/session";
@@ -78,7 +78,7 @@ export async function issueRefund(
     throw providerError(err);
   }
 
-  const saved = await db().transaction(async (tx) => {
+  const saved = await transaction(async (tx) => {
     const [locked] = await tx
       .select()
       .from(payment)

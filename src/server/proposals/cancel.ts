@@ -7,7 +7,7 @@ import { dateInZone } from "@/lib/zoned-time";
 import { canStillCancel, cancelWindowClosesAt, formatIsoDateLong } from "@/lib/proposal-snapshot";
 import ProposalCancelledEmail from "@emails/proposal-cancelled";
 import { getCompanySettings } from "@/server/company-settings";
-import { db, type Tx } from "@/server/db";
+import { transaction, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
 import type { ClientMeta } from "@/server/client-address";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
@@ -39,7 +39,7 @@ export type CancelOutcome = { proposalId: string; companyId: string; dealId: str
  */
 export async function cancelSignedProposal(p: ProposalRow, client: ClientMeta, now = new Date()): Promise<CancelOutcome> {
   const { timeZone } = await getCompanySettings(p.companyId);
-  const outcome = await db().transaction(async (tx) => {
+  const outcome = await transaction(async (tx) => {
     const [row] = await tx
       .select({ status: proposal.status, inHomeSale: proposal.inHomeSale, cancelDeadline: proposal.cancelDeadline })
       .from(proposal)

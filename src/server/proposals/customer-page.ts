@@ -5,7 +5,7 @@ import { proposal } from "@/db/schema";
 import { proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
 import { proposalQuestionSchema } from "@/lib/schemas/proposal";
 import QuestionAskedEmail from "@emails/question-asked";
-import { db } from "@/server/db";
+import { transaction } from "@/server/db";
 import { HttpError } from "@/server/errors";
 import type { ClientMeta } from "@/server/client-address";
 import { takeTurn } from "@/server/limits";
@@ -31,7 +31,7 @@ export async function recordProposalView(p: ProposalRow, client: ClientMeta, now
   const state = proposalLinkState(p, now);
   if (state !== "live" && state !== "signed") return;
   if (p.lastViewedAt && now.getTime() - p.lastViewedAt.getTime() < VIEW_THROTTLE_MS) return;
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [row] = await tx
       .select({ firstOpenedAt: proposal.firstOpenedAt, lastViewedAt: proposal.lastViewedAt })
       .from(proposal)
@@ -69,7 +69,7 @@ export async function askQuestion(p: ProposalRow, input: unknown, client: Client
   await takeTurn("questionLink", p.id, tooMany);
   await takeTurn("questionAddress", client.ip, tooMany);
   const question = parsed.data.question;
-  const { id, mailId } = await db().transaction(async (tx) => {
+  const { id, mailId } = await transaction(async (tx) => {
     const eid = await insertProposalEvent(tx, { companyId: p.companyId, proposalId: p.id, kind: "question", body: question, client });
     const short = question.length > 300 ? `${question.slice(0, 299)}…` : question;
     await recordEvent(tx, {

@@ -3,7 +3,7 @@ import { and, eq } from "drizzle-orm";
 import { proposal } from "@/db/schema";
 import { can } from "@/lib/permissions";
 import { proposalLinkState, type ProposalLinkState } from "@/lib/proposal-snapshot";
-import { db } from "@/server/db";
+import { transaction } from "@/server/db";
 import { forbidden, HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { recordEvent } from "@/server/timeline";
@@ -28,7 +28,7 @@ export async function revokeProposal(member: Member, proposalId: string): Promis
   if (!can(member.role, "proposals:send")) throw forbidden("revoking proposals");
   const p = await getProposalOrThrow(member, proposalId);
   const now = new Date();
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     const [row] = await tx
       .select({ status: proposal.status })
       .from(proposal)
@@ -66,7 +66,7 @@ export async function resendProposal(member: Member, proposalId: string): Promis
     throw new HttpError(409, "not_resendable", `${STATE_REFUSALS[state]} Send a new version from the Proposal tab instead.`);
   }
   const { token, hash } = newLinkToken();
-  const eventId = await db().transaction(async (tx) => {
+  const eventId = await transaction(async (tx) => {
     await tx.update(proposal).set({ tokenHash: hash, codeHash: null, codeExpiresAt: null, codeAttempts: 0, codeVerifiedAt: null }).where(and(eq(proposal.id, p.id), eq(proposal.companyId, member.companyId)));
     const eid = await insertProposalEvent(tx, { companyId: member.companyId, proposalId: p.id, kind: "resent", body: `to ${p.sentToEmail}`, actorUserId: member.userId });
     await recordEvent(tx, {

@@ -13,7 +13,7 @@ import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { missingStringPlanReason } from "@/lib/string-plan-rule";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
-import { db, type Tx } from "@/server/db";
+import { transaction, type Tx } from "@/server/db";
 import { openDeal, type DealScope } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
 import { forbidden, HttpError } from "@/server/errors";
@@ -166,7 +166,7 @@ export async function sendProposal(member: Member, input: unknown): Promise<Sent
   const key = `${member.companyId}/proposals/${crypto.randomUUID()}.pdf`;
   let numbering: { number: number; version: number };
   try {
-    numbering = await withFilesUndoneOnFailure((put) => db().transaction(async (tx) => {
+    numbering = await withFilesUndoneOnFailure((put) => transaction(async (tx) => {
       const { earlier, number, version } = await nextNumbering(tx, member.companyId, dealId);
       const pdf = await renderProposalPdf(snapshot, { number, version, sentAt, expiresAt, timeZone: scope.settings.timeZone, inHomeSale, cancelDeadlineText: null /* known once signed: the signed copy and the page show the date */ });
       await put(key, pdf);
@@ -258,8 +258,7 @@ export async function mailProposalLink(m: {
   } catch (err) {
     console.error("proposal saved; its e-mail could not be sent", m.proposalId, err);
     const reason = err instanceof Error ? err.message : "unknown error";
-    await db()
-      .transaction((tx) => insertProposalEvent(tx, { companyId: m.companyId, proposalId: m.proposalId, kind: "send_failed", body: reason.slice(0, 500) }))
+    await transaction((tx) => insertProposalEvent(tx, { companyId: m.companyId, proposalId: m.proposalId, kind: "send_failed", body: reason.slice(0, 500) }))
       .catch(() => undefined);
     return { mailSent: false, mailError: `The e-mail could not be sent (${reason}). Use "Re-send link" to try again.` };
   }

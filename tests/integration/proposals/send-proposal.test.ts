@@ -58,7 +58,7 @@ describe("sending", () => {
     expect(p.snapshot.usage.monthlyKwh).toHaveLength(12);
     expect(p.snapshot.assumptions.some((a) => a.startsWith("Weather:"))).toBe(true);
     expect(p.snapshot.assumptions.some((a) => /System losses: 14 %/.test(a))).toBe(true);
-    expect(p.snapshot.assumptions.some((a) => /programme runs 2020-01-01 to 2099-12-31/.test(a))).toBe(true);
+    expect(p.snapshot.assumptions.some((a) => /program runs 2020-01-01 to 2099-12-31/.test(a))).toBe(true);
     // 10 % of $24,000 = $2,400, capped at the policy's $1,500 maximum.
     expect(p.snapshot.offers[0].depositCents).toBe(150_000);
     expect(p.snapshot.offers[0].equipment.faces.map((f) => f.moduleCount)).toEqual([14, 6]);

@@ -117,7 +117,37 @@ describe("the one-time code", () => {
   });
 });
 
+describe("the code's state after a reload", () => {
+  it("tells this browser it is confirmed (minutes left), another browser nothing; a code waiting to be typed is named", async () => {
+    const x = await sent();
+    expect(await m.signing.signingCodeState(await x.load(), null)).toEqual({ verified: false, minutesLeft: 0, codePending: false, sentTo: null });
+    await m.signing.sendSigningCode(await x.load(), x.token, client);
+    const waiting = await m.signing.signingCodeState(await x.load(), null);
+    expect(waiting).toMatchObject({ verified: false, codePending: true });
+    expect(waiting.sentTo).toMatch(/^h•••@integration\.example$/);
+    const session = (await m.signing.verifySigningCode(await x.load(), { code: await latestCode(x.email) }, client)).session;
+    expect(await m.signing.signingCodeState(await x.load(), session)).toEqual({ verified: true, minutesLeft: 29, codePending: false, sentTo: null });
+    expect((await m.signing.signingCodeState(await x.load(), "another-browsers-secret-aaaaaaaaaaaaaaaaaaa")).verified).toBe(false);
+    // Past the 30 minutes the confirmation is gone, as the cookie is.
+    await m.db.db().update(proposal).set({ codeExpiresAt: new Date(Date.now() - 1000) }).where(eq(proposal.id, x.id));
+    expect((await m.signing.signingCodeState(await x.load(), session)).verified).toBe(false);
+  });
+});
+
 describe("signing", () => {
+  it("takes the typed name adopted as the signature and says so on the certificate; refuses an unknown method", async () => {
+    const x = await sent();
+    const session = await confirmed(x);
+    const odd = await rejection(m.signing.signProposal(await x.load(), x.token, { ...signInput(), signatureMethod: "stamped" }, client, session), 422);
+    expect(odd.fields?.signatureMethod?.[0]).toBe("Draw your signature, or use your typed name as your signature");
+    await m.signing.signProposal(await x.load(), x.token, { ...signInput(), signatureMethod: "typed" }, client, session);
+    const signed = await x.load();
+    const bytes = await m.proposals.readProposalPdf(signed, "signed");
+    const { extractText, getDocumentProxy } = await import("unpdf");
+    const { text } = await extractText(await getDocumentProxy(new Uint8Array(bytes)), { mergePages: true });
+    expect(text.replace(/\s+/g, " ")).toContain("typed name adopted as the signature");
+  });
+
   it("needs a confirmed e-mail in this browser", async () => {
     const x = await sent();
     const none = await rejection(m.signing.signProposal(await x.load(), x.token, signInput(), client, null), 403);

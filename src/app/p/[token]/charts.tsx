@@ -2,7 +2,7 @@
 // The customer's two charts, sized for a phone: monthly usage (slate blue) against estimated
 // production (copper), and the cumulative cash flow over the years of the table.
 import { Bar, BarChart, CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { formatCents } from "@/lib/format";
+import { formatCentsCompact, formatSignedCents } from "@/lib/format";
 
 const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
 const USAGE = "#3E5C76";
@@ -35,7 +35,7 @@ export function UsageProductionChart({ usageKwh, productionKwh }: { usageKwh: nu
 export function CashflowChart({ cumulativeCents }: { cumulativeCents: number[] }) {
   const data = cumulativeCents.map((c, year) => ({ year, dollars: Math.round(c / 100) }));
   const last = cumulativeCents[cumulativeCents.length - 1] ?? 0;
-  const label = `Cumulative cash flow over ${data.length - 1} years, ending at ${formatCents(last)}`;
+  const label = `Cumulative cash flow over ${data.length - 1} years, ending at ${formatSignedCents(last)}`;
   return (
     <figure data-testid="cashflow-chart">
       <div className="h-56 w-full" role="img" aria-label={label}>
@@ -43,9 +43,9 @@ export function CashflowChart({ cumulativeCents }: { cumulativeCents: number[] }
           <LineChart data={data} margin={{ top: 8, right: 8, bottom: 0, left: 0 }}>
             <CartesianGrid vertical={false} stroke={GRID} />
             <XAxis dataKey="year" tickLine={false} axisLine={false} fontSize={11} />
-            <YAxis tickLine={false} axisLine={false} fontSize={11} width={52} tickFormatter={(v: number) => `${v < 0 ? "−" : ""}$${Math.abs(v / 1000).toFixed(0)}k`} />
+            <YAxis tickLine={false} axisLine={false} fontSize={11} width={52} tickFormatter={(v: number) => formatCentsCompact(v * 100)} />
             <ReferenceLine y={0} stroke="#52606D" />
-            <Tooltip formatter={(v) => [formatCents(Number(v) * 100), "Ahead (or behind)"]} labelFormatter={(y) => `Year ${y}`} />
+            <Tooltip formatter={(v) => [formatSignedCents(Number(v) * 100), "Ahead (or behind)"]} labelFormatter={(y) => `Year ${y}`} />
             <Line type="monotone" dataKey="dollars" stroke={PRODUCTION} strokeWidth={2} dot={false} isAnimationActive={false} />
           </LineChart>
         </ResponsiveContainer>

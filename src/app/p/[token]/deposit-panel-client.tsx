@@ -1,5 +1,6 @@
 "use client";
-import { useEffect, useState } from "react";
+import { useRouter } from "next/navigation";
+import { startTransition, useCallback, useEffect, useState } from "react";
 import { FormMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { api, ApiError } from "@/lib/api-client";
@@ -42,7 +43,21 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
   const quiet = returned === "cancelled" && deposit.status === "open" && !quietDone;
   const pollForMs = waiting ? POLL_FOR_MS : quiet ? POLL_AFTER_CANCEL_MS : 0;
 
-  usePollDeposit(url, pollForMs, setDeposit, setGaveUp, setQuietDone);
+  // Once the money is in, the rest of the page (the stage, the next step) follows in the same
+  // commit: the new deposit state waits for the server's re-render, so the page never says
+  // "Deposit received" beside "Pay your deposit".
+  const router = useRouter();
+  const apply = useCallback(
+    (next: CustomerDeposit) => {
+      if (!SETTLED.includes(next.status)) return setDeposit(next);
+      startTransition(() => {
+        setDeposit(next);
+        router.refresh();
+      });
+    },
+    [router],
+  );
+  usePollDeposit(url, pollForMs, apply, setGaveUp, setQuietDone);
 
   // Success leaves for the provider's page; "already paid" or "confirming" means wait for the webhook instead.
   const checkout = useSave<void, { url: string }>({
@@ -65,7 +80,7 @@ export function DepositPanelClient({ token, initial, companyName }: { token: str
   const busy = paying || checkout.pending;
 
   return (
-    <section aria-labelledby="deposit-heading" className="card p-4" data-testid="deposit-panel">
+    <section id="deposit-panel" aria-labelledby="deposit-heading" className="card scroll-mt-4 p-4" data-testid="deposit-panel">
       <h2 id="deposit-heading" className="text-lg font-semibold">
         Deposit
       </h2>

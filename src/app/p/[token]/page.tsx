@@ -9,11 +9,13 @@ import type { ReactNode } from "react";
 import { Wordmark } from "@/components/wordmark";
 import { figureDefinitions } from "@/lib/figure-definitions";
 import { formatCents, formatDate, formatDateTime } from "@/lib/format";
+import { plainAssumptions } from "@/lib/plain-words";
 import { formatIsoDateLong, proposalLinkState } from "@/lib/proposal-snapshot";
 import { dateInZone } from "@/lib/zoned-time";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { clientMeta } from "@/server/client-address";
 import { getCompanySettings } from "@/server/company-settings";
+import { depositForProposal } from "@/server/payments";
 import { cancelWindowOf, findProposalByToken, labelOf, recordProposalView, type ProposalRow } from "@/server/proposals";
 import { CancelForm } from "./cancel-form";
 import { DepositPanel } from "./deposit-panel";
@@ -21,6 +23,7 @@ import { OfferDetails } from "./offer-details";
 import { ProjectPanel } from "./project-panel";
 import { ProposalView } from "./proposal-view";
 import { QuestionForm } from "./question-form";
+import { SignedHeading } from "./signed-heading";
 
 export const metadata: Metadata = {
   title: "Your solar proposal",
@@ -74,7 +77,7 @@ function Shell({ snapshot: s, label, children }: { snapshot: ProposalSnapshot; l
     <div className="mx-auto max-w-2xl px-4 pb-16 pt-5">
       <header className="border-b border-paper-line pb-4">
         <p className="text-lg font-semibold">{s.company.name}</p>
-        {s.company.licenseNumber ? <p className="text-xs text-graphite-soft">Licence {s.company.licenseNumber}</p> : null}
+        {s.company.licenseNumber ? <p className="text-xs text-graphite-soft">License {s.company.licenseNumber}</p> : null}
         <h1 className="mt-3 text-2xl font-semibold">Solar proposal for the {s.household.name}</h1>
         <p className="text-sm text-graphite-soft">
           Proposal <span className="figure">{label}</span> · prepared by {s.rep.name} ({s.rep.email})
@@ -120,14 +123,18 @@ function HouseholdCard({ s }: { s: ProposalSnapshot }) {
   );
 }
 
+/**
+ * How the figures were made, in words: the assumption sentences without station ids or method
+ * citations (src/lib/plain-words.ts), then the methods named the way a homeowner can look them up.
+ */
 function AssumptionsCard({ s }: { s: ProposalSnapshot }) {
   return (
     <section aria-labelledby="assumptions-heading" className="card p-4">
       <h2 id="assumptions-heading" className="text-lg font-semibold">
-        What the figures assume
+        How we estimated this
       </h2>
       <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">
-        {s.assumptions.map((a) => (
+        {plainAssumptions(s.assumptions, s.offers).map((a) => (
           <li key={a}>{a}</li>
         ))}
         {s.offers.map((o) => {
@@ -135,6 +142,10 @@ function AssumptionsCard({ s }: { s: ProposalSnapshot }) {
           return simple ? <li key={`simple-${o.position}`}>{s.offers.length > 1 ? `${o.name}: ${simple}` : simple}</li> : null;
         })}
       </ul>
+      <p className="mt-3 text-sm text-graphite-soft">
+        Production is estimated hour by hour over a typical year with the method of the U.S. National Renewable Energy Laboratory&apos;s free PVWatts calculator; bills with and
+        without solar follow your utility&apos;s published rates.
+      </p>
       <h3 className="mt-4 font-semibold">Please note</h3>
       <ul className="mt-2 list-disc space-y-1 rounded-md bg-caution-light py-2 pl-8 pr-3 text-sm">
         {s.cautions.map((c) => (
@@ -145,6 +156,7 @@ function AssumptionsCard({ s }: { s: ProposalSnapshot }) {
   );
 }
 
+/** The PDFs to keep; `signed` adds the signed copy (the signed page offers it in its confirmation instead). */
 function Downloads({ token, signed }: { token: string; signed: boolean }) {
   return (
     <section aria-labelledby="downloads-heading" className="card p-4">
@@ -185,16 +197,31 @@ async function SignedPage({ p, token, timeZone }: { p: ProposalRow; token: strin
   const s = p.snapshot;
   const offer = s.offers.find((o) => o.position === p.chosenPosition) ?? s.offers[0];
   const cancelWindow = await cancelWindowOf(p);
+  const deposit = await depositForProposal(p);
+  const depositDue = !!deposit && deposit.canPay && ["due", "open", "failed", "expired"].includes(deposit.status);
   return (
     <>
-      <section className="card border-sage/40 bg-sage-light p-4" data-testid="state-signed" role="status">
-        <h2 className="text-xl font-semibold">Signed</h2>
+      <section aria-labelledby="signed-heading" className="card border-sage/40 bg-sage-light p-4" data-testid="state-signed">
+        <SignedHeading token={token} />
         <p className="mt-1">
           {p.signerName} signed on {p.signedAt ? formatDateTime(p.signedAt, timeZone) : "—"}, choosing &ldquo;{offer.name}&rdquo; at{" "}
-          <span className="figure font-semibold">{formatCents(offer.figures.summary.contractCents)}</span>.
+          <span className="figure font-semibold">{formatCents(offer.figures.summary.contractCents)}</span>. A copy was also e-mailed to you.
         </p>
-        <p className="mt-1 text-sm">Deposit asked at signing: <span className="figure">{formatCents(offer.depositCents)}</span>.</p>
-        <p className="mt-2 break-all text-xs text-graphite-soft">
+        <a href={`/api/public/proposals/${token}/signed-pdf`} className="btn-primary mt-3 w-full" download>
+          Download the signed PDF
+        </a>
+        {depositDue && deposit ? (
+          <div className="mt-4 border-t border-sage/40 pt-3">
+            <p className="font-semibold">Next: the deposit</p>
+            <p className="mt-1 text-sm">
+              {s.company.name} asks for a deposit of <span className="figure">{deposit.amountText}</span> to start your project. It counts toward the price.
+            </p>
+            <a href="#deposit-panel" className="btn-quiet mt-2 w-full">
+              Pay the deposit: {deposit.amountText}
+            </a>
+          </div>
+        ) : null}
+        <p className="mt-3 break-all text-xs text-graphite-soft">
           Fingerprint (SHA-256) of the signed PDF: <span className="figure">{p.signedSha256}</span>. Anyone can check a copy on the{" "}
           <a href="/verify" className="underline">
             verify page
@@ -202,7 +229,7 @@ async function SignedPage({ p, token, timeZone }: { p: ProposalRow; token: strin
           .
         </p>
       </section>
-      <Downloads token={token} signed />
+      <Downloads token={token} signed={false} />
       <DepositPanel token={token} />
       <ProjectPanel token={token} />
       {cancelWindow ? <RightToCancel p={p} token={token} cancelWindow={cancelWindow} /> : null}

@@ -34,7 +34,7 @@ export function ProposalView({ token, label, snapshot }: { token: string; label:
                         <span className="figure">{formatCents(s.monthlyLoanPaymentCents)}</span>/month ·{" "}
                       </>
                     ) : null}
-                    payback <span className="figure">{paybackText(s.paybackYears)}</span>
+                    payback <span className="figure">{paybackText(s.paybackYears, o.figures.assumptions.years)}</span>
                   </span>
                 </span>
               </label>

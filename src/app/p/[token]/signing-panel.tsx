@@ -1,19 +1,27 @@
 "use client";
 // Signing on the customer's phone: confirm the e-mail with a one-time code, read and accept the
 // electronic-records disclosure, type the name, draw the signature (signature_pad, pointer
-// events), sign. The server checks everything again; this screen only guides.
-import { useEffect, useRef, useState, type FormEvent, type RefObject } from "react";
+// events) or adopt the typed name as the signature, sign. The server checks everything again;
+// this screen only guides. A phone's resizes (rotation, browser bars) keep the drawing, and a
+// reload within the confirmation's 30 minutes goes straight back to the signing form.
+import { useCallback, useEffect, useRef, useState, type FormEvent, type RefObject } from "react";
 import type SignaturePad from "signature_pad";
 import { Field, StatusMessage, type Notice } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
-import { ApiError } from "@/lib/api-client";
+import { api, ApiError } from "@/lib/api-client";
 import { fieldErrorsToErrors } from "@/lib/form-errors";
 import { formatCents } from "@/lib/format";
 
 type Chosen = { position: number; name: string; contractCents: number };
 type Props = { token: string; label: string; companyName: string; repName: string; repEmail: string; chosen: Chosen };
 
-type Step = "start" | "code" | "sign";
+type Step = "checking" | "start" | "code" | "sign";
+
+/** Where this browser stands with the code (GET …/verify-code): the confirmation lives server-side, keyed by an httpOnly cookie. */
+type CodeState = { verified: boolean; minutesLeft: number; codePending: boolean; sentTo: string | null };
+
+/** Set just before the page refreshes into its signed state, so the confirmation takes the focus. */
+export const JUST_SIGNED_KEY = "kw-just-signed";
 
 export function SigningPanel({ token, label, companyName, repName, repEmail, chosen }: Props) {
   const base = `/api/public/proposals/${token}`;
@@ -28,6 +36,8 @@ export function SigningPanel({ token, label, companyName, repName, repEmail, cho
         You are signing for <strong className="text-graphite">&ldquo;{chosen.name}&rdquo;</strong> at <span className="figure font-semibold text-graphite">{formatCents(chosen.contractCents)}</span>. To choose
         another option, pick it above.
       </p>
+
+      {step === "checking" ? <p className="mt-4 text-sm text-graphite-soft">Checking whether you already confirmed your e-mail…</p> : null}
 
       {step === "start" ? (
         <div className="mt-4">
@@ -56,6 +66,7 @@ export function SigningPanel({ token, label, companyName, repName, repEmail, cho
           repName={repName}
           repEmail={repEmail}
           chosen={chosen}
+          token={token}
           onNeedCode={(text) => {
             setStep("start");
             setMessage({ tone: "error", text });
@@ -101,6 +112,7 @@ function SignForm({
   repName,
   repEmail,
   chosen,
+  token,
   onNeedCode,
 }: {
   base: string;
@@ -109,15 +121,19 @@ function SignForm({
   repName: string;
   repEmail: string;
   chosen: Chosen;
+  token: string;
   onNeedCode: (message: string) => void;
 }) {
-  const { canvasRef, padRef, empty, clear } = useSignaturePad();
   const [consent, setConsent] = useState(false);
   const [name, setName] = useState("");
+  const [typed, setTyped] = useState(false);
+  const { canvasRef, padRef, empty, clear } = useSignaturePad(typed ? name.trim() : null);
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const signing = useSave<{ position: number; signerName: string; consent: true; signaturePng: string }>({
+  const signing = useSave<{ position: number; signerName: string; consent: true; signaturePng: string; signatureMethod: "drawn" | "typed" }>({
     request: (json) => ({ url: `${base}/sign`, method: "POST", json }),
     onFieldErrors: (fields) => setErrors(fieldErrorsToErrors(fields)),
+    // The page refreshes into its signed state; its confirmation takes the focus (SignedHeading).
+    onSaved: () => sessionStorage.setItem(JUST_SIGNED_KEY, token),
     onError: (err) => {
       if (err instanceof ApiError && err.code === "code_required") onNeedCode(err.message);
     },
@@ -129,10 +145,11 @@ function SignForm({
     if (!consent) found.consent = "Agree to sign electronically to continue";
     if (name.trim().length < 2) found.signerName = "Type your full name";
     const pad = padRef.current;
-    if (!pad || pad.isEmpty()) found.signaturePng = "Draw your signature in the box";
+    const canvas = canvasRef.current;
+    if (!typed && (!pad || pad.isEmpty())) found.signaturePng = "Draw your signature in the box, or use your typed name as your signature";
     setErrors(found);
-    if (Object.keys(found).length > 0 || !pad) return;
-    signing.save({ position: chosen.position, signerName: name.trim(), consent: true, signaturePng: pad.toDataURL("image/png") });
+    if (Object.keys(found).length > 0 || !canvas) return;
+    signing.save({ position: chosen.position, signerName: name.trim(), consent: true, signaturePng: canvas.toDataURL("image/png"), signatureMethod: typed ? "typed" : "drawn" });
   }
 
   return (
@@ -140,10 +157,10 @@ function SignForm({
       <EsignDisclosure companyName={companyName} repName={repName} repEmail={repEmail} />
       <ConsentField consent={consent} setConsent={setConsent} error={errors.consent} />
       <Field id="signer-name" label="Your full name" autoComplete="name" value={name} error={errors.signerName} onChange={(e) => setName(e.target.value)} />
-      <SignatureField canvasRef={canvasRef} empty={empty} onClear={clear} error={errors.signaturePng} />
+      <SignatureField canvasRef={canvasRef} empty={empty} typed={typed} setTyped={setTyped} onClear={clear} error={errors.signaturePng} />
       <p className="text-sm">
         By pressing <strong>Sign</strong> you sign proposal {label} for &ldquo;{chosen.name}&rdquo; at <span className="figure">{formatCents(chosen.contractCents)}</span>, and you
-        intend your typed name and drawn signature to be your signature.
+        intend your typed name and {typed ? "the signature made from it" : "drawn signature"} to be your signature.
       </p>
       <StatusMessage notice={signing.notice} />
       <button type="submit" className="btn-primary w-full" disabled={signing.pending}>
@@ -205,8 +222,22 @@ function ConsentField({ consent, setConsent, error }: { consent: boolean; setCon
   );
 }
 
-/** The box to draw the signature in, and the button to clear it. */
-function SignatureField({ canvasRef, empty, onClear: clear, error }: { canvasRef: RefObject<HTMLCanvasElement | null>; empty: boolean; onClear: () => void; error: string | undefined }) {
+/** The box to draw the signature in, the button to clear it, and the keyboard's way: the typed name as the signature. */
+function SignatureField({
+  canvasRef,
+  empty,
+  typed,
+  setTyped,
+  onClear: clear,
+  error,
+}: {
+  canvasRef: RefObject<HTMLCanvasElement | null>;
+  empty: boolean;
+  typed: boolean;
+  setTyped: (typed: boolean) => void;
+  onClear: () => void;
+  error: string | undefined;
+}) {
   return (
     <div>
       <p id="signature-label" className="field-label">
@@ -214,7 +245,7 @@ function SignatureField({ canvasRef, empty, onClear: clear, error }: { canvasRef
       </p>
       <canvas
         ref={canvasRef}
-        className="block h-40 w-full touch-none rounded-md border border-dashed border-graphite-faint bg-white"
+        className={`block h-40 w-full touch-none rounded-md border bg-white ${typed ? "border-graphite-faint" : "border-dashed border-graphite-faint"}`}
         role="img"
         aria-labelledby="signature-label"
         aria-describedby="signature-hint"
@@ -222,12 +253,18 @@ function SignatureField({ canvasRef, empty, onClear: clear, error }: { canvasRef
       />
       <div className="mt-1 flex items-center justify-between gap-2">
         <p id="signature-hint" className="text-xs text-graphite-soft">
-          {empty ? "Draw with your finger, a stylus or the mouse." : "Signature drawn."}
+          {typed ? "Your typed name is your signature." : empty ? "Draw with your finger, a stylus or the mouse." : "Signature drawn."}
         </p>
-        <button type="button" className="btn-quiet" onClick={clear}>
-          Clear
-        </button>
+        {typed ? null : (
+          <button type="button" className="btn-quiet" onClick={clear}>
+            Clear
+          </button>
+        )}
       </div>
+      <label className="mt-2 flex min-h-touch items-start gap-3 text-sm">
+        <input type="checkbox" className="mt-1 h-5 w-5 accent-copper" checked={typed} onChange={(e) => setTyped(e.target.checked)} />
+        <span>Use my typed name as my signature</span>
+      </label>
       {error ? (
         <p className="field-error" role="alert">
           {error}
@@ -237,13 +274,38 @@ function SignatureField({ canvasRef, empty, onClear: clear, error }: { canvasRef
   );
 }
 
+/** Asks the server whether this browser already confirmed a code (a reload within the 30 minutes) or has a code waiting. */
+function useCodeState(base: string, apply: (state: CodeState | null) => void) {
+  useEffect(() => {
+    let stopped = false;
+    api<CodeState>(`${base}/verify-code`, { cache: "no-store" })
+      .then((state) => !stopped && apply(state))
+      .catch(() => !stopped && apply(null));
+    return () => {
+      stopped = true;
+    };
+  }, [base, apply]);
+}
+
 /** The steps before signing: e-mail a one-time code, then check it. */
 function useCodeStep(base: string) {
-  const [step, setStep] = useState<Step>("start");
+  const [step, setStep] = useState<Step>("checking");
   const [sentTo, setSentTo] = useState<string | null>(null);
   const [code, setCode] = useState("");
   const [codeError, setCodeError] = useState<string | null>(null);
   const [message, setMessage] = useState<Notice | null>(null);
+  useCodeState(
+    base,
+    useCallback((state: CodeState | null) => {
+      if (state?.verified) {
+        setStep("sign");
+        setMessage({ tone: "success", text: `E-mail confirmed. You have ${state.minutesLeft} ${state.minutesLeft === 1 ? "minute" : "minutes"} left to sign.` });
+      } else if (state?.codePending) {
+        setSentTo(state.sentTo);
+        setStep("code");
+      } else setStep("start");
+    }, []),
+  );
   // The page is this panel's state until the signature: no refresh between the steps.
   const sendCode = useSave<void, { sentTo: string; expiresAt: string }>({
     request: () => ({ url: `${base}/code`, method: "POST" }),
@@ -286,11 +348,50 @@ function useCodeStep(base: string) {
   return { step, setStep, sentTo, code, setCode, codeError, message, setMessage, busy, requestCode, verify };
 }
 
-/** The signature pad on the canvas: loaded in the browser only, refitted to the canvas when the window resizes. */
-function useSignaturePad() {
+/** Writes the typed name across the canvas in a handwriting face, shrunk to fit its width. */
+function drawTypedName(canvas: HTMLCanvasElement, name: string) {
+  const ctx = canvas.getContext("2d");
+  if (!ctx) return;
+  const width = canvas.offsetWidth;
+  const height = canvas.offsetHeight;
+  ctx.save();
+  ctx.fillStyle = "#FFFFFF";
+  ctx.fillRect(0, 0, width, height);
+  let size = Math.min(48, height * 0.45);
+  const font = (px: number) => `italic ${px}px "Segoe Script", "Brush Script MT", "URW Chancery L", cursive, serif`;
+  ctx.font = font(size);
+  while (size > 12 && ctx.measureText(name).width > width - 24) ctx.font = font((size -= 2));
+  ctx.fillStyle = PEN;
+  ctx.textAlign = "center";
+  ctx.textBaseline = "middle";
+  ctx.fillText(name, width / 2, height * 0.55);
+  ctx.restore();
+}
+
+const PEN = "#1F2933";
+
+/**
+ * The signature pad on the canvas, loaded in the browser only. When the canvas changes size
+ * (rotation; a phone's browser bars hiding as the customer scrolls to Sign), it is refitted for
+ * the screen's pixel density and the strokes are put back (signature_pad's toData/fromData).
+ * With a typed name (`typedName` not null) the pad takes no strokes and shows the name instead.
+ */
+function useSignaturePad(typedName: string | null) {
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const padRef = useRef<SignaturePad | null>(null);
+  const typedRef = useRef(typedName);
   const [empty, setEmpty] = useState(true);
+
+  const paint = useCallback(() => {
+    const canvas = canvasRef.current;
+    const pad = padRef.current;
+    if (!canvas || !pad) return;
+    if (typedRef.current !== null) {
+      pad.off();
+      pad.clear();
+      drawTypedName(canvas, typedRef.current);
+    } else pad.on();
+  }, []);
 
   useEffect(() => {
     let pad: SignaturePad | null = null;
@@ -300,27 +401,43 @@ function useSignaturePad() {
       if (!canvas || !pad) return;
       // A sharp drawing on high-density screens, capped so the PNG stays small.
       const ratio = Math.min(2, Math.max(window.devicePixelRatio || 1, 1));
-      canvas.width = canvas.offsetWidth * ratio;
-      canvas.height = canvas.offsetHeight * ratio;
+      const width = Math.round(canvas.offsetWidth * ratio);
+      const height = Math.round(canvas.offsetHeight * ratio);
+      if (width === canvas.width && height === canvas.height) return;
+      const strokes = pad.toData();
+      canvas.width = width;
+      canvas.height = height;
       canvas.getContext("2d")?.scale(ratio, ratio);
-      pad.clear();
-      setEmpty(true);
+      pad.fromData(strokes); // clears, then redraws every stroke at its place in CSS pixels
+      paint();
     };
+    const observer = new ResizeObserver(fit);
     void import("signature_pad").then(({ default: Pad }) => {
       if (cancelled || !canvas) return;
-      pad = new Pad(canvas, { penColor: "#1F2933", minWidth: 0.8, maxWidth: 2.6 });
+      pad = new Pad(canvas, { penColor: PEN, minWidth: 0.8, maxWidth: 2.6 });
       pad.addEventListener("endStroke", () => setEmpty(pad?.isEmpty() ?? true));
       padRef.current = pad;
       fit();
+      observer.observe(canvas);
     });
-    window.addEventListener("resize", fit);
     return () => {
       cancelled = true;
-      window.removeEventListener("resize", fit);
+      observer.disconnect();
       pad?.off();
       padRef.current = null;
     };
-  }, []);
+  }, [paint]);
+
+  // Switching between drawing and the typed name starts from an empty box.
+  const typing = typedName !== null;
+  useEffect(() => {
+    padRef.current?.clear();
+    setEmpty(true);
+  }, [typing]);
+  useEffect(() => {
+    typedRef.current = typedName;
+    paint();
+  }, [typedName, paint]);
 
   function clear() {
     padRef.current?.clear();

@@ -1,6 +1,6 @@
 "use client";
 import { CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { formatCents } from "@/lib/format";
+import { formatCents, formatCentsCompact } from "@/lib/format";
 
 /** One line per offer: copper, slate blue, sage (the tokens in tailwind.config.ts). */
 export const OFFER_COLORS = ["#B5542D", "#3E5C76", "#5B7F6B"] as const;
@@ -22,7 +22,7 @@ export function CashflowChart({ series }: { series: { name: string; cumulativeCe
           <LineChart data={data} margin={{ top: 8, right: 16, bottom: 0, left: 8 }}>
             <CartesianGrid vertical={false} stroke="#E2D9CB" />
             <XAxis dataKey="year" tickLine={false} axisLine={false} fontSize={12} />
-            <YAxis tickLine={false} axisLine={false} fontSize={12} width={72} tickFormatter={(v: number) => `$${(v / 1000).toFixed(0)}k`} />
+            <YAxis tickLine={false} axisLine={false} fontSize={12} width={72} tickFormatter={(v: number) => formatCentsCompact(v * 100)} />
             <ReferenceLine y={0} stroke="#52606D" />
             <Tooltip formatter={(v, name) => [formatCents(Number(v) * 100), series[Number(String(name).slice(1))]?.name ?? String(name)]} labelFormatter={(y) => `Year ${y}`} />
             <Legend formatter={(v: string) => series[Number(v.slice(1))]?.name ?? v} />

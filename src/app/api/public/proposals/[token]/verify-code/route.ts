@@ -2,8 +2,14 @@ import { NextResponse } from "next/server";
 import { env } from "@/env";
 import { withProposalToken } from "@/server/proposals";
 import { readJson } from "@/server/route";
-import { SIGNING_COOKIE, SIGNING_COOKIE_PATH, SIGNING_WINDOW_MS, verifySigningCode } from "@/server/signing";
+import { SIGNING_COOKIE, SIGNING_COOKIE_PATH, SIGNING_WINDOW_MS, signingCodeState, verifySigningCode } from "@/server/signing";
 import { z } from "zod";
+
+/** Whether this browser already confirmed its code (a reload within the 30 minutes), or has a code waiting to be typed. */
+export const GET = withProposalToken(async ({ req, proposal }) => {
+  const state = await signingCodeState(proposal, req.cookies.get(SIGNING_COOKIE)?.value ?? null);
+  return NextResponse.json({ data: state }, { headers: { "Cache-Control": "no-store" } });
+});
 
 /** Checks the code (body: { code }); a right code leaves a 30-minute signing confirmation in an httpOnly cookie. */
 export const POST = withProposalToken(async ({ req, proposal, client }) => {
