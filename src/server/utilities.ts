@@ -6,7 +6,7 @@ import { siteTimeZone } from "@/engine/site-time-zone";
 import { can } from "@/lib/permissions";
 import { COMPANY_TIME_ZONES } from "@/lib/schemas/company-settings";
 import type { utilitySchema } from "@/lib/schemas/utility";
-import { db } from "@/server/db";
+import { db, transaction } from "@/server/db";
 import { getCompanySettings } from "@/server/company-settings";
 import { forbidden, HttpError, isDuplicateKey } from "@/server/errors";
 import { companyRowOrThrow } from "@/server/records";
@@ -63,7 +63,7 @@ export async function createUtility(member: Member, input: Omit<UtilityFields, "
 export async function updateUtility(member: Member, id: string, input: UtilityFields): Promise<UtilityRow> {
   const before = await getUtilityOrThrow(member.companyId, id);
   try {
-    await db().transaction(async (tx) => {
+    await transaction(async (tx) => {
       await tx.update(utility).set(input).where(and(eq(utility.id, id), eq(utility.companyId, member.companyId)));
       if (input.timeZone === before.timeZone) return;
       await tx
@@ -90,7 +90,7 @@ const counted = (n: number, one: string, many: string) => `${n} ${n === 1 ? one 
 export async function deleteUtility(member: Member, id: string): Promise<{ id: string }> {
   if (!can(member.role, "rates:manage")) throw forbidden("deleting utilities");
   const u = await getUtilityOrThrow(member.companyId, id);
-  await db().transaction(async (tx) => {
+  await transaction(async (tx) => {
     await tx.select({ id: utility.id }).from(utility).where(and(eq(utility.id, id), eq(utility.companyId, member.companyId))).for("update");
     const [[deals], [plans], books] = await Promise.all([
       tx.select({ n: count() }).from(deal).where(and(eq(deal.companyId, member.companyId), eq(deal.utilityId, id))),
