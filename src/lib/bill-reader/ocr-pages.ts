@@ -230,10 +230,11 @@ const complete = (r: BillReading) => Boolean(r.period && r.kwh && r.amountDue &&
 
 /**
  * A photo or a scanned PDF read by OCR and then by the bill reader. When a reading misses a field
- * or has under 12 months of history, the page is read again, as sparse text (psm 11) and then as
- * one block (psm 6), and the fullest reading is kept. Sparse first: on a bar chart the one-block
- * reading can make a full 12 months of wrong figures (measured on held-out set 4's chart photo),
- * which would end the search. Each run costs a few seconds; a missed field costs the rep typing.
+ * or has under 12 months of history, the page is read again, as sparse text (psm 11; turned
+ * upright too when it is turned) and then as one block (psm 6), and the fullest reading is kept.
+ * Sparse first: on a bar chart the one-block reading can make a full 12 months of wrong figures
+ * (held-out set 4's chart photo), which would end the search. Each run costs a few seconds; a
+ * missed field costs the rep typing.
  */
 export async function readBillByOcr(bytes: Uint8Array, kind: "image" | "pdf", opts: { timeoutMs?: number } = {}): Promise<{ reading: BillReading; ocr: OcrPages }> {
   const ocrOf = (psm: Psm, slopes?: number[]) => (kind === "pdf" ? ocrScannedPdf(bytes, { ...opts, psm, slopes }) : ocrImage(bytes, { ...opts, psm, slopes }));
@@ -241,13 +242,15 @@ export async function readBillByOcr(bytes: Uint8Array, kind: "image" | "pdf", op
   let best = { reading: readBill(first.pages), ocr: first };
   // A picture with almost nothing readable and nothing found is not read again (it costs seconds and finds nothing).
   if (first.confidentWords < MIN_CONFIDENT_WORDS && filled(best.reading) === 0) return best;
-  for (const psm of [11, 6] as const) {
+  const turned = first.slopes.some((sl) => Math.abs(sl) >= MIN_DESKEW_SLOPE);
+  // Sparse text as taken, then on the page turned upright (on a turned page sparse reading can
+  // join a label with the figure diagonally below it; on a chart photo turning it back lost the
+  // labels instead: both happen, so both are tried), then one block on the picture as taken.
+  const passes: { psm: Psm; slopes?: number[] }[] = [{ psm: 11 }, ...(turned ? [{ psm: 11 as const, slopes: first.slopes }] : []), { psm: 6 }];
+  for (const pass of passes) {
     if (complete(best.reading)) break;
-    // Sparse reading goes on the page turned upright by the turn the first reading measured (on a
-    // turned page it joins a label with the figure diagonally below it); the one-block reading
-    // does better on the picture as taken (measured on the photo fixtures).
     // A later reading stopped by its time limit (a busy machine) leaves the earlier one standing.
-    const ocr = await ocrOf(psm, psm === 11 ? first.slopes : undefined).catch((err: unknown) => {
+    const ocr = await ocrOf(pass.psm, pass.slopes).catch((err: unknown) => {
       if (err instanceof OcrError && err.code === "ocr_timeout") return null;
       throw err;
     });
