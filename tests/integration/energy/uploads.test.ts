@@ -124,7 +124,7 @@ describe("bill uploads are checked by content", () => {
     expect(await db().select().from(bill).where(eq(bill.dealId, dealId))).toEqual([]);
   });
 
-  it("a photo of a bill is read by OCR into the same reading, marked as read from a picture", { timeout: 60_000 }, async () => {
+  it("a photo of a bill is read by OCR into the same reading, marked as read from a picture", { timeout: 150_000 }, async () => {
     const member = await newCompany();
     const dealId = await newDeal(member);
     const bytes = new Uint8Array(await readFile("tests/fixtures/bills/photos/cobble-creek-across-photo.jpg"));
