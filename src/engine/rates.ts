@@ -276,6 +276,7 @@ export function compareBills(input: BillInput & { productionHourlyKwh: number[] 
 export function makeBillCalculator(plan: RatePlanInput, clock: YearClock = { calendarYear: 2023, timeZone: null }): (usageHourlyKwh: ArrayLike<number>, productionHourlyKwh: ArrayLike<number> | null) => AnnualBill {
   const parsedPlan = parseOrThrow(ratePlanSchema, plan, "rate plan");
   if (clock.timeZone !== null && !isTimeZone(clock.timeZone)) throw new EngineInputError([{ path: "timeZone", message: `"${clock.timeZone}" is not a known time zone` }], "bill");
+  if (clock.rowsTimeZone && !isTimeZone(clock.rowsTimeZone)) throw new EngineInputError([{ path: "rowsTimeZone", message: `"${clock.rowsTimeZone}" is not a known time zone` }], "bill");
   const info = periodsOf(parsedPlan, clock);
   return (usage, production) => {
     const lengthIssues = [

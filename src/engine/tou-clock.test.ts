@@ -55,6 +55,21 @@ describe("time-of-use hours on the wall clock", () => {
     expect(peakRows(byHour, 10, 3)).toEqual([16, 17, 18, 19, 20]);
   });
 
+  it("a site in one zone served by a utility on another's clock: the rows are the site's standard time, the hours the utility's", () => {
+    // A site west of the Central/Eastern line (Kentucky, America/Chicago) whose utility bills on
+    // Eastern time. Row k is k:30 CST = (k + 6):30 UTC. In July the utility's clock is EDT
+    // (UTC − 4), so row k reads k + 2: the 16–21 window is rows 14–18. In January EST (UTC − 5):
+    // row k reads k + 1, rows 15–19. With the site's own clock: rows 15–19 / 16–20.
+    const clock = { calendarYear: 2025, timeZone: "America/New_York", rowsTimeZone: "America/Chicago" };
+    expect(siteTimeZone(37.08, -86.2)).toBe("America/Chicago");
+    const byHour = touPeriodByHour(tou(), clock);
+    expect(peakRows(byHour, 6, 15)).toEqual([14, 15, 16, 17, 18]);
+    expect(peakRows(byHour, 0, 14)).toEqual([15, 16, 17, 18, 19]);
+    const own = touPeriodByHour(tou(), { calendarYear: 2025, timeZone: "America/Chicago" });
+    expect(peakRows(own, 6, 15)).toEqual([15, 16, 17, 18, 19]);
+    expect(peakRows(own, 0, 14)).toEqual([16, 17, 18, 19, 20]);
+  });
+
   it("a zone without daylight saving (Phoenix) reads the same as standard time", () => {
     const az = touPeriodByHour(tou(), { calendarYear: 2025, timeZone: "America/Phoenix" });
     const lst = touPeriodByHour(tou(), { calendarYear: 2025, timeZone: null });

@@ -50,20 +50,25 @@ export function weekdayOfJanuaryFirst(year: number): number {
  * the standard offset is the smaller of the zone's offsets on 1 January and 1 July (daylight
  * saving only ever adds), and a summer row at 15:00–16:00 standard time reads 16:xx.
  * Without one, the clock is local standard time.
+ *
+ * The rows are in the standard time of `rowsTimeZone` when given (the site's: weather and usage
+ * rows are the site's local standard time) and the clock is `timeZone`'s (the utility's, whose
+ * wall clock its time-of-use hours are stated in). A site in Central time served by a utility
+ * on Eastern time: a row at 15:00 CST is 16:00 EST, 17:00 EDT in summer.
  */
-export type YearClock = { calendarYear: number; timeZone: string | null };
+export type YearClock = { calendarYear: number; timeZone: string | null; rowsTimeZone?: string | null };
 export type ClockOfHours = { hour: Uint8Array; weekday: Uint8Array; month: Uint8Array };
 
-export function clockOfTypicalHours({ calendarYear, timeZone }: YearClock): ClockOfHours {
+export function clockOfTypicalHours({ calendarYear, timeZone, rowsTimeZone }: YearClock): ClockOfHours {
   const hour = new Uint8Array(HOURS_PER_YEAR);
   const weekday = new Uint8Array(HOURS_PER_YEAR);
   const month = new Uint8Array(HOURS_PER_YEAR);
-  const standardMinutes = timeZone === null ? 0 : standardOffsetMinutes(timeZone, calendarYear);
+  const standardMinutes = timeZone === null ? 0 : standardOffsetMinutes(rowsTimeZone ?? timeZone, calendarYear);
   let h = 0;
   for (let m = 0; m < 12; m++) {
     for (let day = 1; day <= MONTH_DAYS[m]; day++) {
       for (let k = 0; k < 24; k++, h++) {
-        // The row's middle as if local standard time were UTC, then to the zone's wall clock.
+        // The row's middle as if local standard time were UTC, then to the clock zone's wall clock.
         const standardMs = Date.UTC(calendarYear, m, day, k, 30);
         const wall = timeZone === null ? new Date(standardMs) : new Date(standardMs + (tzOffset(timeZone, new Date(standardMs - standardMinutes * 60_000)) - standardMinutes) * 60_000);
         hour[h] = wall.getUTCHours();

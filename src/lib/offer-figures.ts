@@ -263,8 +263,10 @@ export type OfferFiguresInput = {
   /** Usage, 8760 hourly kWh. */
   usageHourlyKwh: ArrayLike<number>;
   ratePlan: RatePlanInput;
-  /** The site's IANA time zone: time-of-use hours are read on its wall clock. */
+  /** The IANA zone whose wall clock the plan's time-of-use hours are read on: the plan's utility's (usually the site's). */
   timeZone: string;
+  /** The site's IANA zone, whose standard time the hourly rows are in (default: `timeZone`). */
+  siteTimeZone?: string;
   payment: PaymentInput;
   adderIds: readonly string[];
   lineItemIds: readonly string[];
@@ -401,7 +403,7 @@ function downPaymentFor(payment: PaymentInput, price: OfferPrice): number {
 
 /** The bill without solar, and with solar for each year of the table (re-billed with that year's degraded output). */
 function billsByYear(input: OfferFiguresInput, calendarYear: number, a: OfferAssumptions) {
-  const bill = makeBillCalculator(input.ratePlan, { calendarYear, timeZone: input.timeZone });
+  const bill = makeBillCalculator(input.ratePlan, { calendarYear, timeZone: input.timeZone, rowsTimeZone: input.siteTimeZone ?? null });
   const without = bill(input.usageHourlyKwh, null);
   const produced = Float64Array.from(input.productionHourlyKwh);
   const degraded = new Float64Array(HOURS_PER_YEAR);

@@ -218,7 +218,8 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
       productionHourlyKwh: production.hourlyKwh,
       usageHourlyKwh: usage.hourlyKwh,
       ratePlan: plan.plan,
-      timeZone: siteTimeZone(site.latitude, site.longitude),
+      timeZone: plan.utilityTimeZone, // the plan's hours are its utility's clock; the rows are the site's standard time
+      siteTimeZone: siteTimeZone(site.latitude, site.longitude),
       payment: inputs.payment,
       adderIds: inputs.adderIds,
       lineItemIds: inputs.lineItemIds,

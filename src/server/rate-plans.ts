@@ -23,6 +23,8 @@ export type RatePlanRow = {
   utilityId: string;
   /** The utility's name as it is now (the plan belongs to the utility record). */
   utilityName: string;
+  /** The utility's time zone: the plan's time-of-use hours are that wall clock's. */
+  utilityTimeZone: string;
   active: boolean;
   /** The engine's rate plan (src/engine/rates.ts), defaults filled in. */
   plan: RatePlan;
@@ -36,6 +38,7 @@ const columns = {
   name: ratePlan.name,
   utilityId: ratePlan.utilityId,
   utilityName: utility.name,
+  utilityTimeZone: utility.timeZone,
   active: ratePlan.active,
   plan: ratePlan.plan,
   version: ratePlan.version,

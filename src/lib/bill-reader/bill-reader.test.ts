@@ -217,3 +217,21 @@ describe("the usage history from OCR'd text", () => {
     expect(r.warnings.join(" ")).toMatch(/11 months/);
   });
 });
+
+describe("held-out set 5's misses, as families", () => {
+  it("a range that prints its year once, at the end, also over New Year and day first", () => {
+    expect(read("Service period Nov 3 - Dec 2, 2025\nTotal amount due $50.00").period).toMatchObject({ start: { value: "2025-11-03" }, end: { value: "2025-12-02" } });
+    expect(read("Billing period Dec 18 - Jan 17, 2026").period).toMatchObject({ start: { value: "2025-12-18" }, end: { value: "2026-01-17" } });
+    expect(read("Service period 3 Nov – 2 Dec 2025").period).toMatchObject({ start: { value: "2025-11-03" }, end: { value: "2025-12-02" } });
+  });
+
+  it("a meter table's kWh is the figure under the kWh heading, not a narrow column beside it", () => {
+    const r = read(["Your meter", "Meter    Multiplier  kWh", "A1                5  840"].join("\n"));
+    expect(r.kwh?.value).toBe(840);
+  });
+
+  it("services side by side: the period under the Electric heading, not the gas one", () => {
+    const r = read(["Natural gas                      Electric", "Service 11/06/2025 - 12/05/2025  Service 11/04/2025 - 12/03/2025"].join("\n"));
+    expect(r.period).toMatchObject({ start: { value: "2025-11-04" }, end: { value: "2025-12-03" } });
+  });
+});

@@ -50,14 +50,44 @@ function dateFromGroups(g: Record<string, string | undefined>): string | null {
 
 export type FoundDate = { iso: string; index: number; end: number };
 
-/** Every date in a piece of text, left to right. */
-export function findDates(text: string): FoundDate[] {
+const RANGE_DASH = String.raw`\s*(?:-|–|—|to|through|thru)\s*`;
+/**
+ * A range that prints its year once, at the end: "Nov 3 - Dec 2, 2025", "3 Nov – 2 Dec 2025".
+ * The first date takes the end's year, or the year before when its month comes later (a range
+ * over New Year: "Dec 18 - Jan 17, 2026").
+ */
+const YEAR_ONCE = [
+  new RegExp(String.raw`(?<m1>${MON}) (?<d1>\d{1,2})(?<dash>${RANGE_DASH})(?<m2>${MON}) (?<d2>\d{1,2}),? (?<y>\d{4})`, "g"),
+  new RegExp(String.raw`(?<d1>\d{1,2}) (?<m1>${MON})(?<dash>${RANGE_DASH})(?<d2>\d{1,2}) (?<m2>${MON}),? (?<y>\d{4})`, "g"),
+];
+
+function yearOnceRanges(text: string): FoundDate[] {
   const out: FoundDate[] = [];
-  for (const m of text.matchAll(new RegExp(DATE_SOURCE, "g"))) {
-    const iso = dateFromGroups(m.groups ?? {});
-    if (iso) out.push({ iso, index: m.index ?? 0, end: (m.index ?? 0) + m[0].length });
+  for (const re of YEAR_ONCE) {
+    for (const m of text.matchAll(re)) {
+      const g = m.groups!;
+      const [m1, m2, y] = [monthIndex(g.m1), monthIndex(g.m2), Number(g.y)];
+      if (m1 < 0 || m2 < 0) continue;
+      const start = isoDate(m1 > m2 ? y - 1 : y, m1 + 1, Number(g.d1));
+      const end = isoDate(y, m2 + 1, Number(g.d2));
+      if (!start || !end) continue;
+      const at = m.index ?? 0;
+      const firstEnd = at + m[0].indexOf(g.dash, g.m1.length + g.d1.length);
+      out.push({ iso: start, index: at, end: firstEnd }, { iso: end, index: firstEnd + g.dash.length, end: at + m[0].length });
+    }
   }
   return out;
+}
+
+/** Every date in a piece of text, left to right. */
+export function findDates(text: string): FoundDate[] {
+  const out = yearOnceRanges(text);
+  const taken = (i: number) => out.some((d) => i >= d.index && i < d.end);
+  for (const m of text.matchAll(new RegExp(DATE_SOURCE, "g"))) {
+    const iso = dateFromGroups(m.groups ?? {});
+    if (iso && !taken(m.index ?? 0)) out.push({ iso, index: m.index ?? 0, end: (m.index ?? 0) + m[0].length });
+  }
+  return out.sort((a, b) => a.index - b.index);
 }
 
 export const dayNumber = (iso: string) => Date.UTC(Number(iso.slice(0, 4)), Number(iso.slice(5, 7)) - 1, Number(iso.slice(8, 10))) / 86_400_000;

@@ -59,8 +59,11 @@ function monthLabel(text: string): MonthLabel | null {
 }
 
 const NUM_CELL = new RegExp(String.raw`^(${NUMBER})(\s*kwh)?$`, "i");
-/** OCR reads 0 as O and 1 as l, I or |: fixed only inside a figure that has real digits ("1,O36", "l,142"). */
-const digitsOf = (text: string) => (/\d/.test(text) && /^[\dOolI|,.]+(\s*kwh)?$/i.test(text) ? text.replace(/[Oo]/g, "0").replace(/[lI|]/g, "1") : text);
+/**
+ * OCR reads 0 as O and 1 as l, I or |: fixed only inside a figure that has real digits ("1,O36",
+ * "l,142"); and a thousands comma as a point ("1.148"): a month's kWh never has three decimals.
+ */
+const digitsOf = (text: string) => (/\d/.test(text) && /^[\dOolI|,.]+(\s*kwh)?$/i.test(text) ? text.replace(/[Oo]/g, "0").replace(/[lI|]/g, "1").replace(/^(\d{1,3})\.(\d{3})\b/, "$1,$2") : text);
 const number = (c: Cell | undefined) => {
   const m = c ? digitsOf(c.text).match(NUM_CELL) : null;
   return m ? toNumber(m[1]) : null;
@@ -170,11 +173,49 @@ type Across = {
 
 const INITIALS = "JFMAMJJASOND";
 
+/**
+ * Where each month label sits in a row of evenly spaced columns: its slot (0, 1, 2 …), counted
+ * in the row's usual spacing. Null when the labels are not evenly spaced (not one row of months).
+ */
+function slotsOf(cells: Cell[]): number[] | null {
+  const centers = cells.map(center);
+  const gaps = centers.slice(1).map((c, i) => c - centers[i]).sort((a, b) => a - b);
+  const step = gaps[Math.floor(gaps.length / 2)];
+  if (!(step > 0)) return null;
+  const slots = centers.map((c) => Math.round((c - centers[0]) / step));
+  const even = centers.every((c, i) => Math.abs((c - centers[0]) / step - slots[i]) <= 0.25 && (i === 0 || slots[i] > slots[i - 1]));
+  return even && slots.at(-1)! < 13 ? slots : null;
+}
+
+/**
+ * A month row with one or two labels OCR lost or misread between the others ("D J F … S (+) N",
+ * "Feb … Nov" without "Mar"): each empty column between labels gets the month its place says,
+ * marked noisy (the history keeps it only when the months run on). Labels must be evenly spaced.
+ */
+function withLostMonths(cells: Cell[], labels: (MonthLabel | null)[], first: number | null): { cells: Cell[]; labels: MonthLabel[] } | null {
+  const slots = slotsOf(cells);
+  if (!slots || first === null || slots.at(-1)! + 1 - cells.length > 2) return null;
+  const step = slots.at(-1)! ? (center(cells.at(-1)!) - center(cells[0])) / slots.at(-1)! : 0;
+  const width = cells[0].xEnd - cells[0].x;
+  const out = { cells: [] as Cell[], labels: [] as MonthLabel[] };
+  for (let s = 0; s <= slots.at(-1)!; s++) {
+    const k = slots.indexOf(s);
+    const at = center(cells[0]) + s * step;
+    out.cells.push(k >= 0 ? cells[k] : { text: "", x: at - width / 2, xEnd: at + width / 2 });
+    out.labels.push(k >= 0 && labels[k] ? labels[k] : { month: (first + s) % 12, year: null, noisy: true });
+  }
+  return out;
+}
+
 /** Months printed as one letter each (J F M A …): the one place in the year where the letters fit, if only one does. */
-function initialLabels(cells: Cell[]): MonthLabel[] | null {
-  const letters = cells.map((c) => c.text.toUpperCase()).join("");
-  const fits = [...Array(12).keys()].filter((r) => [...letters].every((ch, i) => INITIALS[(r + i) % 12] === ch));
-  return letters.length >= 6 && fits.length === 1 ? cells.map((_, i) => ({ month: (fits[0] + i) % 12, year: null })) : null;
+function initialLabels(cells: Cell[]): { cells: Cell[]; labels: MonthLabel[] } | null {
+  const slots = slotsOf(cells);
+  if (!slots || cells.length < 6) return null;
+  const letters = cells.map((c) => c.text.toUpperCase());
+  const fits = [...Array(12).keys()].filter((r) => letters.every((ch, i) => INITIALS[(r + slots[i]) % 12] === ch));
+  if (fits.length !== 1) return null;
+  const labels = slots.map((s) => ({ month: (fits[0] + s) % 12, year: null }));
+  return slots.at(-1)! + 1 === cells.length ? { cells, labels } : withLostMonths(cells, labels, fits[0]);
 }
 
 /**
@@ -190,14 +231,22 @@ function splitJoinedMonths(cell: Cell): Cell[] {
   return words.map((w) => ({ text: w[0], x: cell.x + (w.index ?? 0) * perChar, xEnd: cell.x + ((w.index ?? 0) + w[0].length) * perChar }));
 }
 
+/** Named months in a row; an empty column between two that run on gets its month when the row runs month after month. */
+function namedMonths(cells: Cell[], labels: MonthLabel[]): { cells: Cell[]; labels: MonthLabel[] } {
+  const slots = slotsOf(cells);
+  if (!slots || slots.at(-1)! + 1 === cells.length) return { cells, labels };
+  const first = labels[0].month;
+  const runsOn = labels.every((l, i) => l.month === (first + slots[i]) % 12);
+  return (runsOn && withLostMonths(cells, labels, first)) || { cells, labels };
+}
+
 function monthCells(line: Line): { cells: Cell[]; labels: MonthLabel[] } | null {
   const split = line.cells.flatMap(splitJoinedMonths);
   if (split.length > line.cells.length) line = { ...line, cells: split };
   const cells = line.cells.filter((c) => monthLabel(c.text));
-  if (cells.length >= 6 && cells.length >= line.cells.length - 1) return { cells, labels: cells.map((c) => monthLabel(c.text)!) };
+  if (cells.length >= 6 && cells.length >= line.cells.length - 1) return namedMonths(cells, cells.map((c) => monthLabel(c.text)!));
   const letters = line.cells.filter((c) => /^[JFMASOND]$/i.test(c.text));
-  const labels = letters.length >= line.cells.length - 1 ? initialLabels(letters) : null;
-  return labels ? { cells: letters, labels } : null;
+  return letters.length >= line.cells.length - 1 ? initialLabels(letters) : null;
 }
 
 function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[]; labels: MonthLabel[] }): Across {

@@ -53,7 +53,8 @@ function columnCandidates(lines: Line[]): Candidate[] {
       if (!HEADER.test(cell.text.trim())) return;
       const half = Math.max(30, (cell.xEnd - cell.x) / 2 + 12);
       for (let k = i + 1; k < Math.min(lines.length, i + 6) && lines[k].page === line.page; k++) {
-        const below = lines[k].cells.find((x) => Math.abs(center(x) - center(cell)) < half);
+        // The cell most nearly under the header: a narrow neighbouring column ("Multiplier 5") may also sit within reach.
+        const below = lines[k].cells.filter((x) => Math.abs(center(x) - center(cell)) < half).sort((a, b) => Math.abs(center(a) - center(cell)) - Math.abs(center(b) - center(cell)))[0];
         const n = below?.text.match(new RegExp(String.raw`^(${NUMBER})(\s*kwh)?$`, "i"));
         if (!n) continue;
         const tou = lines[k].text

@@ -41,6 +41,27 @@ function daysFit(start: string, end: string, days: number | null): boolean {
   return days === span || days === span + 1;
 }
 
+/** The cell of `line` that holds character `at` of its text (cells are joined by two spaces). */
+function cellAt(line: Line, at: number): Line["cells"][number] | undefined {
+  let start = 0;
+  for (const c of line.cells) {
+    if (at < start + c.text.length) return c;
+    start += c.text.length + 2;
+  }
+  return undefined;
+}
+
+/**
+ * Services side by side in columns ("Natural gas" | "Electric", each with its own "Service …"
+ * line): the heading right above the range's cell names its service when the line does not.
+ */
+function otherServiceColumn(line: Line, prev: Line | undefined, at: number): boolean {
+  const cell = cellAt(line, at);
+  if (!cell || !prev || prev.page !== line.page) return false;
+  const heading = prev.cells.find((h) => h.x < cell.xEnd && h.xEnd > cell.x);
+  return heading !== undefined && OTHER_SERVICE.test(heading.text) && !/electric/i.test(heading.text);
+}
+
 function rangesOnLine(line: Line, prev: Line | undefined): Candidate[] {
   const dates = findDates(line.text);
   const out: Candidate[] = [];
@@ -53,7 +74,7 @@ function rangesOnLine(line: Line, prev: Line | undefined): Candidate[] {
     let score = labelled ? 3 : 1;
     if (NOT_PERIOD.test(before)) score -= 2;
     // A bill for several services: the electric period, not the gas or water one.
-    if (OTHER_SERVICE.test(line.text) && !/electric/i.test(line.text)) score -= 2;
+    if ((OTHER_SERVICE.test(line.text) && !/electric/i.test(line.text)) || otherServiceColumn(line, prev, a.index)) score -= 2;
     if (daysFit(a.iso, b.iso, days)) score += 1;
     out.push({ start: a.iso, end: b.iso, line, score, days });
     i++;

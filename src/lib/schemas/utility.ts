@@ -18,6 +18,8 @@ export const utilitySchema = z.object({
     .default(null),
 });
 export type UtilityInput = z.input<typeof utilitySchema>;
+/** A new utility: without a time zone it takes the company's (most utilities bill on their customers' clock). */
+export const newUtilitySchema = utilitySchema.partial({ timeZone: true });
 
 /** "" (a select's "not known yet") as null, else a record id. */
 export const optionalIdField = (message: string) =>

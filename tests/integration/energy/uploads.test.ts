@@ -2,6 +2,7 @@ import { readdir, readFile } from "node:fs/promises";
 import path from "node:path";
 import { and, eq } from "drizzle-orm";
 import { PDFDocument, StandardFonts } from "pdf-lib";
+import sharp from "sharp";
 import { describe, expect, it } from "vitest";
 import { bill, intervalProfile, upload } from "@/db/schema";
 import { db } from "@/server/db";
@@ -109,7 +110,21 @@ describe("bill uploads are checked by content", () => {
     expect(rows.map((r) => r.mimeType).sort()).toEqual(["application/pdf", "image/png"]);
   });
 
-  it("a photo of a bill is read by OCR into the same reading, marked as read from a picture", { timeout: 60_000 }, async () => {
+  it("a photo of a real bill too blurred to read says so plainly, keeps the file without text and saves no bill", { timeout: 120_000 }, async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const blurred = await sharp(await readFile("tests/fixtures/bills/photos/larkhaven-classic-photo.jpg")).resize({ width: 500 }).blur(4).jpeg().toBuffer();
+    const outcome = await acceptDealUpload(await openDeal(member, dealId), { name: "blurred.jpg", bytes: new Uint8Array(blurred) });
+    expect(outcome.kind).toBe("bill-image");
+    expect(outcome.message).toMatch(
+      /^The photo “blurred.jpg” could not be read well enough to use: Only \d+ words? could be read with confidence \(at least 25 are needed\): the picture is too blurred, dark or small\. It was kept with the deal; type the billing period, kWh and amount from it\.$/,
+    );
+    const [kept] = await db().select().from(upload).where(eq(upload.dealId, dealId));
+    expect(kept.extractedText).toBeNull();
+    expect(await db().select().from(bill).where(eq(bill.dealId, dealId))).toEqual([]);
+  });
+
+  it("a photo of a bill is read by OCR into the same reading, marked as read from a picture", { timeout: 150_000 }, async () => {
     const member = await newCompany();
     const dealId = await newDeal(member);
     const bytes = new Uint8Array(await readFile("tests/fixtures/bills/photos/cobble-creek-across-photo.jpg"));

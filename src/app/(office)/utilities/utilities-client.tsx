@@ -2,7 +2,8 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { Field, FieldShell, SelectField, StatusMessage } from "@/components/ui/field";
+import { ConfirmButton } from "@/components/ui/dialog";
+import { Field, FieldShell, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
 import { EmptyState } from "@/components/ui/empty-state";
 import { TableShell, Td, Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
@@ -14,10 +15,19 @@ type Row = { id: string; name: string; timeZone: string; territoryNotes: string;
 const ZONE_OPTIONS = COMPANY_TIME_ZONES.map((z) => ({ value: z.id, label: `${z.label} (${z.id})` }));
 const zoneLabel = (id: string) => COMPANY_TIME_ZONES.find((z) => z.id === id)?.label ?? id;
 
-export function UtilitiesClient({ utilities, canEdit }: { utilities: Row[]; canEdit: boolean }) {
+export function UtilitiesClient({ utilities, canEdit, companyTimeZone }: { utilities: Row[]; canEdit: boolean; companyTimeZone: string }) {
   const [editing, setEditing] = useState<Row | null>(null);
+  const [notice, setNotice] = useState<Notice | null>(null);
+  const remove = useSave<Row>({
+    request: (u) => ({ url: `/api/utilities/${u.id}`, method: "DELETE" }),
+    success: (_, u) => `${u.name} deleted.`,
+    notify: setNotice,
+    onSaved: (_, u) => setEditing((e) => (e?.id === u.id ? null : e)),
+  });
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[3fr_2fr]">
+      <div className="space-y-3">
+        <StatusMessage notice={notice} />
       {utilities.length === 0 ? (
         <EmptyState>No utilities yet.{canEdit ? " Add the ones your customers buy power from." : " An owner or admin adds them."}</EmptyState>
       ) : (
@@ -30,7 +40,7 @@ export function UtilitiesClient({ utilities, canEdit }: { utilities: Row[]; canE
               <Th>Time zone</Th>
               <Th numeric>Rate plans</Th>
               <Th numeric>Deals</Th>
-              {canEdit ? <Th className="sr-only">Edit</Th> : null}
+              {canEdit ? <Th className="sr-only">Edit or delete</Th> : null}
             </>
           }
         >
@@ -45,31 +55,50 @@ export function UtilitiesClient({ utilities, canEdit }: { utilities: Row[]; canE
               <Td numeric>{u.dealCount}</Td>
               {canEdit ? (
                 <Td>
-                  <button type="button" className="btn-quiet" onClick={() => setEditing(u)} aria-label={`Edit ${u.name}`}>
-                    Edit
-                  </button>
+                  <div className="flex flex-wrap gap-1">
+                    <button type="button" className="btn-quiet" onClick={() => setEditing(u)} aria-label={`Edit ${u.name}`}>
+                      Edit
+                    </button>
+                    <ConfirmButton
+                      label="Delete"
+                      ariaLabel={`Delete ${u.name}`}
+                      title={`Delete ${u.name}?`}
+                      message={
+                        u.planCount + u.dealCount > 0
+                          ? `${u.name} is still used (${u.planCount} rate plan${u.planCount === 1 ? "" : "s"}, ${u.dealCount} deal${u.dealCount === 1 ? "" : "s"}); it can be deleted only once nothing uses it.`
+                          : `${u.name} leaves the list for good. Only a utility no household, rate plan or incentive uses can be deleted.`
+                      }
+                      confirmLabel="Delete utility"
+                      danger
+                      className="btn-quiet"
+                      disabled={remove.pending}
+                      onConfirm={() => remove.save(u)}
+                    />
+                  </div>
                 </Td>
               ) : null}
             </tr>
           ))}
         </TableShell>
       )}
-      {canEdit ? <UtilityForm key={editing?.id ?? "new"} editing={editing} onDone={() => setEditing(null)} /> : null}
+      </div>
+      {canEdit ? <UtilityForm key={editing?.id ?? "new"} editing={editing} companyTimeZone={companyTimeZone} onDone={() => setEditing(null)} /> : null}
     </div>
   );
 }
 
-function UtilityForm({ editing, onDone }: { editing: Row | null; onDone: () => void }) {
+/** A new utility starts on the company's time zone (most bill on their customers' clock). */
+function UtilityForm({ editing, companyTimeZone, onDone }: { editing: Row | null; companyTimeZone: string; onDone: () => void }) {
   const form = useForm<UtilityInput>({
     resolver: zodResolver(utilitySchema),
-    defaultValues: editing ? { name: editing.name, timeZone: editing.timeZone, territoryNotes: editing.territoryNotes } : { name: "", timeZone: COMPANY_TIME_ZONES[0].id, territoryNotes: "" },
+    defaultValues: editing ? { name: editing.name, timeZone: editing.timeZone, territoryNotes: editing.territoryNotes } : { name: "", timeZone: companyTimeZone, territoryNotes: "" },
   });
   const save = useSave<UtilityInput, { id: string }, UtilityInput>({
     request: (json) => (editing ? { url: `/api/utilities/${editing.id}`, method: "PUT", json } : { url: "/api/utilities", method: "POST", json }),
     setError: form.setError,
     success: editing ? "Utility saved." : "Utility added.",
     onSaved: () => {
-      form.reset({ name: "", timeZone: COMPANY_TIME_ZONES[0].id, territoryNotes: "" });
+      form.reset({ name: "", timeZone: companyTimeZone, territoryNotes: "" });
       onDone();
     },
   });

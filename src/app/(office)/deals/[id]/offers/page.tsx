@@ -5,6 +5,7 @@ import { getDesignForDeal } from "@/server/designs";
 import { listDiscountRequestsForDeal, listOffers } from "@/server/offers";
 import { getPriceBook } from "@/server/price-book";
 import { listRatePlans, type RatePlanRow } from "@/server/rate-plans";
+import { utilityClockNote } from "@/server/utilities";
 import { dealPageScope } from "../deal-page";
 import { OffersClient } from "./offers-client";
 
@@ -15,7 +16,7 @@ export default async function OffersTab({ params }: { params: Promise<{ id: stri
   if (!room) return null;
   const { member, dealId: id } = room;
   if (!room.rights.price) return <NoAccess section="Offers" />;
-  const [offers, design, book, modules, inverters, ratePlans, requests] = await Promise.all([
+  const [offers, design, book, modules, inverters, ratePlans, requests, clockNote] = await Promise.all([
     listOffers(room),
     getDesignForDeal(room),
     getPriceBook(member.companyId),
@@ -23,9 +24,16 @@ export default async function OffersTab({ params }: { params: Promise<{ id: stri
     listActiveInverters(member.companyId),
     listRatePlans(member.companyId),
     listDiscountRequestsForDeal(room),
+    utilityClockNote(room),
   ]);
   return (
-    <OffersClient
+    <>
+      {clockNote ? (
+        <p className="mt-4 text-sm text-graphite-soft" data-testid="utility-clock-note">
+          {clockNote}
+        </p>
+      ) : null}
+      <OffersClient
       dealId={id}
       canEdit={room.rights.edit}
       canApprove={room.rights.approveDiscounts}
@@ -38,7 +46,8 @@ export default async function OffersTab({ params }: { params: Promise<{ id: stri
       inverters={inverters.map((i) => ({ id: i.id, label: `${i.manufacturer} ${i.model} · ${i.kind === "micro" ? "micro" : `${(i.acWatts / 1000).toFixed(1)} kW string`}` }))}
       ratePlans={planChoices(ratePlans, room.deal)}
       requests={requests.map((r) => ({ id: r.id, offerId: r.offerId, offerName: r.offerName, amountCents: r.amountCents, reason: r.reason, status: r.status, requestedByName: r.requestedByName, decisionNote: r.decisionNote, createdAt: r.createdAt.toISOString() }))}
-    />
+      />
+    </>
   );
 }
 
