@@ -157,7 +157,8 @@ test("an admin sets the company's stall limit for a stage, and the Board flags b
 
   await page.getByLabel("Survey", { exact: true }).fill("0");
   await page.getByRole("button", { name: "Save company settings" }).click();
-  await expect(page.getByText("Whole days from 1 to 365, or leave empty for never")).toBeVisible();
+  // Named on the field itself (the line beside the Save button repeats it).
+  await expect(page.getByLabel("Survey", { exact: true })).toHaveAccessibleDescription(/Whole days from 1 to 365, or leave empty for never/);
 
   // The demo's Galloway household has been in Survey for 19 days: flagged at the default 14.
   await page.getByLabel("Survey", { exact: true }).fill("30");
@@ -184,7 +185,7 @@ test("an admin sets the savings assumptions of new offers; a slip is named on it
   // 25 typed for 2.5: refused, named on its field, nothing saved.
   await page.getByLabel("Utility prices rise (%/yr)").fill("25");
   await page.getByRole("button", { name: "Save company settings" }).click();
-  await expect(page.getByText("A number from -2 to 8 (%/yr)")).toBeVisible();
+  await expect(page.getByLabel("Utility prices rise (%/yr)")).toHaveAccessibleDescription(/A number from -2 to 8 \(%\/yr\)/);
   await page.reload();
   await expect(page.getByLabel("Utility prices rise (%/yr)")).toHaveValue("2.5");
 

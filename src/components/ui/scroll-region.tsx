@@ -52,7 +52,8 @@ export function ScrollRegion({ label, className, innerClassName, testId, tone, c
   const { ref, edges } = useScrollEdges<HTMLDivElement>();
   return (
     <div className={`relative min-w-0 ${className ?? ""}`} data-scroll-region={label}>
-      <div ref={ref} role="region" aria-label={label} tabIndex={0} className={`overflow-x-auto ${innerClassName ?? ""}`} data-testid={testId}>
+      {/* `relative`: absolutely placed content inside (screen-reader-only text) is clipped by this box, not placed against the page, where it would widen it. */}
+      <div ref={ref} role="region" aria-label={label} tabIndex={0} className={`relative overflow-x-auto ${innerClassName ?? ""}`} data-testid={testId}>
         {children}
       </div>
       <ScrollCue side="start" show={edges.start} tone={tone} />
