@@ -128,7 +128,7 @@ async function main() {
   console.log(`\nDeals table API through HAProxy, ${DEALS.toLocaleString("en-US")} deals, ${CONNECTIONS} connections × ${DURATION_S} s per case (autocannon), ${machine}:`);
   console.log("| database | app nodes | requests/s | p50 ms | p95 ms | p99 ms | errors + non-2xx |");
   console.log("|---|---:|---:|---:|---:|---:|---:|");
-  for (const r of results) console.log(`| ${r.label.split(",")[0]} | ${r.label.includes("2 app") ? 2 : 1} | ${r.rps.toFixed(0)} | ${r.p50.toFixed(0)} | ${r.p95.toFixed(0)} | ${r.p99.toFixed(0)} | ${r.errors + r.non2xx} |`);
+  for (const r of results) console.log(`| ${r.label.replace(/, [12] app nodes?$/, "")} | ${r.label.includes("2 app") ? 2 : 1} | ${r.rps.toFixed(0)} | ${r.p50.toFixed(0)} | ${r.p95.toFixed(0)} | ${r.p99.toFixed(0)} | ${r.errors + r.non2xx} |`);
   console.log(`2 / 1 app nodes, throughput: Galera ${(g2.rps / g1.rps).toFixed(2)}×, single MariaDB ${(s2.rps / s1.rps).toFixed(2)}× (goal ≥ 1.7×); p95 with 2 nodes ≤ 150 ms: Galera ${g2.p95 <= 150 ? "yes" : "no"}, single ${s2.p95 <= 150 ? "yes" : "no"}`);
   writeFileSync(path.join(c.dir, "bench.json"), JSON.stringify({ at: new Date().toISOString(), machine, deals: DEALS, connections: CONNECTIONS, durationS: DURATION_S, results }, null, 2));
 }
