@@ -14,7 +14,7 @@ export type Expected = {
 export type Bill = { name: string; pages: string[]; css: string; expected: Expected };
 
 export const MON = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
-export const FULL = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
+const FULL = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
 
 /** n months from "YYYY-MM" on. */
 export function months(from: string, n: number): string[] {
@@ -24,7 +24,7 @@ export function months(from: string, n: number): string[] {
     return `${Math.floor(t / 12)}-${String((t % 12) + 1).padStart(2, "0")}`;
   });
 }
-export const mon = (ym: string) => MON[Number(ym.slice(5)) - 1];
+const mon = (ym: string) => MON[Number(ym.slice(5)) - 1];
 const yy = (ym: string) => ym.slice(2, 4);
 export const n = (v: number) => v.toLocaleString("en-US");
 export const hist = (ms: string[], kwh: number[]) => ms.map((month, i) => ({ month, kwh: kwh[i] }));

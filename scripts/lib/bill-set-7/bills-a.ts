@@ -5,8 +5,8 @@
  * section and a bar chart labelled by initials, and a budget-billing bill whose period crosses
  * the summer/winter season change. All names, layouts and wording are invented.
  */
-import { expected, hist, months, n, type Bill } from "../bill-set-5/bills";
-import { chargeRows, monthIndex, plexMono, plexSans, SHORT, sum, times, usd } from "./common";
+import { expected, hist, MON, months, n, type Bill } from "../bill-set-5/bills";
+import { chargeRows, monthIndex, plexMono, plexSans, sum, times, usd } from "./common";
 
 /** A member co-op: ISO dates, round-up donation in the amount, capital credits; history on page 2. */
 export function brindlemarsh(): Bill {
@@ -76,7 +76,7 @@ export function orlestone(): Bill {
   const electric = sum(900, energy, pca);
   const waterUse = times(5.24, 4.85);
   const total = sum(electric, 1840, waterUse, 3175, 2200, 650);
-  const head = ms.map((m) => `<th>${SHORT[monthIndex(m)]} '${m.slice(2, 4)}</th>`).join("");
+  const head = ms.map((m) => `<th>${MON[monthIndex(m)]} '${m.slice(2, 4)}</th>`).join("");
   const page = `
   <div style="text-align:center;border-bottom:2px solid #1d3f6e;padding-bottom:6px">
     <div style="font-size:16pt;font-weight:bold;color:#1d3f6e">CITY OF ORLESTONE</div><div>Department of Public Utilities · Electric · Water · Wastewater · Refuse</div>
@@ -142,7 +142,7 @@ export function tallowind(): Bill {
   const bars = kwh
     .map((v, i) => `<div style="flex:1;display:flex;flex-direction:column;align-items:center;justify-content:flex-end">
       <div style="font-size:7pt">${n(v)}</div><div style="width:55%;height:${Math.round((v / max) * 110)}px;background:${i === kwh.length - 1 ? "#c2571a" : "#e6b38f"}"></div>
-      <div style="font-size:8pt">${SHORT[monthIndex(ms[i])][0]}</div></div>`)
+      <div style="font-size:8pt">${MON[monthIndex(ms[i])][0]}</div></div>`)
     .join("");
   const page1 = `
   <div style="display:flex;justify-content:space-between;align-items:center"><div style="font-size:18pt;font-weight:bold;color:#7a2e0e">Ebbridge Electric Delivery</div>
@@ -209,7 +209,7 @@ export function heddlestone(): Bill {
   billed[11] = actual;
   const budget = 11800;
   const budgetBalance = -5361 + (actual - budget);
-  const rows = ms.map((m, i) => `<tr><td>${SHORT[monthIndex(m)].toUpperCase()} ${m.slice(0, 4)}</td><td class=r>${n(kwh[i])}</td><td class=r>${usd(billed[i])}</td></tr>`).join("");
+  const rows = ms.map((m, i) => `<tr><td>${MON[monthIndex(m)].toUpperCase()} ${m.slice(0, 4)}</td><td class=r>${n(kwh[i])}</td><td class=r>${usd(billed[i])}</td></tr>`).join("");
   const page = `
   <div style="font-family:'Plex Mono';font-size:15pt;font-weight:bold;letter-spacing:2px">HEDDLESTONE POWER &amp; LIGHT</div>
   <div class=muted>PO Box 4410 · Heddlestone · 1-800-555-0119</div>

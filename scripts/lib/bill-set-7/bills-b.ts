@@ -5,8 +5,8 @@
  * sideways bar chart; a co-op demand-rate bill whose period is only its two read dates, with the
  * history (kWh beside peak kW) on page 2. All names, layouts and wording are invented.
  */
-import { expected, hist, months, n, type Bill } from "../bill-set-5/bills";
-import { chargeRows, monthIndex, plexSans, SHORT, sum, times, usd } from "./common";
+import { expected, hist, MON, months, n, type Bill } from "../bill-set-5/bills";
+import { chargeRows, monthIndex, plexSans, sum, times, usd } from "./common";
 
 /** Past due: previous balance unpaid, a late fee, current charges; the due amount in a box and on a stub. */
 export function pollardine(): Bill {
@@ -23,7 +23,7 @@ export function pollardine(): Bill {
   const [pastDue, lateFee] = [9640, 482];
   const due = pastDue + lateFee + current;
   const byYear = (year: string) =>
-    SHORT.map((_, i) => {
+    MON.map((_, i) => {
       const k = ms.indexOf(`${year}-${String(i + 1).padStart(2, "0")}`);
       return `<td class=r>${k < 0 ? "—" : n(kwh[k])}</td>`;
     }).join("");
@@ -44,7 +44,7 @@ export function pollardine(): Bill {
     <div style="flex:1.2"><h4 style="margin:2px 0">Current charges, residential service</h4><table style="width:100%">${chargeRows(lines, { label: "Current charges (due 11-02-2026)", cents: current })}</table></div>
   </div>
   <h4 style="margin:12px 0 2px">Monthly kWh</h4>
-  <table style="width:100%;font-size:8.5pt;border:1px solid #999"><tr style="background:#eee"><th></th>${SHORT.map((m) => `<th class=r>${m}</th>`).join("")}</tr>
+  <table style="width:100%;font-size:8.5pt;border:1px solid #999"><tr style="background:#eee"><th></th>${MON.map((m) => `<th class=r>${m}</th>`).join("")}</tr>
     <tr><td>2025</td>${byYear("2025")}</tr><tr><td>2026</td>${byYear("2026")}</tr></table>
   <p style="font-size:8.5pt" class=muted>Service may be disconnected if the past due amount is not received by 10-30-2026. Payment arrangements: 1-877-555-0163.</p>
   <div style="margin-top:26px;border-top:2px dashed #444;padding-top:10px;display:flex;justify-content:space-between">
@@ -72,7 +72,7 @@ export function gorsewick(): Bill {
   const sub = sum(...lines.map((l) => l.cents));
   const tax = times(sub / 100, 0.03873);
   const total = sub + tax;
-  const rows = ms.map((m, i) => `<tr><td>${SHORT[monthIndex(m)]} ${m.slice(0, 4)}</td><td class=r>${days[i]}</td><td class=r>${n(kwh[i])}</td><td class=r>${(kwh[i] / days[i]).toFixed(1)}</td></tr>`).join("");
+  const rows = ms.map((m, i) => `<tr><td>${MON[monthIndex(m)]} ${m.slice(0, 4)}</td><td class=r>${days[i]}</td><td class=r>${n(kwh[i])}</td><td class=r>${(kwh[i] / days[i]).toFixed(1)}</td></tr>`).join("");
   const page = `
   <div style="display:flex;align-items:baseline;gap:16px;border-bottom:4px solid #0f6b6b"><span style="font-size:20pt;font-weight:bold;color:#0f6b6b">Gorsewick Public Utility District</span>
     <span class=muted>Statement of account · Issued October 12th, 2026</span></div>
@@ -112,7 +112,7 @@ export function ravelstoke(): Bill {
   const due = current - 7500 - 148;
   const max = Math.max(...kwh);
   const chart = ms
-    .map((m, i) => `<div style="display:flex;align-items:center;height:15px"><div style="width:70px;font-size:8.5pt">${SHORT[monthIndex(m)]} ${m.slice(0, 4)}</div>
+    .map((m, i) => `<div style="display:flex;align-items:center;height:15px"><div style="width:70px;font-size:8.5pt">${MON[monthIndex(m)]} ${m.slice(0, 4)}</div>
       <div style="height:10px;width:${Math.round((kwh[i] / max) * 260)}px;background:#5a4b8a"></div><div style="font-size:8.5pt;margin-left:5px">${n(kwh[i])}</div></div>`)
     .join("");
   const page = `

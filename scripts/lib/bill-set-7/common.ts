@@ -34,6 +34,5 @@ export const plexSans = () =>
 export const plexMono = () =>
   fontFace("Plex Mono", "@ibm/plex-mono/fonts/complete/woff2/IBMPlexMono-Regular.woff2", 400) + fontFace("Plex Mono", "@ibm/plex-mono/fonts/complete/woff2/IBMPlexMono-Bold.woff2", 700);
 
-/** Month labels of several styles, from "YYYY-MM". */
-export const SHORT = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+/** 0–11 from "YYYY-MM" (month names: MON in ../bill-set-5/bills). */
 export const monthIndex = (ym: string) => Number(ym.slice(5)) - 1;
