@@ -10,11 +10,11 @@
 // Exits 1 when a write is lost or doubled or the node did not rejoin. Figures in
 // .data/cluster-test/results.json (docs/scaling.md quotes them).
 import { createRequire } from "node:module";
-import { rmSync, writeFileSync } from "node:fs";
+import { writeFileSync } from "node:fs";
 import path from "node:path";
 import mysql from "mysql2/promise";
 import { clusterInstance } from "./lib/cluster-instance";
-import { startAppNodeOf, startCluster, stopCluster } from "./lib/cluster";
+import { prepareCluster, startAppNodeOf, startCluster, stopCluster } from "./lib/cluster";
 import { nodePid, startNode, waitSynced } from "./lib/galera";
 import { DEMO_PASSWORD } from "./lib/seed-demo";
 
@@ -99,7 +99,7 @@ async function nodeConn(port: number) {
 
 // long because: one scripted fault scenario, step by step, then its checks
 async function main(): Promise<boolean> {
-  for (const sub of ["galera", "s3", "outbox", "payments", "files", "logs"]) rmSync(path.join(c.dir, sub), { recursive: true, force: true });
+  await prepareCluster(c, ["galera", "s3", "outbox", "payments", "files", "logs"], log);
   await startCluster(c, log);
   const cookie = await signIn("office@tallgrass.example");
   let stop = false;
