@@ -18,6 +18,7 @@ async function shutdown(code: number) {
 }
 process.on("SIGINT", () => void shutdown(0));
 process.on("SIGTERM", () => void shutdown(0));
+process.on("SIGHUP", () => void shutdown(0)); // the terminal closed: stop cleanly rather than leave it to the guardian
 
 try {
   await startCluster(c);

@@ -1,22 +1,27 @@
 // `npm run test:cluster`: the cluster under faults. A fresh local cluster (profile
 // cluster-test: 3 Galera nodes, HAProxy, 2 app nodes, S3-compatible storage, the fakes); while
-// autocannon reads the deals table and the Board through the balancer and a writer makes leads
-// and stage moves, the writer's database node is killed with SIGKILL, then an app node, then
-// both are started again. Afterwards:
-// - every write the app acknowledged (201/200) is in the database, on every node (0 lost);
-// - no lead or stage move was recorded twice (0 duplicates);
+// autocannon reads the deals table and the Board through the balancer, writers make leads and
+// stage moves, and homeowners sign sent proposals and pay their deposits through the dev
+// payments server (scripts/lib/cluster-homeowners.ts), the writer's database node is killed
+// with SIGKILL, then an app node, then both are started again. Afterwards:
+// - every write the app acknowledged (201/200) is in the database, on every node (0 lost):
+//   leads, moves, signatures, deposits the page showed as paid, and every payment the
+//   payments fake took once its webhooks (and their retries) were delivered;
+// - nothing was recorded twice: a lead, a stage move, a signature, a paid payment, a ledger
+//   row, a deposit booking, a job (0 duplicates);
 // - the restarted database node rejoined (Synced, cluster size 3) and holds the same rows;
 // - the failed requests of each window (kill → recovered) are counted and reported.
 // Exits 1 when a write is lost or doubled or the node did not rejoin. Figures in
 // .data/cluster-test/results.json (docs/scaling.md quotes them).
 import { createRequire } from "node:module";
-import { rmSync, writeFileSync } from "node:fs";
+import { writeFileSync } from "node:fs";
 import path from "node:path";
 import mysql from "mysql2/promise";
 import { clusterInstance } from "./lib/cluster-instance";
-import { startAppNodeOf, startCluster, stopCluster } from "./lib/cluster";
+import { prepareCluster, startAppNodeOf, startCluster, stopCluster } from "./lib/cluster";
 import { nodePid, startNode, waitSynced } from "./lib/galera";
 import { DEMO_PASSWORD } from "./lib/seed-demo";
+import { checkMoney, homeownerWriter, providerPaidSessions, seedSentProposals, settleDeliveries, type Homeowner, type MoneyCheck, type Outcome } from "./lib/cluster-homeowners";
 
 const c = clusterInstance("cluster-test");
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -24,7 +29,8 @@ const t0 = Date.now();
 const at = () => (Date.now() - t0) / 1000;
 const log = (line: string) => console.log(`[${at().toFixed(1).padStart(6)} s] ${line}`);
 
-type Outcome = { at: number; ok: boolean; what: string; status: number | string };
+/** Sent proposals waiting for the homeowners: more than two homeowners sign and pay in the run. */
+const SENT_PROPOSALS = 60;
 const outcomes: Outcome[] = [];
 const windows: { name: string; from: number; to: number }[] = [];
 
@@ -99,12 +105,19 @@ async function nodeConn(port: number) {
 
 // long because: one scripted fault scenario, step by step, then its checks
 async function main(): Promise<boolean> {
-  for (const sub of ["galera", "s3", "outbox", "payments", "files", "logs"]) rmSync(path.join(c.dir, sub), { recursive: true, force: true });
+  await prepareCluster(c, ["galera", "s3", "outbox", "payments", "files", "logs"], log);
   await startCluster(c, log);
   const cookie = await signIn("office@tallgrass.example");
+  const homeowners = await seedSentProposals(c.appEnv.DATABASE_URL, SENT_PROPOSALS);
+  log(`· ${homeowners.length} sent proposals for the homeowners`);
   let stop = false;
   const acked: Acked[] = [];
-  const writers = [1, 2, 3, 4].map((id) => writer(cookie, id, () => stop, acked));
+  const queue = [...homeowners];
+  const env = { appUrl: c.appUrl, mailUrl: c.mailUrl, mailKey: c.secrets.resendKey, record: (o: Omit<Outcome, "at">) => outcomes.push({ at: at(), ...o }) };
+  const writers = [
+    ...[1, 2, 3, 4].map((id) => writer(cookie, id, () => stop, acked)),
+    ...[1, 2, 3].map(() => homeownerWriter(env, queue, () => stop)),
+  ];
   const load = readers(cookie);
   const steady = at();
   await sleep(8_000);
@@ -141,9 +154,10 @@ async function main(): Promise<boolean> {
   load.stop();
   await Promise.all(writers);
   await load;
+  const deliveries = await settleDeliveries(c.paymentsUrl, 60_000);
   await sleep(2_000); // let the last replicated writes apply everywhere
-
-  return verify(acked);
+  const providerPaid = await providerPaidSessions(c.paymentsUrl, c.secrets.stripeKey);
+  return verify(acked, { homeowners, providerPaid, deliveries });
 }
 
 async function healthy(port: number): Promise<boolean> {
@@ -163,16 +177,25 @@ async function appNodePid(port: number): Promise<number> {
   return pid;
 }
 
+/** Median and longest of a list of seconds. */
+function spread(values: number[]): { median: number; longest: number } | null {
+  if (values.length === 0) return null;
+  const sorted = [...values].sort((a, b) => a - b);
+  return { median: Number(sorted[Math.floor(sorted.length / 2)].toFixed(1)), longest: Number(sorted[sorted.length - 1].toFixed(1)) };
+}
+
 function countBy<T>(items: T[], key: (item: T) => string): Record<string, number> {
   const out: Record<string, number> = {};
   for (const item of items) out[key(item)] = (out[key(item)] ?? 0) + 1;
   return out;
 }
 
+type Money = { homeowners: Homeowner[]; providerPaid: { paymentId: string }[]; deliveries: Awaited<ReturnType<typeof settleDeliveries>> };
+
 // long because: every check of the run and the report, in one place
-async function verify(acked: Acked[]): Promise<boolean> {
+async function verify(acked: Acked[], money: Money): Promise<boolean> {
   const ids = acked.map((a) => a.dealId);
-  const perNode: Record<string, { lost: number; wrongStage: number; deals: number; checksum: string; state: string; size: string }> = {};
+  const perNode: Record<string, { lost: number; wrongStage: number; deals: number; checksum: string; state: string; size: string; money: MoneyCheck }> = {};
   let duplicates = 0;
   for (const node of c.galera.nodes) {
     const conn = await nodeConn(node.sqlPort);
@@ -194,6 +217,7 @@ async function verify(acked: Acked[]): Promise<boolean> {
       checksum: String(sum.Checksum),
       state: st.wsrep_local_state_comment,
       size: st.wsrep_cluster_size,
+      money: await checkMoney(conn, money.homeowners, money.providerPaid),
     };
     await conn.end();
   }
@@ -202,6 +226,16 @@ async function verify(acked: Acked[]): Promise<boolean> {
   const report = {
     acknowledgedLeads: acked.length,
     acknowledgedMoves: acked.filter((a) => a.lost).length,
+    homeowners: {
+      sentProposals: money.homeowners.length,
+      taken: money.homeowners.filter((h) => h.taken).length,
+      signedAcknowledged201: money.homeowners.filter((h) => h.signed === "201").length,
+      signedSeenAfterLostAnswer: money.homeowners.filter((h) => h.signed === "409").length,
+      depositsShownPaid: money.homeowners.filter((h) => h.paid).length,
+      secondsFromProposalToPaid: spread(money.homeowners.flatMap((h) => (h.paidAfterMs === undefined ? [] : [h.paidAfterMs / 1000]))),
+      paymentsTakenByProvider: money.providerPaid.length,
+      webhooks: money.deliveries,
+    },
     requests: outcomes.length,
     failed: outcomes.filter((o) => !o.ok).length,
     windows: windows.map((w) => ({ ...w, requests: countIn(w), failed: failedIn(w).length, kinds: countBy(failedIn(w), (o) => `${o.what} ${o.status}`) })),
@@ -213,10 +247,12 @@ async function verify(acked: Acked[]): Promise<boolean> {
   const nodes = Object.values(perNode);
   const ok =
     acked.length > 0 &&
-    nodes.every((n) => n.lost === 0 && n.wrongStage === 0 && n.state === "Synced" && n.size === "3") &&
+    money.homeowners.some((h) => h.paid) &&
+    money.deliveries.notDelivered === 0 &&
+    nodes.every((n) => n.lost === 0 && n.wrongStage === 0 && n.state === "Synced" && n.size === "3" && Object.values(n.money).every((v) => v === 0)) &&
     new Set(nodes.map((n) => `${n.deals}/${n.checksum}`)).size === 1 &&
     duplicates === 0;
-  console.log(ok ? "\n✓ cluster fault test: 0 lost, 0 duplicates, every node Synced with the same rows" : "\n✗ cluster fault test failed (see above)");
+  console.log(ok ? "\n✓ cluster fault test: 0 lost (leads, moves, signatures, deposits), 0 duplicates (incl. payments, ledger rows, jobs), every node Synced with the same rows" : "\n✗ cluster fault test failed (see above)");
   return ok;
 }
 

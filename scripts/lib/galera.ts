@@ -123,6 +123,44 @@ function safeToBootstrap(node: GaleraNode): boolean {
   return existsSync(file) && /safe_to_bootstrap:\s*1/.test(readFileSync(file, "utf8"));
 }
 
+/** The node's last committed position as Galera wrote it at a clean stop (-1 after a crash, null without data). */
+function savedSeqno(node: GaleraNode): number | null {
+  const file = path.join(nodePaths(node).data, "grastate.dat");
+  if (!existsSync(file)) return null;
+  const m = /seqno:\s*(-?\d+)/.exec(readFileSync(file, "utf8"));
+  return m ? Number(m[1]) : null;
+}
+
+/** After a crash: the position InnoDB holds, from `mariadbd --wsrep-recover` (it writes it to the error log and exits). */
+function recoveredSeqno(node: GaleraNode): number {
+  const p = nodePaths(node);
+  chownTree(node.dir);
+  spawnSync("/usr/sbin/mariadbd", [`--defaults-file=${p.cnf}`, "--wsrep-recover"], { encoding: "utf8", timeout: 120_000 });
+  const found = existsSync(p.log) ? [...readFileSync(p.log, "utf8").matchAll(/Recovered position: [0-9a-f-]+:(-?\d+)/g)].pop() : undefined;
+  return found ? Number(found[1]) : -1;
+}
+
+/**
+ * The node to start the cluster from: the one Galera marked safe after a clean stop; when every
+ * node stopped at once or crashed (none is marked), the most advanced one — its position from
+ * grastate.dat, else recovered from InnoDB — which is then marked safe (Galera's documented
+ * recovery of a cluster that lost every node: "bootstrap from the node with the highest seqno").
+ */
+function bootstrapNode(cluster: GaleraCluster): GaleraNode {
+  const running = cluster.nodes.find((n) => existsSync(n.dir) && nodeState(n) === "Synced");
+  if (running) return running;
+  const safe = cluster.nodes.find(safeToBootstrap);
+  if (safe) return safe;
+  const withData = cluster.nodes.filter((n) => savedSeqno(n) !== null);
+  if (withData.length === 0) return cluster.nodes[0];
+  for (const n of withData) writeCnf(cluster, n);
+  const ranked = withData.map((n) => ({ n, seqno: savedSeqno(n) === -1 ? recoveredSeqno(n) : (savedSeqno(n) as number) })).sort((a, b) => b.seqno - a.seqno);
+  const best = ranked[0].n;
+  const file = path.join(nodePaths(best).data, "grastate.dat");
+  writeFileSync(file, readFileSync(file, "utf8").replace(/safe_to_bootstrap:\s*0/, "safe_to_bootstrap: 1"));
+  return best;
+}
+
 /** Starts one node's server process (detached, logging to its folder). */
 export function startNode(cluster: GaleraCluster, node: GaleraNode, opts: { bootstrap?: boolean } = {}): ChildProcess {
   const p = nodePaths(node);
@@ -158,7 +196,7 @@ export function nodePid(node: GaleraNode): number | null {
  */
 export async function startGalera(cluster: GaleraCluster, log: (line: string) => void = () => undefined): Promise<void> {
   for (const node of cluster.nodes) mkdirSync(node.dir, { recursive: true });
-  const first = cluster.nodes.find(safeToBootstrap) ?? cluster.nodes[0];
+  const first = bootstrapNode(cluster);
   const firstPaths = nodePaths(first);
   if (!existsSync(path.join(firstPaths.data, "mysql"))) {
     mkdirSync(firstPaths.data, { recursive: true });

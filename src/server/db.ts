@@ -38,6 +38,28 @@ export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
  * use": the node left the cluster's primary component, a new connection reaches another.
  */
 const RETRYABLE_ERRNOS = new Set([1213, 1047]);
+/**
+ * 1180 ER_ERROR_DURING_COMMIT is retried only when Galera wrote it ("provider status: …", e.g.
+ * "Not connected to Primary Component" right after the node lost the cluster): a write set
+ * that could not be replicated is rolled back, never committed on that node alone. Any other
+ * 1180 (the storage engine's) is left to the caller.
+ */
+const GALERA_COMMIT_ERRNO = 1180;
+
+function retryable(err: unknown): boolean {
+  const errno = mariaDbErrno(err);
+  if (errno !== null && RETRYABLE_ERRNOS.has(errno)) return true;
+  return errno === GALERA_COMMIT_ERRNO && /provider status/i.test(mariaDbMessage(err));
+}
+
+/** The MariaDB error text under Drizzle's wrapper. */
+function mariaDbMessage(err: unknown): string {
+  for (let e: unknown = err, depth = 0; e && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+    const message = (e as { sqlMessage?: unknown }).sqlMessage;
+    if (typeof message === "string") return message;
+  }
+  return "";
+}
 
 /** The MariaDB error number under Drizzle's wrapper (DrizzleQueryError keeps it in `cause`). */
 export function mariaDbErrno(err: unknown): number | null {
@@ -52,8 +74,9 @@ export const TRANSACTION_ATTEMPTS = 4;
 
 /**
  * Runs `work` in one transaction, and runs it again (up to TRANSACTION_ATTEMPTS times in all,
- * after a short random pause) when the database answers with a deadlock or a cluster
- * certification conflict — both roll the whole transaction back, so nothing of the failed
+ * after a short random pause) when the database answers with a deadlock, a cluster
+ * certification conflict or a write set Galera could not replicate — each rolls the whole
+ * transaction back, so nothing of the failed
  * attempt is kept. `work` must therefore be safe to run twice: it reads what it needs inside
  * the transaction, and any call outside the database is a read or carries an idempotency key.
  */
@@ -62,8 +85,7 @@ export async function transaction<T>(work: (tx: Tx) => Promise<T>): Promise<T> {
     try {
       return await db().transaction(work);
     } catch (err) {
-      const errno = mariaDbErrno(err);
-      if (attempt >= TRANSACTION_ATTEMPTS || errno === null || !RETRYABLE_ERRNOS.has(errno)) throw err;
+      if (attempt >= TRANSACTION_ATTEMPTS || !retryable(err)) throw err;
       // 10–40 ms, doubling: long enough for the winner to commit, short for a person waiting.
       await new Promise((r) => setTimeout(r, (5 + Math.random() * 15) * 2 ** attempt));
     }

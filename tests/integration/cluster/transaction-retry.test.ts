@@ -44,6 +44,34 @@ describe("transaction()", () => {
     expect(rows.map((r) => r.name)).toEqual(["Lock++", "Lock++"]); // each row changed by both writers
   });
 
+  // MariaDB 1180 with Galera's "provider status": the COMMIT could not be replicated because
+  // the node had just left the primary component (seen in the cluster fault test); Galera
+  // commits nothing it could not replicate, so the transaction runs again on a new connection.
+  // SIGNAL gives a plain MariaDB the same error number and text.
+  const notReplicated = "Error while appending streaming replication fragment(provider status: Not connected to Primary Component)";
+  it("runs a transaction again when Galera could not replicate its commit (1180, provider status)", async () => {
+    let runs = 0;
+    const id = crypto.randomUUID();
+    await transaction(async (tx) => {
+      runs++;
+      await tx.insert(company).values({ id, name: `Replicated ${runs}` });
+      if (runs === 1) await tx.execute(sql.raw(`SIGNAL SQLSTATE 'HY000' SET MYSQL_ERRNO = 1180, MESSAGE_TEXT = '${notReplicated}'`));
+    });
+    expect(runs).toBe(2);
+    expect((await db().select().from(company).where(eq(company.id, id))).map((r) => r.name)).toEqual(["Replicated 2"]);
+  });
+
+  it("does not retry a 1180 that is not Galera's", async () => {
+    let runs = 0;
+    await expect(
+      transaction(async (tx) => {
+        runs++;
+        await tx.execute(sql.raw("SIGNAL SQLSTATE 'HY000' SET MYSQL_ERRNO = 1180, MESSAGE_TEXT = 'Got error 1 during COMMIT'"));
+      }),
+    ).rejects.toSatisfy((e) => mariaDbErrno(e) === 1180);
+    expect(runs).toBe(1);
+  });
+
   it("does not retry other errors", async () => {
     let runs = 0;
     const id = crypto.randomUUID();
