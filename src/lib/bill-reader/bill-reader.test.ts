@@ -235,3 +235,82 @@ describe("held-out set 5's misses, as families", () => {
     expect(r.period).toMatchObject({ start: { value: "2025-11-04" }, end: { value: "2025-12-03" } });
   });
 });
+
+describe("held-out set 6's misses, as families (each in a layout set 6 does not use)", () => {
+  const kwh = [812, 905, 1020, 990, 870, 760, 700, 810, 930, 1010, 960, 840, 790];
+  const pad = (xs: (string | number)[], w = 10) => xs.map((x) => String(x).padStart(w)).join("");
+
+  it("Spanish, French and bilingual month names in a history (abbreviated, full, \"Ene/Jan\")", () => {
+    const es = ["octubre", "noviembre", "diciembre", "enero", "febrero", "marzo", "abril", "mayo", "junio", "julio", "agosto", "septiembre"];
+    const r = read(["Período de facturación 02/10/2026 - 03/09/2026", "Mes / Month      kWh", ...es.map((m, i) => `${m} ${i < 3 ? 2025 : 2026}     ${kwh[i]}`)].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(es.map((_, i) => [`${i < 3 ? 2025 : 2026}-${String(((9 + i) % 12) + 1).padStart(2, "0")}`, kwh[i]]));
+    const pairs = ["Ene/Jan", "Feb/Feb", "Mar/Mar", "Abr/Apr", "May/May", "Jun/Jun", "Jul/Jul", "Ago/Aug", "Sep/Sep", "Oct/Oct", "Nov/Nov", "Dic/Dec"];
+    const across = read(["Billing period 12/03/2025 - 01/02/2026", `            ${pad(pairs)}`, `Consumo kWh ${pad(kwh.slice(0, 12))}`].join("\n"));
+    expect(across.history?.months.map((m) => m.month)).toEqual(pairs.map((_, i) => `2025-${String(i + 1).padStart(2, "0")}`));
+    expect(read(["Billing period 10/03/2026 - 11/02/2026", `      ${pad(["janv.", "févr.", "mars", "avr.", "mai", "juin", "juil.", "août", "sept.", "oct.", "nov.", "déc."])}`, `kWh   ${pad(kwh.slice(0, 12))}`].join("\n")).history?.months).toHaveLength(12);
+  });
+
+  it("a period written in Spanish: \"del 7 de octubre de 2026 al 5 de noviembre de 2026\"", () => {
+    expect(read("Periodo de servicio: del 7 de octubre de 2026 al 5 de noviembre de 2026").period).toMatchObject({ start: { value: "2026-10-07" }, end: { value: "2026-11-05" } });
+  });
+
+  it("months across in two rows, each row's figures right under its own months with no row label", () => {
+    const months = ["Oct", "Nov", "Dec", "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct"];
+    const r = read(["Service from 09/12/26 through 10/11/26", "Your kWh by month", pad(months.slice(0, 7)), pad(kwh.slice(0, 7)), pad(months.slice(7)), pad(kwh.slice(7))].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(months.map((_, i) => [`${i < 3 ? 2025 : 2026}-${String(((9 + i) % 12) + 1).padStart(2, "0")}`, kwh[i]]));
+  });
+
+  it("a newest-first table whose rows have charge lines wrapping between them is read whole", () => {
+    const names = ["Dec", "Nov", "Oct", "Sep", "Aug", "Jul", "Jun", "May", "Apr", "Mar", "Feb", "Jan"];
+    const rows = names.map((m, i) => `${" ".repeat(40)}${m} 2026   ${30 + (i % 2)}   ${kwh[i]}`);
+    // Lines beside the table that wrap push two of its rows three lines apart.
+    rows.splice(4, 0, "Energy charge", "  @ 0.1122", "");
+    rows.splice(10, 0, "Delivery", "  @ 0.0410", "");
+    const r = read(["Billing period 11/14/2026 - 12/13/2026", `${" ".repeat(40)}Month      Days   kWh`, ...rows].join("\n"));
+    expect(r.history?.months).toHaveLength(12);
+    expect(r.history?.months[0]).toMatchObject({ month: "2026-01", kwh: kwh[11] });
+    expect(r.history?.months.at(-1)).toMatchObject({ month: "2026-12", kwh: kwh[0] });
+  });
+
+  it("a history table printed in two blocks side by side is one history", () => {
+    const left = ["Jan", "Feb", "Mar", "Apr", "May", "Jun"];
+    const right = ["Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+    const rows = left.map((m, i) => `${m} 2026   ${kwh[i]}          ${right[i]} 2026   ${kwh[i + 6]}`);
+    const r = read(["Billing period 12/01/2026 - 12/30/2026", "Month      kWh          Month      kWh", ...rows].join("\n"));
+    expect(r.history?.months.map((m) => m.kwh)).toEqual(kwh.slice(0, 12));
+  });
+
+  it("net metering: the kWh delivered from the grid, said so, not the net or the received", () => {
+    const r = read(["Billing period 04/02/2026 - 05/01/2026", "Energy from the grid        918 kWh", "Energy sent to the grid     402 kWh", "Net usage                   516 kWh", "Amount due  $61.20"].join("\n"));
+    expect(r.kwh).toMatchObject({ value: 918, confidence: "high" });
+    expect(r.warnings.join(" ")).toMatch(/net-metering bill.*918 kWh delivered from the grid, not the net 516/);
+    const table = read(["Meter   Register            kWh", "B-7     Imported            1,044", "B-7     Exported              610", "Net billed kWh  434"].join("\n"));
+    expect(table.kwh?.value).toBe(1044);
+  });
+
+  it("bilingual labels make the kWh a candidate: \"Energía usada / Energy used\", a \"Consumo / Usage\" column", () => {
+    expect(current("Rate $0.1189/kWh\nEnergía usada / Energy used   733 kWh").kwh).toBe(733);
+    const r = read(["Medidor / Meter   Lectura anterior / Previous   Lectura actual / Present   Consumo / Usage", "K-220             40,112                        40,845                     733"].join("\n"));
+    expect(r.kwh?.value).toBe(733);
+  });
+
+  it("tier lines are never the period's kWh; summed when the bill gives only tiers", () => {
+    expect(read("Energy first 600 kWh @ $0.0950  $57.00\nEnergy over 600 kWh: 312 kWh @ $0.1240  $38.69\nTotal kWh  912").kwh?.value).toBe(912);
+    const only = read("Block 1 - first 500 kWh @ $0.10   $50.00\nBlock 2 - next 400 kWh @ $0.12   $48.00\nBlock 3 - over 900 kWh: 86 kWh @ $0.15   $12.90");
+    expect(only.kwh).toMatchObject({ value: 986, confidence: "medium", label: "sum of the tier lines" });
+    // A tier whose quantity is not printed: no sum, and its bound is still not the kWh.
+    expect(read("Energy first 500 kWh @ $0.10  $50.00\nEnergy over 500 kWh @ $0.13  $11.70").kwh).toBeNull();
+  });
+
+  it("each history month carries a confidence and where it was found; doubtful months are flagged", () => {
+    const names = ["Dec", "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov"];
+    const figures = kwh.slice(0, 12).map(String);
+    figures[5] = "31"; // a day count read as the month's kWh
+    const r = read(["Billing period 10/28/2025 - 11/25/2025", "Month    kWh", ...names.map((m, i) => `${m}      ${figures[i]}`)].join("\n"));
+    const may = r.history?.months.find((m) => m.month === "2025-05");
+    expect(may).toMatchObject({ confidence: "low", note: expect.stringMatching(/day count/) });
+    expect(may?.where.line).toBe(8);
+    expect(r.history?.months.filter((m) => m.confidence === "high")).toHaveLength(11);
+    expect(r.warnings.join(" ")).toMatch(/not sure of 1 of the history's months \(2025-05\)/);
+  });
+});

@@ -16,7 +16,8 @@ type Row = {
 };
 
 function cleanMonthLabel(t: string): MonthLabel | null {
-  let m = t.match(/^([A-Za-z]{3,9}\.?)(?:[\s'’-]*('?\d{4}|'?\d{2}))?$/);
+  // Also other languages' names and bilingual pairs ("dic 2025", "Ene/Jan '26"): monthIndex knows them.
+  let m = t.match(/^(\p{L}{3,10}\.?(?:\s?\/\s?\p{L}{3,10}\.?)?)(?:[\s'’-]*('?\d{4}|'?\d{2}))?$/u);
   if (m) {
     const month = monthIndex(m[1]);
     if (month < 0) return null;
@@ -69,12 +70,18 @@ const number = (c: Cell | undefined) => {
   return m ? toNumber(m[1]) : null;
 };
 type Kind = "kwh" | "days" | "other";
+function oneHeaderKind(t: string): Kind {
+  if (/avg|average|per\s+day|daily|temp|cost|\$|amount|charge|bill\b|degree|°|promedio|costo|cargo|importe|factura/.test(t)) return "other";
+  if (/kwh|usage|use\b|used|consumption|energy|consumo|uso\b|energ[ií]a|consommation/.test(t)) return "kwh";
+  if (/days?\b|d[ií]as\b|jours\b/.test(t)) return "days";
+  return "other";
+}
+/** A column heading's kind; a bilingual one ("Días / Days", "Consumo / Usage") by either half. */
 function headerKind(text: string): Kind {
   const t = text.toLowerCase();
-  if (/avg|average|per\s+day|\/\s*day|daily|temp|cost|\$|amount|charge|bill\b|degree|°/.test(t)) return "other";
-  if (/kwh|usage|use\b|used|consumption|energy/.test(t)) return "kwh";
-  if (/days?\b/.test(t)) return "days";
-  return "other";
+  if (/(kwh|use|usage|consumo)\s*\/\s*(day|d[ií]a)/.test(t)) return "other";
+  const kinds = t.split(/\s*\/\s*/).map(oneHeaderKind);
+  return kinds.includes("other") && kinds.length > 1 ? (kinds.find((k) => k !== "other") ?? "other") : kinds.includes("other") ? "other" : kinds[0];
 }
 const nearest = (cells: Cell[], x: number, half: number) =>
   cells.reduce<Cell | null>((best, c) => (Math.abs(center(c) - x) < half && (!best || Math.abs(center(c) - x) < Math.abs(center(best) - x)) ? c : best), null);
@@ -97,8 +104,12 @@ function rowOf(line: Line, at: number, header: Line | null): Row | null {
   let kwh: number | null = null;
   let days: number | null = null;
   if (header) {
-    for (const c of rest) {
-      const h = nearest(header.cells, center(c), 60);
+    // As many headings right of the month's own as figures: they pair in order (a right-aligned
+    // figure may sit nearer the next column's centred heading); else the nearest heading.
+    const own = nearest(header.cells, center(first), 80);
+    const after = own ? header.cells.filter((h) => h.x > own.x) : [];
+    for (const [k, c] of rest.entries()) {
+      const h = after.length === rest.length ? after[k] : nearest(header.cells, center(c), 60);
       const kind = h ? headerKind(h.text) : "other";
       if (kind === "kwh" && kwh === null) kwh = number(c);
       if (kind === "days" && days === null) days = number(c);
@@ -136,7 +147,12 @@ function tableRows(lines: Line[]): { rows: Row[]; header: Line | null }[] {
   lines.forEach((line, i) => {
     line.cells.forEach((cell, at) => {
       if (!rowOf(line, at, null)) return;
-      const open = blocks.find((b) => b.page === line.page && i - b.last <= 2 && Math.abs(b.x - cell.x) < 8);
+      // The next row of a table: close below, or further when the lines between are beside the
+      // table (charges that wrap), none of them reaching into the table's columns.
+      const xEnd = line.cells.at(-1)!.xEnd;
+      const beside = (from: number) => lines.slice(from + 1, i).every((l) => l.cells.every((c) => c.xEnd < cell.x - 4 || c.x > xEnd + 4));
+      const near = (b: Block) => i - b.last <= 2 || (i - b.last <= 6 && beside(b.last));
+      const open = blocks.find((b) => b.page === line.page && near(b) && Math.abs(b.x - cell.x) < 8);
       if (open) [open.last, open.ats, open.lines] = [i, [...open.ats, at], [...open.lines, line]];
       else
         blocks.push({
@@ -169,6 +185,8 @@ type Across = {
   days: (number | null)[];
   lines: Line[];
   chart: boolean;
+  /** The kWh row has no label of its own (figures right under the months). */
+  unlabelled?: boolean;
 };
 
 const INITIALS = "JFMAMJJASOND";
@@ -225,7 +243,7 @@ function initialLabels(cells: Cell[]): { cells: Cell[]; labels: MonthLabel[] } |
  */
 function splitJoinedMonths(cell: Cell): Cell[] {
   const words = [...cell.text.matchAll(/[^\s;:,|=~—–]+/g)].filter((w) => w[0].length >= 2);
-  const month = (w: string) => (/^[A-Za-z]{3,9}\.?$/.test(w) && monthIndex(w) >= 0) || /^\d{1,2}\/20\d{2}$/.test(w);
+  const month = (w: string) => (/^\p{L}{3,10}\.?$/u.test(w) && monthIndex(w) >= 0) || /^\d{1,2}\/20\d{2}$/.test(w);
   if (words.length < 2 || !words.every((w) => month(w[0]))) return [cell];
   const perChar = (cell.xEnd - cell.x) / cell.text.length;
   return words.map((w) => ({ text: w[0], x: cell.x + (w.index ?? 0) * perChar, xEnd: cell.x + ((w.index ?? 0) + w[0].length) * perChar }));
@@ -247,6 +265,29 @@ function monthCells(line: Line): { cells: Cell[]; labels: MonthLabel[] } | null 
   if (cells.length >= 6 && cells.length >= line.cells.length - 1) return namedMonths(cells, cells.map((c) => monthLabel(c.text)!));
   const letters = line.cells.filter((c) => /^[JFMASOND]$/i.test(c.text));
   return letters.length >= line.cells.length - 1 ? initialLabels(letters) : null;
+}
+
+/**
+ * Figures with no row label right under a row of months (a history printed as 7 + 6 months, each
+ * row of months with its figures below): the first such line is the kWh, unless its figures are
+ * all 20–40 and another follows (days, then kWh). Only lines before the next row of months count,
+ * so each row of figures pairs with the months directly above it.
+ */
+function unlabelledRowsBelow(lines: Line[], i: number, block: Across, valuesOf: (l: Line) => (number | null)[]): boolean {
+  const rows: (number | null)[][] = [];
+  for (let k = i + 1; k < Math.min(lines.length, i + 3) && lines[k].page === lines[i].page && !monthCells(lines[k]); k++) {
+    const l = lines[k];
+    const values = valuesOf(l);
+    if (!l.cells.every((c) => number(c) !== null) || lines[k - 1].y - l.y > l.h * 3 || values.filter((v) => v !== null).length < block.cells.length * 0.6) break;
+    rows.push(values);
+    block.lines.push(l);
+  }
+  if (!rows.length) return false;
+  const daysLike = (r: (number | null)[]) => r.every((v) => v === null || (v >= 20 && v <= 40));
+  if (rows.length > 1 && daysLike(rows[0])) [block.days, block.kwh] = [rows[0], rows[1]];
+  else block.kwh = rows[0];
+  block.unlabelled = true;
+  return true;
 }
 
 function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[]; labels: MonthLabel[] }): Across {
@@ -271,11 +312,12 @@ function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[
     if (kind === "days" && block.days.every((v) => v === null)) [block.days, block.lines] = [values, [...block.lines, lines[k]]];
   }
   if (block.kwh.some((v) => v !== null)) return block;
+  if (unlabelledRowsBelow(lines, i, block, valuesOf)) return block;
   // A bar chart: each month's value is the nearest number above its label, in its column.
   block.chart = true;
   const valuesInColumn = (l: Line) => cells.map((m) => number(nearest(l.cells, center(m), half * 0.6) ?? undefined));
   // Up the chart until its title: a line with words ends it.
-  for (let k = i - 1; k >= 0 && lines[k].page === line.page && lines[k].y - line.y < 320 && lines[k].cells.every((c) => number(c) !== null); k--) {
+  for (let k = i - 1; k >= 0 && lines[k].page === line.page && lines[k].y - line.y < 320 && lines[k].cells.every((c) => number(c) !== null) && !monthCells(lines[k]); k--) {
     const values = valuesInColumn(lines[k]);
     values.forEach((v, j) => {
       if (v !== null && block.kwh[j] === null) block.kwh[j] = v;
@@ -316,10 +358,28 @@ export type HistoryRead = {
   warnings: string[];
 };
 
+const NOISY = "its label was read past OCR noise";
+
 const monthNumber = (ym: string) => Number(ym.slice(0, 4)) * 12 + Number(ym.slice(5, 7));
 
 /** Months that run on one after another, oldest first. */
 const consecutive = (months: string[]) => months.every((m, i) => i === 0 || monthNumber(m) - monthNumber(months[i - 1]) === 1);
+
+/**
+ * A month whose figure is far from the others (under a third of their median or over three
+ * times it, our choice) or looks like a day count (20–40 in a history of hundreds) is marked low:
+ * the likeliest misreadings (a days or average column, a lost digit, a neighbour's label).
+ */
+function withOutlierCheck(months: HistoryMonth[]): (m: HistoryMonth) => HistoryMonth {
+  const sorted = months.map((m) => m.kwh).sort((a, b) => a - b);
+  const median = sorted[Math.floor(sorted.length / 2)] ?? 0;
+  return (m) => {
+    if (months.length < 4 || m.confidence === "low") return m;
+    if (median >= 150 && m.kwh >= 20 && m.kwh <= 40) return { ...m, confidence: "low", note: "its figure looks like a day count" };
+    if (m.kwh < median / 3 || m.kwh > median * 3) return { ...m, confidence: "low", note: "its figure is far from the other months'" };
+    return m;
+  };
+}
 
 function finish(entries: HistoryMonth[], layout: BillHistory["layout"], confidence: Confidence, cells: Set<Cell>, warnings: string[], noisy: Set<HistoryMonth> = new Set()): HistoryRead {
   const byMonth = new Map<string, HistoryMonth>();
@@ -328,13 +388,37 @@ function finish(entries: HistoryMonth[], layout: BillHistory["layout"], confiden
   // A label read past OCR noise counts only if the history still runs month after month with it.
   if (noisy.size && !consecutive(months.map((e) => e.month))) months = months.filter((e) => !noisy.has(e));
   if (months.length < 12) warnings.push(`The bill's usage history has ${months.length} months; the rest of the year will be estimated.`);
+  months = months.map(withOutlierCheck(months));
+  const unsure = months.filter((m) => m.confidence !== "high");
+  if (unsure.length && unsure.length < months.length) warnings.push(`The reader is not sure of ${unsure.length} of the history's months (${unsure.map((m) => m.month).join(", ")}): compare them with the bill.`);
   return { history: { months, layout, confidence }, cells, warnings };
+}
+
+type Table = { rows: Row[]; header: Line | null };
+const labelMonths = (t: Table) => t.rows.flatMap((r) => ("month" in r.label ? [r.label.month] : []));
+
+/**
+ * The first table's rows, and the tables that continue it: a history printed in two blocks side by
+ * side or one under the other (7 + 6 months), joined when the months run on across the join, in
+ * the first block's order (oldest or newest first).
+ */
+function joinedTables(tables: Table[]): Table[] {
+  const out = tables.slice(0, 1);
+  for (const t of tables.slice(1)) {
+    const [prev, next] = [labelMonths(out.at(-1)!), labelMonths(t)];
+    if (prev.length < 2 || !next.length) break;
+    const step = (prev[1] - prev[0] + 12) % 12;
+    if ((step === 1 || step === 11) && (next[0] - prev.at(-1)! + 12) % 12 === step) out.push(t);
+  }
+  return out;
 }
 
 export function readHistory(lines: Line[], anchorMonth: string | null): HistoryRead {
   const warnings: string[] = [];
   const noYear = "The usage history prints no years and the bill no period: the months' years are a guess.";
-  for (const { rows: block, header } of tableRows(lines)) {
+  const tables = joinedTables(tableRows(lines));
+  if (tables.length) {
+    const block = tables.flatMap((t) => t.rows);
     const labels = block.map((r) => ("month" in r.label ? r.label : null));
     const printed = labels.every((l) => l === null)
       ? null
@@ -343,24 +427,19 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
           anchorMonth,
         );
     if (labels.some((l) => l !== null) && !printed) warnings.push(noYear);
+    const headed = new Set(tables.filter((t) => t.header).flatMap((t) => t.rows));
     const entries = block.map((r, k): HistoryMonth | null => {
       const range = "start" in r.label ? r.label : null;
       const month = range ? periodMonth(range.start, range.end) : printed?.[k];
       if (!month) return null;
       const days = r.days ?? (range ? dayNumber(range.end) - dayNumber(range.start) : null);
-      return {
-        month,
-        kwh: r.kwh,
-        days,
-        start: range?.start ?? null,
-        end: range?.end ?? null,
-        where: whereOf(r.line),
-      };
+      const [confidence, note] = labels[k]?.noisy ? (["low", NOISY] as const) : headed.has(r) ? (["high", undefined] as const) : (["medium", "no column heading names the kWh"] as const);
+      return { month, kwh: r.kwh, days, start: range?.start ?? null, end: range?.end ?? null, where: whereOf(r.line), confidence, note };
     });
     return finish(
       entries.filter((e) => e !== null),
       "table",
-      header ? "high" : "medium",
+      tables.every((t) => t.header) ? "high" : "medium",
       new Set(block.flatMap((r) => r.cells)),
       warnings,
       new Set(entries.filter((e, k): e is HistoryMonth => e !== null && labels[k]?.noisy === true)),
@@ -371,8 +450,10 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
     const cells = monthCells(l);
     if (cells) blocks.push(acrossBlock(lines, i, cells));
   });
-  const tables = blocks.filter((b) => !b.chart);
-  const use = tables.length ? tables : blocks.filter((b) => b.kwh.filter((v) => v !== null).length >= b.months.length * 0.6).slice(0, 1);
+  const acrossTables = blocks.filter((b) => !b.chart);
+  const charts = blocks.filter((b) => b.kwh.filter((v) => v !== null).length >= b.months.length * 0.6);
+  // A chart in two rows of months: the second joins when its months run on from the first's.
+  const use = acrossTables.length ? acrossTables : charts.filter((b, j) => j === 0 || (b.months[0].month - charts[j - 1].months.at(-1)!.month + 12) % 12 === 1);
   if (!use.length) return { history: null, cells: new Set(), warnings };
   const labels = use.flatMap((b) => b.months);
   const years = withYears(labels, anchorMonth);
@@ -386,7 +467,8 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
       k++;
       const kwh = b.kwh[j];
       if (kwh === null || !month) return;
-      const entry = { month, kwh, days: b.days[j], start: null, end: null, where: whereOf(b.lines[0]) };
+      const [confidence, note] = label.noisy ? (["low", NOISY] as const) : !years || b.chart || b.unlabelled ? (["medium", !years ? "no year is printed" : b.chart ? "read from a chart's labels" : "its row of figures has no label"] as const) : (["high", undefined] as const);
+      const entry: HistoryMonth = { month, kwh, days: b.days[j], start: null, end: null, where: whereOf(b.lines[1] ?? b.lines[0]), confidence, note };
       entries.push(entry);
       if (label.noisy) noisy.add(entry);
     });

@@ -13,8 +13,9 @@ type Candidate = {
   days: number | null;
 };
 
-const BETWEEN = /^\s*(?:-|–|—|to|through|thru|until|and)\s*$/i;
-const PERIOD_LABEL = /\b(billing|service|usage|meter|read(?:ing)?|bill)\s+(period|dates?|days|from|cycle)\b|\bservice\s+(from|dates?|period)\b|\bfor service\b|\bperiod\b/i;
+// Spanish / French / Portuguese bills join a range with "al", "a", "hasta", "au", "à", "até".
+const BETWEEN = /^\s*(?:-|–|—|to|through|thru|until|and|al|a|hasta|au|à|até)\s*$/iu;
+const PERIOD_LABEL = /\b(billing|service|usage|meter|read(?:ing)?|bill)\s+(period|dates?|days|from|cycle)\b|\bservice\s+(from|dates?|period)\b|\bfor service\b|\bperiod\b|\bper[ií]odo\b|\bpériode\b|\bfacturaci[oó]n\b/iu;
 const OTHER_SERVICE = /\b(gas|water|sewer|trash|therms?|ccf|gallons?|gal)\b/i;
 const NOT_PERIOD = /\bdue\b|\bpay(ment)?\b|\bissued?\b|\bstatement date\b/i;
 const DAYS = /\(?\b(\d{1,3})\s*(?:billing\s+|service\s+)?days?\b\)?|\bdays(?:\s+(?:in|of)\s+(?:the\s+)?(?:billing\s+)?(?:period|cycle))?\s*:?\s*(\d{1,3})\b/i;
