@@ -8,10 +8,10 @@ import { whereOf, type Confidence, type Found } from "./types";
 
 const MONEY = /(?<![\d.,])(-?\$\s?-?\d{1,3}(?:,\d{3})*\.\d{2}|-?\$\s?\d+\.\d{2}|\d{1,3}(?:,\d{3})*\.\d{2}(?!\d))(\s*CR\b)?/g;
 const DUE =
-  /\b(total\s+)?amount\s+(now\s+)?due\b|\btotal\s+(amount\s+)?due\b|\bbalance\s+due\b|\bplease\s+pay\b|\bpay\s+this\s+amount\b|\bamount\s+(to\s+pay|owed|you\s+owe)\b|\btotal\s+to\s+pay\b|\bnow\s+due\b|\bdue\s+(by|on)\b|\bpay\s+by\b|\byou\s+owe\b|\bremit(tance)?\b|\b(amount|total)\s+payable\b|\bpayable\s+(now|by)\b/i;
+  /\b(total\s+)?amount\s+(now\s+)?due\b|\btotal\s+(amount\s+)?due\b|\bbalance\s+due\b|\bplease\s+pay\b|\bpay\s+this\s+amount\b|\bamount\s+(to\s+pay|owed|you\s+owe)\b|\btotal\s+to\s+pay\b|\bnow\s+due\b|\bdue\s+(by|on)\b|\bpay\s+by\b|\byou\s+owe\b|\bremit(tance)?\b|\b(amount|total)\s+payable\b|\bpayable\s+(now|by)\b|\b(total|importe|monto|cantidad|saldo)\s+a\s+pagar\b|\bmontant\s+(à|a)\s+payer\b/i;
 const MAYBE = /\bnew\s+balance\b|\btotal\s+(current\s+|new\s+)?charges\b|\btotal\s+bill\b|\baccount\s+balance\b|\bcurrent\s+bill\b|\bbalance\b|\btotal\b/i;
 const NOT_DUE =
-  /\b(previous|prior|last)\b|\bpayments?\b|\bpaid\b|\breceived\b|\bthank|\btax(es)?\b|\bbasic\b|\bcustomer\s+charge|\bservice\s+charge|\bfixed\b|\bfacilit|\bbudget\b|\blevel(ized)?\b|\baverage\b|\bpast\s+due\b|\blate\b|\bafter\b|\bcredit\b|\badjust|\bdeposit\b|\bfees?\b|\brider\b|\benergy\s+charge|\bdelivery\b|\bsupply\b|\bgenerat|\btransmission\b|\bdistribution\b|\brate\b|\bsubtotal\b|\bsub-total\b|\bdonat|\bround\s*up\b|\bsurcharge\b|\bmonthly\s+charge\b|\bminimum\b/i;
+  /\b(previous|prior|last)\b|\bpayments?\b|\bpaid\b|\breceived\b|\bthank|\btax(es)?\b|\bbasic\b|\bcustomer\s+charge|\bservice\s+charge|\bfixed\b|\bfacilit|\bbudget\b|\blevel(ized)?\b|\baverage\b|\bpast\s+due\b|\blate\b|\bafter\b|\bcredit\b|\badjust|\bdeposit\b|\bfees?\b|\brider\b|\benergy\s+charge|\bdelivery\b|\bsupply\b|\bgenerat|\btransmission\b|\bdistribution\b|\brate\b|\bsubtotal\b|\bsub-total\b|\bdonat|\bround\s*up\b|\bsurcharge\b|\bmonthly\s+charge\b|\bminimum\b|\banterior\b|\bpagos?\s+recibido|\bimpuestos?\b|\bcargo\s+(b[aá]sico|fijo)|\bvencid[oa]\b/i;
 
 type Candidate = {
   cents: number;

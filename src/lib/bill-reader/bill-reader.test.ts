@@ -286,6 +286,11 @@ describe("held-out set 6's misses, as families (each in a layout set 6 does not 
     expect(r.warnings.join(" ")).toMatch(/net-metering bill.*918 kWh delivered from the grid, not the net 516/);
     const table = read(["Meter   Register            kWh", "B-7     Imported            1,044", "B-7     Exported              610", "Net billed kWh  434"].join("\n"));
     expect(table.kwh?.value).toBe(1044);
+    // The history: the months' kWh from the grid, not the exported row; a history printing only net kWh gives the net.
+    const months = ["May", "Jun", "Jul", "Aug", "Sep", "Oct"];
+    const across = (rows: [string, number[]][]) => read(["Billing period 10/02/2026 - 10/31/2026", `             ${pad(months)}`, ...rows.map(([l, v]) => `${l.padEnd(13)}${pad(v)}`)].join("\n"));
+    expect(across([["Exported kWh", [300, 320, 330, 310, 250, 200]], ["Imported kWh", [610, 700, 820, 790, 640, 560]]]).history?.months.map((m) => m.kwh)).toEqual([610, 700, 820, 790, 640, 560]);
+    expect(across([["Net kWh", [310, 380, 490, 480, 390, 360]]]).history?.months.map((m) => m.kwh)).toEqual([310, 380, 490, 480, 390, 360]);
   });
 
   it("bilingual labels make the kWh a candidate: \"Energía usada / Energy used\", a \"Consumo / Usage\" column", () => {

@@ -13,6 +13,8 @@ type Row = {
   days: number | null;
   line: Line;
   cells: Cell[];
+  /** No heading placed the figures: the kWh was picked from several by their size. */
+  guessed?: boolean;
 };
 
 function cleanMonthLabel(t: string): MonthLabel | null {
@@ -69,8 +71,13 @@ const number = (c: Cell | undefined) => {
   const m = c ? digitsOf(c.text).match(NUM_CELL) : null;
   return m ? toNumber(m[1]) : null;
 };
-type Kind = "kwh" | "days" | "other";
+/** "net": a net-metering column or row (used when it is the only kWh the history prints). */
+type Kind = "kwh" | "days" | "net" | "other";
 function oneHeaderKind(t: string): Kind {
+  // Net metering: the month's use is what came from the grid, not what went to it or the net.
+  if (/received|exported|to\s+(the\s+)?grid|sent|returned|generat|excess/.test(t)) return "other";
+  if (/\bnet\b/.test(t)) return "net";
+  if (/delivered|imported|from\s+(the\s+)?grid|purchased/.test(t)) return "kwh";
   if (/avg|average|per\s+day|daily|temp|cost|\$|amount|charge|bill\b|degree|°|promedio|costo|cargo|importe|factura/.test(t)) return "other";
   if (/kwh|usage|use\b|used|consumption|energy|consumo|uso\b|energ[ií]a|consommation/.test(t)) return "kwh";
   if (/days?\b|d[ií]as\b|jours\b/.test(t)) return "days";
@@ -81,7 +88,7 @@ function headerKind(text: string): Kind {
   const t = text.toLowerCase();
   if (/(kwh|use|usage|consumo)\s*\/\s*(day|d[ií]a)/.test(t)) return "other";
   const kinds = t.split(/\s*\/\s*/).map(oneHeaderKind);
-  return kinds.includes("other") && kinds.length > 1 ? (kinds.find((k) => k !== "other") ?? "other") : kinds.includes("other") ? "other" : kinds[0];
+  return kinds.find((k) => k !== "other") ?? "other";
 }
 const nearest = (cells: Cell[], x: number, half: number) =>
   cells.reduce<Cell | null>((best, c) => (Math.abs(center(c) - x) < half && (!best || Math.abs(center(c) - x) < Math.abs(center(best) - x)) ? c : best), null);
@@ -103,6 +110,7 @@ function rowOf(line: Line, at: number, header: Line | null): Row | null {
   if (!rest.length) return null;
   let kwh: number | null = null;
   let days: number | null = null;
+  let net: number | null = null;
   if (header) {
     // As many headings right of the month's own as figures: they pair in order (a right-aligned
     // figure may sit nearer the next column's centred heading); else the nearest heading.
@@ -113,16 +121,20 @@ function rowOf(line: Line, at: number, header: Line | null): Row | null {
       const kind = h ? headerKind(h.text) : "other";
       if (kind === "kwh" && kwh === null) kwh = number(c);
       if (kind === "days" && days === null) days = number(c);
+      if (kind === "net" && net === null) net = number(c);
     }
   }
+  kwh ??= net;
+  let guessed = false;
   if (kwh === null) {
     const tagged = rest.find((c) => /kwh$/i.test(c.text) && number(c) !== null);
     const nums = rest.filter((c) => !c.text.includes("$") && number(c) !== null && !/\./.test(c.text));
     if (tagged) kwh = number(tagged);
     else if (nums.length >= 2 && number(nums[0])! >= 20 && number(nums[0])! <= 40) [days, kwh] = [number(nums[0]), number(nums[1])];
     else if (nums.length) kwh = number(nums[0]);
+    guessed = !tagged && nums.length >= 2;
   }
-  return kwh === null ? null : { label, kwh, days, line, cells: [first, ...rest] };
+  return kwh === null ? null : { label, kwh, days, line, cells: [first, ...rest], guessed };
 }
 
 function headerAbove(lines: Line[], i: number): Line | null {
@@ -149,7 +161,9 @@ function tableRows(lines: Line[]): { rows: Row[]; header: Line | null }[] {
       if (!rowOf(line, at, null)) return;
       // The next row of a table: close below, or further when the lines between are beside the
       // table (charges that wrap), none of them reaching into the table's columns.
-      const xEnd = line.cells.at(-1)!.xEnd;
+      // The row's own extent: its month and the figures that follow it (text further right is beside it).
+      const run = line.cells.slice(at + 1).findIndex((c) => number(c) === null);
+      const xEnd = line.cells[run < 0 ? line.cells.length - 1 : at + run].xEnd;
       const beside = (from: number) => lines.slice(from + 1, i).every((l) => l.cells.every((c) => c.xEnd < cell.x - 4 || c.x > xEnd + 4));
       const near = (b: Block) => i - b.last <= 2 || (i - b.last <= 6 && beside(b.last));
       const open = blocks.find((b) => b.page === line.page && near(b) && Math.abs(b.x - cell.x) < 8);
@@ -303,6 +317,7 @@ function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[
     chart: false,
   };
   const valuesOf = (l: Line) => cells.map((m) => number(nearest(l.cells, center(m), half) ?? undefined));
+  let net: { values: (number | null)[]; line: Line } | null = null;
   for (let k = i + 1; k < Math.min(lines.length, i + 6) && lines[k].page === line.page && !monthCells(lines[k]); k++) {
     const labelCell = lines[k].cells.find((c) => center(c) < center(cells[0]) - half);
     const values = valuesOf(lines[k]);
@@ -310,7 +325,10 @@ function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[
     const kind = headerKind(labelCell.text);
     if (kind === "kwh" && block.kwh.every((v) => v === null)) [block.kwh, block.lines] = [values, [...block.lines, lines[k]]];
     if (kind === "days" && block.days.every((v) => v === null)) [block.days, block.lines] = [values, [...block.lines, lines[k]]];
+    if (kind === "net" && !net) net = { values, line: lines[k] };
   }
+  // A history that prints only net kWh: the net is what it gives.
+  if (net && block.kwh.every((v) => v === null)) [block.kwh, block.lines] = [net.values, [...block.lines, net.line]];
   if (block.kwh.some((v) => v !== null)) return block;
   if (unlabelledRowsBelow(lines, i, block, valuesOf)) return block;
   // A bar chart: each month's value is the nearest number above its label, in its column.
@@ -359,6 +377,7 @@ export type HistoryRead = {
 };
 
 const NOISY = "its label was read past OCR noise";
+const NO_YEAR = "no year is printed, so its year is a guess";
 
 const monthNumber = (ym: string) => Number(ym.slice(0, 4)) * 12 + Number(ym.slice(5, 7));
 
@@ -433,7 +452,7 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
       const month = range ? periodMonth(range.start, range.end) : printed?.[k];
       if (!month) return null;
       const days = r.days ?? (range ? dayNumber(range.end) - dayNumber(range.start) : null);
-      const [confidence, note] = labels[k]?.noisy ? (["low", NOISY] as const) : headed.has(r) ? (["high", undefined] as const) : (["medium", "no column heading names the kWh"] as const);
+      const [confidence, note] = labels[k]?.noisy ? (["low", NOISY] as const) : labels[k] && !printed ? (["medium", NO_YEAR] as const) : r.guessed && !headed.has(r) ? (["medium", "no column heading says which figure is the kWh"] as const) : (["high", undefined] as const);
       return { month, kwh: r.kwh, days, start: range?.start ?? null, end: range?.end ?? null, where: whereOf(r.line), confidence, note };
     });
     return finish(
@@ -467,7 +486,8 @@ export function readHistory(lines: Line[], anchorMonth: string | null): HistoryR
       k++;
       const kwh = b.kwh[j];
       if (kwh === null || !month) return;
-      const [confidence, note] = label.noisy ? (["low", NOISY] as const) : !years || b.chart || b.unlabelled ? (["medium", !years ? "no year is printed" : b.chart ? "read from a chart's labels" : "its row of figures has no label"] as const) : (["high", undefined] as const);
+      // Per month: what makes this month's figure doubtful (the layout's own doubt is the history's confidence).
+      const [confidence, note] = label.noisy ? (["low", NOISY] as const) : !years ? (["medium", NO_YEAR] as const) : (["high", undefined] as const);
       const entry: HistoryMonth = { month, kwh, days: b.days[j], start: null, end: null, where: whereOf(b.lines[1] ?? b.lines[0]), confidence, note };
       entries.push(entry);
       if (label.noisy) noisy.add(entry);

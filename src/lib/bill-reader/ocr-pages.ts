@@ -222,11 +222,14 @@ export async function ocrScannedPdf(bytes: Uint8Array, opts: OcrOptions = {}): P
 }
 
 /** How much of a bill a reading holds: the current fields and the history's months. */
+/** Fields found, each history month counted only when the reader is not unsure of it (a doubtful month is half a month). */
 function filled(r: BillReading): number {
-  return [r.period, r.kwh, r.amountDue].filter(Boolean).length + (r.history?.months.length ?? 0);
+  const months = r.history?.months ?? [];
+  return [r.period, r.kwh, r.amountDue].filter(Boolean).length + months.filter((m) => m.confidence === "high").length + months.filter((m) => m.confidence !== "high").length / 2;
 }
 
-const complete = (r: BillReading) => Boolean(r.period && r.kwh && r.amountDue && (r.history?.months.length ?? 0) >= 12);
+/** Nothing missing and no history month in doubt: no further reading can do better. */
+const complete = (r: BillReading) => Boolean(r.period && r.kwh && r.amountDue && (r.history?.months.length ?? 0) >= 12 && r.history?.months.every((m) => m.confidence === "high"));
 
 /**
  * A photo or a scanned PDF read by OCR and then by the bill reader. When a reading misses a field
