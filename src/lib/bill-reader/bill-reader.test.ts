@@ -210,6 +210,21 @@ describe("the usage history from OCR'd text", () => {
     expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [`${i < 3 ? 2024 : 2025}-${String(((9 + i) % 12) + 1).padStart(2, "0")}`, k]));
   });
 
+  it("a row that lost a figure, under headings that lost one: each figure stays in its column", () => {
+    const names = ["Dec 2024", "Jan 2025", "Feb 2025", "Mar 2025", "Apr 2025", "May 2025", "Jun 2025", "Jul 2025", "Aug 2025", "Sep 2025", "Oct 2025", "Nov 2025"];
+    // The "Avg/day" heading was not read; May's days figure was not read either.
+    const rows = names.map((m, i) => row([[6, m], ...(i === 5 ? [] : ([[22, "30"]] as [number, string][])), [32, String(kwh[i])], [44, (kwh[i] / 30).toFixed(1)]]));
+    const r = read([row([[6, "Month"], [22, "Days"], [32, "kWh"]]), ...rows].join("\n"));
+    expect(r.history?.months.map((m) => m.kwh)).toEqual(kwh);
+  });
+
+  it("a month name OCR broke with a space is read, as a noisy label", () => {
+    const names = ["December 2024", "J anuary 2025", "February 2025", "March 2025", "Apr il 2025", "May 2025", "June 2025", "July 2025", "August 2025", "Sep tember 2025", "October 2025", "November 2025"];
+    const r = read(["Month             kWh", ...names.map((l, i) => `${l}      ${kwh[i]}`)].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [ym(i), k]));
+    expect(r.history?.months[1]).toMatchObject({ confidence: "low", note: expect.stringMatching(/OCR noise/) });
+  });
+
   it("a noisy label that breaks the run of months is dropped, not guessed", () => {
     const labels = ["12/2024", "01/2025", "02/2025", "0772024", "04/2025", "05/2025", "06/2025", "07/2025", "08/2025", "09/2025", "10/2025", "11/2025"];
     const r = read(["Month        kWh", ...labels.map((l, i) => `${l}      ${kwh[i]}`)].join("\n"));

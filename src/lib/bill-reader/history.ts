@@ -49,7 +49,8 @@ function noisyMonthLabel(text: string): MonthLabel | null {
     .replace(/[‘`´]/g, "'")
     .replace(/^[^A-Za-z\d']+|[^A-Za-z\d]+$/g, "")
     .replace(/^(\S{3,}) \S$/, "$1");
-  const clean = cleanMonthLabel(t);
+  // A month name OCR broke with a space ("J anuary 2025", "Sep tember").
+  const clean = cleanMonthLabel(t) ?? cleanMonthLabel(t.replace(/^(\p{L}{1,4}) (\p{L}{2,})/u, "$1$2"));
   if (clean) return { ...clean, noisy: true };
   // Slash lost ("112025": 11/2025) before slash misread ("172025": 1/2025).
   const m = t.match(/^(0[1-9]|1[0-2])(20\d{2})$/) ?? t.match(/^(\d{1,2}?)[71lI|\\/](20\d{2})$/);
@@ -95,6 +96,44 @@ const nearest = (cells: Cell[], x: number, half: number) =>
 
 // ── Rows: one month per line ────────────────────────────────────────────────────────────────
 
+/**
+ * Each figure's column heading: figures and headings are paired in their left-to-right order, at
+ * the least total distance between centres, a figure may have no heading (OCR lost it: it costs
+ * half a column) and no pair may be more than a column apart. A right-aligned figure can sit
+ * nearer the next column's centred heading than its own; order keeps it in its column, and a lost
+ * heading or figure does not shift the others.
+ */
+function pairWithHeadings(figures: Cell[], headings: Cell[]): (Cell | null)[] {
+  const hc = headings.map(center);
+  const gaps = hc.slice(1).map((c, i) => c - hc[i]).sort((a, b) => a - b);
+  const column = gaps.length ? gaps[Math.floor(gaps.length / 2)] : 60;
+  const skip = Math.max(20, column / 2);
+  const [n, m] = [figures.length, headings.length];
+  // best[i][j]: the least cost of placing the first i figures against the first j headings.
+  const best = Array.from({ length: n + 1 }, () => new Array<number>(m + 1).fill(Infinity));
+  const how = Array.from({ length: n + 1 }, () => new Array<"pair" | "figure" | "heading">(m + 1));
+  best[0][0] = 0;
+  for (let i = 0; i <= n; i++)
+    for (let j = 0; j <= m; j++) {
+      if (i === 0 && j === 0) continue;
+      const d = i && j ? Math.abs(center(figures[i - 1]) - hc[j - 1]) : Infinity;
+      const options: [number, "pair" | "figure" | "heading"][] = [
+        [i && j && d <= column ? best[i - 1][j - 1] + d : Infinity, "pair"],
+        [i ? best[i - 1][j] + skip : Infinity, "figure"],
+        [j ? best[i][j - 1] : Infinity, "heading"],
+      ];
+      [best[i][j], how[i][j]] = options.reduce((a, b) => (b[0] < a[0] ? b : a));
+    }
+  const out: (Cell | null)[] = new Array(n).fill(null);
+  for (let [i, j] = [n, m]; i > 0 || j > 0; ) {
+    const step = how[i][j];
+    if (step === "pair") out[--i] = headings[--j];
+    else if (step === "figure") i--;
+    else j--;
+  }
+  return out;
+}
+
 /** A row starting at cell `at`: a month label (or a date range at the line's start) and the figures right of it. */
 function rowOf(line: Line, at: number, header: Line | null): Row | null {
   const first = line.cells[at];
@@ -112,12 +151,10 @@ function rowOf(line: Line, at: number, header: Line | null): Row | null {
   let days: number | null = null;
   let net: number | null = null;
   if (header) {
-    // As many headings right of the month's own as figures: they pair in order (a right-aligned
-    // figure may sit nearer the next column's centred heading); else the nearest heading.
     const own = nearest(header.cells, center(first), 80);
-    const after = own ? header.cells.filter((h) => h.x > own.x) : [];
+    const headings = pairWithHeadings(rest, own ? header.cells.filter((h) => h.x > own.x) : header.cells);
     for (const [k, c] of rest.entries()) {
-      const h = after.length === rest.length ? after[k] : nearest(header.cells, center(c), 60);
+      const h = headings[k];
       const kind = h ? headerKind(h.text) : "other";
       if (kind === "kwh" && kwh === null) kwh = number(c);
       if (kind === "days" && days === null) days = number(c);
