@@ -4,58 +4,28 @@
  * geometry than the pdf-lib corpus), two of them also as scans (a page rasterised by poppler's
  * pdftoppm, wrapped back into an image-only PDF with pdf-lib) and two as photos (turned 2.6° and
  * −3.4°, blurred, unevenly lit, JPEG: harsher than scripts/make-bill-photos.ts). Each file gets
- * the expected JSON a person would read off the page. Layouts: scripts/lib/bill-set-5/bills.ts.
+ * the expected JSON a person would read off the page. Layouts: scripts/lib/bill-set-5/bills.ts;
+ * mechanics: scripts/lib/bill-print.ts.
  *
  *   npx tsx scripts/make-bill-set-5.ts
  */
-import { execFileSync } from "node:child_process";
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { chromium } from "playwright";
 import { PDFDocument } from "pdf-lib";
 import sharp from "sharp";
-import { BILLS, html, PHOTOS, SCANS, type Expected } from "./lib/bill-set-5/bills";
+import { linearLight, photograph, printBills, renderPage, writeExpected } from "./lib/bill-print";
+import { BILLS, html, PHOTOS, SCANS } from "./lib/bill-set-5/bills";
 
 const out = path.resolve("tests/fixtures/bills/held-out-5");
 mkdirSync(out, { recursive: true });
-const writeJson = (name: string, e: Expected) => writeFileSync(path.join(out, `${name}.json`), JSON.stringify(e, null, 2) + "\n");
-
-// Same launch flags as tests/playwright.config.ts: Debian's chromium, off the network.
-const browser = await chromium.launch({
-  executablePath: "/usr/bin/chromium",
-  args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
-});
-const expectedOf = new Map<string, Expected>();
-try {
-  const page = await browser.newPage();
-  for (const make of BILLS) {
-    const bill = make();
-    await page.setContent(html(bill), { waitUntil: "load" });
-    const pdf = await page.pdf({ format: "Letter", printBackground: true, preferCSSPageSize: true });
-    writeFileSync(path.join(out, `${bill.name}.pdf`), pdf);
-    writeJson(bill.name, bill.expected);
-    expectedOf.set(bill.name, bill.expected);
-  }
-} finally {
-  await browser.close();
-}
+const writeJson = (name: string, e: Parameters<typeof writeExpected>[2]) => writeExpected(out, name, e);
+const expectedOf = await printBills(out, BILLS.map((make) => make()), html);
 
 const tmp = mkdtempSync(path.join(tmpdir(), "bill-set-5-"));
-function render(bill: string, dpi: number): Buffer {
-  const prefix = path.join(tmp, `${bill}-${dpi}`);
-  execFileSync("pdftoppm", ["-r", String(dpi), "-png", "-f", "1", "-l", "1", "-singlefile", path.join(out, `${bill}.pdf`), prefix]);
-  return readFileSync(`${prefix}.png`);
-}
+const render = (bill: string, dpi: number) => renderPage(path.join(out, `${bill}.pdf`), 1, dpi, tmp);
 /** Light falling off from the top right corner to the bottom left, a little warm. */
-function shadeSvg(width: number, height: number, shade: number): Buffer {
-  const dark = Math.round(255 * (1 - shade));
-  return Buffer.from(
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}"><defs><linearGradient id="g" x1="1" y1="0" x2="0" y2="1">` +
-      `<stop offset="0" stop-color="rgb(255,248,232)"/><stop offset="0.55" stop-color="rgb(225,220,205)"/><stop offset="1" stop-color="rgb(${dark},${dark},${Math.round(dark * 0.9)})"/></linearGradient></defs>` +
-      `<rect width="100%" height="100%" fill="url(#g)"/></svg>`,
-  );
-}
+const light = linearLight({ from: [1, 0], to: [0, 1], bright: "rgb(255,248,232)", middle: [0.55, "rgb(225,220,205)"], tint: [1, 1, 0.9] });
 try {
   for (const s of SCANS) {
     const png = await sharp(render(s.bill, s.dpi)).greyscale().png().toBuffer();
@@ -66,11 +36,7 @@ try {
     writeJson(s.name, { ...expectedOf.get(s.bill)!, source: "ocr" });
   }
   for (const p of PHOTOS) {
-    const page = render(p.bill, 150);
-    const { width = 0, height = 0 } = await sharp(page).metadata();
-    const lit = await sharp(page).composite([{ input: shadeSvg(width, height, p.shade), blend: "multiply" }]).png().toBuffer();
-    const jpeg = await sharp(lit).rotate(p.angle, { background: "#5e5a55" }).blur(p.blur).jpeg({ quality: 78 }).toBuffer();
-    writeFileSync(path.join(out, `${p.name}.jpg`), jpeg);
+    writeFileSync(path.join(out, `${p.name}.jpg`), await photograph(render(p.bill, 150), { ...p, light, background: "#5e5a55", quality: 78 }));
     writeJson(p.name, { ...expectedOf.get(p.bill)!, source: "ocr" });
   }
 } finally {

@@ -13,11 +13,11 @@ export type Expected = {
 };
 export type Bill = { name: string; pages: string[]; css: string; expected: Expected };
 
-const MON = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+export const MON = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
 const FULL = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
 
 /** n months from "YYYY-MM" on. */
-function months(from: string, n: number): string[] {
+export function months(from: string, n: number): string[] {
   const [y, m] = from.split("-").map(Number);
   return Array.from({ length: n }, (_, i) => {
     const t = y * 12 + (m - 1) + i;
@@ -26,9 +26,9 @@ function months(from: string, n: number): string[] {
 }
 const mon = (ym: string) => MON[Number(ym.slice(5)) - 1];
 const yy = (ym: string) => ym.slice(2, 4);
-const n = (v: number) => v.toLocaleString("en-US");
-const hist = (ms: string[], kwh: number[]) => ms.map((month, i) => ({ month, kwh: kwh[i] }));
-const expected = (start: string, end: string, kwh: number, cents: number, history: Expected["history"]): Expected => ({
+export const n = (v: number) => v.toLocaleString("en-US");
+export const hist = (ms: string[], kwh: number[]) => ms.map((month, i) => ({ month, kwh: kwh[i] }));
+export const expected = (start: string, end: string, kwh: number, cents: number, history: Expected["history"]): Expected => ({
   current: { start, end, kwh, amountDueCents: cents },
   history,
   source: "text",

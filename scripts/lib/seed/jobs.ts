@@ -1,7 +1,8 @@
 // Demo jobs: two invented crews (Crew North with crew@, Crew South with crew2@), the company's
 // install checklist, and a job for every deal from "deposit paid" on, with dates that match its
 // stage relative to today in the company's time zone: Crew North installs at the Iwasaki house
-// today and surveys the Galloway house this week; Crew South inspects at the Jablonski house
+// today and surveyed the Galloway house 19 days ago (the deal has waited in Survey since, for its
+// permit to be filed: the Board flags it as stalled); Crew South inspects at the Jablonski house
 // this week. One job photo (a generated JPEG) and one rep's site photo live in seed storage.
 import { createHash, randomBytes } from "node:crypto";
 import { and, desc, eq } from "drizzle-orm";
@@ -63,7 +64,7 @@ type DemoJob = {
 // Deal indexes follow seed-demo.ts HOUSEHOLDS: 5 deposit paid … 11 live.
 const JOBS: DemoJob[] = [
   { key: "fairweather", dealIndex: 5, crew: null, ticked: 0, fields: {} },
-  { key: "galloway", dealIndex: 6, crew: "north", ticked: 0, fields: { surveyDate: day(2), notes: "Dog in the back yard; use the side gate. Attic access is in the garage." } },
+  { key: "galloway", dealIndex: 6, crew: "north", ticked: 0, fields: { surveyDate: day(-19), surveyDoneOn: day(-19), notes: "Dog in the back yard; use the side gate. Attic access is in the garage." } },
   {
     key: "halvorsen",
     dealIndex: 7,
