@@ -334,3 +334,19 @@ describe("held-out set 6's misses, as families (each in a layout set 6 does not 
     expect(r.warnings.join(" ")).toMatch(/not sure of 1 of the history's months \(2025-05\)/);
   });
 });
+
+describe("held-out set 7's history families", () => {
+  const kwh = [812, 905, 1020, 990, 870, 760, 700, 810, 930, 1010, 960, 840];
+  const pad = (xs: (string | number)[], w = 8) => xs.map((x) => String(x).padStart(w)).join("");
+  const names = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+
+  it("a year × month grid: a row per year, dashes where the bill has no month", () => {
+    const r = read(["Billing period 05/02/2026 - 06/01/2026", `${" ".repeat(6)}${pad(names)}`, `2025  ${pad(["—", "—", "—", "—", "—", ...kwh.slice(0, 7)])}`, `2026  ${pad([...kwh.slice(7), "—", "—", "—", "—", "—", "—", "—"])}`].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [i < 7 ? `2025-${String(i + 6).padStart(2, "0")}` : `2026-0${i - 6}`, k]));
+  });
+
+  it("a row of years under the months, and the kWh row's label printed over two lines around its figures", () => {
+    const r = read([`${" ".repeat(10)}${pad(names)}`, `${" ".repeat(10)}${pad(names.map(() => "'26"))}`, "Electric", `${" ".repeat(10)}${pad(kwh)}`, "kWh", `Water     ${pad(names.map(() => "4.2"))}`].join("\n"));
+    expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [`2026-${String(i + 1).padStart(2, "0")}`, k]));
+  });
+});

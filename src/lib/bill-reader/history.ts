@@ -341,6 +341,55 @@ function unlabelledRowsBelow(lines: Line[], i: number, block: Across, valuesOf: 
   return true;
 }
 
+/** A year on its own: "'25" (a bare two-digit figure is a day count, not a year) or "2025". */
+const YEAR_TOKEN = /^(?:['’‘](\d{2})|(20\d{2}))$/;
+const yearOf = (t: string) => {
+  const m = t.trim().match(YEAR_TOKEN);
+  return m ? (m[1] ? 2000 + Number(m[1]) : Number(m[2])) : null;
+};
+
+/** A row of years right under the months ("'25 '25 '26 …"): each month takes its year; the scan goes on below it. */
+function withYearRow(lines: Line[], i: number, block: Across, half: number): number {
+  const next = lines[i + 1];
+  if (!next || next.page !== lines[i].page || !next.cells.every((c) => yearOf(c.text) !== null)) return i + 1;
+  const years = block.cells.map((m) => nearest(next.cells, center(m), half)).map((c) => (c ? yearOf(c.text) : null));
+  if (years.filter((y) => y !== null).length < block.cells.length * 0.6) return i + 1;
+  block.months = block.months.map((l, j) => (years[j] !== null ? { ...l, year: years[j] } : l));
+  block.lines.push(next);
+  return i + 2;
+}
+
+/** A row label printed over two lines around its figures ("Electric" above, "kWh" below): the words left of the months on the lines next to it that hold no figures. */
+function splitLabel(lines: Line[], k: number, left: number): string | null {
+  const words = [lines[k - 1], lines[k + 1]]
+    .filter((l) => l && l.page === lines[k].page && l.cells.every((c) => number(c) === null))
+    .flatMap((l) => l.cells.filter((c) => center(c) < left).map((c) => c.text));
+  return words.length ? words.join(" ") : null;
+}
+
+/**
+ * A year × month grid: the months across once, then a row per year ("2025  —  —  …  802  640")
+ * with a dash where the bill has no month. Each figure is the month of its column in its row's year.
+ */
+function yearGrid(lines: Line[], i: number, block: Across, half: number): Across | null {
+  const out: Across = { ...block, months: [], cells: [], kwh: [], days: [], lines: [lines[i]] };
+  for (let k = i + 1; k < Math.min(lines.length, i + 4) && lines[k].page === lines[i].page; k++) {
+    const label = lines[k].cells[0];
+    const year = label && center(label) < center(block.cells[0]) - half && /^20\d{2}$/.test(label.text.trim()) ? Number(label.text.trim()) : null;
+    if (year === null) break;
+    block.cells.forEach((m, j) => {
+      const v = number(nearest(lines[k].cells.slice(1), center(m), half) ?? undefined);
+      if (v === null) return;
+      out.months.push({ month: block.months[j].month, year });
+      out.cells.push(m);
+      out.kwh.push(v);
+      out.days.push(null);
+    });
+    out.lines.push(lines[k]);
+  }
+  return out.lines.length >= 2 && out.kwh.length >= 6 ? out : null;
+}
+
 function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[]; labels: MonthLabel[] }): Across {
   const line = lines[i];
   const spacing = (center(cells.at(-1)!) - center(cells[0])) / (cells.length - 1);
@@ -355,11 +404,16 @@ function acrossBlock(lines: Line[], i: number, { cells, labels }: { cells: Cell[
   };
   const valuesOf = (l: Line) => cells.map((m) => number(nearest(l.cells, center(m), half) ?? undefined));
   let net: { values: (number | null)[]; line: Line } | null = null;
-  for (let k = i + 1; k < Math.min(lines.length, i + 6) && lines[k].page === line.page && !monthCells(lines[k]); k++) {
+  const grid = yearGrid(lines, i, block, half);
+  if (grid) return grid;
+  const from = withYearRow(lines, i, block, half);
+  for (let k = from; k < Math.min(lines.length, from + 6) && lines[k].page === line.page && !monthCells(lines[k]); k++) {
     const labelCell = lines[k].cells.find((c) => center(c) < center(cells[0]) - half);
     const values = valuesOf(lines[k]);
-    if (!labelCell || values.filter((v) => v !== null).length < cells.length * 0.6) continue;
-    const kind = headerKind(labelCell.text);
+    if (values.filter((v) => v !== null).length < cells.length * 0.6) continue;
+    const label = labelCell?.text ?? splitLabel(lines, k, center(cells[0]) - half);
+    if (!label) continue;
+    const kind = headerKind(label);
     if (kind === "kwh" && block.kwh.every((v) => v === null)) [block.kwh, block.lines] = [values, [...block.lines, lines[k]]];
     if (kind === "days" && block.days.every((v) => v === null)) [block.days, block.lines] = [values, [...block.lines, lines[k]]];
     if (kind === "net" && !net) net = { values, line: lines[k] };
