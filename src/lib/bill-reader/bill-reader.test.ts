@@ -349,4 +349,10 @@ describe("held-out set 7's history families", () => {
     const r = read([`${" ".repeat(10)}${pad(names)}`, `${" ".repeat(10)}${pad(names.map(() => "'26"))}`, "Electric", `${" ".repeat(10)}${pad(kwh)}`, "kWh", `Water     ${pad(names.map(() => "4.2"))}`].join("\n"));
     expect(r.history?.months.map((m) => [m.month, m.kwh])).toEqual(kwh.map((k, i) => [`2026-${String(i + 1).padStart(2, "0")}`, k]));
   });
+
+  it("a period printed without a year takes the year of the bill's date (over New Year too), not certain", () => {
+    expect(read("Bill date March 3, 2027\nService: Feb 1 - Mar 2 (29 days)").period).toMatchObject({ start: { value: "2027-02-01", confidence: "medium" }, end: { value: "2027-03-02" } });
+    expect(read("Statement date 01/12/2027\nBilling period Dec 9 to Jan 8").period).toMatchObject({ start: { value: "2026-12-09" }, end: { value: "2027-01-08" } });
+    expect(read("Statement date 01/12/2027\nDue by Jan 28 - Feb 2").period).toBeNull();
+  });
 });

@@ -1,7 +1,7 @@
 // The current billing period: a printed range ("10/28/2025 - 11/25/2025", "Oct 28, 2025 to
 // Nov 25, 2025", "Service from 09/14/25 through 10/13/25") or the previous and current
 // meter-read dates, with or without the days ("(29 days)").
-import { dayNumber, findDates, type FoundDate } from "./dates";
+import { dayNumber, findDates, monthIndex, type FoundDate } from "./dates";
 import { center, type Line } from "./layout";
 import { whereOf, type BillReading, type Confidence } from "./types";
 
@@ -128,8 +128,34 @@ function readDates(lines: Line[]): Candidate[] {
 }
 
 /** The current period: the best-labelled range, the newest one on a tie (from lines without the usage history). */
+const NO_YEAR_RANGE = new RegExp(String.raw`\b(?<m1>[A-Za-z]{3,9})\.? (?<d1>\d{1,2})\s*(?:-|–|—|to|through|thru)\s*(?<m2>[A-Za-z]{3,9})\.? (?<d2>\d{1,2})\b(?!\s*,?\s*\d{4})`, "i");
+
+/**
+ * A labelled period printed without a year ("SERVICE SEP 24 – OCT 23 (29 DAYS)"): the year is the
+ * one that puts its end on or before the bill's latest full date (the bill date), the start a
+ * year earlier when its month comes later (over New Year). Only when no dated period is printed.
+ */
+function yearlessPeriod(lines: Line[]): Candidate | null {
+  const latest = lines.flatMap((l) => findDates(l.text).map((d) => d.iso)).sort().at(-1);
+  if (!latest) return null;
+  for (const line of lines) {
+    const m = PERIOD_LABEL.test(line.text) || /\bservice\b/i.test(line.text) ? line.text.match(NO_YEAR_RANGE) : null;
+    if (!m?.groups || NOT_PERIOD.test(line.text.slice(0, m.index))) continue;
+    const [m1, m2] = [monthIndex(m.groups.m1), monthIndex(m.groups.m2)];
+    if (m1 < 0 || m2 < 0) continue;
+    const y = Number(latest.slice(0, 4));
+    const endYear = `${y}-${String(m2 + 1).padStart(2, "0")}-${m.groups.d2.padStart(2, "0")}` <= latest ? y : y - 1;
+    const start = `${m1 > m2 ? endYear - 1 : endYear}-${String(m1 + 1).padStart(2, "0")}-${m.groups.d1.padStart(2, "0")}`;
+    const end = `${endYear}-${String(m2 + 1).padStart(2, "0")}-${m.groups.d2.padStart(2, "0")}`;
+    if (dayNumber(end) - dayNumber(start) > 10 && dayNumber(end) - dayNumber(start) < 70) return { start, end, line, score: 2, days: printedDays(line.text) };
+  }
+  return null;
+}
+
 export function readPeriod(lines: Line[]): BillReading["period"] {
   const candidates = [...lines.flatMap((l, i) => rangesOnLine(l, lines[i - 1])), ...readDates(lines)];
+  const yearless = candidates.length ? null : yearlessPeriod(lines);
+  if (yearless) candidates.push(yearless);
   if (!candidates.length) return null;
   candidates.sort((a, b) => b.score - a.score || (b.end > a.end ? 1 : b.end < a.end ? -1 : 0));
   const best = candidates[0];
