@@ -27,20 +27,28 @@ function cents(token: string, credit: boolean): number {
 }
 
 function scoreLabel(label: string): number {
-  if (DUE.test(label)) return NOT_DUE.test(label) ? -3 : 5;
+  // On budget billing the budget amount is what is due: "Your budget amount due" names it.
+  if (DUE.test(label)) return NOT_DUE.test(label.replace(/\bbudget\b/gi, "")) ? -3 : 5;
   if (NOT_DUE.test(label)) return -3;
   if (MAYBE.test(label)) return 2;
   return 0;
 }
 
 /** The label above a value in a box or a column ("AMOUNT DUE" over "$142.91"). */
+/** A due date printed under the label ("BY NOV 22, 2026"): the label is the line above it. */
+const BY_DATE = /^(by|before|on)\s+\S.*\d/i;
+
 function labelAbove(lines: Line[], i: number, x: number): string {
-  for (let k = i - 1; k >= Math.max(0, i - 2) && lines[k].page === lines[i].page; k--) {
+  let below = "";
+  for (let k = i - 1; k >= Math.max(0, i - 3) && lines[k].page === lines[i].page; k--) {
     const cell = lines[k].cells.find((c) => Math.abs(center(c) - x) < Math.max(50, (c.xEnd - c.x) / 2 + 10));
-    if (cell && !MONEY.test(cell.text)) return cell.text;
+    const money = cell ? MONEY.test(cell.text) : false;
     MONEY.lastIndex = 0;
+    if (cell && !money && BY_DATE.test(cell.text) && !below) below = cell.text;
+    else if (cell && !money) return below ? `${cell.text} ${below}` : cell.text;
+    else if (!below && k < i - 1) break;
   }
-  return "";
+  return below;
 }
 
 function lineCandidates(lines: Line[], i: number): Candidate[] {

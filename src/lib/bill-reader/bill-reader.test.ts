@@ -108,6 +108,11 @@ describe("the amount due", () => {
     expect(current("Current Charges  118.24").amountDueCents).toBeNull();
   });
 
+  it("budget billing: \"Your budget amount due\" over a due date over the figure is the amount due; the actual charges are not", () => {
+    const bill = ["Previous balance                              $118.00", "                            YOUR BUDGET AMOUNT DUE", "                            BY NOV 22, 2026", "ACTUAL CHARGES", "Basic charge        $11.25  $118.00", "Actual charges  $110.61"].join("\n");
+    expect(read(bill).amountDue?.value).toBe(11800);
+  });
+
   it("two labelled amounts that differ: both shown, the reader not certain", () => {
     const r = read("Amount due  $142.91\nTotal amount due  $150.12");
     expect(r.amountDue?.confidence).not.toBe("high");
