@@ -45,6 +45,11 @@ describe("the current period", () => {
     expect([r.period?.start.value, r.period?.end.value]).toEqual(["2025-09-02", "2025-10-01"]);
   });
 
+  it("read dates in a meter table whose headings wrap over two lines and whose meter number wraps above the row", () => {
+    const table = ["          Previous read   Present read", "Meter                                        kWh", "          date            date", "W-", "          09/14/2026      10/14/2026         1,349", "31177"].join("\n");
+    expect(current(table)).toMatchObject({ start: "2026-09-14", end: "2026-10-14" });
+  });
+
   it("a due date or a payment date range is not the period", () => {
     const r = read("Payment due  12/01/2025 - 12/15/2025\nService period  10/28/2025 - 11/25/2025");
     expect(r.period?.start.value).toBe("2025-10-28");

@@ -94,7 +94,9 @@ function dateNear(lines: Line[], at: number, label: RegExp): { date: FoundDate; 
     if (inCell.length) return { date: inCell[0], line };
     const next = cells[c + 1] ? findDates(cells[c + 1].text) : [];
     if (next.length && !label.test(cells[c + 1].text)) return { date: next[0], line };
-    for (let k = at + 1; k < Math.min(lines.length, at + 4) && lines[k].page === line.page; k++) {
+    // Up to four lines down: a heading wrapped over two lines ("Previous read" / "date") and a
+    // meter number wrapped above its row ("W-" / "31177") both push the row down.
+    for (let k = at + 1; k < Math.min(lines.length, at + 5) && lines[k].page === line.page; k++) {
       const below = lines[k].cells.find((x) => Math.abs(center(x) - center(cells[c])) < Math.max(40, (cells[c].xEnd - cells[c].x) / 2 + 10));
       const found = below ? findDates(below.text) : [];
       if (found.length) return { date: found[0], line: lines[k] };
