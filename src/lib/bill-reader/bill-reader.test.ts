@@ -50,6 +50,12 @@ describe("the current period", () => {
     expect(current(table)).toMatchObject({ start: "2026-09-14", end: "2026-10-14" });
   });
 
+  it("ordinal dates, in a paragraph that wraps inside its column", () => {
+    const text = ["Customer", "Bart Achterberg   Service from September 9th, 2026 to October 8th,", "Oct 2025", "Account 2011      2026 — 29 days"].join("\n");
+    expect(current(text)).toMatchObject({ start: "2026-09-09", end: "2026-10-08" });
+    expect(current("Billing period 2nd Nov 2026 - 1st Dec 2026")).toMatchObject({ start: "2026-11-02", end: "2026-12-01" });
+  });
+
   it("a due date or a payment date range is not the period", () => {
     const r = read("Payment due  12/01/2025 - 12/15/2025\nService period  10/28/2025 - 11/25/2025");
     expect(r.period?.start.value).toBe("2025-10-28");

@@ -53,8 +53,9 @@ const DATE_FORMS = [
   String.raw`(?<n1>\d{1,2})/(?<n2>\d{1,2})/(?<n3>\d{4}|\d{2})(?!\d)`,
   String.raw`(?<i1>\d{4})-(?<i2>\d{2})-(?<i3>\d{2})`,
   String.raw`(?<h1>\d{1,2})-(?<h2>\d{1,2})-(?<h3>\d{4})`,
-  String.raw`(?<w1>${MON}) (?<w2>\d{1,2}),? (?<w3>\d{4})`,
-  String.raw`(?<d1>\d{1,2})[ -](?<d2>${MON})[ -](?<d3>\d{4}|\d{2})(?!\d)`,
+  // Ordinal days too: "September 9th, 2026", "2nd Nov 2026".
+  String.raw`(?<w1>${MON}) (?<w2>\d{1,2})(?:st|nd|rd|th)?,? (?<w3>\d{4})`,
+  String.raw`(?<d1>\d{1,2})(?:st|nd|rd|th)?[ -](?<d2>${MON})[ -](?<d3>\d{4}|\d{2})(?!\d)`,
   // Spanish and Portuguese write "7 de octubre de 2026".
   String.raw`(?<s1>\d{1,2}) de (?<s2>${MON}) (?:de|del) (?<s3>\d{4})`,
 ];

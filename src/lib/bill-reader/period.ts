@@ -154,8 +154,27 @@ function yearlessPeriod(lines: Line[]): Candidate | null {
   return null;
 }
 
+/**
+ * A period in a paragraph that wraps inside its column ("Service from September 9th, 2026 to
+ * October 8th," / "2026 — 29 days"): a labelled cell joined with the cell that starts at its left
+ * edge on one of the next lines.
+ */
+function wrappedRanges(lines: Line[]): Candidate[] {
+  return lines.flatMap((line, i) =>
+    line.cells.flatMap((cell) => {
+      if (!PERIOD_LABEL.test(cell.text)) return [];
+      const next = lines.slice(i + 1, i + 4).find((l) => l.page === line.page && l.cells.some((c) => Math.abs(c.x - cell.x) < 4));
+      const cont = next?.cells.find((c) => Math.abs(c.x - cell.x) < 4);
+      if (!next || !cont) return [];
+      const text = `${cell.text} ${cont.text}`;
+      return rangesOnLine({ ...line, cells: [{ ...cell, text }], text }, undefined).map((c) => ({ ...c, score: c.score - 1 }));
+    }),
+  );
+}
+
 export function readPeriod(lines: Line[]): BillReading["period"] {
   const candidates = [...lines.flatMap((l, i) => rangesOnLine(l, lines[i - 1])), ...readDates(lines)];
+  if (!candidates.length) candidates.push(...wrappedRanges(lines));
   const yearless = candidates.length ? null : yearlessPeriod(lines);
   if (yearless) candidates.push(yearless);
   if (!candidates.length) return null;
