@@ -3,10 +3,11 @@
  * rendered by poppler's pdftoppm (150 dpi, like a phone photo of a letter page), then with sharp
  * turned slightly, blurred and lit unevenly (a brighter corner fading to a darker one), saved as a
  * JPEG; and one bill as an image-only PDF (the page image, no text layer: a scan). Each output gets
- * the source bill's expected JSON with "source":"ocr". Run: npx tsx scripts/make-bill-photos.ts
+ * the source bill's expected JSON with "source":"ocr". And one photo set: each page of a two-page
+ * bill photographed alone (tests/fixtures/bills/photo-sets/). Run: npx tsx scripts/make-bill-photos.ts
  */
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { PDFDocument } from "pdf-lib";
@@ -21,10 +22,12 @@ const PHOTOS = [
   { bill: "cobble-creek-across", name: "cobble-creek-across-photo", angle: -2, blur: 1.3, shade: 0.35 },
 ];
 const SCAN = { bill: "marrowstone-read-dates", name: "marrowstone-read-dates-scan" };
+/** A photo set: each page of a two-page bill photographed on its own (photo-sets/NAME/page-N.jpg + expected.json). */
+const PHOTO_SET = { bill: "birchfield-two-page", pages: 2, angle: [1.2, -1.6], blur: 0.8, shade: 0.3 };
 
-function render(bill: string, dpi: number, tmp: string): Buffer {
-  const prefix = path.join(tmp, bill);
-  execFileSync("pdftoppm", ["-r", String(dpi), "-png", "-f", "1", "-l", "1", "-singlefile", path.join(dir, `${bill}.pdf`), prefix]);
+function render(bill: string, dpi: number, tmp: string, pageNumber = 1): Buffer {
+  const prefix = path.join(tmp, `${bill}-${pageNumber}`);
+  execFileSync("pdftoppm", ["-r", String(dpi), "-png", "-f", String(pageNumber), "-l", String(pageNumber), "-singlefile", path.join(dir, `${bill}.pdf`), prefix]);
   return readFileSync(`${prefix}.png`);
 }
 
@@ -38,12 +41,24 @@ function shadeSvg(width: number, height: number, shade: number): Buffer {
   );
 }
 
-async function photo(p: (typeof PHOTOS)[number], tmp: string) {
-  const page = render(p.bill, 150, tmp);
+async function photoOf(page: Buffer, p: { angle: number; blur: number; shade: number }): Promise<Buffer> {
   const { width = 0, height = 0 } = await sharp(page).metadata();
   const lit = await sharp(page).composite([{ input: shadeSvg(width, height, p.shade), blend: "multiply" }]).png().toBuffer();
-  const jpeg = await sharp(lit).rotate(p.angle, { background: "#6b6660" }).blur(p.blur).jpeg({ quality: 82 }).toBuffer();
-  writeFileSync(path.join(out, `${p.name}.jpg`), jpeg);
+  return sharp(lit).rotate(p.angle, { background: "#6b6660" }).blur(p.blur).jpeg({ quality: 82 }).toBuffer();
+}
+
+async function photo(p: (typeof PHOTOS)[number], tmp: string) {
+  writeFileSync(path.join(out, `${p.name}.jpg`), await photoOf(render(p.bill, 150, tmp), p));
+}
+
+async function photoSet(tmp: string) {
+  const setDir = path.join(dir, "photo-sets", PHOTO_SET.bill);
+  mkdirSync(setDir, { recursive: true });
+  for (let n = 1; n <= PHOTO_SET.pages; n++) {
+    writeFileSync(path.join(setDir, `page-${n}.jpg`), await photoOf(render(PHOTO_SET.bill, 150, tmp, n), { ...PHOTO_SET, angle: PHOTO_SET.angle[n - 1] }));
+  }
+  const json = JSON.parse(readFileSync(path.join(dir, `${PHOTO_SET.bill}.json`), "utf8"));
+  writeFileSync(path.join(setDir, "expected.json"), JSON.stringify({ ...json, source: "ocr" }, null, 2) + "\n");
 }
 
 async function scan(tmp: string) {
@@ -69,6 +84,7 @@ try {
   }
   await scan(tmp);
   expected(SCAN.bill, SCAN.name);
+  await photoSet(tmp);
   console.log(`Wrote ${PHOTOS.length} photos and 1 scanned PDF to ${path.relative(process.cwd(), out)}`);
 } finally {
   rmSync(tmp, { recursive: true, force: true });

@@ -2,6 +2,7 @@
  * Reads a utility bill the way the Energy tab does and prints what the app would suggest.
  *
  *   npm run read-bill -- FILE [--json]
+ *   npm run read-bill -- PAGE1.jpg PAGE2.jpg … [--json]     (photos of one bill's pages, read as one bill)
  *
  * FILE: a PDF with a text layer, a scanned PDF or a photo (JPEG, PNG): scans and photos are read by
  * OCR (Debian's tesseract-ocr, installed by scripts/bootstrap.mjs). --json prints only the JSON (docs/read-bill.md describes it):
@@ -13,24 +14,32 @@ import { ocrTooPoor, readBillByOcr, type OcrPages } from "../src/lib/bill-reader
 import { pdfPages, pagesText } from "../src/lib/bill-reader/pdf-pages";
 
 function usage(message: string): never {
-  console.error(`${message}\nusage: npm run read-bill -- FILE [--json]`);
+  console.error(`${message}\nusage: npm run read-bill -- FILE [--json]  or  npm run read-bill -- PAGE1.jpg PAGE2.jpg … [--json]`);
   process.exit(2);
 }
 
 const args = process.argv.slice(2);
 const json = args.includes("--json");
 const files = args.filter((a) => a !== "--json");
-if (files.length !== 1) usage(files.length ? "Give one file." : "Give the bill's file.");
-let bytes: Uint8Array;
-try {
-  bytes = new Uint8Array(readFileSync(files[0]));
-} catch {
-  usage(`Cannot read ${files[0]}.`);
-}
-const head = Buffer.from(bytes.subarray(0, 8));
-const isPdf = head.subarray(0, 5).toString("latin1") === "%PDF-";
-const isImage = head.subarray(0, 3).equals(Buffer.from([0xff, 0xd8, 0xff])) || head.equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]));
-if (!isPdf && !isImage) usage(`${files[0]} is neither a PDF nor a photo (JPEG or PNG).`);
+if (!files.length) usage("Give the bill's file.");
+const readOrQuit = (file: string) => {
+  try {
+    return new Uint8Array(readFileSync(file));
+  } catch {
+    usage(`Cannot read ${file}.`);
+  }
+};
+const all = files.map(readOrQuit);
+const kindOf = (b: Uint8Array) => {
+  const head = Buffer.from(b.subarray(0, 8));
+  if (head.subarray(0, 5).toString("latin1") === "%PDF-") return "pdf";
+  return head.subarray(0, 3).equals(Buffer.from([0xff, 0xd8, 0xff])) || head.equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])) ? "image" : null;
+};
+files.forEach((f, i) => kindOf(all[i]) || usage(`${f} is neither a PDF nor a photo (JPEG or PNG).`));
+// Several files are one bill's pages photographed one by one: photos only, read by OCR together.
+if (files.length > 1 && all.some((b) => kindOf(b) !== "image")) usage("Several files are read as one bill only when each is a photo (JPEG or PNG) of one of its pages.");
+const bytes = all[0];
+const isPdf = kindOf(bytes) === "pdf";
 
 /** Fewer characters than this in a PDF's text layer: a scan, read by OCR (as the app does). */
 const MIN_PDF_TEXT_CHARS = 20;
@@ -39,7 +48,7 @@ let ocr: OcrPages | null = null;
 let reading = readBill(pages);
 if (!isPdf || pagesText(pages).replace(/\s/g, "").length < MIN_PDF_TEXT_CHARS) {
   try {
-    ({ reading, ocr } = await readBillByOcr(bytes, isPdf ? "pdf" : "image"));
+    ({ reading, ocr } = await readBillByOcr(isPdf ? bytes : all, isPdf ? "pdf" : "image"));
   } catch (err) {
     console.error(err instanceof Error ? err.message : String(err));
     process.exit(1);

@@ -10,7 +10,7 @@ import { usageFromBills } from "@/engine/bills";
 import { EngineInputError } from "@/engine/errors";
 import { importIntervalData } from "@/engine/green-button";
 import { readBill, type BillReading } from "@/lib/bill-reader";
-import { OcrError, ocrTooPoor, readBillByOcr } from "@/lib/bill-reader/ocr-pages";
+import { MAX_BILL_PHOTOS, OcrError, ocrTooPoor, readBillByOcr } from "@/lib/bill-reader/ocr-pages";
 import { pagesText, pdfPages } from "@/lib/bill-reader/pdf-pages";
 import type { BillSource } from "@/lib/enums";
 import { MAX_BILL_FILE_BYTES, MAX_INTERVAL_FILE_BYTES, type billsTableSchema } from "@/lib/schemas/energy";
@@ -259,10 +259,18 @@ function readingMessage(r: BillReading, fileName: string): string {
  * and the rep is told why and asked to type the numbers.
  */
 async function acceptScannedBill(scope: DealScope, file: { name: string; bytes: Uint8Array }, bytes: Uint8Array, kind: "image" | "pdf", detected: { mime: string; ext: string }): Promise<UploadOutcome> {
+  return acceptPictures(scope, [{ file, detected }], kind);
+}
+
+type Picture = { file: { name: string; bytes: Uint8Array }; detected: { mime: string; ext: string } };
+
+/** One bill's pictures (a scan, a photo, or photos of its pages in order) read by OCR as one document and kept. */
+async function acceptPictures(scope: DealScope, pictures: Picture[], kind: "image" | "pdf"): Promise<UploadOutcome> {
+  const file = { name: pictures.map((p) => p.file.name).join(" + "), bytes: pictures[0].file.bytes };
   let read: Awaited<ReturnType<typeof readBillByOcr>> | null = null;
   let problem: string | null = null;
   try {
-    read = await inOcrQueue(() => readBillByOcr(bytes, kind));
+    read = await inOcrQueue(() => readBillByOcr(pictures.map((p) => p.file.bytes), kind));
     const r = read.reading;
     problem = ocrTooPoor(read.ocr, [r.period, r.kwh, r.amountDue, r.history].filter(Boolean).length);
   } catch (err) {
@@ -270,14 +278,36 @@ async function acceptScannedBill(scope: DealScope, file: { name: string; bytes: 
     problem = err.message;
   }
   const text = read && !problem ? pagesText(read.ocr.pages) : null;
-  const meta = await storeUpload(scope, file, detected.mime, detected.ext, "bill", text);
+  // Each photo is kept; the words read from all of them go with the first.
+  const metas = [];
+  for (const [i, p] of pictures.entries()) metas.push(await storeUpload(scope, p.file, p.detected.mime, p.detected.ext, "bill", i === 0 ? text : null));
+  const meta = metas[0];
   if (!read || problem) {
-    return { kind: "bill-image", upload: meta, message: `${kind === "pdf" ? `“${file.name}” is a scanned PDF with no text and` : `The photo “${file.name}”`} could not be read well enough to use: ${problem} It was kept with the deal; type the billing period, kWh and amount from it.` };
+    return { kind: "bill-image", upload: meta, message: `${kind === "pdf" ? `“${file.name}” is a scanned PDF with no text and` : pictures.length > 1 ? `The photos “${file.name}”` : `The photo “${file.name}”`} could not be read well enough to use: ${problem} It was kept with the deal; type the billing period, kWh and amount from it.` };
   }
   return { kind: "bill-text", upload: meta, reading: read.reading, source: "ocr", message: `${readingMessage(read.reading, file.name)} It was read from a picture: check each figure.` };
 }
 
 const PROGRAM_TYPES = new Set(["application/x-msdownload", "application/x-elf", "application/x-mach-binary", "application/x-executable", "application/x-sharedlib", "application/vnd.microsoft.portable-executable", "application/wasm"]);
+
+/**
+ * Photos of one bill's pages (page 1, page 2 …, in the order chosen): each checked and re-encoded
+ * as a single photo is, then read by OCR as one document, so a history printed on page 2 joins
+ * page 1's period and amount. Refused whole, before anything is kept, when one is not a photo.
+ */
+export async function acceptBillPhotoSet(scope: DealScope, files: { name: string; bytes: Uint8Array }[]): Promise<UploadOutcome> {
+  if (files.length > MAX_BILL_PHOTOS) throw new HttpError(422, "too_many_photos", `One bill takes up to ${MAX_BILL_PHOTOS} photos (one a page); ${files.length} were chosen.`);
+  const pictures: Picture[] = [];
+  for (const file of files) {
+    const size = file.bytes.byteLength;
+    if (size === 0) throw new HttpError(422, "empty_file", `“${file.name}” is empty.`);
+    if (size > MAX_BILL_FILE_BYTES) throw new HttpError(413, "file_too_large", `“${file.name}” is ${(size / 1048576).toFixed(1)} MB; bill files up to ${MAX_BILL_FILE_BYTES / 1048576} MB are accepted.`);
+    const detected = await fileTypeFromBuffer(file.bytes);
+    if (detected?.mime !== "image/jpeg" && detected?.mime !== "image/png") throw new HttpError(415, "unsupported_file", `“${file.name}” is not a photo (JPEG or PNG): several files make one bill only when each is a photo of one of its pages. Upload a PDF on its own.`);
+    pictures.push({ file: { name: file.name, bytes: await reencodeBillImage(file.bytes, detected.mime, file.name) }, detected });
+  }
+  return acceptPictures(scope, pictures, "image");
+}
 
 /**
  * Checks a file by its content, never its name, then keeps it with what it yields. Anything

@@ -102,6 +102,30 @@ test("a bill with a 13-month history fills the usage year in one step, its month
   await expect(page.getByText("12 of 12 months from bills")).toBeVisible();
 });
 
+test("a history month the reader is unsure of is flagged, and saved only once the rep has compared it", async ({ page }) => {
+  await signIn(page, "rep@tallgrass.example");
+  await openEnergy(page, "Abernathy household");
+  while ((await page.getByLabel("Bill 1 kWh").inputValue()) !== "") await page.getByRole("button", { name: "Remove bill 1", exact: true }).click();
+  const months = ["Dec", "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov"];
+  const kwh = ["900", "1010", "1230", "1130", "1010", "31", "1180", "1260", "1240", "1050", "880", "972"]; // May: a day count where the kWh belongs
+  const pdf = await textPdf(["Fenbury Electric", "Billing period 10/28/2025 - 11/25/2025", "Energy used 972 kWh", "Amount due $120.00", "Month        kWh", ...months.map((m, i) => `${m}          ${kwh[i]}`)]);
+  await upload(page, "fenbury.pdf", "application/pdf", pdf);
+  const reading = page.getByTestId("bill-reading");
+  await expect(reading.getByTestId("history-month")).toHaveCount(12);
+  const unsure = reading.locator('[data-testid="history-month"][data-unsure="true"]');
+  await expect(unsure).toHaveCount(1);
+  await expect(unsure).toContainText("May 2025");
+  await expect(unsure).toContainText("Not sure: its figure looks like a day count");
+  // Not saved while the flagged month has not been compared.
+  await reading.getByRole("button", { name: "Save to the bills" }).click();
+  await expect(reading.getByText(/Compare May 2025 with the bill/)).toBeVisible();
+  await expect(page.getByLabel("Bill 1 kWh")).toHaveValue("");
+  await reading.getByLabel("May 2025 kWh").fill("940");
+  await reading.getByTestId("history-checked").getByRole("checkbox").check();
+  await reading.getByRole("button", { name: "Save to the bills" }).click();
+  await expect(page.getByRole("status").filter({ hasText: "Saved 12 bills" })).toBeVisible();
+});
+
 test("a photo of a bill is read by OCR while the rep sees it being read, then the same table to confirm", async ({ page }) => {
   await signIn(page, "rep@tallgrass.example");
   await openEnergy(page, "Abernathy household");
@@ -114,4 +138,19 @@ test("a photo of a bill is read by OCR while the rep sees it being read, then th
   await expect(reading.getByLabel("Amount due")).toHaveValue("121.37");
   await expect(reading.getByTestId("history-month")).toHaveCount(12);
   await expect(page.getByRole("status")).toContainText("It was read from a picture: check each figure.");
+});
+
+test("photos of a bill's two pages, chosen together, are read as one bill", async ({ page }) => {
+  test.setTimeout(180_000);
+  await signIn(page, "rep@tallgrass.example");
+  await openEnergy(page, "Abernathy household");
+  const dir = "tests/fixtures/bills/photo-sets/birchfield-two-page";
+  await page.getByTestId("bill-file-input").setInputFiles(["page-1.jpg", "page-2.jpg"].map((name) => ({ name, mimeType: "image/jpeg", buffer: readFileSync(`${dir}/${name}`) })));
+  const reading = page.getByTestId("bill-reading");
+  await expect(reading).toHaveAttribute("data-source", "ocr", { timeout: 150_000 });
+  // Page 1 prints the period and amount, page 2 the history: both in the one table.
+  await expect(reading.getByLabel("Period from")).toHaveValue("2025-09-30");
+  await expect(reading.getByLabel("Amount due")).toHaveValue("88.15");
+  await expect(reading.getByTestId("history-month")).toHaveCount(12);
+  await expect(page.getByRole("status")).toContainText("page-1.jpg + page-2.jpg");
 });

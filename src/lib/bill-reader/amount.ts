@@ -8,10 +8,10 @@ import { whereOf, type Confidence, type Found } from "./types";
 
 const MONEY = /(?<![\d.,])(-?\$\s?-?\d{1,3}(?:,\d{3})*\.\d{2}|-?\$\s?\d+\.\d{2}|\d{1,3}(?:,\d{3})*\.\d{2}(?!\d))(\s*CR\b)?/g;
 const DUE =
-  /\b(total\s+)?amount\s+(now\s+)?due\b|\btotal\s+(amount\s+)?due\b|\bbalance\s+due\b|\bplease\s+pay\b|\bpay\s+this\s+amount\b|\bamount\s+(to\s+pay|owed|you\s+owe)\b|\btotal\s+to\s+pay\b|\bnow\s+due\b|\bdue\s+(by|on)\b|\bpay\s+by\b|\byou\s+owe\b|\bremit(tance)?\b|\b(amount|total)\s+payable\b|\bpayable\s+(now|by)\b/i;
+  /\b(total\s+)?amount\s+(now\s+)?due\b|\btotal\s+(amount\s+)?due\b|\bbalance\s+due\b|\bplease\s+pay\b|\bpay\s+this\s+amount\b|\bamount\s+(to\s+pay|owed|you\s+owe)\b|\btotal\s+to\s+pay\b|\bnow\s+due\b|\bdue\s+(by|on)\b|\bpay\s+by\b|\byou\s+owe\b|\bremit(tance)?\b|\b(amount|total)\s+payable\b|\bpayable\s+(now|by)\b|\b(total|importe|monto|cantidad|saldo)\s+a\s+pagar\b|\bmontant\s+(à|a)\s+payer\b/i;
 const MAYBE = /\bnew\s+balance\b|\btotal\s+(current\s+|new\s+)?charges\b|\btotal\s+bill\b|\baccount\s+balance\b|\bcurrent\s+bill\b|\bbalance\b|\btotal\b/i;
 const NOT_DUE =
-  /\b(previous|prior|last)\b|\bpayments?\b|\bpaid\b|\breceived\b|\bthank|\btax(es)?\b|\bbasic\b|\bcustomer\s+charge|\bservice\s+charge|\bfixed\b|\bfacilit|\bbudget\b|\blevel(ized)?\b|\baverage\b|\bpast\s+due\b|\blate\b|\bafter\b|\bcredit\b|\badjust|\bdeposit\b|\bfees?\b|\brider\b|\benergy\s+charge|\bdelivery\b|\bsupply\b|\bgenerat|\btransmission\b|\bdistribution\b|\brate\b|\bsubtotal\b|\bsub-total\b|\bdonat|\bround\s*up\b|\bsurcharge\b|\bmonthly\s+charge\b|\bminimum\b/i;
+  /\b(previous|prior|last)\b|\bpayments?\b|\bpaid\b|\breceived\b|\bthank|\btax(es)?\b|\bbasic\b|\bcustomer\s+charge|\bservice\s+charge|\bfixed\b|\bfacilit|\bbudget\b|\blevel(ized)?\b|\baverage\b|\bpast\s+due\b|\blate\b|\bafter\b|\bcredit\b|\badjust|\bdeposit\b|\bfees?\b|\brider\b|\benergy\s+charge|\bdelivery\b|\bsupply\b|\bgenerat|\btransmission\b|\bdistribution\b|\brate\b|\bsubtotal\b|\bsub-total\b|\bdonat|\bround\s*up\b|\bsurcharge\b|\bmonthly\s+charge\b|\bminimum\b|\banterior\b|\bpagos?\s+recibido|\bimpuestos?\b|\bcargo\s+(b[aá]sico|fijo)|\bvencid[oa]\b/i;
 
 type Candidate = {
   cents: number;
@@ -27,20 +27,28 @@ function cents(token: string, credit: boolean): number {
 }
 
 function scoreLabel(label: string): number {
-  if (DUE.test(label)) return NOT_DUE.test(label) ? -3 : 5;
+  // On budget billing the budget amount is what is due: "Your budget amount due" names it.
+  if (DUE.test(label)) return NOT_DUE.test(label.replace(/\bbudget\b/gi, "")) ? -3 : 5;
   if (NOT_DUE.test(label)) return -3;
   if (MAYBE.test(label)) return 2;
   return 0;
 }
 
 /** The label above a value in a box or a column ("AMOUNT DUE" over "$142.91"). */
+/** A due date printed under the label ("BY NOV 22, 2026"): the label is the line above it. */
+const BY_DATE = /^(by|before|on)\s+\S.*\d/i;
+
 function labelAbove(lines: Line[], i: number, x: number): string {
-  for (let k = i - 1; k >= Math.max(0, i - 2) && lines[k].page === lines[i].page; k--) {
+  let below = "";
+  for (let k = i - 1; k >= Math.max(0, i - 3) && lines[k].page === lines[i].page; k--) {
     const cell = lines[k].cells.find((c) => Math.abs(center(c) - x) < Math.max(50, (c.xEnd - c.x) / 2 + 10));
-    if (cell && !MONEY.test(cell.text)) return cell.text;
+    const money = cell ? MONEY.test(cell.text) : false;
     MONEY.lastIndex = 0;
+    if (cell && !money && BY_DATE.test(cell.text) && !below) below = cell.text;
+    else if (cell && !money) return below ? `${cell.text} ${below}` : cell.text;
+    else if (!below && k < i - 1) break;
   }
-  return "";
+  return below;
 }
 
 function lineCandidates(lines: Line[], i: number): Candidate[] {

@@ -2,24 +2,62 @@
 // 28 Oct 2025, 28-OCT-25. US order (month first) for numeric dates: these are US bills.
 
 const MONTH_NAMES = ["jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec"];
+const FULL_NAMES = ["january", "february", "march", "april", "may", "june", "july", "august", "september", "october", "november", "december"];
+/**
+ * Month names of the other languages bilingual US bills print (Spanish most, French and
+ * Portuguese sometimes): full names; any prefix of 3+ letters of one counts, as in English.
+ * "set" and "out" (Portuguese) are left out: they are English words.
+ */
+const OTHER_NAMES: string[][] = [
+  ["enero", "janvier", "janeiro"],
+  ["febrero", "février", "fevrier", "fevereiro"],
+  ["marzo", "mars", "março", "marco"],
+  ["abril", "avril"],
+  ["mayo", "mai", "maio"],
+  ["junio", "juin", "junho"],
+  ["julio", "juillet", "julho"],
+  ["agosto", "août", "aout"],
+  ["septiembre", "setiembre", "septembre", "setembro"],
+  ["octubre", "octobre", "outubro"],
+  ["noviembre", "novembre", "novembro"],
+  ["diciembre", "décembre", "decembre", "dezembro"],
+];
 
-/** A month name or its abbreviation ("Sept." too); -1 when it is not one. */
-export function monthIndex(word: string): number {
-  const w = word.toLowerCase().replace(/\.$/, "");
+function singleMonth(w: string): number {
   if (w.length < 3) return -1;
   const i = MONTH_NAMES.indexOf(w.slice(0, 3));
-  if (i < 0) return -1;
-  const full = ["january", "february", "march", "april", "may", "june", "july", "august", "september", "october", "november", "december"][i];
-  return full.startsWith(w) || (i === 8 && w === "sept") ? i : -1;
+  if (i >= 0 && (FULL_NAMES[i].startsWith(w) || (i === 8 && w === "sept"))) return i;
+  // "mai" is a whole word, not a prefix of 3 of a longer name.
+  const j = OTHER_NAMES.findIndex((names) => names.some((n) => n === w || (w.length >= 3 && n.startsWith(w) && n !== "mai" && w !== "set" && w !== "out")));
+  return j;
 }
 
-const MON = String.raw`[A-Za-z]{3,9}\.?`;
+/**
+ * A month name or its abbreviation ("Sept." too), in English or as bilingual bills print it
+ * ("dic", "enero", "Ene/Jan", "Jan / Ene"); -1 when it is not one. Two names joined by a slash
+ * must name the same month.
+ */
+export function monthIndex(word: string): number {
+  const parts = word
+    .toLowerCase()
+    .split(/\s*\/\s*/)
+    .map((p) => p.replace(/\.$/, ""));
+  if (parts.length > 2) return -1;
+  const found = parts.map(singleMonth);
+  return found.every((i) => i >= 0 && i === found[0]) ? found[0] : -1;
+}
+
+/** A month word, also accented ("déc", "août") or two joined by a slash ("Ene/Jan"). */
+const MON = String.raw`\p{L}{3,10}\.?(?:\s?/\s?\p{L}{3,10}\.?)?`;
 const DATE_FORMS = [
   String.raw`(?<n1>\d{1,2})/(?<n2>\d{1,2})/(?<n3>\d{4}|\d{2})(?!\d)`,
   String.raw`(?<i1>\d{4})-(?<i2>\d{2})-(?<i3>\d{2})`,
   String.raw`(?<h1>\d{1,2})-(?<h2>\d{1,2})-(?<h3>\d{4})`,
-  String.raw`(?<w1>${MON}) (?<w2>\d{1,2}),? (?<w3>\d{4})`,
-  String.raw`(?<d1>\d{1,2})[ -](?<d2>${MON})[ -](?<d3>\d{4}|\d{2})(?!\d)`,
+  // Ordinal days too: "September 9th, 2026", "2nd Nov 2026".
+  String.raw`(?<w1>${MON}) (?<w2>\d{1,2})(?:st|nd|rd|th)?,? (?<w3>\d{4})`,
+  String.raw`(?<d1>\d{1,2})(?:st|nd|rd|th)?[ -](?<d2>${MON})[ -](?<d3>\d{4}|\d{2})(?!\d)`,
+  // Spanish and Portuguese write "7 de octubre de 2026".
+  String.raw`(?<s1>\d{1,2}) de (?<s2>${MON}) (?:de|del) (?<s3>\d{4})`,
 ];
 /** One date in any form; named groups tell which. */
 const DATE_SOURCE = `(?:${DATE_FORMS.join("|")})`;
@@ -41,6 +79,10 @@ function dateFromGroups(g: Record<string, string | undefined>): string | null {
     const m = monthIndex(g.w1);
     return m < 0 ? null : isoDate(Number(g.w3), m + 1, Number(g.w2));
   }
+  if (g.s2) {
+    const m = monthIndex(g.s2);
+    return m < 0 ? null : isoDate(Number(g.s3), m + 1, Number(g.s1));
+  }
   if (g.d2) {
     const m = monthIndex(g.d2);
     return m < 0 ? null : isoDate(year(g.d3!), m + 1, Number(g.d1));
@@ -57,8 +99,8 @@ const RANGE_DASH = String.raw`\s*(?:-|–|—|to|through|thru)\s*`;
  * over New Year: "Dec 18 - Jan 17, 2026").
  */
 const YEAR_ONCE = [
-  new RegExp(String.raw`(?<m1>${MON}) (?<d1>\d{1,2})(?<dash>${RANGE_DASH})(?<m2>${MON}) (?<d2>\d{1,2}),? (?<y>\d{4})`, "g"),
-  new RegExp(String.raw`(?<d1>\d{1,2}) (?<m1>${MON})(?<dash>${RANGE_DASH})(?<d2>\d{1,2}) (?<m2>${MON}),? (?<y>\d{4})`, "g"),
+  new RegExp(String.raw`(?<m1>${MON}) (?<d1>\d{1,2})(?<dash>${RANGE_DASH})(?<m2>${MON}) (?<d2>\d{1,2}),? (?<y>\d{4})`, "gu"),
+  new RegExp(String.raw`(?<d1>\d{1,2}) (?<m1>${MON})(?<dash>${RANGE_DASH})(?<d2>\d{1,2}) (?<m2>${MON}),? (?<y>\d{4})`, "gu"),
 ];
 
 function yearOnceRanges(text: string): FoundDate[] {
@@ -83,7 +125,7 @@ function yearOnceRanges(text: string): FoundDate[] {
 export function findDates(text: string): FoundDate[] {
   const out = yearOnceRanges(text);
   const taken = (i: number) => out.some((d) => i >= d.index && i < d.end);
-  for (const m of text.matchAll(new RegExp(DATE_SOURCE, "g"))) {
+  for (const m of text.matchAll(new RegExp(DATE_SOURCE, "gu"))) {
     const iso = dateFromGroups(m.groups ?? {});
     if (iso && !taken(m.index ?? 0)) out.push({ iso, index: m.index ?? 0, end: (m.index ?? 0) + m[0].length });
   }

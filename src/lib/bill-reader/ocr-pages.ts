@@ -197,8 +197,23 @@ function collect(results: OcrPage[]): OcrPages {
 export type OcrOptions = { timeoutMs?: number; psm?: Psm; slopes?: number[] };
 
 export async function ocrImage(bytes: Uint8Array, opts: OcrOptions = {}): Promise<OcrPages> {
-  const png = await prepareImage(bytes, opts.slopes?.[0]);
-  return withTempDir(async (dir) => collect([await ocrPng(png, dir, "page.png", "the photo", opts.timeoutMs ?? OCR_PAGE_TIME_LIMIT_MS, opts.psm ?? 3)]));
+  return ocrImages([bytes], opts);
+}
+
+/** At most this many photos make one bill (a page each), as for a scanned PDF's pages (our choice). */
+export const MAX_BILL_PHOTOS = MAX_SCANNED_PAGES;
+
+/** Photos of a bill's pages, in page order, read by OCR as one document (page 1, page 2 …). */
+export async function ocrImages(images: Uint8Array[], opts: OcrOptions = {}): Promise<OcrPages> {
+  const timeoutMs = opts.timeoutMs ?? OCR_PAGE_TIME_LIMIT_MS;
+  return withTempDir(async (dir) => {
+    const results = [];
+    for (const [i, bytes] of images.slice(0, MAX_BILL_PHOTOS).entries()) {
+      const png = await prepareImage(bytes, opts.slopes?.[i]);
+      results.push(await ocrPng(png, dir, `page-${i + 1}.png`, images.length > 1 ? `photo ${i + 1}` : "the photo", timeoutMs, opts.psm ?? 3));
+    }
+    return collect(results);
+  });
 }
 
 /**
@@ -222,11 +237,14 @@ export async function ocrScannedPdf(bytes: Uint8Array, opts: OcrOptions = {}): P
 }
 
 /** How much of a bill a reading holds: the current fields and the history's months. */
+/** Fields found, each history month counted only when the reader is not unsure of it (a doubtful month is half a month). */
 function filled(r: BillReading): number {
-  return [r.period, r.kwh, r.amountDue].filter(Boolean).length + (r.history?.months.length ?? 0);
+  const months = r.history?.months ?? [];
+  return [r.period, r.kwh, r.amountDue].filter(Boolean).length + months.filter((m) => m.confidence === "high").length + months.filter((m) => m.confidence !== "high").length / 2;
 }
 
-const complete = (r: BillReading) => Boolean(r.period && r.kwh && r.amountDue && (r.history?.months.length ?? 0) >= 12);
+/** Nothing missing and no history month in doubt: no further reading can do better. */
+const complete = (r: BillReading) => Boolean(r.period && r.kwh && r.amountDue && (r.history?.months.length ?? 0) >= 12 && r.history?.months.every((m) => m.confidence === "high"));
 
 /**
  * A photo or a scanned PDF read by OCR and then by the bill reader. When a reading misses a field
@@ -236,8 +254,10 @@ const complete = (r: BillReading) => Boolean(r.period && r.kwh && r.amountDue &&
  * (held-out set 4's chart photo), which would end the search. Each run costs a few seconds; a
  * missed field costs the rep typing.
  */
-export async function readBillByOcr(bytes: Uint8Array, kind: "image" | "pdf", opts: { timeoutMs?: number } = {}): Promise<{ reading: BillReading; ocr: OcrPages }> {
-  const ocrOf = (psm: Psm, slopes?: number[]) => (kind === "pdf" ? ocrScannedPdf(bytes, { ...opts, psm, slopes }) : ocrImage(bytes, { ...opts, psm, slopes }));
+export async function readBillByOcr(input: Uint8Array | Uint8Array[], kind: "image" | "pdf", opts: { timeoutMs?: number } = {}): Promise<{ reading: BillReading; ocr: OcrPages }> {
+  // Several photos (a bill's page 1, page 2 …) are one document: their pages are read together.
+  const images = Array.isArray(input) ? input : [input];
+  const ocrOf = (psm: Psm, slopes?: number[]) => (kind === "pdf" ? ocrScannedPdf(images[0], { ...opts, psm, slopes }) : ocrImages(images, { ...opts, psm, slopes }));
   const first = await ocrOf(3);
   let best = { reading: readBill(first.pages), ocr: first };
   // A picture with almost nothing readable and nothing found is not read again (it costs seconds and finds nothing).

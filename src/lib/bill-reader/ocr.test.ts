@@ -28,6 +28,18 @@ describe("bills read by OCR", () => {
     expect(got.history).toEqual(expected.history);
   });
 
+  it("photos of a bill's two pages are read as one document: the history on page 2 joins page 1's fields", { timeout: 300_000 }, async () => {
+    const setDir = path.resolve(dir, "../photo-sets/birchfield-two-page");
+    const expected = JSON.parse(readFileSync(path.join(setDir, "expected.json"), "utf8")) as BillJson;
+    const pages = ["page-1.jpg", "page-2.jpg"].map((f) => new Uint8Array(readFileSync(path.join(setDir, f))));
+    const { reading, ocr } = await readBillByOcr(pages, "image");
+    expect(ocr.pages).toHaveLength(2);
+    const got = billJson(reading, "ocr");
+    expect(got.current).toEqual(expected.current);
+    expect(got.history).toEqual(expected.history);
+    expect(reading.history?.months.at(-1)?.where.page).toBe(2);
+  });
+
   it("stops a run over its time limit and names the limit", { timeout: 30_000 }, async () => {
     const err = await ocrImage(read("larkhaven-classic-photo.jpg"), { timeoutMs: 200 }).catch((e: unknown) => e);
     expect(err).toBeInstanceOf(OcrError);

@@ -1,7 +1,7 @@
 // The current billing period: a printed range ("10/28/2025 - 11/25/2025", "Oct 28, 2025 to
 // Nov 25, 2025", "Service from 09/14/25 through 10/13/25") or the previous and current
 // meter-read dates, with or without the days ("(29 days)").
-import { dayNumber, findDates, type FoundDate } from "./dates";
+import { dayNumber, findDates, monthIndex, type FoundDate } from "./dates";
 import { center, type Line } from "./layout";
 import { whereOf, type BillReading, type Confidence } from "./types";
 
@@ -13,8 +13,9 @@ type Candidate = {
   days: number | null;
 };
 
-const BETWEEN = /^\s*(?:-|–|—|to|through|thru|until|and)\s*$/i;
-const PERIOD_LABEL = /\b(billing|service|usage|meter|read(?:ing)?|bill)\s+(period|dates?|days|from|cycle)\b|\bservice\s+(from|dates?|period)\b|\bfor service\b|\bperiod\b/i;
+// Spanish / French / Portuguese bills join a range with "al", "a", "hasta", "au", "à", "até".
+const BETWEEN = /^\s*(?:-|–|—|to|through|thru|until|and|al|a|hasta|au|à|até)\s*$/iu;
+const PERIOD_LABEL = /\b(billing|service|usage|meter|read(?:ing)?|bill)\s+(period|dates?|days|from|cycle)\b|\bservice\s+(from|dates?|period)\b|\bfor service\b|\bperiod\b|\bper[ií]odo\b|\bpériode\b|\bfacturaci[oó]n\b/iu;
 const OTHER_SERVICE = /\b(gas|water|sewer|trash|therms?|ccf|gallons?|gal)\b/i;
 const NOT_PERIOD = /\bdue\b|\bpay(ment)?\b|\bissued?\b|\bstatement date\b/i;
 const DAYS = /\(?\b(\d{1,3})\s*(?:billing\s+|service\s+)?days?\b\)?|\bdays(?:\s+(?:in|of)\s+(?:the\s+)?(?:billing\s+)?(?:period|cycle))?\s*:?\s*(\d{1,3})\b/i;
@@ -93,7 +94,9 @@ function dateNear(lines: Line[], at: number, label: RegExp): { date: FoundDate; 
     if (inCell.length) return { date: inCell[0], line };
     const next = cells[c + 1] ? findDates(cells[c + 1].text) : [];
     if (next.length && !label.test(cells[c + 1].text)) return { date: next[0], line };
-    for (let k = at + 1; k < Math.min(lines.length, at + 4) && lines[k].page === line.page; k++) {
+    // Up to four lines down: a heading wrapped over two lines ("Previous read" / "date") and a
+    // meter number wrapped above its row ("W-" / "31177") both push the row down.
+    for (let k = at + 1; k < Math.min(lines.length, at + 5) && lines[k].page === line.page; k++) {
       const below = lines[k].cells.find((x) => Math.abs(center(x) - center(cells[c])) < Math.max(40, (cells[c].xEnd - cells[c].x) / 2 + 10));
       const found = below ? findDates(below.text) : [];
       if (found.length) return { date: found[0], line: lines[k] };
@@ -127,8 +130,53 @@ function readDates(lines: Line[]): Candidate[] {
 }
 
 /** The current period: the best-labelled range, the newest one on a tie (from lines without the usage history). */
+const NO_YEAR_RANGE = new RegExp(String.raw`\b(?<m1>[A-Za-z]{3,9})\.? (?<d1>\d{1,2})\s*(?:-|–|—|to|through|thru)\s*(?<m2>[A-Za-z]{3,9})\.? (?<d2>\d{1,2})\b(?!\s*,?\s*\d{4})`, "i");
+
+/**
+ * A labelled period printed without a year ("SERVICE SEP 24 – OCT 23 (29 DAYS)"): the year is the
+ * one that puts its end on or before the bill's latest full date (the bill date), the start a
+ * year earlier when its month comes later (over New Year). Only when no dated period is printed.
+ */
+function yearlessPeriod(lines: Line[]): Candidate | null {
+  const latest = lines.flatMap((l) => findDates(l.text).map((d) => d.iso)).sort().at(-1);
+  if (!latest) return null;
+  for (const line of lines) {
+    const m = PERIOD_LABEL.test(line.text) || /\bservice\b/i.test(line.text) ? line.text.match(NO_YEAR_RANGE) : null;
+    if (!m?.groups || NOT_PERIOD.test(line.text.slice(0, m.index))) continue;
+    const [m1, m2] = [monthIndex(m.groups.m1), monthIndex(m.groups.m2)];
+    if (m1 < 0 || m2 < 0) continue;
+    const y = Number(latest.slice(0, 4));
+    const endYear = `${y}-${String(m2 + 1).padStart(2, "0")}-${m.groups.d2.padStart(2, "0")}` <= latest ? y : y - 1;
+    const start = `${m1 > m2 ? endYear - 1 : endYear}-${String(m1 + 1).padStart(2, "0")}-${m.groups.d1.padStart(2, "0")}`;
+    const end = `${endYear}-${String(m2 + 1).padStart(2, "0")}-${m.groups.d2.padStart(2, "0")}`;
+    if (dayNumber(end) - dayNumber(start) > 10 && dayNumber(end) - dayNumber(start) < 70) return { start, end, line, score: 2, days: printedDays(line.text) };
+  }
+  return null;
+}
+
+/**
+ * A period in a paragraph that wraps inside its column ("Service from September 9th, 2026 to
+ * October 8th," / "2026 — 29 days"): a labelled cell joined with the cell that starts at its left
+ * edge on one of the next lines.
+ */
+function wrappedRanges(lines: Line[]): Candidate[] {
+  return lines.flatMap((line, i) =>
+    line.cells.flatMap((cell) => {
+      if (!PERIOD_LABEL.test(cell.text)) return [];
+      const next = lines.slice(i + 1, i + 4).find((l) => l.page === line.page && l.cells.some((c) => Math.abs(c.x - cell.x) < 4));
+      const cont = next?.cells.find((c) => Math.abs(c.x - cell.x) < 4);
+      if (!next || !cont) return [];
+      const text = `${cell.text} ${cont.text}`;
+      return rangesOnLine({ ...line, cells: [{ ...cell, text }], text }, undefined).map((c) => ({ ...c, score: c.score - 1 }));
+    }),
+  );
+}
+
 export function readPeriod(lines: Line[]): BillReading["period"] {
   const candidates = [...lines.flatMap((l, i) => rangesOnLine(l, lines[i - 1])), ...readDates(lines)];
+  if (!candidates.length) candidates.push(...wrappedRanges(lines));
+  const yearless = candidates.length ? null : yearlessPeriod(lines);
+  if (yearless) candidates.push(yearless);
   if (!candidates.length) return null;
   candidates.sort((a, b) => b.score - a.score || (b.end > a.end ? 1 : b.end < a.end ? -1 : 0));
   const best = candidates[0];

@@ -20,6 +20,10 @@ export type HistoryMonth = {
   start: string | null;
   end: string | null;
   where: Where;
+  /** How sure the reader is of this month's figure: the confirm table flags the months that are not "high". */
+  confidence: Confidence;
+  /** Why it is not sure, in words for the rep ("read past OCR noise", "far from the other months"). */
+  note?: string;
 };
 
 export type BillHistory = {

@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { bill, intervalProfile, upload } from "@/db/schema";
 import { db } from "@/server/db";
 import { createLead } from "@/server/deals";
-import { acceptDealUpload, getDealUsage, saveBills } from "@/server/energy";
+import { acceptBillPhotoSet, acceptDealUpload, getDealUsage, saveBills } from "@/server/energy";
 import { HttpError } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { newCompany } from "../support/fixtures";
@@ -136,6 +136,30 @@ describe("bill uploads are checked by content", () => {
     const [row] = await db().select({ mimeType: upload.mimeType, extractedText: upload.extractedText }).from(upload).where(and(eq(upload.companyId, member.companyId), eq(upload.id, outcome.upload.id)));
     expect(row.mimeType).toBe("image/jpeg");
     expect(row.extractedText).toContain("Energy used");
+  });
+
+  it("photos of a bill's two pages are read as one bill: page 2's history joins page 1's fields; each photo is kept", { timeout: 300_000 }, async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const dir = "tests/fixtures/bills/photo-sets/birchfield-two-page";
+    const pages = await Promise.all(["page-1.jpg", "page-2.jpg"].map(async (name) => ({ name, bytes: new Uint8Array(await readFile(path.join(dir, name))) })));
+    const outcome = await acceptBillPhotoSet(await openDeal(member, dealId), pages);
+    if (outcome.kind !== "bill-text") throw new Error(`not read: ${outcome.message}`);
+    expect(outcome.source).toBe("ocr");
+    expect([outcome.reading.period?.start.value, outcome.reading.kwh?.value, outcome.reading.amountDue?.value, outcome.reading.history?.months.length]).toEqual(["2025-09-30", 765, 8815, 12]);
+    expect(outcome.message).toMatch(/from “page-1\.jpg \+ page-2\.jpg”/);
+    const rows = await db().select({ fileName: upload.fileName }).from(upload).where(and(eq(upload.companyId, member.companyId), eq(upload.dealId, dealId)));
+    expect(rows.map((r) => r.fileName).sort()).toEqual(["page-1.jpg", "page-2.jpg"]);
+  });
+
+  it("several files make one bill only when each is a photo, at most four; nothing is kept otherwise", async () => {
+    const member = await newCompany();
+    const dealId = await newDeal(member);
+    const scope = await openDeal(member, dealId);
+    const photo = { name: "page-1.jpg", bytes: new Uint8Array(await readFile("tests/fixtures/bills/photo-sets/birchfield-two-page/page-1.jpg")) };
+    await refused(acceptBillPhotoSet(scope, [photo, { name: "bill.pdf", bytes: await textPdf(["Energy used 972 kWh"]) }]), 415, /“bill\.pdf” is not a photo \(JPEG or PNG\): several files make one bill only when each is a photo of one of its pages/);
+    await refused(acceptBillPhotoSet(scope, [photo, photo, photo, photo, photo]), 422, /One bill takes up to 4 photos \(one a page\); 5 were chosen/);
+    expect(await storedFiles(member.companyId)).toEqual([]);
   });
 
   it("a renamed program, an oversize file and a corrupt PDF are refused and nothing is stored", async () => {

@@ -5,7 +5,7 @@ import { Badge, type BadgeTone } from "@/components/ui/badge";
 import { FormMessage } from "@/components/ui/field";
 import { RadioGroup } from "@/components/ui/radio-group";
 import { TableShell, Td, Th } from "@/components/ui/table";
-import type { BillReading, Confidence, Found, Where } from "@/lib/bill-reader";
+import type { BillReading, Confidence, Found, HistoryMonth, Where } from "@/lib/bill-reader";
 import { billsFromReading, type BillTableRow } from "@/lib/bill-reader/to-bills";
 
 const SURE: Record<Confidence, [BadgeTone, string]> = {
@@ -22,7 +22,7 @@ const monthName = (ym: string) =>
     timeZone: "UTC",
   });
 
-function WhereCell({ where, confidence }: { where: Where | undefined; confidence: Confidence | undefined }) {
+function WhereCell({ where, confidence, note }: { where: Where | undefined; confidence: Confidence | undefined; note?: string }) {
   if (!where || !confidence) return <Td className="text-graphite-soft">not found — type it from the bill</Td>;
   const [tone, word] = SURE[confidence];
   return (
@@ -31,6 +31,7 @@ function WhereCell({ where, confidence }: { where: Where | undefined; confidence
       <span className="text-xs text-graphite-soft">
         page {where.page}, line {where.line}: “{where.text}”
       </span>
+      {note ? <span className="block text-sm text-caution">Not sure: {note}.</span> : null}
     </Td>
   );
 }
@@ -40,16 +41,15 @@ type Draft = {
   end: string;
   kwh: string;
   amount: string;
-  months: {
-    month: string;
-    kwh: string;
-    days: number | null;
-    start: string | null;
-    end: string | null;
-    where: Where;
-  }[];
+  /** The history's months as read, each kWh as the rep edits it (text). */
+  months: (Omit<HistoryMonth, "kwh"> & { kwh: string })[];
   useHistory: boolean;
+  /** The rep ticked that the months the reader is unsure of were compared with the bill. */
+  checkedUnsure: boolean;
 };
+
+/** Months the reader is not sure of: flagged in the table, and saved only once the rep says they were compared. */
+const unsureMonths = (d: Draft) => (d.useHistory ? d.months.filter((m) => m.confidence !== "high") : []);
 
 function draftOf(r: BillReading): Draft {
   return {
@@ -62,6 +62,7 @@ function draftOf(r: BillReading): Draft {
       kwh: String(m.kwh),
     })),
     useHistory: !!r.history?.months.length,
+    checkedUnsure: false,
   };
 }
 
@@ -76,6 +77,11 @@ function toRows(d: Draft): { rows: BillTableRow[] } | { problem: string } {
     };
   if (hasCurrent && !(kwh > 0)) return { problem: "Give this bill's kWh (a number above 0)." };
   if (amount !== null && !(amount >= 0)) return { problem: "The amount due is a dollar figure like 142.91." };
+  const unsure = unsureMonths(d);
+  if (unsure.length && !d.checkedUnsure)
+    return {
+      problem: `Compare ${unsure.map((m) => monthName(m.month)).join(", ")} with the bill (the reader is not sure of ${unsure.length === 1 ? "it" : "them"}), correct what differs and tick that you did, or leave the history out.`,
+    };
   const months = d.useHistory ? d.months.map((m) => ({ ...m, kwh: parseNumber(m.kwh) })) : [];
   const bad = months.find((m) => !(m.kwh > 0));
   if (bad)
@@ -110,7 +116,8 @@ function AmountChoice({ draft: d, set, amounts }: { draft: Draft; set: SetDraft;
 }
 
 /** The history's months, each a row of the same table, filled into the usage year in one step. */
-function HistoryRows({ draft: d, set, confidence }: { draft: Draft; set: SetDraft; confidence: Confidence | undefined }) {
+function HistoryRows({ draft: d, set }: { draft: Draft; set: SetDraft }) {
+  const unsure = unsureMonths(d);
   return (
     <>
       {d.months.length ? (
@@ -126,7 +133,7 @@ function HistoryRows({ draft: d, set, confidence }: { draft: Draft; set: SetDraf
       ) : null}
       {d.useHistory
         ? d.months.map((m, i) => (
-            <tr key={m.month} data-testid="history-month">
+            <tr key={m.month} data-testid="history-month" data-unsure={m.confidence !== "high" ? "true" : undefined}>
               <Td>
                 {monthName(m.month)}
                 {m.days ? ` · ${m.days} days` : ""}
@@ -145,10 +152,20 @@ function HistoryRows({ draft: d, set, confidence }: { draft: Draft; set: SetDraf
                   }
                 />
               </Td>
-              <WhereCell where={m.where} confidence={confidence} />
+              <WhereCell where={m.where} confidence={m.confidence} note={m.note} />
             </tr>
           ))
         : null}
+      {unsure.length ? (
+        <tr>
+          <Td colSpan={3}>
+            <label className="flex min-h-touch items-center gap-3 font-medium" data-testid="history-checked">
+              <input type="checkbox" className="h-5 w-5 accent-copper" checked={d.checkedUnsure} onChange={(e) => set({ checkedUnsure: e.target.checked })} />
+              I compared the {unsure.length} flagged {unsure.length === 1 ? "month" : "months"} ({unsure.map((m) => monthName(m.month)).join(", ")}) with the bill
+            </label>
+          </Td>
+        </tr>
+      ) : null}
     </>
   );
 }
@@ -234,7 +251,7 @@ export function BillReadingReview(props: { reading: BillReading; source: "text" 
           </Td>
           <WhereCell where={r.amountDue?.where} confidence={r.amountDue?.confidence} />
         </tr>
-        <HistoryRows draft={d} set={set} confidence={r.history?.confidence} />
+        <HistoryRows draft={d} set={set} />
       </TableShell>
       {r.warnings.length ? (
         <ul className="space-y-1 text-sm text-caution" aria-label="What to check">

@@ -55,7 +55,7 @@ function toPayload(rows: Row[]) {
 }
 
 /** Uploads with progress (fetch cannot report upload progress; XMLHttpRequest can). */
-function uploadWithProgress(url: string, file: File, onProgress: (pct: number) => void): Promise<Outcome> {
+function uploadWithProgress(url: string, files: File[], onProgress: (pct: number) => void): Promise<Outcome> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open("POST", url);
@@ -72,7 +72,7 @@ function uploadWithProgress(url: string, file: File, onProgress: (pct: number) =
       else reject(new ApiError(xhr.status, body.error?.code ?? "http_error", body.error?.message ?? `The upload failed (${xhr.status}).`));
     };
     const form = new FormData();
-    form.append("file", file);
+    for (const file of files) form.append("file", file);
     xhr.send(form);
   });
 }
@@ -123,12 +123,13 @@ function useBillUpload(dealId: string, setNotice: SetNotice) {
   const [review, setReview] = useState<Review | null>(null);
   const fileInput = useRef<HTMLInputElement>(null);
 
-  async function onFile(file: File) {
+  /** One file, or several photos of one bill's pages (read as one bill). */
+  async function onFile(files: File[]) {
     setNotice(null);
-    setPicture(file.type.startsWith("image/") || file.type === "application/pdf");
+    setPicture(files.some((file) => file.type.startsWith("image/") || file.type === "application/pdf"));
     setProgress(0);
     try {
-      const outcome = await uploadWithProgress(`/api/deals/${dealId}/uploads`, file, setProgress);
+      const outcome = await uploadWithProgress(`/api/deals/${dealId}/uploads`, files, setProgress);
       setNotice({ tone: outcome.kind === "bill-image" ? "info" : "success", text: outcome.message });
       if (outcome.kind === "bill-text") setReview({ uploadId: outcome.upload.id, reading: outcome.reading, source: outcome.source });
       if (outcome.kind === "interval") await queryClient.invalidateQueries({ queryKey: ["usage", dealId] });
@@ -194,15 +195,16 @@ function UploadSection({ upload, onSave, saving }: { upload: ReturnType<typeof u
       <h2 id="upload-heading" className="font-semibold">
         Add bills from files
       </h2>
-      <p className="mt-1 text-sm text-graphite-soft">PDF bills, photos of bills (JPEG, PNG), or hourly data: Green Button XML or CSV. Up to 10 MB a bill, 20 MB of interval data.</p>
+      <p className="mt-1 text-sm text-graphite-soft">PDF bills, photos of bills (JPEG, PNG; choose several photos at once for one bill&apos;s pages, in page order), or hourly data: Green Button XML or CSV. Up to 10 MB a bill, 20 MB of interval data.</p>
       <label className="btn-quiet mt-3 cursor-pointer">
-        Choose a file…
+        Choose a file or photos…
         <input
           ref={fileInput}
           type="file"
           className="sr-only"
           accept=".pdf,.jpg,.jpeg,.png,.csv,.xml,application/pdf,image/jpeg,image/png,text/csv,application/xml"
-          onChange={(e) => e.target.files?.[0] && onFile(e.target.files[0])}
+          multiple
+          onChange={(e) => e.target.files?.length && onFile([...e.target.files])}
           disabled={progress !== null}
           data-testid="bill-file-input"
         />
