@@ -64,7 +64,7 @@ function fmt(ms: number): string {
 async function main(): Promise<void> {
   const only = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length) ?? null;
   const all: BenchCase[] = [...productionCases];
-  for (const part of ["money", "documents"]) {
+  for (const part of ["money", "battery", "documents"]) {
     if (only && !part.startsWith(only) && !only.startsWith(part)) continue;
     const path = fileURLToPath(new URL(`./bench/${part}.ts`, import.meta.url));
     if (existsSync(path)) {
