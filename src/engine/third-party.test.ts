@@ -122,11 +122,12 @@ describe("incentives go to the party that claims them", () => {
     { id: "credit", name: "30 % energy credit", amount: { kind: "percent", pct: 30 }, startDate: "2026-01-01", endDate: "2032-12-31" },
     { id: "rebate", name: "Utility rebate", amount: { kind: "fixed", amountCents: 50_000 }, startDate: "2026-01-01", endDate: "2032-12-31", eligibility: { payment: ["cash", "loan", "lease"] } },
   ];
-  it("a rule is the homeowner's only when it names the lease or PPA; the rest are the owner's", () => {
+  it("a rule is the homeowner's only when it names the lease or PPA; a rule open to any payment is the owner's", () => {
     const lease = splitIncentiveRules(rules, "lease");
     expect([lease.homeowner.map((r) => r.id), lease.owner.map((r) => r.id)]).toEqual([["rebate"], ["credit"]]);
+    // The rebate is not for PPAs, and is nobody's here: the owner claims only rules open to any payment.
     const ppa = splitIncentiveRules(rules, "ppa");
-    expect([ppa.homeowner.map((r) => r.id), ppa.owner.map((r) => r.id)]).toEqual([[], ["credit", "rebate"]]);
+    expect([ppa.homeowner.map((r) => r.id), ppa.owner.map((r) => r.id)]).toEqual([[], ["credit"]]);
   });
 });
 

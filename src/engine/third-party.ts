@@ -68,6 +68,8 @@ export const thirdPartyInputSchema = z
     billWithSolarCents: z.array(cents).min(1),
     utilityEscalationPctPerYear: z.number().finite().min(-10).max(20),
     discountRatePct: z.number().finite().min(-50).max(50),
+    /** A monthly adder in year 1 (e.g. the partner's price for a battery), escalated like the payments. */
+    extraMonthlyCents: z.number().int().min(0).max(1e8).default(0),
     /** The homeowner's own incentives by year (index 0 = at signing). */
     homeownerIncentivesByYear: z.array(z.number().int().min(0).max(1e11)).default([]),
   })
@@ -124,7 +126,7 @@ function monthlyPayments(v: z.output<typeof thirdPartyInputSchema>): number[] {
       let cents: number;
       if (t.kind === "lease") cents = (t.payment.basis === "per-watt" ? v.systemWattsDc * t.payment.monthlyCentsPerWatt : (year1Kwh * t.payment.centsPerKwh) / 12) * escalation;
       else cents = v.year1MonthlyProductionKwh[m] * Math.pow(1 - d, n - 1) * t.centsPerKwh * escalation;
-      out.push(Math.round(cents));
+      out.push(Math.round(cents + v.extraMonthlyCents * escalation));
     }
   }
   return out;
@@ -207,9 +209,10 @@ export function buildThirdPartyCashflow(input: ThirdPartyInput): ThirdPartyResul
 
 /**
  * Which incentive rules are the homeowner's under a lease or PPA (their eligibility names that
- * payment) and which the system owner's (all others: the partner claims them).
+ * payment) and which the system owner's (rules open to any payment: the partner, owning the
+ * system, claims them). Rules limited to other payments (a purchase-only credit) are neither.
  */
 export function splitIncentiveRules<R extends IncentiveRuleInput>(rules: readonly R[], kind: ThirdPartyKind): { homeowner: R[]; owner: R[] } {
-  const isHomeowners = (r: R) => (r.eligibility?.payment as readonly string[] | undefined)?.includes(kind) === true;
-  return { homeowner: rules.filter(isHomeowners), owner: rules.filter((r) => !isHomeowners(r)) };
+  const payments = (r: R) => r.eligibility?.payment as readonly string[] | undefined;
+  return { homeowner: rules.filter((r) => payments(r)?.includes(kind) === true), owner: rules.filter((r) => payments(r) === undefined) };
 }
