@@ -4,13 +4,11 @@
 import { z } from "zod";
 import { label, measure, MODULE_CSV_COLUMNS, type CsvColumn } from "@/lib/schemas/catalog";
 
-export const BATTERY_COUPLINGS = ["ac", "dc"] as const;
-export type BatteryCoupling = (typeof BATTERY_COUPLINGS)[number];
-export const BATTERY_COUPLING_LABELS: Record<BatteryCoupling, string> = { ac: "AC-coupled", dc: "DC-coupled" };
+const BATTERY_COUPLINGS = ["ac", "dc"] as const;
 
 const range = (min: number, max: number, label: string, unit = "") => ({ min, max, label, unit });
 /** Plausible ranges for residential batteries (our choice, wide on both sides of today's datasheets). */
-export const BATTERY_LIMITS = {
+const BATTERY_LIMITS = {
   usableKwh: range(1, 200, "Usable energy", "kWh"),
   continuousKw: range(0.5, 100, "Continuous power", "kW"),
   peakKw: range(0.5, 200, "Peak power", "kW"),
@@ -36,7 +34,6 @@ export const batteryModelSchema = z
   .superRefine((b, ctx) => {
     if (b.peakKw < b.continuousKw) ctx.addIssue({ code: "custom", path: ["peakKw"], message: `Peak power (${b.peakKw} kW) cannot be below the continuous power (${b.continuousKw} kW)` });
   });
-export type BatteryModelInput = z.input<typeof batteryModelSchema>;
 export type BatteryModelValues = z.output<typeof batteryModelSchema>;
 
 /** Fields a partial update may carry; the merged record is then checked with the full schema. */
