@@ -189,6 +189,11 @@ function checkHours(
 }
 
 describe("energy balance properties (fast-check)", () => {
+  // One dispatcher per plan and the peak hours once: the properties run whole years many times.
+  const flatRun = makeBatteryDispatcher(flatPlan);
+  const touRun = makeBatteryDispatcher(touPlan(true));
+  const peak = touPeriodByHour(ratePlanSchema.parse(touPlan(true)).energy as Parameters<typeof touPeriodByHour>[0]);
+
   it("every hour balances to 1e-6 kWh, the state of charge follows the flows within its limits", () => {
     fc.assert(
       fc.property(arbDays, arbBattery, arbSettings, fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }), fc.boolean(), ([loadDays, pvDays], b, settings, limit, withClip) => {
@@ -196,26 +201,24 @@ describe("energy balance properties (fast-check)", () => {
         const p = tile(pvDays);
         const clip = withClip ? tile(pvDays.map((v) => v / 4)) : null;
         const spec = { ...b, peakKw: b.continuousKw * 1.5 };
-        const plan = settings.mode === "time-of-use" ? touPlan(true) : flatPlan;
-        const r = makeBatteryDispatcher(plan)({ loadHourlyKwh: l, productionHourlyKwh: p, clippedDcHourlyKwh: clip, battery: spec, settings: { ...settings, exportLimitKw: limit } });
+        const run = settings.mode === "time-of-use" ? touRun : flatRun;
+        const r = run({ loadHourlyKwh: l, productionHourlyKwh: p, clippedDcHourlyKwh: clip, battery: spec, settings: { ...settings, exportLimitKw: limit } });
         const floorPct = Math.max(b.minSocPct, settings.mode === "backup" ? (settings.reservePct ?? 0) : 0);
         checkHours(r, l, p, clip, spec, floorPct, limit);
         if (settings.mode === "time-of-use") {
-          const peak = touPeriodByHour(ratePlanSchema.parse(plan).energy as Parameters<typeof touPeriodByHour>[0]);
           for (let h = 0; h < HOURS_PER_YEAR; h++) if (peak[h] !== 1 && r.hours.batteryOut[h] > 0) throw new Error(`hour ${h}: discharged outside the peak`);
         }
       }),
       { numRuns: 60 },
     );
-  });
+  }, 60_000);
 
   it("self-consumption never buys or exports more in any hour than the same home without the battery", () => {
     fc.assert(
       fc.property(arbDays, arbBattery, ([loadDays, pvDays], b) => {
-        const run = makeBatteryDispatcher(flatPlan);
         const base = { loadHourlyKwh: tile(loadDays), productionHourlyKwh: tile(pvDays), settings: { mode: "self-consumption" } as const };
-        const withB = run({ ...base, battery: { ...b, peakKw: b.continuousKw, coupling: "ac" } });
-        const without = run({ ...base, battery: null });
+        const withB = flatRun({ ...base, battery: { ...b, peakKw: b.continuousKw, coupling: "ac" } });
+        const without = flatRun({ ...base, battery: null });
         for (let h = 0; h < HOURS_PER_YEAR; h++) {
           if (withB.hours.gridToLoad[h] > without.hours.gridToLoad[h] + TOL) throw new Error(`hour ${h}: buys more with the battery`);
           if (withB.hours.exported[h] > without.hours.exported[h] + TOL) throw new Error(`hour ${h}: exports more with the battery`);
@@ -224,5 +227,5 @@ describe("energy balance properties (fast-check)", () => {
       }),
       { numRuns: 40 },
     );
-  });
+  }, 60_000);
 });

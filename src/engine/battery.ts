@@ -219,12 +219,12 @@ function totalsOf(core: Core, hours: DispatchHours, load: ArrayLike<number>, pv:
  * one price) and where it may charge from the grid (the day's lowest price, when that price
  * over the round-trip efficiency is below the day's highest). Days are rows 24·d … 24·d + 23.
  */
-function touWindows(plan: z.output<typeof ratePlanSchema>, clock: YearClock, roundTrip: number): { peak: Uint8Array; cheap: Uint8Array } {
+function touWindows(plan: z.output<typeof ratePlanSchema>, byHourOf: () => Uint8Array, roundTrip: number): { peak: Uint8Array; cheap: Uint8Array } {
   if (plan.energy.kind !== "tou") {
     throw new EngineInputError([{ path: "settings.mode", message: `time-of-use mode needs a time-of-use rate plan; "${plan.name}" is ${plan.energy.kind}` }], "battery dispatch");
   }
   const prices = plan.energy.periods.map((p) => p.centsPerKwh);
-  const byHour = touPeriodByHour(plan.energy, clock);
+  const byHour = byHourOf();
   const peak = new Uint8Array(HOURS_PER_YEAR);
   const cheap = new Uint8Array(HOURS_PER_YEAR);
   for (let d = 0; d < HOURS_PER_YEAR / 24; d++) {
@@ -271,6 +271,9 @@ export type DispatchInput = {
 export function makeBatteryDispatcher(plan: RatePlanInput, clock: YearClock = { calendarYear: 2023, timeZone: null }): (input: DispatchInput) => DispatchResult {
   const parsedPlan = parseOrThrow(ratePlanSchema, plan, "rate plan");
   const windows = new Map<number, { peak: Uint8Array; cheap: Uint8Array }>();
+  // The plan's period of every hour (the costly part: the wall clock of 8,760 hours), once per dispatcher.
+  let byHour: Uint8Array | null = null;
+  const byHourOf = () => (byHour ??= parsedPlan.energy.kind === "tou" ? touPeriodByHour(parsedPlan.energy, clock) : new Uint8Array(HOURS_PER_YEAR));
   return (input) => {
     const settings = parseOrThrow(dispatchSettingsSchema, input.settings, "battery dispatch settings");
     const battery = input.battery === null ? null : parseOrThrow(batterySpecSchema, input.battery, "battery");
@@ -284,7 +287,7 @@ export function makeBatteryDispatcher(plan: RatePlanInput, clock: YearClock = { 
     let gridChargeHour: Uint8Array | null = null;
     if (settings.mode === "time-of-use" && battery !== null) {
       const roundTrip = eta * eta;
-      const w = windows.get(roundTrip) ?? touWindows(parsedPlan, clock, roundTrip);
+      const w = windows.get(roundTrip) ?? touWindows(parsedPlan, byHourOf, roundTrip);
       windows.set(roundTrip, w);
       dischargeHour = w.peak;
       if (settings.gridCharging && parsedPlan.batteryGridChargingAllowed === true) gridChargeHour = w.cheap;
