@@ -64,7 +64,7 @@ function fmt(ms: number): string {
 async function main(): Promise<void> {
   const only = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length) ?? null;
   const all: BenchCase[] = [...productionCases];
-  for (const part of ["money", "documents"]) {
+  for (const part of ["money", "battery", "documents"]) {
     if (only && !part.startsWith(only) && !only.startsWith(part)) continue;
     const path = fileURLToPath(new URL(`./bench/${part}.ts`, import.meta.url));
     if (existsSync(path)) {
@@ -138,6 +138,10 @@ async function main(): Promise<void> {
     "  3 days and interpolated; the hour-angle, parallax and refraction terms exact for every hour",
     "  (interpolated vs full SPA: < 1e-4°, solar-position.test.ts). The accuracy figure compares airless",
     "  zenith angles at the 8,760 hour middles with astronomy-engine's topocentric sun.",
+    "- Battery dispatch: one year of 8,760 hours through `makeBatteryDispatcher` (src/engine/battery.ts)",
+    "  with its per-call checks of the three series and the eight hourly output arrays; the plan's",
+    "  time-of-use calendar is computed once per dispatcher (as an offer preview keeps it). The whole",
+    "  report adds the dispatch without a battery, three bills of the year and the backup hours.",
     "- The host is shared with other work; a high load average inflates the wall-clock figures. \"CPU ms/run\"",
     "  is this process's CPU time per run (includes garbage collection on other threads), which waiting for",
     "  a core does not inflate.",

@@ -41,6 +41,34 @@ function readText(path: string, what: string): string {
 
 const dollars = (cents: number) => `$${(cents / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
 
+const pct = (x: number) => `${x.toFixed(1)} %`;
+const hours = (h: number | null, span: number) => (h === null ? `${span} h or more` : `${h.toFixed(1)} h`);
+
+function thirdPartyLines(t: NonNullable<QuoteResult["thirdParty"]>): string[] {
+  return [
+    `${t.kind === "lease" ? "Lease" : "Power purchase agreement"} with ${t.partner}, ${t.termYears} years: ${dollars(t.firstYearMonthlyCents)}/month in year 1, ${dollars(t.lastYearMonthlyCents)}/month in year ${t.termYears}, ${dollars(t.averageMonthlyCents)}/month on average`,
+    `  upfront ${dollars(t.upfrontCents)}; total paid over the term ${dollars(t.totalPaidCents)}, of which the escalator adds ${dollars(t.escalatorEffectCents)}; bill savings ${dollars(t.lifetimeBillSavingsCents)}; net ${dollars(t.netSavingsCents)}`,
+    `  ${t.ownership}`,
+    ...t.ownerIncentives.applied.map((i) => `  owner's incentive (not the homeowner's; lowers ${t.partner}'s price): ${i.name} ${dollars(i.amountCents)}`),
+    ...(t.productionGuaranteePct !== null ? [`  production guarantee: ${t.productionGuaranteePct} % of expected`] : []),
+    ...(t.endOfTerm ? [`  end of term: ${t.endOfTerm}`] : []),
+  ];
+}
+
+function batteryLines(b: NonNullable<QuoteResult["battery"]>): string[] {
+  const y = b.year1;
+  return [
+    `Battery: ${b.spec.usableKwh} kWh usable, ${b.spec.continuousKw} kW (${b.spec.coupling.toUpperCase()}-coupled), ${b.mode}; price ${dollars(b.priceCents)}${b.partnerMonthlyCents > 0 ? `, ${dollars(b.partnerMonthlyCents)}/month from the partner` : ""}`,
+    `  bills, year 1: ${dollars(y.withoutSolarCents)} without solar, ${dollars(y.solarOnlyCents)} with solar alone, ${dollars(y.solarAndBatteryCents)} with the battery; solar saves ${dollars(y.solarSavingsCents)}, the battery ${dollars(y.batterySavingsCents)} more (${dollars(b.lifetimeBatterySavingsCents)} over the table)`,
+    `  self-consumption ${pct(b.solarOnly.selfConsumptionPct)} → ${pct(b.withBattery.selfConsumptionPct)}; self-sufficiency ${pct(b.solarOnly.selfSufficiencyPct)} → ${pct(b.withBattery.selfSufficiencyPct)}; ${b.withBattery.equivalentFullCycles.toFixed(0)} full cycles a year`,
+    ...(b.backup?.days ?? []).map((d) =>
+      d.problem ? `  backup (${d.season}): cannot carry the loads: ${d.problem}` : `  backup (${d.season}, ${d.loadWatts} W): ${hours(d.withoutSunHours, b.backup?.spanHours ?? 0)} without sun, ${hours(d.withSunHours, b.backup?.spanHours ?? 0)} with a typical day's sun (month ${d.month})`,
+    ),
+    ...b.notes.map((n) => `  ${n}`),
+    ...(b.backup?.notes ?? []).map((n) => `  ${n}`),
+  ];
+}
+
 function printText(q: QuoteResult): void {
   const s = q.summary;
   const lines = [
@@ -51,11 +79,14 @@ function printText(q: QuoteResult): void {
     ...q.design.faces.map((f) => `  ${f.name}: ${f.modules} modules${f.specificYieldKwhPerKw !== null ? `, ${f.specificYieldKwhPerKw} kWh/kW` : ""}`),
     `Production: ${s.annualProductionKwh} kWh/yr, offset ${s.offsetPct} %  (weather: ${q.production.weather ?? "n/a"})`,
     `Bills, year 1: ${dollars(q.bills.year1WithoutSolarCents)} without solar, ${dollars(q.bills.year1WithSolarCents)} with; savings ${dollars(s.year1SavingsCents)}`,
-    `Price: ${dollars(s.grossPriceCents)} gross, incentives ${dollars(s.incentivesCents)}, net ${dollars(s.netPriceCents)}`,
+    q.thirdParty
+      ? `System price: ${dollars(s.grossPriceCents)}, paid by its owner; the homeowner's incentives ${dollars(s.incentivesCents)}`
+      : `Price: ${dollars(s.grossPriceCents)} gross, incentives ${dollars(s.incentivesCents)}, net ${dollars(s.netPriceCents)}`,
     ...q.incentives.applied.map((i) => `  + ${i.name}: ${dollars(i.amountCents)} (${i.year === 0 ? "upfront" : `year ${i.year}`}; ${i.detail})`),
     ...q.incentives.skipped.map((i) => `  – ${i.name}: not applied (${i.reason})`),
-    s.monthlyLoanPaymentCents !== null ? `Loan payment: ${dollars(s.monthlyLoanPaymentCents)}/month` : "Payment: cash",
+    ...(q.thirdParty ? thirdPartyLines(q.thirdParty) : [s.monthlyLoanPaymentCents !== null ? `Loan payment: ${dollars(s.monthlyLoanPaymentCents)}/month` : "Payment: cash"]),
     `Payback ${s.paybackYears ?? "none"} yr · ROI ${s.simpleRoi === null ? "n/a" : `${(s.simpleRoi * 100).toFixed(1)} %`} · NPV ${dollars(s.npvCents)} · IRR ${s.irr === null ? "n/a" : `${(s.irr * 100).toFixed(2)} %`} · LCOE ${s.lcoeCentsPerKwh ?? "n/a"} ¢/kWh`,
+    ...(q.battery ? batteryLines(q.battery) : []),
     "",
     "year  production kWh  bill w/o solar  bill w/ solar   savings   payments   cash flow  cumulative",
     ...q.cashflow.rows.map(

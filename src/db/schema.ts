@@ -952,6 +952,32 @@ export const jobPhoto = mysqlTable(
   (t) => [index("job_photo_job_idx").on(t.companyId, t.jobId)],
 );
 
+/** A home battery in the company's catalog (datasheet figures; src/engine/battery.ts models it). */
+export const batteryModel = mysqlTable(
+  "battery_model",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    manufacturer: varchar("manufacturer", { length: 100 }).notNull(),
+    model: varchar("model", { length: 100 }).notNull(),
+    usableKwh: double("usable_kwh").notNull(),
+    continuousKw: double("continuous_kw").notNull(),
+    peakKw: double("peak_kw").notNull(),
+    roundTripEfficiencyPct: double("round_trip_efficiency_pct").notNull(),
+    depthOfDischargePct: double("depth_of_discharge_pct").notNull(),
+    warrantyYears: int("warranty_years").notNull(),
+    /** Energy the warranty covers (whichever comes first with the years), MWh; null when none is stated. */
+    warrantyThroughputMwh: double("warranty_throughput_mwh"),
+    coupling: mysqlEnum("coupling", ["ac", "dc"]).notNull(),
+    active: boolean("active").notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("battery_model_uq").on(t.companyId, t.manufacturer, t.model)],
+);
+
 /** A person's saved view of the deals table (filters, sort, columns). */
 export const savedView = mysqlTable(
   "saved_view",
@@ -1007,5 +1033,6 @@ export const schema = {
   checklistTemplate,
   job,
   jobPhoto,
+  batteryModel,
   savedView,
 };

@@ -59,7 +59,8 @@ export const incentiveRuleSchema = z
       .object({
         minKwDc: z.number().finite().min(0).optional(),
         maxKwDc: z.number().finite().positive().optional(),
-        payment: z.array(z.enum(["cash", "loan"])).min(1).optional(),
+        /** Payments the homeowner gets the rule with; a lease or PPA gets only rules naming it (third-party.ts). */
+        payment: z.array(z.enum(["cash", "loan", "lease", "ppa"])).min(1).optional(),
       })
       .default({}),
   })
@@ -76,7 +77,7 @@ export const incentiveContextSchema = z.object({
   /** A lender's dealer fee the homeowner pays inside the loan: part of the system cost a percent rule takes. */
   dealerFeeCents: z.number().int().min(0).default(0),
   systemKwDc: z.number().finite().min(0),
-  payment: z.enum(["cash", "loan"]),
+  payment: z.enum(["cash", "loan", "lease", "ppa"]),
 });
 export type IncentiveContext = z.input<typeof incentiveContextSchema>;
 

@@ -16,7 +16,9 @@ import { siteTimeZone } from "./site-time-zone";
 import { amortizeLoan } from "./finance";
 import { dcAcRatioWarning, sizeSystem, DEFAULT_MAX_DC_AC_RATIO, type SizingResult } from "./sizing";
 import { evaluateIncentives, incentiveRuleSchema, type IncentiveResult } from "./incentives";
-import { buildCashflow, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowResult, type CashflowSummary } from "./cashflow";
+import { quoteBatteryBills, quoteBatterySchema, quoteThirdParty, type BatteryQuote, type ThirdPartyQuote } from "./quote-options";
+import { leaseTermsSchema, ppaTermsSchema } from "./third-party";
+import { buildCashflow, paybackYears, paymentSchema, DEFAULT_DEGRADATION_PCT, DEFAULT_DISCOUNT_RATE_PCT, DEFAULT_UTILITY_ESCALATION_PCT, DEFAULT_YEARS, type CashflowResult, type CashflowSummary } from "./cashflow";
 import { checkString, stringCheckInputSchema, CAUTION, type StringCheckResult } from "./string-check";
 import { HOURS_PER_YEAR, isTimeZone, monthlySums } from "./year-calendar";
 
@@ -89,7 +91,10 @@ export const quoteCaseSchema = z
       discountCents: z.number().int().min(0).default(0),
     }),
     incentives: z.array(incentiveRuleSchema).default([]),
-    financing: paymentSchema,
+    /** Cash, a loan, or a partner's lease or PPA (third-party.ts). */
+    financing: z.discriminatedUnion("kind", [...paymentSchema.options, leaseTermsSchema, ppaTermsSchema]),
+    /** A battery with the system (battery.ts): its bills, savings and backup hours. */
+    battery: quoteBatterySchema.optional(),
     assumptions: z
       .object({
         years: z.number().int().min(1).max(50).default(DEFAULT_YEARS),
@@ -114,6 +119,7 @@ export const quoteCaseSchema = z
   });
 export type QuoteCaseInput = z.input<typeof quoteCaseSchema>;
 type QuoteCase = z.output<typeof quoteCaseSchema>;
+type Purchase = z.output<typeof paymentSchema>;
 
 /** What the production model is asked for: faces with module counts, the inverter, losses. */
 export type ProductionDesign = {
@@ -168,7 +174,12 @@ export type QuoteResult = {
   bills: { year1WithoutSolarCents: number; year1WithSolarCents: number; year1SavingsCents: number; months: MonthlyBillSummary[] };
   price: { grossCents: number; perWattCents: number; adders: { label: string; amountCents: number }[]; discountCents: number };
   incentives: IncentiveResult;
-  cashflow: CashflowResult;
+  /** The year-by-year table; its summary is a purchase's (null for a lease or PPA: see thirdParty). */
+  cashflow: { rows: CashflowResult["rows"]; summary: CashflowSummary | null };
+  /** A lease's or PPA's own figures (null for a purchase). */
+  thirdParty: ThirdPartyQuote | null;
+  /** The battery's figures, apart from the solar's (null without one). */
+  battery: BatteryQuote | null;
   summary: {
     kwDc: number;
     annualProductionKwh: number;
@@ -317,7 +328,8 @@ return {
 
 /** Step 4 of a quote: the bill without solar, and with solar for each year of the table (re-billed with that year's degraded output). */
 function quoteBills(c: QuoteCase, years: number, degradationPctPerYear: number, calendarYear: number, usageHourly: number[], productionHourly: Float64Array) {
-  const bill = makeBillCalculator(c.ratePlan, { calendarYear, timeZone: c.site.timeZone ?? siteTimeZone(c.site.latitude, c.site.longitude) });
+  const clock = { calendarYear, timeZone: c.site.timeZone ?? siteTimeZone(c.site.latitude, c.site.longitude) };
+  const bill = makeBillCalculator(c.ratePlan, clock);
   const without = bill(usageHourly, null);
   const degraded = new Float64Array(HOURS_PER_YEAR);
   const withByYear: AnnualBill[] = [];
@@ -326,16 +338,16 @@ function quoteBills(c: QuoteCase, years: number, degradationPctPerYear: number, 
     for (let h = 0; h < HOURS_PER_YEAR; h++) degraded[h] = productionHourly[h] * f;
     withByYear.push(bill(usageHourly, degraded));
   }
-  return { without, withByYear };
+  return { without, withByYear, clock };
 }
 
 /** Step 5 of a quote: the incentives; a dealer fee inside the loan is part of the system cost a percent credit takes (see incentives.ts). */
-function quoteIncentives(c: QuoteCase, grossCents: number, kwDc: number): IncentiveResult {
+function quoteIncentives(c: QuoteCase, financing: Purchase, grossCents: number, kwDc: number): IncentiveResult {
   const incentivesWith = (dealerFeeCents: number) =>
-    evaluateIncentives({ rules: c.incentives, asOf: c.asOf, installDate: c.installDate, grossPriceCents: grossCents, dealerFeeCents, systemKwDc: kwDc, payment: c.financing.kind });
+    evaluateIncentives({ rules: c.incentives, asOf: c.asOf, installDate: c.installDate, grossPriceCents: grossCents, dealerFeeCents, systemKwDc: kwDc, payment: financing.kind });
   const first = incentivesWith(0);
-  if (c.financing.kind === "loan" && c.financing.dealerFeePct > 0 && c.financing.dealerFeeMode === "added") {
-    const f = c.financing;
+  if (financing.kind === "loan" && financing.dealerFeePct > 0 && financing.dealerFeeMode === "added") {
+    const f = financing;
     const borrowed = Math.max(0, grossCents - f.downPaymentCents - first.upfrontCents);
     return incentivesWith(amortizeLoan({ amountCents: borrowed, aprPct: f.aprPct, termMonths: f.termMonths, dealerFeePct: f.dealerFeePct, dealerFeeMode: "added" }).dealerFeeCents);
   }
@@ -343,12 +355,12 @@ function quoteIncentives(c: QuoteCase, grossCents: number, kwDc: number): Incent
 }
 
 /** Step 5's table: the cash flow over the analysis years. */
-function quoteCashflow(c: QuoteCase, a: QuoteCase["assumptions"], grossCents: number, incentives: IncentiveResult, annualProduction: number, without: AnnualBill, withByYear: AnnualBill[]) {
+function quoteCashflow(financing: Purchase, a: QuoteCase["assumptions"], grossCents: number, incentives: IncentiveResult, annualProduction: number, without: AnnualBill, withByYear: AnnualBill[]) {
   return buildCashflow({
     years: a.years,
     grossPriceCents: grossCents,
     incentivesByYear: incentives.byYear.slice(0, a.years + 1),
-    payment: c.financing,
+    payment: financing,
     year1ProductionKwh: annualProduction,
     degradationPctPerYear: a.degradationPctPerYear,
     billWithoutSolarCents: without.totalCents,
@@ -383,12 +395,36 @@ return {
   };
 }
 
+type MoneyInputs = { grossCents: number; kwDc: number; annualProduction: number; productionHourly: Float64Array; without: AnnualBill; withByYear: AnnualBill[] };
+type Headline = { kwDc: number; annualProduction: number; offsetPct: number; grossCents: number; year1SavingsCents: number };
+
+/** Step 5 of a quote: incentives and the table, for a purchase (cash, loan) or a partner's lease or PPA. */
+function quoteMoney(c: QuoteCase, a: QuoteCase["assumptions"], m: MoneyInputs) {
+  const f = c.financing;
+  if (f.kind === "cash" || f.kind === "loan") {
+    const incentives = quoteIncentives(c, f, m.grossCents, m.kwDc);
+    const cashflow = quoteCashflow(f, a, m.grossCents, incentives, m.annualProduction, m.without, m.withByYear);
+    const notes = [...(incentives.byYear.length > a.years + 1 ? [`Incentives paid after year ${a.years} are left out.`] : []), ...cashflow.summary.notes];
+    return { incentives, cashflow, thirdParty: null, notes, summaryOf: (h: Headline) => quoteSummary({ ...h, incentives, s: cashflow.summary }) };
+  }
+  const { result, quote } = quoteThirdParty({ terms: f, rules: c.incentives, asOf: c.asOf, installDate: c.installDate, grossPriceCents: m.grossCents, kwDc: m.kwDc, productionHourly: m.productionHourly, degradationPctPerYear: a.degradationPctPerYear, utilityEscalationPctPerYear: a.utilityEscalationPctPerYear, discountRatePct: a.discountRatePct, without: m.without, withByYear: m.withByYear, battery: c.battery ?? null });
+  const notes = quote.ownerIncentives.totalCents > 0 ? [`${quote.partner} owns the system and claims its incentives (${quote.ownerIncentives.applied.map((i) => i.name).join(", ")}); they lower its price and are not the homeowner's.`] : [];
+  const paid = quote.totalPaidCents - quote.homeownerIncentivesCents;
+  // A lease or PPA has no purchase price: the headline carries what the homeowner pays over the term.
+  const summaryOf = (h: Headline): QuoteResult["summary"] => ({
+    ...quoteSummary({ ...h, incentives: quote.homeownerIncentives, s: { netCostCents: paid, lifetimeSavingsCents: quote.lifetimeBillSavingsCents, paybackYears: paybackYears(result.rows.map((r) => r.cashFlowCents)), simplePaybackYears: null, simpleRoi: null, npvCents: quote.npvCents, irr: null, irrNote: `not computed for a ${f.kind}: the homeowner buys no system to earn a return on`, lcoeCentsPerKwh: null, simpleLcoeCentsPerKwh: null, loan: null, lifetimeProductionKwh: 0, notes: [] } }),
+    netPriceCents: paid,
+  });
+  return { incentives: quote.homeownerIncentives, cashflow: { rows: result.rows, summary: null }, thirdParty: quote, notes, summaryOf };
+}
+
 export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): QuoteResult {
   const c = parseOrThrow(quoteCaseSchema, input, "quote case");
   const notes: string[] = [...(ctx.weatherNotes ?? [])];
   // A loan is counted to its last payment: the analysis runs at least its term.
+  // A lease or PPA is counted over its term.
   const loanYears = c.financing.kind === "loan" ? Math.ceil(c.financing.termMonths / 12) : 0;
-  const a = { ...c.assumptions, years: Math.max(c.assumptions.years, loanYears) };
+  const a = { ...c.assumptions, years: c.financing.kind === "lease" || c.financing.kind === "ppa" ? c.financing.termYears : Math.max(c.assumptions.years, loanYears) };
   const calendarYear = a.calendarYear ?? Number(c.asOf.slice(0, 4));
 
   // 1. Usage: 8760 hourly kWh.
@@ -410,23 +446,25 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
   const dcAcNote = dcAcRatioWarning(d.inverter.kind, dcAcRatio, d.inverter.kind === "string" ? d.maxDcAcRatio : undefined);
   if (dcAcNote) notes.push(dcAcNote);
 
-  // 4. Bills: year 1 without and with solar; with solar re-billed for each year's degraded output.
-  const { without, withByYear } = quoteBills(c, a.years, a.degradationPctPerYear, calendarYear, usageHourly, productionHourly);
+  // 4. Bills: year 1 without and with solar; with solar re-billed for each year's degraded output (and the battery dispatched again).
+  const { without, withByYear: solarOnlyByYear, clock } = quoteBills(c, a.years, a.degradationPctPerYear, calendarYear, usageHourly, productionHourly);
+  const batteryBills = c.battery
+    ? quoteBatteryBills({ battery: c.battery, plan: c.ratePlan, clock, usageHourly, productionHourly, years: a.years, degradationPctPerYear: a.degradationPctPerYear, utilityEscalationPctPerYear: a.utilityEscalationPctPerYear, without, solarOnlyByYear })
+    : null;
+  const withByYear = batteryBills?.withByYear ?? solarOnlyByYear;
   const withYear1 = withByYear[0];
-  if (a.years > c.assumptions.years) notes.push(`The table runs ${a.years} years, the loan's term, instead of ${c.assumptions.years}, so every loan payment is counted.`);
+  if (a.years > c.assumptions.years) notes.push(`The table runs ${a.years} years, the ${c.financing.kind}'s term, instead of ${c.assumptions.years}, so every payment is counted.`);
+  if (a.years < c.assumptions.years) notes.push(`The table runs ${a.years} years, the ${c.financing.kind}'s term, instead of ${c.assumptions.years}.`);
 
   // 5. Price, incentives, cash flow.
   const addersCents = c.price.adders.reduce((s, x) => s + x.amountCents, 0);
-  const grossCents = Math.max(0, Math.round(kwDc * 1000 * c.price.perWattCents) + addersCents - c.price.discountCents);
-  const incentives = quoteIncentives(c, grossCents, kwDc);
-  const cashflow = quoteCashflow(c, a, grossCents, incentives, annualProduction, without, withByYear);
-  if (incentives.byYear.length > a.years + 1) notes.push(`Incentives paid after year ${a.years} are left out.`);
-  notes.push(...cashflow.summary.notes);
+  const grossCents = Math.max(0, Math.round(kwDc * 1000 * c.price.perWattCents) + addersCents - c.price.discountCents) + (c.battery?.priceCents ?? 0);
+  const money = quoteMoney(c, a, { grossCents, kwDc, annualProduction, productionHourly, without, withByYear });
+  notes.push(...money.notes);
 
   // 6. String check (optional).
   const stringCheck: StringCheckResult | null = d.stringCheck === undefined ? null : checkString(parseOrThrow(stringCheckInputSchema, d.stringCheck, "design.stringCheck"));
 
-  const s = cashflow.summary;
   const offsetPct = (annualProduction / annualUsage) * 100;
   return {
     name: c.name,
@@ -449,9 +487,11 @@ export function buildQuote<W>(input: QuoteCaseInput, ctx: QuoteContext<W>): Quot
     },
     bills: billsReport(without, withYear1),
     price: { grossCents, perWattCents: c.price.perWattCents, adders: c.price.adders, discountCents: c.price.discountCents },
-    incentives,
-    cashflow,
-    summary: quoteSummary({ kwDc, annualProduction, offsetPct, grossCents, incentives, year1SavingsCents: without.totalCents - withYear1.totalCents, s }),
+    incentives: money.incentives,
+    cashflow: money.cashflow,
+    thirdParty: money.thirdParty,
+    battery: batteryBills?.report ?? null,
+    summary: money.summaryOf({ kwDc, annualProduction, offsetPct, grossCents, year1SavingsCents: without.totalCents - withYear1.totalCents }),
     stringCheck,
     assumptions: { ...pickAssumptions(a), calendarYear, lcoe: "discounted LCOE (Short, Packey & Holt 1995, NREL/TP-462-5173)", degradation: "Jordan & Kurtz 2013 median, compounded yearly" },
     notes,

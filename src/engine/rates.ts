@@ -131,6 +131,8 @@ export const ratePlanSchema = z.object({
   minimumBillCents: z.number().int().min(0).default(0),
   energy: z.discriminatedUnion("kind", [flatEnergySchema, tieredEnergySchema, touEnergySchema]),
   compensation: compensationSchema,
+  /** Whether the plan lets a home battery charge from the grid (battery.ts; absent: no). */
+  batteryGridChargingAllowed: z.boolean().optional(),
 });
 export type RatePlan = z.output<typeof ratePlanSchema>;
 export type RatePlanInput = z.input<typeof ratePlanSchema>;

@@ -15,6 +15,8 @@ const book: PriceBook = {
     { id: "credit", name: "Tax credit", source: "federal", amount: { kind: "percent", pct: 30, basis: "gross-price" }, startDate: "2020-01-01", endDate: "2040-12-31", timing: { year: 1 }, countsOn: "installation", eligibility: {}, utilityId: null },
   ],
   deposit: { kind: "fixed", amountCents: 100_000 },
+  batteries: [],
+  rateSheets: [],
 };
 
 const flatPlan = { name: "Flat 10", energy: { kind: "flat" as const, centsPerKwh: 10 }, compensation: { kind: "net-metering" as const } };

@@ -90,7 +90,7 @@ export async function getInverterOrThrow(companyId: string, id: string): Promise
 
 // ── Writes ───────────────────────────────────────────────────────────────────────────
 
-const duplicate = (what: string, v: { manufacturer: string; model: string }) =>
+export const duplicate = (what: string, v: { manufacturer: string; model: string }) =>
   new HttpError(409, "duplicate_model", `The catalog already has the ${what} ${v.manufacturer} ${v.model}.`, {
     model: [`${v.manufacturer} ${v.model} is already in the catalog`],
   });
@@ -133,7 +133,7 @@ function inverterColumns(v: InverterModelValues) {
   return { ...common, ...none, dcInputMinV: v.dcInputMinV, dcInputMaxV: v.dcInputMaxV, modulesPerUnit: v.modulesPerUnit };
 }
 
-function parseWhole<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
+export function parseWhole<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
   const parsed = schema.safeParse(input);
   if (!parsed.success) throw validationError(parsed.error);
   return parsed.data;
@@ -251,7 +251,7 @@ export async function setInverterActive(member: Member, id: string, active: bool
 
 // ── CSV export ───────────────────────────────────────────────────────────────────────
 
-function toCsv(columns: readonly CsvColumn[], rows: Record<string, unknown>[]): string {
+export function toCsv(columns: readonly CsvColumn[], rows: Record<string, unknown>[]): string {
   return Papa.unparse(
     {
       fields: columns.map((c) => c.name),
@@ -398,7 +398,7 @@ function rowToInput(row: CsvRow, columns: readonly CsvColumn[]): { input: Record
   return { input, active, errors };
 }
 
-function issuesToErrors(line: number, error: z.ZodError, columns: readonly CsvColumn[]): CsvRowError[] {
+export function issuesToErrors(line: number, error: z.ZodError, columns: readonly CsvColumn[]): CsvRowError[] {
   const byField = new Map(columns.map((c) => [c.field, c.name]));
   return error.issues.map((i) => ({ line, column: byField.get(String(i.path[0])) ?? "row", message: i.message }));
 }
@@ -409,7 +409,7 @@ type ImportSpec<V extends { manufacturer: string; model: string }> = {
   upsert: (tx: Tx, companyId: string, value: V, active: boolean | undefined) => Promise<"created" | "updated">;
 };
 
-async function importCsv<V extends { manufacturer: string; model: string }>(
+export async function importCsv<V extends { manufacturer: string; model: string }>(
   member: Member,
   text: string,
   mode: ImportMode,

@@ -82,6 +82,26 @@ const PRICE_BOOK: PriceBookInput = {
     },
   ],
   deposit: { kind: "percent", pct: 10, minCents: 50_000, maxCents: 250_000 },
+  // The demo catalog's batteries (scripts/lib/seed/battery-catalog.ts) at invented installed prices.
+  batteries: [
+    { id: "stillwater-13-5", name: "Stillwater SW-13.5AC, installed", batteryModelId: "7a11a55e-0000-4000-8000-000000001021", amountCents: 1_150_000 },
+    { id: "kettle-creek-10", name: "Kettle Creek KC-10DC, installed", batteryModelId: "7a11a55e-0000-4000-8000-000000001022", amountCents: 1_020_000 },
+  ],
+  // Invented partners' rate sheets (terms and prices are examples, not any real partner's).
+  rateSheets: [
+    {
+      id: "example-lease-nc-2026",
+      effectiveDate: "2026-01-01",
+      states: ["NC"],
+      terms: { kind: "lease", partner: "Example Solar Partner", payment: { basis: "per-watt", monthlyCentsPerWatt: 0.99 }, escalatorPctPerYear: 1.9, termYears: 25, productionGuaranteePct: 90, endOfTerm: "Renew for 5 years, buy at fair market value, or removal at no cost." },
+    },
+    {
+      id: "example-ppa-nc-2026",
+      effectiveDate: "2026-01-01",
+      states: ["NC"],
+      terms: { kind: "ppa", partner: "Example Solar Partner", centsPerKwh: 10.4, escalatorPctPerYear: 2.9, termYears: 25, productionGuaranteePct: 90, endOfTerm: "Buyout at fair market value from year 6; renewal or removal at the end." },
+    },
+  ],
 };
 
 const RATE_PLANS: { id: string; record: RatePlanRecordInput }[] = [

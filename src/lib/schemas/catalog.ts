@@ -87,7 +87,7 @@ type Limit = { min: number; max: number; label: string; unit: string };
 const withUnit = (v: number, unit: string) => (unit ? `${v} ${unit}` : String(v));
 
 /** A number within a plausible range; NaN (an empty form field) reads as "enter a number". */
-function measure(limit: Limit, opts: { integer?: boolean } = {}) {
+export function measure(limit: Limit, opts: { integer?: boolean } = {}) {
   let s = z.number({ error: `Enter ${limit.label} as a number${limit.unit ? ` (${limit.unit})` : ""}` });
   if (opts.integer) s = s.int(`${limit.label} must be a whole number`);
   return s
@@ -96,7 +96,7 @@ function measure(limit: Limit, opts: { integer?: boolean } = {}) {
 }
 
 /** Names as printed on datasheets; they start with a letter or digit (so an exported CSV never starts a cell with a spreadsheet formula). */
-function label(field: string, max = 100) {
+export function label(field: string, max = 100) {
   return plainText({ error: `Enter the ${field}` })
     .trim()
     .min(1, `Enter the ${field}`)

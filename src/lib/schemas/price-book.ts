@@ -5,6 +5,7 @@
 import { z } from "zod";
 import { plainText } from "@/lib/schemas/text";
 import { incentiveRuleSchema, type IncentiveRuleInput } from "@/engine/incentives";
+import { thirdPartyTermsSchema } from "@/engine/third-party";
 
 /** The price book format this code reads and writes. */
 export const PRICE_BOOK_VERSION = 1;
@@ -84,6 +85,23 @@ export const priceBookIncentiveSchema = incentiveRuleSchema.safeExtend({
 });
 export type PriceBookIncentive = z.output<typeof priceBookIncentiveSchema>;
 
+/** A battery the company sells: one from its catalog (battery_model) at an installed price. */
+export const batteryLineSchema = z.object({ id: idString, name: nameString, batteryModelId: z.uuid("Pick the battery from the catalog"), amountCents: cents });
+export type BatteryLine = z.output<typeof batteryLineSchema>;
+
+/**
+ * A financing partner's rate sheet for a lease or PPA (the engine's terms, src/engine/third-party.ts),
+ * in force from `effectiveDate`, for the listed states (none: every state) or one utility.
+ */
+export const rateSheetSchema = z.object({
+  id: idString,
+  effectiveDate: z.iso.date("must be a date as YYYY-MM-DD"),
+  states: z.array(z.string().regex(/^[A-Z]{2}$/, "use two-letter state codes (e.g. NC)")).max(60).default([]),
+  utilityId: z.uuid("Pick the utility from the list").nullable().default(null),
+  terms: thirdPartyTermsSchema,
+});
+export type RateSheet = z.output<typeof rateSheetSchema>;
+
 /** The deposit asked at signing: a fixed amount, or a percentage of the contract within a min and max. */
 export const depositPolicySchema = z.discriminatedUnion("kind", [
   z.object({ kind: z.literal("fixed"), amountCents: cents }),
@@ -114,6 +132,8 @@ export const priceBookSchema = z
     discountLimits: z.object({ sales_rep: discountLimitSchema, office_manager: discountLimitSchema }),
     incentives: z.array(priceBookIncentiveSchema).max(50),
     deposit: depositPolicySchema,
+    batteries: z.array(batteryLineSchema).max(50).default([]),
+    rateSheets: z.array(rateSheetSchema).max(100).default([]),
   })
   .superRefine((book, ctx) => {
     // Bands: contiguous from 0 W upward, each above the one before, the last open-ended.
@@ -137,6 +157,8 @@ export const priceBookSchema = z
     uniqueIds(book.adders, ctx, "adders");
     uniqueIds(book.lineItems, ctx, "lineItems");
     uniqueIds(book.incentives, ctx, "incentives");
+    uniqueIds(book.batteries, ctx, "batteries");
+    uniqueIds(book.rateSheets, ctx, "rateSheets");
   });
 export type PriceBook = z.output<typeof priceBookSchema>;
 export type PriceBookInput = z.input<typeof priceBookSchema>;
@@ -155,9 +177,27 @@ export function incentiveRulesForEngine(book: PriceBook): IncentiveRuleInput[] {
   }));
 }
 
-/** The book as one household sees it: rules of another utility than `utilityId` left out. */
+/** The book as one household sees it: rules and rate sheets of another utility than `utilityId` left out. */
 export function bookForUtility(book: PriceBook, utilityId: string | null): PriceBook {
-  return { ...book, incentives: book.incentives.filter((rule) => rule.utilityId === null || rule.utilityId === utilityId) };
+  const ours = (x: { utilityId: string | null }) => x.utilityId === null || x.utilityId === utilityId;
+  return { ...book, incentives: book.incentives.filter(ours), rateSheets: book.rateSheets.filter(ours) };
+}
+
+/**
+ * The rate sheets a rep may offer on `asOf` in `state` (two letters) for a household of
+ * `utilityId`: among the sheets that cover the state and utility, the latest effective date
+ * not after `asOf` for each partner and kind.
+ */
+export function rateSheetsInForce(book: PriceBook, where: { asOf: string; state: string | null; utilityId: string | null }): RateSheet[] {
+  const covers = (s: RateSheet) =>
+    s.effectiveDate <= where.asOf && (s.utilityId === null || s.utilityId === where.utilityId) && (s.states.length === 0 || (where.state !== null && s.states.includes(where.state)));
+  const latest = new Map<string, RateSheet>();
+  for (const sheet of book.rateSheets.filter(covers)) {
+    const key = `${sheet.terms.kind}:${sheet.terms.partner}`;
+    const held = latest.get(key);
+    if (!held || held.effectiveDate < sheet.effectiveDate) latest.set(key, sheet);
+  }
+  return [...latest.values()];
 }
 
 /** A company that has not set up its price book yet starts from this (one band, nothing else). */
@@ -170,5 +210,7 @@ export function emptyPriceBook(): PriceBook {
     discountLimits: { sales_rep: { maxCents: 0, maxPct: null }, office_manager: { maxCents: 0, maxPct: null } },
     incentives: [],
     deposit: { kind: "fixed", amountCents: 0 },
+    batteries: [],
+    rateSheets: [],
   };
 }

@@ -66,7 +66,59 @@ describe("command line", () => {
     expect(q.usage.source).toContain("12 month(s) measured");
     expect(q.stringCheck?.status).toBe("pass");
   });
+
+  it("npm run quote prices the documented lease-with-battery case: payments by the rate sheet, the owner's credit kept apart, the battery's savings apart from the solar's", async () => {
+    const { stdout } = await run(process.execPath, [tsx, "scripts/quote.ts", "--case", "docs/examples/quote-case-lease-battery.json", "--json"], { cwd: root, timeout: 120_000, maxBuffer: 32 * 1024 * 1024 });
+    const q = JSON.parse(stdout) as ExtrasResult;
+    const t = q.thirdParty;
+    // 8,610 W × 0.99 ¢/W + 3,500 ¢ for the battery = 12,024 ¢ a month in year 1; × 1.019 in year 2.
+    expect(t.firstYearMonthlyCents).toBe(12_024);
+    expect(q.cashflow.rows[2].systemPaymentCents).toBe(12 * Math.round(12_023.9 * 1.019));
+    expect(t.totalPaidCents).toBe(q.cashflow.rows.reduce((a, r) => a + r.systemPaymentCents, 0));
+    expect(t.netSavingsCents).toBe(t.lifetimeBillSavingsCents + t.homeownerIncentivesCents - t.totalPaidCents);
+    // The 30 % business credit is the owner's; only the rebate that names leases is the homeowner's.
+    expect(t.ownerIncentives.applied.map((a) => a.id)).toEqual(["example-owner-credit"]);
+    expect(q.incentives.applied.map((a) => [a.id, a.amountCents])).toEqual([["example-battery-rebate", 50_000]]);
+    const b = q.battery.year1;
+    expect(b.solarSavingsCents + b.batterySavingsCents).toBe(b.withoutSolarCents - b.solarAndBatteryCents);
+    expect(q.bills.months.reduce((a, m) => a + m.withSolarCents, 0)).toBe(b.solarAndBatteryCents);
+    expect(q.battery.backup.days.map((d) => d.season)).toEqual(["winter", "summer"]);
+  });
+
+  it("npm run quote prices the documented PPA and cash-with-battery cases", async () => {
+    const json = async (file: string) => JSON.parse((await run(process.execPath, [tsx, "scripts/quote.ts", "--case", file, "--json"], { cwd: root, timeout: 120_000, maxBuffer: 32 * 1024 * 1024 })).stdout) as ExtrasResult;
+    const ppa = await json("docs/examples/quote-case-ppa.json");
+    // PPA year 1: the expected kWh × 10.4 ¢, month by month.
+    // Each month rounds to the cent and the reported kWh to 0.1: within 12 × 0.5 + 0.05 × 10.4 ¢.
+    expect(Math.abs(ppa.cashflow.rows[1].systemPaymentCents - ppa.production.annualKwh * 10.4)).toBeLessThanOrEqual(6.6);
+    expect(ppa.incentives.applied).toEqual([]);
+    const cash = await json("docs/examples/quote-case-cash-battery.json");
+    // The battery's $11,500 is in the purchase price: 2,583,850 + 1,150,000 ¢.
+    expect(cash.summary.grossPriceCents).toBe(2_583_850 + 1_150_000);
+    expect(cash.thirdParty).toBeNull();
+    expect(cash.battery.year1.batterySavingsCents).toBeGreaterThan(0);
+  });
 });
+
+type ExtrasResult = {
+  production: { annualKwh: number };
+  bills: { months: { withSolarCents: number }[] };
+  incentives: { applied: { id: string; amountCents: number }[] };
+  cashflow: { rows: { systemPaymentCents: number }[] };
+  summary: { grossPriceCents: number };
+  thirdParty: {
+    firstYearMonthlyCents: number;
+    totalPaidCents: number;
+    netSavingsCents: number;
+    lifetimeBillSavingsCents: number;
+    homeownerIncentivesCents: number;
+    ownerIncentives: { applied: { id: string }[] };
+  };
+  battery: {
+    year1: { withoutSolarCents: number; solarAndBatteryCents: number; solarSavingsCents: number; batterySavingsCents: number };
+    backup: { days: { season: string }[] };
+  };
+};
 
 type QuoteResult = {
   design: { modules: number };
