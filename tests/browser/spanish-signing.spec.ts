@@ -63,6 +63,13 @@ test("a Spanish-speaking homeowner reads, signs and pays in Spanish", async ({ b
   await expect(phone.getByRole("heading", { level: 1, name: "Propuesta solar para Quintero household" })).toBeVisible();
   await expect(phone.locator("[lang='es']").first()).toBeVisible();
   await expect(phone.getByRole("heading", { name: "Cómo lo calculamos" })).toBeVisible();
+  // The snapshot's assumptions, cautions and price words in Spanish; only the company's own names stay as typed.
+  const estimated = phone.locator("section", { has: phone.getByRole("heading", { name: "Cómo lo calculamos" }) });
+  await expect(estimated).toContainText("Pérdidas del sistema:");
+  await expect(estimated).toContainText("Estimaciones, no una garantía");
+  for (const english of ["System losses", "Estimates, not a guarantee", "Deposits follow", "Utility prices rise", "as your installer entered them"]) await expect(estimated).not.toContainText(english);
+  await expect(phone.getByTestId("offer-details-1")).toContainText("Precio del sistema");
+  await expect(phone.getByTestId("offer-details-1")).not.toContainText("System price");
 
   // The code, in Spanish.
   await phone.getByRole("button", { name: "Enviarme un código por correo" }).click();

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { household, deal } from "@/db/schema";
 import type { MailFake } from "@/fakes/mail-server";
 import { formatCents } from "@/lib/format";
+import { snapshotText } from "@/lib/snapshot-text";
 import { env } from "@/env";
 import { client, latestToken, mailTo, newDeal, newWorld, signatureDataUrl, startMailIfNeeded, type World } from "./support";
 
@@ -64,6 +65,30 @@ describe("a proposal for a household that reads Spanish", () => {
     expect(text).toContain("Su derecho a cancelar");
     expect(text).toContain("Traducción; el texto en inglés prevalece.");
     expect(text).toContain("NOTICE OF CANCELLATION");
+  });
+
+  it("prints the snapshot's assumptions, notes and cautions in Spanish, with no English sentence left", async () => {
+    const x = await sentInSpanish();
+    const p = await x.load();
+    const texts = p.snapshot.texts;
+    if (!texts) throw new Error("a new snapshot stores its homeowner texts as catalog messages");
+    // The page frame (header and "página n de m") can fall inside a sentence that runs onto the next page.
+    const frame = new RegExp(`Proposal Spanish Solar Propuesta ${x.label} · ${p.snapshot.household.name} Proposal Spanish Solar página \\d+ de \\d+ `, "g");
+    const flat = (await pdfText(await m.proposals.readProposalPdf(p, "unsigned"))).replace(/\s+/g, " ").replace(frame, "");
+    const stored = [...texts.assumptions, ...texts.cautions, ...texts.notes];
+    expect(stored.every((t) => typeof t !== "string")).toBe(true);
+    for (const item of stored) {
+      expect(flat).not.toContain(snapshotText(item, "en"));
+      expect(flat).toContain(snapshotText(item, "es"));
+    }
+    expect(flat).toContain("Pérdidas del sistema:");
+    expect(flat).toContain("Estimaciones, no una garantía");
+    expect(flat).not.toContain("Estimates, not a guarantee");
+    expect(flat).not.toContain("Deposits follow the installer's deposit policy");
+    // The price lines: our words in Spanish, the company's own line names as typed.
+    expect(flat).toContain("Precio del sistema 8,000 W × 300 ¢/W");
+    expect(flat).toContain("un monto fijo");
+    for (const english of ["System price", "fixed amount", "per job"]) expect(flat).not.toContain(english);
   });
 
   it("sends the code and the signed copy in Spanish; the rep's notice stays English", async () => {

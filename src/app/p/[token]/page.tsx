@@ -15,6 +15,7 @@ import type { Locale } from "@/lib/i18n/locales";
 import { translator } from "@/lib/i18n/translator";
 import { plainAssumptions } from "@/lib/plain-words";
 import { proposalLinkState } from "@/lib/proposal-snapshot";
+import { snapshotTexts } from "@/lib/snapshot-text";
 import { dateInZone } from "@/lib/zoned-time";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { clientMeta } from "@/server/client-address";
@@ -148,6 +149,7 @@ function HouseholdCard({ s, t }: { s: ProposalSnapshot; t: T }) {
 /**
  * How the figures were made, in words: the assumption sentences without station ids or method
  * citations (src/lib/plain-words.ts), then the methods named the way a homeowner can look them up.
+ * A snapshot's stored messages print in the page's language; an older snapshot's sentences as stored.
  */
 function AssumptionsCard({ s, t, locale }: { s: ProposalSnapshot; t: T; locale: Locale }) {
   return (
@@ -156,7 +158,7 @@ function AssumptionsCard({ s, t, locale }: { s: ProposalSnapshot; t: T; locale: 
         {t("assumptions.heading")}
       </h2>
       <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">
-        {plainAssumptions(s.assumptions, s.offers).map((a) => (
+        {(s.texts ? snapshotTexts(s.texts.assumptions, locale) : plainAssumptions(s.assumptions, s.offers)).map((a) => (
           <li key={a}>{a}</li>
         ))}
         {s.offers.map((o) => {
@@ -165,10 +167,10 @@ function AssumptionsCard({ s, t, locale }: { s: ProposalSnapshot; t: T; locale: 
         })}
       </ul>
       <p className="mt-3 text-sm text-graphite-soft">{t("assumptions.method")}</p>
-      {locale !== "en" ? <p className="mt-1 text-xs text-graphite-soft">{t("assumptions.dataNote")}</p> : null}
+      {locale !== "en" && !s.texts ? <p className="mt-1 text-xs text-graphite-soft">{t("assumptions.dataNote")}</p> : null}
       <h3 className="mt-4 font-semibold">{t("assumptions.note")}</h3>
       <ul className="mt-2 list-disc space-y-1 rounded-md bg-caution-light py-2 pl-8 pr-3 text-sm">
-        {s.cautions.map((c) => (
+        {(s.texts ? snapshotTexts(s.texts.cautions, locale) : s.cautions).map((c) => (
           <li key={c}>{c}</li>
         ))}
       </ul>
@@ -260,7 +262,7 @@ async function SignedPage({ p, token, timeZone, t }: { p: ProposalRow; token: st
       {cancelWindow ? <RightToCancel p={p} token={token} cancelWindow={cancelWindow} t={t} /> : null}
       <section aria-label={t("signed.offerRegion", { name: offer.name })}>
         <h2 className="mb-3 text-xl font-semibold">{offer.name}</h2>
-        <OfferDetails offer={offer} usageKwh={s.usage.monthlyKwh} />
+        <OfferDetails offer={offer} usageKwh={s.usage.monthlyKwh} texts={s.texts?.offers.find((x) => x.position === offer.position)} />
       </section>
       <AssumptionsCard s={s} t={t} locale={p.locale} />
       <QuestionForm token={token} repName={s.rep.name} />
