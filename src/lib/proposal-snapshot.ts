@@ -4,6 +4,7 @@
 // snapshot, never the live offers, catalog or price book. Also: the states a proposal link can
 // be in, and the right-to-cancel window. No server or browser imports.
 import { formatCalendarDate } from "@/lib/format";
+import { haversineKm } from "@/engine/geo";
 import type { SkipWhy } from "@/engine/incentives";
 import { plainAssumption, weatherSourcePlace } from "@/lib/plain-words";
 import { msg, snapshotText, snapshotTexts, type SnapshotKey, type SnapshotMessage, type SnapshotText } from "@/lib/snapshot-text";
@@ -234,6 +235,13 @@ function snapshotTextsOf(src: SnapshotSource, offers: ProposalSnapshotOffer[]): 
   };
 }
 
+/** The station the offers' weather came from (the first offer that names one), with its distance from the home in whole km. */
+function stationOf(src: SnapshotSource): Pick<ProposalSnapshot, "station"> {
+  const station = src.offers.find((o) => o.figures.weatherStation)?.figures.weatherStation;
+  if (!station) return {};
+  return { station: { ...station, distanceKm: Math.round(haversineKm(src.household, station)) } };
+}
+
 /** Freezes the offers into the snapshot the proposal carries (a deep copy: no shared references). */
 export function buildProposalSnapshot(src: SnapshotSource): ProposalSnapshot {
   if (src.offers.length < 1 || src.offers.length > 3) throw new Error("A proposal holds 1–3 offers.");
@@ -260,6 +268,7 @@ export function buildProposalSnapshot(src: SnapshotSource): ProposalSnapshot {
     rep: { ...src.rep },
     household: { ...src.household },
     utilityName: src.utilityName,
+    ...stationOf(src),
     usage: { monthlyKwh: src.usage.monthlyKwh.map((v) => Math.round(v * 10) / 10), source: src.usage.source },
     assumptions: assumptionSentences(src),
     offers,

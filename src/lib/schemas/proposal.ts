@@ -47,6 +47,8 @@ export type ProposalSnapshot = {
     language?: Locale;
   };
   utilityName: string | null;
+  /** The weather station the figures' typical year was measured at, and how far from the home (absent on older snapshots and for a typed production figure). */
+  station?: { name: string; latitude: number; longitude: number; distanceKm: number };
   /** Monthly usage the offers were computed from (kWh, Jan–Dec) and where it came from. */
   usage: { monthlyKwh: number[]; source: string };
   /** Weather source, system losses and other design assumptions, as sentences. */
