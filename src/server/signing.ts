@@ -442,7 +442,8 @@ async function queueSignedCopies(
 // ── Verify ─────────────────────────────────────────────────────────────────────────────────
 
 
-export type VerifyAnswer = { match: true; label: string; signedOn: string } | { match: false };
+/** A match names the proposal, its signing date (in the document's language) and that language. */
+export type VerifyAnswer = { match: true; label: string; signedOn: string; locale: Locale } | { match: false };
 
 /**
  * Does this file's SHA-256 match a signed Kilowright record? Answers only the proposal's label
@@ -454,11 +455,12 @@ export async function verifySignedPdf(bytes: Uint8Array): Promise<VerifyAnswer> 
   const type = await fileTypeFromBuffer(bytes);
   if (type?.mime !== "application/pdf") throw new HttpError(415, "not_pdf", "This is not a PDF file. Upload the signed PDF you received.");
   const [row] = await db()
-    .select({ number: proposal.number, version: proposal.version, signedAt: proposal.signedAt, companyId: proposal.companyId })
+    .select({ number: proposal.number, version: proposal.version, signedAt: proposal.signedAt, companyId: proposal.companyId, snapshot: proposal.snapshot })
     .from(proposal)
     .where(eq(proposal.signedSha256, sha256Hex(bytes)))
     .limit(1);
   if (!row || !row.signedAt) return { match: false };
   const { timeZone } = await getCompanySettings(row.companyId);
-  return { match: true, label: labelOf(row), signedOn: `${formatDate(row.signedAt, timeZone)} (${zoneName(row.signedAt, timeZone)})` };
+  const locale = row.snapshot.household.language ?? "en"; // the signed PDF's own language
+  return { match: true, label: labelOf(row), signedOn: `${formatDate(row.signedAt, timeZone, locale)} (${zoneName(row.signedAt, timeZone)})`, locale };
 }

@@ -258,7 +258,7 @@ describe("verify", () => {
     const signed = await x.load();
     const bytes = await m.proposals.readProposalPdf(signed, "signed");
     const answer = await m.signing.verifySignedPdf(bytes);
-    expect(answer).toEqual({ match: true, label: x.label, signedOn: `${formatDate(signed.signedAt!, "America/New_York")} (${zoneName(signed.signedAt!, "America/New_York")})` }); // the company's default zone
+    expect(answer).toEqual({ match: true, label: x.label, signedOn: `${formatDate(signed.signedAt!, "America/New_York")} (${zoneName(signed.signedAt!, "America/New_York")})`, locale: "en" }); // the company's default zone
     const tampered = new Uint8Array(bytes);
     const i = Math.floor(tampered.length / 2);
     tampered[i] = tampered[i] ^ 0x01;

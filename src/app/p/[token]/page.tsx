@@ -13,7 +13,7 @@ import { figureDefinitions } from "@/lib/figure-definitions";
 import { formatCalendarDate, formatCents, formatDate, formatDateTime } from "@/lib/format";
 import type { Locale } from "@/lib/i18n/locales";
 import { translator } from "@/lib/i18n/translator";
-import { plainAssumptions } from "@/lib/plain-words";
+import { plainAssumptions, weatherSourcePlace } from "@/lib/plain-words";
 import { proposalLinkState } from "@/lib/proposal-snapshot";
 import { snapshotTexts } from "@/lib/snapshot-text";
 import { dateInZone } from "@/lib/zoned-time";
@@ -111,7 +111,7 @@ function Shell({ snapshot: s, label, token, t, locale, children }: { snapshot: P
       <main className="mt-5 space-y-5">{children}</main>
       <footer className="mt-10 flex items-center justify-between gap-3 border-t border-paper-line pt-4 text-xs text-graphite-soft">
         <Wordmark className="text-sm" />
-        <a href="/verify" className="underline underline-offset-2">
+        <a href={`/verify?lang=${locale}`} className="underline underline-offset-2">
           {t("shell.verifyLink")}
         </a>
       </footer>
@@ -128,6 +128,12 @@ function Notice({ title, children, testId }: { title: string; children: ReactNod
   );
 }
 
+/** A station's name as a place ("GREENSBORO PIEDMONT TRIAD INT, NC" → "Greensboro Piedmont Triad Int, NC"). */
+function stationPlace(name: string): string {
+  const w = weatherSourcePlace(name);
+  return w && "place" in w ? w.place : name;
+}
+
 function HouseholdCard({ s, t }: { s: ProposalSnapshot; t: T }) {
   const h = s.household;
   const annual = Math.round(s.usage.monthlyKwh.reduce((a, b) => a + b, 0));
@@ -141,6 +147,11 @@ function HouseholdCard({ s, t }: { s: ProposalSnapshot; t: T }) {
         {h.street}, {h.city}, {h.region} {h.postalCode}
       </p>
       {s.utilityName ? <p className="text-sm text-graphite-soft">{t("home.utility", { name: s.utilityName })}</p> : null}
+      {s.station ? (
+        <p className="text-sm text-graphite-soft" data-testid="weather-station">
+          {t("home.station", { place: stationPlace(s.station.name), km: s.station.distanceKm })}
+        </p>
+      ) : null}
       <p className="mt-2 text-sm">{t.rich("home.usage", { kwh: annual.toLocaleString("en-US"), figure: tags.figure })}</p>
     </section>
   );
@@ -249,7 +260,7 @@ async function SignedPage({ p, token, timeZone, t }: { p: ProposalRow; token: st
             sha256: p.signedSha256 ?? "",
             figure: (chunks) => <span className="figure">{chunks}</span>,
             verify: (chunks) => (
-              <a href="/verify" className="underline">
+              <a href={`/verify?lang=${p.locale}`} className="underline">
                 {chunks}
               </a>
             ),
