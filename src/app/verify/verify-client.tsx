@@ -2,7 +2,7 @@
 import { useLocale, useTranslations } from "next-intl";
 import { usePathname, useRouter } from "next/navigation";
 import { useEffect, useState, type FormEvent } from "react";
-import { FormMessage } from "@/components/ui/field";
+import { FieldShell, FormMessage } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { ApiError } from "@/lib/api-client";
 import type { Locale } from "@/lib/i18n/locales";
@@ -55,10 +55,7 @@ export function VerifyClient() {
 
   return (
     <form className="card mt-6 space-y-4 p-4" onSubmit={submit} noValidate>
-      <div>
-        <label htmlFor="verify-file" className="field-label">
-          {t("fileLabel")}
-        </label>
+      <FieldShell id="verify-file" label={t("fileLabel")}>
         <input
           id="verify-file"
           type="file"
@@ -70,7 +67,7 @@ export function VerifyClient() {
             setError(null);
           }}
         />
-      </div>
+      </FieldShell>
       <button type="submit" className="btn-primary w-full" disabled={check.pending}>
         {check.pending ? t("checking") : t("check")}
       </button>
