@@ -1,7 +1,9 @@
 "use client";
-// The server words its refusals in English (they also reach logs and the office). On the
+// The server words most refusals in English (they also reach logs and the office). On the
 // homeowner's page in another language, a refusal is told from its code in the page's catalog;
-// in English the server's own sentence stays (it names the exact wait or count).
+// in English the server's own sentence stays (it names the exact wait or count). Refusals of
+// what the homeowner entered, of the link's state and of the deposit come already in the
+// proposal's language (src/server/homeowner-refusals.ts): their sentence is shown as sent.
 import { useLocale, useTranslations } from "next-intl";
 import { ApiError } from "@/lib/api-client";
 
@@ -9,13 +11,12 @@ const BY_CODE = {
   code_locked: "codeLocked",
   code_expired: "codeExpired",
   no_code: "noCode",
-  code_required: "codeRequired",
   not_live: "notLive",
-  already_signed: "alreadySigned",
-  already_paid: "alreadyPaid",
   mail_failed: "mailFailed",
-  validation_failed: "invalid",
 } as const;
+
+/** Codes the server words in the homeowner's language. */
+const WORDED_FOR_HOMEOWNER = new Set(["validation_failed", "expired", "revoked", "replaced", "already_signed", "cancelled", "code_required", "proposal_cancelled", "not_signed", "no_deposit", "already_paid"]);
 
 export function useHomeownerError(): (err: Error) => string {
   const t = useTranslations("page.errors");
@@ -23,6 +24,7 @@ export function useHomeownerError(): (err: Error) => string {
   return (err) => {
     if (locale === "en") return err.message || t("generic");
     if (!(err instanceof ApiError)) return t("generic");
+    if (WORDED_FOR_HOMEOWNER.has(err.code) && err.message) return err.message;
     if (err.code === "code_wrong") return t("codeWrong", { left: Number(err.message.match(/(\d+)/)?.[1] ?? 0) });
     if (err.status === 429) return t("tooMany");
     const key = BY_CODE[err.code as keyof typeof BY_CODE];

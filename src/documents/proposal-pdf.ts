@@ -15,6 +15,7 @@ import { translator } from "@/lib/i18n/translator";
 import { figureDefinitions } from "@/lib/figure-definitions";
 import { OFFER_CAUTION } from "@/lib/offer-figures";
 import type { ProposalSnapshot, ProposalSnapshotOffer } from "@/lib/schemas/proposal";
+import { msg, snapshotText, snapshotTexts } from "@/lib/snapshot-text";
 import { drawCashflowChart, drawUsageProductionChart, type ChartLabels } from "./charts";
 import { embedFonts, type DocFonts } from "./fonts";
 import {
@@ -154,6 +155,8 @@ const chartLabels = ({ t, months }: Lang): ChartLabels => ({
   paidBack: t("chart.paidBack"),
 });
 
+/** Where the usage came from, in the reader's words (the snapshot stores a code). */
+const usageSource = (source: string, { t }: Lang) => (source === "bills" || source === "interval" || source === "none" ? t(`assumptions.usageSource.${source}`) : source);
 const whenPaid = (year: number, { t }: Lang) => (year === 0 ? t("frame.atSigning") : t("frame.inYear", { year }));
 
 // ── Pages ──────────────────────────────────────────────────────────────────────────────────
@@ -210,7 +213,8 @@ function cover(flow: Flow, s: ProposalSnapshot, meta: ProposalPdfMeta): void {
   flow.paragraph(t(meta.inHomeSale ? "cover.insideWithCancel" : "cover.inside", { years: savingsYears(s.offers, L) }), { size: 9.5, color: COLORS.muted });
 }
 
-function energyToday(flow: Flow, s: ProposalSnapshot, { t, money, months }: Lang): void {
+function energyToday(flow: Flow, s: ProposalSnapshot, L: Lang): void {
+  const { t, money, months } = L;
   flow.newPage();
   flow.heading(t("energy.heading"));
   const first = s.offers[0];
@@ -220,7 +224,7 @@ function energyToday(flow: Flow, s: ProposalSnapshot, { t, money, months }: Lang
   flow.facts([
     { label: t("energy.utility"), value: s.utilityName ?? t("energy.notGiven") },
     { label: t("energy.ratePlan"), value: planNames.join("; ") || t("energy.notGiven") },
-    { label: t("energy.usageFrom"), value: s.usage.source },
+    { label: t("energy.usageFrom"), value: usageSource(s.usage.source, L) },
     { label: t("energy.annualUsage"), value: kwh(sum(usage)), mono: true },
     ...(bills.length === 12 ? [{ label: t("energy.annualBill"), value: money(sum(bills)), mono: true }] : []),
   ]);
@@ -290,7 +294,8 @@ function offerSystem(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
   );
 }
 
-function offerMoney(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
+/** What a price or incentive line costs, with its words; `texts` is the offer's stored messages (absent on older snapshots). */
+function offerMoney(flow: Flow, o: ProposalSnapshotOffer, L: Lang, texts: NonNullable<ProposalSnapshot["texts"]>["offers"][number] | undefined): void {
   const { fonts } = flow;
   const { t, money, signed } = L;
   const f = o.figures.summary;
@@ -304,9 +309,16 @@ function offerMoney(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
       { label: t("money.amount"), width: 84, align: "right", mono: true },
     ],
     [
-      ...o.figures.price.lines.map((l) => ({ cells: [l.label, l.detail, signed(l.amountCents)] })),
+      ...o.figures.price.lines.map((l, i) => {
+        // A new snapshot words our part of each line in the reader's language; a price-book name stays as typed.
+        const own = texts?.priceLines[i];
+        return { cells: own ? [snapshotText(own.label, L.locale), snapshotText(own.detail, L.locale), signed(l.amountCents)] : [l.label, l.detail, signed(l.amountCents)] };
+      }),
       { cells: [t("money.contractPrice"), t("money.whatYouSign"), money(f.contractCents)], bold: true },
-      ...o.figures.incentives.applied.map((a) => ({ cells: [t("money.incentivePaid", { name: a.name, when: whenPaid(a.year, L) }), a.detail, signed(-a.amountCents)] })),
+      ...o.figures.incentives.applied.map((a, i) => {
+        const how = texts?.applied[i];
+        return { cells: [t("money.incentivePaid", { name: a.name, when: whenPaid(a.year, L) }), how === undefined ? a.detail : snapshotText(how, L.locale), signed(-a.amountCents)] };
+      }),
       { cells: [t("money.netCost"), "", money(f.netCostCents)], bold: true },
     ],
   );
@@ -336,7 +348,7 @@ function offerMoney(flow: Flow, o: ProposalSnapshotOffer, L: Lang): void {
   flow.ensure(height + 10);
   drawCashflowChart(flow.page, { x: MARGIN_X, y: flow.y - height, width: CONTENT_WIDTH, height }, { cumulativeCents: o.figures.rows.map((r) => r.cumulativeCents), paybackYears: f.paybackYears }, fonts, chartLabels(L));
   flow.y -= height + 10;
-  flow.paragraph(o.figures.caution || OFFER_CAUTION, { size: 8.5, color: COLORS.muted });
+  flow.paragraph(texts ? snapshotText(msg("caution.offer"), L.locale) : o.figures.caution || OFFER_CAUTION, { size: 8.5, color: COLORS.muted });
 }
 
 function offerTable(flow: Flow, o: ProposalSnapshotOffer, { t, money, signed }: Lang): void {
@@ -378,9 +390,10 @@ function assumptions(flow: Flow, s: ProposalSnapshot, L: Lang): void {
   flow.newPage();
   flow.heading(t("assumptions.heading"));
   flow.paragraph(t("assumptions.how"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
+  const texts = s.texts;
   flow.bullets([
-    ...s.assumptions,
-    t("assumptions.usage", { source: s.usage.source, kwh: kwh(sum(s.usage.monthlyKwh)) }),
+    ...(texts ? snapshotTexts(texts.assumptions, L.locale) : s.assumptions),
+    t("assumptions.usage", { source: usageSource(s.usage.source, L), kwh: kwh(sum(s.usage.monthlyKwh)) }),
     ...s.offers.map((o) => {
       const a = o.figures.assumptions;
       const simple = figureDefinitions(o.figures, o.inputs.payment.kind, L.locale).simplePayback;
@@ -401,19 +414,27 @@ function assumptions(flow: Flow, s: ProposalSnapshot, L: Lang): void {
   for (const o of s.offers) {
     const inc = o.figures.incentives;
     const n = o.position;
-    for (const a of inc.applied) incentiveLines.push(t("assumptions.applied", { n, name: a.name, amount: money(a.amountCents), detail: a.detail, when: whenPaid(a.year, L), asOf: o.figures.asOf }));
-    for (const k of inc.skipped) incentiveLines.push(t("assumptions.skipped", { n, name: k.name, reason: k.reason }));
+    // A new snapshot words the details and reasons in the reader's language; an older one has the engine's English.
+    const own = texts?.offers.find((x) => x.position === n);
+    const detail = (i: number, english: string) => (own?.applied[i] !== undefined ? snapshotText(own.applied[i], L.locale) : english);
+    const reason = (i: number, english: string) => (own?.skipped[i] !== undefined ? snapshotText(own.skipped[i], L.locale) : english);
+    inc.applied.forEach((a, i) =>
+      incentiveLines.push(t("assumptions.applied", { n, name: a.name, amount: money(a.amountCents), detail: detail(i, a.detail), when: whenPaid(a.year, L), asOf: o.figures.asOf })),
+    );
+    inc.skipped.forEach((k, i) => incentiveLines.push(t("assumptions.skipped", { n, name: k.name, reason: reason(i, k.reason) })));
     if (inc.applied.length === 0 && inc.skipped.length === 0) incentiveLines.push(t("assumptions.none", { n }));
   }
   flow.bullets(incentiveLines);
   flow.paragraph(t("assumptions.incentivesNote"), { size: 9, color: COLORS.muted });
-  const notes = [...new Set(s.offers.flatMap((o) => o.figures.notes))];
+  const notes = texts ? snapshotTexts(texts.notes, L.locale) : [...new Set(s.offers.flatMap((o) => o.figures.notes))];
   if (notes.length > 0) {
     flow.paragraph(t("assumptions.notes"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
     flow.bullets(notes);
   }
   flow.paragraph(t("assumptions.cautions"), { font: fonts.sansBold, size: 11, gapAfter: 4 });
-  const cautions = [...s.cautions, OFFER_CAUTION, t("assumptions.cautionDesign"), t("assumptions.cautionUtility")];
+  const cautions = texts
+    ? [...snapshotTexts(texts.cautions, L.locale), t("assumptions.cautionDesign"), t("assumptions.cautionUtility")]
+    : [...s.cautions, OFFER_CAUTION, t("assumptions.cautionDesign"), t("assumptions.cautionUtility")];
   flow.bullets([...new Set(cautions)]);
 }
 
@@ -573,7 +594,7 @@ export async function renderProposalPdf(snapshot: ProposalSnapshot, meta: Propos
   energyToday(flow, snapshot, L);
   for (const o of snapshot.offers) {
     offerSystem(flow, o, L);
-    offerMoney(flow, o, L);
+    offerMoney(flow, o, L, snapshot.texts?.offers.find((x) => x.position === o.position));
     offerTable(flow, o, L);
   }
   assumptions(flow, snapshot, L);

@@ -109,6 +109,15 @@ export function irrRoots(values: readonly number[]): number[] {
   return roots;
 }
 
+/** Why there is no IRR when no rate makes the NPV zero (readers word them by these exact texts). */
+export const IRR_REASONS = {
+  noOutlay: "not meaningful: no money is paid out, so there is nothing to earn a return on",
+  neverPositive: "not meaningful: the cash flows never turn positive",
+  noRoot: "not meaningful: no rate between −99 % and 10,000 % brings the net present value to zero",
+} as const;
+/** The reason when several rates make the NPV zero: how many, and which. */
+export const IRR_MANY_ROOTS = /^not meaningful: the yearly cash flow changes sign more than once and (\d+) rates \((.*)\) each bring the net present value to zero$/;
+
 /**
  * The IRR when it means something: exactly one rate makes the NPV zero. Otherwise null with the
  * reason a person can read (no rate at all, or several, as with a loan whose payments outlast
@@ -119,11 +128,7 @@ export function irrVerdict(values: readonly number[]): { irr: number | null; rea
   const roots = irrRoots(values);
   if (roots.length === 1) return { irr: roots[0], reason: null };
   if (roots.length === 0) {
-    const reason = !values.some((v) => v < 0)
-      ? "not meaningful: no money is paid out, so there is nothing to earn a return on"
-      : !values.some((v) => v > 0)
-        ? "not meaningful: the cash flows never turn positive"
-        : "not meaningful: no rate between −99 % and 10,000 % brings the net present value to zero";
+    const reason = !values.some((v) => v < 0) ? IRR_REASONS.noOutlay : !values.some((v) => v > 0) ? IRR_REASONS.neverPositive : IRR_REASONS.noRoot;
     return { irr: null, reason };
   }
   const list = roots.map((r) => `${(r * 100).toFixed(1)} %`).join(", ");

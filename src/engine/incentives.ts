@@ -92,7 +92,8 @@ export type AppliedIncentive = {
 
 export type IncentiveResult = {
   applied: AppliedIncentive[];
-  skipped: { id: string; name: string; reason: string }[];
+  /** `why` is absent on figures computed before it was recorded. */
+  skipped: { id: string; name: string; reason: string; why?: SkipWhy }[];
   upfrontCents: number;
   totalCents: number;
   /** Incentive cents by year, index 0 = upfront. */
@@ -110,17 +111,41 @@ function ruleDate(rule: Rule, ctx: Context): { on: string; onWhat: string } {
   return { on, onWhat: rule.countsOn === "installation" ? `installation on ${on}` : `the offer on ${on}` };
 }
 
+/** Why a rule does not apply, as data (so a reader's language can word it). */
+export type SkipWhy =
+  | { kind: "starts" | "ended"; date: string; on: string; onWhat: "installation" | "offer" }
+  | { kind: "belowMin" | "aboveMax"; kw: number; limit: number }
+  | { kind: "payment"; payment: "cash" | "loan" };
+
 /** Why a rule does not apply (dates, size, payment), or null when it does. */
-function skipReason(rule: Rule, ctx: Context): string | null {
-  const { on, onWhat } = ruleDate(rule, ctx);
+function skipWhy(rule: Rule, ctx: Context): SkipWhy | null {
+  const { on } = ruleDate(rule, ctx);
+  const onWhat = rule.countsOn === "installation" ? "installation" : "offer";
   // ISO dates compare correctly as strings.
-  if (on < rule.startDate) return `starts ${rule.startDate}, after ${onWhat}`;
-  if (on > rule.endDate) return `ended ${rule.endDate}, before ${onWhat}`;
+  if (on < rule.startDate) return { kind: "starts", date: rule.startDate, on, onWhat };
+  if (on > rule.endDate) return { kind: "ended", date: rule.endDate, on, onWhat };
   const el = rule.eligibility;
-  if (el.minKwDc !== undefined && ctx.systemKwDc < el.minKwDc) return `system ${ctx.systemKwDc} kW DC is below the ${el.minKwDc} kW minimum`;
-  if (el.maxKwDc !== undefined && ctx.systemKwDc > el.maxKwDc) return `system ${ctx.systemKwDc} kW DC is above the ${el.maxKwDc} kW maximum`;
-  if (el.payment && !el.payment.includes(ctx.payment)) return `not available for ${ctx.payment} payment`;
+  if (el.minKwDc !== undefined && ctx.systemKwDc < el.minKwDc) return { kind: "belowMin", kw: ctx.systemKwDc, limit: el.minKwDc };
+  if (el.maxKwDc !== undefined && ctx.systemKwDc > el.maxKwDc) return { kind: "aboveMax", kw: ctx.systemKwDc, limit: el.maxKwDc };
+  if (el.payment && !el.payment.includes(ctx.payment)) return { kind: "payment", payment: ctx.payment };
   return null;
+}
+
+/** The reason in the office's words ("starts 2027-01-01, after the offer on 2026-12-05"). */
+function skipReason(why: SkipWhy): string {
+  switch (why.kind) {
+    case "starts":
+    case "ended": {
+      const onWhat = why.onWhat === "installation" ? `installation on ${why.on}` : `the offer on ${why.on}`;
+      return why.kind === "starts" ? `starts ${why.date}, after ${onWhat}` : `ended ${why.date}, before ${onWhat}`;
+    }
+    case "belowMin":
+      return `system ${why.kw} kW DC is below the ${why.limit} kW minimum`;
+    case "aboveMax":
+      return `system ${why.kw} kW DC is above the ${why.limit} kW maximum`;
+    case "payment":
+      return `not available for ${why.payment} payment`;
+  }
 }
 
 /** A rule's amount before the remaining-price limit, with how it was worked out. */
@@ -151,9 +176,9 @@ export function evaluateIncentives(input: IncentiveContext): IncentiveResult {
   let appliedSoFar = 0;
 
   for (const rule of ctx.rules) {
-    const reason = skipReason(rule, ctx);
-    if (reason) {
-      skipped.push({ id: rule.id, name: rule.name, reason });
+    const why = skipWhy(rule, ctx);
+    if (why) {
+      skipped.push({ id: rule.id, name: rule.name, reason: skipReason(why), why });
       continue;
     }
     const amount = ruleAmount(rule, ctx, appliedSoFar);

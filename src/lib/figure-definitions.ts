@@ -1,6 +1,7 @@
 // What payback, ROI, simple payback and IRR mean, in plain words and with the offer's own
 // numbers. The Offers tab, the homeowner's page and the proposal PDF all print these strings,
 // so the three never explain a figure differently. The definitions follow src/engine/cashflow.ts.
+import { IRR_MANY_ROOTS, IRR_REASONS } from "@/engine/finance";
 import { formatCents } from "@/lib/format";
 import type { Locale } from "@/lib/i18n/locales";
 import { translator } from "@/lib/i18n/translator";
@@ -31,6 +32,15 @@ function roiBasisText(kind: "cash" | "loan", s: Figures["summary"], t: T, locale
   return s.downPaymentCents ? t("basisLoanDown", { amount, down: formatCents(s.downPaymentCents, locale) }) : t("basisLoan", { amount });
 }
 
+/** Why there is no IRR, in the reader's language: the engine's reasons by their exact text (a reason we have no words for is printed as the engine wrote it). */
+function irrText(note: string, t: T): string {
+  const known = (Object.keys(IRR_REASONS) as (keyof typeof IRR_REASONS)[]).find((k) => IRR_REASONS[k] === note);
+  if (known) return t(`irrWhy.${known}`);
+  const many = note.match(IRR_MANY_ROOTS);
+  if (many) return t("irrWhy.manyRoots", { count: Number(many[1]), rates: many[2] });
+  return t("irr", { note });
+}
+
 /** The definitions in the reader's language (the homeowner's page and PDF pass theirs; the Offers tab English). */
 export function figureDefinitions(f: Figures, paymentKind: "cash" | "loan", locale: Locale = "en"): FigureDefinitions {
   const { summary: s, assumptions: a } = f;
@@ -40,7 +50,7 @@ export function figureDefinitions(f: Figures, paymentKind: "cash" | "loan", loca
   const roi = t("roi", { years: a.years, basis: roiBasisText(paymentKind, s, t, locale) });
   const simplePayback =
     s.simplePaybackYears === undefined ? null : s.simplePaybackYears === null ? t("simpleNone") : t("simple", { years: s.simplePaybackYears.toFixed(1) });
-  const irr = s.irr === null && s.irrNote ? t("irr", { note: s.irrNote }) : null;
+  const irr = s.irr === null && s.irrNote ? irrText(s.irrNote, t) : null;
   return { payback, roi, simplePayback, irr };
 }
 

@@ -324,7 +324,12 @@ export type OfferFigures = {
   assumptions: OfferAssumptions & { ratePlanName: string; calendarYear: number; installDate?: ExpectedInstall };
   notes: string[];
   caution: string;
+  /** Where the weather year was measured (set by the server for a station's year; absent for a typed figure and on older figures). */
+  weatherStation?: WeatherStationPlace;
 };
+
+/** A weather station's name and position. */
+export type WeatherStationPlace = { name: string; latitude: number; longitude: number };
 
 const round = (x: number, digits = 1) => Math.round(x * 10 ** digits) / 10 ** digits;
 

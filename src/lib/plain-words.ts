@@ -14,16 +14,23 @@ function placeName(raw: string): string {
     .join(", ");
 }
 
-/** A weather source label as the office stores it ("TMY3 723170 GREENSBORO …", "EPW Name (source)") → where it was measured, in words. */
-export function plainWeatherSource(label: string): string {
+/** Where a weather source label ("TMY3 723170 GREENSBORO …", "EPW Name (source)") says the weather was measured, without ids or formats. */
+export function weatherSourcePlace(label: string): { typed: string } | { place: string } | null {
   const typed = label.match(/^Typed from another source: (.*)$/);
-  if (typed) return `hourly weather typed in from ${typed[1]}`;
+  if (typed) return { typed: typed[1] };
   const station = label
     .replace(/\s*\([^)]*\)/g, "")
     .replace(/^(NREL\s+)?(TMY3|TMY|EPW)(\s+station)?\s*/i, "")
     .replace(/^\d{5,6}\s*/, "")
     .trim();
-  return station ? `a typical year of hourly sun and temperature measured at ${placeName(station)}` : "a typical year of hourly sun and temperature measured near your home";
+  return station ? { place: placeName(station) } : null;
+}
+
+/** A weather source label as the office stores it → where it was measured, in words. */
+export function plainWeatherSource(label: string): string {
+  const w = weatherSourcePlace(label);
+  if (w && "typed" in w) return `hourly weather typed in from ${w.typed}`;
+  return w ? `a typical year of hourly sun and temperature measured at ${w.place}` : "a typical year of hourly sun and temperature measured near your home";
 }
 
 const REWRITES: [RegExp, string][] = [

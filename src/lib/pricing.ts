@@ -15,6 +15,12 @@ export type OfferPricingInput = {
   role: Role;
 };
 
+export type PriceLineHow =
+  | { per: "watt"; watts: number; centsPerWatt: number }
+  | { per: "module"; modules: number; centsEach: number }
+  | { per: "job" }
+  | { per: "off"; cents: number };
+
 export type PriceLine = {
   kind: "base" | "adder" | "line-item" | "discount";
   /** Adder or line item id; absent for base and discount. */
@@ -22,6 +28,8 @@ export type PriceLine = {
   label: string;
   /** How the amount was reached, e.g. "7,200 W × 285 ¢/W". */
   detail: string;
+  /** The same as data, for the homeowner's language (absent on figures computed before it was recorded). */
+  how?: PriceLineHow;
   /** Negative for the discount. */
   amountCents: number;
 };
@@ -118,7 +126,13 @@ export function priceOffer(book: PriceBook, input: OfferPricingInput): OfferPric
   const lines: PriceLine[] = [];
   const band = bandFor(book, dcWatts);
   const baseCents = Math.round(dcWatts * band.centsPerWattDc);
-  lines.push({ kind: "base", label: "System price", detail: `${num(dcWatts)} W × ${num(band.centsPerWattDc)} ¢/W`, amountCents: baseCents });
+  lines.push({
+    kind: "base",
+    label: "System price",
+    detail: `${num(dcWatts)} W × ${num(band.centsPerWattDc)} ¢/W`,
+    how: { per: "watt", watts: dcWatts, centsPerWatt: band.centsPerWattDc },
+    amountCents: baseCents,
+  });
 
   let addersCents = 0;
   input.adderIds.forEach((id, i) => {
@@ -126,18 +140,22 @@ export function priceOffer(book: PriceBook, input: OfferPricingInput): OfferPric
     if (!adder) throw new PricingInputError(`adderIds.${i}`, `unknown adder "${id}"`);
     let amountCents: number;
     let detail: string;
+    let how: PriceLineHow;
     if (adder.kind === "per_watt") {
       amountCents = Math.round(dcWatts * adder.centsPerWattDc);
       detail = `${num(dcWatts)} W × ${num(adder.centsPerWattDc)} ¢/W`;
+      how = { per: "watt", watts: dcWatts, centsPerWatt: adder.centsPerWattDc };
     } else if (adder.kind === "per_module") {
       amountCents = moduleCount * adder.centsPerModule;
       detail = `${moduleCount} modules × ${usd(adder.centsPerModule)}`;
+      how = { per: "module", modules: moduleCount, centsEach: adder.centsPerModule };
     } else {
       amountCents = adder.amountCents;
       detail = "per job";
+      how = { per: "job" };
     }
     addersCents += amountCents;
-    lines.push({ kind: "adder", id, label: adder.name, detail, amountCents });
+    lines.push({ kind: "adder", id, label: adder.name, detail, how, amountCents });
   });
 
   let lineItemsCents = 0;
@@ -145,12 +163,12 @@ export function priceOffer(book: PriceBook, input: OfferPricingInput): OfferPric
     const item = book.lineItems.find((l) => l.id === id);
     if (!item) throw new PricingInputError(`lineItemIds.${i}`, `unknown line item "${id}"`);
     lineItemsCents += item.amountCents;
-    lines.push({ kind: "line-item", id, label: item.name, detail: "per job", amountCents: item.amountCents });
+    lines.push({ kind: "line-item", id, label: item.name, detail: "per job", how: { per: "job" }, amountCents: item.amountCents });
   });
 
   const grossCents = baseCents + addersCents + lineItemsCents;
   if (discountCents > grossCents) throw new PricingInputError("discountCents", `must not exceed the price of ${usd(grossCents)}`);
-  if (discountCents > 0) lines.push({ kind: "discount", label: "Discount", detail: `${usd(discountCents)} off`, amountCents: -discountCents });
+  if (discountCents > 0) lines.push({ kind: "discount", label: "Discount", detail: `${usd(discountCents)} off`, how: { per: "off", cents: discountCents }, amountCents: -discountCents });
   const contractCents = grossCents - discountCents;
   const limit = discountLimitCents(book, role, grossCents);
 

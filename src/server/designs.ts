@@ -3,7 +3,7 @@ import { and, asc, eq, sql } from "drizzle-orm";
 import { design, weatherStation } from "@/db/schema";
 import { estimateProduction } from "@/engine/production";
 import type { WeatherYear } from "@/engine/weather";
-import { engineSystem, manualProductionHourly, MANUAL_SHAPE_NOTE, type InverterSpec, type ModuleSpec } from "@/lib/offer-figures";
+import { engineSystem, manualProductionHourly, MANUAL_SHAPE_NOTE, type InverterSpec, type ModuleSpec, type WeatherStationPlace } from "@/lib/offer-figures";
 import { designDocumentSchema, saveDesignSchema, type DesignDocument } from "@/lib/schemas/design";
 import { getInverterOrThrow, getModuleOrThrow, listActiveInverters, listActiveModules, type InverterModel, type ModuleModel } from "@/server/catalog";
 import { db, transaction } from "@/server/db";
@@ -220,7 +220,8 @@ export async function getWeatherColumns(scope: DealScope, stationId: string): Pr
 
 // ── Production on the server (offers) ────────────────────────────────────────────────────
 
-export type ServerProduction = { hourlyKwh: Float64Array; label: string; notes: string[] };
+/** `station`: where the typical year was measured (absent for a figure typed from another source). */
+export type ServerProduction = { hourlyKwh: Float64Array; label: string; notes: string[]; station?: WeatherStationPlace };
 
 /**
  * Year-1 hourly production for a design's faces with the given module counts and equipment:
@@ -266,5 +267,5 @@ export async function productionForDesign(
   const result = estimateProduction(weather, sys);
   const hourlyKwh = new Float64Array(result.hourlyAcW.length);
   for (let i = 0; i < hourlyKwh.length; i++) hourlyKwh[i] = result.hourlyAcW[i] / 1000;
-  return { hourlyKwh, label: weather.sourceLabel, notes: [] };
+  return { hourlyKwh, label: weather.sourceLabel, notes: [], station: { name: weather.site.name ?? weather.sourceLabel, latitude: weather.site.latitude, longitude: weather.site.longitude } };
 }

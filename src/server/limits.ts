@@ -37,6 +37,9 @@ export const LIMITS = {
   signingCodeGap: { points: 1, minutes: 1 / 3, what: "codes just now" },
   signingCodeLink: { points: 10, minutes: 60, what: "signing codes for this proposal" },
   signingCodeAddress: { points: 20, minutes: 60, what: "signing codes asked from this address" },
+  /** The homeowner's language switch writes the proposal row each time: a person switches a few times, a script thousands (our choice). */
+  languageLink: { points: 30, minutes: 10, what: "language changes on this proposal" },
+  languageAddress: { points: 60, minutes: 10, what: "language changes from this address" },
   /** Each /verify check reads and hashes up to 25 MB with no account. */
   verifyAddress: { points: 20, minutes: 10, what: "checks from this address" },
 } as const;

@@ -229,7 +229,7 @@ export async function computeOffer(scope: DealScope, inputs: OfferInputs, role: 
     });
     // Only offers whose credits count at installation depend on (and go stale with) the install date.
     const countsOnInstall = book.incentives.some((r) => r.countsOn === "installation");
-    return { figures, basis: { ...basis, installDate: countsOnInstall ? figures.assumptions.installDate : null }, foreignPlan };
+    return { figures: { ...figures, weatherStation: production.station /* the snapshot names it with its distance */ }, basis: { ...basis, installDate: countsOnInstall ? figures.assumptions.installDate : null }, foreignPlan };
   } catch (err) {
     engineError(err);
   }

@@ -33,7 +33,7 @@ import { takeTurn } from "@/server/limits";
 import { sendEmail } from "@/server/mail";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
 import { dealProposalUrl, insertProposalEvent, labelOf, proposalUrl, readProposalPdf, type ProposalRow } from "@/server/proposals";
-import { validationError } from "@/server/route";
+import { homeownerInvalid, refusal, type RefusalKey } from "@/server/homeowner-refusals";
 import { autoMoveStage } from "@/server/stages";
 import { openImage } from "@/server/photos";
 import { withFilesUndoneOnFailure } from "@/server/storage";
@@ -67,19 +67,20 @@ function sameHash(a: string, b: string): boolean {
   return x.length === y.length && timingSafeEqual(x, y);
 }
 
-const REFUSALS: Record<Exclude<ProposalLinkState, "live">, { status: number; code: string; message: string }> = {
-  expired: { status: 410, code: "expired", message: "This proposal's link has expired. Ask your installer for a new one." },
-  revoked: { status: 410, code: "revoked", message: "Your installer withdrew this proposal's link." },
-  replaced: { status: 409, code: "replaced", message: "A newer version replaced this proposal. Use the link in the newest e-mail." },
-  signed: { status: 409, code: "already_signed", message: "This proposal is already signed." },
-  cancelled: { status: 409, code: "cancelled", message: "This agreement was cancelled." },
+const REFUSALS: Record<Exclude<ProposalLinkState, "live">, { status: number; code: string; key: RefusalKey }> = {
+  expired: { status: 410, code: "expired", key: "expired" },
+  revoked: { status: 410, code: "revoked", key: "revoked" },
+  replaced: { status: 409, code: "replaced", key: "replaced" },
+  signed: { status: 409, code: "already_signed", key: "signed" },
+  cancelled: { status: 409, code: "cancelled", key: "cancelled" },
 };
 
-function requireLive(p: { status: string; expiresAt: Date }): void {
+/** Refused unless the link is live, in the homeowner's language. */
+function requireLive(p: { status: string; expiresAt: Date; locale: Locale }): void {
   const state = proposalLinkState(p);
   if (state !== "live") {
     const r = REFUSALS[state];
-    throw new HttpError(r.status, r.code, r.message);
+    throw refusal(p.locale, r.status, r.code, r.key);
   }
 }
 
@@ -144,7 +145,7 @@ type VerifyOutcome = { ok: true; session: string; validUntil: Date } | { ok: fal
 export async function verifySigningCode(p: ProposalRow, input: unknown, client: ClientMeta): Promise<{ session: string; validUntil: Date }> {
   requireLive(p);
   const parsed = verifyCodeSchema.safeParse(input);
-  if (!parsed.success) throw validationError(parsed.error);
+  if (!parsed.success) throw homeownerInvalid(p.locale, parsed.error, { code: "code" });
   const code = parsed.data.code;
   const now = new Date();
   const outcome: VerifyOutcome = await transaction(async (tx): Promise<VerifyOutcome> => {
@@ -222,22 +223,24 @@ const EVENT_TEXT: Record<string, (e: { body: string | null; ip: string | null })
   signed: (e) => `Signed${e.ip ? ` from ${e.ip}` : ""}`,
 };
 
-/** Decodes and checks the drawn signature: a real PNG (by its bytes), within the size limit. */
-export async function signaturePngBytes(dataUrl: string): Promise<Uint8Array> {
+/** Decodes and checks the drawn signature: a real PNG (by its bytes), within the size limit; refusals in the homeowner's language. */
+export async function signaturePngBytes(dataUrl: string, locale: Locale = "en"): Promise<Uint8Array> {
+  const refuse = (key: RefusalKey) => refusal(locale, 422, "validation_failed", key, "signaturePng");
   const base64 = dataUrl.slice("data:image/png;base64,".length);
-  if (!/^[A-Za-z0-9+/]+={0,2}$/.test(base64)) throw new HttpError(422, "validation_failed", "signaturePng: Draw your signature again", { signaturePng: ["Draw your signature again"] });
+  if (!/^[A-Za-z0-9+/]+={0,2}$/.test(base64)) throw refuse("signatureAgain");
   const bytes = new Uint8Array(Buffer.from(base64, "base64"));
-  if (bytes.byteLength > MAX_SIGNATURE_PNG_BYTES) {
-    throw new HttpError(422, "validation_failed", "signaturePng: The signature drawing is too large; clear it and draw again", { signaturePng: ["The signature drawing is too large; clear it and draw again"] });
-  }
+  if (bytes.byteLength > MAX_SIGNATURE_PNG_BYTES) throw refuse("signatureTooLarge");
   const type = await fileTypeFromBuffer(bytes);
-  if (type?.mime !== "image/png") throw new HttpError(422, "validation_failed", "signaturePng: The signature must be a PNG drawing", { signaturePng: ["The signature must be a PNG drawing"] });
+  if (type?.mime !== "image/png") throw refuse("signatureUnreadable");
   // Decoded within a pixel limit and re-encoded: the PDF gets pixels we wrote, never the sender's bytes.
-  const image = await openImage(bytes, { field: "signaturePng", what: "signature drawing", maxPixels: MAX_SIGNATURE_PIXELS });
+  const image = await openImage(bytes, { field: "signaturePng", what: "signature drawing", maxPixels: MAX_SIGNATURE_PIXELS }).catch((err: unknown) => {
+    if (err instanceof HttpError) throw refuse(err.code === "image_too_large" ? "signatureTooLarge" : "signatureUnreadable");
+    throw err;
+  });
   try {
     return new Uint8Array(await image.png().toBuffer());
   } catch {
-    throw new HttpError(422, "validation_failed", "signaturePng: The signature drawing could not be read; clear it and draw again", { signaturePng: ["The signature drawing could not be read; clear it and draw again"] });
+    throw refuse("signatureUnreadable");
   }
 }
 
@@ -247,8 +250,8 @@ export type SignedOutcome = { signedAt: Date; signedSha256: string; cancelDeadli
 async function lockConfirmedProposal(tx: Tx, p: ProposalRow, session: string | null, now: Date) {
   const [row] = await tx.select().from(proposal).where(and(eq(proposal.id, p.id), eq(proposal.companyId, p.companyId))).for("update");
   if (!row) throw new HttpError(404, "not_found", "Proposal not found.");
-  if (row.status === "signed") throw new HttpError(409, "already_signed", "This proposal is already signed; a second signature is not accepted.");
-  requireLive(row);
+  if (row.status === "signed") throw refusal(p.locale, 409, "already_signed", "alreadySigned");
+  requireLive({ ...row, locale: p.locale });
   const confirmed =
     !!session &&
     !!row.codeHash &&
@@ -256,7 +259,7 @@ async function lockConfirmedProposal(tx: Tx, p: ProposalRow, session: string | n
     !!row.codeExpiresAt &&
     row.codeExpiresAt.getTime() > now.getTime() &&
     sameHash(row.codeHash, secretHash(p.id, "session", session));
-  if (!confirmed) throw new HttpError(403, "code_required", "Confirm your e-mail with a code first (a confirmation lasts 30 minutes).");
+  if (!confirmed) throw refusal(p.locale, 403, "code_required", "codeRequired");
   return row;
 }
 
@@ -324,6 +327,9 @@ async function recordSignature(tx: Tx, p: ProposalRow, row: ProposalRow, s: Sign
   });
 }
 
+/** What each field of the signing form says when it is refused. */
+const SIGN_FIELDS: Record<string, RefusalKey> = { position: "position", signerName: "signerName", consent: "consent", signaturePng: "signatureMissing", signatureMethod: "signatureMissing" };
+
 /**
  * Signs the proposal for the chosen offer. One transaction holds the proposal's row lock from
  * the check to the last write: a second signing waits, then finds it signed (409). The signed
@@ -331,14 +337,14 @@ async function recordSignature(tx: Tx, p: ProposalRow, row: ProposalRow, s: Sign
  */
 export async function signProposal(p: ProposalRow, token: string, input: unknown, client: ClientMeta, session: string | null): Promise<SignedOutcome> {
   // The link's state first: a replaced or expired link says so whatever was sent (checked again under the lock).
-  if (p.status === "signed") throw new HttpError(409, "already_signed", "This proposal is already signed; a second signature is not accepted.");
+  if (p.status === "signed") throw refusal(p.locale, 409, "already_signed", "alreadySigned");
   requireLive(p);
   const parsed = signProposalSchema.safeParse(input);
-  if (!parsed.success) throw validationError(parsed.error);
+  if (!parsed.success) throw homeownerInvalid(p.locale, parsed.error, SIGN_FIELDS);
   const { position, signerName } = parsed.data;
   const offer = p.snapshot.offers.find((o) => o.position === position);
-  if (!offer) throw new HttpError(422, "validation_failed", "position: Choose one of the offers in this proposal", { position: ["Choose one of the offers in this proposal"] });
-  const signaturePng = await signaturePngBytes(parsed.data.signaturePng);
+  if (!offer) throw refusal(p.locale, 422, "validation_failed", "position", "position");
+  const signaturePng = await signaturePngBytes(parsed.data.signaturePng, p.locale);
 
   const { timeZone } = await getCompanySettings(p.companyId);
   const key = `${p.companyId}/signed/${crypto.randomUUID()}.pdf`;
@@ -372,7 +378,7 @@ export async function signProposal(p: ProposalRow, token: string, input: unknown
         cancelDeadlineText: deadline ? formatCalendarDate(deadline, "full", docLocale) : null,
         signedOnText: formatCalendarDate(signedOn, "full", docLocale),
       }).catch((err: unknown) => {
-        if (err instanceof SignatureImageError) throw new HttpError(422, "validation_failed", `signaturePng: ${err.message}`, { signaturePng: [err.message] });
+        if (err instanceof SignatureImageError) throw refusal(p.locale, 422, "validation_failed", "signatureUnreadable", "signaturePng");
         throw err;
       });
       const signedSha256 = sha256Hex(signed);
@@ -436,7 +442,8 @@ async function queueSignedCopies(
 // ── Verify ─────────────────────────────────────────────────────────────────────────────────
 
 
-export type VerifyAnswer = { match: true; label: string; signedOn: string } | { match: false };
+/** A match names the proposal, its signing date (in the document's language) and that language. */
+export type VerifyAnswer = { match: true; label: string; signedOn: string; locale: Locale } | { match: false };
 
 /**
  * Does this file's SHA-256 match a signed Kilowright record? Answers only the proposal's label
@@ -448,11 +455,12 @@ export async function verifySignedPdf(bytes: Uint8Array): Promise<VerifyAnswer> 
   const type = await fileTypeFromBuffer(bytes);
   if (type?.mime !== "application/pdf") throw new HttpError(415, "not_pdf", "This is not a PDF file. Upload the signed PDF you received.");
   const [row] = await db()
-    .select({ number: proposal.number, version: proposal.version, signedAt: proposal.signedAt, companyId: proposal.companyId })
+    .select({ number: proposal.number, version: proposal.version, signedAt: proposal.signedAt, companyId: proposal.companyId, snapshot: proposal.snapshot })
     .from(proposal)
     .where(eq(proposal.signedSha256, sha256Hex(bytes)))
     .limit(1);
   if (!row || !row.signedAt) return { match: false };
   const { timeZone } = await getCompanySettings(row.companyId);
-  return { match: true, label: labelOf(row), signedOn: `${formatDate(row.signedAt, timeZone)} (${zoneName(row.signedAt, timeZone)})` };
+  const locale = row.snapshot.household.language ?? "en"; // the signed PDF's own language
+  return { match: true, label: labelOf(row), signedOn: `${formatDate(row.signedAt, timeZone, locale)} (${zoneName(row.signedAt, timeZone)})`, locale };
 }

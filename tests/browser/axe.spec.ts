@@ -171,7 +171,7 @@ for (const { name, viewport } of SIZES) {
       const page = await context.newPage();
       const found = await walk(
         page,
-        ["/sign-in", "/sign-up", "/forgot-password", "/reset-password?token=not-a-token", "/check-email", `/invite/${randomBytes(16).toString("hex")}`, "/verify", "/no-such-page", `/p/${randomBytes(32).toString("base64url")}`].map(
+        ["/sign-in", "/sign-up", "/forgot-password", "/reset-password?token=not-a-token", "/check-email", `/invite/${randomBytes(16).toString("hex")}`, "/verify", "/verify?lang=es", "/no-such-page", `/p/${randomBytes(32).toString("base64url")}`].map(
           (path) => ({ path }),
         ),
       );

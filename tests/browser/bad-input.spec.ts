@@ -102,3 +102,66 @@ test("the price book names a bad figure by its row's label", async ({ page }) =>
   await expect(page.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Band 1 price, $ per watt is required");
   await expect(page.locator("main")).not.toContainText(RAW);
 });
+
+test("the crew forms name a bad name by its label beside their button, and the message goes at the next edit", async ({ page }) => {
+  await signIn(page, "owner@tallgrass.example");
+  await page.goto("/jobs/crews");
+  // A new crew: refused before sending.
+  const form = page.getByRole("form", { name: "New crew" });
+  await form.getByLabel("New crew").fill("A");
+  await form.getByRole("button", { name: "Add crew" }).click();
+  const besideAdd = form.locator("div", { has: page.getByRole("button", { name: "Add crew" }) }).last();
+  await expect(besideAdd.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("New crew");
+  await form.getByLabel("New crew").pressSequentially("B");
+  await expect(form.getByRole("alert").filter({ hasText: "Not saved" })).toHaveCount(0);
+  // An existing crew renamed to one letter: the server refuses, named by the field's label beside Save crew.
+  const card = page.getByTestId("crew-Crew North");
+  await card.getByLabel("Name").fill("N");
+  await card.getByRole("button", { name: "Save crew" }).click();
+  const besideSave = card.locator("div", { has: page.getByRole("button", { name: "Save crew" }) }).last();
+  await expect(besideSave.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Name");
+  await expect(card).not.toContainText(RAW);
+  await card.getByLabel("Name").pressSequentially("o");
+  await expect(card.getByRole("alert").filter({ hasText: "Not saved" })).toHaveCount(0);
+});
+
+test("the refund form names a missing amount by its label beside Refund, and the message goes at the next edit", async ({ page }) => {
+  await signIn(page, "owner@tallgrass.example");
+  await page.goto("/deals/7a11a55e-0000-4000-8000-000000000306/money"); // Fairweather: its deposit paid (scripts/lib/seed-demo.ts)
+  await page.getByRole("button", { name: "Refund…" }).first().click();
+  const form = page.getByRole("form", { name: "Refund this deposit" });
+  await form.getByLabel("Reason (the customer sees it)").fill("Roof needs work first");
+  await form.getByRole("button", { name: "Refund", exact: true }).click();
+  const besideRefund = form.locator("div", { has: page.getByRole("button", { name: "Refund", exact: true }) }).last();
+  await expect(besideRefund.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Amount (USD)");
+  await expect(form).not.toContainText(RAW);
+  await form.getByLabel("Amount (USD)").pressSequentially("1");
+  await expect(form.getByRole("alert").filter({ hasText: "Not saved" })).toHaveCount(0);
+});
+
+test("the checklist form names a missing item by its label beside its button, and the message goes at the next edit", async ({ page }) => {
+  await signIn(page, "owner@tallgrass.example");
+  await page.goto("/settings/checklists");
+  await page.getByRole("button", { name: "New checklist" }).click();
+  const form = page.getByRole("form", { name: "New checklist" });
+  await form.getByLabel("Checklist name").fill("Battery install");
+  await form.getByRole("button", { name: "Create checklist" }).click();
+  const besideCreate = form.locator("div", { has: page.getByRole("button", { name: "Create checklist" }) }).last();
+  await expect(besideCreate.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Item 1");
+  await expect(form).not.toContainText(/items\.0|Too small/);
+  await form.getByLabel("Item 1", { exact: true }).pressSequentially("Torque the lugs");
+  await expect(form.getByRole("alert").filter({ hasText: "Not saved" })).toHaveCount(0);
+});
+
+test("the station upload names a bad latitude by its label beside its button, and the message goes at the next edit", async ({ page }) => {
+  await signIn(page, "admin@tallgrass.example");
+  await page.goto("/weather");
+  const form = page.locator("form", { has: page.getByRole("button", { name: "Check and add station" }) });
+  await form.getByLabel("Latitude (° N)").fill("123");
+  await form.getByRole("button", { name: "Check and add station" }).click();
+  const besideAdd = form.locator("div", { has: page.getByRole("button", { name: "Check and add station" }) }).last();
+  await expect(besideAdd.getByRole("alert").filter({ hasText: "Not saved" })).toContainText("Latitude (° N)");
+  await expect(form).not.toContainText(RAW);
+  await form.getByLabel("Latitude (° N)").fill("36.1");
+  await expect(form.getByRole("alert").filter({ hasText: "Not saved" })).toHaveCount(0);
+});

@@ -211,6 +211,7 @@ test.describe("no screen scrolls sideways", () => {
     const stops: Stop[] = [
       ...(await proposalLinks()).map((path) => ({ path })),
       { path: "/verify" },
+      { path: "/verify?lang=es" },
       { path: "/sign-in" },
       { path: "/sign-up" },
       { path: "/forgot-password" },

@@ -63,6 +63,14 @@ test("a Spanish-speaking homeowner reads, signs and pays in Spanish", async ({ b
   await expect(phone.getByRole("heading", { level: 1, name: "Propuesta solar para Quintero household" })).toBeVisible();
   await expect(phone.locator("[lang='es']").first()).toBeVisible();
   await expect(phone.getByRole("heading", { name: "Cómo lo calculamos" })).toBeVisible();
+  // The snapshot's assumptions, cautions and price words in Spanish; only the company's own names stay as typed.
+  const estimated = phone.locator("section", { has: phone.getByRole("heading", { name: "Cómo lo calculamos" }) });
+  await expect(estimated).toContainText("Pérdidas del sistema:");
+  await expect(estimated).toContainText("Estimaciones, no una garantía");
+  for (const english of ["System losses", "Estimates, not a guarantee", "Deposits follow", "Utility prices rise", "as your installer entered them"]) await expect(estimated).not.toContainText(english);
+  await expect(phone.getByTestId("offer-details-1")).toContainText("Precio del sistema");
+  await expect(phone.getByTestId("offer-details-1")).not.toContainText("System price");
+  await expect(phone.getByTestId("weather-station")).toHaveText(/^Clima de la estación de .+, a \d+ km de distancia\.$/);
 
   // The code, in Spanish.
   await phone.getByRole("button", { name: "Enviarme un código por correo" }).click();
@@ -120,6 +128,20 @@ test("a Spanish-speaking homeowner reads, signs and pays in Spanish", async ({ b
   await expect(phone.getByTestId("project-next")).toContainText("Visita técnica", { timeout: 45_000 });
   const receipt = await waitForMail(deal.email, /^Depósito recibido: /);
   expect(receipt.subject).toContain(amount);
+
+  // The signed copy checked on /verify: an English visitor's page turns Spanish with the Spanish document's answer; the switch goes back.
+  const token = new URL(link).pathname.split("/").pop() ?? "";
+  const signedPdf = await phone.request.get(`/api/public/proposals/${token}/signed-pdf`);
+  expect(signedPdf.ok()).toBe(true);
+  await phone.goto("/verify");
+  await expect(phone.getByRole("heading", { level: 1, name: "Check a signed PDF" })).toBeVisible();
+  await phone.getByLabel("Signed PDF").setInputFiles({ name: "contrato.pdf", mimeType: "application/pdf", buffer: await signedPdf.body() });
+  await phone.getByRole("button", { name: "Check the file" }).click();
+  await expect(phone.getByTestId("verify-answer")).toContainText("Este archivo coincide con la propuesta P-", { timeout: 30_000 });
+  await expect(phone.getByRole("heading", { level: 1, name: "Verificar un PDF firmado" })).toBeVisible();
+  await phone.getByRole("group", { name: "Idioma" }).getByRole("link", { name: "English" }).click();
+  await expect(phone.getByRole("heading", { level: 1, name: "Check a signed PDF" })).toBeVisible();
+  await expect(phone.getByRole("button", { name: "Check the file" })).toBeVisible();
 
   problems.expectNone();
   await customer.close();

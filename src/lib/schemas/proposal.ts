@@ -4,6 +4,7 @@
 import { z } from "zod";
 import type { Locale } from "@/lib/i18n/locales";
 import { plainText } from "@/lib/schemas/text";
+import type { SnapshotText } from "@/lib/snapshot-text";
 import type { OfferFigures } from "@/lib/offer-figures";
 import type { OfferInputs } from "@/lib/schemas/offer";
 
@@ -46,6 +47,8 @@ export type ProposalSnapshot = {
     language?: Locale;
   };
   utilityName: string | null;
+  /** The weather station the figures' typical year was measured at, and how far from the home (absent on older snapshots and for a typed production figure). */
+  station?: { name: string; latitude: number; longitude: number; distanceKm: number };
   /** Monthly usage the offers were computed from (kWh, Jan–Dec) and where it came from. */
   usage: { monthlyKwh: number[]; source: string };
   /** Weather source, system losses and other design assumptions, as sentences. */
@@ -53,6 +56,19 @@ export type ProposalSnapshot = {
   offers: ProposalSnapshotOffer[];
   /** The usual cautions shown with every proposal. */
   cautions: string[];
+  /**
+   * The homeowner texts above as catalog messages, printed in the reader's language: assumptions,
+   * cautions, the notes on the figures, and each offer's price lines and incentive details (in the
+   * order of its figures' lists). Absent on snapshots made before: those print `assumptions`
+   * and `cautions` as stored (English).
+   */
+  texts?: {
+    assumptions: SnapshotText[];
+    cautions: SnapshotText[];
+    notes: SnapshotText[];
+    /** Per offer: its price lines' labels and details (a price-book name stays as typed), its incentives' details and reasons. */
+    offers: { position: number; priceLines: { label: SnapshotText; detail: SnapshotText }[]; applied: SnapshotText[]; skipped: SnapshotText[] }[];
+  };
 };
 
 const email = z.string().trim().toLowerCase().email("Enter a valid e-mail address").max(320);

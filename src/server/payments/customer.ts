@@ -5,6 +5,7 @@ import { env } from "@/env";
 import { formatCentsExact, formatDate } from "@/lib/format";
 import { db, transaction, type Tx } from "@/server/db";
 import { HttpError, notFound } from "@/server/errors";
+import { refusal } from "@/server/homeowner-refusals";
 import { stripe } from "@/server/stripe";
 import { recordEvent } from "@/server/timeline";
 import { getCompanySettings } from "@/server/company-settings";
@@ -19,8 +20,8 @@ async function lockProposalByToken(tx: Tx, token: string): Promise<ProposalRow |
 }
 
 function payable(p: ProposalRow): void {
-  if (p.status === "cancelled" || p.cancelledAt) throw new HttpError(409, "proposal_cancelled", "This agreement was cancelled, so no deposit is due.");
-  if (p.status !== "signed") throw new HttpError(409, "not_signed", "The deposit can be paid once the proposal is signed.");
+  if (p.status === "cancelled" || p.cancelledAt) throw refusal(p.locale, 409, "proposal_cancelled", "depositCancelled");
+  if (p.status !== "signed") throw refusal(p.locale, 409, "not_signed", "depositNotSigned");
 }
 
 /**
@@ -36,14 +37,14 @@ export async function startDepositCheckout(token: string): Promise<{ url: string
     if (!p) throw notFound("Proposal");
     payable(p);
     const amountCents = depositCentsOf(p);
-    if (!amountCents) throw new HttpError(409, "no_deposit", "This proposal asks for no deposit.");
+    if (!amountCents) throw refusal(p.locale, 409, "no_deposit", "depositNone");
 
     const rows = await tx
       .select()
       .from(payment)
       .where(and(eq(payment.companyId, p.companyId), eq(payment.proposalId, p.id)))
       .orderBy(asc(payment.createdAt));
-    if (rows.some((r) => BOOKED_STATUSES.includes(r.status))) throw new HttpError(409, "already_paid", "The deposit for this proposal is already paid.");
+    if (rows.some((r) => BOOKED_STATUSES.includes(r.status))) throw refusal(p.locale, 409, "already_paid", "depositPaid");
 
     for (const r of [...rows].reverse().filter((x) => UNSETTLED_STATUSES.includes(x.status))) {
       const s = await stripe().checkout.sessions.retrieve(r.checkoutSessionId);

@@ -10,7 +10,7 @@ import { HttpError } from "@/server/errors";
 import type { ClientMeta } from "@/server/client-address";
 import { takeTurn } from "@/server/limits";
 import { queueMail, sendQueuedNow } from "@/server/outbound-mail";
-import { validationError } from "@/server/route";
+import { homeownerInvalid } from "@/server/homeowner-refusals";
 import { recordEvent } from "@/server/timeline";
 import { insertProposalEvent } from "./events";
 import { STATE_REFUSALS } from "./revoke";
@@ -63,7 +63,7 @@ export async function askQuestion(p: ProposalRow, input: unknown, client: Client
   const state = proposalLinkState(p);
   if (state !== "live" && state !== "signed") throw new HttpError(409, "not_live", `${STATE_REFUSALS[state as Exclude<ProposalLinkState, "live">]} Questions go through the newest link.`);
   const parsed = proposalQuestionSchema.safeParse(input);
-  if (!parsed.success) throw validationError(parsed.error);
+  if (!parsed.success) throw homeownerInvalid(p.locale, parsed.error, { question: "question" });
   // Counted before the question is stored and mailed (limits.ts), per link and per address.
   const tooMany = (wait: string) => `That is many questions in one hour; your installer has them. Try again in ${wait}, or call them.`;
   await takeTurn("questionLink", p.id, tooMany);

@@ -99,6 +99,6 @@ describe("a Honolulu company near midnight UTC", () => {
     expect(plain(copy?.html ?? null)).toContain("on Dec 5, 2026, 7:45 PM HST");
 
     const verify = await m.signing.verifySignedPdf(await m.proposals.readProposalPdf((await m.proposals.findProposalByToken(token))!, "signed"));
-    expect(verify).toEqual({ match: true, label: sent.label, signedOn: "Dec 5, 2026 (HST)" });
+    expect(verify).toEqual({ match: true, label: sent.label, signedOn: "Dec 5, 2026 (HST)", locale: "en" });
   });
 });

@@ -110,7 +110,7 @@ describe("the one-time code", () => {
     await m.signing.sendSigningCode(await x.load(), x.token, client);
     const code = await latestCode(x.email);
     const bad = await rejection(m.signing.verifySigningCode(await x.load(), { code: "12ab" }, client), 422);
-    expect(bad.fields?.code?.[0]).toBe("Enter the 6 digits from the e-mail");
+    expect(bad.fields?.code?.[0]).toBe("Enter the 6 digits from the e-mail.");
     await m.db.db().update(proposal).set({ codeExpiresAt: new Date(Date.now() - 1000) }).where(eq(proposal.id, x.id));
     const expired = await rejection(m.signing.verifySigningCode(await x.load(), { code }, client), 410);
     expect(expired.message).toMatch(/expired/);
@@ -139,7 +139,7 @@ describe("signing", () => {
     const x = await sent();
     const session = await confirmed(x);
     const odd = await rejection(m.signing.signProposal(await x.load(), x.token, { ...signInput(), signatureMethod: "stamped" }, client, session), 422);
-    expect(odd.fields?.signatureMethod?.[0]).toBe("Draw your signature, or use your typed name as your signature");
+    expect(odd.fields?.signatureMethod?.[0]).toBe("Draw your signature in the box, or use your typed name as your signature.");
     await m.signing.signProposal(await x.load(), x.token, { ...signInput(), signatureMethod: "typed" }, client, session);
     const signed = await x.load();
     const bytes = await m.proposals.readProposalPdf(signed, "signed");
@@ -161,11 +161,41 @@ describe("signing", () => {
     const session = await confirmed(x);
     const gif = `data:image/png;base64,${Buffer.from("GIF89a\x01\x00\x01\x00\x00\x00\x00;").toString("base64")}`;
     const notPng = await rejection(m.signing.signProposal(await x.load(), x.token, { ...signInput(), signaturePng: gif }, client, session), 422);
-    expect(notPng.fields?.signaturePng?.[0]).toMatch(/PNG/);
+    expect(notPng.fields?.signaturePng?.[0]).toBe("Your signature drawing could not be read. Clear the box and draw it again.");
     const noOffer = await rejection(m.signing.signProposal(await x.load(), x.token, signInput(3), client, session), 422);
     expect(noOffer.fields?.position).toBeDefined();
     const noConsent = await rejection(m.signing.signProposal(await x.load(), x.token, { ...signInput(), consent: false }, client, session), 422);
     expect(noConsent.fields?.consent).toBeDefined();
+  });
+
+  it("refuses in the homeowner's words and language, never naming a field by its path", async () => {
+    const x = await sent();
+    const session = await confirmed(x);
+    const broken = { ...signInput(), signaturePng: "data:image/png;base64,@@@" };
+    const refusals = async () => [
+      await rejection(m.signing.signProposal(await x.load(), x.token, broken, client, session), 422),
+      await rejection(m.signing.signProposal(await x.load(), x.token, signInput(3), client, session), 422),
+      await rejection(m.signing.signProposal(await x.load(), x.token, { ...signInput(), signerName: "T" }, client, session), 422),
+      await rejection(m.signing.verifySigningCode(await x.load(), { code: "12ab" }, client), 422),
+    ];
+    const english = await refusals();
+    expect(english.map((r) => r.message)).toEqual([
+      "Your signature did not come through. Clear the box and draw it again.",
+      "Choose one of the offers in this proposal.",
+      "Type your full name (at least 2 letters).",
+      "Enter the 6 digits from the e-mail.",
+    ]);
+    expect(english[0].fields?.signaturePng).toEqual([english[0].message]);
+    // The homeowner switched the page to Spanish: the same refusals in Spanish.
+    await m.db.db().update(proposal).set({ locale: "es" }).where(eq(proposal.id, x.id));
+    const spanish = await refusals();
+    expect(spanish.map((r) => r.message)).toEqual([
+      "Su firma no llegó bien. Borre el recuadro y dibújela de nuevo.",
+      "Elija una de las ofertas de esta propuesta.",
+      "Escriba su nombre completo (al menos 2 letras).",
+      "Escriba los 6 dígitos del correo electrónico.",
+    ]);
+    for (const r of [...english, ...spanish]) expect(r.message).not.toMatch(/^\w+(\.\w+)*: /);
   });
 
   it("stamps and stores the signed PDF, records it, moves the deal to Signed and e-mails both copies; a second signing is refused", async () => {
@@ -228,7 +258,7 @@ describe("verify", () => {
     const signed = await x.load();
     const bytes = await m.proposals.readProposalPdf(signed, "signed");
     const answer = await m.signing.verifySignedPdf(bytes);
-    expect(answer).toEqual({ match: true, label: x.label, signedOn: `${formatDate(signed.signedAt!, "America/New_York")} (${zoneName(signed.signedAt!, "America/New_York")})` }); // the company's default zone
+    expect(answer).toEqual({ match: true, label: x.label, signedOn: `${formatDate(signed.signedAt!, "America/New_York")} (${zoneName(signed.signedAt!, "America/New_York")})`, locale: "en" }); // the company's default zone
     const tampered = new Uint8Array(bytes);
     const i = Math.floor(tampered.length / 2);
     tampered[i] = tampered[i] ^ 0x01;

@@ -7,7 +7,12 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { household, deal } from "@/db/schema";
 import type { MailFake } from "@/fakes/mail-server";
 import { formatCents } from "@/lib/format";
+import { haversineKm } from "@/engine/geo";
+import { translator } from "@/lib/i18n/translator";
+import { snapshotText } from "@/lib/snapshot-text";
 import { env } from "@/env";
+import { stampedHeaders } from "@/server/client-address";
+import { LIMITS } from "@/server/limits";
 import { client, latestToken, mailTo, newDeal, newWorld, signatureDataUrl, startMailIfNeeded, type World } from "./support";
 
 let fake: MailFake | null = null;
@@ -66,6 +71,39 @@ describe("a proposal for a household that reads Spanish", () => {
     expect(text).toContain("NOTICE OF CANCELLATION");
   });
 
+  it("prints the snapshot's assumptions, notes and cautions in Spanish, with no English sentence left", async () => {
+    const x = await sentInSpanish();
+    const p = await x.load();
+    const texts = p.snapshot.texts;
+    if (!texts) throw new Error("a new snapshot stores its homeowner texts as catalog messages");
+    // The page frame (header and "página n de m") can fall inside a sentence that runs onto the next page.
+    const frame = new RegExp(`Proposal Spanish Solar Propuesta ${x.label} · ${p.snapshot.household.name} Proposal Spanish Solar página \\d+ de \\d+ `, "g");
+    const flat = (await pdfText(await m.proposals.readProposalPdf(p, "unsigned"))).replace(/\s+/g, " ").replace(frame, "");
+    const stored = [...texts.assumptions, ...texts.cautions, ...texts.notes];
+    expect(stored.every((t) => typeof t !== "string")).toBe(true);
+    for (const item of stored) {
+      expect(flat).not.toContain(snapshotText(item, "en"));
+      expect(flat).toContain(snapshotText(item, "es"));
+    }
+    expect(flat).toContain("Pérdidas del sistema:");
+    expect(flat).toContain("Estimaciones, no una garantía");
+    expect(flat).not.toContain("Estimates, not a guarantee");
+    expect(flat).not.toContain("Deposits follow the installer's deposit policy");
+    // The price lines: our words in Spanish, the company's own line names as typed.
+    expect(flat).toContain("Precio del sistema 8,000 W × 300 ¢/W");
+    expect(flat).toContain("un monto fijo");
+    for (const english of ["System price", "fixed amount", "per job"]) expect(flat).not.toContain(english);
+  });
+
+  it("stores where the weather was measured and how far it is from the home (the page's station line)", async () => {
+    const p = await (await sentInSpanish()).load();
+    const station = p.snapshot.station;
+    if (!station) throw new Error("a new snapshot names its weather station");
+    expect(station.name.length).toBeGreaterThan(0);
+    expect(station.distanceKm).toBe(Math.round(haversineKm(p.snapshot.household, station)));
+    expect(translator("es", "page")("home.station", { place: station.name, km: station.distanceKm })).toBe(`Clima de la estación de ${station.name}, a ${station.distanceKm} km de distancia.`);
+  });
+
   it("sends the code and the signed copy in Spanish; the rep's notice stays English", async () => {
     const x = await sentInSpanish();
     await m.signing.sendSigningCode(await x.load(), x.token, client);
@@ -122,5 +160,30 @@ describe("the homeowner's switch on the page (POST /api/public/proposals/<token>
     expect(((await bad.json()) as { error: { fields: Record<string, string[]> } }).error.fields.locale).toEqual(["Choose English or Español"]);
     expect((await load()).locale).toBe("es");
     expect((await post("x".repeat(43), { locale: "en" })).status).toBe(404);
+  });
+
+  it(`takes ${LIMITS.languageLink.points} switches of one proposal in ${LIMITS.languageLink.minutes} minutes, then 429 with the wait in the page's language`, async () => {
+    const d = await newDeal(w);
+    await m.proposals.sendProposal(w.rep, { dealId: d.dealId, toEmail: d.email, inHomeSale: true });
+    const token = await latestToken(d.email);
+    const { POST } = await import("@/app/api/public/proposals/[token]/language/route");
+    const address = `192.0.2.${10 + Math.floor(Math.random() * 200)}`; // RFC 5737 documentation range
+    const flip = (locale: "en" | "es") => {
+      const headers = stampedHeaders(address);
+      headers.set("origin", env().APP_URL);
+      headers.set("content-type", "application/json");
+      const req = new NextRequest(`http://localhost/api/public/proposals/${token}/language`, { method: "POST", headers, body: JSON.stringify({ locale }) });
+      return POST(req, { params: Promise.resolve({ token }) });
+    };
+    for (let i = 0; i < LIMITS.languageLink.points; i++) expect((await flip(i % 2 === 0 ? "es" : "en")).status, `switch ${i + 1}`).toBe(200);
+    const refused = await flip("es");
+    expect(refused.status).toBe(429);
+    expect(Number(refused.headers.get("retry-after"))).toBeGreaterThan(9 * 60);
+    // The last switch that went through was to English: the refusal speaks English.
+    expect(((await refused.json()) as { error: { code: string; message: string } }).error).toEqual({
+      code: "too_many_language_link",
+      message: "You changed the language many times just now. Try again in 10 minutes.",
+    });
+    expect((await m.proposals.findProposalByToken(token))?.locale).toBe("en");
   });
 });

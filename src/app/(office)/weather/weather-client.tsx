@@ -4,7 +4,8 @@ import { useRef, useState, type RefObject } from "react";
 import { useForm, type FieldErrors, type UseFormRegister } from "react-hook-form";
 import type { z } from "zod";
 import { EmptyState } from "@/components/ui/empty-state";
-import { describedBy, Field, FieldShell, FormMessage, optionsOf, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
+import { describedBy, Field, FieldShell, FormMessage, optionsOf, SaveRow, SelectField, StatusMessage, type Notice } from "@/components/ui/field";
+import { plainError, type FieldLabels } from "@/lib/validation-messages";
 import { TableShell, Td, Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import { api } from "@/lib/api-client";
@@ -49,8 +50,8 @@ export function WeatherClient(props: { stations: StationView[]; canManage: boole
   const [notice, setNotice] = useState<Notice | null>(null);
   return (
     <div className="mt-6 space-y-8">
-      <StatusMessage notice={notice?.tone === "success" ? notice : null} />
-      {props.canManage ? <UploadStationForm notify={setNotice} error={notice?.tone === "error" ? notice : null} /> : null}
+      <StatusMessage notice={notice} />
+      {props.canManage ? <UploadStationForm /> : null}
       <StationsTable stations={props.stations} canManage={props.canManage} seesAllSites={props.seesAllSites} onNotice={setNotice} />
       <NearestCheck maxDistanceKm={props.maxDistanceKm} />
     </div>
@@ -65,7 +66,21 @@ const FORM_FIELDS = ["name", "format", "latitude", "longitude", "elevationM", "u
 
 type StationFormParts = { register: UseFormRegister<StationFormValues>; errors: FieldErrors<StationFormValues> };
 
-function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => void; error: Notice | null }) {
+/** The station forms' labels, for the messages that name a field (src/lib/validation-messages.ts). */
+const STATION_LABELS: FieldLabels = {
+  name: "Name",
+  format: "Format",
+  latitude: "Latitude (° N)",
+  longitude: "Longitude (° E, west negative)",
+  elevationM: "Elevation (m)",
+  utcOffsetHours: "UTC offset (h, standard time)",
+  attribution: "Attribution",
+  file: "Weather file",
+};
+const NEAREST_LABELS: FieldLabels = { lat: "Latitude (° N)", lon: "Longitude (° E, west negative)" };
+
+/** The upload's status (the file's check, its refusal or the station added) stands beside its button. */
+function UploadStationForm() {
   const fileRef = useRef<HTMLInputElement>(null);
   const [fileError, setFileError] = useState<string | null>(null);
   const [fileIssues, setFileIssues] = useState<string[]>([]);
@@ -76,7 +91,7 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
     watch,
     setError,
     formState: { errors },
-  } = useForm<StationFormValues, unknown, StationFields>({ resolver: zodResolver(stationFieldsSchema), defaultValues: EMPTY });
+  } = useForm<StationFormValues, unknown, StationFields>({ resolver: zodResolver(stationFieldsSchema, { error: plainError(STATION_LABELS) }), defaultValues: EMPTY });
   const format = watch("format");
   const upload = useSave<{ values: StationFields; file: File }, { name: string; annualGhiKwhPerM2: number }, StationFormValues>({
     request: ({ values, file }) => {
@@ -87,8 +102,8 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
       return { url: "/api/weather-stations", method: "POST", body };
     },
     setError,
+    labels: STATION_LABELS,
     onFieldErrors: (fields) => setFileIssues(fields.file ?? []),
-    notify,
     success: (station) => `${station.name} added: ${kwh.format(station.annualGhiKwhPerM2)} kWh/m² of sun on the horizontal a year.`,
     onSaved: () => {
       reset(EMPTY);
@@ -101,13 +116,13 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
     setFileIssues([]);
   }
   const onSubmit = handleSubmit((values) => {
-    notify(null);
+    upload.setNotice(null);
     clearFileProblems();
     const file = fileRef.current?.files?.[0];
     if (!file) return setFileError("Choose a weather file to upload");
     if (file.size > WEATHER_FILE_MAX_BYTES) return setFileError(`The file is larger than ${WEATHER_FILE_MAX_LABEL}.`);
     upload.save({ values, file });
-  });
+  }, upload.invalid);
 
   const siteHint = format === "csv" ? "Required: an hourly CSV does not say where it was measured." : "Leave empty to use the file header.";
   return (
@@ -121,7 +136,6 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
         notes). The whole file is checked first; nothing is stored unless every hour reads correctly.
       </p>
       <form onSubmit={onSubmit} noValidate className="mt-4 space-y-4">
-        <StatusMessage notice={error} />
         <div className="grid gap-4 md:grid-cols-[2fr_1.3fr_2fr]">
           <StationFileInput fileRef={fileRef} fileError={fileError} hasIssues={fileIssues.length > 0} onPick={clearFileProblems} />
           <SelectField id="station-format" label="Format" options={optionsOf(WEATHER_FORMAT_CHOICES, WEATHER_FORMAT_LABELS)} {...register("format")} />
@@ -130,9 +144,11 @@ function UploadStationForm({ notify, error }: { notify: (n: Notice | null) => vo
         {fileIssues.length ? <FileIssues issues={fileIssues} /> : null}
         <StationSiteFields register={register} errors={errors} hint={siteHint} />
         <AttributionField register={register} errors={errors} />
-        <button type="submit" className="btn-primary" disabled={upload.pending}>
-          {upload.pending ? "Checking the file…" : "Check and add station"}
-        </button>
+        <SaveRow notice={upload.notice}>
+          <button type="submit" className="btn-primary" disabled={upload.pending}>
+            {upload.pending ? "Checking the file…" : "Check and add station"}
+          </button>
+        </SaveRow>
       </form>
     </section>
   );
@@ -203,7 +219,7 @@ function NearestCheck({ maxDistanceKm }: { maxDistanceKm: number }) {
     register,
     handleSubmit,
     formState: { errors, isSubmitting },
-  } = useForm<NearestQueryInput, unknown, z.output<typeof nearestQuerySchema>>({ resolver: zodResolver(nearestQuerySchema), defaultValues: { lat: "", lon: "" } });
+  } = useForm<NearestQueryInput, unknown, z.output<typeof nearestQuerySchema>>({ resolver: zodResolver(nearestQuerySchema, { error: plainError(NEAREST_LABELS) }), defaultValues: { lat: "", lon: "" } });
 
   const onSubmit = handleSubmit(async (values) => {
     setError(null);

@@ -8,8 +8,11 @@ import { figureDefinitions, figureMeanings } from "@/lib/figure-definitions";
 import { formatCents, formatCentsExact, formatSignedCents } from "@/lib/format";
 import { formatAprPct } from "@/lib/plain-words";
 import type { Locale } from "@/lib/i18n/locales";
-import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
+import type { ProposalSnapshot, ProposalSnapshotOffer } from "@/lib/schemas/proposal";
+import { snapshotText } from "@/lib/snapshot-text";
 import { CashflowChart, UsageProductionChart } from "./charts";
+
+type OfferTexts = NonNullable<ProposalSnapshot["texts"]>["offers"][number];
 
 const kwh = (x: number) => `${Math.round(x).toLocaleString("en-US")} kWh`;
 /** Payback in years; none within the years the figures cover says how many years those are. */
@@ -100,7 +103,15 @@ function SystemSection({ offer, usageKwh, means }: { offer: ProposalSnapshotOffe
   );
 }
 
-export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer; usageKwh: number[] }) {
+/** A price line in the reader's language: our words from the snapshot's messages (a new snapshot), a price-book name as typed. */
+function priceLineText(l: ProposalSnapshotOffer["figures"]["price"]["lines"][number], own: OfferTexts["priceLines"][number] | undefined, locale: Locale): string {
+  const label = own ? snapshotText(own.label, locale) : l.label;
+  const detail = own ? snapshotText(own.detail, locale) : l.detail;
+  return detail ? `${label} (${detail})` : label;
+}
+
+/** `texts`: the offer's stored messages (absent on older snapshots, which print their English as stored). */
+export function OfferDetails({ offer, usageKwh, texts }: { offer: ProposalSnapshotOffer; usageKwh: number[]; texts?: OfferTexts }) {
   const f = offer.figures;
   const s = f.summary;
   const billBefore = sum(f.monthly.billWithoutSolarCents);
@@ -119,7 +130,7 @@ export function OfferDetails({ offer, usageKwh }: { offer: ProposalSnapshotOffer
         <h3 className="font-semibold">{t("price")}</h3>
         <dl className="mt-2 divide-y divide-paper-line text-sm">
           {f.price.lines.map((l, i) => (
-            <Row key={`${l.kind}-${l.id ?? i}`} label={`${l.label}${l.detail ? ` (${l.detail})` : ""}`} value={money(l.amountCents)} />
+            <Row key={`${l.kind}-${l.id ?? i}`} label={priceLineText(l, texts?.priceLines[i], locale)} value={money(l.amountCents)} />
           ))}
           <Row label={t("priceTotal")} value={money(s.contractCents)} strong testId={`price-${offer.position}`} meaning={means.price} />
           {f.incentives.applied.map((a) => (

@@ -13,8 +13,9 @@ import { figureDefinitions } from "@/lib/figure-definitions";
 import { formatCalendarDate, formatCents, formatDate, formatDateTime } from "@/lib/format";
 import type { Locale } from "@/lib/i18n/locales";
 import { translator } from "@/lib/i18n/translator";
-import { plainAssumptions } from "@/lib/plain-words";
+import { plainAssumptions, weatherSourcePlace } from "@/lib/plain-words";
 import { proposalLinkState } from "@/lib/proposal-snapshot";
+import { snapshotTexts } from "@/lib/snapshot-text";
 import { dateInZone } from "@/lib/zoned-time";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
 import { clientMeta } from "@/server/client-address";
@@ -110,7 +111,7 @@ function Shell({ snapshot: s, label, token, t, locale, children }: { snapshot: P
       <main className="mt-5 space-y-5">{children}</main>
       <footer className="mt-10 flex items-center justify-between gap-3 border-t border-paper-line pt-4 text-xs text-graphite-soft">
         <Wordmark className="text-sm" />
-        <a href="/verify" className="underline underline-offset-2">
+        <a href={`/verify?lang=${locale}`} className="underline underline-offset-2">
           {t("shell.verifyLink")}
         </a>
       </footer>
@@ -127,6 +128,12 @@ function Notice({ title, children, testId }: { title: string; children: ReactNod
   );
 }
 
+/** A station's name as a place ("GREENSBORO PIEDMONT TRIAD INT, NC" → "Greensboro Piedmont Triad Int, NC"). */
+function stationPlace(name: string): string {
+  const w = weatherSourcePlace(name);
+  return w && "place" in w ? w.place : name;
+}
+
 function HouseholdCard({ s, t }: { s: ProposalSnapshot; t: T }) {
   const h = s.household;
   const annual = Math.round(s.usage.monthlyKwh.reduce((a, b) => a + b, 0));
@@ -140,6 +147,11 @@ function HouseholdCard({ s, t }: { s: ProposalSnapshot; t: T }) {
         {h.street}, {h.city}, {h.region} {h.postalCode}
       </p>
       {s.utilityName ? <p className="text-sm text-graphite-soft">{t("home.utility", { name: s.utilityName })}</p> : null}
+      {s.station ? (
+        <p className="text-sm text-graphite-soft" data-testid="weather-station">
+          {t("home.station", { place: stationPlace(s.station.name), km: s.station.distanceKm })}
+        </p>
+      ) : null}
       <p className="mt-2 text-sm">{t.rich("home.usage", { kwh: annual.toLocaleString("en-US"), figure: tags.figure })}</p>
     </section>
   );
@@ -148,6 +160,7 @@ function HouseholdCard({ s, t }: { s: ProposalSnapshot; t: T }) {
 /**
  * How the figures were made, in words: the assumption sentences without station ids or method
  * citations (src/lib/plain-words.ts), then the methods named the way a homeowner can look them up.
+ * A snapshot's stored messages print in the page's language; an older snapshot's sentences as stored.
  */
 function AssumptionsCard({ s, t, locale }: { s: ProposalSnapshot; t: T; locale: Locale }) {
   return (
@@ -156,7 +169,7 @@ function AssumptionsCard({ s, t, locale }: { s: ProposalSnapshot; t: T; locale: 
         {t("assumptions.heading")}
       </h2>
       <ul className="mt-2 list-disc space-y-1 pl-5 text-sm">
-        {plainAssumptions(s.assumptions, s.offers).map((a) => (
+        {(s.texts ? snapshotTexts(s.texts.assumptions, locale) : plainAssumptions(s.assumptions, s.offers)).map((a) => (
           <li key={a}>{a}</li>
         ))}
         {s.offers.map((o) => {
@@ -165,10 +178,10 @@ function AssumptionsCard({ s, t, locale }: { s: ProposalSnapshot; t: T; locale: 
         })}
       </ul>
       <p className="mt-3 text-sm text-graphite-soft">{t("assumptions.method")}</p>
-      {locale !== "en" ? <p className="mt-1 text-xs text-graphite-soft">{t("assumptions.dataNote")}</p> : null}
+      {locale !== "en" && !s.texts ? <p className="mt-1 text-xs text-graphite-soft">{t("assumptions.dataNote")}</p> : null}
       <h3 className="mt-4 font-semibold">{t("assumptions.note")}</h3>
       <ul className="mt-2 list-disc space-y-1 rounded-md bg-caution-light py-2 pl-8 pr-3 text-sm">
-        {s.cautions.map((c) => (
+        {(s.texts ? snapshotTexts(s.texts.cautions, locale) : s.cautions).map((c) => (
           <li key={c}>{c}</li>
         ))}
       </ul>
@@ -247,7 +260,7 @@ async function SignedPage({ p, token, timeZone, t }: { p: ProposalRow; token: st
             sha256: p.signedSha256 ?? "",
             figure: (chunks) => <span className="figure">{chunks}</span>,
             verify: (chunks) => (
-              <a href="/verify" className="underline">
+              <a href={`/verify?lang=${p.locale}`} className="underline">
                 {chunks}
               </a>
             ),
@@ -260,7 +273,7 @@ async function SignedPage({ p, token, timeZone, t }: { p: ProposalRow; token: st
       {cancelWindow ? <RightToCancel p={p} token={token} cancelWindow={cancelWindow} t={t} /> : null}
       <section aria-label={t("signed.offerRegion", { name: offer.name })}>
         <h2 className="mb-3 text-xl font-semibold">{offer.name}</h2>
-        <OfferDetails offer={offer} usageKwh={s.usage.monthlyKwh} />
+        <OfferDetails offer={offer} usageKwh={s.usage.monthlyKwh} texts={s.texts?.offers.find((x) => x.position === offer.position)} />
       </section>
       <AssumptionsCard s={s} t={t} locale={p.locale} />
       <QuestionForm token={token} repName={s.rep.name} />

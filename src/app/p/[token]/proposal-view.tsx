@@ -50,7 +50,7 @@ export function ProposalView({ token, label, snapshot }: { token: string; label:
 
       <section aria-label={t("offerRegion", { name: offer.name })}>
         <h2 className="mb-3 text-xl font-semibold">{offer.name}</h2>
-        <OfferDetails offer={offer} usageKwh={snapshot.usage.monthlyKwh} />
+        <OfferDetails offer={offer} usageKwh={snapshot.usage.monthlyKwh} texts={snapshot.texts?.offers.find((x) => x.position === offer.position)} />
       </section>
 
       <SigningPanel

@@ -5,9 +5,10 @@ import { useState, type Dispatch, type SetStateAction } from "react";
 import { useForm } from "react-hook-form";
 import { ConfirmButton } from "@/components/ui/dialog";
 import { EmptyState } from "@/components/ui/empty-state";
-import { Field, StatusMessage, type Notice } from "@/components/ui/field";
+import { Field, SaveRow, type Notice } from "@/components/ui/field";
 import { useSave } from "@/components/ui/use-save";
 import { createCrewSchema, type CreateCrewInput } from "@/lib/schemas/jobs";
+import { plainError, type FieldLabels } from "@/lib/validation-messages";
 
 type CrewRow = { id: string; name: string; feedUrl: string; openJobs: number; memberIds: string[] };
 type Installer = { id: string; name: string; email: string; active: boolean; crewId: string | null };
@@ -29,24 +30,27 @@ export function CrewsClient({ crews, installers }: { crews: CrewRow[]; installer
   );
 }
 
+/** The crew forms' labels, for the messages that name a field (src/lib/validation-messages.ts). */
+const NEW_CREW_LABELS: FieldLabels = { name: "New crew" };
+const CREW_LABELS: FieldLabels = { name: "Name", memberIds: "Installers in this crew" };
+
 function NewCrewForm() {
-  const { register, handleSubmit, reset, setError, formState } = useForm<CreateCrewInput>({ resolver: zodResolver(createCrewSchema), defaultValues: { name: "" } });
+  const { register, handleSubmit, reset, setError, formState } = useForm<CreateCrewInput>({
+    resolver: zodResolver(createCrewSchema, { error: plainError(NEW_CREW_LABELS) }),
+    defaultValues: { name: "" },
+  });
   const add = useSave<CreateCrewInput, unknown, CreateCrewInput>({
     request: (json) => ({ url: "/api/crews", method: "POST", json }),
     setError,
+    labels: NEW_CREW_LABELS,
     onSaved: () => reset(),
   });
   return (
-    <form onSubmit={handleSubmit(add.save)} noValidate className="card flex flex-wrap items-start gap-3 p-4" aria-label="New crew">
-      {add.notice ? (
-        <div className="w-full">
-          <StatusMessage notice={add.notice} />
-        </div>
-      ) : null}
+    <form onSubmit={handleSubmit(add.save, add.invalid)} noValidate className="card flex flex-wrap items-start gap-3 p-4" aria-label="New crew">
       <Field id="new-crew-name" label="New crew" className="w-72 max-w-full" placeholder="e.g. Crew East" autoComplete="off" error={formState.errors.name?.message} {...register("name")} />
-      <button type="submit" className="btn-primary mt-6" disabled={add.pending}>
-        {add.pending ? "Adding…" : "Add crew"}
-      </button>
+      <div className="mt-6">
+        <SaveRow notice={add.notice} submit={{ label: "Add crew", pending: add.pending }} />
+      </div>
     </form>
   );
 }
@@ -55,10 +59,14 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
   const [name, setName] = useState(crew.name);
   const [members, setMembers] = useState<string[]>(crew.memberIds);
   const [notice, setNotice] = useState<Notice | null>(null);
+  // The server's refusal of the name (422), on the field as well as beside the button; gone at the next edit of it.
+  const [nameError, setNameError] = useState<string | undefined>();
   const save = useSave<{ name: string; memberIds: string[] }>({
     request: (json) => ({ url: `/api/crews/${crew.id}`, method: "PATCH", json }),
     success: "Crew saved.",
+    labels: CREW_LABELS,
     notify: setNotice,
+    onFieldErrors: (fields) => setNameError(fields.name?.[0]),
   });
   const renew = useSave<void>({
     request: () => ({ url: `/api/crews/${crew.id}/feed-token`, method: "POST" }),
@@ -75,23 +83,20 @@ function CrewCard({ crew, installers, crews }: { crew: CrewRow; installers: Inst
           · <span className="figure">{crew.openJobs}</span> open job{crew.openJobs === 1 ? "" : "s"}
         </span>
       </h2>
-      {notice ? (
-        <div className="mt-2">
-          <StatusMessage notice={notice} />
-        </div>
-      ) : null}
       <div className="mt-3 grid gap-6 md:grid-cols-2">
-        <div className="space-y-3">
-          <Field id={`crew-name-${crew.id}`} label="Name" value={name} maxLength={100} onChange={(e) => setName(e.target.value)} />
+        {/* The status stands beside Save crew and goes at the next edit here (data-edit-scope). */}
+        <div className="space-y-3" data-edit-scope>
+          <Field id={`crew-name-${crew.id}`} label="Name" value={name} maxLength={100} error={nameError} onChange={(e) => {
+              setName(e.target.value);
+              setNameError(undefined);
+            }}
+          />
           <CrewMembersField crew={crew} installers={installers} crews={crews} members={members} setMembers={setMembers} />
-          <button
-            type="button"
-            className="btn-primary"
-            disabled={busy || !dirty || name.trim().length < 2}
-            onClick={() => save.save({ name: name.trim(), memberIds: members })}
-          >
-            Save crew
-          </button>
+          <SaveRow notice={notice}>
+            <button type="button" className="btn-primary" disabled={busy || !dirty} onClick={() => save.save({ name: name.trim(), memberIds: members })}>
+              Save crew
+            </button>
+          </SaveRow>
         </div>
         <CalendarAddress feedUrl={crew.feedUrl} busy={busy} onRenew={() => renew.save()} />
       </div>

@@ -4,7 +4,8 @@ import { useState } from "react";
 import { useFieldArray, useForm } from "react-hook-form";
 import { Badge } from "@/components/ui/badge";
 import { ConfirmButton } from "@/components/ui/dialog";
-import { Field, StatusMessage } from "@/components/ui/field";
+import { Field, SaveRow, StatusMessage } from "@/components/ui/field";
+import { plainError, type FieldLabels } from "@/lib/validation-messages";
 import { useSave, type SaveRequest } from "@/components/ui/use-save";
 import { checklistTemplateSchema, type ChecklistTemplateInput } from "@/lib/schemas/jobs";
 
@@ -84,6 +85,9 @@ function TemplateCard({ template, onEdit }: { template: Template; onEdit: () => 
   );
 }
 
+/** The checklist form's labels, for the messages that name a field (`#` an item's position). */
+const CHECKLIST_LABELS: FieldLabels = { name: "Checklist name", items: "Items", "items.#.label": "Item {n}" };
+
 function TemplateEditor({ template, onDone }: { template: Template | null; onDone: () => void }) {
   const {
     register,
@@ -92,19 +96,19 @@ function TemplateEditor({ template, onDone }: { template: Template | null; onDon
     setError,
     formState: { errors },
   } = useForm<ChecklistTemplateInput>({
-    resolver: zodResolver(checklistTemplateSchema),
+    resolver: zodResolver(checklistTemplateSchema, { error: plainError(CHECKLIST_LABELS) }),
     defaultValues: template ? { name: template.name, items: template.items } : { name: "", items: [{ id: "", label: "" }] },
   });
   const { fields, append, remove, move } = useFieldArray({ control, name: "items", keyName: "key" });
   const save = useSave<ChecklistTemplateInput, unknown, ChecklistTemplateInput>({
     request: (json) => (template ? { url: `/api/checklist-templates/${template.id}`, method: "PATCH", json } : { url: "/api/checklist-templates", method: "POST", json }),
     setError,
+    labels: CHECKLIST_LABELS,
     onSaved: onDone,
   });
 
   return (
-    <form onSubmit={handleSubmit(save.save)} noValidate className="card space-y-4 p-5" aria-label={template ? `Edit ${template.name}` : "New checklist"}>
-      <StatusMessage notice={save.notice} />
+    <form onSubmit={handleSubmit(save.save, save.invalid)} noValidate className="card space-y-4 p-5" aria-label={template ? `Edit ${template.name}` : "New checklist"}>
       <Field id="tpl-name" label="Checklist name" className="max-w-md" autoComplete="off" error={errors.name?.message} {...register("name")} />
       <fieldset>
         <legend className="field-label">Items, in the order the crew works</legend>
@@ -131,14 +135,14 @@ function TemplateEditor({ template, onDone }: { template: Template | null; onDon
           Add item
         </button>
       </fieldset>
-      <div className="flex gap-2">
+      <SaveRow notice={save.notice}>
         <button type="submit" className="btn-primary" disabled={save.pending}>
           {save.pending ? "Saving…" : template ? "Save checklist" : "Create checklist"}
         </button>
         <button type="button" className="btn-quiet" onClick={onDone}>
           Cancel
         </button>
-      </div>
+      </SaveRow>
     </form>
   );
 }

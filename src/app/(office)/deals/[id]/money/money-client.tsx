@@ -7,10 +7,11 @@ import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import type { PaymentStatus } from "@/lib/enums";
 import { Badge, type BadgeTone } from "@/components/ui/badge";
-import { Field, FormMessage, StatusMessage } from "@/components/ui/field";
+import { Field, FormMessage, SaveRow, StatusMessage } from "@/components/ui/field";
 import { TableShell, Td, Th } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import { dollarsToCents, refundPaymentSchema, type RefundPaymentInput } from "@/lib/schemas/refund";
+import { plainError, type FieldLabels } from "@/lib/validation-messages";
 
 const REFUND_COLUMNS = ["When", "Amount", "Reason", "By", "State", "Refund id"];
 
@@ -164,9 +165,12 @@ function ResendReceipt({ paymentId }: { paymentId: string }) {
   );
 }
 
+/** The refund form's labels, for the messages that name a field (src/lib/validation-messages.ts). */
+const REFUND_LABELS: FieldLabels = { amountCents: "Amount (USD)", reason: "Reason (the customer sees it)" };
+
 /** The refund form's state: amount typed in dollars, held in cents; closes the form once the refund is recorded. */
 function useRefund(p: PaymentView, onRefunded: () => void) {
-  const form = useForm<RefundPaymentInput>({ resolver: zodResolver(refundPaymentSchema), defaultValues: { reason: "" } });
+  const form = useForm<RefundPaymentInput>({ resolver: zodResolver(refundPaymentSchema, { error: plainError(REFUND_LABELS) }), defaultValues: { reason: "" } });
   const { errors } = form.formState;
   // The person types dollars; the form (and the server) hold integer cents.
   const [amountText, setAmountText] = useState("");
@@ -180,6 +184,7 @@ function useRefund(p: PaymentView, onRefunded: () => void) {
   const refund = useSave<RefundPaymentInput, { amountCents: number }, RefundPaymentInput>({
     request: (json) => ({ url: `/api/payments/${p.id}/refunds`, method: "POST", json }),
     setError: form.setError,
+    labels: REFUND_LABELS,
     onSaved: () => {
       form.reset({ reason: "" });
       setAmountText("");
@@ -218,7 +223,7 @@ function RefundForm({ p }: { p: PaymentView }) {
     <form
       className="w-full max-w-md space-y-3 rounded-md border border-danger/30 p-3"
       aria-label="Refund this deposit"
-      onSubmit={form.handleSubmit(refund.saveAndWait)}
+      onSubmit={form.handleSubmit(refund.saveAndWait, refund.invalid)}
       noValidate
     >
       <p className="text-sm">
@@ -242,15 +247,14 @@ function RefundForm({ p }: { p: PaymentView }) {
         </button>
       </div>
       <Field id={`refund-reason-${p.id}`} label="Reason (the customer sees it)" error={errors.reason?.message} {...form.register("reason")} />
-      <StatusMessage notice={refund.notice} />
-      <div className="flex gap-2">
+      <SaveRow notice={refund.notice}>
         <button type="submit" className="btn-danger" disabled={refund.pending}>
           {refund.pending ? "Refunding…" : "Refund"}
         </button>
         <button type="button" className="btn-quiet" onClick={() => setOpen(false)} disabled={refund.pending}>
           Don&apos;t refund
         </button>
-      </div>
+      </SaveRow>
     </form>
   );
 }
