@@ -3,7 +3,8 @@
 //   says Synced; db2, then db3, are backups that take over when it is not. One writer avoids
 //   most certification conflicts (two nodes committing to the same rows); the app retries the
 //   few that remain. When a node is marked down its open connections are cut, so the app's
-//   pool reconnects through the balancer to the next node at once. When db1 is back, new
+//   pool reconnects through the balancer to the next node at once; a connection refused by a
+//   killed node marks it down at once and is passed on to the next node. When db1 is back, new
 //   connections go to it while pooled ones stay on the backup until they idle out: for that
 //   while two nodes take writes, and Galera's certification (retried by the app) keeps them
 //   consistent.
@@ -48,7 +49,13 @@ backend galera
   mode tcp
   option httpchk GET /
   http-check expect status 200
-  default-server inter 1s fastinter 500ms fall 2 rise 3 on-marked-down shutdown-sessions
+  # A killed node refuses connections at once (RST) before its check fails (≈ 1–2 s): the
+  # first refused or timed-out connection marks it down (observe layer4, error-limit 1,
+  # on-error mark-down), and the connection is retried on the next node rather than handed
+  # back closed (option redispatch 1: every retry goes through the balancing again, so to the
+  # backup once the node is down). Only connections are retried, never a query.
+  option redispatch 1
+  default-server inter 1s fastinter 500ms fall 2 rise 3 on-marked-down shutdown-sessions observe layer4 error-limit 1 on-error mark-down
 ${db}
 
 frontend app

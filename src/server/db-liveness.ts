@@ -27,7 +27,17 @@ async function selectOne(): Promise<void> {
   await state.conn.query({ sql: "SELECT 1", timeout: PROBE_TIMEOUT_MS });
 }
 
+/**
+ * A connection kept from an earlier probe may have died with its database node (killed, or cut
+ * by the balancer): that says nothing about the database behind the balancer now, so one more
+ * try on a new connection decides. A probe that had to connect is not repeated.
+ */
 async function probe(): Promise<boolean> {
+  const reused = state.conn !== null;
+  return (await probeOnce()) || (reused && (await probeOnce()));
+}
+
+async function probeOnce(): Promise<boolean> {
   let timer: NodeJS.Timeout | undefined;
   const deadline = new Promise<never>((_, reject) => {
     timer = setTimeout(() => reject(new Error("probe timed out")), PROBE_TIMEOUT_MS + 200);

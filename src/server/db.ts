@@ -24,8 +24,39 @@ export function pool(): mysql.Pool {
 }
 
 export function db(): Db {
-  globalForDb.kilowrightDb ??= drizzle(pool(), { schema, mode: "default" });
+  globalForDb.kilowrightDb ??= drizzle(readsRetried(pool()), { schema, mode: "default" });
   return globalForDb.kilowrightDb;
+}
+
+/** A statement that only reads: running it twice changes nothing (our queries call no GET_LOCK or sequences). */
+function isRead(query: unknown): boolean {
+  const text = typeof query === "string" ? query : (query as { sql?: unknown } | null)?.sql;
+  return typeof text === "string" && /^\s*\(?\s*(select|with|show)\b/i.test(text);
+}
+
+/**
+ * The pool Drizzle uses outside transactions: a read whose connection was lost (its database
+ * node was killed, or HAProxy cut it when marking the node down) runs once more on another
+ * connection, which reaches the next node. Writes are never re-sent here: one that reached the
+ * server may have been committed before the connection dropped. Transactions take their own
+ * connection (`getConnection`) and are retried by `transaction()` below.
+ */
+function readsRetried(p: mysql.Pool): mysql.Pool {
+  return new Proxy(p, {
+    get(target, prop) {
+      const value = Reflect.get(target, prop, target) as unknown;
+      if (typeof value !== "function") return value;
+      if (prop !== "query" && prop !== "execute") return value.bind(target);
+      return async (...args: unknown[]) => {
+        try {
+          return await value.apply(target, args);
+        } catch (err) {
+          if (!isRead(args[0]) || !connectionLost(err)) throw err;
+          return await value.apply(target, args);
+        }
+      };
+    },
+  });
 }
 
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
@@ -52,6 +83,25 @@ function retryable(err: unknown): boolean {
   return errno === GALERA_COMMIT_ERRNO && /provider status/i.test(mariaDbMessage(err));
 }
 
+/**
+ * The connection itself was lost, not the statement refused: mysql2's codes for a dropped
+ * socket, MariaDB's 1927 ER_CONNECTION_KILLED, the client's 2006/2013 ("server has gone away",
+ * "Lost connection…"), and mysql2's refusal to use a connection already closed. A transaction
+ * open on it was rolled back by the server, which ends any transaction whose connection dies.
+ */
+const LOST_CODES = new Set(["PROTOCOL_CONNECTION_LOST", "ECONNRESET", "EPIPE", "ECONNREFUSED", "ER_CONNECTION_KILLED"]);
+const LOST_ERRNOS = new Set([1927, 2006, 2013]);
+
+export function connectionLost(err: unknown): boolean {
+  for (let e: unknown = err, depth = 0; e && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+    const { code, errno, message } = e as { code?: unknown; errno?: unknown; message?: unknown };
+    if (typeof code === "string" && LOST_CODES.has(code)) return true;
+    if (typeof errno === "number" && LOST_ERRNOS.has(errno)) return true;
+    if (typeof message === "string" && message.includes("connection is in closed state")) return true;
+  }
+  return false;
+}
+
 /** The MariaDB error text under Drizzle's wrapper. */
 function mariaDbMessage(err: unknown): string {
   for (let e: unknown = err, depth = 0; e && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
@@ -76,16 +126,29 @@ export const TRANSACTION_ATTEMPTS = 4;
  * Runs `work` in one transaction, and runs it again (up to TRANSACTION_ATTEMPTS times in all,
  * after a short random pause) when the database answers with a deadlock, a cluster
  * certification conflict or a write set Galera could not replicate — each rolls the whole
- * transaction back, so nothing of the failed
- * attempt is kept. `work` must therefore be safe to run twice: it reads what it needs inside
- * the transaction, and any call outside the database is a read or carries an idempotency key.
+ * transaction back, so nothing of the failed attempt is kept.
+ * A lost connection is retried once, and only when it was lost before COMMIT was sent (while
+ * opening the transaction or running `work`): the server rolled that transaction back. A
+ * connection lost during COMMIT is not retried: the commit may have landed before the answer
+ * was lost, and only some writes have a unique key that would refuse a second copy — the
+ * caller answers an error and the person (or Stripe's webhook retry) asks again.
+ * `work` must therefore be safe to run twice: it reads what it needs inside the transaction,
+ * and any call outside the database is a read or carries an idempotency key.
  */
 export async function transaction<T>(work: (tx: Tx) => Promise<T>): Promise<T> {
+  let lostRetried = false;
   for (let attempt = 1; ; attempt++) {
+    let committing = false;
     try {
-      return await db().transaction(work);
+      return await db().transaction(async (tx) => {
+        const result = await work(tx);
+        committing = true;
+        return result;
+      });
     } catch (err) {
-      if (attempt >= TRANSACTION_ATTEMPTS || !retryable(err)) throw err;
+      const lostBeforeCommit = !committing && !lostRetried && connectionLost(err);
+      if (attempt >= TRANSACTION_ATTEMPTS || !(retryable(err) || lostBeforeCommit)) throw err;
+      if (lostBeforeCommit) lostRetried = true;
       // 10–40 ms, doubling: long enough for the winner to commit, short for a person waiting.
       await new Promise((r) => setTimeout(r, (5 + Math.random() * 15) * 2 ** attempt));
     }
