@@ -115,7 +115,7 @@ function ruleDate(rule: Rule, ctx: Context): { on: string; onWhat: string } {
 export type SkipWhy =
   | { kind: "starts" | "ended"; date: string; on: string; onWhat: "installation" | "offer" }
   | { kind: "belowMin" | "aboveMax"; kw: number; limit: number }
-  | { kind: "payment"; payment: "cash" | "loan" };
+  | { kind: "payment"; payment: "cash" | "loan" | "lease" | "ppa" };
 
 /** Why a rule does not apply (dates, size, payment), or null when it does. */
 function skipWhy(rule: Rule, ctx: Context): SkipWhy | null {

@@ -130,6 +130,8 @@ function incentiveDetail(rule: PriceBook["incentives"][number] | undefined): Sna
   return a.capCents === undefined ? base : msg("incentiveDetail.capped", { detail: base, cap: { cents: a.capCents } });
 }
 
+const SKIPPED_PAYMENT = { cash: "skipped.paymentCash", loan: "skipped.paymentLoan", lease: "skipped.paymentLease", ppa: "skipped.paymentPpa" } as const;
+
 /** Why an incentive does not apply, as a catalog message (figures computed before the engine recorded why: its English reason). */
 export function skipMessage(k: { reason: string; why?: SkipWhy }): SnapshotText {
   const w = k.why;
@@ -144,7 +146,7 @@ export function skipMessage(k: { reason: string; why?: SkipWhy }): SnapshotText 
     case "aboveMax":
       return msg(`skipped.${w.kind}`, { kw: w.kw, limit: w.limit });
     case "payment":
-      return msg(w.payment === "cash" ? "skipped.paymentCash" : "skipped.paymentLoan");
+      return msg(SKIPPED_PAYMENT[w.payment]);
   }
 }
 
