@@ -251,7 +251,7 @@ export async function setInverterActive(member: Member, id: string, active: bool
 
 // ── CSV export ───────────────────────────────────────────────────────────────────────
 
-function toCsv(columns: readonly CsvColumn[], rows: Record<string, unknown>[]): string {
+export function toCsv(columns: readonly CsvColumn[], rows: Record<string, unknown>[]): string {
   return Papa.unparse(
     {
       fields: columns.map((c) => c.name),
@@ -322,7 +322,7 @@ export async function readCsvUpload(req: Request): Promise<{ text: string; mode:
   return { text: await csvTextFromUpload(bytes), mode: mode.data };
 }
 
-type CsvRow = { line: number; cells: Record<string, string> };
+export type CsvRow = { line: number; cells: Record<string, string> };
 
 /** Parses the CSV with Papa Parse (src/engine/csv.ts), keeping each row's line number in the file. */
 function readCsv(text: string, columns: readonly CsvColumn[]): { rows: CsvRow[]; errors: CsvRowError[] } {
@@ -398,18 +398,18 @@ function rowToInput(row: CsvRow, columns: readonly CsvColumn[]): { input: Record
   return { input, active, errors };
 }
 
-function issuesToErrors(line: number, error: z.ZodError, columns: readonly CsvColumn[]): CsvRowError[] {
+export function issuesToErrors(line: number, error: z.ZodError, columns: readonly CsvColumn[]): CsvRowError[] {
   const byField = new Map(columns.map((c) => [c.field, c.name]));
   return error.issues.map((i) => ({ line, column: byField.get(String(i.path[0])) ?? "row", message: i.message }));
 }
 
-type ImportSpec<V extends { manufacturer: string; model: string }> = {
+export type ImportSpec<V extends { manufacturer: string; model: string }> = {
   columns: readonly CsvColumn[];
   validate: (row: CsvRow, input: Record<string, unknown>) => { value?: V; errors: CsvRowError[] };
   upsert: (tx: Tx, companyId: string, value: V, active: boolean | undefined) => Promise<"created" | "updated">;
 };
 
-async function importCsv<V extends { manufacturer: string; model: string }>(
+export async function importCsv<V extends { manufacturer: string; model: string }>(
   member: Member,
   text: string,
   mode: ImportMode,
