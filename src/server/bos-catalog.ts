@@ -3,7 +3,7 @@ import { and, asc, eq } from "drizzle-orm";
 import { bosPart } from "@/db/schema";
 import { BOS_CSV_COLUMNS, bosCsvRecord, bosInputOfRecord, bosPartSchema, type BosPartValues } from "@/lib/schemas/bos";
 import type { CsvImportReport, CsvRowError, ImportMode } from "@/lib/schemas/catalog";
-import { importCsv, issuesToErrors, toCsv } from "@/server/catalog";
+import { importCsv, issuesToErrors, toCsv, upsertByMakerModel } from "@/server/catalog";
 import { db } from "@/server/db";
 import { HttpError, isDuplicateKey } from "@/server/errors";
 import { companyRowOrThrow } from "@/server/records";
@@ -77,21 +77,6 @@ export async function importBosCsv(member: Member, text: string, mode: ImportMod
       }
       return { value: parsed.data, errors };
     },
-    upsert: async (tx, companyId, value, active) => {
-      const [existing] = await tx
-        .select({ id: bosPart.id })
-        .from(bosPart)
-        .where(and(eq(bosPart.companyId, companyId), eq(bosPart.manufacturer, value.manufacturer), eq(bosPart.model, value.model)))
-        .limit(1);
-      if (existing) {
-        await tx
-          .update(bosPart)
-          .set({ ...columnsOf(value), ...(active === undefined ? {} : { active }) })
-          .where(and(eq(bosPart.id, existing.id), eq(bosPart.companyId, companyId)));
-        return "updated";
-      }
-      await tx.insert(bosPart).values({ id: crypto.randomUUID(), companyId, ...columnsOf(value), active: active ?? true });
-      return "created";
-    },
+    upsert: (tx, companyId, value, active) => upsertByMakerModel(tx, bosPart, companyId, value, columnsOf(value), active),
   });
 }

@@ -4,7 +4,9 @@ import { FIRE_CODE_RULES, layoutFace, ridgeSetbackFor } from "@/engine/roof-layo
 import { enginesSpares } from "@/lib/schemas/packet-settings";
 import { MATERIALS_CAUTIONS, type FaceSketch, type PacketMaterials } from "@/lib/job-materials";
 import { listBosParts } from "@/server/bos-catalog";
-import type { InverterModel, ModuleModel } from "@/server/catalog";
+import { getInverterOrThrow, getModuleOrThrow, type InverterModel, type ModuleModel } from "@/server/catalog";
+import type { DealScope } from "@/server/deal-scope";
+import { getDesignForDeal } from "@/server/designs";
 import { getPriceBook } from "@/server/price-book";
 import { getPacketSettings, getRoofSurvey } from "@/server/roof-survey";
 
@@ -88,4 +90,25 @@ export async function packetMaterials(input: MaterialsInput): Promise<PacketMate
     bom,
     cautions: MATERIALS_CAUTIONS,
   };
+}
+
+/** The Design tab's view: the saved design's layout and bill of materials (null before a design is saved). */
+export async function designMaterials(scope: DealScope): Promise<PacketMaterials | null> {
+  const saved = await getDesignForDeal(scope);
+  if (!saved) return null;
+  const doc = saved.document;
+  const companyId = scope.member.companyId;
+  const [mod, inv] = await Promise.all([getModuleOrThrow(companyId, doc.moduleId).catch(() => null), getInverterOrThrow(companyId, doc.inverterId).catch(() => null)]);
+  if (!mod || !inv) return null;
+  const moduleCount = doc.faces.reduce((s, f) => s + f.moduleCount, 0);
+  const inverterUnits = inv.kind === "micro" ? Math.ceil(moduleCount / Math.max(1, inv.modulesPerUnit ?? 1)) : doc.inverterCount;
+  return packetMaterials({
+    companyId,
+    dealId: scope.dealId,
+    faces: doc.faces.map((f) => ({ id: f.id, name: f.name, tiltDeg: f.tiltDeg, moduleCount: f.moduleCount })),
+    mod,
+    inv,
+    inverterUnits,
+    stringSizes: doc.stringPlan?.stringSizes ?? null,
+  });
 }

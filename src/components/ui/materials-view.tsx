@@ -83,3 +83,26 @@ export function MaterialsCautions({ materials }: { materials: PacketMaterials })
     </ul>
   );
 }
+
+/** The roof layout section and the bill of materials section, as the job page and the Design tab show them. */
+export function MaterialsSections({ materials, idPrefix }: { materials: PacketMaterials; idPrefix: string }) {
+  return (
+    <>
+      <section className="card p-4" aria-labelledby={`${idPrefix}-layout-heading`} data-testid="roof-layout-section">
+        <h2 id={`${idPrefix}-layout-heading`} className="mb-2 text-lg font-semibold">
+          Roof layout
+        </h2>
+        <RoofLayouts materials={materials} />
+      </section>
+      <section className="card p-4" aria-labelledby={`${idPrefix}-bom-heading`}>
+        <h2 id={`${idPrefix}-bom-heading`} className="mb-2 text-lg font-semibold">
+          Bill of materials
+        </h2>
+        <BomTable materials={materials} />
+        <div className="mt-3">
+          <MaterialsCautions materials={materials} />
+        </div>
+      </section>
+    </>
+  );
+}

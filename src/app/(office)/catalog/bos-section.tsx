@@ -1,8 +1,7 @@
 "use client";
-import { Badge } from "@/components/ui/badge";
 import { EmptyState } from "@/components/ui/empty-state";
 import { StatusMessage } from "@/components/ui/field";
-import { TableShell, Td, Th } from "@/components/ui/table";
+import { TableShell } from "@/components/ui/table";
 import { useSave } from "@/components/ui/use-save";
 import {
   BOS_KIND_LABELS,
@@ -16,6 +15,7 @@ import {
   type BosKind,
 } from "@/lib/schemas/bos";
 import { CsvColumnsHelp, CsvImport } from "./csv-import";
+import { EquipmentRow, TableHead, type Column } from "./equipment-section";
 
 export type BosPartView = { id: string; kind: BosKind; manufacturer: string; model: string; details: BosDetails; priceLineItemId: string | null; active: boolean };
 
@@ -45,6 +45,11 @@ function specOf(d: BosDetails): string {
   }
 }
 
+const COLUMNS: Column<BosPartView>[] = [
+  { header: "Kind", cell: (r) => BOS_KIND_LABELS[r.kind] },
+  { header: "Specification", priority: "low", className: "text-xs wrap-anywhere", cell: (r) => specOf(r.details) },
+];
+
 /** Balance-of-system parts: racking, electronics, devices, wire, conduit, labels; kept by CSV. */
 export function BosSection({ canManage, rows }: { canManage: boolean; rows: BosPartView[] }) {
   const setActive = useSave<{ row: BosPartView; active: boolean }>({
@@ -73,44 +78,10 @@ export function BosSection({ canManage, rows }: { canManage: boolean; rows: BosP
           minWidth={720}
           testId="bos-table"
           label="Balance-of-system parts"
-          head={
-            <>
-              <Th>Part</Th>
-              <Th>Kind</Th>
-              <Th priority="low">Specification</Th>
-              <Th>Status</Th>
-              {canManage ? (
-                <Th>
-                  <span className="sr-only">Actions</span>
-                </Th>
-              ) : null}
-            </>
-          }
+          head={<TableHead noun="Part" columns={COLUMNS} canManage={canManage} />}
         >
           {rows.map((r) => (
-            <tr key={r.id} data-testid={`part-${r.model}`} className={r.active ? undefined : "bg-paper/60"}>
-              <Td className="wrap-anywhere">
-                <span className="font-medium">{r.manufacturer}</span> {r.model}
-              </Td>
-              <Td>{BOS_KIND_LABELS[r.kind]}</Td>
-              <Td priority="low" className="text-xs wrap-anywhere">
-                {specOf(r.details)}
-              </Td>
-              <Td>{r.active ? <Badge tone="success">Active</Badge> : <Badge>Deactivated</Badge>}</Td>
-              {canManage ? (
-                <Td className="text-right">
-                  <button
-                    type="button"
-                    className={r.active ? "btn-danger" : "btn-quiet"}
-                    disabled={setActive.pending}
-                    aria-label={`${r.active ? "Deactivate" : "Reactivate"} ${r.manufacturer} ${r.model}`}
-                    onClick={() => setActive.save({ row: r, active: !r.active })}
-                  >
-                    {r.active ? "Deactivate" : "Reactivate"}
-                  </button>
-                </Td>
-              ) : null}
-            </tr>
+            <EquipmentRow key={r.id} row={r} noun="part" columns={COLUMNS} canManage={canManage} busy={setActive.pending} onSetActive={(active) => setActive.save({ row: r, active })} />
           ))}
         </TableShell>
       )}

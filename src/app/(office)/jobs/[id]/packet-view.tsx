@@ -1,7 +1,6 @@
 import { STAGE_LABELS } from "@/lib/stages";
 import { visitLines } from "@/lib/job-packet";
-import type { PacketMaterials } from "@/lib/job-materials";
-import { BomTable, MaterialsCautions, RoofLayouts } from "@/components/ui/materials-view";
+import { MaterialsSections } from "@/components/ui/materials-view";
 import type { JobPacket } from "@/server/jobs";
 import { longDate } from "../dates";
 import { CrewWork } from "./crew-work";
@@ -38,7 +37,7 @@ export function PacketView({ packet, canWork, office, today, timeZone }: { packe
 
       <SystemSection packet={packet} />
 
-      {packet.materials ? <MaterialsSections materials={packet.materials} /> : packet.bom.length > 0 ? <BomSection packet={packet} /> : null}
+      {packet.materials ? <MaterialsSections materials={packet.materials} idPrefix="packet" /> : packet.bom.length > 0 ? <BomSection packet={packet} /> : null}
 
       <StringPlanSection packet={packet} />
 
@@ -191,29 +190,6 @@ function SystemSection({ packet }: { packet: JobPacket }) {
         </div>
       ) : null}
     </section>
-  );
-}
-
-/** The roof layout of each face, then the full bill of materials. */
-function MaterialsSections({ materials }: { materials: PacketMaterials }) {
-  return (
-    <>
-      <section className="card p-4" aria-labelledby="layout-heading" data-testid="roof-layout-section">
-        <h2 id="layout-heading" className="mb-2 text-lg font-semibold">
-          Roof layout
-        </h2>
-        <RoofLayouts materials={materials} />
-      </section>
-      <section className="card p-4" aria-labelledby="bom-heading">
-        <h2 id="bom-heading" className="mb-2 text-lg font-semibold">
-          Bill of materials
-        </h2>
-        <BomTable materials={materials} />
-        <div className="mt-3">
-          <MaterialsCautions materials={materials} />
-        </div>
-      </section>
-    </>
   );
 }
 
