@@ -126,3 +126,14 @@ describe("buildBom (worked example: 10 modules, one string inverter)", () => {
     expect(out.lines.some((l) => l.kind === "fuse" || l.kind === "mlpe")).toBe(false);
   });
 });
+
+describe("buildBom with three strings", () => {
+  it("adds string fuses rated at least 156 % of Isc (NEC 690.8(A), 690.9(B)) and a combiner with inputs for every string", () => {
+    const parts = [part("combiner", { inputs: 2 }), part("fuse", { ratingA: 20 }), ...PARTS, part("fuse", { ratingA: 25 })];
+    const out = buildBom({ ...stringJob(), strings: [8, 8, 8], module: { name: "PL-410T", count: 24, iscA: 13.75 }, parts });
+    // 13.75 A × 1.25 × 1.25 = 21.5 A → 25 A (240.6(A)); 3 strings × 2 poles = 6 fuses; the 20 A fuse is too small.
+    expect(out.lines.find((l) => l.kind === "fuse")).toMatchObject({ needed: 6, detail: "Maker fuse, string fuses, 25 A or more", partId: expect.stringContaining("25") });
+    // The combiner with 4 inputs, not the 2-input one.
+    expect(out.lines.find((l) => l.kind === "combiner" && l.basis.startsWith("one combiner"))).toMatchObject({ partId: expect.stringContaining('"inputs":4') });
+  });
+});

@@ -240,7 +240,8 @@ function electricalLines(input: BomInput): LineSpec[] {
     wire("egc", breakerA ?? 60, (homeRun + DEFAULT_AC_RUN_M) * (1 + SLACK), `one equipment grounding conductor along the home run and the AC run + ${SLACK * 100} %`);
     wire("ac_output", 1.25 * acAmps, 3 * DEFAULT_AC_RUN_M * (1 + SLACK), `L1, L2, N × ${DEFAULT_AC_RUN_M} m inverter to interconnection (our assumption) + ${SLACK * 100} %`);
     if (strings.length > 2) {
-      out.push({ kind: "fuse", item: "Fuse", part: partOf(input.parts, "fuse"), detail: `string fuses, ${nextStandardOcpd(sourceA * 1.25) ?? "—"} A or more`, needed: strings.length * 2, unit: "pcs", basis: `${strings.length} strings in parallel (over 2 need fuses, NEC 690.9(A), from memory) × 2 poles` });
+      const fuseA = nextStandardOcpd(sourceA * 1.25) ?? 200;
+      out.push({ kind: "fuse", item: "Fuse", part: partOf(input.parts, "fuse", (d) => Number(d.ratingA) >= fuseA), detail: `string fuses, ${fuseA} A or more`, needed: strings.length * 2, unit: "pcs", basis: `${strings.length} strings in parallel (over 2 need fuses, NEC 690.9(A), from memory) × 2 poles` });
       out.push({ kind: "combiner", item: "Combiner / junction box", part: partOf(input.parts, "combiner", (d) => Number(d.inputs) >= strings.length), needed: 1, unit: "pcs", basis: `one combiner for ${strings.length} strings` });
     }
   } else {
