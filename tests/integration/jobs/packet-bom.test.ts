@@ -154,3 +154,29 @@ describe("the packet's bill of materials and roof layout", () => {
     }
   });
 });
+
+describe("the demo's designs", () => {
+  it("each get a complete bill of materials: every line a catalog part, no problems, every face laid out and holding its modules", async () => {
+    const { db } = await import("@/server/db");
+    const { deal, design, membership, user } = await import("@/db/schema");
+    const { and, eq } = await import("drizzle-orm");
+    const { openDeal } = await import("@/server/deal-scope");
+    const { designMaterials } = await import("@/server/job-materials");
+    const DEMO_COMPANY_ID = "7a11a55e-0000-4000-8000-000000000001";
+    const [o] = await db()
+      .select({ userId: user.id, name: user.name, email: user.email, membershipId: membership.id })
+      .from(membership)
+      .innerJoin(user, eq(user.id, membership.userId))
+      .where(and(eq(membership.companyId, DEMO_COMPANY_ID), eq(user.email, "owner@tallgrass.example")));
+    const demoOwner: Member = { ...o, companyId: DEMO_COMPANY_ID, companyName: "Tallgrass Bright Energy", role: "owner" };
+    const rows = await db().select({ dealId: design.dealId }).from(design).innerJoin(deal, eq(deal.id, design.dealId)).where(eq(design.companyId, DEMO_COMPANY_ID));
+    expect(rows.length).toBeGreaterThanOrEqual(12);
+    for (const { dealId } of rows) {
+      const m = (await designMaterials(await openDeal(demoOwner, dealId)))!;
+      expect(m.bom.problems, dealId).toEqual([]);
+      const missing = m.bom.lines.filter((l) => l.partId === null && l.kind !== "module" && l.kind !== "inverter");
+      expect(missing.map((l) => `${l.item}: ${l.detail}`), dealId).toEqual([]);
+      for (const f of m.faces) expect(f.layout?.fits, `${dealId} ${f.name}`).toBe(true);
+    }
+  });
+});
