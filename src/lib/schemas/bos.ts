@@ -152,9 +152,6 @@ export type BosPartValues = z.output<typeof bosPartSchema>;
 
 export const bosPatchSchema = z.object({ active: z.boolean({ error: "Active must be true or false" }) }).strict();
 
-/** The unit a part is counted in on a bill of materials. */
-export const bosUnitOf = (kind: BosKind): "m" | "pcs" => (kind === "conductor" || kind === "conduit" ? "m" : "pcs");
-
 // ── CSV ──────────────────────────────────────────────────────────────────────────────
 
 /** Kind-specific columns: a row fills only its own kind's (others stay empty). */
