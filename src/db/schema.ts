@@ -29,6 +29,8 @@ import { storedJobChecklistSchema, storedTemplateItemsSchema } from "../lib/sche
 import { offerBasisSchema } from "../lib/offer-basis";
 import { offerInputsSchema } from "../lib/schemas/offer";
 import { priceBookSchema } from "../lib/schemas/price-book";
+import { BOS_KINDS, bosDetailsSchema } from "../lib/schemas/bos";
+import { roofSurveyFacesSchema } from "../lib/schemas/roof-survey";
 import { jsonColumn } from "./json-column";
 import * as shapes from "./json-shapes";
 
@@ -998,6 +1000,56 @@ export const savedView = mysqlTable(
   (t) => [uniqueIndex("saved_view_name_uq").on(t.companyId, t.userId, t.name)],
 );
 
+// ── Balance of system and the roof survey (job packet: bill of materials, roof layout) ────
+
+/** A balance-of-system part in the company's catalog; its kind's own fields in `details` (src/lib/schemas/bos.ts). */
+export const bosPart = mysqlTable(
+  "bos_part",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    kind: mysqlEnum("kind", BOS_KINDS).notNull(),
+    manufacturer: varchar("manufacturer", { length: 100 }).notNull(),
+    model: varchar("model", { length: 100 }).notNull(),
+    details: jsonColumn("bos_part", "details", bosDetailsSchema).notNull(),
+    /** The price book line item that prices one unit (a line item id inside price_book.document). */
+    priceLineItemId: varchar("price_line_item_id", { length: 40 }),
+    active: boolean("active").notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("bos_part_uq").on(t.companyId, t.manufacturer, t.model), index("bos_part_kind_idx").on(t.companyId, t.kind)],
+);
+
+/**
+ * What the site survey measured for racking and layout, per deal: design wind speed and ground
+ * snow load (the racking's span table row; the engineer of record decides), the home-run length,
+ * the roof's plan-view area (the fire code's ridge setback depends on the array's share of it),
+ * and each design face's outline (src/lib/schemas/roof-survey.ts).
+ */
+export const roofSurvey = mysqlTable(
+  "roof_survey",
+  {
+    id: id().primaryKey(),
+    companyId: id("company_id")
+      .notNull()
+      .references(() => company.id, { onDelete: "cascade" }),
+    dealId: id("deal_id")
+      .notNull()
+      .references(() => deal.id, { onDelete: "cascade" }),
+    designWindMph: int("design_wind_mph"),
+    groundSnowPsf: int("ground_snow_psf"),
+    homeRunM: double("home_run_m"),
+    roofPlanAreaM2: double("roof_plan_area_m2"),
+    faces: jsonColumn("roof_survey", "faces", roofSurveyFacesSchema).notNull(),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("roof_survey_deal_uq").on(t.companyId, t.dealId)],
+);
+
 export const schema = {
   user,
   session,
@@ -1035,4 +1087,6 @@ export const schema = {
   jobPhoto,
   batteryModel,
   savedView,
+  bosPart,
+  roofSurvey,
 };

@@ -6,6 +6,7 @@ import { PDFDocument, type PDFImage } from "pdf-lib";
 import { formatCalendarDate, formatDateTime } from "@/lib/format";
 import { visitLines, type JobPacket } from "@/lib/job-packet";
 import { embedFonts } from "./fonts";
+import { materialsPages } from "./packet-materials-pdf";
 import {
   COLORS,
   CONTENT_WIDTH,
@@ -27,7 +28,7 @@ import {
 
 export type JobPacketPdfPhoto = { caption: string; mimeType: "image/jpeg" | "image/png"; bytes: Uint8Array };
 export type JobPacketPdfInput = {
-  packet: Pick<JobPacket, "job" | "company" | "customer" | "site" | "source" | "faces" | "system" | "bom" | "stringPlan" | "cautions" | "crewName">;
+  packet: Pick<JobPacket, "job" | "company" | "customer" | "site" | "source" | "faces" | "system" | "bom" | "materials" | "stringPlan" | "cautions" | "crewName">;
   /** Photos to print (job photos first, then the rep's site photos), already read from storage. */
   photos: JobPacketPdfPhoto[];
   /** When the packet was printed: the document's date (fixed metadata). */
@@ -120,7 +121,8 @@ function system(flow: Flow, input: JobPacketPdfInput): void {
       packet.faces.map((f) => ({ cells: [f.name, `${f.tiltDeg}°`, `${f.azimuthDeg}° ${compass(f.azimuthDeg)}`, String(f.moduleCount)] })),
     );
   }
-  if (packet.bom.length > 0) {
+  // The full bill of materials prints on the materials pages when there is one.
+  if (packet.bom.length > 0 && !packet.materials) {
     keepHeadingWith(flow, packet.bom.length);
     flow.heading("Bill of materials", 13);
     flow.table(
@@ -237,6 +239,7 @@ export async function renderJobPacketPdf(input: JobPacketPdfInput): Promise<Uint
   contactAndSite(flow, input);
   system(flow, input);
   strings(flow, input);
+  if (input.packet.materials) materialsPages(flow, input.packet.materials);
   checklist(flow, input);
   await photos(flow, input);
 

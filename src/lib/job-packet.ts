@@ -3,6 +3,7 @@
 import type { job, Stage } from "@/db/schema";
 import type { StringPlanCheck } from "@/lib/offer-figures";
 import type { JobChecklistItem } from "@/lib/schemas/jobs";
+import type { PacketMaterials } from "@/lib/job-materials";
 
 export type JobRecord = typeof job.$inferSelect;
 
@@ -37,6 +38,8 @@ export type JobPacket = {
   faces: PacketFace[];
   system: { moduleCount: number; kwDc: number; kwAc: number | null } | null;
   bom: PacketBomLine[];
+  /** Roof layout per face and the full bill of materials (null without equipment to build). */
+  materials: PacketMaterials | null;
   stringPlan: {
     lowestTempC: number;
     highestTempC: number;

@@ -14,6 +14,7 @@ import {
   listModules,
   readCsvUpload,
 } from "@/server/catalog";
+import { exportBosCsv, importBosCsv, listBosParts } from "@/server/bos-catalog";
 import { csvDownload, readJson, withMember } from "@/server/route";
 
 // The catalog's two kinds of equipment answer the same routes: /api/module-models and
@@ -21,6 +22,8 @@ import { csvDownload, readJson, withMember } from "@/server/route";
 const KINDS = {
   modules: { list: listModules, listActive: listActiveModules, importCsv: importModulesCsv, exportCsv: exportModulesCsv },
   inverters: { list: listInverters, listActive: listActiveInverters, importCsv: importInvertersCsv, exportCsv: exportInvertersCsv },
+  // Balance-of-system parts (/api/bos-parts): added one at a time by their own POST (src/server/bos-catalog.ts).
+  "bos-parts": { list: (companyId: string) => listBosParts(companyId), listActive: (companyId: string) => listBosParts(companyId, true), importCsv: importBosCsv, exportCsv: exportBosCsv },
 };
 
 /** GET: the company's equipment of this kind; `?active=1` lists only what a new design may use. */
@@ -33,7 +36,7 @@ export function listEquipment(kind: keyof typeof KINDS) {
 }
 
 /** POST: adds one (409 when the manufacturer and model are already in the catalog). */
-export function addEquipment(kind: keyof typeof KINDS) {
+export function addEquipment(kind: "modules" | "inverters") {
   return withMember("catalog:manage", async ({ req, member }) =>
     kind === "modules"
       ? NextResponse.json({ data: await createModule(member, await readJson(req, moduleModelSchema)) }, { status: 201 })

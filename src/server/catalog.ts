@@ -1,5 +1,6 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
+import type { MySqlColumn, MySqlTable } from "drizzle-orm/mysql-core";
 import { fileTypeFromBuffer } from "file-type";
 import Papa from "papaparse";
 import { isBlankRecord, readCsvRecords } from "@/engine/csv";
@@ -322,7 +323,7 @@ export async function readCsvUpload(req: Request): Promise<{ text: string; mode:
   return { text: await csvTextFromUpload(bytes), mode: mode.data };
 }
 
-type CsvRow = { line: number; cells: Record<string, string> };
+export type CsvRow = { line: number; cells: Record<string, string> };
 
 /** Parses the CSV with Papa Parse (src/engine/csv.ts), keeping each row's line number in the file. */
 function readCsv(text: string, columns: readonly CsvColumn[]): { rows: CsvRow[]; errors: CsvRowError[] } {
@@ -403,7 +404,7 @@ export function issuesToErrors(line: number, error: z.ZodError, columns: readonl
   return error.issues.map((i) => ({ line, column: byField.get(String(i.path[0])) ?? "row", message: i.message }));
 }
 
-type ImportSpec<V extends { manufacturer: string; model: string }> = {
+export type ImportSpec<V extends { manufacturer: string; model: string }> = {
   columns: readonly CsvColumn[];
   validate: (row: CsvRow, input: Record<string, unknown>) => { value?: V; errors: CsvRowError[] };
   upsert: (tx: Tx, companyId: string, value: V, active: boolean | undefined) => Promise<"created" | "updated">;
@@ -450,6 +451,38 @@ export async function importCsv<V extends { manufacturer: string; model: string 
   return report;
 }
 
+/** A catalog table keyed by company, manufacturer and model (modules, inverters, BOS parts). */
+type MakerModelTable = MySqlTable & { id: MySqlColumn; companyId: MySqlColumn; manufacturer: MySqlColumn; model: MySqlColumn };
+
+/**
+ * A CSV row's write: the company's row with this manufacturer and model is updated (its active
+ * flag only when the row says), else a new active row is added. `columns` come from the table's
+ * own column function, so their names are the table's.
+ */
+export async function upsertByMakerModel(
+  tx: Tx,
+  table: MakerModelTable,
+  companyId: string,
+  key: { manufacturer: string; model: string },
+  columns: Record<string, unknown>,
+  active: boolean | undefined,
+): Promise<"created" | "updated"> {
+  const [existing] = await tx
+    .select({ id: table.id })
+    .from(table)
+    .where(and(eq(table.companyId, companyId), eq(table.manufacturer, key.manufacturer), eq(table.model, key.model)))
+    .limit(1);
+  if (existing) {
+    await tx
+      .update(table)
+      .set({ ...columns, ...(active === undefined ? {} : { active }) } as never)
+      .where(and(eq(table.id, existing.id), eq(table.companyId, companyId)));
+    return "updated";
+  }
+  await tx.insert(table).values({ id: crypto.randomUUID(), companyId, ...columns, active: active ?? true } as never);
+  return "created";
+}
+
 export async function importModulesCsv(member: Member, text: string, mode: ImportMode): Promise<CsvImportReport> {
   return importCsv<ModuleModelValues>(member, text, mode, {
     columns: MODULE_CSV_COLUMNS,
@@ -457,22 +490,7 @@ export async function importModulesCsv(member: Member, text: string, mode: Impor
       const parsed = moduleModelSchema.safeParse(input);
       return parsed.success ? { value: parsed.data, errors: [] } : { errors: issuesToErrors(row.line, parsed.error, MODULE_CSV_COLUMNS) };
     },
-    upsert: async (tx, companyId, value, active) => {
-      const [existing] = await tx
-        .select({ id: moduleModel.id })
-        .from(moduleModel)
-        .where(and(eq(moduleModel.companyId, companyId), eq(moduleModel.manufacturer, value.manufacturer), eq(moduleModel.model, value.model)))
-        .limit(1);
-      if (existing) {
-        await tx
-          .update(moduleModel)
-          .set({ ...moduleColumns(value), ...(active === undefined ? {} : { active }) })
-          .where(and(eq(moduleModel.id, existing.id), eq(moduleModel.companyId, companyId)));
-        return "updated";
-      }
-      await tx.insert(moduleModel).values({ id: crypto.randomUUID(), companyId, ...moduleColumns(value), active: active ?? true });
-      return "created";
-    },
+    upsert: (tx, companyId, value, active) => upsertByMakerModel(tx, moduleModel, companyId, value, moduleColumns(value), active),
   });
 }
 
@@ -493,21 +511,6 @@ export async function importInvertersCsv(member: Member, text: string, mode: Imp
       if (!parsed.success) return { errors: [...errors, ...issuesToErrors(row.line, parsed.error, INVERTER_CSV_COLUMNS)] };
       return { value: parsed.data, errors };
     },
-    upsert: async (tx, companyId, value, active) => {
-      const [existing] = await tx
-        .select({ id: inverterModel.id })
-        .from(inverterModel)
-        .where(and(eq(inverterModel.companyId, companyId), eq(inverterModel.manufacturer, value.manufacturer), eq(inverterModel.model, value.model)))
-        .limit(1);
-      if (existing) {
-        await tx
-          .update(inverterModel)
-          .set({ ...inverterColumns(value), ...(active === undefined ? {} : { active }) })
-          .where(and(eq(inverterModel.id, existing.id), eq(inverterModel.companyId, companyId)));
-        return "updated";
-      }
-      await tx.insert(inverterModel).values({ id: crypto.randomUUID(), companyId, ...inverterColumns(value), active: active ?? true });
-      return "created";
-    },
+    upsert: (tx, companyId, value, active) => upsertByMakerModel(tx, inverterModel, companyId, value, inverterColumns(value), active),
   });
 }

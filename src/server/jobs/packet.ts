@@ -11,6 +11,7 @@ import { HttpError, notFound } from "@/server/errors";
 import type { Member } from "@/server/session";
 import { storage } from "@/server/storage";
 import type { JobPacket, JobRecord, PacketFace } from "@/lib/job-packet";
+import { packetMaterials } from "@/server/job-materials";
 import { listJobPhotos } from "./crew-work";
 import { getJobOrThrow, getJobRowOrThrow } from "./read";
 
@@ -127,6 +128,22 @@ function stringPlanOf(doc: DesignDocument | null, mod: ModuleModel | null, inv: 
   return { lowestTempC: doc.stringPlan.lowestTempC, highestTempC: doc.stringPlan.highestTempC, stringSizes: doc.stringPlan.stringSizes, check, notes };
 }
 
+/** Layout and bill of materials for what goes on the roof (the signed offer's faces, matched to the design's by name, else the design's). */
+async function materialsOf(
+  companyId: string,
+  dealId: string,
+  src: { signed: { offer: ProposalSnapshotOffer } | null; doc: DesignDocument | null; mod: ModuleModel | null; inv: InverterModel | null; stringInverters: number },
+): Promise<JobPacket["materials"]> {
+  const { signed, doc, mod, inv } = src;
+  if (!mod || !inv || (!signed && !doc)) return null;
+  const idOf = (name: string) => doc?.faces.find((f) => f.name === name)?.id ?? null;
+  const faces = signed
+    ? signed.offer.equipment.faces.map((f) => ({ id: idOf(f.name), name: f.name, tiltDeg: f.tiltDeg, moduleCount: f.moduleCount }))
+    : (doc?.faces ?? []).map((f) => ({ id: f.id, name: f.name, tiltDeg: f.tiltDeg, moduleCount: f.moduleCount }));
+  const moduleCount = faces.reduce((s, f) => s + f.moduleCount, 0);
+  return packetMaterials({ companyId, dealId, faces, mod, inv, inverterUnits: inverterUnits(inv, moduleCount, src.stringInverters), stringSizes: doc?.stringPlan?.stringSizes ?? null });
+}
+
 /** Everything the crew needs on site, for one job they may see. */
 export async function getJobPacket(member: Member, jobId: string): Promise<JobPacket> {
   const j = await getJobOrThrow(member, jobId);
@@ -146,6 +163,7 @@ export async function getJobPacket(member: Member, jobId: string): Promise<JobPa
   const stringInverters = doc?.inverterCount ?? 1;
   const { source, faces, bom, system } = equipmentOf(signed, doc, mod, inv, stringInverters);
   const stringPlan = stringPlanOf(doc, mod, inv, stringInverters, system);
+  const materials = await materialsOf(member.companyId, j.dealId, { signed, doc, mod, inv, stringInverters });
 
   const sitePhotos = await db()
     .select({ id: upload.id, fileName: upload.fileName, mimeType: upload.mimeType })
@@ -180,6 +198,7 @@ export async function getJobPacket(member: Member, jobId: string): Promise<JobPa
     faces,
     system,
     bom,
+    materials,
     stringPlan,
     cautions: [STRING_CAUTION, "Roof attachments, structural loads and conductor sizing follow the stamped plan set and the AHJ's requirements."],
     sitePhotos,

@@ -3,11 +3,15 @@ import { useRouter } from "next/navigation";
 import { useId, useState, type FormEvent } from "react";
 import { FormMessage } from "@/components/ui/field";
 import { RadioGroup } from "@/components/ui/radio-group";
+import { BOS_CSV_COLUMNS } from "@/lib/schemas/bos";
 import { CSV_MAX_BYTES, INVERTER_CSV_COLUMNS, MODULE_CSV_COLUMNS, type CsvImportReport, type ImportMode } from "@/lib/schemas/catalog";
 
-type Kind = "modules" | "inverters";
-const ENDPOINT: Record<Kind, string> = { modules: "/api/module-models/import", inverters: "/api/inverter-models/import" };
-const NOUN: Record<Kind, string> = { modules: "module", inverters: "inverter" };
+type Kind = "modules" | "inverters" | "bos-parts";
+const ENDPOINT: Record<Kind, string> = { modules: "/api/module-models/import", inverters: "/api/inverter-models/import", "bos-parts": "/api/bos-parts/import" };
+const NOUN: Record<Kind, string> = { modules: "module", inverters: "inverter", "bos-parts": "part" };
+/** How the kind reads in a sentence ("Import … from CSV"). */
+const WORDS: Record<Kind, string> = { modules: "modules", inverters: "inverters", "bos-parts": "balance-of-system parts" };
+const COLUMNS = { modules: MODULE_CSV_COLUMNS, inverters: INVERTER_CSV_COLUMNS, "bos-parts": BOS_CSV_COLUMNS };
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? "" : "s"}`;
 
@@ -49,7 +53,7 @@ export function CsvImport({ kind }: { kind: Kind }) {
 
   return (
     <div className="card p-5">
-      <h3 className="text-base font-semibold">Import {kind} from CSV</h3>
+      <h3 className="text-base font-semibold">Import {WORDS[kind]} from CSV</h3>
       <p className="mt-1 text-sm text-graphite-soft">
         Rows whose manufacturer and model are already in the catalog are updated; the others are added. The import is all in one step: it never
         leaves half a file behind.
@@ -80,7 +84,7 @@ export function CsvImport({ kind }: { kind: Kind }) {
           onChange={setMode}
         />
         <button type="submit" className="btn-primary" disabled={busy}>
-          {busy ? "Importing…" : `Import ${kind}`}
+          {busy ? "Importing…" : `Import ${WORDS[kind]}`}
         </button>
       </form>
       <div id={`${formId}-result`} className="mt-3 space-y-2" data-testid={`${NOUN[kind]}-import-result`}>
@@ -138,10 +142,10 @@ function ImportReport({ kind, report }: { kind: Kind; report: CsvImportReport })
 
 /** The file's columns, from the same list the import and export use. */
 export function CsvColumnsHelp({ kind }: { kind: Kind }) {
-  const columns = kind === "modules" ? MODULE_CSV_COLUMNS : INVERTER_CSV_COLUMNS;
+  const columns = COLUMNS[kind];
   return (
     <details className="card p-5 text-sm">
-      <summary className="cursor-pointer font-medium">CSV columns for {kind}</summary>
+      <summary className="cursor-pointer font-medium">CSV columns for {WORDS[kind]}</summary>
       <p className="mt-2 text-graphite-soft">
         UTF-8, comma-separated, a header row with these names in any order (line 1); one {NOUN[kind]} per line. Decimals use a point. At most 1 MB.
       </p>

@@ -9,7 +9,7 @@ import { useSave } from "@/components/ui/use-save";
 import { CsvColumnsHelp, CsvImport } from "./csv-import";
 import { EquipmentForm, type EquipmentFormSpec } from "./equipment-form";
 
-export type Column<R> = { header: string; numeric?: boolean; title?: string; cell: (row: R) => ReactNode; className?: string };
+export type Column<R> = { header: string; numeric?: boolean; title?: string; cell: (row: R) => ReactNode; className?: string; priority?: "low" };
 
 type Row = FieldValues & { id: string; manufacturer: string; model: string; active: boolean };
 type Editing<T> = { mode: "new" } | { mode: "edit"; row: T } | null;
@@ -117,12 +117,12 @@ function SectionHead(props: {
   );
 }
 
-function TableHead<R>({ noun, columns, canManage }: { noun: string; columns: Column<R>[]; canManage: boolean }) {
+export function TableHead<R>({ noun, columns, canManage }: { noun: string; columns: Column<R>[]; canManage: boolean }) {
   return (
     <>
       <Th>{noun}</Th>
       {columns.map((c) => (
-        <Th key={c.header} numeric={c.numeric} title={c.title}>
+        <Th key={c.header} numeric={c.numeric} title={c.title} priority={c.priority}>
           {c.header}
         </Th>
       ))}
@@ -137,13 +137,14 @@ function TableHead<R>({ noun, columns, canManage }: { noun: string; columns: Col
 }
 
 /** One model's row: name, the list's own columns, status, and (for managers) edit and activate/deactivate. */
-function EquipmentRow<R extends Row>(props: {
+export function EquipmentRow<R extends Row>(props: {
   row: R;
   noun: string;
   columns: Column<R>[];
   canManage: boolean;
   busy: boolean;
-  onEdit: () => void;
+  /** Left out where rows change only through the CSV import (BOS parts). */
+  onEdit?: () => void;
   onSetActive: (active: boolean) => void;
 }) {
   const { row: r, columns, canManage, busy } = props;
@@ -154,16 +155,20 @@ function EquipmentRow<R extends Row>(props: {
         <span className="font-medium">{r.manufacturer}</span> {r.model}
       </Td>
       {columns.map((c) => (
-        <Td key={c.header} numeric={c.numeric} className={c.className}>
+        <Td key={c.header} numeric={c.numeric} className={c.className} priority={c.priority}>
           {c.cell(r)}
         </Td>
       ))}
       <Td>{r.active ? <Badge tone="success">Active</Badge> : <Badge>Deactivated</Badge>}</Td>
       {canManage ? (
         <Td className="whitespace-nowrap text-right">
-          <button type="button" className="btn-quiet" disabled={busy} onClick={props.onEdit} aria-label={`Edit ${name}`}>
-            Edit
-          </button>{" "}
+          {props.onEdit ? (
+            <>
+              <button type="button" className="btn-quiet" disabled={busy} onClick={props.onEdit} aria-label={`Edit ${name}`}>
+                Edit
+              </button>{" "}
+            </>
+          ) : null}
           <button
             type="button"
             className={r.active ? "btn-danger" : "btn-quiet"}

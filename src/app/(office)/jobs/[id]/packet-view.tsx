@@ -1,5 +1,6 @@
 import { STAGE_LABELS } from "@/lib/stages";
 import { visitLines } from "@/lib/job-packet";
+import { MaterialsSections } from "@/components/ui/materials-view";
 import type { JobPacket } from "@/server/jobs";
 import { longDate } from "../dates";
 import { CrewWork } from "./crew-work";
@@ -36,7 +37,7 @@ export function PacketView({ packet, canWork, office, today, timeZone }: { packe
 
       <SystemSection packet={packet} />
 
-      {packet.bom.length > 0 ? <BomSection packet={packet} /> : null}
+      {packet.materials ? <MaterialsSections materials={packet.materials} idPrefix="packet" /> : packet.bom.length > 0 ? <BomSection packet={packet} /> : null}
 
       <StringPlanSection packet={packet} />
 

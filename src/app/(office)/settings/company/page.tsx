@@ -2,8 +2,10 @@ import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
 import { can } from "@/lib/permissions";
 import { getCompanySettings } from "@/server/company-settings";
+import { getPacketSettings } from "@/server/roof-survey";
 import { getMember } from "@/server/session";
 import { CompanySettingsClient } from "./company-settings-client";
+import { PacketSettingsForm } from "./packet-settings-form";
 
 export const metadata: Metadata = { title: "Company settings" };
 
@@ -21,6 +23,7 @@ export default async function CompanySettingsPage() {
         companyId={member.companyId}
         initial={{ name: settings.name, licenseNumber: settings.licenseNumber ?? "", timeZone: settings.timeZone, stallDays: settings.stallDays, finance: settings.finance }}
       />
+      <PacketSettingsForm initial={await getPacketSettings(member.companyId)} />
     </>
   );
 }

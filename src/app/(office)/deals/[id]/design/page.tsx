@@ -4,6 +4,7 @@ import { NoAccess } from "@/components/no-access";
 import { getDesignInputs } from "@/server/designs";
 import { dealPageScope } from "../deal-page";
 import { DesignClient } from "./design-client";
+import { DesignMaterials } from "./design-materials";
 
 export const metadata: Metadata = { title: "Design" };
 
@@ -18,5 +19,11 @@ export default async function DesignTab({ params }: { params: Promise<{ id: stri
   const saved = inputs.design?.document.weather;
   const stationId = saved?.kind === "station" ? saved.stationId : (inputs.nearest?.stationId ?? inputs.stations[0]?.id);
   if (stationId && saved?.kind !== "manual") preload(`/api/deals/${id}/design-inputs/weather?stationId=${stationId}`, { as: "fetch" });
-  return <DesignClient dealId={id} canEdit={scope.rights.edit} initialInputs={inputs} />;
+  const faces = inputs.design?.document.faces.map((f) => ({ id: f.id, name: f.name })) ?? [];
+  return (
+    <>
+      <DesignClient dealId={id} canEdit={scope.rights.edit} initialInputs={inputs} />
+      {faces.length > 0 ? <DesignMaterials scope={scope} faces={faces} /> : null}
+    </>
+  );
 }

@@ -1,0 +1,3 @@
+import { exportEquipment } from "@/server/catalog-routes";
+
+export const GET = exportEquipment("bos-parts");

@@ -1,0 +1,3 @@
+import { importEquipment } from "@/server/catalog-routes";
+
+export const POST = importEquipment("bos-parts");
