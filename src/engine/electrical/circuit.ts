@@ -223,7 +223,7 @@ function circuitChecks(x: CheckFacts): ElectricalCheck[] {
   const { c, sections, fit, size } = x;
   const mat = MATERIAL_NAME[c.material];
   const isPv = c.kind === "dc";
-  const b = isPv ? "690.8(B)" : "705.28(B)";
+  const b = isPv ? "690.8(B)" : sections.acConductor;
   const checks: ElectricalCheck[] = [];
   const factorText = `${c.ambientC} °C${x.roof.adderC ? ` + ${x.roof.adderC} °C rooftop adder (${x.roof.rule})` : ""} → factor ${x.correction ?? "none"} (${sections.ambient}); ${c.currentCarrying} current-carrying conductors → ${x.adjustment} (${sections.adjustment})`;
   if (!size || !fit) {

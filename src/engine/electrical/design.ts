@@ -21,18 +21,27 @@ export const DEFAULT_WIRING = { dcRunFt: 60, acRunFt: 20, branchRunFt: 60, heigh
 /** Hot design ambient when the string plan gives none, °C (our choice; use the site's 2 % design dry-bulb). */
 export const DEFAULT_AMBIENT_C = 35;
 
-const pos = z.number().finite().positive();
+/** A number field whose message names the field and its unit (the case file's reader sees it). */
+const need = (what: string) => z.number({ error: (iss) => (iss.input === undefined ? `${what} is required` : `${what} must be a number`) }).finite();
+const pos = z.number({ error: (iss) => (iss.input === undefined ? "is required" : "must be a number") }).finite().positive("must be above 0");
 const column = z.union(TEMP_COLUMNS.map((c) => z.literal(c)) as [z.ZodLiteral<60>, z.ZodLiteral<75>, z.ZodLiteral<90>]);
 
 export const electricalInputSchema = z
   .object({
     edition: z.enum(NEC_EDITIONS, { error: `edition must be one of ${NEC_EDITIONS.join(", ")}` }),
-    module: z.object({ iscA: pos.max(50), impA: pos.max(50), vocV: pos.max(200), vmpV: pos.max(200), vocCoeffPctPerC: z.number().min(-1).max(0).optional(), maxSeriesFuseA: pos.max(100).nullable().optional() }),
+    module: z.object(
+      {
+      iscA: need("the module's short-circuit current Isc (A)").positive().max(50),
+      impA: need("the module's current at maximum power Imp (A)").positive().max(50),
+      vocV: need("the module's open-circuit voltage Voc (V)").positive().max(200),
+      vmpV: need("the module's voltage at maximum power Vmp (V)").positive().max(200), vocCoeffPctPerC: z.number().min(-1).max(0).optional(), maxSeriesFuseA: pos.max(100).nullable().optional() },
+      { error: "the module is required: { iscA, impA, vocV, vmpV } (docs/electrical-case.md)" },
+    ),
     inverter: z.object({
-      kind: z.enum(["string", "micro"]),
+      kind: z.enum(["string", "micro"], { error: 'inverter.kind must be "string" or "micro"' }),
       label: z.string().max(200).default("Inverter"),
       /** Rated AC output per unit, W. */
-      acWatts: pos.max(100_000),
+      acWatts: need("the inverter's rated AC output (W)").positive().max(100_000),
       /** Continuous output current per unit, A (data sheet); default acWatts ÷ service voltage. */
       continuousOutputA: pos.max(500).optional(),
       maxDcVoltageV: pos.max(1500).nullable().optional(),
@@ -43,9 +52,9 @@ export const electricalInputSchema = z
       modulesPerUnit: z.number().int().min(1).max(8).nullable().optional(),
       /** Microinverters: the maker's most units on one branch circuit. */
       maxUnitsPerBranch: z.number().int().min(1).max(40).nullable().optional(),
-    }),
+    }, { error: "the inverter is required: { kind, acWatts, … } (docs/electrical-case.md)" }),
     inverterCount: z.number().int().min(1).max(20).default(1),
-    moduleCount: z.number().int().min(1).max(1000),
+    moduleCount: need("the number of modules").int("the number of modules must be whole").min(1).max(1000),
     strings: z.object({ sizes: z.array(z.number().int().min(1).max(100)).max(60), lowestTempC: z.number().min(-70).max(40), highestTempC: z.number().min(-20).max(60) }).nullable().default(null),
     site: z.object({ serviceVoltageV: z.number().int().min(100).max(600).default(240), busbarA: pos.max(2000).nullable().default(null), mainBreakerA: pos.max(2000).nullable().default(null) }).default({ serviceVoltageV: 240, busbarA: null, mainBreakerA: null }),
     moduleLevelElectronics: z.enum(MODULE_LEVEL_ELECTRONICS).optional(),

@@ -44,7 +44,7 @@ const r2 = (x: number) => Math.round(x * 100) / 100;
 
 export function checkInterconnection(x: InterconnectionInput): InterconnectionResult {
   const section = SECTIONS[x.edition].busbar;
-  const share = x.inverterOutputA * CONTINUOUS_FACTOR;
+  const share = r2(x.inverterOutputA * CONTINUOUS_FACTOR);
   const sum = share + x.mainBreakerA;
   const allowance = x.busbarA * BUSBAR_ALLOWANCE;
   const fullRule = sum <= x.busbarA + 1e-9;

@@ -178,12 +178,13 @@ export const RESISTANCE_OHM_PER_KFT: Record<ConductorMaterial, Partial<Record<Co
 };
 
 /** Where each edition puts a rule (section numbers from memory; check the edition's own text). */
-export const SECTIONS: Record<NecEdition, { ambient: string; adjustment: string; rooftop: string; inverterOutput: string; inverterOcpd: string; busbar: string; table310_16: string }> = {
+export const SECTIONS: Record<NecEdition, { ambient: string; adjustment: string; rooftop: string; inverterOutput: string; acConductor: string; inverterOcpd: string; busbar: string; table310_16: string }> = {
   "2017": {
     ambient: "NEC 2017 Table 310.15(B)(2)(a)",
     adjustment: "NEC 2017 Table 310.15(B)(3)(a)",
     rooftop: "NEC 2017 Table 310.15(B)(3)(c)",
     inverterOutput: "NEC 2017 690.8(A)(3) and 705.60(B)",
+    acConductor: "705.60(B)",
     inverterOcpd: "NEC 2017 705.65 with 690.9(B)",
     busbar: "NEC 2017 705.12(B)(2)(3)(b)",
     table310_16: "NEC 2017 Table 310.15(B)(16)",
@@ -193,6 +194,7 @@ export const SECTIONS: Record<NecEdition, { ambient: string; adjustment: string;
     adjustment: "NEC 2020 Table 310.15(C)(1)",
     rooftop: "NEC 2020 310.15(B)(2)",
     inverterOutput: "NEC 2020 690.8(A)(1)(e) and 705.28(B)",
+    acConductor: "705.28(B)",
     inverterOcpd: "NEC 2020 705.30(B)",
     busbar: "NEC 2020 705.12(B)(3)(2)",
     table310_16: "NEC 2020 Table 310.16",
@@ -202,6 +204,7 @@ export const SECTIONS: Record<NecEdition, { ambient: string; adjustment: string;
     adjustment: "NEC 2023 Table 310.15(C)(1)",
     rooftop: "NEC 2023 310.15(B)(2)",
     inverterOutput: "NEC 2023 690.8(A)(1)(e) and 705.28(B)",
+    acConductor: "705.28(B)",
     inverterOcpd: "NEC 2023 705.30(B)",
     busbar: "NEC 2023 705.12(B)(3)(2) (renumbered within 705.12(B)(3) in this edition; check the text)",
     table310_16: "NEC 2023 Table 310.16",
