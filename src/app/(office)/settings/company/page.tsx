@@ -4,6 +4,7 @@ import { can } from "@/lib/permissions";
 import { getCompanySettings } from "@/server/company-settings";
 import { getMember } from "@/server/session";
 import { CompanySettingsClient } from "./company-settings-client";
+import { ElectricalSettingsForm } from "./electrical-settings-form";
 
 export const metadata: Metadata = { title: "Company settings" };
 
@@ -21,6 +22,7 @@ export default async function CompanySettingsPage() {
         companyId={member.companyId}
         initial={{ name: settings.name, licenseNumber: settings.licenseNumber ?? "", timeZone: settings.timeZone, stallDays: settings.stallDays, finance: settings.finance }}
       />
+      <ElectricalSettingsForm companyId={member.companyId} initial={settings.electrical} />
     </>
   );
 }
