@@ -32,6 +32,7 @@ function printText(name: string, d: ElectricalDesign): void {
       (c) =>
         `${c.name.slice(0, 62).padEnd(62)} ${fmt(c.maxCurrentA, "A").padStart(8)}  ${(c.size ? `${sizeLabel(c.size)} ${MATERIAL_NAME[c.material]}` : "none fits").padEnd(17)} ${fmt(c.ocpdA, "A").padStart(6)}  ${(c.egcSize ? sizeLabel(c.egcSize) : "—").padEnd(8)}  ${fmt(c.voltageDropPct, "%")}`,
     ),
+    ...d.circuits.map((c) => `  raceway: ${c.conduit?.text ?? "—"}`),
     ...(d.totalVoltageDropPct !== null ? [`Total voltage drop: ${d.totalVoltageDropPct} % (common-practice target 3 %)`] : []),
     "",
     d.interconnection

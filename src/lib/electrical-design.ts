@@ -6,6 +6,10 @@ import { designElectrical, type ElectricalDesign, type ElectricalInput } from "@
 import type { NecEdition } from "@/engine/electrical/nec-tables";
 import type { InverterSpec, ModuleSpec } from "@/lib/offer-figures";
 
+/** Printed on the packet beside the "checked by" line. */
+export const ELECTRICAL_CAUTION =
+  "The electrical design, conductor sizes and single-line diagram are computed from the NEC tables as we recall them: a licensed professional checks them, and the authority having jurisdiction (AHJ) and the utility decide what is accepted.";
+
 export type ElectricalSources = {
   edition: NecEdition;
   module: ModuleSpec & { manufacturer: string; model: string };

@@ -9,6 +9,7 @@ import { z } from "zod";
 import { parseOrThrow } from "../errors";
 import { checkString, CAUTION, NEC_690_8_A_FACTOR, type StringCheckResult } from "../string-check";
 import { sizeCircuit, type CheckStatus, type CircuitInput, type CircuitResult, type ElectricalCheck } from "./circuit";
+import { emtSize, type ConduitResult } from "./conduit";
 import { checkInterconnection, type InterconnectionResult } from "./interconnection";
 import { CONDUCTOR_MATERIALS, NEC_EDITIONS, standardOcpdAtLeast, TEMP_COLUMNS, type TempColumn } from "./nec-tables";
 import { checkRapidShutdown, MODULE_LEVEL_ELECTRONICS, requiredLabels, type ModuleLevelElectronics, type RequiredLabel } from "./rapid-shutdown";
@@ -80,6 +81,15 @@ export const electricalInputSchema = z
 export type ElectricalInput = z.input<typeof electricalInputSchema>;
 type Parsed = z.output<typeof electricalInputSchema>;
 
+/** A sized circuit and its raceway (EMT by Chapter 9 fill; AC output circuits carry a neutral, our assumption). */
+export type WiredCircuit = CircuitResult & { conduit: ConduitResult | null };
+
+function withConduit(c: CircuitResult): WiredCircuit {
+  if (!c.size || !c.egcSize) return { ...c, conduit: null };
+  const neutral = c.id === "inverter-output" || c.id === "ac-combiner-output" ? 1 : 0;
+  return { ...c, conduit: emtSize([{ size: c.size, count: c.currentCarrying + neutral }, { size: c.egcSize, count: 1 }]) };
+}
+
 export type ElectricalStatus = CheckStatus | "incomplete";
 
 export type ElectricalDesign = {
@@ -97,7 +107,7 @@ export type ElectricalDesign = {
   stringsPerInput: number;
   stringFuseA: number | null;
   branches: { units: number; count: number }[];
-  circuits: CircuitResult[];
+  circuits: WiredCircuit[];
   stringChecks: StringCheckResult[];
   site: Parsed["site"];
   backfedBreakerA: number | null;
@@ -272,7 +282,7 @@ export function designElectrical(input: ElectricalInput): ElectricalDesign {
     stringsPerInput: perInput,
     stringFuseA: fuseA,
     branches,
-    circuits,
+    circuits: circuits.map(withConduit),
     stringChecks,
     site: v.site,
     backfedBreakerA,

@@ -1,3 +1,4 @@
+import { ElectricalDesignView } from "@/components/electrical-design-view";
 import { STAGE_LABELS } from "@/lib/stages";
 import { visitLines } from "@/lib/job-packet";
 import type { JobPacket } from "@/server/jobs";
@@ -39,6 +40,8 @@ export function PacketView({ packet, canWork, office, today, timeZone }: { packe
       {packet.bom.length > 0 ? <BomSection packet={packet} /> : null}
 
       <StringPlanSection packet={packet} />
+
+      {packet.electrical ? <ElectricalDesignView design={packet.electrical.design} drawing={packet.electrical.drawing} checkedBy={packet.electrical.checkedBy} headingId="electrical-heading" /> : null}
 
       {packet.sitePhotos.length > 0 ? <SitePhotosSection packet={packet} /> : null}
 
