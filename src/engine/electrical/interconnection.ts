@@ -14,15 +14,8 @@ import { SECTIONS, STANDARD_OCPD_A, type NecEdition } from "./nec-tables";
 /** Busbar allowance of the 120 % rule. */
 export const BUSBAR_ALLOWANCE = 1.2;
 
-export type InterconnectionInput = {
-  edition: NecEdition;
-  /** Sum of the inverters' continuous output currents reaching the panel, A. */
-  inverterOutputA: number;
-  /** The back-fed breaker's rating, A (from the circuit sizing). */
-  backfedBreakerA: number;
-  busbarA: number;
-  mainBreakerA: number;
-};
+/** inverterOutputA: the inverters' continuous output currents reaching the panel, summed; backfedBreakerA: from the circuit sizing; all in A. */
+export type InterconnectionInput = { edition: NecEdition; inverterOutputA: number; backfedBreakerA: number; busbarA: number; mainBreakerA: number };
 
 export type InterconnectionResult = {
   status: CheckStatus;

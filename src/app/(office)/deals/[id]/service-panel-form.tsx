@@ -25,15 +25,12 @@ export function ServicePanelForm({ dealId, initial, readOnly }: { dealId: string
     onSaved: () => setErrors({}),
   });
   const set = (k: keyof typeof panel) => (e: React.ChangeEvent<HTMLSelectElement>) => setPanel((p) => ({ ...p, [k]: e.target.value }));
+  const submit = (e: React.FormEvent) => {
+    e.preventDefault();
+    save.save({ serviceBusbarA: num(panel.serviceBusbarA), serviceMainBreakerA: num(panel.serviceMainBreakerA), serviceVoltageV: num(panel.serviceVoltageV) as ServicePanelInput["serviceVoltageV"] });
+  };
   return (
-    <form
-      className="card h-fit space-y-3 p-5 text-sm"
-      aria-labelledby="service-panel-title"
-      onSubmit={(e) => {
-        e.preventDefault();
-        save.save({ serviceBusbarA: num(panel.serviceBusbarA), serviceMainBreakerA: num(panel.serviceMainBreakerA), serviceVoltageV: num(panel.serviceVoltageV) as ServicePanelInput["serviceVoltageV"] });
-      }}
-    >
+    <form className="card h-fit space-y-3 p-5 text-sm" aria-labelledby="service-panel-title" onSubmit={submit}>
       <h2 id="service-panel-title" className="font-semibold">Service panel</h2>
       <p className="text-graphite-soft">From the panel&apos;s label or the site survey. The electrical checks need both ratings; a design without them stays a draft.</p>
       <fieldset disabled={readOnly || save.pending} className="grid gap-3 sm:grid-cols-3">
