@@ -37,7 +37,7 @@ test.describe("on a phone", () => {
     const widths = await region.evaluate((el) => ({ scroll: el.scrollWidth, client: el.clientWidth }));
     expect(widths.scroll).toBeGreaterThan(widths.client);
     await region.evaluate((el) => el.scrollTo({ left: el.scrollWidth }));
-    await expect(section.getByText("utility meter")).toBeInViewport();
+    await expect(region.getByText("utility meter", { exact: true })).toBeInViewport();
     await noSidewaysScroll(page, "job page with the diagram at full size");
 
     // The text alternative lists the chain from the array to the utility.
