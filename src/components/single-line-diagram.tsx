@@ -14,7 +14,7 @@ const ZOOMS = [{ w: "100%", label: "Fit" }, { w: "1100px", label: "Large" }, { w
  */
 export function SingleLineDiagram({ drawing }: { drawing: Drawing }) {
   const id = useId();
-  const [zoom, setZoom] = useState(1);
+  const [zoom, setZoom] = useState(0); // fits the page; the buttons widen it (a phone then scrolls it sideways in its region)
   return (
     <figure className="space-y-2" data-testid="single-line-diagram">
       <div className="flex flex-wrap items-center gap-2 text-sm" role="group" aria-label="Diagram size">
