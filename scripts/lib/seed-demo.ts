@@ -120,6 +120,11 @@ export async function seedDemo(databaseUrl: string): Promise<{ created: boolean 
           postalCode: h.postalCode,
           latitude: h.latitude,
           longitude: h.longitude,
+          // Invented service panels: a 225 A busbar behind a 200 A main (common in newer homes) lets the
+          // demo's largest inverter (11.4 kW, 60 A breaker) pass the 120 % rule: 60 + 200 ≤ 270 A.
+          serviceBusbarA: 225,
+          serviceMainBreakerA: 200,
+          serviceVoltageV: 240,
         });
         await tx.insert(deal).values({
           id: uid(301 + i),

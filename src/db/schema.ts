@@ -203,6 +203,10 @@ export const household = mysqlTable(
     longitude: decimal("longitude", { precision: 9, scale: 6, mode: "number" }).notNull(),
     /** The language the homeowner reads (their page, PDF, e-mails), chosen by the rep. */
     language: mysqlEnum("language", LOCALES).notNull().default("en"),
+    /** Service panel (electrical design, NEC 705.12): busbar and main breaker ratings, A, and the service voltage, V; null until surveyed. */
+    serviceBusbarA: int("service_busbar_a"),
+    serviceMainBreakerA: int("service_main_breaker_a"),
+    serviceVoltageV: int("service_voltage_v"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

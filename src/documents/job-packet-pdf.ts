@@ -7,6 +7,7 @@ import { formatCalendarDate, formatDateTime } from "@/lib/format";
 import { visitLines, type JobPacket } from "@/lib/job-packet";
 import { embedFonts } from "./fonts";
 import { materialsPages } from "./packet-materials-pdf";
+import { electricalSection } from "./packet-electrical-pdf";
 import {
   COLORS,
   CONTENT_WIDTH,
@@ -28,7 +29,7 @@ import {
 
 export type JobPacketPdfPhoto = { caption: string; mimeType: "image/jpeg" | "image/png"; bytes: Uint8Array };
 export type JobPacketPdfInput = {
-  packet: Pick<JobPacket, "job" | "company" | "customer" | "site" | "source" | "faces" | "system" | "bom" | "materials" | "stringPlan" | "cautions" | "crewName">;
+  packet: Pick<JobPacket, "job" | "company" | "customer" | "site" | "source" | "faces" | "system" | "bom" | "materials" | "stringPlan" | "cautions" | "crewName"> & Partial<Pick<JobPacket, "electrical">>;
   /** Photos to print (job photos first, then the rep's site photos), already read from storage. */
   photos: JobPacketPdfPhoto[];
   /** When the packet was printed: the document's date (fixed metadata). */
@@ -240,6 +241,7 @@ export async function renderJobPacketPdf(input: JobPacketPdfInput): Promise<Uint
   system(flow, input);
   strings(flow, input);
   if (input.packet.materials) materialsPages(flow, input.packet.materials);
+  electricalSection(flow, input.packet.electrical ?? null);
   checklist(flow, input);
   await photos(flow, input);
 

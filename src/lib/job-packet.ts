@@ -1,7 +1,9 @@
 // The job packet's shape, shared by the server (src/server/jobs) and the PDF renderer
 // (src/documents), which must not import the server.
 import type { job, Stage } from "@/db/schema";
+import type { ElectricalDesign } from "@/engine/electrical/design";
 import type { StringPlanCheck } from "@/lib/offer-figures";
+import type { Drawing } from "@/lib/single-line-diagram";
 import type { JobChecklistItem } from "@/lib/schemas/jobs";
 import type { PacketMaterials } from "@/lib/job-materials";
 
@@ -28,6 +30,8 @@ export type JobPhotoView = {
 
 export type PacketFace = { name: string; tiltDeg: number; azimuthDeg: number; moduleCount: number };
 export type PacketBomLine = { item: string; detail: string; quantity: number; unit: string };
+/** The packet's electrical design, its single-line diagram and the company's designer for the "checked by" line. */
+export type PacketElectrical = { design: ElectricalDesign; drawing: Drawing; checkedBy: string | null };
 export type JobPacket = {
   job: JobView;
   company: { name: string; licenseNumber: string | null };
@@ -47,6 +51,7 @@ export type JobPacket = {
     check: StringPlanCheck;
     notes: string[];
   } | null;
+  electrical: PacketElectrical | null;
   cautions: string[];
   sitePhotos: { id: string; fileName: string; mimeType: string }[];
   photos: JobPhotoView[];

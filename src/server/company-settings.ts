@@ -1,6 +1,7 @@
 import "server-only";
 import { eq, sql } from "drizzle-orm";
 import { company, type Stage } from "@/db/schema";
+import { readElectricalSettings, type ElectricalSettings } from "@/lib/schemas/electrical";
 import { stallLimits, storedCompanySettingsSchema, type CompanySettingsValues, type CompanyTimeZone, type FinanceAssumptions, type StallDays } from "@/lib/schemas/company-settings";
 import { db, transaction } from "@/server/db";
 import { notFound } from "@/server/errors";
@@ -20,6 +21,8 @@ export type CompanySettings = {
   finance: FinanceAssumptions;
   /** Grows whenever `finance` changes; offers record the one they used. */
   financeVersion: number;
+  /** The NEC edition of the electrical checks and the designer on the packet (src/lib/schemas/electrical.ts). */
+  electrical: ElectricalSettings;
 };
 
 /**
@@ -34,7 +37,7 @@ export async function getCompanySettings(companyId: string): Promise<CompanySett
     .limit(1);
   if (!row) throw notFound("Company");
   const { stallDays, timeZone, finance } = row.settings ?? storedCompanySettingsSchema.parse({});
-  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance, financeVersion: row.financeVersion };
+  return { companyId: row.id, name: row.name, licenseNumber: row.licenseNumber, timeZone, stallDays, stallLimits: stallLimits(stallDays), finance, financeVersion: row.financeVersion, electrical: readElectricalSettings(row.settings) };
 }
 
 /** GET /api/companies/[id]: one's own company only; any other id is simply not found. */

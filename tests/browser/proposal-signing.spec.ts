@@ -52,6 +52,8 @@ async function prepareDeal(request: APIRequestContext): Promise<{ dealId: string
     kwh: k,
   }));
   await ok(await request.put(`/api/deals/${dealId}/bills`, { data: { bills } }));
+  // The service panel's ratings: without them the electrical checks keep the design a draft.
+  await ok(await request.put(`/api/deals/${dealId}/service-panel`, { data: { serviceBusbarA: 200, serviceMainBreakerA: 200, serviceVoltageV: 240 } }));
   await ok(
     await request.put("/api/designs", {
       data: {

@@ -30,6 +30,8 @@ async function spanishProposal(request: APIRequestContext): Promise<{ dealId: st
   const kwh = [1150, 990, 870, 730, 800, 1110, 1320, 1280, 1020, 770, 830, 1070];
   const bills = kwh.map((k, m) => ({ periodStart: new Date(Date.UTC(2025, m, 1)).toISOString().slice(0, 10), periodEnd: new Date(Date.UTC(2025, m + 1, 0)).toISOString().slice(0, 10), kwh: k }));
   await ok(await request.put(`/api/deals/${dealId}/bills`, { data: { bills } }));
+  // The service panel's ratings: without them the electrical checks keep the design a draft.
+  await ok(await request.put(`/api/deals/${dealId}/service-panel`, { data: { serviceBusbarA: 200, serviceMainBreakerA: 200, serviceVoltageV: 240 } }));
   const faces = [{ id: "south", name: "South", tiltDeg: 25, azimuthDeg: 180, usableSlots: 20, solarAccessPct: 95, moduleCount: 18 }];
   const stringPlan = { stringSizes: [9, 9], lowestTempC: -10, highestTempC: 35 };
   await ok(await request.put("/api/designs", { data: { dealId, document: { moduleId: MODULE_ID, inverterId: INVERTER_ID, faces, weather: { kind: "nearest" }, stringPlan } } }));

@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { company, deal, design, household, proposal, upload, utility } from "@/db/schema";
 import { checkStringPlan, inverterAcKw, STRING_CAUTION } from "@/lib/offer-figures";
+import { ELECTRICAL_CAUTION } from "@/lib/electrical-design";
 import type { DesignDocument } from "@/lib/schemas/design";
 import type { ProposalSnapshotOffer } from "@/lib/schemas/proposal";
 import { getInverterOrThrow, getModuleOrThrow, type InverterModel, type ModuleModel } from "@/server/catalog";
@@ -13,6 +14,7 @@ import { storage } from "@/server/storage";
 import type { JobPacket, JobRecord, PacketFace } from "@/lib/job-packet";
 import { packetMaterials } from "@/server/job-materials";
 import { listJobPhotos } from "./crew-work";
+import { packetElectrical } from "./packet-electrical";
 import { getJobOrThrow, getJobRowOrThrow } from "./read";
 
 // ── The job packet (web and PDF) ─────────────────────────────────────────────────────────
@@ -164,6 +166,7 @@ export async function getJobPacket(member: Member, jobId: string): Promise<JobPa
   const { source, faces, bom, system } = equipmentOf(signed, doc, mod, inv, stringInverters);
   const stringPlan = stringPlanOf(doc, mod, inv, stringInverters, system);
   const materials = await materialsOf(member.companyId, j.dealId, { signed, doc, mod, inv, stringInverters });
+  const electrical = await packetElectrical(member.companyId, { dealId: j.dealId, doc, moduleId, inverterId, moduleCount: system?.moduleCount ?? 0, householdName: h.name, utilityName: h.utilityName, moduleLabel: mod ? `${mod.manufacturer} ${mod.model} ${mod.stcWatts} W` : "modules" });
 
   const sitePhotos = await db()
     .select({ id: upload.id, fileName: upload.fileName, mimeType: upload.mimeType })
@@ -200,7 +203,8 @@ export async function getJobPacket(member: Member, jobId: string): Promise<JobPa
     bom,
     materials,
     stringPlan,
-    cautions: [STRING_CAUTION, "Roof attachments, structural loads and conductor sizing follow the stamped plan set and the AHJ's requirements."],
+    electrical,
+    cautions: [STRING_CAUTION, ELECTRICAL_CAUTION, "Roof attachments, structural loads and conductor sizing follow the stamped plan set and the AHJ's requirements."],
     sitePhotos,
     photos,
     crewName: j.crewName,

@@ -10,7 +10,6 @@ import { can } from "@/lib/permissions";
 import { buildProposalSnapshot, FIRST_PROPOSAL_NUMBER, proposalLabel, type SnapshotSource } from "@/lib/proposal-snapshot";
 import { describeStale, type OfferBasis } from "@/lib/offer-basis";
 import type { ProposalSnapshot } from "@/lib/schemas/proposal";
-import { missingStringPlanReason } from "@/lib/string-plan-rule";
 import { sendProposalSchema } from "@/lib/schemas/proposal";
 import ProposalSentEmail from "@emails/proposal-sent";
 import type { Locale } from "@/lib/i18n/locales";
@@ -18,6 +17,7 @@ import { translator } from "@/lib/i18n/translator";
 import { transaction, type Tx } from "@/server/db";
 import { openDeal, type DealScope } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
+import { offerUnbuildableReason } from "@/server/electrical";
 import { fieldError, forbidden, HttpError } from "@/server/errors";
 import { sendEmail } from "@/server/mail";
 import { listOffers } from "@/server/offers";
@@ -62,11 +62,12 @@ export async function snapshotSourceFor(scope: DealScope, offerIds: string[] | u
     throw new HttpError(409, "offers_stale", `Recompute these offers: ${stale.map((o) => `"${o.name}" (${describeStale(o.stale)} changed)`).join("; ")}. Open the Offers tab and recompute them.`);
   }
   const bases = chosen.map((o) => o.basis as OfferBasis);
-  const stringPlan = (await getDesignForDeal(scope))?.document.stringPlan;
-  chosen.forEach((o, i) => {
-    const missing = missingStringPlanReason(bases[i].inverter, stringPlan);
-    if (missing) throw fieldError("offerIds", `"${o.name}" cannot go into a proposal yet. ${missing}.`);
-  });
+  // Complete or refused: a string plan, the panel's ratings and passing electrical checks (src/lib/string-plan-rule.ts).
+  const doc = (await getDesignForDeal(scope))?.document;
+  for (const [i, o] of chosen.entries()) {
+    const reason = await offerUnbuildableReason(scope, doc, o, bases[i].inverter);
+    if (reason) throw fieldError("offerIds", `"${o.name}" cannot go into a proposal yet. ${reason}.`);
+  }
   // Current offers share the deal's one usage year and design revision; the first stands for all.
   const { usage, design: saved, priceBook } = bases[0];
   const h = scope.household;

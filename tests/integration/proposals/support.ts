@@ -136,6 +136,13 @@ export async function newWorld(name: string): Promise<World> {
 
 export type TestDeal = { dealId: string; email: string; cashOfferId: string; loanOfferId: string };
 
+/** The household's service panel (the electrical checks need its ratings before a proposal can be sent). */
+export async function setServicePanel(rep: Member, dealId: string, panel: { serviceBusbarA: number | null; serviceMainBreakerA: number | null; serviceVoltageV: 240 | 208 | null } = { serviceBusbarA: 200, serviceMainBreakerA: 200, serviceVoltageV: 240 }): Promise<void> {
+  const { updateServicePanel } = await import("@/server/electrical");
+  const { openDeal } = await import("@/server/deal-scope");
+  await updateServicePanel(await openDeal(rep, dealId), panel);
+}
+
 /** A deal owned by `rep` with a year of bills, a design and two offers (cash, loan). */
 export async function newDeal(w: World, rep: Member = w.rep): Promise<TestDeal> {
   const { createLead } = await import("@/server/deals");
@@ -157,6 +164,7 @@ export async function newDeal(w: World, rep: Member = w.rep): Promise<TestDeal> 
     source: "Website",
     ratePlanId: w.ratePlanId,
   } as Parameters<typeof createLead>[1]);
+  await setServicePanel(rep, dealId);
   const kwh = [1100, 950, 850, 700, 800, 1100, 1300, 1250, 1000, 750, 800, 1050];
   const bills = kwh.map((k, m) => ({
     periodStart: new Date(Date.UTC(2025, m, 1)).toISOString().slice(0, 10),

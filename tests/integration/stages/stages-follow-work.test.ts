@@ -10,7 +10,7 @@ import { deal, timelineEvent, type Stage } from "@/db/schema";
 import type { MailFake } from "@/fakes/mail-server";
 import type { Member } from "@/server/session";
 import { uniqueEmail } from "../support/fixtures";
-import { newWorld, rejection, startMailIfNeeded, type World } from "../proposals/support";
+import { newWorld, rejection, setServicePanel, startMailIfNeeded, type World } from "../proposals/support";
 
 type Mods = {
   deals: typeof import("@/server/deals");
@@ -55,7 +55,7 @@ const bills = (months = 12) =>
   }));
 const PLAN = { stringSizes: [10, 10], lowestTempC: -10, highestTempC: 35 };
 
-async function newLead(rep: Member = w.rep): Promise<{ dealId: string; email: string }> {
+async function newLead(rep: Member = w.rep, withPanel = true): Promise<{ dealId: string; email: string }> {
   const email = uniqueEmail("stages");
   const { dealId } = await m.deals.createLead(rep, {
     name: "Followwork household",
@@ -70,6 +70,7 @@ async function newLead(rep: Member = w.rep): Promise<{ dealId: string; email: st
     source: "Website",
     ratePlanId: w.ratePlanId,
   } as Parameters<typeof m.deals.createLead>[1]);
+  if (withPanel) await setServicePanel(rep, dealId);
   return { dealId, email };
 }
 
@@ -229,6 +230,32 @@ describe("string plan before a proposal", () => {
     await saveDesign(lead.dealId, PLAN);
     await m.offers.updateOffer(w.rep, offer.id, { inputs: { name: "Whole roof, cash", payment: { kind: "cash" } } });
     await m.proposals.sendProposal(w.rep, { dealId: lead.dealId, toEmail: lead.email });
+    expect(await stageOf(lead.dealId)).toBe("proposal_out");
+  });
+  // Complete or refused (issue #20 item 6): the same rule refuses a design whose service panel is
+  // not known, or whose electrical checks fail; the design itself is saved as a draft.
+  it("refuses a design without the service panel's ratings, then one that fails the busbar rule, naming why", async () => {
+    const lead = await newLead(w.rep, false);
+    await saveBills(lead.dealId);
+    const saved = await saveDesign(lead.dealId);
+    expect(saved).toBeTruthy(); // the draft is kept
+    await m.offers.createOffer(w.rep, { dealId: lead.dealId, inputs: { name: "Whole roof, cash", payment: { kind: "cash" } } });
+    const send = () => m.proposals.sendProposal(w.rep, { dealId: lead.dealId, toEmail: lead.email });
+
+    let err = await rejection(send(), 422);
+    expect(err.fields?.offerIds).toEqual([
+      "\"Whole roof, cash\" cannot go into a proposal yet. The electrical design is incomplete: the service panel's busbar rating, the service panel's main breaker rating are missing (the service panel's ratings go on the Household tab).",
+    ]);
+
+    // A 100 A panel behind a 100 A main: 7.6 kW at 240 V is 31.67 A; × 1.25 = 39.58 A + 100 A > 120 A (NEC 2020 705.12(B)(3)(2)).
+    await setServicePanel(w.rep, lead.dealId, { serviceBusbarA: 100, serviceMainBreakerA: 100, serviceVoltageV: 240 });
+    err = await rejection(send(), 422);
+    expect(err.fields?.offerIds?.[0]).toMatch(/^"Whole roof, cash" cannot go into a proposal yet\. The electrical design fails a check: 31\.67 A × 1\.25 = 39\.58 A \+ 100 A main = 139\.58 A > 100 A × 1\.2 = 120 A \(NEC 2020 705\.12\(B\)\(3\)\(2\)/);
+    expect(await m.proposals.listProposalsForDeal(await m.scope.openDeal(w.rep, lead.dealId))).toHaveLength(0);
+
+    // The Proposal tab's reason is the same rule: a 225 A busbar passes and the proposal goes out.
+    await setServicePanel(w.rep, lead.dealId, { serviceBusbarA: 225, serviceMainBreakerA: 200, serviceVoltageV: 240 });
+    await send();
     expect(await stageOf(lead.dealId)).toBe("proposal_out");
   });
 });

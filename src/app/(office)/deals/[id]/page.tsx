@@ -8,6 +8,7 @@ import { siteStation, type SiteStation } from "@/server/weather-stations";
 import { listSitePhotos } from "@/server/site-photos";
 import { dealPageScope } from "./deal-page";
 import { HouseholdForm } from "./household-form";
+import { ServicePanelForm } from "./service-panel-form";
 import { SitePhotos } from "./site-photos";
 import { UtilityForm } from "./utility-form";
 
@@ -63,6 +64,7 @@ export default async function HouseholdTab({ params }: { params: Promise<{ id: s
         ) : null}
         <UtilityForm dealId={id} utilityId={deal.utilityId ?? ""} ratePlanId={deal.ratePlanId ?? ""} choices={choices} readOnly={readOnly} />
       </aside>
+      <ServicePanelForm dealId={id} readOnly={readOnly} initial={{ serviceBusbarA: household.serviceBusbarA, serviceMainBreakerA: household.serviceMainBreakerA, serviceVoltageV: household.serviceVoltageV }} />
       <SitePhotos dealId={id} canEdit={!readOnly} photos={sitePhotos.map((p) => ({ id: p.id, fileName: p.fileName, uploadedByName: p.uploadedByName }))} />
     </div>
   );

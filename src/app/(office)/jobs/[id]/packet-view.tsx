@@ -1,3 +1,4 @@
+import { ElectricalDesignView } from "@/components/electrical-design-view";
 import { STAGE_LABELS } from "@/lib/stages";
 import { visitLines } from "@/lib/job-packet";
 import { MaterialsSections } from "@/components/ui/materials-view";
@@ -40,6 +41,8 @@ export function PacketView({ packet, canWork, office, today, timeZone }: { packe
       {packet.materials ? <MaterialsSections materials={packet.materials} idPrefix="packet" /> : packet.bom.length > 0 ? <BomSection packet={packet} /> : null}
 
       <StringPlanSection packet={packet} />
+
+      {packet.electrical ? <ElectricalDesignView design={packet.electrical.design} drawing={packet.electrical.drawing} checkedBy={packet.electrical.checkedBy} headingId="electrical-heading" /> : null}
 
       {packet.sitePhotos.length > 0 ? <SitePhotosSection packet={packet} /> : null}
 

@@ -6,6 +6,7 @@ import { getPacketSettings } from "@/server/roof-survey";
 import { getMember } from "@/server/session";
 import { CompanySettingsClient } from "./company-settings-client";
 import { PacketSettingsForm } from "./packet-settings-form";
+import { ElectricalSettingsForm } from "./electrical-settings-form";
 
 export const metadata: Metadata = { title: "Company settings" };
 
@@ -24,6 +25,7 @@ export default async function CompanySettingsPage() {
         initial={{ name: settings.name, licenseNumber: settings.licenseNumber ?? "", timeZone: settings.timeZone, stallDays: settings.stallDays, finance: settings.finance }}
       />
       <PacketSettingsForm initial={await getPacketSettings(member.companyId)} />
+      <ElectricalSettingsForm companyId={member.companyId} initial={settings.electrical} />
     </>
   );
 }

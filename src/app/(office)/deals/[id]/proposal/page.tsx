@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import { NoAccess } from "@/components/no-access";
 import { describeStale } from "@/lib/offer-basis";
-import { missingStringPlanReason } from "@/lib/string-plan-rule";
 import { getDesignForDeal } from "@/server/designs";
+import { offerUnbuildableReason } from "@/server/electrical";
 import { listOffers } from "@/server/offers";
 import { listProposalsForDeal } from "@/server/proposals";
 import { dealPageScope } from "../deal-page";
@@ -16,7 +16,9 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
   const id = room.dealId;
   if (!room.rights.send) return <NoAccess section="Proposal" />;
   const [offers, versions, design] = await Promise.all([listOffers(room), listProposalsForDeal(room), getDesignForDeal(room)]);
-  const choices: OfferChoice[] = offers.map((o) => ({
+  // Complete or refused: each current offer's string plan and electrical design (the same rule the send route applies).
+  const unbuildable = await Promise.all(offers.map((o) => (o.basis ? offerUnbuildableReason(room, design?.document, o, o.basis.inverter) : null)));
+  const choices: OfferChoice[] = offers.map((o, i) => ({
     id: o.id,
     position: o.position,
     name: o.name,
@@ -29,9 +31,7 @@ export default async function ProposalTab({ params }: { params: Promise<{ id: st
           ? "Discount declined: change the offer before sending it"
           : o.stale.length > 0
             ? `Recompute it on the Offers tab: the ${describeStale(o.stale)} changed`
-            : o.basis
-              ? missingStringPlanReason(o.basis.inverter, design?.document.stringPlan)
-              : null,
+            : unbuildable[i],
   }));
   const views: VersionView[] = versions.map((v) => ({
     ...v,
