@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { allowedSpan, attachmentsPerRun, buildBom, conductorFor, cutRail, nextStandardOcpd, type BomInput, type BomPart } from "./bom";
+import { allowedSpan, attachmentsPerRun, buildBom, conductorFor, conductorPartFor, cutRail, nextStandardOcpd, type BomInput, type BomPart } from "./bom";
 
 // An invented maker's span table (wind mph / ground snow psf → largest attachment span, mm).
 const TABLE = [
@@ -50,10 +50,21 @@ describe("attachments, breakers and conductors", () => {
     expect(nextStandardOcpd(21.5)).toBe(25);
     expect(nextStandardOcpd(201)).toBeNull();
   });
+  it("stocks a sized conductor at its gauge or the catalog's next larger of the same material and insulation", () => {
+    const wire = (id: string, sizeAwg: string, insulation = "pv_wire"): BomPart => ({ id, kind: "conductor", name: id, details: { sizeAwg, material: "cu", insulation }, unitCents: null });
+    const sized = { sizeAwg: "12", material: "cu" as const, insulation: "pv_wire", source: "electrical design" };
+    // 12 AWG sized (the electrical checks), catalog has 8 and 10 AWG PV wire: 10 AWG is the next larger.
+    expect(conductorPartFor([wire("a", "8"), wire("b", "10")], sized)?.id).toBe("b");
+    expect(conductorPartFor([wire("a", "12"), wire("b", "10")], sized)?.id).toBe("a");
+    // Only a smaller gauge, or another insulation: nothing (the line shows as missing from the catalog).
+    expect(conductorPartFor([wire("a", "14")], sized)).toBeNull();
+    expect(conductorPartFor([wire("a", "10", "thwn_2")], sized)).toBeNull();
+  });
+
   it("takes the design's conductor when chosen, else the common-practice default", () => {
     expect(conductorFor({ role: "dc_roof", amps: 21.5 })).toMatchObject({ sizeAwg: "10", insulation: "pv_wire" });
     expect(conductorFor({ role: "ac_output", amps: 40 })).toMatchObject({ sizeAwg: "8", insulation: "thwn_2" });
-    expect(conductorFor({ role: "ac_output", amps: 40, chosen: { sizeAwg: "6", material: "cu", insulation: "thwn_2" } })).toMatchObject({ sizeAwg: "6", source: "the design's chosen conductor" });
+    expect(conductorFor({ role: "ac_output", amps: 40, chosen: { sizeAwg: "6", material: "cu", insulation: "thwn_2" } })).toMatchObject({ sizeAwg: "6", source: "sized by the electrical design" });
     expect(conductorFor({ role: "egc", amps: 40 })).toMatchObject({ sizeAwg: "10" });
   });
 });

@@ -4,6 +4,8 @@
 // the disconnect and the labels, plus spares. Each line carries the arithmetic it came from.
 // Pure: the caller passes the catalog parts and prices.
 
+import { CONDUCTOR_SIZES } from "./electrical/nec-tables";
+
 /** Standard ampere ratings of fuses and inverse-time breakers, NEC 240.6(A) (up to 200 A). */
 export const STANDARD_OCPD_A = [15, 20, 25, 30, 35, 40, 45, 50, 60, 70, 80, 90, 100, 110, 125, 150, 175, 200] as const;
 
@@ -70,13 +72,13 @@ export type ConductorChoice = { sizeAwg: string; material: "cu" | "al"; insulati
 export type Circuit = { role: "dc_roof" | "dc_home_run" | "ac_output" | "egc"; amps: number; chosen?: Omit<ConductorChoice, "source"> | null };
 
 /**
- * The conductor for a circuit: the design's chosen conductor if it names one, else the common-
+ * The conductor for a circuit: the conductor the electrical design sized if given, else the common-
  * practice default for residential circuits of this current (copper, 75 °C column of NEC Table
  * 310.16 from memory with the small-conductor limits of 240.4(D), no derating). The electrical
  * checks replace this with a sized conductor.
  */
 export function conductorFor(c: Circuit): ConductorChoice {
-  if (c.chosen) return { ...c.chosen, source: "the design's chosen conductor" };
+  if (c.chosen) return { ...c.chosen, source: "sized by the electrical design" };
   const insulation = c.role === "dc_roof" ? "pv_wire" : "thwn_2";
   if (c.role === "egc") return { sizeAwg: c.amps <= 60 ? "10" : c.amps <= 100 ? "8" : "6", material: "cu", insulation, source: "common-practice default (NEC Table 250.122, from memory)" };
   const table: [number, string][] = [
@@ -115,7 +117,7 @@ export type BomInput = {
   site: { windMph: number | null; snowPsf: number | null; homeRunM: number | null };
   parts: BomPart[];
   spares: Spares;
-  /** The design's chosen conductors per circuit role (swapped in by the electrical checks). */
+  /** The conductors the electrical design sized, per circuit role (else common-practice defaults). */
   conductors?: Partial<Record<Circuit["role"], Omit<ConductorChoice, "source">>>;
 };
 export type BomLine = {
@@ -166,6 +168,20 @@ function line(spec: LineSpec, spares: Spares): BomLine {
 
 /** The first active part of a kind that passes the test (the caller orders them). */
 const partOf = (parts: BomPart[], kind: string, test: (d: Record<string, unknown>) => boolean = () => true) => parts.find((p) => p.kind === kind && test(p.details)) ?? null;
+
+const AWG_ASCENDING: readonly string[] = CONDUCTOR_SIZES;
+
+/**
+ * The catalog conductor for a sized one: the same material and insulation at the sized gauge or
+ * the next larger one the catalog carries (a larger conductor keeps its ampacity and lowers the
+ * voltage drop; common practice when a size is not stocked).
+ */
+export function conductorPartFor(parts: BomPart[], c: ConductorChoice): BomPart | null {
+  const need = AWG_ASCENDING.indexOf(c.sizeAwg);
+  const rank = (p: BomPart) => AWG_ASCENDING.indexOf(String(p.details.sizeAwg));
+  const fits = parts.filter((p) => p.kind === "conductor" && p.details.material === c.material && p.details.insulation === c.insulation && rank(p) >= need && need >= 0);
+  return fits.reduce<BomPart | null>((best, p) => (best === null || rank(p) < rank(best) ? p : best), null);
+}
 
 /** Racking: rails cut to stock with splices, attachments at the allowed span, clamps. */
 function rackingLines(input: BomInput, problems: string[]): LineSpec[] {
@@ -225,10 +241,12 @@ function electricalLines(input: BomInput): LineSpec[] {
   const branches = isString ? input.inverter.units : Math.max(1, Math.ceil(acAmps / 16));
   const breakerA = isString ? nextStandardOcpd((1.25 * acAmps) / input.inverter.units) : 20;
   const conductor = (role: Circuit["role"], amps: number) => conductorFor({ role, amps, chosen: input.conductors?.[role] ?? null });
-  const conductorPart = (c: ConductorChoice) => partOf(input.parts, "conductor", (d) => d.sizeAwg === c.sizeAwg && d.material === c.material && d.insulation === c.insulation);
+  const conductorPart = (c: ConductorChoice) => conductorPartFor(input.parts, c);
   const wire = (role: Circuit["role"], amps: number, lengthM: number, basis: string) => {
     const c = conductor(role, amps);
-    out.push({ kind: "conductor", item: "Conductor", part: conductorPart(c), detail: `${c.sizeAwg} AWG ${c.material === "cu" ? "Cu" : "Al"} ${c.insulation.replace("_", "-").toUpperCase()} (${c.source})`, needed: lengthM, unit: "m", basis });
+    const part = conductorPart(c);
+    const stocked = part && String(part.details.sizeAwg) !== c.sizeAwg ? `; the catalog's next larger, ${String(part.details.sizeAwg)} AWG` : "";
+    out.push({ kind: "conductor", item: "Conductor", part, detail: `${c.sizeAwg} AWG ${c.material === "cu" ? "Cu" : "Al"} ${c.insulation.replace("_", "-").toUpperCase()} (${c.source})${stocked}`, needed: lengthM, unit: "m", basis });
   };
 
   if (isString) {

@@ -1,5 +1,6 @@
 import "server-only";
-import { buildBom, type BomFace, type BomPart } from "@/engine/bom";
+import { buildBom, type BomFace, type BomInput, type BomPart } from "@/engine/bom";
+import type { ElectricalDesign } from "@/engine/electrical/design";
 import { FIRE_CODE_RULES, layoutFace, ridgeSetbackFor } from "@/engine/roof-layout";
 import { enginesSpares } from "@/lib/schemas/packet-settings";
 import { MATERIALS_CAUTIONS, type FaceSketch, type PacketMaterials } from "@/lib/job-materials";
@@ -7,6 +8,7 @@ import { listBosParts } from "@/server/bos-catalog";
 import { getInverterOrThrow, getModuleOrThrow, type InverterModel, type ModuleModel } from "@/server/catalog";
 import type { DealScope } from "@/server/deal-scope";
 import { getDesignForDeal } from "@/server/designs";
+import { dealElectrical } from "@/server/electrical";
 import { getPriceBook } from "@/server/price-book";
 import { getPacketSettings, getRoofSurvey } from "@/server/roof-survey";
 
@@ -22,7 +24,32 @@ export type MaterialsInput = {
   inv: InverterModel;
   inverterUnits: number;
   stringSizes: number[] | null;
+  /** The electrical design of the same equipment: its conductor sizes replace the BOM's defaults. */
+  electrical?: ElectricalDesign | null;
 };
+
+/**
+ * The conductors the electrical checks sized (NEC 690.8, Table 310.16, 250.122), per BOM circuit
+ * role: the largest PV source circuit for the roof run (PV wire) and the home run (THWN-2), the
+ * inverter output (or the largest microinverter branch) for the AC run, and the largest grounding
+ * conductor. Roles the design did not size keep the BOM's common-practice default.
+ */
+export function bomConductors(design: ElectricalDesign | null): BomInput["conductors"] {
+  if (!design) return undefined;
+  const sized = design.circuits.filter((c) => c.size !== null);
+  const largest = (cs: typeof sized) => cs.reduce<(typeof sized)[number] | null>((best, c) => (best === null || c.maxCurrentA > best.maxCurrentA ? c : best), null);
+  const dc = largest(sized.filter((c) => c.kind === "dc"));
+  const ac = sized.find((c) => c.id === "inverter-output") ?? largest(sized.filter((c) => c.kind === "ac"));
+  const egc = largest(sized.filter((c) => c.egcSize !== null).map((c) => ({ ...c, maxCurrentA: c.ocpdA ?? c.maxCurrentA })));
+  const out: NonNullable<BomInput["conductors"]> = {};
+  if (dc?.size) {
+    out.dc_roof = { sizeAwg: dc.size, material: dc.material, insulation: "pv_wire" };
+    out.dc_home_run = { sizeAwg: dc.size, material: dc.material, insulation: "thwn_2" };
+  }
+  if (ac?.size) out.ac_output = { sizeAwg: ac.size, material: ac.material, insulation: "thwn_2" };
+  if (egc?.egcSize) out.egc = { sizeAwg: egc.egcSize, material: "cu", insulation: "thwn_2" };
+  return out;
+}
 
 const round2 = (v: number) => Math.round(v * 100) / 100;
 
@@ -82,6 +109,7 @@ export async function packetMaterials(input: MaterialsInput): Promise<PacketMate
     site: { windMph: survey.designWindMph, snowPsf: survey.groundSnowPsf, homeRunM: survey.homeRunM },
     parts: bomParts,
     spares: enginesSpares(settings),
+    conductors: bomConductors(input.electrical ?? null),
   });
   return {
     fireCode: { edition, label: rules.label, ridgeSetbackNote },
@@ -110,5 +138,6 @@ export async function designMaterials(scope: DealScope): Promise<PacketMaterials
     inv,
     inverterUnits,
     stringSizes: doc.stringPlan?.stringSizes ?? null,
+    electrical: await dealElectrical(scope, doc),
   });
 }

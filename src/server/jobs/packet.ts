@@ -15,6 +15,7 @@ import type { JobPacket, JobRecord, PacketFace } from "@/lib/job-packet";
 import { packetMaterials } from "@/server/job-materials";
 import { listJobPhotos } from "./crew-work";
 import { packetElectrical } from "./packet-electrical";
+import type { ElectricalDesign } from "@/engine/electrical/design";
 import { getJobOrThrow, getJobRowOrThrow } from "./read";
 
 // ── The job packet (web and PDF) ─────────────────────────────────────────────────────────
@@ -134,7 +135,7 @@ function stringPlanOf(doc: DesignDocument | null, mod: ModuleModel | null, inv: 
 async function materialsOf(
   companyId: string,
   dealId: string,
-  src: { signed: { offer: ProposalSnapshotOffer } | null; doc: DesignDocument | null; mod: ModuleModel | null; inv: InverterModel | null; stringInverters: number },
+  src: { signed: { offer: ProposalSnapshotOffer } | null; doc: DesignDocument | null; mod: ModuleModel | null; inv: InverterModel | null; stringInverters: number; electrical: ElectricalDesign | null },
 ): Promise<JobPacket["materials"]> {
   const { signed, doc, mod, inv } = src;
   if (!mod || !inv || (!signed && !doc)) return null;
@@ -143,7 +144,7 @@ async function materialsOf(
     ? signed.offer.equipment.faces.map((f) => ({ id: idOf(f.name), name: f.name, tiltDeg: f.tiltDeg, moduleCount: f.moduleCount }))
     : (doc?.faces ?? []).map((f) => ({ id: f.id, name: f.name, tiltDeg: f.tiltDeg, moduleCount: f.moduleCount }));
   const moduleCount = faces.reduce((s, f) => s + f.moduleCount, 0);
-  return packetMaterials({ companyId, dealId, faces, mod, inv, inverterUnits: inverterUnits(inv, moduleCount, src.stringInverters), stringSizes: doc?.stringPlan?.stringSizes ?? null });
+  return packetMaterials({ companyId, dealId, faces, mod, inv, inverterUnits: inverterUnits(inv, moduleCount, src.stringInverters), stringSizes: doc?.stringPlan?.stringSizes ?? null, electrical: src.electrical });
 }
 
 /** Everything the crew needs on site, for one job they may see. */
@@ -165,8 +166,8 @@ export async function getJobPacket(member: Member, jobId: string): Promise<JobPa
   const stringInverters = doc?.inverterCount ?? 1;
   const { source, faces, bom, system } = equipmentOf(signed, doc, mod, inv, stringInverters);
   const stringPlan = stringPlanOf(doc, mod, inv, stringInverters, system);
-  const materials = await materialsOf(member.companyId, j.dealId, { signed, doc, mod, inv, stringInverters });
   const electrical = await packetElectrical(member.companyId, { dealId: j.dealId, doc, moduleId, inverterId, moduleCount: system?.moduleCount ?? 0, householdName: h.name, utilityName: h.utilityName, moduleLabel: mod ? `${mod.manufacturer} ${mod.model} ${mod.stcWatts} W` : "modules" });
+  const materials = await materialsOf(member.companyId, j.dealId, { signed, doc, mod, inv, stringInverters, electrical: electrical?.design ?? null });
 
   const sitePhotos = await db()
     .select({ id: upload.id, fileName: upload.fileName, mimeType: upload.mimeType })

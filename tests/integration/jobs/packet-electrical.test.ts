@@ -41,6 +41,10 @@ describe("job packet: electrical design and single-line diagram", () => {
     expect(e.checkedBy).toBe("Dana Designer");
     expect(e.drawing.description.join(" ")).toMatch(/2 strings of 10/);
     expect(packet.cautions.join(" ")).toMatch(/licensed professional.*authority having jurisdiction/);
+    // The bill of materials wires what these checks sized (12 AWG DC, 8 AWG AC, 10 AWG grounding),
+    // not its own common-practice defaults (which would give 10 AWG for the DC circuits).
+    const wires = packet.materials!.bom.lines.filter((l) => l.kind === "conductor").map((l) => l.detail);
+    expect(wires).toEqual(expect.arrayContaining([expect.stringMatching(/12 AWG Cu PV-WIRE \(sized by the electrical design\)/), expect.stringMatching(/12 AWG Cu THWN-2 \(sized by the electrical design\)/), expect.stringMatching(/8 AWG Cu THWN-2 \(sized by the electrical design\)/), expect.stringMatching(/10 AWG Cu THWN-2 \(sized by the electrical design\)/)]));
 
     const { bytes } = await s.jobs.getJobPacketPdf(w.owner, jobId, new Date("2031-06-01T12:00:00Z"));
     const doc = await PDFDocument.load(bytes);
