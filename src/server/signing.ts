@@ -225,7 +225,7 @@ const EVENT_TEXT: Record<string, (e: { body: string | null; ip: string | null })
 
 /** Decodes and checks the drawn signature: a real PNG (by its bytes), within the size limit; refusals in the homeowner's language. */
 export async function signaturePngBytes(dataUrl: string, locale: Locale = "en"): Promise<Uint8Array> {
-  const refuse = (key: RefusalKey) => refusal(locale, 422, "validation_failed", key, "signaturePng");
+  const refuse = (key: RefusalKey, code = "validation_failed") => refusal(locale, 422, code, key, "signaturePng");
   const base64 = dataUrl.slice("data:image/png;base64,".length);
   if (!/^[A-Za-z0-9+/]+={0,2}$/.test(base64)) throw refuse("signatureAgain");
   const bytes = new Uint8Array(Buffer.from(base64, "base64"));
@@ -234,7 +234,7 @@ export async function signaturePngBytes(dataUrl: string, locale: Locale = "en"):
   if (type?.mime !== "image/png") throw refuse("signatureUnreadable");
   // Decoded within a pixel limit and re-encoded: the PDF gets pixels we wrote, never the sender's bytes.
   const image = await openImage(bytes, { field: "signaturePng", what: "signature drawing", maxPixels: MAX_SIGNATURE_PIXELS }).catch((err: unknown) => {
-    if (err instanceof HttpError) throw refuse(err.code === "image_too_large" ? "signatureTooLarge" : "signatureUnreadable");
+    if (err instanceof HttpError) throw err.code === "image_too_large" ? refuse("signatureTooLarge", "image_too_large") : refuse("signatureUnreadable");
     throw err;
   });
   try {

@@ -3,6 +3,8 @@
 import { and, asc, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { deal, household, timelineEvent, type Stage } from "@/db/schema";
+import { DEFAULT_TIME_ZONE } from "@/lib/schemas/company-settings";
+import { todayInZone } from "@/lib/zoned-time";
 import type { Member } from "@/server/session";
 import { addMember, newCompany, rejects } from "../support/fixtures";
 
@@ -196,7 +198,9 @@ describe("listBoardDeals", () => {
     expect(officeView.map((d) => d.id)).toContain(theirs);
     expect(officeView.every((d) => d.ownerUserId === rep2.userId)).toBe(true);
     expect(await s.stages.listBoardDeals(office, { source: "Nowhere" })).toHaveLength(0);
-    const today = new Date().toISOString().slice(0, 10);
+    // The filter reads days on the company's clock (the default zone here), not UTC: between
+    // midnight UTC and midnight in New York the two dates differ.
+    const today = todayInZone(DEFAULT_TIME_ZONE);
     expect((await s.stages.listBoardDeals(office, { from: today, to: today })).map((d) => d.id)).toContain(theirs);
     expect(await s.stages.listBoardDeals(office, { to: "2000-01-01" })).toHaveLength(0);
     expect(await s.stages.listBoardDeals(stranger, {})).toHaveLength(0);
